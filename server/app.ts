@@ -1,0 +1,85 @@
+import 'reflect-metadata';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import type { DataSource } from 'typeorm';
+import { createAuditRepository } from './audit/repository';
+import { loginLimiters } from './auth/login-limits';
+import { authRoutes } from './auth/routes';
+import { createAuthService } from './auth/service';
+import { createSessions } from './auth/session';
+import type { Config } from './config';
+import { healthRoutes } from './health/routes';
+import { AppError } from './http/app-error';
+import { errorHandler } from './http/error-handler';
+import { mountRoutes, type RouteSpec } from './http/route-table';
+import { sameOriginOnly } from './http/same-origin';
+import type { Mailer } from './mail/mailer';
+import { createUserRepository } from './people/repository';
+import { peopleRoutes } from './people/routes';
+import { createPeopleService } from './people/service';
+
+export interface AppDependencies {
+  config: Config;
+  dataSource: DataSource;
+  mailer: Mailer;
+  /** The built client to serve; left out, the app serves the API only. */
+  clientDir?: string;
+}
+
+/** Builds the Express app; `server/index.ts` decides where it listens. */
+export function createApp({ config, dataSource, clientDir }: AppDependencies): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.TRUST_PROXY);
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // Plain http on loopback: an upgrade would break every request.
+          upgradeInsecureRequests: config.COOKIE_SECURE ? [] : null,
+          imgSrc: ["'self'", 'data:', 'blob:'],
+        },
+      },
+      hsts: config.COOKIE_SECURE,
+    }),
+  );
+
+  const audit = createAuditRepository(dataSource);
+  const users = createUserRepository(dataSource);
+  const sessions = createSessions(config, users);
+
+  const routes: RouteSpec[] = [
+    ...healthRoutes(dataSource),
+    ...authRoutes(createAuthService(users, audit), sessions, loginLimiters(config)),
+    ...peopleRoutes(createPeopleService(users, audit)),
+  ];
+  app.locals.routeTable = routes;
+
+  const api = express.Router();
+  api.use(express.json({ limit: '200kb' }));
+  api.use(cookieParser());
+  api.use(sameOriginOnly);
+  api.use((_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
+  mountRoutes(api, routes, { session: sessions.requireSession, capability: sessions.requireCapability });
+  api.use((req, _res, next) => next(AppError.notFound(`There is no API route ${req.method} ${req.baseUrl}${req.path}.`)));
+  app.use('/api', api);
+
+  if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    // The client routes in the browser: every other GET gets the app's page.
+    app.get(/^\/(?!api\/).*/, (_req, res) => {
+      res.set('Cache-Control', 'no-cache');
+      res.sendFile(path.join(clientDir, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler);
+  return app;
+}

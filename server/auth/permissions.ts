@@ -1,0 +1,19 @@
+import { capabilities, type Capability, type Role } from '../../shared/roles';
+
+/**
+ * The role table: the only place that says which role may do what. Routes name a capability;
+ * a person's capabilities are the union over their roles.
+ */
+export const roleCapabilities: Record<Role, readonly Capability[]> = {
+  clinician: ['today.view', 'protocols.read', 'protocols.approve', 'calculations.run'],
+  pharmacist: ['today.view', 'protocols.read', 'protocols.approve', 'calculations.run'],
+  nurse: ['today.view', 'protocols.read', 'calculations.run'],
+  auditor: ['today.view', 'protocols.read', 'calculations.run', 'audit.read'],
+  admin: ['today.view', 'people.manage', 'protocols.read', 'protocols.import', 'protocols.retire', 'calculations.run'],
+};
+
+export function capabilitiesOf(roles: readonly Role[]): Capability[] {
+  const held = new Set(roles.flatMap((role) => roleCapabilities[role]));
+  // Keep the declared order so the client shows navigation in a stable order.
+  return capabilities.filter((c) => held.has(c));
+}

@@ -1,0 +1,5 @@
+// Every migration, oldest first. A new one is generated (see DEVELOPERS.md) and appended here;
+// listing them as classes keeps the server, the CLI and the tests loading the same set.
+import { Initial1796161380660 } from './migrations/1796161380660-Initial';
+
+export const migrations = [Initial1796161380660];

@@ -1,0 +1,21 @@
+import type { DataSource } from 'typeorm';
+import type { RouteSpec } from '../http/route-table';
+
+export function healthRoutes(dataSource: DataSource): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/health',
+      access: 'public',
+      handler: async (_req, res) => {
+        const started = performance.now();
+        try {
+          await dataSource.query('SELECT 1');
+          res.json({ status: 'ok', database: { status: 'up', latencyMs: Math.round((performance.now() - started) * 10) / 10 } });
+        } catch {
+          res.status(503).json({ status: 'degraded', database: { status: 'down' } });
+        }
+      },
+    },
+  ];
+}

@@ -1,0 +1,43 @@
+import type { ErrorRequestHandler } from 'express';
+import { ZodError } from 'zod';
+import { AppError } from './app-error';
+import { fieldProblemsFromZod } from './validation';
+
+const databaseDownCodes = new Set(['ECONNREFUSED', 'PROTOCOL_CONNECTION_LOST', 'ETIMEDOUT', 'ECONNRESET', 'ER_CON_COUNT_ERROR']);
+
+/**
+ * The one error middleware. It answers every failure with `{ error: { code, message, fields? } }`
+ * and never leaks a stack trace or SQL to the client.
+ */
+export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
+  if (err instanceof AppError) {
+    res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } });
+    return;
+  }
+  if (err instanceof ZodError) {
+    const fields = fieldProblemsFromZod(err);
+    res.status(400).json({ error: { code: 'invalid_input', message: fields.map((f) => f.message).join('; '), fields } });
+    return;
+  }
+  // Body parser failures: unreadable JSON or a body over the size limit.
+  const status = typeof err?.status === 'number' ? err.status : typeof err?.statusCode === 'number' ? err.statusCode : 0;
+  if (err?.type === 'entity.parse.failed') {
+    res.status(400).json({ error: { code: 'invalid_json', message: 'The request body is not valid JSON.', fields: [{ path: 'body', message: 'body must be valid JSON' }] } });
+    return;
+  }
+  if (err?.type === 'entity.too.large') {
+    res.status(413).json({ error: { code: 'too_large', message: 'The request body is too large.' } });
+    return;
+  }
+  if (status >= 400 && status < 500) {
+    res.status(status).json({ error: { code: 'bad_request', message: 'The request could not be read.' } });
+    return;
+  }
+  const code = err?.code ?? err?.driverError?.code;
+  if (databaseDownCodes.has(code)) {
+    res.status(503).json({ error: { code: 'database_unavailable', message: 'The database is not answering. Nothing was saved; try again in a moment.' } });
+    return;
+  }
+  console.error('Unexpected error:', err);
+  res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server. Nothing more was saved; please try again.' } });
+};

@@ -1,0 +1,58 @@
+import 'reflect-metadata';
+import type { Server } from 'node:http';
+import { DataSource } from 'typeorm';
+import { createApp } from './app';
+import { loadConfig, type Config } from './config';
+import { dataSourceOptions } from './db/options';
+import { createSmtpMailer, type Mailer } from './mail/mailer';
+
+export interface RunningWebServer {
+  url: string;
+  server: Server;
+  dataSource: DataSource;
+  mailer: Mailer;
+  config: Config;
+}
+
+/** Connects to the database as the app user and listens. Migrations are not run here. */
+export async function startWebServer(options: { config?: Config; clientDir?: string; port?: number } = {}): Promise<RunningWebServer> {
+  const config = options.config ?? loadConfig();
+  const dataSource = new DataSource(
+    dataSourceOptions({
+      host: config.DB_HOST,
+      port: config.DB_PORT,
+      database: config.DB_NAME,
+      username: config.DB_USER,
+      password: config.DB_PASSWORD,
+    }),
+  );
+  await dataSource.initialize();
+  const mailer = createSmtpMailer(config);
+  const app = createApp({ config, dataSource, mailer, clientDir: options.clientDir });
+  const port = options.port ?? config.PORT;
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(port, config.HOST, () => resolve(s));
+    s.on('error', reject);
+  });
+  const address = server.address();
+  const actualPort = typeof address === 'object' && address ? address.port : port;
+  return { url: `http://${config.HOST}:${actualPort}`, server, dataSource, mailer, config };
+}
+
+export async function stopWebServer(running: RunningWebServer): Promise<void> {
+  await new Promise<void>((resolve) => {
+    running.server.close(() => resolve());
+    running.server.closeAllConnections();
+  });
+  running.mailer.close();
+  if (running.dataSource.isInitialized) await running.dataSource.destroy();
+}
+
+// `tsx server/index.ts` serves with settings from the environment (see README, "Configuration").
+if (import.meta.url === `file://${process.argv[1]}`) {
+  const running = await startWebServer({ clientDir: process.env.CLIENT_DIR });
+  console.log(`Luxtempo is serving on ${running.url}`);
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+    process.once(signal, () => void stopWebServer(running).then(() => process.exit(0)));
+  }
+}

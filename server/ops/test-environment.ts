@@ -1,0 +1,30 @@
+import mysql from 'mysql2/promise';
+import { loadConfig, type Config } from '../config';
+import { migrateDatabase } from '../db/migrate';
+import { localEnvironment, testDatabase } from './environment';
+import { ensureDatabaseServer, type DatabaseServer } from './mariadb';
+
+/**
+ * What every API and browser test needs: the private MariaDB, and the test database emptied and
+ * migrated afresh, so a run never depends on what an earlier run left behind.
+ */
+export async function prepareTestEnvironment(): Promise<{ config: Config; database: DatabaseServer }> {
+  const env = localEnvironment(testDatabase);
+  Object.assign(process.env, env, { NODE_ENV: 'test', DEMO_DATA: 'false' });
+  const config = loadConfig(process.env);
+  const database = await ensureDatabaseServer({
+    port: config.DB_PORT,
+    databases: [testDatabase],
+    ownerUser: config.DB_OWNER_USER,
+    ownerPassword: config.DB_OWNER_PASSWORD,
+    appUser: config.DB_USER,
+    appPassword: config.DB_PASSWORD,
+  });
+  const owner = await mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD });
+  await owner.query(`DROP DATABASE IF EXISTS \`${testDatabase}\``);
+  await owner.query(`CREATE DATABASE \`${testDatabase}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  await owner.end();
+  await migrateDatabase(config);
+  process.env.LUXTEMPO_TEST_PREPARED = '1';
+  return { config, database };
+}

@@ -1,0 +1,42 @@
+import { z } from 'zod';
+import { createPersonSchema, updatePersonSchema } from '../../shared/schemas/people';
+import { signedInUser } from '../auth/session';
+import type { RouteSpec } from '../http/route-table';
+import { parseInput } from '../http/validation';
+import type { PeopleService } from './service';
+
+const idParam = z.coerce.number({ error: 'id must be a whole number' }).int('id must be a whole number').positive('id must be 1 or more');
+
+export function peopleRoutes(people: PeopleService): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/people',
+      access: 'people.manage',
+      handler: async (_req, res) => {
+        res.json({ people: await people.list() });
+      },
+    },
+    {
+      method: 'post',
+      path: '/people',
+      access: 'people.manage',
+      handler: async (req, res) => {
+        const input = parseInput(createPersonSchema, req.body);
+        const person = await people.create({ id: signedInUser(res).id, ipAddress: req.ip }, input);
+        res.status(201).json({ person });
+      },
+    },
+    {
+      method: 'patch',
+      path: '/people/:id',
+      access: 'people.manage',
+      handler: async (req, res) => {
+        const id = parseInput(idParam, req.params.id, 'id');
+        const changes = parseInput(updatePersonSchema, req.body);
+        const person = await people.update({ id: signedInUser(res).id, ipAddress: req.ip }, id, changes);
+        res.json({ person });
+      },
+    },
+  ];
+}

@@ -1,0 +1,66 @@
+import 'reflect-metadata';
+import { randomUUID } from 'node:crypto';
+import bcrypt from 'bcryptjs';
+import type { Express } from 'express';
+import supertest from 'supertest';
+import { DataSource } from 'typeorm';
+import type { Role } from '../../shared/roles';
+import { createApp } from '../../server/app';
+import { loadConfig, type Config } from '../../server/config';
+import { dataSourceOptions } from '../../server/db/options';
+import type { Mailer, OutgoingMessage } from '../../server/mail/mailer';
+import { createUserRepository } from '../../server/people/repository';
+
+export interface TestContext {
+  app: Express;
+  config: Config;
+  dataSource: DataSource;
+  sentMail: OutgoingMessage[];
+  close(): Promise<void>;
+}
+
+export function testConfig(overrides: Record<string, string> = {}): Config {
+  return loadConfig({ ...process.env, ...overrides });
+}
+
+export function appUserDataSource(config: Config): DataSource {
+  return new DataSource(
+    dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_USER, password: config.DB_PASSWORD }),
+  );
+}
+
+/** A fresh app on the test database, connected as the app's own (restricted) database user. */
+export async function startTestApp(overrides: Record<string, string> = {}): Promise<TestContext> {
+  const config = testConfig(overrides);
+  const dataSource = appUserDataSource(config);
+  await dataSource.initialize();
+  const sentMail: OutgoingMessage[] = [];
+  const mailer: Mailer = { send: async (m) => void sentMail.push(m), close: () => undefined };
+  const app = createApp({ config, dataSource, mailer });
+  return { app, config, dataSource, sentMail, close: () => dataSource.destroy() };
+}
+
+export interface TestPerson {
+  id: number;
+  email: string;
+  password: string;
+  roles: Role[];
+}
+
+/** Each test makes its own people, with unique e-mails, so tests never depend on each other. */
+export async function createTestPerson(ctx: TestContext, roles: Role[], options: { active?: boolean } = {}): Promise<TestPerson> {
+  const email = `${roles.join('-')}-${randomUUID().slice(0, 8)}@test.luxtempo.example`;
+  const password = `pw-${randomUUID()}`;
+  const users = createUserRepository(ctx.dataSource);
+  const user = await users.create({ email, displayName: `Test ${roles.join(' & ')}`, roles, passwordHash: await bcrypt.hash(password, 10) });
+  if (options.active === false) await users.update(user.id, { active: false });
+  return { id: user.id, email, password, roles };
+}
+
+/** A supertest agent that keeps cookies, already signed in as the person. */
+export async function signedInAgent(ctx: TestContext, person: TestPerson) {
+  const agent = supertest.agent(ctx.app);
+  const res = await agent.post('/api/auth/login').send({ email: person.email, password: person.password });
+  if (res.status !== 200) throw new Error(`sign-in for the test failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return agent;
+}
