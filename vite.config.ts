@@ -11,7 +11,11 @@ export default defineConfig({
   test: {
     // Slow or stateful projects run one file at a time so they share one database cleanly.
     projects: [
-      { extends: true, test: { name: 'engine', include: ['tests/shared/**/*.test.ts'], environment: 'node' } },
+      {
+        extends: true,
+        // Pure code: sharing one module graph saves re-importing mathjs for every file.
+        test: { name: 'engine', include: ['tests/shared/**/*.test.ts'], environment: 'node', isolate: false },
+      },
       {
         extends: true,
         test: {

@@ -10,6 +10,7 @@ import { loginLimiters } from './auth/login-limits';
 import { authRoutes } from './auth/routes';
 import { createAuthService } from './auth/service';
 import { createSessions } from './auth/session';
+import { calculationRoutes } from './calculations/routes';
 import type { Config } from './config';
 import { healthRoutes } from './health/routes';
 import { AppError } from './http/app-error';
@@ -20,6 +21,9 @@ import type { Mailer } from './mail/mailer';
 import { createUserRepository } from './people/repository';
 import { peopleRoutes } from './people/routes';
 import { createPeopleService } from './people/service';
+import { createProtocolRepository } from './protocols/repository';
+import { protocolRoutes } from './protocols/routes';
+import { createProtocolService } from './protocols/service';
 
 export interface AppDependencies {
   config: Config;
@@ -51,11 +55,14 @@ export function createApp({ config, dataSource, clientDir }: AppDependencies): E
   const audit = createAuditRepository(dataSource);
   const users = createUserRepository(dataSource);
   const sessions = createSessions(config, users);
+  const protocols = createProtocolService(createProtocolRepository(dataSource), audit);
 
   const routes: RouteSpec[] = [
     ...healthRoutes(dataSource),
     ...authRoutes(createAuthService(users, audit), sessions, loginLimiters(config)),
     ...peopleRoutes(createPeopleService(users, audit)),
+    ...protocolRoutes(protocols),
+    ...calculationRoutes(protocols),
   ];
   app.locals.routeTable = routes;
 

@@ -1,10 +1,11 @@
 import 'reflect-metadata';
 import type { Server } from 'node:http';
-import { DataSource } from 'typeorm';
+import type { DataSource } from 'typeorm';
 import { createApp } from './app';
 import { loadConfig, type Config } from './config';
-import { dataSourceOptions } from './db/options';
+import { appDataSource } from './db/options';
 import { createSmtpMailer, type Mailer } from './mail/mailer';
+import { loadShippedProtocols } from './protocols/load-shipped';
 
 export interface RunningWebServer {
   url: string;
@@ -14,19 +15,21 @@ export interface RunningWebServer {
   config: Config;
 }
 
-/** Connects to the database as the app user and listens. Migrations are not run here. */
+/**
+ * Connects to the database as the app user, loads the shipped protocol files (refusing to start
+ * if one differs from its stored version) and listens. Migrations are not run here.
+ */
 export async function startWebServer(options: { config?: Config; clientDir?: string; port?: number } = {}): Promise<RunningWebServer> {
   const config = options.config ?? loadConfig();
-  const dataSource = new DataSource(
-    dataSourceOptions({
-      host: config.DB_HOST,
-      port: config.DB_PORT,
-      database: config.DB_NAME,
-      username: config.DB_USER,
-      password: config.DB_PASSWORD,
-    }),
-  );
+  const dataSource = appDataSource(config);
   await dataSource.initialize();
+  try {
+    const { added } = await loadShippedProtocols(dataSource);
+    if (added.length) console.log(`• Protocol versions loaded: ${added.join(', ')}`);
+  } catch (error) {
+    await dataSource.destroy();
+    throw error;
+  }
   const mailer = createSmtpMailer(config);
   const app = createApp({ config, dataSource, mailer, clientDir: options.clientDir });
   const port = options.port ?? config.PORT;

@@ -1,5 +1,6 @@
 // Every migration, oldest first. A new one is generated (see DEVELOPERS.md) and appended here;
 // listing them as classes keeps the server, the CLI and the tests loading the same set.
 import { Initial1796161380660 } from './migrations/1796161380660-Initial';
+import { ProtocolVersions1796161598177 } from './migrations/1796161598177-ProtocolVersions';
 
-export const migrations = [Initial1796161380660];
+export const migrations = [Initial1796161380660, ProtocolVersions1796161598177];

@@ -1,9 +1,12 @@
-import type { DataSourceOptions } from 'typeorm';
+import { DataSource, type DataSourceOptions } from 'typeorm';
+import type { Config } from '../config';
 import { AuditEvent } from './entities/audit-event';
+import { ProtocolApproval } from './entities/protocol-approval';
+import { ProtocolVersion } from './entities/protocol-version';
 import { User } from './entities/user';
 import { migrations } from './migration-list';
 
-export const entities = [User, AuditEvent];
+export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval];
 
 export interface DatabaseConnection {
   host: string;
@@ -26,4 +29,18 @@ export function dataSourceOptions(connection: DatabaseConnection): DataSourceOpt
     extra: { connectionLimit: 20 },
     logging: ['error'],
   };
+}
+
+/** The running app's connection: the app user, with table rights only. */
+export function appDataSource(config: Config): DataSource {
+  return new DataSource(
+    dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_USER, password: config.DB_PASSWORD }),
+  );
+}
+
+/** The schema owner's connection, for migrations. */
+export function ownerDataSource(config: Config): DataSource {
+  return new DataSource(
+    dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD }),
+  );
 }

@@ -29,6 +29,13 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
     res.status(413).json({ error: { code: 'too_large', message: 'The request body is too large.' } });
     return;
   }
+  if (err?.name === 'MulterError') {
+    const tooLarge = err.code === 'LIMIT_FILE_SIZE';
+    res.status(tooLarge ? 413 : 400).json({
+      error: { code: tooLarge ? 'too_large' : 'invalid_upload', message: tooLarge ? 'The file is larger than allowed.' : 'The upload could not be read.', fields: [{ path: err.field ?? 'file', message: String(err.message) }] },
+    });
+    return;
+  }
   if (status >= 400 && status < 500) {
     res.status(status).json({ error: { code: 'bad_request', message: 'The request could not be read.' } });
     return;

@@ -1,7 +1,6 @@
-import { DataSource } from 'typeorm';
 import { loadConfig } from '../config';
 import { migrateDatabase } from '../db/migrate';
-import { dataSourceOptions } from '../db/options';
+import { appDataSource } from '../db/options';
 import { demoPassword, demoPeople, seedDemoData } from '../demo/seed';
 import { startWebServer, stopWebServer } from '../index';
 import { buildClient } from './build-client';
@@ -26,9 +25,7 @@ const ran = await migrateDatabase(config);
 console.log(ran.length ? `• Migrations run: ${ran.join(', ')}` : '• Database schema is up to date');
 
 if (config.DEMO_DATA) {
-  const seedSource = new DataSource(
-    dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_USER, password: config.DB_PASSWORD }),
-  );
+  const seedSource = appDataSource(config);
   await seedSource.initialize();
   const { created } = await seedDemoData(seedSource);
   await seedSource.destroy();

@@ -1,6 +1,8 @@
 import mysql from 'mysql2/promise';
 import { loadConfig, type Config } from '../config';
 import { migrateDatabase } from '../db/migrate';
+import { appDataSource } from '../db/options';
+import { loadShippedProtocols } from '../protocols/load-shipped';
 import { localEnvironment, testDatabase } from './environment';
 import { ensureDatabaseServer, type DatabaseServer } from './mariadb';
 
@@ -25,6 +27,9 @@ export async function prepareTestEnvironment(): Promise<{ config: Config; databa
   await owner.query(`CREATE DATABASE \`${testDatabase}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
   await owner.end();
   await migrateDatabase(config);
+  const app = appDataSource(config);
+  await app.initialize();
+  await loadShippedProtocols(app).finally(() => app.destroy());
   process.env.LUXTEMPO_TEST_PREPARED = '1';
   return { config, database };
 }

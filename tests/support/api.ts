@@ -3,11 +3,11 @@ import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { Express } from 'express';
 import supertest from 'supertest';
-import { DataSource } from 'typeorm';
+import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/roles';
 import { createApp } from '../../server/app';
 import { loadConfig, type Config } from '../../server/config';
-import { dataSourceOptions } from '../../server/db/options';
+import { appDataSource } from '../../server/db/options';
 import type { Mailer, OutgoingMessage } from '../../server/mail/mailer';
 import { createUserRepository } from '../../server/people/repository';
 
@@ -23,16 +23,10 @@ export function testConfig(overrides: Record<string, string> = {}): Config {
   return loadConfig({ ...process.env, ...overrides });
 }
 
-export function appUserDataSource(config: Config): DataSource {
-  return new DataSource(
-    dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_USER, password: config.DB_PASSWORD }),
-  );
-}
-
 /** A fresh app on the test database, connected as the app's own (restricted) database user. */
 export async function startTestApp(overrides: Record<string, string> = {}): Promise<TestContext> {
   const config = testConfig(overrides);
-  const dataSource = appUserDataSource(config);
+  const dataSource = appDataSource(config);
   await dataSource.initialize();
   const sentMail: OutgoingMessage[] = [];
   const mailer: Mailer = { send: async (m) => void sentMail.push(m), close: () => undefined };

@@ -1,0 +1,432 @@
+import { z } from 'zod';
+import { bsaFormulaNames, bsaFormulas } from '../engine/bsa';
+
+/** Two figures that should agree (e.g. irradiance × exposure and the target fluence) may differ by this much. */
+export const protocolAgreementPct = 1;
+
+const kebabCase = /^[a-z0-9]+(?:-[a-z0-9]+)*$/;
+
+function kebabId(field: string) {
+  return z
+    .string({ error: `${field} is required` })
+    .regex(kebabCase, `${field} must be kebab-case (lower-case letters, digits, single hyphens)`)
+    .max(64, `${field} must be at most 64 characters`);
+}
+
+function text(field: string) {
+  return z.string({ error: `${field} is required` }).trim().min(1, `${field} must not be empty`);
+}
+
+function positive(field: string, unitText: string) {
+  const message = `${field} must be a number greater than 0 ${unitText}`.trimEnd();
+  return z.number({ error: message }).positive(message);
+}
+
+function nonNegative(field: string, unitText: string) {
+  const message = `${field} must be a number of at least 0 ${unitText}`.trimEnd();
+  return z.number({ error: message }).min(0, message);
+}
+
+function wholePositive(field: string, unitText: string) {
+  const message = `${field} must be a whole number greater than 0 ${unitText}`.trimEnd();
+  return z.number({ error: message }).int(message).positive(message);
+}
+
+const rangeSchema = z
+  .strictObject({ min: z.number({ error: 'min must be a number' }), max: z.number({ error: 'max must be a number' }) })
+  .refine((range) => range.min <= range.max, 'min must not exceed max');
+
+/** Soft limits warn and need a reason; hard limits refuse. Soft must sit inside hard. */
+const inputLimitSchema = z
+  .strictObject({ soft: rangeSchema, hard: rangeSchema })
+  .refine((limit) => limit.hard.min > 0, { message: 'hard.min must be greater than 0', path: ['hard', 'min'] })
+  .refine((limit) => limit.soft.min >= limit.hard.min && limit.soft.max <= limit.hard.max, {
+    message: 'the soft range must lie inside the hard range',
+    path: ['soft'],
+  });
+export type InputLimit = z.infer<typeof inputLimitSchema>;
+
+export const protocolKinds = ['pdt', 'cxl'] as const;
+export type ProtocolKind = (typeof protocolKinds)[number];
+
+export const stepKinds = [
+  'check',
+  'infusion',
+  'wait',
+  'light',
+  'preparation',
+  'soak',
+  'thickness',
+  'swelling',
+  'uv',
+  'aftercare',
+] as const;
+export type StepKind = (typeof stepKinds)[number];
+
+const stepKindsByProtocolKind: Record<ProtocolKind, readonly StepKind[]> = {
+  pdt: ['check', 'infusion', 'wait', 'light', 'aftercare'],
+  cxl: ['check', 'preparation', 'soak', 'thickness', 'swelling', 'wait', 'uv', 'aftercare'],
+};
+
+export const sourceStatuses = ['published', 'memory', 'practice'] as const;
+
+const sourceSchema = z.strictObject({
+  id: kebabId('sources[].id'),
+  citation: text('sources[].citation'),
+  /** What this source stands behind in this file. */
+  supports: text('sources[].supports'),
+  /** published: read in the publication; memory: recalled, unchecked; practice: common practice, no single source. */
+  status: z.enum(sourceStatuses, { error: `sources[].status must be one of ${sourceStatuses.join(', ')}` }),
+});
+
+const approvalSchema = z.strictObject({
+  approvedBy: z
+    .array(text('approval.approvedBy[]'))
+    .min(2, 'approval.approvedBy must name at least two people (two-person approval)')
+    .refine((names) => new Set(names).size === names.length, 'approval.approvedBy must name different people'),
+  approvedOn: z.iso.date({ error: 'approval.approvedOn must be an ISO date (YYYY-MM-DD)' }),
+  note: text('approval.note'),
+});
+
+const drugSchema = z.strictObject({
+  name: z.literal('verteporfin', { error: 'drug.name must be verteporfin' }),
+  route: z.literal('intravenous', { error: 'drug.route must be intravenous' }),
+  doseMgPerM2: positive('drug.doseMgPerM2', 'mg/m²'),
+  concentrationMgPerMl: positive('drug.concentrationMgPerMl', 'mg/mL'),
+  vialContentMg: positive('drug.vialContentMg', 'mg'),
+  /** Fluid added to one vial. */
+  reconstitutionVolumeMl: positive('drug.reconstitutionVolumeMl', 'mL'),
+  reconstitutionFluid: text('drug.reconstitutionFluid'),
+  /** Volume in the vial after reconstitution (the powder adds volume). */
+  reconstitutedVolumeMl: positive('drug.reconstitutedVolumeMl', 'mL'),
+  finalVolumeMl: positive('drug.finalVolumeMl', 'mL'),
+  diluent: text('drug.diluent'),
+  infusionMin: positive('drug.infusionMin', 'min'),
+  beyondUseH: positive('drug.beyondUseH', 'h'),
+  lightPrecautionH: positive('drug.lightPrecautionH', 'h'),
+  lightPrecautionSource: text('drug.lightPrecautionSource'),
+});
+export type ProtocolDrug = z.infer<typeof drugSchema>;
+
+const pulseSchema = z.strictObject({
+  onS: positive('light.pulse.onS', 's'),
+  offS: positive('light.pulse.offS', 's'),
+});
+
+const lightSchema = z.strictObject({
+  wavelengthNm: positive('light.wavelengthNm', 'nm'),
+  irradianceMwPerCm2: positive('light.irradianceMwPerCm2', 'mW/cm²'),
+  targetFluenceJPerCm2: positive('light.targetFluenceJPerCm2', 'J/cm²'),
+  /** Time the light is on; for a pulsed cycle the sum of the on-periods. */
+  exposureS: positive('light.exposureS', 's'),
+  spotMarginUm: nonNegative('light.spotMarginUm', 'µm').nullable(),
+  maxSpotUm: positive('light.maxSpotUm', 'µm').nullable(),
+  pulse: pulseSchema.nullable(),
+});
+
+const timingSchema = z.strictObject({
+  lightStartAfterInfusionStartMin: positive('timing.lightStartAfterInfusionStartMin', 'min'),
+});
+
+const cxlSchema = z.strictObject({
+  epitheliumOff: z.boolean({ error: 'cxl.epitheliumOff must be true or false' }),
+  soakMin: positive('cxl.soakMin', 'min'),
+  dropIntervalSoakMin: positive('cxl.dropIntervalSoakMin', 'min'),
+  dropIntervalUvMin: positive('cxl.dropIntervalUvMin', 'min'),
+  minStromalThicknessUm: positive('cxl.minStromalThicknessUm', 'µm'),
+  swellingAllowed: z.boolean({ error: 'cxl.swellingAllowed must be true or false' }),
+  swellingDropIntervalS: positive('cxl.swellingDropIntervalS', 's').nullable(),
+  riboflavin: text('cxl.riboflavin'),
+  swellingRiboflavin: text('cxl.swellingRiboflavin').nullable(),
+});
+
+const roundingSchema = z.strictObject({
+  bsaM2: positive('rounding.bsaM2', 'm²'),
+  doseMg: positive('rounding.doseMg', 'mg'),
+  volumesMl: positive('rounding.volumesMl', 'mL'),
+  rateMlPerMin: positive('rounding.rateMlPerMin', 'mL/min'),
+  spotUm: positive('rounding.spotUm', 'µm'),
+  spotAreaCm2: positive('rounding.spotAreaCm2', 'cm²'),
+  powerMw: positive('rounding.powerMw', 'mW'),
+  fluenceJPerCm2: positive('rounding.fluenceJPerCm2', 'J/cm²'),
+  energyJ: positive('rounding.energyJ', 'J'),
+  timeS: positive('rounding.timeS', 's'),
+  endothelialIrradianceMwPerCm2: positive('rounding.endothelialIrradianceMwPerCm2', 'mW/cm²'),
+  endothelialDoseJPerCm2: positive('rounding.endothelialDoseJPerCm2', 'J/cm²'),
+});
+
+const inputLimitsSchema = z.strictObject({
+  heightCm: inputLimitSchema,
+  weightKg: inputLimitSchema,
+  lesionGldUm: inputLimitSchema.nullable(),
+  lensMagnification: inputLimitSchema.nullable(),
+  stromalThicknessUm: inputLimitSchema.nullable(),
+});
+
+/** Deviation thresholds. Each is site policy, so it lives here and never in code. */
+const tolerancesSchema = z.strictObject({
+  /** ± seconds of light (or UV on-time) against the plan. */
+  exposureS: nonNegative('tolerances.exposureS', 's'),
+  /** ± percent of delivered fluence against the target. */
+  fluencePct: nonNegative('tolerances.fluencePct', '%'),
+  infusionDurationMin: nonNegative('tolerances.infusionDurationMin', 'min').nullable(),
+  lightStartMin: nonNegative('tolerances.lightStartMin', 'min').nullable(),
+  /** ± percent of drug volume prepared against the plan. */
+  drugVolumePct: nonNegative('tolerances.drugVolumePct', '%').nullable(),
+  reconstitutionToInfusionMaxH: positive('tolerances.reconstitutionToInfusionMaxH', 'h').nullable(),
+  /** How far the pharmacist's independent figures may differ from the plan, in percent. */
+  doseCheck: z
+    .strictObject({
+      bsaPct: nonNegative('tolerances.doseCheck.bsaPct', '%'),
+      dosePct: nonNegative('tolerances.doseCheck.dosePct', '%'),
+      drugVolumePct: nonNegative('tolerances.doseCheck.drugVolumePct', '%'),
+    })
+    .nullable(),
+  /** Minutes a soak may fall short of cxl.soakMin before it is a deviation (0: none). */
+  soakShortfallMin: nonNegative('tolerances.soakShortfallMin', 'min').nullable(),
+  /** A gap between drops longer than the interval plus this percent is a deviation. */
+  dropGapPct: nonNegative('tolerances.dropGapPct', '%').nullable(),
+});
+
+const stepSchema = z.strictObject({
+  id: kebabId('steps[].id'),
+  kind: z.enum(stepKinds, { error: `steps[].kind must be one of ${stepKinds.join(', ')}` }),
+  title: text('steps[].title'),
+  /** Null for a step that ends when the nurse says so (a check, a measurement). */
+  durationS: positive('steps[].durationS', 's').nullable(),
+  /** The step clock cues (e.g. a drop) at this interval. */
+  cueEveryS: positive('steps[].cueEveryS', 's').optional(),
+  /** A step run only in a condition, e.g. swelling when the cornea is too thin. */
+  onlyIf: z.enum(['thickness-below-minimum'], { error: 'steps[].onlyIf must be thickness-below-minimum' }).optional(),
+});
+export type ProtocolStep = z.infer<typeof stepSchema>;
+
+const contraindicationSchema = z.strictObject({
+  id: kebabId('contraindications[].id'),
+  question: text('contraindications[].question'),
+  /** absolute: a yes stops the order; caution: a yes needs a clinician's note. */
+  severity: z.enum(['absolute', 'caution'], { error: 'contraindications[].severity must be absolute or caution' }),
+  source: text('contraindications[].source'),
+});
+
+const protocolVersionObject = z.strictObject({
+  key: kebabId('key'),
+  version: wholePositive('version', ''),
+  title: text('title'),
+  kind: z.enum(protocolKinds, { error: `kind must be one of ${protocolKinds.join(', ')}` }),
+  summary: text('summary'),
+  /** Shipped files record their (demo) approvers; an imported or cloned draft has null and is approved in Luxtempo by two people. */
+  approval: approvalSchema.nullable(),
+  drug: drugSchema.nullable(),
+  light: lightSchema,
+  timing: timingSchema.nullable(),
+  cxl: cxlSchema.nullable(),
+  rounding: roundingSchema,
+  bsaFormulaDefault: z.enum(bsaFormulaNames, { error: `bsaFormulaDefault must be one of ${bsaFormulaNames.join(', ')}` }),
+  inputLimits: inputLimitsSchema,
+  tolerances: tolerancesSchema,
+  retreatmentMinDays: wholePositive('retreatmentMinDays', 'days').nullable(),
+  steps: z.array(stepSchema).min(1, 'steps must hold at least one step'),
+  contraindications: z.array(contraindicationSchema),
+  cautions: z.array(text('cautions[]')).min(1, 'cautions must hold at least one caution'),
+  sources: z.array(sourceSchema).min(1, 'sources must name at least one source'),
+});
+type ProtocolShape = z.infer<typeof protocolVersionObject>;
+type Issue = { message: string; path: (string | number)[] };
+
+function agreePct(a: number, b: number, pct: number): boolean {
+  return Math.abs(a - b) <= (Math.abs(b) * pct) / 100;
+}
+
+function duplicates(values: string[]): string[] {
+  return [...new Set(values.filter((value, index) => values.indexOf(value) !== index))];
+}
+
+/** UV on-time stretched by a pulsed cycle: on-time × (on + off) ÷ on. */
+export function pulsedElapsedS(onTimeS: number, pulse: { onS: number; offS: number } | null): number {
+  return pulse === null ? onTimeS : (onTimeS * (pulse.onS + pulse.offS)) / pulse.onS;
+}
+
+function checkCommon(p: ProtocolShape, issues: Issue[]): void {
+  const fluenceFromTime = (p.light.irradianceMwPerCm2 * p.light.exposureS) / 1000;
+  if (!agreePct(fluenceFromTime, p.light.targetFluenceJPerCm2, protocolAgreementPct)) {
+    issues.push({
+      path: ['light', 'exposureS'],
+      message: `light.irradianceMwPerCm2 × light.exposureS gives ${fluenceFromTime} J/cm², more than ${protocolAgreementPct}% from light.targetFluenceJPerCm2 (${p.light.targetFluenceJPerCm2} J/cm²)`,
+    });
+  }
+  for (const [field, values] of [
+    ['steps', p.steps.map((step) => step.id)],
+    ['sources', p.sources.map((source) => source.id)],
+    ['contraindications', p.contraindications.map((item) => item.id)],
+  ] as const) {
+    for (const id of duplicates(values)) issues.push({ path: [field], message: `${field} ids must be unique (${id} repeats)` });
+  }
+  const allowedKinds = stepKindsByProtocolKind[p.kind];
+  p.steps.forEach((step, index) => {
+    if (!allowedKinds.includes(step.kind)) {
+      issues.push({ path: ['steps', index, 'kind'], message: `a ${p.kind} protocol cannot have a ${step.kind} step (allowed: ${allowedKinds.join(', ')})` });
+    }
+  });
+}
+
+/** Fields that must be present for one kind and absent for the other. */
+function checkKindFields(p: ProtocolShape, issues: Issue[]): void {
+  const isPdt = p.kind === 'pdt';
+  const presence: [path: (string | number)[], present: boolean][] = [
+    [['drug'], p.drug !== null],
+    [['timing'], p.timing !== null],
+    [['light', 'spotMarginUm'], p.light.spotMarginUm !== null],
+    [['light', 'maxSpotUm'], p.light.maxSpotUm !== null],
+    [['inputLimits', 'lesionGldUm'], p.inputLimits.lesionGldUm !== null],
+    [['inputLimits', 'lensMagnification'], p.inputLimits.lensMagnification !== null],
+    [['tolerances', 'infusionDurationMin'], p.tolerances.infusionDurationMin !== null],
+    [['tolerances', 'lightStartMin'], p.tolerances.lightStartMin !== null],
+    [['tolerances', 'drugVolumePct'], p.tolerances.drugVolumePct !== null],
+    [['tolerances', 'reconstitutionToInfusionMaxH'], p.tolerances.reconstitutionToInfusionMaxH !== null],
+    [['tolerances', 'doseCheck'], p.tolerances.doseCheck !== null],
+  ];
+  const cxlPresence: [path: (string | number)[], present: boolean][] = [
+    [['cxl'], p.cxl !== null],
+    [['inputLimits', 'stromalThicknessUm'], p.inputLimits.stromalThicknessUm !== null],
+    [['tolerances', 'soakShortfallMin'], p.tolerances.soakShortfallMin !== null],
+    [['tolerances', 'dropGapPct'], p.tolerances.dropGapPct !== null],
+  ];
+  for (const [path, present] of presence) {
+    if (isPdt && !present) issues.push({ path, message: `${path.join('.')} is required for a pdt protocol` });
+    if (!isPdt && present) issues.push({ path, message: `${path.join('.')} must be null for a cxl protocol` });
+  }
+  for (const [path, present] of cxlPresence) {
+    if (!isPdt && !present) issues.push({ path, message: `${path.join('.')} is required for a cxl protocol` });
+    if (isPdt && present) issues.push({ path, message: `${path.join('.')} must be null for a pdt protocol` });
+  }
+  if (isPdt && p.light.pulse !== null) issues.push({ path: ['light', 'pulse'], message: 'light.pulse must be null for a pdt protocol' });
+}
+
+function stepIndex(p: ProtocolShape, kind: StepKind): number {
+  return p.steps.findIndex((step) => step.kind === kind);
+}
+
+function checkPdt(p: ProtocolShape, issues: Issue[]): void {
+  const { drug, timing } = p;
+  const { spotMarginUm, maxSpotUm } = p.light;
+  if (drug === null || timing === null || spotMarginUm === null || maxSpotUm === null) return;
+
+  const concentrationFromVial = drug.vialContentMg / drug.reconstitutedVolumeMl;
+  if (!agreePct(concentrationFromVial, drug.concentrationMgPerMl, protocolAgreementPct)) {
+    issues.push({
+      path: ['drug', 'concentrationMgPerMl'],
+      message: `drug.vialContentMg ÷ drug.reconstitutedVolumeMl gives ${concentrationFromVial} mg/mL, more than ${protocolAgreementPct}% from drug.concentrationMgPerMl (${drug.concentrationMgPerMl} mg/mL)`,
+    });
+  }
+  if (drug.reconstitutionVolumeMl > drug.reconstitutedVolumeMl) {
+    issues.push({ path: ['drug', 'reconstitutionVolumeMl'], message: 'drug.reconstitutionVolumeMl cannot exceed drug.reconstitutedVolumeMl' });
+  }
+  // The largest patient the hard limits admit must still fit the final volume, so that a valid
+  // input can never produce a negative diluent volume.
+  const { heightCm, weightKg } = p.inputLimits;
+  const largestBsaM2 = Math.max(...bsaFormulaNames.map((name) => bsaFormulas[name].bsaM2(heightCm.hard.max, weightKg.hard.max)));
+  const largestDrugVolumeMl = (drug.doseMgPerM2 * largestBsaM2) / drug.concentrationMgPerMl;
+  if (largestDrugVolumeMl > drug.finalVolumeMl) {
+    issues.push({
+      path: ['drug', 'finalVolumeMl'],
+      message: `drug.finalVolumeMl (${drug.finalVolumeMl} mL) is smaller than the drug volume for the largest patient the hard limits admit (${largestDrugVolumeMl.toFixed(1)} mL)`,
+    });
+  }
+  if (timing.lightStartAfterInfusionStartMin < drug.infusionMin) {
+    issues.push({ path: ['timing', 'lightStartAfterInfusionStartMin'], message: 'timing.lightStartAfterInfusionStartMin cannot be earlier than the end of the infusion (drug.infusionMin)' });
+  }
+  const maxReconstitutionH = p.tolerances.reconstitutionToInfusionMaxH;
+  if (maxReconstitutionH !== null && maxReconstitutionH > drug.beyondUseH) {
+    issues.push({ path: ['tolerances', 'reconstitutionToInfusionMaxH'], message: 'tolerances.reconstitutionToInfusionMaxH cannot exceed drug.beyondUseH' });
+  }
+  const gld = p.inputLimits.lesionGldUm;
+  if (gld !== null && gld.hard.max + spotMarginUm > maxSpotUm) {
+    issues.push({
+      path: ['inputLimits', 'lesionGldUm', 'hard', 'max'],
+      message: `inputLimits.lesionGldUm.hard.max + light.spotMarginUm (${gld.hard.max + spotMarginUm} µm) exceeds light.maxSpotUm (${maxSpotUm} µm)`,
+    });
+  }
+
+  const infusion = stepIndex(p, 'infusion');
+  const light = stepIndex(p, 'light');
+  if (infusion < 0 || light < 0 || light < infusion) {
+    issues.push({ path: ['steps'], message: 'a pdt protocol needs an infusion step followed later by a light step' });
+    return;
+  }
+  const infusionStep = p.steps[infusion];
+  if (infusionStep && infusionStep.durationS !== drug.infusionMin * 60) {
+    issues.push({ path: ['steps', infusion, 'durationS'], message: `the infusion step must last drug.infusionMin × 60 = ${drug.infusionMin * 60} s` });
+  }
+  const lightStep = p.steps[light];
+  if (lightStep && lightStep.durationS !== p.light.exposureS) {
+    issues.push({ path: ['steps', light, 'durationS'], message: `the light step must last light.exposureS = ${p.light.exposureS} s` });
+  }
+  const beforeLightS = p.steps.slice(infusion, light).reduce((sum, step) => sum + (step.durationS ?? Number.NaN), 0);
+  if (beforeLightS !== timing.lightStartAfterInfusionStartMin * 60) {
+    issues.push({
+      path: ['steps'],
+      message: `the timed steps from the infusion to the light must add up to timing.lightStartAfterInfusionStartMin × 60 = ${timing.lightStartAfterInfusionStartMin * 60} s (they give ${beforeLightS} s)`,
+    });
+  }
+}
+
+function checkCxl(p: ProtocolShape, issues: Issue[]): void {
+  const { cxl } = p;
+  if (cxl === null) return;
+  if (cxl.swellingAllowed !== (cxl.swellingDropIntervalS !== null) || cxl.swellingAllowed !== (cxl.swellingRiboflavin !== null)) {
+    issues.push({ path: ['cxl', 'swellingDropIntervalS'], message: 'cxl.swellingDropIntervalS and cxl.swellingRiboflavin are required when cxl.swellingAllowed is true, and must be null otherwise' });
+  }
+  const thicknessLimit = p.inputLimits.stromalThicknessUm;
+  if (thicknessLimit !== null && (cxl.minStromalThicknessUm < thicknessLimit.hard.min || cxl.minStromalThicknessUm > thicknessLimit.hard.max)) {
+    issues.push({ path: ['cxl', 'minStromalThicknessUm'], message: 'cxl.minStromalThicknessUm must lie inside inputLimits.stromalThicknessUm.hard' });
+  }
+  const shortfall = p.tolerances.soakShortfallMin;
+  if (shortfall !== null && shortfall >= cxl.soakMin) {
+    issues.push({ path: ['tolerances', 'soakShortfallMin'], message: 'tolerances.soakShortfallMin must be less than cxl.soakMin' });
+  }
+
+  const soak = stepIndex(p, 'soak');
+  const thickness = stepIndex(p, 'thickness');
+  const uv = stepIndex(p, 'uv');
+  if (soak < 0 || thickness < 0 || uv < 0 || !(soak < thickness && thickness < uv)) {
+    issues.push({ path: ['steps'], message: 'a cxl protocol needs a soak step, then a thickness step, then a uv step' });
+    return;
+  }
+  const soakStep = p.steps[soak];
+  if (soakStep && (soakStep.durationS !== cxl.soakMin * 60 || soakStep.cueEveryS !== cxl.dropIntervalSoakMin * 60)) {
+    issues.push({ path: ['steps', soak], message: `the soak step must last cxl.soakMin × 60 = ${cxl.soakMin * 60} s with a cue every cxl.dropIntervalSoakMin × 60 = ${cxl.dropIntervalSoakMin * 60} s` });
+  }
+  const uvStep = p.steps[uv];
+  const uvElapsedS = pulsedElapsedS(p.light.exposureS, p.light.pulse);
+  if (uvStep && (uvStep.durationS !== uvElapsedS || uvStep.cueEveryS !== cxl.dropIntervalUvMin * 60)) {
+    issues.push({ path: ['steps', uv], message: `the uv step must last the elapsed UV time ${uvElapsedS} s with a cue every cxl.dropIntervalUvMin × 60 = ${cxl.dropIntervalUvMin * 60} s` });
+  }
+  const swelling = stepIndex(p, 'swelling');
+  const swellingStep = p.steps[swelling];
+  if (cxl.swellingAllowed) {
+    if (!swellingStep || swelling < thickness || swelling > uv) {
+      issues.push({ path: ['steps'], message: 'cxl.swellingAllowed needs a swelling step between the thickness step and the uv step' });
+    } else if (swellingStep.onlyIf !== 'thickness-below-minimum' || swellingStep.cueEveryS !== cxl.swellingDropIntervalS) {
+      issues.push({ path: ['steps', swelling], message: 'the swelling step must run only if the thickness is below the minimum, with a cue every cxl.swellingDropIntervalS' });
+    }
+  } else if (swellingStep) {
+    issues.push({ path: ['steps', swelling], message: 'a swelling step needs cxl.swellingAllowed to be true' });
+  }
+}
+
+/** One protocol version as shipped in protocols/<key>.v<version>.json. */
+export const protocolVersionSchema = protocolVersionObject.superRefine((protocol, ctx) => {
+  const issues: Issue[] = [];
+  checkCommon(protocol, issues);
+  checkKindFields(protocol, issues);
+  if (protocol.kind === 'pdt') checkPdt(protocol, issues);
+  else checkCxl(protocol, issues);
+  for (const issue of issues) ctx.addIssue({ code: 'custom', message: issue.message, path: issue.path });
+});
+export type ProtocolVersion = z.infer<typeof protocolVersionSchema>;
+
+/** The file name a protocol version is shipped under. */
+export function protocolFileName(protocol: { key: string; version: number }): string {
+  return `${protocol.key}.v${protocol.version}.json`;
+}

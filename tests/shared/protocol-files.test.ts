@@ -1,0 +1,114 @@
+import { describe, expect, it } from 'vitest';
+import { computePlan } from '../../shared/engine/compute-plan';
+import { protocolFileName, protocolVersionSchema } from '../../shared/protocol/protocol-schema';
+import type { DosePlan, PlanInputs } from '../../shared/schemas/calculation';
+import { readProtocolJson, shippedProtocolFiles } from './support/shipped-protocols';
+
+const pdtInputs: PlanInputs = { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, lesionGldUm: 2000, lensMagnification: 1 };
+const cxlInputs: PlanInputs = { stromalThicknessUm: 450 };
+
+/**
+ * Each shipped protocol's published figures, for 170 cm / 70 kg (Mosteller 1.82 m²) and a
+ * 2000 µm lesion (3000 µm spot, 0.070686 cm²), or a 450 µm stroma.
+ */
+const checkValues: Record<string, { source: string; expected: Partial<DosePlan> }> = {
+  // TAP Study Group, Arch Ophthalmol 1999.
+  'pdt-standard': {
+    source: 'TAP Study Group, Arch Ophthalmol 1999',
+    expected: { doseMg: 10.92, infusionRateMlPerMin: 3, irradianceMwPerCm2: 600, exposureS: 83, fluenceJPerCm2: 49.8, powerMw: 42.4, spotDiameterUm: 3000, lightStartAfterInfusionStartS: 900 },
+  },
+  // van Dijk EHC et al., Ophthalmology 2018; Altinel MG et al. (abstract).
+  'pdt-half-dose': {
+    source: 'van Dijk EHC et al., Ophthalmology 2018; Altinel MG et al.',
+    expected: { doseMg: 5.46, irradianceMwPerCm2: 600, exposureS: 83, fluenceJPerCm2: 49.8, lightStartAfterInfusionStartS: 900 },
+  },
+  // Altinel MG et al. (abstract): 6 mg/m² + 25 J/cm²; 300 mW/cm² × 83 s from memory.
+  'pdt-half-fluence': {
+    source: 'Altinel MG et al.; light setting from memory',
+    expected: { doseMg: 10.92, irradianceMwPerCm2: 300, exposureS: 83, fluenceJPerCm2: 24.9, powerMw: 21.2 },
+  },
+  // NCT01797861 (half-time strategy); 600 mW/cm² × 42 s from memory.
+  'pdt-half-time': {
+    source: 'NCT01797861; light setting from memory',
+    expected: { doseMg: 10.92, irradianceMwPerCm2: 600, exposureS: 42, fluenceJPerCm2: 25.2 },
+  },
+  // Wollensak G et al., Am J Ophthalmol 2003; Caporossi A et al., J Cataract Refract Surg 2006.
+  'cxl-standard': {
+    source: 'Wollensak 2003; Caporossi 2006',
+    expected: { irradianceMwPerCm2: 3, uvTimeS: 1800, uvElapsedS: 1800, fluenceJPerCm2: 5.4, thicknessOk: true },
+  },
+  // Seiler TG et al., Invest Ophthalmol Vis Sci 2014.
+  'cxl-accelerated': {
+    source: 'Seiler TG et al., IOVS 2014',
+    expected: { irradianceMwPerCm2: 9, uvTimeS: 600, uvElapsedS: 600, fluenceJPerCm2: 5.4 },
+  },
+  // Porcine cornea study, PMC5321166 (published abstract).
+  'cxl-accelerated-pulsed': {
+    source: 'PMC5321166',
+    expected: { irradianceMwPerCm2: 30, uvTimeS: 240, uvElapsedS: 480, fluenceJPerCm2: 7.2 },
+  },
+};
+
+describe('the shipped protocol files', () => {
+  const files = shippedProtocolFiles();
+
+  it('include every protocol the unit needs, each at version 1', () => {
+    expect(files).toEqual(Object.keys(checkValues).map((key) => `${key}.v1.json`).sort());
+  });
+
+  describe.each(files)('%s', (file) => {
+    const parsed = protocolVersionSchema.safeParse(readProtocolJson(file));
+
+    it('validates against the protocol schema', () => {
+      expect(parsed.error?.issues ?? []).toEqual([]);
+    });
+
+    it('is named after its key and version', () => {
+      if (!parsed.success) throw parsed.error;
+      expect(protocolFileName(parsed.data)).toBe(file);
+    });
+
+    it('computes a plan matching its published check values', () => {
+      if (!parsed.success) throw parsed.error;
+      const check = checkValues[parsed.data.key];
+      if (!check) throw new Error(`no check values for ${parsed.data.key}`);
+
+      const plan = computePlan(parsed.data, parsed.data.kind === 'pdt' ? pdtInputs : cxlInputs);
+
+      expect(plan, check.source).toMatchObject(check.expected);
+      expect(plan.warnings.filter((warning) => warning.code === 'soft-limit')).toEqual([]);
+    });
+
+    it('names its sources with their standing, demo approvers, and a site-confirmation note', () => {
+      if (!parsed.success) throw parsed.error;
+      const { sources, approval } = parsed.data;
+      if (!approval) throw new Error(`${file} must record its approvers`);
+
+      for (const source of sources) expect(source.citation).toMatch(/\[(published|from memory|common practice)[^\]]*\]/);
+      for (const name of approval.approvedBy) expect(name).toMatch(/\(demo\)$/);
+      expect(approval.approvedOn).toBe('2026-11-20');
+      expect(approval.note).toMatch(/demo/i);
+      expect(approval.note).toMatch(/labelling and local policy/);
+    });
+
+    it('carries the cautions every treatment screen shows', () => {
+      if (!parsed.success) throw parsed.error;
+      const cautions = parsed.data.cautions.join('\n');
+
+      expect(cautions).toMatch(/eye protection/);
+      expect(cautions).toMatch(/identity and the treatment eye/);
+      expect(cautions).toMatch(/Local policy/);
+      if (parsed.data.kind === 'pdt') {
+        expect(cautions).toMatch(/photosensitive/);
+        expect(cautions).toMatch(/Extravasation/);
+      }
+    });
+  });
+
+  it('give the light precaution period with a note that the sources differ', () => {
+    const drug = protocolVersionSchema.parse(readProtocolJson('pdt-standard.v1.json')).drug;
+
+    expect(drug?.lightPrecautionH).toBe(48);
+    expect(drug?.lightPrecautionSource).toMatch(/48 hours .* 5 days/);
+  });
+});

@@ -1,0 +1,68 @@
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { seedDemoData } from '../../server/demo/seed';
+import { startWebServer, stopWebServer, type RunningWebServer } from '../../server/index';
+import { clientDistDir } from '../../server/ops/paths';
+import { testConfig } from './api';
+
+export interface BrowserContext {
+  baseUrl: string;
+  browser: Browser;
+  server: RunningWebServer;
+  close(): Promise<void>;
+}
+
+/** The built client and the API on a free loopback port, with the demo people, and Debian's Chromium. */
+export async function startBrowserTest(): Promise<BrowserContext> {
+  const server = await startWebServer({ config: testConfig(), clientDir: clientDistDir, port: 0 });
+  await seedDemoData(server.dataSource);
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+  });
+  return {
+    baseUrl: server.url,
+    browser,
+    server,
+    async close() {
+      await browser.close();
+      await stopWebServer(server);
+    },
+  };
+}
+
+/** Console errors, page errors and requests that leave the machine, gathered per page. */
+export function watchPage(page: Page, baseUrl: string) {
+  const problems: string[] = [];
+  page.on('console', (m) => {
+    if (m.type() === 'error') problems.push(`console: ${m.text()}`);
+  });
+  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+  page.on('request', (r) => {
+    const url = r.url();
+    if (!url.startsWith(baseUrl) && !url.startsWith('data:') && !url.startsWith('blob:')) problems.push(`left the machine: ${url}`);
+  });
+  return problems;
+}
+
+export async function signInThroughForm(page: Page, baseUrl: string, email: string, password: string) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+const require = createRequire(import.meta.url);
+const axeSource = readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
+
+/** Runs axe-core in the page; returns violations of WCAG 2 A/AA rules. */
+export async function accessibilityViolations(page: Page) {
+  // Evaluated through the DevTools protocol, so the app's strict CSP needs no loosening for it.
+  await page.evaluate(axeSource);
+  return page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; help: string; nodes: { target: string[] }[] }[] }> } }).axe;
+    const result = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] } });
+    return result.violations.map((v) => ({ id: v.id, help: v.help, targets: v.nodes.map((n) => n.target.join(' ')) }));
+  });
+}
