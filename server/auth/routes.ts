@@ -3,7 +3,7 @@ import { loginRequestSchema } from '../../shared/schemas/auth';
 import type { RouteSpec } from '../http/route-table';
 import { parseInput } from '../http/validation';
 import type { AuthService } from './service';
-import { sessionCookieName, signedInUser, type Sessions } from './session';
+import { sessionCookieName, sessionHintCookieName, signedInUser, type Sessions } from './session';
 
 export function authRoutes(auth: AuthService, sessions: Sessions, loginLimiters: RequestHandler[]): RouteSpec[] {
   return [
@@ -17,6 +17,7 @@ export function authRoutes(auth: AuthService, sessions: Sessions, loginLimiters:
         const user = await auth.login(input, req.ip);
         const { token, maxAgeMs } = sessions.issue(user.id);
         res.cookie(sessionCookieName, token, { ...sessions.cookieOptions, maxAge: maxAgeMs });
+        res.cookie(sessionHintCookieName, '1', { ...sessions.cookieOptions, httpOnly: false, maxAge: maxAgeMs });
         res.json({ user });
       },
     },
@@ -28,6 +29,7 @@ export function authRoutes(auth: AuthService, sessions: Sessions, loginLimiters:
         // Signing out always succeeds, even with an ended session; it is recorded when we know who.
         await auth.logout(sessions.peekUserId(req.cookies), req.ip);
         res.clearCookie(sessionCookieName, sessions.cookieOptions);
+        res.clearCookie(sessionHintCookieName, { ...sessions.cookieOptions, httpOnly: false });
         res.status(204).end();
       },
     },

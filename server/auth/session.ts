@@ -7,6 +7,12 @@ import type { UserRepository } from '../people/repository';
 import { capabilitiesOf } from './permissions';
 
 export const sessionCookieName = 'luxtempo_session';
+/**
+ * A readable companion to the httpOnly session cookie. It holds no secret, only "a session was
+ * started here", so the client can skip asking `/api/auth/me` (and logging a 401) when nobody
+ * has signed in. The server never trusts it.
+ */
+export const sessionHintCookieName = 'luxtempo_signed_in';
 
 export interface SignedInUser {
   id: number;

@@ -5,9 +5,8 @@ import { ownerDataSource } from './options';
 
 /** Runs pending migrations as the owner user, then gives the app user its table rights. */
 export async function migrateDatabase(config: Config): Promise<string[]> {
-  const owner = ownerDataSource(config);
   // The grant step tries REVOKEs that may find nothing to revoke; those failures are expected.
-  owner.setOptions({ migrationsTransactionMode: 'each', logging: false });
+  const owner = ownerDataSource(config, { migrationsTransactionMode: 'each', logging: false });
   await owner.initialize();
   try {
     const ran = await owner.runMigrations();

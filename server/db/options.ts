@@ -39,8 +39,9 @@ export function appDataSource(config: Config): DataSource {
 }
 
 /** The schema owner's connection, for migrations. */
-export function ownerDataSource(config: Config): DataSource {
-  return new DataSource(
-    dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD }),
-  );
+export function ownerDataSource(config: Config, extra: { migrationsTransactionMode?: 'all' | 'none' | 'each'; logging?: boolean } = {}): DataSource {
+  return new DataSource({
+    ...dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD }),
+    ...extra,
+  } as DataSourceOptions);
 }

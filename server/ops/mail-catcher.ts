@@ -21,7 +21,7 @@ async function answers(url: string): Promise<boolean> {
 /** The local fake SMTP server with a web inbox (maildev), on loopback only. */
 export async function ensureMailCatcher(smtpPort: number, webPort: number): Promise<MailCatcher> {
   const webUrl = `http://127.0.0.1:${webPort}`;
-  if (await answers(`${webUrl}/healthz`)) return { webUrl, startedHere: false, stop: () => undefined };
+  if (await answers(`${webUrl}/api/healthz`)) return { webUrl, startedHere: false, stop: () => undefined };
   const log = openSync(path.join(dataDir, 'maildev.log'), 'a');
   const child: ChildProcess = spawn(
     process.execPath,
@@ -34,7 +34,7 @@ export async function ensureMailCatcher(smtpPort: number, webPort: number): Prom
     { stdio: ['ignore', log, log], detached: false },
   );
   const until = Date.now() + 15_000;
-  while (!(await answers(`${webUrl}/healthz`))) {
+  while (!(await answers(`${webUrl}/api/healthz`))) {
     if (child.exitCode !== null) throw new Error(`The mail catcher stopped at start; see .data/maildev.log`);
     if (Date.now() > until) throw new Error('The mail catcher did not answer within 15 s; see .data/maildev.log');
     await new Promise((r) => setTimeout(r, 150));

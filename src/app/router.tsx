@@ -1,0 +1,71 @@
+import type { ComponentType } from 'react';
+import { createBrowserRouter, RouterProvider } from 'react-router-dom';
+import { LoadingPanel } from '../components/ui/status-panel';
+import { paths } from '../config/paths';
+import { PlainPage } from './layout/plain-page';
+import { RouteErrorScreen } from './routes/route-error';
+
+/**
+ * Loads a screen on demand. If its file cannot be fetched (network drop, or a new release
+ * replaced it), React Router keeps treating the route as "still loading" and renders a blank
+ * page; handing it a component that throws the failure lets the route's error screen show.
+ */
+function screen<TModule>(load: () => Promise<TModule>, pick: (module: TModule) => ComponentType) {
+  return async () => {
+    try {
+      return { Component: pick(await load()) };
+    } catch (error) {
+      return {
+        Component: function ScreenFailedToLoad(): never {
+          throw error;
+        },
+      };
+    }
+  };
+}
+
+/*
+ * Every screen is loaded on demand, so the sign-in page downloads only what it needs; the
+ * table, the people forms and later the step clock arrive when a signed-in person opens them.
+ */
+export const router = createBrowserRouter([
+  {
+    id: 'root',
+    errorElement: <RouteErrorScreen framed />,
+    hydrateFallbackElement: (
+      <PlainPage>
+        <LoadingPanel label="Starting Luxtempo…" />
+      </PlainPage>
+    ),
+    children: [
+      {
+        path: paths.signIn.path,
+        lazy: screen(() => import('./routes/sign-in'), (m) => m.SignInRoute),
+      },
+      {
+        id: 'signed-in',
+        lazy: screen(() => import('./layout/authenticated-layout'), (m) => m.AuthenticatedLayout),
+        children: [
+          {
+            path: paths.today.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/today'), (m) => m.TodayRoute),
+          },
+          {
+            path: paths.people.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/people'), (m) => m.PeopleRoute),
+          },
+        ],
+      },
+      {
+        path: '*',
+        lazy: screen(() => import('./routes/not-found'), (m) => m.NotFoundRoute),
+      },
+    ],
+  },
+]);
+
+export function AppRouter() {
+  return <RouterProvider router={router} />;
+}

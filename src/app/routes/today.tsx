@@ -1,0 +1,12 @@
+import { TodayOverview } from '../../features/today/components/today-overview';
+import { useSignedInUser } from '../layout/signed-in-user';
+
+export function TodayRoute() {
+  const user = useSignedInUser();
+  return (
+    <>
+      <title>Today · Luxtempo</title>
+      <TodayOverview displayName={user.displayName} roles={user.roles} />
+    </>
+  );
+}

@@ -1,0 +1,16 @@
+import { useMutation } from '@tanstack/react-query';
+import { paths } from '../../../config/paths';
+import { logOut } from '../api/log-out';
+
+/**
+ * Signing out loads the sign-in page afresh instead of routing in place: on a shared ward tablet
+ * nothing of the previous person's data may stay in memory, and a full load guarantees that.
+ */
+export function useLogOut() {
+  return useMutation({
+    mutationFn: logOut,
+    onSuccess: () => {
+      window.location.assign(paths.signIn.getHref());
+    },
+  });
+}
