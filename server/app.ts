@@ -18,7 +18,18 @@ import { errorHandler } from './http/error-handler';
 import { mountRoutes, type RouteSpec } from './http/route-table';
 import { sameOriginOnly } from './http/same-origin';
 import type { Mailer } from './mail/mailer';
+import { attachmentRoutes } from './attachments/routes';
+import { createAttachmentService } from './attachments/service';
+import { outboxRoutes } from './mail/outbox-routes';
+import { createOrderRepository } from './orders/repository';
+import { orderRoutes } from './orders/routes';
+import { createOrderService } from './orders/service';
+import { createPatientRepository } from './patients/repository';
+import { patientRoutes } from './patients/routes';
+import { createPatientService } from './patients/service';
 import { createUserRepository } from './people/repository';
+import { pharmacyRoutes } from './pharmacy/routes';
+import { createPharmacyService } from './pharmacy/service';
 import { peopleRoutes } from './people/routes';
 import { createPeopleService } from './people/service';
 import { createProtocolRepository } from './protocols/repository';
@@ -56,6 +67,11 @@ export function createApp({ config, dataSource, clientDir }: AppDependencies): E
   const users = createUserRepository(dataSource);
   const sessions = createSessions(config, users);
   const protocols = createProtocolService(createProtocolRepository(dataSource), audit);
+  const patients = createPatientRepository(dataSource);
+  const orders = createOrderRepository(dataSource);
+  const unitTimeZone = config.UNIT_TIME_ZONE;
+  const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, unitTimeZone });
+  const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
 
   const routes: RouteSpec[] = [
     ...healthRoutes(dataSource),
@@ -63,6 +79,11 @@ export function createApp({ config, dataSource, clientDir }: AppDependencies): E
     ...peopleRoutes(createPeopleService(users, audit)),
     ...protocolRoutes(protocols),
     ...calculationRoutes(protocols),
+    ...patientRoutes(createPatientService(patients, orders, audit)),
+    ...orderRoutes(orderService, orders),
+    ...pharmacyRoutes(pharmacy),
+    ...attachmentRoutes(createAttachmentService(dataSource, audit, path.resolve(config.UPLOAD_DIR))),
+    ...outboxRoutes(dataSource),
   ];
   app.locals.routeTable = routes;
 

@@ -5,6 +5,7 @@ import { createApp } from './app';
 import { loadConfig, type Config } from './config';
 import { appDataSource } from './db/options';
 import { createSmtpMailer, type Mailer } from './mail/mailer';
+import { createOutboxWorker, type OutboxWorker } from './mail/outbox';
 import { loadShippedProtocols } from './protocols/load-shipped';
 
 export interface RunningWebServer {
@@ -12,6 +13,7 @@ export interface RunningWebServer {
   server: Server;
   dataSource: DataSource;
   mailer: Mailer;
+  outbox: OutboxWorker;
   config: Config;
 }
 
@@ -32,6 +34,8 @@ export async function startWebServer(options: { config?: Config; clientDir?: str
   }
   const mailer = createSmtpMailer(config);
   const app = createApp({ config, dataSource, mailer, clientDir: options.clientDir });
+  const outbox = createOutboxWorker(dataSource, mailer);
+  outbox.start();
   const port = options.port ?? config.PORT;
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(port, config.HOST, () => resolve(s));
@@ -39,7 +43,7 @@ export async function startWebServer(options: { config?: Config; clientDir?: str
   });
   const address = server.address();
   const actualPort = typeof address === 'object' && address ? address.port : port;
-  return { url: `http://${config.HOST}:${actualPort}`, server, dataSource, mailer, config };
+  return { url: `http://${config.HOST}:${actualPort}`, server, dataSource, mailer, outbox, config };
 }
 
 export async function stopWebServer(running: RunningWebServer): Promise<void> {
@@ -47,6 +51,7 @@ export async function stopWebServer(running: RunningWebServer): Promise<void> {
     running.server.close(() => resolve());
     running.server.closeAllConnections();
   });
+  await running.outbox.stop();
   running.mailer.close();
   if (running.dataSource.isInitialized) await running.dataSource.destroy();
 }

@@ -16,6 +16,13 @@ export const capabilities = [
   'protocols.retire',
   'calculations.run',
   'audit.read',
+  'patients.read',
+  'patients.manage',
+  'orders.read',
+  'orders.write',
+  'dose-checks.perform',
+  'preparations.record',
+  'outbox.read',
 ] as const;
 export type Capability = (typeof capabilities)[number];
 

@@ -2,5 +2,6 @@
 // listing them as classes keeps the server, the CLI and the tests loading the same set.
 import { Initial1796161380660 } from './migrations/1796161380660-Initial';
 import { ProtocolVersions1796161598177 } from './migrations/1796161598177-ProtocolVersions';
+import { OrdersAndOutbox1796162437763 } from './migrations/1796162437763-OrdersAndOutbox';
 
-export const migrations = [Initial1796161380660, ProtocolVersions1796161598177];
+export const migrations = [Initial1796161380660, ProtocolVersions1796161598177, OrdersAndOutbox1796162437763];

@@ -1,12 +1,18 @@
 import { DataSource, type DataSourceOptions } from 'typeorm';
 import type { Config } from '../config';
+import { Attachment } from './entities/attachment';
 import { AuditEvent } from './entities/audit-event';
+import { DoseCheck } from './entities/dose-check';
+import { OutboxMessage } from './entities/outbox-message';
+import { Patient } from './entities/patient';
+import { Preparation } from './entities/preparation';
 import { ProtocolApproval } from './entities/protocol-approval';
 import { ProtocolVersion } from './entities/protocol-version';
+import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
 import { migrations } from './migration-list';
 
-export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval];
+export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage];
 
 export interface DatabaseConnection {
   host: string;
@@ -25,6 +31,8 @@ export function dataSourceOptions(connection: DatabaseConnection): DataSourceOpt
     migrationsTableName: 'schema_migration',
     synchronize: false,
     timezone: 'Z',
+    // Calendar dates (birth, expiry) stay strings: no time zone may shift them.
+    dateStrings: ['DATE'],
     charset: 'utf8mb4_unicode_ci',
     extra: { connectionLimit: 20 },
     logging: ['error'],

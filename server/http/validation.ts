@@ -1,4 +1,4 @@
-import type { ZodError, ZodType } from 'zod';
+import { z, type ZodError, type ZodType } from 'zod';
 import { AppError, type FieldProblem } from './app-error';
 
 export function fieldProblemsFromZod(error: ZodError, prefix = ''): FieldProblem[] {
@@ -15,3 +15,10 @@ export function parseInput<T>(schema: ZodType<T>, input: unknown, prefix = ''): 
   const fields = fieldProblemsFromZod(parsed.error, prefix);
   throw AppError.badRequest(fields.map((f) => `${f.path}: ${f.message}`).join('; '), fields);
 }
+
+/** A numeric id from the URL. */
+export const idParam = z.coerce
+  .number({ error: 'id must be a whole number' })
+  .int('id must be a whole number')
+  .positive('id must be 1 or more')
+  .max(4_294_967_295, 'id is too large');

@@ -3,7 +3,7 @@ import { loadConfig, type Config } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
 import { loadShippedProtocols } from '../protocols/load-shipped';
-import { localEnvironment, testDatabase } from './environment';
+import { localEnvironment, testDatabase as defaultTestDatabase } from './environment';
 import { ensureDatabaseServer, type DatabaseServer } from './mariadb';
 
 /**
@@ -11,8 +11,12 @@ import { ensureDatabaseServer, type DatabaseServer } from './mariadb';
  * migrated afresh, so a run never depends on what an earlier run left behind.
  */
 export async function prepareTestEnvironment(): Promise<{ config: Config; database: DatabaseServer }> {
+  // LUXTEMPO_TEST_DB lets two people (or two checkouts) run tests side by side on one MariaDB.
+  const testDatabase = process.env.LUXTEMPO_TEST_DB ?? defaultTestDatabase;
+  if (!/^luxtempo_test[a-z0-9_]*$/.test(testDatabase)) throw new Error('LUXTEMPO_TEST_DB must start with luxtempo_test (it is emptied on every run)');
   const env = localEnvironment(testDatabase);
-  Object.assign(process.env, env, { NODE_ENV: 'test', DEMO_DATA: 'false' });
+  // Mail from tests goes to a port of its own (nothing listens there unless a test starts a catcher).
+  Object.assign(process.env, env, { NODE_ENV: 'test', DEMO_DATA: 'false', SMTP_PORT: '1126' });
   const config = loadConfig(process.env);
   const database = await ensureDatabaseServer({
     port: config.DB_PORT,

@@ -1,11 +1,8 @@
-import { z } from 'zod';
 import { createPersonSchema, updatePersonSchema } from '../../shared/schemas/people';
 import { signedInUser } from '../auth/session';
 import type { RouteSpec } from '../http/route-table';
-import { parseInput } from '../http/validation';
+import { idParam, parseInput } from '../http/validation';
 import type { PeopleService } from './service';
-
-const idParam = z.coerce.number({ error: 'id must be a whole number' }).int('id must be a whole number').positive('id must be 1 or more');
 
 export function peopleRoutes(people: PeopleService): RouteSpec[] {
   return [

@@ -58,3 +58,39 @@ export async function signedInAgent(ctx: TestContext, person: TestPerson) {
   if (res.status !== 200) throw new Error(`sign-in for the test failed: ${res.status} ${JSON.stringify(res.body)}`);
   return agent;
 }
+
+/** A fictitious patient with a record number of the test's own. */
+export async function createTestPatient(ctx: TestContext, overrides: Partial<{ email: string | null; emailConsent: boolean }> = {}) {
+  const recordNumber = `T-${randomUUID().slice(0, 8).toUpperCase()}`;
+  const rows = await ctx.dataSource.query(
+    'INSERT INTO patient (record_number, given_name, family_name, date_of_birth, email, email_consent) VALUES (?, ?, ?, ?, ?, ?) RETURNING id',
+    [recordNumber, 'Testa', `Patient-${recordNumber}`, '1956-04-12', overrides.email ?? null, overrides.emailConsent ?? false],
+  );
+  return { id: Number(rows[0].id), recordNumber };
+}
+
+const pdtChecklist = ['porphyria', 'hypersensitivity', 'hepatic-impairment', 'pregnancy-breastfeeding', 'other-photosensitisers'];
+const cxlChecklist = ['thin-stroma', 'active-infection', 'herpetic-keratitis'];
+
+/** A complete, signable order body for the standard PDT protocol (170 cm, 70 kg, GLD 2500 µm). */
+export function pdtOrder(patientId: number, overrides: Record<string, unknown> = {}) {
+  return {
+    patientId,
+    eye: 'right',
+    protocol: { key: 'pdt-standard', version: 1 },
+    inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
+    checklist: pdtChecklist.map((id) => ({ id, answer: 'no' })),
+    ...overrides,
+  };
+}
+
+export function cxlOrder(patientId: number, overrides: Record<string, unknown> = {}) {
+  return {
+    patientId,
+    eye: 'left',
+    protocol: { key: 'cxl-standard', version: 1 },
+    inputs: { stromalThicknessUm: 460 },
+    checklist: cxlChecklist.map((id) => ({ id, answer: 'no' })),
+    ...overrides,
+  };
+}

@@ -1,0 +1,102 @@
+import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn, type Relation } from 'typeorm';
+import type { DosePlan, PlanInputs } from '../../../shared/schemas/calculation';
+import { orderStatuses, type ChecklistAnswer, type OrderStatus } from '../../../shared/schemas/orders';
+import { Patient } from './patient';
+import { ProtocolVersion } from './protocol-version';
+import { User } from './user';
+
+/**
+ * One revision of a treatment order. Signing freezes the plan; an amendment is a new row that
+ * points back at the revision it replaces, which stays readable.
+ */
+@Entity({ name: 'treatment_order' })
+@Index('ix_order_status_created', ['status', 'createdAt'])
+@Index('ix_order_patient_eye', ['patientId', 'eye', 'createdAt'])
+@Index('ix_order_protocol', ['protocolVersionId', 'createdAt'])
+export class TreatmentOrder {
+  @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
+  id!: number;
+
+  @Column({ name: 'patient_id', type: 'int', unsigned: true })
+  patientId!: number;
+
+  @ManyToOne(() => Patient, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'patient_id' })
+  patient!: Relation<Patient>;
+
+  @Column({ type: 'enum', enum: ['right', 'left'] })
+  eye!: 'right' | 'left';
+
+  @Column({ name: 'protocol_version_id', type: 'int', unsigned: true })
+  protocolVersionId!: number;
+
+  @ManyToOne(() => ProtocolVersion, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'protocol_version_id' })
+  protocolVersion!: Relation<ProtocolVersion>;
+
+  @Column({ type: 'enum', enum: orderStatuses })
+  status!: OrderStatus;
+
+  @Column({ type: 'smallint', unsigned: true, default: 1 })
+  revision!: number;
+
+  @Column({ name: 'previous_revision_id', type: 'int', unsigned: true, nullable: true })
+  previousRevisionId!: number | null;
+
+  @Column({ name: 'amendment_reason', type: 'varchar', length: 500, nullable: true })
+  amendmentReason!: string | null;
+
+  @Column({ type: 'json' })
+  inputs!: PlanInputs;
+
+  /** The dose plan as computed by the server; frozen at signing. */
+  @Column({ type: 'json' })
+  plan!: DosePlan;
+
+  @Column({ name: 'engine_version', type: 'varchar', length: 20 })
+  engineVersion!: string;
+
+  @Column({ type: 'json' })
+  checklist!: ChecklistAnswer[];
+
+  @Column({ name: 'soft_limit_reasons', type: 'json' })
+  softLimitReasons!: Record<string, string>;
+
+  @Column({ name: 'retreatment_reason', type: 'varchar', length: 500, nullable: true })
+  retreatmentReason!: string | null;
+
+  @Column({ type: 'text', nullable: true })
+  note!: string | null;
+
+  @Column({ name: 'created_by', type: 'int', unsigned: true })
+  createdById!: number;
+
+  @ManyToOne(() => User, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'created_by' })
+  createdBy!: Relation<User>;
+
+  @Column({ name: 'signed_by', type: 'int', unsigned: true, nullable: true })
+  signedById!: number | null;
+
+  @ManyToOne(() => User, { onDelete: 'RESTRICT', nullable: true })
+  @JoinColumn({ name: 'signed_by' })
+  signedBy!: Relation<User> | null;
+
+  @Column({ name: 'signed_at', type: 'datetime', precision: 3, nullable: true })
+  signedAt!: Date | null;
+
+  @Column({ name: 'signature_meaning', type: 'varchar', length: 20, nullable: true })
+  signatureMeaning!: string | null;
+
+  @Column({ name: 'return_comment', type: 'varchar', length: 1000, nullable: true })
+  returnComment!: string | null;
+
+  @Column({ name: 'beyond_use_at', type: 'datetime', precision: 3, nullable: true })
+  beyondUseAt!: Date | null;
+
+  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  createdAt!: Date;
+
+  @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)', onUpdate: 'CURRENT_TIMESTAMP(3)' })
+  updatedAt!: Date;
+}

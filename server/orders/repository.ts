@@ -1,0 +1,88 @@
+import { In, type DataSource, type EntityManager } from 'typeorm';
+import type { OrderListQuery, OrderStatus } from '../../shared/schemas/orders';
+import { Attachment } from '../db/entities/attachment';
+import { DoseCheck } from '../db/entities/dose-check';
+import { Preparation } from '../db/entities/preparation';
+import { TreatmentOrder } from '../db/entities/treatment-order';
+
+const withParts = { patient: true, protocolVersion: true, createdBy: true, signedBy: true } as const;
+
+const sortColumns: Record<OrderListQuery['sort'], string> = {
+  createdAt: 'o.createdAt',
+  status: 'o.status',
+  protocol: 'pv.key',
+  patient: 'p.familyName',
+};
+
+export function createOrderRepository(dataSource: DataSource) {
+  const orders = dataSource.getRepository(TreatmentOrder);
+  return {
+    findById: (id: number, manager?: EntityManager) =>
+      (manager?.getRepository(TreatmentOrder) ?? orders).findOne({ where: { id }, relations: withParts }),
+
+    /** Locks the order row for the rest of the transaction: status changes never race. */
+    lockById: (manager: EntityManager, id: number) =>
+      manager.getRepository(TreatmentOrder).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } }),
+
+    save: (manager: EntityManager, order: Partial<TreatmentOrder>) => manager.getRepository(TreatmentOrder).save(order),
+
+    update: (manager: EntityManager, id: number, changes: Partial<TreatmentOrder>) => manager.getRepository(TreatmentOrder).update({ id }, changes),
+
+    nextRevisionOf: (id: number) => orders.findOne({ where: { previousRevisionId: id }, select: { id: true, status: true } }),
+
+    listForPatient: (patientId: number) => orders.find({ where: { patientId }, relations: { protocolVersion: true }, order: { createdAt: 'DESC' } }),
+
+    /** Treatments of one kind on one eye since a moment, for the retreatment interval. */
+    async treatmentsSince(patientId: number, eye: 'right' | 'left', kind: 'pdt' | 'cxl', since: Date, statuses: readonly OrderStatus[], excludeIds: number[] = []) {
+      const qb = orders
+        .createQueryBuilder('o')
+        .innerJoinAndSelect('o.protocolVersion', 'pv')
+        .where('o.patientId = :patientId AND o.eye = :eye AND pv.kind = :kind', { patientId, eye, kind })
+        .andWhere('o.status IN (:...statuses)', { statuses })
+        .andWhere('COALESCE(o.signedAt, o.createdAt) >= :since', { since })
+        .orderBy('o.signedAt', 'DESC');
+      if (excludeIds.length) qb.andWhere('o.id NOT IN (:...excludeIds)', { excludeIds });
+      return qb.getMany();
+    },
+
+    async list(query: OrderListQuery, createdRange: { from?: Date; to?: Date }) {
+      const qb = orders
+        .createQueryBuilder('o')
+        .innerJoinAndSelect('o.patient', 'p')
+        .innerJoinAndSelect('o.protocolVersion', 'pv')
+        .leftJoinAndSelect('o.createdBy', 'cb')
+        .leftJoinAndSelect('o.signedBy', 'sb');
+      if (query.status) qb.andWhere('o.status = :status', { status: query.status });
+      if (query.protocol) qb.andWhere('pv.key = :key', { key: query.protocol });
+      if (query.patientId) qb.andWhere('o.patientId = :patientId', { patientId: query.patientId });
+      if (createdRange.from) qb.andWhere('o.createdAt >= :from', { from: createdRange.from });
+      if (createdRange.to) qb.andWhere('o.createdAt < :to', { to: createdRange.to });
+      qb.orderBy(sortColumns[query.sort], query.direction === 'asc' ? 'ASC' : 'DESC').addOrderBy('o.id', query.direction === 'asc' ? 'ASC' : 'DESC');
+      qb.skip((query.page - 1) * query.pageSize).take(query.pageSize);
+      const [rows, total] = await qb.getManyAndCount();
+      return { rows, total };
+    },
+
+    listByStatus: (statuses: OrderStatus[], extra: { createdById?: number; signedById?: number } = {}) =>
+      orders.find({
+        where: { status: In(statuses), ...(extra.createdById ? { createdById: extra.createdById } : {}), ...(extra.signedById ? { signedById: extra.signedById } : {}) },
+        relations: withParts,
+        order: { createdAt: 'ASC' },
+        take: 200,
+      }),
+
+    doseChecksFor: (orderId: number, manager?: EntityManager) =>
+      (manager?.getRepository(DoseCheck) ?? dataSource.getRepository(DoseCheck)).find({ where: { orderId }, relations: { pharmacist: true }, order: { id: 'ASC' } }),
+
+    addDoseCheck: (manager: EntityManager, check: Omit<DoseCheck, 'id' | 'createdAt' | 'order' | 'pharmacist'>) => manager.getRepository(DoseCheck).save(manager.getRepository(DoseCheck).create(check)),
+
+    preparationFor: (orderId: number) => dataSource.getRepository(Preparation).findOne({ where: { orderId }, relations: { pharmacist: true } }),
+
+    addPreparation: (manager: EntityManager, preparation: Omit<Preparation, 'id' | 'createdAt' | 'order' | 'pharmacist'>) =>
+      manager.getRepository(Preparation).save(manager.getRepository(Preparation).create(preparation)),
+
+    attachmentsFor: (orderId: number) => dataSource.getRepository(Attachment).find({ where: { orderId }, order: { id: 'ASC' } }),
+  };
+}
+
+export type OrderRepository = ReturnType<typeof createOrderRepository>;

@@ -1,0 +1,39 @@
+import { z } from 'zod';
+import { createPatientSchema } from '../../shared/schemas/patients';
+import { signedInUser } from '../auth/session';
+import type { RouteSpec } from '../http/route-table';
+import { idParam, parseInput } from '../http/validation';
+import type { PatientService } from './service';
+
+const searchQuery = z.object({ q: z.string().max(80, 'q must be at most 80 characters').optional() });
+
+export function patientRoutes(patients: PatientService): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/patients',
+      access: 'patients.read',
+      handler: async (req, res) => {
+        const { q } = parseInput(searchQuery, req.query);
+        res.json({ patients: await patients.search(q) });
+      },
+    },
+    {
+      method: 'post',
+      path: '/patients',
+      access: 'patients.manage',
+      handler: async (req, res) => {
+        const input = parseInput(createPatientSchema, req.body);
+        res.status(201).json({ patient: await patients.create({ id: signedInUser(res).id, ipAddress: req.ip }, input) });
+      },
+    },
+    {
+      method: 'get',
+      path: '/patients/:id',
+      access: 'patients.read',
+      handler: async (req, res) => {
+        res.json(await patients.history(parseInput(idParam, req.params.id, 'id')));
+      },
+    },
+  ];
+}

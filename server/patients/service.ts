@@ -1,0 +1,77 @@
+import type { CreatePatient, Patient as PatientDto } from '../../shared/schemas/patients';
+import type { AuditRepository } from '../audit/repository';
+import type { Patient } from '../db/entities/patient';
+import { AppError } from '../http/app-error';
+import type { OrderRepository } from '../orders/repository';
+import type { PatientRepository } from './repository';
+
+export function toPatientDto(p: Patient): PatientDto {
+  return {
+    id: p.id,
+    recordNumber: p.recordNumber,
+    givenName: p.givenName,
+    familyName: p.familyName,
+    dateOfBirth: p.dateOfBirth,
+    email: p.email,
+    emailConsent: p.emailConsent,
+  };
+}
+
+/** Orders that stand for a treatment given or on its way (not drafts, returns or replaced revisions). */
+export const treatmentStatuses = ['signed', 'checked', 'prepared', 'ready', 'in-session', 'completed', 'stopped', 'reviewed'] as const;
+
+export function createPatientService(patients: PatientRepository, orders: OrderRepository, audit: AuditRepository) {
+  return {
+    async search(text?: string) {
+      return (await patients.search(text?.trim() || undefined, 50)).map(toPatientDto);
+    },
+
+    async create(actor: { id: number; ipAddress?: string | null }, input: CreatePatient) {
+      if (await patients.findByRecordNumber(input.recordNumber)) {
+        throw AppError.conflict('record_number_taken', `A patient with record number ${input.recordNumber} exists already.`);
+      }
+      const patient = await patients.create({ ...input, email: input.email ?? null });
+      await audit.append({ actorUserId: actor.id, action: 'patient.created', entityType: 'patient', entityId: patient.id, ipAddress: actor.ipAddress, details: { recordNumber: patient.recordNumber } });
+      return toPatientDto(patient);
+    },
+
+    /**
+     * The patient with every order per eye, newest first, and for each treatment the days since
+     * the previous treatment of the same kind on the same eye.
+     */
+    async history(id: number) {
+      const patient = await patients.findById(id);
+      if (!patient) throw AppError.notFound(`There is no patient with id ${id}.`);
+      const rows = await orders.listForPatient(id);
+      const treatments = rows.map((o) => ({
+        orderId: o.id,
+        revision: o.revision,
+        eye: o.eye,
+        kind: o.protocolVersion.kind,
+        protocol: { key: o.protocolVersion.key, version: o.protocolVersion.version, title: o.protocolVersion.title },
+        status: o.status,
+        date: (o.signedAt ?? o.createdAt).toISOString(),
+        daysSincePreviousSameKind: null as number | null,
+      }));
+      const counted = new Set<string>(treatmentStatuses);
+      for (const eye of ['right', 'left'] as const) {
+        for (const kind of ['pdt', 'cxl'] as const) {
+          const series = treatments.filter((t) => t.eye === eye && t.kind === kind && counted.has(t.status)).sort((a, b) => a.date.localeCompare(b.date));
+          for (let i = 1; i < series.length; i++) {
+            series[i]!.daysSincePreviousSameKind = Math.floor((Date.parse(series[i]!.date) - Date.parse(series[i - 1]!.date)) / 86_400_000);
+          }
+        }
+      }
+      treatments.sort((a, b) => b.date.localeCompare(a.date));
+      return {
+        patient: toPatientDto(patient),
+        eyes: {
+          right: treatments.filter((t) => t.eye === 'right'),
+          left: treatments.filter((t) => t.eye === 'left'),
+        },
+      };
+    },
+  };
+}
+
+export type PatientService = ReturnType<typeof createPatientService>;

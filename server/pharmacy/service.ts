@@ -1,0 +1,145 @@
+import { DateTime } from 'luxon';
+import type { DataSource } from 'typeorm';
+import { withinPct } from '../../shared/orders/readiness';
+import type { DoseCheckEntry, PreparationEntry } from '../../shared/schemas/orders';
+import type { AuditRepository } from '../audit/repository';
+import { AppError } from '../http/app-error';
+import { enqueueMessage } from '../mail/outbox';
+import type { OrderRepository } from '../orders/repository';
+import type { Actor, OrderService } from '../orders/service';
+import type { UserRepository } from '../people/repository';
+
+/** A second refused check sends the order back to the clinician. */
+export const refusalsBeforeReturn = 2;
+/** Clocks on a ward disagree a little; a reconstitution time this far ahead of ours is still "now". */
+const clockSkewS = 60;
+
+export function createPharmacyService(deps: {
+  dataSource: DataSource;
+  orders: OrderRepository;
+  orderService: OrderService;
+  users: UserRepository;
+  audit: AuditRepository;
+  unitTimeZone: string;
+}) {
+  const { dataSource, orders, orderService, users, audit } = deps;
+
+  async function loadForPharmacy(id: number) {
+    const order = await orders.findById(id);
+    if (!order) throw AppError.notFound(`There is no order ${id}.`);
+    const drug = order.protocolVersion.definition.drug;
+    if (!drug) throw AppError.conflict('no_drug', `Order ${id} uses ${order.protocolVersion.key}, which has no drug to check or prepare.`);
+    return { order, drug };
+  }
+
+  return {
+    /**
+     * Compares the pharmacist's own figures with the frozen plan. A match reveals the plan; a
+     * mismatch says which figures differ but not by how much, so the next try stays independent.
+     */
+    async check(actor: Actor, id: number, entry: DoseCheckEntry) {
+      const { order } = await loadForPharmacy(id);
+      if (order.signedById === actor.id) {
+        throw AppError.forbidden('You signed this order, so you cannot check it: the dose check must be done by someone else.');
+      }
+      const tolerance = order.protocolVersion.definition.tolerances.doseCheck;
+      if (!tolerance) throw AppError.conflict('no_dose_check', `Protocol ${order.protocolVersion.key} sets no dose-check tolerance.`);
+      const plan = order.plan;
+      const comparisons = [
+        { field: 'bsaM2', entered: entry.bsaM2, planned: plan.bsaM2, pct: tolerance.bsaPct },
+        { field: 'doseMg', entered: entry.doseMg, planned: plan.doseMg, pct: tolerance.dosePct },
+        { field: 'drugVolumeMl', entered: entry.drugVolumeMl, planned: plan.drugVolumeMl, pct: tolerance.drugVolumePct },
+      ];
+      const differing = comparisons.filter((c) => c.planned == null || !withinPct(c.entered, c.planned, c.pct)).map((c) => c.field);
+      const outcome = differing.length === 0 ? 'match' : 'mismatch';
+
+      const result = await dataSource.transaction(async (manager) => {
+        const locked = await orders.lockById(manager, id);
+        if (locked?.status !== 'signed') throw AppError.conflict('not_waiting_for_check', `Order ${id} is ${locked?.status ?? 'gone'}, not waiting for a dose check.`);
+        await orders.addDoseCheck(manager, { orderId: id, pharmacistId: actor.id, bsaM2: entry.bsaM2, doseMg: entry.doseMg, drugVolumeMl: entry.drugVolumeMl, outcome, differing, comment: entry.comment ?? null });
+        if (outcome === 'match') {
+          await orders.update(manager, id, { status: 'checked' });
+          return { returned: false, refusals: 0 };
+        }
+        const refusals = (await orders.doseChecksFor(id, manager)).filter((c) => c.outcome === 'mismatch').length;
+        if (refusals < refusalsBeforeReturn) return { returned: false, refusals };
+        const comment = entry.comment?.trim() || `The dose check was refused ${refusals} times (figures differing: ${differing.join(', ')}).`;
+        await orders.update(manager, id, { status: 'returned', returnComment: comment });
+        const clinician = order.signedById ? await users.findById(order.signedById) : null;
+        await enqueueMessage(manager, {
+          kind: 'order-returned',
+          recipients: clinician?.active ? [clinician.email] : [],
+          subject: `Luxtempo: order ${id} was sent back after the dose check`,
+          body: [`The independent dose check for order ${id} (${order.protocolVersion.title}, ${order.eye} eye) was refused ${refusals} times.`, '', `Pharmacist's comment: ${comment}`, '', 'Open Luxtempo to review and amend the order.'].join('\n'),
+          related: { type: 'order', id },
+        });
+        return { returned: true, refusals };
+      });
+
+      await audit.append({
+        actorUserId: actor.id,
+        action: outcome === 'match' ? 'dose-check.matched' : result.returned ? 'dose-check.refused-and-returned' : 'dose-check.refused',
+        entityType: 'order',
+        entityId: id,
+        ipAddress: actor.ipAddress,
+        details: { entered: { bsaM2: entry.bsaM2, doseMg: entry.doseMg, drugVolumeMl: entry.drugVolumeMl }, differing, comment: entry.comment ?? null },
+      });
+      if (outcome === 'mismatch') {
+        const message = result.returned
+          ? `Your figures differ from the plan again (${differing.join(", ")}): the order goes back to the clinician with your comment.`
+          : `Your figures differ from the plan: ${differing.join(', ')}. Recalculate and enter them again; one more refusal sends the order back to the clinician.`;
+        throw new AppError(
+          422,
+          result.returned ? 'dose_check_returned' : 'dose_check_mismatch',
+          message,
+          differing.map((path) => ({ path, message: `${path} is outside the protocol's tolerance` })),
+        );
+      }
+      return orderService.detail(id, actor);
+    },
+
+    async prepare(actor: Actor, id: number, entry: PreparationEntry) {
+      const { order, drug } = await loadForPharmacy(id);
+      const zone = deps.unitTimeZone;
+      const today = DateTime.now().setZone(zone).toISODate()!;
+      if (entry.vialExpiry < today) {
+        throw AppError.badRequest(`The vial expired on ${entry.vialExpiry}; use an in-date vial.`, [{ path: 'vialExpiry', message: `vialExpiry must be today (${today}) or later` }]);
+      }
+      const now = Date.now();
+      const reconstitutedAt = entry.reconstitutedAt ? new Date(entry.reconstitutedAt) : new Date(now);
+      if (reconstitutedAt.getTime() > now + clockSkewS * 1000) {
+        throw AppError.badRequest('The reconstitution time is in the future.', [{ path: 'reconstitutedAt', message: 'reconstitutedAt cannot be in the future' }]);
+      }
+      const beyondUseAt = new Date(reconstitutedAt.getTime() + drug.beyondUseH * 3_600_000);
+      if (beyondUseAt.getTime() <= now) {
+        throw AppError.badRequest(`Drug reconstituted then is already past its beyond-use time of ${drug.beyondUseH} h.`, [
+          { path: 'reconstitutedAt', message: `reconstitutedAt must be within the last ${drug.beyondUseH} hours` },
+        ]);
+      }
+      const planned = order.plan.drugVolumeMl;
+      const pct = order.protocolVersion.definition.tolerances.drugVolumePct;
+      if (planned != null && pct != null && !withinPct(entry.volumeDrawnMl, planned, pct)) {
+        const low = +(planned * (1 - pct / 100)).toFixed(2);
+        const high = +(planned * (1 + pct / 100)).toFixed(2);
+        throw AppError.badRequest(`The volume drawn differs from the plan by more than ${pct}%.`, [{ path: 'volumeDrawnMl', message: `volumeDrawnMl must be between ${low} and ${high} mL (plan ${planned} mL ± ${pct}%)` }]);
+      }
+      await dataSource.transaction(async (manager) => {
+        const locked = await orders.lockById(manager, id);
+        if (locked?.status !== 'checked') throw AppError.conflict('not_checked', `Order ${id} is ${locked?.status ?? 'gone'}; preparation follows a matching dose check.`);
+        await orders.addPreparation(manager, { orderId: id, pharmacistId: actor.id, vialLot: entry.vialLot, vialExpiry: entry.vialExpiry, reconstitutedAt, volumeDrawnMl: entry.volumeDrawnMl, beyondUseAt });
+        await orders.update(manager, id, { status: 'prepared', beyondUseAt });
+      });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'order.prepared',
+        entityType: 'order',
+        entityId: id,
+        ipAddress: actor.ipAddress,
+        details: { vialLot: entry.vialLot, vialExpiry: entry.vialExpiry, reconstitutedAt: reconstitutedAt.toISOString(), volumeDrawnMl: entry.volumeDrawnMl, beyondUseAt: beyondUseAt.toISOString() },
+      });
+      return orderService.detail(id, actor);
+    },
+  };
+}
+
+export type PharmacyService = ReturnType<typeof createPharmacyService>;

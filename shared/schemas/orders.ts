@@ -1,0 +1,152 @@
+import { z } from 'zod';
+import { calculationRequestSchema, dosePlanSchema, planInputsSchema } from './calculation';
+import { eyes, patientSchema } from './patients';
+
+/**
+ * An order's life. PDT: draft → signed → checked → prepared → in-session → completed | stopped
+ * → reviewed. A protocol with no drug (CXL) goes from draft straight to ready. A twice-refused
+ * dose check sends the order back (returned); an amendment supersedes the revision it replaces.
+ */
+export const orderStatuses = [
+  'draft',
+  'signed',
+  'returned',
+  'checked',
+  'prepared',
+  'ready',
+  'in-session',
+  'completed',
+  'stopped',
+  'reviewed',
+  'superseded',
+] as const;
+export type OrderStatus = (typeof orderStatuses)[number];
+
+/** Statuses in which the nurse may start the session. */
+export const readyForSessionStatuses: readonly OrderStatus[] = ['prepared', 'ready'];
+
+const reason = (field: string) =>
+  z.string({ error: `${field} is required` }).trim().min(5, `${field} must be 5 to 500 characters`).max(500, `${field} must be 5 to 500 characters`);
+
+export const checklistAnswerSchema = z.strictObject({
+  id: z.string({ error: 'checklist[].id is required' }).min(1).max(64),
+  answer: z.enum(['yes', 'no'], { error: 'checklist[].answer must be yes or no' }),
+  /** Needed to go on when the answer is yes: why treatment is still right. */
+  overrideReason: reason('checklist[].overrideReason').optional(),
+});
+export type ChecklistAnswer = z.infer<typeof checklistAnswerSchema>;
+
+export const orderDraftSchema = z.strictObject({
+  patientId: z.number({ error: 'patientId must be a whole number' }).int('patientId must be a whole number').positive('patientId must be 1 or more'),
+  eye: z.enum(eyes, { error: 'eye must be right or left' }),
+  protocol: calculationRequestSchema.shape.protocol,
+  inputs: planInputsSchema,
+  checklist: z.array(checklistAnswerSchema).max(50, 'checklist can hold at most 50 answers').default([]),
+  /** A reason for each soft-limit warning, keyed by the warning's field (e.g. inputs.weight.value). */
+  softLimitReasons: z.record(z.string().max(100), reason('softLimitReasons[field]')).default({}),
+  /** Needed when this eye had the same kind of treatment within the protocol's minimum interval. */
+  retreatmentReason: reason('retreatmentReason').nullable().optional(),
+  note: z.string().trim().max(2000, 'note must be at most 2000 characters').nullable().optional(),
+});
+export type OrderDraft = z.infer<typeof orderDraftSchema>;
+
+export const signOrderSchema = z.strictObject({
+  password: z.string({ error: 'password is required' }).min(1, 'password is required').max(200, 'password must be at most 200 characters'),
+  meaning: z.literal('ordered', { error: 'meaning must be "ordered"' }),
+});
+
+export const amendOrderSchema = orderDraftSchema.safeExtend({ amendmentReason: reason('amendmentReason') });
+export type AmendOrder = z.infer<typeof amendOrderSchema>;
+
+const measured = (field: string, unit: string, max: number) =>
+  z
+    .number({ error: `${field} must be a number in ${unit}` })
+    .positive(`${field} must be greater than 0 ${unit}`)
+    .max(max, `${field} must be at most ${max} ${unit}`);
+
+export const doseCheckSchema = z.strictObject({
+  bsaM2: measured('bsaM2', 'm²', 5),
+  doseMg: measured('doseMg', 'mg', 100),
+  drugVolumeMl: measured('drugVolumeMl', 'mL', 100),
+  comment: z.string().trim().max(1000, 'comment must be at most 1000 characters').nullable().optional(),
+});
+export type DoseCheckEntry = z.infer<typeof doseCheckSchema>;
+
+export const preparationSchema = z.strictObject({
+  vialLot: z.string({ error: 'vialLot is required' }).trim().regex(/^[A-Za-z0-9][A-Za-z0-9 ./-]{1,39}$/, 'vialLot must be 2 to 40 letters, digits, spaces, dots, slashes or hyphens'),
+  vialExpiry: z.iso.date({ error: 'vialExpiry must be a date (YYYY-MM-DD)' }),
+  /** When the powder was reconstituted; left out, now. */
+  reconstitutedAt: z.iso.datetime({ offset: true, error: 'reconstitutedAt must be an ISO 8601 date-time with offset' }).optional(),
+  volumeDrawnMl: measured('volumeDrawnMl', 'mL', 100),
+});
+export type PreparationEntry = z.infer<typeof preparationSchema>;
+
+export const orderListQuerySchema = z.strictObject({
+  status: z.enum(orderStatuses, { error: `status must be one of ${orderStatuses.join(', ')}` }).optional(),
+  protocol: z.string().regex(/^[a-z0-9-]{1,64}$/, 'protocol must be a protocol key').optional(),
+  from: z.iso.date({ error: 'from must be a date (YYYY-MM-DD)' }).optional(),
+  to: z.iso.date({ error: 'to must be a date (YYYY-MM-DD)' }).optional(),
+  patientId: z.coerce.number().int().positive('patientId must be 1 or more').optional(),
+  sort: z.enum(['createdAt', 'status', 'protocol', 'patient'], { error: 'sort must be createdAt, status, protocol or patient' }).default('createdAt'),
+  direction: z.enum(['asc', 'desc'], { error: 'direction must be asc or desc' }).default('desc'),
+  page: z.coerce.number({ error: 'page must be a whole number' }).int('page must be a whole number').min(1, 'page must be 1 or more').max(100000, 'page must be at most 100000').default(1),
+  pageSize: z.coerce.number({ error: 'pageSize must be a whole number' }).int('pageSize must be a whole number').min(1, 'pageSize must be 1 to 100').max(100, 'pageSize must be 1 to 100').default(25),
+});
+export type OrderListQuery = z.infer<typeof orderListQuerySchema>;
+
+const person = z.object({ id: z.number(), displayName: z.string() }).nullable();
+
+export const orderSummarySchema = z.object({
+  id: z.number(),
+  revision: z.number(),
+  status: z.enum(orderStatuses),
+  eye: z.enum(eyes),
+  kind: z.enum(['pdt', 'cxl']),
+  protocol: z.object({ key: z.string(), version: z.number(), title: z.string() }),
+  patient: patientSchema.pick({ id: true, recordNumber: true, givenName: true, familyName: true }),
+  createdAt: z.string(),
+  signedAt: z.string().nullable(),
+  beyondUseAt: z.string().nullable(),
+  createdBy: person,
+  signedBy: person,
+});
+export type OrderSummary = z.infer<typeof orderSummarySchema>;
+
+export const orderDetailSchema = orderSummarySchema.extend({
+  inputs: planInputsSchema,
+  checklist: z.array(checklistAnswerSchema),
+  softLimitReasons: z.record(z.string(), z.string()),
+  retreatmentReason: z.string().nullable(),
+  note: z.string().nullable(),
+  /** The frozen dose plan; withheld (null) from a pharmacist until their blind check matches. */
+  plan: dosePlanSchema.nullable(),
+  planWithheld: z.boolean(),
+  amendmentReason: z.string().nullable(),
+  previousRevisionId: z.number().nullable(),
+  nextRevisionId: z.number().nullable(),
+  returnComment: z.string().nullable(),
+  attachments: z.array(z.object({ id: z.number(), fileName: z.string(), mimeType: z.string(), sizeBytes: z.number(), sha256: z.string(), createdAt: z.string() })),
+  doseChecks: z.array(
+    z.object({
+      id: z.number(),
+      outcome: z.enum(['match', 'mismatch']),
+      pharmacist: person,
+      createdAt: z.string(),
+      entered: z.object({ bsaM2: z.number(), doseMg: z.number(), drugVolumeMl: z.number() }),
+      differing: z.array(z.string()),
+      comment: z.string().nullable(),
+    }),
+  ),
+  preparation: z
+    .object({
+      vialLot: z.string(),
+      vialExpiry: z.string(),
+      reconstitutedAt: z.string(),
+      volumeDrawnMl: z.number(),
+      beyondUseAt: z.string(),
+      pharmacist: person,
+    })
+    .nullable(),
+  warnings: z.array(z.object({ code: z.string(), message: z.string(), field: z.string().optional() })),
+});
+export type OrderDetail = z.infer<typeof orderDetailSchema>;
