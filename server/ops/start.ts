@@ -50,7 +50,7 @@ try {
     const seedSource = appDataSource(config);
     await seedSource.initialize();
     const { created } = await seedDemoData(seedSource).finally(() => seedSource.destroy());
-    console.log(created.length ? `• Demo data added (${created.length} people)` : '• Demo data already present');
+    console.log(created.length ? `• Demo data added (${created.length} records)` : '• Demo data already present');
   }
 
   mail = await ensureMailCatcher(config.SMTP_PORT, Number(process.env.MAIL_WEB_PORT ?? 1080));

@@ -178,7 +178,7 @@ describe('what stops an order', () => {
   it('an unanswered checklist question blocks the signature, naming the question', async () => {
     const patient = await createTestPatient(ctx);
     const body = pdtOrder(patient.id);
-    body.checklist = (body.checklist as { id: string }[]).filter((a) => a.id !== 'porphyria');
+    body.checklist = (body.checklist as { id: string; answer: string }[]).filter((a) => a.id !== 'porphyria');
     const draft = await clinicianAgent.post('/api/orders').send(body);
     const res = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
     expect(res.status).toBe(400);
