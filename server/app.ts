@@ -30,6 +30,10 @@ import { createPatientService } from './patients/service';
 import { createUserRepository } from './people/repository';
 import { pharmacyRoutes } from './pharmacy/routes';
 import { createPharmacyService } from './pharmacy/service';
+import { createDischargeService } from './sessions/discharge';
+import { createSessionRepository } from './sessions/repository';
+import { sessionRoutes } from './sessions/routes';
+import { createSessionService } from './sessions/service';
 import { peopleRoutes } from './people/routes';
 import { createPeopleService } from './people/service';
 import { createProtocolRepository } from './protocols/repository';
@@ -72,6 +76,9 @@ export function createApp({ config, dataSource, clientDir }: AppDependencies): E
   const unitTimeZone = config.UNIT_TIME_ZONE;
   const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, unitTimeZone });
   const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
+  const sessionRows = createSessionRepository(dataSource);
+  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit });
+  const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitTimeZone });
 
   const routes: RouteSpec[] = [
     ...healthRoutes(dataSource),
@@ -84,6 +91,7 @@ export function createApp({ config, dataSource, clientDir }: AppDependencies): E
     ...pharmacyRoutes(pharmacy),
     ...attachmentRoutes(createAttachmentService(dataSource, audit, path.resolve(config.UPLOAD_DIR))),
     ...outboxRoutes(dataSource),
+    ...sessionRoutes(sessionService, discharge),
   ];
   app.locals.routeTable = routes;
 

@@ -23,6 +23,7 @@ export const capabilities = [
   'dose-checks.perform',
   'preparations.record',
   'outbox.read',
+  'sessions.run',
 ] as const;
 export type Capability = (typeof capabilities)[number];
 

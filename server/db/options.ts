@@ -2,17 +2,20 @@ import { DataSource, type DataSourceOptions } from 'typeorm';
 import type { Config } from '../config';
 import { Attachment } from './entities/attachment';
 import { AuditEvent } from './entities/audit-event';
+import { DeviationRow } from './entities/deviation';
 import { DoseCheck } from './entities/dose-check';
+import { DoseRecordRow } from './entities/dose-record';
 import { OutboxMessage } from './entities/outbox-message';
 import { Patient } from './entities/patient';
 import { Preparation } from './entities/preparation';
 import { ProtocolApproval } from './entities/protocol-approval';
 import { ProtocolVersion } from './entities/protocol-version';
+import { SessionEventRow } from './entities/session-event';
 import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
 import { migrations } from './migration-list';
 
-export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage];
+export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow];
 
 export interface DatabaseConnection {
   host: string;
@@ -35,7 +38,9 @@ export function dataSourceOptions(connection: DatabaseConnection): DataSourceOpt
     dateStrings: ['DATE'],
     charset: 'utf8mb4_unicode_ci',
     extra: { connectionLimit: 20 },
-    logging: ['error'],
+    // Failures reach the error handler, which logs what is unexpected; expected ones (a replayed
+    // idempotency key, a refused trigger) are not noise worth printing.
+    logging: false,
   };
 }
 

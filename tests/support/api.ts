@@ -94,3 +94,33 @@ export function cxlOrder(patientId: number, overrides: Record<string, unknown> =
     ...overrides,
   };
 }
+
+type Agent = ReturnType<typeof supertest.agent>;
+
+/** Signs a draft as the clinician; returns the signed order. */
+export async function signOrder(agent: Agent, person: TestPerson, body: object) {
+  const draft = await agent.post('/api/orders').send(body);
+  if (draft.status !== 201) throw new Error(`draft failed: ${JSON.stringify(draft.body)}`);
+  const signed = await agent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: person.password, meaning: 'ordered' });
+  if (signed.status !== 200) throw new Error(`signing failed: ${JSON.stringify(signed.body)}`);
+  return signed.body.order;
+}
+
+/**
+ * A standard PDT order taken through the blind check and preparation, ready for the session.
+ * `reconstitutedMinutesAgo` lets a test place the beyond-use time.
+ */
+export async function preparedPdtOrder(ctx: TestContext, team: { clinician: [Agent, TestPerson]; pharmacist: Agent }, reconstitutedMinutesAgo = 30) {
+  const patient = await createTestPatient(ctx);
+  const order = await signOrder(team.clinician[0], team.clinician[1], pdtOrder(patient.id));
+  const check = await team.pharmacist.post(`/api/orders/${order.id}/dose-checks`).send({ bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 });
+  if (check.status !== 201) throw new Error(`check failed: ${JSON.stringify(check.body)}`);
+  const prepared = await team.pharmacist.post(`/api/orders/${order.id}/preparation`).send({
+    vialLot: 'TEST-LOT-1',
+    vialExpiry: new Date(Date.now() + 90 * 86_400_000).toISOString().slice(0, 10),
+    reconstitutedAt: new Date(Date.now() - reconstitutedMinutesAgo * 60_000).toISOString(),
+    volumeDrawnMl: 5.5,
+  });
+  if (prepared.status !== 201) throw new Error(`preparation failed: ${JSON.stringify(prepared.body)}`);
+  return prepared.body.order;
+}

@@ -1,0 +1,81 @@
+import { DateTime } from 'luxon';
+import type { DataSource } from 'typeorm';
+import { lightPrecautionEnd } from '../../shared/session/light-precaution';
+import type { AuditRepository } from '../audit/repository';
+import { AppError } from '../http/app-error';
+import { enqueueMessage } from '../mail/outbox';
+import type { OrderRepository } from '../orders/repository';
+import type { Actor } from '../orders/service';
+import type { SessionRepository } from './repository';
+
+export function createDischargeService(deps: { dataSource: DataSource; orders: OrderRepository; sessions: SessionRepository; audit: AuditRepository; unitName: string; unitTimeZone: string }) {
+  const { orders, sessions } = deps;
+
+  async function sheet(orderId: number) {
+    const order = await orders.findById(orderId);
+    if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
+    const stored = await sessions.recordFor(orderId);
+    if (!stored || stored.record.outcome === 'not-started') throw AppError.conflict('no_session', `Order ${orderId} has no session to discharge from.`);
+    const record = stored.record;
+    const definition = order.protocolVersion.definition;
+    const zone = deps.unitTimeZone;
+    const local = (iso: string | null | undefined) => (iso ? DateTime.fromISO(iso).setZone(zone).toFormat("cccc d LLLL yyyy, HH:mm (ZZZZ)") : null);
+    const infusionStartAt = record.kind === 'pdt' ? record.infusionStartAt : null;
+    const precaution =
+      definition.drug && infusionStartAt
+        ? { ...lightPrecautionEnd({ infusionStartAt, hours: definition.drug.lightPrecautionH, zone }), hours: definition.drug.lightPrecautionH, source: definition.drug.lightPrecautionSource }
+        : null;
+    return {
+      unitName: deps.unitName,
+      unitTimeZone: zone,
+      order: { id: order.id, revision: order.revision, eye: order.eye, status: order.status },
+      patient: { recordNumber: order.patient.recordNumber, givenName: order.patient.givenName, familyName: order.patient.familyName, dateOfBirth: order.patient.dateOfBirth, emailConsent: order.patient.emailConsent, hasEmail: !!order.patient.email },
+      protocol: { key: order.protocolVersion.key, version: order.protocolVersion.version, title: order.protocolVersion.title, kind: order.protocolVersion.kind },
+      plan: order.plan,
+      record,
+      startedLocal: local(record.sessionStartedAt),
+      endedLocal: local(record.endedAt),
+      precaution,
+      cautions: definition.cautions,
+    };
+  }
+
+  return {
+    sheet,
+
+    /** Sends the discharge advice to the patient through the outbox, only if they agreed to e-mail. */
+    async email(actor: Actor, orderId: number) {
+      const data = await sheet(orderId);
+      const order = await orders.findById(orderId);
+      if (!order?.patient.email || !order.patient.emailConsent) {
+        throw AppError.conflict('no_email_consent', 'The patient has not agreed to e-mail (or has no address); give the printed sheet instead.');
+      }
+      const lines = [
+        `Dear ${data.patient.givenName} ${data.patient.familyName},`,
+        '',
+        `Today at ${data.unitName} your ${data.order.eye} eye was treated (${data.protocol.title}).`,
+      ];
+      if (data.precaution) {
+        lines.push(
+          '',
+          `Please protect your skin and eyes from direct sunlight and bright indoor light until ${data.precaution.endLocalText}.`,
+          'Wear the protective clothing and dark glasses you were given. Normal indoor light is good for you: do not sit in the dark.',
+        );
+      }
+      lines.push('', 'If your eye becomes painful, your vision gets worse, or you have any concern, call the eye unit.', '', `${data.unitName}`);
+      await deps.dataSource.transaction((manager) =>
+        enqueueMessage(manager, {
+          kind: 'discharge-advice',
+          recipients: [order.patient.email!],
+          subject: `Your treatment at ${data.unitName}: advice for the coming days`,
+          body: lines.join('\n'),
+          related: { type: 'order', id: orderId },
+        }),
+      );
+      await deps.audit.append({ actorUserId: actor.id, action: 'discharge.emailed', entityType: 'order', entityId: orderId, ipAddress: actor.ipAddress });
+      return { queued: true };
+    },
+  };
+}
+
+export type DischargeService = ReturnType<typeof createDischargeService>;

@@ -1,0 +1,317 @@
+import { formatNumber, roundToStep } from '../engine/rounding';
+import type { ProtocolVersion } from '../protocol/protocol-schema';
+import type { DosePlan } from '../schemas/calculation';
+import type { ChecklistAnswer } from '../schemas/orders';
+import type { DoseRecord } from './dose-record';
+import { deviationTypes, type Deviation, type DeviationSeverity } from './session-events';
+
+export interface PreparationTimes {
+  reconstitutedAt: string;
+  beyondUseAt: string;
+}
+
+export interface DeviationInput {
+  protocol: ProtocolVersion;
+  plan: DosePlan;
+  record: DoseRecord;
+  checklist: readonly ChecklistAnswer[];
+  preparation: PreparationTimes | null;
+}
+
+/** A figure exactly at its tolerance is within it; the slack only absorbs binary noise. */
+const slack = 1e-9;
+
+function outside(actual: number, expected: number, tolerance: number): boolean {
+  return Math.abs(actual - expected) > tolerance + slack;
+}
+
+/** "83 s", "10 min 59 s", "4 h 0 min 1 s": durations as a nurse reads them off a clock. */
+export function durationText(seconds: number): string {
+  const sign = seconds < 0 ? '−' : '';
+  const abs = Math.abs(seconds);
+  if (abs < 60) return `${sign}${formatNumber(roundToStep(abs, 0.1))} s`;
+  const whole = Math.round(abs);
+  const h = Math.floor(whole / 3600);
+  const min = Math.floor((whole % 3600) / 60);
+  const s = whole % 60;
+  const parts = h > 0 ? [`${h} h`] : [];
+  if (h === 0 || min > 0 || s > 0) parts.push(`${min} min`);
+  if (s > 0) parts.push(`${s} s`);
+  return sign + parts.join(' ');
+}
+
+/** Light times read in seconds, as the device shows them, up to 10 min. */
+function lightTimeText(seconds: number): string {
+  return Math.abs(seconds) < 600 ? `${formatNumber(roundToStep(seconds, 0.1))} s` : durationText(seconds);
+}
+
+function timeText(ms: number): string {
+  return `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
+}
+
+const msOf = (at: string | null): number | null => {
+  if (at === null) return null;
+  const ms = Date.parse(at);
+  return Number.isFinite(ms) ? ms : null;
+};
+
+const round = (value: number, step: number) => roundToStep(value, step);
+
+/** Free text quoted in a message is shortened; the full text stays in the record or the order. */
+function quoted(text: string): string {
+  return text.length > 160 ? `${text.slice(0, 159)}…` : text;
+}
+
+/**
+ * The deviations from protocol that the record shows, one per type, in the order of
+ * `deviationTypes`. Only finished facts are judged: an infusion once it has ended, the light
+ * once its step has ended or the session is over; a running figure is never a deviation yet.
+ * A tolerance of null in the protocol means the site does not check that figure.
+ *
+ * Severities (a judgement, kept here in one place):
+ * - critical: harm is likely or the drug is not fit to use — a drug past its beyond-use time,
+ *   UV on a stroma below the minimum (endothelial damage: Spoerl E et al. Cornea 2007),
+ *   extravasation (tissue injury, dose lost), an absolute contraindication overridden;
+ * - major: the treatment differs from the regimen in a way that can change its effect —
+ *   timing, exposure, fluence, soak, UV-phase drop gaps, a stopped session, a documented
+ *   thickness override, the site's own reconstitution limit;
+ * - minor: worth an auditor's look, little effect on the dose — a soak-phase drop gap, a
+ *   caution answered yes with the clinician's reason (the designed path for a caution).
+ */
+export function findDeviations({ protocol, plan, record, checklist, preparation }: DeviationInput): Deviation[] {
+  const found = new Map<Deviation['type'], Deviation>();
+  const add = (deviation: Deviation) => found.set(deviation.type, deviation);
+  const { tolerances } = protocol;
+  const sessionOver = record.outcome === 'completed' || record.outcome === 'stopped';
+  const infusionStartMs = msOf(record.infusionStartAt);
+
+  // Infusion length: the regimen's light timing assumes the studied infusion (TAP 1999: 10 min).
+  const infusionEndMs = msOf(record.infusionEndAt);
+  if (protocol.drug && tolerances.infusionDurationMin !== null && infusionStartMs !== null && infusionEndMs !== null) {
+    const actualS = (infusionEndMs - infusionStartMs) / 1000;
+    const expectedS = protocol.drug.infusionMin * 60;
+    if (outside(actualS, expectedS, tolerances.infusionDurationMin * 60)) {
+      add({
+        type: 'infusion-duration',
+        severity: 'major',
+        expected: protocol.drug.infusionMin,
+        actual: round(actualS / 60, 0.01),
+        unit: 'min',
+        message: `Infusion expected to last ${durationText(expectedS)} (± ${durationText(tolerances.infusionDurationMin * 60)}); it lasted ${durationText(actualS)}${record.extravasationAt ? ', stopped by extravasation' : ''}.`,
+      });
+    }
+  }
+
+  // Light start is timed from the START of the infusion (TAP Study Group, Arch Ophthalmol 1999).
+  if (protocol.timing && tolerances.lightStartMin !== null && record.lightStartAfterInfusionStartS !== null) {
+    const expectedS = plan.lightStartAfterInfusionStartS ?? protocol.timing.lightStartAfterInfusionStartMin * 60;
+    const actualS = record.lightStartAfterInfusionStartS;
+    if (outside(actualS, expectedS, tolerances.lightStartMin * 60)) {
+      add({
+        type: 'light-start-window',
+        severity: 'major',
+        expected: round(expectedS / 60, 0.01),
+        actual: round(actualS / 60, 0.01),
+        unit: 'min',
+        message: `Light expected ${durationText(expectedS)} after the start of the infusion (± ${durationText(tolerances.lightStartMin * 60)}); it started ${durationText(actualS)} after, ${durationText(Math.abs(actualS - expectedS))} ${actualS > expectedS ? 'late' : 'early'}.`,
+      });
+    }
+  }
+
+  judgeLight({ protocol, plan, record, sessionOver, add });
+
+  if (preparation && infusionStartMs !== null) {
+    const reconstitutedMs = msOf(preparation.reconstitutedAt);
+    const beyondUseMs = msOf(preparation.beyondUseAt);
+    if (beyondUseMs !== null && infusionStartMs > beyondUseMs) {
+      const limitH = reconstitutedMs === null ? null : (beyondUseMs - reconstitutedMs) / 3_600_000;
+      add({
+        type: 'beyond-use',
+        severity: 'critical',
+        expected: limitH === null ? null : round(limitH, 0.01),
+        actual: reconstitutedMs === null ? null : round((infusionStartMs - reconstitutedMs) / 3_600_000, 0.01),
+        unit: 'h',
+        message: `Infusion expected to start by the drug's beyond-use time, ${timeText(beyondUseMs)}${limitH === null ? '' : ` (${durationText(limitH * 3600)} after reconstitution)`}; it started at ${timeText(infusionStartMs)}, ${durationText((infusionStartMs - beyondUseMs) / 1000)} past it.`,
+      });
+    }
+    const maxH = tolerances.reconstitutionToInfusionMaxH;
+    if (maxH !== null && reconstitutedMs !== null) {
+      const actualS = (infusionStartMs - reconstitutedMs) / 1000;
+      if (actualS > maxH * 3600 + slack) {
+        add({
+          type: 'reconstitution-to-infusion',
+          severity: 'major',
+          expected: maxH,
+          actual: round(actualS / 3600, 0.01),
+          unit: 'h',
+          message: `Infusion expected to start within ${durationText(maxH * 3600)} of reconstitution (${timeText(reconstitutedMs)}); it started ${durationText(actualS)} after.`,
+        });
+      }
+    }
+  }
+
+  if (protocol.cxl) judgeCxl(protocol, protocol.cxl, record, add);
+
+  if (record.extravasationAt !== null) {
+    const finalMl = protocol.drug?.finalVolumeMl ?? null;
+    add({
+      type: 'extravasation',
+      severity: 'critical',
+      expected: finalMl,
+      actual: record.volumeGivenMl === null ? null : round(record.volumeGivenMl, 0.1),
+      unit: 'mL',
+      message: `Extravasation recorded at ${timeText(Date.parse(record.extravasationAt))}; the infusion was stopped${record.volumeGivenMl === null ? '' : ` with about ${formatNumber(round(record.volumeGivenMl, 0.1))} mL${finalMl === null ? '' : ` of ${formatNumber(finalMl)} mL`} given (worked out from the planned rate, not measured)`}.`,
+    });
+  }
+
+  if (record.outcome === 'stopped') {
+    const step = protocol.steps.find((s) => s.id === record.stoppedInStepId);
+    add({
+      type: 'stopped-early',
+      severity: 'major',
+      expected: null,
+      actual: null,
+      unit: null,
+      message: `Session expected to run to the end of the protocol; it was stopped${record.endedAt ? ` at ${timeText(Date.parse(record.endedAt))}` : ''}${step ? ` during "${step.title}"` : ''}. Reason: ${record.stopReason ? quoted(record.stopReason) : 'not given'}.`,
+    });
+  }
+
+  judgeChecklist(protocol, checklist, add);
+
+  return deviationTypes.flatMap((type) => {
+    const deviation = found.get(type);
+    return deviation ? [deviation] : [];
+  });
+}
+
+function judgeLight({ protocol, plan, record, sessionOver, add }: { protocol: ProtocolVersion; plan: DosePlan; record: DoseRecord; sessionOver: boolean; add: (d: Deviation) => void }): void {
+  const isPdt = protocol.kind === 'pdt';
+  const startAt = isPdt ? record.lightStartAt : record.uvStartAt;
+  const endAt = isPdt ? record.lightEndAt : record.uvEndAt;
+  // Judged when the light step has ended, or the session ended as completed without any light
+  // (nothing was given). A session stopped before the light is the stopped-early deviation.
+  const finished = (startAt !== null && endAt !== null) || (startAt === null && sessionOver && record.outcome === 'completed');
+  if (!finished) return;
+  const what = isPdt ? 'Laser' : 'UV';
+  const onS = (isPdt ? record.lightOnS : record.uvOnS) ?? 0;
+  const plannedS = (isPdt ? plan.exposureS : plan.uvTimeS) ?? protocol.light.exposureS;
+  const { exposureS: exposureTolS, fluencePct } = protocol.tolerances;
+  if (outside(onS, plannedS, exposureTolS)) {
+    add({
+      type: 'exposure-time',
+      severity: 'major',
+      expected: plannedS,
+      actual: round(onS, 0.1),
+      unit: 's',
+      message: `${what} on-time expected ${lightTimeText(plannedS)} (± ${lightTimeText(exposureTolS)}); it was on for ${lightTimeText(onS)}${protocol.light.pulse ? ' (on-share of the pulsed cycle)' : ''}.`,
+    });
+  }
+  const targetJPerCm2 = plan.fluenceJPerCm2 ?? protocol.light.targetFluenceJPerCm2;
+  const irradianceMwPerCm2 = plan.irradianceMwPerCm2 ?? protocol.light.irradianceMwPerCm2;
+  // fluence = irradiance × time; mW/cm² × s ÷ 1000 = J/cm².
+  const deliveredJPerCm2 = record.deliveredFluenceJPerCm2 ?? (irradianceMwPerCm2 * onS) / 1000;
+  const offPct = ((deliveredJPerCm2 - targetJPerCm2) / targetJPerCm2) * 100;
+  if (Math.abs(deliveredJPerCm2 - targetJPerCm2) * 100 > fluencePct * targetJPerCm2 + slack) {
+    add({
+      type: 'delivered-fluence',
+      severity: 'major',
+      expected: targetJPerCm2,
+      actual: round(deliveredJPerCm2, 0.01),
+      unit: 'J/cm²',
+      message: `Delivered fluence expected ${formatNumber(targetJPerCm2)} J/cm² (± ${formatNumber(fluencePct)} %); ${formatNumber(irradianceMwPerCm2)} mW/cm² for ${lightTimeText(onS)} gave ${formatNumber(round(deliveredJPerCm2, 0.01))} J/cm², ${formatNumber(round(Math.abs(offPct), 0.1))} % ${offPct > 0 ? 'over' : 'under'}.`,
+    });
+  }
+}
+
+function judgeCxl(protocol: ProtocolVersion, cxl: NonNullable<ProtocolVersion['cxl']>, record: DoseRecord, add: (d: Deviation) => void): void {
+  const { tolerances } = protocol;
+  const soakFinished = record.soakStartAt !== null && record.soakEndAt !== null;
+  const uvWithoutSoak = record.soakStartAt === null && record.uvStartAt !== null;
+  if (tolerances.soakShortfallMin !== null && (soakFinished || uvWithoutSoak)) {
+    const actualS = record.soakDurationS ?? 0;
+    const shortestS = (cxl.soakMin - tolerances.soakShortfallMin) * 60;
+    if (actualS < shortestS - slack) {
+      add({
+        type: 'soak-short',
+        severity: 'major',
+        expected: cxl.soakMin,
+        actual: round(actualS / 60, 0.01),
+        unit: 'min',
+        message: `Riboflavin soak expected ${durationText(cxl.soakMin * 60)}${tolerances.soakShortfallMin > 0 ? ` (at least ${durationText(shortestS)})` : ''}; ${uvWithoutSoak ? 'UV started with no soak recorded' : `it lasted ${durationText(actualS)}`}.`,
+      });
+    }
+  }
+
+  if (tolerances.dropGapPct !== null) {
+    const factor = 1 + tolerances.dropGapPct / 100;
+    const phases = [
+      { name: 'the soak', intervalS: cxl.dropIntervalSoakMin * 60, gapS: record.soakEndAt !== null ? record.longestDropGapSoakS : null, severity: 'minor' as DeviationSeverity },
+      // During UV the riboflavin film is what shields the deeper cornea, so a gap there weighs more.
+      { name: 'UV', intervalS: cxl.dropIntervalUvMin * 60, gapS: record.uvEndAt !== null ? record.longestDropGapUvS : null, severity: 'major' as DeviationSeverity },
+    ];
+    const over = phases.flatMap((phase) => (phase.gapS !== null && phase.gapS > phase.intervalS * factor + slack ? [{ ...phase, gapS: phase.gapS, ratio: phase.gapS / (phase.intervalS * factor) }] : []));
+    const worst = [...over].sort((a, b) => b.ratio - a.ratio)[0];
+    if (worst) {
+      add({
+        type: 'drop-gap',
+        severity: over.some((phase) => phase.severity === 'major') ? 'major' : 'minor',
+        expected: worst.intervalS,
+        actual: round(worst.gapS, 0.1),
+        unit: 's',
+        message: over
+          .map((phase) => `During ${phase.name} a drop was expected every ${durationText(phase.intervalS)} (gap at most ${durationText(phase.intervalS * factor)}); the longest gap was ${durationText(phase.gapS)}.`)
+          .join(' '),
+      });
+    }
+  }
+
+  if (record.uvStartAt !== null) {
+    const minUm = cxl.minStromalThicknessUm;
+    const readingUm = record.thicknessBeforeUvUm;
+    if (readingUm === null || readingUm < minUm) {
+      add({
+        type: 'uv-below-thickness',
+        // No reading is a missing safety check rather than a known thin cornea.
+        severity: readingUm === null ? 'major' : 'critical',
+        expected: minUm,
+        actual: readingUm,
+        unit: 'µm',
+        message:
+          readingUm === null
+            ? `UV expected to start on a stroma measured at ${formatNumber(minUm)} µm or more; it started with no thickness reading recorded in the session.`
+            : `UV expected to start on a stroma of ${formatNumber(minUm)} µm or more; it started at ${formatNumber(readingUm)} µm.`,
+      });
+    }
+  }
+
+  if (record.thicknessOverrideReason !== null) {
+    add({
+      type: 'thickness-override',
+      severity: 'major',
+      expected: cxl.minStromalThicknessUm,
+      actual: record.thicknessBeforeUvUm,
+      unit: 'µm',
+      message: `The thickness minimum of ${formatNumber(cxl.minStromalThicknessUm)} µm was overridden${record.thicknessBeforeUvUm === null ? '' : ` at ${formatNumber(record.thicknessBeforeUvUm)} µm`}. Reason: ${quoted(record.thicknessOverrideReason)}.`,
+    });
+  }
+}
+
+function judgeChecklist(protocol: ProtocolVersion, checklist: readonly ChecklistAnswer[], add: (d: Deviation) => void): void {
+  const questions = new Map(protocol.contraindications.map((item) => [item.id, item]));
+  const overridden = checklist.filter((answer) => answer.answer === 'yes' && answer.overrideReason);
+  if (overridden.length === 0) return;
+  // An answer to a question the protocol does not hold is treated as a caution.
+  const absolute = overridden.some((answer) => questions.get(answer.id)?.severity === 'absolute');
+  const lines = overridden.map((answer) => {
+    const question = questions.get(answer.id);
+    return `"${question?.question ?? answer.id}" (${question?.severity === 'absolute' ? 'contraindication' : 'caution'}) — reason: ${quoted(answer.overrideReason ?? '')}`;
+  });
+  add({
+    type: 'contraindication-override',
+    severity: absolute ? 'critical' : 'minor',
+    expected: 0,
+    actual: overridden.length,
+    unit: 'answers',
+    message: `Expected no contraindication answered yes; ${overridden.length} answered yes and treated anyway: ${lines.join('; ')}.`,
+  });
+}

@@ -1,0 +1,51 @@
+import { DateTime } from 'luxon';
+
+export interface LightPrecautionEndInput {
+  /** ISO 8601 date-time with offset (the infusion's start as recorded). */
+  infusionStartAt: string;
+  /** The protocol's precaution period (drug.lightPrecautionH). */
+  hours: number;
+  /** The unit's IANA time zone, e.g. Europe/Lisbon. */
+  zone: string;
+}
+
+export interface LightPrecautionEnd {
+  endUtc: string;
+  /** ISO 8601 with the zone's offset at that instant. */
+  endLocal: string;
+  /** e.g. "Monday 26 October 2026, 09:00 WET". */
+  endLocalText: string;
+}
+
+const msPerHour = 3_600_000;
+
+/**
+ * A short English name for the zone at that instant. British English names the European
+ * zones (WET, WEST, CET); US English names the American ones (EST, PDT); otherwise an offset.
+ */
+function zoneAbbreviation(at: DateTime): string {
+  const british = at.setLocale('en-GB').toFormat('ZZZZ');
+  if (!/^(GMT|UTC)[+−-]/.test(british)) return british;
+  const american = at.setLocale('en-US').toFormat('ZZZZ');
+  return /^(GMT|UTC)[+−-]/.test(american) ? british : american;
+}
+
+/**
+ * When the photosensitivity precaution ends. The period is elapsed time counted from the
+ * infusion start, not calendar time, so 48 h stays 48 real hours across a daylight-saving
+ * change and the local clock time of the end may shift by an hour. Throws RangeError on an
+ * unusable input.
+ */
+export function lightPrecautionEnd({ infusionStartAt, hours, zone }: LightPrecautionEndInput): LightPrecautionEnd {
+  const start = DateTime.fromISO(infusionStartAt, { setZone: true });
+  if (!start.isValid) throw new RangeError(`infusionStartAt must be an ISO 8601 date-time (got ${infusionStartAt})`);
+  if (!Number.isFinite(hours) || hours < 0) throw new RangeError(`hours must be a number of at least 0 (got ${hours})`);
+  const endUtc = start.toUTC().plus({ milliseconds: Math.round(hours * msPerHour) });
+  const endLocal = endUtc.setZone(zone);
+  if (!endLocal.isValid) throw new RangeError(`zone must be an IANA time zone such as Europe/Lisbon (got ${zone})`);
+  return {
+    endUtc: endUtc.toISO() ?? '',
+    endLocal: endLocal.toISO() ?? '',
+    endLocalText: `${endLocal.setLocale('en-GB').toFormat('cccc d LLLL yyyy, HH:mm')} ${zoneAbbreviation(endLocal)}`,
+  };
+}

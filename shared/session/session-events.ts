@@ -1,0 +1,103 @@
+import { z } from 'zod';
+
+/**
+ * Everything a nurse taps during a session is one of these events. Each is stored once (its
+ * client-made idempotency key is unique), never changed, and the session's dose record, clock and
+ * deviations are all derived from the list of events.
+ */
+export const sessionEventTypes = [
+  'session-started',
+  'step-started',
+  'step-ended',
+  'paused',
+  'resumed',
+  'drop-given',
+  'thickness-measured',
+  'thickness-override',
+  'extravasation',
+  'session-stopped',
+  'session-completed',
+] as const;
+export type SessionEventType = (typeof sessionEventTypes)[number];
+
+/** The pre-treatment checks, each confirmed aloud and ticked before the clock starts. */
+export const preTreatmentChecks = ['patientIdentity', 'treatmentEye', 'consent', 'eyewear', 'deviceSettings'] as const;
+export type PreTreatmentCheck = (typeof preTreatmentChecks)[number];
+
+const stepId = z.string({ error: 'stepId is required' }).regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'stepId must be a step id of the protocol').max(64);
+const reason = (field: string) => z.string({ error: `${field} is required` }).trim().min(5, `${field} must be 5 to 500 characters`).max(500, `${field} must be 5 to 500 characters`);
+
+const common = {
+  /** Made by the client (a UUID) so a retried send is recognised and stored only once. */
+  idempotencyKey: z.uuid({ error: 'idempotencyKey must be a UUID' }),
+  /** The moment of the tap by the client's clock, corrected by its measured server offset. */
+  clientTime: z.iso.datetime({ offset: true, error: 'clientTime must be an ISO 8601 date-time with offset' }),
+};
+
+export const sessionEventSchema = z.discriminatedUnion(
+  'type',
+  [
+    z.strictObject({
+      ...common,
+      type: z.literal('session-started'),
+      checks: z.strictObject(
+        Object.fromEntries(preTreatmentChecks.map((c) => [c, z.literal(true, { error: `checks.${c} must be confirmed (true) before the session starts` })])) as Record<PreTreatmentCheck, z.ZodLiteral<true>>,
+        { error: `checks must confirm ${preTreatmentChecks.join(', ')}` },
+      ),
+    }),
+    z.strictObject({ ...common, type: z.literal('step-started'), stepId }),
+    z.strictObject({ ...common, type: z.literal('step-ended'), stepId }),
+    z.strictObject({ ...common, type: z.literal('paused'), stepId }),
+    z.strictObject({ ...common, type: z.literal('resumed'), stepId }),
+    z.strictObject({ ...common, type: z.literal('drop-given'), stepId }),
+    z.strictObject({
+      ...common,
+      type: z.literal('thickness-measured'),
+      stepId,
+      thicknessUm: z.number({ error: 'thicknessUm must be a number in µm' }).min(100, 'thicknessUm must be between 100 and 900 µm').max(900, 'thicknessUm must be between 100 and 900 µm'),
+    }),
+    z.strictObject({ ...common, type: z.literal('thickness-override'), reason: reason('reason') }),
+    z.strictObject({ ...common, type: z.literal('extravasation'), note: z.string().trim().max(500, 'note must be at most 500 characters').optional() }),
+    z.strictObject({ ...common, type: z.literal('session-stopped'), reason: reason('reason') }),
+    z.strictObject({ ...common, type: z.literal('session-completed') }),
+  ],
+  { error: `type must be one of ${sessionEventTypes.join(', ')}` },
+);
+export type SessionEventInput = z.infer<typeof sessionEventSchema>;
+
+/** An event as stored: the input plus who recorded it and the server's own time. */
+export type SessionEvent = SessionEventInput & {
+  id: number;
+  serverTime: string;
+  recordedBy: number;
+};
+
+export const deviationSeverities = ['minor', 'major', 'critical'] as const;
+export type DeviationSeverity = (typeof deviationSeverities)[number];
+
+export const deviationTypes = [
+  'infusion-duration',
+  'light-start-window',
+  'exposure-time',
+  'delivered-fluence',
+  'beyond-use',
+  'reconstitution-to-infusion',
+  'soak-short',
+  'drop-gap',
+  'uv-below-thickness',
+  'thickness-override',
+  'extravasation',
+  'stopped-early',
+  'contraindication-override',
+] as const;
+export type DeviationType = (typeof deviationTypes)[number];
+
+export interface Deviation {
+  type: DeviationType;
+  severity: DeviationSeverity;
+  /** What the protocol expected and what happened, as numbers in `unit` where that makes sense. */
+  expected: number | null;
+  actual: number | null;
+  unit: string | null;
+  message: string;
+}

@@ -1,0 +1,102 @@
+import supertest from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { RouteSpec } from '../../server/http/route-table';
+import type { Role } from '../../shared/roles';
+import { createTestPerson, signedInAgent, startTestApp, type TestContext } from '../support/api';
+
+/**
+ * Who may call each API route, written out here independently of the server's role table.
+ * The test walks the server's own route table: a route added without a line here fails, and so
+ * does a route whose answers (401/403 or through) differ from this list.
+ */
+const all: Role[] = ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'];
+const expected: Record<string, 'public' | Role[]> = {
+  'GET /api/health': 'public',
+  'POST /api/auth/login': 'public',
+  'POST /api/auth/logout': 'public',
+  'GET /api/auth/me': all,
+  'GET /api/people': ['admin'],
+  'POST /api/people': ['admin'],
+  'PATCH /api/people/:id': ['admin'],
+  'GET /api/protocols': all,
+  'GET /api/protocols/:key/versions/:version': all,
+  'POST /api/protocols/imports': ['admin'],
+  'POST /api/protocols/drafts': ['admin'],
+  'PUT /api/protocols/:key/versions/:version': ['admin'],
+  'POST /api/protocols/:key/versions/:version/approvals': ['clinician', 'pharmacist'],
+  'POST /api/protocols/:key/versions/:version/retirement': ['admin'],
+  'POST /api/calculations': all,
+  'POST /api/light-calculations': all,
+  'GET /api/patients': ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'],
+  'POST /api/patients': ['clinician', 'admin'],
+  'GET /api/patients/:id': ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'],
+  'GET /api/today': all,
+  'GET /api/orders': ['clinician', 'nurse', 'pharmacist', 'auditor'],
+  'POST /api/orders': ['clinician'],
+  'GET /api/orders/:id': ['clinician', 'nurse', 'pharmacist', 'auditor'],
+  'PUT /api/orders/:id': ['clinician'],
+  'POST /api/orders/:id/signature': ['clinician'],
+  'POST /api/orders/:id/amendments': ['clinician'],
+  'POST /api/orders/:id/dose-checks': ['pharmacist'],
+  'POST /api/orders/:id/preparation': ['pharmacist'],
+  'POST /api/orders/:id/attachments': ['clinician'],
+  'GET /api/attachments/:id': all,
+  'GET /api/outbox': ['admin'],
+  'GET /api/orders/:id/session': ['clinician', 'nurse', 'pharmacist', 'auditor'],
+  'POST /api/orders/:id/session-events': ['nurse'],
+  'GET /api/orders/:id/discharge': ['clinician', 'nurse', 'pharmacist', 'auditor'],
+  'POST /api/orders/:id/discharge-email': ['nurse'],
+};
+
+let ctx: TestContext;
+let routes: (RouteSpec & { key: string })[];
+const agents = new Map<Role, ReturnType<typeof supertest.agent>>();
+
+beforeAll(async () => {
+  ctx = await startTestApp();
+  routes = (ctx.app.locals.routeTable as RouteSpec[]).map((r) => ({ ...r, key: `${r.method.toUpperCase()} /api${r.path}` }));
+  for (const role of all) agents.set(role, await signedInAgent(ctx, await createTestPerson(ctx, [role])));
+});
+afterAll(async () => {
+  await ctx.close();
+});
+
+/** A concrete URL for a route pattern; ids that don't exist are fine, only the access check matters. */
+function concrete(path: string): string {
+  return `/api${path.replace(':id', '999999').replace(':key', 'pdt-standard').replace(':version', '1')}`;
+}
+
+async function call(agent: ReturnType<typeof supertest.agent> | ReturnType<typeof supertest>, route: RouteSpec) {
+  const url = concrete(route.path);
+  const request = route.method === 'get' ? agent.get(url) : agent[route.method](url).send({});
+  return (await request).status;
+}
+
+describe('the permission matrix', () => {
+  it('has an expected line for every route in the server’s route table, and no line for a route that is gone', () => {
+    expect(routes.map((r) => r.key).sort()).toEqual(Object.keys(expected).sort());
+  });
+
+  it('answers every route as expected for nobody and for each role', async () => {
+    const mismatches: string[] = [];
+    for (const route of routes) {
+      const allowed = expected[route.key];
+      if (!allowed) continue;
+      // POST /auth/logout and /auth/login are public; logging out here would end the agents' sessions.
+      if (route.key === 'POST /api/auth/logout') continue;
+      const anonymous = await call(supertest(ctx.app), route);
+      if (allowed === 'public') {
+        if (anonymous === 401 || anonymous === 403) mismatches.push(`${route.key} as nobody: ${anonymous}, expected open`);
+        continue;
+      }
+      if (anonymous !== 401) mismatches.push(`${route.key} as nobody: ${anonymous}, expected 401`);
+      for (const role of all) {
+        const status = await call(agents.get(role)!, route);
+        const through = status !== 401 && status !== 403;
+        if (allowed.includes(role) !== through) mismatches.push(`${route.key} as ${role}: ${status}, expected ${allowed.includes(role) ? 'through' : '403'}`);
+        if (!allowed.includes(role) && status !== 403) mismatches.push(`${route.key} as ${role}: ${status}, expected exactly 403`);
+      }
+    }
+    expect(mismatches).toEqual([]);
+  });
+});
