@@ -46,10 +46,12 @@ export interface AppDependencies {
   mailer: Mailer;
   /** The built client to serve; left out, the app serves the API only. */
   clientDir?: string;
+  /** The server's clock in ms since the epoch; tests that run sessions in accelerated time replace it. */
+  now?: () => number;
 }
 
 /** Builds the Express app; `server/index.ts` decides where it listens. */
-export function createApp({ config, dataSource, clientDir }: AppDependencies): Express {
+export function createApp({ config, dataSource, clientDir, now = Date.now }: AppDependencies): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.TRUST_PROXY);
@@ -77,7 +79,7 @@ export function createApp({ config, dataSource, clientDir }: AppDependencies): E
   const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, unitTimeZone });
   const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
   const sessionRows = createSessionRepository(dataSource);
-  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit });
+  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, now });
   const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitTimeZone });
 
   const routes: RouteSpec[] = [
@@ -87,7 +89,7 @@ export function createApp({ config, dataSource, clientDir }: AppDependencies): E
     ...protocolRoutes(protocols),
     ...calculationRoutes(protocols),
     ...patientRoutes(createPatientService(patients, orders, audit)),
-    ...orderRoutes(orderService, orders),
+    ...orderRoutes(orderService, orders, now),
     ...pharmacyRoutes(pharmacy),
     ...attachmentRoutes(createAttachmentService(dataSource, audit, path.resolve(config.UPLOAD_DIR))),
     ...outboxRoutes(dataSource),

@@ -21,7 +21,7 @@ export interface RunningWebServer {
  * Connects to the database as the app user, loads the shipped protocol files (refusing to start
  * if one differs from its stored version) and listens. Migrations are not run here.
  */
-export async function startWebServer(options: { config?: Config; clientDir?: string; port?: number } = {}): Promise<RunningWebServer> {
+export async function startWebServer(options: { config?: Config; clientDir?: string; port?: number; now?: () => number } = {}): Promise<RunningWebServer> {
   const config = options.config ?? loadConfig();
   const dataSource = appDataSource(config);
   await dataSource.initialize();
@@ -33,7 +33,7 @@ export async function startWebServer(options: { config?: Config; clientDir?: str
     throw error;
   }
   const mailer = createSmtpMailer(config);
-  const app = createApp({ config, dataSource, mailer, clientDir: options.clientDir });
+  const app = createApp({ config, dataSource, mailer, clientDir: options.clientDir, now: options.now });
   const outbox = createOutboxWorker(dataSource, mailer);
   outbox.start();
   const port = options.port ?? config.PORT;

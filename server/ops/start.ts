@@ -1,7 +1,9 @@
 import { loadConfig } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
+import { seedDemoScenario } from '../demo/scenario';
 import { demoPassword, demoPeople, seedDemoData } from '../demo/seed';
+import { loadShippedProtocols } from '../protocols/load-shipped';
 import { startWebServer, stopWebServer, type RunningWebServer } from '../index';
 import { buildClient } from './build-client';
 import { appDatabase, localEnvironment, testDatabase } from './environment';
@@ -49,8 +51,14 @@ try {
   if (config.DEMO_DATA) {
     const seedSource = appDataSource(config);
     await seedSource.initialize();
-    const { created } = await seedDemoData(seedSource).finally(() => seedSource.destroy());
-    console.log(created.length ? `• Demo data added (${created.length} records)` : '• Demo data already present');
+    try {
+      const { created } = await seedDemoData(seedSource);
+      await loadShippedProtocols(seedSource);
+      const sessions = await seedDemoScenario(seedSource, config.UNIT_TIME_ZONE);
+      console.log(created.length || sessions ? `• Demo data added (${created.length} people and patients, ${sessions} orders)` : '• Demo data already present');
+    } finally {
+      await seedSource.destroy();
+    }
   }
 
   mail = await ensureMailCatcher(config.SMTP_PORT, Number(process.env.MAIL_WEB_PORT ?? 1080));

@@ -11,14 +11,14 @@ export function actorOf(req: { ip?: string }, res: Parameters<typeof signedInUse
   return { id: user.id, roles: user.roles, ipAddress: req.ip };
 }
 
-export function orderRoutes(orders: OrderService, repository: OrderRepository): RouteSpec[] {
+export function orderRoutes(orders: OrderService, repository: OrderRepository, now: () => number = Date.now): RouteSpec[] {
   return [
     {
       method: 'get',
       path: '/today',
       access: 'today.view',
       handler: async (req, res) => {
-        res.json({ lists: await todayLists(repository, actorOf(req, res)), serverTime: new Date().toISOString() });
+        res.json({ lists: await todayLists(repository, actorOf(req, res)), serverTime: new Date(now()).toISOString() });
       },
     },
     {

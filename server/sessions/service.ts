@@ -32,8 +32,10 @@ export function createSessionService(deps: {
   sessions: SessionRepository;
   users: UserRepository;
   audit: AuditRepository;
+  now?: () => number;
 }) {
   const { dataSource, orders, sessions, users, audit } = deps;
+  const now = deps.now ?? Date.now;
 
   async function mustFind(orderId: number): Promise<TreatmentOrder> {
     const order = await orders.findById(orderId);
@@ -72,7 +74,7 @@ export function createSessionService(deps: {
   /** Re-derives the record and deviations from every event, inside the caller's transaction. */
   async function recompute(manager: EntityManager, order: TreatmentOrder) {
     const events = await sessions.eventsFor(order.id, manager);
-    const record = deriveDoseRecord({ protocol: order.protocolVersion.definition, plan: order.plan, events, nowMs: Date.now() });
+    const record = deriveDoseRecord({ protocol: order.protocolVersion.definition, plan: order.plan, events, nowMs: now() });
     const preparation = await orders.preparationFor(order.id);
     const deviations = findDeviations({
       protocol: order.protocolVersion.definition,
@@ -95,7 +97,7 @@ export function createSessionService(deps: {
       events,
       record: stored?.record ?? null,
       deviations: deviations.filter((d) => !d.withdrawnAt).map((d) => ({ id: d.id, type: d.type, severity: d.severity, expected: d.expected, actual: d.actual, unit: d.unit, message: d.message, detectedAt: d.detectedAt.toISOString() })),
-      serverTime: new Date().toISOString(),
+      serverTime: new Date(now()).toISOString(),
     };
   }
 
@@ -114,7 +116,7 @@ export function createSessionService(deps: {
         return { ...(await state(orderId)), replayed: true };
       }
       const order = await mustFind(orderId);
-      checkEventFits(order, input, Date.now());
+      checkEventFits(order, input, now());
 
       let ended: 'completed' | 'stopped' | null = null;
       try {

@@ -56,6 +56,76 @@ export const router = createBrowserRouter([
             errorElement: <RouteErrorScreen framed={false} />,
             lazy: screen(() => import('./routes/people'), (m) => m.PeopleRoute),
           },
+          {
+            path: paths.patients.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/patients'), (m) => m.PatientsRoute),
+          },
+          {
+            path: paths.patient.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/patients-record'), (m) => m.PatientRecordRoute),
+          },
+          {
+            path: paths.orders.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/orders'), (m) => m.OrdersRoute),
+          },
+          {
+            path: paths.newOrder.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/order-new'), (m) => m.NewOrderRoute),
+          },
+          {
+            path: paths.order.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/order-detail'), (m) => m.OrderDetailRoute),
+          },
+          {
+            path: paths.orderEdit.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/order-edit'), (m) => m.OrderEditRoute),
+          },
+          {
+            path: paths.orderAmend.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/order-amend'), (m) => m.OrderAmendRoute),
+          },
+          {
+            path: paths.protocols.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/protocols'), (m) => m.ProtocolsRoute),
+          },
+          {
+            path: paths.protocolVersion.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/protocol-version'), (m) => m.ProtocolVersionRoute),
+          },
+          {
+            path: paths.protocolCompare.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/protocol-compare'), (m) => m.ProtocolCompareRoute),
+          },
+          {
+            path: paths.lightCalculator.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/light-calculator'), (m) => m.LightCalculatorRoute),
+          },
+          {
+            path: paths.doseChecks.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/dose-checks'), (m) => m.DoseChecksRoute),
+          },
+          {
+            path: paths.doseCheck.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/dose-check'), (m) => m.DoseCheckRoute),
+          },
+          {
+            path: paths.outbox.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/outbox'), (m) => m.OutboxRoute),
+          },
         ],
       },
       {

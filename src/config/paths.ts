@@ -26,8 +26,57 @@ export const paths = {
     getHref: (key: string, version: number | string) =>
       `/protocols/${encodeURIComponent(key)}/v/${encodeURIComponent(String(version))}`,
   },
+  protocolCompare: {
+    path: '/protocols/:key/compare/:from/:to',
+    /** `from` is read as the earlier version (before), `to` as the later (after). */
+    getHref: (key: string, from: number | string, to: number | string) =>
+      `/protocols/${encodeURIComponent(key)}/compare/${encodeURIComponent(String(from))}/${encodeURIComponent(String(to))}`,
+  },
+  patients: {
+    path: '/patients',
+    /** `q` is the search text, kept in the address so a search can be reloaded or shared. */
+    getHref: (q?: string) => (q ? `/patients?q=${encodeURIComponent(q)}` : '/patients'),
+  },
+  patient: {
+    path: '/patients/:id',
+    getHref: (id: number | string) => `/patients/${encodeURIComponent(String(id))}`,
+  },
+  orders: {
+    path: '/orders',
+    /** `search` is the table's filter, sort and page state as URL search parameters. */
+    getHref: (search?: string) => (search ? `/orders?${search}` : '/orders'),
+  },
+  newOrder: {
+    path: '/orders/new',
+    getHref: (patientId?: number | string) =>
+      patientId !== undefined ? `/orders/new?patientId=${encodeURIComponent(String(patientId))}` : '/orders/new',
+  },
+  order: {
+    path: '/orders/:id',
+    getHref: (id: number | string) => `/orders/${encodeURIComponent(String(id))}`,
+  },
+  orderEdit: {
+    path: '/orders/:id/edit',
+    getHref: (id: number | string) => `/orders/${encodeURIComponent(String(id))}/edit`,
+  },
+  orderAmend: {
+    path: '/orders/:id/amend',
+    getHref: (id: number | string) => `/orders/${encodeURIComponent(String(id))}/amend`,
+  },
   lightCalculator: {
     path: '/light-calculator',
     getHref: () => '/light-calculator',
+  },
+  doseChecks: {
+    path: '/dose-checks',
+    getHref: () => '/dose-checks',
+  },
+  doseCheck: {
+    path: '/dose-checks/:orderId',
+    getHref: (orderId: number | string) => `/dose-checks/${encodeURIComponent(String(orderId))}`,
+  },
+  outbox: {
+    path: '/outbox',
+    getHref: () => '/outbox',
   },
 } as const;

@@ -13,12 +13,12 @@ afterAll(async () => {
 
 /** What each demo role should find in the main navigation — and nothing more. */
 const expectedNavigation: Record<string, string[]> = {
-  clinician: ['Today', 'Protocols', 'Light calculator'],
-  nurse: ['Today', 'Protocols', 'Light calculator'],
-  pharmacist: ['Today', 'Protocols', 'Light calculator'],
-  auditor: ['Today', 'Protocols', 'Light calculator'],
-  admin: ['Today', 'People', 'Protocols', 'Light calculator'],
-  'charge-nurse': ['Today', 'People', 'Protocols', 'Light calculator'],
+  clinician: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
+  nurse: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
+  pharmacist: ['Today', 'Dose checks', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
+  auditor: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
+  admin: ['Today', 'Patients', 'Protocols', 'Light calculator', 'People', 'Outbox'],
+  'charge-nurse': ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator', 'People', 'Outbox'],
 };
 
 async function navigationLabels(page: Page): Promise<string[]> {

@@ -8,6 +8,8 @@ import { testConfig } from './api';
 
 export interface BrowserContext {
   baseUrl: string;
+  /** The server's clock: real time plus `serverClock.offsetMs`, which a test moves with the page's clock. */
+  serverClock: { offsetMs: number };
   browser: Browser;
   server: RunningWebServer;
   close(): Promise<void>;
@@ -15,7 +17,8 @@ export interface BrowserContext {
 
 /** The built client and the API on a free loopback port, with the demo people, and Debian's Chromium. */
 export async function startBrowserTest(): Promise<BrowserContext> {
-  const server = await startWebServer({ config: testConfig(), clientDir: clientDistDir, port: 0 });
+  const serverClock = { offsetMs: 0 };
+  const server = await startWebServer({ config: testConfig(), clientDir: clientDistDir, port: 0, now: () => Date.now() + serverClock.offsetMs });
   await seedDemoData(server.dataSource);
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
@@ -23,6 +26,7 @@ export async function startBrowserTest(): Promise<BrowserContext> {
   });
   return {
     baseUrl: server.url,
+    serverClock,
     browser,
     server,
     async close() {

@@ -1,6 +1,7 @@
 import type { ComponentType, SVGProps } from 'react';
 import type { Capability } from '../../../shared/roles';
-import { PeopleIcon, SunriseIcon } from '../../components/ui/icons';
+import { LightBeamIcon, OutboxTrayIcon, PeopleIcon, ProtocolBookIcon, SunriseIcon, VialCheckIcon } from '../../components/ui/icons';
+import { OrderClipboardIcon, PatientCardIcon } from '../../components/ui/icons';
 import { paths } from '../../config/paths';
 
 export type NavItem = {
@@ -15,5 +16,11 @@ export type NavItem = {
 
 export const navItems: readonly NavItem[] = [
   { label: 'Today', to: paths.today.getHref(), capability: 'today.view', icon: SunriseIcon, end: true },
+  { label: 'Dose checks', to: paths.doseChecks.getHref(), capability: 'dose-checks.perform', icon: VialCheckIcon },
+  { label: 'Orders', to: paths.orders.getHref(), capability: 'orders.read', icon: OrderClipboardIcon },
+  { label: 'Patients', to: paths.patients.getHref(), capability: 'patients.read', icon: PatientCardIcon },
+  { label: 'Protocols', to: paths.protocols.getHref(), capability: 'protocols.read', icon: ProtocolBookIcon },
+  { label: 'Light calculator', to: paths.lightCalculator.getHref(), capability: 'calculations.run', icon: LightBeamIcon },
   { label: 'People', to: paths.people.getHref(), capability: 'people.manage', icon: PeopleIcon },
+  { label: 'Outbox', to: paths.outbox.getHref(), capability: 'outbox.read', icon: OutboxTrayIcon },
 ];

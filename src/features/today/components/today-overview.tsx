@@ -1,6 +1,14 @@
+import { useQuery } from '@tanstack/react-query';
+import { DateTime } from 'luxon';
 import type { Role } from '../../../../shared/roles';
-import { InfoIcon } from '../../../components/ui/icons';
+import { Button } from '../../../components/ui/button';
+import { AlertIcon, InfoIcon, ReloadIcon } from '../../../components/ui/icons';
+import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
+import { unitTimeZone } from '../../../config/unit-time-zone';
+import { describeError } from '../../../lib/api-client';
+import { todayQueries } from '../api/today-queries';
 import { RoleDutiesList } from './role-duties-list';
+import { WorklistSection } from './worklist-section';
 
 type TodayOverviewProps = {
   displayName: string;
@@ -14,39 +22,72 @@ function greetingFor(hour: number): string {
 }
 
 export function TodayOverview({ displayName, roles }: TodayOverviewProps) {
-  const now = new Date();
-  const dateLine = new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric' }).format(now);
+  // The unit's clock, not the device's: a tablet set to another zone still greets the ward's day.
+  const now = DateTime.now().setZone(unitTimeZone);
+  const dateLine = now.setLocale('en-GB').toFormat('cccc d LLLL yyyy');
+  const today = useQuery(todayQueries.worklists());
 
   return (
     <div className="space-y-8">
-      <div className="mb-6 border-b border-paper-200 pb-5">
-        <p className="text-sm font-medium uppercase tracking-wider text-paper-600">
-          <span className="sr-only">Today, </span>
-          {dateLine}
-        </p>
-        <h1 tabIndex={-1} data-page-heading className="mt-1 text-3xl font-semibold tracking-tight text-paper-950">
-          {greetingFor(now.getHours())}, {displayName}
-        </h1>
+      <div className="mb-6 flex flex-wrap items-end justify-between gap-4 border-b border-paper-200 pb-5">
+        <div>
+          <p className="text-sm font-medium uppercase tracking-wider text-paper-600">
+            <span className="sr-only">Today, </span>
+            {dateLine}
+          </p>
+          <h1 tabIndex={-1} data-page-heading className="mt-1 text-3xl font-semibold tracking-tight text-paper-950">
+            {greetingFor(now.hour)}, {displayName}
+          </h1>
+        </div>
+        <Button variant="secondary" icon={<ReloadIcon />} busy={today.isFetching && !today.isPending} onClick={() => void today.refetch()}>
+          Refresh
+        </Button>
       </div>
+
+      <section aria-labelledby="today-worklist-heading" className="space-y-5">
+        <h2 id="today-worklist-heading" className="text-xl font-semibold text-paper-900">
+          Your worklists
+        </h2>
+        {today.isPending ? (
+          <LoadingPanel label="Loading your worklists…" />
+        ) : today.isError && !today.data ? (
+          <StatusPanel
+            role="alert"
+            icon={<AlertIcon className="size-6" />}
+            title="Your worklists could not be loaded"
+            actions={
+              <Button variant="secondary" icon={<ReloadIcon />} busy={today.isFetching} onClick={() => void today.refetch()}>
+                Try again
+              </Button>
+            }
+          >
+            <p>{describeError(today.error)}</p>
+          </StatusPanel>
+        ) : today.data.lists.length === 0 ? (
+          <div className="flex gap-3 rounded-xl border border-dashed border-paper-400 bg-paper-100 px-5 py-4 text-paper-800">
+            <InfoIcon className="mt-0.5 size-5 text-paper-700" />
+            <p>Your roles have no worklist on this page: there are no orders for you to act on here.</p>
+          </div>
+        ) : (
+          <>
+            {today.isError && (
+              <p role="alert" className="flex items-center gap-2 rounded-lg border border-alarm-700 bg-alarm-50 px-4 py-3 text-alarm-800">
+                <AlertIcon className="size-5" />
+                The lists may be out of date: {describeError(today.error)}
+              </p>
+            )}
+            {today.data.lists.map((list) => (
+              <WorklistSection key={list.id} list={list} clockOffsetMs={today.data.clockOffsetMs} />
+            ))}
+          </>
+        )}
+      </section>
 
       <section aria-labelledby="today-roles-heading" className="space-y-3">
         <h2 id="today-roles-heading" className="text-xl font-semibold text-paper-900">
           {roles.length === 1 ? 'Your role' : 'Your roles'}
         </h2>
         <RoleDutiesList roles={roles} />
-      </section>
-
-      <section aria-labelledby="today-worklist-heading" className="space-y-3">
-        <h2 id="today-worklist-heading" className="text-xl font-semibold text-paper-900">
-          Your worklist
-        </h2>
-        <div className="flex gap-3 rounded-xl border border-dashed border-paper-400 bg-paper-100 px-5 py-4 text-paper-800">
-          <InfoIcon className="mt-0.5 size-5 text-paper-700" />
-          <p>
-            Treatment orders are not handled in Luxtempo yet, so there is nothing to list here. Orders, dose checks and sessions
-            waiting for you will appear on this page once they are.
-          </p>
-        </div>
       </section>
     </div>
   );

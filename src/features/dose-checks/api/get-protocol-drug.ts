@@ -1,0 +1,47 @@
+import { z } from 'zod';
+import { bsaFormulaNames } from '../../../../shared/engine/bsa';
+import { api } from '../../../lib/api-client';
+
+/**
+ * The parts of a protocol version the pharmacist works from. Read loosely (unknown keys are
+ * dropped) so this screen keeps working when the protocol file gains fields it does not show.
+ */
+const drugParametersSchema = z.object({
+  key: z.string(),
+  version: z.number(),
+  title: z.string(),
+  status: z.string(),
+  definition: z.object({
+    bsaFormulaDefault: z.enum(bsaFormulaNames),
+    drug: z
+      .object({
+        name: z.string(),
+        doseMgPerM2: z.number(),
+        concentrationMgPerMl: z.number(),
+        vialContentMg: z.number(),
+        reconstitutionVolumeMl: z.number(),
+        reconstitutionFluid: z.string(),
+        reconstitutedVolumeMl: z.number(),
+        finalVolumeMl: z.number(),
+        diluent: z.string(),
+        infusionMin: z.number(),
+        beyondUseH: z.number(),
+      })
+      .nullable(),
+    rounding: z.object({ bsaM2: z.number(), doseMg: z.number(), volumesMl: z.number(), rateMlPerMin: z.number() }),
+    tolerances: z.object({
+      drugVolumePct: z.number().nullable(),
+      doseCheck: z.object({ bsaPct: z.number(), dosePct: z.number(), drugVolumePct: z.number() }).nullable(),
+    }),
+    cautions: z.array(z.string()),
+  }),
+});
+export type ProtocolDrugParameters = z.infer<typeof drugParametersSchema>;
+
+const versionResponseSchema = z.object({ version: drugParametersSchema });
+
+export async function getProtocolDrug(key: string, version: number, { signal }: { signal?: AbortSignal } = {}): Promise<ProtocolDrugParameters> {
+  const address = `/protocols/${encodeURIComponent(key)}/versions/${encodeURIComponent(String(version))}`;
+  const response = await api.get(address, { schema: versionResponseSchema, signal });
+  return response.version;
+}

@@ -1,0 +1,195 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { DateTime } from 'luxon';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import type { DosePlan } from '../../../../shared/schemas/calculation';
+import type { OrderDetail, PreparationEntry } from '../../../../shared/schemas/orders';
+import { Alert } from '../../../components/ui/alert';
+import { Button } from '../../../components/ui/button';
+import { ClockIcon } from '../../../components/ui/icons';
+import { TextField } from '../../../components/ui/text-field';
+import { unitTimeZone, unitTimeZoneLabel } from '../../../config/unit-time-zone';
+import { describeError, isApiRequestError } from '../../../lib/api-client';
+import { applyServerFieldErrors, readableMessage, unplacedFieldProblems } from '../../../lib/form-errors';
+import type { ProtocolDrugParameters } from '../api/get-protocol-drug';
+import { useRecordPreparation } from '../hooks/use-record-preparation';
+import { quantity } from './display-format';
+
+const localMinuteFormat = "yyyy-LL-dd'T'HH:mm";
+
+/*
+ * The form checks only the shape of what is typed. Whether the vial is in date, the time not in
+ * the future and the volume close enough to the plan is the server's rule; its answer is shown
+ * beside the field, naming the allowed range.
+ */
+const preparationFormSchema = z.object({
+  vialLot: z
+    .string()
+    .trim()
+    .regex(/^[A-Za-z0-9][A-Za-z0-9 ./-]{1,39}$/, 'Vial lot must be 2 to 40 letters, digits, spaces, dots, slashes or hyphens, starting with a letter or digit'),
+  vialExpiry: z.iso.date({ error: 'Enter the expiry date printed on the vial (today or later)' }),
+  reconstitutedAt: z
+    .string()
+    .trim()
+    .min(1, `Enter when the powder was reconstituted (${unitTimeZoneLabel}); it cannot be in the future`)
+    .transform((text, ctx) => {
+      const at = DateTime.fromISO(text, { zone: unitTimeZone });
+      if (!at.isValid) {
+        ctx.addIssue({ code: 'custom', message: 'Reconstitution time must be a date and a time of day' });
+        return z.NEVER;
+      }
+      return at.toISO({ suppressMilliseconds: true })!;
+    }),
+  volumeDrawnMl: z
+    .string()
+    .trim()
+    .min(1, 'Enter the volume drawn in mL: a number greater than 0 and at most 100')
+    .transform((text) => Number(text.replace(',', '.')))
+    .pipe(
+      z
+        .number({ error: 'Volume drawn must be a number greater than 0 and at most 100 mL' })
+        .positive('Volume drawn must be a number greater than 0 and at most 100 mL')
+        .max(100, 'Volume drawn must be a number greater than 0 and at most 100 mL'),
+    ),
+});
+type PreparationFormInput = z.input<typeof preparationFormSchema>;
+
+const fieldNames = ['vialLot', 'vialExpiry', 'reconstitutedAt', 'volumeDrawnMl'] as const;
+const labels = { vialLot: 'Vial lot', vialExpiry: 'Vial expiry', reconstitutedAt: 'Reconstitution time', volumeDrawnMl: 'Volume drawn' };
+
+type PreparationFormProps = {
+  order: OrderDetail;
+  plan: DosePlan;
+  protocol: ProtocolDrugParameters | undefined;
+  /** Server clock minus this device's clock, in ms. */
+  clockOffsetMs: number;
+};
+
+export function PreparationForm({ order, plan, protocol, clockOffsetMs }: PreparationFormProps) {
+  const record = useRecordPreparation();
+  const serverNow = () => DateTime.fromMillis(Date.now() + clockOffsetMs, { zone: unitTimeZone });
+  const nowText = () => serverNow().toFormat(localMinuteFormat);
+  const {
+    register,
+    handleSubmit,
+    setError,
+    setValue,
+    formState: { errors },
+  } = useForm<PreparationFormInput, unknown, PreparationEntry>({
+    resolver: zodResolver(preparationFormSchema),
+    defaultValues: { vialLot: '', vialExpiry: '', reconstitutedAt: nowText(), volumeDrawnMl: '' },
+  });
+
+  const onSubmit = handleSubmit((entry) => {
+    record.mutate(
+      { orderId: order.id, entry },
+      {
+        onError: (error) => {
+          if (isApiRequestError(error) && error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
+        },
+      },
+    );
+  });
+
+  const drug = protocol?.definition.drug ?? null;
+  const pct = protocol?.definition.tolerances.drugVolumePct ?? null;
+  const planned = plan.drugVolumeMl;
+  const range =
+    planned !== null && pct !== null ? `from ${quantity(+(planned * (1 - pct / 100)).toFixed(2), 'mL')} to ${quantity(+(planned * (1 + pct / 100)).toFixed(2), 'mL')} (plan ± ${quantity(pct, '%')})` : null;
+
+  const error = record.error;
+  const atFields = isApiRequestError(error) && error.status === 400 && error.fields.some((f) => (fieldNames as readonly string[]).includes(f.path));
+  const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-labelledby="preparation-heading" className="rounded-2xl border-2 border-iris-300 bg-white p-6">
+      <h2 id="preparation-heading" className="text-xl font-semibold text-paper-950">
+        Record the preparation
+      </h2>
+
+      <div className="mt-3 mb-5 rounded-lg bg-paper-100 px-4 py-3 text-paper-900">
+        <h3 className="font-semibold">What to prepare</h3>
+        <ol className="numerals-steady mt-1 list-decimal space-y-0.5 pl-5">
+          {drug && (
+            <li>
+              Reconstitute {quantity(plan.vials, plan.vials === 1 ? 'vial' : 'vials')} of {quantity(drug.vialContentMg, 'mg')} with{' '}
+              {quantity(drug.reconstitutionVolumeMl, 'mL')} {drug.reconstitutionFluid} each ({quantity(drug.concentrationMgPerMl, 'mg/mL')}).
+            </li>
+          )}
+          <li>
+            Draw <strong>{quantity(plan.drugVolumeMl, 'mL')}</strong> ({quantity(plan.doseMg, 'mg')}).
+          </li>
+          <li>
+            Add {quantity(plan.diluentVolumeMl, 'mL')} {drug ? drug.diluent : 'diluent'}
+            {drug ? ` to make ${quantity(drug.finalVolumeMl, 'mL')}` : ''}; infuse at {quantity(plan.infusionRateMlPerMin, 'mL/min')}.
+          </li>
+        </ol>
+      </div>
+
+      {error && (
+        <Alert tone="error" title={atFields ? 'Not recorded: see the fields marked below' : 'Not recorded'} className="mb-5">
+          {!atFields && <p>{describeError(error)}</p>}
+          {atFields && <p>{error.message}</p>}
+          {unplaced.length > 0 && (
+            <ul className="list-disc pl-5">
+              {unplaced.map((problem) => (
+                <li key={problem}>{readableMessage(problem, labels)}</li>
+              ))}
+            </ul>
+          )}
+        </Alert>
+      )}
+
+      <div className="grid gap-5 sm:grid-cols-2">
+        <TextField
+          label="Vial lot"
+          hint="As printed on the vial."
+          autoComplete="off"
+          spellCheck={false}
+          error={readableMessage(errors.vialLot?.message, labels)}
+          {...register('vialLot')}
+        />
+        <TextField
+          label="Vial expiry"
+          type="date"
+          hint="Today or later."
+          min={serverNow().toISODate()!}
+          error={readableMessage(errors.vialExpiry?.message, labels)}
+          {...register('vialExpiry')}
+        />
+        <div className="flex flex-col gap-2">
+          <TextField
+            label="Reconstituted at"
+            type="datetime-local"
+            hint={`${unitTimeZoneLabel} (${unitTimeZone}). Not in the future${drug ? `, nor more than ${quantity(drug.beyondUseH, 'h')} ago` : ''}.`}
+            error={readableMessage(errors.reconstitutedAt?.message, labels)}
+            {...register('reconstitutedAt')}
+          />
+          <Button
+            variant="secondary"
+            size="sm"
+            className="self-start"
+            icon={<ClockIcon className="size-4" />}
+            onClick={() => setValue('reconstitutedAt', nowText(), { shouldDirty: true })}
+          >
+            Set to now
+          </Button>
+        </div>
+        <TextField
+          label="Volume drawn (mL)"
+          inputMode="decimal"
+          autoComplete="off"
+          hint={range ? `Plan ${quantity(planned, 'mL')}; allowed ${range}.` : `Plan ${quantity(planned, 'mL')}.`}
+          className="numerals-steady"
+          error={readableMessage(errors.volumeDrawnMl?.message, labels)}
+          {...register('volumeDrawnMl')}
+        />
+      </div>
+      <div className="mt-6">
+        <Button type="submit" busy={record.isPending}>
+          {record.isPending ? 'Recording…' : 'Record preparation'}
+        </Button>
+      </div>
+    </form>
+  );
+}

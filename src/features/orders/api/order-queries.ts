@@ -1,0 +1,51 @@
+import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import type { OrderListQuery } from '../../../../shared/schemas/orders';
+import { findPatients, getPatient } from './find-patients';
+import { getOrder } from './get-order';
+import { getOrders } from './get-orders';
+import { getProtocolChoices } from './get-protocol-choices';
+import { getProtocolDefinition } from './get-protocol-definition';
+
+/** The orders feature's query keys and options, general → specific. */
+export const orderQueries = {
+  all: () => ['orders'] as const,
+  lists: () => [...orderQueries.all(), 'list'] as const,
+  list: (query: OrderListQuery) =>
+    queryOptions({
+      queryKey: [...orderQueries.lists(), query] as const,
+      queryFn: ({ signal }) => getOrders(query, { signal }),
+      // The current page stays visible while the next one loads, so the table does not jump.
+      placeholderData: keepPreviousData,
+    }),
+  details: () => [...orderQueries.all(), 'detail'] as const,
+  detail: (id: number) =>
+    queryOptions({
+      queryKey: [...orderQueries.details(), id] as const,
+      queryFn: ({ signal }) => getOrder(id, { signal }),
+    }),
+
+  /** What the order form reads from other parts of the API, kept under this feature's keys. */
+  protocolChoices: () =>
+    queryOptions({
+      queryKey: [...orderQueries.all(), 'protocol-choices'] as const,
+      queryFn: ({ signal }) => getProtocolChoices({ signal }),
+    }),
+  protocolDefinition: (key: string, version: number) =>
+    queryOptions({
+      queryKey: [...orderQueries.all(), 'protocol-definition', key, version] as const,
+      queryFn: ({ signal }) => getProtocolDefinition(key, version, { signal }),
+      // An approved version never changes.
+      staleTime: Infinity,
+    }),
+  patientChoices: (text: string) =>
+    queryOptions({
+      queryKey: [...orderQueries.all(), 'patient-choices', text.trim()] as const,
+      queryFn: ({ signal }) => findPatients(text, { signal }),
+      placeholderData: keepPreviousData,
+    }),
+  patient: (id: number) =>
+    queryOptions({
+      queryKey: [...orderQueries.all(), 'patient', id] as const,
+      queryFn: ({ signal }) => getPatient(id, { signal }),
+    }),
+};

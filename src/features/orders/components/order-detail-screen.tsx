@@ -1,0 +1,269 @@
+import { useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Link, useLocation } from 'react-router-dom';
+import { signatureProblems } from '../../../../shared/orders/readiness';
+import type { OrderDetail } from '../../../../shared/schemas/orders';
+import { Alert } from '../../../components/ui/alert';
+import { Button, LinkButton } from '../../../components/ui/button';
+import { AlertIcon, ArrowLeftIcon, CheckCircleIcon, LockIcon, PencilIcon, ReloadIcon, SignatureIcon, StatusReturnedIcon } from '../../../components/ui/icons';
+import { PageHeader } from '../../../components/ui/page-header';
+import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
+import { paths } from '../../../config/paths';
+import { unitTimeZone } from '../../../config/unit-time-zone';
+import { describeError, isApiRequestError } from '../../../lib/api-client';
+import { orderQueries } from '../api/order-queries';
+import { AttachmentsPanel } from './attachments-panel';
+import { ChecklistAnswers, OrderFacts, OrderInputs, OrderReasons, PharmacyRecord } from './order-record-sections';
+import { OrderStatusBadge } from './order-status-badge';
+import { amendableStatuses, eyeWords, fieldWords, kindWords, statusMeanings } from './order-words';
+import { PlanFigures, PlanWarnings, PlanWorking } from './plan-view';
+import { SignOrderDialog } from './sign-order-dialog';
+import { TreatmentCautions } from './treatment-cautions';
+
+type OrderDetailScreenProps = { orderId: number; canWrite: boolean };
+
+export function OrderDetailScreen({ orderId, canWrite }: OrderDetailScreenProps) {
+  const order = useQuery(orderQueries.detail(orderId));
+  const location = useLocation();
+  const [outcome, setOutcome] = useState<string>(() => (location.state as { outcome?: string } | null)?.outcome ?? '');
+  const [signing, setSigning] = useState(false);
+  const protocol = order.data?.protocol;
+  const definitionQuery = useQuery({ ...orderQueries.protocolDefinition(protocol?.key ?? '', protocol?.version ?? 0), enabled: protocol !== undefined });
+  const definition = definitionQuery.data?.definition ?? null;
+
+  if (order.isPending) {
+    return (
+      <>
+        <title>{`Order ${orderId} · Luxtempo`}</title>
+        <LoadingPanel label="Loading the order…" />
+      </>
+    );
+  }
+  if (order.isError) {
+    const missing = isApiRequestError(order.error) && order.error.status === 404;
+    return (
+      <>
+      <title>{`Order ${orderId} · Luxtempo`}</title>
+      <StatusPanel
+        role="alert"
+        headingLevel="h1"
+        icon={<AlertIcon className="size-6" />}
+        title={missing ? 'There is no such order' : 'The order could not be loaded'}
+        actions={
+          <>
+            <LinkButton to={paths.orders.getHref()} icon={<ArrowLeftIcon />}>
+              All orders
+            </LinkButton>
+            {!missing && (
+              <Button variant="primary" icon={<ReloadIcon />} busy={order.isFetching} onClick={() => void order.refetch()}>
+                Try again
+              </Button>
+            )}
+          </>
+        }
+      >
+        <p>{describeError(order.error)}</p>
+      </StatusPanel>
+      </>
+    );
+  }
+
+  const detail = order.data;
+  const isDraft = detail.status === 'draft';
+  const canAmend = canWrite && amendableStatuses.includes(detail.status) && detail.nextRevisionId === null;
+
+  const retreatment = detail.warnings.find((w) => w.code === 'retreatment-interval');
+  const knownProblems =
+    isDraft && definition && detail.plan
+      ? [
+          ...signatureProblems({
+            definition,
+            plan: detail.plan,
+            checklist: detail.checklist,
+            softLimitReasons: detail.softLimitReasons,
+            retreatmentReason: detail.retreatmentReason,
+            recentTreatmentDays: null,
+          }).map((p) => p.message),
+          ...(retreatment && !detail.retreatmentReason ? [`${retreatment.message} Give a retreatment reason.`] : []),
+        ]
+      : [];
+
+  const describePath = (path: string) => {
+    const [head, ...rest] = path.split('.');
+    if (head === 'checklist') return 'Checklist';
+    if (head === 'softLimitReasons') return `Reason for the ${fieldWords[rest.join('.')] ?? rest.join('.')}`;
+    if (head === 'retreatmentReason') return 'Retreatment reason';
+    if (head === 'inputs') return 'Measurements';
+    return head ?? path;
+  };
+
+  return (
+    <>
+      <title>{`Order ${detail.id} · Luxtempo`}</title>
+      <PageHeader
+        title={`Order ${detail.id}${detail.revision > 1 ? ` · revision ${detail.revision}` : ''}`}
+        lead={`${kindWords[detail.kind]}. Times are in the unit’s time zone (${unitTimeZone}).`}
+        actions={
+          <>
+            <LinkButton to={paths.orders.getHref()} icon={<ArrowLeftIcon />}>
+              All orders
+            </LinkButton>
+            {canWrite && isDraft && (
+              <>
+                <LinkButton to={paths.orderEdit.getHref(detail.id)} icon={<PencilIcon />}>
+                  Edit
+                </LinkButton>
+                <Button
+                  icon={<SignatureIcon />}
+                  onClick={() => {
+                    setOutcome('');
+                    setSigning(true);
+                  }}
+                >
+                  Sign
+                </Button>
+              </>
+            )}
+            {canAmend && (
+              <LinkButton variant="primary" to={paths.orderAmend.getHref(detail.id)} icon={<PencilIcon />}>
+                Amend
+              </LinkButton>
+            )}
+          </>
+        }
+      />
+
+      {/* Kept in the page at all times so screen readers announce each outcome as it changes. */}
+      <div role="status" className={outcome ? 'mb-6' : 'sr-only'}>
+        {outcome && (
+          <p className="flex items-center gap-2 rounded-lg border border-iris-200 bg-iris-50 px-4 py-3 font-medium text-iris-900">
+            <CheckCircleIcon className="size-5" />
+            {outcome}
+          </p>
+        )}
+      </div>
+
+      {detail.status === 'returned' && (
+        <div role="alert" className="mb-6 rounded-2xl border-2 border-alarm-700 bg-alarm-50 px-5 py-4">
+          <p className="flex items-center gap-2 text-lg font-semibold text-alarm-800">
+            <StatusReturnedIcon className="size-6" />
+            Sent back by the pharmacist
+          </p>
+          <p className="mt-1 text-paper-950">
+            <span className="font-medium">Comment: </span>
+            {detail.returnComment ?? 'No comment was given.'}
+          </p>
+          {canAmend && <p className="mt-1 text-sm text-paper-800">Amend the order to correct it; the amended revision is checked again from the start.</p>}
+        </div>
+      )}
+      {detail.nextRevisionId !== null && (
+        <Alert tone="info" title={`Revision ${detail.revision + 1} amends this order`} className="mb-6">
+          <Link to={paths.order.getHref(detail.nextRevisionId)} className="font-medium text-iris-700 underline underline-offset-4">
+            Open order {detail.nextRevisionId}
+          </Link>
+          {detail.status === 'superseded' ? ' — it replaced this revision when it was signed.' : ' — it replaces this one once it is signed.'}
+        </Alert>
+      )}
+
+      <section aria-label="Patient and eye" className="mb-6 flex flex-wrap items-center justify-between gap-4 rounded-2xl border-2 border-paper-300 bg-white px-5 py-4">
+        <div>
+          <p className="text-sm text-paper-600">Patient</p>
+          <p className="text-xl font-semibold text-paper-950">
+            <Link to={paths.patient.getHref(detail.patient.id)} className="underline-offset-4 hover:underline">
+              {detail.patient.familyName}, {detail.patient.givenName}
+            </Link>
+          </p>
+          <p className="text-paper-800">Record number {detail.patient.recordNumber}</p>
+        </div>
+        <div className="text-right">
+          <p className="text-sm text-paper-600">Treatment eye</p>
+          <p className="text-3xl font-bold tracking-tight text-paper-950 uppercase">{eyeWords[detail.eye]}</p>
+        </div>
+        <div className="w-full border-t border-paper-200 pt-3 sm:w-auto sm:border-0 sm:pt-0">
+          <p className="text-sm text-paper-600">Status</p>
+          <OrderStatusBadge status={detail.status} size="lg" />
+          <p className="mt-1 max-w-xs text-sm text-paper-700">{statusMeanings[detail.status]}</p>
+        </div>
+      </section>
+
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
+        <div className="min-w-0 space-y-6">
+          {isDraft && canWrite && (
+            <section aria-labelledby="readiness-heading" className="rounded-2xl border border-iris-200 bg-iris-50 px-5 py-4">
+              <h2 id="readiness-heading" className="mb-1 text-lg font-semibold text-paper-950">
+                Before it can be signed
+              </h2>
+              {!definition ? (
+                <p className="text-paper-700">{definitionQuery.isError ? describeError(definitionQuery.error) : 'Checking…'}</p>
+              ) : knownProblems.length === 0 ? (
+                <p className="flex items-center gap-2 text-paper-900">
+                  <CheckCircleIcon className="size-5" /> Nothing missing. Check the plan below, then sign.
+                </p>
+              ) : (
+                <ul className="list-disc space-y-1 pl-5 text-paper-900">
+                  {knownProblems.map((p) => (
+                    <li key={p}>{p.charAt(0).toUpperCase() + p.slice(1)}</li>
+                  ))}
+                </ul>
+              )}
+            </section>
+          )}
+
+          <section aria-labelledby="plan-heading" className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5">
+            <h2 id="plan-heading" className="text-xl font-semibold text-paper-950">
+              {isDraft ? 'Dose plan (recomputed and frozen at signing)' : 'Dose plan as frozen at signing'}
+            </h2>
+            {detail.planWithheld || !detail.plan ? (
+              <div className="flex gap-3 rounded-lg border border-paper-300 bg-paper-100 px-4 py-3">
+                <LockIcon className="mt-0.5 size-5 text-paper-700" />
+                <div className="space-y-1">
+                  <p className="font-semibold text-paper-950">The computed figures are hidden from you for now.</p>
+                  <p className="text-paper-800">
+                    This is the blind double check: work out the BSA, dose and drug volume yourself from the measurements below, and enter
+                    them on the dose check. The plan appears here once your figures match.
+                  </p>
+                  <p>
+                    <Link to={paths.doseCheck.getHref(detail.id)} className="font-medium text-iris-700 underline underline-offset-4">
+                      Go to the dose check for order {detail.id}
+                    </Link>
+                  </p>
+                </div>
+              </div>
+            ) : (
+              <>
+                <PlanFigures plan={detail.plan} />
+                <PlanWorking working={detail.plan.working} />
+              </>
+            )}
+          </section>
+
+          {detail.warnings.length > 0 && <PlanWarnings warnings={detail.warnings} />}
+
+          <OrderInputs order={detail} />
+          <ChecklistAnswers order={detail} definition={definition} />
+          <OrderReasons order={detail} />
+          <AttachmentsPanel order={detail} canUpload={canWrite && isDraft} />
+          <PharmacyRecord order={detail} />
+        </div>
+        <div className="space-y-6">
+          <OrderFacts order={detail} />
+          <TreatmentCautions kind={detail.kind} protocolCautions={definition?.cautions} />
+        </div>
+      </div>
+
+      {canWrite && isDraft && (
+        <SignOrderDialog
+          order={detail}
+          open={signing}
+          knownProblems={knownProblems}
+          describePath={describePath}
+          onDismiss={() => setSigning(false)}
+          onSigned={(signed: OrderDetail) => {
+            setSigning(false);
+            setOutcome(`Order ${signed.id} is signed. ${signed.status === 'signed' ? 'It now waits for the pharmacist’s dose check.' : 'It is ready for the session.'}`);
+          }}
+        />
+      )}
+    </>
+  );
+}

@@ -1,0 +1,284 @@
+import type { FieldError, FieldErrors, Resolver } from 'react-hook-form';
+import type { z } from 'zod';
+import type { BsaFormulaName } from '../../../../shared/engine/bsa';
+import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
+import type { PlanInputs } from '../../../../shared/schemas/calculation';
+import { amendOrderSchema, orderDraftSchema, type AmendOrder, type OrderDetail, type OrderDraft } from '../../../../shared/schemas/orders';
+import type { Eye } from '../../../../shared/schemas/patients';
+
+/**
+ * What the order form holds: text as typed (so nothing is lost or reformatted on an error), the
+ * checklist keyed by question id, and soft-limit reasons keyed by the warned field.
+ */
+export type OrderFormValues = {
+  patientId: string;
+  eye: Eye | '';
+  protocolRef: string;
+  heightValue: string;
+  heightUnit: 'cm' | 'in';
+  weightValue: string;
+  weightUnit: 'kg' | 'lb';
+  bsaFormula: BsaFormulaName | '';
+  lesionGldUm: string;
+  lensMagnification: string;
+  stromalThicknessUm: string;
+  checklist: Record<string, { answer: '' | 'yes' | 'no'; overrideReason: string }>;
+  softLimitReasons: Record<string, string>;
+  retreatmentReason: string;
+  note: string;
+  amendmentReason: string;
+};
+
+export type OrderFormMode = 'new' | 'edit' | 'amend';
+
+export type OrderFormContext = {
+  mode: OrderFormMode;
+  definition: ProtocolVersion | null;
+  /** Fields the preview or the server warned about; only their reasons are sent. */
+  warnedFields: readonly string[] | null;
+};
+
+/** Soft-limit reasons are keyed by API paths with dots, which a form path would read as nesting. */
+export const reasonKey = (field: string) => field.replaceAll('.', '__');
+export const reasonField = (key: string) => key.replaceAll('__', '.');
+
+export const protocolRefOf = (key: string, version: number) => `${key}@${version}`;
+export function parseProtocolRef(ref: string): { key: string; version: number } | null {
+  const match = /^([a-z0-9-]+)@(\d+)$/.exec(ref);
+  return match ? { key: match[1]!, version: Number(match[2]) } : null;
+}
+
+export function emptyOrderForm(patientId?: number): OrderFormValues {
+  return {
+    patientId: patientId ? String(patientId) : '',
+    eye: '',
+    protocolRef: '',
+    heightValue: '',
+    heightUnit: 'cm',
+    weightValue: '',
+    weightUnit: 'kg',
+    bsaFormula: '',
+    lesionGldUm: '',
+    lensMagnification: '',
+    stromalThicknessUm: '',
+    checklist: {},
+    softLimitReasons: {},
+    retreatmentReason: '',
+    note: '',
+    amendmentReason: '',
+  };
+}
+
+const text = (value: number | undefined) => (value === undefined ? '' : String(value));
+
+/** A saved order back into the form, for editing a draft or amending a signed order. */
+export function orderToForm(order: OrderDetail): OrderFormValues {
+  const { inputs } = order;
+  const heightUnit = inputs.height?.unit === 'in' ? 'in' : 'cm';
+  // Metres are not offered on the form; a height stored in metres is shown in centimetres.
+  const heightValue = inputs.height ? (inputs.height.unit === 'm' ? String(Number((inputs.height.value * 100).toPrecision(12))) : String(inputs.height.value)) : '';
+  return {
+    patientId: String(order.patient.id),
+    eye: order.eye,
+    protocolRef: protocolRefOf(order.protocol.key, order.protocol.version),
+    heightValue,
+    heightUnit,
+    weightValue: text(inputs.weight?.value),
+    weightUnit: inputs.weight?.unit ?? 'kg',
+    bsaFormula: inputs.bsaFormula ?? '',
+    lesionGldUm: text(inputs.lesionGldUm),
+    lensMagnification: text(inputs.lensMagnification),
+    stromalThicknessUm: text(inputs.stromalThicknessUm),
+    checklist: Object.fromEntries(order.checklist.map((a) => [a.id, { answer: a.answer, overrideReason: a.overrideReason ?? '' }])),
+    softLimitReasons: Object.fromEntries(Object.entries(order.softLimitReasons).map(([field, reason]) => [reasonKey(field), reason])),
+    retreatmentReason: order.retreatmentReason ?? '',
+    note: order.note ?? '',
+    amendmentReason: '',
+  };
+}
+
+type Parsed = number | undefined | 'invalid';
+
+/** A typed measurement: blank is "not given"; a decimal comma is accepted; anything else is refused. */
+export function parseMeasure(raw: string): Parsed {
+  const trimmed = raw.trim().replace(',', '.');
+  if (trimmed === '') return undefined;
+  if (!/^[+]?(\d+\.?\d*|\.\d+)$/.test(trimmed)) return 'invalid';
+  return Number(trimmed);
+}
+
+const numberFields = {
+  heightValue: 'Height',
+  weightValue: 'Weight',
+  lesionGldUm: 'Lesion GLD',
+  lensMagnification: 'Lens magnification',
+  stromalThicknessUm: 'Stromal thickness',
+} as const;
+type NumberField = keyof typeof numberFields;
+
+/** The measurements the chosen protocol kind takes; the other kind's boxes are left out, not sent. */
+export function formToInputs(values: OrderFormValues, kind: ProtocolVersion['kind'] | null): { inputs: PlanInputs; invalid: NumberField[] } {
+  const invalid: NumberField[] = [];
+  const read = (field: NumberField) => {
+    const parsed = parseMeasure(values[field]);
+    if (parsed === 'invalid') {
+      invalid.push(field);
+      return undefined;
+    }
+    return parsed;
+  };
+  const inputs: PlanInputs = {};
+  const height = read('heightValue');
+  const weight = read('weightValue');
+  if (height !== undefined) inputs.height = { value: height, unit: values.heightUnit };
+  if (weight !== undefined) inputs.weight = { value: weight, unit: values.weightUnit };
+  if (values.bsaFormula && (kind === 'pdt' || height !== undefined || weight !== undefined)) inputs.bsaFormula = values.bsaFormula;
+  if (kind === 'pdt') {
+    const gld = read('lesionGldUm');
+    const magnification = read('lensMagnification');
+    if (gld !== undefined) inputs.lesionGldUm = gld;
+    if (magnification !== undefined) inputs.lensMagnification = magnification;
+  }
+  if (kind === 'cxl') {
+    const thickness = read('stromalThicknessUm');
+    if (thickness !== undefined) inputs.stromalThicknessUm = thickness;
+  }
+  return { inputs, invalid };
+}
+
+const blankToNull = (value: string) => (value.trim() === '' ? null : value.trim());
+
+/** The draft the API takes, built from the form (not yet checked). */
+export function formToDraft(values: OrderFormValues, context: OrderFormContext): OrderDraft | AmendOrder {
+  const protocol = parseProtocolRef(values.protocolRef);
+  const { inputs } = formToInputs(values, context.definition?.kind ?? null);
+  const questionIds = context.definition ? context.definition.contraindications.map((c) => c.id) : Object.keys(values.checklist);
+  const checklist = questionIds.flatMap((id) => {
+    const entry = values.checklist[id];
+    if (!entry || entry.answer === '') return [];
+    const overrideReason = entry.answer === 'yes' ? blankToNull(entry.overrideReason) : null;
+    return [{ id, answer: entry.answer, ...(overrideReason ? { overrideReason } : {}) }];
+  });
+  const softLimitReasons = Object.fromEntries(
+    Object.entries(values.softLimitReasons)
+      .map(([key, reason]) => [reasonField(key), reason.trim()] as const)
+      .filter(([field, reason]) => reason !== '' && (context.warnedFields === null || context.warnedFields.includes(field))),
+  );
+  const draft: OrderDraft = {
+    patientId: /^\d+$/.test(values.patientId) ? Number(values.patientId) : Number.NaN,
+    eye: values.eye as Eye,
+    protocol: protocol ?? { key: '' },
+    inputs,
+    checklist,
+    softLimitReasons,
+    retreatmentReason: blankToNull(values.retreatmentReason),
+    note: blankToNull(values.note),
+  };
+  return context.mode === 'amend' ? { ...draft, amendmentReason: values.amendmentReason.trim() } : draft;
+}
+
+/** The form field that shows a problem reported for an API path (from zod, the engine or the server). */
+export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>): string | null {
+  const parts = path.split('.');
+  const [head, second, third] = parts;
+  switch (head) {
+    case 'patientId':
+    case 'eye':
+    case 'retreatmentReason':
+    case 'note':
+    case 'amendmentReason':
+      return head;
+    case 'protocol':
+      return 'protocolRef';
+    case 'inputs':
+      if (second === 'height') return third === 'unit' ? 'heightUnit' : 'heightValue';
+      if (second === 'weight') return third === 'unit' ? 'weightUnit' : 'weightValue';
+      if (second === 'bsaFormula' || second === 'lesionGldUm' || second === 'lensMagnification' || second === 'stromalThicknessUm') return second;
+      return null;
+    case 'checklist': {
+      if (second === undefined) return null;
+      // zod names a checklist entry by its index; the server names it by the question id.
+      const id = /^\d+$/.test(second) && draft ? draft.checklist[Number(second)]?.id : second;
+      if (!id) return null;
+      return third === 'overrideReason' ? `checklist.${id}.overrideReason` : `checklist.${id}.answer`;
+    }
+    case 'softLimitReasons':
+      return parts.length > 1 ? `softLimitReasons.${reasonKey(parts.slice(1).join('.'))}` : null;
+    default:
+      return null;
+  }
+}
+
+/** Words for the key names the shared schema puts at the start of its messages. */
+export const messageLabels: Record<string, string> = {
+  patientId: 'Patient',
+  eye: 'Eye',
+  'protocol.key': 'Protocol',
+  'protocol.version': 'Protocol version',
+  'height.value': 'Height',
+  'weight.value': 'Weight',
+  lesionGldUm: 'Lesion GLD',
+  lensMagnification: 'Lens magnification',
+  stromalThicknessUm: 'Stromal thickness',
+  'checklist[].overrideReason': 'The reason',
+  'softLimitReasons[field]': 'The reason',
+  retreatmentReason: 'The retreatment reason',
+  note: 'The note',
+  amendmentReason: 'The amendment reason',
+};
+
+function setNested(errors: Record<string, unknown>, name: string, error: FieldError) {
+  const parts = name.split('.');
+  let node = errors;
+  for (const part of parts.slice(0, -1)) {
+    node[part] ??= {};
+    node = node[part] as Record<string, unknown>;
+  }
+  const last = parts.at(-1)!;
+  if (!node[last]) node[last] = error;
+}
+
+type Problem = { field: string; message: string };
+
+/** Checks the form before it is sent: the shared draft schema plus what the form itself asks for. */
+export function checkOrderForm(values: OrderFormValues, context: OrderFormContext): { draft: OrderDraft | AmendOrder; problems: Problem[]; unplaced: string[] } {
+  const draft = formToDraft(values, context);
+  const problems: Problem[] = [];
+  const unplaced: string[] = [];
+
+  if (!/^\d+$/.test(values.patientId)) problems.push({ field: 'patientId', message: 'Choose the patient' });
+  if (values.eye === '') problems.push({ field: 'eye', message: 'Choose the treatment eye: right or left' });
+  if (!parseProtocolRef(values.protocolRef)) problems.push({ field: 'protocolRef', message: 'Choose a protocol version' });
+  else if (!context.definition) problems.push({ field: 'protocolRef', message: 'The protocol version is still loading; try again in a moment' });
+  const { invalid } = formToInputs(values, context.definition?.kind ?? null);
+  for (const field of invalid) problems.push({ field, message: `${numberFields[field]} must be a number, e.g. ${field === 'lensMagnification' ? '1.05' : '180'}` });
+  for (const question of context.definition?.contraindications ?? []) {
+    const entry = values.checklist[question.id];
+    if (entry?.answer === 'yes' && entry.overrideReason.trim() === '') {
+      problems.push({ field: `checklist.${question.id}.overrideReason`, message: 'A yes needs the reason to go on with treatment (5 to 500 characters)' });
+    }
+  }
+
+  const schema: z.ZodType = context.mode === 'amend' ? amendOrderSchema : orderDraftSchema;
+  const parsed = schema.safeParse(draft);
+  if (!parsed.success) {
+    for (const issue of parsed.error.issues) {
+      const path = issue.path.map(String).join('.');
+      const field = formFieldFor(path, draft);
+      if (field === null) unplaced.push(issue.message);
+      else if (!problems.some((p) => p.field === field)) problems.push({ field, message: issue.message });
+    }
+  }
+  return { draft, problems, unplaced };
+}
+
+/** react-hook-form resolver: the same checks, with each problem beside its own field. */
+export const orderFormResolver: Resolver<OrderFormValues, OrderFormContext> = (values, context) => {
+  if (!context) throw new Error('the order form needs its context');
+  const { problems, unplaced } = checkOrderForm(values, context);
+  if (problems.length === 0 && unplaced.length === 0) return { values, errors: {} };
+  const errors: Record<string, unknown> = {};
+  for (const problem of problems) setNested(errors, problem.field, { type: 'validate', message: problem.message });
+  if (unplaced.length > 0) setNested(errors, 'root.form', { type: 'validate', message: unplaced.join('; ') });
+  return { values: {}, errors: errors as FieldErrors<OrderFormValues> };
+};

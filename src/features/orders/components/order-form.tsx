@@ -1,0 +1,395 @@
+import { useQuery } from '@tanstack/react-query';
+import { useEffect, useMemo, useRef } from 'react';
+import { Controller, useForm, useWatch } from 'react-hook-form';
+import { bsaFormulaNames, bsaFormulas } from '../../../../shared/engine/bsa';
+import { signatureProblems } from '../../../../shared/orders/readiness';
+import type { InputLimit } from '../../../../shared/protocol/protocol-schema';
+import type { AmendOrder, OrderDetail, OrderDraft } from '../../../../shared/schemas/orders';
+import { Alert } from '../../../components/ui/alert';
+import { Button, LinkButton } from '../../../components/ui/button';
+import { describeError, isApiRequestError } from '../../../lib/api-client';
+import { readableMessage } from '../../../lib/form-errors';
+import { orderQueries } from '../api/order-queries';
+import type { ProtocolChoices } from '../api/order-response-schemas';
+import { usePlanPreview } from '../hooks/use-plan-preview';
+import { useSaveOrder } from '../hooks/use-save-order';
+import { ContraindicationChecklist } from './contraindication-checklist';
+import {
+  checkOrderForm,
+  formFieldFor,
+  formToInputs,
+  messageLabels,
+  orderFormResolver,
+  parseProtocolRef,
+  protocolRefOf,
+  reasonKey,
+  type OrderFormContext,
+  type OrderFormMode,
+  type OrderFormValues,
+} from './order-form-values';
+import { fieldWords } from './order-words';
+import { MeasureField } from './measure-field';
+import { PatientPicker } from './patient-picker';
+import { PlanPreviewPanel } from './plan-preview-panel';
+import { formatFigure } from './plan-numbers';
+import { SelectField } from './select-field';
+import { TextAreaField } from './text-area-field';
+import { TreatmentCautions } from './treatment-cautions';
+
+type OrderFormProps = {
+  mode: OrderFormMode;
+  initialValues: OrderFormValues;
+  /** The order being edited or amended. */
+  source?: OrderDetail;
+  protocolChoices: ProtocolChoices;
+  cancelHref: string;
+  onSaved: (order: OrderDetail) => void;
+};
+
+const read = (message: string | undefined) => readableMessage(message, messageLabels);
+const sentence = (message: string) => message.charAt(0).toUpperCase() + message.slice(1);
+
+function rangeHint(limit: InputLimit | null | undefined, unit: string, other?: { unit: string; per: number }): string | undefined {
+  if (!limit) return undefined;
+  const { hard, soft } = limit;
+  const unitText = unit ? ` ${unit}` : '';
+  const inOther = other ? ` (${formatFigure(Number((hard.min / other.per).toFixed(1)))}–${formatFigure(Number((hard.max / other.per).toFixed(1)))} ${other.unit})` : '';
+  return `Allowed ${formatFigure(hard.min)}–${formatFigure(hard.max)}${unitText}${inOther}; usual ${formatFigure(soft.min)}–${formatFigure(soft.max)}${unitText}`;
+}
+
+function Section({ id, title, lead, children }: { id: string; title: string; lead?: string; children: React.ReactNode }) {
+  return (
+    <section aria-labelledby={`${id}-heading`} className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5">
+      <div>
+        <h2 id={`${id}-heading`} className="text-xl font-semibold text-paper-950">
+          {title}
+        </h2>
+        {lead && <p className="mt-1 text-sm text-paper-700">{lead}</p>}
+      </div>
+      {children}
+    </section>
+  );
+}
+
+export function OrderForm({ mode, initialValues, source, protocolChoices, cancelHref, onSaved }: OrderFormProps) {
+  const save = useSaveOrder();
+  const contextRef = useRef<OrderFormContext>({ mode, definition: null, warnedFields: null });
+  const {
+    register,
+    control,
+    handleSubmit,
+    setError,
+    setValue,
+    getValues,
+    formState: { errors, isSubmitted },
+  } = useForm<OrderFormValues, OrderFormContext>({
+    defaultValues: initialValues,
+    resolver: orderFormResolver,
+    // The resolver reads the protocol and warnings as they are now, not as they were at mount.
+    context: contextRef.current,
+    reValidateMode: 'onChange',
+    shouldFocusError: true,
+  });
+
+  const values = useWatch({ control }) as OrderFormValues;
+  const chosenRef = parseProtocolRef(values.protocolRef);
+  const definitionQuery = useQuery({ ...orderQueries.protocolDefinition(chosenRef?.key ?? '', chosenRef?.version ?? 0), enabled: chosenRef !== null });
+  const definition = chosenRef ? (definitionQuery.data?.definition ?? null) : null;
+  const kind = definition?.kind ?? null;
+
+  // A new protocol brings its own default BSA formula, unless the clinician chose another.
+  const lastDefault = useRef<string | null>(null);
+  useEffect(() => {
+    if (!definition) return;
+    const current = getValues('bsaFormula');
+    if (current === '' || current === lastDefault.current) setValue('bsaFormula', definition.bsaFormulaDefault);
+    lastDefault.current = definition.bsaFormulaDefault;
+  }, [definition, getValues, setValue]);
+
+  const { inputs } = formToInputs(values, kind);
+  const preview = usePlanPreview(definition, inputs);
+
+  const retreatmentWarning = source?.status === 'draft' ? source.warnings.find((w) => w.code === 'retreatment-interval') : undefined;
+  const softLimitWarnings = useMemo(() => {
+    const from = preview.state === 'ready' ? preview.plan.warnings : preview.state === 'refused' ? [] : (source?.warnings ?? []);
+    return from.filter((w): w is typeof w & { field: string } => w.code === 'soft-limit' && typeof w.field === 'string');
+  }, [preview, source]);
+
+  contextRef.current.definition = definition;
+  contextRef.current.warnedFields = preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null;
+
+  // Problems the engine finds with what is typed: beside the field when something is typed there,
+  // otherwise in the preview's list of what is still needed.
+  const typedIn = (field: string | null) => field !== null && field in values && String(values[field as keyof OrderFormValues] ?? '').trim() !== '';
+  const engineProblems = preview.state === 'refused' ? preview.problems : [];
+  const besideField = new Map<string, string>();
+  const missing = engineProblems.filter((p) => {
+    const field = formFieldFor(p.path);
+    if (typedIn(field)) {
+      if (!besideField.has(field!)) besideField.set(field!, sentence(p.message));
+      return false;
+    }
+    return true;
+  });
+  const fieldError = (name: keyof OrderFormValues) => read(errors[name]?.message as string | undefined) ?? besideField.get(name);
+
+  const readiness = useMemo(() => {
+    if (!definition || preview.state !== 'ready') return null;
+    const draft = checkOrderForm(values, { ...contextRef.current, warnedFields: null }).draft;
+    const problems = signatureProblems({
+      definition,
+      plan: preview.plan,
+      checklist: draft.checklist,
+      softLimitReasons: draft.softLimitReasons,
+      retreatmentReason: draft.retreatmentReason ?? null,
+      recentTreatmentDays: null,
+    }).map((p) => p.message);
+    if (retreatmentWarning && !draft.retreatmentReason) problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
+    return problems;
+  }, [definition, preview, values, retreatmentWarning]);
+
+  const onSubmit = handleSubmit((formValues) => {
+    const { draft } = checkOrderForm(formValues, contextRef.current);
+    const request =
+      mode === 'new'
+        ? { mode, draft: draft as OrderDraft }
+        : mode === 'edit'
+          ? { mode, id: source!.id, draft: draft as OrderDraft }
+          : { mode, id: source!.id, amendment: draft as AmendOrder };
+    save.mutate(request, {
+      onSuccess: onSaved,
+      onError: (error) => {
+        if (!isApiRequestError(error) || error.status !== 400) return;
+        let focused = false;
+        for (const problem of error.fields) {
+          const field = formFieldFor(problem.path, draft);
+          if (!field) continue;
+          setError(field as keyof OrderFormValues, { type: 'server', message: sentence(problem.message) }, { shouldFocus: !focused });
+          focused = true;
+        }
+      },
+    });
+  });
+
+  const saveError = save.error;
+  const unplacedServer = isApiRequestError(saveError) ? saveError.fields.filter((p) => formFieldFor(p.path) === null).map((p) => sentence(p.message)) : [];
+  const formLevelError = (errors.root as Record<string, { message?: string }> | undefined)?.form?.message;
+  const approved = protocolChoices.flatMap((p) => p.versions.filter((v) => v.status === 'approved'));
+  const currentNotApproved = chosenRef && !approved.some((v) => v.key === chosenRef.key && v.version === chosenRef.version);
+  const limits = definition?.inputLimits;
+
+  const saveLabel = mode === 'amend' ? 'Save the amendment as a draft' : 'Save draft';
+
+  return (
+    <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+      <form onSubmit={onSubmit} noValidate className="min-w-0 space-y-6" aria-label={mode === 'amend' ? 'Amendment' : 'Order'}>
+        {mode === 'amend' && (
+          <Section id="amendment" title="Why this amendment" lead="The signed revision stays on record; this reason goes with the new revision.">
+            <TextAreaField
+              label="Reason for the amendment (required)"
+              hint="5 to 500 characters"
+              rows={3}
+              error={fieldError('amendmentReason')}
+              {...register('amendmentReason')}
+            />
+          </Section>
+        )}
+
+        <Section id="who" title="Patient and eye">
+          <Controller
+            control={control}
+            name="patientId"
+            render={({ field }) => <PatientPicker ref={field.ref} value={field.value} onChange={field.onChange} locked={mode === 'amend'} error={fieldError('patientId')} />}
+          />
+          <fieldset aria-describedby="eye-reminder" className="space-y-2">
+            <legend className="font-medium text-paper-900">Treatment eye (required)</legend>
+            <p id="eye-reminder" className="text-sm text-paper-700">
+              Confirm the eye with the patient and against the notes and the consent form before choosing.
+            </p>
+            <div className="flex flex-wrap gap-3">
+              {(['right', 'left'] as const).map((eye) => (
+                <label
+                  key={eye}
+                  className="flex min-h-tap min-w-40 cursor-pointer items-center gap-3 rounded-lg border border-paper-400 bg-white px-4 py-2 text-lg font-semibold has-[:checked]:border-2 has-[:checked]:border-iris-700 has-[:checked]:bg-iris-50"
+                >
+                  <input type="radio" value={eye} className="size-5 accent-iris-700" aria-invalid={errors.eye ? true : undefined} {...register('eye')} />
+                  {eye === 'right' ? 'Right eye' : 'Left eye'}
+                </label>
+              ))}
+            </div>
+            {fieldError('eye') && (
+              <p className="text-sm font-medium text-alarm-700" role="alert">
+                {fieldError('eye')}
+              </p>
+            )}
+          </fieldset>
+        </Section>
+
+        <Section id="protocol" title="Protocol">
+          <SelectField
+            label="Protocol version"
+            hint="Approved versions only; the order keeps the exact version chosen."
+            error={fieldError('protocolRef') ?? (definitionQuery.isError ? describeError(definitionQuery.error) : undefined)}
+            {...register('protocolRef')}
+          >
+            <option value="">Choose a protocol version…</option>
+            {protocolChoices.map((protocol) => {
+              const versions = protocol.versions.filter((v) => v.status === 'approved');
+              if (versions.length === 0) return null;
+              return (
+                <optgroup key={protocol.key} label={protocol.kind === 'pdt' ? 'Photodynamic therapy' : 'Corneal cross-linking'}>
+                  {versions.map((v) => (
+                    <option key={`${v.key}-${v.version}`} value={protocolRefOf(v.key, v.version)}>
+                      {v.title} — version {v.version}
+                    </option>
+                  ))}
+                </optgroup>
+              );
+            })}
+            {currentNotApproved && (
+              <option value={values.protocolRef}>
+                {source?.protocol.title ?? chosenRef.key} — version {chosenRef.version} (no longer approved)
+              </option>
+            )}
+          </SelectField>
+          {definition && <p className="text-sm text-paper-700">{definition.summary}</p>}
+        </Section>
+
+        <Section
+          id="measurements"
+          title="Measurements"
+          lead={kind === 'cxl' ? 'Height and weight are optional for cross-linking; when given, the plan shows the BSA.' : 'Measured today where possible. Values outside the usual range need a reason.'}
+        >
+          <div className="grid gap-5 sm:grid-cols-2">
+            <MeasureField
+              label={kind === 'cxl' ? 'Height (optional)' : 'Height'}
+              hint={rangeHint(limits?.heightCm, 'cm', { unit: 'in', per: 2.54 })}
+              error={fieldError('heightValue')}
+              value={register('heightValue')}
+              unit={{ registration: register('heightUnit'), options: ['cm', 'in'] }}
+            />
+            <MeasureField
+              label={kind === 'cxl' ? 'Weight (optional)' : 'Weight'}
+              hint={rangeHint(limits?.weightKg, 'kg', { unit: 'lb', per: 0.45359237 })}
+              error={fieldError('weightValue')}
+              value={register('weightValue')}
+              unit={{ registration: register('weightUnit'), options: ['kg', 'lb'] }}
+            />
+            <SelectField
+              label="BSA formula"
+              hint={definition ? `The protocol’s default is ${bsaFormulas[definition.bsaFormulaDefault].label}.` : 'The protocol’s default is chosen for you.'}
+              error={fieldError('bsaFormula')}
+              {...register('bsaFormula')}
+            >
+              <option value="">Protocol default</option>
+              {bsaFormulaNames.map((name) => (
+                <option key={name} value={name}>
+                  {bsaFormulas[name].label}
+                  {definition?.bsaFormulaDefault === name ? ' (protocol default)' : ''}
+                </option>
+              ))}
+            </SelectField>
+          </div>
+
+          {kind === 'pdt' && (
+            <div className="grid gap-5 sm:grid-cols-2">
+              <MeasureField
+                label="Lesion greatest linear dimension (GLD)"
+                hint={rangeHint(limits?.lesionGldUm, 'µm')}
+                error={fieldError('lesionGldUm')}
+                value={register('lesionGldUm')}
+                fixedUnit="µm"
+              />
+              <MeasureField
+                label="Laser-spot magnification of the contact lens"
+                hint={rangeHint(limits?.lensMagnification, '') ?? 'The factor given for the lens in use'}
+                error={fieldError('lensMagnification')}
+                value={register('lensMagnification')}
+                fixedUnit="×"
+              />
+            </div>
+          )}
+          {kind === 'cxl' && (
+            <div className="grid gap-5 sm:grid-cols-2">
+              <MeasureField
+                label="Thinnest stromal thickness"
+                hint={`${rangeHint(limits?.stromalThicknessUm, 'µm') ?? ''}${definition?.cxl ? `. The protocol’s minimum for UV is ${formatFigure(definition.cxl.minStromalThicknessUm)} µm.` : ''}`}
+                error={fieldError('stromalThicknessUm')}
+                value={register('stromalThicknessUm')}
+                fixedUnit="µm"
+              />
+            </div>
+          )}
+          {!kind && <p className="text-sm text-paper-700">Choose a protocol version to see the measurements it needs.</p>}
+        </Section>
+
+        {definition && (
+          <Section id="checklist" title="Contraindication checklist" lead="Ask the patient and check the notes. Answer every question yes or no.">
+            <ContraindicationChecklist questions={definition.contraindications} register={register} control={control} errors={errors} readMessage={read} />
+          </Section>
+        )}
+
+        {(softLimitWarnings.length > 0 || retreatmentWarning || values.retreatmentReason.trim() !== '') && (
+          <Section id="reasons" title="Reasons to go on" lead="Each warning below needs a reason before the order can be signed.">
+            {softLimitWarnings.map((warning) => (
+              <div key={warning.field} className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
+                <p className="text-sm text-paper-900">{sentence(warning.message)}</p>
+                <TextAreaField
+                  label={`Reason for the ${fieldWords[warning.field] ?? warning.field} outside the usual range`}
+                  hint="5 to 500 characters, e.g. how it was re-measured"
+                  error={read((errors.softLimitReasons?.[reasonKey(warning.field)] as { message?: string } | undefined)?.message)}
+                  {...register(`softLimitReasons.${reasonKey(warning.field)}`)}
+                />
+              </div>
+            ))}
+            {(retreatmentWarning || values.retreatmentReason.trim() !== '') && (
+              <div className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
+                {retreatmentWarning && <p className="text-sm text-paper-900">{retreatmentWarning.message}</p>}
+                <TextAreaField label="Reason to treat again within the minimum interval" hint="5 to 500 characters" error={fieldError('retreatmentReason')} {...register('retreatmentReason')} />
+              </div>
+            )}
+          </Section>
+        )}
+
+        <Section id="note" title="Note">
+          <TextAreaField label="Note for the team (optional)" hint="Up to 2000 characters" rows={3} error={fieldError('note')} {...register('note')} />
+        </Section>
+
+        {formLevelError && (
+          <Alert tone="error" title="The draft was not saved">
+            {formLevelError}
+          </Alert>
+        )}
+        {isSubmitted && Object.keys(errors).length > 0 && !formLevelError && !save.isError && (
+          <Alert tone="error" title="The draft was not saved: check the fields marked above" />
+        )}
+        {saveError && (
+          <Alert tone="error" title={isApiRequestError(saveError) && saveError.status === 400 && saveError.fields.length > 0 ? 'The draft was not saved: check the fields marked above' : 'The draft was not saved'}>
+            {unplacedServer.length > 0 ? (
+              <ul className="list-disc pl-5">
+                {unplacedServer.map((m) => (
+                  <li key={m}>{m}</li>
+                ))}
+              </ul>
+            ) : isApiRequestError(saveError) && saveError.status === 400 && saveError.fields.length > 0 ? null : (
+              describeError(saveError)
+            )}
+          </Alert>
+        )}
+        <div className="flex flex-wrap gap-3">
+          <Button type="submit" busy={save.isPending}>
+            {save.isPending ? 'Saving…' : saveLabel}
+          </Button>
+          <LinkButton to={cancelHref} variant="secondary">
+            Cancel
+          </LinkButton>
+        </div>
+      </form>
+
+      <div className="space-y-6">
+        <PlanPreviewPanel preview={preview} protocolChosen={chosenRef !== null} missing={missing} signatureProblems={readiness} />
+        <TreatmentCautions kind={kind} protocolCautions={definition?.cautions} />
+      </div>
+    </div>
+  );
+}

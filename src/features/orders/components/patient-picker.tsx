@@ -1,0 +1,151 @@
+import { useQuery } from '@tanstack/react-query';
+import { useEffect, useId, useState, type Ref } from 'react';
+import type { Patient } from '../../../../shared/schemas/patients';
+import { Button } from '../../../components/ui/button';
+import { PatientCardIcon, SpinnerIcon } from '../../../components/ui/icons';
+import { FieldError, TextField } from '../../../components/ui/text-field';
+import { describeError } from '../../../lib/api-client';
+import { orderQueries } from '../api/order-queries';
+import { formatCalendarDate } from './unit-dates';
+
+type PatientPickerProps = {
+  /** The chosen patient's id as text, or '' for none. */
+  value: string;
+  onChange: (patientId: string) => void;
+  /** An amendment keeps its patient. */
+  locked: boolean;
+  error?: string;
+  ref?: Ref<HTMLElement>;
+};
+
+function PatientLine({ patient }: { patient: Patient }) {
+  return (
+    <>
+      <span className="font-semibold text-paper-950">
+        {patient.familyName}, {patient.givenName}
+      </span>
+      <span className="text-paper-700">
+        {' '}
+        · {patient.recordNumber} · born {formatCalendarDate(patient.dateOfBirth)}
+      </span>
+    </>
+  );
+}
+
+function useSettled(text: string, delayMs: number) {
+  const [settled, setSettled] = useState(text);
+  useEffect(() => {
+    const timer = setTimeout(() => setSettled(text), delayMs);
+    return () => clearTimeout(timer);
+  }, [text, delayMs]);
+  return settled;
+}
+
+/** The chosen patient, or a search that lists matching patients to choose from. */
+export function PatientPicker({ value, onChange, locked, error, ref }: PatientPickerProps) {
+  const id = useId();
+  const chosenId = /^\d+$/.test(value) ? Number(value) : null;
+  const chosen = useQuery({ ...orderQueries.patient(chosenId ?? 0), enabled: chosenId !== null });
+  const [text, setText] = useState('');
+  const settled = useSettled(text.trim(), 300);
+  const matches = useQuery({ ...orderQueries.patientChoices(settled), enabled: chosenId === null && settled.length > 0 });
+  const errorId = error ? `${id}-error` : undefined;
+
+  if (chosenId !== null) {
+    return (
+      <section aria-labelledby={`${id}-heading`} className="flex flex-col gap-1.5">
+        <h3 id={`${id}-heading`} className="font-medium text-paper-900">
+          Patient
+        </h3>
+        <div
+          className={`flex flex-wrap items-center justify-between gap-3 rounded-lg border bg-white px-4 py-3 ${error ? 'border-2 border-alarm-700' : 'border-paper-300'}`}
+          aria-describedby={errorId}
+        >
+          <p className="flex min-w-0 items-center gap-3">
+            <PatientCardIcon className="size-6 text-paper-700" />
+            {chosen.data ? (
+              <span>
+                <PatientLine patient={chosen.data} />
+              </span>
+            ) : chosen.isError ? (
+              <span className="text-alarm-700">{describeError(chosen.error)}</span>
+            ) : (
+              <span className="flex items-center gap-2 text-paper-700">
+                <SpinnerIcon className="size-4" /> Loading the patient…
+              </span>
+            )}
+          </p>
+          {!locked && (
+            <Button
+              variant="secondary"
+              size="sm"
+              ref={ref as Ref<HTMLButtonElement>}
+              onClick={() => {
+                setText('');
+                onChange('');
+              }}
+            >
+              Choose another patient
+            </Button>
+          )}
+        </div>
+        {locked && <p className="text-sm text-paper-600">An amendment stays with the same patient. For another patient, start a new order.</p>}
+        <FieldError id={errorId} message={error} />
+      </section>
+    );
+  }
+
+  const results = matches.data ?? [];
+  return (
+    <div className="flex flex-col gap-3">
+      <TextField
+        ref={ref as Ref<HTMLInputElement>}
+        label="Patient"
+        hint="Type the first letters of the record number or a name, then choose the patient from the list"
+        type="search"
+        autoComplete="off"
+        spellCheck={false}
+        value={text}
+        error={error}
+        onChange={(event) => setText(event.target.value)}
+      />
+      {settled.length > 0 && (
+        <div aria-live="polite">
+          {matches.isPending ? (
+            <p className="flex items-center gap-2 text-paper-700">
+              <SpinnerIcon className="size-4" /> Looking for patients…
+            </p>
+          ) : matches.isError ? (
+            <p className="text-alarm-700">{describeError(matches.error)}</p>
+          ) : results.length === 0 ? (
+            <p className="text-paper-700">No patient matches “{settled}”.</p>
+          ) : (
+            <fieldset className="rounded-lg border border-paper-300 bg-white p-2">
+              <legend className="px-1 text-sm font-medium text-paper-800">
+                {results.length} matching {results.length === 1 ? 'patient' : 'patients'}: choose one
+              </legend>
+              <ul className="max-h-64 overflow-y-auto">
+                {results.map((patient) => (
+                  <li key={patient.id}>
+                    <label className="flex min-h-tap cursor-pointer items-center gap-3 rounded-md px-2 py-1.5 hover:bg-paper-100">
+                      <input
+                        type="radio"
+                        name={`${id}-patient`}
+                        value={patient.id}
+                        className="size-5 shrink-0 accent-iris-700"
+                        onChange={() => onChange(String(patient.id))}
+                      />
+                      <span>
+                        <PatientLine patient={patient} />
+                      </span>
+                    </label>
+                  </li>
+                ))}
+              </ul>
+            </fieldset>
+          )}
+        </div>
+      )}
+    </div>
+  );
+}

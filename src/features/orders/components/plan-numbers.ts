@@ -1,0 +1,45 @@
+import type { DosePlan } from '../../../../shared/schemas/calculation';
+
+// No thousands separator: "3,800" reads as 3.8 in much of Europe.
+const plain = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 6, useGrouping: false });
+
+/** A figure as printed in the plan: digits the protocol kept, nothing added, no trailing zeros. */
+export function formatFigure(value: number): string {
+  return plain.format(value);
+}
+
+/** Seconds as "83 s (1 min 23 s)", so a time reads either way at a glance. */
+export function formatSeconds(seconds: number): string {
+  const whole = Math.round(seconds);
+  if (whole < 60) return `${formatFigure(seconds)} s`;
+  const minutes = Math.floor(whole / 60);
+  const rest = whole % 60;
+  return `${formatFigure(seconds)} s (${minutes} min${rest ? ` ${rest} s` : ''})`;
+}
+
+type Figure = { key: keyof DosePlan; label: string; unit: string; time?: boolean; main?: boolean; estimate?: boolean };
+
+/** The plan's figures in the order a person works through them; a null figure does not apply. */
+export const planFigures: readonly Figure[] = [
+  { key: 'bsaM2', label: 'Body surface area', unit: 'm²' },
+  { key: 'doseMg', label: 'Verteporfin dose', unit: 'mg', main: true },
+  { key: 'drugVolumeMl', label: 'Drug volume', unit: 'mL', main: true },
+  { key: 'vials', label: 'Vials', unit: '' },
+  { key: 'diluentVolumeMl', label: 'Diluent volume', unit: 'mL' },
+  { key: 'infusionRateMlPerMin', label: 'Infusion rate', unit: 'mL/min' },
+  { key: 'infusionEndAfterStartS', label: 'Infusion ends after its start', unit: '', time: true },
+  { key: 'lightStartAfterInfusionStartS', label: 'Light starts after infusion start', unit: '', time: true, main: true },
+  { key: 'spotDiameterUm', label: 'Spot on the retina', unit: 'µm' },
+  { key: 'deviceSpotDiameterUm', label: 'Spot set on the laser', unit: 'µm', main: true },
+  { key: 'spotAreaCm2', label: 'Spot area', unit: 'cm²' },
+  { key: 'powerMw', label: 'Laser power', unit: 'mW', main: true },
+  { key: 'irradianceMwPerCm2', label: 'Irradiance', unit: 'mW/cm²' },
+  { key: 'exposureS', label: 'Exposure', unit: '', time: true, main: true },
+  { key: 'uvTimeS', label: 'UV on-time', unit: '', time: true, main: true },
+  { key: 'uvElapsedS', label: 'UV elapsed time', unit: '', time: true },
+  { key: 'fluenceJPerCm2', label: 'Fluence', unit: 'J/cm²', main: true },
+  { key: 'energyJ', label: 'Energy', unit: 'J' },
+  { key: 'lightEndAfterInfusionStartS', label: 'Light ends after infusion start', unit: '', time: true },
+  { key: 'endothelialIrradianceMwPerCm2', label: 'Endothelial irradiance', unit: 'mW/cm²', estimate: true },
+  { key: 'endothelialDoseJPerCm2', label: 'Endothelial dose', unit: 'J/cm²', estimate: true },
+];

@@ -1,0 +1,22 @@
+import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import { getPatientHistory } from './get-patient-history';
+import { searchPatients } from './search-patients';
+
+/** The patients feature's query keys and options, general → specific. */
+export const patientQueries = {
+  all: () => ['patients'] as const,
+  searches: () => [...patientQueries.all(), 'search'] as const,
+  search: (text: string) =>
+    queryOptions({
+      queryKey: [...patientQueries.searches(), text.trim()] as const,
+      queryFn: ({ signal }) => searchPatients(text, { signal }),
+      // The previous results stay on screen while the next letters are looked up.
+      placeholderData: keepPreviousData,
+    }),
+  histories: () => [...patientQueries.all(), 'history'] as const,
+  history: (id: number) =>
+    queryOptions({
+      queryKey: [...patientQueries.histories(), id] as const,
+      queryFn: ({ signal }) => getPatientHistory(id, { signal }),
+    }),
+};

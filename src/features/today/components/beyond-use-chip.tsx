@@ -1,0 +1,54 @@
+import { useEffect, useRef, useState } from 'react';
+import { CheckCircleIcon, CrossCircleIcon, HourglassIcon } from '../../../components/ui/icons';
+import { useServerNowMs } from '../hooks/use-server-now';
+
+/** Below this much time left the chip warns: the dose should be on its way to the patient. */
+const closingWindowMs = 30 * 60_000;
+
+const states = {
+  usable: { words: 'Usable', Icon: CheckCircleIcon, chip: 'border-iris-300 bg-iris-50 text-iris-900' },
+  closing: { words: 'Under 30 minutes left', Icon: HourglassIcon, chip: 'border-dashed border-paper-800 bg-paper-100 text-paper-950' },
+  past: { words: 'Past beyond-use time — do not use', Icon: CrossCircleIcon, chip: 'border-alarm-700 bg-alarm-50 text-alarm-800' },
+} as const;
+
+function clockText(ms: number): string {
+  const totalS = Math.floor(Math.max(0, ms) / 1000);
+  return [Math.floor(totalS / 3600), Math.floor((totalS % 3600) / 60), totalS % 60].map((n) => String(n).padStart(2, '0')).join(':');
+}
+
+type BeyondUseChipProps = {
+  beyondUseAt: string;
+  clockOffsetMs: number;
+  /** Names the order in the announcement, e.g. "Order 12, Ambervale". */
+  subject: string;
+};
+
+/**
+ * Time left before a prepared dose must not be used, worked out from the clock each second. The
+ * ticking figure is not live; only a change of state (under 30 minutes, past) is announced.
+ */
+export function BeyondUseChip({ beyondUseAt, clockOffsetMs, subject }: BeyondUseChipProps) {
+  const nowMs = useServerNowMs(clockOffsetMs);
+  const remainingMs = Date.parse(beyondUseAt) - nowMs;
+  const state = remainingMs <= 0 ? 'past' : remainingMs <= closingWindowMs ? 'closing' : 'usable';
+  const { words, Icon, chip } = states[state];
+
+  const [announcement, setAnnouncement] = useState('');
+  const shownState = useRef(state);
+  useEffect(() => {
+    if (shownState.current === state) return;
+    shownState.current = state;
+    setAnnouncement(`${subject}: ${states[state].words}.`);
+  }, [state, subject]);
+
+  return (
+    <span className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border px-2.5 py-0.5 text-sm font-medium ${chip}`}>
+      <Icon className="size-4" />
+      {words}
+      {state !== 'past' && <span className="numerals-steady">· {clockText(remainingMs)} left</span>}
+      <span role="status" className="sr-only">
+        {announcement}
+      </span>
+    </span>
+  );
+}
