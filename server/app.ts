@@ -34,6 +34,9 @@ import { createDischargeService } from './sessions/discharge';
 import { createSessionRepository } from './sessions/repository';
 import { sessionRoutes } from './sessions/routes';
 import { createSessionService } from './sessions/service';
+import { createReviewRepository } from './review/repository';
+import { reviewRoutes } from './review/routes';
+import { createReviewService } from './review/service';
 import { peopleRoutes } from './people/routes';
 import { createPeopleService } from './people/service';
 import { createProtocolRepository } from './protocols/repository';
@@ -79,7 +82,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, unitTimeZone });
   const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
   const sessionRows = createSessionRepository(dataSource);
-  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, now });
+  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now });
   const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitTimeZone });
 
   const routes: RouteSpec[] = [
@@ -94,6 +97,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
     ...attachmentRoutes(createAttachmentService(dataSource, audit, path.resolve(config.UPLOAD_DIR))),
     ...outboxRoutes(dataSource),
     ...sessionRoutes(sessionService, discharge),
+    ...reviewRoutes(createReviewService({ dataSource, reviews: createReviewRepository(dataSource), sessions: sessionService, audit, unitTimeZone })),
   ];
   app.locals.routeTable = routes;
 

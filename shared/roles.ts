@@ -16,6 +16,7 @@ export const capabilities = [
   'protocols.retire',
   'calculations.run',
   'audit.read',
+  'audit.review',
   'patients.read',
   'patients.manage',
   'orders.read',

@@ -4,5 +4,6 @@ import { Initial1796161380660 } from './migrations/1796161380660-Initial';
 import { ProtocolVersions1796161598177 } from './migrations/1796161598177-ProtocolVersions';
 import { OrdersAndOutbox1796162437763 } from './migrations/1796162437763-OrdersAndOutbox';
 import { Sessions1796162826105 } from './migrations/1796162826105-Sessions';
+import { AuditReview1796163852814 } from './migrations/1796163852814-AuditReview';
 
-export const migrations = [Initial1796161380660, ProtocolVersions1796161598177, OrdersAndOutbox1796162437763, Sessions1796162826105];
+export const migrations = [Initial1796161380660, ProtocolVersions1796161598177, OrdersAndOutbox1796162437763, Sessions1796162826105, AuditReview1796163852814];

@@ -3,6 +3,7 @@ import type { Config } from '../config';
 import { Attachment } from './entities/attachment';
 import { AuditEvent } from './entities/audit-event';
 import { DeviationRow } from './entities/deviation';
+import { DeviationReview } from './entities/deviation-review';
 import { DoseCheck } from './entities/dose-check';
 import { DoseRecordRow } from './entities/dose-record';
 import { OutboxMessage } from './entities/outbox-message';
@@ -11,11 +12,12 @@ import { Preparation } from './entities/preparation';
 import { ProtocolApproval } from './entities/protocol-approval';
 import { ProtocolVersion } from './entities/protocol-version';
 import { SessionEventRow } from './entities/session-event';
+import { SessionParticipant } from './entities/session-participant';
 import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
 import { migrations } from './migration-list';
 
-export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow];
+export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow, DeviationReview, SessionParticipant];
 
 export interface DatabaseConnection {
   host: string;

@@ -14,16 +14,16 @@ import { SessionEventRow } from '../db/entities/session-event';
 import { TreatmentOrder } from '../db/entities/treatment-order';
 import { createPatientRepository } from '../patients/repository';
 import { createUserRepository } from '../people/repository';
-import { createSessionRepository } from '../sessions/repository';
+import { addParticipant, createSessionRepository } from '../sessions/repository';
 import { demoDomain, demoPatients } from './seed';
 
 /** A script line: seconds from the session start, and the event as the tablet would send it. */
 type ScriptEvent = { type: SessionEventInput['type']; stepId?: string; checks?: Record<string, true>; thicknessUm?: number };
-type Step = [offsetS: number, event: ScriptEvent];
+export type Step = [offsetS: number, event: ScriptEvent];
 const checks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true } as const;
 
 /** A standard PDT session; `lightLateS` moves the laser later, as when the laser room was busy. */
-function pdtScript(lightLateS = 0): Step[] {
+export function pdtScript(lightLateS = 0): Step[] {
   const light = 60 + 900 + lightLateS;
   return [
     [0, { type: 'session-started', checks }],
@@ -40,7 +40,7 @@ function pdtScript(lightLateS = 0): Step[] {
 }
 
 /** A CXL session: soak with drops every interval, a thickness reading, UV with drops. */
-function cxlScript(opts: { soakS: number; dropEveryS: number; uvS: number; uvDropEveryS: number; thicknessUm: number; missedDropAtS?: number }): Step[] {
+export function cxlScript(opts: { soakS: number; dropEveryS: number; uvS: number; uvDropEveryS: number; thicknessUm: number; missedDropAtS?: number }): Step[] {
   const steps: Step[] = [
     [0, { type: 'session-started', checks }],
     [30, { type: 'step-started', stepId: 'epithelium-removal' }],
@@ -180,9 +180,15 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
       await manager.getRepository(SessionEventRow).insert(rows);
       const events = await sessions.eventsFor(order.id, manager);
       const record = deriveDoseRecord({ protocol: pv.definition, plan, events });
-      await sessions.saveRecord(manager, order.id, record);
       const found = findDeviations({ protocol: pv.definition, plan, record, checklist: noAnswers(pv.definition), preparation });
-      await sessions.reconcileDeviations(manager, order.id, found);
+      await sessions.reconcileDeviations(manager, order.id, pv.id, found);
+      await sessions.saveRecord(manager, order.id, record, { protocolVersionId: pv.id, unitTimeZone, deviationCount: found.length });
+      await addParticipant(manager, order.id, clinician.id, 'ordered');
+      await addParticipant(manager, order.id, nurse.id, 'nursed');
+      if (preparation) {
+        await addParticipant(manager, order.id, pharmacist.id, 'checked');
+        await addParticipant(manager, order.id, pharmacist.id, 'prepared');
+      }
       // Deviations belong to the session's day, for the monthly figures.
       await manager.query('UPDATE deviation SET detected_at = ? WHERE order_id = ?', [new Date(startMs + 3600_000), order.id]);
     });

@@ -17,6 +17,7 @@ import type { UserRepository } from '../people/repository';
 import type { PatientRepository } from '../patients/repository';
 import { treatmentStatuses } from '../patients/service';
 import type { ProtocolService } from '../protocols/service';
+import { addParticipant } from '../sessions/repository';
 import type { OrderRepository } from './repository';
 
 export interface Actor {
@@ -249,6 +250,7 @@ export function createOrderService(deps: {
         if (locked?.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
         await orders.update(manager, id, { status, plan: frozen, engineVersion: frozen.engineVersion, signedById: actor.id, signedAt: new Date(), signatureMeaning: 'ordered' });
         if (order.previousRevisionId) await orders.update(manager, order.previousRevisionId, { status: 'superseded' });
+        await addParticipant(manager, id, actor.id, 'ordered');
         if (status === 'signed') {
           const pharmacists = (await users.list()).filter((u) => u.active && u.roles.includes('pharmacist') && u.id !== actor.id);
           await enqueueMessage(manager, {

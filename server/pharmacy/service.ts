@@ -8,6 +8,7 @@ import { enqueueMessage } from '../mail/outbox';
 import type { OrderRepository } from '../orders/repository';
 import type { Actor, OrderService } from '../orders/service';
 import type { UserRepository } from '../people/repository';
+import { addParticipant } from '../sessions/repository';
 
 /** A second refused check sends the order back to the clinician. */
 export const refusalsBeforeReturn = 2;
@@ -59,6 +60,7 @@ export function createPharmacyService(deps: {
         await orders.addDoseCheck(manager, { orderId: id, pharmacistId: actor.id, bsaM2: entry.bsaM2, doseMg: entry.doseMg, drugVolumeMl: entry.drugVolumeMl, outcome, differing, comment: entry.comment ?? null });
         if (outcome === 'match') {
           await orders.update(manager, id, { status: 'checked' });
+          await addParticipant(manager, id, actor.id, 'checked');
           return { returned: false, refusals: 0 };
         }
         const refusals = (await orders.doseChecksFor(id, manager)).filter((c) => c.outcome === 'mismatch').length;
@@ -128,6 +130,7 @@ export function createPharmacyService(deps: {
         if (locked?.status !== 'checked') throw AppError.conflict('not_checked', `Order ${id} is ${locked?.status ?? 'gone'}; preparation follows a matching dose check.`);
         await orders.addPreparation(manager, { orderId: id, pharmacistId: actor.id, vialLot: entry.vialLot, vialExpiry: entry.vialExpiry, reconstitutedAt, volumeDrawnMl: entry.volumeDrawnMl, beyondUseAt });
         await orders.update(manager, id, { status: 'prepared', beyondUseAt });
+        await addParticipant(manager, id, actor.id, 'prepared');
       });
       await audit.append({
         actorUserId: actor.id,

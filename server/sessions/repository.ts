@@ -1,12 +1,19 @@
+import { DateTime } from 'luxon';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { DoseRecord } from '../../shared/session/dose-record';
 import type { Deviation, SessionEvent, SessionEventInput } from '../../shared/session/session-events';
 import { DeviationRow } from '../db/entities/deviation';
 import { DoseRecordRow } from '../db/entities/dose-record';
 import { SessionEventRow } from '../db/entities/session-event';
+import type { SessionParticipant } from '../db/entities/session-participant';
 
 export function toSessionEvent(row: SessionEventRow): SessionEvent {
   return { ...(row.payload as SessionEventInput), id: Number(row.id), serverTime: row.serverTime.toISOString(), recordedBy: row.recordedBy };
+}
+
+/** Records that a person took part in a treatment; harmless when said twice. */
+export function addParticipant(manager: EntityManager, orderId: number, userId: number, part: SessionParticipant['part']) {
+  return manager.query('INSERT IGNORE INTO session_participant (order_id, user_id, part) VALUES (?, ?, ?)', [orderId, userId, part]);
 }
 
 export function createSessionRepository(dataSource: DataSource) {
@@ -27,9 +34,12 @@ export function createSessionRepository(dataSource: DataSource) {
         payload: input as unknown as SessionEventRow['payload'] & object,
       }),
 
-    saveRecord: (manager: EntityManager, orderId: number, record: DoseRecord) =>
+    saveRecord: (manager: EntityManager, orderId: number, record: DoseRecord, extra: { protocolVersionId: number; unitTimeZone: string; deviationCount: number }) =>
       manager.getRepository(DoseRecordRow).save({
         orderId,
+        protocolVersionId: extra.protocolVersionId,
+        localMonth: record.endedAt ? DateTime.fromISO(record.endedAt).setZone(extra.unitTimeZone).toFormat('yyyy-MM') : null,
+        deviationCount: extra.deviationCount,
         outcome: record.outcome,
         startedAt: record.sessionStartedAt ? new Date(record.sessionStartedAt) : null,
         endedAt: record.endedAt ? new Date(record.endedAt) : null,
@@ -49,7 +59,7 @@ export function createSessionRepository(dataSource: DataSource) {
      * changed figures follow, and ones that no longer hold are withdrawn, never deleted.
      * Returns the types that are new.
      */
-    async reconcileDeviations(manager: EntityManager, orderId: number, found: Deviation[]): Promise<string[]> {
+    async reconcileDeviations(manager: EntityManager, orderId: number, protocolVersionId: number, found: Deviation[]): Promise<string[]> {
       const repo = manager.getRepository(DeviationRow);
       const stored = new Map((await repo.find({ where: { orderId } })).map((row) => [row.type, row]));
       const added: string[] = [];
@@ -57,7 +67,7 @@ export function createSessionRepository(dataSource: DataSource) {
         const row = stored.get(deviation.type);
         const values = { severity: deviation.severity, expected: deviation.expected, actual: deviation.actual, unit: deviation.unit, message: deviation.message.slice(0, 600), withdrawnAt: null };
         if (!row) {
-          await repo.insert({ orderId, type: deviation.type, ...values });
+          await repo.insert({ orderId, protocolVersionId, type: deviation.type, ...values });
           added.push(deviation.type);
         } else if (row.withdrawnAt || row.severity !== values.severity || row.expected !== values.expected || row.actual !== values.actual || row.message !== values.message) {
           await repo.update({ id: row.id }, values);

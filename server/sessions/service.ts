@@ -10,7 +10,7 @@ import { enqueueMessage } from '../mail/outbox';
 import type { OrderRepository } from '../orders/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
-import type { SessionRepository } from './repository';
+import { addParticipant, type SessionRepository } from './repository';
 
 /** A tablet clock may run a little ahead of ours; further ahead than this is a mistake. */
 const futureSkewMs = 10_000;
@@ -32,6 +32,7 @@ export function createSessionService(deps: {
   sessions: SessionRepository;
   users: UserRepository;
   audit: AuditRepository;
+  unitTimeZone: string;
   now?: () => number;
 }) {
   const { dataSource, orders, sessions, users, audit } = deps;
@@ -83,8 +84,8 @@ export function createSessionService(deps: {
       checklist: order.checklist,
       preparation: preparation ? { reconstitutedAt: preparation.reconstitutedAt.toISOString(), beyondUseAt: preparation.beyondUseAt.toISOString() } : null,
     });
-    await sessions.saveRecord(manager, order.id, record);
-    const added = await sessions.reconcileDeviations(manager, order.id, deviations);
+    const added = await sessions.reconcileDeviations(manager, order.id, order.protocolVersionId, deviations);
+    await sessions.saveRecord(manager, order.id, record, { protocolVersionId: order.protocolVersionId, unitTimeZone: deps.unitTimeZone, deviationCount: deviations.length });
     return { record, deviations, added };
   }
 
@@ -126,6 +127,7 @@ export function createSessionService(deps: {
           if (!locked) throw AppError.notFound(`There is no order ${orderId}.`);
           if (input.type === 'session-started' && locked.status === 'in-session') throw AppError.conflict('already_started', `The session for order ${orderId} has started already.`);
           await sessions.insertEvent(manager, orderId, actor.id, input);
+          await addParticipant(manager, orderId, actor.id, 'nursed');
           if (input.type === 'session-started') await orders.update(manager, orderId, { status: 'in-session' });
           if ((input.type === 'session-completed' || input.type === 'session-stopped') && locked.status === 'in-session') {
             ended = input.type === 'session-completed' ? 'completed' : 'stopped';

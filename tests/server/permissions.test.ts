@@ -46,6 +46,15 @@ const expected: Record<string, 'public' | Role[]> = {
   'POST /api/orders/:id/session-events': ['nurse'],
   'GET /api/orders/:id/discharge': ['clinician', 'nurse', 'pharmacist', 'auditor'],
   'POST /api/orders/:id/discharge-email': ['nurse'],
+  'GET /api/deviations': ['auditor'],
+  'GET /api/deviations/:id': ['auditor'],
+  'POST /api/deviations/:id/closure': ['auditor'],
+  'POST /api/deviations/:id/reopening': ['auditor'],
+  'GET /api/dose-records': ['auditor'],
+  'GET /api/trends': ['auditor'],
+  'GET /api/exports/deviations.csv': ['auditor'],
+  'GET /api/exports/dose-records.csv': ['auditor'],
+  'GET /api/audit-events': ['auditor'],
 };
 
 let ctx: TestContext;

@@ -1,8 +1,11 @@
-import { Column, Entity, PrimaryColumn, UpdateDateColumn } from 'typeorm';
+import { Column, Entity, Index, PrimaryColumn, UpdateDateColumn } from 'typeorm';
 import type { DoseRecord } from '../../../shared/session/dose-record';
 
 /** What was actually given, derived from the session's events; rewritten as each event arrives. */
 @Entity({ name: 'dose_record' })
+@Index('ix_dose_record_ended', ['endedAt'])
+@Index('ix_dose_record_protocol_ended', ['protocolVersionId', 'endedAt'])
+@Index('ix_dose_record_month', ['localMonth', 'protocolVersionId'])
 export class DoseRecordRow {
   @PrimaryColumn({ name: 'order_id', type: 'int', unsigned: true })
   orderId!: number;
@@ -27,6 +30,17 @@ export class DoseRecordRow {
 
   @Column({ type: 'json' })
   record!: DoseRecord;
+
+  @Column({ name: 'protocol_version_id', type: 'int', unsigned: true, nullable: true })
+  protocolVersionId!: number | null;
+
+  /** The unit's calendar month of the session (e.g. 2026-11), fixed when it ends, for monthly figures. */
+  @Column({ name: 'local_month', type: 'char', length: 7, nullable: true })
+  localMonth!: string | null;
+
+  /** Deviations standing for this session (not withdrawn). */
+  @Column({ name: 'deviation_count', type: 'smallint', unsigned: true, default: 0 })
+  deviationCount!: number;
 
   @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)', onUpdate: 'CURRENT_TIMESTAMP(3)' })
   updatedAt!: Date;

@@ -1,0 +1,189 @@
+import { randomUUID } from 'node:crypto';
+import supertest from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { seedDemoData } from '../../server/demo/seed';
+import { seedVolume } from '../../server/demo/volume';
+import { createReviewRepository } from '../../server/review/repository';
+import { auditFilterSchema } from '../../shared/schemas/reviews';
+import { createTestPerson, preparedPdtOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
+
+type Agent = ReturnType<typeof supertest.agent>;
+let ctx: TestContext;
+let clinician: TestPerson;
+let clinicianAgent: Agent;
+let pharmacistAgent: Agent;
+let auditorAgent: Agent;
+
+beforeAll(async () => {
+  ctx = await startTestApp();
+  clinician = await createTestPerson(ctx, ['clinician']);
+  clinicianAgent = await signedInAgent(ctx, clinician);
+  pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
+  auditorAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['auditor']));
+});
+afterAll(async () => {
+  await ctx.close();
+});
+
+const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true };
+
+/**
+ * A finished standard PDT session run by `nurse`, with the light `lightLateS` seconds late.
+ * Returns the order id.
+ */
+async function sessionWithLateLight(nurse: Agent, lightLateS: number): Promise<number> {
+  const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent });
+  const t0 = Date.now() - 40 * 60_000;
+  const at = (s: number, e: object) => ({ idempotencyKey: randomUUID(), clientTime: new Date(t0 + s * 1000).toISOString(), ...e });
+  const light = 60 + 900 + lightLateS;
+  for (const event of [
+    at(0, { type: 'session-started', checks: allChecks }),
+    at(60, { type: 'step-started', stepId: 'infusion' }),
+    at(660, { type: 'step-ended', stepId: 'infusion' }),
+    at(light, { type: 'step-started', stepId: 'laser' }),
+    at(light + 83, { type: 'step-ended', stepId: 'laser' }),
+    at(light + 200, { type: 'session-completed' }),
+  ]) {
+    const res = await nurse.post(`/api/orders/${order.id}/session-events`).send(event);
+    if (res.status !== 201) throw new Error(JSON.stringify(res.body));
+  }
+  return order.id;
+}
+
+describe('the deviations queue', () => {
+  it('filters by staff member and type, pages, and sorts on the server', async () => {
+    const nurse = await createTestPerson(ctx, ['nurse']);
+    const nurseAgent = await signedInAgent(ctx, nurse);
+    const orderIds = [];
+    for (const late of [180, 240, 300]) orderIds.push(await sessionWithLateLight(nurseAgent, late));
+    const page1 = await auditorAgent.get('/api/deviations').query({ staff: nurse.id, type: 'light-start-window', pageSize: 2, sort: 'detectedAt', direction: 'asc' });
+    expect(page1.status).toBe(200);
+    expect(page1.body.total).toBe(3);
+    expect(page1.body.deviations).toHaveLength(2);
+    expect(page1.body.deviations.map((d: { orderId: number }) => d.orderId)).toEqual(orderIds.slice(0, 2));
+    // Light 15 min ± 1 min after infusion start (TAP Study Group, Arch Ophthalmol 1999; tolerance common practice).
+    expect(page1.body.deviations[0]).toMatchObject({ type: 'light-start-window', expected: 15, actual: 18, unit: 'min', protocolKey: 'pdt-standard', reviewStatus: 'open' });
+    expect(page1.body.deviations[0].detectedAt).toMatch(/[+-]\d{2}:\d{2}$/);
+    const page2 = await auditorAgent.get('/api/deviations').query({ staff: nurse.id, type: 'light-start-window', pageSize: 2, page: 2, sort: 'detectedAt', direction: 'asc' });
+    expect(page2.body.deviations.map((d: { orderId: number }) => d.orderId)).toEqual(orderIds.slice(2));
+    const otherType = await auditorAgent.get('/api/deviations').query({ staff: nurse.id, type: 'soak-short' });
+    expect(otherType.body.total).toBe(0);
+    const bad = await auditorAgent.get('/api/deviations').query({ severity: 'terrible' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields[0].path).toBe('severity');
+  });
+
+  it('is for auditors only', async () => {
+    expect((await clinicianAgent.get('/api/deviations')).status).toBe(403);
+    expect((await pharmacistAgent.get('/api/exports/deviations.csv')).status).toBe(403);
+  });
+});
+
+describe('reviewing a deviation', () => {
+  it('an auditor closes it with a classification and comment, reopens it, and the history keeps every step', async () => {
+    const nurse = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
+    const orderId = await sessionWithLateLight(nurse, 200);
+    const list = await auditorAgent.get('/api/deviations').query({ type: 'light-start-window', pageSize: 200 });
+    const id = list.body.deviations.find((d: { orderId: number }) => d.orderId === orderId).id;
+
+    const noComment = await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'acceptable' });
+    expect(noComment.status).toBe(400);
+    expect(noComment.body.error.fields[0].path).toBe('comment');
+
+    const closed = await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'acceptable', comment: 'Laser room delayed; within local policy.' });
+    expect(closed.status).toBe(200);
+    expect(closed.body.deviation).toMatchObject({ reviewStatus: 'closed', classification: 'acceptable' });
+    expect((await clinicianAgent.get(`/api/orders/${orderId}`)).body.order.status).toBe('reviewed');
+
+    expect((await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'incident', comment: 'Second look.' })).status).toBe(409);
+    const reopened = await auditorAgent.post(`/api/deviations/${id}/reopening`).send({ comment: 'Pharmacy asks for a second look.' });
+    expect(reopened.body.deviation.reviewStatus).toBe('open');
+    expect((await clinicianAgent.get(`/api/orders/${orderId}`)).body.order.status).toBe('completed');
+    const again = await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'needs-follow-up', comment: 'Discuss scheduling at the unit meeting.' });
+    expect(again.body.history.map((h: { action: string; classification: string | null }) => [h.action, h.classification])).toEqual([
+      ['closed', 'acceptable'],
+      ['reopened', null],
+      ['closed', 'needs-follow-up'],
+    ]);
+  });
+
+  it('nobody reviews a session they took part in, even holding the auditor role', async () => {
+    const both = await createTestPerson(ctx, ['nurse', 'auditor']);
+    const agent = await signedInAgent(ctx, both);
+    const orderId = await sessionWithLateLight(agent, 200);
+    const list = await agent.get('/api/deviations').query({ staff: both.id });
+    const id = list.body.deviations.find((d: { orderId: number }) => d.orderId === orderId).id;
+    const detail = await agent.get(`/api/deviations/${id}`);
+    expect(detail.body.canReview).toBe(false);
+    const res = await agent.post(`/api/deviations/${id}/closure`).send({ classification: 'acceptable', comment: 'Looks fine to me.' });
+    expect(res.status).toBe(403);
+  });
+});
+
+describe('the CSV export', () => {
+  it('has units in the headers, ISO 8601 times with offset, and escapes commas, quotes and line breaks', async () => {
+    const nurse = await createTestPerson(ctx, ['nurse']);
+    const orderId = await sessionWithLateLight(await signedInAgent(ctx, nurse), 240);
+    const list = await auditorAgent.get('/api/deviations').query({ staff: nurse.id });
+    const id = list.body.deviations[0].id;
+    const comment = 'Delayed, "laser room" busy,\nsee incident log';
+    await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'needs-follow-up', comment });
+    const res = await auditorAgent.get('/api/exports/deviations.csv').query({ staff: nurse.id }).buffer(true);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/text\/csv/);
+    const text = res.text;
+    const header = text.split('\r\n')[0]!;
+    expect(header).toBe('deviation_id,order_id,detected_at (ISO 8601),protocol,protocol_version,patient_record_number,eye,type,severity,expected,actual,unit,message,review_status,classification,reviewed_by,reviewed_at (ISO 8601),review_comment');
+    expect(text).toContain(`"${comment.replace(/"/g, '""')}"`);
+    expect(text).toMatch(new RegExp(`^${id},${orderId},\\d{4}-\\d{2}-\\d{2}T\\d{2}:\\d{2}:\\d{2}\\.\\d{3}[+-]\\d{2}:\\d{2},pdt-standard,1,`, 'm'));
+
+    const records = await auditorAgent.get('/api/exports/dose-records.csv').query({ staff: nurse.id }).buffer(true);
+    expect(records.text.split('\r\n')[0]).toContain('delivered_fluence (J/cm2)');
+    // 6 mg/m² × 1.82 m² = 10.92 mg; 30 mL infused; 83 s at 600 mW/cm² = 49.8 J/cm² planned and
+    // delivered (TAP Study Group, Arch Ophthalmol 1999; Mosteller RD, N Engl J Med 1987); one deviation.
+    expect(records.text.split('\r\n')[1]).toMatch(/,10\.92,30,83,49\.8,49\.8,1$/);
+  });
+});
+
+describe('dose records and trends', () => {
+  it('lists completed sessions with delivered fluence, and counts sessions with a deviation per month', async () => {
+    const nurse = await createTestPerson(ctx, ['nurse']);
+    const agent = await signedInAgent(ctx, nurse);
+    await sessionWithLateLight(agent, 0);
+    await sessionWithLateLight(agent, 300);
+    const records = await auditorAgent.get('/api/dose-records').query({ staff: nurse.id });
+    expect(records.body.total).toBe(2);
+    expect(records.body.records[0]).toMatchObject({ protocolKey: 'pdt-standard', outcome: 'completed' });
+    expect(records.body.records.map((r: { deviationCount: number }) => r.deviationCount).sort()).toEqual([0, 1]);
+    const trends = await auditorAgent.get('/api/trends').query({ protocol: 'pdt-standard' });
+    const month = trends.body.months.at(-1);
+    expect(month.sessions).toBeGreaterThanOrEqual(2);
+    expect(month.ratePct).toBeCloseTo((month.sessionsWithDeviation / month.sessions) * 100, 1);
+  });
+});
+
+describe('the audit trail', () => {
+  it('shows who did what, filterable, to auditors', async () => {
+    const res = await auditorAgent.get('/api/audit-events').query({ action: 'order.signed', pageSize: 5 });
+    expect(res.status).toBe(200);
+    expect(res.body.events.length).toBeGreaterThan(0);
+    expect(res.body.events.every((e: { action: string }) => e.action === 'order.signed')).toBe(true);
+    expect(res.body.events[0].occurredAt).toMatch(/[+-]\d{2}:\d{2}$/);
+  });
+});
+
+describe('with 5,000 sessions loaded', () => {
+  it('the queue’s page query uses an index rather than reading the whole table', { timeout: 180_000 }, async () => {
+    await seedDemoData(ctx.dataSource);
+    await seedVolume(ctx.dataSource, 5000, { unitTimeZone: 'Europe/Lisbon', seed: 7 });
+    const repo = createReviewRepository(ctx.dataSource);
+    for (const query of [{}, { status: 'open' }, { protocol: 'cxl-standard' }, { type: 'light-start-window' }, { severity: 'major', sort: 'detectedAt' }]) {
+      const filter = auditFilterSchema.parse(query);
+      const [sql, params] = await repo.deviationPageSql(filter, {});
+      const plan: { table: string; type: string; key: string | null; rows: number }[] = await ctx.dataSource.query(`EXPLAIN ${sql}`, params);
+      const deviationRow = plan.find((p) => p.table === 'd')!;
+      expect({ query, type: deviationRow.type, key: deviationRow.key }).toMatchObject({ query, key: expect.stringMatching(/^(ix_deviation_|PRIMARY)/) });
+      expect(deviationRow.type).not.toBe('ALL');
+    }
+  });
+});
