@@ -1,5 +1,7 @@
 import 'reflect-metadata';
 import type { Server } from 'node:http';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import type { DataSource } from 'typeorm';
 import { createApp } from './app';
 import { loadConfig, type Config } from './config';
@@ -7,6 +9,7 @@ import { appDataSource } from './db/options';
 import { createSmtpMailer, type Mailer } from './mail/mailer';
 import { createOutboxWorker, type OutboxWorker } from './mail/outbox';
 import { loadShippedProtocols } from './protocols/load-shipped';
+import { recomputeRunningSessions } from './sessions/recover';
 
 export interface RunningWebServer {
   url: string;
@@ -28,6 +31,8 @@ export async function startWebServer(options: { config?: Config; clientDir?: str
   try {
     const { added } = await loadShippedProtocols(dataSource);
     if (added.length) console.log(`• Protocol versions loaded: ${added.join(', ')}`);
+    const resumed = await recomputeRunningSessions(dataSource, config.UNIT_TIME_ZONE);
+    if (resumed) console.log(`• Sessions in progress brought up to date: ${resumed}`);
   } catch (error) {
     await dataSource.destroy();
     throw error;
@@ -57,7 +62,7 @@ export async function stopWebServer(running: RunningWebServer): Promise<void> {
 }
 
 // `tsx server/index.ts` serves with settings from the environment (see README, "Configuration").
-if (import.meta.url === `file://${process.argv[1]}`) {
+if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
   const running = await startWebServer({ clientDir: process.env.CLIENT_DIR });
   console.log(`Luxtempo is serving on ${running.url}`);
   for (const signal of ['SIGINT', 'SIGTERM'] as const) {

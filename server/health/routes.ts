@@ -8,6 +8,8 @@ export function healthRoutes(dataSource: DataSource): RouteSpec[] {
       path: '/health',
       access: 'public',
       handler: async (_req, res) => {
+        // Which process answered: lets operators and the fault tests tell instances apart.
+        res.set('X-Luxtempo-Pid', String(process.pid));
         const started = performance.now();
         try {
           await dataSource.query('SELECT 1');

@@ -11,6 +11,8 @@ import { dataDir } from './paths';
  */
 export interface DatabaseServerOptions {
   port: number;
+  /** Where this instance keeps its files; `.data/` unless a test wants an instance of its own. */
+  instanceDir?: string;
   databases: string[];
   ownerUser: string;
   ownerPassword: string;
@@ -23,22 +25,33 @@ export interface DatabaseServer {
   stop(): Promise<void>;
 }
 
-const mariadbDir = path.join(dataDir, 'mariadb');
-const socketPath = path.join(dataDir, 'mariadb.sock');
-const pidFile = path.join(dataDir, 'mariadb.pid');
-const errorLog = path.join(dataDir, 'mariadb.err');
+/** Asks an instance to shut down cleanly and waits until it has. */
+export function shutdownDatabaseServer(instanceDir?: string): void {
+  const { socketPath } = instancePaths(instanceDir);
+  spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socketPath}`, '-uroot', 'shutdown'], { stdio: 'ignore' });
+}
 
-function ping(): boolean {
+function instancePaths(instanceDir = dataDir) {
+  return {
+    mariadbDir: path.join(instanceDir, 'mariadb'),
+    socketPath: path.join(instanceDir, 'mariadb.sock'),
+    pidFile: path.join(instanceDir, 'mariadb.pid'),
+    errorLog: path.join(instanceDir, 'mariadb.err'),
+  };
+}
+type InstancePaths = ReturnType<typeof instancePaths>;
+
+function ping({ socketPath }: InstancePaths): boolean {
   const r = spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socketPath}`, '-uroot', '--connect-timeout=2', 'ping'], {
     stdio: 'ignore',
   });
   return r.status === 0;
 }
 
-function initialise(): void {
+function initialise({ mariadbDir }: InstancePaths): void {
   if (existsSync(path.join(mariadbDir, 'mysql'))) return;
   mkdirSync(mariadbDir, { recursive: true });
-  console.log('• Initialising a private MariaDB data directory in .data/mariadb …');
+  console.log(`• Initialising a private MariaDB data directory in ${path.relative(process.cwd(), mariadbDir)} …`);
   const r = spawnSync(
     'mariadb-install-db',
     [
@@ -54,17 +67,18 @@ function initialise(): void {
   if (r.status !== 0) throw new Error(`mariadb-install-db failed:\n${r.stdout}\n${r.stderr}`);
 }
 
-async function waitUntilAnswering(timeoutMs: number): Promise<void> {
+async function waitUntilAnswering(paths: InstancePaths, timeoutMs: number): Promise<void> {
+  const { errorLog } = paths;
   const until = Date.now() + timeoutMs;
   while (Date.now() < until) {
-    if (ping()) return;
+    if (ping(paths)) return;
     await new Promise((r) => setTimeout(r, 150));
   }
   const tail = existsSync(errorLog) ? readFileSync(errorLog, 'utf8').split('\n').slice(-15).join('\n') : '(no log)';
-  throw new Error(`MariaDB did not answer within ${timeoutMs / 1000} s. Last lines of .data/mariadb.err:\n${tail}`);
+  throw new Error(`MariaDB did not answer within ${timeoutMs / 1000} s. Last lines of ${errorLog}:\n${tail}`);
 }
 
-function launch(port: number): void {
+function launch({ mariadbDir, socketPath, pidFile, errorLog }: InstancePaths, port: number): void {
   const user = process.getuid?.() === 0 ? ['--user=root'] : [];
   const log = openSync(errorLog, 'a');
   // Detached so that Ctrl-C on `npm start` reaches us, not the database: we shut it down in order.
@@ -95,7 +109,7 @@ function sqlString(value: string): string {
   return `'${value.replace(/\\/g, '\\\\').replace(/'/g, "\\'")}'`;
 }
 
-async function createDatabasesAndUsers(options: DatabaseServerOptions): Promise<void> {
+async function createDatabasesAndUsers({ socketPath }: InstancePaths, options: DatabaseServerOptions): Promise<void> {
   const root = await mysql.createConnection({ socketPath, user: 'root', multipleStatements: true });
   try {
     for (const host of ['127.0.0.1', 'localhost']) {
@@ -122,22 +136,23 @@ export async function ensureDatabaseServer(options: DatabaseServerOptions): Prom
   if (!existsSync('/usr/sbin/mariadbd')) {
     throw new Error('MariaDB is not installed: run `npm start` or `npm test` (they install mariadb-server with apt-get).');
   }
-  initialise();
+  const paths = instancePaths(options.instanceDir);
+  initialise(paths);
   let startedHere = false;
-  if (ping()) {
+  if (ping(paths)) {
     console.log(`• Reusing the private MariaDB already running on 127.0.0.1:${options.port}`);
   } else {
     console.log(`• Starting a private MariaDB on 127.0.0.1:${options.port} …`);
-    launch(options.port);
+    launch(paths, options.port);
     startedHere = true;
-    await waitUntilAnswering(30_000);
+    await waitUntilAnswering(paths, 30_000);
   }
-  await createDatabasesAndUsers(options);
+  await createDatabasesAndUsers(paths, options);
   return {
     startedHere,
     async stop() {
       if (!startedHere) return;
-      spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socketPath}`, '-uroot', 'shutdown'], { stdio: 'ignore' });
+      shutdownDatabaseServer(options.instanceDir);
     },
   };
 }

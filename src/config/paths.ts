@@ -79,4 +79,35 @@ export const paths = {
     path: '/outbox',
     getHref: () => '/outbox',
   },
+  stepClock: {
+    path: '/sessions/:orderId',
+    /** The bedside step clock of one order: pre-treatment checks, then the timed steps. */
+    getHref: (orderId: number | string) => `/sessions/${encodeURIComponent(String(orderId))}`,
+  },
+  deviations: {
+    path: '/deviations',
+    /** `search` is the queue's filter, sort and page as URL search parameters. */
+    getHref: (search?: string) => (search ? `/deviations?${search}` : '/deviations'),
+  },
+  deviation: {
+    path: '/deviations/:id',
+    getHref: (id: number | string) => `/deviations/${encodeURIComponent(String(id))}`,
+  },
+  doseRecords: {
+    path: '/dose-records',
+    getHref: (search?: string) => (search ? `/dose-records?${search}` : '/dose-records'),
+  },
+  doseRecordPrint: {
+    path: '/dose-records/:orderId/print',
+    /** One order's dose record laid out for printing and filing in the chart. */
+    getHref: (orderId: number | string) => `/dose-records/${encodeURIComponent(String(orderId))}/print`,
+  },
+  trends: {
+    path: '/trends',
+    getHref: (search?: string) => (search ? `/trends?${search}` : '/trends'),
+  },
+  auditTrail: {
+    path: '/audit-trail',
+    getHref: (search?: string) => (search ? `/audit-trail?${search}` : '/audit-trail'),
+  },
 } as const;

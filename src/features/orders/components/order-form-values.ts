@@ -155,7 +155,8 @@ export function formToDraft(values: OrderFormValues, context: OrderFormContext):
   const questionIds = context.definition ? context.definition.contraindications.map((c) => c.id) : Object.keys(values.checklist);
   const checklist = questionIds.flatMap((id) => {
     const entry = values.checklist[id];
-    if (!entry || entry.answer === '') return [];
+    // An unanswered radio pair reads as null or ''; either way the question stays open.
+    if (!entry || (entry.answer !== 'yes' && entry.answer !== 'no')) return [];
     const overrideReason = entry.answer === 'yes' ? blankToNull(entry.overrideReason) : null;
     return [{ id, answer: entry.answer, ...(overrideReason ? { overrideReason } : {}) }];
   });

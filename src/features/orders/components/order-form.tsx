@@ -7,6 +7,7 @@ import type { InputLimit } from '../../../../shared/protocol/protocol-schema';
 import type { AmendOrder, OrderDetail, OrderDraft } from '../../../../shared/schemas/orders';
 import { Alert } from '../../../components/ui/alert';
 import { Button, LinkButton } from '../../../components/ui/button';
+import { FieldError } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { readableMessage } from '../../../lib/form-errors';
 import { orderQueries } from '../api/order-queries';
@@ -81,6 +82,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
     setError,
     setValue,
     getValues,
+    trigger,
     formState: { errors, isSubmitted },
   } = useForm<OrderFormValues, OrderFormContext>({
     defaultValues: initialValues,
@@ -105,6 +107,11 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
     if (current === '' || current === lastDefault.current) setValue('bsaFormula', definition.bsaFormulaDefault);
     lastDefault.current = definition.bsaFormulaDefault;
   }, [definition, getValues, setValue]);
+
+  // A save tried while the version was still loading is checked again once it has arrived.
+  useEffect(() => {
+    if (definition && isSubmitted) void trigger('protocolRef');
+  }, [definition, isSubmitted, trigger]);
 
   const { inputs } = formToInputs(values, kind);
   const preview = usePlanPreview(definition, inputs);
@@ -201,7 +208,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
             name="patientId"
             render={({ field }) => <PatientPicker ref={field.ref} value={field.value} onChange={field.onChange} locked={mode === 'amend'} error={fieldError('patientId')} />}
           />
-          <fieldset aria-describedby="eye-reminder" className="space-y-2">
+          <fieldset aria-describedby={fieldError('eye') ? 'eye-reminder eye-error' : 'eye-reminder'} className="space-y-2">
             <legend className="font-medium text-paper-900">Treatment eye (required)</legend>
             <p id="eye-reminder" className="text-sm text-paper-700">
               Confirm the eye with the patient and against the notes and the consent form before choosing.
@@ -217,11 +224,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
                 </label>
               ))}
             </div>
-            {fieldError('eye') && (
-              <p className="text-sm font-medium text-alarm-700" role="alert">
-                {fieldError('eye')}
-              </p>
-            )}
+            <FieldError id="eye-error" message={fieldError('eye')} />
           </fieldset>
         </Section>
 

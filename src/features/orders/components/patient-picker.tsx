@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useEffect, useId, useState, type Ref } from 'react';
+import { useEffect, useId, useRef, useState, type Ref } from 'react';
 import type { Patient } from '../../../../shared/schemas/patients';
 import { Button } from '../../../components/ui/button';
 import { PatientCardIcon, SpinnerIcon } from '../../../components/ui/icons';
@@ -50,6 +50,15 @@ export function PatientPicker({ value, onChange, locked, error, ref }: PatientPi
   const settled = useSettled(text.trim(), 300);
   const matches = useQuery({ ...orderQueries.patientChoices(settled), enabled: chosenId === null && settled.length > 0 });
   const errorId = error ? `${id}-error` : undefined;
+  // After a choice, focus goes to the chosen patient's card, not back to the top of the page.
+  const focusAfterChoice = useRef(false);
+  const changeButton = useRef<HTMLButtonElement | null>(null);
+  useEffect(() => {
+    if (chosenId !== null && focusAfterChoice.current) {
+      focusAfterChoice.current = false;
+      changeButton.current?.focus();
+    }
+  }, [chosenId]);
 
   if (chosenId !== null) {
     return (
@@ -79,7 +88,11 @@ export function PatientPicker({ value, onChange, locked, error, ref }: PatientPi
             <Button
               variant="secondary"
               size="sm"
-              ref={ref as Ref<HTMLButtonElement>}
+              ref={(element) => {
+                changeButton.current = element;
+                if (typeof ref === 'function') ref(element);
+                else if (ref) (ref as { current: HTMLElement | null }).current = element;
+              }}
               onClick={() => {
                 setText('');
                 onChange('');
@@ -100,7 +113,7 @@ export function PatientPicker({ value, onChange, locked, error, ref }: PatientPi
     <div className="flex flex-col gap-3">
       <TextField
         ref={ref as Ref<HTMLInputElement>}
-        label="Patient"
+        label="Find the patient"
         hint="Type the first letters of the record number or a name, then choose the patient from the list"
         type="search"
         autoComplete="off"
@@ -120,29 +133,31 @@ export function PatientPicker({ value, onChange, locked, error, ref }: PatientPi
           ) : results.length === 0 ? (
             <p className="text-paper-700">No patient matches “{settled}”.</p>
           ) : (
-            <fieldset className="rounded-lg border border-paper-300 bg-white p-2">
-              <legend className="px-1 text-sm font-medium text-paper-800">
+            <div className="rounded-lg border border-paper-300 bg-white p-2">
+              <p id={`${id}-matches`} className="px-1 text-sm font-medium text-paper-800">
                 {results.length} matching {results.length === 1 ? 'patient' : 'patients'}: choose one
-              </legend>
-              <ul className="max-h-64 overflow-y-auto">
+              </p>
+              <ul aria-labelledby={`${id}-matches`} className="mt-1 max-h-64 overflow-y-auto">
                 {results.map((patient) => (
                   <li key={patient.id}>
-                    <label className="flex min-h-tap cursor-pointer items-center gap-3 rounded-md px-2 py-1.5 hover:bg-paper-100">
-                      <input
-                        type="radio"
-                        name={`${id}-patient`}
-                        value={patient.id}
-                        className="size-5 shrink-0 accent-iris-700"
-                        onChange={() => onChange(String(patient.id))}
-                      />
+                    <button
+                      type="button"
+                      className="flex min-h-tap w-full items-center gap-3 rounded-md px-2 py-1.5 text-left hover:bg-paper-100"
+                      onClick={() => {
+                        focusAfterChoice.current = true;
+                        onChange(String(patient.id));
+                      }}
+                    >
+                      <PatientCardIcon className="size-5 text-paper-700" />
                       <span>
+                        <span className="sr-only">Choose </span>
                         <PatientLine patient={patient} />
                       </span>
-                    </label>
+                    </button>
                   </li>
                 ))}
               </ul>
-            </fieldset>
+            </div>
           )}
         </div>
       )}

@@ -93,7 +93,7 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
           </dd>
         </dl>
 
-        {knownProblems.length > 0 && !error && (
+        {knownProblems.length > 0 && otherProblems.length === 0 && (
           <Alert tone="info" title="The server will refuse the signature until these are settled" live="none">
             <ul className="list-disc space-y-1 pl-5">
               {knownProblems.map((p) => (

@@ -1,0 +1,128 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { openSync } from 'node:fs';
+import path from 'node:path';
+import mysql from 'mysql2/promise';
+import { loadConfig, type Config } from '../../server/config';
+import { migrateDatabase } from '../../server/db/migrate';
+import { appDataSource } from '../../server/db/options';
+import { seedDemoData } from '../../server/demo/seed';
+import { localEnvironment } from '../../server/ops/environment';
+import { ensureDatabaseServer, shutdownDatabaseServer } from '../../server/ops/mariadb';
+import { dataDir, repoRoot } from '../../server/ops/paths';
+import { loadShippedProtocols } from '../../server/protocols/load-shipped';
+
+/**
+ * A MariaDB instance and API processes of the fault tests' own, so stopping the database or
+ * killing a server never disturbs other tests. Everything listens on 127.0.0.1 only.
+ */
+export const faultDbPort = 3317;
+export const faultDir = path.join(dataDir, 'fault-test');
+const database = 'luxtempo_fault';
+
+export function faultConfig(): Config {
+  return loadConfig({ ...localEnvironment(database), DB_PORT: String(faultDbPort), SMTP_PORT: '1126', DEMO_DATA: 'false', NODE_ENV: 'test' });
+}
+
+export async function startFaultDatabase(): Promise<void> {
+  const config = faultConfig();
+  await ensureDatabaseServer({ port: faultDbPort, instanceDir: faultDir, databases: [database], ownerUser: config.DB_OWNER_USER, ownerPassword: config.DB_OWNER_PASSWORD, appUser: config.DB_USER, appPassword: config.DB_PASSWORD });
+}
+
+export function stopFaultDatabase(): void {
+  shutdownDatabaseServer(faultDir);
+}
+
+/** A fresh database with the schema, the shipped protocols and the demo people. */
+export async function resetFaultDatabase(): Promise<void> {
+  const config = faultConfig();
+  const owner = await mysql.createConnection({ host: config.DB_HOST, port: faultDbPort, user: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD });
+  await owner.query(`DROP DATABASE IF EXISTS \`${database}\``);
+  await owner.query(`CREATE DATABASE \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  await owner.end();
+  await migrateDatabase(config);
+  const app = appDataSource(config);
+  await app.initialize();
+  try {
+    await loadShippedProtocols(app);
+    await seedDemoData(app);
+  } finally {
+    await app.destroy();
+  }
+}
+
+export interface ApiProcess {
+  url: string;
+  child: ChildProcess;
+  /** Ends the process at once, as a crash or a pulled plug would. */
+  kill(): Promise<void>;
+}
+
+/**
+ * Starts the server as its own process against the fault database. Node runs it directly with
+ * tsx as a loader (not through the tsx command, which would put a second process in between), so
+ * killing it really ends the server.
+ */
+export async function startApiProcess(port: number, name: string): Promise<ApiProcess> {
+  const config = faultConfig();
+  const log = openSync(path.join(faultDir, `${name}.log`), 'a');
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    cwd: repoRoot,
+    env: { ...process.env, ...localEnvironment(database), DB_PORT: String(faultDbPort), PORT: String(port), SMTP_PORT: '1126', NODE_ENV: 'test', DEMO_DATA: 'false', LOGIN_FAILURE_LIMIT: '1000', JWT_SECRET: config.JWT_SECRET },
+    stdio: ['ignore', log, log],
+  });
+  const url = `http://127.0.0.1:${port}`;
+  const until = Date.now() + 30_000;
+  let exited = false;
+  child.once('exit', () => (exited = true));
+  for (;;) {
+    if (exited || child.exitCode !== null) throw new Error(`the API process ${name} exited at start; see ${faultDir}/${name}.log`);
+    try {
+      // The answer must come from this process, not from one left over on the port.
+      const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(1000) });
+      if (res.ok && res.headers.get('x-luxtempo-pid') === String(child.pid)) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > until) throw new Error(`the API process ${name} did not answer within 30 s`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return {
+    url,
+    child,
+    kill: () =>
+      new Promise<void>((resolve) => {
+        if (child.exitCode !== null) return resolve();
+        child.once('exit', () => resolve());
+        child.kill('SIGKILL');
+      }),
+  };
+}
+
+/** A tiny client with a cookie jar, speaking to one API process (or another, for the same person). */
+export class FaultClient {
+  cookie = '';
+  constructor(public baseUrl: string) {}
+
+  async signIn(email: string, password: string) {
+    const res = await fetch(`${this.baseUrl}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email, password }) });
+    if (res.status !== 200) throw new Error(`sign-in as ${email}: ${res.status}`);
+    this.cookie = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    return this;
+  }
+
+  async call(method: string, urlPath: string, body?: unknown, baseUrl = this.baseUrl) {
+    const res = await fetch(`${baseUrl}/api${urlPath}`, {
+      method,
+      headers: { Cookie: this.cookie, ...(body === undefined ? {} : { 'Content-Type': 'application/json' }) },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
+    const text = await res.text();
+    let json: unknown = null;
+    try {
+      json = JSON.parse(text);
+    } catch {
+      json = text;
+    }
+    return { status: res.status, body: json as Record<string, any> };
+  }
+}
