@@ -9,7 +9,7 @@ import path from 'node:path';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const command = process.argv[2];
-const entries = { start: 'server/ops/start.ts', test: 'server/ops/test.ts' };
+const entries = { start: 'server/ops/start.ts', test: 'server/ops/test.ts', bench: 'server/ops/bench.ts' };
 if (!entries[command]) {
   console.error(`usage: node server/ops/prepare.mjs <${Object.keys(entries).join('|')}>`);
   process.exit(2);
@@ -46,7 +46,7 @@ function ensureDebianPackages(packages) {
 }
 
 const debian = [{ name: 'mariadb-server', binary: '/usr/sbin/mariadbd' }];
-if (command === 'test') debian.push({ name: 'chromium', binary: '/usr/bin/chromium' });
+if (command === 'test' || command === 'bench') debian.push({ name: 'chromium', binary: '/usr/bin/chromium' });
 
 ensureNpmPackages();
 ensureDebianPackages(debian);

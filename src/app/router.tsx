@@ -92,6 +92,11 @@ export const router = createBrowserRouter([
             lazy: screen(() => import('./routes/order-amend'), (m) => m.OrderAmendRoute),
           },
           {
+            path: paths.orderDischarge.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/order-discharge'), (m) => m.OrderDischargeRoute),
+          },
+          {
             path: paths.protocols.path,
             errorElement: <RouteErrorScreen framed={false} />,
             lazy: screen(() => import('./routes/protocols'), (m) => m.ProtocolsRoute),
@@ -125,6 +130,41 @@ export const router = createBrowserRouter([
             path: paths.outbox.path,
             errorElement: <RouteErrorScreen framed={false} />,
             lazy: screen(() => import('./routes/outbox'), (m) => m.OutboxRoute),
+          },
+          {
+            path: paths.deviations.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/deviations'), (m) => m.DeviationsRoute),
+          },
+          {
+            path: paths.deviation.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/deviation-review'), (m) => m.DeviationReviewRoute),
+          },
+          {
+            path: paths.doseRecords.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/dose-records'), (m) => m.DoseRecordsRoute),
+          },
+          {
+            path: paths.doseRecordPrint.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/dose-records'), (m) => m.DoseRecordPrintRoute),
+          },
+          {
+            path: paths.trends.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/trends'), (m) => m.TrendsRoute),
+          },
+          {
+            path: paths.auditTrail.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/audit-trail'), (m) => m.AuditTrailRoute),
+          },
+          {
+            path: paths.stepClock.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/step-clock'), (m) => m.StepClockRoute),
           },
         ],
       },

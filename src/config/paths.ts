@@ -63,6 +63,11 @@ export const paths = {
     path: '/orders/:id/amend',
     getHref: (id: number | string) => `/orders/${encodeURIComponent(String(id))}/amend`,
   },
+  orderDischarge: {
+    path: '/orders/:id/discharge',
+    /** The printable discharge sheet of one order's session (and the e-mail to the patient). */
+    getHref: (id: number | string) => `/orders/${encodeURIComponent(String(id))}/discharge`,
+  },
   lightCalculator: {
     path: '/light-calculator',
     getHref: () => '/light-calculator',

@@ -1,8 +1,9 @@
 /**
  * The one way the client talks to the Luxtempo API. Every call goes to `/api/...` on the same
- * origin with the session cookie, sends and reads JSON, and turns every failure — a refused
- * request, an unreachable server, an answer in an unexpected shape — into one
- * `ApiRequestError` that screens can show beside a field or in an alert.
+ * origin with the session cookie, sends JSON (or multipart form data for uploads) and reads
+ * JSON, and turns every failure — a refused request, an unreachable server, an answer in an
+ * unexpected shape — into one `ApiRequestError` that screens can show beside a field or in an
+ * alert.
  */
 
 export type FieldProblem = { path: string; message: string };
@@ -52,6 +53,7 @@ type Method = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
 
 export type RequestOptions<T> = {
   method?: Method;
+  /** Sent as JSON; a `FormData` is sent as multipart form data instead (uploads). */
   body?: unknown;
   /** Validates the success body; without it the body is returned unchecked. */
   schema?: ResponseParser<T>;
@@ -68,14 +70,16 @@ const API_PREFIX = '/api';
 export async function apiRequest<T>(path: string, options: RequestOptions<T> = {}): Promise<T> {
   const { method = 'GET', body, schema, signal, unauthorized = 'end-session' } = options;
   const headers: Record<string, string> = { Accept: 'application/json' };
-  if (body !== undefined) headers['Content-Type'] = 'application/json';
+  // The browser writes a multipart body's Content-Type itself, with the boundary in it.
+  const multipart = typeof FormData !== 'undefined' && body instanceof FormData;
+  if (body !== undefined && !multipart) headers['Content-Type'] = 'application/json';
 
   let response: Response;
   try {
     response = await fetch(`${API_PREFIX}${path}`, {
       method,
       headers,
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: body === undefined ? undefined : multipart ? body : JSON.stringify(body),
       credentials: 'same-origin',
       signal,
     });
@@ -113,8 +117,13 @@ export const api = {
   get: <T>(path: string, options?: Omit<RequestOptions<T>, 'method' | 'body'>) => apiRequest<T>(path, { ...options, method: 'GET' }),
   post: <T>(path: string, body?: unknown, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
     apiRequest<T>(path, { ...options, method: 'POST', body }),
+  put: <T>(path: string, body: unknown, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
+    apiRequest<T>(path, { ...options, method: 'PUT', body }),
   patch: <T>(path: string, body: unknown, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
     apiRequest<T>(path, { ...options, method: 'PATCH', body }),
+  /** Posts files as multipart form data; errors and a 401 are handled as for every other call. */
+  upload: <T>(path: string, formData: FormData, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
+    apiRequest<T>(path, { ...options, method: 'POST', body: formData }),
   delete: <T = void>(path: string, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
     apiRequest<T>(path, { ...options, method: 'DELETE' }),
 };
@@ -159,6 +168,8 @@ function fallbackMessage(status: number): string {
   if (status === 401) return 'Your session has ended. Sign in again to continue.';
   if (status === 403) return 'Your roles do not allow this.';
   if (status === 404) return 'This was not found. It may have been removed.';
+  if (status === 413) return 'What was sent is larger than the server accepts.';
+  if (status === 415) return 'The server does not accept this kind of file.';
   if (status === 429) return 'Too many requests in a short time. Wait a little and try again.';
   if (status >= 500) return `The Luxtempo server could not answer just now (HTTP ${status}). Try again in a moment.`;
   return `The request was refused (HTTP ${status}).`;

@@ -1,5 +1,3 @@
-import { spawn, type ChildProcess } from 'node:child_process';
-import { openSync } from 'node:fs';
 import path from 'node:path';
 import mysql from 'mysql2/promise';
 import { loadConfig, type Config } from '../../server/config';
@@ -8,7 +6,10 @@ import { appDataSource } from '../../server/db/options';
 import { seedDemoData } from '../../server/demo/seed';
 import { localEnvironment } from '../../server/ops/environment';
 import { ensureDatabaseServer, shutdownDatabaseServer } from '../../server/ops/mariadb';
-import { dataDir, repoRoot } from '../../server/ops/paths';
+import { startApiProcess as startProcess, type ApiProcess } from '../../server/ops/api-process';
+import { dataDir } from '../../server/ops/paths';
+
+export type { ApiProcess };
 import { loadShippedProtocols } from '../../server/protocols/load-shipped';
 
 /**
@@ -50,52 +51,13 @@ export async function resetFaultDatabase(): Promise<void> {
   }
 }
 
-export interface ApiProcess {
-  url: string;
-  child: ChildProcess;
-  /** Ends the process at once, as a crash or a pulled plug would. */
-  kill(): Promise<void>;
-}
-
-/**
- * Starts the server as its own process against the fault database. Node runs it directly with
- * tsx as a loader (not through the tsx command, which would put a second process in between), so
- * killing it really ends the server.
- */
-export async function startApiProcess(port: number, name: string): Promise<ApiProcess> {
-  const config = faultConfig();
-  const log = openSync(path.join(faultDir, `${name}.log`), 'a');
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    cwd: repoRoot,
-    env: { ...process.env, ...localEnvironment(database), DB_PORT: String(faultDbPort), PORT: String(port), SMTP_PORT: '1126', NODE_ENV: 'test', DEMO_DATA: 'false', LOGIN_FAILURE_LIMIT: '1000', JWT_SECRET: config.JWT_SECRET },
-    stdio: ['ignore', log, log],
+/** Starts the server as its own process against the fault database. */
+export function startApiProcess(port: number, name: string): Promise<ApiProcess> {
+  return startProcess({
+    port,
+    logFile: path.join(faultDir, `${name}.log`),
+    env: { ...localEnvironment(database), DB_PORT: String(faultDbPort), SMTP_PORT: '1126', NODE_ENV: 'test', DEMO_DATA: 'false', LOGIN_FAILURE_LIMIT: '1000' },
   });
-  const url = `http://127.0.0.1:${port}`;
-  const until = Date.now() + 30_000;
-  let exited = false;
-  child.once('exit', () => (exited = true));
-  for (;;) {
-    if (exited || child.exitCode !== null) throw new Error(`the API process ${name} exited at start; see ${faultDir}/${name}.log`);
-    try {
-      // The answer must come from this process, not from one left over on the port.
-      const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(1000) });
-      if (res.ok && res.headers.get('x-luxtempo-pid') === String(child.pid)) break;
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > until) throw new Error(`the API process ${name} did not answer within 30 s`);
-    await new Promise((r) => setTimeout(r, 200));
-  }
-  return {
-    url,
-    child,
-    kill: () =>
-      new Promise<void>((resolve) => {
-        if (child.exitCode !== null) return resolve();
-        child.once('exit', () => resolve());
-        child.kill('SIGKILL');
-      }),
-  };
 }
 
 /** A tiny client with a cookie jar, speaking to one API process (or another, for the same person). */

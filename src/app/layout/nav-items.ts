@@ -2,6 +2,7 @@ import type { ComponentType, SVGProps } from 'react';
 import type { Capability } from '../../../shared/roles';
 import { LightBeamIcon, OutboxTrayIcon, PeopleIcon, ProtocolBookIcon, SunriseIcon, VialCheckIcon } from '../../components/ui/icons';
 import { OrderClipboardIcon, PatientCardIcon } from '../../components/ui/icons';
+import { DeviationPathIcon, RecordLedgerIcon, TrailLogIcon, TrendBarsIcon } from '../../components/ui/icons';
 import { paths } from '../../config/paths';
 
 export type NavItem = {
@@ -20,6 +21,10 @@ export const navItems: readonly NavItem[] = [
   { label: 'Orders', to: paths.orders.getHref(), capability: 'orders.read', icon: OrderClipboardIcon },
   { label: 'Patients', to: paths.patients.getHref(), capability: 'patients.read', icon: PatientCardIcon },
   { label: 'Protocols', to: paths.protocols.getHref(), capability: 'protocols.read', icon: ProtocolBookIcon },
+  { label: 'Deviations', to: paths.deviations.getHref(), capability: 'audit.read', icon: DeviationPathIcon },
+  { label: 'Dose records', to: paths.doseRecords.getHref(), capability: 'audit.read', icon: RecordLedgerIcon },
+  { label: 'Trends', to: paths.trends.getHref(), capability: 'audit.read', icon: TrendBarsIcon },
+  { label: 'Audit trail', to: paths.auditTrail.getHref(), capability: 'audit.read', icon: TrailLogIcon },
   { label: 'Light calculator', to: paths.lightCalculator.getHref(), capability: 'calculations.run', icon: LightBeamIcon },
   { label: 'People', to: paths.people.getHref(), capability: 'people.manage', icon: PeopleIcon },
   { label: 'Outbox', to: paths.outbox.getHref(), capability: 'outbox.read', icon: OutboxTrayIcon },

@@ -16,7 +16,7 @@ export function OrderDetailRoute() {
       ) : orderId === null ? (
         <NoSuchOrder text={id} />
       ) : (
-        <OrderDetailScreen key={orderId} orderId={orderId} canWrite={hasCapability(user, 'orders.write')} />
+        <OrderDetailScreen key={orderId} orderId={orderId} canWrite={hasCapability(user, 'orders.write')} canRunSessions={hasCapability(user, 'sessions.run')} />
       )}
     </>
   );

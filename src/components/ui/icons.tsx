@@ -526,3 +526,219 @@ export function StatusStoppedIcon(props: IconProps) {
     </Icon>
   );
 }
+
+/* The bedside step clock. */
+
+/** A single drop: a riboflavin drop given or due. */
+export function DropletIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M12 3.5c3.5 4.4 6 7.9 6 10.9a6 6 0 0 1-12 0c0-3 2.5-6.5 6-10.9z" />
+      <path d="M9.2 14.8a2.9 2.9 0 0 0 2.3 2.6" />
+    </Icon>
+  );
+}
+
+/** A speaker with sound waves: cues will sound. */
+export function SoundOnIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M4 9.5h3.5L12 5.5v13l-4.5-4H4z" />
+      <path d="M15.5 9a4.2 4.2 0 0 1 0 6M18.2 6.5a8 8 0 0 1 0 11" />
+    </Icon>
+  );
+}
+
+/** A speaker with a cross: cues are silent (the flash still shows). */
+export function SoundOffIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M4 9.5h3.5L12 5.5v13l-4.5-4H4z" />
+      <path d="M16 9.5l5 5M21 9.5l-5 5" />
+    </Icon>
+  );
+}
+
+/** An arrow waiting under a bar: taps kept on this tablet, not yet stored by the server. */
+export function UnsentIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M12 20V9" />
+      <path d="M8 13l4-4 4 4" />
+      <path d="M4 4.5h16" strokeDasharray="2.5 2.5" />
+    </Icon>
+  );
+}
+
+/** A stack with a tick: every tap stored by the server. */
+export function StoredIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <ellipse cx="11" cy="6" rx="7" ry="2.5" />
+      <path d="M4 6v5.5c0 1.4 3.1 2.5 7 2.5M18 6v4" />
+      <path d="M4 11.5V17c0 1.4 3.1 2.5 7 2.5" />
+      <path d="M14 17.5l2.2 2.2 4.3-4.7" />
+    </Icon>
+  );
+}
+
+/** An open eye: the treatment eye. */
+export function EyeIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M2.5 12s3.5-6.5 9.5-6.5 9.5 6.5 9.5 6.5-3.5 6.5-9.5 6.5S2.5 12 2.5 12z" />
+      <circle cx="12" cy="12" r="3" />
+    </Icon>
+  );
+}
+
+/** A ruler across a curve: the stroma measured in µm. */
+export function ThicknessGaugeIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M3 16.5c4-5 14-5 18 0" />
+      <path d="M12 4v8.5M9.5 6.5L12 4l2.5 2.5M9.5 10L12 12.5 14.5 10" />
+    </Icon>
+  );
+}
+
+/** A screen with a small sun: the screen is kept awake. */
+export function ScreenAwakeIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <rect x="2.5" y="5" width="19" height="13" rx="2" />
+      <circle cx="12" cy="11.5" r="2" />
+      <path d="M12 7.5v.5M12 15v.5M8 11.5h.5M15.5 11.5h.5" />
+      <path d="M9 21h6" />
+    </Icon>
+  );
+}
+
+/** A drop leaving a line with a warning mark: the infusion has leaked into the tissue. */
+export function LeakIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M3 7h9" />
+      <path d="M12 7c2.8 3.3 4.5 5.8 4.5 8a4.5 4.5 0 0 1-9 0c0-2.2 1.7-4.7 4.5-8z" />
+      <path d="M12 12v2.5M12 17h.01" />
+    </Icon>
+  );
+}
+
+/** A circle with a bar: end the step now. */
+export function EndStepIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <circle cx="12" cy="12" r="9" />
+      <rect x="8.5" y="8.5" width="7" height="7" rx="1" />
+    </Icon>
+  );
+}
+
+/* The auditor's screens. */
+
+/** Three rising bars, `level` of them solid: how severe a deviation is (1 minor, 2 major, 3 critical). */
+export function SeverityLevelIcon({ level, ...props }: IconProps & { level: 1 | 2 | 3 }) {
+  return (
+    <Icon {...props}>
+      <rect x="3.5" y="14" width="4" height="6" rx="1" fill="currentColor" />
+      <rect x="10" y="9.5" width="4" height="10.5" rx="1" fill={level >= 2 ? 'currentColor' : 'none'} />
+      <rect x="16.5" y="4" width="4" height="16" rx="1" fill={level >= 3 ? 'currentColor' : 'none'} />
+    </Icon>
+  );
+}
+
+/** A flag on a pole: something to follow up. */
+export function FlagIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M5 21V4" />
+      <path d="M5 4.5h11.5l-2.5 4 2.5 4H5" />
+    </Icon>
+  );
+}
+
+export function PrinterIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M7 8.5V3.5h10v5" />
+      <rect x="3" y="8.5" width="18" height="8" rx="2" />
+      <rect x="7" y="13.5" width="10" height="7" rx="1" />
+    </Icon>
+  );
+}
+
+/** A straight course with one stretch bent off it: a departure from protocol. */
+export function DeviationPathIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M3 17h5l3-8 3 8h7" />
+      <path d="M8 17h6" strokeDasharray="1.5 2.5" />
+    </Icon>
+  );
+}
+
+/** A page of ruled lines with figures: what was given, for the record. */
+export function RecordLedgerIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <rect x="4.5" y="3" width="15" height="18" rx="2" />
+      <path d="M8 8h8M8 12h8M8 16h4" />
+    </Icon>
+  );
+}
+
+/** Bars of a chart over a base line: figures month by month. */
+export function TrendBarsIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M3 20.5h18" />
+      <path d="M6 17v-4M10.5 17V8M15 17v-6M19.5 17V5" />
+    </Icon>
+  );
+}
+
+/** A list beside a small clock: who did what, and when. */
+export function TrailLogIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M3 5.5h8M3 10.5h6M3 15.5h5M3 20h9" />
+      <circle cx="17" cy="13" r="5" />
+      <path d="M17 10.5V13l1.6 1.2" />
+    </Icon>
+  );
+}
+
+/* Discharge. */
+
+/** A sun half hidden behind a shield: keep skin and eyes out of bright light. */
+export function SunShieldIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <circle cx="8" cy="8" r="3" />
+      <path d="M8 2v1.2M2 8h1.2M3.8 3.8l.9.9M12.2 3.8l-.9.9M3.8 12.2l.9-.9" />
+      <path d="M15.5 9.5l5 2v3.3c0 3-2.1 5.3-5 6.2-2.9-.9-5-3.2-5-6.2v-3.3z" />
+    </Icon>
+  );
+}
+
+/** A closed envelope: a message to the patient. */
+export function EnvelopeIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <rect x="3" y="5.5" width="18" height="13" rx="2" />
+      <path d="M3.5 7l8.5 6.5L20.5 7" />
+    </Icon>
+  );
+}
+
+/** A page with an arrow leaving it: the sheet the patient takes home. */
+export function DischargeSheetIcon(props: IconProps) {
+  return (
+    <Icon {...props}>
+      <path d="M14 21H6.5a1.5 1.5 0 0 1-1.5-1.5v-15A1.5 1.5 0 0 1 6.5 3H13l4 4v4" />
+      <path d="M8.5 9h4M8.5 12.5h4" />
+      <path d="M14.5 17h7M18.5 14l3 3-3 3" />
+    </Icon>
+  );
+}

@@ -2,6 +2,7 @@ import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { OrderListQuery } from '../../../../shared/schemas/orders';
 import { findPatients, getPatient } from './find-patients';
 import { getOrder } from './get-order';
+import { getOrderSession } from './get-order-session';
 import { getOrders } from './get-orders';
 import { getProtocolChoices } from './get-protocol-choices';
 import { getProtocolDefinition } from './get-protocol-definition';
@@ -22,6 +23,13 @@ export const orderQueries = {
     queryOptions({
       queryKey: [...orderQueries.details(), id] as const,
       queryFn: ({ signal }) => getOrder(id, { signal }),
+    }),
+  /** The session's dose record and live deviations; polled while the session runs. */
+  session: (id: number) =>
+    queryOptions({
+      queryKey: [...orderQueries.details(), id, 'session'] as const,
+      queryFn: ({ signal }) => getOrderSession(id, { signal }),
+      refetchInterval: (query) => (query.state.data?.status === 'in-session' ? 10_000 : false),
     }),
 
   /** What the order form reads from other parts of the API, kept under this feature's keys. */

@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import { protocolKinds, protocolVersionSchema } from '../../../../shared/protocol/protocol-schema';
-import { orderDetailSchema, orderSummarySchema } from '../../../../shared/schemas/orders';
+import { orderDetailSchema, orderStatuses, orderSummarySchema } from '../../../../shared/schemas/orders';
 import { patientSchema } from '../../../../shared/schemas/patients';
+import { deviationSeverities } from '../../../../shared/session/session-events';
 
 /** The shapes the order, protocol and patient APIs answer with, as this feature reads them. */
 
@@ -40,3 +41,59 @@ export type ProtocolVersionWithDefinition = z.infer<typeof protocolDefinitionRes
 
 export const patientsResponseSchema = z.object({ patients: z.array(patientSchema) });
 export const patientResponseSchema = z.object({ patient: patientSchema });
+
+const at = z.string().nullable().optional().default(null);
+const figure = z.number().nullable().optional().default(null);
+
+/** What was given, derived by the server from the session's events (shared/session/dose-record.ts). */
+export const givenRecordSchema = z.object({
+  kind: z.enum(protocolKinds),
+  outcome: z.enum(['not-started', 'in-progress', 'completed', 'stopped']),
+  sessionStartedAt: at,
+  endedAt: at,
+  stopReason: at,
+  irradianceMwPerCm2: figure,
+  infusionStartAt: at,
+  infusionEndAt: at,
+  infusionDurationS: figure,
+  volumeGivenMl: figure,
+  extravasationAt: at,
+  lightStartAt: at,
+  lightEndAt: at,
+  lightStartAfterInfusionStartS: figure,
+  lightOnS: figure,
+  soakStartAt: at,
+  soakEndAt: at,
+  soakDurationS: figure,
+  longestDropGapSoakS: figure,
+  longestDropGapUvS: figure,
+  thicknessBeforeUvUm: figure,
+  thicknessOverrideReason: at,
+  uvStartAt: at,
+  uvEndAt: at,
+  uvElapsedS: figure,
+  uvOnS: figure,
+  deliveredFluenceJPerCm2: figure,
+});
+export type GivenRecord = z.infer<typeof givenRecordSchema>;
+
+export const sessionDeviationSchema = z.object({
+  id: z.number().int(),
+  type: z.string(),
+  severity: z.enum(deviationSeverities),
+  expected: z.number().nullable(),
+  actual: z.number().nullable(),
+  unit: z.string().nullable(),
+  message: z.string(),
+  detectedAt: z.string(),
+});
+export type SessionDeviation = z.infer<typeof sessionDeviationSchema>;
+
+/** `GET /api/orders/:id/session`: the record is null until the first event is stored. */
+export const orderSessionResponseSchema = z.object({
+  status: z.enum(orderStatuses),
+  record: givenRecordSchema.nullable(),
+  deviations: z.array(sessionDeviationSchema),
+  serverTime: z.string(),
+});
+export type OrderSession = z.infer<typeof orderSessionResponseSchema>;

@@ -12,3 +12,9 @@ export function formatCalendarDate(date: string): string {
   const day = DateTime.fromISO(date, { zone: unitTimeZone });
   return day.isValid ? day.setLocale('en-GB').toFormat('d LLL yyyy') : date;
 }
+
+/** A stored UTC instant as the unit's wall-clock time to the second, e.g. "10:21:00". */
+export function formatUnitClock(iso: string): string {
+  const at = DateTime.fromISO(iso, { zone: 'utc' });
+  return at.isValid ? at.setZone(unitTimeZone).toFormat('HH:mm:ss') : iso;
+}

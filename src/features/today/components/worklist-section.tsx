@@ -1,7 +1,8 @@
 import { DateTime } from 'luxon';
 import { Link } from 'react-router-dom';
 import type { OrderSummary } from '../../../../shared/schemas/orders';
-import { ChevronRightIcon } from '../../../components/ui/icons';
+import { LinkButton } from '../../../components/ui/button';
+import { ChevronRightIcon, ClockIcon } from '../../../components/ui/icons';
 import { paths } from '../../../config/paths';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 import type { Worklist } from '../api/get-today';
@@ -19,6 +20,9 @@ const emptyWords: Record<string, string> = {
 
 /** The pharmacist's lists open the dose-check screen, where checking and preparing happen; the rest open the order. */
 const doseCheckLists = new Set(['pharmacist-checks', 'pharmacist-preparation', 'pharmacist-prepared']);
+
+/** The nurse's list of orders ready for treatment also leads straight to the bedside step clock. */
+const stepClockLists = new Set(['nurse-ready']);
 
 const eyeWords = { right: 'Right eye', left: 'Left eye' } as const;
 
@@ -71,6 +75,12 @@ export function WorklistSection({ list, clockOffsetMs }: { list: Worklist; clock
                     <BeyondUseChip beyondUseAt={order.beyondUseAt} clockOffsetMs={clockOffsetMs} subject={`Order ${order.id}, ${name}`} />
                   )}
                 </span>
+                {stepClockLists.has(list.id) && (
+                  // Above the row-wide link, so it takes its own presses.
+                  <LinkButton variant="primary" size="sm" to={paths.stepClock.getHref(order.id)} icon={<ClockIcon className="size-4" />} className="relative z-10 ml-auto">
+                    Open step clock<span className="sr-only"> for {name}, order {order.id}</span>
+                  </LinkButton>
+                )}
                 <ChevronRightIcon className="size-5 text-paper-600" />
               </li>
             );

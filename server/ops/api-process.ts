@@ -1,0 +1,50 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { openSync } from 'node:fs';
+import { repoRoot } from './paths';
+
+export interface ApiProcess {
+  url: string;
+  child: ChildProcess;
+  /** Ends the process at once, as a crash or a pulled plug would. */
+  kill(): Promise<void>;
+}
+
+/**
+ * Starts the server as a process of its own. Node runs it directly with tsx as a loader (not
+ * through the tsx command, which would put a second process in between), so killing it really
+ * ends the server. Resolves once this very process answers /api/health.
+ */
+export async function startApiProcess(options: { port: number; env: NodeJS.ProcessEnv; logFile: string }): Promise<ApiProcess> {
+  const log = openSync(options.logFile, 'a');
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    cwd: repoRoot,
+    env: { ...process.env, ...options.env, PORT: String(options.port) },
+    stdio: ['ignore', log, log],
+  });
+  const url = `http://127.0.0.1:${options.port}`;
+  let exited = false;
+  child.once('exit', () => (exited = true));
+  const until = Date.now() + 30_000;
+  for (;;) {
+    if (exited) throw new Error(`the API process on port ${options.port} exited at start; see ${options.logFile}`);
+    try {
+      // The answer must come from this process, not from one left over on the port.
+      const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(1000) });
+      if (res.ok && res.headers.get('x-luxtempo-pid') === String(child.pid)) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > until) throw new Error(`the API process on port ${options.port} did not answer within 30 s; see ${options.logFile}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return {
+    url,
+    child,
+    kill: () =>
+      new Promise<void>((resolve) => {
+        if (exited) return resolve();
+        child.once('exit', () => resolve());
+        child.kill('SIGKILL');
+      }),
+  };
+}

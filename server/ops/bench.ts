@@ -1,0 +1,176 @@
+// npm run bench — measures Luxtempo on this machine and writes the figures to .data/bench/.
+// It starts what it needs: the private MariaDB (a database of its own), a built client, and the
+// API as a separate process, so the load generator does not share the server's event loop.
+import type { EventEmitter } from 'node:events';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { randomUUID } from 'node:crypto';
+import path from 'node:path';
+import { gzipSync } from 'node:zlib';
+import autocannon from 'autocannon';
+import mysql from 'mysql2/promise';
+import { chromium } from 'playwright-core';
+import { loadConfig } from '../config';
+import { migrateDatabase } from '../db/migrate';
+import { appDataSource } from '../db/options';
+import { demoPassword, seedDemoData } from '../demo/seed';
+import { loadShippedProtocols } from '../protocols/load-shipped';
+import { startApiProcess } from './api-process';
+import { measureEngine } from './bench-engine';
+import { buildClient } from './build-client';
+import { measureClockError } from './bench-clock';
+import { localEnvironment } from './environment';
+import { ensureDatabaseServer } from './mariadb';
+import { clientDistDir, dataDir } from './paths';
+
+const benchDatabase = 'luxtempo_bench';
+const port = Number(process.env.BENCH_PORT ?? 3398);
+const connections = 50;
+const durationS = Number(process.env.BENCH_SECONDS ?? 10);
+const targets = { calculationP95Ms: 20, eventWriteP95Ms: 40, firstLoadJsGzipKb: 200, clockErrorMs: 250 };
+
+const env = { ...localEnvironment(benchDatabase), NODE_ENV: 'production', DEMO_DATA: 'false', SMTP_PORT: '1126', LOGIN_FAILURE_LIMIT: '1000', CLIENT_DIR: clientDistDir };
+const config = loadConfig(env);
+
+async function prepareDatabase() {
+  const database = await ensureDatabaseServer({ port: config.DB_PORT, databases: [benchDatabase], ownerUser: config.DB_OWNER_USER, ownerPassword: config.DB_OWNER_PASSWORD, appUser: config.DB_USER, appPassword: config.DB_PASSWORD });
+  const owner = await mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD });
+  await owner.query(`DROP DATABASE IF EXISTS \`${benchDatabase}\``);
+  await owner.query(`CREATE DATABASE \`${benchDatabase}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  await owner.end();
+  await migrateDatabase(config);
+  const app = appDataSource(config);
+  await app.initialize();
+  await loadShippedProtocols(app);
+  await seedDemoData(app);
+  await app.destroy();
+  return database;
+}
+
+async function signIn(base: string, role: string): Promise<string> {
+  const res = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: `${role}@demo.luxtempo.example`, password: demoPassword }) });
+  if (!res.ok) throw new Error(`sign-in as ${role}: ${res.status}`);
+  return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+}
+
+async function call(base: string, cookie: string, method: string, url: string, body?: unknown) {
+  const res = await fetch(`${base}/api${url}`, { method, headers: { Cookie: cookie, 'Content-Type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
+  const json = (await res.json()) as Record<string, any>;
+  if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${JSON.stringify(json)}`);
+  return json;
+}
+
+function percentile(sorted: number[], p: number): number {
+  if (sorted.length === 0) return NaN;
+  const index = Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1);
+  return Math.round(sorted[index]! * 100) / 100;
+}
+
+/** Runs autocannon and takes every response's time itself, so p95 is exact rather than bucketed. */
+async function load(title: string, opts: autocannon.Options) {
+  const times: number[] = [];
+  // Without a callback autocannon returns an emitter that is also a promise of the result.
+  const instance = autocannon({ ...opts, connections, duration: durationS }) as unknown as EventEmitter & Promise<autocannon.Result>;
+  instance.on('response', (_client: unknown, _status: number, _bytes: number, responseTimeMs: number) => times.push(responseTimeMs));
+  const result = await instance;
+  times.sort((a, b) => a - b);
+  const out = {
+    connections,
+    durationS,
+    requests: result.requests.total,
+    throughputPerS: Math.round(result.requests.average),
+    latencyMs: { p50: percentile(times, 50), p95: percentile(times, 95), p99: percentile(times, 99), max: percentile(times, 100) },
+    non2xx: result.non2xx,
+    errors: result.errors,
+  };
+  console.log(`${title.padEnd(24)} p50 ${out.latencyMs.p50} ms  p95 ${out.latencyMs.p95} ms  p99 ${out.latencyMs.p99} ms  ${out.throughputPerS} req/s  (${out.requests} requests, ${out.non2xx} not 2xx, ${out.errors} errors)`);
+  return out;
+}
+
+async function measureJs(base: string) {
+  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'] });
+  try {
+    const sizeOf = async (signInFirst: boolean, urlPath: string) => {
+      const context = await browser.newContext();
+      if (signInFirst) await context.request.post(`${base}/api/auth/login`, { headers: { origin: base }, data: { email: 'nurse@demo.luxtempo.example', password: demoPassword } });
+      const page = await context.newPage();
+      const scripts = new Map<string, number>();
+      page.on('response', async (res) => {
+        if (res.request().resourceType() === 'script' && res.ok()) scripts.set(res.url(), gzipSync(await res.body()).length);
+      });
+      await page.goto(`${base}${urlPath}`, { waitUntil: 'networkidle' });
+      await context.close();
+      return { files: scripts.size, gzipKb: Math.round([...scripts.values()].reduce((a, b) => a + b, 0) / 102.4) / 10 };
+    };
+    const signInPage = await sizeOf(false, '/sign-in');
+    const today = await sizeOf(true, '/');
+    console.log(`first-load JS (gzip)   sign-in ${signInPage.gzipKb} kB in ${signInPage.files} files; Today ${today.gzipKb} kB in ${today.files} files`);
+    return { signIn: signInPage, today };
+  } finally {
+    await browser.close();
+  }
+}
+
+const started = new Date();
+console.log(`Luxtempo benchmark — ${started.toISOString()} — Node ${process.version}\n`);
+const database = await prepareDatabase();
+console.log(`client build: ${await buildClient()}`);
+const engine = measureEngine(3);
+mkdirSync(path.join(dataDir, 'bench'), { recursive: true });
+const api = await startApiProcess({ port, env, logFile: path.join(dataDir, 'bench', 'api.log') });
+let results: Record<string, unknown> = {};
+try {
+  const base = api.url;
+  const nurse = await signIn(base, 'nurse');
+  const clinician = await signIn(base, 'clinician');
+
+  const calculation = await load('POST /api/calculations', {
+    url: `${base}/api/calculations`,
+    method: 'POST',
+    headers: { 'content-type': 'application/json', cookie: nurse },
+    body: JSON.stringify({ protocol: { key: 'pdt-standard', version: 1 }, inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, lesionGldUm: 2500, lensMagnification: 1 } }),
+  });
+
+  // One running CXL session per connection, so writes contend as they would across a unit's beds.
+  const orderIds: number[] = [];
+  for (let i = 0; i < connections; i++) {
+    const patient = await call(base, clinician, 'POST', '/patients', { recordNumber: `B-${randomUUID().slice(0, 8)}`, givenName: 'Bench', familyName: `Session ${i}`, dateOfBirth: '1970-01-01' });
+    const draft = await call(base, clinician, 'POST', '/orders', { patientId: patient.patient.id, eye: 'right', protocol: { key: 'cxl-standard', version: 1 }, inputs: { stromalThicknessUm: 470 }, checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({ id, answer: 'no' })) });
+    await call(base, clinician, 'POST', `/orders/${draft.order.id}/signature`, { password: demoPassword, meaning: 'ordered' });
+    const now = new Date().toISOString();
+    await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, { idempotencyKey: randomUUID(), clientTime: now, type: 'session-started', checks: { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true } });
+    await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, { idempotencyKey: randomUUID(), clientTime: now, type: 'step-started', stepId: 'riboflavin-soak' });
+    orderIds.push(draft.order.id);
+  }
+  let next = 0;
+  const eventWrites = await load('POST session-events', {
+    url: base,
+    requests: [
+      {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', cookie: nurse },
+        setupRequest: (request) => ({
+          ...request,
+          path: `/api/orders/${orderIds[next++ % orderIds.length]}/session-events`,
+          body: JSON.stringify({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'drop-given', stepId: 'riboflavin-soak' }),
+        }),
+      },
+    ],
+  });
+
+  const js = await measureJs(base);
+  const clock = await measureClockError(base);
+  results = { engine, calculation, eventWrites, firstLoadJs: js, clock };
+} finally {
+  await api.kill();
+  await database.stop();
+}
+
+const verdict = {
+  calculationP95: `${(results.calculation as { latencyMs: { p95: number } }).latencyMs.p95} ms (target ≤ ${targets.calculationP95Ms})`,
+  eventWriteP95: `${(results.eventWrites as { latencyMs: { p95: number } }).latencyMs.p95} ms (target ≤ ${targets.eventWriteP95Ms})`,
+  firstLoadJs: `sign-in ${(results.firstLoadJs as { signIn: { gzipKb: number } }).signIn.gzipKb} kB, Today ${(results.firstLoadJs as { today: { gzipKb: number } }).today.gzipKb} kB (target ≤ ${targets.firstLoadJsGzipKb})`,
+  clockError: `${(results.clock as { maxErrorMs: number }).maxErrorMs} ms (target ≤ ${targets.clockErrorMs})`,
+};
+const file = path.join(dataDir, 'bench', `bench-${started.toISOString().replace(/[:.]/g, '-')}.json`);
+writeFileSync(file, JSON.stringify({ startedAt: started.toISOString(), node: process.version, cpus: (await import('node:os')).cpus().length, targets, results, verdict }, null, 2));
+console.log(`\n${Object.entries(verdict).map(([k, v]) => `${k.padEnd(16)} ${v}`).join('\n')}\n\nwritten to ${path.relative(process.cwd(), file)}`);

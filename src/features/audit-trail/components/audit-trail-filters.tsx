@@ -1,0 +1,92 @@
+import { useId } from 'react';
+import { auditTrailQuerySchema, type AuditTrailQuery } from '../../../../shared/schemas/reviews';
+import { Button } from '../../../components/ui/button';
+import { TextField } from '../../../components/ui/text-field';
+import { actionLabel, knownActions, recordTypes } from './audit-words';
+import { CheckedTextField } from './checked-text-field';
+import { SelectField } from './select-field';
+
+type AuditTrailFiltersProps = {
+  query: AuditTrailQuery;
+  filtered: boolean;
+  fieldErrors: Record<string, string>;
+  onChange: (changes: Partial<AuditTrailQuery>) => void;
+};
+
+/** Checks typed text by the API's own schema, in words a person can act on. */
+function checker(key: 'action' | 'entityId' | 'actor', message: string) {
+  return (text: string) => (auditTrailQuerySchema.shape[key].safeParse(text).success && (key === 'action' || /^\d+$/.test(text)) ? null : message);
+}
+
+export function AuditTrailFilters({ query, filtered, fieldErrors, onChange }: AuditTrailFiltersProps) {
+  const actionsListId = useId();
+  const rangeError = query.from && query.to && query.from > query.to ? 'The “from” date is after the “to” date, so nothing can match.' : undefined;
+  return (
+    <form aria-label="Filter the audit trail" onSubmit={(e) => e.preventDefault()} className="mb-4 grid gap-4 rounded-2xl border border-paper-200 bg-white p-4 sm:grid-cols-2 lg:grid-cols-4">
+      <TextField label="From" type="date" value={query.from ?? ''} max={query.to} error={rangeError ?? fieldErrors.from} onChange={(e) => onChange({ from: e.target.value || undefined })} />
+      <TextField label="To" type="date" value={query.to ?? ''} min={query.from} error={fieldErrors.to} onChange={(e) => onChange({ to: e.target.value || undefined })} />
+      <div>
+        <CheckedTextField
+          label="Action"
+          hint="Its name, e.g. order.signed; the list suggests the known ones."
+          list={actionsListId}
+          autoComplete="off"
+          spellCheck={false}
+          value={query.action}
+          check={checker('action', 'An action name is lower-case letters, digits, dots and hyphens, e.g. order.signed.')}
+          error={fieldErrors.action}
+          onChange={(action) => onChange({ action })}
+        />
+        <datalist id={actionsListId}>
+          {knownActions.map((action) => (
+            <option key={action} value={action}>
+              {actionLabel(action)}
+            </option>
+          ))}
+        </datalist>
+      </div>
+      <CheckedTextField
+        label="Done by (person id)"
+        hint="The person’s id, as shown in this list."
+        inputMode="numeric"
+        autoComplete="off"
+        value={query.actor === undefined ? undefined : String(query.actor)}
+        check={checker('actor', 'A person id is a whole number from 1.')}
+        error={fieldErrors.actor}
+        onChange={(actor) => onChange({ actor: actor === undefined ? undefined : Number(actor) })}
+      />
+      <SelectField label="Record type" value={query.entityType ?? ''} error={fieldErrors.entityType} onChange={(e) => onChange({ entityType: e.target.value || undefined })}>
+        <option value="">Any record</option>
+        {Object.entries(recordTypes).map(([type, label]) => (
+          <option key={type} value={type}>
+            {label}
+          </option>
+        ))}
+        {query.entityType && !(query.entityType in recordTypes) && <option value={query.entityType}>{query.entityType}</option>}
+      </SelectField>
+      <CheckedTextField
+        label="Record id"
+        hint="With a record type, one record’s whole history."
+        inputMode="numeric"
+        autoComplete="off"
+        value={query.entityId}
+        check={checker('entityId', 'A record id is a whole number.')}
+        error={fieldErrors.entityId}
+        onChange={(entityId) => onChange({ entityId })}
+      />
+      <SelectField label="Order of events" value={query.direction} onChange={(e) => onChange({ direction: e.target.value as AuditTrailQuery['direction'] })}>
+        <option value="desc">Newest first</option>
+        <option value="asc">Oldest first</option>
+      </SelectField>
+      <div className="flex items-end">
+        <Button
+          variant="secondary"
+          disabled={!filtered}
+          onClick={() => onChange({ from: undefined, to: undefined, action: undefined, actor: undefined, entityType: undefined, entityId: undefined })}
+        >
+          Clear filters
+        </Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,125 @@
+import { Link } from 'react-router-dom';
+import type { AuditTrailQuery } from '../../../../shared/schemas/reviews';
+import { Button } from '../../../components/ui/button';
+import { PageBackIcon, PageForwardIcon } from '../../../components/ui/icons';
+import { paths } from '../../../config/paths';
+import type { AuditEvent } from '../api/audit-event-schemas';
+import { actionLabel, recordTypeLabel, summariseDetails } from './audit-words';
+import { SelectField } from './select-field';
+import { formatUnitClock, formatUnitDate } from './unit-times';
+
+/** A link to the record where a screen for it exists. */
+function recordHref(type: string | null, id: string | null): string | null {
+  if (id === null || !/^\d+$/.test(id)) return null;
+  if (type === 'order') return paths.order.getHref(id);
+  if (type === 'deviation') return paths.deviation.getHref(id);
+  if (type === 'patient') return paths.patient.getHref(id);
+  return null;
+}
+
+function RecordCell({ event }: { event: AuditEvent }) {
+  if (event.entityType === null && event.entityId === null) return <span className="text-paper-600">—</span>;
+  const id = event.entityId === null ? null : String(event.entityId);
+  const label = `${recordTypeLabel(event.entityType)}${id ? ` ${id}` : ''}`;
+  const href = recordHref(event.entityType, id);
+  return href ? (
+    <Link to={href} className="whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900">
+      {label}
+    </Link>
+  ) : (
+    <span className="whitespace-nowrap">{label}</span>
+  );
+}
+
+function Details({ details }: { details: unknown }) {
+  const summary = summariseDetails(details);
+  if (!summary) return <span className="text-paper-600">—</span>;
+  return (
+    <details className="max-w-md min-w-48">
+      <summary className="cursor-pointer text-sm wrap-anywhere text-paper-900">{summary}</summary>
+      <pre className="mt-1 overflow-x-auto rounded-md bg-paper-100 p-2 text-xs whitespace-pre-wrap wrap-anywhere text-paper-900">{JSON.stringify(details, null, 2)}</pre>
+    </details>
+  );
+}
+
+type AuditTrailTableProps = {
+  events: AuditEvent[];
+  total: number;
+  query: AuditTrailQuery;
+  onChange: (changes: Partial<AuditTrailQuery>) => void;
+  busy: boolean;
+};
+
+/** One page of the trail; read-only. */
+export function AuditTrailTable({ events, total, query, onChange, busy }: AuditTrailTableProps) {
+  const pageCount = Math.max(1, Math.ceil(total / query.pageSize));
+  const first = total === 0 ? 0 : (query.page - 1) * query.pageSize + 1;
+  const last = Math.min(total, query.page * query.pageSize);
+  return (
+    <div className="space-y-3">
+      <div className="relative overflow-x-auto rounded-2xl border border-paper-200 bg-white" aria-busy={busy || undefined}>
+        <table className="w-full border-collapse text-left">
+          <caption className="sr-only">
+            Audit events {first} to {last} of {total}, {query.direction === 'desc' ? 'newest' : 'oldest'} first.
+          </caption>
+          <thead className="bg-paper-100 text-sm text-paper-700">
+            <tr>
+              {['When', 'Who', 'Action', 'Record', 'Details'].map((h) => (
+                <th key={h} scope="col" className="px-3 py-2 font-semibold first:pl-4 last:pr-4">
+                  {h}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody className={busy ? 'opacity-60' : ''}>
+            {events.map((event) => (
+              <tr key={event.id} className="border-t border-paper-200 align-top">
+                <td className="numerals-steady px-3 py-2.5 pl-4 whitespace-nowrap">
+                  {formatUnitDate(event.occurredAt)}
+                  <span className="block text-sm text-paper-700">{formatUnitClock(event.occurredAt)}</span>
+                </td>
+                <td className="min-w-40 px-3 py-2.5">
+                  {event.actor ?? (event.actorUserId === null ? 'Luxtempo itself' : 'Unknown person')}
+                  <span className="block text-sm text-paper-600">
+                    {[event.actorUserId !== null ? `person id ${event.actorUserId}` : null, event.ipAddress ? `from ${event.ipAddress}` : null].filter(Boolean).join(' · ')}
+                  </span>
+                </td>
+                <td className="px-3 py-2.5">
+                  {actionLabel(event.action)}
+                  <code className="block text-xs text-paper-600">{event.action}</code>
+                </td>
+                <td className="px-3 py-2.5">
+                  <RecordCell event={event} />
+                </td>
+                <td className="px-3 py-2.5 pr-4">
+                  <Details details={event.details} />
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <nav aria-label="Pages of the audit trail" className="flex flex-wrap items-end justify-between gap-4">
+        <p role="status" className="text-paper-800">
+          {total === 0 ? 'No events' : `Events ${first}–${last} of ${total}`} · page {query.page} of {pageCount}
+        </p>
+        <div className="flex flex-wrap items-end gap-3">
+          <SelectField label="Events per page" value={String(query.pageSize)} className="w-40" onChange={(e) => onChange({ pageSize: Number(e.target.value) })}>
+            {[25, 50, 100, 200].map((size) => (
+              <option key={size} value={size}>
+                {size}
+              </option>
+            ))}
+          </SelectField>
+          <Button variant="secondary" icon={<PageBackIcon />} disabled={query.page <= 1} onClick={() => onChange({ page: query.page - 1 })}>
+            Previous page
+          </Button>
+          <Button variant="secondary" disabled={query.page >= pageCount} onClick={() => onChange({ page: query.page + 1 })}>
+            Next page
+            <PageForwardIcon />
+          </Button>
+        </div>
+      </nav>
+    </div>
+  );
+}

@@ -1,0 +1,159 @@
+import { z } from 'zod';
+import { orderDetailSchema } from '../../../../shared/schemas/orders';
+import { eyes } from '../../../../shared/schemas/patients';
+import { reviewClassifications, reviewStatuses } from '../../../../shared/schemas/reviews';
+import { deviationSeverities } from '../../../../shared/session/session-events';
+
+/** The shapes the review API answers with, as the deviations screens read them. */
+
+const figure = z.number().nullable();
+
+/*
+ * A deviation type is kept as text: a type added on the server later still shows (by its key)
+ * instead of making the whole page unreadable.
+ */
+export const deviationRowSchema = z.object({
+  id: z.number().int(),
+  orderId: z.number().int(),
+  type: z.string(),
+  severity: z.enum(deviationSeverities),
+  expected: figure,
+  actual: figure,
+  unit: z.string().nullable(),
+  message: z.string(),
+  detectedAt: z.string(),
+  reviewStatus: z.enum(reviewStatuses),
+  classification: z.enum(reviewClassifications).nullable(),
+  reviewedAt: z.string().nullable(),
+  reviewedBy: z.string().nullable(),
+  eye: z.enum(eyes),
+  protocolKey: z.string(),
+  protocolVersion: z.number().int(),
+  protocolTitle: z.string(),
+  recordNumber: z.string(),
+});
+export type DeviationRow = z.infer<typeof deviationRowSchema>;
+
+export const deviationPageSchema = z.object({
+  deviations: z.array(deviationRowSchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
+export type DeviationPage = z.infer<typeof deviationPageSchema>;
+
+/** An event as stored: only the fields the timeline reads are checked. */
+const sessionEventSchema = z.object({
+  id: z.number().int(),
+  type: z.string(),
+  clientTime: z.string(),
+  stepId: z.string().optional(),
+  thicknessUm: z.number().optional(),
+  reason: z.string().optional(),
+  note: z.string().optional(),
+});
+export type StoredSessionEvent = z.infer<typeof sessionEventSchema>;
+
+const maybeFigure = figure.optional().default(null);
+const maybeTime = z.string().nullable().optional().default(null);
+
+/** What was given, derived by the server from the events (shared/session/dose-record.ts). */
+const givenRecordSchema = z.object({
+  kind: z.enum(['pdt', 'cxl']),
+  outcome: z.string(),
+  sessionStartedAt: maybeTime,
+  endedAt: maybeTime,
+  stopReason: z.string().nullable().optional().default(null),
+  irradianceMwPerCm2: maybeFigure,
+  infusionStartAt: maybeTime,
+  infusionEndAt: maybeTime,
+  infusionDurationS: maybeFigure,
+  volumeGivenMl: maybeFigure,
+  extravasationAt: maybeTime,
+  lightStartAt: maybeTime,
+  lightEndAt: maybeTime,
+  lightStartAfterInfusionStartS: maybeFigure,
+  lightOnS: maybeFigure,
+  soakStartAt: maybeTime,
+  soakEndAt: maybeTime,
+  soakDurationS: maybeFigure,
+  longestDropGapSoakS: maybeFigure,
+  longestDropGapUvS: maybeFigure,
+  thicknessBeforeUvUm: maybeFigure,
+  thicknessOverrideReason: z.string().nullable().optional().default(null),
+  uvStartAt: maybeTime,
+  uvEndAt: maybeTime,
+  uvElapsedS: maybeFigure,
+  uvOnS: maybeFigure,
+  deliveredFluenceJPerCm2: maybeFigure,
+});
+export type GivenRecord = z.infer<typeof givenRecordSchema>;
+
+const sessionDeviationSchema = z.object({
+  id: z.number().int(),
+  type: z.string(),
+  severity: z.enum(deviationSeverities),
+  expected: figure,
+  actual: figure,
+  unit: z.string().nullable(),
+  message: z.string(),
+  detectedAt: z.string(),
+});
+export type SessionDeviation = z.infer<typeof sessionDeviationSchema>;
+
+export const deviationDetailSchema = z.object({
+  deviation: z.object({
+    id: z.number().int(),
+    orderId: z.number().int(),
+    type: z.string(),
+    severity: z.enum(deviationSeverities),
+    expected: figure,
+    actual: figure,
+    unit: z.string().nullable(),
+    message: z.string(),
+    detectedAt: z.string(),
+    reviewStatus: z.enum(reviewStatuses),
+    classification: z.enum(reviewClassifications).nullable(),
+    reviewedAt: z.string().nullable(),
+  }),
+  history: z.array(
+    z.object({
+      action: z.enum(['closed', 'reopened']),
+      classification: z.enum(reviewClassifications).nullable(),
+      comment: z.string(),
+      createdAt: z.string(),
+      reviewer: z.string().nullable(),
+    }),
+  ),
+  participants: z.array(z.object({ userId: z.number().int(), part: z.string(), displayName: z.string() })),
+  session: z.object({
+    status: z.string(),
+    events: z.array(sessionEventSchema),
+    record: givenRecordSchema.nullable(),
+    deviations: z.array(sessionDeviationSchema),
+  }),
+  canReview: z.boolean(),
+});
+export type DeviationDetail = z.infer<typeof deviationDetailSchema>;
+
+export const orderResponseSchema = z.object({ order: orderDetailSchema });
+
+const versionChoiceSchema = z.object({ key: z.string(), version: z.number().int(), title: z.string(), status: z.string() });
+export const protocolChoicesSchema = z.object({
+  protocols: z.array(z.object({ key: z.string(), kind: z.enum(['pdt', 'cxl']), title: z.string(), versions: z.array(versionChoiceSchema) })),
+});
+export type ProtocolChoice = z.infer<typeof protocolChoicesSchema>['protocols'][number];
+
+/** Only what the review reads from a protocol version: its steps (names, durations) and the CXL thickness minimum. */
+export const protocolStepsSchema = z.object({
+  version: z.object({
+    key: z.string(),
+    version: z.number().int(),
+    title: z.string(),
+    definition: z.object({
+      steps: z.array(z.object({ id: z.string(), kind: z.string(), title: z.string(), durationS: z.number().nullable(), cueEveryS: z.number().optional() })),
+      cxl: z.object({ minStromalThicknessUm: z.number() }).nullable().optional(),
+    }),
+  }),
+});
+export type ProtocolSteps = z.infer<typeof protocolStepsSchema>['version'];

@@ -1,0 +1,33 @@
+import { useId, type Ref, type TextareaHTMLAttributes } from 'react';
+import { FieldError } from '../../../components/ui/text-field';
+
+type TextAreaFieldProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, 'id'> & { label: string; hint?: string; error?: string; ref?: Ref<HTMLTextAreaElement> };
+
+/** A multi-line field with its label, hint and error tied to it. */
+export function TextAreaField({ label, hint, error, className = '', rows = 4, ref, ...rest }: TextAreaFieldProps) {
+  const id = useId();
+  const hintId = hint ? `${id}-hint` : undefined;
+  const errorId = error ? `${id}-error` : undefined;
+  return (
+    <div className={`flex flex-col gap-1.5 ${className}`}>
+      <label htmlFor={id} className="font-medium text-paper-900">
+        {label}
+      </label>
+      {hint && (
+        <p id={hintId} className="text-sm text-paper-600">
+          {hint}
+        </p>
+      )}
+      <textarea
+        id={id}
+        ref={ref}
+        rows={rows}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={[hintId, errorId].filter(Boolean).join(' ') || undefined}
+        className={`w-full rounded-lg border bg-white px-3 py-2 text-base text-paper-950 ${error ? 'border-2 border-alarm-700' : 'border-paper-500'}`}
+        {...rest}
+      />
+      <FieldError id={errorId} message={error} />
+    </div>
+  );
+}

@@ -1,0 +1,20 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { isApiRequestError } from '../../../lib/api-client';
+import { closeDeviation } from '../api/close-deviation';
+import { deviationQueries } from '../api/deviation-queries';
+
+export function useCloseDeviation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: closeDeviation,
+    onSuccess: (detail) => {
+      queryClient.setQueryData(deviationQueries.detail(detail.deviation.id).queryKey, detail);
+      // The queue, the session's other deviations and the order's status all moved.
+      return queryClient.invalidateQueries({ queryKey: deviationQueries.all() });
+    },
+    // Someone else changed it meanwhile (409): show it as it now stands.
+    onError: (error, { id }) => {
+      if (isApiRequestError(error) && error.status === 409) return queryClient.invalidateQueries({ queryKey: deviationQueries.detail(id).queryKey });
+    },
+  });
+}

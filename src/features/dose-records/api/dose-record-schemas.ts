@@ -1,0 +1,104 @@
+import { z } from 'zod';
+import { orderDetailSchema } from '../../../../shared/schemas/orders';
+import { eyes } from '../../../../shared/schemas/patients';
+import { deviationSeverities } from '../../../../shared/session/session-events';
+
+/** The shapes the dose-record, order, session and protocol APIs answer with, as these screens read them. */
+
+const figure = z.number().nullable();
+
+export const doseRecordRowSchema = z.object({
+  orderId: z.number().int(),
+  outcome: z.enum(['completed', 'stopped']),
+  startedAt: z.string().nullable(),
+  endedAt: z.string().nullable(),
+  onTimeS: figure,
+  deliveredFluenceJPerCm2: figure,
+  plannedFluenceJPerCm2: figure,
+  volumeGivenMl: figure,
+  doseMg: figure,
+  deviationCount: z.number().int(),
+  eye: z.enum(eyes),
+  protocolKey: z.string(),
+  protocolVersion: z.number().int(),
+  kind: z.enum(['pdt', 'cxl']),
+  recordNumber: z.string(),
+});
+export type DoseRecordRow = z.infer<typeof doseRecordRowSchema>;
+
+export const doseRecordPageSchema = z.object({ records: z.array(doseRecordRowSchema), total: z.number().int() });
+export type DoseRecordPage = z.infer<typeof doseRecordPageSchema>;
+
+export const orderResponseSchema = z.object({ order: orderDetailSchema });
+
+const maybeFigure = figure.optional().default(null);
+const maybeText = z.string().nullable().optional().default(null);
+
+/** What was given, derived by the server from the events (shared/session/dose-record.ts). */
+const givenRecordSchema = z.object({
+  kind: z.enum(['pdt', 'cxl']),
+  outcome: z.string(),
+  sessionStartedAt: maybeText,
+  endedAt: maybeText,
+  stopReason: maybeText,
+  irradianceMwPerCm2: maybeFigure,
+  infusionStartAt: maybeText,
+  infusionEndAt: maybeText,
+  infusionDurationS: maybeFigure,
+  volumeGivenMl: maybeFigure,
+  extravasationAt: maybeText,
+  lightStartAt: maybeText,
+  lightEndAt: maybeText,
+  lightStartAfterInfusionStartS: maybeFigure,
+  lightOnS: maybeFigure,
+  soakStartAt: maybeText,
+  soakEndAt: maybeText,
+  soakDurationS: maybeFigure,
+  longestDropGapSoakS: maybeFigure,
+  longestDropGapUvS: maybeFigure,
+  thicknessBeforeUvUm: maybeFigure,
+  thicknessOverrideReason: maybeText,
+  uvStartAt: maybeText,
+  uvEndAt: maybeText,
+  uvElapsedS: maybeFigure,
+  uvOnS: maybeFigure,
+  deliveredFluenceJPerCm2: maybeFigure,
+});
+export type GivenRecord = z.infer<typeof givenRecordSchema>;
+
+export const sessionStateSchema = z.object({
+  status: z.string(),
+  record: givenRecordSchema.nullable(),
+  deviations: z.array(
+    z.object({
+      id: z.number().int(),
+      type: z.string(),
+      severity: z.enum(deviationSeverities),
+      expected: figure,
+      actual: figure,
+      unit: z.string().nullable(),
+      message: z.string(),
+    }),
+  ),
+});
+export type SessionState = z.infer<typeof sessionStateSchema>;
+
+const versionChoiceSchema = z.object({ key: z.string(), version: z.number().int(), title: z.string(), status: z.string() });
+export const protocolChoicesSchema = z.object({
+  protocols: z.array(z.object({ key: z.string(), kind: z.enum(['pdt', 'cxl']), title: z.string(), versions: z.array(versionChoiceSchema) })),
+});
+export type ProtocolChoice = z.infer<typeof protocolChoicesSchema>['protocols'][number];
+
+/** What the printed record reads from a protocol version: step durations and the CXL thickness minimum. */
+export const protocolStepsSchema = z.object({
+  version: z.object({
+    key: z.string(),
+    version: z.number().int(),
+    title: z.string(),
+    definition: z.object({
+      steps: z.array(z.object({ id: z.string(), kind: z.string(), title: z.string(), durationS: z.number().nullable(), cueEveryS: z.number().optional() })),
+      cxl: z.object({ minStromalThicknessUm: z.number() }).nullable().optional(),
+    }),
+  }),
+});
+export type ProtocolSteps = z.infer<typeof protocolStepsSchema>['version'];

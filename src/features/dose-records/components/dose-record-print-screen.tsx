@@ -1,0 +1,212 @@
+import { useQuery } from '@tanstack/react-query';
+import { DateTime } from 'luxon';
+import type { ReactNode } from 'react';
+import { Button, LinkButton } from '../../../components/ui/button';
+import { AlertIcon, ArrowLeftIcon, PrinterIcon, ReloadIcon } from '../../../components/ui/icons';
+import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
+import { paths } from '../../../config/paths';
+import { unitTimeZone, unitTimeZoneLabel } from '../../../config/unit-time-zone';
+import { describeError, isApiRequestError } from '../../../lib/api-client';
+import type { GivenRecord } from '../api/dose-record-schemas';
+import { doseRecordQueries } from '../api/dose-record-queries';
+import { eyeWords, severityWords, typeWords } from './dose-record-words';
+import { PlanAndGiven } from './plan-and-given';
+import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from './unit-times';
+
+function Part({ id, title, children }: { id: string; title: string; children: ReactNode }) {
+  return (
+    <section aria-labelledby={id} className="break-inside-avoid border-t border-paper-300 pt-4">
+      <h2 id={id} className="mb-3 text-lg font-semibold text-paper-950">
+        {title}
+      </h2>
+      {children}
+    </section>
+  );
+}
+
+/** The moments of the session that a chart needs, in time order. */
+function moments(record: GivenRecord): { label: string; at: string }[] {
+  const all: [string, string | null][] = [
+    ['Session started', record.sessionStartedAt],
+    ['Infusion started', record.infusionStartAt],
+    ['Infusion ended', record.infusionEndAt],
+    ['Extravasation', record.extravasationAt],
+    ['Light started', record.lightStartAt],
+    ['Light ended', record.lightEndAt],
+    ['Soak started', record.soakStartAt],
+    ['Soak ended', record.soakEndAt],
+    ['UV started', record.uvStartAt],
+    ['UV ended', record.uvEndAt],
+    [record.outcome === 'stopped' ? 'Session stopped' : 'Session ended', record.endedAt],
+  ];
+  return all.filter((m): m is [string, string] => m[1] !== null).map(([label, at]) => ({ label, at }));
+}
+
+/** One order's dose record laid out for A4: plan against what was given, the times, the deviations. */
+export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
+  const order = useQuery(doseRecordQueries.order(orderId));
+  const session = useQuery(doseRecordQueries.session(orderId));
+  const protocol = order.data?.protocol;
+  const steps = useQuery({ ...doseRecordQueries.protocolSteps(protocol?.key ?? '', protocol?.version ?? 0), enabled: protocol !== undefined });
+
+  const back = (
+    <LinkButton to={paths.doseRecords.getHref()} icon={<ArrowLeftIcon />}>
+      All dose records
+    </LinkButton>
+  );
+
+  if (order.isPending || session.isPending) return <LoadingPanel label="Loading the dose record…" />;
+  if (order.isError || session.isError) {
+    const error = order.error ?? session.error;
+    const missing = isApiRequestError(error) && error.status === 404;
+    return (
+      <StatusPanel
+        role="alert"
+        headingLevel="h1"
+        icon={<AlertIcon className="size-6" />}
+        title={missing ? 'There is no such order' : 'The dose record could not be loaded'}
+        actions={
+          <>
+            {back}
+            {!missing && (
+              <Button
+                icon={<ReloadIcon />}
+                busy={order.isFetching || session.isFetching}
+                onClick={() => {
+                  void order.refetch();
+                  void session.refetch();
+                }}
+              >
+                Try again
+              </Button>
+            )}
+          </>
+        }
+      >
+        <p>{describeError(error)}</p>
+      </StatusPanel>
+    );
+  }
+
+  const o = order.data;
+  const { record, deviations } = session.data;
+  const startMs = record?.sessionStartedAt ? Date.parse(record.sessionStartedAt) : null;
+  const printedAt = DateTime.now().setZone(unitTimeZone).setLocale('en-GB').toFormat('d LLL yyyy, HH:mm');
+  const lastCheck = o.doseChecks.at(-1);
+
+  return (
+    <div className="mx-auto max-w-4xl print:max-w-none">
+      {/* A4 with a margin a hole punch and a chart clip leave readable. */}
+      <style>{'@page { size: A4; margin: 14mm 14mm 16mm 20mm; }'}</style>
+      <div className="mb-5 flex flex-wrap gap-3 print:hidden">
+        {back}
+        <Button icon={<PrinterIcon />} onClick={() => window.print()}>
+          Print
+        </Button>
+      </div>
+
+      <article aria-labelledby="dose-record-title" className="flex flex-col gap-5 rounded-2xl border border-paper-200 bg-white p-6 print:gap-4 print:rounded-none print:border-0 print:p-0 print:text-[11pt]">
+        <header>
+          <p className="text-sm font-medium tracking-wide text-paper-700 uppercase">Luxtempo · dose record</p>
+          <h1 id="dose-record-title" tabIndex={-1} data-page-heading className="text-2xl font-semibold text-paper-950">
+            {o.patient.familyName}, {o.patient.givenName} · {o.patient.recordNumber}
+          </h1>
+          <p className="text-paper-800">
+            Order {o.id}
+            {o.revision > 1 ? ` (revision ${o.revision})` : ''} · {eyeWords[o.eye]} · {o.protocol.title}, version {o.protocol.version}
+          </p>
+          {record?.sessionStartedAt && <p className="text-paper-800">Session on {formatUnitDate(record.sessionStartedAt)}</p>}
+        </header>
+
+        <Part id="record-people" title="Order and preparation">
+          <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1">
+            <dt className="text-paper-700">Signed</dt>
+            <dd>
+              {o.signedBy?.displayName ?? '—'}
+              {o.signedAt ? `, ${formatUnitDateTime(o.signedAt)}` : ''}
+            </dd>
+            {lastCheck && (
+              <>
+                <dt className="text-paper-700">Dose check</dt>
+                <dd>
+                  {lastCheck.outcome === 'match' ? 'Figures agreed' : 'Figures differed'}, {lastCheck.pharmacist?.displayName ?? '—'}, {formatUnitDateTime(lastCheck.createdAt)}
+                </dd>
+              </>
+            )}
+            {o.preparation && (
+              <>
+                <dt className="text-paper-700">Preparation</dt>
+                <dd>
+                  Lot {o.preparation.vialLot} (expires {o.preparation.vialExpiry}), {formatFigure(o.preparation.volumeDrawnMl, 'mL')} drawn, reconstituted{' '}
+                  {formatUnitDateTime(o.preparation.reconstitutedAt)} by {o.preparation.pharmacist?.displayName ?? '—'}; use before {formatUnitDateTime(o.preparation.beyondUseAt)}
+                </dd>
+              </>
+            )}
+          </dl>
+        </Part>
+
+        <Part id="record-figures" title="Plan and what was given">
+          <PlanAndGiven plan={o.plan} record={record} steps={steps.data} headingId="record-figures" />
+        </Part>
+
+        <Part id="record-times" title="Times">
+          {record === null ? (
+            <p>No session was recorded for this order.</p>
+          ) : (
+            <table className="w-full max-w-xl border-collapse text-left" aria-labelledby="record-times">
+              <thead className="text-sm text-paper-700">
+                <tr>
+                  <th scope="col" className="py-1 pr-4 font-semibold">
+                    Moment
+                  </th>
+                  <th scope="col" className="py-1 pr-4 font-semibold">
+                    Clock ({unitTimeZoneLabel})
+                  </th>
+                  <th scope="col" className="py-1 font-semibold">
+                    From session start
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {moments(record).map((m) => (
+                  <tr key={m.label} className="border-t border-paper-200">
+                    <th scope="row" className="py-1 pr-4 font-medium">
+                      {m.label}
+                    </th>
+                    <td className="numerals-steady py-1 pr-4">{formatUnitClock(m.at)}</td>
+                    <td className="numerals-steady py-1">{startMs === null ? '—' : formatOffset((Date.parse(m.at) - startMs) / 1000)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+          {record?.stopReason && <p className="mt-2">Stopped because: {record.stopReason}</p>}
+        </Part>
+
+        <Part id="record-deviations" title="Deviations from protocol">
+          {deviations.length === 0 ? (
+            <p>None found.</p>
+          ) : (
+            <ul className="flex flex-col gap-2">
+              {deviations.map((d) => (
+                <li key={d.id}>
+                  <span className="font-semibold">
+                    {severityWords[d.severity]}: {typeWords(d.type)}
+                  </span>{' '}
+                  <span className="numerals-steady">
+                    (expected {formatFigure(d.expected, d.unit)}, actual {formatFigure(d.actual, d.unit)})
+                  </span>
+                  <span className="block text-paper-800">{d.message}</span>
+                </li>
+              ))}
+            </ul>
+          )}
+        </Part>
+
+        <footer className="border-t border-paper-300 pt-3 text-sm text-paper-700">
+          Times are {unitTimeZoneLabel} ({unitTimeZone}). Printed {printedAt} from Luxtempo; the record in Luxtempo is the reference if this copy differs.
+        </footer>
+      </article>
+    </div>
+  );
+}

@@ -1,0 +1,178 @@
+import type { UseQueryResult } from '@tanstack/react-query';
+import type { ReactNode } from 'react';
+import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
+import type { OrderDetail } from '../../../../shared/schemas/orders';
+import { Button } from '../../../components/ui/button';
+import { PrinterIcon } from '../../../components/ui/icons';
+import { unitTimeZone, unitTimeZoneLabel } from '../../../config/unit-time-zone';
+import type { GivenRecord, OrderSession } from '../api/order-response-schemas';
+import { DeviationSeverityLabel } from './deviation-severity-label';
+import { formatFigure, formatSeconds } from './plan-numbers';
+import { deviationSeverityOrder, sessionOutcomeWords } from './session-words';
+import { formatUnitClock, formatUnitDateTime } from './unit-dates';
+
+type Row = { label: string; planned: ReactNode; given: ReactNode };
+
+const none = <span className="text-paper-700">—</span>;
+const num = (value: number | null | undefined, unit: string) => (value == null ? none : `${formatFigure(value)} ${unit}`);
+const secs = (value: number | null | undefined) => (value == null ? none : formatSeconds(value));
+const span = (from: string | null, to: string | null) => (from ? `${formatUnitClock(from)} to ${to ? formatUnitClock(to) : '(running)'}` : none);
+const everyMin = (min: number | undefined) => (min === undefined ? none : `a drop every ${formatFigure(min)} min`);
+const gap = (gapS: number | null) => (gapS == null ? none : `longest gap ${formatSeconds(gapS)}`);
+
+function pdtRows(plan: NonNullable<OrderDetail['plan']>, record: GivenRecord): Row[] {
+  const rows: Row[] = [
+    { label: 'Infusion', planned: none, given: span(record.infusionStartAt, record.infusionEndAt) },
+    { label: 'Infusion duration', planned: secs(plan.infusionEndAfterStartS), given: secs(record.infusionDurationS) },
+    {
+      label: 'Volume infused',
+      planned: plan.drugVolumeMl == null ? none : `${formatFigure(plan.drugVolumeMl)} mL drug + ${formatFigure(plan.diluentVolumeMl ?? 0)} mL diluent`,
+      given: record.volumeGivenMl == null ? none : `${formatFigure(record.volumeGivenMl)} mL (from the rate × time, not measured)`,
+    },
+    { label: 'Verteporfin dose', planned: num(plan.doseMg, 'mg'), given: none },
+  ];
+  if (record.extravasationAt) rows.push({ label: 'Extravasation', planned: none, given: `at ${formatUnitClock(record.extravasationAt)}` });
+  rows.push(
+    { label: 'Light start after infusion start', planned: secs(plan.lightStartAfterInfusionStartS), given: record.lightStartAt ? <>{secs(record.lightStartAfterInfusionStartS)}, at {formatUnitClock(record.lightStartAt)}</> : none },
+    { label: 'Light on-time', planned: secs(plan.exposureS), given: secs(record.lightOnS) },
+    { label: 'Fluence', planned: num(plan.fluenceJPerCm2, 'J/cm²'), given: num(record.deliveredFluenceJPerCm2, 'J/cm²') },
+  );
+  return rows;
+}
+
+function cxlRows(plan: NonNullable<OrderDetail['plan']>, record: GivenRecord, cxl: ProtocolVersion['cxl'] | undefined): Row[] {
+  const rows: Row[] = [
+    { label: 'Riboflavin soak', planned: cxl ? `${formatFigure(cxl.soakMin)} min` : none, given: record.soakStartAt ? <>{secs(record.soakDurationS)} ({span(record.soakStartAt, record.soakEndAt)})</> : none },
+    { label: 'Drops during the soak', planned: everyMin(cxl?.dropIntervalSoakMin), given: gap(record.longestDropGapSoakS) },
+    { label: 'Stromal thickness before UV', planned: cxl ? `at least ${formatFigure(cxl.minStromalThicknessUm)} µm` : none, given: num(record.thicknessBeforeUvUm, 'µm') },
+  ];
+  if (record.thicknessOverrideReason) rows.push({ label: 'Thickness minimum overridden', planned: none, given: `Reason: ${record.thicknessOverrideReason}` });
+  rows.push(
+    { label: 'UV', planned: none, given: span(record.uvStartAt, record.uvEndAt) },
+    { label: 'UV on-time', planned: secs(plan.uvTimeS), given: secs(record.uvOnS) },
+    { label: 'UV elapsed time', planned: secs(plan.uvElapsedS), given: secs(record.uvElapsedS) },
+    { label: 'Drops during UV', planned: everyMin(cxl?.dropIntervalUvMin), given: gap(record.longestDropGapUvS) },
+    { label: 'Fluence', planned: num(plan.fluenceJPerCm2, 'J/cm²'), given: num(record.deliveredFluenceJPerCm2, 'J/cm²') },
+  );
+  return rows;
+}
+
+type DoseRecordSectionProps = {
+  order: OrderDetail;
+  definition: ProtocolVersion | null;
+  session: OrderSession;
+  onPrint: () => void;
+};
+
+/** The chart's record of one session: the frozen plan against what the step clock recorded, and the deviations. */
+export function DoseRecordSection({ order, definition, session, onPrint }: DoseRecordSectionProps) {
+  const { record, deviations } = session;
+  if (!record || record.outcome === 'not-started') return null;
+  const plan = order.plan;
+  const rows = plan ? (order.kind === 'pdt' ? pdtRows(plan, record) : cxlRows(plan, record, definition?.cxl)) : [];
+  const sorted = [...deviations].sort((a, b) => deviationSeverityOrder.indexOf(a.severity) - deviationSeverityOrder.indexOf(b.severity));
+
+  return (
+    <section id="dose-record" aria-labelledby="dose-record-heading" className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5 print:border-0 print:p-0">
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <h2 id="dose-record-heading" className="text-xl font-semibold text-paper-950">
+          Dose record
+        </h2>
+        <Button variant="secondary" icon={<PrinterIcon />} onClick={onPrint}>
+          Print dose record
+        </Button>
+      </div>
+      <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-3 print:grid-cols-3">
+        <div>
+          <dt className="text-sm text-paper-600">Session</dt>
+          <dd className="font-semibold text-paper-950">{sessionOutcomeWords[record.outcome]}</dd>
+        </div>
+        <div>
+          <dt className="text-sm text-paper-600">Started</dt>
+          <dd className="text-paper-950">{record.sessionStartedAt ? formatUnitDateTime(record.sessionStartedAt) : '—'}</dd>
+        </div>
+        <div>
+          <dt className="text-sm text-paper-600">{record.outcome === 'stopped' ? 'Stopped' : 'Ended'}</dt>
+          <dd className="text-paper-950">{record.endedAt ? formatUnitDateTime(record.endedAt) : 'Still running'}</dd>
+        </div>
+      </dl>
+      {record.stopReason && (
+        <p className="text-paper-900">
+          <span className="font-medium">Reason for stopping: </span>
+          {record.stopReason}
+        </p>
+      )}
+
+      {!plan ? (
+        <p className="text-paper-800">The plan is hidden from you for now, so it cannot be set beside what was given.</p>
+      ) : (
+        <div className="overflow-x-auto">
+          <table className="w-full border-collapse text-left">
+            <caption className="mb-2 text-left text-sm text-paper-700">
+              The plan as frozen at signing, and what was given as the step clock recorded it. Times are {unitTimeZoneLabel} ({unitTimeZone}).
+            </caption>
+            <thead>
+              <tr className="border-b-2 border-paper-400 text-sm text-paper-700">
+                <th scope="col" className="py-1.5 pr-4 font-medium">
+                  <span className="sr-only">Figure</span>
+                </th>
+                <th scope="col" className="py-1.5 pr-4 font-medium">
+                  Planned
+                </th>
+                <th scope="col" className="py-1.5 font-medium">
+                  Given
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {rows.map((row) => (
+                <tr key={row.label} className="border-b border-paper-200 align-top">
+                  <th scope="row" className="py-1.5 pr-4 font-medium text-paper-900">
+                    {row.label}
+                  </th>
+                  <td className="numerals-steady py-1.5 pr-4 text-paper-950">{row.planned}</td>
+                  <td className="numerals-steady py-1.5 font-semibold text-paper-950">{row.given}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {order.kind === 'pdt' && (
+            <p className="mt-2 text-sm text-paper-700">
+              Laser settings from the plan: spot {num(plan.deviceSpotDiameterUm, 'µm')} on the laser, power {num(plan.powerMw, 'mW')}, irradiance{' '}
+              {num(plan.irradianceMwPerCm2, 'mW/cm²')}. The delivered fluence is worked out from the planned irradiance and the recorded light
+              time; the dose given is not measured separately.
+            </p>
+          )}
+          {order.kind === 'cxl' && (
+            <p className="mt-2 text-sm text-paper-700">
+              UV irradiance from the plan: {num(plan.irradianceMwPerCm2, 'mW/cm²')}. The delivered fluence is worked out from it and the recorded UV
+              on-time.
+            </p>
+          )}
+        </div>
+      )}
+
+      <div className="space-y-2">
+        <h3 className="text-lg font-semibold text-paper-950">Deviations from protocol</h3>
+        {sorted.length === 0 ? (
+          <p className="text-paper-900">{record.outcome === 'in-progress' ? 'None so far.' : 'None.'}</p>
+        ) : (
+          <ul className="space-y-2">
+            {sorted.map((d) => (
+              <li key={d.id} className="flex flex-wrap items-start gap-2 border-b border-paper-200 pb-2">
+                <DeviationSeverityLabel severity={d.severity} />
+                <span className="min-w-0 flex-1 text-paper-950">
+                  {d.message}
+                  <span className="block text-sm text-paper-700">
+                    Expected {d.expected == null ? '—' : `${formatFigure(d.expected)}${d.unit ? ` ${d.unit}` : ''}`}, recorded{' '}
+                    {d.actual == null ? '—' : `${formatFigure(d.actual)}${d.unit ? ` ${d.unit}` : ''}`}
+                  </span>
+                </span>
+              </li>
+            ))}
+          </ul>
+        )}
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,72 @@
+import { z } from 'zod';
+import { orderStatuses } from '../../../../shared/schemas/orders';
+import { deviationSeverities, sessionEventSchema, type SessionEvent } from '../../../../shared/session/session-events';
+
+/**
+ * A stored event: the event contract plus what the server added. The contract's objects are
+ * strict, so the server's own fields are taken off before the event is checked against it.
+ */
+const storedEventSchema = z
+  .looseObject({ id: z.number(), serverTime: z.string(), recordedBy: z.number() })
+  .transform((raw, ctx): SessionEvent => {
+    const { id, serverTime, recordedBy, ...input } = raw;
+    const parsed = sessionEventSchema.safeParse(input);
+    if (!parsed.success) {
+      ctx.addIssue({ code: 'custom', message: `stored event ${id} does not match the event contract` });
+      return z.NEVER;
+    }
+    return { ...parsed.data, id, serverTime, recordedBy };
+  });
+
+export const sessionDeviationSchema = z.object({
+  id: z.number(),
+  type: z.string(),
+  severity: z.enum(deviationSeverities),
+  expected: z.number().nullable(),
+  actual: z.number().nullable(),
+  unit: z.string().nullable(),
+  message: z.string(),
+  detectedAt: z.string(),
+});
+export type SessionDeviation = z.infer<typeof sessionDeviationSchema>;
+
+const seconds = z.number().nullable();
+
+/** The parts of the derived dose record this screen shows once the session is over. */
+const sessionRecordSchema = z.object({
+  outcome: z.string(),
+  stopReason: z.string().nullable(),
+  infusionDurationS: seconds,
+  volumeGivenMl: z.number().nullable(),
+  lightStartAfterInfusionStartS: seconds,
+  lightOnS: seconds,
+  soakDurationS: seconds,
+  thicknessBeforeUvUm: z.number().nullable(),
+  uvElapsedS: seconds,
+  uvOnS: seconds,
+  irradianceMwPerCm2: z.number().nullable(),
+  deliveredFluenceJPerCm2: z.number().nullable(),
+});
+export type SessionRecordSummary = z.infer<typeof sessionRecordSchema>;
+
+/** What GET /orders/:id/session and every recorded event answer with. */
+export const sessionStateSchema = z.object({
+  orderId: z.number(),
+  status: z.enum(orderStatuses),
+  events: z.array(storedEventSchema),
+  record: sessionRecordSchema.nullable(),
+  deviations: z.array(sessionDeviationSchema),
+  serverTime: z.string(),
+});
+export type SessionState = z.infer<typeof sessionStateSchema>;
+
+export const recordedEventResponseSchema = sessionStateSchema.extend({ replayed: z.boolean() });
+
+/**
+ * Events are only ever added, so of two answers the one with fewer events is the older: an
+ * answer that was on its way while a newer one arrived must not take events off the screen.
+ */
+export function newerSessionState(current: SessionState | undefined, incoming: SessionState): SessionState {
+  if (current && current.orderId === incoming.orderId && incoming.events.length < current.events.length) return current;
+  return incoming;
+}

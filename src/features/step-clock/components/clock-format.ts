@@ -1,0 +1,85 @@
+import type { StepKind } from '../../../../shared/protocol/protocol-schema';
+import { unitTimeZone } from '../../../config/unit-time-zone';
+
+function clockText(wholeS: number): string {
+  const hours = Math.floor(wholeS / 3600);
+  const minutes = Math.floor((wholeS % 3600) / 60);
+  const seconds = wholeS % 60;
+  const ss = String(seconds).padStart(2, '0');
+  return hours > 0 ? `${hours}:${String(minutes).padStart(2, '0')}:${ss}` : `${String(minutes).padStart(2, '0')}:${ss}`;
+}
+
+/**
+ * Time left as mm:ss (h:mm:ss past an hour). Rounded up, so "00:00" shows only when the time is
+ * really up and the display is never ahead of the truth by a whole second.
+ */
+export function formatRemaining(seconds: number): string {
+  return clockText(Math.max(0, Math.ceil(seconds - 1e-6)));
+}
+
+/** Time gone by, rounded down: "00:01" after one whole second. */
+export function formatElapsed(seconds: number): string {
+  return clockText(Math.max(0, Math.floor(seconds + 1e-6)));
+}
+
+/** The same time in words for a screen reader: "1 minute 23 seconds". */
+export function spokenDuration(seconds: number, round: 'up' | 'down' = 'up'): string {
+  const whole = Math.max(0, round === 'up' ? Math.ceil(seconds - 1e-6) : Math.floor(seconds + 1e-6));
+  const hours = Math.floor(whole / 3600);
+  const minutes = Math.floor((whole % 3600) / 60);
+  const secs = whole % 60;
+  const parts = [
+    hours > 0 ? `${hours} hour${hours === 1 ? '' : 's'}` : null,
+    minutes > 0 ? `${minutes} minute${minutes === 1 ? '' : 's'}` : null,
+    secs > 0 || whole === 0 ? `${secs} second${secs === 1 ? '' : 's'}` : null,
+  ];
+  return parts.filter(Boolean).join(' ');
+}
+
+/** A figure with at most `digits` decimals, as people write it ("600", "49.8", "0.25"). */
+export function formatFigure(value: number, digits = 2): string {
+  return new Intl.NumberFormat('en-GB', { maximumFractionDigits: digits }).format(value);
+}
+
+const wardClock = new Intl.DateTimeFormat('en-GB', { timeZone: unitTimeZone, hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23' });
+const wardClockShort = new Intl.DateTimeFormat('en-GB', { timeZone: unitTimeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
+
+/** A moment on the ward clock (the unit's time zone, whatever the tablet's setting). */
+export function formatWardTime(ms: number, withSeconds = true): string {
+  return (withSeconds ? wardClock : wardClockShort).format(new Date(ms));
+}
+
+/** The short name of a step in buttons and spoken lines: "Start laser", "End UV". */
+export const stepNames: Record<StepKind, string> = {
+  check: 'checks',
+  preparation: 'preparation',
+  infusion: 'infusion',
+  wait: 'wait',
+  light: 'laser',
+  soak: 'soak',
+  thickness: 'thickness check',
+  swelling: 'swelling',
+  uv: 'UV',
+  aftercare: 'after-care',
+};
+
+export function capitalised(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+/**
+ * Steps whose end time is part of the dose (infusion, soak, light, UV) end with their own tap;
+ * the others (a wait, a measurement, the checks) end when the next step starts.
+ */
+export const stepsEndedByTheirOwnTap: ReadonlySet<StepKind> = new Set(['infusion', 'soak', 'light', 'uv']);
+
+/** Milliseconds until a count-down shown rounded up changes its whole second. */
+export function msUntilCountdownTicks(seconds: number): number {
+  const shown = Math.ceil(seconds - 1e-6);
+  return Math.max(0, (seconds - (shown - 1)) * 1000);
+}
+
+/** Milliseconds until a count-up shown rounded down changes its whole second. */
+export function msUntilCountupTicks(seconds: number): number {
+  return Math.max(0, (Math.floor(seconds + 1e-6) + 1 - seconds) * 1000);
+}

@@ -1,0 +1,191 @@
+import { useEffect, useId, useMemo, useRef, useState } from 'react';
+import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
+import type { DosePlan } from '../../../../shared/schemas/calculation';
+import type { SessionClock } from '../../../../shared/session/session-clock';
+import { Button } from '../../../components/ui/button';
+import { LeakIcon, ScreenAwakeIcon, SoundOffIcon, SoundOnIcon, StatusStoppedIcon } from '../../../components/ui/icons';
+import type { SessionOrder } from '../api/get-session-order';
+import type { SessionDeviation } from '../api/session-state-schema';
+import type { Urgency } from '../hooks/use-announcer';
+import { useCues } from '../hooks/use-cues';
+import type { EventBody } from '../hooks/use-session-events';
+import { useMutedPreference } from '../hooks/use-stored-draft';
+import { useWakeLock, type WakeLockStatus } from '../hooks/use-wake-lock';
+import { capitalised, stepNames } from './clock-format';
+import { ClockFace } from './clock-face';
+import { DeviationList } from './deviation-list';
+import { ExtravasationDialog, ExtravasationNotice } from './extravasation';
+import { eyeWords } from './eye-badge';
+import { ReasonDialog } from './reason-dialog';
+import { SessionCautions } from './session-cautions';
+import type { SessionFacts } from './session-facts';
+import { StepActions } from './step-actions';
+import { StepList } from './step-list';
+
+const wakeLockWords: Record<Exclude<WakeLockStatus, 'off'>, string> = {
+  on: 'Screen kept on during the session',
+  unsupported: 'This browser cannot keep the screen on: set the tablet not to sleep',
+  refused: 'The screen may dim: the browser declined to keep it on',
+};
+
+/** The running session: clock, the buttons of the moment, steps, deviations and cautions. */
+export function ClockView({
+  order,
+  protocol,
+  plan,
+  clock,
+  facts,
+  serverNowMs,
+  deviceNowMs,
+  deviations,
+  onRecord,
+  announce,
+}: {
+  order: SessionOrder;
+  protocol: ProtocolVersion;
+  plan: DosePlan;
+  clock: SessionClock;
+  facts: SessionFacts;
+  serverNowMs: number;
+  /** This device's own clock at the same instant (serverNowMs less the measured offset). */
+  deviceNowMs?: number;
+  deviations: readonly SessionDeviation[];
+  onRecord: (bodies: readonly EventBody[], atMs?: number) => void;
+  announce: (text: string, urgency?: Urgency) => void;
+}) {
+  const [muted, setMuted] = useMutedPreference();
+  const [dialog, setDialog] = useState<null | 'stop' | 'override' | 'extravasation'>(null);
+  // Stop and extravasation are timed at the press that opened the dialog, not at the confirmation.
+  const pressedAtMs = useRef(0);
+  const wakeLock = useWakeLock(true);
+  const stepsHeading = useId();
+  const deviationsHeading = useId();
+  const cautionsHeading = useId();
+
+  const current = clock.current;
+  const cueEveryS = current ? (protocol.steps[current.index]?.cueEveryS ?? null) : null;
+  const isDropStep = current !== null && (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') && cueEveryS !== null;
+  const cueWords = useMemo(() => ({ stepName: current ? stepNames[current.kind] : 'step' }), [current?.kind]);
+  const flash = useCues({ clock, cueEveryS, dropCount: facts.dropsInCurrentStep, isDropStep, muted, words: cueWords, announce });
+
+  // Step changes are said once, politely; the clock itself is never read out on its own.
+  const currentId = current?.id ?? null;
+  const announced = useRef<string | null | undefined>(undefined);
+  useEffect(() => {
+    if (announced.current === undefined) {
+      announced.current = currentId;
+      return;
+    }
+    if (announced.current === currentId) return;
+    const endedId = announced.current;
+    announced.current = currentId;
+    if (current) announce(`${capitalised(stepNames[current.kind])} started: ${current.title}.`);
+    else if (endedId) {
+      const ended = protocol.steps.find((step) => step.id === endedId);
+      announce(`${capitalised(ended ? stepNames[ended.kind] : 'step')} ended.${clock.next ? ` Next: ${clock.next.title}.` : ''}`);
+    }
+  }, [announce, clock.next, current, currentId, protocol.steps]);
+
+  const seenDeviations = useRef<Set<number> | null>(null);
+  useEffect(() => {
+    const ids = new Set(deviations.map((deviation) => deviation.id));
+    if (seenDeviations.current === null) {
+      seenDeviations.current = ids;
+      return;
+    }
+    for (const deviation of deviations) {
+      if (seenDeviations.current.has(deviation.id)) continue;
+      announce(`New deviation, ${deviation.severity}: ${deviation.message}`, deviation.severity === 'minor' ? 'polite' : 'assertive');
+    }
+    seenDeviations.current = ids;
+  }, [announce, deviations]);
+
+  const openTimed = (which: 'stop' | 'extravasation') => {
+    pressedAtMs.current = serverNowMs;
+    setDialog(which);
+  };
+
+  return (
+    <div className="grid gap-4 lg:grid-cols-[minmax(0,1.75fr)_minmax(0,1fr)]">
+      <div className="flex min-w-0 flex-col gap-3">
+        {facts.extravasationMs !== null && <ExtravasationNotice atMs={facts.extravasationMs} />}
+        <ClockFace clock={clock} protocol={protocol} plan={plan} facts={facts} serverNowMs={serverNowMs} deviceNowMs={deviceNowMs} flash={flash} />
+        <StepActions clock={clock} protocol={protocol} facts={facts} serverNowMs={serverNowMs} orderId={order.id} onRecord={onRecord} onOverride={() => setDialog('override')} />
+      </div>
+
+      {/* Sized to the screen so the page itself never scrolls on a landscape tablet; the lists scroll inside. */}
+      <div className="flex min-w-0 flex-col gap-3 lg:max-h-[calc(100dvh-16.5rem)]">
+        <div className="flex flex-wrap gap-2">
+          <Button variant="secondary" icon={<StatusStoppedIcon />} onClick={() => openTimed('stop')}>
+            Stop session…
+          </Button>
+          {protocol.kind === 'pdt' && (
+            <Button variant="secondary" icon={<LeakIcon />} onClick={() => openTimed('extravasation')}>
+              Extravasation…
+            </Button>
+          )}
+        </div>
+        <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+          <Button variant="quiet" size="sm" icon={muted ? <SoundOffIcon /> : <SoundOnIcon />} onClick={() => setMuted(!muted)} aria-describedby={`${stepsHeading}-sound`}>
+            {muted ? 'Sound off' : 'Sound on'}
+          </Button>
+          <span id={`${stepsHeading}-sound`} className="sr-only">
+            {muted ? 'Press to turn the sound cues back on; the flash and vibration stay.' : 'Press to mute the sound cues; the flash and vibration stay.'}
+          </span>
+          {wakeLock !== 'off' && (
+            <p className="flex items-center gap-1.5 text-sm text-paper-700">
+              <ScreenAwakeIcon className="size-4 shrink-0" />
+              {wakeLockWords[wakeLock]}
+            </p>
+          )}
+        </div>
+        <div className="flex min-h-0 flex-1 flex-col gap-4 border-t border-paper-200 pt-2 lg:overflow-y-auto lg:pr-1">
+          <StepList protocol={protocol} clock={clock} facts={facts} headingId={stepsHeading} />
+          <DeviationList deviations={deviations} headingId={deviationsHeading} />
+          <SessionCautions protocol={protocol} eyeWord={eyeWords[order.eye]} compact headingId={cautionsHeading} />
+        </div>
+      </div>
+
+      <ReasonDialog
+        open={dialog === 'stop'}
+        onDismiss={() => setDialog(null)}
+        title="Stop the session"
+        description="The session ends here and the order is marked stopped. The dose record keeps what was given up to the moment you pressed Stop."
+        fieldLabel="Why is the session stopped?"
+        confirmLabel="Stop session"
+        confirmIcon={<StatusStoppedIcon />}
+        draftKey={`stop.${order.id}`}
+        danger
+        onConfirm={(reason) => {
+          setDialog(null);
+          onRecord([{ type: 'session-stopped', reason }], pressedAtMs.current);
+        }}
+      />
+      <ReasonDialog
+        open={dialog === 'override'}
+        onDismiss={() => setDialog(null)}
+        title="Override the thickness minimum"
+        description={`The stroma is thinner than the protocol’s ${protocol.cxl?.minStromalThicknessUm ?? ''} µm minimum. UV on a thin stroma can harm the endothelium; an override is recorded as a deviation for the auditor.`}
+        fieldLabel="Reason for going on to UV"
+        confirmLabel="Record override"
+        draftKey={`override.${order.id}`}
+        danger
+        onConfirm={(reason) => {
+          setDialog(null);
+          onRecord([{ type: 'thickness-override', reason }]);
+        }}
+      />
+      {protocol.kind === 'pdt' && (
+        <ExtravasationDialog
+          open={dialog === 'extravasation'}
+          draftKey={`extravasation.${order.id}`}
+          onDismiss={() => setDialog(null)}
+          onRecord={(note) => {
+            setDialog(null);
+            onRecord([{ type: 'extravasation', ...(note ? { note } : {}) }], pressedAtMs.current);
+          }}
+        />
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,186 @@
+import { useId, useRef, useState, type ReactNode } from 'react';
+import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
+import type { DosePlan } from '../../../../shared/schemas/calculation';
+import { preTreatmentChecks, type PreTreatmentCheck } from '../../../../shared/session/session-events';
+import { Alert } from '../../../components/ui/alert';
+import { Button } from '../../../components/ui/button';
+import { CheckCircleIcon, DraftCircleIcon, StartCircleIcon } from '../../../components/ui/icons';
+import type { SessionOrder } from '../api/get-session-order';
+import { useStoredDraft } from '../hooks/use-stored-draft';
+import { formatWardTime } from './clock-format';
+import { DeviceSettings } from './device-settings';
+import { EyeBadge, eyeWords } from './eye-badge';
+import { SessionCautions } from './session-cautions';
+
+type Ticks = Record<PreTreatmentCheck, boolean>;
+const noTicks: Ticks = { patientIdentity: false, treatmentEye: false, consent: false, eyewear: false, deviceSettings: false };
+
+function checkWords(order: SessionOrder, protocol: ProtocolVersion): Record<PreTreatmentCheck, { label: string; detail: string }> {
+  const patient = `${order.patient.givenName} ${order.patient.familyName}`;
+  return {
+    patientIdentity: { label: 'Patient identity confirmed', detail: `Asked the patient’s name and date of birth and checked the wristband: ${patient}, record ${order.patient.recordNumber}.` },
+    treatmentEye: { label: `Treatment eye confirmed: ${eyeWords[order.eye]}`, detail: 'The eye on the order, the marked eye and the patient’s own answer agree.' },
+    consent: { label: 'Consent confirmed', detail: 'Signed consent for this treatment is in the record.' },
+    eyewear: {
+      label: 'Protective eyewear on everyone in the room',
+      detail: protocol.kind === 'pdt' ? `Rated for the ${protocol.light.wavelengthNm} nm laser, patient and staff.` : 'UV protection for staff; the other eye is covered.',
+    },
+    deviceSettings: { label: 'Device settings match the plan', detail: 'Each figure on the device display was read against the plan’s settings shown here.' },
+  };
+}
+
+/**
+ * The five pre-treatment checks, each a large toggle. Ticks survive a reload of the tab; the
+ * session starts only when all five are confirmed, and the first missing one takes focus.
+ */
+export function PreTreatmentChecks({
+  order,
+  protocol,
+  plan,
+  serverNowMs,
+  onStart,
+}: {
+  order: SessionOrder;
+  protocol: ProtocolVersion;
+  plan: DosePlan;
+  serverNowMs: number;
+  onStart: () => void;
+}) {
+  const [ticks, setTicks, clearTicks] = useStoredDraft<Ticks>(`checks.${order.id}`, noTicks);
+  const [missing, setMissing] = useState<PreTreatmentCheck[]>([]);
+  const inputs = useRef<Partial<Record<PreTreatmentCheck, HTMLInputElement | null>>>({});
+  const words = checkWords(order, protocol);
+  const settingsHeading = useId();
+  const cautionsHeading = useId();
+  const beyondUseMs = order.beyondUseAt ? Date.parse(order.beyondUseAt) : null;
+
+  const start = () => {
+    const notYet = preTreatmentChecks.filter((check) => !ticks[check]);
+    setMissing(notYet);
+    if (notYet.length > 0) {
+      inputs.current[notYet[0]!]?.focus();
+      return;
+    }
+    clearTicks();
+    onStart();
+  };
+
+  return (
+    <div className="grid gap-6 lg:grid-cols-[minmax(0,1.15fr)_minmax(0,1fr)]">
+      <section aria-labelledby="pre-treatment-checks-heading" className="flex flex-col gap-3">
+        <h2 id="pre-treatment-checks-heading" className="text-xl font-semibold text-paper-950">
+          Confirm each check aloud, then tick it
+        </h2>
+        <ul className="flex flex-col gap-3">
+          {preTreatmentChecks.map((check) => (
+            <li key={check}>
+              <CheckToggle
+                label={words[check].label}
+                detail={words[check].detail}
+                checked={ticks[check]}
+                inputRef={(element) => {
+                  inputs.current[check] = element;
+                }}
+                onChange={(checked) => {
+                  setTicks({ ...ticks, [check]: checked });
+                  if (checked) setMissing((current) => current.filter((item) => item !== check));
+                }}
+              />
+            </li>
+          ))}
+        </ul>
+        {missing.length > 0 && (
+          <Alert tone="error" title="The session cannot start yet">
+            Not confirmed: {missing.map((check) => words[check].label.toLowerCase()).join('; ')}.
+          </Alert>
+        )}
+        <Button className="min-h-16 px-8 text-xl" icon={<StartCircleIcon className="size-7" />} onClick={start}>
+          Start session
+        </Button>
+      </section>
+
+      <div className="flex flex-col gap-4">
+        <div className="flex flex-col items-start gap-2 rounded-2xl border border-paper-300 bg-white px-5 py-4">
+          <p className="text-paper-700">Treatment eye</p>
+          <EyeBadge eye={order.eye} size="huge" />
+          <p className="text-lg font-medium text-paper-950">
+            {order.patient.givenName} {order.patient.familyName} · record {order.patient.recordNumber}
+          </p>
+        </div>
+        {beyondUseMs !== null && (
+          <BeyondUse beyondUseMs={beyondUseMs} serverNowMs={serverNowMs} />
+        )}
+        <DeviceSettings protocol={protocol} plan={plan} headingId={settingsHeading} />
+        <SessionCautions protocol={protocol} eyeWord={eyeWords[order.eye]} headingId={cautionsHeading} />
+      </div>
+    </div>
+  );
+}
+
+function BeyondUse({ beyondUseMs, serverNowMs }: { beyondUseMs: number; serverNowMs: number }) {
+  if (serverNowMs >= beyondUseMs) {
+    return (
+      <Alert tone="error" title="The prepared drug is past its beyond-use time" live="none">
+        It was usable until {formatWardTime(beyondUseMs, false)}. Do not infuse it; ask the pharmacy for a fresh preparation.
+      </Alert>
+    );
+  }
+  return (
+    <p className="flex items-center gap-2 text-paper-800">
+      <CheckCircleIcon className="size-5" />
+      Prepared drug usable until <strong className="numerals-steady">{formatWardTime(beyondUseMs, false)}</strong>
+    </p>
+  );
+}
+
+function CheckToggle({
+  label,
+  detail,
+  checked,
+  onChange,
+  inputRef,
+}: {
+  label: string;
+  detail: string;
+  checked: boolean;
+  onChange: (checked: boolean) => void;
+  inputRef: (element: HTMLInputElement | null) => void;
+}) {
+  const id = useId();
+  const state: ReactNode = checked ? (
+    <>
+      <CheckCircleIcon className="size-6" /> Confirmed
+    </>
+  ) : (
+    <>
+      <DraftCircleIcon className="size-6" /> Not yet
+    </>
+  );
+  return (
+    <div
+      className={`flex min-h-20 items-center gap-4 rounded-2xl border-2 px-4 py-3 ${checked ? 'border-iris-700 bg-iris-50' : 'border-paper-400 bg-white'}`}
+    >
+      <input
+        id={id}
+        ref={inputRef}
+        type="checkbox"
+        checked={checked}
+        aria-describedby={`${id}-detail`}
+        onChange={(event) => onChange(event.target.checked)}
+        className="size-8 shrink-0 cursor-pointer accent-iris-700"
+      />
+      <div className="min-w-0 flex-1">
+        {/* The name stays short ("Consent confirmed"); the detail is read after it. */}
+        <label htmlFor={id} className="block cursor-pointer text-lg font-semibold text-paper-950">
+          {label}
+        </label>
+        <p id={`${id}-detail`} className="text-sm text-paper-700">
+          {detail}
+        </p>
+      </div>
+      <span aria-hidden="true" className={`flex shrink-0 items-center gap-1.5 font-medium ${checked ? 'text-iris-800' : 'text-paper-700'}`}>
+        {state}
+      </span>
+    </div>
+  );
+}

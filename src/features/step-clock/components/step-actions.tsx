@@ -1,0 +1,217 @@
+import { useId, useRef, useState } from 'react';
+import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
+import { runsRunningMs } from '../../../../shared/session/dose-record';
+import type { NextStep, SessionClock } from '../../../../shared/session/session-clock';
+import { Button } from '../../../components/ui/button';
+import { AlertIcon, CheckCircleIcon, DropletIcon, EndStepIcon, PauseCircleIcon, StartCircleIcon, StatusCompletedIcon, ThicknessGaugeIcon } from '../../../components/ui/icons';
+import type { EventBody } from '../hooks/use-session-events';
+import { useStoredDraft } from '../hooks/use-stored-draft';
+import { formatRemaining, stepNames, stepsEndedByTheirOwnTap } from './clock-format';
+import type { SessionFacts } from './session-facts';
+
+/** What the big button does now. */
+type Primary =
+  | { kind: 'end'; stepId: string; label: string }
+  | { kind: 'start'; stepId: string; endStepId: string | null; label: string }
+  | { kind: 'complete'; endStepId: string | null; label: string }
+  | { kind: 'blocked'; why: string };
+
+function primaryAction(clock: SessionClock, facts: SessionFacts): Primary {
+  const current = clock.current;
+  const start = (next: NextStep, endStepId: string | null): Primary => {
+    if (next.kind === 'uv' && !facts.uvGate.allowed) return { kind: 'blocked', why: facts.uvGate.why ?? 'UV cannot start yet.' };
+    return { kind: 'start', stepId: next.id, endStepId, label: `Start ${stepNames[next.kind]}` };
+  };
+  if (current) {
+    if (stepsEndedByTheirOwnTap.has(current.kind)) return { kind: 'end', stepId: current.id, label: `End ${stepNames[current.kind]}` };
+    if (current.kind !== 'aftercare' && clock.next) return start(clock.next, current.id);
+    return { kind: 'complete', endStepId: current.id, label: 'Complete session' };
+  }
+  if (clock.next) return start(clock.next, null);
+  return { kind: 'complete', endStepId: null, label: 'Complete session' };
+}
+
+/** A second press of the big button this soon after the first is taken as a double tap and ignored. */
+const doubleTapGuardMs = 600;
+
+/**
+ * The buttons of the moment: end or start a step, pause, drops, thickness readings, completion.
+ * Each press becomes an event at once (queued, then sent); nothing waits for the network.
+ */
+export function StepActions({
+  clock,
+  protocol,
+  facts,
+  serverNowMs,
+  onRecord,
+  onOverride,
+  orderId,
+}: {
+  clock: SessionClock;
+  protocol: ProtocolVersion;
+  facts: SessionFacts;
+  serverNowMs: number;
+  onRecord: (bodies: readonly EventBody[]) => void;
+  onOverride: () => void;
+  orderId: number;
+}) {
+  const current = clock.current;
+  const primary = primaryAction(clock, facts);
+  const lastPressMs = useRef(Number.NEGATIVE_INFINITY);
+
+  const pressPrimary = () => {
+    // The button now means something else ("End laser" became "Start after-care"): a second
+    // press straight after the first is a double tap, not a decision.
+    const nowMs = Date.now();
+    const doubleTap = nowMs - lastPressMs.current < doubleTapGuardMs;
+    lastPressMs.current = nowMs;
+    if (doubleTap) return;
+    if (primary.kind === 'end') onRecord([{ type: 'step-ended', stepId: primary.stepId }]);
+    else if (primary.kind === 'start')
+      onRecord(primary.endStepId ? [{ type: 'step-ended', stepId: primary.endStepId }, { type: 'step-started', stepId: primary.stepId }] : [{ type: 'step-started', stepId: primary.stepId }]);
+    else if (primary.kind === 'complete') onRecord(primary.endStepId ? [{ type: 'step-ended', stepId: primary.endStepId }, { type: 'session-completed' }] : [{ type: 'session-completed' }]);
+  };
+
+  const canPause = current !== null && (current.kind === 'light' || current.kind === 'uv');
+  const cueEveryS = current ? protocol.steps[current.index]?.cueEveryS : undefined;
+  const isDropStep = current !== null && (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') && cueEveryS !== undefined;
+  const measures = current !== null && (current.kind === 'thickness' || current.kind === 'swelling');
+  const minimumUm = protocol.cxl?.minStromalThicknessUm ?? null;
+  const thin = minimumUm !== null && facts.lastThickness !== null && facts.lastThickness.thicknessUm < minimumUm;
+  const uvInstead = clock.next?.kind === 'swelling' && facts.overrideReason !== null && facts.uvStep && facts.uvGate.allowed ? facts.uvStep : undefined;
+
+  // A timed step ended too early can carry on: its time counts over all of its runs.
+  const lastStepId = facts.replay.lastStartedStepId;
+  const lastStep = lastStepId ? protocol.steps.find((step) => step.id === lastStepId) : undefined;
+  const lastRuns = lastStepId ? facts.replay.runs.get(lastStepId) : undefined;
+  const stoppedByExtravasation = lastStep?.kind === 'infusion' && facts.extravasationMs !== null;
+  const leftOfLastS = !current && !stoppedByExtravasation && lastStep && lastStep.durationS !== null && stepsEndedByTheirOwnTap.has(lastStep.kind) && lastRuns ? lastStep.durationS - runsRunningMs(lastRuns, serverNowMs) / 1000 : 0;
+
+  const primaryIcon = primary.kind === 'end' ? <EndStepIcon className="size-8" /> : primary.kind === 'complete' ? <StatusCompletedIcon className="size-8" /> : <StartCircleIcon className="size-8" />;
+
+  return (
+    <div className="flex flex-col gap-3">
+      {measures && current && minimumUm !== null && <ThicknessEntry orderId={orderId} stepId={current.id} minimumUm={minimumUm} facts={facts} onRecord={onRecord} />}
+
+      <div className="flex flex-wrap items-stretch gap-3">
+        {primary.kind === 'blocked' ? (
+          <p className="flex min-h-16 flex-1 items-center gap-2 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-2 font-medium text-paper-950">
+            <AlertIcon className="size-6 shrink-0 text-alarm-700" />
+            {primary.why}
+          </p>
+        ) : (
+          <Button className="min-h-16 min-w-64 flex-1 px-6 text-2xl" icon={primaryIcon} onClick={pressPrimary}>
+            {primary.label}
+          </Button>
+        )}
+        {isDropStep && current && (
+          <Button variant="secondary" className="min-h-16 min-w-52 px-6 text-2xl" icon={<DropletIcon className="size-8" />} onClick={() => onRecord([{ type: 'drop-given', stepId: current.id }])}>
+            Drop given
+          </Button>
+        )}
+        {canPause && current && (
+          <Button
+            variant="secondary"
+            className="min-h-16 px-6 text-xl"
+            icon={current.paused ? <StartCircleIcon className="size-7" /> : <PauseCircleIcon className="size-7" />}
+            onClick={() => onRecord([{ type: current.paused ? 'resumed' : 'paused', stepId: current.id }])}
+          >
+            {current.paused ? `Resume ${stepNames[current.kind]}` : `Pause ${stepNames[current.kind]}`}
+          </Button>
+        )}
+      </div>
+
+      {(thin || uvInstead || leftOfLastS > 0.5) && (
+        <div className="flex flex-wrap gap-3">
+          {thin && facts.overrideReason === null && (
+            <Button variant="secondary" icon={<AlertIcon />} onClick={onOverride}>
+              Override the thickness minimum…
+            </Button>
+          )}
+          {uvInstead && (
+            <Button variant="secondary" icon={<StartCircleIcon />} onClick={() => onRecord([...(current ? [{ type: 'step-ended' as const, stepId: current.id }] : []), { type: 'step-started', stepId: uvInstead.id }])}>
+              Start UV without swelling (override recorded)
+            </Button>
+          )}
+          {leftOfLastS > 0.5 && lastStep && (
+            <Button variant="secondary" icon={<StartCircleIcon />} onClick={() => onRecord([{ type: 'step-started', stepId: lastStep.id }])}>
+              Continue {stepNames[lastStep.kind]} ({formatRemaining(leftOfLastS)} left)
+            </Button>
+          )}
+        </div>
+      )}
+    </div>
+  );
+}
+
+function ThicknessEntry({ orderId, stepId, minimumUm, facts, onRecord }: { orderId: number; stepId: string; minimumUm: number; facts: SessionFacts; onRecord: (bodies: readonly EventBody[]) => void }) {
+  const [text, setText, clearText] = useStoredDraft(`thickness.${orderId}`, '');
+  const [error, setError] = useState<string | undefined>();
+  const id = useId();
+  const last = facts.lastThickness;
+
+  const submit = () => {
+    const value = Number(text.trim().replace(',', '.'));
+    if (text.trim() === '' || !Number.isFinite(value) || value < 100 || value > 900) {
+      setError('Enter the thinnest stromal thickness as a number from 100 to 900 µm.');
+      document.getElementById(id)?.focus();
+      return;
+    }
+    setError(undefined);
+    clearText();
+    onRecord([{ type: 'thickness-measured', stepId, thicknessUm: value }]);
+  };
+
+  return (
+    <div className="flex flex-col gap-1 rounded-xl border border-paper-300 bg-paper-100 px-4 py-2">
+      <form
+        className="flex flex-wrap items-end gap-3"
+        onSubmit={(event) => {
+          event.preventDefault();
+          submit();
+        }}
+      >
+        <div className="flex flex-col gap-1">
+          <label htmlFor={id} className="font-medium text-paper-900">
+            Thinnest stromal thickness (µm)
+          </label>
+          <input
+            id={id}
+            inputMode="decimal"
+            autoComplete="off"
+            value={text}
+            aria-invalid={error ? true : undefined}
+            aria-describedby={error ? `${id}-error` : undefined}
+            onChange={(event) => setText(event.target.value)}
+            className={`numerals-steady min-h-tap w-36 rounded-lg border bg-white px-3 py-1.5 text-2xl text-paper-950 ${error ? 'border-2 border-alarm-700' : 'border-paper-500'}`}
+          />
+        </div>
+        <Button type="submit" variant="secondary" className="min-h-12 text-lg" icon={<ThicknessGaugeIcon className="size-6" />}>
+          Record reading
+        </Button>
+        <div className="min-w-48 flex-1 pb-1 text-paper-950">
+          {last ? (
+            <p className="flex items-start gap-1.5 text-lg leading-snug">
+              {last.thicknessUm >= minimumUm ? <CheckCircleIcon className="mt-0.5 size-6" /> : <AlertIcon className="mt-0.5 size-6 text-alarm-700" />}
+              <span>
+                Last reading <strong className="numerals-steady">{last.thicknessUm} µm</strong>:{' '}
+                {last.thicknessUm >= minimumUm ? `at or above the ${minimumUm} µm minimum` : <strong>below the {minimumUm} µm minimum</strong>}
+              </span>
+            </p>
+          ) : (
+            <p className="text-paper-700">No reading yet. Minimum before UV: {minimumUm} µm.</p>
+          )}
+        </div>
+      </form>
+      <div className="text-paper-950">
+        {error && (
+          <p id={`${id}-error`} className="flex items-center gap-1.5 font-medium text-alarm-700">
+            <AlertIcon className="size-5" />
+            {error}
+          </p>
+        )}
+        {facts.overrideReason !== null && <p className="text-sm text-paper-800">Override recorded: “{facts.overrideReason}”</p>}
+      </div>
+    </div>
+  );
+}

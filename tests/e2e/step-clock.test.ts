@@ -1,0 +1,534 @@
+import { randomUUID } from 'node:crypto';
+import { request, type APIRequestContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { demoPassword } from '../../server/demo/seed';
+import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+
+/*
+ * The bedside step clock in a real browser, in accelerated time: the page runs on Playwright's
+ * clock and the server on `serverClock`, and every jump moves both by the same amount, so the
+ * tablet and the server keep agreeing while a 30-minute soak passes in a moment.
+ */
+
+let ctx: BrowserContext;
+let clinician: APIRequestContext;
+let pharmacist: APIRequestContext;
+let nurseApi: APIRequestContext;
+
+beforeAll(async () => {
+  ctx = await startBrowserTest();
+  const signedIn = async (email: string) => {
+    const api = await request.newContext({ baseURL: ctx.baseUrl, extraHTTPHeaders: { Origin: ctx.baseUrl } });
+    const login = await api.post('/api/auth/login', { data: { email, password: demoPassword } });
+    expect(login.status()).toBe(200);
+    return api;
+  };
+  clinician = await signedIn('clinician@demo.luxtempo.example');
+  pharmacist = await signedIn('pharmacist@demo.luxtempo.example');
+  nurseApi = await signedIn('nurse@demo.luxtempo.example');
+});
+afterAll(async () => {
+  if (samples.length > 0) {
+    const worst = samples.reduce((a, b) => (Math.abs(b.errorS) > Math.abs(a.errorS) ? b : a));
+    const steps = Math.max(...samples.map((s) => Math.abs(s.shownS - shownAtResolution(s.trueS))));
+    console.log(`step clock: ${samples.length} readings over all tests; largest error ${worst.errorS.toFixed(3)} s (${worst.label}); at display resolution at most ${steps} s`);
+  }
+  await Promise.all([clinician?.dispose(), pharmacist?.dispose(), nurseApi?.dispose()]);
+  await ctx?.close();
+});
+
+/* ---------- time on both sides ---------- */
+
+/** The server's clock as the test sees it. */
+const serverNowMs = () => Date.now() + ctx.serverClock.offsetMs;
+
+/** Moves the server's clock, then the page's, by the same amount (server first: a request in between then only sees the server ahead). */
+async function advance(page: Page, ms: number) {
+  const step = Math.max(0, Math.round(ms));
+  ctx.serverClock.offsetMs += step;
+  await page.clock.fastForward(step);
+}
+
+async function advanceTo(page: Page, targetServerMs: number) {
+  await advance(page, targetServerMs - serverNowMs());
+}
+
+/* ---------- orders through the API, as the order and pharmacy screens would make them ---------- */
+
+async function newPatient() {
+  const suffix = randomUUID().slice(0, 6).toUpperCase();
+  const res = await clinician.post('/api/patients', {
+    data: { recordNumber: `SC-${suffix}`, givenName: 'Perpetua', familyName: `Lanternwick ${suffix}`, dateOfBirth: '1957-09-02', emailConsent: false },
+  });
+  expect(res.status()).toBe(201);
+  return (await res.json()).patient as { id: number; familyName: string };
+}
+
+async function signedOrder(body: Record<string, unknown>) {
+  const draft = await clinician.post('/api/orders', { data: body });
+  expect(draft.status(), await draft.text()).toBe(201);
+  const id = (await draft.json()).order.id as number;
+  const signed = await clinician.post(`/api/orders/${id}/signature`, { data: { password: demoPassword, meaning: 'ordered' } });
+  expect(signed.status()).toBe(200);
+  return id;
+}
+
+/** Standard PDT, 170 cm / 70 kg, GLD 2500 µm: checked blind and prepared, ready for the nurse. */
+async function preparedPdtOrder() {
+  const patient = await newPatient();
+  const id = await signedOrder({
+    patientId: patient.id,
+    eye: 'right',
+    protocol: { key: 'pdt-standard', version: 1 },
+    inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
+    checklist: ['porphyria', 'hypersensitivity', 'hepatic-impairment', 'pregnancy-breastfeeding', 'other-photosensitisers'].map((q) => ({ id: q, answer: 'no' })),
+  });
+  // Mosteller 1.82 m² (Mosteller RD, N Engl J Med 1987) × 6 mg/m² = 10.92 mg; 2 mg/mL → 5.46 mL (TAP Study Group, Arch Ophthalmol 1999).
+  const check = await pharmacist.post(`/api/orders/${id}/dose-checks`, { data: { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 } });
+  expect(check.status(), await check.text()).toBe(201);
+  const vialExpiry = new Date(Date.now() + 90 * 86_400_000).toISOString().slice(0, 10);
+  const prepared = await pharmacist.post(`/api/orders/${id}/preparation`, { data: { vialLot: 'SC-LOT-1', vialExpiry, volumeDrawnMl: 5.5 } });
+  expect(prepared.status(), await prepared.text()).toBe(201);
+  return { id, patient };
+}
+
+/** A signed CXL order: ready for the session at once (no drug step to check). */
+async function readyCxlOrder(key = 'cxl-standard') {
+  const patient = await newPatient();
+  const id = await signedOrder({
+    patientId: patient.id,
+    eye: 'left',
+    protocol: { key, version: 1 },
+    inputs: { stromalThicknessUm: 460 },
+    checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({ id: q, answer: 'no' })),
+  });
+  return { id, patient };
+}
+
+interface StoredEvent {
+  idempotencyKey: string;
+  type: string;
+  stepId?: string;
+  clientTime: string;
+}
+interface SessionBody {
+  status: string;
+  events: StoredEvent[];
+  record: Record<string, number | string | null> | null;
+  deviations: { type: string; severity: string }[];
+}
+
+async function sessionOf(orderId: number): Promise<SessionBody> {
+  const res = await clinician.get(`/api/orders/${orderId}/session`);
+  expect(res.status()).toBe(200);
+  return (await res.json()) as SessionBody;
+}
+
+function eventTimeMs(session: SessionBody, type: string, stepId?: string): number {
+  const event = session.events.find((e) => e.type === type && (stepId === undefined || e.stepId === stepId));
+  if (!event) throw new Error(`no ${type} ${stepId ?? ''} among ${session.events.map((e) => `${e.type}:${e.stepId ?? ''}`).join(', ')}`);
+  return Date.parse(event.clientTime);
+}
+
+const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true };
+
+/** Taps made earlier on another tablet, placed on the server's timeline `secondsAgo` before now. */
+async function seedEvents(orderId: number, taps: [secondsAgo: number, body: Record<string, unknown>][]) {
+  const nowMs = serverNowMs();
+  for (const [secondsAgo, body] of taps) {
+    const res = await nurseApi.post(`/api/orders/${orderId}/session-events`, {
+      data: { idempotencyKey: randomUUID(), clientTime: new Date(nowMs - secondsAgo * 1000).toISOString(), ...body },
+    });
+    expect(res.status(), await res.text()).toBe(201);
+  }
+}
+
+/* ---------- the page ---------- */
+
+async function nursePage(orderId: number) {
+  const context = await ctx.browser.newContext({ viewport: { width: 1024, height: 768 } });
+  const page = await context.newPage();
+  const problems = watchPage(page, ctx.baseUrl);
+  await page.clock.install({ time: serverNowMs() });
+  await signInThroughForm(page, ctx.baseUrl, 'nurse@demo.luxtempo.example', demoPassword);
+  await page.getByRole('navigation', { name: 'Main' }).waitFor();
+  await page.goto(`${ctx.baseUrl}/sessions/${orderId}`);
+  await page.locator('h1', { hasText: 'Step clock' }).waitFor();
+  return { page, problems };
+}
+
+async function confirmChecksAndStart(page: Page, eyeWord: 'right' | 'left') {
+  await page.getByLabel('Patient identity confirmed').check();
+  await page.getByLabel(`Treatment eye confirmed: ${eyeWord} eye`).check();
+  await page.getByLabel('Consent confirmed').check();
+  await page.getByLabel('Protective eyewear on everyone in the room').check();
+  await page.getByLabel('Device settings match the plan').check();
+  await page.getByRole('button', { name: 'Start session' }).click();
+}
+
+/** The big button refuses a second press within 0.6 s (a double tap); taps in a test are spaced by the page's clock. */
+const lastPress = new WeakMap<Page, number>();
+async function press(page: Page, name: string | RegExp) {
+  const since = serverNowMs() - (lastPress.get(page) ?? Number.NEGATIVE_INFINITY);
+  if (since < 700) await advance(page, 700 - since);
+  const button = page.getByRole('button', { name, exact: typeof name === 'string' });
+  await button.click();
+  lastPress.set(page, serverNowMs());
+}
+
+/**
+ * A tap timed to the millisecond: the button takes keyboard focus first, the clocks move to the
+ * moment, and Enter presses it (the keyboard path a nurse without a free hand for the screen has).
+ */
+async function pressAt(page: Page, name: string, targetServerMs: number) {
+  const since = targetServerMs - (lastPress.get(page) ?? Number.NEGATIVE_INFINITY);
+  expect(since, 'two presses of the big button at least 0.7 s apart').toBeGreaterThanOrEqual(700);
+  await page.getByRole('button', { name, exact: true }).focus();
+  await advanceTo(page, targetServerMs);
+  await page.keyboard.press('Enter');
+  lastPress.set(page, serverNowMs());
+}
+
+async function allStored(page: Page) {
+  await page.getByText('All taps stored').waitFor({ timeout: 15_000 });
+}
+
+/* ---------- reading the clock against the true schedule ---------- */
+
+interface ClockSample {
+  label: string;
+  shownS: number;
+  trueS: number;
+  errorS: number;
+}
+const samples: ClockSample[] = [];
+
+function parseClock(text: string): number {
+  const parts = text.trim().split(':').map(Number);
+  if (parts.length < 2 || parts.some((n) => !Number.isInteger(n))) throw new Error(`not a clock reading: "${text}"`);
+  return parts.reduce((total, n) => total * 60 + n, 0);
+}
+
+/**
+ * Reads the big numeral and, at the same instant on the server's clock, what it should say.
+ * The page is given a third of a second first, so a reading after a jump of the clock measures
+ * the clock and not the jump.
+ */
+async function readClock(page: Page, timerName: string, truthS: (serverMs: number) => number, label: string, settleMs = 300): Promise<ClockSample> {
+  const timer = page.getByRole('timer', { name: timerName });
+  await timer.waitFor();
+  if (settleMs > 0) await page.waitForTimeout(settleMs);
+  const beforeMs = serverNowMs();
+  const text = (await timer.textContent()) ?? '';
+  const afterMs = serverNowMs();
+  const shownS = parseClock(text);
+  const trueS = truthS((beforeMs + afterMs) / 2);
+  const sample = { label, shownS, trueS, errorS: shownS - trueS };
+  samples.push(sample);
+  return sample;
+}
+
+/** What a count-down should show at display resolution (whole seconds, rounded up). */
+const shownAtResolution = (trueS: number) => Math.ceil(Math.max(0, trueS) - 1e-6);
+
+describe('the bedside step clock', () => {
+  it('(a) runs a whole PDT session: infusion 10 min, light 15 min after the infusion start for 83 s, after-care, completed', async () => {
+    const { id } = await preparedPdtOrder();
+    const { page, problems } = await nursePage(id);
+
+    // The checks screen: the eye in words, the plan's laser settings to compare.
+    await page.getByRole('heading', { name: 'Confirm each check aloud, then tick it' }).waitFor();
+    const checksText = await page.locator('main').innerText();
+    expect(checksText).toContain('RIGHT');
+    expect(checksText).toContain('600 mW/cm²'); // TAP Study Group, Arch Ophthalmol 1999
+    expect(checksText).toContain('83 s');
+    expect(checksText).toMatch(/Extravasation: stop the infusion, apply a cool compress and protect the area from light/);
+    expect(await accessibilityViolations(page)).toEqual([]);
+
+    // Start refuses until every check is ticked, and names what is missing.
+    await page.getByLabel('Patient identity confirmed').check();
+    await page.getByRole('button', { name: 'Start session' }).click();
+    await page.getByText('The session cannot start yet').waitFor();
+    await confirmChecksAndStart(page, 'right');
+
+    await press(page, 'Start infusion');
+    await page.getByRole('timer', { name: 'Time left for the infusion' }).waitFor();
+    expect(await accessibilityViolations(page)).toEqual([]);
+    await allStored(page);
+    const infusionStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'infusion');
+
+    // 7 min in: 21 mL given of 30 mL at 3 mL/min (30 mL over 10 min: TAP Study Group, Arch Ophthalmol 1999).
+    await advanceTo(page, infusionStartMs + 420_000);
+    const infusion = await readClock(page, 'Time left for the infusion', (ms) => 600 - (ms - infusionStartMs) / 1000, 'PDT infusion at 7 min');
+    expect(Math.abs(infusion.errorS)).toBeLessThan(1.1);
+    expect(await page.locator('main').innerText()).toMatch(/Given so far 21(\.\d)? mL of 30 mL/);
+
+    await advanceTo(page, infusionStartMs + 600_000);
+    // At zero the step asks to be ended; it never ends by itself.
+    await page.getByText('Time is up', { exact: true }).waitFor();
+    await press(page, 'End infusion');
+    await press(page, 'Start wait');
+    const wait = await readClock(page, 'Time until the light starts', (ms) => 900 - (ms - infusionStartMs) / 1000, 'PDT wait for light');
+    expect(Math.abs(wait.errorS)).toBeLessThan(1.1);
+
+    // The light starts 15 min after the START of the infusion (TAP Study Group, Arch Ophthalmol 1999).
+    await pressAt(page, 'Start laser', infusionStartMs + 900_000);
+    await page.getByRole('timer', { name: 'Time left for the laser' }).waitFor();
+    await allStored(page);
+    const lightStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'laser');
+    await advanceTo(page, lightStartMs + 41_300);
+    const light = await readClock(page, 'Time left for the laser', (ms) => 83 - (ms - lightStartMs) / 1000, 'PDT light at 41.3 s');
+    expect(Math.abs(light.errorS)).toBeLessThan(1.1);
+
+    await pressAt(page, 'End laser', lightStartMs + 83_000);
+    await press(page, 'Start after-care');
+    await press(page, 'Complete session');
+    await page.getByText('Session completed').waitFor();
+    await allStored(page);
+
+    const session = await sessionOf(id);
+    expect(session.status).toBe('completed');
+    const record = session.record!;
+    const lightEndMs = eventTimeMs(session, 'step-ended', 'laser');
+    console.log(
+      `PDT record: light ${record.lightStartAfterInfusionStartS} s after the infusion start, ${record.lightOnS} s of light, ${record.deliveredFluenceJPerCm2} J/cm²`,
+    );
+    // TAP Study Group, Arch Ophthalmol 1999: light at 15 min from the infusion start; 600 mW/cm² × 83 s = 49.8 J/cm².
+    // The record is exact for the taps; the taps land within a fraction of a second of the schedule.
+    expect(record.lightStartAfterInfusionStartS).toBe((lightStartMs - infusionStartMs) / 1000);
+    expect(Math.abs(Number(record.lightStartAfterInfusionStartS) - 900)).toBeLessThan(0.5);
+    expect(record.deliveredFluenceJPerCm2).toBeCloseTo((600 * (lightEndMs - lightStartMs)) / 1000 / 1000, 9);
+    expect(Math.abs(Number(record.deliveredFluenceJPerCm2) - 49.8)).toBeLessThan(0.3);
+    expect(session.deviations).toEqual([]);
+    expect(await page.locator('main').innerText()).toMatch(/Delivered fluence\s*49\.\d+ J\/cm²/);
+    expect(await accessibilityViolations(page)).toEqual([]);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it('(b) runs a whole CXL session with drops, a thin reading, swelling and UV: 5.4 J/cm²', async () => {
+    const { id } = await readyCxlOrder('cxl-standard');
+    const { page, problems } = await nursePage(id);
+    expect(await page.locator('main').innerText()).toContain('LEFT');
+    await confirmChecksAndStart(page, 'left');
+
+    await press(page, 'Start preparation');
+    await press(page, 'Start soak');
+    await allStored(page);
+    const soakStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'riboflavin-soak');
+    // Soak 30 min with a drop every 2 min (common practice; protocol file cxl-standard v1).
+    for (let drop = 1; drop <= 15; drop += 1) {
+      await advanceTo(page, soakStartMs + drop * 120_000 - 200);
+      await page.getByRole('button', { name: 'Drop given' }).click();
+    }
+    // Ended half a second past 30 min: the protocol allows no shortfall at all, and the tablet's
+    // estimate of the server clock is good to a few milliseconds, not to zero.
+    await advanceTo(page, soakStartMs + 1_800_500);
+    await press(page, 'End soak');
+    await press(page, 'Start thickness check');
+
+    // 380 µm is below the 400 µm minimum (Spoerl E et al., Cornea 2007): swelling comes next, UV waits.
+    await page.getByLabel('Thinnest stromal thickness (µm)').fill('380');
+    await page.getByRole('button', { name: 'Record reading' }).click();
+    await page.getByText('below the 400 µm minimum').waitFor();
+    expect(await accessibilityViolations(page)).toEqual([]);
+    await press(page, 'Start swelling');
+    for (let drop = 0; drop < 3; drop += 1) {
+      await advance(page, 20_000);
+      await page.getByRole('button', { name: 'Drop given' }).click();
+    }
+    await page.getByLabel('Thinnest stromal thickness (µm)').fill('412');
+    await page.getByRole('button', { name: 'Record reading' }).click();
+    await page.getByText('at or above the 400 µm minimum').waitFor();
+
+    await press(page, 'Start UV');
+    await allStored(page);
+    const uvStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'uv-exposure');
+    // UVA 3 mW/cm² for 30 min with a drop every 5 min (Wollensak G, Spoerl E, Seiler T, Am J Ophthalmol 2003).
+    for (let drop = 1; drop <= 5; drop += 1) {
+      await advanceTo(page, uvStartMs + drop * 300_000 - 300);
+      await page.getByRole('button', { name: 'Drop given' }).click();
+    }
+    await advanceTo(page, uvStartMs + 1_234_500);
+    const uv = await readClock(page, 'Time left for the UV', (ms) => 1800 - (ms - uvStartMs) / 1000, 'CXL UV at 20:34.5');
+    expect(Math.abs(uv.errorS)).toBeLessThan(1.1);
+    await advanceTo(page, uvStartMs + 1_800_200);
+    await press(page, 'End UV');
+    await press(page, 'Start after-care');
+    await press(page, 'Complete session');
+    await page.getByText('Session completed').waitFor();
+    await allStored(page);
+
+    const session = await sessionOf(id);
+    expect(session.status).toBe('completed');
+    const record = session.record!;
+    console.log(`CXL record: soak ${record.soakDurationS} s, thickness before UV ${record.thicknessBeforeUvUm} µm, UV ${record.uvOnS} s, ${record.deliveredFluenceJPerCm2} J/cm²`);
+    expect(session.events.filter((e) => e.type === 'drop-given')).toHaveLength(15 + 3 + 5);
+    expect(record.thicknessBeforeUvUm).toBe(412);
+    // 3 mW/cm² × 1800 s = 5.4 J/cm² (Wollensak G, Spoerl E, Seiler T, Am J Ophthalmol 2003), to the tap's fraction of a second.
+    expect(Math.abs(Number(record.deliveredFluenceJPerCm2) - 5.4)).toBeLessThan(0.01);
+    expect(session.deviations).toEqual([]);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it('(c) a reload in the middle of the light step comes back at the right second, paused or running', async () => {
+    const { id } = await preparedPdtOrder();
+    // Taps from earlier: infusion 0–600 s, the wait since; the light is due in 3 s.
+    await seedEvents(id, [
+      [960, { type: 'session-started', checks: allChecks }],
+      [959, { type: 'step-started', stepId: 'confirm-patient' }],
+      [958, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [897, { type: 'step-started', stepId: 'infusion' }],
+      [297, { type: 'step-ended', stepId: 'infusion' }],
+      [297, { type: 'step-started', stepId: 'wait-for-light' }],
+    ]);
+    const { page, problems } = await nursePage(id);
+    await page.getByRole('timer', { name: 'Time until the light starts' }).waitFor();
+    await advance(page, 3_000);
+    await press(page, 'Start laser');
+    await allStored(page);
+    const lightStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'laser');
+    const left = (ms: number) => 83 - (ms - lightStartMs) / 1000;
+
+    await advanceTo(page, lightStartMs + 30_400);
+    const beforeReload = await readClock(page, 'Time left for the laser', left, 'light before reload');
+    await page.reload();
+    // Read as soon as the clock is back: no settling, the first frame must be right.
+    const afterReload = await readClock(page, 'Time left for the laser', left, 'light straight after reload', 0);
+    console.log(`reload at the light step: ${beforeReload.shownS} s shown before, ${afterReload.shownS} s shown after (true ${afterReload.trueS.toFixed(2)} s)`);
+    expect(Math.abs(afterReload.errorS)).toBeLessThan(1.1);
+    expect(Math.abs(afterReload.shownS - shownAtResolution(afterReload.trueS))).toBeLessThanOrEqual(1);
+
+    // Paused, the light's time stands still, also over a reload.
+    await advance(page, 5_000);
+    await page.getByRole('button', { name: 'Pause laser' }).click();
+    await allStored(page);
+    const pausedLeft = left(eventTimeMs(await sessionOf(id), 'paused', 'laser'));
+    await advance(page, 20_000);
+    await page.reload();
+    const paused = await readClock(page, 'Time left for the laser', () => pausedLeft, 'light paused after reload', 0);
+    expect(Math.abs(paused.errorS)).toBeLessThan(1.1);
+    await page.getByText('Paused', { exact: true }).waitFor();
+    await page.getByRole('button', { name: 'Resume laser' }).click();
+    await allStored(page);
+    const resumedMs = eventTimeMs(await sessionOf(id), 'resumed', 'laser');
+    await advance(page, 10_000);
+    const resumed = await readClock(page, 'Time left for the laser', (ms) => pausedLeft - (ms - resumedMs) / 1000, 'light after resume');
+    expect(Math.abs(resumed.errorS)).toBeLessThan(1.1);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it('(d) offline, taps queue with the Unsent marker and count on the clock; back online, every one is stored once', async () => {
+    const { id } = await readyCxlOrder('cxl-accelerated');
+    const { page, problems } = await nursePage(id);
+    await confirmChecksAndStart(page, 'left');
+    await allStored(page);
+    const storedBefore = (await sessionOf(id)).events.length;
+
+    await page.context().setOffline(true);
+    await press(page, 'Start preparation');
+    await press(page, 'Start soak');
+    await advance(page, 30_000);
+    await page.getByRole('button', { name: 'Drop given' }).click();
+    await advance(page, 90_000);
+    await page.getByRole('button', { name: 'Drop given' }).click();
+    // Preparation start (1), its end and the soak's start (2), two drops (2).
+    await page.getByText('Unsent: 5').waitFor();
+    const queuedKeys = await page.evaluate((orderId) => (JSON.parse(localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`) ?? '[]') as { idempotencyKey: string }[]).map((e) => e.idempotencyKey), id);
+    expect(queuedKeys).toHaveLength(5);
+    // The clock runs on the queued taps: the 30-min soak (common practice; protocol file) started two minutes ago.
+    const soak = await page.getByRole('timer', { name: 'Time left for the soak' }).textContent();
+    expect(parseClock(soak ?? '')).toBeGreaterThanOrEqual(1800 - 121);
+    expect(parseClock(soak ?? '')).toBeLessThanOrEqual(1800 - 119);
+    expect((await sessionOf(id)).events).toHaveLength(storedBefore);
+
+    await page.context().setOffline(false);
+    await allStored(page);
+    const after = await sessionOf(id);
+    expect(after.events).toHaveLength(storedBefore + 5);
+    const storedKeys = new Set(after.events.map((e) => e.idempotencyKey));
+    expect(queuedKeys.every((key) => storedKeys.has(key))).toBe(true);
+    expect(await page.evaluate((orderId) => localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`), id)).toBeNull();
+
+    // The queue waits for the browser's 'online' event instead of knocking: not even a refused request is logged.
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it('(e) the clock stays within a second of the true schedule at every reading', async () => {
+    const { id } = await preparedPdtOrder();
+    await seedEvents(id, [
+      [61, { type: 'session-started', checks: allChecks }],
+      [60.5, { type: 'step-started', stepId: 'confirm-patient' }],
+      [60.2, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [37.25, { type: 'step-started', stepId: 'infusion' }],
+    ]);
+    const infusionStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'infusion');
+    const { page, problems } = await nursePage(id);
+    const own: ClockSample[] = [];
+    // Jumps of odd lengths, so readings fall anywhere inside a second.
+    for (const jumpMs of [0, 13_137, 41_503, 77_777, 120_019, 2_345, 999, 180_511]) {
+      await advance(page, jumpMs);
+      own.push(await readClock(page, 'Time left for the infusion', (ms) => 600 - (ms - infusionStartMs) / 1000, `infusion +${jumpMs} ms`));
+    }
+    await advanceTo(page, infusionStartMs + 600_000);
+    await press(page, 'End infusion');
+    await press(page, 'Start wait');
+    for (const jumpMs of [1_111, 33_333, 97_501]) {
+      await advance(page, jumpMs);
+      own.push(await readClock(page, 'Time until the light starts', (ms) => 900 - (ms - infusionStartMs) / 1000, `wait +${jumpMs} ms`));
+    }
+    const worstS = Math.max(...own.map((s) => Math.abs(s.errorS)));
+    const worstSteps = Math.max(...own.map((s) => Math.abs(s.shownS - shownAtResolution(s.trueS))));
+    console.log(
+      `clock error over ${own.length} readings: largest ${worstS.toFixed(3)} s; at display resolution (whole seconds, rounded up) off by at most ${worstSteps} s\n` +
+        own.map((s) => `  ${s.label}: shown ${s.shownS} s, true ${s.trueS.toFixed(3)} s, error ${s.errorS.toFixed(3)} s`).join('\n'),
+    );
+    // At display resolution (whole seconds) the clock is never more than one step off the truth.
+    expect(worstSteps).toBeLessThanOrEqual(1);
+    // In seconds: below one display step, plus at most a tenth of a second for the redraw at the step.
+    expect(worstS).toBeLessThan(1.1);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it('extravasation stops the infusion and shows its cautions; a stop needs a reason', async () => {
+    const { id } = await preparedPdtOrder();
+    await seedEvents(id, [
+      [200, { type: 'session-started', checks: allChecks }],
+      [199, { type: 'step-started', stepId: 'confirm-patient' }],
+      [198, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [120, { type: 'step-started', stepId: 'infusion' }],
+    ]);
+    const { page, problems } = await nursePage(id);
+    await page.getByRole('timer', { name: 'Time left for the infusion' }).waitFor();
+    await page.getByRole('button', { name: 'Extravasation…' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Extravasation' });
+    expect(await dialog.innerText()).toMatch(/Stop the infusion now\.\s*Apply a cool compress\.\s*Protect the area from light\./);
+    expect(await accessibilityViolations(page)).toEqual([]);
+    await dialog.getByLabel('Note (optional)').fill('Swelling at the cannula site, left forearm.');
+    await dialog.getByRole('button', { name: 'Record extravasation' }).click();
+    await page.getByText(/Extravasation recorded at \d\d:\d\d:\d\d/).waitFor();
+    await allStored(page);
+    const session = await sessionOf(id);
+    expect(session.deviations.map((d) => d.type)).toContain('extravasation');
+    // The infusion ended with the extravasation: the next step is offered.
+    await page.getByRole('button', { name: 'Start wait' }).waitFor();
+
+    await page.getByRole('button', { name: 'Stop session…' }).click();
+    const stop = page.getByRole('dialog', { name: 'Stop the session' });
+    await stop.getByRole('button', { name: 'Stop session' }).click();
+    await stop.getByText(/Give a reason of 5 to 500 characters/).waitFor();
+    await stop.getByLabel('Why is the session stopped?').fill('Extravasation; consultant stops the treatment.');
+    await stop.getByRole('button', { name: 'Stop session' }).click();
+    await page.getByText('Session stopped').waitFor();
+    await allStored(page);
+    const stopped = await sessionOf(id);
+    expect(stopped.status).toBe('stopped');
+    expect(stopped.deviations.map((d) => d.type)).toEqual(expect.arrayContaining(['extravasation', 'stopped-early']));
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+});
