@@ -83,7 +83,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
   const sessionRows = createSessionRepository(dataSource);
   const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now });
-  const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitTimeZone });
+  const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitPhone: config.UNIT_PHONE, unitTimeZone });
 
   const routes: RouteSpec[] = [
     ...healthRoutes(dataSource),

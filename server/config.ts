@@ -22,6 +22,8 @@ const envSchema = z.object({
   SMTP_PORT: port.default(1025),
   MAIL_FROM: z.string().min(3).default('Luxtempo <luxtempo@demo.luxtempo.example>'),
   UNIT_NAME: z.string().min(1).default('Marram Point Eye Unit'),
+  /** The number patients call with a concern after treatment; printed on the discharge sheet. */
+  UNIT_PHONE: z.string().min(3).max(40).default('+351 200 000 000 (demo number, not in service)'),
   UNIT_TIME_ZONE: z
     .string()
     .refine((zone) => {

@@ -6,6 +6,11 @@ import { loadShippedProtocols } from '../protocols/load-shipped';
 import { localEnvironment, testDatabase as defaultTestDatabase } from './environment';
 import { ensureDatabaseServer, type DatabaseServer } from './mariadb';
 
+/** The browser tests' database, beside the API tests' one. */
+export function browserTestDatabase(testDatabase: string): string {
+  return `${testDatabase}_e2e`;
+}
+
 /**
  * What every API and browser test needs: the private MariaDB, and the test database emptied and
  * migrated afresh, so a run never depends on what an earlier run left behind.
@@ -18,22 +23,28 @@ export async function prepareTestEnvironment(): Promise<{ config: Config; databa
   // Mail from tests goes to a port of its own (nothing listens there unless a test starts a catcher).
   Object.assign(process.env, env, { NODE_ENV: 'test', DEMO_DATA: 'false', SMTP_PORT: '1126' });
   const config = loadConfig(process.env);
+  // The API tests and the browser tests each get a database: API tests leave many records behind
+  // that a browser test, reading lists as a person would, should not have to wade through.
+  const databases = [testDatabase, browserTestDatabase(testDatabase)];
   const database = await ensureDatabaseServer({
     port: config.DB_PORT,
-    databases: [testDatabase],
+    databases,
     ownerUser: config.DB_OWNER_USER,
     ownerPassword: config.DB_OWNER_PASSWORD,
     appUser: config.DB_USER,
     appPassword: config.DB_PASSWORD,
   });
-  const owner = await mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD });
-  await owner.query(`DROP DATABASE IF EXISTS \`${testDatabase}\``);
-  await owner.query(`CREATE DATABASE \`${testDatabase}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
-  await owner.end();
-  await migrateDatabase(config);
-  const app = appDataSource(config);
-  await app.initialize();
-  await loadShippedProtocols(app).finally(() => app.destroy());
+  for (const name of databases) {
+    const owner = await mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD });
+    await owner.query(`DROP DATABASE IF EXISTS \`${name}\``);
+    await owner.query(`CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+    await owner.end();
+    const named = { ...config, DB_NAME: name };
+    await migrateDatabase(named);
+    const app = appDataSource(named);
+    await app.initialize();
+    await loadShippedProtocols(app).finally(() => app.destroy());
+  }
   process.env.LUXTEMPO_TEST_PREPARED = '1';
   return { config, database };
 }

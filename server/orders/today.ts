@@ -23,7 +23,8 @@ export async function todayLists(orders: OrderRepository, actor: Actor): Promise
     lists.push({ id: 'pharmacist-prepared', title: 'Prepared, with beyond-use time', orders: summaries(await orders.listByStatus(['prepared'])) });
   }
   if (actor.roles.includes('nurse')) {
-    lists.push({ id: 'nurse-ready', title: 'Ready for treatment', orders: summaries(await orders.listByStatus(['prepared', 'ready'])) });
+    // A running session stays on the list, so a nurse coming back to the tablet finds it.
+    lists.push({ id: 'nurse-ready', title: 'Ready for treatment or running', orders: summaries(await orders.listByStatus(['in-session', 'prepared', 'ready'])) });
   }
   return lists;
 }

@@ -8,7 +8,7 @@ import type { OrderRepository } from '../orders/repository';
 import type { Actor } from '../orders/service';
 import type { SessionRepository } from './repository';
 
-export function createDischargeService(deps: { dataSource: DataSource; orders: OrderRepository; sessions: SessionRepository; audit: AuditRepository; unitName: string; unitTimeZone: string }) {
+export function createDischargeService(deps: { dataSource: DataSource; orders: OrderRepository; sessions: SessionRepository; audit: AuditRepository; unitName: string; unitPhone: string; unitTimeZone: string }) {
   const { orders, sessions } = deps;
 
   async function sheet(orderId: number) {
@@ -27,6 +27,7 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
         : null;
     return {
       unitName: deps.unitName,
+      unitPhone: deps.unitPhone,
       unitTimeZone: zone,
       order: { id: order.id, revision: order.revision, eye: order.eye, status: order.status },
       patient: { recordNumber: order.patient.recordNumber, givenName: order.patient.givenName, familyName: order.patient.familyName, dateOfBirth: order.patient.dateOfBirth, emailConsent: order.patient.emailConsent, hasEmail: !!order.patient.email },
@@ -62,7 +63,7 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
           'Wear the protective clothing and dark glasses you were given. Normal indoor light is good for you: do not sit in the dark.',
         );
       }
-      lines.push('', 'If your eye becomes painful, your vision gets worse, or you have any concern, call the eye unit.', '', `${data.unitName}`);
+      lines.push('', `If your eye becomes painful, your vision gets worse, or you have any concern, call the eye unit on ${data.unitPhone}.`, '', `${data.unitName}`);
       await deps.dataSource.transaction((manager) =>
         enqueueMessage(manager, {
           kind: 'discharge-advice',

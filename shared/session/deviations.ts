@@ -230,7 +230,8 @@ function judgeCxl(protocol: ProtocolVersion, cxl: NonNullable<ProtocolVersion['c
   if (tolerances.soakShortfallMin !== null && (soakFinished || uvWithoutSoak)) {
     const actualS = record.soakDurationS ?? 0;
     const shortestS = (cxl.soakMin - tolerances.soakShortfallMin) * 60;
-    if (actualS < shortestS - slack) {
+    // Judged to the whole second, as the clock shows it: a tap a few ms early is not a short soak.
+    if (Math.round(actualS) < shortestS) {
       add({
         type: 'soak-short',
         severity: 'major',

@@ -132,7 +132,7 @@ describe('the pharmacist checks a PDT dose blind, prepares it, and the nurse see
     // The nurse finds the order ready on Today.
     const nurse = await signedInPage('nurse@demo.luxtempo.example');
     const ready = nurse.page.getByRole('region', { name: /Ready for treatment/ });
-    await ready.getByRole('link', { name: new RegExp(patient.familyName) }).waitFor();
+    await ready.getByRole('link', { name: new RegExp(`^${patient.familyName}`) }).waitFor();
     const row = await ready.getByRole('listitem').filter({ hasText: patient.familyName }).innerText();
     expect(row).toContain(patient.recordNumber);
     expect(row).toContain('Left eye');

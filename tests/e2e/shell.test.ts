@@ -16,7 +16,7 @@ const expectedNavigation: Record<string, string[]> = {
   clinician: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
   nurse: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
   pharmacist: ['Today', 'Dose checks', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
-  auditor: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
+  auditor: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator', 'Deviations', 'Dose records', 'Trends', 'Audit trail'],
   admin: ['Today', 'Patients', 'Protocols', 'Light calculator', 'People', 'Outbox'],
   'charge-nurse': ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator', 'People', 'Outbox'],
 };

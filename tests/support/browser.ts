@@ -4,6 +4,7 @@ import { chromium, type Browser, type Page } from 'playwright-core';
 import { seedDemoData } from '../../server/demo/seed';
 import { startWebServer, stopWebServer, type RunningWebServer } from '../../server/index';
 import { clientDistDir } from '../../server/ops/paths';
+import { browserTestDatabase } from '../../server/ops/test-environment';
 import { testConfig } from './api';
 
 export interface BrowserContext {
@@ -18,7 +19,8 @@ export interface BrowserContext {
 /** The built client and the API on a free loopback port, with the demo people, and Debian's Chromium. */
 export async function startBrowserTest(): Promise<BrowserContext> {
   const serverClock = { offsetMs: 0 };
-  const server = await startWebServer({ config: testConfig(), clientDir: clientDistDir, port: 0, now: () => Date.now() + serverClock.offsetMs });
+  const config = testConfig({ DB_NAME: browserTestDatabase(process.env.DB_NAME!) });
+  const server = await startWebServer({ config, clientDir: clientDistDir, port: 0, now: () => Date.now() + serverClock.offsetMs });
   await seedDemoData(server.dataSource);
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',

@@ -35,6 +35,7 @@ export type GivenTreatment = z.infer<typeof givenSchema>;
 
 export const dischargeSchema = z.object({
   unitName: z.string(),
+  unitPhone: z.string(),
   unitTimeZone: z.string(),
   order: z.object({ id: z.number().int(), revision: z.number().int(), eye: z.enum(eyes), status: z.enum(orderStatuses) }),
   patient: z.object({

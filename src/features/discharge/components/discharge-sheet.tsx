@@ -93,13 +93,10 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
             <p className="text-paper-900">
               Call {unitName}. In an emergency outside our opening hours, go to your nearest emergency department and take this sheet with you.
             </p>
-            {/* The unit's numbers are not held in Luxtempo yet: the nurse writes them in. */}
             <dl className="grid gap-x-6 gap-y-3 pt-1 sm:grid-cols-2 print:grid-cols-2">
               <div>
                 <dt className="text-sm text-paper-700">Unit telephone</dt>
-                <dd className="mt-5 border-b border-paper-600">
-                  <span className="sr-only">Left blank, to be written in by hand</span>
-                </dd>
+                <dd className="mt-1 text-lg font-semibold text-paper-950">{discharge.unitPhone}</dd>
               </div>
               <div>
                 <dt className="text-sm text-paper-700">Your next appointment</dt>
