@@ -27,7 +27,16 @@ export async function buildClient(): Promise<'built' | 'up to date'> {
   const wanted = fingerprint();
   if (existsSync(stamp) && readFileSync(stamp, 'utf8') === wanted) return 'up to date';
   const { build } = await import('vite');
-  await build({ root: repoRoot, configFile: path.join(repoRoot, 'vite.config.ts'), logLevel: 'warn' });
+  // Always the production build, even from the test runner (which sets NODE_ENV=test and would
+  // otherwise get React's larger development build).
+  const nodeEnv = process.env.NODE_ENV;
+  process.env.NODE_ENV = 'production';
+  try {
+    await build({ root: repoRoot, configFile: path.join(repoRoot, 'vite.config.ts'), logLevel: 'warn', mode: 'production' });
+  } finally {
+    if (nodeEnv === undefined) delete process.env.NODE_ENV;
+    else process.env.NODE_ENV = nodeEnv;
+  }
   writeFileSync(stamp, wanted);
   return 'built';
 }

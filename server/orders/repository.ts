@@ -20,6 +20,29 @@ export function createOrderRepository(dataSource: DataSource) {
     findById: (id: number, manager?: EntityManager) =>
       (manager?.getRepository(TreatmentOrder) ?? orders).findOne({ where: { id }, relations: withParts }),
 
+    /**
+     * What a session event needs of its order, read and locked in one statement: events of one
+     * order are handled one at a time, and the definition comes from the protocol cache.
+     */
+    async lockForSession(manager: EntityManager, id: number) {
+      const [row] = await manager.query(
+        'SELECT o.id, o.status, o.eye, o.protocol_version_id AS protocolVersionId, o.plan, o.checklist, pv.protocol_key AS protocolKey, pv.version AS protocolVersion FROM treatment_order o JOIN protocol_version pv ON pv.id = o.protocol_version_id WHERE o.id = ? FOR UPDATE',
+        [id],
+      );
+      if (!row) return null;
+      const parse = <T>(v: unknown): T => (typeof v === 'string' ? JSON.parse(v) : v) as T;
+      return {
+        id: Number(row.id),
+        status: row.status as OrderStatus,
+        eye: row.eye as 'right' | 'left',
+        protocolVersionId: Number(row.protocolVersionId),
+        protocolKey: String(row.protocolKey),
+        protocolVersion: Number(row.protocolVersion),
+        plan: parse<TreatmentOrder['plan']>(row.plan),
+        checklist: parse<TreatmentOrder['checklist']>(row.checklist),
+      };
+    },
+
     /** Locks the order row for the rest of the transaction: status changes never race. */
     lockById: (manager: EntityManager, id: number) =>
       manager.getRepository(TreatmentOrder).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } }),
@@ -76,7 +99,8 @@ export function createOrderRepository(dataSource: DataSource) {
 
     addDoseCheck: (manager: EntityManager, check: Omit<DoseCheck, 'id' | 'createdAt' | 'order' | 'pharmacist'>) => manager.getRepository(DoseCheck).save(manager.getRepository(DoseCheck).create(check)),
 
-    preparationFor: (orderId: number) => dataSource.getRepository(Preparation).findOne({ where: { orderId }, relations: { pharmacist: true } }),
+    preparationFor: (orderId: number, manager?: EntityManager) =>
+      (manager?.getRepository(Preparation) ?? dataSource.getRepository(Preparation)).findOne({ where: { orderId }, relations: { pharmacist: true } }),
 
     addPreparation: (manager: EntityManager, preparation: Omit<Preparation, 'id' | 'createdAt' | 'order' | 'pharmacist'>) =>
       manager.getRepository(Preparation).save(manager.getRepository(Preparation).create(preparation)),

@@ -8,7 +8,7 @@ import type { DosePlan } from '../../shared/schemas/calculation';
 import type { AmendOrder, OrderDetail, OrderDraft, OrderListQuery, OrderStatus, OrderSummary } from '../../shared/schemas/orders';
 import type { Role } from '../../shared/roles';
 import type { AuditRepository } from '../audit/repository';
-import type { ProtocolVersion } from '../db/entities/protocol-version';
+import type { ProtocolForUse } from '../protocols/repository';
 import type { TreatmentOrder } from '../db/entities/treatment-order';
 import type { User } from '../db/entities/user';
 import { AppError } from '../http/app-error';
@@ -64,7 +64,7 @@ export function createOrderService(deps: {
 }) {
   const { dataSource, orders, patients, users, protocols, audit } = deps;
 
-  function plan(row: ProtocolVersion, inputs: OrderDraft['inputs']): DosePlan {
+  function plan(row: ProtocolForUse, inputs: OrderDraft['inputs']): DosePlan {
     try {
       return computePlan(row.definition, inputs);
     } catch (error) {
@@ -73,7 +73,7 @@ export function createOrderService(deps: {
     }
   }
 
-  async function approvedProtocol(key: string, version?: number): Promise<ProtocolVersion> {
+  async function approvedProtocol(key: string, version?: number): Promise<ProtocolForUse> {
     const row = await protocols.resolveForUse(key, version);
     if (row.status !== 'approved') {
       throw AppError.conflict('protocol_not_approved', `Protocol ${key} version ${row.version} is ${row.status}; orders use approved versions only.`);
@@ -84,7 +84,7 @@ export function createOrderService(deps: {
   /** Days since the last treatment of this kind on this eye, if inside the protocol's minimum interval. */
   async function recentTreatmentDays(
     order: { patientId: number; eye: 'right' | 'left'; id?: number; previousRevisionId?: number | null },
-    row: ProtocolVersion,
+    row: ProtocolForUse,
   ): Promise<number | null> {
     const minDays = row.definition.retreatmentMinDays;
     if (!minDays) return null;
@@ -178,17 +178,18 @@ export function createOrderService(deps: {
         note: input.note ?? null,
         createdById: base.createdById ?? actor.id,
       });
-      await audit.append({
-        actorUserId: actor.id,
-        action,
-        entityType: 'order',
-        entityId: saved.id,
-        ipAddress: actor.ipAddress,
-        details: { protocol: `${row.key} v${row.version}`, eye: input.eye, patientId: input.patientId, revision: saved.revision },
-      });
-      return saved.id;
+      return saved;
     };
-    return manager ? save(manager) : dataSource.transaction(save);
+    const saved = await (manager ? save(manager) : dataSource.transaction(save));
+    await audit.append({
+      actorUserId: actor.id,
+      action,
+      entityType: 'order',
+      entityId: saved.id,
+      ipAddress: actor.ipAddress,
+      details: { protocol: `${row.key} v${row.version}`, eye: input.eye, patientId: input.patientId, revision: saved.revision },
+    });
+    return saved.id;
   }
 
   return {
@@ -245,6 +246,8 @@ export function createOrderService(deps: {
       if (problems.length > 0) throw AppError.badRequest(`The order cannot be signed yet: ${problems.map((p) => p.message).join('; ')}`, problems);
 
       const status: OrderStatus = row.definition.drug ? 'signed' : 'ready';
+      // Read before the transaction, which must not wait for a second pooled connection.
+      const pharmacists = status === 'signed' ? (await users.list()).filter((u) => u.active && u.roles.includes('pharmacist') && u.id !== actor.id) : [];
       await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
         if (locked?.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
@@ -252,7 +255,6 @@ export function createOrderService(deps: {
         if (order.previousRevisionId) await orders.update(manager, order.previousRevisionId, { status: 'superseded' });
         await addParticipant(manager, id, actor.id, 'ordered');
         if (status === 'signed') {
-          const pharmacists = (await users.list()).filter((u) => u.active && u.roles.includes('pharmacist') && u.id !== actor.id);
           await enqueueMessage(manager, {
             kind: 'order-signed',
             recipients: pharmacists.map((u) => u.email),

@@ -6,6 +6,12 @@ export function createUserRepository(dataSource: DataSource) {
   const repo = dataSource.getRepository(User);
   return {
     findById: (id: number) => repo.findOneBy({ id }),
+    /** What every authenticated request reads: one plain indexed row, without entity machinery. */
+    async findSessionUser(id: number): Promise<Pick<User, 'id' | 'email' | 'displayName' | 'roles' | 'active'> | null> {
+      const [row] = await dataSource.query('SELECT id, email, display_name AS displayName, roles, active FROM user WHERE id = ?', [id]);
+      if (!row) return null;
+      return { id: row.id, email: row.email, displayName: row.displayName, roles: row.roles ? String(row.roles).split(',') as Role[] : [], active: Boolean(row.active) };
+    },
     findByEmail: (email: string) => repo.findOneBy({ email: email.trim().toLowerCase() }),
     list: () => repo.find({ order: { displayName: 'ASC' } }),
     async create(person: { email: string; displayName: string; roles: Role[]; passwordHash: string }): Promise<User> {

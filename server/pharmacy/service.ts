@@ -54,6 +54,8 @@ export function createPharmacyService(deps: {
       const differing = comparisons.filter((c) => c.planned == null || !withinPct(c.entered, c.planned, c.pct)).map((c) => c.field);
       const outcome = differing.length === 0 ? 'match' : 'mismatch';
 
+      // Read before the transaction, which must not wait for a second pooled connection.
+      const clinician = order.signedById ? await users.findById(order.signedById) : null;
       const result = await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
         if (locked?.status !== 'signed') throw AppError.conflict('not_waiting_for_check', `Order ${id} is ${locked?.status ?? 'gone'}, not waiting for a dose check.`);
@@ -67,7 +69,6 @@ export function createPharmacyService(deps: {
         if (refusals < refusalsBeforeReturn) return { returned: false, refusals };
         const comment = entry.comment?.trim() || `The dose check was refused ${refusals} times (figures differing: ${differing.join(', ')}).`;
         await orders.update(manager, id, { status: 'returned', returnComment: comment });
-        const clinician = order.signedById ? await users.findById(order.signedById) : null;
         await enqueueMessage(manager, {
           kind: 'order-returned',
           recipients: clinician?.active ? [clinician.email] : [],

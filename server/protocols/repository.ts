@@ -2,10 +2,52 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { ProtocolApproval } from '../db/entities/protocol-approval';
 import { ProtocolVersion } from '../db/entities/protocol-version';
 
+/** The parts of a version that ordering and calculating need. */
+export type ProtocolForUse = Pick<ProtocolVersion, 'id' | 'key' | 'version' | 'kind' | 'title' | 'status' | 'sha256' | 'definition'>;
+
+/**
+ * Definitions by id and SHA-256. An approved definition never changes (the database refuses it),
+ * and a draft's edit changes its SHA-256, so an entry is right for as long as its hash matches.
+ */
+const definitionCache = new Map<number, { sha256: string; definition: ProtocolVersion['definition'] }>();
+
+/**
+ * The definition of a version an order points at. Orders only ever use approved versions, and
+ * an approved definition never changes (the database refuses it), so it is read once per process.
+ */
+export async function orderedDefinition(manager: EntityManager, protocolVersionId: number): Promise<ProtocolVersion['definition']> {
+  const cached = definitionCache.get(protocolVersionId);
+  if (cached) return cached.definition;
+  const [stored] = await manager.query('SELECT definition, sha256, status FROM protocol_version WHERE id = ?', [protocolVersionId]);
+  const definition = typeof stored.definition === 'string' ? JSON.parse(stored.definition) : stored.definition;
+  if (stored.status !== 'draft') definitionCache.set(protocolVersionId, { sha256: stored.sha256, definition });
+  return definition;
+}
+
 export function createProtocolRepository(dataSource: DataSource) {
   const versions = dataSource.getRepository(ProtocolVersion);
   const approvals = dataSource.getRepository(ProtocolApproval);
   return {
+    /**
+     * The version named (or the newest approved one): a small indexed read per call, with the
+     * definition itself from memory — the calculation route's hot path.
+     */
+    async findForUse(key: string, version?: number): Promise<ProtocolForUse | null> {
+      const rows: { id: number; version: number; kind: 'pdt' | 'cxl'; title: string; status: ProtocolVersion['status']; sha256: string }[] =
+        version === undefined
+          ? await dataSource.query("SELECT id, version, kind, title, status, sha256 FROM protocol_version WHERE protocol_key = ? AND status = 'approved' ORDER BY version DESC LIMIT 1", [key])
+          : await dataSource.query('SELECT id, version, kind, title, status, sha256 FROM protocol_version WHERE protocol_key = ? AND version = ?', [key, version]);
+      const row = rows[0];
+      if (!row) return null;
+      let cached = definitionCache.get(row.id);
+      if (cached?.sha256 !== row.sha256) {
+        const [stored] = await dataSource.query('SELECT definition, sha256 FROM protocol_version WHERE id = ?', [row.id]);
+        const definition = typeof stored.definition === 'string' ? JSON.parse(stored.definition) : stored.definition;
+        cached = { sha256: stored.sha256, definition };
+        definitionCache.set(row.id, cached);
+      }
+      return { ...row, key, definition: cached.definition };
+    },
     listAll: () => versions.find({ order: { key: 'ASC', version: 'ASC' }, relations: { approvals: { user: true } } }),
     find: (key: string, version: number) => versions.findOne({ where: { key, version }, relations: { approvals: { user: true } } }),
     /** The newest approved (not retired) version of a protocol, if any. */

@@ -8,7 +8,7 @@ import type { AuditRepository } from '../audit/repository';
 import type { ProtocolVersion } from '../db/entities/protocol-version';
 import { AppError } from '../http/app-error';
 import { fieldProblemsFromZod } from '../http/validation';
-import type { ProtocolRepository } from './repository';
+import type { ProtocolForUse, ProtocolRepository } from './repository';
 
 export function definitionSha256(definition: ProtocolDefinition): string {
   return createHash('sha256').update(canonicalJson(definition)).digest('hex');
@@ -143,11 +143,10 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
     },
 
     /** The version an order or calculation uses: the one named, or the newest approved. */
-    async resolveForUse(key: string, version?: number): Promise<ProtocolVersion> {
-      if (version !== undefined) return mustFind(key, version);
-      const latest = await repo.latestApproved(key);
-      if (!latest) throw AppError.notFound(`There is no approved version of protocol ${key}.`);
-      return latest;
+    async resolveForUse(key: string, version?: number): Promise<ProtocolForUse> {
+      const row = await repo.findForUse(key, version);
+      if (row) return row;
+      throw AppError.notFound(version === undefined ? `There is no approved version of protocol ${key}.` : `There is no protocol ${key} version ${version}.`);
     },
 
     async importVersion(actor: Actor, json: unknown, fileName: string) {
@@ -233,7 +232,7 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
       const found = await mustFind(key, version);
       const approvedAs = approvingRoles.find((role) => actor.roles.includes(role));
       if (!approvedAs) throw AppError.forbidden('Only a clinician or a pharmacist can approve a protocol version.');
-      await repo.withLockedVersion(found.id, async (manager, row) => {
+      const outcome = await repo.withLockedVersion(found.id, async (manager, row) => {
         if (row.status !== 'draft') throw AppError.conflict('not_a_draft', `Protocol ${key} version ${version} is already ${row.status}.`);
         const current = (await repo.approvalsOf(manager, row.id)).filter((a) => a.definitionSha256 === row.sha256);
         if (current.some((a) => a.userId === actor.id)) {
@@ -242,14 +241,16 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
         await repo.addApproval(manager, { protocolVersionId: row.id, userId: actor.id, approvedAs, definitionSha256: row.sha256 });
         const becomesApproved = current.length + 1 >= approvalsNeeded;
         if (becomesApproved) await repo.setStatus(manager, row.id, { status: 'approved', approvedAt: new Date() });
-        await audit.append({
-          actorUserId: actor.id,
-          action: becomesApproved ? 'protocol.approved' : 'protocol.approval-given',
-          entityType: 'protocol_version',
-          entityId: row.id,
-          ipAddress: actor.ipAddress,
-          details: { key, version, sha256: row.sha256, approvedAs, approvals: current.length + 1 },
-        });
+        return { id: row.id, sha256: row.sha256, becomesApproved, approvals: current.length + 1 };
+      });
+      // Audited after the commit: a transaction must not wait for a second pooled connection.
+      await audit.append({
+        actorUserId: actor.id,
+        action: outcome.becomesApproved ? 'protocol.approved' : 'protocol.approval-given',
+        entityType: 'protocol_version',
+        entityId: outcome.id,
+        ipAddress: actor.ipAddress,
+        details: { key, version, sha256: outcome.sha256, approvedAs, approvals: outcome.approvals },
       });
       return this.get(key, version);
     },
@@ -259,15 +260,8 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
       await repo.withLockedVersion(found.id, async (manager, row) => {
         if (row.status !== 'approved') throw AppError.conflict('not_approved', `Only an approved version can be retired; ${key} version ${version} is ${row.status}.`);
         await repo.setStatus(manager, row.id, { status: 'retired', retiredAt: new Date(), retiredBy: actor.id });
-        await audit.append({
-          actorUserId: actor.id,
-          action: 'protocol.retired',
-          entityType: 'protocol_version',
-          entityId: row.id,
-          ipAddress: actor.ipAddress,
-          details: { key, version, reason },
-        });
       });
+      await audit.append({ actorUserId: actor.id, action: 'protocol.retired', entityType: 'protocol_version', entityId: found.id, ipAddress: actor.ipAddress, details: { key, version, reason } });
       return this.get(key, version);
     },
   };

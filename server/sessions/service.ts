@@ -1,13 +1,14 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { readyForSessionStatuses, type OrderStatus } from '../../shared/schemas/orders';
+import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import { deriveDoseRecord } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
 import type { SessionEventInput } from '../../shared/session/session-events';
 import type { AuditRepository } from '../audit/repository';
-import type { TreatmentOrder } from '../db/entities/treatment-order';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
 import type { OrderRepository } from '../orders/repository';
+import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
 import { addParticipant, type SessionRepository } from './repository';
@@ -26,6 +27,8 @@ const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
 
 const sessionStatuses: OrderStatus[] = ['in-session', 'completed', 'stopped'];
 
+type SessionOrder = NonNullable<Awaited<ReturnType<OrderRepository['lockForSession']>>> & { definition: ProtocolDefinition };
+
 export function createSessionService(deps: {
   dataSource: DataSource;
   orders: OrderRepository;
@@ -38,13 +41,14 @@ export function createSessionService(deps: {
   const { dataSource, orders, sessions, users, audit } = deps;
   const now = deps.now ?? Date.now;
 
-  async function mustFind(orderId: number): Promise<TreatmentOrder> {
-    const order = await orders.findById(orderId);
-    if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
-    return order;
+  /** What the session code needs of an order: its row (locked when in a transaction) and its protocol. */
+  async function sessionOrder(manager: EntityManager, orderId: number): Promise<SessionOrder> {
+    const row = await orders.lockForSession(manager, orderId);
+    if (!row) throw AppError.notFound(`There is no order ${orderId}.`);
+    return { ...row, definition: await orderedDefinition(manager, row.protocolVersionId) };
   }
 
-  function checkEventFits(order: TreatmentOrder, input: SessionEventInput, nowMs: number) {
+  function checkEventFits(order: SessionOrder, input: SessionEventInput, nowMs: number) {
     const at = Date.parse(input.clientTime);
     if (at > nowMs + futureSkewMs) {
       throw AppError.badRequest('The event is timed in the future; check the tablet clock.', [{ path: 'clientTime', message: 'clientTime must not be ahead of the server clock by more than 10 s' }]);
@@ -53,17 +57,18 @@ export function createSessionService(deps: {
       throw AppError.badRequest('The event is too old to belong to this session.', [{ path: 'clientTime', message: 'clientTime must lie within the last 12 hours' }]);
     }
     if ('stepId' in input) {
-      const step = order.protocolVersion.definition.steps.find((s) => s.id === input.stepId);
-      if (!step) throw AppError.badRequest(`Protocol ${order.protocolVersion.key} has no step ${input.stepId}.`, [{ path: 'stepId', message: 'stepId must be a step of the order’s protocol version' }]);
+      const step = order.definition.steps.find((s) => s.id === input.stepId);
+      if (!step) throw AppError.badRequest(`Protocol ${order.protocolKey} has no step ${input.stepId}.`, [{ path: 'stepId', message: 'stepId must be a step of the order’s protocol version' }]);
       const kinds = stepKindsFor[input.type];
       if (kinds && !kinds.includes(step.kind)) {
         throw AppError.badRequest(`A ${input.type} event does not belong to the ${step.kind} step.`, [{ path: 'stepId', message: `stepId must be a ${kinds.join(' or ')} step for ${input.type}` }]);
       }
     }
-    if (input.type === 'extravasation' && order.protocolVersion.kind !== 'pdt') {
+    if (input.type === 'extravasation' && order.definition.kind !== 'pdt') {
       throw AppError.badRequest('Extravasation belongs to an infusion.', [{ path: 'type', message: 'extravasation is recorded in PDT sessions only' }]);
     }
     if (input.type === 'session-started') {
+      if (order.status === 'in-session') throw AppError.conflict('already_started', `The session for order ${order.id} has started already.`);
       if (!readyForSessionStatuses.includes(order.status)) {
         throw AppError.conflict('not_ready', `Order ${order.id} is ${order.status}; a session starts from a prepared (PDT) or ready (CXL) order.`);
       }
@@ -73,28 +78,23 @@ export function createSessionService(deps: {
   }
 
   /** Re-derives the record and deviations from every event, inside the caller's transaction. */
-  async function recompute(manager: EntityManager, order: TreatmentOrder) {
+  async function recompute(manager: EntityManager, order: SessionOrder) {
     const events = await sessions.eventsFor(order.id, manager);
-    const record = deriveDoseRecord({ protocol: order.protocolVersion.definition, plan: order.plan, events, nowMs: now() });
-    const preparation = await orders.preparationFor(order.id);
-    const deviations = findDeviations({
-      protocol: order.protocolVersion.definition,
-      plan: order.plan,
-      record,
-      checklist: order.checklist,
-      preparation: preparation ? { reconstitutedAt: preparation.reconstitutedAt.toISOString(), beyondUseAt: preparation.beyondUseAt.toISOString() } : null,
-    });
-    const added = await sessions.reconcileDeviations(manager, order.id, order.protocolVersionId, deviations);
+    const record = deriveDoseRecord({ protocol: order.definition, plan: order.plan, events, nowMs: now() });
+    const preparation = await sessions.preparationTimes(manager, order.id);
+    const deviations = findDeviations({ protocol: order.definition, plan: order.plan, record, checklist: order.checklist, preparation });
+    const { standing } = await sessions.reconcileDeviations(manager, order.id, order.protocolVersionId, deviations);
     await sessions.saveRecord(manager, order.id, record, { protocolVersionId: order.protocolVersionId, unitTimeZone: deps.unitTimeZone, deviationCount: deviations.length });
-    return { record, deviations, added };
+    return { events, record, deviations: standing };
   }
 
   async function state(orderId: number) {
-    const order = await mustFind(orderId);
+    const [order] = await dataSource.query('SELECT status FROM treatment_order WHERE id = ?', [orderId]);
+    if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
     const [events, stored, deviations] = await Promise.all([sessions.eventsFor(orderId), sessions.recordFor(orderId), sessions.deviationsFor(orderId)]);
     return {
       orderId,
-      status: order.status,
+      status: order.status as OrderStatus,
       events,
       record: stored?.record ?? null,
       deviations: deviations.filter((d) => !d.withdrawnAt).map((d) => ({ id: d.id, type: d.type, severity: d.severity, expected: d.expected, actual: d.actual, unit: d.unit, message: d.message, detectedAt: d.detectedAt.toISOString() })),
@@ -116,41 +116,41 @@ export function createSessionService(deps: {
         if (existing.orderId !== orderId) throw AppError.conflict('key_reused', 'This idempotency key belongs to another order’s event.');
         return { ...(await state(orderId)), replayed: true };
       }
-      const order = await mustFind(orderId);
-      checkEventFits(order, input, now());
+      // Read before the transaction: a transaction must never wait for a second pooled connection,
+      // or a burst of writes can hold every connection and wait on each other for ever.
+      const auditors = input.type === 'session-completed' || input.type === 'session-stopped' ? (await users.list()).filter((u) => u.active && u.roles.includes('auditor')) : [];
 
-      let ended: 'completed' | 'stopped' | null = null;
+      let outcome: { status: OrderStatus; ended: boolean; result: Awaited<ReturnType<typeof recompute>> };
       try {
-        await dataSource.transaction(async (manager) => {
+        outcome = await dataSource.transaction(async (manager) => {
           // One event at a time per order: the derived record always sees a settled list.
-          const locked = await orders.lockById(manager, orderId);
-          if (!locked) throw AppError.notFound(`There is no order ${orderId}.`);
-          if (input.type === 'session-started' && locked.status === 'in-session') throw AppError.conflict('already_started', `The session for order ${orderId} has started already.`);
+          const order = await sessionOrder(manager, orderId);
+          checkEventFits(order, input, now());
           await sessions.insertEvent(manager, orderId, actor.id, input);
           await addParticipant(manager, orderId, actor.id, 'nursed');
-          if (input.type === 'session-started') await orders.update(manager, orderId, { status: 'in-session' });
-          if ((input.type === 'session-completed' || input.type === 'session-stopped') && locked.status === 'in-session') {
-            ended = input.type === 'session-completed' ? 'completed' : 'stopped';
-            await orders.update(manager, orderId, { status: ended });
-          }
-          const { deviations } = await recompute(manager, { ...order, status: locked.status } as TreatmentOrder);
-          if (ended && deviations.length > 0) {
-            const auditors = (await users.list()).filter((u) => u.active && u.roles.includes('auditor'));
+          let status = order.status;
+          if (input.type === 'session-started') status = 'in-session';
+          const ends = (input.type === 'session-completed' || input.type === 'session-stopped') && order.status === 'in-session';
+          if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
+          if (status !== order.status) await orders.update(manager, orderId, { status });
+          const result = await recompute(manager, order);
+          if (ends && result.deviations.length > 0) {
             await enqueueMessage(manager, {
               kind: 'session-deviations',
               recipients: auditors.map((u) => u.email),
-              subject: `Luxtempo: session for order ${orderId} ended with ${deviations.length} deviation${deviations.length === 1 ? '' : 's'}`,
+              subject: `Luxtempo: session for order ${orderId} ended with ${result.deviations.length} deviation${result.deviations.length === 1 ? '' : 's'}`,
               body: [
-                `The ${order.protocolVersion.title} session for order ${orderId} (${order.eye} eye) was ${ended}.`,
+                `The ${order.definition.title} session for order ${orderId} (${order.eye} eye) was ${status}.`,
                 '',
                 'Deviations from protocol:',
-                ...deviations.map((d) => `- [${d.severity}] ${d.message}`),
+                ...result.deviations.map((d) => `- [${d.severity}] ${d.message}`),
                 '',
                 'Open Luxtempo to review them.',
               ].join('\n'),
               related: { type: 'order', id: orderId },
             });
           }
+          return { status, ended: ends, result };
         });
       } catch (error) {
         // Two sends of one key at once: the loser finds the winner's row and answers the same.
@@ -160,7 +160,7 @@ export function createSessionService(deps: {
         }
         throw error;
       }
-      if (input.type === 'session-started' || ended || input.type === 'extravasation' || input.type === 'thickness-override') {
+      if (input.type === 'session-started' || outcome.ended || input.type === 'extravasation' || input.type === 'thickness-override') {
         await audit.append({
           actorUserId: actor.id,
           action: `session.${input.type}`,
@@ -170,13 +170,14 @@ export function createSessionService(deps: {
           details: { idempotencyKey: input.idempotencyKey, clientTime: input.clientTime, ...('reason' in input ? { reason: input.reason } : {}) },
         });
       }
-      return { ...(await state(orderId)), replayed: false };
+      // The answer comes from what the transaction worked out: no second read.
+      return { orderId, status: outcome.status, events: outcome.result.events, record: outcome.result.record, deviations: outcome.result.deviations, serverTime: new Date(now()).toISOString(), replayed: false };
     },
 
     /** After a restart: sessions still running get their record and deviations recomputed. */
     async recomputeRunning(): Promise<number> {
       const running = await orders.listByStatus(['in-session']);
-      for (const order of running) await dataSource.transaction((manager) => recompute(manager, order));
+      for (const { id } of running) await dataSource.transaction(async (manager) => recompute(manager, await sessionOrder(manager, id)));
       return running.length;
     },
   };
