@@ -26,7 +26,9 @@ export function createOrderRepository(dataSource: DataSource) {
      */
     async lockForSession(manager: EntityManager, id: number) {
       const [row] = await manager.query(
-        'SELECT o.id, o.status, o.eye, o.protocol_version_id AS protocolVersionId, o.plan, o.checklist, pv.protocol_key AS protocolKey, pv.version AS protocolVersion FROM treatment_order o JOIN protocol_version pv ON pv.id = o.protocol_version_id WHERE o.id = ? FOR UPDATE',
+        // Only the order's row: a join here would lock the protocol version's row too, and every
+        // session on one protocol would then wait for every other.
+        'SELECT id, status, eye, protocol_version_id AS protocolVersionId, plan, checklist FROM treatment_order WHERE id = ? FOR UPDATE',
         [id],
       );
       if (!row) return null;
@@ -36,8 +38,6 @@ export function createOrderRepository(dataSource: DataSource) {
         status: row.status as OrderStatus,
         eye: row.eye as 'right' | 'left',
         protocolVersionId: Number(row.protocolVersionId),
-        protocolKey: String(row.protocolKey),
-        protocolVersion: Number(row.protocolVersion),
         plan: parse<TreatmentOrder['plan']>(row.plan),
         checklist: parse<TreatmentOrder['checklist']>(row.checklist),
       };

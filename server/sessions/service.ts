@@ -58,7 +58,7 @@ export function createSessionService(deps: {
     }
     if ('stepId' in input) {
       const step = order.definition.steps.find((s) => s.id === input.stepId);
-      if (!step) throw AppError.badRequest(`Protocol ${order.protocolKey} has no step ${input.stepId}.`, [{ path: 'stepId', message: 'stepId must be a step of the order’s protocol version' }]);
+      if (!step) throw AppError.badRequest(`Protocol ${order.definition.key} has no step ${input.stepId}.`, [{ path: 'stepId', message: 'stepId must be a step of the order’s protocol version' }]);
       const kinds = stepKindsFor[input.type];
       if (kinds && !kinds.includes(step.kind)) {
         throw AppError.badRequest(`A ${input.type} event does not belong to the ${step.kind} step.`, [{ path: 'stepId', message: `stepId must be a ${kinds.join(' or ')} step for ${input.type}` }]);
