@@ -69,8 +69,8 @@ describe('the pharmacist checks a PDT dose blind, prepares it, and the nurse see
     await page.getByRole('heading', { level: 1, name: 'Dose checks' }).waitFor();
     await page.getByRole('link', { name: new RegExp(patient.familyName) }).click();
     await page.waitForURL(new RegExp(`/dose-checks/${orderId}$`));
-    await page.getByRole('heading', { name: 'Your figures' }).waitFor();
-    await page.getByRole('heading', { name: 'The protocol’s drug figures' }).waitFor();
+    await page.getByRole('heading', { name: 'Your figures', exact: true }).waitFor();
+    await page.getByRole('heading', { name: 'The protocol’s drug figures', exact: true }).waitFor();
 
     // The measurements and the protocol are there; none of the plan's figures are.
     const blindText = await page.locator('main').innerText();
@@ -101,7 +101,7 @@ describe('the pharmacist checks a PDT dose blind, prepares it, and the nurse see
     // The right figures: the plan appears beside them.
     await dose.fill(right.dose);
     await page.getByRole('button', { name: 'Compare with the plan' }).click();
-    await page.getByRole('heading', { name: 'Dose check: figures agree' }).waitFor();
+    await page.getByRole('heading', { name: 'Dose check: figures agree', exact: true }).waitFor();
     const comparison = page.getByRole('table');
     await expect.poll(() => comparison.innerText()).toContain('10.92 mg');
     const tableText = await comparison.innerText();
@@ -111,7 +111,7 @@ describe('the pharmacist checks a PDT dose blind, prepares it, and the nurse see
     expect(tableText).toContain('24.5 mL');
 
     // Preparation: reconstitution time defaults to now on the unit's clock.
-    await page.getByRole('heading', { name: 'Record the preparation' }).waitFor();
+    await page.getByRole('heading', { name: 'Record the preparation', exact: true }).waitFor();
     expect(await page.getByLabel('Reconstituted at').inputValue()).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d$/);
     await page.getByLabel('Vial lot').fill('E2E-LOT 7');
     await page.getByLabel('Vial expiry').fill(DateTime.now().plus({ months: 6 }).toISODate()!);

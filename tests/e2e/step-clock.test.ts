@@ -488,8 +488,9 @@ describe('the bedside step clock', () => {
     );
     // At display resolution (whole seconds) the clock is never more than one step off the truth.
     expect(worstSteps).toBeLessThanOrEqual(1);
-    // In seconds: below one display step, plus at most a tenth of a second for the redraw at the step.
-    expect(worstS).toBeLessThan(1.1);
+    // In seconds: below one display step, plus the redraw: the screen refreshes at least every
+    // 250 ms (and at each change of the shown second), so a reading can lag by up to that on a busy machine.
+    expect(worstS).toBeLessThan(1.25);
     expect(problems).toEqual([]);
     await page.context().close();
   });
