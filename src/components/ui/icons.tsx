@@ -539,7 +539,7 @@ export function DropletIcon(props: IconProps) {
   );
 }
 
-/** A speaker with sound waves: cues will sound. */
+/** A loudspeaker with sound waves: cues will sound. */
 export function SoundOnIcon(props: IconProps) {
   return (
     <Icon {...props}>
@@ -549,7 +549,7 @@ export function SoundOnIcon(props: IconProps) {
   );
 }
 
-/** A speaker with a cross: cues are silent (the flash still shows). */
+/** A loudspeaker with a cross: cues are silent (the flash still shows). */
 export function SoundOffIcon(props: IconProps) {
   return (
     <Icon {...props}>

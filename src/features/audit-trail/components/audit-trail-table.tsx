@@ -6,7 +6,7 @@ import { paths } from '../../../config/paths';
 import type { AuditEvent } from '../api/audit-event-schemas';
 import { actionLabel, recordTypeLabel, summariseDetails } from './audit-words';
 import { SelectField } from './select-field';
-import { formatUnitClock, formatUnitDate } from './unit-times';
+import { formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
 
 /** A link to the record where a screen for it exists. */
 function recordHref(type: string | null, id: string | null): string | null {

@@ -16,7 +16,7 @@ import { classificationWords, eyeWords, participantPart, typeWords } from './dev
 import { PlanAndGiven, SessionTimes } from './plan-and-given';
 import { CloseDeviationForm, ReopenDeviationForm } from './review-forms';
 import { SessionTimeline } from './session-timeline';
-import { formatFigure, formatUnitDateTime } from './unit-times';
+import { formatFigure, formatUnitDateTime } from '../../../lib/unit-times';
 
 function Section({ id, title, children, className = '' }: { id: string; title: string; children: ReactNode; className?: string }) {
   return (

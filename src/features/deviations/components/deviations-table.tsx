@@ -10,7 +10,7 @@ import type { DeviationListParams } from '../hooks/use-deviation-list-params';
 import { ClassificationLabel, ReviewStatusBadge, SeverityBadge } from './deviation-badges';
 import { eyeWords, typeWords } from './deviation-words';
 import { SelectField } from './select-field';
-import { formatFigure, formatUnitDateTime } from './unit-times';
+import { formatFigure, formatUnitDateTime } from '../../../lib/unit-times';
 
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
 const helper = createColumnHelper<typeof features, DeviationRow>();

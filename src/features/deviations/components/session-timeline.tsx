@@ -1,6 +1,6 @@
 import { unitTimeZoneLabel } from '../../../config/unit-time-zone';
 import type { ProtocolSteps, StoredSessionEvent } from '../api/deviation-schemas';
-import { formatOffset, formatUnitClock, formatUnitDate } from './unit-times';
+import { formatOffset, formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
 
 function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined) => string): string {
   switch (event.type) {

@@ -11,7 +11,7 @@ import type { GivenRecord } from '../api/dose-record-schemas';
 import { doseRecordQueries } from '../api/dose-record-queries';
 import { eyeWords, severityWords, typeWords } from './dose-record-words';
 import { PlanAndGiven } from './plan-and-given';
-import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from './unit-times';
+import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from '../../../lib/unit-times';
 
 function Part({ id, title, children }: { id: string; title: string; children: ReactNode }) {
   return (

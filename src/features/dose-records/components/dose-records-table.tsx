@@ -9,7 +9,7 @@ import type { DoseRecordRow } from '../api/dose-record-schemas';
 import { eyeWords, kindWords } from './dose-record-words';
 import { DeviationCount, OutcomeLabel } from './outcome-label';
 import { SelectField } from './select-field';
-import { formatDurationS, formatFigure, formatUnitClock, formatUnitDate } from './unit-times';
+import { formatDurationS, formatFigure, formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
 
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
 const helper = createColumnHelper<typeof features, DoseRecordRow>();

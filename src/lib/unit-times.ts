@@ -1,5 +1,5 @@
 import { DateTime } from 'luxon';
-import { unitTimeZone } from '../../../config/unit-time-zone';
+import { unitTimeZone } from '../config/unit-time-zone';
 
 /** A stored instant as the unit's wall clock, e.g. "7 Nov 2026, 10:05". */
 export function formatUnitDateTime(iso: string | null | undefined): string {
