@@ -86,7 +86,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitPhone: config.UNIT_PHONE, unitTimeZone });
 
   const routes: RouteSpec[] = [
-    ...healthRoutes(dataSource),
+    ...healthRoutes(dataSource, { name: config.UNIT_NAME, timeZone: config.UNIT_TIME_ZONE, phone: config.UNIT_PHONE }),
     ...authRoutes(createAuthService(users, audit), sessions, loginLimiters(config)),
     ...peopleRoutes(createPeopleService(users, audit)),
     ...protocolRoutes(protocols),

@@ -6,12 +6,25 @@ import './index.css';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './app';
+import { applyServerTimeZone } from './config/unit-time-zone';
 
 const container = document.getElementById('root');
 if (!container) throw new Error('index.html must contain <div id="root">');
 
-createRoot(container).render(
-  <StrictMode>
-    <App />
-  </StrictMode>,
+/** The unit's settings that every screen formats with; a failure leaves the built-in defaults. */
+async function loadUnitSettings(): Promise<void> {
+  try {
+    const res = await fetch('/api/unit', { signal: AbortSignal.timeout(3000) });
+    if (res.ok) applyServerTimeZone(((await res.json()) as { timeZone: string }).timeZone);
+  } catch {
+    // The sign-in page will say so if the server is not answering.
+  }
+}
+
+void loadUnitSettings().then(() =>
+  createRoot(container).render(
+    <StrictMode>
+      <App />
+    </StrictMode>,
+  ),
 );

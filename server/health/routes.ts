@@ -1,8 +1,17 @@
 import type { DataSource } from 'typeorm';
 import type { RouteSpec } from '../http/route-table';
 
-export function healthRoutes(dataSource: DataSource): RouteSpec[] {
+export function healthRoutes(dataSource: DataSource, unit: { name: string; timeZone: string; phone: string }): RouteSpec[] {
   return [
+    {
+      method: 'get',
+      path: '/unit',
+      access: 'public',
+      // The unit's name, time zone and telephone: not secret, and the client needs the zone before sign-in.
+      handler: (_req, res) => {
+        res.json(unit);
+      },
+    },
     {
       method: 'get',
       path: '/health',

@@ -1,9 +1,22 @@
 /**
  * The unit's IANA time zone. The server stores times in UTC; screens show them in this zone, so
  * a time on the screen is the time on the ward clock whatever the device's own setting.
- * It matches the server's UNIT_TIME_ZONE for the demo unit.
+ * The value comes from the server (`GET /api/unit`, its UNIT_TIME_ZONE) before the app renders;
+ * the demo unit's zone stands in until then, or if the server cannot be asked.
  */
-export const unitTimeZone = 'Europe/Lisbon';
+export let unitTimeZone = 'Europe/Lisbon';
 
 /** How the zone is named beside a time on screen, e.g. "09:05 (Lisbon time)". */
-export const unitTimeZoneLabel = 'Lisbon time';
+export let unitTimeZoneLabel = 'Lisbon time';
+
+/** Called once at start-up with the server's setting. */
+export function applyServerTimeZone(zone: string): void {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: zone });
+  } catch {
+    return;
+  }
+  unitTimeZone = zone;
+  const city = zone.split('/').pop()?.replace(/_/g, ' ');
+  unitTimeZoneLabel = city ? `${city} time` : zone;
+}

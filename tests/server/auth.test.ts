@@ -191,6 +191,12 @@ describe('the API as a whole', () => {
     expect(res.body).toMatchObject({ status: 'ok', database: { status: 'up' } });
   });
 
+  it('tells anyone the unit’s name, time zone and telephone, which the client formats times with', async () => {
+    const res = await supertest(ctx.app).get('/api/unit');
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ name: ctx.config.UNIT_NAME, timeZone: ctx.config.UNIT_TIME_ZONE, phone: ctx.config.UNIT_PHONE });
+  });
+
   it('sends security headers, with no upgrade-insecure-requests on plain http', async () => {
     const res = await supertest(ctx.app).get('/api/health');
     expect(res.headers['x-content-type-options']).toBe('nosniff');

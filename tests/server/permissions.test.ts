@@ -12,6 +12,7 @@ import { createTestPerson, signedInAgent, startTestApp, type TestContext } from 
 const all: Role[] = ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'];
 const expected: Record<string, 'public' | Role[]> = {
   'GET /api/health': 'public',
+  'GET /api/unit': 'public',
   'POST /api/auth/login': 'public',
   'POST /api/auth/logout': 'public',
   'GET /api/auth/me': all,

@@ -41,12 +41,16 @@ export function formatFigure(value: number, digits = 2): string {
   return new Intl.NumberFormat('en-GB', { maximumFractionDigits: digits }).format(value);
 }
 
-const wardClock = new Intl.DateTimeFormat('en-GB', { timeZone: unitTimeZone, hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23' });
-const wardClockShort = new Intl.DateTimeFormat('en-GB', { timeZone: unitTimeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
+// Made on first use, after the app has learnt the unit's zone from the server.
+let wardClocks: { long: Intl.DateTimeFormat; short: Intl.DateTimeFormat } | null = null;
 
 /** A moment on the ward clock (the unit's time zone, whatever the tablet's setting). */
 export function formatWardTime(ms: number, withSeconds = true): string {
-  return (withSeconds ? wardClock : wardClockShort).format(new Date(ms));
+  wardClocks ??= {
+    long: new Intl.DateTimeFormat('en-GB', { timeZone: unitTimeZone, hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23' }),
+    short: new Intl.DateTimeFormat('en-GB', { timeZone: unitTimeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }),
+  };
+  return (withSeconds ? wardClocks.long : wardClocks.short).format(new Date(ms));
 }
 
 /** The short name of a step in buttons and spoken lines: "Start laser", "End UV". */
