@@ -95,7 +95,7 @@ export function TrendsScreen() {
               {describeError(trends.error)}
             </Alert>
           )}
-          <div className="grid items-start gap-5 lg:grid-cols-2" aria-busy={trends.isPlaceholderData || undefined}>
+          <div className="grid items-start gap-5 2xl:grid-cols-2" aria-busy={trends.isPlaceholderData || undefined}>
             <section aria-labelledby="trend-charts-heading" className="min-w-0">
               <h2 id="trend-charts-heading" className="mb-1 text-xl font-semibold text-paper-950">
                 Share of sessions with a deviation
@@ -103,7 +103,7 @@ export function TrendsScreen() {
               <p className="mb-3 text-sm text-paper-700">One chart per protocol version on the same months. Each bar is labelled with its rate and with “sessions with a deviation of sessions”; “none” marks a month without sessions.</p>
               <TrendCharts series={seriesOf(rows)} months={months} />
             </section>
-            <section aria-label="The figures as a table" className="min-w-0 lg:sticky lg:top-4">
+            <section aria-label="The figures as a table" className="min-w-0 2xl:sticky 2xl:top-4">
               <TrendTable rows={rows} />
             </section>
           </div>
