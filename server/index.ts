@@ -1,4 +1,5 @@
 import 'reflect-metadata';
+import cluster from 'node:cluster';
 import type { Server } from 'node:http';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -62,10 +63,24 @@ export async function stopWebServer(running: RunningWebServer): Promise<void> {
 }
 
 // `tsx server/index.ts` serves with settings from the environment (see README, "Configuration").
+// WEB_CONCURRENCY=n runs n worker processes sharing the port: the API keeps no state between
+// requests, so they need nothing else to agree on.
 if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
-  const running = await startWebServer({ clientDir: process.env.CLIENT_DIR });
-  console.log(`Luxtempo is serving on ${running.url}`);
-  for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-    process.once(signal, () => void stopWebServer(running).then(() => process.exit(0)));
+  const workers = Number(process.env.WEB_CONCURRENCY ?? 1);
+  if (workers > 1 && cluster.isPrimary) {
+    for (let i = 0; i < workers; i++) cluster.fork();
+    cluster.on('exit', (worker, code) => console.error(`worker ${worker.process.pid} ended (${code})`));
+    for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+      process.once(signal, () => {
+        for (const worker of Object.values(cluster.workers ?? {})) worker?.kill(signal);
+        process.exit(0);
+      });
+    }
+  } else {
+    const running = await startWebServer({ clientDir: process.env.CLIENT_DIR });
+    console.log(`Luxtempo is serving on ${running.url}`);
+    for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+      process.once(signal, () => void stopWebServer(running).then(() => process.exit(0)));
+    }
   }
 }

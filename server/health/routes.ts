@@ -19,6 +19,7 @@ export function healthRoutes(dataSource: DataSource, unit: { name: string; timeZ
       handler: async (_req, res) => {
         // Which process answered: lets operators and the fault tests tell instances apart.
         res.set('X-Luxtempo-Pid', String(process.pid));
+        res.set('X-Luxtempo-Parent-Pid', String(process.ppid));
         const started = performance.now();
         try {
           await dataSource.query('SELECT 1');

@@ -30,7 +30,8 @@ export async function startApiProcess(options: { port: number; env: NodeJS.Proce
     try {
       // The answer must come from this process, not from one left over on the port.
       const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(1000) });
-      if (res.ok && res.headers.get('x-luxtempo-pid') === String(child.pid)) break;
+      const ours = [res.headers.get('x-luxtempo-pid'), res.headers.get('x-luxtempo-parent-pid')].includes(String(child.pid));
+      if (res.ok && ours) break;
     } catch {
       // not listening yet
     }

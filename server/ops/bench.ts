@@ -28,7 +28,8 @@ const connections = 50;
 const durationS = Number(process.env.BENCH_SECONDS ?? 10);
 const targets = { calculationP95Ms: 20, eventWriteP95Ms: 40, firstLoadJsGzipKb: 200, clockErrorMs: 250 };
 
-const env = { ...localEnvironment(benchDatabase), NODE_ENV: 'production', DEMO_DATA: 'false', SMTP_PORT: '1126', LOGIN_FAILURE_LIMIT: '1000', CLIENT_DIR: clientDistDir };
+const webConcurrency = process.env.WEB_CONCURRENCY ?? '1';
+const env = { ...localEnvironment(benchDatabase), NODE_ENV: 'production', DEMO_DATA: 'false', SMTP_PORT: '1126', LOGIN_FAILURE_LIMIT: '1000', CLIENT_DIR: clientDistDir, WEB_CONCURRENCY: webConcurrency };
 const config = loadConfig(env);
 
 async function prepareDatabase() {
@@ -111,7 +112,7 @@ async function measureJs(base: string) {
 }
 
 const started = new Date();
-console.log(`Luxtempo benchmark — ${started.toISOString()} — Node ${process.version}\n`);
+console.log(`Luxtempo benchmark — ${started.toISOString()} — Node ${process.version} — API processes: ${webConcurrency}\n`);
 const database = await prepareDatabase();
 console.log(`client build: ${await buildClient()}`);
 const engine = measureEngine(3);
@@ -172,5 +173,5 @@ const verdict = {
   clockError: `${(results.clock as { maxErrorMs: number }).maxErrorMs} ms (target ≤ ${targets.clockErrorMs})`,
 };
 const file = path.join(dataDir, 'bench', `bench-${started.toISOString().replace(/[:.]/g, '-')}.json`);
-writeFileSync(file, JSON.stringify({ startedAt: started.toISOString(), node: process.version, cpus: (await import('node:os')).cpus().length, targets, results, verdict }, null, 2));
+writeFileSync(file, JSON.stringify({ startedAt: started.toISOString(), node: process.version, webConcurrency: Number(webConcurrency), cpus: (await import('node:os')).cpus().length, targets, results, verdict }, null, 2));
 console.log(`\n${Object.entries(verdict).map(([k, v]) => `${k.padEnd(16)} ${v}`).join('\n')}\n\nwritten to ${path.relative(process.cwd(), file)}`);
