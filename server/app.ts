@@ -37,6 +37,7 @@ import { createSessionService } from './sessions/service';
 import { createReviewRepository } from './review/repository';
 import { reviewRoutes } from './review/routes';
 import { createReviewService } from './review/service';
+import { staffRoutes } from './review/staff-routes';
 import { peopleRoutes } from './people/routes';
 import { createPeopleService } from './people/service';
 import { createProtocolRepository } from './protocols/repository';
@@ -97,6 +98,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
     ...attachmentRoutes(createAttachmentService(dataSource, audit, path.resolve(config.UPLOAD_DIR))),
     ...outboxRoutes(dataSource),
     ...sessionRoutes(sessionService, discharge),
+    ...staffRoutes(dataSource),
     ...reviewRoutes(createReviewService({ dataSource, reviews: createReviewRepository(dataSource), sessions: sessionService, audit, unitTimeZone })),
   ];
   app.locals.routeTable = routes;

@@ -162,6 +162,16 @@ describe('dose records and trends', () => {
   });
 });
 
+describe('the staff list for filters', () => {
+  it('gives auditors names, roles and ids, and no e-mail addresses', async () => {
+    const nurse = await createTestPerson(ctx, ['nurse']);
+    const res = await auditorAgent.get('/api/staff');
+    expect(res.status).toBe(200);
+    expect(res.body.staff).toContainEqual({ id: nurse.id, displayName: 'Test nurse', roles: ['nurse'], active: true });
+    expect(JSON.stringify(res.body)).not.toContain('@');
+  });
+});
+
 describe('the audit trail', () => {
   it('shows who did what, filterable, to auditors', async () => {
     const res = await auditorAgent.get('/api/audit-events').query({ action: 'order.signed', pageSize: 5 });

@@ -6,7 +6,7 @@ import { deviationQueries } from '../api/deviation-queries';
 import type { DeviationListParams, StatusChoice } from '../hooks/use-deviation-list-params';
 import { deviationTypeWords, severityWords } from './deviation-words';
 import { SelectField } from './select-field';
-import { StaffIdField } from './staff-id-field';
+import { StaffField } from '../../../components/ui/staff-field';
 
 type DeviationFiltersProps = {
   params: DeviationListParams;
@@ -88,7 +88,7 @@ export function DeviationFilters({ params, filtered, fieldErrors, onChange }: De
         <option value="closed">Closed</option>
         <option value="any">Open or closed</option>
       </SelectField>
-      <StaffIdField value={params.staff} error={fieldErrors.staff} onChange={(staff) => onChange({ staff })} />
+      <StaffField value={params.staff} error={fieldErrors.staff} onChange={(staff) => onChange({ staff })} />
       <div className="flex items-end sm:col-span-2 lg:col-span-4">
         <Button
           variant="secondary"

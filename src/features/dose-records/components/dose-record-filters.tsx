@@ -5,7 +5,7 @@ import { TextField } from '../../../components/ui/text-field';
 import { doseRecordQueries } from '../api/dose-record-queries';
 import { outcomeWords } from './dose-record-words';
 import { SelectField } from './select-field';
-import { StaffIdField } from './staff-id-field';
+import { StaffField } from '../../../components/ui/staff-field';
 
 type DoseRecordFiltersProps = {
   filter: DoseRecordFilter;
@@ -58,7 +58,7 @@ export function DoseRecordFilters({ filter, filtered, fieldErrors, onChange }: D
         <option value="completed">{outcomeWords.completed}</option>
         <option value="stopped">{outcomeWords.stopped}</option>
       </SelectField>
-      <StaffIdField value={filter.staff} error={fieldErrors.staff} onChange={(staff) => onChange({ staff })} />
+      <StaffField value={filter.staff} error={fieldErrors.staff} onChange={(staff) => onChange({ staff })} />
       <div className="flex items-end sm:col-span-2">
         <Button variant="secondary" disabled={!filtered} onClick={() => onChange({ from: undefined, to: undefined, protocol: undefined, version: undefined, outcome: undefined, staff: undefined })}>
           Clear filters
