@@ -7,7 +7,6 @@ import { deriveDoseRecord } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
 import type { SessionEventInput } from '../../shared/session/session-events';
 import { createAuditRepository } from '../audit/repository';
-import { DoseCheck } from '../db/entities/dose-check';
 import { Preparation } from '../db/entities/preparation';
 import { ProtocolVersion } from '../db/entities/protocol-version';
 import { SessionEventRow } from '../db/entities/session-event';
@@ -159,11 +158,20 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
       await manager.query('UPDATE treatment_order SET created_at = ? WHERE id = ?', [new Date(signedAt.getTime() - 600_000), order.id]);
       let preparation = null;
       if (pv.definition.drug) {
-        await manager.getRepository(DoseCheck).insert({ orderId: order.id, pharmacistId: pharmacist.id, bsaM2: plan.bsaM2!, doseMg: plan.doseMg!, drugVolumeMl: plan.drugVolumeMl!, outcome: 'match', differing: [], comment: null });
+        // Dated that morning, not when the demo was loaded (dose checks are append-only, so set at insert).
+        await manager.query("INSERT INTO dose_check (order_id, pharmacist_id, bsa_m2, dose_mg, drug_volume_ml, outcome, differing, created_at) VALUES (?, ?, ?, ?, ?, 'match', '[]', ?)", [
+          order.id,
+          pharmacist.id,
+          plan.bsaM2,
+          plan.doseMg,
+          plan.drugVolumeMl,
+          new Date(signedAt.getTime() + 45 * 60_000),
+        ]);
         const reconstitutedAt = new Date(startMs - 30 * 60_000);
         const beyondUseAt = new Date(reconstitutedAt.getTime() + pv.definition.drug.beyondUseH * 3600_000);
         await manager.getRepository(Preparation).insert({ orderId: order.id, pharmacistId: pharmacist.id, vialLot: `DEMO-${item.key.toUpperCase()}`, vialExpiry: start.plus({ months: 8 }).toISODate()!, reconstitutedAt, volumeDrawnMl: plan.drugVolumeMl!, beyondUseAt });
         await manager.update(TreatmentOrder, { id: order.id }, { beyondUseAt });
+        await manager.query('UPDATE preparation SET created_at = ? WHERE order_id = ?', [reconstitutedAt, order.id]);
         preparation = { reconstitutedAt: reconstitutedAt.toISOString(), beyondUseAt: beyondUseAt.toISOString() };
       }
       const rows = item.script.map(([offsetS, event]) => ({

@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { actionLabel, knownActions, recordTypes } from './audit-words';
 import { CheckedTextField } from './checked-text-field';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 
 type AuditTrailFiltersProps = {
   query: AuditTrailQuery;

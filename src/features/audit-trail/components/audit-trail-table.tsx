@@ -5,7 +5,7 @@ import { PageBackIcon, PageForwardIcon } from '../../../components/ui/icons';
 import { paths } from '../../../config/paths';
 import type { AuditEvent } from '../api/audit-event-schemas';
 import { actionLabel, recordTypeLabel, summariseDetails } from './audit-words';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 import { formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
 
 /** A link to the record where a screen for it exists. */

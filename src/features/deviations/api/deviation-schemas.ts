@@ -3,6 +3,10 @@ import { orderDetailSchema } from '../../../../shared/schemas/orders';
 import { eyes } from '../../../../shared/schemas/patients';
 import { reviewClassifications, reviewStatuses } from '../../../../shared/schemas/reviews';
 import { deviationSeverities } from '../../../../shared/session/session-events';
+import { givenRecordSchema, protocolStepsSchema, type GivenRecord, type ProtocolSteps } from '../../../lib/session-record-schemas';
+
+export { protocolStepsSchema };
+export type { GivenRecord, ProtocolSteps };
 
 /** The shapes the review API answers with, as the deviations screens read them. */
 
@@ -54,40 +58,9 @@ const sessionEventSchema = z.object({
 });
 export type StoredSessionEvent = z.infer<typeof sessionEventSchema>;
 
-const maybeFigure = figure.optional().default(null);
-const maybeTime = z.string().nullable().optional().default(null);
 
 /** What was given, derived by the server from the events (shared/session/dose-record.ts). */
-const givenRecordSchema = z.object({
-  kind: z.enum(['pdt', 'cxl']),
-  outcome: z.string(),
-  sessionStartedAt: maybeTime,
-  endedAt: maybeTime,
-  stopReason: z.string().nullable().optional().default(null),
-  irradianceMwPerCm2: maybeFigure,
-  infusionStartAt: maybeTime,
-  infusionEndAt: maybeTime,
-  infusionDurationS: maybeFigure,
-  volumeGivenMl: maybeFigure,
-  extravasationAt: maybeTime,
-  lightStartAt: maybeTime,
-  lightEndAt: maybeTime,
-  lightStartAfterInfusionStartS: maybeFigure,
-  lightOnS: maybeFigure,
-  soakStartAt: maybeTime,
-  soakEndAt: maybeTime,
-  soakDurationS: maybeFigure,
-  longestDropGapSoakS: maybeFigure,
-  longestDropGapUvS: maybeFigure,
-  thicknessBeforeUvUm: maybeFigure,
-  thicknessOverrideReason: z.string().nullable().optional().default(null),
-  uvStartAt: maybeTime,
-  uvEndAt: maybeTime,
-  uvElapsedS: maybeFigure,
-  uvOnS: maybeFigure,
-  deliveredFluenceJPerCm2: maybeFigure,
-});
-export type GivenRecord = z.infer<typeof givenRecordSchema>;
+
 
 const sessionDeviationSchema = z.object({
   id: z.number().int(),
@@ -145,15 +118,4 @@ export const protocolChoicesSchema = z.object({
 export type ProtocolChoice = z.infer<typeof protocolChoicesSchema>['protocols'][number];
 
 /** Only what the review reads from a protocol version: its steps (names, durations) and the CXL thickness minimum. */
-export const protocolStepsSchema = z.object({
-  version: z.object({
-    key: z.string(),
-    version: z.number().int(),
-    title: z.string(),
-    definition: z.object({
-      steps: z.array(z.object({ id: z.string(), kind: z.string(), title: z.string(), durationS: z.number().nullable(), cueEveryS: z.number().optional() })),
-      cxl: z.object({ minStromalThicknessUm: z.number() }).nullable().optional(),
-    }),
-  }),
-});
-export type ProtocolSteps = z.infer<typeof protocolStepsSchema>['version'];
+

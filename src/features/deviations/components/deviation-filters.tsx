@@ -5,7 +5,7 @@ import { TextField } from '../../../components/ui/text-field';
 import { deviationQueries } from '../api/deviation-queries';
 import type { DeviationListParams, StatusChoice } from '../hooks/use-deviation-list-params';
 import { deviationTypeWords, severityWords } from './deviation-words';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 import { StaffField } from '../../../components/ui/staff-field';
 
 type DeviationFiltersProps = {

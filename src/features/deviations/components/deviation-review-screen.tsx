@@ -13,7 +13,7 @@ import { deviationQueries } from '../api/deviation-queries';
 import { ClassificationLabel, ReviewStatusBadge, SeverityBadge } from './deviation-badges';
 import type { QueueState } from './deviations-table';
 import { classificationWords, eyeWords, participantPart, typeWords } from './deviation-words';
-import { PlanAndGiven, SessionTimes } from './plan-and-given';
+import { PlanAndGiven, SessionTimes } from '../../../components/plan-and-given';
 import { CloseDeviationForm, ReopenDeviationForm } from './review-forms';
 import { SessionTimeline } from './session-timeline';
 import { formatFigure, formatUnitDateTime } from '../../../lib/unit-times';

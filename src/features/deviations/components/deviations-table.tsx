@@ -9,7 +9,7 @@ import type { DeviationRow } from '../api/deviation-schemas';
 import type { DeviationListParams } from '../hooks/use-deviation-list-params';
 import { ClassificationLabel, ReviewStatusBadge, SeverityBadge } from './deviation-badges';
 import { eyeWords, typeWords } from './deviation-words';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 import { formatFigure, formatUnitDateTime } from '../../../lib/unit-times';
 
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });

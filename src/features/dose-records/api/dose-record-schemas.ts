@@ -2,6 +2,11 @@ import { z } from 'zod';
 import { orderDetailSchema } from '../../../../shared/schemas/orders';
 import { eyes } from '../../../../shared/schemas/patients';
 import { deviationSeverities } from '../../../../shared/session/session-events';
+import { givenRecordSchema, protocolStepsSchema, type GivenRecord, type ProtocolSteps } from '../../../lib/session-record-schemas';
+
+export { protocolStepsSchema };
+export type { GivenRecord, ProtocolSteps };
+
 
 /** The shapes the dose-record, order, session and protocol APIs answer with, as these screens read them. */
 
@@ -31,40 +36,8 @@ export type DoseRecordPage = z.infer<typeof doseRecordPageSchema>;
 
 export const orderResponseSchema = z.object({ order: orderDetailSchema });
 
-const maybeFigure = figure.optional().default(null);
-const maybeText = z.string().nullable().optional().default(null);
 
-/** What was given, derived by the server from the events (shared/session/dose-record.ts). */
-const givenRecordSchema = z.object({
-  kind: z.enum(['pdt', 'cxl']),
-  outcome: z.string(),
-  sessionStartedAt: maybeText,
-  endedAt: maybeText,
-  stopReason: maybeText,
-  irradianceMwPerCm2: maybeFigure,
-  infusionStartAt: maybeText,
-  infusionEndAt: maybeText,
-  infusionDurationS: maybeFigure,
-  volumeGivenMl: maybeFigure,
-  extravasationAt: maybeText,
-  lightStartAt: maybeText,
-  lightEndAt: maybeText,
-  lightStartAfterInfusionStartS: maybeFigure,
-  lightOnS: maybeFigure,
-  soakStartAt: maybeText,
-  soakEndAt: maybeText,
-  soakDurationS: maybeFigure,
-  longestDropGapSoakS: maybeFigure,
-  longestDropGapUvS: maybeFigure,
-  thicknessBeforeUvUm: maybeFigure,
-  thicknessOverrideReason: maybeText,
-  uvStartAt: maybeText,
-  uvEndAt: maybeText,
-  uvElapsedS: maybeFigure,
-  uvOnS: maybeFigure,
-  deliveredFluenceJPerCm2: maybeFigure,
-});
-export type GivenRecord = z.infer<typeof givenRecordSchema>;
+
 
 export const sessionStateSchema = z.object({
   status: z.string(),
@@ -90,15 +63,4 @@ export const protocolChoicesSchema = z.object({
 export type ProtocolChoice = z.infer<typeof protocolChoicesSchema>['protocols'][number];
 
 /** What the printed record reads from a protocol version: step durations and the CXL thickness minimum. */
-export const protocolStepsSchema = z.object({
-  version: z.object({
-    key: z.string(),
-    version: z.number().int(),
-    title: z.string(),
-    definition: z.object({
-      steps: z.array(z.object({ id: z.string(), kind: z.string(), title: z.string(), durationS: z.number().nullable(), cueEveryS: z.number().optional() })),
-      cxl: z.object({ minStromalThicknessUm: z.number() }).nullable().optional(),
-    }),
-  }),
-});
-export type ProtocolSteps = z.infer<typeof protocolStepsSchema>['version'];
+

@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { doseRecordQueries } from '../api/dose-record-queries';
 import { outcomeWords } from './dose-record-words';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 import { StaffField } from '../../../components/ui/staff-field';
 
 type DoseRecordFiltersProps = {

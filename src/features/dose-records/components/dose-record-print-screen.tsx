@@ -10,7 +10,7 @@ import { describeError, isApiRequestError } from '../../../lib/api-client';
 import type { GivenRecord } from '../api/dose-record-schemas';
 import { doseRecordQueries } from '../api/dose-record-queries';
 import { eyeWords, severityWords, typeWords } from './dose-record-words';
-import { PlanAndGiven } from './plan-and-given';
+import { PlanAndGiven } from '../../../components/plan-and-given';
 import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from '../../../lib/unit-times';
 
 function Part({ id, title, children }: { id: string; title: string; children: ReactNode }) {

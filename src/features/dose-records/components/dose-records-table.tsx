@@ -8,7 +8,7 @@ import { paths } from '../../../config/paths';
 import type { DoseRecordRow } from '../api/dose-record-schemas';
 import { eyeWords, kindWords } from './dose-record-words';
 import { DeviationCount, OutcomeLabel } from './outcome-label';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 import { formatDurationS, formatFigure, formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
 
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });

@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { orderQueries } from '../api/order-queries';
 import { statusWords } from './order-words';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 
 type OrderFiltersProps = {
   query: OrderListQuery;

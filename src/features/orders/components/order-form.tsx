@@ -33,7 +33,7 @@ import { MeasureField } from './measure-field';
 import { PatientPicker } from './patient-picker';
 import { PlanPreviewPanel } from './plan-preview-panel';
 import { formatFigure } from './plan-numbers';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 import { TextAreaField } from './text-area-field';
 import { TreatmentCautions } from './treatment-cautions';
 

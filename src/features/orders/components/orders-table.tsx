@@ -7,7 +7,7 @@ import { PageBackIcon, PageForwardIcon, SortIcon } from '../../../components/ui/
 import { paths } from '../../../config/paths';
 import { OrderStatusBadge } from './order-status-badge';
 import { eyeWords } from './order-words';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 import { formatUnitDateTime } from './unit-dates';
 
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });

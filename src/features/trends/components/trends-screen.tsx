@@ -10,7 +10,7 @@ import type { TrendMonth } from '../api/trend-schemas';
 import { trendQueries } from '../api/trend-queries';
 import { useTrendParams } from '../hooks/use-trend-params';
 import { MonthField } from './month-field';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/ui/select-field';
 import { TrendCharts, type TrendSeries } from './trend-chart';
 import { monthsBetween } from './trend-words';
 import { TrendTable } from './trend-table';

@@ -1,10 +1,16 @@
-import { useId, type ReactNode, type SelectHTMLAttributes } from 'react';
-import { FieldError } from '../../../components/ui/text-field';
+import { useId, type ReactNode, type Ref, type SelectHTMLAttributes } from 'react';
+import { FieldError } from './text-field';
 
-type SelectFieldProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, 'id'> & { label: string; hint?: string; error?: string; children: ReactNode };
+type SelectFieldProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, 'id'> & {
+  label: ReactNode;
+  hint?: string;
+  error?: string;
+  children: ReactNode;
+  ref?: Ref<HTMLSelectElement>;
+};
 
 /** A labelled drop-down whose hint and error are tied to it, like the shared text field. */
-export function SelectField({ label, hint, error, className = '', children, ...rest }: SelectFieldProps) {
+export function SelectField({ label, hint, error, className = '', children, ref, ...rest }: SelectFieldProps) {
   const id = useId();
   const hintId = hint ? `${id}-hint` : undefined;
   const errorId = error ? `${id}-error` : undefined;
@@ -20,6 +26,7 @@ export function SelectField({ label, hint, error, className = '', children, ...r
       )}
       <select
         id={id}
+        ref={ref}
         aria-invalid={error ? true : undefined}
         aria-describedby={[hintId, errorId].filter(Boolean).join(' ') || undefined}
         className={`min-h-tap w-full rounded-lg border bg-white px-3 py-2 text-base text-paper-950 ${error ? 'border-2 border-alarm-700' : 'border-paper-500'}`}

@@ -1,6 +1,6 @@
-import type { DosePlan } from '../../../../shared/schemas/calculation';
-import type { GivenRecord, ProtocolSteps } from '../api/deviation-schemas';
-import { formatDurationS, formatFigure, formatUnitClock } from '../../../lib/unit-times';
+import type { DosePlan } from '../../shared/schemas/calculation';
+import type { GivenRecord, ProtocolSteps } from '../lib/session-record-schemas';
+import { formatDurationS, formatFigure, formatUnitClock } from '../lib/unit-times';
 
 const bsaFormulaWords: Record<string, string> = { mosteller: 'Mosteller', 'du-bois': 'Du Bois', haycock: 'Haycock', 'gehan-george': 'Gehan–George', boyd: 'Boyd' };
 

@@ -1,0 +1,53 @@
+import { z } from 'zod';
+
+// Shapes the auditor's screens read: what a session gave (the server's dose record,
+// shared/session/dose-record.ts) and a protocol version's steps. One copy for every feature.
+
+const maybeFigure = z.number().nullable().optional().default(null);
+const maybeTime = z.string().nullable().optional().default(null);
+
+/** What was given, derived by the server from the session's events. */
+export const givenRecordSchema = z.object({
+  kind: z.enum(['pdt', 'cxl']),
+  outcome: z.string(),
+  sessionStartedAt: maybeTime,
+  endedAt: maybeTime,
+  stopReason: z.string().nullable().optional().default(null),
+  irradianceMwPerCm2: maybeFigure,
+  infusionStartAt: maybeTime,
+  infusionEndAt: maybeTime,
+  infusionDurationS: maybeFigure,
+  volumeGivenMl: maybeFigure,
+  extravasationAt: maybeTime,
+  lightStartAt: maybeTime,
+  lightEndAt: maybeTime,
+  lightStartAfterInfusionStartS: maybeFigure,
+  lightOnS: maybeFigure,
+  soakStartAt: maybeTime,
+  soakEndAt: maybeTime,
+  soakDurationS: maybeFigure,
+  longestDropGapSoakS: maybeFigure,
+  longestDropGapUvS: maybeFigure,
+  thicknessBeforeUvUm: maybeFigure,
+  thicknessOverrideReason: z.string().nullable().optional().default(null),
+  uvStartAt: maybeTime,
+  uvEndAt: maybeTime,
+  uvElapsedS: maybeFigure,
+  uvOnS: maybeFigure,
+  deliveredFluenceJPerCm2: maybeFigure,
+});
+export type GivenRecord = z.infer<typeof givenRecordSchema>;
+
+/** A protocol version's steps, for naming steps on a timeline. */
+export const protocolStepsSchema = z.object({
+  version: z.object({
+    key: z.string(),
+    version: z.number().int(),
+    title: z.string(),
+    definition: z.object({
+      steps: z.array(z.object({ id: z.string(), kind: z.string(), title: z.string(), durationS: z.number().nullable(), cueEveryS: z.number().optional() })),
+      cxl: z.object({ minStromalThicknessUm: z.number() }).nullable().optional(),
+    }),
+  }),
+});
+export type ProtocolSteps = z.infer<typeof protocolStepsSchema>['version'];
