@@ -58,6 +58,9 @@ export interface AppDependencies {
 export function createApp({ config, dataSource, clientDir, now = Date.now }: AppDependencies): Express {
   const app = express();
   app.disable('x-powered-by');
+  // API answers are never cached (Cache-Control: no-store), so hashing each body for an ETag is
+  // wasted work; the built client's files get theirs from express.static.
+  app.set('etag', false);
   app.set('trust proxy', config.TRUST_PROXY);
 
   app.use(

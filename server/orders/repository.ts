@@ -26,9 +26,13 @@ export function createOrderRepository(dataSource: DataSource) {
      */
     async lockForSession(manager: EntityManager, id: number) {
       const [row] = await manager.query(
-        // Only the order's row: a join here would lock the protocol version's row too, and every
-        // session on one protocol would then wait for every other.
-        'SELECT id, status, eye, protocol_version_id AS protocolVersionId, plan, checklist FROM treatment_order WHERE id = ? FOR UPDATE',
+        // The order's row and its own preparation row, nothing shared: a join to the protocol
+        // version would lock that row too, and every session on one protocol would then wait for
+        // every other.
+        `SELECT o.id, o.status, o.eye, o.protocol_version_id AS protocolVersionId, o.plan, o.checklist,
+                p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt
+           FROM treatment_order o LEFT JOIN preparation p ON p.order_id = o.id
+          WHERE o.id = ? FOR UPDATE`,
         [id],
       );
       if (!row) return null;
@@ -40,6 +44,8 @@ export function createOrderRepository(dataSource: DataSource) {
         protocolVersionId: Number(row.protocolVersionId),
         plan: parse<TreatmentOrder['plan']>(row.plan),
         checklist: parse<TreatmentOrder['checklist']>(row.checklist),
+        /** When the drug was made up and must be used by (PDT), for the beyond-use deviations. */
+        preparation: row.reconstitutedAt ? { reconstitutedAt: (row.reconstitutedAt as Date).toISOString(), beyondUseAt: (row.beyondUseAt as Date).toISOString() } : null,
       };
     },
 

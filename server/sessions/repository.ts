@@ -4,7 +4,6 @@ import type { DoseRecord } from '../../shared/session/dose-record';
 import type { Deviation, SessionEvent, SessionEventInput } from '../../shared/session/session-events';
 import { DeviationRow } from '../db/entities/deviation';
 import { DoseRecordRow } from '../db/entities/dose-record';
-import { SessionEventRow } from '../db/entities/session-event';
 import type { SessionParticipant } from '../db/entities/session-participant';
 
 
@@ -24,40 +23,117 @@ export function addParticipant(manager: EntityManager, orderId: number, userId: 
   return manager.query('INSERT IGNORE INTO session_participant (order_id, user_id, part) VALUES (?, ?, ?)', [orderId, userId, part]);
 }
 
-export function createSessionRepository(dataSource: DataSource) {
+type StoredEventRow = { id: string | number; payload: string | Record<string, unknown>; serverTime: Date; recordedBy: number };
+
+function toSessionEvent(row: StoredEventRow): SessionEvent {
   return {
-    /** Every event of an order in the order they happened; read on every event, so kept to plain SQL. */
+    ...((typeof row.payload === 'string' ? JSON.parse(row.payload) : row.payload) as SessionEventInput),
+    id: Number(row.id),
+    serverTime: row.serverTime.toISOString(),
+    recordedBy: row.recordedBy,
+  };
+}
+
+/** The order a session's events are shown and replayed in: by the tablet's time, then as stored. */
+function byClientTime(a: SessionEvent, b: SessionEvent): number {
+  return Date.parse(a.clientTime) - Date.parse(b.clientTime) || a.id - b.id;
+}
+
+/** A session's events as this process last read them, up to and including `lastId`. */
+interface KnownEvents {
+  events: SessionEvent[];
+  lastId: number;
+}
+
+const knownEventsMax = 2_000;
+
+export function createSessionRepository(dataSource: DataSource) {
+  /**
+   * Running sessions' events, kept between writes so that each new event reads only what is newer
+   * than the last one seen. This is safe because the table is append-only (the app's database user
+   * may only INSERT and SELECT it) and an order's events are written one at a time under the
+   * order's lock, so ids only grow within an order: "everything after lastId" is exactly what is
+   * missing, even when another API process wrote it.
+   */
+  const knownEvents = new Map<number, KnownEvents>();
+  /** People already recorded as having nursed a session, so a tap does not insert it again. */
+  const knownNurses = new Set<string>();
+
+  return {
+    /** Every event of an order in the order they happened. */
     async eventsFor(orderId: number, manager?: EntityManager): Promise<SessionEvent[]> {
-      const rows: { id: string | number; payload: string | Record<string, unknown>; serverTime: Date; recordedBy: number }[] = await (manager ?? dataSource.manager).query(
+      const rows: StoredEventRow[] = await (manager ?? dataSource.manager).query(
         'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? ORDER BY client_time, id',
         [orderId],
       );
-      return rows.map((row) => ({
-        ...((typeof row.payload === 'string' ? JSON.parse(row.payload) : row.payload) as SessionEventInput),
-        id: Number(row.id),
-        serverTime: row.serverTime.toISOString(),
-        recordedBy: row.recordedBy,
-      }));
+      return rows.map(toSessionEvent);
     },
 
-    /** When the drug was made up and must be used by, for the beyond-use deviations. */
-    async preparationTimes(manager: EntityManager, orderId: number): Promise<{ reconstitutedAt: string; beyondUseAt: string } | null> {
-      const [row] = await manager.query('SELECT reconstituted_at AS reconstitutedAt, beyond_use_at AS beyondUseAt FROM preparation WHERE order_id = ?', [orderId]);
-      return row ? { reconstitutedAt: row.reconstitutedAt.toISOString(), beyondUseAt: row.beyondUseAt.toISOString() } : null;
+    /**
+     * Every event of an order, for a writer that holds the order's lock: what this process knew
+     * plus whatever was stored since. Hand the result to `rememberEvents` once the transaction
+     * has committed (never before: a rolled-back event must not be remembered).
+     */
+    async eventsUnderLock(manager: EntityManager, orderId: number): Promise<KnownEvents> {
+      const known = knownEvents.get(orderId);
+      const rows: StoredEventRow[] = await manager.query(
+        'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? AND id > ? ORDER BY id',
+        [orderId, known?.lastId ?? 0],
+      );
+      if (rows.length === 0 && known) return known;
+      const added = rows.map(toSessionEvent);
+      const events = [...(known?.events ?? []), ...added];
+      // New taps nearly always come last; sort only when one arrived late.
+      const from = Math.max(1, events.length - added.length);
+      for (let i = from; i < events.length; i++) {
+        if (byClientTime(events[i - 1]!, events[i]!) > 0) {
+          events.sort(byClientTime);
+          break;
+        }
+      }
+      return {
+        events,
+        lastId: added.length > 0 ? added[added.length - 1]!.id : (known?.lastId ?? 0),
+      };
     },
 
-    findEventByKey: (idempotencyKey: string) => dataSource.getRepository(SessionEventRow).findOneBy({ idempotencyKey }),
+    rememberEvents(orderId: number, read: KnownEvents): void {
+      const known = knownEvents.get(orderId);
+      if (known && known.lastId >= read.lastId) return;
+      knownEvents.delete(orderId);
+      if (knownEvents.size >= knownEventsMax) knownEvents.delete(knownEvents.keys().next().value!);
+      knownEvents.set(orderId, read);
+    },
 
+    forgetEvents(orderId: number): void {
+      knownEvents.delete(orderId);
+    },
+
+    /** Records that a person nursed the session; asks the database only the first time this process sees them. */
+    async addNurse(manager: EntityManager, orderId: number, userId: number): Promise<() => void> {
+      const key = `${orderId}:${userId}`;
+      if (!knownNurses.has(key)) await addParticipant(manager, orderId, userId, 'nursed');
+      return () => {
+        if (knownNurses.size >= knownEventsMax * 4) knownNurses.clear();
+        knownNurses.add(key);
+      };
+    },
+
+    /** One stored event by its idempotency key (for answering a replayed send). */
+    async findEventByKey(idempotencyKey: string): Promise<(SessionEvent & { orderId: number }) | null> {
+      const [row]: (StoredEventRow & { orderId: number })[] = await dataSource.query(
+        'SELECT id, order_id AS orderId, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE idempotency_key = ?',
+        [idempotencyKey],
+      );
+      return row ? { ...toSessionEvent(row), orderId: Number(row.orderId) } : null;
+    },
+
+    /** Stores one event; a key already stored fails with ER_DUP_ENTRY. */
     insertEvent: (manager: EntityManager, orderId: number, recordedBy: number, input: SessionEventInput) =>
-      manager.getRepository(SessionEventRow).insert({
-        orderId,
-        idempotencyKey: input.idempotencyKey,
-        type: input.type,
-        stepId: 'stepId' in input ? input.stepId : null,
-        clientTime: new Date(input.clientTime),
-        recordedBy,
-        payload: input as unknown as SessionEventRow['payload'] & object,
-      }),
+      manager.query(
+        'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?)',
+        [orderId, input.idempotencyKey, input.type, 'stepId' in input ? input.stepId : null, new Date(input.clientTime), recordedBy, JSON.stringify(input)],
+      ),
 
     /** One statement whether the record exists or not: this runs on every event. */
     saveRecord: (manager: EntityManager, orderId: number, record: DoseRecord, extra: { protocolVersionId: number; unitTimeZone: string; deviationCount: number }) =>
@@ -94,7 +170,12 @@ export function createSessionRepository(dataSource: DataSource) {
      */
     async reconcileDeviations(manager: EntityManager, orderId: number, protocolVersionId: number, found: Deviation[]): Promise<{ added: string[]; standing: StandingDeviation[] }> {
       const repo = manager.getRepository(DeviationRow);
-      const stored = new Map((await repo.find({ where: { orderId } })).map((row) => [row.type, row]));
+      // Read on every event, so plain SQL rather than the ORM's query builder.
+      const rows: Pick<DeviationRow, 'id' | 'type' | 'severity' | 'expected' | 'actual' | 'message' | 'detectedAt' | 'withdrawnAt'>[] = await manager.query(
+        'SELECT id, type, severity, expected, actual, message, detected_at AS detectedAt, withdrawn_at AS withdrawnAt FROM deviation WHERE order_id = ?',
+        [orderId],
+      );
+      const stored = new Map(rows.map((row) => [row.type, row]));
       const added: string[] = [];
       const standing: StandingDeviation[] = [];
       for (const deviation of found) {

@@ -3,7 +3,7 @@ import { readyForSessionStatuses, type OrderStatus } from '../../shared/schemas/
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import { deriveDoseRecord } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
-import type { SessionEventInput } from '../../shared/session/session-events';
+import type { SessionEvent, SessionEventInput } from '../../shared/session/session-events';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
@@ -11,7 +11,7 @@ import type { OrderRepository } from '../orders/repository';
 import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
-import { addParticipant, type SessionRepository } from './repository';
+import type { SessionRepository } from './repository';
 
 /** A tablet clock may run a little ahead of ours; further ahead than this is a mistake. */
 const futureSkewMs = 10_000;
@@ -77,15 +77,17 @@ export function createSessionService(deps: {
     }
   }
 
-  /** Re-derives the record and deviations from every event, inside the caller's transaction. */
-  async function recompute(manager: EntityManager, order: SessionOrder) {
-    const events = await sessions.eventsFor(order.id, manager);
-    const record = deriveDoseRecord({ protocol: order.definition, plan: order.plan, events, nowMs: now() });
-    const preparation = await sessions.preparationTimes(manager, order.id);
-    const deviations = findDeviations({ protocol: order.definition, plan: order.plan, record, checklist: order.checklist, preparation });
+  /**
+   * Re-derives the record and deviations from every event, inside the caller's transaction.
+   * `events` are the order's events as read under its lock; by default they are read here.
+   */
+  async function recompute(manager: EntityManager, order: SessionOrder, events?: SessionEvent[]) {
+    const all = events ?? (await sessions.eventsFor(order.id, manager));
+    const record = deriveDoseRecord({ protocol: order.definition, plan: order.plan, events: all, nowMs: now() });
+    const deviations = findDeviations({ protocol: order.definition, plan: order.plan, record, checklist: order.checklist, preparation: order.preparation });
     const { standing } = await sessions.reconcileDeviations(manager, order.id, order.protocolVersionId, deviations);
     await sessions.saveRecord(manager, order.id, record, { protocolVersionId: order.protocolVersionId, unitTimeZone: deps.unitTimeZone, deviationCount: deviations.length });
-    return { events, record, deviations: standing };
+    return { record, deviations: standing };
   }
 
   async function state(orderId: number) {
@@ -102,6 +104,17 @@ export function createSessionService(deps: {
     };
   }
 
+  /** The answer to a send whose key is stored already: that event and the session as it stands. */
+  async function replayAnswer(orderId: number, idempotencyKey: string) {
+    const { events, ...rest } = await state(orderId);
+    const event = events.find((e) => e.idempotencyKey === idempotencyKey);
+    if (!event) throw AppError.conflict('key_reused', 'This idempotency key belongs to another order’s event.');
+    return { ...rest, event, eventCount: events.length, replayed: true };
+  }
+
+  const isDuplicateKey = (error: unknown) =>
+    (error as { code?: string }).code === 'ER_DUP_ENTRY' || (error as { driverError?: { code?: string } }).driverError?.code === 'ER_DUP_ENTRY';
+
   return {
     state,
 
@@ -111,29 +124,32 @@ export function createSessionService(deps: {
      * as it stands and adds nothing.
      */
     async record(actor: Actor, orderId: number, input: SessionEventInput) {
-      const existing = await sessions.findEventByKey(input.idempotencyKey);
-      if (existing) {
-        if (existing.orderId !== orderId) throw AppError.conflict('key_reused', 'This idempotency key belongs to another order’s event.');
-        return { ...(await state(orderId)), replayed: true };
-      }
       // Read before the transaction: a transaction must never wait for a second pooled connection,
       // or a burst of writes can hold every connection and wait on each other for ever.
       const auditors = input.type === 'session-completed' || input.type === 'session-stopped' ? (await users.list()).filter((u) => u.active && u.roles.includes('auditor')) : [];
 
-      let outcome: { status: OrderStatus; ended: boolean; result: Awaited<ReturnType<typeof recompute>> };
+      let outcome: { status: OrderStatus; ended: boolean; event: SessionEvent; events: SessionEvent[]; result: Awaited<ReturnType<typeof recompute>> };
+      let afterCommit: (() => void)[] = [];
       try {
         outcome = await dataSource.transaction(async (manager) => {
+          afterCommit = [];
           // One event at a time per order: the derived record always sees a settled list.
           const order = await sessionOrder(manager, orderId);
-          checkEventFits(order, input, now());
+          // The key goes in first: a resend (the key is unique) fails here and is answered below
+          // as the original was, whatever the session has done since.
           await sessions.insertEvent(manager, orderId, actor.id, input);
-          await addParticipant(manager, orderId, actor.id, 'nursed');
+          checkEventFits(order, input, now());
+          afterCommit.push(await sessions.addNurse(manager, orderId, actor.id));
           let status = order.status;
           if (input.type === 'session-started') status = 'in-session';
           const ends = (input.type === 'session-completed' || input.type === 'session-stopped') && order.status === 'in-session';
           if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
           if (status !== order.status) await orders.update(manager, orderId, { status });
-          const result = await recompute(manager, order);
+          const read = await sessions.eventsUnderLock(manager, orderId);
+          afterCommit.push(() => (ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read)));
+          const event = read.events.find((e) => e.idempotencyKey === input.idempotencyKey);
+          if (!event) throw new Error(`event ${input.idempotencyKey} was stored but not read back`);
+          const result = await recompute(manager, order, read.events);
           if (ends && result.deviations.length > 0) {
             await enqueueMessage(manager, {
               kind: 'session-deviations',
@@ -150,16 +166,18 @@ export function createSessionService(deps: {
               related: { type: 'order', id: orderId },
             });
           }
-          return { status, ended: ends, result };
+          return { status, ended: ends, event, events: read.events, result };
         });
       } catch (error) {
-        // Two sends of one key at once: the loser finds the winner's row and answers the same.
-        if ((error as { code?: string }).code === 'ER_DUP_ENTRY' || (error as { driverError?: { code?: string } }).driverError?.code === 'ER_DUP_ENTRY') {
-          const winner = await sessions.findEventByKey(input.idempotencyKey);
-          if (winner && winner.orderId === orderId) return { ...(await state(orderId)), replayed: true };
+        // A resend, or two sends of one key at once: answer from the stored row.
+        if (isDuplicateKey(error)) {
+          const stored = await sessions.findEventByKey(input.idempotencyKey);
+          if (stored && stored.orderId !== orderId) throw AppError.conflict('key_reused', 'This idempotency key belongs to another order’s event.');
+          if (stored) return replayAnswer(orderId, input.idempotencyKey);
         }
         throw error;
       }
+      for (const done of afterCommit) done();
       if (input.type === 'session-started' || outcome.ended || input.type === 'extravasation' || input.type === 'thickness-override') {
         await audit.append({
           actorUserId: actor.id,
@@ -170,8 +188,18 @@ export function createSessionService(deps: {
           details: { idempotencyKey: input.idempotencyKey, clientTime: input.clientTime, ...('reason' in input ? { reason: input.reason } : {}) },
         });
       }
-      // The answer comes from what the transaction worked out: no second read.
-      return { orderId, status: outcome.status, events: outcome.result.events, record: outcome.result.record, deviations: outcome.result.deviations, serverTime: new Date(now()).toISOString(), replayed: false };
+      // The answer is the new event and what follows from it, not the whole list: a tablet has
+      // the rest already, and `eventCount` tells it when another tablet added some it lacks.
+      return {
+        orderId,
+        status: outcome.status,
+        event: outcome.event,
+        eventCount: outcome.events.length,
+        record: outcome.result.record,
+        deviations: outcome.result.deviations,
+        serverTime: new Date(now()).toISOString(),
+        replayed: false,
+      };
     },
 
     /** After a restart: sessions still running get their record and deviations recomputed. */

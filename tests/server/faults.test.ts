@@ -109,6 +109,26 @@ describe('two API instances on one database', () => {
     expect(answers.map((a) => a.status).sort()).toEqual([200, 200, 200, 200, 200, 200, 200, 200, 200, 201]);
     expect(await eventCount(orderId)).toBe(2);
   }, 90_000);
+
+  it('take turns on one session, and every answer counts the events the other one stored', async () => {
+    second ??= await startApiProcess(portB, 'api-b');
+    const orderId = await readyCxlOrder(api!.url);
+    const nurse = await new FaultClient(api!.url).signIn('nurse@demo.luxtempo.example', demoPassword);
+    const taps = [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
+      ...[180, 300, 420, 540, 660].map((s) => at(s, { type: 'drop-given', stepId: 'riboflavin-soak' })),
+    ];
+    for (const [index, tap] of taps.entries()) {
+      // Each process remembers the events it has seen; the other's writes must still be counted.
+      const answer = await nurse.call('POST', `/orders/${orderId}/session-events`, tap, index % 2 === 0 ? api!.url : second!.url);
+      expect(answer.status).toBe(201);
+      expect(answer.body.event.idempotencyKey).toBe(tap.idempotencyKey);
+      expect(answer.body.eventCount).toBe(index + 1);
+    }
+    const state = await nurse.call('GET', `/orders/${orderId}/session`);
+    expect(state.body.events.map((e: { idempotencyKey: string }) => e.idempotencyKey)).toEqual(taps.map((t) => t.idempotencyKey));
+  }, 90_000);
 });
 
 describe('when the database stops for 20 seconds', () => {

@@ -1,7 +1,8 @@
 import type { SessionEventInput } from '../../../../shared/session/session-events';
 import { isApiRequestError, type FieldProblem } from '../../../lib/api-client';
 import type { EventQueue } from './event-queue';
-import { recordSessionEvent, type RecordedEventResponse } from './record-session-event';
+import { recordSessionEvent } from './record-session-event';
+import type { RecordedEventResponse } from './session-state-schema';
 
 export interface SyncState {
   sending: boolean;

@@ -1,14 +1,11 @@
-import type { z } from 'zod';
 import type { SessionEventInput } from '../../../../shared/session/session-events';
 import { api } from '../../../lib/api-client';
 import { recordServerTime } from './clock-offset';
-import { recordedEventResponseSchema } from './session-state-schema';
-
-export type RecordedEventResponse = z.infer<typeof recordedEventResponseSchema>;
+import { recordedEventResponseSchema, type RecordedEventResponse } from './session-state-schema';
 
 /**
  * Sends one tapped event. Its idempotency key makes a resend harmless: the server answers 200
- * with the same state instead of storing it twice.
+ * with the stored event instead of storing it twice.
  */
 export async function recordSessionEvent(orderId: number, event: SessionEventInput): Promise<RecordedEventResponse> {
   const sentAtMs = Date.now();

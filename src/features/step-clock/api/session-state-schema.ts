@@ -60,7 +60,13 @@ export const sessionStateSchema = z.object({
 });
 export type SessionState = z.infer<typeof sessionStateSchema>;
 
-export const recordedEventResponseSchema = sessionStateSchema.extend({ replayed: z.boolean() });
+/** What a recorded event answers with: that event, how many the session has now, and what follows from them. */
+export const recordedEventResponseSchema = sessionStateSchema.omit({ events: true }).extend({
+  event: storedEventSchema,
+  eventCount: z.number().int().nonnegative(),
+  replayed: z.boolean(),
+});
+export type RecordedEventResponse = z.infer<typeof recordedEventResponseSchema>;
 
 /**
  * Events are only ever added, so of two answers the one with fewer events is the older: an
@@ -69,4 +75,21 @@ export const recordedEventResponseSchema = sessionStateSchema.extend({ replayed:
 export function newerSessionState(current: SessionState | undefined, incoming: SessionState): SessionState {
   if (current && current.orderId === incoming.orderId && incoming.events.length < current.events.length) return current;
   return incoming;
+}
+
+/**
+ * The cached session with one recorded event's answer folded in. The event joins the list if it
+ * is not there yet; the record, deviations and status are taken only from an answer that has seen
+ * at least as many events as the list now holds (an older answer arriving late changes nothing
+ * else). `complete` is false when the server holds events this list lacks (another tablet's): the
+ * caller then fetches the whole session.
+ */
+export function withRecordedEvent(current: SessionState, answer: RecordedEventResponse): { state: SessionState; complete: boolean } {
+  const known = current.events.some((event) => event.idempotencyKey === answer.event.idempotencyKey);
+  const events = known ? current.events : [...current.events, answer.event].sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime) || a.id - b.id);
+  const newer = answer.eventCount >= events.length;
+  const state: SessionState = newer
+    ? { orderId: current.orderId, status: answer.status, events, record: answer.record, deviations: answer.deviations, serverTime: answer.serverTime }
+    : { ...current, events };
+  return { state, complete: answer.eventCount <= events.length };
 }

@@ -5,7 +5,7 @@ import type { SessionEventInput } from '../../../../shared/session/session-event
 import { serverNowMs } from '../api/clock-offset';
 import { eventQueueFor, newIdempotencyKey } from '../api/event-queue';
 import { eventSyncFor } from '../api/event-sync';
-import { newerSessionState } from '../api/session-state-schema';
+import { withRecordedEvent } from '../api/session-state-schema';
 import { stepClockQueries } from '../api/step-clock-queries';
 
 /** What a tap says, without the key and time the tablet adds. */
@@ -24,8 +24,13 @@ export function useSessionEvents(orderId: number) {
   const syncState = useSyncExternalStore(sync.subscribe, sync.state, sync.state);
 
   useEffect(() => {
-    const detach = sync.attach((response) => {
-      queryClient.setQueryData(stepClockQueries.session(orderId).queryKey, (current) => newerSessionState(current, response));
+    const { queryKey } = stepClockQueries.session(orderId);
+    const detach = sync.attach((answer) => {
+      const current = queryClient.getQueryData(queryKey);
+      const merged = current ? withRecordedEvent(current, answer) : null;
+      if (merged) queryClient.setQueryData(queryKey, merged.state);
+      // Nothing loaded yet, or another tablet stored events this one has not seen: fetch them all.
+      if (!merged?.complete) void queryClient.invalidateQueries({ queryKey });
     });
     // Taps left from before a reload go out now.
     sync.pump();
