@@ -1,9 +1,8 @@
 import { readFile } from 'node:fs/promises';
-import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoScenario } from '../../server/demo/scenario';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import { accessibilityViolations, settledRows, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
 
 let ctx: BrowserContext;
 
@@ -18,13 +17,6 @@ afterAll(async () => {
 
 const csvHeader =
   'deviation_id,order_id,detected_at (ISO 8601),protocol,protocol_version,patient_record_number,eye,type,severity,expected,actual,unit,message,review_status,classification,reviewed_by,reviewed_at (ISO 8601),review_comment';
-
-/** The queue's rows once the table has settled (no page still loading behind it). */
-async function settledRows(page: Page): Promise<string[]> {
-  const table = page.locator('main table').first();
-  if ((await table.count()) === 0 || (await table.locator('xpath=..').getAttribute('aria-busy')) === 'true') return [];
-  return table.locator('tbody tr').allInnerTexts();
-}
 
 describe('the auditor reviews a deviation from the queue', () => {
   it('filters to one protocol, closes a late-light deviation with a classification and a comment, sees it closed, and finds it in the CSV', async () => {

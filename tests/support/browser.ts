@@ -52,6 +52,16 @@ export function watchPage(page: Page, baseUrl: string) {
   return problems;
 }
 
+/**
+ * The rows of the page's first table once it has settled: none while the table's wrapper says
+ * aria-busy (a new page or order still loading behind the one shown).
+ */
+export async function settledRows(page: Page): Promise<string[]> {
+  const table = page.locator('main table').first();
+  if ((await table.count()) === 0 || (await table.locator('xpath=..').getAttribute('aria-busy')) === 'true') return [];
+  return table.locator('tbody tr').allInnerTexts();
+}
+
 export async function signInThroughForm(page: Page, baseUrl: string, email: string, password: string) {
   await page.goto(`${baseUrl}/sign-in`);
   await page.getByLabel('E-mail').fill(email);

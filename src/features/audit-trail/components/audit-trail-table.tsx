@@ -1,11 +1,9 @@
 import { Link } from 'react-router-dom';
 import type { AuditTrailQuery } from '../../../../shared/schemas/reviews';
-import { Button } from '../../../components/ui/button';
-import { PageBackIcon, PageForwardIcon } from '../../../components/ui/icons';
+import { pageRange, TablePager } from '../../../components/ui/table-pager';
 import { paths } from '../../../config/paths';
 import type { AuditEvent } from '../api/audit-event-schemas';
 import { actionLabel, recordTypeLabel, summariseDetails } from './audit-words';
-import { SelectField } from '../../../components/ui/select-field';
 import { formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
 
 /** A link to the record where a screen for it exists. */
@@ -52,9 +50,7 @@ type AuditTrailTableProps = {
 
 /** One page of the trail; read-only. */
 export function AuditTrailTable({ events, total, query, onChange, busy }: AuditTrailTableProps) {
-  const pageCount = Math.max(1, Math.ceil(total / query.pageSize));
-  const first = total === 0 ? 0 : (query.page - 1) * query.pageSize + 1;
-  const last = Math.min(total, query.page * query.pageSize);
+  const { first, last } = pageRange(query.page, query.pageSize, total);
   return (
     <div className="space-y-3">
       <div className="relative overflow-x-auto rounded-2xl border border-paper-200 bg-white" aria-busy={busy || undefined}>
@@ -99,27 +95,16 @@ export function AuditTrailTable({ events, total, query, onChange, busy }: AuditT
           </tbody>
         </table>
       </div>
-      <nav aria-label="Pages of the audit trail" className="flex flex-wrap items-end justify-between gap-4">
-        <p role="status" className="text-paper-800">
-          {total === 0 ? 'No events' : `Events ${first}–${last} of ${total}`} · page {query.page} of {pageCount}
-        </p>
-        <div className="flex flex-wrap items-end gap-3">
-          <SelectField label="Events per page" value={String(query.pageSize)} className="w-40" onChange={(e) => onChange({ pageSize: Number(e.target.value) })}>
-            {[25, 50, 100, 200].map((size) => (
-              <option key={size} value={size}>
-                {size}
-              </option>
-            ))}
-          </SelectField>
-          <Button variant="secondary" icon={<PageBackIcon />} disabled={query.page <= 1} onClick={() => onChange({ page: query.page - 1 })}>
-            Previous page
-          </Button>
-          <Button variant="secondary" disabled={query.page >= pageCount} onClick={() => onChange({ page: query.page + 1 })}>
-            Next page
-            <PageForwardIcon />
-          </Button>
-        </div>
-      </nav>
+      <TablePager
+        words={{ navLabel: 'Pages of the audit trail', items: 'Events', none: 'No events', perPage: 'Events per page' }}
+        page={query.page}
+        pageSize={query.pageSize}
+        total={total}
+        pageSizes={[25, 50, 100, 200]}
+        perPageClassName="w-40"
+        onPage={(page) => onChange({ page })}
+        onPageSize={(pageSize) => onChange({ pageSize })}
+      />
     </div>
   );
 }

@@ -1,20 +1,17 @@
 import { useMemo } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
-import { createColumnHelper, rowPaginationFeature, rowSortingFeature, tableFeatures, useTable, type PaginationState, type SortingState, type Updater } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import type { AuditFilter } from '../../../../shared/schemas/reviews';
-import { Button } from '../../../components/ui/button';
-import { PageBackIcon, PageForwardIcon, SortIcon } from '../../../components/ui/icons';
+import { PagedTable, type PagedTableFeatures } from '../../../components/ui/paged-table';
 import { paths } from '../../../config/paths';
 import type { DeviationRow } from '../api/deviation-schemas';
 import type { DeviationListParams } from '../hooks/use-deviation-list-params';
 import { ClassificationLabel, ReviewStatusBadge, SeverityBadge } from './deviation-badges';
 import { eyeWords, typeWords } from './deviation-words';
-import { SelectField } from '../../../components/ui/select-field';
 import { formatFigure, formatUnitDateTime } from '../../../lib/unit-times';
 
-const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
-const helper = createColumnHelper<typeof features, DeviationRow>();
-const sortKeys: readonly string[] = ['detectedAt', 'severity', 'type', 'status'];
+const helper = createColumnHelper<PagedTableFeatures, DeviationRow>();
+const sortKeys: readonly AuditFilter['sort'][] = ['detectedAt', 'severity', 'type', 'status'];
 
 /** Where the review screen's "back to the queue" link returns to, with the queue's filter. */
 export type QueueState = { queueSearch: string };
@@ -95,119 +92,23 @@ type DeviationsTableProps = {
   busy: boolean;
 };
 
-function resolve<T>(updater: Updater<T>, current: T): T {
-  return typeof updater === 'function' ? (updater as (old: T) => T)(current) : updater;
-}
-
 /** One page of the queue. Sorting and paging are done by the server; the table only asks for them. */
 export function DeviationsTable({ rows, total, params, queueSearch, onChange, busy }: DeviationsTableProps) {
   const navigate = useNavigate();
   const columns = useMemo(() => columnsFor(queueSearch), [queueSearch]);
-  const sorting = useMemo<SortingState>(() => [{ id: params.sort, desc: params.direction === 'desc' }], [params.sort, params.direction]);
-  const pagination = useMemo<PaginationState>(() => ({ pageIndex: params.page - 1, pageSize: params.pageSize }), [params.page, params.pageSize]);
-
-  const table = useTable({
-    features,
-    columns,
-    data: rows,
-    getRowId: (d) => String(d.id),
-    manualSorting: true,
-    manualPagination: true,
-    rowCount: total,
-    enableSortingRemoval: false,
-    state: { sorting, pagination },
-    onSortingChange: (updater) => {
-      const [next] = resolve(updater, sorting);
-      if (next && sortKeys.includes(next.id)) onChange({ sort: next.id as AuditFilter['sort'], direction: next.desc ? 'desc' : 'asc' });
-    },
-    onPaginationChange: (updater) => {
-      const next = resolve(updater, pagination);
-      if (next.pageSize !== pagination.pageSize) onChange({ pageSize: next.pageSize });
-      else onChange({ page: next.pageIndex + 1 });
-    },
-  });
-
-  const pageCount = Math.max(1, table.getPageCount());
-  const first = total === 0 ? 0 : (params.page - 1) * params.pageSize + 1;
-  const last = Math.min(total, params.page * params.pageSize);
-
   return (
-    <div className="space-y-3">
-      <div className="relative overflow-x-auto rounded-2xl border border-paper-200 bg-white" aria-busy={busy || undefined}>
-        <table className="w-full border-collapse text-left">
-          <caption className="sr-only">
-            Deviations {first} to {last} of {total}. Column headers with a button sort the queue; the deviation’s name opens its review.
-          </caption>
-          <thead className="bg-paper-100 text-sm text-paper-700">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  const canSort = header.column.getCanSort() && sortKeys.includes(header.column.id);
-                  return (
-                    <th
-                      key={header.id}
-                      scope="col"
-                      aria-sort={canSort ? (sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none') : undefined}
-                      className="px-3 py-2 font-semibold first:pl-4 last:pr-4"
-                    >
-                      {header.isPlaceholder ? null : canSort ? (
-                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="-mx-2 inline-flex min-h-10 items-center gap-1 rounded-md px-2 hover:bg-paper-200">
-                          <table.FlexRender header={header} />
-                          <SortIcon sortOrder={sorted} className="size-4" />
-                        </button>
-                      ) : (
-                        <table.FlexRender header={header} />
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody className={busy ? 'opacity-60' : ''}>
-            {table.getRowModel().rows.map((row) => (
-              <tr
-                key={row.id}
-                // The link in the row is the keyboard's way in; a click anywhere else on the row does the same for a mouse.
-                onClick={(event) => {
-                  if ((event.target as HTMLElement).closest('a, button')) return;
-                  navigate(paths.deviation.getHref(row.original.id), { state: { queueSearch } satisfies QueueState });
-                }}
-                className="cursor-pointer border-t border-paper-200 align-top hover:bg-paper-50"
-              >
-                {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-3 first:pl-4 last:pr-4">
-                    <table.FlexRender cell={cell} />
-                  </td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
-
-      <nav aria-label="Pages of deviations" className="flex flex-wrap items-end justify-between gap-4">
-        <p role="status" className="text-paper-800">
-          {total === 0 ? 'No deviations' : `Deviations ${first}–${last} of ${total}`} · page {params.page} of {pageCount}
-        </p>
-        <div className="flex flex-wrap items-end gap-3">
-          <SelectField label="Deviations per page" value={String(params.pageSize)} className="w-44" onChange={(e) => table.setPageSize(Number(e.target.value))}>
-            {[10, 25, 50, 100].map((size) => (
-              <option key={size} value={size}>
-                {size}
-              </option>
-            ))}
-          </SelectField>
-          <Button variant="secondary" icon={<PageBackIcon />} disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>
-            Previous page
-          </Button>
-          <Button variant="secondary" disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>
-            Next page
-            <PageForwardIcon />
-          </Button>
-        </div>
-      </nav>
-    </div>
+    <PagedTable
+      columns={columns}
+      rows={rows}
+      getRowId={(d) => String(d.id)}
+      total={total}
+      paging={params}
+      sortKeys={sortKeys}
+      onChange={onChange}
+      busy={busy}
+      caption={({ first, last }) => `Deviations ${first} to ${last} of ${total}. Column headers with a button sort the queue; the deviation’s name opens its review.`}
+      pagerWords={{ navLabel: 'Pages of deviations', items: 'Deviations', none: 'No deviations', perPage: 'Deviations per page' }}
+      onRowClick={(row) => navigate(paths.deviation.getHref(row.id), { state: { queueSearch } satisfies QueueState })}
+    />
   );
 }

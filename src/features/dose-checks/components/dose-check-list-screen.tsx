@@ -3,6 +3,7 @@ import { Link } from 'react-router-dom';
 import type { OrderSummary } from '../../../../shared/schemas/orders';
 import { Button } from '../../../components/ui/button';
 import { AlertIcon, ChevronRightIcon, ReloadIcon } from '../../../components/ui/icons';
+import { OrderStatusLabel } from '../../../components/ui/order-status-label';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
@@ -11,7 +12,6 @@ import { doseCheckQueries } from '../api/dose-check-queries';
 import { useServerNowMs } from '../hooks/use-server-now';
 import { BeyondUseChip } from './beyond-use-countdown';
 import { eyeWords, patientName, unitDateTime } from './display-format';
-import { OrderStatusLabel } from './order-status-label';
 
 export function DoseCheckListScreen() {
   const worklists = useQuery(doseCheckQueries.worklists());
@@ -112,7 +112,7 @@ function OrderList({ id, title, empty, orders, when, countdown = false }: OrderL
                 {order.protocol.title} <span className="text-paper-700">v{order.protocol.version}</span>
                 {when && <span className="block text-sm text-paper-700">{when(order)}</span>}
               </span>
-              {countdown && order.beyondUseAt ? <ListCountdown order={{ ...order, beyondUseAt: order.beyondUseAt }} /> : <OrderStatusLabel status={order.status} />}
+              {countdown && order.beyondUseAt ? <ListCountdown order={{ ...order, beyondUseAt: order.beyondUseAt }} /> : <OrderStatusLabel status={order.status} wording="long" />}
               <ChevronRightIcon className="size-5 text-paper-600" />
             </li>
           ))}

@@ -3,6 +3,7 @@ import { useEffect, useRef, useState, type RefObject } from 'react';
 import type { OrderDetail, OrderStatus } from '../../../../shared/schemas/orders';
 import { Button, LinkButton } from '../../../components/ui/button';
 import { AlertIcon, ArrowLeftIcon, CheckCircleIcon, InfoIcon, LockIcon, ReloadIcon, TurnBackIcon } from '../../../components/ui/icons';
+import { orderStatusWords } from '../../../components/ui/order-status-label';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
@@ -18,7 +19,6 @@ import { DrugParameters } from './drug-parameters';
 import { FiguresHiddenNote } from './figures-hidden-note';
 import { OrderIdentity } from './order-identity';
 import { OrderInputs } from './order-inputs';
-import { orderStatusWords } from './order-status-label';
 import { PreparationForm } from './preparation-form';
 import { PreparationRecord } from './preparation-record';
 import { TreatmentCautions } from './treatment-cautions';
@@ -61,7 +61,7 @@ export function DoseCheckScreen({ orderId, userId, canPrepare }: DoseCheckScreen
   const header = (
     <PageHeader
       title={order ? `Dose check: ${patientName(order.patient)}` : 'Dose check'}
-      lead={order ? `Order ${order.id}, record ${order.patient.recordNumber}. ${orderStatusWords(order.status)}.` : `Order ${orderId}`}
+      lead={order ? `Order ${order.id}, record ${order.patient.recordNumber}. ${orderStatusWords(order.status, 'long')}.` : `Order ${orderId}`}
       actions={
         <LinkButton to={paths.doseChecks.getHref()} icon={<ArrowLeftIcon />}>
           All dose checks
@@ -211,7 +211,7 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
   const plan = order.plan;
   if (!plan) {
     return (
-      <StatusPanel icon={<InfoIcon className="size-6" />} title={`This order is ${orderStatusWords(order.status).toLowerCase()}`}>
+      <StatusPanel icon={<InfoIcon className="size-6" />} title={`This order is ${orderStatusWords(order.status, 'long').toLowerCase()}`}>
         <p>It is not waiting for a dose check, and its plan is not shown to you here.</p>
       </StatusPanel>
     );
@@ -246,7 +246,7 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
   }
 
   return (
-    <StatusPanel icon={<CheckCircleIcon className="size-6" />} title={`This order is ${orderStatusWords(order.status).toLowerCase()}`}>
+    <StatusPanel icon={<CheckCircleIcon className="size-6" />} title={`This order is ${orderStatusWords(order.status, 'long').toLowerCase()}`}>
       <p>It is not waiting for a dose check.</p>
     </StatusPanel>
   );

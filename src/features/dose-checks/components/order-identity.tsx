@@ -1,6 +1,6 @@
 import type { OrderDetail } from '../../../../shared/schemas/orders';
+import { OrderStatusLabel } from '../../../components/ui/order-status-label';
 import { eyeWords, patientName, unitDateTime } from './display-format';
-import { OrderStatusLabel } from './order-status-label';
 
 /** Who and what the order is for: checked against the patient's wristband and the prescription. */
 export function OrderIdentity({ order }: { order: OrderDetail }) {
@@ -32,7 +32,7 @@ export function OrderIdentity({ order }: { order: OrderDetail }) {
             {order.signedAt ? `Signed ${unitDateTime(order.signedAt)}${order.signedBy ? ` by ${order.signedBy.displayName}` : ''}` : 'Not signed'}
           </dd>
           <dd className="mt-1.5">
-            <OrderStatusLabel status={order.status} />
+            <OrderStatusLabel status={order.status} wording="long" />
           </dd>
         </div>
       </dl>

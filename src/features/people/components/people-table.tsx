@@ -11,7 +11,8 @@ import {
 import { roleLabels } from '../../../../shared/roles';
 import type { Person } from '../../../../shared/schemas/people';
 import { Button } from '../../../components/ui/button';
-import { PencilIcon, SortIcon } from '../../../components/ui/icons';
+import { PencilIcon } from '../../../components/ui/icons';
+import { SortableHeader } from '../../../components/ui/sortable-header';
 import { PersonStatus } from './person-status';
 
 const features = tableFeatures({
@@ -110,31 +111,17 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus }: P
         <thead className="bg-paper-100 text-sm text-paper-700">
           {table.getHeaderGroups().map((group) => (
             <tr key={group.id}>
-              {group.headers.map((header) => {
-                const sorted = header.column.getIsSorted();
-                const canSort = header.column.getCanSort();
-                return (
-                  <th
-                    key={header.id}
-                    scope="col"
-                    aria-sort={canSort ? (sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none') : undefined}
-                    className={`px-3 py-2 font-semibold first:pl-4 last:pr-4 ${header.column.id === 'actions' ? 'text-right print:hidden' : ''}`}
-                  >
-                    {header.isPlaceholder ? null : canSort ? (
-                      <button
-                        type="button"
-                        onClick={header.column.getToggleSortingHandler()}
-                        className="-mx-2 inline-flex min-h-10 items-center gap-1 rounded-md px-2 hover:bg-paper-200"
-                      >
-                        <table.FlexRender header={header} />
-                        <SortIcon sortOrder={sorted} className="size-4" />
-                      </button>
-                    ) : (
-                      <table.FlexRender header={header} />
-                    )}
-                  </th>
-                );
-              })}
+              {group.headers.map((header) => (
+                <SortableHeader
+                  key={header.id}
+                  canSort={!header.isPlaceholder && header.column.getCanSort()}
+                  sorted={header.column.getIsSorted()}
+                  onToggleSort={header.column.getToggleSortingHandler()}
+                  className={header.column.id === 'actions' ? 'text-right print:hidden' : ''}
+                >
+                  {header.isPlaceholder ? null : <table.FlexRender header={header} />}
+                </SortableHeader>
+              ))}
             </tr>
           ))}
         </thead>

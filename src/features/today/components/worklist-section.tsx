@@ -3,11 +3,11 @@ import { Link } from 'react-router-dom';
 import type { OrderSummary } from '../../../../shared/schemas/orders';
 import { LinkButton } from '../../../components/ui/button';
 import { ChevronRightIcon, ClockIcon } from '../../../components/ui/icons';
+import { OrderStatusLabel } from '../../../components/ui/order-status-label';
 import { paths } from '../../../config/paths';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 import type { Worklist } from '../api/get-today';
 import { BeyondUseChip } from './beyond-use-chip';
-import { OrderStatusLabel } from './order-status-label';
 
 const emptyWords: Record<string, string> = {
   'clinician-drafts': 'You have no draft orders.',
@@ -70,7 +70,7 @@ export function WorklistSection({ list, clockOffsetMs }: { list: Worklist; clock
                   <span className="block text-sm text-paper-700">{signedText(order)}</span>
                 </span>
                 <span className="flex flex-wrap items-center gap-2">
-                  <OrderStatusLabel status={order.status} />
+                  <OrderStatusLabel status={order.status} wording="short" />
                   {order.status === 'prepared' && order.kind === 'pdt' && order.beyondUseAt && (
                     <BeyondUseChip beyondUseAt={order.beyondUseAt} clockOffsetMs={clockOffsetMs} subject={`Order ${order.id}, ${name}`} />
                   )}
