@@ -21,7 +21,7 @@ export function calculationRoutes(protocols: ProtocolService): RouteSpec[] {
       access: 'calculations.run',
       handler: async (req, res) => {
         const request = parseInput(calculationRequestSchema, req.body);
-        const row = await protocols.resolveForUse(request.protocol.key, request.protocol.version);
+        const row = await protocols.resolveForPreview(request.protocol.key, request.protocol.version);
         let plan;
         try {
           plan = computePlan(row.definition, request.inputs);

@@ -3,6 +3,7 @@
 // API as a separate process, so the load generator does not share the server's event loop.
 import type { EventEmitter } from 'node:events';
 import { mkdirSync, writeFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { randomUUID } from 'node:crypto';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
@@ -18,6 +19,7 @@ import { startApiProcess } from './api-process';
 import { measureEngine } from './bench-engine';
 import { buildClient } from './build-client';
 import { measureClockError } from './bench-clock';
+import { cpuTimeMs } from './process-cpu';
 import { localEnvironment } from './environment';
 import { ensureDatabaseServer } from './mariadb';
 import { clientDistDir, dataDir } from './paths';
@@ -26,9 +28,11 @@ const benchDatabase = 'luxtempo_bench';
 const port = Number(process.env.BENCH_PORT ?? 3398);
 const connections = 50;
 const durationS = Number(process.env.BENCH_SECONDS ?? 10);
+const warmUpS = 3;
 const targets = { calculationP95Ms: 20, eventWriteP95Ms: 40, firstLoadJsGzipKb: 200, clockErrorMs: 250 };
 
-const webConcurrency = process.env.WEB_CONCURRENCY ?? '1';
+// One API process per core, as the server would be run on this machine (WEB_CONCURRENCY overrides).
+const webConcurrency = process.env.WEB_CONCURRENCY ?? String(availableParallelism());
 const env = { ...localEnvironment(benchDatabase), NODE_ENV: 'production', DEMO_DATA: 'false', SMTP_PORT: '1126', LOGIN_FAILURE_LIMIT: '1000', CLIENT_DIR: clientDistDir, WEB_CONCURRENCY: webConcurrency };
 const config = loadConfig(env);
 
@@ -66,14 +70,38 @@ function percentile(sorted: number[], p: number): number {
   return Math.round(sorted[index]! * 100) / 100;
 }
 
+/** Processes whose CPU time each load run reports: the API (with its workers) and MariaDB. */
+let measured: { apiPid: number; databasePid: number } | null = null;
+
+/**
+ * What each request cost in CPU time, and what that allows: if CPU were the only limit and every
+ * core were kept busy, the most the machine could serve, and so (Little's law) the least average
+ * wait with this many connections open.
+ */
+function cpuCost(before: { api: number; database: number; loadGenerator: NodeJS.CpuUsage }, requests: number) {
+  const perRequest = (ms: number) => Math.round((ms / Math.max(1, requests)) * 1000) / 1000;
+  const api = perRequest(cpuTimeMs([measured!.apiPid]) - before.api);
+  const database = perRequest(cpuTimeMs([measured!.databasePid]) - before.database);
+  const generator = process.cpuUsage(before.loadGenerator);
+  // autocannon runs in this process and takes its share of the same cores.
+  const loadGenerator = perRequest((generator.user + generator.system) / 1000);
+  const cores = availableParallelism();
+  const ceilingPerS = Math.round((cores * 1000) / (api + database + loadGenerator));
+  return { api, database, loadGenerator, cores, ceilingPerS, leastMeanLatencyMs: Math.round(((connections * 1000) / ceilingPerS) * 10) / 10 };
+}
+
 /** Runs autocannon and takes every response's time itself, so p95 is exact rather than bucketed. */
 async function load(title: string, opts: autocannon.Options) {
+  // A few seconds first that are not counted: the API's code is compiled as it is first used.
+  await (autocannon({ ...opts, connections, duration: warmUpS }) as unknown as Promise<autocannon.Result>);
   const times: number[] = [];
+  const cpuBefore = measured && { api: cpuTimeMs([measured.apiPid]), database: cpuTimeMs([measured.databasePid]), loadGenerator: process.cpuUsage() };
   // Without a callback autocannon returns an emitter that is also a promise of the result.
   const instance = autocannon({ ...opts, connections, duration: durationS }) as unknown as EventEmitter & Promise<autocannon.Result>;
   instance.on('response', (_client: unknown, _status: number, _bytes: number, responseTimeMs: number) => times.push(responseTimeMs));
   const result = await instance;
   times.sort((a, b) => a - b);
+  const cpuMsPerRequest = measured && cpuBefore ? cpuCost(cpuBefore, times.length) : null;
   const out = {
     connections,
     durationS,
@@ -82,8 +110,13 @@ async function load(title: string, opts: autocannon.Options) {
     latencyMs: { p50: percentile(times, 50), p95: percentile(times, 95), p99: percentile(times, 99), max: percentile(times, 100) },
     non2xx: result.non2xx,
     errors: result.errors,
+    cpuMsPerRequest,
   };
   console.log(`${title.padEnd(24)} p50 ${out.latencyMs.p50} ms  p95 ${out.latencyMs.p95} ms  p99 ${out.latencyMs.p99} ms  ${out.throughputPerS} req/s  (${out.requests} requests, ${out.non2xx} not 2xx, ${out.errors} errors)`);
+  if (cpuMsPerRequest) {
+    const c = cpuMsPerRequest;
+    console.log(`${''.padEnd(24)} CPU per request: API ${c.api} ms + MariaDB ${c.database} ms + load generator ${c.loadGenerator} ms → ${c.cores} cores serve at most ${c.ceilingPerS} req/s, so ${connections} connections wait ≥ ${c.leastMeanLatencyMs} ms on average`);
+  }
   return out;
 }
 
@@ -121,6 +154,7 @@ const api = await startApiProcess({ port, env, logFile: path.join(dataDir, 'benc
 let results: Record<string, unknown> = {};
 try {
   const base = api.url;
+  measured = { apiPid: api.child.pid!, databasePid: database.pid() };
   const nurse = await signIn(base, 'nurse');
   const clinician = await signIn(base, 'clinician');
 

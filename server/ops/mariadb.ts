@@ -22,6 +22,7 @@ export interface DatabaseServerOptions {
 
 export interface DatabaseServer {
   startedHere: boolean;
+  pid(): number;
   stop(): Promise<void>;
 }
 
@@ -150,6 +151,8 @@ export async function ensureDatabaseServer(options: DatabaseServerOptions): Prom
   await createDatabasesAndUsers(paths, options);
   return {
     startedHere,
+    /** The server's process id, from its pid file. */
+    pid: () => Number(readFileSync(paths.pidFile, 'utf8').trim()),
     async stop() {
       if (!startedHere) return;
       shutdownDatabaseServer(options.instanceDir);

@@ -63,12 +63,28 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
     return row;
   }
 
+  /** The version an order uses: the one named, or the newest approved. */
+  async function resolveForUse(key: string, version?: number): Promise<ProtocolForUse> {
+    const row = await repo.findForUse(key, version);
+    if (row) return row;
+    throw AppError.notFound(version === undefined ? `There is no approved version of protocol ${key}.` : `There is no protocol ${key} version ${version}.`);
+  }
+
+  /**
+   * Versions as a calculation last found them. A calculation only previews a plan, so it may use
+   * what was read up to a second ago; an order resolves its version afresh in its own transaction.
+   * Any change made through this process empties it at once.
+   */
+  const previews = new Map<string, { row: ProtocolForUse; readAtMs: number }>();
+  const previewMaxAgeMs = 1_000;
+
   return {
     /**
      * Stores every shipped file as an approved version of the demo unit. A stored version whose
      * content differs from its file stops the start: approved versions never change.
      */
     async loadShippedFiles(directory: string): Promise<{ added: string[]; unchanged: number }> {
+      previews.clear();
       const files = readdirSync(directory).filter((f) => f.endsWith('.json')).sort();
       const added: string[] = [];
       let unchanged = 0;
@@ -142,14 +158,21 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
       return toVersionDetail(await mustFind(key, version));
     },
 
-    /** The version an order or calculation uses: the one named, or the newest approved. */
-    async resolveForUse(key: string, version?: number): Promise<ProtocolForUse> {
-      const row = await repo.findForUse(key, version);
-      if (row) return row;
-      throw AppError.notFound(version === undefined ? `There is no approved version of protocol ${key}.` : `There is no protocol ${key} version ${version}.`);
+    resolveForUse,
+
+    /** The version a calculation previews, read at most once a second (see `previews`). */
+    async resolveForPreview(key: string, version?: number): Promise<ProtocolForUse> {
+      const cacheKey = `${key}@${version ?? 'newest'}`;
+      const known = previews.get(cacheKey);
+      if (known && Date.now() - known.readAtMs < previewMaxAgeMs) return known.row;
+      const row = await resolveForUse(key, version);
+      if (previews.size > 200) previews.clear();
+      previews.set(cacheKey, { row, readAtMs: Date.now() });
+      return row;
     },
 
     async importVersion(actor: Actor, json: unknown, fileName: string) {
+      previews.clear();
       if (json && typeof json === 'object' && 'approval' in json && (json as { approval: unknown }).approval != null) {
         throw AppError.badRequest('An imported version must not carry an approval block: it is approved here, by two people.', [
           { path: 'approval', message: 'approval must be null in an imported version' },
@@ -163,6 +186,7 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
     },
 
     async createDraftFrom(actor: Actor, from: { key: string; version: number }) {
+      previews.clear();
       const source = await mustFind(from.key, from.version);
       const version = (await repo.highestVersion(from.key)) + 1;
       const definition = parseDefinition({ ...source.definition, version, approval: null }, '');
@@ -170,6 +194,7 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
     },
 
     async storeDraft(actor: Actor, definition: ProtocolDefinition, origin: 'imported' | 'cloned', fileName: string | null, extra: Record<string, unknown> = {}) {
+      previews.clear();
       const sha256 = definitionSha256(definition);
       let row: ProtocolVersion;
       try {
@@ -206,6 +231,7 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
     },
 
     async updateDraft(actor: Actor, key: string, version: number, input: unknown) {
+      previews.clear();
       const row = await mustFind(key, version);
       if (row.status !== 'draft') throw AppError.conflict('not_a_draft', `Protocol ${key} version ${version} is ${row.status}; only a draft can be edited.`);
       const definition = parseDefinition(input, 'definition');
@@ -229,6 +255,7 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
     },
 
     async approve(actor: Actor, key: string, version: number) {
+      previews.clear();
       const found = await mustFind(key, version);
       const approvedAs = approvingRoles.find((role) => actor.roles.includes(role));
       if (!approvedAs) throw AppError.forbidden('Only a clinician or a pharmacist can approve a protocol version.');
@@ -256,6 +283,7 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
     },
 
     async retire(actor: Actor, key: string, version: number, reason: string) {
+      previews.clear();
       const found = await mustFind(key, version);
       await repo.withLockedVersion(found.id, async (manager, row) => {
         if (row.status !== 'approved') throw AppError.conflict('not_approved', `Only an approved version can be retired; ${key} version ${version} is ${row.status}.`);
