@@ -1,6 +1,7 @@
 import { useCallback, useMemo } from 'react';
-import { useSearchParams } from 'react-router-dom';
 import { auditTrailQuerySchema, type AuditTrailQuery } from '../../../../shared/schemas/reviews';
+import { changedListParams, readListParams, writeListParams } from '../../../lib/list-params';
+import { useLatestSearchParams } from '../../../lib/use-latest-search-params';
 
 const defaults = { direction: 'desc', page: 1, pageSize: 50 } as const;
 const filterKeys = ['from', 'to', 'action', 'actor', 'entityType', 'entityId'] as const;
@@ -13,32 +14,19 @@ function readParam(search: URLSearchParams, key: (typeof keys)[number]): unknown
   return parsed.success ? parsed.data : undefined;
 }
 
+function readQuery(search: URLSearchParams): AuditTrailQuery {
+  return readListParams(search, defaults, keys, readParam);
+}
+
 /** The trail's filters and page, kept in the address. */
 export function useAuditTrailParams() {
-  const [search, setSearch] = useSearchParams();
-
-  const query = useMemo<AuditTrailQuery>(() => {
-    const q: AuditTrailQuery = { ...defaults };
-    for (const key of keys) {
-      const value = readParam(search, key);
-      if (value !== undefined) Object.assign(q, { [key]: value });
-    }
-    return q;
-  }, [search]);
+  const [search, changeSearch] = useLatestSearchParams();
+  const query = useMemo(() => readQuery(search), [search]);
 
   const update = useCallback(
-    (changes: Partial<AuditTrailQuery>) => {
-      const next: AuditTrailQuery = { ...query, ...changes };
-      if (!('page' in changes)) next.page = 1;
-      const out = new URLSearchParams();
-      for (const key of keys) {
-        const value = next[key];
-        if (value === undefined || value === '' || value === (defaults as Record<string, unknown>)[key]) continue;
-        out.set(key, String(value));
-      }
-      setSearch(out);
-    },
-    [query, setSearch],
+    (changes: Partial<AuditTrailQuery>) =>
+      changeSearch((latest) => writeListParams(changedListParams(readQuery(latest), changes), keys, defaults)),
+    [changeSearch],
   );
 
   return { query, update, filtered: filterKeys.some((key) => query[key] !== undefined) };

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { AuditFilter } from '../../../../shared/schemas/reviews';
+import { getProtocolChoices } from '../../../lib/get-protocol-choices';
 import { getDeviation } from './get-deviation';
 import { getDeviations } from './get-deviations';
-import { getProtocolChoices } from './get-protocol-choices';
 import { getProtocolSteps } from './get-protocol-steps';
 import { getTreatmentOrder } from './get-treatment-order';
 

@@ -111,11 +111,5 @@ export type DeviationDetail = z.infer<typeof deviationDetailSchema>;
 
 export const orderResponseSchema = z.object({ order: orderDetailSchema });
 
-const versionChoiceSchema = z.object({ key: z.string(), version: z.number().int(), title: z.string(), status: z.string() });
-export const protocolChoicesSchema = z.object({
-  protocols: z.array(z.object({ key: z.string(), kind: z.enum(['pdt', 'cxl']), title: z.string(), versions: z.array(versionChoiceSchema) })),
-});
-export type ProtocolChoice = z.infer<typeof protocolChoicesSchema>['protocols'][number];
-
 /** Only what the review reads from a protocol version: its steps (names, durations) and the CXL thickness minimum. */
 

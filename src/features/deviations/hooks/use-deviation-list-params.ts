@@ -1,6 +1,7 @@
 import { useCallback, useMemo } from 'react';
-import { useSearchParams } from 'react-router-dom';
 import { auditFilterSchema, type AuditFilter } from '../../../../shared/schemas/reviews';
+import { changedListParams, readListParams, writeListParams } from '../../../lib/list-params';
+import { useLatestSearchParams } from '../../../lib/use-latest-search-params';
 
 /**
  * The queue shows open deviations unless asked otherwise, so "any status" needs a value of its
@@ -28,39 +29,30 @@ export function toAuditFilter({ status, ...rest }: DeviationListParams): AuditFi
   return { ...rest, status: status === 'any' ? undefined : status };
 }
 
+function readParams(search: URLSearchParams): DeviationListParams {
+  const p: DeviationListParams = readListParams(search, defaults, keys, readParam);
+  // A version means nothing without its protocol.
+  if (p.version !== undefined && p.protocol === undefined) p.version = undefined;
+  return p;
+}
+
 /**
  * The queue's filters, sort and page, kept in the address so that reload, the back button and a
  * shared link all show the same queue.
  */
 export function useDeviationListParams() {
-  const [search, setSearch] = useSearchParams();
-
-  const params = useMemo<DeviationListParams>(() => {
-    const p: DeviationListParams = { ...defaults };
-    for (const key of keys) {
-      const value = readParam(search, key);
-      if (value !== undefined) Object.assign(p, { [key]: value });
-    }
-    // A version means nothing without its protocol.
-    if (p.version !== undefined && p.protocol === undefined) p.version = undefined;
-    return p;
-  }, [search]);
+  const [search, changeSearch] = useLatestSearchParams();
+  const params = useMemo(() => readParams(search), [search]);
 
   /** Changes some parameters; any change other than the page itself starts again at page 1. */
   const update = useCallback(
-    (changes: Partial<DeviationListParams>) => {
-      const next: DeviationListParams = { ...params, ...changes };
-      if (!('page' in changes)) next.page = 1;
-      if ('protocol' in changes && !('version' in changes)) next.version = undefined;
-      const out = new URLSearchParams();
-      for (const key of keys) {
-        const value = next[key];
-        if (value === undefined || value === '' || value === (defaults as Record<string, unknown>)[key]) continue;
-        out.set(key, String(value));
-      }
-      setSearch(out);
-    },
-    [params, setSearch],
+    (changes: Partial<DeviationListParams>) =>
+      changeSearch((latest) => {
+        const next = changedListParams(readParams(latest), changes);
+        if ('protocol' in changes && !('version' in changes)) next.version = undefined;
+        return writeListParams(next, keys, defaults);
+      }),
+    [changeSearch],
   );
 
   const filtered = filterKeys.some((key) => params[key] !== undefined) || params.status !== defaults.status;

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { DoseRecordFilter } from '../../../../shared/schemas/reviews';
+import { getProtocolChoices } from '../../../lib/get-protocol-choices';
 import { getDoseRecords } from './get-dose-records';
-import { getProtocolChoices } from './get-protocol-choices';
 import { getProtocolSteps } from './get-protocol-steps';
 import { getSession } from './get-session';
 import { getTreatmentOrder } from './get-treatment-order';

@@ -56,11 +56,5 @@ export const sessionStateSchema = z.object({
 });
 export type SessionState = z.infer<typeof sessionStateSchema>;
 
-const versionChoiceSchema = z.object({ key: z.string(), version: z.number().int(), title: z.string(), status: z.string() });
-export const protocolChoicesSchema = z.object({
-  protocols: z.array(z.object({ key: z.string(), kind: z.enum(['pdt', 'cxl']), title: z.string(), versions: z.array(versionChoiceSchema) })),
-});
-export type ProtocolChoice = z.infer<typeof protocolChoicesSchema>['protocols'][number];
-
 /** What the printed record reads from a protocol version: step durations and the CXL thickness minimum. */
 

@@ -1,6 +1,7 @@
 import { useCallback, useMemo } from 'react';
-import { useSearchParams } from 'react-router-dom';
 import { doseRecordFilterSchema, type DoseRecordFilter } from '../../../../shared/schemas/reviews';
+import { changedListParams, readListParams, writeListParams } from '../../../lib/list-params';
+import { useLatestSearchParams } from '../../../lib/use-latest-search-params';
 
 const defaults = { sort: 'endedAt', direction: 'desc', page: 1, pageSize: 25 } as const;
 const filterKeys = ['from', 'to', 'protocol', 'version', 'outcome', 'staff'] as const;
@@ -14,35 +15,26 @@ function readParam(search: URLSearchParams, key: (typeof keys)[number]): unknown
   return parsed.success ? parsed.data : undefined;
 }
 
+function readFilter(search: URLSearchParams): DoseRecordFilter {
+  const f: DoseRecordFilter = readListParams(search, defaults, keys, readParam);
+  if (f.version !== undefined && f.protocol === undefined) f.version = undefined;
+  return f;
+}
+
 /** The dose records' filters, sort and page, kept in the address. */
 export function useDoseRecordListParams() {
-  const [search, setSearch] = useSearchParams();
-
-  const filter = useMemo<DoseRecordFilter>(() => {
-    const f: DoseRecordFilter = { ...defaults };
-    for (const key of keys) {
-      const value = readParam(search, key);
-      if (value !== undefined) Object.assign(f, { [key]: value });
-    }
-    if (f.version !== undefined && f.protocol === undefined) f.version = undefined;
-    return f;
-  }, [search]);
+  const [search, changeSearch] = useLatestSearchParams();
+  const filter = useMemo(() => readFilter(search), [search]);
 
   /** Changes some parameters; any change other than the page itself starts again at page 1. */
   const update = useCallback(
-    (changes: Partial<DoseRecordFilter>) => {
-      const next: DoseRecordFilter = { ...filter, ...changes };
-      if (!('page' in changes)) next.page = 1;
-      if ('protocol' in changes && !('version' in changes)) next.version = undefined;
-      const out = new URLSearchParams();
-      for (const key of keys) {
-        const value = next[key];
-        if (value === undefined || value === '' || value === (defaults as Record<string, unknown>)[key]) continue;
-        out.set(key, String(value));
-      }
-      setSearch(out);
-    },
-    [filter, setSearch],
+    (changes: Partial<DoseRecordFilter>) =>
+      changeSearch((latest) => {
+        const next = changedListParams(readFilter(latest), changes);
+        if ('protocol' in changes && !('version' in changes)) next.version = undefined;
+        return writeListParams(next, keys, defaults);
+      }),
+    [changeSearch],
   );
 
   const filtered = filterKeys.some((key) => filter[key] !== undefined);

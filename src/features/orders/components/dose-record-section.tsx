@@ -1,4 +1,3 @@
-import type { UseQueryResult } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { OrderDetail } from '../../../../shared/schemas/orders';

@@ -1,6 +1,7 @@
 import { useCallback, useMemo } from 'react';
-import { useSearchParams } from 'react-router-dom';
 import { orderListQuerySchema, type OrderListQuery } from '../../../../shared/schemas/orders';
+import { changedListParams, readListParams, writeListParams } from '../../../lib/list-params';
+import { useLatestSearchParams } from '../../../lib/use-latest-search-params';
 
 const defaults = { sort: 'createdAt', direction: 'desc', page: 1, pageSize: 25 } as const;
 const keys = ['status', 'protocol', 'from', 'to', 'sort', 'direction', 'page', 'pageSize'] as const;
@@ -13,36 +14,23 @@ function readParam<K extends (typeof keys)[number]>(search: URLSearchParams, key
   return parsed.success ? (parsed.data as OrderListQuery[K]) : undefined;
 }
 
+function readQuery(search: URLSearchParams): OrderListQuery {
+  return readListParams(search, defaults, keys, readParam);
+}
+
 /**
  * The orders table's filters, sort and page, kept in the address so that reload, the back button
  * and a shared link all show the same list.
  */
 export function useOrderListParams() {
-  const [search, setSearch] = useSearchParams();
-
-  const query = useMemo<OrderListQuery>(() => {
-    const q: OrderListQuery = { ...defaults };
-    for (const key of keys) {
-      const value = readParam(search, key);
-      if (value !== undefined) Object.assign(q, { [key]: value });
-    }
-    return q;
-  }, [search]);
+  const [search, changeSearch] = useLatestSearchParams();
+  const query = useMemo(() => readQuery(search), [search]);
 
   /** Changes some parameters; any change other than the page itself starts again at page 1. */
   const update = useCallback(
-    (changes: Partial<OrderListQuery>) => {
-      const next: OrderListQuery = { ...query, ...changes };
-      if (!('page' in changes)) next.page = 1;
-      const params = new URLSearchParams();
-      for (const key of keys) {
-        const value = next[key];
-        if (value === undefined || value === '' || value === (defaults as Record<string, unknown>)[key]) continue;
-        params.set(key, String(value));
-      }
-      setSearch(params);
-    },
-    [query, setSearch],
+    (changes: Partial<OrderListQuery>) =>
+      changeSearch((latest) => writeListParams(changedListParams(readQuery(latest), changes), keys, defaults)),
+    [changeSearch],
   );
 
   const filtered = query.status !== undefined || query.protocol !== undefined || query.from !== undefined || query.to !== undefined;
