@@ -1,4 +1,4 @@
-import { Column, Entity, Index, PrimaryColumn } from 'typeorm';
+import { Entity, Index, PrimaryColumn } from 'typeorm';
 
 /**
  * Who took part in a treatment and how (ordered, checked, prepared, ran the session). Used to
