@@ -21,10 +21,13 @@ afterAll(async () => {
   await ctx?.close();
 });
 
-/** The delivered fluence of each row, in J/cm², in the order shown. */
+/**
+ * The delivered fluence of each row that has one, in J/cm², in the order shown. Sessions stopped
+ * before any light (other browser tests leave some in this database) have none.
+ */
 async function deliveredFluences(page: Page): Promise<number[]> {
   const rows = await settledRows(page);
-  return rows.map((row) => Number(/([\d.]+) J\/cm² delivered/.exec(row)?.[1]));
+  return rows.map((row) => /([\d.]+) J\/cm² delivered/.exec(row)?.[1]).filter((figure) => figure !== undefined).map(Number);
 }
 
 function searchParam(page: Page, name: string): string | null {
@@ -60,7 +63,7 @@ describe('the auditor reads the dose records', () => {
     const inOrder = (values: number[], direction: string) => values.every((v, i) => i === 0 || (direction === 'asc' ? values[i - 1]! <= v : values[i - 1]! >= v));
     await expect.poll(async () => {
       const values = await deliveredFluences(page);
-      return values.length > 0 && values.every(Number.isFinite) && inOrder(values, firstDirection);
+      return values.length > 0 && inOrder(values, firstDirection);
     }).toBe(true);
 
     // A second press turns the order round.
