@@ -4,7 +4,7 @@ import { AlertIcon, StoredIcon, UnsentIcon } from '../../../components/ui/icons'
 import type { SyncState } from '../api/event-sync';
 import { capitalised, formatWardTime } from './clock-format';
 
-const eventWords: Record<SessionEventInput['type'], string> = {
+export const eventWords: Record<SessionEventInput['type'], string> = {
   'session-started': 'session start',
   'step-started': 'step start',
   'step-ended': 'step end',
@@ -16,6 +16,7 @@ const eventWords: Record<SessionEventInput['type'], string> = {
   extravasation: 'extravasation',
   'session-stopped': 'stop',
   'session-completed': 'completion',
+  'tap-withdrawn': 'withdrawal of a tap',
 };
 
 /**
