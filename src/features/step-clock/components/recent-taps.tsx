@@ -7,7 +7,7 @@ import { TurnBackIcon } from '../../../components/ui/icons';
 import { eventWords } from '../../../lib/session-event-words';
 import type { Urgency } from '../hooks/use-announcer';
 import type { EventBody } from '../hooks/use-session-events';
-import { capitalised, formatWardTime } from './clock-format';
+import { capitalised, formatWardTime, stepNames } from './clock-format';
 import { ReasonDialog } from './reason-dialog';
 
 /** Enough to catch a slip just made without crowding the clock; older taps are for the auditor. */
@@ -15,7 +15,7 @@ const recentTapCount = 3;
 
 function tapWords(event: Pick<SessionEventLike, 'type'> & { stepId?: string | null }, protocol: ProtocolVersion): string {
   const step = event.stepId ? protocol.steps.find((s) => s.id === event.stepId) : undefined;
-  return `${capitalised(eventWords[event.type])}${step ? ` (${step.title})` : ''}`;
+  return `${capitalised(eventWords[event.type])}${step ? ` (${stepNames[step.kind]})` : ''}`;
 }
 
 /**
