@@ -62,7 +62,10 @@ export function RecentTaps({
                 <span className="numerals-steady text-paper-700">{time}</span>
                 <span className="min-w-0 flex-1">{words}</span>
                 <Button variant="secondary" className="min-h-tap px-3 py-1.5 text-sm" onClick={() => setChosen(event)}>
-                  Withdraw<span className="sr-only"> {words.toLowerCase()} at {time}</span>…
+                  {/* One flex item, so the button's gap does not split the visible word from its ellipsis. */}
+                  <span>
+                    Withdraw<span className="sr-only"> {words.toLowerCase()} at {time}</span>…
+                  </span>
                 </Button>
               </li>
             );
