@@ -3,7 +3,7 @@ import { readyForSessionStatuses, type OrderStatus } from '../../shared/schemas/
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import { deriveDoseRecord } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
-import type { SessionEvent, SessionEventInput } from '../../shared/session/session-events';
+import { isWithdrawableType, type SessionEvent, type SessionEventInput } from '../../shared/session/session-events';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
@@ -74,6 +74,28 @@ export function createSessionService(deps: {
       }
     } else if (!sessionStatuses.includes(order.status)) {
       throw AppError.conflict('session_not_started', `Order ${order.id} has no session running (it is ${order.status}).`);
+    }
+  }
+
+  /**
+   * A withdrawal must name a tap of this session that can be withdrawn and is not withdrawn yet.
+   * Checked against the events as read under the order's lock, which include this withdrawal, so
+   * two withdrawals of one tap sent at once cannot both pass.
+   */
+  function checkWithdrawal(order: SessionOrder, input: Extract<SessionEventInput, { type: 'tap-withdrawn' }>, events: readonly SessionEvent[]) {
+    const refuse = (summary: string, message: string) => AppError.badRequest(summary, [{ path: 'withdrawnKey', message }]);
+    const target = events.find((e) => e.idempotencyKey === input.withdrawnKey);
+    if (!target) throw refuse('There is no such tap in this session.', 'withdrawnKey must be the key of an event of this session');
+    if (target.type === 'tap-withdrawn') throw refuse('A withdrawal cannot itself be withdrawn.', 'withdrawnKey must not name a withdrawal; record the tap again instead');
+    if (!isWithdrawableType(target.type)) {
+      throw refuse(`The ${target.type} tap cannot be withdrawn.`, 'withdrawnKey must not name session-started, session-completed or session-stopped: those cannot be withdrawn');
+    }
+    const earlier = events.find((e) => e.type === 'tap-withdrawn' && e.withdrawnKey === input.withdrawnKey && e.idempotencyKey !== input.idempotencyKey);
+    if (earlier) throw refuse('That tap has been withdrawn already.', 'withdrawnKey names a tap that is already withdrawn');
+    // After the key, so that naming a session's end says why it cannot be withdrawn. A late tap
+    // from an offline queue is still a fact; a correction is made only while the session runs.
+    if (order.status !== 'in-session') {
+      throw AppError.conflict('session_ended', `The session for order ${order.id} is ${order.status}; a tap can be withdrawn only while the session runs.`);
     }
   }
 
@@ -149,6 +171,8 @@ export function createSessionService(deps: {
           afterCommit.push(() => (ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read)));
           const event = read.events.find((e) => e.idempotencyKey === input.idempotencyKey);
           if (!event) throw new Error(`event ${input.idempotencyKey} was stored but not read back`);
+          // Refused here, the insert rolls back and `read` is never remembered.
+          if (input.type === 'tap-withdrawn') checkWithdrawal(order, input, read.events);
           const result = await recompute(manager, order, read.events);
           if (ends && result.deviations.length > 0) {
             await enqueueMessage(manager, {
@@ -178,14 +202,19 @@ export function createSessionService(deps: {
         throw error;
       }
       for (const done of afterCommit) done();
-      if (input.type === 'session-started' || outcome.ended || input.type === 'extravasation' || input.type === 'thickness-override') {
+      if (input.type === 'session-started' || outcome.ended || input.type === 'extravasation' || input.type === 'thickness-override' || input.type === 'tap-withdrawn') {
         await audit.append({
           actorUserId: actor.id,
           action: `session.${input.type}`,
           entityType: 'order',
           entityId: orderId,
           ipAddress: actor.ipAddress,
-          details: { idempotencyKey: input.idempotencyKey, clientTime: input.clientTime, ...('reason' in input ? { reason: input.reason } : {}) },
+          details: {
+            idempotencyKey: input.idempotencyKey,
+            clientTime: input.clientTime,
+            ...('reason' in input ? { reason: input.reason } : {}),
+            ...(input.type === 'tap-withdrawn' ? { withdrawnKey: input.withdrawnKey } : {}),
+          },
         });
       }
       // The answer is the new event and what follows from it, not the whole list: a tablet has

@@ -1,6 +1,6 @@
 import type { ProtocolStep, ProtocolVersion, StepKind } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
-import type { SessionEventInput } from './session-events';
+import { isWithdrawableType, type SessionEventInput } from './session-events';
 
 /**
  * An event as the session functions read it: stored events carry the server's `id`; events
@@ -19,6 +19,18 @@ export interface Interval {
 /** One stretch of a step from its step-started to its step-ended, with the pauses inside it. */
 export interface StepRun extends Interval {
   pauses: Interval[];
+}
+
+/** A tap the nurse withdrew as a mistake: kept in the record, left out of every figure. */
+export interface WithdrawnTap {
+  idempotencyKey: string;
+  type: SessionEventInput['type'];
+  stepId: string | null;
+  /** When the mistaken tap was made. */
+  at: string;
+  /** When it was withdrawn. */
+  withdrawnAt: string;
+  reason: string;
 }
 
 /** The events replayed once, in time order, into runs per step and the session's other facts. */
@@ -40,6 +52,7 @@ export interface SessionReplay {
   thicknessReadings: { stepId: string; ms: number; thicknessUm: number }[];
   thicknessOverrideReason: string | null;
   lastEventMs: number | null;
+  withdrawnTaps: WithdrawnTap[];
 }
 
 function compareIds(a: number | undefined, b: number | undefined): number {
@@ -71,6 +84,41 @@ function sortedUnique(events: readonly SessionEventLike[]): TimedEvent[] {
   return timed.filter(({ event }) => (seen.has(event.idempotencyKey) ? false : (seen.add(event.idempotencyKey), true)));
 }
 
+/**
+ * The one place where a withdrawal takes effect: the withdrawn taps and the withdrawals themselves
+ * are taken out of the list before anything is replayed, so a withdrawn tap counts as never
+ * tapped and the withdrawal changes nothing else. Only the first withdrawal of a tap counts, and
+ * one that names a tap that cannot be withdrawn (or no tap at all) takes nothing out; the server
+ * refuses those, so this only guards against a list that never passed through it.
+ */
+export function withdrawalsApplied<E extends SessionEventLike>(events: readonly E[]): { kept: E[]; withdrawn: WithdrawnTap[] } {
+  const withdrawals = new Map<string, Extract<SessionEventLike, { type: 'tap-withdrawn' }>>();
+  for (const event of events) if (event.type === 'tap-withdrawn' && !withdrawals.has(event.withdrawnKey)) withdrawals.set(event.withdrawnKey, event);
+  if (withdrawals.size === 0) return { kept: [...events], withdrawn: [] };
+  const kept: E[] = [];
+  const withdrawn = new Map<string, WithdrawnTap>();
+  for (const event of events) {
+    if (event.type === 'tap-withdrawn') continue;
+    const withdrawal = isWithdrawableType(event.type) ? withdrawals.get(event.idempotencyKey) : undefined;
+    if (!withdrawal) {
+      kept.push(event);
+      continue;
+    }
+    // A re-sent copy has the same key and is withdrawn with it, but is listed once.
+    if (!withdrawn.has(event.idempotencyKey)) {
+      withdrawn.set(event.idempotencyKey, {
+        idempotencyKey: event.idempotencyKey,
+        type: event.type,
+        stepId: 'stepId' in event ? event.stepId : null,
+        at: event.clientTime,
+        withdrawnAt: withdrawal.clientTime,
+        reason: withdrawal.reason,
+      });
+    }
+  }
+  return { kept, withdrawn: [...withdrawn.values()].sort((a, b) => Date.parse(a.at) - Date.parse(b.at)) };
+}
+
 function closeRun(run: StepRun, ms: number): void {
   run.endMs = ms;
   const last = run.pauses[run.pauses.length - 1];
@@ -83,6 +131,7 @@ function closeRun(run: StepRun, ms: number): void {
  * ignored rather than refused, because the events are facts already recorded at the bedside.
  */
 export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: readonly SessionEventLike[]): SessionReplay {
+  const { kept, withdrawn } = withdrawalsApplied(events);
   const stepIds = new Set(protocol.steps.map((step) => step.id));
   const infusionStepId = protocol.steps.find((step) => step.kind === 'infusion')?.id ?? null;
   const replay: SessionReplay = {
@@ -99,6 +148,7 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
     thicknessReadings: [],
     thicknessOverrideReason: null,
     lastEventMs: null,
+    withdrawnTaps: withdrawn,
   };
   const openRun = (): StepRun | undefined => {
     if (replay.openStepId === null) return undefined;
@@ -111,7 +161,7 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
     replay.openStepId = null;
   };
 
-  for (const { event, ms } of sortedUnique(events)) {
+  for (const { event, ms } of sortedUnique(kept)) {
     // Once the session has ended, later taps describe nothing that was given.
     if (replay.endedMs !== null) break;
     replay.lastEventMs = ms;
@@ -166,6 +216,9 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
         replay.endedMs = ms;
         replay.outcome = event.type === 'session-stopped' ? 'stopped' : 'completed';
         if (event.type === 'session-stopped') replay.stopReason = event.reason;
+        break;
+      case 'tap-withdrawn':
+        // Taken out before the replay (withdrawalsApplied); never reaches here.
         break;
     }
   }
@@ -287,6 +340,9 @@ export interface DoseRecord {
 
   /** Irradiance × on-time ÷ 1000 (mW/cm² × s = mJ/cm²). */
   deliveredFluenceJPerCm2: number | null;
+
+  /** Taps withdrawn as mistakes, with the reason: none of the figures above counts them. */
+  withdrawnTaps: WithdrawnTap[];
 }
 
 export interface DoseRecordInput {
@@ -355,5 +411,7 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
     uvOnS,
 
     deliveredFluenceJPerCm2: fluenceFrom(plan.irradianceMwPerCm2, isPdt ? lightOnS : uvOnS),
+
+    withdrawnTaps: replay.withdrawnTaps,
   };
 }

@@ -17,8 +17,17 @@ export const sessionEventTypes = [
   'extravasation',
   'session-stopped',
   'session-completed',
+  'tap-withdrawn',
 ] as const;
 export type SessionEventType = (typeof sessionEventTypes)[number];
+
+/**
+ * Taps that mark the session's own beginning and end cannot be withdrawn: they change the order's
+ * status and start or close its record, so undoing them would leave a status no tap explains. A
+ * withdrawal cannot itself be withdrawn either (a correction of a correction is a new tap).
+ */
+const notWithdrawable: ReadonlySet<SessionEventType> = new Set(['session-started', 'session-completed', 'session-stopped', 'tap-withdrawn']);
+export const isWithdrawableType = (type: SessionEventType): boolean => !notWithdrawable.has(type);
 
 /** The pre-treatment checks, each confirmed aloud and ticked before the clock starts. */
 export const preTreatmentChecks = ['patientIdentity', 'treatmentEye', 'consent', 'eyewear', 'deviceSettings'] as const;
@@ -60,6 +69,13 @@ export const sessionEventSchema = z.discriminatedUnion(
     z.strictObject({ ...common, type: z.literal('extravasation'), note: z.string().trim().max(500, 'note must be at most 500 characters').optional() }),
     z.strictObject({ ...common, type: z.literal('session-stopped'), reason: reason('reason') }),
     z.strictObject({ ...common, type: z.literal('session-completed') }),
+    z.strictObject({
+      ...common,
+      type: z.literal('tap-withdrawn'),
+      /** The idempotency key of the mistaken tap; that tap stays stored, and every replay skips it. */
+      withdrawnKey: z.uuid({ error: 'withdrawnKey must be a UUID' }),
+      reason: reason('reason'),
+    }),
   ],
   { error: `type must be one of ${sessionEventTypes.join(', ')}` },
 );

@@ -6,6 +6,17 @@ import { z } from 'zod';
 const maybeFigure = z.number().nullable().optional().default(null);
 const maybeTime = z.string().nullable().optional().default(null);
 
+/** A tap withdrawn as a mistake: kept in the record with its reason, counted in no figure. */
+export const withdrawnTapSchema = z.object({
+  idempotencyKey: z.string(),
+  type: z.string(),
+  stepId: z.string().nullable(),
+  at: z.string(),
+  withdrawnAt: z.string(),
+  reason: z.string(),
+});
+export type WithdrawnTap = z.infer<typeof withdrawnTapSchema>;
+
 /** What was given, derived by the server from the session's events. */
 export const givenRecordSchema = z.object({
   kind: z.enum(['pdt', 'cxl']),
@@ -35,6 +46,8 @@ export const givenRecordSchema = z.object({
   uvElapsedS: maybeFigure,
   uvOnS: maybeFigure,
   deliveredFluenceJPerCm2: maybeFigure,
+  // Records stored before withdrawals existed have none.
+  withdrawnTaps: z.array(withdrawnTapSchema).optional().default([]),
 });
 export type GivenRecord = z.infer<typeof givenRecordSchema>;
 

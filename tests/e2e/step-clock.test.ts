@@ -495,6 +495,56 @@ describe('the bedside step clock', () => {
     await page.context().close();
   });
 
+  it('a drop tapped twice is withdrawn from the recent taps with a reason, and the clock and the record stop counting it', async () => {
+    const { id } = await readyCxlOrder('cxl-standard');
+    await seedEvents(id, [
+      [400, { type: 'session-started', checks: allChecks }],
+      [399, { type: 'step-started', stepId: 'confirm-patient' }],
+      [398, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [397, { type: 'step-started', stepId: 'epithelium-removal' }],
+      [300, { type: 'step-ended', stepId: 'epithelium-removal' }],
+      [300, { type: 'step-started', stepId: 'riboflavin-soak' }],
+    ]);
+    const { page, problems } = await nursePage(id);
+    await page.getByRole('button', { name: 'Drop given' }).click();
+    await advance(page, 1_000);
+    await page.getByRole('button', { name: 'Drop given' }).click();
+    await page.getByText('2 given in this step').waitFor();
+    await allStored(page);
+
+    // Newest first: the second tap of the drop is the first Withdraw button; opened from the keyboard.
+    const withdrawButtons = page.getByRole('button', { name: /^Withdraw drop \(soak\) at \d\d:\d\d:\d\d\s*…$/i });
+    expect(await withdrawButtons.count()).toBe(2);
+    const firstBox = await withdrawButtons.first().boundingBox();
+    expect(firstBox!.height).toBeGreaterThanOrEqual(44);
+    // Taps that cannot be withdrawn (the session start) get no button.
+    expect(await page.getByRole('button', { name: /^Withdraw session start/i }).count()).toBe(0);
+    await withdrawButtons.first().focus();
+    await page.keyboard.press('Enter');
+    const dialog = page.getByRole('dialog', { name: 'Withdraw a tap' });
+    await dialog.waitFor();
+    expect(await accessibilityViolations(page)).toEqual([]);
+    await dialog.getByRole('button', { name: 'Withdraw tap' }).click();
+    await dialog.getByText(/Give a reason of 5 to 500 characters/).waitFor();
+    await dialog.getByLabel('Why was this tap a mistake?').fill('The same drop was tapped twice.');
+    await dialog.getByRole('button', { name: 'Withdraw tap' }).click();
+
+    await page.getByText('1 given in this step').waitFor();
+    await page.getByText(/Withdrawn:\s*Drop \(soak\) at \d\d:\d\d:\d\d\s*— “The same drop was tapped twice\.”/).waitFor();
+    expect(await withdrawButtons.count()).toBe(1);
+    await allStored(page);
+    expect(await accessibilityViolations(page)).toEqual([]);
+
+    const session = await sessionOf(id);
+    const drops = session.events.filter((e) => e.type === 'drop-given');
+    expect(drops).toHaveLength(2);
+    const record = session.record as unknown as { drops: unknown[]; withdrawnTaps: { idempotencyKey: string; type: string; reason: string }[] };
+    expect(record.drops).toHaveLength(1);
+    expect(record.withdrawnTaps).toEqual([expect.objectContaining({ idempotencyKey: drops[1]!.idempotencyKey, type: 'drop-given', reason: 'The same drop was tapped twice.' })]);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
   it('extravasation stops the infusion and shows its cautions; a stop needs a reason', async () => {
     const { id } = await preparedPdtOrder();
     await seedEvents(id, [

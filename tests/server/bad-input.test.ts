@@ -132,6 +132,7 @@ const targets: Target[] = [
       anyBody,
       mutated({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'thickness-measured', stepId: 'thickness-check', thicknessUm: 450 }),
       mutated({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'session-stopped', reason: 'patient unwell today' }),
+      mutated({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'tap-withdrawn', withdrawnKey: randomUUID(), reason: 'tapped by mistake' }),
     ),
   },
   {

@@ -198,6 +198,140 @@ describe('deviations', () => {
   });
 });
 
+describe('withdrawing a mistaken tap', () => {
+  const withdrawnKeyRefusal = (res: { status: number; body: { error: { fields: { path: string; message: string }[] } } }) => {
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.map((f) => f.path)).toEqual(['withdrawnKey']);
+    return res.body.error.fields[0]!.message;
+  };
+
+  /** A CXL session 30 min into its soak with a drop every 2 min (from memory / common practice). */
+  async function soakingSession(dropsAtS: number[]) {
+    const patient = await createTestPatient(ctx);
+    const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
+    const at = timeline(40);
+    const start = at(0, { type: 'session-started', checks: allChecks });
+    const soak = at(60, { type: 'step-started', stepId: 'riboflavin-soak' });
+    const drops = dropsAtS.map((s) => at(60 + s, { type: 'drop-given', stepId: 'riboflavin-soak' }));
+    for (const event of [start, soak, ...drops]) expect((await post(order.id, event)).status).toBe(201);
+    return { order, at, start, soak, drops };
+  }
+
+  it('takes the tap out of the record and its deviations, lists it with its reason, and audits it', async () => {
+    // A drop tapped at 360 s that was never given hides a 240 s gap; at most 180 s is allowed
+    // (drops every 2 min + 50 %: demo site policy, common practice).
+    const { order, at, drops } = await soakingSession([0, 120, 240, 360, 480]);
+    const before = await post(order.id, at(60 + 500, { type: 'step-ended', stepId: 'riboflavin-soak' }));
+    expect(before.body.deviations.map((d: { type: string }) => d.type)).not.toContain('drop-gap');
+    expect(before.body.record.drops).toHaveLength(5);
+
+    const mistaken = drops[3]! as { idempotencyKey: string };
+    const withdrawal = at(60 + 510, { type: 'tap-withdrawn', withdrawnKey: mistaken.idempotencyKey, reason: 'No drop was given at this cue.' });
+    const res = await post(order.id, withdrawal);
+
+    expect(res.status).toBe(201);
+    expect(res.body.record.drops).toHaveLength(4);
+    expect(res.body.record.withdrawnTaps).toEqual([
+      expect.objectContaining({ idempotencyKey: mistaken.idempotencyKey, type: 'drop-given', stepId: 'riboflavin-soak', reason: 'No drop was given at this cue.' }),
+    ]);
+    expect(res.body.deviations.find((d: { type: string }) => d.type === 'drop-gap')).toMatchObject({ expected: 120, actual: 240, unit: 's' });
+    const stored = await nurseAgent.get(`/api/orders/${order.id}/session`);
+    expect(stored.body.record.withdrawnTaps).toHaveLength(1);
+    // Nothing is deleted: the mistaken tap and its withdrawal are both stored.
+    const rows = await ctx.dataSource.query('SELECT type FROM session_event WHERE order_id = ? AND idempotency_key IN (?, ?)', [order.id, mistaken.idempotencyKey, (withdrawal as { idempotencyKey: string }).idempotencyKey]);
+    expect(rows.map((r: { type: string }) => r.type).sort()).toEqual(['drop-given', 'tap-withdrawn']);
+    const audit = await ctx.dataSource.query("SELECT details FROM audit_event WHERE action = 'session.tap-withdrawn' AND entity_type = 'order' AND entity_id = ?", [String(order.id)]);
+    expect(audit).toHaveLength(1);
+    const details = typeof audit[0].details === 'string' ? JSON.parse(audit[0].details) : audit[0].details;
+    expect(details).toMatchObject({ withdrawnKey: mistaken.idempotencyKey, reason: 'No drop was given at this cue.' });
+  });
+
+  it('a withdrawn early step end leaves the step running', async () => {
+    const { order, at } = await soakingSession([0]);
+    const end = at(60 + 100, { type: 'step-ended', stepId: 'riboflavin-soak' }) as { idempotencyKey: string };
+    expect((await post(order.id, end)).body.record.soakEndAt).not.toBeNull();
+
+    const res = await post(order.id, at(60 + 110, { type: 'tap-withdrawn', withdrawnKey: end.idempotencyKey, reason: 'Ended the soak too early.' }));
+
+    expect(res.status).toBe(201);
+    expect(res.body.record.soakEndAt).toBeNull();
+  });
+
+  it('a resend of a withdrawal answers as the first did, and stores one row', async () => {
+    const { order, at, drops } = await soakingSession([0, 120]);
+    const withdrawal = at(60 + 130, { type: 'tap-withdrawn', withdrawnKey: (drops[1] as { idempotencyKey: string }).idempotencyKey, reason: 'The same drop tapped twice.' });
+    expect((await post(order.id, withdrawal)).status).toBe(201);
+
+    const again = await post(order.id, withdrawal);
+
+    expect(again.status).toBe(200);
+    expect(again.body.replayed).toBe(true);
+    const rows = await ctx.dataSource.query("SELECT id FROM session_event WHERE order_id = ? AND type = 'tap-withdrawn'", [order.id]);
+    expect(rows).toHaveLength(1);
+  });
+
+  it('is refused, naming withdrawnKey, for a key of no event of this session', async () => {
+    const other = await soakingSession([0]);
+    const { order, at } = await soakingSession([0]);
+
+    const unknown = await post(order.id, at(60 + 10, { type: 'tap-withdrawn', withdrawnKey: randomUUID(), reason: 'Tapped by mistake.' }));
+    const foreign = await post(order.id, at(60 + 10, { type: 'tap-withdrawn', withdrawnKey: (other.drops[0] as { idempotencyKey: string }).idempotencyKey, reason: 'Tapped by mistake.' }));
+
+    expect(withdrawnKeyRefusal(unknown)).toBe('withdrawnKey must be the key of an event of this session');
+    expect(withdrawnKeyRefusal(foreign)).toBe('withdrawnKey must be the key of an event of this session');
+    // The other session's drop still counts there.
+    expect((await nurseAgent.get(`/api/orders/${other.order.id}/session`)).body.record.drops).toHaveLength(1);
+  });
+
+  it('is refused, naming withdrawnKey, for a tap withdrawn already or for a withdrawal, and the refused one is not stored', async () => {
+    const { order, at, drops } = await soakingSession([0, 120]);
+    const dropKey = (drops[1] as { idempotencyKey: string }).idempotencyKey;
+    const first = at(60 + 130, { type: 'tap-withdrawn', withdrawnKey: dropKey, reason: 'The same drop tapped twice.' }) as { idempotencyKey: string };
+    expect((await post(order.id, first)).status).toBe(201);
+
+    const twice = await post(order.id, at(60 + 140, { type: 'tap-withdrawn', withdrawnKey: dropKey, reason: 'Tapped twice again.' }));
+    const ofWithdrawal = await post(order.id, at(60 + 140, { type: 'tap-withdrawn', withdrawnKey: first.idempotencyKey, reason: 'Withdrew the wrong tap.' }));
+
+    expect(withdrawnKeyRefusal(twice)).toMatch(/already withdrawn/);
+    expect(withdrawnKeyRefusal(ofWithdrawal)).toMatch(/must not name a withdrawal/);
+    const rows = await ctx.dataSource.query("SELECT id FROM session_event WHERE order_id = ? AND type = 'tap-withdrawn'", [order.id]);
+    expect(rows).toHaveLength(1);
+  });
+
+  it('is refused, naming withdrawnKey, for the session start, its completion or its stop, saying they cannot be withdrawn', async () => {
+    const { order, at, start } = await soakingSession([0]);
+    const refusedStart = await post(order.id, at(60 + 10, { type: 'tap-withdrawn', withdrawnKey: (start as { idempotencyKey: string }).idempotencyKey, reason: 'Started by mistake.' }));
+    expect(withdrawnKeyRefusal(refusedStart)).toMatch(/session-started.*cannot be withdrawn/);
+
+    for (const ending of [{ type: 'session-stopped', reason: 'Patient felt faint; treatment abandoned.' }, { type: 'session-completed' }]) {
+      const ended = await soakingSession([0]);
+      const end = ended.at(60 + 20, ending) as { idempotencyKey: string };
+      expect((await post(ended.order.id, end)).status).toBe(201);
+      const refused = await post(ended.order.id, ended.at(60 + 30, { type: 'tap-withdrawn', withdrawnKey: end.idempotencyKey, reason: 'Ended by mistake.' }));
+      expect(withdrawnKeyRefusal(refused)).toMatch(new RegExp(`${ending.type}.*cannot be withdrawn`));
+      expect((await nurseAgent.get(`/api/orders/${ended.order.id}/session`)).body.status).toBe(ending.type === 'session-stopped' ? 'stopped' : 'completed');
+    }
+  });
+
+  it('is refused once the session has ended, and the record keeps the tap', async () => {
+    const { order, at, drops } = await soakingSession([0, 120]);
+    expect((await post(order.id, at(60 + 200, { type: 'session-completed' }))).status).toBe(201);
+
+    const res = await post(order.id, at(60 + 210, { type: 'tap-withdrawn', withdrawnKey: (drops[1] as { idempotencyKey: string }).idempotencyKey, reason: 'The same drop tapped twice.' }));
+
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toMatch(/only while the session runs/);
+    expect((await nurseAgent.get(`/api/orders/${order.id}/session`)).body.record.drops).toHaveLength(2);
+  });
+
+  it('a withdrawal without a reason of 5 to 500 characters is refused, naming reason', async () => {
+    const { order, at, drops } = await soakingSession([0]);
+    const res = await post(order.id, at(60 + 10, { type: 'tap-withdrawn', withdrawnKey: (drops[0] as { idempotencyKey: string }).idempotencyKey, reason: 'oops' }));
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['reason']);
+  });
+});
+
 describe('discharge', () => {
   it('after PDT gives the end of the light precaution in the unit’s time zone, and e-mails only with consent', async () => {
     const order = await preparedPdtOrder(ctx, await team());

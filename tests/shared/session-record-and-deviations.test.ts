@@ -687,3 +687,106 @@ describe('deviations of a CXL session', () => {
     expect(deviationOf(deviations, 'delivered-fluence')).toMatchObject({ expected: 7.2, actual: 6 });
   });
 });
+
+// ---------------------------------------------------------------------------------------------
+
+describe('a tap withdrawn as a mistake', () => {
+  const keyOf = (taps: Taps, type: SessionEventInput['type'], stepId?: string, nth = 0) =>
+    taps.events.filter((event) => event.type === type && (stepId === undefined || ('stepId' in event && event.stepId === stepId)))[nth]!.idempotencyKey;
+  const withdraw = (taps: Taps, s: number, withdrawnKey: string, reason = 'tapped by mistake') => taps.tap(s, { type: 'tap-withdrawn', withdrawnKey, reason });
+
+  it('leaves the laser running when its early step end is withdrawn', () => {
+    // 83 s of light: TAP Study Group, Arch Ophthalmol 1999. The laser is ended after 40 s by mistake.
+    const lightStartS = infusionStartS + 900;
+    const taps = pdtSession({ laserOnS: 40, ending: 'none' });
+    withdraw(taps, lightStartS + 45, keyOf(taps, 'step-ended', 'laser'), 'ended the laser too early');
+
+    const clock = sessionClock({ protocol: pdtStandard, plan: pdtPlan, events: taps.events, nowMs: t0Ms + (lightStartS + 60) * 1000 });
+    const record = deriveDoseRecord({ protocol: pdtStandard, plan: pdtPlan, events: taps.events, nowMs: t0Ms + (lightStartS + 60) * 1000 });
+
+    expect(clock.current).toMatchObject({ id: 'laser', elapsedS: 60, remainingS: 23 });
+    expect(record).toMatchObject({ outcome: 'in-progress', lightEndAt: null, lightOnS: 60 });
+    expect(record.withdrawnTaps).toEqual([
+      { idempotencyKey: keyOf(taps, 'step-ended', 'laser'), type: 'step-ended', stepId: 'laser', at: atIso(lightStartS + 40), withdrawnAt: atIso(lightStartS + 45), reason: 'ended the laser too early' },
+    ]);
+  });
+
+  it('ends the laser where it was ended before the withdrawal, and not after', () => {
+    const taps = pdtSession({ laserOnS: 40, ending: 'none' });
+
+    const record = deriveDoseRecord({ protocol: pdtStandard, plan: pdtPlan, events: taps.events, nowMs: t0Ms + (infusionStartS + 960) * 1000 });
+
+    expect(record).toMatchObject({ lightOnS: 40, withdrawnTaps: [] });
+  });
+
+  it('does not count a drop tapped twice once the second tap is withdrawn', () => {
+    // Soak drops every 2 min (from memory / common practice); the 120 s drop is tapped twice.
+    const taps = cxlSession(cxlStandard);
+    const dropsBefore = deriveDoseRecord({ protocol: cxlStandard, plan: cxlStandardPlan, events: taps.events }).drops.length;
+    taps.tap(soakStartS + 121, { type: 'drop-given', stepId: 'riboflavin-soak' });
+    const duplicateKey = taps.events[taps.events.length - 1]!.idempotencyKey;
+    const doubled = deriveDoseRecord({ protocol: cxlStandard, plan: cxlStandardPlan, events: taps.events });
+    withdraw(taps, soakStartS + 130, duplicateKey, 'the same drop tapped twice');
+
+    const record = deriveDoseRecord({ protocol: cxlStandard, plan: cxlStandardPlan, events: taps.events });
+
+    expect(doubled.drops).toHaveLength(dropsBefore + 1);
+    expect(record.drops).toHaveLength(dropsBefore);
+    expect(record.drops.some((drop) => drop.at === atIso(soakStartS + 121))).toBe(false);
+    expect(record.withdrawnTaps).toMatchObject([{ type: 'drop-given', stepId: 'riboflavin-soak', reason: 'the same drop tapped twice' }]);
+  });
+
+  // No gap longer than the interval + 50 % (120 s → 180 s): demo site policy (common practice).
+  it('brings back the drop-gap deviation that a drop tapped but never given had hidden', () => {
+    const soakDropsAtS = [0, 120, 240, 360, 480, 600, 720, 840, 960, 1080, 1200, 1320, 1440, 1560, 1680];
+    const taps = cxlSession(cxlStandard, { soakDropsAtS });
+    expect(deviationOf(cxlDeviations(cxlStandard, taps), 'drop-gap')).toBeUndefined();
+
+    withdraw(taps, soakStartS + 1790, keyOf(taps, 'drop-given', 'riboflavin-soak', 3), 'no drop was given at this cue');
+
+    expect(deviationOf(cxlDeviations(cxlStandard, taps), 'drop-gap')).toMatchObject({ expected: 120, actual: 240, unit: 's' });
+  });
+
+  it('takes away the short-soak deviation that a mistaken early end of the soak had made', () => {
+    // Soak at least 30 min (Wollensak G et al. Am J Ophthalmol 2003, later practice; from memory). The
+    // soak is ended by mistake at 1000 s and the end withdrawn: the soak ran on unbroken.
+    const taps = cxlSession(cxlStandard);
+    const clean = deriveDoseRecord({ protocol: cxlStandard, plan: cxlStandardPlan, events: taps.events });
+    taps.tap(soakStartS + 1000, { type: 'step-ended', stepId: 'riboflavin-soak' });
+    const earlyEndKey = taps.events[taps.events.length - 1]!.idempotencyKey;
+    expect(deviationOf(cxlDeviations(cxlStandard, taps), 'soak-short')).toMatchObject({ expected: 30 });
+
+    withdraw(taps, soakStartS + 1010, earlyEndKey, 'ended the soak too early');
+    const record = deriveDoseRecord({ protocol: cxlStandard, plan: cxlStandardPlan, events: taps.events });
+
+    expect(deviationOf(cxlDeviations(cxlStandard, taps), 'soak-short')).toBeUndefined();
+    expect({ ...record, withdrawnTaps: [] }).toEqual(clean);
+  });
+
+  it('changes nothing when the withdrawal names a session start, a completion, another withdrawal or no tap at all', () => {
+    const taps = cxlSession(cxlStandard);
+    const clean = deriveDoseRecord({ protocol: cxlStandard, plan: cxlStandardPlan, events: taps.events });
+    const withdrawals = new Taps();
+    for (const event of taps.events) withdrawals.events.push(event);
+    withdraw(withdrawals, 10, keyOf(taps, 'session-started'));
+    withdraw(withdrawals, 11, keyOf(taps, 'session-completed'));
+    withdraw(withdrawals, 12, withdrawals.events[withdrawals.events.length - 1]!.idempotencyKey);
+    withdraw(withdrawals, 13, '00000000-0000-4000-8000-999999999999');
+
+    expect(deriveDoseRecord({ protocol: cxlStandard, plan: cxlStandardPlan, events: withdrawals.events })).toEqual(clean);
+  });
+
+  it('counts only the first withdrawal of a tap, and a re-sent tap is withdrawn with its copy', () => {
+    const taps = cxlSession(cxlStandard);
+    const dropKey = keyOf(taps, 'drop-given', 'riboflavin-soak', 1);
+    const copy = { ...taps.events.find((event) => event.idempotencyKey === dropKey)!, id: 999 };
+    taps.events.push(copy);
+    withdraw(taps, 1000, dropKey, 'first reason');
+    withdraw(taps, 1001, dropKey, 'second reason');
+
+    const record = deriveDoseRecord({ protocol: cxlStandard, plan: cxlStandardPlan, events: taps.events });
+
+    expect(record.withdrawnTaps).toMatchObject([{ idempotencyKey: dropKey, reason: 'first reason' }]);
+    expect(record.drops.some((drop) => drop.at === copy.clientTime)).toBe(false);
+  });
+});

@@ -23,6 +23,7 @@ const actionWords: Record<string, string> = {
   'session.session-stopped': 'Session stopped',
   'session.extravasation': 'Extravasation recorded',
   'session.thickness-override': 'Thickness minimum overridden',
+  'session.tap-withdrawn': 'Mistaken tap withdrawn',
   'deviation.closed': 'Deviation closed',
   'deviation.reopened': 'Deviation reopened',
   'discharge.emailed': 'Discharge advice e-mailed',

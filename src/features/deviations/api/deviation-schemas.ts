@@ -49,12 +49,14 @@ export type DeviationPage = z.infer<typeof deviationPageSchema>;
 /** An event as stored: only the fields the timeline reads are checked. */
 const sessionEventSchema = z.object({
   id: z.number().int(),
+  idempotencyKey: z.string(),
   type: z.string(),
   clientTime: z.string(),
   stepId: z.string().optional(),
   thicknessUm: z.number().optional(),
   reason: z.string().optional(),
   note: z.string().optional(),
+  withdrawnKey: z.string().optional(),
 });
 export type StoredSessionEvent = z.infer<typeof sessionEventSchema>;
 

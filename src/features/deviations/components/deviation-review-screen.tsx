@@ -164,7 +164,7 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
                 Steps are shown by their ids. {describeError(steps.error)}
               </Alert>
             )}
-            <SessionTimeline events={session.events} steps={steps.data} />
+            <SessionTimeline events={session.events} steps={steps.data} withdrawnTaps={session.record?.withdrawnTaps ?? []} />
           </Section>
         </div>
 

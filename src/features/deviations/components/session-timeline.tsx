@@ -1,8 +1,10 @@
 import { unitTimeZoneLabel } from '../../../config/unit-time-zone';
+import type { WithdrawnTap } from '../../../lib/session-record-schemas';
+import { eventWordsOf } from '../../../lib/session-event-words';
 import type { ProtocolSteps, StoredSessionEvent } from '../api/deviation-schemas';
 import { formatOffset, formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
 
-function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined) => string): string {
+function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined) => string, byKey: Map<string, StoredSessionEvent>): string {
   switch (event.type) {
     case 'session-started':
       return 'Session started: the pre-treatment checks were confirmed';
@@ -26,26 +28,38 @@ function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined)
       return `Session stopped: ${event.reason ?? 'no reason recorded'}`;
     case 'session-completed':
       return 'Session completed';
+    case 'tap-withdrawn': {
+      const target = event.withdrawnKey ? byKey.get(event.withdrawnKey) : undefined;
+      const what = target ? `the ${eventWordsOf(target.type)}${target.stepId ? ` (${stepTitle(target.stepId)})` : ''} tapped at ${formatUnitClock(target.clientTime)}` : 'a tap';
+      return `Withdrew ${what} as a mistake: ${event.reason ?? 'no reason recorded'}`;
+    }
     default:
       return event.type;
   }
 }
 
-const marked = new Set(['session-started', 'session-stopped', 'session-completed', 'extravasation', 'thickness-override']);
+const marked = new Set(['session-started', 'session-stopped', 'session-completed', 'extravasation', 'thickness-override', 'tap-withdrawn']);
 
-type SessionTimelineProps = { events: StoredSessionEvent[]; steps: ProtocolSteps | undefined };
+type SessionTimelineProps = {
+  events: StoredSessionEvent[];
+  steps: ProtocolSteps | undefined;
+  /** From the server's dose record, which decides which withdrawals count. */
+  withdrawnTaps: readonly WithdrawnTap[];
+};
 
 /**
  * The session's taps, oldest first, at the unit's wall-clock time and as an offset from the start
  * of the session, with each step named as the step clock named it.
  */
-export function SessionTimeline({ events, steps }: SessionTimelineProps) {
+export function SessionTimeline({ events, steps, withdrawnTaps }: SessionTimelineProps) {
   if (events.length === 0) return <p className="text-paper-700">No events were recorded for this session.</p>;
   const titles = new Map((steps?.definition.steps ?? []).map((s) => [s.id, s.title]));
   const stepTitle = (id: string | undefined) => (id ? (titles.get(id) ?? `step “${id}”`) : 'a step');
   const ordered = [...events].sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime) || a.id - b.id);
   const start = ordered.find((e) => e.type === 'session-started') ?? ordered[0]!;
   const startMs = Date.parse(start.clientTime);
+  const byKey = new Map(events.map((e) => [e.idempotencyKey, e]));
+  const withdrawn = new Map(withdrawnTaps.map((tap) => [tap.idempotencyKey, tap]));
 
   return (
     <>
@@ -55,6 +69,7 @@ export function SessionTimeline({ events, steps }: SessionTimelineProps) {
       <ol className="relative ml-2 border-l-2 border-paper-300">
         {ordered.map((event) => {
           const strong = marked.has(event.type);
+          const withdrawal = withdrawn.get(event.idempotencyKey);
           return (
             <li key={event.id} className="relative mb-3 pl-5 last:mb-0">
               <span
@@ -71,7 +86,17 @@ export function SessionTimeline({ events, steps }: SessionTimelineProps) {
                   {formatOffset((Date.parse(event.clientTime) - startMs) / 1000)}
                 </span>
               </p>
-              <p className={strong ? 'font-semibold text-paper-950' : 'text-paper-900'}>{describe(event, stepTitle)}</p>
+              {withdrawal ? (
+                <p className="text-paper-800">
+                  <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">Withdrawn</span>
+                  <s>{describe(event, stepTitle, byKey)}</s>
+                  <span className="block text-sm">
+                    Not counted in the record. Reason, given at {formatUnitClock(withdrawal.withdrawnAt)}: {withdrawal.reason}
+                  </span>
+                </p>
+              ) : (
+                <p className={strong ? 'font-semibold text-paper-950' : 'text-paper-900'}>{describe(event, stepTitle, byKey)}</p>
+              )}
             </li>
           );
         })}

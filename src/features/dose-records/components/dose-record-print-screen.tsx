@@ -11,6 +11,7 @@ import type { GivenRecord } from '../api/dose-record-schemas';
 import { doseRecordQueries } from '../api/dose-record-queries';
 import { eyeWords, severityWords, typeWords } from './dose-record-words';
 import { PlanAndGiven } from '../../../components/plan-and-given';
+import { eventWordsOf } from '../../../lib/session-event-words';
 import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from '../../../lib/unit-times';
 
 function Part({ id, title, children }: { id: string; title: string; children: ReactNode }) {
@@ -182,6 +183,29 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
           )}
           {record?.stopReason && <p className="mt-2">Stopped because: {record.stopReason}</p>}
         </Part>
+
+        {record && record.withdrawnTaps.length > 0 && (
+          <Part id="record-withdrawn" title="Taps withdrawn as mistakes">
+            <p className="mb-2 text-sm text-paper-700">Kept here as tapped; none of the figures and times above counts them.</p>
+            <ul className="flex flex-col gap-2">
+              {record.withdrawnTaps.map((tap) => {
+                const stepTitle = tap.stepId ? (steps.data?.definition.steps.find((s) => s.id === tap.stepId)?.title ?? tap.stepId) : null;
+                return (
+                  <li key={tap.idempotencyKey}>
+                    <span className="font-semibold">
+                      Withdrawn: <s>{eventWordsOf(tap.type)}</s>
+                      {stepTitle ? ` (${stepTitle})` : ''}
+                    </span>{' '}
+                    <span className="numerals-steady">
+                      tapped {formatUnitClock(tap.at)}, withdrawn {formatUnitClock(tap.withdrawnAt)}
+                    </span>
+                    <span className="block text-paper-800">Reason: {tap.reason}</span>
+                  </li>
+                );
+              })}
+            </ul>
+          </Part>
+        )}
 
         <Part id="record-deviations" title="Deviations from protocol">
           {deviations.length === 0 ? (

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { withdrawnTapSchema } from '../../../lib/session-record-schemas';
 import { protocolKinds, protocolVersionSchema } from '../../../../shared/protocol/protocol-schema';
 import { orderDetailSchema, orderStatuses, orderSummarySchema } from '../../../../shared/schemas/orders';
 import { patientSchema } from '../../../../shared/schemas/patients';
@@ -74,6 +75,8 @@ export const givenRecordSchema = z.object({
   uvElapsedS: figure,
   uvOnS: figure,
   deliveredFluenceJPerCm2: figure,
+  // Records stored before withdrawals existed have none.
+  withdrawnTaps: z.array(withdrawnTapSchema).optional().default([]),
 });
 export type GivenRecord = z.infer<typeof givenRecordSchema>;
 

@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
 import { Button } from '../../../components/ui/button';
+import { eventWordsOf } from '../../../lib/session-event-words';
 import { PrinterIcon } from '../../../components/ui/icons';
 import { unitTimeZone, unitTimeZoneLabel } from '../../../config/unit-time-zone';
 import type { GivenRecord, OrderSession } from '../api/order-response-schemas';
@@ -148,6 +149,25 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
               on-time.
             </p>
           )}
+        </div>
+      )}
+
+      {record.withdrawnTaps.length > 0 && (
+        <div className="space-y-2">
+          <h3 className="text-lg font-semibold text-paper-950">Taps withdrawn as mistakes</h3>
+          <p className="text-sm text-paper-700">Kept as tapped; none of the figures above counts them.</p>
+          <ul className="space-y-1">
+            {record.withdrawnTaps.map((tap) => {
+              const stepTitle = tap.stepId ? (definition?.steps.find((s) => s.id === tap.stepId)?.title ?? tap.stepId) : null;
+              return (
+                <li key={tap.idempotencyKey} className="text-paper-950">
+                  <span className="font-semibold">Withdrawn:</span> <s>{eventWordsOf(tap.type)}</s>
+                  {stepTitle ? ` (${stepTitle})` : ''}, tapped {formatUnitClock(tap.at)}, withdrawn {formatUnitClock(tap.withdrawnAt)}
+                  <span className="block text-sm text-paper-800">Reason: {tap.reason}</span>
+                </li>
+              );
+            })}
+          </ul>
         </div>
       )}
 

@@ -1,6 +1,7 @@
 import { useEffect, useId, useMemo, useRef, useState } from 'react';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
+import type { SessionEventLike } from '../../../../shared/session/dose-record';
 import type { SessionClock } from '../../../../shared/session/session-clock';
 import { Button } from '../../../components/ui/button';
 import { LeakIcon, ScreenAwakeIcon, SoundOffIcon, SoundOnIcon, StatusStoppedIcon } from '../../../components/ui/icons';
@@ -17,6 +18,7 @@ import { DeviationList } from './deviation-list';
 import { ExtravasationDialog, ExtravasationNotice } from './extravasation';
 import { eyeWords } from './eye-badge';
 import { ReasonDialog } from './reason-dialog';
+import { RecentTaps } from './recent-taps';
 import { SessionCautions } from './session-cautions';
 import type { SessionFacts } from './session-facts';
 import { StepActions } from './step-actions';
@@ -38,6 +40,7 @@ export function ClockView({
   serverNowMs,
   deviceNowMs,
   deviations,
+  events,
   onRecord,
   announce,
 }: {
@@ -50,6 +53,8 @@ export function ClockView({
   /** This device's own clock at the same instant (serverNowMs less the measured offset). */
   deviceNowMs?: number;
   deviations: readonly SessionDeviation[];
+  /** Stored and queued, for the list of recent taps that can be withdrawn. */
+  events: readonly SessionEventLike[];
   onRecord: (bodies: readonly EventBody[], atMs?: number) => void;
   announce: (text: string, urgency?: Urgency) => void;
 }) {
@@ -61,6 +66,7 @@ export function ClockView({
   const stepsHeading = useId();
   const deviationsHeading = useId();
   const cautionsHeading = useId();
+  const recentHeading = useId();
 
   const current = clock.current;
   const cueEveryS = current ? (protocol.steps[current.index]?.cueEveryS ?? null) : null;
@@ -140,6 +146,7 @@ export function ClockView({
           )}
         </div>
         <div className="flex min-h-0 flex-1 flex-col gap-4 border-t border-paper-200 pt-2 lg:overflow-y-auto lg:pr-1">
+          <RecentTaps orderId={order.id} protocol={protocol} events={events} headingId={recentHeading} onRecord={onRecord} announce={announce} />
           <StepList protocol={protocol} clock={clock} facts={facts} headingId={stepsHeading} />
           <DeviationList deviations={deviations} headingId={deviationsHeading} />
           <SessionCautions protocol={protocol} eyeWord={eyeWords[order.eye]} compact headingId={cautionsHeading} />

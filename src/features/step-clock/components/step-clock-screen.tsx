@@ -132,7 +132,7 @@ export function StepClockScreen({ orderId }: { orderId: number }) {
           }}
         />
       ) : clock.phase === 'running' ? (
-        <ClockView order={data} protocol={definition} plan={plan} clock={clock} facts={facts} serverNowMs={serverNowMs} deviceNowMs={nowMs} deviations={deviations} onRecord={record} announce={announce} />
+        <ClockView order={data} protocol={definition} plan={plan} clock={clock} facts={facts} serverNowMs={serverNowMs} deviceNowMs={nowMs} deviations={deviations} events={events} onRecord={record} announce={announce} />
       ) : (
         <SessionOutcome
           orderId={orderId}

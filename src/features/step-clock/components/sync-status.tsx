@@ -1,22 +1,8 @@
-import type { SessionEventInput } from '../../../../shared/session/session-events';
 import { Button } from '../../../components/ui/button';
 import { AlertIcon, StoredIcon, UnsentIcon } from '../../../components/ui/icons';
+import { eventWords } from '../../../lib/session-event-words';
 import type { SyncState } from '../api/event-sync';
 import { capitalised, formatWardTime } from './clock-format';
-
-const eventWords: Record<SessionEventInput['type'], string> = {
-  'session-started': 'session start',
-  'step-started': 'step start',
-  'step-ended': 'step end',
-  paused: 'pause',
-  resumed: 'resume',
-  'drop-given': 'drop',
-  'thickness-measured': 'thickness reading',
-  'thickness-override': 'thickness override',
-  extravasation: 'extravasation',
-  'session-stopped': 'stop',
-  'session-completed': 'completion',
-};
 
 /**
  * Whether every tap is stored. "Unsent: n" (word, number and icon) stays until the server has
