@@ -13,7 +13,7 @@ import { useCloseDeviation } from '../hooks/use-close-deviation';
 import { useReopenDeviation } from '../hooks/use-reopen-deviation';
 import { classificationIcons } from './deviation-badges';
 import { classificationWords, reviewFieldWords } from './deviation-words';
-import { TextAreaField } from './text-area-field';
+import { TextAreaField } from '../../../components/ui/text-area-field';
 
 type CloseInput = z.input<typeof closeDeviationSchema>;
 type CloseOutput = z.output<typeof closeDeviationSchema>;
@@ -114,6 +114,7 @@ export function CloseDeviationForm({ deviationId, onOutcome }: { deviationId: nu
         </div>
       </fieldset>
       <TextAreaField
+        rows={4}
         label="Comment"
         hint="3 to 2000 characters: what you found and why you judge it so. It stays in the deviation’s history."
         error={readableMessage(errors.comment?.message, reviewFieldWords)}
@@ -159,6 +160,7 @@ export function ReopenDeviationForm({ deviationId, onOutcome }: { deviationId: n
     <form onSubmit={onSubmit} noValidate aria-label="Reopen the deviation" className="flex flex-col gap-5">
       <RequestProblem error={reopen.error} title="The deviation was not reopened" fields={reopenFields} />
       <TextAreaField
+        rows={4}
         label="Why reopen it"
         hint="3 to 2000 characters. The earlier judgement stays in the history."
         error={readableMessage(errors.comment?.message, { comment: 'Why reopen it' })}

@@ -7,7 +7,7 @@ import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { dischargeQueries } from '../api/discharge-queries';
 import { DischargeSheet } from './discharge-sheet';
 import { EmailToPatient } from './email-to-patient';
-import { sheetPrintCss } from './print-frame';
+import { printCss } from '../../../components/ui/print-frame';
 import { StaffNotes } from './staff-notes';
 
 type DischargeScreenProps = {
@@ -100,7 +100,7 @@ export function DischargeScreen({ orderId, canRunSessions }: DischargeScreenProp
   return (
     <>
       {title}
-      <style>{sheetPrintCss}</style>
+      <style>{printCss}</style>
       <div className="mb-6 flex flex-wrap items-start justify-between gap-4 print:hidden">
         <div className="flex flex-wrap gap-3">
           {backToOrder}

@@ -2,7 +2,7 @@ import { DateTime } from 'luxon';
 import type { Discharge } from '../api/discharge-schemas';
 import { CxlAftercare } from './cxl-aftercare';
 import { LightPrecaution, PdtEyeAdvice } from './light-precaution';
-import { PrintFrame } from './print-frame';
+import { PrintFrame } from '../../../components/ui/print-frame';
 import { birthDateText, dayText } from './sheet-times';
 import { TreatmentGiven } from './treatment-given';
 

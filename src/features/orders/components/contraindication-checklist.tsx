@@ -2,7 +2,7 @@ import { useWatch, type Control, type FieldErrors, type UseFormRegister } from '
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import { FieldError } from '../../../components/ui/text-field';
 import type { OrderFormContext, OrderFormValues } from './order-form-values';
-import { TextAreaField } from './text-area-field';
+import { TextAreaField } from '../../../components/ui/text-area-field';
 
 type Question = ProtocolVersion['contraindications'][number];
 

@@ -30,7 +30,7 @@ import { ChecklistAnswers, OrderFacts, OrderInputs, OrderReasons, PharmacyRecord
 import { OrderStatusBadge } from './order-status-badge';
 import { amendableStatuses, eyeWords, fieldWords, kindWords, statusMeanings } from './order-words';
 import { PlanFigures, PlanWarnings, PlanWorking } from './plan-view';
-import { orderPrintCss, PrintFrame } from './print-frame';
+import { printCss, PrintFrame } from '../../../components/ui/print-frame';
 import { SessionPanel } from './session-panel';
 import { SignOrderDialog } from './sign-order-dialog';
 import { TreatmentCautions } from './treatment-cautions';
@@ -169,7 +169,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
   return (
     <div data-print-sheet className="print:text-[10.5pt]">
       <title>{`Order ${detail.id} · Luxtempo`}</title>
-      <style>{orderPrintCss}</style>
+      <style>{printCss}</style>
       <PrintFrame runningHead={runningHead}>
         <PageHeader
           title={`Order ${detail.id}${detail.revision > 1 ? ` · revision ${detail.revision}` : ''}`}

@@ -34,7 +34,7 @@ import { PatientPicker } from './patient-picker';
 import { PlanPreviewPanel } from './plan-preview-panel';
 import { formatFigure } from './plan-numbers';
 import { SelectField } from '../../../components/ui/select-field';
-import { TextAreaField } from './text-area-field';
+import { TextAreaField } from '../../../components/ui/text-area-field';
 import { TreatmentCautions } from './treatment-cautions';
 
 type OrderFormProps = {

@@ -25,9 +25,9 @@ export function PrintFrame({ runningHead, children }: { runningHead: ReactNode; 
 
 /**
  * Page size and margins, black on white, and no application header on paper. A `<style>` the
- * screen carries applies only while the screen is shown.
+ * screen carries applies only while that screen is shown.
  */
-export const orderPrintCss = `
+export const printCss = `
 @page { size: A4; margin: 12mm 15mm 14mm 15mm; }
 @media print {
   header:not(main header) { display: none !important; }

@@ -1,5 +1,5 @@
 import { useId, type Ref, type TextareaHTMLAttributes } from 'react';
-import { FieldError } from '../../../components/ui/text-field';
+import { FieldError } from './text-field';
 
 type TextAreaFieldProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, 'id'> & {
   label: string;
