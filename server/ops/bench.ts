@@ -171,6 +171,10 @@ try {
   const nurse = await signIn(base, 'nurse');
   const clinician = await signIn(base, 'clinician');
 
+  // The smallest answer the API gives (public, no database, a few bytes): what the HTTP stack
+  // and the middleware every request passes through cost before any work of Luxtempo's own.
+  const floor = await load('GET /api/unit (floor)', { url: `${base}/api/unit`, method: 'GET' });
+
   const calculation = await load('POST /api/calculations', {
     url: `${base}/api/calculations`,
     method: 'POST',
@@ -214,7 +218,7 @@ try {
 
   const js = await measureJs(base);
   const clock = await measureClockError(base);
-  results = { engine, calculation, eventWrites, firstLoadJs: js, clock };
+  results = { engine, floor, calculation, eventWrites, firstLoadJs: js, clock };
 } finally {
   await api.kill();
   await database.stop();
