@@ -13,7 +13,7 @@ import { SessionEventRow } from '../db/entities/session-event';
 import { TreatmentOrder } from '../db/entities/treatment-order';
 import { createPatientRepository } from '../patients/repository';
 import { createUserRepository } from '../people/repository';
-import { addParticipant, createSessionRepository } from '../sessions/repository';
+import { addParticipant, createSessionRepository, recordOrderFacts } from '../sessions/repository';
 import { demoDomain, demoPatients } from './seed';
 
 /** A script line: seconds from the session start, and the event as the tablet would send it. */
@@ -190,7 +190,7 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
       const record = deriveDoseRecord({ protocol: pv.definition, plan, events });
       const found = findDeviations({ protocol: pv.definition, plan, record, checklist: noAnswers(pv.definition), preparation });
       await sessions.reconcileDeviations(manager, order.id, pv.id, found);
-      await sessions.saveRecord(manager, order.id, record, { protocolVersionId: pv.id, unitTimeZone, deviationCount: found.length });
+      await sessions.saveRecord(manager, order.id, record, { protocolVersionId: pv.id, unitTimeZone, deviationCount: found.length, order: recordOrderFacts({ eye: item.eye, patientId: who.id, plan }) });
       await addParticipant(manager, order.id, clinician.id, 'ordered');
       await addParticipant(manager, order.id, nurse.id, 'nursed');
       if (preparation) {

@@ -29,7 +29,7 @@ export function createOrderRepository(dataSource: DataSource) {
         // The order's row and its own preparation row, nothing shared: a join to the protocol
         // version would lock that row too, and every session on one protocol would then wait for
         // every other.
-        `SELECT o.id, o.status, o.eye, o.protocol_version_id AS protocolVersionId, o.plan, o.checklist,
+        `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.plan, o.checklist,
                 p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt
            FROM treatment_order o LEFT JOIN preparation p ON p.order_id = o.id
           WHERE o.id = ? FOR UPDATE`,
@@ -41,6 +41,7 @@ export function createOrderRepository(dataSource: DataSource) {
         id: Number(row.id),
         status: row.status as OrderStatus,
         eye: row.eye as 'right' | 'left',
+        patientId: Number(row.patientId),
         protocolVersionId: Number(row.protocolVersionId),
         plan: parse<TreatmentOrder['plan']>(row.plan),
         checklist: parse<TreatmentOrder['checklist']>(row.checklist),

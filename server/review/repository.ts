@@ -77,11 +77,11 @@ export function createReviewRepository(dataSource: DataSource) {
         '(SELECT r.comment FROM deviation_review r WHERE r.deviation_id = d.id ORDER BY r.id DESC LIMIT 1) AS reviewComment',
       ]);
 
+  // The order's facts are on the record itself (see DoseRecordRow): the orders are not read.
   const recordColumns = (qb: SelectQueryBuilder<DoseRecordRow>) =>
     qb
-      .innerJoin('treatment_order', 'o', 'o.id = r.order_id')
-      .innerJoin('protocol_version', 'pv', 'pv.id = o.protocol_version_id')
-      .innerJoin('patient', 'p', 'p.id = o.patient_id')
+      .innerJoin('protocol_version', 'pv', 'pv.id = r.protocol_version_id')
+      .innerJoin('patient', 'p', 'p.id = r.patient_id')
       .select([
         'r.order_id AS orderId',
         'r.outcome AS outcome',
@@ -91,9 +91,9 @@ export function createReviewRepository(dataSource: DataSource) {
         'r.delivered_fluence_j_per_cm2 AS deliveredFluenceJPerCm2',
         'r.volume_given_ml AS volumeGivenMl',
         'r.deviation_count AS deviationCount',
-        "JSON_VALUE(o.plan, '$.doseMg') AS doseMg",
-        "JSON_VALUE(o.plan, '$.fluenceJPerCm2') AS plannedFluenceJPerCm2",
-        'o.eye AS eye',
+        'r.planned_dose_mg AS doseMg',
+        'r.planned_fluence_j_per_cm2 AS plannedFluenceJPerCm2',
+        'r.eye AS eye',
         'pv.protocol_key AS protocolKey',
         'pv.version AS protocolVersion',
         'pv.kind AS kind',

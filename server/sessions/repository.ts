@@ -39,6 +39,19 @@ function byClientTime(a: SessionEvent, b: SessionEvent): number {
   return Date.parse(a.clientTime) - Date.parse(b.clientTime) || a.id - b.id;
 }
 
+/** What a dose record copies from its order (see the entity): fixed once the order is signed. */
+export interface RecordOrderFacts {
+  eye: 'right' | 'left';
+  patientId: number;
+  plannedDoseMg: number | null;
+  plannedFluenceJPerCm2: number | null;
+}
+
+/** The order facts a record copies, from the order's row and its frozen plan. */
+export function recordOrderFacts(order: { eye: 'right' | 'left'; patientId: number; plan: { doseMg?: number | null; fluenceJPerCm2?: number | null } }): RecordOrderFacts {
+  return { eye: order.eye, patientId: order.patientId, plannedDoseMg: order.plan.doseMg ?? null, plannedFluenceJPerCm2: order.plan.fluenceJPerCm2 ?? null };
+}
+
 /** A session's events as this process last read them, up to and including `lastId`. */
 interface KnownEvents {
   events: SessionEvent[];
@@ -136,13 +149,15 @@ export function createSessionRepository(dataSource: DataSource) {
       ),
 
     /** One statement whether the record exists or not: this runs on every event. */
-    saveRecord: (manager: EntityManager, orderId: number, record: DoseRecord, extra: { protocolVersionId: number; unitTimeZone: string; deviationCount: number }) =>
+    saveRecord: (manager: EntityManager, orderId: number, record: DoseRecord, extra: { protocolVersionId: number; unitTimeZone: string; deviationCount: number; order: RecordOrderFacts }) =>
       manager.query(
-        `INSERT INTO dose_record (order_id, outcome, started_at, ended_at, on_time_s, delivered_fluence_j_per_cm2, volume_given_ml, record, protocol_version_id, local_month, deviation_count)
-         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+        `INSERT INTO dose_record (order_id, outcome, started_at, ended_at, on_time_s, delivered_fluence_j_per_cm2, volume_given_ml, record, protocol_version_id, local_month, deviation_count,
+                                  eye, patient_id, planned_dose_mg, planned_fluence_j_per_cm2)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
          ON DUPLICATE KEY UPDATE outcome = VALUES(outcome), started_at = VALUES(started_at), ended_at = VALUES(ended_at), on_time_s = VALUES(on_time_s),
            delivered_fluence_j_per_cm2 = VALUES(delivered_fluence_j_per_cm2), volume_given_ml = VALUES(volume_given_ml), record = VALUES(record),
-           protocol_version_id = VALUES(protocol_version_id), local_month = VALUES(local_month), deviation_count = VALUES(deviation_count), updated_at = CURRENT_TIMESTAMP(3)`,
+           protocol_version_id = VALUES(protocol_version_id), local_month = VALUES(local_month), deviation_count = VALUES(deviation_count),
+           eye = VALUES(eye), patient_id = VALUES(patient_id), planned_dose_mg = VALUES(planned_dose_mg), planned_fluence_j_per_cm2 = VALUES(planned_fluence_j_per_cm2), updated_at = CURRENT_TIMESTAMP(3)`,
         [
           orderId,
           record.outcome,
@@ -155,6 +170,10 @@ export function createSessionRepository(dataSource: DataSource) {
           extra.protocolVersionId,
           record.endedAt ? DateTime.fromISO(record.endedAt).setZone(extra.unitTimeZone).toFormat('yyyy-MM') : null,
           extra.deviationCount,
+          extra.order.eye,
+          extra.order.patientId,
+          extra.order.plannedDoseMg,
+          extra.order.plannedFluenceJPerCm2,
         ],
       ),
 

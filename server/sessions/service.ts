@@ -11,7 +11,7 @@ import type { OrderRepository } from '../orders/repository';
 import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
-import type { SessionRepository } from './repository';
+import { recordOrderFacts, type SessionRepository } from './repository';
 
 /** A tablet clock may run a little ahead of ours; further ahead than this is a mistake. */
 const futureSkewMs = 10_000;
@@ -108,7 +108,7 @@ export function createSessionService(deps: {
     const record = deriveDoseRecord({ protocol: order.definition, plan: order.plan, events: all, nowMs: now() });
     const deviations = findDeviations({ protocol: order.definition, plan: order.plan, record, checklist: order.checklist, preparation: order.preparation });
     const { standing } = await sessions.reconcileDeviations(manager, order.id, order.protocolVersionId, deviations);
-    await sessions.saveRecord(manager, order.id, record, { protocolVersionId: order.protocolVersionId, unitTimeZone: deps.unitTimeZone, deviationCount: deviations.length });
+    await sessions.saveRecord(manager, order.id, record, { protocolVersionId: order.protocolVersionId, unitTimeZone: deps.unitTimeZone, deviationCount: deviations.length, order: recordOrderFacts(order) });
     return { record, deviations: standing };
   }
 

@@ -38,6 +38,23 @@ export class DoseRecordRow {
   @Column({ name: 'local_month', type: 'char', length: 7, nullable: true })
   localMonth!: string | null;
 
+  /*
+   * Facts of the order, copied here when the record is written so that reports and exports over
+   * every session read this table alone: the orders hold each plan's JSON and are too large to
+   * read whole for that. They never change once the order is signed.
+   */
+  @Column({ type: 'enum', enum: ['right', 'left'], nullable: true })
+  eye!: 'right' | 'left' | null;
+
+  @Column({ name: 'patient_id', type: 'int', unsigned: true, nullable: true })
+  patientId!: number | null;
+
+  @Column({ name: 'planned_dose_mg', type: 'double', nullable: true })
+  plannedDoseMg!: number | null;
+
+  @Column({ name: 'planned_fluence_j_per_cm2', type: 'double', nullable: true })
+  plannedFluenceJPerCm2!: number | null;
+
   /** Deviations standing for this session (not withdrawn). */
   @Column({ name: 'deviation_count', type: 'smallint', unsigned: true, default: 0 })
   deviationCount!: number;
