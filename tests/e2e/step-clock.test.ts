@@ -145,16 +145,22 @@ async function seedEvents(orderId: number, taps: [secondsAgo: number, body: Reco
 
 /* ---------- the page ---------- */
 
-async function nursePage(orderId: number) {
+/** A tablet on the page's own clock, signed in as `email`, at `address`. */
+async function signedInPage(email: string, address: string) {
   const context = await ctx.browser.newContext({ viewport: { width: 1024, height: 768 } });
   const page = await context.newPage();
   const problems = watchPage(page, ctx.baseUrl);
   await page.clock.install({ time: serverNowMs() });
-  await signInThroughForm(page, ctx.baseUrl, 'nurse@demo.luxtempo.example', demoPassword);
+  await signInThroughForm(page, ctx.baseUrl, email, demoPassword);
   await page.getByRole('navigation', { name: 'Main' }).waitFor();
-  await page.goto(`${ctx.baseUrl}/sessions/${orderId}`);
-  await page.locator('h1', { hasText: 'Step clock' }).waitFor();
+  await page.goto(`${ctx.baseUrl}${address}`);
   return { page, problems };
+}
+
+async function nursePage(orderId: number) {
+  const opened = await signedInPage('nurse@demo.luxtempo.example', `/sessions/${orderId}`);
+  await opened.page.locator('h1', { hasText: 'Step clock' }).waitFor();
+  return opened;
 }
 
 async function confirmChecksAndStart(page: Page, eyeWord: 'right' | 'left') {
@@ -581,5 +587,56 @@ describe('the bedside step clock', () => {
     expect(stopped.deviations.map((d) => d.type)).toEqual(expect.arrayContaining(['extravasation', 'stopped-early']));
     expect(problems).toEqual([]);
     await page.context().close();
+  });
+
+  it('a clinician or an auditor watches a running session: the clock follows the nurse’s stored taps, and nothing on it records one', async () => {
+    const { id } = await preparedPdtOrder();
+    // The nurse's taps so far: checks done, the infusion running for 2 of its 10 min (TAP Study Group, Arch Ophthalmol 1999).
+    await seedEvents(id, [
+      [125, { type: 'session-started', checks: allChecks }],
+      [124, { type: 'step-started', stepId: 'confirm-patient' }],
+      [123, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [120, { type: 'step-started', stepId: 'infusion' }],
+    ]);
+    const infusionStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'infusion');
+
+    /** Nothing on the screen records a tap, withdraws one or is meant for the person at the bedside. */
+    const offersNoTaps = async (page: Page) => {
+      const main = page.getByRole('main');
+      await page.getByText('Watching only.').waitFor();
+      for (const name of ['Start infusion', 'End infusion', 'Start laser', 'Stop session…', 'Extravasation…', 'Sound on', 'Sound off']) {
+        expect(await main.getByRole('button', { name, exact: true }).count(), name).toBe(0);
+      }
+      expect(await main.getByRole('heading', { name: 'Recent taps' }).count()).toBe(0);
+      expect(await main.getByRole('button').allInnerTexts()).toEqual([]);
+    };
+
+    // The clinician comes in from the order page, which offers the way to someone who does not run sessions.
+    const { page, problems } = await signedInPage('clinician@demo.luxtempo.example', `/orders/${id}`);
+    await page.getByRole('link', { name: 'Watch session' }).click();
+    await page.locator('h1', { hasText: 'Step clock' }).waitFor();
+    const left = await readClock(page, 'Time left for the infusion', (ms) => 600 - (ms - infusionStartMs) / 1000, 'infusion, watched');
+    expect(Math.abs(left.errorS)).toBeLessThan(1.1);
+    await page.getByRole('heading', { name: 'Steps' }).waitFor();
+    await page.getByRole('heading', { name: /^Deviations from protocol/ }).waitFor();
+    await page.getByText('Stored taps as of').waitFor();
+    await offersNoTaps(page);
+    expect(await accessibilityViolations(page)).toEqual([]);
+
+    // The nurse ends the infusion on her tablet; the watching clock moves on at its next fetch.
+    await seedEvents(id, [[0, { type: 'step-ended', stepId: 'infusion' }]]);
+    await advance(page, 16_000);
+    await page.getByRole('timer', { name: 'Time until the light starts' }).waitFor({ timeout: 15_000 });
+    await offersNoTaps(page);
+    expect(problems).toEqual([]);
+    await page.context().close();
+
+    // The auditor opens the clock's address directly and sees the same, read-only.
+    const auditor = await signedInPage('auditor@demo.luxtempo.example', `/sessions/${id}`);
+    await auditor.page.getByRole('timer', { name: 'Time until the light starts' }).waitFor();
+    await offersNoTaps(auditor.page);
+    expect(await accessibilityViolations(auditor.page)).toEqual([]);
+    expect(auditor.problems).toEqual([]);
+    await auditor.page.context().close();
   });
 });

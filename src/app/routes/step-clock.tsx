@@ -13,17 +13,18 @@ export function StepClockRoute() {
   const orderId = /^[1-9]\d{0,9}$/.test(orderIdText) ? Number(orderIdText) : null;
   const title = <title>{`Step clock, order ${orderIdText} · Luxtempo`}</title>;
 
-  if (!hasCapability(user, 'sessions.run')) {
+  // Anyone who may read orders may watch a session; only 'sessions.run' records taps (the server refuses the rest).
+  if (!hasCapability(user, 'orders.read')) {
     return (
       <>
         {title}
         <StatusPanel
           headingLevel="h1"
           icon={<LockIcon className="size-6" />}
-          title="Sessions are run by nurses"
-          actions={orderId !== null ? <LinkButton to={paths.order.getHref(orderId)}>Open the order</LinkButton> : <LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
+          title="Sessions are not open to your roles"
+          actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
         >
-          <p>Running the step clock is not part of your roles. The order page shows the session’s record and deviations.</p>
+          <p>Watching or running the step clock needs a role that may read orders.</p>
         </StatusPanel>
       </>
     );
@@ -42,7 +43,7 @@ export function StepClockRoute() {
     <>
       {title}
       {/* A fresh screen per order, so one order's ticks and typed figures never show on another. */}
-      <StepClockScreen key={orderId} orderId={orderId} />
+      <StepClockScreen key={orderId} orderId={orderId} canRecord={hasCapability(user, 'sessions.run')} />
     </>
   );
 }

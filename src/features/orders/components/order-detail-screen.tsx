@@ -205,6 +205,11 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
                   Open step clock
                 </LinkButton>
               )}
+              {!canRunSessions && detail.status === 'in-session' && (
+                <LinkButton variant="secondary" to={paths.stepClock.getHref(detail.id)} icon={<ClockIcon />}>
+                  Watch session
+                </LinkButton>
+              )}
               {showsDischarge && (
                 <LinkButton variant="primary" to={paths.orderDischarge.getHref(detail.id)} icon={<DischargeSheetIcon />}>
                   Discharge sheet

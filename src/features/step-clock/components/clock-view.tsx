@@ -30,7 +30,11 @@ const wakeLockWords: Record<Exclude<WakeLockStatus, 'off'>, string> = {
   refused: 'The screen may dim: the browser declined to keep it on',
 };
 
-/** The running session: clock, the buttons of the moment, steps, deviations and cautions. */
+/**
+ * The running session: clock, the buttons of the moment, steps, deviations and cautions. Someone
+ * `watching` gets the same clock and lists from the stored events, without anything that records
+ * a tap or calls for action at the bedside (buttons, sound, screen lock, the list of taps to withdraw).
+ */
 export function ClockView({
   order,
   protocol,
@@ -43,6 +47,7 @@ export function ClockView({
   events,
   onRecord,
   announce,
+  watching,
 }: {
   order: SessionOrder;
   protocol: ProtocolVersion;
@@ -57,12 +62,13 @@ export function ClockView({
   events: readonly SessionEventLike[];
   onRecord: (bodies: readonly EventBody[], atMs?: number) => void;
   announce: (text: string, urgency?: Urgency) => void;
+  watching: boolean;
 }) {
   const [muted, setMuted] = useMutedPreference();
   const [dialog, setDialog] = useState<null | 'stop' | 'override' | 'extravasation'>(null);
   // Stop and extravasation are timed at the press that opened the dialog, not at the confirmation.
   const pressedAtMs = useRef(0);
-  const wakeLock = useWakeLock(true);
+  const wakeLock = useWakeLock(!watching);
   const stepsHeading = useId();
   const deviationsHeading = useId();
   const cautionsHeading = useId();
@@ -72,7 +78,7 @@ export function ClockView({
   const cueEveryS = current ? (protocol.steps[current.index]?.cueEveryS ?? null) : null;
   const isDropStep = current !== null && (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') && cueEveryS !== null;
   const cueWords = useMemo(() => ({ stepName: current ? stepNames[current.kind] : 'step' }), [current?.kind]);
-  const flash = useCues({ clock, cueEveryS, dropCount: facts.dropsInCurrentStep, isDropStep, muted, words: cueWords, announce });
+  const flash = useCues({ clock, cueEveryS, dropCount: facts.dropsInCurrentStep, isDropStep, muted, enabled: !watching, words: cueWords, announce });
 
   // Step changes are said once, politely; the clock itself is never read out on its own.
   const currentId = current?.id ?? null;
@@ -116,37 +122,41 @@ export function ClockView({
       <div className="flex min-w-0 flex-col gap-3">
         {facts.extravasationMs !== null && <ExtravasationNotice atMs={facts.extravasationMs} />}
         <ClockFace clock={clock} protocol={protocol} plan={plan} facts={facts} serverNowMs={serverNowMs} deviceNowMs={deviceNowMs} flash={flash} />
-        <StepActions clock={clock} protocol={protocol} facts={facts} serverNowMs={serverNowMs} orderId={order.id} onRecord={onRecord} onOverride={() => setDialog('override')} />
+        {!watching && <StepActions clock={clock} protocol={protocol} facts={facts} serverNowMs={serverNowMs} orderId={order.id} onRecord={onRecord} onOverride={() => setDialog('override')} />}
       </div>
 
       {/* Sized to the screen so the page itself never scrolls on a landscape tablet; the lists scroll inside. */}
       <div className="flex min-w-0 flex-col gap-3 lg:max-h-[calc(100dvh-16.5rem)]">
-        <div className="flex flex-wrap gap-2">
-          <Button variant="secondary" icon={<StatusStoppedIcon />} onClick={() => openTimed('stop')}>
-            Stop session…
-          </Button>
-          {protocol.kind === 'pdt' && (
-            <Button variant="secondary" icon={<LeakIcon />} onClick={() => openTimed('extravasation')}>
-              Extravasation…
-            </Button>
-          )}
-        </div>
-        <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
-          <Button variant="quiet" size="sm" icon={muted ? <SoundOffIcon /> : <SoundOnIcon />} onClick={() => setMuted(!muted)} aria-describedby={`${stepsHeading}-sound`}>
-            {muted ? 'Sound off' : 'Sound on'}
-          </Button>
-          <span id={`${stepsHeading}-sound`} className="sr-only">
-            {muted ? 'Press to turn the sound cues back on; the flash and vibration stay.' : 'Press to mute the sound cues; the flash and vibration stay.'}
-          </span>
-          {wakeLock !== 'off' && (
-            <p className="flex items-center gap-1.5 text-sm text-paper-700">
-              <ScreenAwakeIcon className="size-4 shrink-0" />
-              {wakeLockWords[wakeLock]}
-            </p>
-          )}
-        </div>
+        {!watching && (
+          <>
+            <div className="flex flex-wrap gap-2">
+              <Button variant="secondary" icon={<StatusStoppedIcon />} onClick={() => openTimed('stop')}>
+                Stop session…
+              </Button>
+              {protocol.kind === 'pdt' && (
+                <Button variant="secondary" icon={<LeakIcon />} onClick={() => openTimed('extravasation')}>
+                  Extravasation…
+                </Button>
+              )}
+            </div>
+            <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+              <Button variant="quiet" size="sm" icon={muted ? <SoundOffIcon /> : <SoundOnIcon />} onClick={() => setMuted(!muted)} aria-describedby={`${stepsHeading}-sound`}>
+                {muted ? 'Sound off' : 'Sound on'}
+              </Button>
+              <span id={`${stepsHeading}-sound`} className="sr-only">
+                {muted ? 'Press to turn the sound cues back on; the flash and vibration stay.' : 'Press to mute the sound cues; the flash and vibration stay.'}
+              </span>
+              {wakeLock !== 'off' && (
+                <p className="flex items-center gap-1.5 text-sm text-paper-700">
+                  <ScreenAwakeIcon className="size-4 shrink-0" />
+                  {wakeLockWords[wakeLock]}
+                </p>
+              )}
+            </div>
+          </>
+        )}
         <div className="flex min-h-0 flex-1 flex-col gap-4 border-t border-paper-200 pt-2 lg:overflow-y-auto lg:pr-1">
-          <RecentTaps orderId={order.id} protocol={protocol} events={events} headingId={recentHeading} onRecord={onRecord} announce={announce} />
+          {!watching && <RecentTaps orderId={order.id} protocol={protocol} events={events} headingId={recentHeading} onRecord={onRecord} announce={announce} />}
           <StepList protocol={protocol} clock={clock} facts={facts} headingId={stepsHeading} />
           <DeviationList deviations={deviations} headingId={deviationsHeading} />
           <SessionCautions protocol={protocol} eyeWord={eyeWords[order.eye]} compact headingId={cautionsHeading} />

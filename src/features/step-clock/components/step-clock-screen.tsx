@@ -4,7 +4,7 @@ import { readyForSessionStatuses } from '../../../../shared/schemas/orders';
 import { sessionClock, type SessionClock } from '../../../../shared/session/session-clock';
 import { preTreatmentChecks } from '../../../../shared/session/session-events';
 import { Button, LinkButton } from '../../../components/ui/button';
-import { AlertIcon, PlugOffIcon, ReloadIcon } from '../../../components/ui/icons';
+import { AlertIcon, EyeIcon, HourglassIcon, PlugOffIcon, ReloadIcon } from '../../../components/ui/icons';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
 import { describeError } from '../../../lib/api-client';
@@ -20,18 +20,19 @@ import { LiveRegions } from './live-regions';
 import { PreTreatmentChecks } from './pre-treatment-checks';
 import { sessionFacts } from './session-facts';
 import { SessionOutcome } from './session-outcome';
-import { RefusedTap, SyncMarker } from './sync-status';
+import { RefusedTap, SyncMarker, WatchedAsOf } from './sync-status';
 
 /**
  * The bedside step clock of one order: the pre-treatment checks, then the protocol's steps timed
- * from the stored and queued events, then the outcome.
+ * from the stored and queued events, then the outcome. Without `canRecord` the same clock is only
+ * watched: it follows the stored events as they are fetched again and offers nothing to tap.
  */
-export function StepClockScreen({ orderId }: { orderId: number }) {
+export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRecord: boolean }) {
   const order = useQuery(stepClockQueries.order(orderId));
   const protocolKey = order.data?.protocol.key ?? '';
   const protocolVersion = order.data?.protocol.version ?? 0;
   const protocol = useQuery({ ...stepClockQueries.protocol(protocolKey, protocolVersion), enabled: order.data !== undefined });
-  const { session, events, unsent, syncState, storageIsPersistent, record, sendAgain, discardRefused } = useSessionEvents(orderId);
+  const { session, events, unsent, syncState, storageIsPersistent, record, sendAgain, discardRefused } = useSessionEvents(orderId, { records: canRecord });
   const { polite, assertive, announce } = useAnnouncer();
   const offsetMs = useServerOffsetMs();
   const { nowMs, wakeAt } = useNowMs(250);
@@ -97,8 +98,21 @@ export function StepClockScreen({ orderId }: { orderId: number }) {
             Record {data.patient.recordNumber} · {data.protocol.title} (version {data.protocol.version}) · order {data.id}
           </p>
         </div>
-        <SyncMarker unsent={unsent.length} sync={syncState} persistent={storageIsPersistent} />
+        {canRecord ? (
+          <SyncMarker unsent={unsent.length} sync={syncState} persistent={storageIsPersistent} />
+        ) : (
+          <WatchedAsOf updatedAtMs={session.dataUpdatedAt} />
+        )}
       </header>
+      {!canRecord && (
+        <p className="flex items-start gap-2 rounded-xl border-2 border-paper-900 bg-white px-4 py-2.5 text-paper-950">
+          <EyeIcon className="mt-0.5 size-5 shrink-0" />
+          <span>
+            <strong className="font-semibold">Watching only.</strong> A nurse at the bedside records the taps; this page shows what they have stored and looks
+            again every 15 seconds.
+          </span>
+        </p>
+      )}
       {session.isError && session.data && (
         <p role="status" className="flex items-center gap-2 text-sm font-medium text-paper-900">
           <PlugOffIcon className="size-4" />
@@ -112,6 +126,10 @@ export function StepClockScreen({ orderId }: { orderId: number }) {
           <p>
             Its status is “{status}”. A session starts from a prepared PDT order (dose checked and prepared by the pharmacy) or a ready CXL order.
           </p>
+        </StatusPanel>
+      ) : clock.phase === 'not-started' && !canRecord ? (
+        <StatusPanel icon={<HourglassIcon className="size-6" />} title="The session has not started yet">
+          <p>The clock appears here once the nurse has confirmed the pre-treatment checks and started the session.</p>
         </StatusPanel>
       ) : clock.phase === 'not-started' ? (
         <PreTreatmentChecks
@@ -132,7 +150,7 @@ export function StepClockScreen({ orderId }: { orderId: number }) {
           }}
         />
       ) : clock.phase === 'running' ? (
-        <ClockView order={data} protocol={definition} plan={plan} clock={clock} facts={facts} serverNowMs={serverNowMs} deviceNowMs={nowMs} deviations={deviations} events={events} onRecord={record} announce={announce} />
+        <ClockView order={data} protocol={definition} plan={plan} clock={clock} facts={facts} serverNowMs={serverNowMs} deviceNowMs={nowMs} deviations={deviations} events={events} onRecord={record} announce={announce} watching={!canRecord} />
       ) : (
         <SessionOutcome
           orderId={orderId}

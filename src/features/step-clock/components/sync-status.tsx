@@ -35,6 +35,16 @@ export function SyncMarker({ unsent, sync, persistent }: { unsent: number; sync:
   );
 }
 
+/** For someone watching: how fresh the stored taps on screen are (the clock itself runs on between fetches). */
+export function WatchedAsOf({ updatedAtMs }: { updatedAtMs: number }) {
+  return (
+    <p className="flex items-center gap-1.5 px-2.5 py-1 font-medium text-paper-700">
+      <StoredIcon className="size-5" />
+      Stored taps as of {formatWardTime(updatedAtMs)}
+    </p>
+  );
+}
+
 /** A tap the server refused: it waits, with the server's reason, until it is sent again or discarded. */
 export function RefusedTap({ sync, onSendAgain, onDiscard }: { sync: SyncState; onSendAgain: () => void; onDiscard: () => void }) {
   const refused = sync.refused;

@@ -109,6 +109,7 @@ export function useCues({
   dropCount,
   isDropStep,
   muted,
+  enabled,
   words,
   announce,
 }: {
@@ -117,6 +118,8 @@ export function useCues({
   dropCount: number;
   isDropStep: boolean;
   muted: boolean;
+  /** Off for someone only watching: the cues call the person at the bedside to act. */
+  enabled: boolean;
   words: CueWords;
   announce: (text: string, urgency?: Urgency) => void;
 }): Flash | null {
@@ -149,7 +152,7 @@ export function useCues({
     const before = previous.current;
     previous.current = snapshot;
     // A step that starts or ends was tapped by someone standing there; it needs no cue.
-    if (!before || before.stepId !== snapshot.stepId) return;
+    if (!enabled || !before || before.stepId !== snapshot.stepId) return;
 
     const cue = (kind: CueKind, text: string, urgency: Urgency | null) => {
       if (!muted) play(kind);
@@ -182,7 +185,7 @@ export function useCues({
       lastReminderMs.current = nowMs;
       cue('now', 'The light is late: start the laser.', null);
     }
-  }, [announce, clock, cueEveryS, dropCount, isDropStep, muted, words.stepName]);
+  }, [announce, clock, cueEveryS, dropCount, enabled, isDropStep, muted, words.stepName]);
 
   return flash !== null && Date.now() < flash.untilMs ? flash : null;
 }
