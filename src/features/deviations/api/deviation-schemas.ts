@@ -77,19 +77,19 @@ const sessionDeviationSchema = z.object({
 export type SessionDeviation = z.infer<typeof sessionDeviationSchema>;
 
 export const deviationDetailSchema = z.object({
-  deviation: z.object({
-    id: z.number().int(),
-    orderId: z.number().int(),
-    type: z.string(),
-    severity: z.enum(deviationSeverities),
-    expected: figure,
-    actual: figure,
-    unit: z.string().nullable(),
-    message: z.string(),
-    detectedAt: z.string(),
-    reviewStatus: z.enum(reviewStatuses),
-    classification: z.enum(reviewClassifications).nullable(),
-    reviewedAt: z.string().nullable(),
+  deviation: deviationRowSchema.pick({
+    id: true,
+    orderId: true,
+    type: true,
+    severity: true,
+    expected: true,
+    actual: true,
+    unit: true,
+    message: true,
+    detectedAt: true,
+    reviewStatus: true,
+    classification: true,
+    reviewedAt: true,
   }),
   history: z.array(
     z.object({
