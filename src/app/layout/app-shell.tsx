@@ -1,6 +1,7 @@
 import { useEffect, useRef } from 'react';
 import { Outlet, ScrollRestoration, useLocation } from 'react-router-dom';
 import type { SessionUser } from '../../../shared/schemas/auth';
+import { DraftOwnerContext } from '../../lib/form-draft';
 import { AppHeader } from './app-header';
 import { MainNav } from './main-nav';
 import type { ShellContext } from './signed-in-user';
@@ -24,27 +25,29 @@ export function AppShell({ user }: { user: SessionUser }) {
   const context: ShellContext = { user };
 
   return (
-    <div className="flex min-h-dvh flex-col bg-paper-50">
-      <a
-        href="#main-content"
-        className="sr-only rounded-lg bg-iris-700 font-medium text-white shadow-lg focus:not-sr-only focus:absolute focus:top-3 focus:left-3 focus:z-50 focus:px-4 focus:py-2"
-      >
-        Skip to main content
-      </a>
-      <AppHeader user={user} />
-      {/* Landscape tablets get the navigation as a bar under the header so tables keep their width;
-          wide desktop screens get a side rail. */}
-      <div className="flex flex-1 flex-col xl:flex-row">
-        <div className="border-b border-paper-200 bg-paper-100 px-4 py-2 xl:w-56 xl:shrink-0 xl:border-r xl:border-b-0 xl:px-3 xl:py-5 print:hidden">
-          <MainNav user={user} />
-        </div>
-        <main id="main-content" ref={mainRef} tabIndex={-1} className="min-w-0 flex-1 px-6 py-8 xl:px-10 print:p-0">
-          <div className="mx-auto max-w-6xl">
-            <Outlet context={context} />
+    <DraftOwnerContext value={user.id}>
+      <div className="flex min-h-dvh flex-col bg-paper-50">
+        <a
+          href="#main-content"
+          className="sr-only rounded-lg bg-iris-700 font-medium text-white shadow-lg focus:not-sr-only focus:absolute focus:top-3 focus:left-3 focus:z-50 focus:px-4 focus:py-2"
+        >
+          Skip to main content
+        </a>
+        <AppHeader user={user} />
+        {/* Landscape tablets get the navigation as a bar under the header so tables keep their width;
+            wide desktop screens get a side rail. */}
+        <div className="flex flex-1 flex-col xl:flex-row">
+          <div className="border-b border-paper-200 bg-paper-100 px-4 py-2 xl:w-56 xl:shrink-0 xl:border-r xl:border-b-0 xl:px-3 xl:py-5 print:hidden">
+            <MainNav user={user} />
           </div>
-        </main>
+          <main id="main-content" ref={mainRef} tabIndex={-1} className="min-w-0 flex-1 px-6 py-8 xl:px-10 print:p-0">
+            <div className="mx-auto max-w-6xl">
+              <Outlet context={context} />
+            </div>
+          </main>
+        </div>
+        <ScrollRestoration />
       </div>
-      <ScrollRestoration />
-    </div>
+    </DraftOwnerContext>
   );
 }

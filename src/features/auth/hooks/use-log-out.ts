@@ -1,5 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import { paths } from '../../../config/paths';
+import { dropAllDrafts } from '../../../lib/form-draft';
 import { logOut } from '../api/log-out';
 
 /**
@@ -10,6 +11,7 @@ export function useLogOut() {
   return useMutation({
     mutationFn: logOut,
     onSuccess: () => {
+      dropAllDrafts();
       window.location.assign(paths.signIn.getHref());
     },
   });

@@ -1,5 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
+import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
+import { overDefaults, useFormDraft } from '../../../lib/form-draft';
 import { z } from 'zod';
 import type { DoseCheckEntry, OrderDetail } from '../../../../shared/schemas/orders';
 import { Alert } from '../../../components/ui/alert';
@@ -47,17 +49,22 @@ type BlindCheckFormProps = {
 };
 
 /** On a match the order comes back checked and the screen shows the plan in this form's place. */
+const checkDefaults: CheckFormInput = { bsaM2: '', doseMg: '', drugVolumeMl: '', comment: '' };
+
 export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
   const submit = useSubmitDoseCheck();
   const {
     register,
     handleSubmit,
     setError,
+    watch,
+    reset,
     formState: { errors },
   } = useForm<CheckFormInput, unknown, DoseCheckEntry>({
     resolver: zodResolver(checkFormSchema),
-    defaultValues: { bsaM2: '', doseMg: '', drugVolumeMl: '', comment: '' },
+    defaultValues: checkDefaults,
   });
+  const draftKeeper = useFormDraft(`dose-check.${order.id}`, { watch, reset }, { settle: overDefaults(checkDefaults) });
 
   const refusals = order.doseChecks.filter((check) => check.outcome === 'mismatch');
   const lastTry = refusals.length >= refusalsBeforeReturn - 1;
@@ -67,6 +74,7 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
     submit.mutate(
       { orderId: order.id, entry },
       {
+        onSuccess: draftKeeper.clear,
         onError: (error) => {
           if (!isApiRequestError(error)) return;
           let focused = false;
@@ -94,6 +102,7 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
       <h2 id="blind-check-heading" className="text-xl font-semibold text-paper-950">
         Your figures
       </h2>
+      <KeptDraftOffer draft={draftKeeper} what="figures" />
       <p className="mt-1 mb-5 text-paper-700">
         Work them out from the measurements and the protocol’s figures, rounded as the protocol says. A point or a comma may mark the decimals.
       </p>

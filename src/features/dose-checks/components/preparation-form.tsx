@@ -1,6 +1,8 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { DateTime } from 'luxon';
 import { useForm } from 'react-hook-form';
+import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
+import { overDefaults, useFormDraft } from '../../../lib/form-draft';
 import { z } from 'zod';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
 import type { OrderDetail, PreparationEntry } from '../../../../shared/schemas/orders';
@@ -74,16 +76,20 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
     handleSubmit,
     setError,
     setValue,
+    watch,
+    reset,
     formState: { errors },
   } = useForm<PreparationFormInput, unknown, PreparationEntry>({
     resolver: zodResolver(preparationFormSchema),
     defaultValues: { vialLot: '', vialExpiry: '', reconstitutedAt: nowText(), volumeDrawnMl: '' },
   });
+  const draftKeeper = useFormDraft(`preparation.${order.id}`, { watch, reset }, { settle: overDefaults({ vialLot: '', vialExpiry: '', reconstitutedAt: '', volumeDrawnMl: '' }) });
 
   const onSubmit = handleSubmit((entry) => {
     record.mutate(
       { orderId: order.id, entry },
       {
+        onSuccess: draftKeeper.clear,
         onError: (error) => {
           if (isApiRequestError(error) && error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
         },
@@ -106,6 +112,7 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
       <h2 id="preparation-heading" className="text-xl font-semibold text-paper-950">
         Record the preparation
       </h2>
+      <KeptDraftOffer draft={draftKeeper} what="preparation" />
 
       <div className="mt-3 mb-5 rounded-lg bg-paper-100 px-4 py-3 text-paper-900">
         <h3 className="font-semibold">What to prepare</h3>

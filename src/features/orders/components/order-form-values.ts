@@ -1,6 +1,6 @@
 import type { FieldError, FieldErrors, Resolver } from 'react-hook-form';
 import type { z } from 'zod';
-import type { BsaFormulaName } from '../../../../shared/engine/bsa';
+import { bsaFormulaNames, type BsaFormulaName } from '../../../../shared/engine/bsa';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { PlanInputs } from '../../../../shared/schemas/calculation';
 import { amendOrderSchema, orderDraftSchema, type AmendOrder, type OrderDetail, type OrderDraft } from '../../../../shared/schemas/orders';
@@ -71,6 +71,45 @@ export function emptyOrderForm(patientId?: number): OrderFormValues {
 
 const text = (value: number | undefined) => (value === undefined ? '' : String(value));
 
+const asText = (value: unknown): string => (typeof value === 'string' ? value : '');
+const oneOf = <T extends string, F extends string>(value: unknown, allowed: readonly T[], fallback: F): T | F => (allowed.includes(value as T) ? (value as T) : fallback);
+
+/**
+ * The form's values as react-hook-form reports them, made whole. A field that has not been
+ * registered yet reads as undefined: the reason box under a checklist "yes" appears only after
+ * the click, and a soft-limit reason only after the warning, so their first reading has no text.
+ * A restored browser draft may be older than the form. Everything that reads the form reads it
+ * through here.
+ */
+export function settleFormValues(raw: unknown): OrderFormValues {
+  const v = (raw && typeof raw === 'object' ? raw : {}) as Partial<Record<keyof OrderFormValues, unknown>>;
+  const checklistIn = v.checklist && typeof v.checklist === 'object' ? (v.checklist as Record<string, unknown>) : {};
+  const checklist: OrderFormValues['checklist'] = {};
+  for (const [id, entry] of Object.entries(checklistIn)) {
+    const e = (entry && typeof entry === 'object' ? entry : {}) as { answer?: unknown; overrideReason?: unknown };
+    checklist[id] = { answer: oneOf(e.answer, ['yes', 'no'] as const, ''), overrideReason: asText(e.overrideReason) };
+  }
+  const reasonsIn = v.softLimitReasons && typeof v.softLimitReasons === 'object' ? (v.softLimitReasons as Record<string, unknown>) : {};
+  return {
+    patientId: asText(v.patientId),
+    eye: oneOf(v.eye, ['right', 'left'] as const, ''),
+    protocolRef: asText(v.protocolRef),
+    heightValue: asText(v.heightValue),
+    heightUnit: oneOf(v.heightUnit, ['cm', 'in'] as const, 'cm'),
+    weightValue: asText(v.weightValue),
+    weightUnit: oneOf(v.weightUnit, ['kg', 'lb'] as const, 'kg'),
+    bsaFormula: oneOf(v.bsaFormula, bsaFormulaNames, ''),
+    lesionGldUm: asText(v.lesionGldUm),
+    lensMagnification: asText(v.lensMagnification),
+    stromalThicknessUm: asText(v.stromalThicknessUm),
+    checklist,
+    softLimitReasons: Object.fromEntries(Object.entries(reasonsIn).map(([key, reason]) => [key, asText(reason)])),
+    retreatmentReason: asText(v.retreatmentReason),
+    note: asText(v.note),
+    amendmentReason: asText(v.amendmentReason),
+  };
+}
+
 /** A saved order back into the form, for editing a draft or amending a signed order. */
 export function orderToForm(order: OrderDetail): OrderFormValues {
   const { inputs } = order;
@@ -117,7 +156,8 @@ const numberFields = {
 type NumberField = keyof typeof numberFields;
 
 /** The measurements the chosen protocol kind takes; the other kind's boxes are left out, not sent. */
-export function formToInputs(values: OrderFormValues, kind: ProtocolVersion['kind'] | null): { inputs: PlanInputs; invalid: NumberField[] } {
+export function formToInputs(raw: OrderFormValues, kind: ProtocolVersion['kind'] | null): { inputs: PlanInputs; invalid: NumberField[] } {
+  const values = settleFormValues(raw);
   const invalid: NumberField[] = [];
   const read = (field: NumberField) => {
     const parsed = parseMeasure(values[field]);
@@ -149,7 +189,8 @@ export function formToInputs(values: OrderFormValues, kind: ProtocolVersion['kin
 const blankToNull = (value: string) => (value.trim() === '' ? null : value.trim());
 
 /** The draft the API takes, built from the form (not yet checked). */
-export function formToDraft(values: OrderFormValues, context: OrderFormContext): OrderDraft | AmendOrder {
+export function formToDraft(raw: OrderFormValues, context: OrderFormContext): OrderDraft | AmendOrder {
+  const values = settleFormValues(raw);
   const protocol = parseProtocolRef(values.protocolRef);
   const { inputs } = formToInputs(values, context.definition?.kind ?? null);
   const questionIds = context.definition ? context.definition.contraindications.map((c) => c.id) : Object.keys(values.checklist);
@@ -242,7 +283,8 @@ function setNested(errors: Record<string, unknown>, name: string, error: FieldEr
 type Problem = { field: string; message: string };
 
 /** Checks the form before it is sent: the shared draft schema plus what the form itself asks for. */
-export function checkOrderForm(values: OrderFormValues, context: OrderFormContext): { draft: OrderDraft | AmendOrder; problems: Problem[]; unplaced: string[] } {
+export function checkOrderForm(raw: OrderFormValues, context: OrderFormContext): { draft: OrderDraft | AmendOrder; problems: Problem[]; unplaced: string[] } {
+  const values = settleFormValues(raw);
   const draft = formToDraft(values, context);
   const problems: Problem[] = [];
   const unplaced: string[] = [];

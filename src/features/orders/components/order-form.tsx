@@ -6,9 +6,11 @@ import { signatureProblems } from '../../../../shared/orders/readiness';
 import type { InputLimit } from '../../../../shared/protocol/protocol-schema';
 import type { AmendOrder, OrderDetail, OrderDraft } from '../../../../shared/schemas/orders';
 import { Alert } from '../../../components/ui/alert';
+import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
 import { Button, LinkButton } from '../../../components/ui/button';
 import { FieldError } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
+import { useFormDraft } from '../../../lib/form-draft';
 import { readableMessage } from '../../../lib/form-errors';
 import { orderQueries } from '../api/order-queries';
 import type { ProtocolChoices } from '../api/order-response-schemas';
@@ -24,6 +26,7 @@ import {
   parseProtocolRef,
   protocolRefOf,
   reasonKey,
+  settleFormValues,
   type OrderFormContext,
   type OrderFormMode,
   type OrderFormValues,
@@ -83,6 +86,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
     setValue,
     getValues,
     trigger,
+    watch,
+    reset,
     formState: { errors, isSubmitted },
   } = useForm<OrderFormValues, OrderFormContext>({
     defaultValues: initialValues,
@@ -93,7 +98,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
     shouldFocusError: true,
   });
 
-  const values = useWatch({ control }) as OrderFormValues;
+  const values = settleFormValues(useWatch({ control }));
+  const draftKeeper = useFormDraft(`order.${mode}.${source?.id ?? 'new'}`, { watch, reset }, { settle: settleFormValues });
   const chosenRef = parseProtocolRef(values.protocolRef);
   const definitionQuery = useQuery({ ...orderQueries.protocolDefinition(chosenRef?.key ?? '', chosenRef?.version ?? 0), enabled: chosenRef !== null });
   const definition = chosenRef ? (definitionQuery.data?.definition ?? null) : null;
@@ -164,7 +170,10 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
           ? { mode, id: source!.id, draft: draft as OrderDraft }
           : { mode, id: source!.id, amendment: draft as AmendOrder };
     save.mutate(request, {
-      onSuccess: onSaved,
+      onSuccess: (order) => {
+        draftKeeper.clear();
+        onSaved(order);
+      },
       onError: (error) => {
         if (!isApiRequestError(error) || error.status !== 400) return;
         let focused = false;
@@ -190,6 +199,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
   return (
     <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
       <form onSubmit={onSubmit} noValidate className="min-w-0 space-y-6" aria-label={mode === 'amend' ? 'Amendment' : 'Order'}>
+        <KeptDraftOffer draft={draftKeeper} what={mode === 'amend' ? 'amendment' : 'order'} />
         {mode === 'amend' && (
           <Section id="amendment" title="Why this amendment" lead="The signed revision stays on record; this reason goes with the new revision.">
             <TextAreaField
@@ -383,7 +393,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
           <Button type="submit" busy={save.isPending}>
             {save.isPending ? 'Saving…' : saveLabel}
           </Button>
-          <LinkButton to={cancelHref} variant="secondary">
+          <LinkButton to={cancelHref} variant="secondary" onClick={draftKeeper.clear}>
             Cancel
           </LinkButton>
         </div>

@@ -1,5 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
+import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
+import { overDefaults, useFormDraft } from '../../../lib/form-draft';
 import { z } from 'zod';
 import { createPatientSchema, type CreatePatient, type Patient } from '../../../../shared/schemas/patients';
 import { Alert } from '../../../components/ui/alert';
@@ -23,7 +25,7 @@ type PatientFormValues = {
 const patientFormSchema = z.preprocess(
   (values) => {
     const v = values as PatientFormValues;
-    return { ...v, email: v.email.trim() === '' ? null : v.email };
+    return { ...v, email: (v.email ?? '').trim() === '' ? null : v.email };
   },
   createPatientSchema,
 ) as unknown as z.ZodType<CreatePatient, PatientFormValues>;
@@ -44,21 +46,29 @@ type AddPatientFormProps = {
   onCancel: () => void;
 };
 
+const patientDefaults: PatientFormValues = { recordNumber: '', givenName: '', familyName: '', dateOfBirth: '', email: '', emailConsent: false };
+
 export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps) {
   const createPatient = useCreatePatient();
   const {
     register,
     handleSubmit,
     setError,
+    watch,
+    reset,
     formState: { errors },
   } = useForm<PatientFormValues, unknown, CreatePatient>({
     resolver: zodResolver(patientFormSchema),
-    defaultValues: { recordNumber: '', givenName: '', familyName: '', dateOfBirth: '', email: '', emailConsent: false },
+    defaultValues: patientDefaults,
   });
+  const draftKeeper = useFormDraft('add-patient', { watch, reset }, { settle: overDefaults(patientDefaults) });
 
   const onSubmit = handleSubmit((input) => {
     createPatient.mutate(input, {
-      onSuccess: onCreated,
+      onSuccess: (patient) => {
+        draftKeeper.clear();
+        onCreated(patient);
+      },
       onError: (error) => {
         if (!isApiRequestError(error)) return;
         if (error.code === 'record_number_taken') setError('recordNumber', { type: 'server', message: error.message }, { shouldFocus: true });
@@ -77,6 +87,7 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
       <h2 id={`${id}-heading`} className="mb-1 text-xl font-semibold text-paper-950">
         Add a patient
       </h2>
+      <KeptDraftOffer draft={draftKeeper} what="patient details" />
       <p className="mb-5 text-paper-700">Copy the record number and names exactly as they stand on the hospital record.</p>
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">
         {error &&
@@ -137,7 +148,14 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
           <Button type="submit" busy={createPatient.isPending}>
             {createPatient.isPending ? 'Adding…' : 'Add patient'}
           </Button>
-          <Button variant="secondary" onClick={onCancel} disabled={createPatient.isPending}>
+          <Button
+            variant="secondary"
+            onClick={() => {
+              draftKeeper.clear();
+              onCancel();
+            }}
+            disabled={createPatient.isPending}
+          >
             Cancel
           </Button>
         </div>

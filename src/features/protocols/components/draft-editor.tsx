@@ -1,8 +1,10 @@
-import { useId, useRef, useState, type FormEvent } from 'react';
+import { useCallback, useId, useRef, useState, type FormEvent } from 'react';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { CheckCircleIcon, PencilIcon } from '../../../components/ui/icons';
+import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
+import { useStateDraft } from '../../../lib/form-draft';
 import type { VersionDetail } from '../api/protocol-response-schemas';
 import { useUpdateDraft } from '../hooks/use-update-draft';
 import { LabelledTextarea } from './labelled-textarea';
@@ -41,6 +43,10 @@ export function DraftEditor({ draft }: { draft: VersionDetail }) {
   const [saved, setSaved] = useState<string | null>(null);
   const textareaRef = useRef<HTMLTextAreaElement>(null);
   const regionId = useId();
+  const savedText = asText(draft.definition);
+  const differs = useCallback((kept: string) => kept !== savedText, [savedText]);
+  const kept = useStateDraft(`protocol-draft.${draft.key}.${draft.version}`, text, setText, differs);
+  const keptOffer = { ...kept, restore: () => (kept.restore(), setOpen(true)) };
 
   const onSubmit = (event: FormEvent) => {
     event.preventDefault();
@@ -85,6 +91,11 @@ export function DraftEditor({ draft }: { draft: VersionDetail }) {
           {open ? 'Close the editor' : 'Open the editor'}
         </Button>
       </div>
+      {kept.offered && (
+        <div className="mt-4">
+          <KeptDraftOffer draft={keptOffer} what="changes to this definition" />
+        </div>
+      )}
       <div role="status" className={saved ? 'mt-4' : 'sr-only'}>
         {saved && (
           <p className="flex items-center gap-2 rounded-lg border border-iris-200 bg-iris-50 px-4 py-3 font-medium text-iris-900">
