@@ -1,5 +1,7 @@
 import { In, type DataSource, type EntityManager } from 'typeorm';
+import { canMoveOrder } from '../../shared/orders/lifecycle';
 import type { OrderListQuery, OrderStatus } from '../../shared/schemas/orders';
+import { AppError } from '../http/app-error';
 import { Attachment } from '../db/entities/attachment';
 import { DoseCheck } from '../db/entities/dose-check';
 import { Preparation } from '../db/entities/preparation';
@@ -13,6 +15,17 @@ const sortColumns: Record<OrderListQuery['sort'], string> = {
   protocol: 'pv.key',
   patient: 'p.familyName',
 };
+
+/**
+ * The one way an order's status changes: the move must be one the lifecycle allows, and the row
+ * must still be in the status the caller read (compare and set), so two writers cannot both win.
+ */
+export async function moveOrderStatus(manager: EntityManager, id: number, from: OrderStatus, to: OrderStatus, changes: Partial<TreatmentOrder> = {}): Promise<void> {
+  if (from === to) return;
+  if (!canMoveOrder(from, to)) throw AppError.conflict('status_move_refused', `Order ${id} cannot go from ${from} to ${to}.`);
+  const result = await manager.getRepository(TreatmentOrder).update({ id, status: from }, { ...changes, status: to });
+  if (result.affected !== 1) throw AppError.conflict('status_changed', `Order ${id} is no longer ${from}; reload it and try again.`);
+}
 
 export function createOrderRepository(dataSource: DataSource) {
   const orders = dataSource.getRepository(TreatmentOrder);

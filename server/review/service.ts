@@ -10,6 +10,8 @@ import { DeviationReview } from '../db/entities/deviation-review';
 import { DoseRecordRow } from '../db/entities/dose-record';
 import { TreatmentOrder } from '../db/entities/treatment-order';
 import { AppError } from '../http/app-error';
+import { moveOrderStatus } from '../orders/repository';
+import { statusAfterReview } from '../../shared/orders/lifecycle';
 import type { Actor } from '../orders/service';
 import type { SessionService } from '../sessions/service';
 import { csvLine, isoInZone } from './csv';
@@ -39,15 +41,14 @@ export function createReviewService(deps: { dataSource: DataSource; reviews: Rev
     return (await reviews.participantsOf(orderId)).some((p) => p.userId === actorId);
   }
 
-  /** A session is reviewed once none of its deviations is open; reopening one takes it back. */
+  /** Brings the order's status in line with its deviations' review (shared/orders/lifecycle). */
   async function settleOrderStatus(manager: EntityManager, orderId: number) {
-    const open = await manager.getRepository(DeviationRow).count({ where: { orderId, reviewStatus: 'open', withdrawnAt: IsNull() } });
-    const order = await manager.getRepository(TreatmentOrder).findOneBy({ id: orderId });
+    const order = await manager.getRepository(TreatmentOrder).findOne({ where: { id: orderId }, lock: { mode: 'pessimistic_write' } });
     const record = await manager.getRepository(DoseRecordRow).findOneBy({ orderId });
     if (!order || !record) return;
-    const ended = record.outcome === 'stopped' ? 'stopped' : 'completed';
-    if (open === 0 && order.status !== 'reviewed') await manager.update(TreatmentOrder, { id: orderId }, { status: 'reviewed' });
-    if (open > 0 && order.status === 'reviewed') await manager.update(TreatmentOrder, { id: orderId }, { status: ended });
+    const openDeviations = await manager.getRepository(DeviationRow).count({ where: { orderId, reviewStatus: 'open', withdrawnAt: IsNull() } });
+    const next = statusAfterReview(order.status, { sessionOutcome: record.outcome === 'stopped' ? 'stopped' : 'completed', openDeviations });
+    await moveOrderStatus(manager, orderId, order.status, next);
   }
 
   return {

@@ -1,4 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
+import { sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
 import { readyForSessionStatuses, type OrderStatus } from '../../shared/schemas/orders';
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import { deriveDoseRecord } from '../../shared/session/dose-record';
@@ -7,7 +8,7 @@ import { isWithdrawableType, type SessionEvent, type SessionEventInput } from '.
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
-import type { OrderRepository } from '../orders/repository';
+import { moveOrderStatus, type OrderRepository } from '../orders/repository';
 import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
@@ -24,8 +25,6 @@ const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
   'drop-given': ['soak', 'uv', 'swelling'],
   'thickness-measured': ['thickness', 'swelling'],
 };
-
-const sessionStatuses: OrderStatus[] = ['in-session', 'completed', 'stopped'];
 
 type SessionOrder = NonNullable<Awaited<ReturnType<OrderRepository['lockForSession']>>> & { definition: ProtocolDefinition };
 
@@ -72,7 +71,7 @@ export function createSessionService(deps: {
       if (!readyForSessionStatuses.includes(order.status)) {
         throw AppError.conflict('not_ready', `Order ${order.id} is ${order.status}; a session starts from a prepared (PDT) or ready (CXL) order.`);
       }
-    } else if (!sessionStatuses.includes(order.status)) {
+    } else if (!sessionEventStatuses.includes(order.status)) {
       throw AppError.conflict('session_not_started', `Order ${order.id} has no session running (it is ${order.status}).`);
     }
   }
@@ -166,7 +165,7 @@ export function createSessionService(deps: {
           if (input.type === 'session-started') status = 'in-session';
           const ends = (input.type === 'session-completed' || input.type === 'session-stopped') && order.status === 'in-session';
           if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
-          if (status !== order.status) await orders.update(manager, orderId, { status });
+          await moveOrderStatus(manager, orderId, order.status, status);
           const read = await sessions.eventsUnderLock(manager, orderId);
           afterCommit.push(() => (ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read)));
           const event = read.events.find((e) => e.idempotencyKey === input.idempotencyKey);
@@ -174,6 +173,12 @@ export function createSessionService(deps: {
           // Refused here, the insert rolls back and `read` is never remembered.
           if (input.type === 'tap-withdrawn') checkWithdrawal(order, input, read.events);
           const result = await recompute(manager, order, read.events);
+          if (status === 'reviewed') {
+            const [{ open }] = await manager.query("SELECT COUNT(*) AS open FROM deviation WHERE order_id = ? AND review_status = 'open' AND withdrawn_at IS NULL", [orderId]);
+            const next = statusAfterLateEvent(status, { sessionOutcome: result.record.outcome === 'stopped' ? 'stopped' : 'completed', openDeviations: Number(open) });
+            await moveOrderStatus(manager, orderId, status, next);
+            status = next;
+          }
           if (ends && result.deviations.length > 0) {
             await enqueueMessage(manager, {
               kind: 'session-deviations',

@@ -144,6 +144,22 @@ const targets: Target[] = [
   },
 ];
 
+/** The answer's text with every key and string of the request body taken out (raw and JSON-escaped). */
+function withoutEchoes(answer: string, body: unknown): string {
+  const said = new Set<string>();
+  const walk = (value: unknown) => {
+    if (typeof value === 'string') said.add(value);
+    else if (Array.isArray(value)) value.forEach(walk);
+    else if (value && typeof value === 'object') for (const [key, inner] of Object.entries(value)) { said.add(key); walk(inner); }
+  };
+  walk(body);
+  let text = answer;
+  for (const s of [...said].filter((s) => s.length > 0).sort((a, b) => b.length - a.length)) {
+    text = text.split(JSON.stringify(JSON.stringify(s).slice(1, -1)).slice(1, -1)).join('').split(JSON.stringify(s).slice(1, -1)).join('');
+  }
+  return text;
+}
+
 const runsPerTarget = 1500; // 7 targets × 1,500 = 10,500 bodies
 
 describe('random and malformed bodies', () => {
@@ -161,9 +177,11 @@ describe('random and malformed bodies', () => {
               expect(field.message.length).toBeGreaterThan(0);
             }
           }
-          expect(JSON.stringify(res.body)).not.toMatch(/\bat \S+\.(ts|js):\d+|ER_[A-Z_]+|SELECT |INSERT INTO/);
+          // What the body itself said may come back in a message naming the field; only the server's own internals are a leak.
+          expect(withoutEchoes(JSON.stringify(res.body), body)).not.toMatch(/\bat \S+\.(ts|js):\d+|ER_[A-Z_]+|SELECT |INSERT INTO/);
         }),
-        { numRuns: runsPerTarget },
+        // A key named like a database error code once failed the leak check by being echoed back.
+        { numRuns: runsPerTarget, examples: [[{ ER_A: {} }]] },
       );
     });
   }

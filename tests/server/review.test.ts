@@ -120,6 +120,57 @@ describe('reviewing a deviation', () => {
   });
 });
 
+describe('reviewing during a running session', () => {
+  it('closing the last open deviation of a running session leaves it in session, and every later tap is stored', async () => {
+    const nurse = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
+    const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent });
+    const t0 = Date.now() - 30 * 60_000;
+    const at = (s: number, e: object) => ({ idempotencyKey: randomUUID(), clientTime: new Date(t0 + s * 1000).toISOString(), ...e });
+    const send = (event: object) => nurse.post(`/api/orders/${order.id}/session-events`).send(event);
+    // Light 20 min after the infusion started, outside 15 ± 1 min (TAP Study Group, Arch Ophthalmol 1999;
+    // the window's tolerance common practice): a deviation while the laser step runs.
+    const light = 60 + 1200;
+    for (const event of [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(60, { type: 'step-started', stepId: 'infusion' }),
+      at(660, { type: 'step-ended', stepId: 'infusion' }),
+      at(light, { type: 'step-started', stepId: 'laser' }),
+    ]) expect((await send(event)).status).toBe(201);
+    const list = await auditorAgent.get('/api/deviations').query({ type: 'light-start-window', pageSize: 200 });
+    const deviation = list.body.deviations.find((d: { orderId: number }) => d.orderId === order.id);
+    expect(deviation).toBeDefined();
+
+    const closed = await auditorAgent.post(`/api/deviations/${deviation.id}/closure`).send({ classification: 'acceptable', comment: 'Laser room was still being cleaned.' });
+    expect(closed.status).toBe(200);
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('in-session');
+
+    const laterTaps = [at(light + 83, { type: 'step-ended', stepId: 'laser' }), at(light + 200, { type: 'session-completed' })];
+    for (const tap of laterTaps) {
+      const res = await send(tap);
+      expect(res.status, JSON.stringify(res.body)).toBe(201);
+    }
+    const state = await nurse.get(`/api/orders/${order.id}/session`);
+    const storedKeys = state.body.events.map((e: { idempotencyKey: string }) => e.idempotencyKey);
+    for (const tap of laterTaps) expect(storedKeys).toContain(tap.idempotencyKey);
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('completed');
+
+    // Ended, with nothing open: the next review settles it as reviewed.
+    const reopened = await auditorAgent.post(`/api/deviations/${deviation.id}/reopening`).send({ comment: 'Closed before the session ended; look again.' });
+    expect(reopened.status).toBe(200);
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('completed');
+    await auditorAgent.post(`/api/deviations/${deviation.id}/closure`).send({ classification: 'acceptable', comment: 'Reviewed after the end.' });
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('reviewed');
+
+    // A tap from an offline queue, made before the end, still lands on a reviewed session; an
+    // extravasation it reports is a new open deviation, so the session goes back to the queue.
+    const late = await send(at(light + 150, { type: 'extravasation', note: 'Swelling at the cannula noted on paper, tablet was offline.' }));
+    expect(late.status, JSON.stringify(late.body)).toBe(201);
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('completed');
+    const open = await auditorAgent.get('/api/deviations').query({ type: 'extravasation', pageSize: 200 });
+    expect(open.body.deviations.find((d: { orderId: number }) => d.orderId === order.id)).toMatchObject({ reviewStatus: 'open' });
+  });
+});
+
 describe('the CSV export', () => {
   it('has units in the headers, ISO 8601 times with offset, and escapes commas, quotes and line breaks', async () => {
     const nurse = await createTestPerson(ctx, ['nurse']);
