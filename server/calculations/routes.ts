@@ -18,7 +18,10 @@ export function calculationRoutes(protocols: ProtocolService): RouteSpec[] {
     {
       method: 'post',
       path: '/calculations',
-      access: 'calculations.run',
+      // A dose plan is for the people who write orders: a pharmacist with a blind check open could
+      // otherwise get the figures they are meant to work out themselves. The light calculator
+      // below stays open to everyone.
+      access: 'orders.write',
       handler: async (req, res) => {
         const request = parseInput(calculationRequestSchema, req.body);
         const row = await protocols.resolveForPreview(request.protocol.key, request.protocol.version);

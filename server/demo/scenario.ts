@@ -137,6 +137,7 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
         patientId: who.id,
         eye: item.eye,
         protocolVersionId: pv.id,
+        protocolSha256: pv.sha256,
         status: 'completed',
         revision: 1,
         previousRevisionId: null,

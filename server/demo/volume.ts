@@ -115,7 +115,7 @@ export async function seedVolume(dataSource: DataSource, count: number, options:
       const patientId = firstPatient + Math.floor(rand() * patientCount);
       const eye = rand() < 0.5 ? 'right' : 'left';
       const facts = recordOrderFacts({ eye, patientId, plan });
-      orders.push([id, patientId, eye, pv.id, found.length ? 'completed' : 'completed', 1, JSON.stringify(inputs), planJson, plan.engineVersion, '[]', '{}', `Volume ${run}`, clinician.id, clinician.id, signedAt, 'ordered', preparation ? new Date(preparation.beyondUseAt) : null, signedAt, signedAt]);
+      orders.push([id, patientId, eye, pv.id, pv.sha256, found.length ? 'completed' : 'completed', 1, JSON.stringify(inputs), planJson, plan.engineVersion, '[]', '{}', `Volume ${run}`, clinician.id, clinician.id, signedAt, 'ordered', preparation ? new Date(preparation.beyondUseAt) : null, signedAt, signedAt]);
       for (const e of sessionEvents) events.push([id, e.idempotencyKey, e.type, 'stepId' in e ? e.stepId : null, new Date(e.clientTime), new Date(e.clientTime), nurseId, JSON.stringify({ ...e, id: undefined, serverTime: undefined, recordedBy: undefined })]);
       const endedAt = record.endedAt ? new Date(record.endedAt) : null;
       records.push([id, record.outcome, record.sessionStartedAt ? new Date(record.sessionStartedAt) : null, endedAt, pv.kind === 'pdt' ? record.lightOnS : record.uvOnS, record.deliveredFluenceJPerCm2, pv.kind === 'pdt' ? record.volumeGivenMl : null, JSON.stringify(record), pv.id, endedAt ? DateTime.fromJSDate(endedAt).setZone(options.unitTimeZone).toFormat('yyyy-MM') : null, found.length, facts.eye, facts.patientId, facts.plannedDoseMg, facts.plannedFluenceJPerCm2]);
@@ -131,7 +131,7 @@ export async function seedVolume(dataSource: DataSource, count: number, options:
       }
     }
     await dataSource.transaction(async (m) => {
-      await insertMany(m, 'treatment_order', ['id', 'patient_id', 'eye', 'protocol_version_id', 'status', 'revision', 'inputs', 'plan', 'engine_version', 'checklist', 'soft_limit_reasons', 'note', 'created_by', 'signed_by', 'signed_at', 'signature_meaning', 'beyond_use_at', 'created_at', 'updated_at'], orders, 200);
+      await insertMany(m, 'treatment_order', ['id', 'patient_id', 'eye', 'protocol_version_id', 'protocol_sha256', 'status', 'revision', 'inputs', 'plan', 'engine_version', 'checklist', 'soft_limit_reasons', 'note', 'created_by', 'signed_by', 'signed_at', 'signature_meaning', 'beyond_use_at', 'created_at', 'updated_at'], orders, 200);
       await insertMany(m, 'session_event', ['order_id', 'idempotency_key', 'type', 'step_id', 'client_time', 'server_time', 'recorded_by', 'payload'], events, 1000);
       await insertMany(m, 'dose_record', ['order_id', 'outcome', 'started_at', 'ended_at', 'on_time_s', 'delivered_fluence_j_per_cm2', 'volume_given_ml', 'record', 'protocol_version_id', 'local_month', 'deviation_count', 'eye', 'patient_id', 'planned_dose_mg', 'planned_fluence_j_per_cm2'], records, 500);
       await insertMany(m, 'deviation', ['order_id', 'type', 'severity', 'expected', 'actual', 'unit', 'message', 'detected_at', 'protocol_version_id', 'review_status', 'classification'], deviations);

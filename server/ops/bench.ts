@@ -178,7 +178,7 @@ try {
   const calculation = await load('POST /api/calculations', {
     url: `${base}/api/calculations`,
     method: 'POST',
-    headers: { 'content-type': 'application/json', cookie: nurse },
+    headers: { 'content-type': 'application/json', cookie: clinician },
     body: JSON.stringify({ protocol: { key: 'pdt-standard', version: 1 }, inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, lesionGldUm: 2500, lensMagnification: 1 } }),
   });
 

@@ -2,6 +2,7 @@ import { In, type DataSource, type EntityManager } from 'typeorm';
 import { canMoveOrder } from '../../shared/orders/lifecycle';
 import type { OrderListQuery, OrderStatus } from '../../shared/schemas/orders';
 import { AppError } from '../http/app-error';
+import { checkOrderedDefinition, definitionSha256 } from '../protocols/definition-hash';
 import { Attachment } from '../db/entities/attachment';
 import { DoseCheck } from '../db/entities/dose-check';
 import { Preparation } from '../db/entities/preparation';
@@ -30,8 +31,12 @@ export async function moveOrderStatus(manager: EntityManager, id: number, from: 
 export function createOrderRepository(dataSource: DataSource) {
   const orders = dataSource.getRepository(TreatmentOrder);
   return {
-    findById: (id: number, manager?: EntityManager) =>
-      (manager?.getRepository(TreatmentOrder) ?? orders).findOne({ where: { id }, relations: withParts }),
+    /** One order with its parts; its protocol definition is checked against the fingerprint it was planned on. */
+    async findById(id: number, manager?: EntityManager) {
+      const order = await (manager?.getRepository(TreatmentOrder) ?? orders).findOne({ where: { id }, relations: withParts });
+      if (order) checkOrderedDefinition(order, definitionSha256(order.protocolVersion.definition));
+      return order;
+    },
 
     /**
      * What a session event needs of its order, read and locked in one statement: events of one
@@ -42,7 +47,7 @@ export function createOrderRepository(dataSource: DataSource) {
         // The order's row and its own preparation row, nothing shared: a join to the protocol
         // version would lock that row too, and every session on one protocol would then wait for
         // every other.
-        `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.plan, o.checklist,
+        `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.protocol_sha256 AS protocolSha256, o.plan, o.checklist,
                 p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt
            FROM treatment_order o LEFT JOIN preparation p ON p.order_id = o.id
           WHERE o.id = ? FOR UPDATE`,
@@ -56,6 +61,7 @@ export function createOrderRepository(dataSource: DataSource) {
         eye: row.eye as 'right' | 'left',
         patientId: Number(row.patientId),
         protocolVersionId: Number(row.protocolVersionId),
+        protocolSha256: String(row.protocolSha256),
         plan: parse<TreatmentOrder['plan']>(row.plan),
         checklist: parse<TreatmentOrder['checklist']>(row.checklist),
         /** When the drug was made up and must be used by (PDT), for the beyond-use deviations. */

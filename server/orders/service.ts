@@ -46,11 +46,12 @@ export function toOrderSummary(o: TreatmentOrder): OrderSummary {
 }
 
 /**
- * The blind check: while an order waits for its dose check, a pharmacist who did not sign it sees
- * the inputs but not the computed figures.
+ * The blind check: while an order waits for its dose check, a pharmacist who may check it (did not
+ * draft or sign it) sees the inputs but not the computed figures.
  */
 export function planIsWithheldFrom(order: TreatmentOrder, viewer: Actor): boolean {
-  return order.status === 'signed' && order.protocolVersion.kind === 'pdt' && viewer.roles.includes('pharmacist') && order.signedById !== viewer.id;
+  const mayCheck = viewer.roles.includes('pharmacist') && order.signedById !== viewer.id && order.createdById !== viewer.id;
+  return order.status === 'signed' && order.protocolVersion.kind === 'pdt' && mayCheck;
 }
 
 export function createOrderService(deps: {
@@ -168,6 +169,7 @@ export function createOrderService(deps: {
         patientId: input.patientId,
         eye: input.eye,
         protocolVersionId: row.id,
+        protocolSha256: row.sha256,
         status: 'draft',
         inputs: input.inputs,
         plan: computed,
@@ -251,7 +253,7 @@ export function createOrderService(deps: {
       await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
         if (locked?.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
-        await orders.update(manager, id, { status, plan: frozen, engineVersion: frozen.engineVersion, signedById: actor.id, signedAt: new Date(), signatureMeaning: 'ordered' });
+        await orders.update(manager, id, { status, plan: frozen, engineVersion: frozen.engineVersion, protocolSha256: row.sha256, signedById: actor.id, signedAt: new Date(), signatureMeaning: 'ordered' });
         if (order.previousRevisionId) await orders.update(manager, order.previousRevisionId, { status: 'superseded' });
         await addParticipant(manager, id, actor.id, 'ordered');
         if (status === 'signed') {

@@ -40,8 +40,9 @@ export function createPharmacyService(deps: {
      */
     async check(actor: Actor, id: number, entry: DoseCheckEntry) {
       const { order } = await loadForPharmacy(id);
-      if (order.signedById === actor.id) {
-        throw AppError.forbidden('You signed this order, so you cannot check it: the dose check must be done by someone else.');
+      if (order.signedById === actor.id || order.createdById === actor.id) {
+        const act = order.signedById === actor.id ? 'signed' : 'drafted';
+        throw AppError.forbidden(`You ${act} this order, so you cannot check it: the dose check must be done by someone else.`);
       }
       const tolerance = order.protocolVersion.definition.tolerances.doseCheck;
       if (!tolerance) throw AppError.conflict('no_dose_check', `Protocol ${order.protocolVersion.key} sets no dose-check tolerance.`);

@@ -1,3 +1,5 @@
+import { AppError } from '../http/app-error';
+import { checkOrderedDefinition, definitionSha256 } from './definition-hash';
 import type { DataSource, EntityManager } from 'typeorm';
 import { ProtocolApproval } from '../db/entities/protocol-approval';
 import { ProtocolVersion } from '../db/entities/protocol-version';
@@ -15,13 +17,17 @@ const definitionCache = new Map<number, { sha256: string; definition: ProtocolVe
  * The definition of a version an order points at. Orders only ever use approved versions, and
  * an approved definition never changes (the database refuses it), so it is read once per process.
  */
-export async function orderedDefinition(manager: EntityManager, protocolVersionId: number): Promise<ProtocolVersion['definition']> {
-  const cached = definitionCache.get(protocolVersionId);
-  if (cached) return cached.definition;
-  const [stored] = await manager.query('SELECT definition, sha256, status FROM protocol_version WHERE id = ?', [protocolVersionId]);
-  const definition = typeof stored.definition === 'string' ? JSON.parse(stored.definition) : stored.definition;
-  if (stored.status !== 'draft') definitionCache.set(protocolVersionId, { sha256: stored.sha256, definition });
-  return definition;
+export async function orderedDefinition(manager: EntityManager, order: { id: number; protocolVersionId: number; protocolSha256: string }): Promise<ProtocolVersion['definition']> {
+  let cached = definitionCache.get(order.protocolVersionId);
+  if (!cached) {
+    const [stored] = await manager.query('SELECT definition, sha256, status FROM protocol_version WHERE id = ?', [order.protocolVersionId]);
+    const definition = typeof stored.definition === 'string' ? JSON.parse(stored.definition) : stored.definition;
+    // The fingerprint is computed from what was read, never taken from the row's own column.
+    cached = { sha256: definitionSha256(definition), definition };
+    if (stored.status !== 'draft') definitionCache.set(order.protocolVersionId, cached);
+  }
+  checkOrderedDefinition(order, cached.sha256);
+  return cached.definition;
 }
 
 export function createProtocolRepository(dataSource: DataSource) {
@@ -43,6 +49,9 @@ export function createProtocolRepository(dataSource: DataSource) {
       if (cached?.sha256 !== row.sha256) {
         const [stored] = await dataSource.query('SELECT definition, sha256 FROM protocol_version WHERE id = ?', [row.id]);
         const definition = typeof stored.definition === 'string' ? JSON.parse(stored.definition) : stored.definition;
+        if (definitionSha256(definition) !== stored.sha256) {
+          throw AppError.conflict('protocol_fingerprint_mismatch', `Protocol ${key} version ${row.version}: its definition does not match its stored fingerprint; it cannot be used. Ask the administrator to check the protocol versions.`);
+        }
         cached = { sha256: stored.sha256, definition };
         definitionCache.set(row.id, cached);
       }

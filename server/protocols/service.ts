@@ -1,7 +1,5 @@
-import { createHash } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
-import { canonicalJson } from '../../shared/protocol/canonical-json';
 import { protocolFileName, protocolVersionSchema, type ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import type { Role } from '../../shared/roles';
 import type { AuditRepository } from '../audit/repository';
@@ -10,9 +8,9 @@ import { AppError } from '../http/app-error';
 import { fieldProblemsFromZod } from '../http/validation';
 import type { ProtocolForUse, ProtocolRepository } from './repository';
 
-export function definitionSha256(definition: ProtocolDefinition): string {
-  return createHash('sha256').update(canonicalJson(definition)).digest('hex');
-}
+import { definitionSha256 } from './definition-hash';
+
+export { definitionSha256 };
 
 /** Roles whose holders may approve a protocol version; two different people are needed. */
 const approvingRoles: Role[] = ['clinician', 'pharmacist'];

@@ -44,7 +44,7 @@ export function createSessionService(deps: {
   async function sessionOrder(manager: EntityManager, orderId: number): Promise<SessionOrder> {
     const row = await orders.lockForSession(manager, orderId);
     if (!row) throw AppError.notFound(`There is no order ${orderId}.`);
-    return { ...row, definition: await orderedDefinition(manager, row.protocolVersionId) };
+    return { ...row, definition: await orderedDefinition(manager, row) };
   }
 
   function checkEventFits(order: SessionOrder, input: SessionEventInput, nowMs: number) {

@@ -108,7 +108,7 @@ interface Target {
 const targets: Target[] = [
   {
     name: 'calculation',
-    agent: () => nurseAgent,
+    agent: () => clinicianAgent,
     method: 'post',
     url: () => '/api/calculations',
     body: fc.oneof(anyBody, mutated({ protocol: { key: 'pdt-standard', version: 1 }, inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 } })),

@@ -6,7 +6,7 @@ let ctx: TestContext;
 let agent: ReturnType<typeof supertest.agent>;
 beforeAll(async () => {
   ctx = await startTestApp();
-  agent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
+  agent = await signedInAgent(ctx, await createTestPerson(ctx, ['clinician']));
 });
 afterAll(async () => {
   await ctx.close();

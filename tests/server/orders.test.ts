@@ -125,6 +125,36 @@ describe('the PDT path: order, blind dose check, preparation', () => {
     expect(res.body.error.message).toMatch(/signed this order/);
   });
 
+  it('never lets the person who drafted an order check it, though a colleague signed it', async () => {
+    const both = await createTestPerson(ctx, ['clinician', 'pharmacist']);
+    const drafter = await signedInAgent(ctx, both);
+    const patient = await createTestPatient(ctx);
+    const draft = await drafter.post('/api/orders').send(pdtOrder(patient.id));
+    expect((await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' })).status).toBe(200);
+    const res = await drafter.post(`/api/orders/${draft.body.order.id}/dose-checks`).send(matching);
+    expect(res.status).toBe(403);
+    expect(res.body.error.message).toMatch(/drafted this order/);
+    const stored = await ctx.dataSource.query('SELECT COUNT(*) AS n FROM dose_check WHERE order_id = ?', [draft.body.order.id]);
+    expect(Number(stored[0].n)).toBe(0);
+    expect((await clinicianAgent.get(`/api/orders/${draft.body.order.id}`)).body.order.status).toBe('signed');
+  });
+
+  it('gives a pharmacist with a blind check open no route to the figures: the dose calculation is for order writers only', async () => {
+    const order = await signedPdtOrder();
+    const read = await pharmacistAgent.get(`/api/orders/${order.id}`);
+    expect(read.body.order.planWithheld).toBe(true);
+    expect(read.body.order.plan).toBeNull();
+    // The inputs are on the screen; sending them to the dose calculation must not give the plan back.
+    const computed = await pharmacistAgent.post('/api/calculations').send({ protocol: { key: order.protocol.key, version: order.protocol.version }, inputs: read.body.order.inputs });
+    expect(computed.status).toBe(403);
+    expect(JSON.stringify(computed.body)).not.toMatch(/doseMg|10\.92/);
+    const session = await pharmacistAgent.get(`/api/orders/${order.id}/session`);
+    expect(JSON.stringify(session.body)).not.toMatch(/10\.92|5\.46/);
+    // The light calculator answers everyone: it knows no order.
+    const light = await pharmacistAgent.post('/api/light-calculations').send({ powerMw: 42.4, spotDiameterUm: 3000, exposureS: 83 });
+    expect(light.status).toBe(200);
+  });
+
   it('refuses an expired vial and a reconstitution time in the future, naming the field', async () => {
     const order = await signedPdtOrder();
     await pharmacistAgent.post(`/api/orders/${order.id}/dose-checks`).send(matching);

@@ -5,7 +5,7 @@ import path from 'node:path';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadShippedProtocols, shippedProtocolsDir } from '../../server/protocols/load-shipped';
-import { createTestPerson, signedInAgent, startTestApp, type TestContext } from '../support/api';
+import { createTestPatient, createTestPerson, cxlOrder, signOrder, signedInAgent, startTestApp, type TestContext } from '../support/api';
 
 let ctx: TestContext;
 beforeAll(async () => {
@@ -97,6 +97,41 @@ describe('shipped protocol versions', () => {
       /cannot be deleted/,
     );
   });
+
+  it('the database refuses to take an approved version back to draft, where its definition could be edited', async () => {
+    await expect(ctx.dataSource.query("UPDATE protocol_version SET status = 'draft' WHERE protocol_key = 'pdt-standard' AND version = 1")).rejects.toThrow(/back to draft/);
+    const [row] = await ctx.dataSource.query("SELECT status FROM protocol_version WHERE protocol_key = 'pdt-standard' AND version = 1");
+    expect(row.status).toBe('approved');
+  });
+});
+
+describe('an order and the version it was planned on', () => {
+  it('keeps the version\'s SHA-256, and refuses to be read or run once what it points at no longer matches', async () => {
+    const clinician = await createTestPerson(ctx, ['clinician']);
+    const clinicianAgent = await signedInAgent(ctx, clinician);
+    const nurseAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
+    const patient = await createTestPatient(ctx);
+    const signed = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
+    const [stored] = await ctx.dataSource.query('SELECT o.protocol_sha256 AS kept, v.sha256 AS version FROM treatment_order o JOIN protocol_version v ON v.id = o.protocol_version_id WHERE o.id = ?', [signed.id]);
+    expect(stored.kept).toMatch(/^[0-9a-f]{64}$/);
+    expect(stored.kept).toBe(stored.version);
+
+    // What a change made around the database's own refusal looks like from the order's side.
+    await ctx.dataSource.query("UPDATE treatment_order SET protocol_sha256 = REPEAT('a', 64) WHERE id = ?", [signed.id]);
+    const read = await clinicianAgent.get(`/api/orders/${signed.id}`);
+    expect(read.status).toBe(409);
+    expect(read.body.error.code).toBe('protocol_fingerprint_mismatch');
+    const start = await nurseAgent.post(`/api/orders/${signed.id}/session-events`).send({
+      idempotencyKey: randomUUID(),
+      clientTime: new Date().toISOString(),
+      type: 'session-started',
+      checks: { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true },
+    });
+    expect(start.status).toBe(409);
+    expect(start.body.error.code).toBe('protocol_fingerprint_mismatch');
+    const [events] = await ctx.dataSource.query('SELECT COUNT(*) AS n FROM session_event WHERE order_id = ?', [signed.id]);
+    expect(Number(events.n)).toBe(0);
+  });
 });
 
 describe('importing and approving a protocol version', () => {
@@ -183,8 +218,9 @@ describe('importing and approving a protocol version', () => {
       expect((await importAs(adminAgent, definition)).status).toBe(201);
       for (const approver of approvers) await (await signedInAgent(ctx, approver)).post(`/api/protocols/${v1.key}/versions/${definition.version}/approvals`);
     }
+    const clinicianAgent = await signedInAgent(ctx, approvers[0]!);
     const calculate = () =>
-      adminAgent.post('/api/calculations').send({
+      clinicianAgent.post('/api/calculations').send({
         protocol: { key: v1.key },
         inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, lesionGldUm: 2500, lensMagnification: 1 },
       });

@@ -34,6 +34,10 @@ export class TreatmentOrder {
   @JoinColumn({ name: 'protocol_version_id' })
   protocolVersion!: Relation<ProtocolVersion>;
 
+  /** SHA-256 of the canonical JSON of the definition this order was planned on; checked on every read. */
+  @Column({ name: 'protocol_sha256', type: 'char', length: 64 })
+  protocolSha256!: string;
+
   @Column({ type: 'enum', enum: orderStatuses })
   status!: OrderStatus;
 
