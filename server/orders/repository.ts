@@ -21,7 +21,7 @@ const sortColumns: Record<OrderListQuery['sort'], string> = {
  * The one way an order's status changes: the move must be one the lifecycle allows, and the row
  * must still be in the status the caller read (compare and set), so two writers cannot both win.
  */
-export async function moveOrderStatus(manager: EntityManager, id: number, from: OrderStatus, to: OrderStatus, changes: Partial<TreatmentOrder> = {}): Promise<void> {
+export async function moveOrderStatus(manager: EntityManager, id: number, from: OrderStatus, to: OrderStatus, changes: Omit<Partial<TreatmentOrder>, 'status'> = {}): Promise<void> {
   if (from === to) return;
   if (!canMoveOrder(from, to)) throw AppError.conflict('status_move_refused', `Order ${id} cannot go from ${from} to ${to}.`);
   const result = await manager.getRepository(TreatmentOrder).update({ id, status: from }, { ...changes, status: to });
@@ -75,7 +75,8 @@ export function createOrderRepository(dataSource: DataSource) {
 
     save: (manager: EntityManager, order: Partial<TreatmentOrder>) => manager.getRepository(TreatmentOrder).save(order),
 
-    update: (manager: EntityManager, id: number, changes: Partial<TreatmentOrder>) => manager.getRepository(TreatmentOrder).update({ id }, changes),
+    /** Changes other than the status; a status moves only through `moveOrderStatus`. */
+    update: (manager: EntityManager, id: number, changes: Omit<Partial<TreatmentOrder>, 'status'>) => manager.getRepository(TreatmentOrder).update({ id }, changes),
 
     nextRevisionOf: (id: number) => orders.findOne({ where: { previousRevisionId: id }, select: { id: true, status: true } }),
 

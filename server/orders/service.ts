@@ -3,6 +3,7 @@ import { DateTime } from 'luxon';
 import type { DataSource, EntityManager } from 'typeorm';
 import { computePlan } from '../../shared/engine/compute-plan';
 import { PlanInputError } from '../../shared/engine/plan-input-error';
+import { amendableStatuses } from '../../shared/orders/lifecycle';
 import { signatureProblems } from '../../shared/orders/readiness';
 import type { DosePlan } from '../../shared/schemas/calculation';
 import type { AmendOrder, OrderDetail, OrderDraft, OrderListQuery, OrderStatus, OrderSummary } from '../../shared/schemas/orders';
@@ -18,7 +19,7 @@ import type { PatientRepository } from '../patients/repository';
 import { treatmentStatuses } from '../patients/service';
 import type { ProtocolService } from '../protocols/service';
 import { addParticipant } from '../sessions/repository';
-import type { OrderRepository } from './repository';
+import { moveOrderStatus, type OrderRepository } from './repository';
 
 export interface Actor {
   id: number;
@@ -213,8 +214,7 @@ export function createOrderService(deps: {
 
     async amend(actor: Actor, id: number, input: AmendOrder) {
       const order = await mustFind(id);
-      const amendable: OrderStatus[] = ['signed', 'returned', 'checked', 'prepared', 'ready'];
-      if (!amendable.includes(order.status)) {
+      if (!amendableStatuses.includes(order.status)) {
         throw AppError.conflict('not_amendable', `Order ${id} is ${order.status}; only a signed order that has not reached the session can be amended.`);
       }
       if (await orders.nextRevisionOf(id)) throw AppError.conflict('already_amended', `Order ${id} has an amendment already; work on that revision.`);
@@ -253,8 +253,11 @@ export function createOrderService(deps: {
       await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
         if (locked?.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
-        await orders.update(manager, id, { status, plan: frozen, engineVersion: frozen.engineVersion, protocolSha256: row.sha256, signedById: actor.id, signedAt: new Date(), signatureMeaning: 'ordered' });
-        if (order.previousRevisionId) await orders.update(manager, order.previousRevisionId, { status: 'superseded' });
+        await moveOrderStatus(manager, id, 'draft', status, { plan: frozen, engineVersion: frozen.engineVersion, protocolSha256: row.sha256, signedById: actor.id, signedAt: new Date(), signatureMeaning: 'ordered' });
+        if (order.previousRevisionId) {
+          const previous = await orders.lockById(manager, order.previousRevisionId);
+          if (previous) await moveOrderStatus(manager, previous.id, previous.status, 'superseded');
+        }
         await addParticipant(manager, id, actor.id, 'ordered');
         if (status === 'signed') {
           await enqueueMessage(manager, {

@@ -5,7 +5,7 @@ import type { DoseCheckEntry, PreparationEntry } from '../../shared/schemas/orde
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
-import type { OrderRepository } from '../orders/repository';
+import { moveOrderStatus, type OrderRepository } from '../orders/repository';
 import type { Actor, OrderService } from '../orders/service';
 import type { UserRepository } from '../people/repository';
 import { addParticipant } from '../sessions/repository';
@@ -62,14 +62,14 @@ export function createPharmacyService(deps: {
         if (locked?.status !== 'signed') throw AppError.conflict('not_waiting_for_check', `Order ${id} is ${locked?.status ?? 'gone'}, not waiting for a dose check.`);
         await orders.addDoseCheck(manager, { orderId: id, pharmacistId: actor.id, bsaM2: entry.bsaM2, doseMg: entry.doseMg, drugVolumeMl: entry.drugVolumeMl, outcome, differing, comment: entry.comment ?? null });
         if (outcome === 'match') {
-          await orders.update(manager, id, { status: 'checked' });
+          await moveOrderStatus(manager, id, 'signed', 'checked');
           await addParticipant(manager, id, actor.id, 'checked');
           return { returned: false, refusals: 0 };
         }
         const refusals = (await orders.doseChecksFor(id, manager)).filter((c) => c.outcome === 'mismatch').length;
         if (refusals < refusalsBeforeReturn) return { returned: false, refusals };
         const comment = entry.comment?.trim() || `The dose check was refused ${refusals} times (figures differing: ${differing.join(', ')}).`;
-        await orders.update(manager, id, { status: 'returned', returnComment: comment });
+        await moveOrderStatus(manager, id, 'signed', 'returned', { returnComment: comment });
         await enqueueMessage(manager, {
           kind: 'order-returned',
           recipients: clinician?.active ? [clinician.email] : [],
@@ -131,7 +131,7 @@ export function createPharmacyService(deps: {
         const locked = await orders.lockById(manager, id);
         if (locked?.status !== 'checked') throw AppError.conflict('not_checked', `Order ${id} is ${locked?.status ?? 'gone'}; preparation follows a matching dose check.`);
         await orders.addPreparation(manager, { orderId: id, pharmacistId: actor.id, vialLot: entry.vialLot, vialExpiry: entry.vialExpiry, reconstitutedAt, volumeDrawnMl: entry.volumeDrawnMl, beyondUseAt });
-        await orders.update(manager, id, { status: 'prepared', beyondUseAt });
+        await moveOrderStatus(manager, id, 'checked', 'prepared', { beyondUseAt });
         await addParticipant(manager, id, actor.id, 'prepared');
       });
       await audit.append({

@@ -23,6 +23,9 @@ export function canMoveOrder(from: OrderStatus, to: OrderStatus): boolean {
   return orderTransitions[from].includes(to);
 }
 
+/** Statuses an amendment may start from: signed, not yet in a session (its signing supersedes them). */
+export const amendableStatuses: readonly OrderStatus[] = (Object.keys(orderTransitions) as OrderStatus[]).filter((s) => orderTransitions[s].includes('superseded'));
+
 /** Statuses in which a session is running. */
 export const sessionRunningStatuses: readonly OrderStatus[] = ['in-session'];
 /** Statuses of an order whose session has ended, reviewed or not. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { canMoveOrder, orderTransitions, statusAfterLateEvent, statusAfterReview } from '../../shared/orders/lifecycle';
+import { amendableStatuses, canMoveOrder, orderTransitions, statusAfterLateEvent, statusAfterReview } from '../../shared/orders/lifecycle';
 import { orderStatuses } from '../../shared/schemas/orders';
 
 describe('the order lifecycle', () => {
@@ -13,6 +13,10 @@ describe('the order lifecycle', () => {
     expect(canMoveOrder('prepared', 'completed')).toBe(false);
     expect(canMoveOrder('superseded', 'draft')).toBe(false);
     expect(canMoveOrder('in-session', 'completed')).toBe(true);
+  });
+
+  it('an amendment starts from a signed order that has not reached its session, never from a draft or a session', () => {
+    expect([...amendableStatuses].sort()).toEqual(['checked', 'prepared', 'ready', 'returned', 'signed']);
   });
 
   it('review leaves a running session alone, however many deviations are closed', () => {

@@ -9,7 +9,8 @@ import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { orderQueries } from '../api/order-queries';
 import { OrderForm } from './order-form';
 import { emptyOrderForm, orderToForm, type OrderFormMode } from './order-form-values';
-import { amendableStatuses, eyeWords, statusWords } from './order-words';
+import { amendableStatuses } from '../../../../shared/orders/lifecycle';
+import { eyeWords, statusWords } from './order-words';
 
 function Failed({ title, error, onRetry, busy }: { title: string; error: unknown; onRetry: () => void; busy: boolean }) {
   const missing = isApiRequestError(error) && error.status === 404;

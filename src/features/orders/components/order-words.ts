@@ -34,7 +34,6 @@ export const statusMeanings: Record<OrderStatus, string> = {
 };
 
 /** Statuses from which a signed order can still be amended (the server's rule). */
-export const amendableStatuses: readonly OrderStatus[] = ['signed', 'returned', 'checked', 'prepared', 'ready'];
 
 /** Field names of the order API as a person reads them. */
 export const fieldWords: Record<string, string> = {
