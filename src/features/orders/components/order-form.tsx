@@ -99,7 +99,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
   });
 
   const values = settleFormValues(useWatch({ control }));
-  const draftKeeper = useFormDraft(`order.${mode}.${source?.id ?? 'new'}`, { watch, reset }, { settle: settleFormValues });
+  const draftKeeper = useFormDraft(`order.${mode}.${source?.id ?? 'new'}`, { watch, reset, getValues }, { settle: settleFormValues });
   const chosenRef = parseProtocolRef(values.protocolRef);
   const definitionQuery = useQuery({ ...orderQueries.protocolDefinition(chosenRef?.key ?? '', chosenRef?.version ?? 0), enabled: chosenRef !== null });
   const definition = chosenRef ? (definitionQuery.data?.definition ?? null) : null;
