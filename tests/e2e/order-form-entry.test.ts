@@ -229,8 +229,8 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
       },
     });
     expect(created.status()).toBe(201);
-    const order = (await created.json()).order as { id: number; version?: number };
-    expect((await api.post(`/api/orders/${order.id}/signature`, { data: { password: demoPassword, meaning: 'ordered', ...(order.version === undefined ? {} : { version: order.version }) } })).status()).toBe(200);
+    const order = (await created.json()).order as { id: number; version: number };
+    expect((await api.post(`/api/orders/${order.id}/signature`, { data: { password: demoPassword, meaning: 'ordered', version: order.version } })).status()).toBe(200);
     await api.dispose();
 
     const context = await ctx.browser.newContext({ viewport: { width: 1024, height: 768 } });

@@ -167,8 +167,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
       mode === 'new'
         ? { mode, draft: draft as OrderDraft }
         : mode === 'edit'
-          ? { mode, id: source!.id, draft: draft as OrderDraft }
-          : { mode, id: source!.id, amendment: draft as AmendOrder };
+          ? { mode, id: source!.id, version: source!.version, draft: draft as OrderDraft }
+          : { mode, id: source!.id, version: source!.version, amendment: draft as AmendOrder };
     save.mutate(request, {
       onSuccess: (order) => {
         draftKeeper.clear();

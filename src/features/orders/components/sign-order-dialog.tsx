@@ -44,7 +44,7 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
     }
     setPasswordError(undefined);
     sign.mutate(
-      { id: order.id, password },
+      { id: order.id, password, version: order.version },
       {
         onSuccess: (signed) => {
           setPassword('');
