@@ -11,7 +11,7 @@ import { createContext, useCallback, useContext, useEffect, useRef, useState } f
  *   linger on a shared ward tablet.
  * localStorage rather than sessionStorage, so a closed tab or a browser killed mid-form keeps it too.
  */
-export type KeptDraft<T> = { ownerId: number; savedAt: string; values: T };
+export type KeptDraft<T> = { ownerId: number; savedAt: string; values: T; /** What the values were based on, e.g. the version of the order read. */ basis?: unknown };
 
 export const draftLifetimeMs = 12 * 60 * 60 * 1000;
 
@@ -67,10 +67,10 @@ export function readKeptDraft<T>(key: string, ownerId: number | null, nowMs = Da
   }
 }
 
-export function keepDraft<T>(key: string, ownerId: number, values: T): void {
+export function keepDraft<T>(key: string, ownerId: number, values: T, basis?: unknown): void {
   const name = storageKey(ownerId, key);
   try {
-    browserStore()?.setItem(name, JSON.stringify({ ownerId, savedAt: new Date().toISOString(), values } satisfies KeptDraft<T>));
+    browserStore()?.setItem(name, JSON.stringify({ ownerId, savedAt: new Date().toISOString(), values, ...(basis === undefined ? {} : { basis }) } satisfies KeptDraft<T>));
     noteKept(name, true);
   } catch {
     // Storage full or refused: the values still live in the page.
@@ -128,7 +128,9 @@ export function dropExpiredDrafts(nowMs = Date.now()): void {
  * it, so what was typed in the last pause is kept too), and never again for values a save or a
  * discard has already settled.
  */
-function useDraftWriter<T>(key: string, ownerId: number | null, delayMs: number) {
+function useDraftWriter<T>(key: string, ownerId: number | null, delayMs: number, basis?: unknown) {
+  const basisRef = useRef(basis);
+  basisRef.current = basis;
   const pending = useRef<{ values: T } | null>(null);
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   const settled = useRef<string | null>(null);
@@ -140,7 +142,7 @@ function useDraftWriter<T>(key: string, ownerId: number | null, delayMs: number)
     if (!next || ownerId === null) return;
     if (settled.current !== null && JSON.stringify(next.values) === settled.current) return;
     settled.current = null;
-    keepDraft(key, ownerId, next.values);
+    keepDraft(key, ownerId, next.values, basisRef.current);
   }, [key, ownerId]);
 
   const schedule = useCallback(
@@ -202,11 +204,22 @@ function useOffer<T>(key: string, ownerId: number | null, wanted: (values: T) =>
  * offers them back. While an offer is open nothing is written, so typing before answering it
  * cannot overwrite the kept draft.
  */
-export function useFormDraft<T>(key: string, form: WatchableForm<T>, options: { settle?: (raw: unknown) => T } = {}): FormDraftControl<T> {
+export function useFormDraft<T>(
+  key: string,
+  form: WatchableForm<T>,
+  options: {
+    settle?: (raw: unknown) => T;
+    /** Kept with the values (e.g. the order version the form was read at), handed back on restore. */
+    basis?: unknown;
+    onRestore?: (basis: unknown) => void;
+  } = {},
+): FormDraftControl<T> {
   const ownerId = useContext(DraftOwnerContext);
   const { offered, offeredRef, setOffered } = useOffer<T>(key, ownerId);
   const settle = useRef(options.settle ?? ((raw: unknown) => raw as T)).current;
-  const { schedule, clear: clearWriter } = useDraftWriter<T>(key, ownerId, 200);
+  const onRestore = useRef(options.onRestore);
+  onRestore.current = options.onRestore;
+  const { schedule, clear: clearWriter } = useDraftWriter<T>(key, ownerId, 200, options.basis);
   const { watch, reset, getValues } = form;
 
   useEffect(() => {
@@ -220,6 +233,7 @@ export function useFormDraft<T>(key: string, form: WatchableForm<T>, options: { 
     const draft = offeredRef.current;
     if (!draft) return;
     setOffered(null);
+    onRestore.current?.(draft.basis);
     reset(settle(draft.values), { keepDefaultValues: true });
   }, [reset, settle, offeredRef, setOffered]);
   const discard = useCallback(() => {

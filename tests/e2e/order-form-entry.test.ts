@@ -261,3 +261,47 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
     await context.close();
   });
 });
+
+describe('an order changed by someone else while it is open', () => {
+  it('saving the older form is refused with a message to reload, even after the screen refreshed in the background, and the colleague’s change stands', async () => {
+    const api = await request.newContext({ baseURL: ctx.baseUrl, extraHTTPHeaders: { Origin: ctx.baseUrl } });
+    expect((await api.post('/api/auth/login', { data: { email: 'clinician@demo.luxtempo.example', password: demoPassword } })).status()).toBe(200);
+    const suffix = randomUUID().slice(0, 6).toUpperCase();
+    const patient = (await (await api.post('/api/patients', { data: { recordNumber: `STL-${suffix}`, givenName: 'Tamsin', familyName: `Rosewarne ${suffix}`, dateOfBirth: '1966-08-19', emailConsent: false } })).json()).patient as { id: number };
+    const body = {
+      patientId: patient.id,
+      eye: 'left',
+      protocol: { key: 'pdt-standard', version: 1 },
+      inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
+      checklist: [],
+    };
+    const order = (await (await api.post('/api/orders', { data: body })).json()).order as { id: number; version: number };
+
+    const { page, problems } = await clinicianPage();
+    await page.clock.install();
+    await page.goto(`${ctx.baseUrl}/orders/${order.id}/edit`);
+    await expect.poll(() => page.getByLabel('Lesion greatest linear dimension (GLD)').inputValue()).toBe('2500');
+    await page.getByLabel('Note for the team (optional)').fill('My note on the older copy');
+
+    // A colleague saves a change meanwhile; this screen then refreshes its data in the background.
+    const colleague = await api.put(`/api/orders/${order.id}`, { data: { ...body, inputs: { ...body.inputs, lesionGldUm: 3000 }, version: order.version } });
+    expect(colleague.status()).toBe(200);
+    await page.clock.fastForward(31_000); // past the data's 30 s freshness
+    const refetched = page.waitForResponse((r) => r.url().endsWith(`/api/orders/${order.id}`) && r.request().method() === 'GET');
+    await page.evaluate(() => window.dispatchEvent(new Event('visibilitychange')));
+    expect((await (await refetched).json()).order.version).toBe(order.version + 1);
+
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    const alert = page.getByRole('alert').filter({ hasText: 'The draft was not saved' });
+    await expect.poll(() => alert.innerText()).toMatch(/changed after you opened it.*reload the order/i);
+    const stored = (await (await api.get(`/api/orders/${order.id}`)).json()).order as { inputs: { lesionGldUm: number }; note: string | null };
+    expect(stored.inputs.lesionGldUm).toBe(3000);
+    expect(stored.note).toBeNull();
+    // What was typed is still kept as a draft for after the reload.
+    expect(await page.evaluate((id) => Object.keys(localStorage).some((k) => k.endsWith(`.order.edit.${id}`)), order.id)).toBe(true);
+    await api.dispose();
+    // The refusal is a 409 the screen shows; the browser logs that failed request, nothing else.
+    expect(problems.filter((p) => !/409/.test(p))).toEqual([]);
+    await page.context().close();
+  });
+});
