@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { readdirSync, statSync } from 'node:fs';
+import { readdirSync, rmSync, statSync } from 'node:fs';
 import path from 'node:path';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -25,6 +25,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await ctx.close();
+  rmSync(uploadDir, { recursive: true, force: true });
 });
 
 const json = <T>(value: unknown): T => (typeof value === 'string' ? JSON.parse(value) : value) as T;
