@@ -15,7 +15,7 @@ function keptAt(iso: string): string {
 export function KeptDraftOffer<T>({ draft, what }: { draft: FormDraftControl<T>; what: string }) {
   if (!draft.offered) return null;
   return (
-    <div role="status" aria-label="Kept draft" className="my-3 flex flex-wrap items-center gap-3 rounded-lg border-2 border-iris-700 bg-iris-50 px-4 py-3">
+    <div role="status" aria-label="Kept draft" className="my-3 flex flex-wrap items-center gap-3 rounded-lg first:mt-0 border-2 border-iris-700 bg-iris-50 px-4 py-3">
       <InfoIcon className="size-5 text-iris-900" />
       <p className="min-w-0 flex-1 text-paper-950">
         <span className="font-semibold">A draft from {keptAt(draft.offered.savedAt)} was kept</span> — the {what} you had typed and not saved.
