@@ -6,6 +6,7 @@ import express, { type Express } from 'express';
 import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
 import { createAuditRepository } from './audit/repository';
+import { createReadAudit } from './audit/service';
 import { loginLimiters } from './auth/login-limits';
 import { authRoutes } from './auth/routes';
 import { createAuthService } from './auth/service';
@@ -77,13 +78,14 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   );
 
   const audit = createAuditRepository(dataSource);
+  const reads = createReadAudit(audit, now);
   const users = createUserRepository(dataSource);
   const sessions = createSessions(config, users);
   const protocols = createProtocolService(createProtocolRepository(dataSource), audit);
   const patients = createPatientRepository(dataSource);
   const orders = createOrderRepository(dataSource);
   const unitTimeZone = config.UNIT_TIME_ZONE;
-  const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, unitTimeZone });
+  const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, reads, unitTimeZone });
   const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
   const sessionRows = createSessionRepository(dataSource);
   const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now });
@@ -95,14 +97,14 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
     ...peopleRoutes(createPeopleService(users, audit)),
     ...protocolRoutes(protocols),
     ...calculationRoutes(protocols),
-    ...patientRoutes(createPatientService(patients, orders, audit)),
+    ...patientRoutes(createPatientService(patients, orders, audit, reads)),
     ...orderRoutes(orderService, orders, now),
     ...pharmacyRoutes(pharmacy),
-    ...attachmentRoutes(createAttachmentService(dataSource, audit, path.resolve(config.UPLOAD_DIR))),
+    ...attachmentRoutes(createAttachmentService(dataSource, audit, reads, path.resolve(config.UPLOAD_DIR))),
     ...outboxRoutes(dataSource),
     ...sessionRoutes(sessionService, discharge),
     ...staffRoutes(dataSource),
-    ...reviewRoutes(createReviewService({ dataSource, reviews: createReviewRepository(dataSource), sessions: sessionService, audit, unitTimeZone })),
+    ...reviewRoutes(createReviewService({ dataSource, reviews: createReviewRepository(dataSource), sessions: sessionService, audit, reads, unitTimeZone })),
   ];
   app.locals.routeTable = routes;
 

@@ -7,6 +7,7 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './app';
 import { applyServerTimeZone } from './config/unit-time-zone';
+import { dropExpiredDrafts } from './lib/form-draft';
 
 const container = document.getElementById('root');
 if (!container) throw new Error('index.html must contain <div id="root">');
@@ -20,6 +21,9 @@ async function loadUnitSettings(): Promise<void> {
     // The sign-in page will say so if the server is not answering.
   }
 }
+
+// Unsaved drafts older than their lifetime go before anything can offer them.
+dropExpiredDrafts();
 
 void loadUnitSettings().then(() =>
   createRoot(container).render(

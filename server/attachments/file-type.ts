@@ -5,6 +5,11 @@ const signatures: { mimeType: string; extension: string; bytes: number[] }[] = [
   { mimeType: 'image/jpeg', extension: 'jpg', bytes: [0xff, 0xd8, 0xff] },
 ];
 
+/** The extension for a type this module recognises; anything else downloads as opaque bytes. */
+export function extensionOf(mimeType: string): string {
+  return signatures.find((s) => s.mimeType === mimeType)?.extension ?? 'bin';
+}
+
 export function detectFileType(content: Buffer): { mimeType: string; extension: string } | null {
   const match = signatures.find((s) => s.bytes.every((b, i) => content[i] === b));
   return match ? { mimeType: match.mimeType, extension: match.extension } : null;

@@ -23,13 +23,18 @@ export function attachmentRoutes(attachments: AttachmentService): RouteSpec[] {
     {
       method: 'get',
       path: '/attachments/:id',
-      access: 'signed-in',
+      // Whoever may read orders may read their reports; nobody else (see permissions.ts).
+      access: 'orders.read',
       handler: async (req, res) => {
-        const { row, content } = await attachments.read(parseInput(idParam, req.params.id, 'id'));
+        const { row, content, downloadName } = await attachments.read(parseInput(idParam, req.params.id, 'id'), actorOf(req, res));
+        const asciiName = downloadName.replace(/[^\w.\- ()]/g, '_');
         res.set({
+          // The type it was checked as on upload, never a type the browser guesses or renders as a page.
           'Content-Type': row.mimeType,
+          'X-Content-Type-Options': 'nosniff',
+          'Content-Security-Policy': "default-src 'none'; sandbox",
           'Content-Length': String(content.length),
-          'Content-Disposition': `attachment; filename="${row.fileName.replace(/"/g, '')}"`,
+          'Content-Disposition': `attachment; filename="${asciiName}"; filename*=UTF-8''${encodeURIComponent(downloadName)}`,
           'Cache-Control': 'private, no-store',
         });
         res.end(content);

@@ -1,16 +1,17 @@
 import { createHash, randomUUID } from 'node:crypto';
-import { mkdir, readFile, writeFile } from 'node:fs/promises';
+import { chmod, mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { DataSource } from 'typeorm';
 import type { AuditRepository } from '../audit/repository';
+import type { Reader, ReadAudit } from '../audit/service';
 import { Attachment } from '../db/entities/attachment';
 import { TreatmentOrder } from '../db/entities/treatment-order';
 import { AppError } from '../http/app-error';
-import { detectFileType } from './file-type';
+import { detectFileType, extensionOf } from './file-type';
 
 export const attachmentMaxBytes = 10 * 1024 * 1024;
 
-export function createAttachmentService(dataSource: DataSource, audit: AuditRepository, uploadDir: string) {
+export function createAttachmentService(dataSource: DataSource, audit: AuditRepository, reads: ReadAudit, uploadDir: string) {
   const attachments = dataSource.getRepository(Attachment);
   return {
     async add(actor: { id: number; ipAddress?: string | null }, orderId: number, file: { originalname: string; buffer: Buffer }) {
@@ -25,23 +26,34 @@ export function createAttachmentService(dataSource: DataSource, audit: AuditRepo
       }
       const sha256 = createHash('sha256').update(file.buffer).digest('hex');
       const storageName = `${randomUUID()}.${type.extension}`;
-      await mkdir(uploadDir, { recursive: true });
-      await writeFile(path.join(uploadDir, storageName), file.buffer, { flag: 'wx' });
+      // Health data: readable by the server's own user only, whatever the umask.
+      await mkdir(uploadDir, { recursive: true, mode: 0o700 });
+      const stored = path.join(uploadDir, storageName);
+      await writeFile(stored, file.buffer, { flag: 'wx', mode: 0o600 });
+      await chmod(stored, 0o600);
       const fileName = path.basename(file.originalname).replace(/[^\w.\- ()]/g, '_').slice(0, 200) || `report.${type.extension}`;
       const saved = await attachments.save(attachments.create({ orderId, fileName, mimeType: type.mimeType, sizeBytes: file.buffer.length, sha256, storageName, uploadedBy: actor.id }));
       await audit.append({ actorUserId: actor.id, action: 'attachment.added', entityType: 'order', entityId: orderId, ipAddress: actor.ipAddress, details: { attachmentId: saved.id, fileName, sha256, sizeBytes: saved.sizeBytes } });
       return { id: saved.id, fileName, mimeType: saved.mimeType, sizeBytes: saved.sizeBytes, sha256, createdAt: saved.createdAt.toISOString() };
     },
 
-    async read(id: number) {
+    /**
+     * The stored file for download, under the name it was attached with but always ending in the
+     * extension of the type it was checked as (a PDF named "report.html" downloads as
+     * "report.html.pdf", so it never opens as a web page).
+     */
+    async read(id: number, reader: Reader) {
       const row = await attachments.findOneBy({ id });
       if (!row) throw AppError.notFound(`There is no attachment ${id}.`);
+      await reads.note(reader, { action: 'attachment.viewed', entityType: 'order', entityId: row.orderId, details: { attachmentId: row.id, fileName: row.fileName } });
       const content = await readFile(path.join(uploadDir, row.storageName));
       // The bytes must still be the ones that were stored.
       if (createHash('sha256').update(content).digest('hex') !== row.sha256) {
         throw new AppError(500, 'attachment_damaged', 'The stored file no longer matches its SHA-256; it has been changed or damaged.');
       }
-      return { row, content };
+      const extension = extensionOf(row.mimeType);
+      const downloadName = row.fileName.toLowerCase().endsWith(`.${extension}`) ? row.fileName : `${row.fileName}.${extension}`;
+      return { row, content, downloadName };
     },
   };
 }

@@ -7,5 +7,16 @@ import { Sessions1796162826105 } from './migrations/1796162826105-Sessions';
 import { AuditReview1796163852814 } from './migrations/1796163852814-AuditReview';
 import { DoseRecordOrderFacts1796177175796 } from './migrations/1796177175796-DoseRecordOrderFacts';
 import { ProtocolVersionGuard1796293943222 } from './migrations/1796293943222-ProtocolVersionGuard';
+import { OrderRowVersion1796294215019 } from './migrations/1796294215019-OrderRowVersion';
 
-export const migrations = [Initial1796161380660, ProtocolVersions1796161598177, OrdersAndOutbox1796162437763, Sessions1796162826105, AuditReview1796163852814, DoseRecordOrderFacts1796177175796, ProtocolVersionGuard1796293943222];
+// One a line, oldest first, so that branches adding migrations merge line by line.
+export const migrations = [
+  Initial1796161380660,
+  ProtocolVersions1796161598177,
+  OrdersAndOutbox1796162437763,
+  Sessions1796162826105,
+  AuditReview1796163852814,
+  DoseRecordOrderFacts1796177175796,
+  ProtocolVersionGuard1796293943222,
+  OrderRowVersion1796294215019,
+];

@@ -30,7 +30,7 @@ export async function measureClockError(base: string) {
   const patient = await api(base, clinician, 'POST', '/patients', { recordNumber: `C-${randomUUID().slice(0, 8)}`, givenName: 'Clock', familyName: 'Bench', dateOfBirth: '1970-01-01' });
   const draft = await api(base, clinician, 'POST', '/orders', { patientId: patient.patient.id, eye: 'left', protocol: { key: 'cxl-standard', version: 1 }, inputs: { stromalThicknessUm: 470 }, checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({ id, answer: 'no' })) });
   const orderId = draft.order.id;
-  await api(base, clinician, 'POST', `/orders/${orderId}/signature`, { password: demoPassword, meaning: 'ordered' });
+  await api(base, clinician, 'POST', `/orders/${orderId}/signature`, { password: demoPassword, meaning: 'ordered', version: draft.order.version });
   const uvStartMs = Date.now() - (uvDurationS - 25) * 1000;
   const at = (msBeforeUv: number) => new Date(uvStartMs - msBeforeUv).toISOString();
   const events = [

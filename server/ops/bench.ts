@@ -189,7 +189,7 @@ try {
   const startSession = async (i: number) => {
     const patient = await call(base, clinician, 'POST', '/patients', { recordNumber: `B-${randomUUID().slice(0, 8)}`, givenName: 'Bench', familyName: `Session ${i}`, dateOfBirth: '1970-01-01' });
     const draft = await call(base, clinician, 'POST', '/orders', { patientId: patient.patient.id, eye: 'right', protocol: { key: 'cxl-standard', version: 1 }, inputs: { stromalThicknessUm: 470 }, checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({ id, answer: 'no' })) });
-    await call(base, clinician, 'POST', `/orders/${draft.order.id}/signature`, { password: demoPassword, meaning: 'ordered' });
+    await call(base, clinician, 'POST', `/orders/${draft.order.id}/signature`, { password: demoPassword, meaning: 'ordered', version: draft.order.version });
     const now = new Date().toISOString();
     await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, { idempotencyKey: randomUUID(), clientTime: now, type: 'session-started', checks: { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true } });
     await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, { idempotencyKey: randomUUID(), clientTime: now, type: 'step-started', stepId: 'riboflavin-soak' });

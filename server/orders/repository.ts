@@ -78,7 +78,8 @@ export function createOrderRepository(dataSource: DataSource) {
     /** Changes other than the status; a status moves only through `moveOrderStatus`. */
     update: (manager: EntityManager, id: number, changes: Omit<Partial<TreatmentOrder>, 'status'>) => manager.getRepository(TreatmentOrder).update({ id }, changes),
 
-    nextRevisionOf: (id: number) => orders.findOne({ where: { previousRevisionId: id }, select: { id: true, status: true } }),
+    nextRevisionOf: (id: number, manager?: EntityManager) =>
+      (manager?.getRepository(TreatmentOrder) ?? orders).findOne({ where: { previousRevisionId: id }, select: { id: true, status: true } }),
 
     listForPatient: (patientId: number) => orders.find({ where: { patientId }, relations: { protocolVersion: true }, order: { createdAt: 'DESC' } }),
 

@@ -1,4 +1,4 @@
-import { amendOrderSchema, orderDraftSchema, orderListQuerySchema, signOrderSchema } from '../../shared/schemas/orders';
+import { amendOrderRequestSchema, orderDraftSchema, orderListQuerySchema, signOrderSchema, updateOrderSchema } from '../../shared/schemas/orders';
 import { signedInUser } from '../auth/session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
@@ -52,7 +52,8 @@ export function orderRoutes(orders: OrderService, repository: OrderRepository, n
       access: 'orders.write',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        res.json({ order: await orders.updateDraft(actorOf(req, res), id, parseInput(orderDraftSchema, req.body)) });
+        const { version, ...draft } = parseInput(updateOrderSchema, req.body);
+        res.json({ order: await orders.updateDraft(actorOf(req, res), id, draft, version) });
       },
     },
     {
@@ -61,8 +62,8 @@ export function orderRoutes(orders: OrderService, repository: OrderRepository, n
       access: 'orders.write',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        const { password } = parseInput(signOrderSchema, req.body);
-        res.json({ order: await orders.sign(actorOf(req, res), id, password) });
+        const { password, version } = parseInput(signOrderSchema, req.body);
+        res.json({ order: await orders.sign(actorOf(req, res), id, password, version) });
       },
     },
     {
@@ -71,7 +72,8 @@ export function orderRoutes(orders: OrderService, repository: OrderRepository, n
       access: 'orders.write',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        res.status(201).json({ order: await orders.amend(actorOf(req, res), id, parseInput(amendOrderSchema, req.body)) });
+        const { version, ...amendment } = parseInput(amendOrderRequestSchema, req.body);
+        res.status(201).json({ order: await orders.amend(actorOf(req, res), id, amendment, version) });
       },
     },
   ];

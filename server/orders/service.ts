@@ -9,9 +9,11 @@ import type { DosePlan } from '../../shared/schemas/calculation';
 import type { AmendOrder, OrderDetail, OrderDraft, OrderListQuery, OrderStatus, OrderSummary } from '../../shared/schemas/orders';
 import type { Role } from '../../shared/roles';
 import type { AuditRepository } from '../audit/repository';
+import type { ReadAudit } from '../audit/service';
 import type { ProtocolForUse } from '../protocols/repository';
 import type { TreatmentOrder } from '../db/entities/treatment-order';
 import type { User } from '../db/entities/user';
+import { isDuplicateKey } from '../db/errors';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
 import type { UserRepository } from '../people/repository';
@@ -50,6 +52,18 @@ export function toOrderSummary(o: TreatmentOrder): OrderSummary {
  * The blind check: while an order waits for its dose check, a pharmacist who may check it (did not
  * draft or sign it) sees the inputs but not the computed figures.
  */
+/**
+ * An edit, a signature or an amendment names the version of the order it was made from; any
+ * other write since (an edit by a colleague, a signature, a status move) makes it stale.
+ */
+export function assertReadVersion(order: Pick<TreatmentOrder, 'id' | 'version'>, readVersion: number): void {
+  if (order.version === readVersion) return;
+  throw AppError.conflict(
+    'order_changed',
+    `Order ${order.id} was changed after you opened it (you have version ${readVersion}; it is now version ${order.version}). Nothing was saved: reload the order, check what changed, then do this again.`,
+  );
+}
+
 export function planIsWithheldFrom(order: TreatmentOrder, viewer: Actor): boolean {
   const mayCheck = viewer.roles.includes('pharmacist') && order.signedById !== viewer.id && order.createdById !== viewer.id;
   return order.status === 'signed' && order.protocolVersion.kind === 'pdt' && mayCheck;
@@ -62,9 +76,10 @@ export function createOrderService(deps: {
   users: UserRepository;
   protocols: ProtocolService;
   audit: AuditRepository;
+  reads: ReadAudit;
   unitTimeZone: string;
 }) {
-  const { dataSource, orders, patients, users, protocols, audit } = deps;
+  const { dataSource, orders, patients, users, protocols, audit, reads } = deps;
 
   function plan(row: ProtocolForUse, inputs: OrderDraft['inputs']): DosePlan {
     try {
@@ -124,6 +139,7 @@ export function createOrderService(deps: {
     }
     return {
       ...toOrderSummary(order),
+      version: order.version,
       inputs: order.inputs,
       checklist: order.checklist,
       softLimitReasons: order.softLimitReasons,
@@ -159,12 +175,14 @@ export function createOrderService(deps: {
     };
   }
 
-  async function writeDraft(actor: Actor, input: OrderDraft, base: Partial<TreatmentOrder>, action: string, manager?: EntityManager) {
+  /** `guard` runs in the saving transaction first: it locks and re-checks what the save depends on. */
+  async function writeDraft(actor: Actor, input: OrderDraft, base: Partial<TreatmentOrder>, action: string, guard?: (manager: EntityManager) => Promise<void>) {
     const patient = await patients.findById(input.patientId);
     if (!patient) throw AppError.badRequest(`There is no patient with id ${input.patientId}.`, [{ path: 'patientId', message: 'patientId must name an existing patient' }]);
     const row = await approvedProtocol(input.protocol.key, input.protocol.version);
     const computed = plan(row, input.inputs);
     const save = async (m: EntityManager) => {
+      await guard?.(m);
       const saved = await orders.save(m, {
         ...base,
         patientId: input.patientId,
@@ -183,7 +201,7 @@ export function createOrderService(deps: {
       });
       return saved;
     };
-    const saved = await (manager ? save(manager) : dataSource.transaction(save));
+    const saved = await dataSource.transaction(save);
     await audit.append({
       actorUserId: actor.id,
       action,
@@ -196,37 +214,64 @@ export function createOrderService(deps: {
   }
 
   return {
-    detail: async (id: number, viewer: Actor) => detail(await mustFind(id), viewer),
+    /** Opening an order: audited as a read of health data. */
+    async detail(id: number, viewer: Actor) {
+      const order = await mustFind(id);
+      await reads.note(viewer, { action: 'order.viewed', entityType: 'order', entityId: id, details: { patientId: order.patientId, status: order.status } });
+      return detail(order, viewer);
+    },
 
     async createDraft(actor: Actor, input: OrderDraft) {
       const id = await writeDraft(actor, input, { revision: 1 }, 'order.drafted');
       return detail(await mustFind(id), actor);
     },
 
-    async updateDraft(actor: Actor, id: number, input: OrderDraft) {
+    async updateDraft(actor: Actor, id: number, input: OrderDraft, readVersion: number) {
       const order = await mustFind(id);
-      if (order.status !== 'draft') {
-        throw AppError.conflict('order_signed', `Order ${id} is ${order.status}: a signed order cannot be edited. Amend it instead; the signed revision stays readable.`);
-      }
-      await writeDraft(actor, input, { id, revision: order.revision, previousRevisionId: order.previousRevisionId, amendmentReason: order.amendmentReason, createdById: order.createdById }, 'order.draft-edited');
+      const stillDraft = (o: Pick<TreatmentOrder, 'status'>) => {
+        if (o.status !== 'draft') {
+          throw AppError.conflict('order_signed', `Order ${id} is ${o.status}: a signed order cannot be edited. Amend it instead; the signed revision stays readable.`);
+        }
+      };
+      stillDraft(order);
+      assertReadVersion(order, readVersion);
+      const base = { id, revision: order.revision, previousRevisionId: order.previousRevisionId, amendmentReason: order.amendmentReason, createdById: order.createdById };
+      await writeDraft(actor, input, base, 'order.draft-edited', async (manager) => {
+        // Locked until the edit commits: a signature waits for it, then finds a newer version.
+        const locked = await orders.lockById(manager, id);
+        if (!locked) throw AppError.notFound(`There is no order ${id}.`);
+        stillDraft(locked);
+        assertReadVersion(locked, readVersion);
+      });
       return detail(await mustFind(id), actor);
     },
 
-    async amend(actor: Actor, id: number, input: AmendOrder) {
+    async amend(actor: Actor, id: number, input: AmendOrder, readVersion: number) {
       const order = await mustFind(id);
       if (!amendableStatuses.includes(order.status)) {
         throw AppError.conflict('not_amendable', `Order ${id} is ${order.status}; only a signed order that has not reached the session can be amended.`);
       }
-      if (await orders.nextRevisionOf(id)) throw AppError.conflict('already_amended', `Order ${id} has an amendment already; work on that revision.`);
+      const alreadyAmended = () => AppError.conflict('already_amended', `Order ${id} has an amendment already; open that revision and work on it.`);
+      if (await orders.nextRevisionOf(id)) throw alreadyAmended();
+      assertReadVersion(order, readVersion);
       if (input.patientId !== order.patientId) {
         throw AppError.badRequest('An amendment keeps the patient.', [{ path: 'patientId', message: `patientId must stay ${order.patientId}; start a new order for another patient` }]);
       }
       const { amendmentReason, ...draft } = input;
-      const newId = await writeDraft(actor, draft, { revision: order.revision + 1, previousRevisionId: id, amendmentReason }, 'order.amended');
+      const newId = await writeDraft(actor, draft, { revision: order.revision + 1, previousRevisionId: id, amendmentReason }, 'order.amended', async (manager) => {
+        // Two amendments of one revision queue here; the second finds the first (and the unique
+        // key on the previous revision stops it even if it did not).
+        const locked = await orders.lockById(manager, id);
+        if (!locked) throw AppError.notFound(`There is no order ${id}.`);
+        assertReadVersion(locked, readVersion);
+        if (await orders.nextRevisionOf(id, manager)) throw alreadyAmended();
+      }).catch((error: unknown) => {
+        throw isDuplicateKey(error) ? alreadyAmended() : error;
+      });
       return detail(await mustFind(newId), actor);
     },
 
-    async sign(actor: Actor, id: number, password: string) {
+    async sign(actor: Actor, id: number, password: string, readVersion: number) {
       const user = await users.findById(actor.id);
       if (!user || !(await bcrypt.compare(password, user.passwordHash))) {
         await audit.append({ actorUserId: actor.id, action: 'order.signature-refused', entityType: 'order', entityId: id, ipAddress: actor.ipAddress });
@@ -234,6 +279,8 @@ export function createOrderService(deps: {
       }
       const order = await mustFind(id);
       if (order.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} is ${order.status} and cannot be signed again.`);
+      // The signer signs what they read, and the plan is frozen from exactly that version.
+      assertReadVersion(order, readVersion);
       const row = await approvedProtocol(order.protocolVersion.key, order.protocolVersion.version);
       // The server's own figures at the moment of signing are what gets frozen.
       const frozen = plan(row, order.inputs);
@@ -253,6 +300,7 @@ export function createOrderService(deps: {
       await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
         if (locked?.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
+        assertReadVersion(locked, readVersion);
         await moveOrderStatus(manager, id, 'draft', status, { plan: frozen, engineVersion: frozen.engineVersion, protocolSha256: row.sha256, signedById: actor.id, signedAt: new Date(), signatureMeaning: 'ordered' });
         if (order.previousRevisionId) {
           const previous = await orders.lockById(manager, order.previousRevisionId);

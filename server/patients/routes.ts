@@ -32,7 +32,7 @@ export function patientRoutes(patients: PatientService): RouteSpec[] {
       path: '/patients/:id',
       access: 'patients.read',
       handler: async (req, res) => {
-        res.json(await patients.history(parseInput(idParam, req.params.id, 'id')));
+        res.json(await patients.history(parseInput(idParam, req.params.id, 'id'), { id: signedInUser(res).id, ipAddress: req.ip }));
       },
     },
   ];

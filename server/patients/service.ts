@@ -1,6 +1,8 @@
 import type { CreatePatient, Patient as PatientDto } from '../../shared/schemas/patients';
 import type { AuditRepository } from '../audit/repository';
+import type { Reader, ReadAudit } from '../audit/service';
 import type { Patient } from '../db/entities/patient';
+import { isDuplicateKey } from '../db/errors';
 import { AppError } from '../http/app-error';
 import type { OrderRepository } from '../orders/repository';
 import type { PatientRepository } from './repository';
@@ -20,17 +22,19 @@ export function toPatientDto(p: Patient): PatientDto {
 /** Orders that stand for a treatment given or on its way (not drafts, returns or replaced revisions). */
 export const treatmentStatuses = ['signed', 'checked', 'prepared', 'ready', 'in-session', 'completed', 'stopped', 'reviewed'] as const;
 
-export function createPatientService(patients: PatientRepository, orders: OrderRepository, audit: AuditRepository) {
+export function createPatientService(patients: PatientRepository, orders: OrderRepository, audit: AuditRepository, reads: ReadAudit) {
   return {
     async search(text?: string) {
       return (await patients.search(text?.trim() || undefined, 50)).map(toPatientDto);
     },
 
     async create(actor: { id: number; ipAddress?: string | null }, input: CreatePatient) {
-      if (await patients.findByRecordNumber(input.recordNumber)) {
-        throw AppError.conflict('record_number_taken', `A patient with record number ${input.recordNumber} exists already.`);
-      }
-      const patient = await patients.create({ ...input, email: input.email ?? null });
+      const taken = () => AppError.conflict('record_number_taken', `A patient with record number ${input.recordNumber} exists already; search for it instead of adding it again.`);
+      if (await patients.findByRecordNumber(input.recordNumber)) throw taken();
+      // Two people adding the same record at once: both pass the look-up, the unique key stops one.
+      const patient = await patients.create({ ...input, email: input.email ?? null }).catch((error: unknown) => {
+        throw isDuplicateKey(error) ? taken() : error;
+      });
       await audit.append({ actorUserId: actor.id, action: 'patient.created', entityType: 'patient', entityId: patient.id, ipAddress: actor.ipAddress, details: { recordNumber: patient.recordNumber } });
       return toPatientDto(patient);
     },
@@ -39,9 +43,10 @@ export function createPatientService(patients: PatientRepository, orders: OrderR
      * The patient with every order per eye, newest first, and for each treatment the days since
      * the previous treatment of the same kind on the same eye.
      */
-    async history(id: number) {
+    async history(id: number, reader: Reader) {
       const patient = await patients.findById(id);
       if (!patient) throw AppError.notFound(`There is no patient with id ${id}.`);
+      await reads.note(reader, { action: 'patient.viewed', entityType: 'patient', entityId: id, details: { recordNumber: patient.recordNumber } });
       const rows = await orders.listForPatient(id);
       const treatments = rows.map((o) => ({
         orderId: o.id,

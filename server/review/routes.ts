@@ -78,7 +78,7 @@ export function reviewRoutes(reviews: ReviewService): RouteSpec[] {
       handler: async (req, res) => {
         const filter = parseInput(auditFilterSchema, req.query);
         csvHeaders(res, 'deviations');
-        await reviews.exportCsv('deviations', filter, res);
+        await reviews.exportCsv('deviations', filter, res, actorOf(req, res));
       },
     },
     {
@@ -88,7 +88,7 @@ export function reviewRoutes(reviews: ReviewService): RouteSpec[] {
       handler: async (req, res) => {
         const filter = parseInput(doseRecordFilterSchema, req.query);
         csvHeaders(res, 'dose-records');
-        await reviews.exportCsv('dose-records', filter, res);
+        await reviews.exportCsv('dose-records', filter, res, actorOf(req, res));
       },
     },
     {

@@ -5,6 +5,7 @@ import { DateTime } from 'luxon';
 import { IsNull, type DataSource, type EntityManager } from 'typeorm';
 import type { AuditFilter, AuditTrailQuery, DoseRecordFilter, ReviewClassification } from '../../shared/schemas/reviews';
 import type { AuditRepository } from '../audit/repository';
+import type { Reader, ReadAudit } from '../audit/service';
 import { DeviationRow } from '../db/entities/deviation';
 import { DeviationReview } from '../db/entities/deviation-review';
 import { DoseRecordRow } from '../db/entities/dose-record';
@@ -17,7 +18,7 @@ import type { SessionService } from '../sessions/service';
 import { csvLine, isoInZone } from './csv';
 import type { DateRange, ReviewRepository } from './repository';
 
-export function createReviewService(deps: { dataSource: DataSource; reviews: ReviewRepository; sessions: SessionService; audit: AuditRepository; unitTimeZone: string }) {
+export function createReviewService(deps: { dataSource: DataSource; reviews: ReviewRepository; sessions: SessionService; audit: AuditRepository; reads: ReadAudit; unitTimeZone: string }) {
   const { dataSource, reviews, audit } = deps;
   const zone = deps.unitTimeZone;
 
@@ -126,7 +127,9 @@ export function createReviewService(deps: { dataSource: DataSource; reviews: Rev
      * Streams a CSV of the filtered rows straight from a database cursor: memory stays flat
      * however many rows there are.
      */
-    async exportCsv(kind: 'deviations' | 'dose-records', filter: AuditFilter | DoseRecordFilter, out: Writable) {
+    async exportCsv(kind: 'deviations' | 'dose-records', filter: AuditFilter | DoseRecordFilter, out: Writable, reader: Reader) {
+      // Every export is a copy of health data leaving the system: recorded before the first row.
+      await deps.reads.note(reader, { action: 'export.downloaded', entityType: 'export', entityId: kind, details: { export: `${kind}.csv`, filter } });
       const [sql, params] =
         kind === 'deviations'
           ? await reviews.deviationsForExport(filter as AuditFilter, rangeOf(filter))

@@ -50,13 +50,30 @@ export const orderDraftSchema = z.strictObject({
 });
 export type OrderDraft = z.infer<typeof orderDraftSchema>;
 
+/**
+ * The order's row version as the client read it (`version` in the order's detail). An edit, a
+ * signature or an amendment made from an older read is refused (409): nobody signs or overwrites
+ * what they have not seen.
+ */
+export const orderVersionSchema = z
+  .number({ error: 'version must be the version of the order you read (a whole number of 1 or more)' })
+  .int('version must be the version of the order you read (a whole number of 1 or more)')
+  .positive('version must be the version of the order you read (a whole number of 1 or more)');
+
+/** PUT /orders/:id: the draft's new content and the version it was read at. */
+export const updateOrderSchema = orderDraftSchema.safeExtend({ version: orderVersionSchema });
+
 export const signOrderSchema = z.strictObject({
   password: z.string({ error: 'password is required' }).min(1, 'password is required').max(200, 'password must be at most 200 characters'),
   meaning: z.literal('ordered', { error: 'meaning must be "ordered"' }),
+  version: orderVersionSchema,
 });
 
 export const amendOrderSchema = orderDraftSchema.safeExtend({ amendmentReason: reason('amendmentReason') });
 export type AmendOrder = z.infer<typeof amendOrderSchema>;
+
+/** POST /orders/:id/amendments: the amendment and the version of the signed order it amends. */
+export const amendOrderRequestSchema = amendOrderSchema.safeExtend({ version: orderVersionSchema });
 
 const measured = (field: string, unit: string, max: number) =>
   z
@@ -113,6 +130,8 @@ export const orderSummarySchema = z.object({
 export type OrderSummary = z.infer<typeof orderSummarySchema>;
 
 export const orderDetailSchema = orderSummarySchema.extend({
+  /** The row version: send it back with an edit, a signature or an amendment. */
+  version: z.number(),
   inputs: planInputsSchema,
   checklist: z.array(checklistAnswerSchema),
   softLimitReasons: z.record(z.string(), z.string()),

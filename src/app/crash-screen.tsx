@@ -1,5 +1,6 @@
 import { AlertIcon, ReloadIcon } from '../components/ui/icons';
 import { buttonClasses } from '../components/ui/button';
+import { KeptDraftNotice } from '../components/ui/kept-draft-offer';
 import { StatusPanel } from '../components/ui/status-panel';
 import { paths } from '../config/paths';
 import { PlainPage } from './layout/plain-page';
@@ -29,6 +30,7 @@ export function CrashScreen() {
         }
       >
         <p>Anything already saved is kept. Reload to carry on; if it happens again, tell your unit&rsquo;s administrator.</p>
+        <KeptDraftNotice />
       </StatusPanel>
     </PlainPage>
   );

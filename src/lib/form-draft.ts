@@ -1,42 +1,97 @@
 import { createContext, useCallback, useContext, useEffect, useRef, useState } from 'react';
 
 /**
- * What a long form has typed, kept in this browser tab (sessionStorage) until it is saved, so that a
- * crash or a reload never loses it. sessionStorage rather than localStorage: it survives a reload
- * of the tab but not its closing, so patient details do not linger on a shared ward computer.
- * Each draft names the person who typed it; another person signed in on the same tab is not
- * offered it, and signing out clears every draft.
+ * What a person has typed and not yet saved, kept in this browser so that a crash, a reload or a
+ * restarted tablet browser never loses it. One store for every form and for the step clock's
+ * ticks and typed reasons:
+ * - each draft is filed under the signed-in person's id and the form's key (with the order id
+ *   where there is one): another person signed in on the same tablet is never offered it;
+ * - a draft lives at most `draftLifetimeMs` (12 h): older ones are dropped when read and at start;
+ * - saving the form drops its draft, and signing out drops every draft, so health data does not
+ *   linger on a shared ward tablet.
+ * localStorage rather than sessionStorage, so a closed tab or a browser killed mid-form keeps it too.
  */
-export type KeptDraft<T> = { ownerId: number; savedAt: string; values: T };
+export type KeptDraft<T> = { ownerId: number; savedAt: string; values: T; /** What the values were based on, e.g. the version of the order read. */ basis?: unknown };
 
-const prefix = 'luxtempo.form-draft.';
+export const draftLifetimeMs = 12 * 60 * 60 * 1000;
+
+const prefix = 'luxtempo.draft.';
+/** Where earlier releases kept drafts (this tab only); dropped with the rest on sign-out. */
+const legacyPrefixes = ['luxtempo.form-draft.', 'luxtempo.step-clock.draft.'];
 
 /** The signed-in person's id, provided by the authenticated layout. */
 export const DraftOwnerContext = createContext<number | null>(null);
 
-export function readKeptDraft<T>(key: string, ownerId: number | null): KeptDraft<T> | null {
-  if (ownerId === null) return null;
+function browserStore(): Storage | null {
   try {
-    const raw = sessionStorage.getItem(prefix + key);
+    return globalThis.localStorage ?? null;
+  } catch {
+    return null; // storage refused (private mode, policy): drafts then live in the page only
+  }
+}
+
+const storageKey = (ownerId: number, key: string) => `${prefix}${ownerId}.${key}`;
+
+/**
+ * Drafts this page has written or offered and not yet dropped, so the crash screen can say truly
+ * whether what was typed is waiting after a reload.
+ */
+const keptInThisPage = new Set<string>();
+const keptListeners = new Set<() => void>();
+function noteKept(name: string, kept: boolean) {
+  const had = keptInThisPage.has(name);
+  if (kept) keptInThisPage.add(name);
+  else keptInThisPage.delete(name);
+  if (had !== kept) for (const listener of keptListeners) listener();
+}
+export function draftsKeptInThisPage(): number {
+  return keptInThisPage.size;
+}
+
+export function readKeptDraft<T>(key: string, ownerId: number | null, nowMs = Date.now()): KeptDraft<T> | null {
+  const store = browserStore();
+  if (ownerId === null || !store) return null;
+  const name = storageKey(ownerId, key);
+  try {
+    const raw = store.getItem(name);
     if (raw === null) return null;
-    const parsed = JSON.parse(raw) as KeptDraft<T>;
-    return parsed && parsed.ownerId === ownerId && typeof parsed.savedAt === 'string' ? parsed : null;
+    const parsed = JSON.parse(raw) as Partial<KeptDraft<T>> | null;
+    const savedMs = parsed && typeof parsed.savedAt === 'string' ? Date.parse(parsed.savedAt) : Number.NaN;
+    if (!parsed || parsed.ownerId !== ownerId || !Number.isFinite(savedMs) || nowMs - savedMs > draftLifetimeMs || !('values' in parsed)) {
+      store.removeItem(name);
+      return null;
+    }
+    return parsed as KeptDraft<T>;
   } catch {
     return null;
   }
 }
 
-export function keepDraft<T>(key: string, ownerId: number, values: T): void {
+export function keepDraft<T>(key: string, ownerId: number, values: T, basis?: unknown): void {
+  const name = storageKey(ownerId, key);
   try {
-    sessionStorage.setItem(prefix + key, JSON.stringify({ ownerId, savedAt: new Date().toISOString(), values } satisfies KeptDraft<T>));
+    browserStore()?.setItem(name, JSON.stringify({ ownerId, savedAt: new Date().toISOString(), values, ...(basis === undefined ? {} : { basis }) } satisfies KeptDraft<T>));
+    noteKept(name, true);
   } catch {
     // Storage full or refused: the values still live in the page.
   }
 }
 
-export function dropDraft(key: string): void {
+export function dropDraft(key: string, ownerId: number | null): void {
+  if (ownerId === null) return;
+  const name = storageKey(ownerId, key);
+  noteKept(name, false);
   try {
-    sessionStorage.removeItem(prefix + key);
+    browserStore()?.removeItem(name);
+  } catch {
+    // Nothing to drop.
+  }
+}
+
+function dropWhere(store: Storage | null, drop: (name: string, raw: string | null) => boolean) {
+  if (!store) return;
+  try {
+    for (const name of Object.keys(store)) if (drop(name, store.getItem(name))) store.removeItem(name);
   } catch {
     // Nothing to drop.
   }
@@ -44,81 +99,165 @@ export function dropDraft(key: string): void {
 
 /** On sign-out: nothing one person typed stays for the next. */
 export function dropAllDrafts(): void {
+  const isDraft = (name: string) => name.startsWith(prefix) || legacyPrefixes.some((p) => name.startsWith(p));
+  dropWhere(browserStore(), isDraft);
   try {
-    for (const key of Object.keys(sessionStorage)) if (key.startsWith(prefix)) sessionStorage.removeItem(key);
+    dropWhere(globalThis.sessionStorage ?? null, isDraft);
   } catch {
-    // Nothing to drop.
+    // No session storage here.
   }
+  for (const name of [...keptInThisPage]) noteKept(name, false);
+}
+
+/** At start: drafts past their lifetime go, whoever wrote them. */
+export function dropExpiredDrafts(nowMs = Date.now()): void {
+  dropWhere(browserStore(), (name, raw) => {
+    if (!name.startsWith(prefix)) return false;
+    try {
+      const savedMs = Date.parse((JSON.parse(raw ?? 'null') as { savedAt?: string } | null)?.savedAt ?? '');
+      return !Number.isFinite(savedMs) || nowMs - savedMs > draftLifetimeMs;
+    } catch {
+      return true;
+    }
+  });
+}
+
+/**
+ * The one writer behind every kept draft: writes a short pause after the last change (a fast
+ * typist does not write on every key), at once when the component goes away (a crash unmounts
+ * it, so what was typed in the last pause is kept too), and never again for values a save or a
+ * discard has already settled.
+ */
+function useDraftWriter<T>(key: string, ownerId: number | null, delayMs: number, basis?: unknown) {
+  const basisRef = useRef(basis);
+  basisRef.current = basis;
+  const pending = useRef<{ values: T } | null>(null);
+  const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
+  const settled = useRef<string | null>(null);
+
+  const flush = useCallback(() => {
+    clearTimeout(timer.current);
+    const next = pending.current;
+    pending.current = null;
+    if (!next || ownerId === null) return;
+    if (settled.current !== null && JSON.stringify(next.values) === settled.current) return;
+    settled.current = null;
+    keepDraft(key, ownerId, next.values, basisRef.current);
+  }, [key, ownerId]);
+
+  const schedule = useCallback(
+    (values: T) => {
+      pending.current = { values };
+      clearTimeout(timer.current);
+      timer.current = setTimeout(flush, delayMs);
+    },
+    [flush, delayMs],
+  );
+
+  /** Drops the kept copy; the values as they stand are not written again until they change. */
+  const clear = useCallback(
+    (current?: T) => {
+      clearTimeout(timer.current);
+      pending.current = null;
+      settled.current = current === undefined ? null : JSON.stringify(current);
+      dropDraft(key, ownerId);
+    },
+    [key, ownerId],
+  );
+
+  useEffect(() => flush, [flush]);
+  return { schedule, flush, clear };
 }
 
 type WatchableForm<T> = {
   watch: (callback: (values: unknown) => void) => { unsubscribe: () => void };
   reset: (values: T, options?: { keepDefaultValues?: boolean }) => void;
+  getValues?: () => unknown;
 };
 
 export type FormDraftControl<T> = {
-  /** A draft left by an earlier page of this tab, waiting for the person to restore or discard it. */
+  /** A draft left by an earlier page, waiting for the person to restore or discard it. */
   offered: KeptDraft<T> | null;
   restore: () => void;
   discard: () => void;
-  /** After a save: the kept copy has done its job. */
+  /** After a save or a cancel: the kept copy has done its job. */
   clear: () => void;
 };
+
+/** The draft a form finds on load, offered until the person restores or discards it. */
+function useOffer<T>(key: string, ownerId: number | null, wanted: (values: T) => boolean = () => true) {
+  const [offered, setOffered] = useState<KeptDraft<T> | null>(() => {
+    const kept = readKeptDraft<T>(key, ownerId);
+    if (kept && wanted(kept.values)) {
+      noteKept(storageKey(kept.ownerId, key), true);
+      return kept;
+    }
+    return null;
+  });
+  const offeredRef = useRef(offered);
+  offeredRef.current = offered;
+  return { offered, offeredRef, setOffered };
+}
 
 /**
  * Keeps a react-hook-form form's values as they are typed and, on the next load of the same form,
  * offers them back. While an offer is open nothing is written, so typing before answering it
  * cannot overwrite the kept draft.
  */
-export function useFormDraft<T>(key: string, form: WatchableForm<T>, options: { settle?: (raw: unknown) => T } = {}): FormDraftControl<T> {
+export function useFormDraft<T>(
+  key: string,
+  form: WatchableForm<T>,
+  options: {
+    settle?: (raw: unknown) => T;
+    /** Kept with the values (e.g. the order version the form was read at), handed back on restore. */
+    basis?: unknown;
+    onRestore?: (basis: unknown) => void;
+  } = {},
+): FormDraftControl<T> {
   const ownerId = useContext(DraftOwnerContext);
-  const [offered, setOffered] = useState<KeptDraft<T> | null>(() => readKeptDraft<T>(key, ownerId));
-  const offeredRef = useRef(offered);
-  offeredRef.current = offered;
-  const settle = useRef(options.settle).current;
-  const { watch, reset } = form;
+  const { offered, offeredRef, setOffered } = useOffer<T>(key, ownerId);
+  const settle = useRef(options.settle ?? ((raw: unknown) => raw as T)).current;
+  const onRestore = useRef(options.onRestore);
+  onRestore.current = options.onRestore;
+  const { schedule, clear: clearWriter } = useDraftWriter<T>(key, ownerId, 200, options.basis);
+  const { watch, reset, getValues } = form;
 
   useEffect(() => {
-    if (ownerId === null) return;
-    let timer: ReturnType<typeof setTimeout> | undefined;
     const subscription = watch((values) => {
-      if (offeredRef.current) return;
-      clearTimeout(timer);
-      // A short pause so a fast typist does not write on every key; a crash mid-pause loses at most that.
-      timer = setTimeout(() => keepDraft(key, ownerId, settle ? settle(values) : (values as T)), 200);
+      if (!offeredRef.current) schedule(settle(values));
     });
-    return () => {
-      clearTimeout(timer);
-      subscription.unsubscribe();
-    };
-  }, [key, ownerId, watch, settle]);
+    return () => subscription.unsubscribe();
+  }, [watch, settle, schedule, offeredRef]);
 
   const restore = useCallback(() => {
     const draft = offeredRef.current;
     if (!draft) return;
     setOffered(null);
-    reset(settle ? settle(draft.values) : draft.values, { keepDefaultValues: true });
-  }, [reset, settle]);
+    onRestore.current?.(draft.basis);
+    reset(settle(draft.values), { keepDefaultValues: true });
+  }, [reset, settle, offeredRef, setOffered]);
   const discard = useCallback(() => {
     setOffered(null);
-    dropDraft(key);
-  }, [key]);
-  const clear = useCallback(() => dropDraft(key), [key]);
+    clearWriter();
+  }, [clearWriter, setOffered]);
+  const clear = useCallback(() => clearWriter(getValues ? settle(getValues()) : undefined), [clearWriter, getValues, settle]);
   return { offered, restore, discard, clear };
 }
 
-/** The same for a form kept in plain React state. */
+/** The same for a form kept in plain React state; `differs` says whether there is anything to keep. */
 export function useStateDraft<T>(key: string, current: T, setCurrent: (values: T) => void, differs: (values: T) => boolean): FormDraftControl<T> {
   const ownerId = useContext(DraftOwnerContext);
-  const [offered, setOffered] = useState<KeptDraft<T> | null>(() => {
-    const kept = readKeptDraft<T>(key, ownerId);
-    return kept && differs(kept.values) ? kept : null;
-  });
+  const { offered, setOffered } = useOffer<T>(key, ownerId, differs);
+  const { schedule, clear: clearWriter } = useDraftWriter<T>(key, ownerId, 200);
+  const latest = useRef(current);
+  latest.current = current;
+
   useEffect(() => {
-    if (ownerId === null || offered) return;
-    const timer = setTimeout(() => (differs(current) ? keepDraft(key, ownerId, current) : dropDraft(key)), 200);
-    return () => clearTimeout(timer);
-  }, [key, ownerId, offered, current, differs]);
+    if (offered) return;
+    if (differs(current)) schedule(current);
+    else clearWriter();
+  }, [offered, current, differs, schedule, clearWriter]);
+
   return {
     offered,
     restore: () => {
@@ -128,13 +267,60 @@ export function useStateDraft<T>(key: string, current: T, setCurrent: (values: T
     },
     discard: () => {
       setOffered(null);
-      dropDraft(key);
+      clearWriter();
     },
-    clear: () => dropDraft(key),
+    clear: () => clearWriter(latest.current),
   };
+}
+
+/**
+ * State that comes back by itself after a reload (no offer): the step clock's ticks and typed
+ * reasons on the way to a tap. A kept value of another shape than `initial` is not trusted.
+ */
+export function useKeptState<T>(key: string, initial: T): [T, (next: T) => void, () => void] {
+  const ownerId = useContext(DraftOwnerContext);
+  const initialValue = useRef(initial).current;
+  const [value, setValue] = useState<T>(() => {
+    const kept = readKeptDraft<unknown>(key, ownerId)?.values;
+    if (kept === undefined || kept === null || typeof kept !== typeof initialValue || Array.isArray(kept) !== Array.isArray(initialValue)) return initialValue;
+    if (typeof kept === 'object' && !Array.isArray(kept)) return { ...initialValue, ...(kept as object) } as T;
+    return kept as T;
+  });
+  const update = useCallback(
+    (next: T) => {
+      setValue(next);
+      if (ownerId !== null) keepDraft(key, ownerId, next);
+    },
+    [key, ownerId],
+  );
+  const clear = useCallback(() => {
+    setValue(initialValue);
+    dropDraft(key, ownerId);
+  }, [initialValue, key, ownerId]);
+  return [value, update, clear];
+}
+
+/** Whether this page holds a kept draft, for the crash screens; read after the crashed form has gone. */
+export function useDraftsKeptInThisPage(): boolean {
+  const [kept, setKept] = useState(false);
+  useEffect(() => {
+    const update = () => setKept(draftsKeptInThisPage() > 0);
+    update();
+    keptListeners.add(update);
+    return () => {
+      keptListeners.delete(update);
+    };
+  }, []);
+  return kept;
 }
 
 /** A settle function for flat forms: a kept draft over the form's defaults, so an older draft still fills every field. */
 export function overDefaults<T extends object>(defaults: T): (raw: unknown) => T {
-  return (raw) => ({ ...defaults, ...(raw && typeof raw === 'object' ? (raw as Partial<T>) : {}) });
+  return (raw) => {
+    const kept = raw && typeof raw === 'object' ? (raw as Record<string, unknown>) : {};
+    const merged: Record<string, unknown> = { ...(defaults as Record<string, unknown>) };
+    // A kept value of another type than the default (an older form, a hand-edited store) is not trusted.
+    for (const [name, fallback] of Object.entries(defaults)) if (typeof kept[name] === typeof fallback) merged[name] = kept[name];
+    return merged as T;
+  };
 }

@@ -40,8 +40,8 @@ async function signedPdtOrder() {
     },
   });
   expect(draft.status()).toBe(201);
-  const orderId = (await draft.json()).order.id as number;
-  const signed = await clinician.post(`/api/orders/${orderId}/signature`, { data: { password: demoPassword, meaning: 'ordered' } });
+  const { id: orderId, version } = (await draft.json()).order as { id: number; version: number };
+  const signed = await clinician.post(`/api/orders/${orderId}/signature`, { data: { password: demoPassword, meaning: 'ordered', version } });
   expect(signed.status()).toBe(200);
   return { orderId, patient };
 }

@@ -67,8 +67,8 @@ async function newPatient() {
 async function signedOrder(body: Record<string, unknown>) {
   const draft = await clinician.post('/api/orders', { data: body });
   expect(draft.status(), await draft.text()).toBe(201);
-  const id = (await draft.json()).order.id as number;
-  const signed = await clinician.post(`/api/orders/${id}/signature`, { data: { password: demoPassword, meaning: 'ordered' } });
+  const { id, version } = (await draft.json()).order as { id: number; version: number };
+  const signed = await clinician.post(`/api/orders/${id}/signature`, { data: { password: demoPassword, meaning: 'ordered', version } });
   expect(signed.status()).toBe(200);
   return id;
 }

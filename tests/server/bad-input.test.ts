@@ -114,7 +114,7 @@ const targets: Target[] = [
     body: fc.oneof(anyBody, mutated({ protocol: { key: 'pdt-standard', version: 1 }, inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 } })),
   },
   { name: 'order', agent: () => clinicianAgent, method: 'post', url: () => '/api/orders', body: fc.oneof(anyBody, mutated(pdtOrder(1) as Record<string, unknown>)) },
-  { name: 'order edit', agent: () => clinicianAgent, method: 'put', url: () => `/api/orders/${draftId}`, body: fc.oneof(anyBody, mutated(pdtOrder(1) as Record<string, unknown>)) },
+  { name: 'order edit', agent: () => clinicianAgent, method: 'put', url: () => `/api/orders/${draftId}`, body: fc.oneof(anyBody, mutated({ ...(pdtOrder(1) as Record<string, unknown>), version: 1 })) },
   { name: 'dose check', agent: () => pharmacistAgent, method: 'post', url: () => `/api/orders/${signedId}/dose-checks`, body: fc.oneof(anyBody, mutated({ bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46, comment: 'ok' })) },
   {
     name: 'preparation',

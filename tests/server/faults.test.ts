@@ -37,7 +37,7 @@ async function readyCxlOrder(base: string): Promise<number> {
     inputs: { stromalThicknessUm: 470 },
     checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({ id, answer: 'no' })),
   });
-  const signed = await clinician.call('POST', `/orders/${draft.body.order.id}/signature`, { password: demoPassword, meaning: 'ordered' });
+  const signed = await clinician.call('POST', `/orders/${draft.body.order.id}/signature`, { password: demoPassword, meaning: 'ordered', version: draft.body.order.version });
   expect(signed.body.order.status).toBe('ready');
   return draft.body.order.id;
 }

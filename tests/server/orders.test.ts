@@ -27,7 +27,7 @@ async function signedPdtOrder(body?: object) {
   const patient = await createTestPatient(ctx);
   const draft = await clinicianAgent.post('/api/orders').send(body ?? pdtOrder(patient.id));
   expect(draft.status).toBe(201);
-  const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+  const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version });
   expect(signed.status).toBe(200);
   return signed.body.order;
 }
@@ -44,7 +44,7 @@ describe('the PDT path: order, blind dose check, preparation', () => {
     expect(draft.body.order).toMatchObject({ status: 'draft', revision: 1, eye: 'right', kind: 'pdt' });
     expect(draft.body.order.plan.doseMg).toBeCloseTo(10.92, 2);
 
-    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version });
     expect(signed.status).toBe(200);
     expect(signed.body.order).toMatchObject({ status: 'signed', signedBy: { id: clinician.id } });
     const id = signed.body.order.id;
@@ -117,7 +117,7 @@ describe('the PDT path: order, blind dose check, preparation', () => {
     const agent = await signedInAgent(ctx, both);
     const patient = await createTestPatient(ctx);
     const draft = await agent.post('/api/orders').send(pdtOrder(patient.id));
-    await agent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: both.password, meaning: 'ordered' });
+    await agent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: both.password, meaning: 'ordered', version: draft.body.order.version });
     const own = await agent.get(`/api/orders/${draft.body.order.id}`);
     expect(own.body.order.planWithheld).toBe(false);
     const res = await agent.post(`/api/orders/${draft.body.order.id}/dose-checks`).send(matching);
@@ -188,7 +188,7 @@ describe('the CXL path', () => {
     expect(draft.status).toBe(201);
     // Wollensak G, Spoerl E, Seiler T. Am J Ophthalmol 2003 — 3 mW/cm² for 30 min.
     expect(draft.body.order.plan.uvTimeS).toBe(1800);
-    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version });
     expect(signed.body.order.status).toBe('ready');
     const check = await pharmacistAgent.post(`/api/orders/${draft.body.order.id}/dose-checks`).send(matching);
     expect(check.status).toBe(409);
@@ -210,7 +210,7 @@ describe('what stops an order', () => {
     const body = pdtOrder(patient.id);
     body.checklist = (body.checklist as { id: string; answer: string }[]).filter((a) => a.id !== 'porphyria');
     const draft = await clinicianAgent.post('/api/orders').send(body);
-    const res = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const res = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version });
     expect(res.status).toBe(400);
     expect(res.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['checklist.porphyria']);
   });
@@ -221,12 +221,13 @@ describe('what stops an order', () => {
     const answers = body.checklist as { id: string; answer: string; overrideReason?: string }[];
     answers.find((a) => a.id === 'hepatic-impairment')!.answer = 'yes';
     const draft = await clinicianAgent.post('/api/orders').send(body);
-    const blocked = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const blocked = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version });
     expect(blocked.status).toBe(400);
     expect(blocked.body.error.fields[0].path).toBe('checklist.hepatic-impairment.overrideReason');
     answers.find((a) => a.id === 'hepatic-impairment')!.overrideReason = 'Mild, stable; hepatology agrees with treatment.';
-    await clinicianAgent.put(`/api/orders/${draft.body.order.id}`).send(body);
-    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const edited = await clinicianAgent.put(`/api/orders/${draft.body.order.id}`).send({ ...body, version: draft.body.order.version });
+    expect(edited.status).toBe(200);
+    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: edited.body.order.version });
     expect(signed.status).toBe(200);
     const audit = await ctx.dataSource.query("SELECT details FROM audit_event WHERE action = 'order.signed' AND entity_id = ?", [String(draft.body.order.id)]);
     expect(audit[0].details.contraindicationOverrides).toEqual([{ id: 'hepatic-impairment', reason: 'Mild, stable; hepatology agrees with treatment.' }]);
@@ -237,11 +238,12 @@ describe('what stops an order', () => {
     const body = pdtOrder(patient.id, { inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 160, unit: 'kg' }, lesionGldUm: 2500, lensMagnification: 1 } });
     const draft = await clinicianAgent.post('/api/orders').send(body);
     expect(draft.body.order.warnings.map((w: { code: string }) => w.code)).toContain('soft-limit');
-    const blocked = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const blocked = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version });
     expect(blocked.status).toBe(400);
     expect(blocked.body.error.fields[0].path).toBe('softLimitReasons.inputs.weight.value');
-    await clinicianAgent.put(`/api/orders/${draft.body.order.id}`).send({ ...body, softLimitReasons: { 'inputs.weight.value': 'Weighed today on the ward scale: 160 kg.' } });
-    expect((await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' })).status).toBe(200);
+    const edited = await clinicianAgent.put(`/api/orders/${draft.body.order.id}`).send({ ...body, softLimitReasons: { 'inputs.weight.value': 'Weighed today on the ward scale: 160 kg.' }, version: draft.body.order.version });
+    expect(edited.status).toBe(200);
+    expect((await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: edited.body.order.version })).status).toBe(200);
   });
 
   it('treating the same eye again inside the minimum interval warns and needs a reason', async () => {
@@ -249,7 +251,7 @@ describe('what stops an order', () => {
     await signedPdtOrder(pdtOrder(patient.id));
     const again = await clinicianAgent.post('/api/orders').send(pdtOrder(patient.id));
     expect(again.body.order.warnings.map((w: { code: string }) => w.code)).toContain('retreatment-interval');
-    const blocked = await clinicianAgent.post(`/api/orders/${again.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const blocked = await clinicianAgent.post(`/api/orders/${again.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: again.body.order.version });
     expect(blocked.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['retreatmentReason']);
     const otherEye = await clinicianAgent.post('/api/orders').send(pdtOrder(patient.id, { eye: 'left' }));
     expect(otherEye.body.order.warnings.map((w: { code: string }) => w.code)).not.toContain('retreatment-interval');
@@ -258,7 +260,7 @@ describe('what stops an order', () => {
   it('a wrong password does not sign', async () => {
     const patient = await createTestPatient(ctx);
     const draft = await clinicianAgent.post('/api/orders').send(pdtOrder(patient.id));
-    const res = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: 'not-my-password', meaning: 'ordered' });
+    const res = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: 'not-my-password', meaning: 'ordered', version: draft.body.order.version });
     expect(res.status).toBe(400);
     expect(res.body.error.fields[0].path).toBe('password');
     expect((await clinicianAgent.get(`/api/orders/${draft.body.order.id}`)).body.order.status).toBe('draft');
@@ -269,20 +271,20 @@ describe('signed orders and amendments', () => {
   it('a signed order cannot be edited; an amendment makes a new revision and the old one stays readable', async () => {
     const order = await signedPdtOrder();
     const body = pdtOrder(order.patient.id, { inputs: { ...order.inputs, lesionGldUm: 3000 } });
-    const edit = await clinicianAgent.put(`/api/orders/${order.id}`).send(body);
+    const edit = await clinicianAgent.put(`/api/orders/${order.id}`).send({ ...body, version: order.version });
     expect(edit.status).toBe(409);
     expect(edit.body.error.code).toBe('order_signed');
 
-    const noReason = await clinicianAgent.post(`/api/orders/${order.id}/amendments`).send(body);
+    const noReason = await clinicianAgent.post(`/api/orders/${order.id}/amendments`).send({ ...body, version: order.version });
     expect(noReason.status).toBe(400);
     expect(noReason.body.error.fields[0].path).toBe('amendmentReason');
 
-    const amended = await clinicianAgent.post(`/api/orders/${order.id}/amendments`).send({ ...body, amendmentReason: 'New angiogram: lesion measured 3000 µm.' });
+    const amended = await clinicianAgent.post(`/api/orders/${order.id}/amendments`).send({ ...body, amendmentReason: 'New angiogram: lesion measured 3000 µm.', version: order.version });
     expect(amended.status).toBe(201);
     expect(amended.body.order).toMatchObject({ revision: 2, status: 'draft', previousRevisionId: order.id });
     expect(amended.body.order.plan.spotDiameterUm).toBe(4000);
 
-    await clinicianAgent.post(`/api/orders/${amended.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    await clinicianAgent.post(`/api/orders/${amended.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: amended.body.order.version });
     const old = await clinicianAgent.get(`/api/orders/${order.id}`);
     expect(old.body.order).toMatchObject({ status: 'superseded', nextRevisionId: amended.body.order.id });
     expect(old.body.order.plan.spotDiameterUm).toBe(3500);

@@ -41,7 +41,7 @@ const expected: Record<string, 'public' | Role[]> = {
   'POST /api/orders/:id/dose-checks': ['pharmacist'],
   'POST /api/orders/:id/preparation': ['pharmacist'],
   'POST /api/orders/:id/attachments': ['clinician'],
-  'GET /api/attachments/:id': all,
+  'GET /api/attachments/:id': ['clinician', 'nurse', 'pharmacist', 'auditor'],
   'GET /api/outbox': ['admin'],
   'GET /api/orders/:id/session': ['clinician', 'nurse', 'pharmacist', 'auditor'],
   'POST /api/orders/:id/session-events': ['nurse'],

@@ -101,7 +101,7 @@ type Agent = ReturnType<typeof supertest.agent>;
 export async function signOrder(agent: Agent, person: TestPerson, body: object) {
   const draft = await agent.post('/api/orders').send(body);
   if (draft.status !== 201) throw new Error(`draft failed: ${JSON.stringify(draft.body)}`);
-  const signed = await agent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: person.password, meaning: 'ordered' });
+  const signed = await agent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: person.password, meaning: 'ordered', version: draft.body.order.version });
   if (signed.status !== 200) throw new Error(`signing failed: ${JSON.stringify(signed.body)}`);
   return signed.body.order;
 }

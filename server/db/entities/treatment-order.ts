@@ -1,4 +1,4 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn, type Relation } from 'typeorm';
+import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn, VersionColumn, type Relation } from 'typeorm';
 import type { DosePlan, PlanInputs } from '../../../shared/schemas/calculation';
 import { orderStatuses, type ChecklistAnswer, type OrderStatus } from '../../../shared/schemas/orders';
 import { Patient } from './patient';
@@ -13,6 +13,8 @@ import { User } from './user';
 @Index('ix_order_status_created', ['status', 'createdAt'])
 @Index('ix_order_patient_eye', ['patientId', 'eye', 'createdAt'])
 @Index('ix_order_protocol', ['protocolVersionId', 'createdAt'])
+// One amendment per revision, whatever two clinicians send at once.
+@Index('uq_order_previous_revision', ['previousRevisionId'], { unique: true })
 export class TreatmentOrder {
   @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
   id!: number;
@@ -100,6 +102,13 @@ export class TreatmentOrder {
 
   @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   createdAt!: Date;
+
+  /**
+   * Goes up by one on every write to the row (TypeORM adds it to each UPDATE). A client sends the
+   * version it read with an edit, a signature or an amendment; the server refuses a stale one.
+   */
+  @VersionColumn({ name: 'row_version', type: 'int', unsigned: true, default: 1 })
+  version!: number;
 
   @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)', onUpdate: 'CURRENT_TIMESTAMP(3)' })
   updatedAt!: Date;

@@ -1,6 +1,7 @@
 import { isRouteErrorResponse, useRouteError } from 'react-router-dom';
 import { Button, LinkButton } from '../../components/ui/button';
 import { AlertIcon, ArrowLeftIcon, ReloadIcon } from '../../components/ui/icons';
+import { KeptDraftNotice } from '../../components/ui/kept-draft-offer';
 import { StatusPanel } from '../../components/ui/status-panel';
 import { paths } from '../../config/paths';
 import { PlainPage } from '../layout/plain-page';
@@ -37,10 +38,13 @@ export function RouteErrorScreen({ framed }: { framed: boolean }) {
         {missing ? (
           <p>The link may be mistyped or out of date.</p>
         ) : (
-          <p>
-            Something went wrong while opening it. Reloading usually helps; anything already saved is kept. If it happens again, tell
-            your unit&rsquo;s administrator what you were doing.
-          </p>
+          <>
+            <p>
+              Something went wrong while opening it. Reloading usually helps; anything already saved is kept. If it happens again, tell
+              your unit&rsquo;s administrator what you were doing.
+            </p>
+            <KeptDraftNotice />
+          </>
         )}
       </StatusPanel>
     </>

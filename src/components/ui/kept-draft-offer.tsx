@@ -1,26 +1,45 @@
-import type { FormDraftControl } from '../../lib/form-draft';
-import { formatUnitDateTime } from '../../lib/unit-times';
+import { DateTime } from 'luxon';
+import { unitTimeZone } from '../../config/unit-time-zone';
+import { useDraftsKeptInThisPage, type FormDraftControl } from '../../lib/form-draft';
 import { Button } from './button';
 import { InfoIcon } from './icons';
 
-/** Offers back what a form held when this tab last left it unsaved (a crash, a reload). */
+/** "10:42" for a draft kept today (the unit's day), "2 Dec, 10:42" for an older one. */
+function keptAt(iso: string): string {
+  const at = DateTime.fromISO(iso).setZone(unitTimeZone).setLocale('en-GB');
+  if (!at.isValid) return iso;
+  return at.hasSame(DateTime.now().setZone(unitTimeZone), 'day') ? at.toFormat('HH:mm') : at.toFormat('d LLL, HH:mm');
+}
+
+/** Offers back what a form held when it was last left unsaved (a crash, a reload, a closed tab). */
 export function KeptDraftOffer<T>({ draft, what }: { draft: FormDraftControl<T>; what: string }) {
   if (!draft.offered) return null;
   return (
-    <div role="status" className="flex flex-wrap items-center gap-3 rounded-lg border-2 border-iris-700 bg-iris-50 px-4 py-3">
+    <div role="status" aria-label="Kept draft" className="my-3 flex flex-wrap items-center gap-3 rounded-lg first:mt-0 border-2 border-iris-700 bg-iris-50 px-4 py-3">
       <InfoIcon className="size-5 text-iris-900" />
       <p className="min-w-0 flex-1 text-paper-950">
-        <span className="font-semibold">Unsaved {what} from {formatUnitDateTime(draft.offered.savedAt)}</span> was kept in this browser when the
-        page closed. Bring it back, or start afresh.
+        <span className="font-semibold">A draft from {keptAt(draft.offered.savedAt)} was kept</span> — the {what} you had typed and not saved.
+        Restore it, or discard it and start afresh.
       </p>
       <div className="flex flex-wrap gap-2">
         <Button type="button" onClick={draft.restore}>
-          Bring it back
+          Restore
         </Button>
         <Button type="button" variant="secondary" onClick={draft.discard}>
-          Discard it
+          Discard
         </Button>
       </div>
     </div>
+  );
+}
+
+/** For the crash screens: says, only when it is true, that what was typed waits after a reload. */
+export function KeptDraftNotice() {
+  const kept = useDraftsKeptInThisPage();
+  if (!kept) return null;
+  return (
+    <p className="mt-2 font-medium">
+      What you had typed and not saved was kept as a draft in this browser: reload, open the same form, and choose Restore.
+    </p>
   );
 }

@@ -8,6 +8,10 @@ const actionWords: Record<string, string> = {
   'person.deactivated': 'Person deactivated',
   'person.reactivated': 'Person reactivated',
   'patient.created': 'Patient added',
+  'patient.viewed': 'Patient record opened',
+  'order.viewed': 'Order opened',
+  'attachment.viewed': 'Report opened (downloaded)',
+  'export.downloaded': 'Export downloaded (CSV)',
   'order.drafted': 'Order drafted',
   'order.draft-edited': 'Order draft changed',
   'order.signed': 'Order signed',
@@ -49,6 +53,7 @@ export const recordTypes: Record<string, string> = {
   patient: 'Patient',
   protocol_version: 'Protocol version',
   user: 'Person',
+  export: 'Export',
 };
 
 export function recordTypeLabel(type: string | null): string {

@@ -59,12 +59,13 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
     setError,
     watch,
     reset,
+    getValues,
     formState: { errors },
   } = useForm<CheckFormInput, unknown, DoseCheckEntry>({
     resolver: zodResolver(checkFormSchema),
     defaultValues: checkDefaults,
   });
-  const draftKeeper = useFormDraft(`dose-check.${order.id}`, { watch, reset }, { settle: overDefaults(checkDefaults) });
+  const draftKeeper = useFormDraft(`dose-check.${order.id}`, { watch, reset, getValues }, { settle: overDefaults(checkDefaults) });
 
   const refusals = order.doseChecks.filter((check) => check.outcome === 'mismatch');
   const lastTry = refusals.length >= refusalsBeforeReturn - 1;

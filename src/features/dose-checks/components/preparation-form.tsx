@@ -78,12 +78,13 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
     setValue,
     watch,
     reset,
+    getValues,
     formState: { errors },
   } = useForm<PreparationFormInput, unknown, PreparationEntry>({
     resolver: zodResolver(preparationFormSchema),
     defaultValues: { vialLot: '', vialExpiry: '', reconstitutedAt: nowText(), volumeDrawnMl: '' },
   });
-  const draftKeeper = useFormDraft(`preparation.${order.id}`, { watch, reset }, { settle: overDefaults({ vialLot: '', vialExpiry: '', reconstitutedAt: '', volumeDrawnMl: '' }) });
+  const draftKeeper = useFormDraft(`preparation.${order.id}`, { watch, reset, getValues }, { settle: overDefaults({ vialLot: '', vialExpiry: '', reconstitutedAt: '', volumeDrawnMl: '' }) });
 
   const onSubmit = handleSubmit((entry) => {
     record.mutate(

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useEffect, useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { bsaFormulaNames, bsaFormulas } from '../../../../shared/engine/bsa';
 import { signatureProblems } from '../../../../shared/orders/readiness';
@@ -99,7 +99,14 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
   });
 
   const values = settleFormValues(useWatch({ control }));
-  const draftKeeper = useFormDraft(`order.${mode}.${source?.id ?? 'new'}`, { watch, reset }, { settle: settleFormValues });
+  // The version of the order this form was filled from, sent with the save: a refetch in the
+  // background must not make an older form look current, and a restored draft keeps its own.
+  const [readVersion, setReadVersion] = useState(source?.version ?? 0);
+  const draftKeeper = useFormDraft(
+    `order.${mode}.${source?.id ?? 'new'}`,
+    { watch, reset, getValues },
+    { settle: settleFormValues, basis: readVersion, onRestore: (basis) => typeof basis === 'number' && basis > 0 && setReadVersion(basis) },
+  );
   const chosenRef = parseProtocolRef(values.protocolRef);
   const definitionQuery = useQuery({ ...orderQueries.protocolDefinition(chosenRef?.key ?? '', chosenRef?.version ?? 0), enabled: chosenRef !== null });
   const definition = chosenRef ? (definitionQuery.data?.definition ?? null) : null;
@@ -167,8 +174,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
       mode === 'new'
         ? { mode, draft: draft as OrderDraft }
         : mode === 'edit'
-          ? { mode, id: source!.id, draft: draft as OrderDraft }
-          : { mode, id: source!.id, amendment: draft as AmendOrder };
+          ? { mode, id: source!.id, version: readVersion, draft: draft as OrderDraft }
+          : { mode, id: source!.id, version: readVersion, amendment: draft as AmendOrder };
     save.mutate(request, {
       onSuccess: (order) => {
         draftKeeper.clear();

@@ -28,6 +28,14 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
   const sign = useSignOrder();
   const [password, setPassword] = useState('');
   const [passwordError, setPasswordError] = useState<string | undefined>();
+  // The version on screen when the dialog opened is the one signed: a refresh behind the open
+  // dialog must not turn this signature into one for inputs the clinician has not looked at.
+  const [versionShown, setVersionShown] = useState(order.version);
+  const [wasOpen, setWasOpen] = useState(open);
+  if (open !== wasOpen) {
+    setWasOpen(open);
+    if (open) setVersionShown(order.version);
+  }
 
   const close = () => {
     sign.reset();
@@ -44,7 +52,7 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
     }
     setPasswordError(undefined);
     sign.mutate(
-      { id: order.id, password },
+      { id: order.id, password, version: versionShown },
       {
         onSuccess: (signed) => {
           setPassword('');

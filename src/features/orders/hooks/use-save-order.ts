@@ -7,13 +7,13 @@ import { updateOrder } from '../api/update-order';
 
 export type SaveOrderRequest =
   | { mode: 'new'; draft: OrderDraft }
-  | { mode: 'edit'; id: number; draft: OrderDraft }
-  | { mode: 'amend'; id: number; amendment: AmendOrder };
+  | { mode: 'edit'; id: number; version: number; draft: OrderDraft }
+  | { mode: 'amend'; id: number; version: number; amendment: AmendOrder };
 
 function save(request: SaveOrderRequest): Promise<OrderDetail> {
   if (request.mode === 'new') return createOrder(request.draft);
-  if (request.mode === 'edit') return updateOrder({ id: request.id, draft: request.draft });
-  return amendOrder({ id: request.id, amendment: request.amendment });
+  if (request.mode === 'edit') return updateOrder({ id: request.id, version: request.version, draft: request.draft });
+  return amendOrder({ id: request.id, version: request.version, amendment: request.amendment });
 }
 
 /** After any change to an order: the saved detail is known, every list may have moved. */

@@ -56,12 +56,13 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
     setError,
     watch,
     reset,
+    getValues,
     formState: { errors },
   } = useForm<PatientFormValues, unknown, CreatePatient>({
     resolver: zodResolver(patientFormSchema),
     defaultValues: patientDefaults,
   });
-  const draftKeeper = useFormDraft('add-patient', { watch, reset }, { settle: overDefaults(patientDefaults) });
+  const draftKeeper = useFormDraft('add-patient', { watch, reset, getValues }, { settle: overDefaults(patientDefaults) });
 
   const onSubmit = handleSubmit((input) => {
     createPatient.mutate(input, {

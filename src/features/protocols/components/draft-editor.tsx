@@ -44,7 +44,9 @@ export function DraftEditor({ draft }: { draft: VersionDetail }) {
   const textareaRef = useRef<HTMLTextAreaElement>(null);
   const regionId = useId();
   const savedText = asText(draft.definition);
-  const differs = useCallback((kept: string) => kept !== savedText, [savedText]);
+  // Until the saved version comes back from the server, the text just saved is not a change either.
+  const justSaved = useRef<string | null>(null);
+  const differs = useCallback((kept: string) => kept !== savedText && kept !== justSaved.current, [savedText]);
   const kept = useStateDraft(`protocol-draft.${draft.key}.${draft.version}`, text, setText, differs);
   const keptOffer = { ...kept, restore: () => (kept.restore(), setOpen(true)) };
 
@@ -63,7 +65,9 @@ export function DraftEditor({ draft }: { draft: VersionDetail }) {
       { key: draft.key, version: draft.version, definition: JSON.parse(text) as unknown },
       {
         onSuccess: (version) => {
-          setText(asText(version.definition));
+          justSaved.current = asText(version.definition);
+          setText(justSaved.current);
+          kept.clear();
           setSaved(
             version.sha256 === draft.sha256
               ? 'Saved. Nothing in the definition changed.'

@@ -1,41 +1,13 @@
-import { useCallback, useRef, useState } from 'react';
+import { useCallback, useState } from 'react';
+import { useKeptState } from '../../../lib/form-draft';
 
 /**
- * State that survives a reload of this tab (sessionStorage): ticks and typed text on the way to
- * a tap are not lost if the tablet reloads before the nurse presses the button.
+ * State that survives a reload (the app's kept drafts: filed under the signed-in nurse, dropped
+ * at sign-out and after 12 h): ticks and typed text on the way to a tap are not lost if the
+ * tablet reloads before the nurse presses the button, and never shown to the next person.
  */
 export function useStoredDraft<T>(key: string, initial: T): [T, (next: T) => void, () => void] {
-  const storageKey = `luxtempo.step-clock.draft.${key}`;
-  // Call sites pass a fresh literal each render; the first one is the value to go back to.
-  const initialValue = useRef(initial).current;
-  const [value, setValue] = useState<T>(() => {
-    try {
-      const raw = sessionStorage.getItem(storageKey);
-      return raw === null ? initial : (JSON.parse(raw) as T);
-    } catch {
-      return initial;
-    }
-  });
-  const update = useCallback(
-    (next: T) => {
-      setValue(next);
-      try {
-        sessionStorage.setItem(storageKey, JSON.stringify(next));
-      } catch {
-        // Storage refused: the value still lives in this page.
-      }
-    },
-    [storageKey],
-  );
-  const clear = useCallback(() => {
-    setValue(initialValue);
-    try {
-      sessionStorage.removeItem(storageKey);
-    } catch {
-      // Nothing to clear.
-    }
-  }, [initialValue, storageKey]);
-  return [value, update, clear];
+  return useKeptState(`step-clock.${key}`, initial);
 }
 
 /** Whether sound cues are muted on this tablet; remembered across sessions. */
