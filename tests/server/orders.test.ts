@@ -130,7 +130,7 @@ describe('the PDT path: order, blind dose check, preparation', () => {
     const drafter = await signedInAgent(ctx, both);
     const patient = await createTestPatient(ctx);
     const draft = await drafter.post('/api/orders').send(pdtOrder(patient.id));
-    expect((await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' })).status).toBe(200);
+    expect((await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version })).status).toBe(200);
     const res = await drafter.post(`/api/orders/${draft.body.order.id}/dose-checks`).send(matching);
     expect(res.status).toBe(403);
     expect(res.body.error.message).toMatch(/drafted this order/);
