@@ -210,7 +210,11 @@ describe('what stops an order', () => {
     const blocked = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
     expect(blocked.status).toBe(400);
     expect(blocked.body.error.fields[0].path).toBe('softLimitReasons.inputs.weight.value');
-    await clinicianAgent.put(`/api/orders/${draft.body.order.id}`).send({ ...body, softLimitReasons: { 'inputs.weight.value': 'Weighed today on the ward scale: 160 kg.' } });
+    // 160 kg at 170 cm is also a BMI of 55.4 kg/m², above the default usual range of 45 (common practice).
+    expect(blocked.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['softLimitReasons.inputs.weight.value', 'softLimitReasons.bmiKgPerM2']);
+    await clinicianAgent
+      .put(`/api/orders/${draft.body.order.id}`)
+      .send({ ...body, softLimitReasons: { 'inputs.weight.value': 'Weighed today on the ward scale: 160 kg.', bmiKgPerM2: 'Height and weight both measured today.' } });
     expect((await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' })).status).toBe(200);
   });
 
