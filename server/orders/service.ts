@@ -133,8 +133,10 @@ export function createOrderService(deps: {
       });
     }
     if (weightChange !== null) warnings.push({ code: 'weight-change', field: 'weightChangeReason', message: weightChangeMessage(weightChange) });
+    const summary = toOrderSummary(order);
     return {
-      ...toOrderSummary(order),
+      ...summary,
+      patient: { ...summary.patient, dateOfBirth: order.patient.dateOfBirth },
       inputs: order.inputs,
       checklist: order.checklist,
       softLimitReasons: order.softLimitReasons,

@@ -40,7 +40,7 @@ export function recordBodyMassIndex(report: InputReport, protocol: ProtocolVersi
     report.warnings.push({
       code: 'soft-limit',
       field: 'bmiKgPerM2',
-      message: `body-mass index ${bmiText(bmiKgPerM2)} is outside the usual range of ${formatNumber(min)} to ${formatNumber(max)} kg/m² (${whose}): weight ${formatMeasureWithConversion(inputs.weight)}, height ${formatMeasureWithConversion(inputs.height)}. Check both and their units, and record a reason to go on`,
+      message: `body-mass index ${bmiText(bmiKgPerM2)} is outside the usual range of ${formatNumber(min)} to ${formatNumber(max)} kg/m² (${whose}): weight ${formatMeasureWithConversion(inputs.weight)}, height ${formatMeasureWithConversion(inputs.height)}; check both and their units`,
     });
   }
   return bmiKgPerM2;

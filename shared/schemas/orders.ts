@@ -115,6 +115,8 @@ export const orderSummarySchema = z.object({
 export type OrderSummary = z.infer<typeof orderSummarySchema>;
 
 export const orderDetailSchema = orderSummarySchema.extend({
+  /** The date of birth too: the signature dialog and the printed order confirm identity with it. */
+  patient: patientSchema.pick({ id: true, recordNumber: true, givenName: true, familyName: true, dateOfBirth: true }),
   inputs: planInputsSchema,
   checklist: z.array(checklistAnswerSchema),
   softLimitReasons: z.record(z.string(), z.string()),
