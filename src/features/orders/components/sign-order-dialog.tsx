@@ -102,34 +102,39 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
           <h3 id="signed-figures-heading" className="mb-1 font-semibold text-paper-950">
             What you sign for
           </h3>
-          <BodyMeasures inputs={order.inputs} bmiKgPerM2={order.plan?.bmiKgPerM2} />
-          {order.plan && (
-            <dl className="mt-1 grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1">
-              {order.plan.doseMg !== null && order.plan.drugVolumeMl !== null ? (
-                <>
-                  <dt className="text-paper-600">Verteporfin dose</dt>
-                  <dd className="numerals-steady text-lg font-semibold text-paper-950">{formatFigure(order.plan.doseMg)} mg</dd>
-                  <dt className="text-paper-600">Drug volume</dt>
-                  <dd className="numerals-steady text-lg font-semibold text-paper-950">
-                    {formatFigure(order.plan.drugVolumeMl)} mL
-                    {order.plan.diluentVolumeMl !== null && <span className="text-base font-normal text-paper-800"> + {formatFigure(order.plan.diluentVolumeMl)} mL diluent</span>}
-                  </dd>
-                </>
-              ) : (
-                <>
-                  <dt className="text-paper-600">Drug</dt>
-                  <dd className="text-paper-950">None in this protocol</dd>
-                </>
-              )}
-              {order.plan.fluenceJPerCm2 !== null && (
-                <>
-                  <dt className="text-paper-600">Fluence</dt>
-                  <dd className="numerals-steady font-semibold text-paper-950">{formatFigure(order.plan.fluenceJPerCm2)} J/cm²</dd>
-                </>
-              )}
-            </dl>
-          )}
-          <p className="mt-1 text-sm text-paper-700">As saved in the draft; the server computes the plan again as you sign and stops if anything is missing.</p>
+          <div className="grid gap-y-1 sm:grid-cols-[max-content_max-content] sm:gap-x-10">
+            <BodyMeasures inputs={order.inputs} bmiKgPerM2={order.plan?.bmiKgPerM2} className="content-start" />
+            {order.plan && (
+              <dl className="grid content-start grid-cols-[max-content_1fr] gap-x-4 gap-y-1">
+                {order.plan.doseMg !== null && order.plan.drugVolumeMl !== null ? (
+                  <>
+                    <dt className="text-paper-600">Verteporfin dose</dt>
+                    <dd className="numerals-steady text-lg font-semibold text-paper-950">{formatFigure(order.plan.doseMg)} mg</dd>
+                    <dt className="text-paper-600">Drug volume</dt>
+                    <dd className="numerals-steady text-lg font-semibold text-paper-950">{formatFigure(order.plan.drugVolumeMl)} mL</dd>
+                    {order.plan.diluentVolumeMl !== null && (
+                      <>
+                        <dt className="text-paper-600">Diluent</dt>
+                        <dd className="numerals-steady text-paper-950">{formatFigure(order.plan.diluentVolumeMl)} mL</dd>
+                      </>
+                    )}
+                  </>
+                ) : (
+                  <>
+                    <dt className="text-paper-600">Drug</dt>
+                    <dd className="text-paper-950">None in this protocol</dd>
+                  </>
+                )}
+                {order.plan.fluenceJPerCm2 !== null && (
+                  <>
+                    <dt className="text-paper-600">Fluence</dt>
+                    <dd className="numerals-steady font-semibold text-paper-950">{formatFigure(order.plan.fluenceJPerCm2)} J/cm²</dd>
+                  </>
+                )}
+              </dl>
+            )}
+          </div>
+          <p className="mt-1 text-sm text-paper-700">As saved in the draft; the server works the plan out again as you sign.</p>
         </section>
 
         {knownProblems.length > 0 && otherProblems.length === 0 && (
