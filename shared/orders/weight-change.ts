@@ -56,6 +56,6 @@ export function weightChangeNeedingReason(
 /** What the clinician reads: both weights in both units, the change, and the rule it breaks. */
 export function weightChangeMessage(change: WeightChange): string {
   const pct = formatNumber(roundToStep(Math.abs(change.changePct), 0.1));
-  const days = change.daysAgo === 1 ? '1 day' : `${change.daysAgo} days`;
-  return `the weight ${formatMeasureWithConversion(change.current)} is ${pct} % ${change.changePct < 0 ? 'less' : 'more'} than the ${formatMeasureWithConversion(change.last.weight)} recorded ${days} ago (more than ${formatNumber(change.rule.maxPct)} % within ${formatNumber(change.rule.withinDays)} days): check the weight and its unit, and give a reason (5 to 500 characters)`;
+  const when = change.daysAgo === 0 ? 'today' : change.daysAgo === 1 ? '1 day ago' : `${change.daysAgo} days ago`;
+  return `the weight ${formatMeasureWithConversion(change.current)} is ${pct} % ${change.changePct < 0 ? 'less' : 'more'} than the ${formatMeasureWithConversion(change.last.weight)} recorded ${when} (more than ${formatNumber(change.rule.maxPct)} % within ${formatNumber(change.rule.withinDays)} days): check the weight and its unit, and give a reason (5 to 500 characters)`;
 }

@@ -23,7 +23,11 @@ describe('a weight typed in the wrong unit', () => {
     const recordNumber = `WS-${randomUUID().slice(0, 8).toUpperCase()}`;
     const patientId = await page.evaluate(
       async ({ recordNumber, checklistIds, password }) => {
-        const post = (url: string, body: unknown) => fetch(url, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body) }).then((r) => r.json());
+        const post = async (url: string, body: unknown) => {
+          const res = await fetch(url, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body) });
+          if (!res.ok) throw new Error(`${url} answered ${res.status}: ${await res.text()}`);
+          return res.json();
+        };
         const { patient } = await post('/api/patients', { recordNumber, givenName: 'Orrin', familyName: 'Slipstone', dateOfBirth: '1961-07-21' });
         const { order } = await post('/api/orders', {
           patientId: patient.id,
@@ -71,7 +75,7 @@ describe('a weight typed in the wrong unit', () => {
     expect(previewText).toContain('16 to 45 kg/m²');
     // The readiness list names both reasons, so no refusal waits behind the password.
     expect(previewText).toMatch(/Before it can be signed[\s\S]*body-mass index 12\.5 kg\/m²[\s\S]*give a reason/i);
-    expect(previewText).toContain('The weight 92 lb (41.7 kg) is 54.6 % less than the 92 kg (202.8 lb) recorded 0 days ago');
+    expect(previewText).toContain('The weight 92 lb (41.7 kg) is 54.6 % less than the 92 kg (202.8 lb) recorded today');
     expect(previewText).not.toMatch(/Nothing missing/);
     expect(await accessibilityViolations(page)).toEqual([]);
 

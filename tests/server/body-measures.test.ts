@@ -116,7 +116,7 @@ describe('a weight far from the patient’s last recorded weight', () => {
     expect(refused.status).toBe(400);
     expect(refused.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['weightChangeReason']);
     const message = refused.body.error.fields[0].message;
-    expect(message).toContain('80 kg (176.4 lb) is 13 % less than the 92 kg (202.8 lb) recorded 0 days ago');
+    expect(message).toContain('80 kg (176.4 lb) is 13 % less than the 92 kg (202.8 lb) recorded today');
     expect(message).toContain('more than 10 % within 90 days');
     expect(message).toContain('5 to 500 characters');
     await expectNothingSigned(draft.body.order.id);
