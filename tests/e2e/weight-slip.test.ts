@@ -18,6 +18,8 @@ describe('a weight typed in the wrong unit', () => {
     const page = await ctx.browser.newPage({ viewport: { width: 1366, height: 900 } });
     const problems = watchPage(page, ctx.baseUrl);
     await signInThroughForm(page, ctx.baseUrl, 'clinician@demo.luxtempo.example', demoPassword);
+    // The session cookie is set once the signed-in shell shows; the setup requests below need it.
+    await page.getByRole('navigation', { name: 'Main' }).waitFor();
 
     // A fictitious patient of this test whose 183 cm / 92 kg was recorded on a signed order.
     const recordNumber = `WS-${randomUUID().slice(0, 8).toUpperCase()}`;
