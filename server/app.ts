@@ -85,7 +85,8 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   const patients = createPatientRepository(dataSource);
   const orders = createOrderRepository(dataSource);
   const unitTimeZone = config.UNIT_TIME_ZONE;
-  const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, reads, unitTimeZone });
+  const weightChangeRule = { maxPct: config.WEIGHT_CHANGE_MAX_PCT, withinDays: config.WEIGHT_CHANGE_WITHIN_DAYS };
+  const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, reads, unitTimeZone, weightChangeRule });
   const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
   const sessionRows = createSessionRepository(dataSource);
   const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now });
@@ -97,7 +98,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
     ...peopleRoutes(createPeopleService(users, audit)),
     ...protocolRoutes(protocols),
     ...calculationRoutes(protocols),
-    ...patientRoutes(createPatientService(patients, orders, audit, reads)),
+    ...patientRoutes(createPatientService(patients, orders, audit, reads, weightChangeRule)),
     ...orderRoutes(orderService, orders, now),
     ...pharmacyRoutes(pharmacy),
     ...attachmentRoutes(createAttachmentService(dataSource, audit, reads, path.resolve(config.UPLOAD_DIR))),

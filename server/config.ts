@@ -35,6 +35,13 @@ const envSchema = z.object({
       }
     }, 'UNIT_TIME_ZONE must be an IANA time zone such as Europe/Lisbon')
     .default('Europe/Lisbon'),
+  /**
+   * A new order's weight that differs from the patient's last recorded weight by more than this
+   * percentage, the last one less than WEIGHT_CHANGE_WITHIN_DAYS old, needs a reason to be signed
+   * (demo defaults 10 % and 90 days: common practice, no single source).
+   */
+  WEIGHT_CHANGE_MAX_PCT: z.coerce.number().positive('WEIGHT_CHANGE_MAX_PCT must be above 0').max(100, 'WEIGHT_CHANGE_MAX_PCT must be at most 100').default(10),
+  WEIGHT_CHANGE_WITHIN_DAYS: z.coerce.number().int('WEIGHT_CHANGE_WITHIN_DAYS must be a whole number').min(1, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650').max(3650, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650').default(90),
   DEMO_DATA: bool.default(true),
   LOGIN_FAILURE_LIMIT: z.coerce.number().int().min(1).max(1000).default(10),
   LOGIN_FAILURE_WINDOW_MIN: z.coerce.number().int().min(1).max(1440).default(15),

@@ -1,7 +1,7 @@
 import type { DataSource } from 'typeorm';
 
 /** Tables whose rows, once written, stay as written: the app may add and read, never change. */
-export const appendOnlyTables = new Set(['audit_event', 'dose_check', 'session_event', 'deviation_review']);
+export const appendOnlyTables = new Set(['audit_event', 'dose_check', 'session_event', 'deviation_review', 'patient_measurement']);
 
 /**
  * Gives the app's database user rights table by table, after migrations. MariaDB rights only

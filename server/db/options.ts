@@ -8,6 +8,7 @@ import { DoseCheck } from './entities/dose-check';
 import { DoseRecordRow } from './entities/dose-record';
 import { OutboxMessage } from './entities/outbox-message';
 import { Patient } from './entities/patient';
+import { PatientMeasurement } from './entities/patient-measurement';
 import { Preparation } from './entities/preparation';
 import { ProtocolApproval } from './entities/protocol-approval';
 import { ProtocolVersion } from './entities/protocol-version';
@@ -17,7 +18,7 @@ import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
 import { migrations } from './migration-list';
 
-export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow, DeviationReview, SessionParticipant];
+export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow, DeviationReview, SessionParticipant, PatientMeasurement];
 
 export interface DatabaseConnection {
   host: string;

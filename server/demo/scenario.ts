@@ -157,6 +157,7 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
         beyondUseAt: null,
       });
       await manager.query('UPDATE treatment_order SET created_at = ? WHERE id = ?', [new Date(signedAt.getTime() - 600_000), order.id]);
+      await patients.recordMeasurement(manager, { patientId: who.id, orderId: order.id, measuredAt: signedAt }, item.inputs);
       let preparation = null;
       if (pv.definition.drug) {
         // Dated that morning, not when the demo was loaded (dose checks are append-only, so set at insert).
@@ -217,7 +218,8 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
     if (!who) continue;
     const plan = computePlan(pv.definition, item.inputs);
     const signed = item.status !== 'draft';
-    await orderRepo.save({
+    const signedAt = new Date();
+    const saved = await orderRepo.save({
       patientId: who.id,
       eye: item.eye,
       protocolVersionId: pv.id,
@@ -232,9 +234,10 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
       note: item.note,
       createdById: clinician.id,
       signedById: signed ? clinician.id : null,
-      signedAt: signed ? new Date() : null,
+      signedAt: signed ? signedAt : null,
       signatureMeaning: signed ? 'ordered' : null,
     });
+    if (signed) await patients.recordMeasurement(dataSource.manager, { patientId: who.id, orderId: saved.id, measuredAt: signedAt }, item.inputs);
     added++;
   }
   if (added > 0) await audit.append({ actorUserId: null, action: 'demo.scenario-loaded', details: { added } });

@@ -5,6 +5,7 @@ import { computePlan } from '../../shared/engine/compute-plan';
 import { PlanInputError } from '../../shared/engine/plan-input-error';
 import { amendableStatuses } from '../../shared/orders/lifecycle';
 import { signatureProblems } from '../../shared/orders/readiness';
+import { lastRecordedWeight, weightChangeMessage, weightChangeNeedingReason, type WeightChange, type WeightChangeRule } from '../../shared/orders/weight-change';
 import type { DosePlan } from '../../shared/schemas/calculation';
 import type { AmendOrder, OrderDetail, OrderDraft, OrderListQuery, OrderStatus, OrderSummary } from '../../shared/schemas/orders';
 import type { Role } from '../../shared/roles';
@@ -78,8 +79,9 @@ export function createOrderService(deps: {
   audit: AuditRepository;
   reads: ReadAudit;
   unitTimeZone: string;
+  weightChangeRule: WeightChangeRule;
 }) {
-  const { dataSource, orders, patients, users, protocols, audit, reads } = deps;
+  const { dataSource, orders, patients, users, protocols, audit, reads, weightChangeRule } = deps;
 
   function plan(row: ProtocolForUse, inputs: OrderDraft['inputs']): DosePlan {
     try {
@@ -114,6 +116,15 @@ export function createOrderService(deps: {
     return Math.floor((Date.now() - last) / 86_400_000);
   }
 
+  /** The change from the patient's last recorded weight, when it needs a reason under the unit's rule. */
+  async function weightChangeOf(order: { id: number; patientId: number; previousRevisionId: number | null; inputs: OrderDraft['inputs'] }): Promise<WeightChange | null> {
+    if (!order.inputs.weight) return null;
+    // An amendment corrects its earlier revision; that one's weight is not a previous measurement.
+    const excludeOrderIds = [order.id, order.previousRevisionId].filter((id): id is number => typeof id === 'number');
+    const last = lastRecordedWeight(await patients.lastMeasurements(order.patientId, { limit: 1, excludeOrderIds, withWeight: true }));
+    return weightChangeNeedingReason(last, order.inputs.weight, Date.now(), weightChangeRule);
+  }
+
   async function mustFind(id: number): Promise<TreatmentOrder> {
     const order = await orders.findById(id);
     if (!order) throw AppError.notFound(`There is no order ${id}.`);
@@ -122,12 +133,13 @@ export function createOrderService(deps: {
 
   async function detail(order: TreatmentOrder, viewer: Actor): Promise<OrderDetail> {
     const withheld = planIsWithheldFrom(order, viewer);
-    const [checks, preparation, attachments, next, recentDays] = await Promise.all([
+    const [checks, preparation, attachments, next, recentDays, weightChange] = await Promise.all([
       orders.doseChecksFor(order.id),
       orders.preparationFor(order.id),
       orders.attachmentsFor(order.id),
       orders.nextRevisionOf(order.id),
       order.status === 'draft' ? recentTreatmentDays(order, order.protocolVersion) : Promise.resolve(null),
+      order.status === 'draft' ? weightChangeOf(order) : Promise.resolve(null),
     ]);
     const warnings = withheld ? [] : [...order.plan.warnings];
     if (recentDays !== null) {
@@ -137,13 +149,17 @@ export function createOrderService(deps: {
         message: `This eye had the same kind of treatment ${recentDays} days ago; the protocol's minimum interval is ${order.protocolVersion.definition.retreatmentMinDays} days.`,
       });
     }
+    if (weightChange !== null) warnings.push({ code: 'weight-change', field: 'weightChangeReason', message: weightChangeMessage(weightChange) });
+    const summary = toOrderSummary(order);
     return {
-      ...toOrderSummary(order),
+      ...summary,
       version: order.version,
+      patient: { ...summary.patient, dateOfBirth: order.patient.dateOfBirth },
       inputs: order.inputs,
       checklist: order.checklist,
       softLimitReasons: order.softLimitReasons,
       retreatmentReason: order.retreatmentReason,
+      weightChangeReason: order.weightChangeReason,
       note: order.note,
       plan: withheld ? null : order.plan,
       planWithheld: withheld,
@@ -196,6 +212,7 @@ export function createOrderService(deps: {
         checklist: input.checklist,
         softLimitReasons: input.softLimitReasons,
         retreatmentReason: input.retreatmentReason ?? null,
+        weightChangeReason: input.weightChangeReason ?? null,
         note: input.note ?? null,
         createdById: base.createdById ?? actor.id,
       });
@@ -291,6 +308,8 @@ export function createOrderService(deps: {
         softLimitReasons: order.softLimitReasons,
         retreatmentReason: order.retreatmentReason,
         recentTreatmentDays: await recentTreatmentDays(order, row),
+        weightChange: await weightChangeOf(order),
+        weightChangeReason: order.weightChangeReason,
       });
       if (problems.length > 0) throw AppError.badRequest(`The order cannot be signed yet: ${problems.map((p) => p.message).join('; ')}`, problems);
 
@@ -301,7 +320,10 @@ export function createOrderService(deps: {
         const locked = await orders.lockById(manager, id);
         if (locked?.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
         assertReadVersion(locked, readVersion);
-        await moveOrderStatus(manager, id, 'draft', status, { plan: frozen, engineVersion: frozen.engineVersion, protocolSha256: row.sha256, signedById: actor.id, signedAt: new Date(), signatureMeaning: 'ordered' });
+        const signedAt = new Date();
+        await moveOrderStatus(manager, id, 'draft', status, { plan: frozen, engineVersion: frozen.engineVersion, protocolSha256: row.sha256, signedById: actor.id, signedAt, signatureMeaning: 'ordered' });
+        // The patient's measurement history: what was signed, when.
+        await patients.recordMeasurement(manager, { patientId: order.patientId, orderId: id, measuredAt: signedAt }, order.inputs);
         if (order.previousRevisionId) {
           const previous = await orders.lockById(manager, order.previousRevisionId);
           if (previous) await moveOrderStatus(manager, previous.id, previous.status, 'superseded');
@@ -328,7 +350,7 @@ export function createOrderService(deps: {
         entityType: 'order',
         entityId: id,
         ipAddress: actor.ipAddress,
-        details: { meaning: 'ordered', status, protocol: `${row.key} v${row.version}`, engineVersion: frozen.engineVersion, contraindicationOverrides: overrides, softLimitReasons: order.softLimitReasons, retreatmentReason: order.retreatmentReason },
+        details: { meaning: 'ordered', status, protocol: `${row.key} v${row.version}`, engineVersion: frozen.engineVersion, contraindicationOverrides: overrides, softLimitReasons: order.softLimitReasons, retreatmentReason: order.retreatmentReason, weightChangeReason: order.weightChangeReason },
       });
       return detail(await mustFind(id), actor);
     },

@@ -35,5 +35,13 @@ export function patientRoutes(patients: PatientService): RouteSpec[] {
         res.json(await patients.history(parseInput(idParam, req.params.id, 'id'), { id: signedInUser(res).id, ipAddress: req.ip }));
       },
     },
+    {
+      method: 'get',
+      path: '/patients/:id/measurements',
+      access: 'patients.read',
+      handler: async (req, res) => {
+        res.json(await patients.measurements(parseInput(idParam, req.params.id, 'id')));
+      },
+    },
   ];
 }

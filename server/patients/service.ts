@@ -1,4 +1,5 @@
-import type { CreatePatient, Patient as PatientDto } from '../../shared/schemas/patients';
+import type { WeightChangeRule } from '../../shared/orders/weight-change';
+import type { CreatePatient, PatientMeasurements, Patient as PatientDto } from '../../shared/schemas/patients';
 import type { AuditRepository } from '../audit/repository';
 import type { Reader, ReadAudit } from '../audit/service';
 import type { Patient } from '../db/entities/patient';
@@ -22,8 +23,17 @@ export function toPatientDto(p: Patient): PatientDto {
 /** Orders that stand for a treatment given or on its way (not drafts, returns or replaced revisions). */
 export const treatmentStatuses = ['signed', 'checked', 'prepared', 'ready', 'in-session', 'completed', 'stopped', 'reviewed'] as const;
 
-export function createPatientService(patients: PatientRepository, orders: OrderRepository, audit: AuditRepository, reads: ReadAudit) {
+/** How many recorded measurements a new order shows beside its inputs. */
+const measurementsShown = 5;
+
+export function createPatientService(patients: PatientRepository, orders: OrderRepository, audit: AuditRepository, reads: ReadAudit, weightChangeRule: WeightChangeRule) {
   return {
+    /** The last heights and weights recorded on signed orders, newest first, with the rule a new weight is held to. */
+    async measurements(id: number): Promise<PatientMeasurements> {
+      if (!(await patients.findById(id))) throw AppError.notFound(`There is no patient with id ${id}.`);
+      return { measurements: await patients.lastMeasurements(id, { limit: measurementsShown }), weightChangeRule };
+    },
+
     async search(text?: string) {
       return (await patients.search(text?.trim() || undefined, 50)).map(toPatientDto);
     },

@@ -41,6 +41,7 @@ export function computeCxlPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
 
   if (body !== undefined) {
     plan.bsaFormula = inputs.bsaFormula ?? protocol.bsaFormulaDefault;
+    plan.bmiKgPerM2 = body.bmiKgPerM2;
     plan.bsaM2 = recordBsa(working, protocol, plan.bsaFormula, body);
   }
 

@@ -1,5 +1,6 @@
 import type { InputLimit, ProtocolVersion } from '../protocol/protocol-schema';
 import type { PlanInputs, PlanWarning, WorkingEntry } from '../schemas/calculation';
+import { recordBodyMassIndex } from './body-mass-index';
 import type { FieldProblem } from './plan-input-error';
 import { formatNumber } from './rounding';
 import { lengthToCm, massToKg, unitConversionSource } from './units';
@@ -94,6 +95,8 @@ export function refuseInputs(report: InputReport, inputs: PlanInputs, fields: (k
 export interface BodyMeasures {
   heightCm: number;
   weightKg: number;
+  /** Worked out from the two, once, with its own usual range (see body-mass-index.ts). */
+  bmiKgPerM2: number;
 }
 
 /**
@@ -144,5 +147,6 @@ export function readBodyMeasures(report: InputReport, protocol: ProtocolVersion,
       source: unitConversionSource,
     });
   }
-  return { heightCm, weightKg };
+  const bmiKgPerM2 = recordBodyMassIndex(report, protocol, { height, weight }, { heightCm, weightKg });
+  return { heightCm, weightKg, bmiKgPerM2 };
 }

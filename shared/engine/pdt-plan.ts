@@ -38,6 +38,7 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
   // Drug. Each line uses the rounded figure of the line before, as the pharmacist would.
   const bsaFormula = inputs.bsaFormula ?? protocol.bsaFormulaDefault;
   plan.bsaFormula = bsaFormula;
+  plan.bmiKgPerM2 = body.bmiKgPerM2;
   plan.bsaM2 = recordBsa(working, protocol, bsaFormula, body);
   plan.doseMg = record(working, {
     name: 'doseMg',

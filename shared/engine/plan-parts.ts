@@ -17,6 +17,7 @@ export function emptyPlan(protocol: ProtocolVersion): DosePlan {
     protocol: { key: protocol.key, version: protocol.version },
     bsaFormula: null,
     bsaM2: null,
+    bmiKgPerM2: null,
     doseMg: null,
     drugVolumeMl: null,
     diluentVolumeMl: null,

@@ -2,6 +2,7 @@ import type { FieldProblem } from '../engine/plan-input-error';
 import type { ProtocolVersion as ProtocolDefinition } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
 import type { ChecklistAnswer } from '../schemas/orders';
+import { weightChangeMessage, type WeightChange } from './weight-change';
 
 export interface ReadinessInput {
   definition: ProtocolDefinition;
@@ -11,6 +12,9 @@ export interface ReadinessInput {
   retreatmentReason: string | null;
   /** Days since this eye's last treatment of the same kind, when inside the protocol's interval. */
   recentTreatmentDays: number | null;
+  /** The change from the patient's last recorded weight, when it is beyond the unit's rule. */
+  weightChange: WeightChange | null;
+  weightChangeReason: string | null;
 }
 
 /**
@@ -45,6 +49,9 @@ export function signatureProblems(input: ReadinessInput): FieldProblem[] {
       path: 'retreatmentReason',
       message: `this eye had the same kind of treatment ${input.recentTreatmentDays} days ago, inside the protocol's minimum of ${input.definition.retreatmentMinDays} days — give a reason (5 to 500 characters)`,
     });
+  }
+  if (input.weightChange !== null && !input.weightChangeReason) {
+    problems.push({ path: 'weightChangeReason', message: weightChangeMessage(input.weightChange) });
   }
   return problems;
 }

@@ -46,6 +46,22 @@ const inputLimitSchema = z
   });
 export type InputLimit = z.infer<typeof inputLimitSchema>;
 
+/**
+ * A figure worked out from several inputs (the body-mass index) has only a usual range: each of
+ * its inputs already has a hard range, and an unusual combination is for the clinician to confirm.
+ */
+const softOnlyLimitSchema = z
+  .strictObject({ soft: rangeSchema })
+  .refine((limit) => limit.soft.min > 0, { message: 'soft.min must be greater than 0', path: ['soft', 'min'] });
+export type SoftOnlyLimit = z.infer<typeof softOnlyLimitSchema>;
+
+/**
+ * The usual adult body-mass index range for versions approved before the field existed (common
+ * practice, no single source). A version without inputLimits.bmiKgPerM2 is checked against this,
+ * and the warning says so; a site that wants another range publishes a new version.
+ */
+export const defaultBmiLimit: SoftOnlyLimit = { soft: { min: 16, max: 45 } };
+
 export const protocolKinds = ['pdt', 'cxl'] as const;
 export type ProtocolKind = (typeof protocolKinds)[number];
 
@@ -161,6 +177,8 @@ const inputLimitsSchema = z.strictObject({
   lesionGldUm: inputLimitSchema.nullable(),
   lensMagnification: inputLimitSchema.nullable(),
   stromalThicknessUm: inputLimitSchema.nullable(),
+  /** Usual body-mass index range; absent in versions approved before it existed (see defaultBmiLimit). */
+  bmiKgPerM2: softOnlyLimitSchema.optional(),
 });
 
 /** Deviation thresholds. Each is site policy, so it lives here and never in code. */

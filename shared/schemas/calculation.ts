@@ -94,6 +94,8 @@ export const dosePlanSchema = z.object({
   protocol: z.object({ key: z.string(), version: z.number().int() }),
   bsaFormula: z.enum(bsaFormulaNames).nullable(),
   bsaM2: nullableNumber,
+  /** Absent in plans frozen before the engine worked it out. */
+  bmiKgPerM2: nullableNumber.optional(),
   doseMg: nullableNumber,
   drugVolumeMl: nullableNumber,
   diluentVolumeMl: nullableNumber,

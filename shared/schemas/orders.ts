@@ -46,6 +46,8 @@ export const orderDraftSchema = z.strictObject({
   softLimitReasons: z.record(z.string().max(100), reason('softLimitReasons[field]')).default({}),
   /** Needed when this eye had the same kind of treatment within the protocol's minimum interval. */
   retreatmentReason: reason('retreatmentReason').nullable().optional(),
+  /** Needed when the weight differs from the patient's last recorded weight beyond the unit's rule. */
+  weightChangeReason: reason('weightChangeReason').nullable().optional(),
   note: z.string().trim().max(2000, 'note must be at most 2000 characters').nullable().optional(),
 });
 export type OrderDraft = z.infer<typeof orderDraftSchema>;
@@ -132,10 +134,13 @@ export type OrderSummary = z.infer<typeof orderSummarySchema>;
 export const orderDetailSchema = orderSummarySchema.extend({
   /** The row version: send it back with an edit, a signature or an amendment. */
   version: z.number(),
+  /** The date of birth too: the signature dialog and the printed order confirm identity with it. */
+  patient: patientSchema.pick({ id: true, recordNumber: true, givenName: true, familyName: true, dateOfBirth: true }),
   inputs: planInputsSchema,
   checklist: z.array(checklistAnswerSchema),
   softLimitReasons: z.record(z.string(), z.string()),
   retreatmentReason: z.string().nullable(),
+  weightChangeReason: z.string().nullable(),
   note: z.string().nullable(),
   /** The frozen dose plan; withheld (null) from a pharmacist until their blind check matches. */
   plan: dosePlanSchema.nullable(),

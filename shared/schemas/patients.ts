@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { heightUnits, weightUnits } from './calculation';
 
 export const eyes = ['right', 'left'] as const;
 export type Eye = (typeof eyes)[number];
@@ -29,3 +30,22 @@ export const patientSchema = z.object({
   emailConsent: z.boolean(),
 });
 export type Patient = z.infer<typeof patientSchema>;
+
+/** A height and weight recorded on a signed order: as typed, and in cm and kg. */
+export const recordedMeasurementSchema = z.object({
+  orderId: z.number().int(),
+  /** When the order was signed. */
+  measuredAt: z.string(),
+  height: z.object({ value: z.number(), unit: z.enum(heightUnits) }).nullable(),
+  heightCm: z.number().nullable(),
+  weight: z.object({ value: z.number(), unit: z.enum(weightUnits) }).nullable(),
+  weightKg: z.number().nullable(),
+});
+export type RecordedMeasurement = z.infer<typeof recordedMeasurementSchema>;
+
+/** GET /api/patients/:id/measurements: the last ones, newest first, and the unit's weight-change rule. */
+export const patientMeasurementsSchema = z.object({
+  measurements: z.array(recordedMeasurementSchema),
+  weightChangeRule: z.object({ maxPct: z.number(), withinDays: z.number() }),
+});
+export type PatientMeasurements = z.infer<typeof patientMeasurementsSchema>;

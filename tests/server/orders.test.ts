@@ -241,7 +241,11 @@ describe('what stops an order', () => {
     const blocked = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version });
     expect(blocked.status).toBe(400);
     expect(blocked.body.error.fields[0].path).toBe('softLimitReasons.inputs.weight.value');
-    const edited = await clinicianAgent.put(`/api/orders/${draft.body.order.id}`).send({ ...body, softLimitReasons: { 'inputs.weight.value': 'Weighed today on the ward scale: 160 kg.' }, version: draft.body.order.version });
+    // 160 kg at 170 cm is also a BMI of 55.4 kg/m², above the default usual range of 45 (common practice).
+    expect(blocked.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['softLimitReasons.inputs.weight.value', 'softLimitReasons.bmiKgPerM2']);
+    const edited = await clinicianAgent
+      .put(`/api/orders/${draft.body.order.id}`)
+      .send({ ...body, softLimitReasons: { 'inputs.weight.value': 'Weighed today on the ward scale: 160 kg.', bmiKgPerM2: 'Height and weight both measured today.' }, version: draft.body.order.version });
     expect(edited.status).toBe(200);
     expect((await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: edited.body.order.version })).status).toBe(200);
   });

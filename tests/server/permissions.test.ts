@@ -31,6 +31,7 @@ const expected: Record<string, 'public' | Role[]> = {
   'GET /api/patients': ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'],
   'POST /api/patients': ['clinician', 'admin'],
   'GET /api/patients/:id': ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'],
+  'GET /api/patients/:id/measurements': ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'],
   'GET /api/today': all,
   'GET /api/orders': ['clinician', 'nurse', 'pharmacist', 'auditor'],
   'POST /api/orders': ['clinician'],

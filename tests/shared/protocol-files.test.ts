@@ -52,8 +52,24 @@ const checkValues: Record<string, { source: string; expected: Partial<DosePlan> 
 describe('the shipped protocol files', () => {
   const files = shippedProtocolFiles();
 
-  it('include every protocol the unit needs, each at version 1', () => {
-    expect(files).toEqual(Object.keys(checkValues).map((key) => `${key}.v1.json`).sort());
+  it('include every protocol the unit needs, each at version 1 and at version 2 (which adds the BMI range)', () => {
+    expect(files).toEqual(Object.keys(checkValues).flatMap((key) => [`${key}.v1.json`, `${key}.v2.json`]).sort());
+  });
+
+  it('version 2 of each differs from version 1 only by the BMI range, its source and the approval date', () => {
+    for (const key of Object.keys(checkValues)) {
+      const v1 = protocolVersionSchema.parse(readProtocolJson(`${key}.v1.json`));
+      const v2 = protocolVersionSchema.parse(readProtocolJson(`${key}.v2.json`));
+      // Demo soft limits 16–45 kg/m² (common practice; BMI as the World Health Organization defines it).
+      expect(v2.inputLimits.bmiKgPerM2).toEqual({ soft: { min: 16, max: 45 } });
+      expect(v2.sources.find((s) => s.id === 'bmi-usual-range')?.status).toBe('practice');
+      const { inputLimits: { bmiKgPerM2: _bmi, ...limits2 }, sources: sources2, approval: approval2, version: _v2, ...rest2 } = v2;
+      const { inputLimits: limits1, sources: sources1, approval: approval1, version: _v1, ...rest1 } = v1;
+      expect(rest2).toEqual(rest1);
+      expect(limits2).toEqual(limits1);
+      expect(sources2.filter((s) => s.id !== 'bmi-usual-range')).toEqual(sources1);
+      expect({ ...approval2, approvedOn: approval1?.approvedOn }).toEqual(approval1);
+    }
   });
 
   describe.each(files)('%s', (file) => {
@@ -86,7 +102,7 @@ describe('the shipped protocol files', () => {
 
       for (const source of sources) expect(source.citation).toMatch(/\[(published|from memory|common practice)[^\]]*\]/);
       for (const name of approval.approvedBy) expect(name).toMatch(/\(demo\)$/);
-      expect(approval.approvedOn).toBe('2026-11-20');
+      expect(approval.approvedOn).toBe(parsed.data.version === 1 ? '2026-11-20' : '2026-12-03');
       expect(approval.note).toMatch(/demo/i);
       expect(approval.note).toMatch(/labelling and local policy/);
     });

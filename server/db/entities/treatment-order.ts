@@ -71,6 +71,10 @@ export class TreatmentOrder {
   @Column({ name: 'retreatment_reason', type: 'varchar', length: 500, nullable: true })
   retreatmentReason!: string | null;
 
+  /** Needed when the weight differs from the patient's last recorded weight beyond the unit's rule. */
+  @Column({ name: 'weight_change_reason', type: 'varchar', length: 500, nullable: true })
+  weightChangeReason!: string | null;
+
   @Column({ type: 'text', nullable: true })
   note!: string | null;
 

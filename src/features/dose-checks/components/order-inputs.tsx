@@ -1,4 +1,5 @@
 import { bsaFormulas, type BsaFormulaName } from '../../../../shared/engine/bsa';
+import { formatMeasureWithConversion } from '../../../../shared/engine/units';
 import type { PlanInputs } from '../../../../shared/schemas/calculation';
 import { quantity } from './display-format';
 
@@ -20,9 +21,9 @@ export function OrderInputs({ inputs, defaultFormula }: OrderInputsProps) {
       </h2>
       <dl className="mt-3 grid grid-cols-[minmax(0,11rem)_1fr] gap-x-5 gap-y-2">
         <dt className="text-paper-700">Height</dt>
-        <dd className="numerals-steady font-semibold text-paper-950">{inputs.height ? quantity(inputs.height.value, inputs.height.unit) : 'Not given'}</dd>
+        <dd className="numerals-steady font-semibold text-paper-950">{inputs.height ? formatMeasureWithConversion(inputs.height) : 'Not given'}</dd>
         <dt className="text-paper-700">Weight</dt>
-        <dd className="numerals-steady font-semibold text-paper-950">{inputs.weight ? quantity(inputs.weight.value, inputs.weight.unit) : 'Not given'}</dd>
+        <dd className="numerals-steady font-semibold text-paper-950">{inputs.weight ? formatMeasureWithConversion(inputs.weight) : 'Not given'}</dd>
         <dt className="text-paper-700">BSA formula</dt>
         <dd className="text-paper-950">
           {formula ? (

@@ -11,6 +11,8 @@ import type { GivenRecord } from '../api/dose-record-schemas';
 import { doseRecordQueries } from '../api/dose-record-queries';
 import { eyeWords, severityWords, typeWords } from './dose-record-words';
 import { PlanAndGiven } from '../../../components/plan-and-given';
+import { bmiText } from '../../../../shared/engine/body-mass-index';
+import { formatMeasureWithConversion } from '../../../../shared/engine/units';
 import { eventWordsOf } from '../../../lib/session-event-words';
 import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from '../../../lib/unit-times';
 
@@ -121,6 +123,16 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
 
         <Part id="record-people" title="Order and preparation">
           <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1">
+            {(o.inputs.height || o.inputs.weight) && (
+              <>
+                <dt className="text-paper-700">Measured</dt>
+                <dd>
+                  {[o.inputs.height ? `height ${formatMeasureWithConversion(o.inputs.height)}` : null, o.inputs.weight ? `weight ${formatMeasureWithConversion(o.inputs.weight)}` : null, typeof o.plan?.bmiKgPerM2 === 'number' ? `BMI ${bmiText(o.plan.bmiKgPerM2)}` : null]
+                    .filter(Boolean)
+                    .join(', ')}
+                </dd>
+              </>
+            )}
             <dt className="text-paper-700">Signed</dt>
             <dd>
               {o.signedBy?.displayName ?? '—'}

@@ -4,6 +4,7 @@ import { findPatients, getPatient } from './find-patients';
 import { getOrder } from './get-order';
 import { getOrderSession } from './get-order-session';
 import { getOrders } from './get-orders';
+import { getPatientMeasurements } from './get-patient-measurements';
 import { getProtocolChoices } from './get-protocol-choices';
 import { getProtocolDefinition } from './get-protocol-definition';
 
@@ -55,5 +56,10 @@ export const orderQueries = {
     queryOptions({
       queryKey: [...orderQueries.all(), 'patient', id] as const,
       queryFn: ({ signal }) => getPatient(id, { signal }),
+    }),
+  patientMeasurements: (patientId: number) =>
+    queryOptions({
+      queryKey: [...orderQueries.all(), 'patient', patientId, 'measurements'] as const,
+      queryFn: ({ signal }) => getPatientMeasurements(patientId, { signal }),
     }),
 };

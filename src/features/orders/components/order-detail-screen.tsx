@@ -117,6 +117,8 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
   const canAmend = canWrite && amendableStatuses.includes(detail.status) && detail.nextRevisionId === null;
 
   const retreatment = detail.warnings.find((w) => w.code === 'retreatment-interval');
+  // The server compares the weight with the patient's record and says so in the draft's warnings.
+  const weightChange = detail.warnings.find((w) => w.code === 'weight-change');
   const knownProblems =
     isDraft && definition && detail.plan
       ? [
@@ -127,8 +129,11 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
             softLimitReasons: detail.softLimitReasons,
             retreatmentReason: detail.retreatmentReason,
             recentTreatmentDays: null,
+            weightChange: null,
+            weightChangeReason: detail.weightChangeReason,
           }).map((p) => p.message),
           ...(retreatment && !detail.retreatmentReason ? [`${retreatment.message} Give a retreatment reason.`] : []),
+          ...(weightChange && !detail.weightChangeReason ? [weightChange.message] : []),
         ]
       : [];
 
@@ -147,6 +152,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
     if (head === 'checklist') return 'Checklist';
     if (head === 'softLimitReasons') return `Reason for the ${fieldWords[rest.join('.')] ?? rest.join('.')}`;
     if (head === 'retreatmentReason') return 'Retreatment reason';
+    if (head === 'weightChangeReason') return 'Reason for the change in weight';
     if (head === 'inputs') return 'Measurements';
     return head ?? path;
   };

@@ -25,6 +25,7 @@ export type OrderFormValues = {
   checklist: Record<string, { answer: '' | 'yes' | 'no'; overrideReason: string }>;
   softLimitReasons: Record<string, string>;
   retreatmentReason: string;
+  weightChangeReason: string;
   note: string;
   amendmentReason: string;
 };
@@ -64,6 +65,7 @@ export function emptyOrderForm(patientId?: number): OrderFormValues {
     checklist: {},
     softLimitReasons: {},
     retreatmentReason: '',
+    weightChangeReason: '',
     note: '',
     amendmentReason: '',
   };
@@ -105,6 +107,7 @@ export function settleFormValues(raw: unknown): OrderFormValues {
     checklist,
     softLimitReasons: Object.fromEntries(Object.entries(reasonsIn).map(([key, reason]) => [key, asText(reason)])),
     retreatmentReason: asText(v.retreatmentReason),
+    weightChangeReason: asText(v.weightChangeReason),
     note: asText(v.note),
     amendmentReason: asText(v.amendmentReason),
   };
@@ -131,6 +134,7 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
     checklist: Object.fromEntries(order.checklist.map((a) => [a.id, { answer: a.answer, overrideReason: a.overrideReason ?? '' }])),
     softLimitReasons: Object.fromEntries(Object.entries(order.softLimitReasons).map(([field, reason]) => [reasonKey(field), reason])),
     retreatmentReason: order.retreatmentReason ?? '',
+    weightChangeReason: order.weightChangeReason ?? '',
     note: order.note ?? '',
     amendmentReason: '',
   };
@@ -214,6 +218,7 @@ export function formToDraft(raw: OrderFormValues, context: OrderFormContext): Or
     checklist,
     softLimitReasons,
     retreatmentReason: blankToNull(values.retreatmentReason),
+    weightChangeReason: blankToNull(values.weightChangeReason),
     note: blankToNull(values.note),
   };
   return context.mode === 'amend' ? { ...draft, amendmentReason: values.amendmentReason.trim() } : draft;
@@ -227,6 +232,7 @@ export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>
     case 'patientId':
     case 'eye':
     case 'retreatmentReason':
+    case 'weightChangeReason':
     case 'note':
     case 'amendmentReason':
       return head;
@@ -265,6 +271,7 @@ export const messageLabels: Record<string, string> = {
   'checklist[].overrideReason': 'The reason',
   'softLimitReasons[field]': 'The reason',
   retreatmentReason: 'The retreatment reason',
+  weightChangeReason: 'The reason for the change in weight',
   note: 'The note',
   amendmentReason: 'The amendment reason',
 };

@@ -3,6 +3,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { bsaFormulaNames, bsaFormulas } from '../../../../shared/engine/bsa';
 import { signatureProblems } from '../../../../shared/orders/readiness';
+import { weightChangeMessage } from '../../../../shared/orders/weight-change';
 import type { InputLimit } from '../../../../shared/protocol/protocol-schema';
 import type { AmendOrder, OrderDetail, OrderDraft } from '../../../../shared/schemas/orders';
 import { Alert } from '../../../components/ui/alert';
@@ -15,6 +16,7 @@ import { readableMessage } from '../../../lib/form-errors';
 import { orderQueries } from '../api/order-queries';
 import type { ProtocolChoices } from '../api/order-response-schemas';
 import { usePlanPreview } from '../hooks/use-plan-preview';
+import { useLastMeasurements } from '../hooks/use-last-measurements';
 import { useSaveOrder } from '../hooks/use-save-order';
 import { ContraindicationChecklist } from './contraindication-checklist';
 import {
@@ -32,6 +34,7 @@ import {
   type OrderFormValues,
 } from './order-form-values';
 import { fieldWords } from './order-words';
+import { LastMeasurements } from './last-measurements';
 import { MeasureField } from './measure-field';
 import { PatientPicker } from './patient-picker';
 import { PlanPreviewPanel } from './plan-preview-panel';
@@ -128,6 +131,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
 
   const { inputs } = formToInputs(values, kind);
   const preview = usePlanPreview(definition, inputs);
+  const last = useLastMeasurements(/^\d+$/.test(values.patientId) ? Number(values.patientId) : null, inputs.weight, [source?.id, source?.previousRevisionId]);
 
   const retreatmentWarning = source?.status === 'draft' ? source.warnings.find((w) => w.code === 'retreatment-interval') : undefined;
   const softLimitWarnings = useMemo(() => {
@@ -163,10 +167,12 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
       softLimitReasons: draft.softLimitReasons,
       retreatmentReason: draft.retreatmentReason ?? null,
       recentTreatmentDays: null,
+      weightChange: last.weightChange,
+      weightChangeReason: draft.weightChangeReason ?? null,
     }).map((p) => p.message);
     if (retreatmentWarning && !draft.retreatmentReason) problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
     return problems;
-  }, [definition, preview, values, retreatmentWarning]);
+  }, [definition, preview, values, retreatmentWarning, last.weightChange]);
 
   const onSubmit = handleSubmit((formValues) => {
     const { draft } = checkOrderForm(formValues, contextRef.current);
@@ -311,6 +317,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
             </SelectField>
           </div>
 
+          {/^\d+$/.test(values.patientId) && <LastMeasurements last={last} />}
+
           {kind === 'pdt' && (
             <div className="grid gap-5 sm:grid-cols-2">
               <MeasureField
@@ -349,7 +357,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
           </Section>
         )}
 
-        {(softLimitWarnings.length > 0 || retreatmentWarning || values.retreatmentReason.trim() !== '') && (
+        {(softLimitWarnings.length > 0 || retreatmentWarning || values.retreatmentReason.trim() !== '' || last.weightChange || values.weightChangeReason.trim() !== '') && (
           <Section id="reasons" title="Reasons to go on" lead="Each warning below needs a reason before the order can be signed.">
             {softLimitWarnings.map((warning) => (
               <div key={warning.field} className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
@@ -366,6 +374,17 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
               <div className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
                 {retreatmentWarning && <p className="text-sm text-paper-900">{retreatmentWarning.message}</p>}
                 <TextAreaField label="Reason to treat again within the minimum interval" hint="5 to 500 characters" error={fieldError('retreatmentReason')} {...register('retreatmentReason')} />
+              </div>
+            )}
+            {(last.weightChange || values.weightChangeReason.trim() !== '') && (
+              <div className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
+                {last.weightChange && <p className="text-sm text-paper-900">{sentence(weightChangeMessage(last.weightChange))}.</p>}
+                <TextAreaField
+                  label="Reason for the change in weight since the last one recorded"
+                  hint="5 to 500 characters, e.g. how and when the patient was weighed"
+                  error={fieldError('weightChangeReason')}
+                  {...register('weightChangeReason')}
+                />
               </div>
             )}
           </Section>
@@ -407,7 +426,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
       </form>
 
       <div className="space-y-6">
-        <PlanPreviewPanel preview={preview} protocolChosen={chosenRef !== null} missing={missing} signatureProblems={readiness} />
+        <PlanPreviewPanel preview={preview} inputs={inputs} protocolChosen={chosenRef !== null} missing={missing} signatureProblems={readiness} />
         <TreatmentCautions kind={kind} protocolCautions={definition?.cautions} />
       </div>
     </div>

@@ -1,5 +1,7 @@
 import { Link } from 'react-router-dom';
+import { bmiText } from '../../../../shared/engine/body-mass-index';
 import { bsaFormulas } from '../../../../shared/engine/bsa';
+import { formatMeasureWithConversion } from '../../../../shared/engine/units';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
 import { AlertIcon, CheckCircleIcon } from '../../../components/ui/icons';
@@ -24,8 +26,9 @@ function Card({ id, title, children }: { id: string; title: string; children: Re
 export function OrderInputs({ order }: { order: OrderDetail }) {
   const { inputs } = order;
   const rows: [string, string][] = [];
-  if (inputs.height) rows.push(['Height', `${formatFigure(inputs.height.value)} ${inputs.height.unit}`]);
-  if (inputs.weight) rows.push(['Weight', `${formatFigure(inputs.weight.value)} ${inputs.weight.unit}`]);
+  if (inputs.height) rows.push(['Height', formatMeasureWithConversion(inputs.height)]);
+  if (inputs.weight) rows.push(['Weight', formatMeasureWithConversion(inputs.weight)]);
+  if (typeof order.plan?.bmiKgPerM2 === 'number') rows.push(['Body-mass index', bmiText(order.plan.bmiKgPerM2)]);
   if (inputs.bsaFormula) rows.push(['BSA formula', bsaFormulas[inputs.bsaFormula].label]);
   else if (order.kind === 'pdt') rows.push(['BSA formula', 'Protocol default']);
   if (inputs.lesionGldUm !== undefined) rows.push(['Lesion greatest linear dimension', `${formatFigure(inputs.lesionGldUm)} µm`]);
@@ -100,7 +103,7 @@ export function ChecklistAnswers({ order, definition }: { order: OrderDetail; de
 /** Reasons recorded for soft-limit warnings and for a retreatment inside the interval, and the note. */
 export function OrderReasons({ order }: { order: OrderDetail }) {
   const reasons = Object.entries(order.softLimitReasons);
-  if (reasons.length === 0 && !order.retreatmentReason && !order.note) return null;
+  if (reasons.length === 0 && !order.retreatmentReason && !order.weightChangeReason && !order.note) return null;
   return (
     <Card id="order-reasons" title="Reasons and note">
       <dl className="space-y-2">
@@ -114,6 +117,12 @@ export function OrderReasons({ order }: { order: OrderDetail }) {
           <div>
             <dt className="text-sm text-paper-600">Reason to treat again within the minimum interval</dt>
             <dd className="text-paper-950">{order.retreatmentReason}</dd>
+          </div>
+        )}
+        {order.weightChangeReason && (
+          <div>
+            <dt className="text-sm text-paper-600">Reason for the change in weight since the last one recorded</dt>
+            <dd className="text-paper-950">{order.weightChangeReason}</dd>
           </div>
         )}
         {order.note && (

@@ -45,4 +45,5 @@ export const fieldWords: Record<string, string> = {
   'inputs.lensMagnification': 'lens laser-spot magnification',
   'inputs.stromalThicknessUm': 'stromal thickness',
   'inputs.bsaFormula': 'BSA formula',
+  bmiKgPerM2: 'body-mass index',
 };

@@ -1,12 +1,16 @@
 import type { FieldProblem } from '../../../../shared/engine/plan-input-error';
+import type { PlanInputs } from '../../../../shared/schemas/calculation';
 import { AlertIcon, CheckCircleIcon, InfoIcon, SpinnerIcon } from '../../../components/ui/icons';
 import type { PlanPreview } from '../hooks/use-plan-preview';
+import { BodyMeasures } from './body-measures';
 import { PlanFigures, PlanWarnings, PlanWorking } from './plan-view';
 
 const sentence = (message: string) => message.charAt(0).toUpperCase() + message.slice(1);
 
 type PlanPreviewPanelProps = {
   preview: PlanPreview;
+  /** What the plan was worked out from: height and weight are shown in both units. */
+  inputs: PlanInputs;
   protocolChosen: boolean;
   /** Problems the engine reported for boxes still empty: what is needed before a plan can be shown. */
   missing: readonly FieldProblem[];
@@ -14,7 +18,7 @@ type PlanPreviewPanelProps = {
   signatureProblems: readonly string[] | null;
 };
 
-export function PlanPreviewPanel({ preview, protocolChosen, missing, signatureProblems }: PlanPreviewPanelProps) {
+export function PlanPreviewPanel({ preview, inputs, protocolChosen, missing, signatureProblems }: PlanPreviewPanelProps) {
   return (
     <section aria-labelledby="plan-preview-heading" className="space-y-4 rounded-2xl border border-iris-200 bg-white p-5">
       <div>
@@ -58,6 +62,7 @@ export function PlanPreviewPanel({ preview, protocolChosen, missing, signaturePr
         </div>
       ) : (
         <div className="space-y-4">
+          <BodyMeasures inputs={inputs} bmiKgPerM2={preview.plan.bmiKgPerM2} className="rounded-lg border border-paper-200 px-3 py-2" />
           <PlanFigures plan={preview.plan} compact />
           <PlanWarnings warnings={preview.plan.warnings} title="The plan warns" />
           <PlanWorking working={preview.plan.working} compact />

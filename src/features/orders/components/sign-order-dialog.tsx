@@ -8,7 +8,10 @@ import { TextField } from '../../../components/ui/text-field';
 import { paths } from '../../../config/paths';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { useSignOrder } from '../hooks/use-sign-order';
+import { BodyMeasures } from './body-measures';
 import { eyeWords } from './order-words';
+import { formatFigure } from './plan-numbers';
+import { formatCalendarDate } from './unit-dates';
 
 type SignOrderDialogProps = {
   order: OrderDetail;
@@ -93,6 +96,8 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
           <dd className="font-medium text-paper-950">
             {order.patient.familyName}, {order.patient.givenName} · {order.patient.recordNumber}
           </dd>
+          <dt className="text-paper-600">Date of birth</dt>
+          <dd className="font-medium text-paper-950">{formatCalendarDate(order.patient.dateOfBirth)}</dd>
           <dt className="text-paper-600">Eye</dt>
           <dd className="text-lg font-semibold text-paper-950">{eyeWords[order.eye]}</dd>
           <dt className="text-paper-600">Protocol</dt>
@@ -100,6 +105,45 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
             {order.protocol.title}, version {order.protocol.version}
           </dd>
         </dl>
+
+        <section aria-labelledby="signed-figures-heading" className="rounded-lg border border-iris-200 bg-iris-50 px-4 py-3">
+          <h3 id="signed-figures-heading" className="mb-1 font-semibold text-paper-950">
+            What you sign for
+          </h3>
+          <div className="grid gap-y-1 sm:grid-cols-[max-content_max-content] sm:gap-x-10">
+            <BodyMeasures inputs={order.inputs} bmiKgPerM2={order.plan?.bmiKgPerM2} className="content-start" />
+            {order.plan && (
+              <dl className="grid content-start grid-cols-[max-content_1fr] gap-x-4 gap-y-1">
+                {order.plan.doseMg !== null && order.plan.drugVolumeMl !== null ? (
+                  <>
+                    <dt className="text-paper-600">Verteporfin dose</dt>
+                    <dd className="numerals-steady text-lg font-semibold text-paper-950">{formatFigure(order.plan.doseMg)} mg</dd>
+                    <dt className="text-paper-600">Drug volume</dt>
+                    <dd className="numerals-steady text-lg font-semibold text-paper-950">{formatFigure(order.plan.drugVolumeMl)} mL</dd>
+                    {order.plan.diluentVolumeMl !== null && (
+                      <>
+                        <dt className="text-paper-600">Diluent</dt>
+                        <dd className="numerals-steady text-paper-950">{formatFigure(order.plan.diluentVolumeMl)} mL</dd>
+                      </>
+                    )}
+                  </>
+                ) : (
+                  <>
+                    <dt className="text-paper-600">Drug</dt>
+                    <dd className="text-paper-950">None in this protocol</dd>
+                  </>
+                )}
+                {order.plan.fluenceJPerCm2 !== null && (
+                  <>
+                    <dt className="text-paper-600">Fluence</dt>
+                    <dd className="numerals-steady font-semibold text-paper-950">{formatFigure(order.plan.fluenceJPerCm2)} J/cm²</dd>
+                  </>
+                )}
+              </dl>
+            )}
+          </div>
+          <p className="mt-1 text-sm text-paper-700">As saved in the draft; the server works the plan out again as you sign.</p>
+        </section>
 
         {knownProblems.length > 0 && otherProblems.length === 0 && (
           <Alert tone="info" title="The server will refuse the signature until these are settled" live="none">
