@@ -1,4 +1,3 @@
-import bcrypt from 'bcryptjs';
 import { DateTime } from 'luxon';
 import type { DataSource, EntityManager } from 'typeorm';
 import { computePlan } from '../../shared/engine/compute-plan';
@@ -61,8 +60,10 @@ export function createOrderService(deps: {
   protocols: ProtocolService;
   audit: AuditRepository;
   unitTimeZone: string;
+  /** Checks the signer's own password, throttled like a sign-in (server/auth/service.ts). */
+  confirmSignature: (userId: number, password: string, ipAddress: string | undefined) => Promise<boolean>;
 }) {
-  const { dataSource, orders, patients, users, protocols, audit } = deps;
+  const { dataSource, orders, patients, users, protocols, audit, confirmSignature } = deps;
 
   function plan(row: ProtocolForUse, inputs: OrderDraft['inputs']): DosePlan {
     try {
@@ -226,7 +227,7 @@ export function createOrderService(deps: {
 
     async sign(actor: Actor, id: number, password: string) {
       const user = await users.findById(actor.id);
-      if (!user || !(await bcrypt.compare(password, user.passwordHash))) {
+      if (!user || !(await confirmSignature(actor.id, password, actor.ipAddress ?? undefined))) {
         await audit.append({ actorUserId: actor.id, action: 'order.signature-refused', entityType: 'order', entityId: id, ipAddress: actor.ipAddress });
         throw AppError.badRequest('The password is not right; the order was not signed.', [{ path: 'password', message: 'password must be your sign-in password' }]);
       }
