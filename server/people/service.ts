@@ -17,7 +17,7 @@ export function toPerson(user: User, pending: RoleRequest | null = null): Person
     displayName: user.displayName,
     roles: user.roles,
     active: user.active,
-    passwordSet: user.passwordChangedAt !== null,
+    accountReady: user.passwordChangedAt !== null,
     pendingRoleRequest: pending ? { id: pending.id, roles: pending.roles, requestedBy: pending.requestedBy } : null,
     createdAt: user.createdAt.toISOString(),
     updatedAt: user.updatedAt.toISOString(),

@@ -46,8 +46,8 @@ export const personSchema = z.object({
   displayName: z.string(),
   roles: z.array(z.enum(roles)),
   active: z.boolean(),
-  /** False until the person has used their link to set a password. */
-  passwordSet: z.boolean(),
+  /** False until the person has set their own sign-in secret through their e-mailed link. */
+  accountReady: z.boolean(),
   /** Roles waiting for a second administrator's approval, if any. */
   pendingRoleRequest: z.object({ id: z.number().int(), roles: z.array(z.enum(roles)), requestedBy: z.number().int() }).nullable(),
   createdAt: z.string(),
