@@ -102,11 +102,11 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
                   {person.active ? 'Deactivate' : 'Reactivate'}
                 </Button>
                 {person.active && (
-                  <Button variant="secondary" size="sm" aria-label={`E-mail ${person.displayName} a link to set a password`} onClick={() => onSendLink(person)}>
+                  <Button variant="secondary" size="sm" aria-label={`Send password link to ${person.displayName}`} onClick={() => onSendLink(person)}>
                     Send password link
                   </Button>
                 )}
-                <Button variant="secondary" size="sm" aria-label={`Sign ${person.displayName} out everywhere`} onClick={() => onEndSessions(person)}>
+                <Button variant="secondary" size="sm" aria-label={`Sign out everywhere: ${person.displayName}`} onClick={() => onEndSessions(person)}>
                   Sign out everywhere
                 </Button>
               </div>
