@@ -5,6 +5,8 @@ import bcrypt from 'bcryptjs';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sessionCookieName } from '../../server/auth/session';
+import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../../server/demo/seed';
+import { createFirstAdmin } from '../../server/people/first-admin';
 import { startApiProcess, type ApiProcess } from '../../server/ops/api-process';
 import { dataDir } from '../../server/ops/paths';
 import { createTestPatient, createTestPerson, pdtOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
@@ -286,6 +288,40 @@ describe('clinical roles need a second administrator', () => {
   });
 });
 
+describe('with demo data off', () => {
+  it('demo people left from an earlier run can no longer sign in, and their sessions end', async () => {
+    await seedDemoData(ctx.dataSource);
+    const nurse = demoPeople.find((p) => p.roles.includes('nurse'))!;
+    await ctx.dataSource.query('UPDATE user SET active = 1 WHERE email = ?', [nurse.email]);
+    const agent = supertest.agent(ctx.app);
+    expect((await agent.post('/api/auth/login').send({ email: nurse.email, password: demoPassword })).status).toBe(200);
+    try {
+      expect(await retireDemoPeople(ctx.dataSource)).toBeGreaterThan(0);
+      expect((await agent.get('/api/auth/me')).status).toBe(401);
+      expect((await supertest(ctx.app).post('/api/auth/login').send({ email: nurse.email, password: demoPassword })).status).toBe(401);
+    } finally {
+      // Other files' tests load the demo people as they were.
+      await ctx.dataSource.query('UPDATE user SET active = 1 WHERE email IN (?)', [demoPeople.map((p) => p.email)]);
+    }
+  });
+
+  it('the command for the first administrator makes an admin with no known password and no clinical role, and a link that works once', async () => {
+    const email = newEmail();
+    const { url, created } = await createFirstAdmin(ctx.dataSource, ctx.config, { email, displayName: 'First Admin' });
+    expect(created).toBe(true);
+    const [row] = await ctx.dataSource.query('SELECT id, roles, password_hash AS passwordHash, password_changed_at AS changed FROM user WHERE email = ?', [email]);
+    expect(row).toMatchObject({ roles: 'admin', passwordHash: '!unset', changed: null });
+    const token = /#([A-Za-z0-9_-]{43})$/.exec(url)![1]!;
+    const password = goodPassword();
+    expect((await supertest(ctx.app).post('/api/auth/password-link').send({ token, password })).status).toBe(204);
+    expect((await supertest(ctx.app).post('/api/auth/password-link').send({ token, password })).status).toBe(410);
+    const login = await supertest(ctx.app).post('/api/auth/login').send({ email, password });
+    expect(login.status).toBe(200);
+    expect(login.body.user.roles).toEqual(['admin']);
+    expect(await auditActions(row.id)).toContain('person.created');
+  });
+});
+
 describe('sessions are kept on the server', () => {
   it('signing out ends that session at once: the same cookie replayed is 401', async () => {
     const person = await createTestPerson(ctx, ['nurse']);
@@ -347,6 +383,19 @@ describe('sessions are kept on the server', () => {
     expect((await agent.get('/api/auth/me')).status).toBe(401);
     const [row] = await ctx.dataSource.query('SELECT revoked_reason FROM sign_in_session WHERE user_id = ?', [person.id]);
     expect(row.revoked_reason).toBe('deactivated');
+  });
+
+  it('the check every call makes is one query on the unique token hash, joined to the person by primary key', async () => {
+    const person = await createTestPerson(ctx, ['nurse']);
+    await signedInAgent(ctx, person);
+    const [{ token_hash: tokenHash }] = await ctx.dataSource.query('SELECT token_hash FROM sign_in_session WHERE user_id = ?', [person.id]);
+    const plan: { table: string; type: string; key: string | null }[] = await ctx.dataSource.query(
+      `EXPLAIN SELECT s.id, u.id, u.email, u.display_name, u.roles, u.active, TIMESTAMPDIFF(SECOND, s.last_seen_at, NOW(3)), s.expires_at <= NOW(3), s.revoked_at IS NOT NULL
+         FROM sign_in_session s JOIN user u ON u.id = s.user_id WHERE s.token_hash = ?`,
+      [tokenHash],
+    );
+    expect(plan.find((row) => row.table === 's')).toMatchObject({ type: 'const', key: 'uq_sign_in_session_token' });
+    expect(plan.find((row) => row.table === 'u')).toMatchObject({ type: 'const', key: 'PRIMARY' });
   });
 
   it('a JWT signed with the right secret but naming no stored session is refused', async () => {
