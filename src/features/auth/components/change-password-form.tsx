@@ -47,7 +47,7 @@ export function ChangePasswordForm() {
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex max-w-md flex-col gap-5">
-      <div role="status">
+      <div role="status" className={change.isSuccess ? '' : 'sr-only'}>
         {change.isSuccess && (
           <Alert tone="info" title="Your password was changed" live="none">
             You stay signed in here; every other place you were signed in has been signed out.

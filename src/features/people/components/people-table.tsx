@@ -89,7 +89,7 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
           cell: ({ row }) => {
             const person = row.original;
             return (
-              <div className="flex flex-wrap justify-end gap-2">
+              <div className="grid grid-cols-[auto_auto] justify-end gap-2">
                 <Button variant="secondary" size="sm" icon={<PencilIcon className="size-4" />} aria-label={`Edit ${person.displayName}`} onClick={() => onEdit(person)}>
                   Edit
                 </Button>
