@@ -118,6 +118,7 @@ describe('an account from first link to being signed out everywhere', () => {
     for (const page of [person, deskPage]) {
       await page.reload();
       await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+      await expect.poll(() => page.getByText('You were signed out').count()).toBe(1);
     }
     // Their 401s on reload are expected; nothing else went wrong.
     expect(adminProblems).toEqual([]);

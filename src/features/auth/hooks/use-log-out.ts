@@ -1,6 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { paths } from '../../../config/paths';
 import { setCurrentPersonId } from '../../../lib/current-person';
+import { forgetWhySessionEnded } from '../../../lib/session-ended';
 import { clearAfterSignOut, sendBeforeSignOut } from '../../../lib/sign-out';
 import { logOut } from '../api/log-out';
 
@@ -18,6 +19,8 @@ export function useLogOut(personId: number) {
     onSuccess: () => {
       setCurrentPersonId(null);
       clearAfterSignOut(personId);
+      // Signed out on purpose: the sign-in page has nothing to explain.
+      forgetWhySessionEnded();
       window.location.assign(paths.signIn.getHref());
     },
   });

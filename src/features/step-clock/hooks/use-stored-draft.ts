@@ -1,11 +1,14 @@
 import { useCallback, useRef, useState } from 'react';
+import { currentPersonId } from '../../../lib/current-person';
 
 /**
  * State that survives a reload of this tab (sessionStorage): ticks and typed text on the way to
- * a tap are not lost if the tablet reloads before the nurse presses the button.
+ * a tap are not lost if the tablet reloads before the nurse presses the button. Kept under the
+ * signed-in person's id: whoever signs in next on the tablet starts the checks afresh, and
+ * signing out drops them all.
  */
 export function useStoredDraft<T>(key: string, initial: T): [T, (next: T) => void, () => void] {
-  const storageKey = `luxtempo.step-clock.draft.${key}`;
+  const storageKey = `luxtempo.step-clock.draft.${currentPersonId() ?? 'nobody'}.${key}`;
   // Call sites pass a fresh literal each render; the first one is the value to go back to.
   const initialValue = useRef(initial).current;
   const [value, setValue] = useState<T>(() => {
