@@ -492,6 +492,7 @@ describe('two API processes on one database', () => {
     expect(onB.status).toBe(429);
     expect(Number(onB.retryAfter)).toBeGreaterThan(0);
     expect(onB.cookie).not.toContain(sessionCookieName);
+    expect(await ctx.dataSource.query('SELECT id FROM sign_in_session WHERE user_id = ?', [person.id])).toEqual([]);
 
     await b.kill();
     b = await start(portB, 'b-restarted');
