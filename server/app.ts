@@ -7,10 +7,13 @@ import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
 import { createAuditRepository } from './audit/repository';
 import { createReadAudit } from './audit/service';
-import { loginLimiters } from './auth/login-limits';
 import { authRoutes } from './auth/routes';
 import { createAuthService } from './auth/service';
+import { createPasswordLinkRepository } from './auth/password-link-repository';
+import { createPasswordLinks } from './auth/password-links';
 import { createSessions } from './auth/session';
+import { createSignInSessionRepository } from './auth/session-repository';
+import { createThrottle } from './auth/throttle';
 import { calculationRoutes } from './calculations/routes';
 import type { Config } from './config';
 import { healthRoutes } from './health/routes';
@@ -28,7 +31,7 @@ import { createOrderService } from './orders/service';
 import { createPatientRepository } from './patients/repository';
 import { patientRoutes } from './patients/routes';
 import { createPatientService } from './patients/service';
-import { createUserRepository } from './people/repository';
+import { createRoleRequestRepository, createUserRepository } from './people/repository';
 import { pharmacyRoutes } from './pharmacy/routes';
 import { createPharmacyService } from './pharmacy/service';
 import { createDischargeService } from './sessions/discharge';
@@ -80,13 +83,17 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   const audit = createAuditRepository(dataSource);
   const reads = createReadAudit(audit, now);
   const users = createUserRepository(dataSource);
-  const sessions = createSessions(config, users);
+  const signInSessions = createSignInSessionRepository(dataSource);
+  const sessions = createSessions(config, signInSessions);
+  const passwordLinkRows = createPasswordLinkRepository(dataSource);
+  const auth = createAuthService({ dataSource, users, sessions: signInSessions, links: passwordLinkRows, throttle: createThrottle(dataSource, config), audit });
+  const passwordLinks = createPasswordLinks(dataSource, passwordLinkRows, config);
   const protocols = createProtocolService(createProtocolRepository(dataSource), audit);
   const patients = createPatientRepository(dataSource);
   const orders = createOrderRepository(dataSource);
   const unitTimeZone = config.UNIT_TIME_ZONE;
   const weightChangeRule = { maxPct: config.WEIGHT_CHANGE_MAX_PCT, withinDays: config.WEIGHT_CHANGE_WITHIN_DAYS };
-  const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, reads, unitTimeZone, weightChangeRule });
+  const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, reads, unitTimeZone, weightChangeRule, confirmSignature: auth.confirmSignature });
   const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
   const sessionRows = createSessionRepository(dataSource);
   const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now });
@@ -94,8 +101,8 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
 
   const routes: RouteSpec[] = [
     ...healthRoutes(dataSource, { name: config.UNIT_NAME, timeZone: config.UNIT_TIME_ZONE, phone: config.UNIT_PHONE }),
-    ...authRoutes(createAuthService(users, audit), sessions, loginLimiters(config)),
-    ...peopleRoutes(createPeopleService(users, audit)),
+    ...authRoutes(auth, sessions),
+    ...peopleRoutes(createPeopleService({ dataSource, users, roleRequests: createRoleRequestRepository(dataSource), sessions: signInSessions, passwordLinks, audit })),
     ...protocolRoutes(protocols),
     ...calculationRoutes(protocols),
     ...patientRoutes(createPatientService(patients, orders, audit, reads, weightChangeRule)),

@@ -15,9 +15,25 @@ const envSchema = z.object({
   DB_OWNER_USER: z.string().min(1).default('luxtempo_owner'),
   DB_OWNER_PASSWORD: z.string().min(1, 'DB_OWNER_PASSWORD is required'),
   JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters'),
+  /** A session's maximum lifetime, however active it is. */
   SESSION_HOURS: z.coerce.number().min(1).max(24).default(12),
+  /** A session with no call for this long ends (a shared ward tablet left signed in). */
+  SESSION_IDLE_MIN: z.coerce.number().int().min(1, 'SESSION_IDLE_MIN must be 1 to 720 minutes').max(720, 'SESSION_IDLE_MIN must be 1 to 720 minutes').default(30),
+  /** How long an e-mailed link to set a password works. */
+  PASSWORD_LINK_HOURS: z.coerce.number().min(0.25, 'PASSWORD_LINK_HOURS must be 0.25 to 168').max(168, 'PASSWORD_LINK_HOURS must be 0.25 to 168').default(24),
+  /** The address people open Luxtempo at, for links in e-mails; `http://HOST:PORT` when unset. */
+  PUBLIC_URL: z.string().url('PUBLIC_URL must be a full address such as https://luxtempo.example.org').optional(),
   COOKIE_SECURE: bool.default(false),
-  TRUST_PROXY: z.string().default('loopback'),
+  /**
+   * Which proxies' X-Forwarded-For to believe (Express `trust proxy`): off by default, so the
+   * address throttled is the one that connected. Set it to the proxy's address or subnet, or a
+   * hop count; `true` (believe anyone) is refused, since any client could then pick its address.
+   */
+  TRUST_PROXY: z
+    .string()
+    .default('false')
+    .refine((v) => v.trim() !== 'true', 'TRUST_PROXY=true would let any client choose its address; name the proxy (an address, subnet, "loopback") or a hop count')
+    .transform((v): false | number | string => (v.trim() === '' || v.trim() === 'false' ? false : /^\d+$/.test(v.trim()) ? Number(v.trim()) : v.trim())),
   SMTP_HOST: z.string().min(1).default('127.0.0.1'),
   SMTP_PORT: port.default(1025),
   MAIL_FROM: z.string().min(3).default('Luxtempo <luxtempo@demo.luxtempo.example>'),
@@ -42,13 +58,14 @@ const envSchema = z.object({
    */
   WEIGHT_CHANGE_MAX_PCT: z.coerce.number().positive('WEIGHT_CHANGE_MAX_PCT must be above 0').max(100, 'WEIGHT_CHANGE_MAX_PCT must be at most 100').default(10),
   WEIGHT_CHANGE_WITHIN_DAYS: z.coerce.number().int('WEIGHT_CHANGE_WITHIN_DAYS must be a whole number').min(1, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650').max(3650, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650').default(90),
-  DEMO_DATA: bool.default(true),
+  /** Fictitious demo people (with a published password) and patients; never wanted in production. */
+  DEMO_DATA: bool.optional(),
   LOGIN_FAILURE_LIMIT: z.coerce.number().int().min(1).max(1000).default(10),
   LOGIN_FAILURE_WINDOW_MIN: z.coerce.number().int().min(1).max(1440).default(15),
   UPLOAD_DIR: z.string().min(1).default('.data/uploads'),
 });
 
-export type Config = z.infer<typeof envSchema>;
+export type Config = Omit<z.infer<typeof envSchema>, 'DEMO_DATA'> & { DEMO_DATA: boolean };
 
 /** Reads and checks the environment once; a bad setting stops the server with its name. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -57,5 +74,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new Error(`Luxtempo cannot start: the configuration is not valid.\n${lines.join('\n')}`);
   }
-  return parsed.data;
+  // Demo people have a published password: on unless told otherwise, except in production.
+  return { ...parsed.data, DEMO_DATA: parsed.data.DEMO_DATA ?? parsed.data.NODE_ENV !== 'production' };
 }

@@ -1,21 +1,19 @@
-import type { RequestHandler } from 'express';
-import { loginRequestSchema } from '../../shared/schemas/auth';
+import { changePasswordSchema, loginRequestSchema, passwordLinkCheckSchema, setPasswordSchema } from '../../shared/schemas/auth';
 import type { RouteSpec } from '../http/route-table';
 import { parseInput } from '../http/validation';
 import type { AuthService } from './service';
-import { sessionCookieName, sessionHintCookieName, signedInUser, type Sessions } from './session';
+import { sessionCookieName, sessionHintCookieName, signedInSessionId, signedInUser, type Sessions } from './session';
 
-export function authRoutes(auth: AuthService, sessions: Sessions, loginLimiters: RequestHandler[]): RouteSpec[] {
+export function authRoutes(auth: AuthService, sessions: Sessions): RouteSpec[] {
   return [
     {
       method: 'post',
       path: '/auth/login',
       access: 'public',
-      before: loginLimiters,
       handler: async (req, res) => {
         const input = parseInput(loginRequestSchema, req.body);
         const user = await auth.login(input, req.ip);
-        const { token, maxAgeMs } = sessions.issue(user.id);
+        const { token, maxAgeMs } = await sessions.issue(user.id, req.ip);
         res.cookie(sessionCookieName, token, { ...sessions.cookieOptions, maxAge: maxAgeMs });
         res.cookie(sessionHintCookieName, '1', { ...sessions.cookieOptions, httpOnly: false, maxAge: maxAgeMs });
         res.json({ user });
@@ -26,8 +24,8 @@ export function authRoutes(auth: AuthService, sessions: Sessions, loginLimiters:
       path: '/auth/logout',
       access: 'public',
       handler: async (req, res) => {
-        // Signing out always succeeds, even with an ended session; it is recorded when we know who.
-        await auth.logout(sessions.peekUserId(req.cookies), req.ip);
+        // Signing out always succeeds, even with an ended session; the session row is ended here.
+        await auth.logout(sessions.tokenOf(req.cookies), req.ip);
         res.clearCookie(sessionCookieName, sessions.cookieOptions);
         res.clearCookie(sessionHintCookieName, { ...sessions.cookieOptions, httpOnly: false });
         res.status(204).end();
@@ -39,6 +37,35 @@ export function authRoutes(auth: AuthService, sessions: Sessions, loginLimiters:
       access: 'signed-in',
       handler: (_req, res) => {
         res.json(signedInUser(res));
+      },
+    },
+    {
+      method: 'post',
+      path: '/auth/password',
+      access: 'signed-in',
+      handler: async (req, res) => {
+        const input = parseInput(changePasswordSchema, req.body);
+        await auth.changePassword({ id: signedInUser(res).id, sessionId: signedInSessionId(res), ipAddress: req.ip }, input);
+        res.status(204).end();
+      },
+    },
+    {
+      method: 'post',
+      path: '/auth/password-link/check',
+      access: 'public',
+      handler: async (req, res) => {
+        const { token } = parseInput(passwordLinkCheckSchema, req.body);
+        res.json({ link: await auth.describeLink(token) });
+      },
+    },
+    {
+      method: 'post',
+      path: '/auth/password-link',
+      access: 'public',
+      handler: async (req, res) => {
+        const input = parseInput(setPasswordSchema, req.body);
+        await auth.setPasswordWithLink(input, req.ip);
+        res.status(204).end();
       },
     },
   ];

@@ -1,10 +1,11 @@
+import { createHash, randomBytes } from 'node:crypto';
 import type { CookieOptions, RequestHandler } from 'express';
 import jwt from 'jsonwebtoken';
 import type { Capability, Role } from '../../shared/roles';
 import type { Config } from '../config';
 import { AppError } from '../http/app-error';
-import type { UserRepository } from '../people/repository';
 import { capabilitiesOf } from './permissions';
+import type { SignInSessionRepository } from './session-repository';
 
 export const sessionCookieName = 'luxtempo_session';
 /**
@@ -27,6 +28,8 @@ declare global {
   namespace Express {
     interface Locals {
       user?: SignedInUser;
+      /** The sign_in_session row this call came with. */
+      sessionId?: string;
     }
   }
 }
@@ -37,82 +40,94 @@ export function signedInUser(res: { locals: { user?: SignedInUser } }): SignedIn
   return user;
 }
 
-export function createSessions(config: Config, users: UserRepository) {
+export function signedInSessionId(res: { locals: { sessionId?: string } }): string {
+  const id = res.locals.sessionId;
+  if (!id) throw AppError.unauthorised();
+  return id;
+}
+
+const sha256Hex = (text: string) => createHash('sha256').update(text).digest('hex');
+
+/** Seconds between writes of a session's last-seen time: the idle limit is that coarse, and reads stay reads. */
+export const touchEveryS = 60;
+
+export function createSessions(config: Config, rows: SignInSessionRepository) {
   const cookieOptions: CookieOptions = {
     httpOnly: true,
     sameSite: 'strict',
     secure: config.COOKIE_SECURE,
     path: '/',
   };
+  const lifetimeS = Math.round(config.SESSION_HOURS * 3600);
+  const idleLimitS = config.SESSION_IDLE_MIN * 60;
 
-  function issue(userId: number): { token: string; maxAgeMs: number } {
-    const token = jwt.sign({}, config.JWT_SECRET, {
-      algorithm: 'HS256',
-      subject: String(userId),
-      expiresIn: `${config.SESSION_HOURS}h`,
-      issuer: 'luxtempo',
-    });
-    return { token, maxAgeMs: config.SESSION_HOURS * 3600_000 };
-  }
-
-  /** The signed-in person's id from a valid token, without asking the database (for sign-out). */
-  function peekUserId(cookies: Record<string, unknown> | undefined): number | null {
-    const token = cookies?.[sessionCookieName];
-    if (typeof token !== 'string') return null;
-    try {
-      const payload = jwt.verify(token, config.JWT_SECRET, { algorithms: ['HS256'], issuer: 'luxtempo' });
-      const id = Number(typeof payload === 'object' ? payload.sub : NaN);
-      return Number.isInteger(id) && id > 0 ? id : null;
-    } catch {
-      return null;
-    }
+  /** Starts a session: a row keyed by the hash of a random id, and a signed cookie carrying the id. */
+  async function issue(userId: number, ipAddress: string | undefined): Promise<{ token: string; maxAgeMs: number }> {
+    const sessionKey = randomBytes(32).toString('base64url');
+    await rows.insert({ tokenHash: sha256Hex(sessionKey), userId, lifetimeS, ipAddress });
+    const token = jwt.sign({}, config.JWT_SECRET, { algorithm: 'HS256', subject: String(userId), jwtid: sessionKey, expiresIn: lifetimeS, issuer: 'luxtempo' });
+    return { token, maxAgeMs: lifetimeS * 1000 };
   }
 
   /**
-   * Stateless on purpose (any instance can serve any request), but the person is read afresh on
-   * every call, so a deactivation or a role change takes effect at once.
+   * Tokens already checked, with their subject, session hash and expiry. Checking an HS256
+   * signature costs about half a millisecond and a session sends the same token with every call,
+   * so each token's signature is checked once per process. This says only that the token is
+   * genuine: whether its session still counts is read from the database on every call, so no
+   * process can honour a session another has ended.
    */
-  /**
-   * Tokens already checked, with their subject and expiry. Checking an HS256 signature with
-   * jsonwebtoken costs about half a millisecond; a session sends the same token with every call,
-   * so each token is checked once per process. The expiry is still checked on every use.
-   */
-  const checkedTokens = new Map<string, { userId: number; expiresAtMs: number }>();
+  const checkedTokens = new Map<string, { userId: number; tokenHash: string; expiresAtMs: number }>();
   const checkedTokensMax = 10_000;
 
-  function verifiedUserId(token: string): number | null {
+  function verifiedToken(token: string): { userId: number; tokenHash: string } | null {
     const known = checkedTokens.get(token);
     if (known) {
-      if (known.expiresAtMs > Date.now()) return known.userId;
+      if (known.expiresAtMs > Date.now()) return known;
       checkedTokens.delete(token);
       return null;
     }
     try {
       const payload = jwt.verify(token, config.JWT_SECRET, { algorithms: ['HS256'], issuer: 'luxtempo' });
-      if (typeof payload !== 'object' || typeof payload.exp !== 'number') return null;
+      if (typeof payload !== 'object' || typeof payload.exp !== 'number' || typeof payload.jti !== 'string' || payload.jti.length < 32) return null;
       const userId = Number(payload.sub);
       if (!Number.isInteger(userId) || userId <= 0) return null;
+      const checked = { userId, tokenHash: sha256Hex(payload.jti), expiresAtMs: payload.exp * 1000 };
       if (checkedTokens.size >= checkedTokensMax) checkedTokens.delete(checkedTokens.keys().next().value!);
-      checkedTokens.set(token, { userId, expiresAtMs: payload.exp * 1000 });
-      return userId;
+      checkedTokens.set(token, checked);
+      return checked;
     } catch {
       return null;
     }
   }
 
+  /** The session a request's cookie names, if its token is genuine (for sign-out). */
+  function tokenOf(cookies: Record<string, unknown> | undefined): { userId: number; tokenHash: string } | null {
+    const token = cookies?.[sessionCookieName];
+    return typeof token === 'string' && token.length > 0 ? verifiedToken(token) : null;
+  }
+
   const requireSession: RequestHandler = async (req, res, next) => {
     const token: unknown = req.cookies?.[sessionCookieName];
     if (typeof token !== 'string' || token.length === 0) return next(AppError.unauthorised());
-    const id = verifiedUserId(token);
-    if (id === null) return next(AppError.unauthorised('Your session has ended or is not valid. Please sign in again.'));
-    const user = await users.findSessionUser(id);
-    if (!user || !user.active) return next(AppError.unauthorised('This account cannot sign in. Ask an administrator.'));
+    const checked = verifiedToken(token);
+    if (checked === null) return next(AppError.unauthorised('Your session has ended or is not valid. Please sign in again.'));
+    const session = await rows.find(checked.tokenHash);
+    if (!session || session.userId !== checked.userId || session.revoked || session.ended) {
+      return next(AppError.unauthorised('Your session has ended. Please sign in again.'));
+    }
+    if (session.idleS >= idleLimitS) {
+      await rows.revoke({ sessionId: session.sessionId }, 'idle');
+      return next(AppError.unauthorised(`You were signed out after ${config.SESSION_IDLE_MIN} minutes without activity. Please sign in again.`));
+    }
+    if (!session.active) return next(AppError.unauthorised('This account cannot sign in. Ask an administrator.'));
+    if (session.idleS >= touchEveryS) await rows.touch(session.sessionId);
+    res.locals.sessionId = session.sessionId;
     res.locals.user = {
-      id: user.id,
-      email: user.email,
-      displayName: user.displayName,
-      roles: user.roles,
-      capabilities: capabilitiesOf(user.roles),
+      id: session.userId,
+      email: session.email,
+      displayName: session.displayName,
+      roles: session.roles,
+      capabilities: capabilitiesOf(session.roles),
     };
     next();
   };
@@ -122,7 +137,16 @@ export function createSessions(config: Config, users: UserRepository) {
     next(AppError.forbidden());
   };
 
-  return { cookieOptions, issue, peekUserId, requireSession, requireCapability };
+  return {
+    cookieOptions,
+    issue,
+    tokenOf,
+    requireSession,
+    requireCapability,
+    revoke: rows.revoke,
+    revokeAllOf: rows.revokeAllOf,
+    idleLimitS,
+  };
 }
 
 export type Sessions = ReturnType<typeof createSessions>;

@@ -7,18 +7,22 @@ import { DeviationReview } from './entities/deviation-review';
 import { DoseCheck } from './entities/dose-check';
 import { DoseRecordRow } from './entities/dose-record';
 import { OutboxMessage } from './entities/outbox-message';
+import { PasswordLink } from './entities/password-link';
 import { Patient } from './entities/patient';
 import { PatientMeasurement } from './entities/patient-measurement';
 import { Preparation } from './entities/preparation';
 import { ProtocolApproval } from './entities/protocol-approval';
 import { ProtocolVersion } from './entities/protocol-version';
+import { RoleRequest } from './entities/role-request';
 import { SessionEventRow } from './entities/session-event';
 import { SessionParticipant } from './entities/session-participant';
+import { SignInSession } from './entities/sign-in-session';
+import { SignInThrottle } from './entities/sign-in-throttle';
 import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
 import { migrations } from './migration-list';
 
-export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow, DeviationReview, SessionParticipant, PatientMeasurement];
+export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow, DeviationReview, SessionParticipant, PatientMeasurement, SignInSession, PasswordLink, SignInThrottle, RoleRequest];
 
 export interface DatabaseConnection {
   host: string;

@@ -1,10 +1,9 @@
-import bcrypt from 'bcryptjs';
 import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/roles';
 import { createAuditRepository } from '../audit/repository';
 import { createPatientRepository } from '../patients/repository';
 import { createUserRepository } from '../people/repository';
-import { passwordHashCost } from '../people/service';
+import { hashPassword } from '../auth/passwords';
 
 export const demoPassword = 'luxtempo-demo';
 export const demoDomain = 'demo.luxtempo.example';
@@ -47,7 +46,9 @@ export async function seedDemoData(dataSource: DataSource): Promise<{ created: s
   const created: string[] = [];
   for (const person of demoPeople) {
     if (await users.findByEmail(person.email)) continue;
-    const user = await users.create({ ...person, passwordHash: await bcrypt.hash(demoPassword, passwordHashCost) });
+    const user = await users.create({ ...person, passwordHash: await hashPassword(demoPassword) });
+    // The demo password is published; it counts as set, so no link is needed.
+    await users.setPassword(user.id, user.passwordHash);
     await audit.append({ actorUserId: null, action: 'person.created', entityType: 'user', entityId: user.id, details: { email: user.email, roles: user.roles, by: 'demo seed' } });
     created.push(person.email);
   }
@@ -59,4 +60,15 @@ export async function seedDemoData(dataSource: DataSource): Promise<{ created: s
     created.push(patient.recordNumber);
   }
   return { created };
+}
+
+/**
+ * With demo data off, demo people left from an earlier run are deactivated and their sessions
+ * ended: their password is published. Returns how many were still active.
+ */
+export async function retireDemoPeople(dataSource: DataSource): Promise<number> {
+  const emails = demoPeople.map((p) => p.email);
+  const result = await dataSource.query('UPDATE user SET active = 0 WHERE active = 1 AND email IN (?)', [emails]);
+  await dataSource.query("UPDATE sign_in_session s JOIN user u ON u.id = s.user_id SET s.revoked_at = NOW(3), s.revoked_reason = 'demo-data-off' WHERE s.revoked_at IS NULL AND u.email IN (?)", [emails]);
+  return Number(result?.affectedRows ?? 0);
 }

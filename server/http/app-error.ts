@@ -10,6 +10,8 @@ export class AppError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: FieldProblem[],
+    /** Sent as Retry-After (seconds) with a 429 or 503. */
+    readonly retryAfterS?: number,
   ) {
     super(message);
     this.name = 'AppError';

@@ -11,6 +11,7 @@ const databaseDownCodes = new Set(['ECONNREFUSED', 'PROTOCOL_CONNECTION_LOST', '
  */
 export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   if (err instanceof AppError) {
+    if (err.retryAfterS !== undefined) res.setHeader('Retry-After', String(Math.max(1, Math.ceil(err.retryAfterS))));
     res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } });
     return;
   }

@@ -30,6 +30,9 @@ export function retryDelayS(attempts: number): number {
 
 const leaseS = 120;
 
+/** Messages that carry a secret (a one-time link): once delivered, their text is not kept. */
+const secretKinds = new Set(['password-link']);
+
 /**
  * Sends due messages. Each batch is claimed by pushing its next attempt a lease into the future
  * (under SKIP LOCKED), so several app instances can run workers on one database without sending
@@ -60,7 +63,10 @@ export function createOutboxWorker(dataSource: DataSource, mailer: Mailer, optio
       const attempts = message.attempts + 1;
       try {
         await mailer.send({ to: message.recipients, subject: message.subject, text: message.body });
-        await repo.update({ id: message.id }, { status: 'sent', attempts, sentAt: new Date(), lastError: null });
+        await repo.update(
+          { id: message.id },
+          { status: 'sent', attempts, sentAt: new Date(), lastError: null, ...(secretKinds.has(message.kind) ? { body: '(removed once delivered: it held a one-time link)' } : {}) },
+        );
         sent++;
       } catch (error) {
         const responseCode = (error as { responseCode?: number }).responseCode;

@@ -2,7 +2,7 @@ import { loadConfig } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
 import { seedDemoScenario } from '../demo/scenario';
-import { demoPassword, demoPeople, seedDemoData } from '../demo/seed';
+import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
 import { startWebServer, stopWebServer, type RunningWebServer } from '../index';
 import { buildClient } from './build-client';
@@ -58,6 +58,18 @@ try {
       console.log(created.length || sessions ? `• Demo data added (${created.length} people and patients, ${sessions} orders)` : '• Demo data already present');
     } finally {
       await seedSource.destroy();
+    }
+  } else {
+    // Demo people have a published password: with demo data off, none of them may sign in.
+    const source = appDataSource(config);
+    await source.initialize();
+    try {
+      const retired = await retireDemoPeople(source);
+      if (retired) console.log(`• Demo data is off: ${retired} demo people deactivated`);
+      const [{ admins }] = await source.query("SELECT COUNT(*) AS admins FROM user WHERE active = 1 AND FIND_IN_SET('admin', roles)");
+      if (Number(admins) === 0) console.log('• Nobody can sign in yet: create the first administrator with\n    npm run admin:create -- --email you@hospital.example --name "Your Name"');
+    } finally {
+      await source.destroy();
     }
   }
 

@@ -1,4 +1,3 @@
-import bcrypt from 'bcryptjs';
 import { DateTime } from 'luxon';
 import type { DataSource, EntityManager } from 'typeorm';
 import { computePlan } from '../../shared/engine/compute-plan';
@@ -80,8 +79,10 @@ export function createOrderService(deps: {
   reads: ReadAudit;
   unitTimeZone: string;
   weightChangeRule: WeightChangeRule;
+  /** Checks the signer's own password, throttled like a sign-in (server/auth/service.ts). */
+  confirmSignature: (userId: number, password: string, ipAddress: string | undefined) => Promise<boolean>;
 }) {
-  const { dataSource, orders, patients, users, protocols, audit, reads, weightChangeRule } = deps;
+  const { dataSource, orders, patients, users, protocols, audit, reads, weightChangeRule, confirmSignature } = deps;
 
   function plan(row: ProtocolForUse, inputs: OrderDraft['inputs']): DosePlan {
     try {
@@ -290,7 +291,7 @@ export function createOrderService(deps: {
 
     async sign(actor: Actor, id: number, password: string, readVersion: number) {
       const user = await users.findById(actor.id);
-      if (!user || !(await bcrypt.compare(password, user.passwordHash))) {
+      if (!user || !(await confirmSignature(actor.id, password, actor.ipAddress ?? undefined))) {
         await audit.append({ actorUserId: actor.id, action: 'order.signature-refused', entityType: 'order', entityId: id, ipAddress: actor.ipAddress });
         throw AppError.badRequest('The password is not right; the order was not signed.', [{ path: 'password', message: 'password must be your sign-in password' }]);
       }

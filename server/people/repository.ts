@@ -1,17 +1,12 @@
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import type { Role } from '../../shared/roles';
+import { RoleRequest } from '../db/entities/role-request';
 import { User } from '../db/entities/user';
 
 export function createUserRepository(dataSource: DataSource) {
   const repo = dataSource.getRepository(User);
   return {
     findById: (id: number) => repo.findOneBy({ id }),
-    /** What every authenticated request reads: one plain indexed row, without entity machinery. */
-    async findSessionUser(id: number): Promise<Pick<User, 'id' | 'email' | 'displayName' | 'roles' | 'active'> | null> {
-      const [row] = await dataSource.query('SELECT id, email, display_name AS displayName, roles, active FROM user WHERE id = ?', [id]);
-      if (!row) return null;
-      return { id: row.id, email: row.email, displayName: row.displayName, roles: row.roles ? String(row.roles).split(',') as Role[] : [], active: Boolean(row.active) };
-    },
     findByEmail: (email: string) => repo.findOneBy({ email: email.trim().toLowerCase() }),
     list: () => repo.find({ order: { displayName: 'ASC' } }),
     async create(person: { email: string; displayName: string; roles: Role[]; passwordHash: string }): Promise<User> {
@@ -22,7 +17,37 @@ export function createUserRepository(dataSource: DataSource) {
       await repo.update({ id }, changes);
       return repo.findOneBy({ id });
     },
+    /** A password the person has just set (or one rehashed in the current format). */
+    async setPassword(id: number, passwordHash: string, manager: EntityManager = dataSource.manager): Promise<void> {
+      await manager.query('UPDATE user SET password_hash = ?, password_changed_at = NOW(3) WHERE id = ?', [passwordHash, id]);
+    },
+    async rehashPassword(id: number, previousHash: string, passwordHash: string): Promise<void> {
+      // Only if nobody changed it meanwhile.
+      await dataSource.query('UPDATE user SET password_hash = ? WHERE id = ? AND password_hash = ?', [passwordHash, id, previousHash]);
+    },
   };
 }
 
 export type UserRepository = ReturnType<typeof createUserRepository>;
+
+/** Pending and decided role changes that give a clinical role. */
+export function createRoleRequestRepository(dataSource: DataSource) {
+  const repo = dataSource.getRepository(RoleRequest);
+  return {
+    findById: (id: number) => repo.findOneBy({ id }),
+    pending: () => repo.find({ where: { status: 'pending' }, order: { id: 'ASC' } }),
+    pendingFor: (userId: number) => repo.findOneBy({ userId, status: 'pending' }),
+    /** A new request for a person replaces the one still waiting. */
+    async create(request: { userId: number; roles: Role[]; requestedBy: number }): Promise<RoleRequest> {
+      await dataSource.query("UPDATE role_request SET status = 'withdrawn', decided_by = ?, decided_at = NOW(3) WHERE user_id = ? AND status = 'pending'", [request.requestedBy, request.userId]);
+      return repo.save(repo.create({ ...request, status: 'pending' }));
+    },
+    /** Decides a request still pending; false when someone else decided it first. */
+    async decide(manager: EntityManager, id: number, status: 'approved' | 'rejected', decidedBy: number): Promise<boolean> {
+      const result = await manager.query("UPDATE role_request SET status = ?, decided_by = ?, decided_at = NOW(3) WHERE id = ? AND status = 'pending'", [status, decidedBy, id]);
+      return Number(result?.affectedRows ?? 0) === 1;
+    },
+  };
+}
+
+export type RoleRequestRepository = ReturnType<typeof createRoleRequestRepository>;

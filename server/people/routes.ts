@@ -5,6 +5,7 @@ import { idParam, parseInput } from '../http/validation';
 import type { PeopleService } from './service';
 
 export function peopleRoutes(people: PeopleService): RouteSpec[] {
+  const actorOf = (req: { ip?: string }, res: Parameters<typeof signedInUser>[0]) => ({ id: signedInUser(res).id, ipAddress: req.ip });
   return [
     {
       method: 'get',
@@ -20,8 +21,8 @@ export function peopleRoutes(people: PeopleService): RouteSpec[] {
       access: 'people.manage',
       handler: async (req, res) => {
         const input = parseInput(createPersonSchema, req.body);
-        const person = await people.create({ id: signedInUser(res).id, ipAddress: req.ip }, input);
-        res.status(201).json({ person });
+        const person = await people.create(actorOf(req, res), input);
+        res.status(201).json({ person, passwordLink: 'sent' });
       },
     },
     {
@@ -31,8 +32,54 @@ export function peopleRoutes(people: PeopleService): RouteSpec[] {
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
         const changes = parseInput(updatePersonSchema, req.body);
-        const person = await people.update({ id: signedInUser(res).id, ipAddress: req.ip }, id, changes);
+        const person = await people.update(actorOf(req, res), id, changes);
         res.json({ person });
+      },
+    },
+    {
+      method: 'post',
+      path: '/people/:id/password-link',
+      access: 'people.manage',
+      handler: async (req, res) => {
+        const id = parseInput(idParam, req.params.id, 'id');
+        await people.sendPasswordLink(actorOf(req, res), id);
+        // The link goes to the person only; the admin learns that it was sent.
+        res.status(202).json({ passwordLink: 'sent' });
+      },
+    },
+    {
+      method: 'post',
+      path: '/people/:id/sessions/end',
+      access: 'people.manage',
+      handler: async (req, res) => {
+        const id = parseInput(idParam, req.params.id, 'id');
+        res.json(await people.endSessions(actorOf(req, res), id));
+      },
+    },
+    {
+      method: 'get',
+      path: '/role-requests',
+      access: 'people.manage',
+      handler: async (_req, res) => {
+        res.json({ requests: await people.pendingRoleRequests() });
+      },
+    },
+    {
+      method: 'post',
+      path: '/role-requests/:id/approval',
+      access: 'people.manage',
+      handler: async (req, res) => {
+        const id = parseInput(idParam, req.params.id, 'id');
+        res.json({ person: await people.decideRoleRequest(actorOf(req, res), id, 'approved') });
+      },
+    },
+    {
+      method: 'post',
+      path: '/role-requests/:id/rejection',
+      access: 'people.manage',
+      handler: async (req, res) => {
+        const id = parseInput(idParam, req.params.id, 'id');
+        res.json({ person: await people.decideRoleRequest(actorOf(req, res), id, 'rejected') });
       },
     },
   ];

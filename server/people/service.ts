@@ -1,20 +1,24 @@
-import bcrypt from 'bcryptjs';
-import type { CreatePerson, Person, UpdatePerson } from '../../shared/schemas/people';
+import type { DataSource } from 'typeorm';
+import type { Role } from '../../shared/roles';
+import { clinicalRoles, type CreatePerson, type Person, type RoleRequestView, type UpdatePerson } from '../../shared/schemas/people';
 import type { AuditRepository } from '../audit/repository';
+import { noPasswordYet } from '../auth/passwords';
+import type { PasswordLinks } from '../auth/password-links';
+import type { SignInSessionRepository } from '../auth/session-repository';
+import type { RoleRequest } from '../db/entities/role-request';
 import type { User } from '../db/entities/user';
 import { AppError } from '../http/app-error';
-import type { UserRepository } from './repository';
+import type { RoleRequestRepository, UserRepository } from './repository';
 
-/** bcrypt cost 2^11: about 0.15 s per hash in pure-JS bcrypt here — slow for a guesser, fine for a person. */
-export const passwordHashCost = 11;
-
-export function toPerson(user: User): Person {
+export function toPerson(user: User, pending: RoleRequest | null = null): Person {
   return {
     id: user.id,
     email: user.email,
     displayName: user.displayName,
     roles: user.roles,
     active: user.active,
+    accountReady: user.passwordChangedAt !== null,
+    pendingRoleRequest: pending ? { id: pending.id, roles: pending.roles, requestedBy: pending.requestedBy } : null,
     createdAt: user.createdAt.toISOString(),
     updatedAt: user.updatedAt.toISOString(),
   };
@@ -25,20 +29,64 @@ interface Actor {
   ipAddress?: string | null;
 }
 
-export function createPeopleService(users: UserRepository, audit: AuditRepository) {
+const isClinical = (role: Role) => (clinicalRoles as readonly Role[]).includes(role);
+
+interface Deps {
+  dataSource: DataSource;
+  users: UserRepository;
+  roleRequests: RoleRequestRepository;
+  sessions: SignInSessionRepository;
+  passwordLinks: PasswordLinks;
+  audit: AuditRepository;
+}
+
+/**
+ * People and their roles. Giving anyone a clinical role (clinician, pharmacist) is a request that
+ * a second administrator approves; nobody can ask for one for themselves or approve their own.
+ */
+export function createPeopleService({ dataSource, users, roleRequests, sessions, passwordLinks, audit }: Deps) {
+  async function mustFind(id: number): Promise<User> {
+    const user = await users.findById(id);
+    if (!user) throw AppError.notFound(`No person has the id ${id}.`);
+    return user;
+  }
+
+  /** Roles that take effect now and, if any clinical role is being given, the set to request. */
+  function splitRoles(before: readonly Role[], wanted: readonly Role[]): { now: Role[]; request: Role[] | null } {
+    const gainsClinical = wanted.some((role) => isClinical(role) && !before.includes(role));
+    if (!gainsClinical) return { now: [...wanted], request: null };
+    // Until approved, the person keeps what they had, less anything being taken away.
+    return { now: before.filter((role) => wanted.includes(role)), request: [...wanted] };
+  }
+
+  async function requestRoles(actor: Actor, user: User, roles: Role[]): Promise<RoleRequest> {
+    const request = await roleRequests.create({ userId: user.id, roles, requestedBy: actor.id });
+    await audit.append({
+      actorUserId: actor.id,
+      action: 'person.role-change-requested',
+      entityType: 'user',
+      entityId: user.id,
+      ipAddress: actor.ipAddress,
+      details: { requestId: request.id, from: user.roles, to: roles },
+    });
+    return request;
+  }
+
   return {
     async list(): Promise<Person[]> {
-      return (await users.list()).map(toPerson);
+      const pending = new Map((await roleRequests.pending()).map((r) => [r.userId, r]));
+      return (await users.list()).map((user) => toPerson(user, pending.get(user.id) ?? null));
     },
 
+    /** A new person gets no password from the admin: they are e-mailed a one-time link. */
     async create(actor: Actor, input: CreatePerson): Promise<Person> {
       if (await users.findByEmail(input.email)) {
         throw AppError.conflict('email_taken', `Someone already has the e-mail ${input.email}.`);
       }
-      const passwordHash = await bcrypt.hash(input.password, passwordHashCost);
+      const { now, request } = splitRoles([], input.roles);
       let user: User;
       try {
-        user = await users.create({ email: input.email, displayName: input.displayName, roles: input.roles, passwordHash });
+        user = await users.create({ email: input.email, displayName: input.displayName, roles: now, passwordHash: noPasswordYet });
       } catch (error) {
         if ((error as { code?: string }).code === 'ER_DUP_ENTRY') {
           throw AppError.conflict('email_taken', `Someone already has the e-mail ${input.email}.`);
@@ -53,19 +101,25 @@ export function createPeopleService(users: UserRepository, audit: AuditRepositor
         ipAddress: actor.ipAddress,
         details: { email: user.email, displayName: user.displayName, roles: user.roles },
       });
-      return toPerson(user);
+      const pending = request ? await requestRoles(actor, user, request) : null;
+      await passwordLinks.send(user, 'new-account', actor.id);
+      await audit.append({ actorUserId: actor.id, action: 'person.password-link-sent', entityType: 'user', entityId: user.id, ipAddress: actor.ipAddress, details: { purpose: 'new-account' } });
+      return toPerson(user, pending);
     },
 
     async update(actor: Actor, id: number, changes: UpdatePerson): Promise<Person> {
-      const before = await users.findById(id);
-      if (!before) throw AppError.notFound(`No person has the id ${id}.`);
+      const before = await mustFind(id);
       if (actor.id === id && changes.roles && !changes.roles.includes('admin') && before.roles.includes('admin')) {
         throw AppError.conflict('own_admin_role', 'You cannot remove your own administrator role; ask another administrator.');
       }
       if (actor.id === id && changes.active === false) {
         throw AppError.conflict('own_account', 'You cannot deactivate your own account; ask another administrator.');
       }
-      const after = await users.update(id, changes);
+      const split = changes.roles ? splitRoles(before.roles, changes.roles) : null;
+      if (actor.id === id && split?.request) {
+        throw AppError.conflict('own_clinical_role', 'You cannot give yourself a clinical role; another administrator must ask for it and a third approve it.');
+      }
+      const after = await users.update(id, { ...changes, ...(split ? { roles: split.now } : {}) });
       if (!after) throw AppError.notFound(`No person has the id ${id}.`);
       const changed: Record<string, { from: unknown; to: unknown }> = {};
       for (const key of ['displayName', 'roles', 'active'] as const) {
@@ -77,7 +131,69 @@ export function createPeopleService(users: UserRepository, audit: AuditRepositor
         const action = changed.active ? (after.active ? 'person.reactivated' : 'person.deactivated') : 'person.updated';
         await audit.append({ actorUserId: actor.id, action, entityType: 'user', entityId: id, ipAddress: actor.ipAddress, details: { changed } });
       }
-      return toPerson(after);
+      if (changed.active && !after.active) await sessions.revokeAllOf(id, 'deactivated');
+      const pending = split?.request ? await requestRoles(actor, after, split.request) : await roleRequests.pendingFor(id);
+      return toPerson(after, pending);
+    },
+
+    async pendingRoleRequests(): Promise<RoleRequestView[]> {
+      const pending = await roleRequests.pending();
+      const people = new Map((await users.list()).map((u) => [u.id, u]));
+      return pending.map((r) => ({
+        id: r.id,
+        userId: r.userId,
+        personName: people.get(r.userId)?.displayName ?? `#${r.userId}`,
+        currentRoles: people.get(r.userId)?.roles ?? [],
+        roles: r.roles,
+        requestedBy: r.requestedBy,
+        requestedByName: people.get(r.requestedBy)?.displayName ?? `#${r.requestedBy}`,
+        requestedAt: r.requestedAt.toISOString(),
+      }));
+    },
+
+    /** A second administrator approves or rejects; never the one who asked, nor the person concerned. */
+    async decideRoleRequest(actor: Actor, requestId: number, decision: 'approved' | 'rejected'): Promise<Person> {
+      const request = await roleRequests.findById(requestId);
+      if (!request) throw AppError.notFound(`No role request has the id ${requestId}.`);
+      if (request.status !== 'pending') throw AppError.conflict('request_decided', `Role request ${requestId} is already ${request.status}.`);
+      if (request.requestedBy === actor.id) {
+        throw new AppError(403, 'own_request', 'You asked for this change; a different administrator must decide it.');
+      }
+      if (request.userId === actor.id) {
+        throw new AppError(403, 'own_roles', 'This change is to your own roles; a different administrator must decide it.');
+      }
+      const before = await mustFind(request.userId);
+      await dataSource.transaction(async (manager) => {
+        if (!(await roleRequests.decide(manager, requestId, decision, actor.id))) {
+          throw AppError.conflict('request_decided', `Role request ${requestId} was decided by someone else just now.`);
+        }
+        if (decision === 'approved') await manager.query('UPDATE user SET roles = ? WHERE id = ?', [request.roles.join(','), request.userId]);
+      });
+      await audit.append({
+        actorUserId: actor.id,
+        action: decision === 'approved' ? 'person.role-change-approved' : 'person.role-change-rejected',
+        entityType: 'user',
+        entityId: request.userId,
+        ipAddress: actor.ipAddress,
+        details: { requestId, requestedBy: request.requestedBy, from: before.roles, to: request.roles },
+      });
+      return toPerson(await mustFind(request.userId));
+    },
+
+    /** An admin's reset: a one-time link by e-mail. The admin is told only that it was sent. */
+    async sendPasswordLink(actor: Actor, id: number): Promise<void> {
+      const user = await mustFind(id);
+      if (!user.active) throw AppError.conflict('person_inactive', `${user.displayName} is deactivated; reactivate them before sending a link.`);
+      await passwordLinks.send(user, user.passwordChangedAt === null ? 'new-account' : 'reset', actor.id);
+      await audit.append({ actorUserId: actor.id, action: 'person.password-link-sent', entityType: 'user', entityId: id, ipAddress: actor.ipAddress, details: { purpose: user.passwordChangedAt === null ? 'new-account' : 'reset' } });
+    },
+
+    /** Signs the person out everywhere, at once. */
+    async endSessions(actor: Actor, id: number): Promise<{ ended: number }> {
+      await mustFind(id);
+      const ended = await sessions.revokeAllOf(id, 'ended-by-admin');
+      await audit.append({ actorUserId: actor.id, action: 'person.sessions-ended', entityType: 'user', entityId: id, ipAddress: actor.ipAddress, details: { ended } });
+      return { ended };
     },
   };
 }

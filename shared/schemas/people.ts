@@ -9,17 +9,24 @@ const roleList = z
 
 const displayName = z.string().trim().min(2, 'displayName must be 2 to 120 characters').max(120, 'displayName must be 2 to 120 characters');
 
-/** A first password: long enough to resist guessing, short enough for bcrypt (72 bytes). */
-export const passwordSchema = z
-  .string({ error: 'password is required' })
-  .min(12, 'password must be 12 to 72 characters')
-  .max(72, 'password must be 12 to 72 characters');
+/**
+ * A password a person sets: at least 12 characters (the server also refuses common ones). Any
+ * length up to 200 counts in full: the server hashes the whole of it before bcrypt.
+ */
+export const newPasswordSchema = (field: string) =>
+  z
+    .string({ error: `${field} is required` })
+    .refine((v) => [...v].length >= 12, `${field} must be at least 12 characters`)
+    .refine((v) => [...v].length <= 200, `${field} must be at most 200 characters`);
 
+/** The clinical roles: giving one needs a second administrator's approval. */
+export const clinicalRoles = ['clinician', 'pharmacist'] as const satisfies readonly (typeof roles)[number][];
+
+/** A new person gets no password from the admin: they are e-mailed a one-time link to set their own. */
 export const createPersonSchema = z.object({
   email: z.string({ error: 'email is required' }).trim().toLowerCase().max(254, 'email must be at most 254 characters').email('email must be an e-mail address'),
   displayName,
   roles: roleList,
-  password: passwordSchema,
 });
 export type CreatePerson = z.infer<typeof createPersonSchema>;
 
@@ -39,10 +46,26 @@ export const personSchema = z.object({
   displayName: z.string(),
   roles: z.array(z.enum(roles)),
   active: z.boolean(),
+  /** False until the person has set their own sign-in secret through their e-mailed link. */
+  accountReady: z.boolean(),
+  /** Roles waiting for a second administrator's approval, if any. */
+  pendingRoleRequest: z.object({ id: z.number().int(), roles: z.array(z.enum(roles)), requestedBy: z.number().int() }).nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });
 export type Person = z.infer<typeof personSchema>;
+
+export const roleRequestSchema = z.object({
+  id: z.number().int(),
+  userId: z.number().int(),
+  personName: z.string(),
+  currentRoles: z.array(z.enum(roles)),
+  roles: z.array(z.enum(roles)),
+  requestedBy: z.number().int(),
+  requestedByName: z.string(),
+  requestedAt: z.string(),
+});
+export type RoleRequestView = z.infer<typeof roleRequestSchema>;
 
 /** Every error body from the API has this shape. */
 export const apiErrorSchema = z.object({

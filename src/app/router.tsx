@@ -43,6 +43,10 @@ export const router = createBrowserRouter([
         lazy: screen(() => import('./routes/sign-in'), (m) => m.SignInRoute),
       },
       {
+        path: paths.setPassword.path,
+        lazy: screen(() => import('./routes/set-password'), (m) => m.SetPasswordRoute),
+      },
+      {
         id: 'signed-in',
         lazy: screen(() => import('./layout/authenticated-layout'), (m) => m.AuthenticatedLayout),
         children: [
@@ -50,6 +54,11 @@ export const router = createBrowserRouter([
             path: paths.today.path,
             errorElement: <RouteErrorScreen framed={false} />,
             lazy: screen(() => import('./routes/today'), (m) => m.TodayRoute),
+          },
+          {
+            path: paths.changePassword.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(() => import('./routes/change-password'), (m) => m.ChangePasswordRoute),
           },
           {
             path: paths.people.path,

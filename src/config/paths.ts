@@ -9,6 +9,15 @@ export const paths = {
     getHref: (redirectTo?: string | null) =>
       redirectTo && redirectTo !== '/' ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : '/sign-in',
   },
+  /** Public: the page a one-time link opens; the token follows in the fragment (`#…`). */
+  setPassword: {
+    path: '/set-password',
+    getHref: () => '/set-password',
+  },
+  changePassword: {
+    path: '/account/password',
+    getHref: () => '/account/password',
+  },
   today: {
     path: '/',
     getHref: () => '/',

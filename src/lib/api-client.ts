@@ -39,13 +39,13 @@ export function describeError(error: unknown): string {
   return 'Something unexpected went wrong. Try again, and tell your administrator if it keeps happening.';
 }
 
-let onUnauthorized: (() => void) | null = null;
+let onUnauthorized: ((error: ApiRequestError) => void) | null = null;
 
 /**
  * The app registers what happens when the server says the session is gone (401): it clears the
  * session so the sign-in screen shows. Registered from outside so this module knows no feature.
  */
-export function setUnauthorizedHandler(handler: (() => void) | null): void {
+export function setUnauthorizedHandler(handler: ((error: ApiRequestError) => void) | null): void {
   onUnauthorized = handler;
 }
 
@@ -97,7 +97,7 @@ export async function apiRequest<T>(path: string, options: RequestOptions<T> = {
 
   if (!response.ok) {
     const error = toRequestError(response, payload);
-    if (response.status === 401 && unauthorized === 'end-session') onUnauthorized?.();
+    if (response.status === 401 && unauthorized === 'end-session') onUnauthorized?.(error);
     throw error;
   }
 

@@ -442,7 +442,8 @@ describe('the bedside step clock', () => {
     await page.getByRole('button', { name: 'Drop given' }).click();
     // Preparation start (1), its end and the soak's start (2), two drops (2).
     await page.getByText('Unsent: 5').waitFor();
-    const queuedKeys = await page.evaluate((orderId) => (JSON.parse(localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`) ?? '[]') as { idempotencyKey: string }[]).map((e) => e.idempotencyKey), id);
+    // Each queued tap is kept with the id of the nurse who made it.
+    const queuedKeys = await page.evaluate((orderId) => (JSON.parse(localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`) ?? '[]') as { by: number; event: { idempotencyKey: string } }[]).map((e) => e.event.idempotencyKey), id);
     expect(queuedKeys).toHaveLength(5);
     // The clock runs on the queued taps: the 30-min soak (common practice; protocol file) started two minutes ago.
     const soak = await page.getByRole('timer', { name: 'Time left for the soak' }).textContent();
@@ -460,6 +461,48 @@ describe('the bedside step clock', () => {
 
     // The queue waits for the browser's 'online' event instead of knocking: not even a refused request is logged.
     expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it('a tap that could not be sent before sign-out is never sent under the next nurse’s session, and goes out when its nurse signs in again', async () => {
+    const { id } = await readyCxlOrder();
+    const { page } = await nursePage(id);
+    await confirmChecksAndStart(page, 'left');
+    await allStored(page);
+    const storedBefore = (await sessionOf(id)).events.length;
+
+    // The server cannot be reached for taps (sign-out itself still gets through).
+    await page.route('**/session-events', (route) => route.abort());
+    await press(page, 'Start preparation');
+    await page.getByText('Unsent: 1').waitFor();
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+    await page.unroute('**/session-events');
+    // Pre-treatment ticks and notes went with the session; the tap stays, under its nurse's id.
+    expect(await page.evaluate(() => Object.keys(sessionStorage).filter((k) => k.startsWith('luxtempo.step-clock.draft.')))).toEqual([]);
+    const kept = await page.evaluate((orderId) => JSON.parse(localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`) ?? '[]') as { by: number }[], id);
+    const nurseId = ((await (await nurseApi.get('/api/auth/me')).json()) as { id: number }).id;
+    expect(kept.map((t) => t.by)).toEqual([nurseId]);
+
+    // The charge nurse signs in on the same tablet and opens the same clock: the tap is not hers to send.
+    await signInThroughForm(page, ctx.baseUrl, 'charge-nurse@demo.luxtempo.example', demoPassword);
+    await page.getByRole('navigation', { name: 'Main' }).waitFor();
+    await page.goto(`${ctx.baseUrl}/sessions/${id}`);
+    await page.locator('h1', { hasText: 'Step clock' }).waitFor();
+    await page.waitForTimeout(2_000);
+    expect(await page.getByText(/Unsent: \d/).count()).toBe(0);
+    expect((await sessionOf(id)).events).toHaveLength(storedBefore);
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+
+    // Its nurse signs in again: it goes out, recorded as hers.
+    await signInThroughForm(page, ctx.baseUrl, 'nurse@demo.luxtempo.example', demoPassword);
+    await page.getByRole('navigation', { name: 'Main' }).waitFor();
+    await page.goto(`${ctx.baseUrl}/sessions/${id}`);
+    await allStored(page);
+    const after = await sessionOf(id);
+    expect(after.events).toHaveLength(storedBefore + 1);
+    expect((after.events.at(-1) as StoredEvent & { recordedBy: number }).recordedBy).toBe(nurseId);
     await page.context().close();
   });
 

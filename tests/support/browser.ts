@@ -17,9 +17,9 @@ export interface BrowserContext {
 }
 
 /** The built client and the API on a free loopback port, with the demo people, and Debian's Chromium. */
-export async function startBrowserTest(): Promise<BrowserContext> {
+export async function startBrowserTest(overrides: Record<string, string> = {}): Promise<BrowserContext> {
   const serverClock = { offsetMs: 0 };
-  const config = testConfig({ DB_NAME: browserTestDatabase(process.env.DB_NAME!) });
+  const config = testConfig({ DB_NAME: browserTestDatabase(process.env.DB_NAME!), ...overrides });
   const server = await startWebServer({ config, clientDir: clientDistDir, port: 0, now: () => Date.now() + serverClock.offsetMs });
   await seedDemoData(server.dataSource);
   const browser = await chromium.launch({

@@ -23,6 +23,10 @@ export class User {
   @Column({ type: 'boolean', default: true })
   active!: boolean;
 
+  /** When the person last set their password; null until they first do (a new account's link). */
+  @Column({ name: 'password_changed_at', type: 'datetime', precision: 3, nullable: true })
+  passwordChangedAt!: Date | null;
+
   @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   createdAt!: Date;
 

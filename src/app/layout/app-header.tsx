@@ -8,7 +8,7 @@ import { useLogOut } from '../../features/auth/hooks/use-log-out';
 import { describeError } from '../../lib/api-client';
 
 export function AppHeader({ user }: { user: SessionUser }) {
-  const logOut = useLogOut();
+  const logOut = useLogOut(user.id);
   const roleLine = user.roles.map((role) => roleLabels[role]).join(' · ');
 
   return (
@@ -30,6 +30,9 @@ export function AppHeader({ user }: { user: SessionUser }) {
               {roleLine || 'No roles yet'}
             </p>
           </div>
+          <Link to={paths.changePassword.getHref()} className="rounded-lg px-2 py-1 text-sm font-medium text-iris-800 underline underline-offset-2 print:hidden">
+            Change password
+          </Link>
           <Button variant="secondary" size="sm" icon={<SignOutIcon className="size-4" />} busy={logOut.isPending} onClick={() => logOut.mutate()}>
             {logOut.isPending ? 'Signing out…' : 'Sign out'}
           </Button>

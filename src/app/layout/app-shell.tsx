@@ -1,6 +1,7 @@
 import { useEffect, useRef } from 'react';
 import { Outlet, ScrollRestoration, useLocation } from 'react-router-dom';
 import type { SessionUser } from '../../../shared/schemas/auth';
+import { setCurrentPersonId } from '../../lib/current-person';
 import { DraftOwnerContext } from '../../lib/form-draft';
 import { AppHeader } from './app-header';
 import { MainNav } from './main-nav';
@@ -22,6 +23,8 @@ export function AppShell({ user }: { user: SessionUser }) {
     (heading ?? mainRef.current)?.focus();
   }, [pathname]);
 
+  // Set while rendering, before any screen's effect could queue or send work for the person.
+  setCurrentPersonId(user.id);
   const context: ShellContext = { user };
 
   return (

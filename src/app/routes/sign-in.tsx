@@ -1,5 +1,5 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { useEffect } from 'react';
+import { useEffect, useState } from 'react';
 import { Navigate, useSearchParams } from 'react-router-dom';
 import { Alert } from '../../components/ui/alert';
 import { Button } from '../../components/ui/button';
@@ -11,11 +11,15 @@ import { SignInForm } from '../../features/auth/components/sign-in-form';
 import { useSession } from '../../features/auth/hooks/use-session';
 import { describeError } from '../../lib/api-client';
 import { safeRedirectTarget } from '../../lib/redirect-target';
+import { forgetWhySessionEnded, readWhySessionEnded } from '../../lib/session-ended';
 
 export function SignInRoute() {
   const session = useSession();
   const queryClient = useQueryClient();
   const [searchParams] = useSearchParams();
+  // Said once: read when the page opens, forgotten straight after.
+  const [whyEnded] = useState(readWhySessionEnded);
+  useEffect(forgetWhySessionEnded, []);
   const wanted = safeRedirectTarget(searchParams.get('redirectTo'));
   // Never bounce back to the sign-in page itself, which would loop once signed in.
   const redirectTo = wanted && !wanted.startsWith(paths.signIn.path) ? wanted : null;
@@ -72,7 +76,12 @@ export function SignInRoute() {
                   </Button>
                 </Alert>
               )}
-              {redirectTo && !session.isError && (
+              {whyEnded && !session.isError && (
+                <Alert tone="info" title="You were signed out" live="status">
+                  {whyEnded}
+                </Alert>
+              )}
+              {redirectTo && !session.isError && !whyEnded && (
                 <Alert tone="info" live="none">
                   Sign in to open the page you asked for.
                 </Alert>

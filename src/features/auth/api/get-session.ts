@@ -1,5 +1,6 @@
 import { sessionUserSchema, type SessionUser } from '../../../../shared/schemas/auth';
 import { api, isApiRequestError } from '../../../lib/api-client';
+import { rememberWhySessionEnded } from '../../../lib/session-ended';
 
 /**
  * Who is signed in, or `null` when nobody is. "Not signed in" (401) is an ordinary answer here,
@@ -12,7 +13,11 @@ export async function getSession({ signal }: { signal?: AbortSignal } = {}): Pro
   try {
     return await api.get('/auth/me', { schema: sessionUserSchema, signal, unauthorized: 'report' });
   } catch (error) {
-    if (isApiRequestError(error) && error.status === 401) return null;
+    if (isApiRequestError(error) && error.status === 401) {
+      // A session this browser had, ended by the server (idle, signed out elsewhere): say why.
+      rememberWhySessionEnded(error.message);
+      return null;
+    }
     throw error;
   }
 }

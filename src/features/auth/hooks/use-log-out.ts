@@ -1,17 +1,26 @@
 import { useMutation } from '@tanstack/react-query';
 import { paths } from '../../../config/paths';
-import { dropAllDrafts } from '../../../lib/form-draft';
+import { setCurrentPersonId } from '../../../lib/current-person';
+import { forgetWhySessionEnded } from '../../../lib/session-ended';
+import { clearAfterSignOut, sendBeforeSignOut } from '../../../lib/sign-out';
 import { logOut } from '../api/log-out';
 
 /**
- * Signing out loads the sign-in page afresh instead of routing in place: on a shared ward tablet
- * nothing of the previous person's data may stay in memory, and a full load guarantees that.
+ * Signing out sends what the person still has queued (while their session works), ends the
+ * session, lets every feature forget what it kept for them (src/lib/sign-out.ts), then loads the
+ * sign-in page afresh: on a shared ward tablet nothing of the previous person's may stay in memory.
  */
-export function useLogOut() {
+export function useLogOut(personId: number) {
   return useMutation({
-    mutationFn: logOut,
+    mutationFn: async () => {
+      await sendBeforeSignOut(personId);
+      await logOut();
+    },
     onSuccess: () => {
-      dropAllDrafts();
+      setCurrentPersonId(null);
+      clearAfterSignOut(personId);
+      // Signed out on purpose: the sign-in page has nothing to explain.
+      forgetWhySessionEnded();
       window.location.assign(paths.signIn.getHref());
     },
   });

@@ -1,4 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
+import { getRoleRequests } from './account-actions';
 import { getPeople } from './get-people';
 
 /** The people feature's query keys and options, general → specific. */
@@ -9,5 +10,10 @@ export const peopleQueries = {
     queryOptions({
       queryKey: [...peopleQueries.lists()] as const,
       queryFn: ({ signal }) => getPeople({ signal }),
+    }),
+  roleRequests: () =>
+    queryOptions({
+      queryKey: [...peopleQueries.all(), 'role-requests'] as const,
+      queryFn: ({ signal }) => getRoleRequests({ signal }),
     }),
 };

@@ -14,8 +14,8 @@ import { RoleCheckboxes } from './role-checkboxes';
 type CreateInput = z.input<typeof createPersonSchema>;
 type CreateOutput = z.output<typeof createPersonSchema>;
 
-const labels = { displayName: 'Display name', email: 'E-mail', roles: 'Roles', password: 'First password' };
-const fieldNames = ['displayName', 'email', 'roles', 'password'] as const;
+const labels = { displayName: 'Display name', email: 'E-mail', roles: 'Roles' };
+const fieldNames = ['displayName', 'email', 'roles'] as const;
 
 type AddPersonFormProps = {
   id: string;
@@ -33,7 +33,7 @@ export function AddPersonForm({ id, onCreated, onCancel }: AddPersonFormProps) {
     formState: { errors },
   } = useForm<CreateInput, unknown, CreateOutput>({
     resolver: zodResolver(createPersonSchema),
-    defaultValues: { displayName: '', email: '', roles: [], password: '' },
+    defaultValues: { displayName: '', email: '', roles: [] },
   });
 
   const onSubmit = handleSubmit((input) => {
@@ -60,7 +60,10 @@ export function AddPersonForm({ id, onCreated, onCancel }: AddPersonFormProps) {
       <h2 id={`${id}-heading`} className="mb-1 text-xl font-semibold text-paper-950">
         Add a person
       </h2>
-      <p className="mb-5 text-paper-700">The account can sign in straight away with the e-mail and first password you set here.</p>
+      <p className="mb-5 text-paper-700">
+        The person is e-mailed a one-time link to set their own password. A clinician or pharmacist role waits until another
+        administrator approves it.
+      </p>
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">
         {error &&
           (fieldLevel ? (
@@ -85,15 +88,6 @@ export function AddPersonForm({ id, onCreated, onCancel }: AddPersonFormProps) {
           />
         </div>
         <RoleCheckboxes registration={register('roles')} error={readableMessage(errors.roles?.message, labels)} />
-        <TextField
-          label="First password"
-          type="password"
-          autoComplete="new-password"
-          hint="12 to 72 characters. Hand it to the person privately, never by e-mail."
-          className="md:max-w-md"
-          error={readableMessage(errors.password?.message, labels)}
-          {...register('password')}
-        />
         <div className="flex flex-wrap gap-3">
           <Button type="submit" busy={createPerson.isPending}>
             {createPerson.isPending ? 'Adding…' : 'Add person'}

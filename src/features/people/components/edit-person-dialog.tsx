@@ -88,7 +88,7 @@ function EditPersonForm({
         onError: (error) => {
           if (!isApiRequestError(error)) return;
           // The server refuses to let an administrator remove their own administrator role.
-          if (error.code === 'own_admin_role') setError('roles', { type: 'server', message: error.message }, { shouldFocus: true });
+          if (error.code === 'own_admin_role' || error.code === 'own_clinical_role') setError('roles', { type: 'server', message: error.message }, { shouldFocus: true });
           if (error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
         },
       },
@@ -96,7 +96,7 @@ function EditPersonForm({
   });
 
   const error = mutation.error;
-  const shownAtField = isApiRequestError(error) && (error.code === 'own_admin_role' || (error.status === 400 && error.fields.length > 0));
+  const shownAtField = isApiRequestError(error) && (error.code === 'own_admin_role' || error.code === 'own_clinical_role' || (error.status === 400 && error.fields.length > 0));
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
 
   return (

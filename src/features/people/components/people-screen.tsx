@@ -11,7 +11,9 @@ import { peopleQueries } from '../api/people-queries';
 import { AddPersonForm } from './add-person-form';
 import { ChangeStatusDialog } from './change-status-dialog';
 import { EditPersonDialog } from './edit-person-dialog';
+import { useEndSessions, useSendPasswordLink } from '../hooks/use-account-actions';
 import { PeopleTable } from './people-table';
+import { RoleRequestsPanel } from './role-requests-panel';
 
 export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
   const peopleQuery = useQuery(peopleQueries.list());
@@ -30,6 +32,33 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
     setOutcome('');
     setStatusTarget(person);
   }, []);
+  const sendLink = useSendPasswordLink();
+  const endSessions = useEndSessions();
+  const [actionError, setActionError] = useState('');
+  const { mutate: mutateSendLink } = sendLink;
+  const { mutate: mutateEndSessions } = endSessions;
+  const onSendLink = useCallback(
+    (person: Person) => {
+      setOutcome('');
+      setActionError('');
+      mutateSendLink(person.id, {
+        onSuccess: () => setOutcome(`A link to set a password was e-mailed to ${person.displayName}. It works once.`),
+        onError: (error) => setActionError(describeError(error)),
+      });
+    },
+    [mutateSendLink],
+  );
+  const onEndSessions = useCallback(
+    (person: Person) => {
+      setOutcome('');
+      setActionError('');
+      mutateEndSessions(person.id, {
+        onSuccess: ({ ended }) => setOutcome(`${person.displayName} is signed out everywhere (${ended} ${ended === 1 ? 'session' : 'sessions'} ended).`),
+        onError: (error) => setActionError(describeError(error)),
+      });
+    },
+    [mutateEndSessions],
+  );
 
   // When the form closes, focus goes back to the button that opened it, not to the page's top.
   const wasAdding = useRef(false);
@@ -66,7 +95,9 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
           id={formId}
           onCancel={closeForm}
           onCreated={(person) => {
-            setOutcome(`${person.displayName} was added with the roles you chose.`);
+            setOutcome(
+              `${person.displayName} was added. A link to set their password was e-mailed to them.${person.pendingRoleRequest ? ' Their clinical role waits for another administrator’s approval.' : ''}`,
+            );
             closeForm();
           }}
         />
@@ -81,6 +112,14 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
           </p>
         )}
       </div>
+
+      {actionError && (
+        <Alert tone="error" title="That was not done" className="mb-6">
+          {actionError}
+        </Alert>
+      )}
+
+      <RoleRequestsPanel currentUserId={currentUserId} onDecided={setOutcome} />
 
       {peopleQuery.isPending ? (
         <LoadingPanel label="Loading people…" />
@@ -108,7 +147,14 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
               {describeError(peopleQuery.error)}
             </Alert>
           )}
-          <PeopleTable people={peopleQuery.data} currentUserId={currentUserId} onEdit={openEdit} onChangeStatus={openStatus} />
+          <PeopleTable
+            people={peopleQuery.data}
+            currentUserId={currentUserId}
+            onEdit={openEdit}
+            onChangeStatus={openStatus}
+            onSendLink={onSendLink}
+            onEndSessions={onEndSessions}
+          />
         </>
       )}
 
@@ -117,7 +163,11 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
         onDismiss={() => setEditing(null)}
         onSaved={(person) => {
           setEditing(null);
-          setOutcome(`Changes to ${person.displayName} were saved.`);
+          setOutcome(
+            person.pendingRoleRequest
+              ? `Changes to ${person.displayName} were saved; the clinical role waits for another administrator’s approval.`
+              : `Changes to ${person.displayName} were saved.`,
+          );
         }}
       />
       <ChangeStatusDialog

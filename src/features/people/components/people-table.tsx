@@ -28,9 +28,11 @@ type PeopleTableProps = {
   currentUserId: number;
   onEdit: (person: Person) => void;
   onChangeStatus: (person: Person) => void;
+  onSendLink: (person: Person) => void;
+  onEndSessions: (person: Person) => void;
 };
 
-export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus }: PeopleTableProps) {
+export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onSendLink, onEndSessions }: PeopleTableProps) {
   // Columns close over the action callbacks; the parent passes state setters, so this stays stable.
   const columns = useMemo(
     () =>
@@ -55,19 +57,31 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus }: P
           header: 'Roles',
           enableSorting: false,
           cell: ({ row }) => (
-            <ul className="flex flex-wrap gap-1.5">
-              {row.original.roles.map((role) => (
-                <li key={role} className="rounded-md bg-paper-100 px-2 py-0.5 text-sm text-paper-800">
-                  {roleLabels[role]}
-                </li>
-              ))}
-            </ul>
+            <>
+              <ul className="flex flex-wrap gap-1.5">
+                {row.original.roles.map((role) => (
+                  <li key={role} className="rounded-md bg-paper-100 px-2 py-0.5 text-sm text-paper-800">
+                    {roleLabels[role]}
+                  </li>
+                ))}
+              </ul>
+              {row.original.pendingRoleRequest && (
+                <p className="mt-1 text-sm text-paper-700">
+                  Waiting for approval: {row.original.pendingRoleRequest.roles.map((role) => roleLabels[role]).join(', ')}
+                </p>
+              )}
+            </>
           ),
         }),
         helper.accessor('active', {
           header: 'Status',
           sortFn: 'basic',
-          cell: ({ getValue }) => <PersonStatus active={getValue()} />,
+          cell: ({ row }) => (
+            <>
+              <PersonStatus active={row.original.active} />
+              {!row.original.accountReady && <p className="mt-1 text-sm text-paper-700">Password not set yet</p>}
+            </>
+          ),
         }),
         helper.display({
           id: 'actions',
@@ -75,7 +89,7 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus }: P
           cell: ({ row }) => {
             const person = row.original;
             return (
-              <div className="flex justify-end gap-2 whitespace-nowrap">
+              <div className="grid grid-cols-[auto_auto] justify-end gap-2">
                 <Button variant="secondary" size="sm" icon={<PencilIcon className="size-4" />} aria-label={`Edit ${person.displayName}`} onClick={() => onEdit(person)}>
                   Edit
                 </Button>
@@ -87,12 +101,20 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus }: P
                 >
                   {person.active ? 'Deactivate' : 'Reactivate'}
                 </Button>
+                {person.active && (
+                  <Button variant="secondary" size="sm" aria-label={`Send password link to ${person.displayName}`} onClick={() => onSendLink(person)}>
+                    Send password link
+                  </Button>
+                )}
+                <Button variant="secondary" size="sm" aria-label={`Sign out everywhere: ${person.displayName}`} onClick={() => onEndSessions(person)}>
+                  Sign out everywhere
+                </Button>
               </div>
             );
           },
         }),
       ]),
-    [currentUserId, onEdit, onChangeStatus],
+    [currentUserId, onEdit, onChangeStatus, onSendLink, onEndSessions],
   );
 
   const table = useTable({

@@ -6,6 +6,6 @@ export function useCreatePerson() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createPerson,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleQueries.lists() }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleQueries.all() }),
   });
 }

@@ -6,6 +6,6 @@ export function useUpdatePerson() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: updatePerson,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleQueries.lists() }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleQueries.all() }),
   });
 }

@@ -1,6 +1,7 @@
 import type { SessionEventInput } from '../../../../shared/session/session-events';
 import { isApiRequestError, type FieldProblem } from '../../../lib/api-client';
-import type { EventQueue } from './event-queue';
+import { currentPersonId } from '../../../lib/current-person';
+import { eventQueueFor, queuedOrderIds, type EventQueue } from './event-queue';
 import { recordSessionEvent } from './record-session-event';
 import type { RecordedEventResponse } from './session-state-schema';
 
@@ -66,6 +67,10 @@ function createEventSync(orderId: number, queue: EventQueue): EventSync {
     running = true;
     try {
       for (let next = queue.list()[0]; next; next = queue.list()[0]) {
+        // The hook the sign-out rule hangs on: a tap goes out only under the session of the
+        // person who made it (list() holds only theirs; this re-checks at the moment of sending).
+        const person = currentPersonId();
+        if (person === null || queue.ownerOf(next.idempotencyKey) !== person) break;
         if (globalThis.navigator?.onLine === false) {
           // The 'online' event brings us back; no point knocking while the browser says it is offline.
           set({ offline: true, sending: false });
@@ -145,4 +150,26 @@ export function eventSyncFor(orderId: number, queue: EventQueue): EventSync {
     syncs.set(orderId, sync);
   }
   return sync;
+}
+
+/**
+ * On sign-out, while the session still works: sends the person's queued taps for every order in
+ * this browser, and resolves when all are stored or sending stopped (offline, refused, waiting to
+ * retry). Whatever is left stays queued under the person's id, for their next sign-in here.
+ */
+export async function sendQueuedTapsOf(personId: number): Promise<void> {
+  const pending = queuedOrderIds()
+    .map((orderId) => ({ orderId, queue: eventQueueFor(orderId) }))
+    .filter(({ queue }) => queue.list().length > 0 && currentPersonId() === personId);
+  await Promise.all(
+    pending.map(async ({ orderId, queue }) => {
+      const sync = eventSyncFor(orderId, queue);
+      sync.pump();
+      for (;;) {
+        await new Promise((resolve) => setTimeout(resolve, 100));
+        const state = sync.state();
+        if (queue.list().length === 0 || state.refused || state.offline || (!state.sending && state.retryAtMs !== null)) return;
+      }
+    }),
+  );
 }
