@@ -34,7 +34,8 @@ const expected: Record<string, 'public' | Role[]> = {
   'PUT /api/protocols/:key/versions/:version': ['admin'],
   'POST /api/protocols/:key/versions/:version/approvals': ['clinician', 'pharmacist'],
   'POST /api/protocols/:key/versions/:version/retirement': ['admin'],
-  'POST /api/calculations': all,
+  // The dose plan is for order writers only: a pharmacist with a blind check open must not get it here.
+  'POST /api/calculations': ['clinician'],
   'POST /api/light-calculations': all,
   'GET /api/patients': ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'],
   'POST /api/patients': ['clinician', 'admin'],
