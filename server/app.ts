@@ -6,6 +6,8 @@ import express, { type Express } from 'express';
 import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
 import { createAuditRepository } from './audit/repository';
+import { auditRoutes } from './audit/routes';
+import { createAuditService } from './audit/service';
 import { loginLimiters } from './auth/login-limits';
 import { authRoutes } from './auth/routes';
 import { createAuthService } from './auth/service';
@@ -102,6 +104,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
     ...outboxRoutes(dataSource),
     ...sessionRoutes(sessionService, discharge),
     ...staffRoutes(dataSource),
+    ...auditRoutes(createAuditService(audit)),
     ...reviewRoutes(createReviewService({ dataSource, reviews: createReviewRepository(dataSource), sessions: sessionService, audit, unitTimeZone })),
   ];
   app.locals.routeTable = routes;

@@ -1,5 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
+import { isSessionEnded, sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
 import { readyForSessionStatuses, type OrderStatus } from '../../shared/schemas/orders';
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import { deriveDoseRecord } from '../../shared/session/dose-record';
@@ -54,6 +54,11 @@ export function createSessionService(deps: {
     }
     if (at < nowMs - oldestEventMs) {
       throw AppError.badRequest('The event is too old to belong to this session.', [{ path: 'clientTime', message: 'clientTime must lie within the last 12 hours' }]);
+    }
+    // As long as a tap made before the end can still arrive, and no longer: then the record and
+    // its deviations are closed, and the database refuses to change them (migration DatabaseIntegrity).
+    if (input.type !== 'session-started' && isSessionEnded(order.status) && order.endedAt !== null && nowMs - order.endedAt > oldestEventMs) {
+      throw AppError.conflict('record_closed', `The session for order ${order.id} ended more than 12 hours ago; its dose record is closed and takes no more events.`);
     }
     if ('stepId' in input) {
       const step = order.definition.steps.find((s) => s.id === input.stepId);
