@@ -88,9 +88,11 @@ function chooseServerUser(instanceDir: string): { user: ServerUser | null; why?:
   const uid = id('-u');
   const gid = id('-g');
   if (uid.status !== 0 || gid.status !== 0) return { user: null, why: 'there is no `mysql` system user on this machine' };
-  // `test -x` as that user: every folder above .data/ must let it through.
-  const reach = spawnSync('su', ['-s', '/bin/sh', 'mysql', '-c', `test -x ${shellQuote(instanceDir)}`], { stdio: 'ignore' });
-  if (reach.status !== 0) return { user: null, why: `the \`mysql\` system user cannot reach ${instanceDir} (a folder above it is private to its owner)` };
+  // `test -x` as that user: every folder above the instance folder must let it through (the
+  // instance folder itself is ours to open, in prepareFolders).
+  const above = path.dirname(instanceDir);
+  const reach = spawnSync('su', ['-s', '/bin/sh', 'mysql', '-c', `test -x ${shellQuote(above)}`], { stdio: 'ignore' });
+  if (reach.status !== 0) return { user: null, why: `the \`mysql\` system user cannot reach ${above} (it or a folder above it is private to its owner)` };
   return { user: { name: 'mysql', uid: Number(uid.stdout.trim()), gid: Number(gid.stdout.trim()) } };
 }
 
@@ -100,14 +102,12 @@ function shellQuote(value: string): string {
 
 /** Gives a folder tree to the server's user, when it is not theirs already (an upgrade from a root-run instance). */
 function own(target: string, user: ServerUser | null): void {
-  if (!user || !existsSync(target)) return;
-  const owner = statSync(target).uid;
-  if (owner === user.uid && !statSync(target).isDirectory()) return;
+  if (!user || !existsSync(target) || statSync(target).uid === user.uid) return;
   const walk = (p: string) => {
     chownSync(p, user.uid, user.gid);
     if (statSync(p).isDirectory()) for (const entry of readdirSync(p)) walk(path.join(p, entry));
   };
-  if (owner !== user.uid) walk(target);
+  walk(target);
 }
 
 function prepareFolders(paths: InstancePaths, user: ServerUser | null): void {
