@@ -26,7 +26,8 @@ export async function startApiProcess(options: { port: number; env: NodeJS.Proce
   const url = `http://127.0.0.1:${options.port}`;
   let exited = false;
   child.once('exit', () => (exited = true));
-  const until = Date.now() + 30_000;
+  // tsx compiles the server on start: a minute, for a machine busy with other work.
+  const until = Date.now() + 60_000;
   for (;;) {
     if (exited) throw new Error(`the API process on port ${options.port} exited at start; see ${options.logFile ?? 'its output above'}`);
     try {
@@ -37,7 +38,7 @@ export async function startApiProcess(options: { port: number; env: NodeJS.Proce
     } catch {
       // not listening yet
     }
-    if (Date.now() > until) throw new Error(`the API process on port ${options.port} did not answer within 30 s; see ${options.logFile ?? 'its output above'}`);
+    if (Date.now() > until) throw new Error(`the API process on port ${options.port} did not answer within 60 s; see ${options.logFile ?? 'its output above'}`);
     await new Promise((r) => setTimeout(r, 200));
   }
   return {
