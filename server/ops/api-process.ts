@@ -38,7 +38,11 @@ export async function startApiProcess(options: { port: number; env: NodeJS.Proce
     } catch {
       // not listening yet
     }
-    if (Date.now() > until) throw new Error(`the API process on port ${options.port} did not answer within 60 s; see ${options.logFile ?? 'its output above'}`);
+    if (Date.now() > until) {
+      // Not left behind holding the port (and the database) for the next run.
+      child.kill('SIGKILL');
+      throw new Error(`the API process on port ${options.port} did not answer within 60 s; see ${options.logFile ?? 'its output above'}`);
+    }
     await new Promise((r) => setTimeout(r, 200));
   }
   return {
