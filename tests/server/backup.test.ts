@@ -1,4 +1,4 @@
-import { statSync } from 'node:fs';
+import { statSync, unlinkSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { verifyAuditChain } from '../../server/audit/repository';
@@ -66,5 +66,6 @@ describe('a backup', () => {
     const restored = await snapshot(fresh);
     expect(restored).toEqual(atBackup);
     expect(runCommand('server/ops/audit-verify.ts', ['--database', fresh]).code).toBe(0);
+    unlinkSync(file);
   });
 });
