@@ -43,8 +43,8 @@ export function createOrderRepository(dataSource: DataSource) {
         // version would lock that row too, and every session on one protocol would then wait for
         // every other.
         `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.plan, o.checklist,
-                p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt, r.ended_at AS endedAt
-           FROM treatment_order o LEFT JOIN preparation p ON p.order_id = o.id LEFT JOIN dose_record r ON r.order_id = o.id
+                p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt
+           FROM treatment_order o LEFT JOIN preparation p ON p.order_id = o.id
           WHERE o.id = ? FOR UPDATE`,
         [id],
       );
@@ -59,8 +59,6 @@ export function createOrderRepository(dataSource: DataSource) {
         plan: parse<TreatmentOrder['plan']>(row.plan),
         checklist: parse<TreatmentOrder['checklist']>(row.checklist),
         /** When the drug was made up and must be used by (PDT), for the beyond-use deviations. */
-        /** When the session ended, as its record says (null while it runs). */
-        endedAt: row.endedAt ? (row.endedAt as Date).getTime() : null,
         preparation: row.reconstitutedAt ? { reconstitutedAt: (row.reconstitutedAt as Date).toISOString(), beyondUseAt: (row.beyondUseAt as Date).toISOString() } : null,
       };
     },

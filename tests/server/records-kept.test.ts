@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type { Connection } from 'mysql2/promise';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApp } from '../../server/app';
 import { createAuditRepository } from '../../server/audit/repository';
 import { createTestPatient, createTestPerson, pdtOrder, preparedPdtOrder, signOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
 import { appConnection, ownerConnection } from '../support/database';
@@ -13,6 +14,7 @@ let ctx: TestContext;
 let clinician: TestPerson;
 let clinicianAgent: Agent;
 let pharmacistAgent: Agent;
+let nurse: TestPerson;
 let nurseAgent: Agent;
 let app: Connection;
 let owner: Connection;
@@ -22,7 +24,8 @@ beforeAll(async () => {
   clinician = await createTestPerson(ctx, ['clinician']);
   clinicianAgent = await signedInAgent(ctx, clinician);
   pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
-  nurseAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
+  nurse = await createTestPerson(ctx, ['nurse']);
+  nurseAgent = await signedInAgent(ctx, nurse);
   app = await appConnection(ctx.config);
   owner = await ownerConnection(ctx.config);
 });
@@ -146,9 +149,14 @@ describe("a session's dose record and deviations, as the app's database user", (
     await refused("UPDATE deviation SET severity = 'minor', message = 'nothing happened' WHERE id = ?", [deviation!.id], 'deviation', 'id', deviation!.id, /cannot be changed; review it instead/);
     await refused('UPDATE deviation SET withdrawn_at = UTC_TIMESTAMP(3) WHERE id = ?', [deviation!.id], 'deviation', 'id', deviation!.id, /cannot be changed; review it instead/);
 
+    // The API, 14 hours on (its clock moved; the session's end event is then 14 h old): a new tap is refused.
+    const fourteenHoursMs = 14 * 3600_000;
+    const later = createApp({ config: ctx.config, dataSource: ctx.dataSource, mailer: { send: async () => undefined, close: () => undefined }, now: () => Date.now() + fourteenHoursMs });
+    const nurseLater = supertest.agent(later);
+    expect((await nurseLater.post('/api/auth/login').send({ email: nurse.email, password: nurse.password })).status).toBe(200);
     const eventsBefore = await row('dose_record', 'order_id', orderId);
-    const late = await nurseAgent.post(`/api/orders/${orderId}/session-events`).send({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'step-started', stepId: 'laser' });
-    expect(late.status).toBe(409);
+    const late = await nurseLater.post(`/api/orders/${orderId}/session-events`).send({ idempotencyKey: randomUUID(), clientTime: new Date(Date.now() + fourteenHoursMs).toISOString(), type: 'extravasation' });
+    expect(late.status, JSON.stringify(late.body)).toBe(409);
     expect(late.body.error).toMatchObject({ code: 'record_closed' });
     const [counted] = await app.query('SELECT COUNT(*) AS n FROM session_event WHERE order_id = ?', [orderId]);
     const { n } = (counted as { n: number }[])[0]!;
