@@ -207,27 +207,35 @@ async function adminConnection({ socketPath }: InstancePaths): Promise<mysql.Con
 export interface AccountRow {
   user: string;
   host: string;
-  plugin: string | null;
-  auth: string | null;
-  alternatives: number;
+  /** Each way the account may sign in (`IDENTIFIED VIA a OR b`), with its stored secret. */
+  methods: { plugin: string; auth: string }[];
   locked: boolean;
+}
+
+interface GlobalPriv {
+  plugin?: string;
+  authentication_string?: string;
+  auth_or?: { plugin?: string; authentication_string?: string }[];
+  account_locked?: boolean;
 }
 
 /** Every account with how it signs in, read from mysql.global_priv. */
 export async function listAccounts(db: mysql.Connection): Promise<AccountRow[]> {
-  const [rows] = await db.query(
-    `SELECT User AS user, Host AS host, JSON_VALUE(Priv, '$.plugin') AS plugin, JSON_VALUE(Priv, '$.authentication_string') AS auth,
-            COALESCE(JSON_LENGTH(Priv, '$.auth_or'), 0) AS alternatives, COALESCE(JSON_VALUE(Priv, '$.account_locked'), '0') IN ('1', 'true') AS locked
-       FROM mysql.global_priv`,
-  );
-  return (rows as AccountRow[]).map((r) => ({ ...r, alternatives: Number(r.alternatives), locked: Boolean(Number(r.locked)) }));
+  const [rows] = await db.query('SELECT User AS user, Host AS host, Priv AS priv FROM mysql.global_priv');
+  return (rows as { user: string; host: string; priv: string }[]).map(({ user, host, priv }) => {
+    const p = JSON.parse(priv) as GlobalPriv;
+    const top = { plugin: p.plugin ?? 'mysql_native_password', auth: p.authentication_string ?? '' };
+    // An empty entry in auth_or stands for the top-level method.
+    const methods = p.auth_or ? p.auth_or.map((m) => (m.plugin ? { plugin: m.plugin, auth: m.authentication_string ?? '' } : top)) : [top];
+    return { user, host, methods, locked: p.account_locked === true };
+  });
 }
 
-/** An account that signs in with a password, and whose password is empty. */
+const passwordPlugins = new Set(['mysql_native_password', 'mysql_old_password', 'ed25519', 'caching_sha2_password', 'parsec']);
+
+/** An account that is not locked and may sign in with an empty password by one of its methods. */
 export function hasEmptyPassword(account: AccountRow): boolean {
-  if (account.locked) return false;
-  const passwordPlugins = ['mysql_native_password', 'mysql_old_password', 'ed25519', 'caching_sha2_password', null, ''];
-  return account.alternatives === 0 && passwordPlugins.includes(account.plugin) && !account.auth;
+  return !account.locked && account.methods.some((m) => passwordPlugins.has(m.plugin) && m.auth === '');
 }
 
 async function hardenAccounts(paths: InstancePaths): Promise<void> {
