@@ -222,8 +222,8 @@ interface GlobalPriv {
 /** Every account with how it signs in, read from mysql.global_priv. */
 export async function listAccounts(db: mysql.Connection): Promise<AccountRow[]> {
   const [rows] = await db.query('SELECT User AS user, Host AS host, Priv AS priv FROM mysql.global_priv');
-  return (rows as { user: string; host: string; priv: string }[]).map(({ user, host, priv }) => {
-    const p = JSON.parse(priv) as GlobalPriv;
+  return (rows as { user: string; host: string; priv: string | GlobalPriv }[]).map(({ user, host, priv }) => {
+    const p = (typeof priv === 'string' ? JSON.parse(priv) : priv) as GlobalPriv;
     const top = { plugin: p.plugin ?? 'mysql_native_password', auth: p.authentication_string ?? '' };
     // An empty entry in auth_or stands for the top-level method.
     const methods = p.auth_or ? p.auth_or.map((m) => (m.plugin ? { plugin: m.plugin, auth: m.authentication_string ?? '' } : top)) : [top];
