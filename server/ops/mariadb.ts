@@ -102,10 +102,12 @@ function shellQuote(value: string): string {
 
 /** Gives a folder tree to the server's user, when it is not theirs already (an upgrade from a root-run instance). */
 function own(target: string, user: ServerUser | null): void {
-  if (!user || !existsSync(target) || statSync(target).uid === user.uid) return;
+  if (!user || !existsSync(target)) return;
+  // Every entry, not just the top: a server once run as root may have left root's files inside.
   const walk = (p: string) => {
-    chownSync(p, user.uid, user.gid);
-    if (statSync(p).isDirectory()) for (const entry of readdirSync(p)) walk(path.join(p, entry));
+    const stat = statSync(p);
+    if (stat.uid !== user.uid || stat.gid !== user.gid) chownSync(p, user.uid, user.gid);
+    if (stat.isDirectory()) for (const entry of readdirSync(p)) walk(path.join(p, entry));
   };
   walk(target);
 }
