@@ -6,7 +6,8 @@ import express, { type Express } from 'express';
 import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
 import { createAuditRepository } from './audit/repository';
-import { createReadAudit } from './audit/service';
+import { auditRoutes } from './audit/routes';
+import { createAuditService, createReadAudit } from './audit/service';
 import { authRoutes } from './auth/routes';
 import { createAuthService } from './auth/service';
 import { createPasswordLinkRepository } from './auth/password-link-repository';
@@ -112,6 +113,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
     ...outboxRoutes(dataSource),
     ...sessionRoutes(sessionService, discharge),
     ...staffRoutes(dataSource),
+    ...auditRoutes(createAuditService(audit)),
     ...reviewRoutes(createReviewService({ dataSource, reviews: createReviewRepository(dataSource), sessions: sessionService, audit, reads, unitTimeZone })),
   ];
   app.locals.routeTable = routes;

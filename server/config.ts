@@ -12,8 +12,6 @@ const envSchema = z.object({
   DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, 'DB_NAME may hold letters, digits and _ only').default('luxtempo'),
   DB_USER: z.string().min(1).default('luxtempo_app'),
   DB_PASSWORD: z.string().min(1, 'DB_PASSWORD is required'),
-  DB_OWNER_USER: z.string().min(1).default('luxtempo_owner'),
-  DB_OWNER_PASSWORD: z.string().min(1, 'DB_OWNER_PASSWORD is required'),
   JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters'),
   /** A session's maximum lifetime, however active it is. */
   SESSION_HOURS: z.coerce.number().min(1).max(24).default(12),

@@ -17,6 +17,7 @@ export const capabilities = [
   'calculations.run',
   'audit.read',
   'audit.review',
+  'audit.verify',
   'patients.read',
   'patients.manage',
   'orders.read',

@@ -35,3 +35,12 @@ export function createReadAudit(audit: AuditRepository, now: () => number = Date
 }
 
 export type ReadAudit = ReturnType<typeof createReadAudit>;
+
+export function createAuditService(audit: AuditRepository) {
+  return {
+    /** Recomputes the hash chain over every audit row; names the first row that does not match. */
+    verifyChain: () => audit.verifyChain(),
+  };
+}
+
+export type AuditService = ReturnType<typeof createAuditService>;

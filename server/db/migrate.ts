@@ -1,12 +1,12 @@
 import 'reflect-metadata';
 import type { Config } from '../config';
 import { grantAppUserRights } from './grants';
-import { ownerDataSource } from './options';
+import { ownerDataSource, type OwnerCredentials } from './options';
 
 /** Runs pending migrations as the owner user, then gives the app user its table rights. */
-export async function migrateDatabase(config: Config): Promise<string[]> {
+export async function migrateDatabase(config: Config, ownerCredentials: OwnerCredentials): Promise<string[]> {
   // The grant step tries REVOKEs that may find nothing to revoke; those failures are expected.
-  const owner = ownerDataSource(config, { migrationsTransactionMode: 'each', logging: false });
+  const owner = ownerDataSource(config, ownerCredentials, { migrationsTransactionMode: 'each', logging: false });
   await owner.initialize();
   try {
     const ran = await owner.runMigrations();

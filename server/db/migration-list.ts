@@ -6,6 +6,7 @@ import { OrdersAndOutbox1796162437763 } from './migrations/1796162437763-OrdersA
 import { Sessions1796162826105 } from './migrations/1796162826105-Sessions';
 import { AuditReview1796163852814 } from './migrations/1796163852814-AuditReview';
 import { DoseRecordOrderFacts1796177175796 } from './migrations/1796177175796-DoseRecordOrderFacts';
+import { DatabaseIntegrity1796200000000 } from './migrations/1796200000000-DatabaseIntegrity';
 import { AccountsAndSessions1796293735643 } from './migrations/1796293735643-AccountsAndSessions';
 import { PatientMeasurements1796293936378 } from './migrations/1796293936378-PatientMeasurements';
 import { ProtocolVersionGuard1796293943222 } from './migrations/1796293943222-ProtocolVersionGuard';
@@ -19,6 +20,7 @@ export const migrations = [
   Sessions1796162826105,
   AuditReview1796163852814,
   DoseRecordOrderFacts1796177175796,
+  DatabaseIntegrity1796200000000,
   AccountsAndSessions1796293735643,
   PatientMeasurements1796293936378,
   ProtocolVersionGuard1796293943222,

@@ -1,6 +1,7 @@
 import { DataSource, type DataSourceOptions } from 'typeorm';
 import type { Config } from '../config';
 import { Attachment } from './entities/attachment';
+import { AuditChainHead } from './entities/audit-chain-head';
 import { AuditEvent } from './entities/audit-event';
 import { DeviationRow } from './entities/deviation';
 import { DeviationReview } from './entities/deviation-review';
@@ -22,7 +23,7 @@ import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
 import { migrations } from './migration-list';
 
-export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow, DeviationReview, SessionParticipant, PatientMeasurement, SignInSession, PasswordLink, SignInThrottle, RoleRequest];
+export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow, DeviationReview, SessionParticipant, PatientMeasurement, SignInSession, PasswordLink, SignInThrottle, RoleRequest, AuditChainHead];
 
 export interface DatabaseConnection {
   host: string;
@@ -58,10 +59,19 @@ export function appDataSource(config: Config): DataSource {
   );
 }
 
+/**
+ * The schema owner's sign-in. Only the migration step holds it (server/ops/migrate-step.ts);
+ * the web server's configuration has no field for it.
+ */
+export interface OwnerCredentials {
+  user: string;
+  password: string;
+}
+
 /** The schema owner's connection, for migrations. */
-export function ownerDataSource(config: Config, extra: { migrationsTransactionMode?: 'all' | 'none' | 'each'; logging?: boolean } = {}): DataSource {
+export function ownerDataSource(config: Config, owner: OwnerCredentials, extra: { migrationsTransactionMode?: 'all' | 'none' | 'each'; logging?: boolean } = {}): DataSource {
   return new DataSource({
-    ...dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD }),
+    ...dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: owner.user, password: owner.password }),
     ...extra,
   } as DataSourceOptions);
 }

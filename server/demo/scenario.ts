@@ -7,7 +7,6 @@ import { deriveDoseRecord } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
 import type { SessionEventInput } from '../../shared/session/session-events';
 import { createAuditRepository } from '../audit/repository';
-import { Preparation } from '../db/entities/preparation';
 import { ProtocolVersion } from '../db/entities/protocol-version';
 import { SessionEventRow } from '../db/entities/session-event';
 import { TreatmentOrder } from '../db/entities/treatment-order';
@@ -171,9 +170,18 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
         ]);
         const reconstitutedAt = new Date(startMs - 30 * 60_000);
         const beyondUseAt = new Date(reconstitutedAt.getTime() + pv.definition.drug.beyondUseH * 3600_000);
-        await manager.getRepository(Preparation).insert({ orderId: order.id, pharmacistId: pharmacist.id, vialLot: `DEMO-${item.key.toUpperCase()}`, vialExpiry: start.plus({ months: 8 }).toISODate()!, reconstitutedAt, volumeDrawnMl: plan.drugVolumeMl!, beyondUseAt });
+        // Preparations are append-only too: dated at insert.
+        await manager.query('INSERT INTO preparation (order_id, pharmacist_id, vial_lot, vial_expiry, reconstituted_at, volume_drawn_ml, beyond_use_at, created_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)', [
+          order.id,
+          pharmacist.id,
+          `DEMO-${item.key.toUpperCase()}`,
+          start.plus({ months: 8 }).toISODate()!,
+          reconstitutedAt,
+          plan.drugVolumeMl!,
+          beyondUseAt,
+          reconstitutedAt,
+        ]);
         await manager.update(TreatmentOrder, { id: order.id }, { beyondUseAt });
-        await manager.query('UPDATE preparation SET created_at = ? WHERE order_id = ?', [reconstitutedAt, order.id]);
         preparation = { reconstitutedAt: reconstitutedAt.toISOString(), beyondUseAt: beyondUseAt.toISOString() };
       }
       const rows = item.script.map(([offsetS, event]) => ({
@@ -192,6 +200,9 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
       const record = deriveDoseRecord({ protocol: pv.definition, plan, events });
       const found = findDeviations({ protocol: pv.definition, plan, record, checklist: noAnswers(pv.definition), preparation });
       await sessions.reconcileDeviations(manager, order.id, pv.id, found);
+      // Deviations belong to the session's day, for the monthly figures; dated before the record
+      // exists, because an ended session's deviations are closed to change (migration DatabaseIntegrity).
+      await manager.query('UPDATE deviation SET detected_at = ? WHERE order_id = ?', [new Date(startMs + 3600_000), order.id]);
       await sessions.saveRecord(manager, order.id, record, { protocolVersionId: pv.id, unitTimeZone, deviationCount: found.length, order: recordOrderFacts({ eye: item.eye, patientId: who.id, plan }) });
       await addParticipant(manager, order.id, clinician.id, 'ordered');
       await addParticipant(manager, order.id, nurse.id, 'nursed');
@@ -199,8 +210,6 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
         await addParticipant(manager, order.id, pharmacist.id, 'checked');
         await addParticipant(manager, order.id, pharmacist.id, 'prepared');
       }
-      // Deviations belong to the session's day, for the monthly figures.
-      await manager.query('UPDATE deviation SET detected_at = ? WHERE order_id = ?', [new Date(startMs + 3600_000), order.id]);
     });
     added++;
   }

@@ -46,6 +46,13 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
     res.status(503).json({ error: { code: 'database_unavailable', message: 'The database is not answering. Nothing was saved; try again in a moment.' } });
     return;
   }
+  // A database trigger kept a signed or closed record as it was (SIGNAL SQLSTATE '45000'): the
+  // API should have refused first, so it is logged, but the person hears why nothing changed.
+  if (code === 'ER_SIGNAL_EXCEPTION') {
+    console.error('A database rule refused a change:', err?.sqlMessage ?? err?.driverError?.sqlMessage);
+    res.status(409).json({ error: { code: 'record_kept', message: `${err?.sqlMessage ?? err?.driverError?.sqlMessage ?? 'The record cannot be changed.'} Nothing was saved.` } });
+    return;
+  }
   console.error('Unexpected error:', err);
   res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server. Nothing more was saved; please try again.' } });
 };

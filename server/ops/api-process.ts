@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { openSync } from 'node:fs';
+import { webServerEnvironment } from './environment';
 import { repoRoot } from './paths';
 
 export interface ApiProcess {
@@ -14,19 +15,21 @@ export interface ApiProcess {
  * through the tsx command, which would put a second process in between), so killing it really
  * ends the server. Resolves once this very process answers /api/health.
  */
-export async function startApiProcess(options: { port: number; env: NodeJS.ProcessEnv; logFile: string }): Promise<ApiProcess> {
-  const log = openSync(options.logFile, 'a');
+export async function startApiProcess(options: { port: number; env: NodeJS.ProcessEnv; logFile?: string }): Promise<ApiProcess> {
+  const log = options.logFile ? openSync(options.logFile, 'a') : 'inherit';
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     cwd: repoRoot,
-    env: { ...process.env, ...options.env, PORT: String(options.port) },
+    // Never the schema owner's password: the web server reads and writes as the app user only.
+    env: webServerEnvironment({ ...process.env, ...options.env, PORT: String(options.port) }),
     stdio: ['ignore', log, log],
   });
   const url = `http://127.0.0.1:${options.port}`;
   let exited = false;
   child.once('exit', () => (exited = true));
-  const until = Date.now() + 30_000;
+  // tsx compiles the server on start: a minute, for a machine busy with other work.
+  const until = Date.now() + 60_000;
   for (;;) {
-    if (exited) throw new Error(`the API process on port ${options.port} exited at start; see ${options.logFile}`);
+    if (exited) throw new Error(`the API process on port ${options.port} exited at start; see ${options.logFile ?? 'its output above'}`);
     try {
       // The answer must come from this process, not from one left over on the port.
       const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(1000) });
@@ -35,7 +38,11 @@ export async function startApiProcess(options: { port: number; env: NodeJS.Proce
     } catch {
       // not listening yet
     }
-    if (Date.now() > until) throw new Error(`the API process on port ${options.port} did not answer within 30 s; see ${options.logFile}`);
+    if (Date.now() > until) {
+      // Not left behind holding the port (and the database) for the next run.
+      child.kill('SIGKILL');
+      throw new Error(`the API process on port ${options.port} did not answer within 60 s; see ${options.logFile ?? 'its output above'}`);
+    }
     await new Promise((r) => setTimeout(r, 200));
   }
   return {

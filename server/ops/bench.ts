@@ -11,7 +11,6 @@ import autocannon from 'autocannon';
 import mysql from 'mysql2/promise';
 import { chromium } from 'playwright-core';
 import { loadConfig } from '../config';
-import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
 import { demoPassword, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
@@ -20,8 +19,8 @@ import { measureEngine } from './bench-engine';
 import { buildClient } from './build-client';
 import { measureClockError } from './bench-clock';
 import { cpuTimeMs } from './process-cpu';
-import { localEnvironment } from './environment';
-import { ensureDatabaseServer } from './mariadb';
+import { ensureDatabaseFor, recreateDatabase } from './database-setup';
+import { localEnvironment, localOwnerCredentials } from './environment';
 import { clientDistDir, dataDir } from './paths';
 
 const benchDatabase = 'luxtempo_bench';
@@ -38,12 +37,9 @@ const env = { ...localEnvironment(benchDatabase), NODE_ENV: 'production', DEMO_D
 const config = loadConfig(env);
 
 async function prepareDatabase() {
-  const database = await ensureDatabaseServer({ port: config.DB_PORT, databases: [benchDatabase], ownerUser: config.DB_OWNER_USER, ownerPassword: config.DB_OWNER_PASSWORD, appUser: config.DB_USER, appPassword: config.DB_PASSWORD });
-  const owner = await mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD });
-  await owner.query(`DROP DATABASE IF EXISTS \`${benchDatabase}\``);
-  await owner.query(`CREATE DATABASE \`${benchDatabase}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
-  await owner.end();
-  await migrateDatabase(config);
+  const owner = localOwnerCredentials();
+  const database = await ensureDatabaseFor(config, owner, [benchDatabase]);
+  await recreateDatabase(config, owner);
   const app = appDataSource(config);
   await app.initialize();
   await loadShippedProtocols(app);

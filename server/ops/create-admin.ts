@@ -4,8 +4,8 @@ import { loadConfig } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
 import { createFirstAdmin } from '../people/first-admin';
-import { appDatabase, localEnvironment, testDatabase } from './environment';
-import { ensureDatabaseServer } from './mariadb';
+import { ensureDatabaseFor } from './database-setup';
+import { appDatabase, localEnvironment, localOwnerCredentials, testDatabase } from './environment';
 
 // npm run admin:create -- --email someone@hospital.example --name "Their Name"
 const { values } = parseArgs({ options: { email: { type: 'string' }, name: { type: 'string' } } });
@@ -20,17 +20,11 @@ if (!email.success || !name.success) {
 
 const config = loadConfig(localEnvironment(process.env.DB_NAME ?? appDatabase));
 // The same private MariaDB `npm start` uses; started (and stopped again) if it is not running.
-const database = await ensureDatabaseServer({
-  port: config.DB_PORT,
-  databases: [config.DB_NAME, testDatabase],
-  ownerUser: config.DB_OWNER_USER,
-  ownerPassword: config.DB_OWNER_PASSWORD,
-  appUser: config.DB_USER,
-  appPassword: config.DB_PASSWORD,
-});
+const owner = localOwnerCredentials();
+const database = await ensureDatabaseFor(config, owner, [config.DB_NAME, testDatabase]);
 let exitCode = 0;
 try {
-  await migrateDatabase(config);
+  await migrateDatabase(config, owner);
   const dataSource = appDataSource(config);
   await dataSource.initialize();
   try {

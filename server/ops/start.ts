@@ -4,19 +4,23 @@ import { appDataSource } from '../db/options';
 import { seedDemoScenario } from '../demo/scenario';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
-import { startWebServer, stopWebServer, type RunningWebServer } from '../index';
+import { startApiProcess, type ApiProcess } from './api-process';
 import { buildClient } from './build-client';
-import { appDatabase, localEnvironment, testDatabase } from './environment';
+import { ensureDatabaseFor } from './database-setup';
+import { appDatabase, localEnvironment, localOwnerCredentials, testDatabase } from './environment';
 import { ensureMailCatcher, type MailCatcher } from './mail-catcher';
-import { ensureDatabaseServer, type DatabaseServer } from './mariadb';
+import type { DatabaseServer } from './mariadb';
 import { clientDistDir } from './paths';
 
+// This process prepares and supervises; the web server is a process of its own, started with an
+// environment that has no schema owner's password (the migrations run here, before it starts).
 const startedAt = performance.now();
-const config = loadConfig(localEnvironment(process.env.DB_NAME ?? appDatabase));
+const env = localEnvironment(process.env.DB_NAME ?? appDatabase);
+const config = loadConfig(env);
 
 let database: DatabaseServer | undefined;
 let mail: MailCatcher | undefined;
-let running: RunningWebServer | undefined;
+let web: ApiProcess | undefined;
 let stopping = false;
 
 /** Stops what this run started, newest first; services that were already running stay up. */
@@ -24,7 +28,12 @@ async function shutdown(reason: string, exitCode: number) {
   if (stopping) return;
   stopping = true;
   console.log(`\n${reason}: stopping Luxtempo …`);
-  if (running) await stopWebServer(running).catch(() => undefined);
+  if (web) {
+    const exited = new Promise<void>((resolve) => (web!.child.exitCode !== null ? resolve() : web!.child.once('exit', () => resolve())));
+    web.child.kill('SIGTERM');
+    await Promise.race([exited, new Promise((r) => setTimeout(r, 10_000))]);
+    await web.kill();
+  }
   mail?.stop();
   if (database) {
     await database.stop();
@@ -36,16 +45,9 @@ process.on('SIGINT', () => void shutdown('SIGINT', 0));
 process.on('SIGTERM', () => void shutdown('SIGTERM', 0));
 
 try {
-  database = await ensureDatabaseServer({
-    port: config.DB_PORT,
-    databases: [config.DB_NAME, testDatabase],
-    ownerUser: config.DB_OWNER_USER,
-    ownerPassword: config.DB_OWNER_PASSWORD,
-    appUser: config.DB_USER,
-    appPassword: config.DB_PASSWORD,
-  });
-
-  const ran = await migrateDatabase(config);
+  const owner = localOwnerCredentials();
+  database = await ensureDatabaseFor(config, owner, [config.DB_NAME, testDatabase]);
+  const ran = await migrateDatabase(config, owner);
   console.log(ran.length ? `• Migrations run: ${ran.join(', ')}` : '• Database schema is up to date');
 
   if (config.DEMO_DATA) {
@@ -77,7 +79,8 @@ try {
   console.log(`• Mail catcher: SMTP 127.0.0.1:${config.SMTP_PORT}, inbox ${mail.webUrl}`);
 
   console.log(`• Client build: ${await buildClient()}`);
-  running = await startWebServer({ config, clientDir: clientDistDir });
+  web = await startApiProcess({ port: config.PORT, env: { ...env, CLIENT_DIR: clientDistDir } });
+  web.child.once('exit', (code, signal) => void shutdown(`The web server ended (${code ?? signal})`, code ? 1 : 0));
 } catch (error) {
   console.error(`\n✗ Luxtempo could not start: ${error instanceof Error ? error.message : String(error)}`);
   await shutdown('Start failed', 1);
@@ -87,4 +90,4 @@ const seconds = ((performance.now() - startedAt) / 1000).toFixed(1);
 const signIns = config.DEMO_DATA
   ? `\nDemo sign-ins (password for all: ${demoPassword}):\n${demoPeople.map((p) => `  ${p.email.padEnd(40)} ${p.roles.join(' + ')}`).join('\n')}\n`
   : '';
-console.log(`\nLuxtempo is ready (${seconds} s): ${running!.url}\n${signIns}\nStop with Ctrl-C.`);
+console.log(`\nLuxtempo is ready (${seconds} s): http://${config.HOST}:${config.PORT}\n${signIns}\nStop with Ctrl-C.`);

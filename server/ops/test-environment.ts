@@ -1,10 +1,9 @@
-import mysql from 'mysql2/promise';
 import { loadConfig, type Config } from '../config';
-import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
 import { loadShippedProtocols } from '../protocols/load-shipped';
-import { localEnvironment, testDatabase as defaultTestDatabase } from './environment';
-import { ensureDatabaseServer, type DatabaseServer } from './mariadb';
+import { ensureDatabaseFor, recreateDatabase } from './database-setup';
+import { localEnvironment, localOwnerCredentials, testDatabase as defaultTestDatabase } from './environment';
+import type { DatabaseServer } from './mariadb';
 
 /** The browser tests' database, beside the API tests' one. */
 export function browserTestDatabase(testDatabase: string): string {
@@ -26,21 +25,12 @@ export async function prepareTestEnvironment(): Promise<{ config: Config; databa
   // The API tests and the browser tests each get a database: API tests leave many records behind
   // that a browser test, reading lists as a person would, should not have to wade through.
   const databases = [testDatabase, browserTestDatabase(testDatabase)];
-  const database = await ensureDatabaseServer({
-    port: config.DB_PORT,
-    databases,
-    ownerUser: config.DB_OWNER_USER,
-    ownerPassword: config.DB_OWNER_PASSWORD,
-    appUser: config.DB_USER,
-    appPassword: config.DB_PASSWORD,
-  });
+  // The owner's password stays in this preparing process: vitest and the apps it starts get none.
+  const owner = localOwnerCredentials();
+  const database = await ensureDatabaseFor(config, owner, databases);
   for (const name of databases) {
-    const owner = await mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD });
-    await owner.query(`DROP DATABASE IF EXISTS \`${name}\``);
-    await owner.query(`CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
-    await owner.end();
     const named = { ...config, DB_NAME: name };
-    await migrateDatabase(named);
+    await recreateDatabase(named, owner);
     const app = appDataSource(named);
     await app.initialize();
     await loadShippedProtocols(app).finally(() => app.destroy());

@@ -1,5 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
+import { isSessionEnded, sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
 import { readyForSessionStatuses, type OrderStatus } from '../../shared/schemas/orders';
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import { deriveDoseRecord } from '../../shared/session/dose-record';
@@ -55,6 +55,7 @@ export function createSessionService(deps: {
     if (at < nowMs - oldestEventMs) {
       throw AppError.badRequest('The event is too old to belong to this session.', [{ path: 'clientTime', message: 'clientTime must lie within the last 12 hours' }]);
     }
+
     if ('stepId' in input) {
       const step = order.definition.steps.find((s) => s.id === input.stepId);
       if (!step) throw AppError.badRequest(`Protocol ${order.definition.key} has no step ${input.stepId}.`, [{ path: 'stepId', message: 'stepId must be a step of the order’s protocol version' }]);
@@ -73,6 +74,21 @@ export function createSessionService(deps: {
       }
     } else if (!sessionEventStatuses.includes(order.status)) {
       throw AppError.conflict('session_not_started', `Order ${order.id} has no session running (it is ${order.status}).`);
+    }
+  }
+
+  /**
+   * An ended session takes events as long as a tap made before its end can still arrive (12 h),
+   * and no longer: then its record and deviations are closed, and the database refuses to change
+   * them (migration DatabaseIntegrity). The end is the first end event, as the record reads it.
+   * Checked on the events read under the order's lock, so it costs no statement of its own (a
+   * join to dose_record under FOR UPDATE gap-locked it, and concurrent first events deadlocked).
+   */
+  function checkRecordOpen(order: SessionOrder, events: readonly SessionEvent[], nowMs: number) {
+    if (!isSessionEnded(order.status)) return;
+    const endMs = Math.min(...events.filter((e) => e.type === 'session-completed' || e.type === 'session-stopped').map((e) => Date.parse(e.clientTime)));
+    if (Number.isFinite(endMs) && nowMs - endMs > oldestEventMs) {
+      throw AppError.conflict('record_closed', `The session for order ${order.id} ended more than 12 hours ago; its dose record is closed and takes no more events.`);
     }
   }
 
@@ -172,6 +188,7 @@ export function createSessionService(deps: {
           if (!event) throw new Error(`event ${input.idempotencyKey} was stored but not read back`);
           // Refused here, the insert rolls back and `read` is never remembered.
           if (input.type === 'tap-withdrawn') checkWithdrawal(order, input, read.events);
+          checkRecordOpen(order, read.events, now());
           const result = await recompute(manager, order, read.events);
           if (status === 'reviewed') {
             const [{ open }] = await manager.query("SELECT COUNT(*) AS open FROM deviation WHERE order_id = ? AND review_status = 'open' AND withdrawn_at IS NULL", [orderId]);

@@ -66,6 +66,7 @@ const expected: Record<string, 'public' | Role[]> = {
   'GET /api/exports/deviations.csv': ['auditor'],
   'GET /api/exports/dose-records.csv': ['auditor'],
   'GET /api/audit-events': ['auditor'],
+  'GET /api/audit-chain': ['auditor', 'admin'],
   'GET /api/staff': ['auditor'],
 };
 

@@ -1,12 +1,13 @@
 import type { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ownerDataSource } from '../../server/db/options';
+import { localOwnerCredentials } from '../../server/ops/environment';
 import { testConfig } from '../support/api';
 
 // The owner sees the whole schema (foreign keys included), as the migrations do.
 let owner: DataSource;
 beforeAll(async () => {
-  owner = ownerDataSource(testConfig());
+  owner = ownerDataSource(testConfig(), localOwnerCredentials());
   await owner.initialize();
 });
 afterAll(async () => {

@@ -1,11 +1,10 @@
 import path from 'node:path';
-import mysql from 'mysql2/promise';
 import { loadConfig, type Config } from '../../server/config';
-import { migrateDatabase } from '../../server/db/migrate';
 import { appDataSource } from '../../server/db/options';
 import { seedDemoData } from '../../server/demo/seed';
-import { localEnvironment } from '../../server/ops/environment';
-import { ensureDatabaseServer, shutdownDatabaseServer } from '../../server/ops/mariadb';
+import { ensureDatabaseFor, recreateDatabase } from '../../server/ops/database-setup';
+import { localEnvironment, localOwnerCredentials } from '../../server/ops/environment';
+import { shutdownDatabaseServer } from '../../server/ops/mariadb';
 import { startApiProcess as startProcess, type ApiProcess } from '../../server/ops/api-process';
 import { dataDir } from '../../server/ops/paths';
 
@@ -26,7 +25,7 @@ export function faultConfig(): Config {
 
 export async function startFaultDatabase(): Promise<void> {
   const config = faultConfig();
-  await ensureDatabaseServer({ port: faultDbPort, instanceDir: faultDir, databases: [database], ownerUser: config.DB_OWNER_USER, ownerPassword: config.DB_OWNER_PASSWORD, appUser: config.DB_USER, appPassword: config.DB_PASSWORD });
+  await ensureDatabaseFor(config, localOwnerCredentials(), [database], faultDir);
 }
 
 export function stopFaultDatabase(): void {
@@ -36,11 +35,7 @@ export function stopFaultDatabase(): void {
 /** A fresh database with the schema, the shipped protocols and the demo people. */
 export async function resetFaultDatabase(): Promise<void> {
   const config = faultConfig();
-  const owner = await mysql.createConnection({ host: config.DB_HOST, port: faultDbPort, user: config.DB_OWNER_USER, password: config.DB_OWNER_PASSWORD });
-  await owner.query(`DROP DATABASE IF EXISTS \`${database}\``);
-  await owner.query(`CREATE DATABASE \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
-  await owner.end();
-  await migrateDatabase(config);
+  await recreateDatabase(config, localOwnerCredentials());
   const app = appDataSource(config);
   await app.initialize();
   try {

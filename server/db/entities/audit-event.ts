@@ -2,7 +2,9 @@ import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 
 
 /**
  * Who did what to which record, and when. Append-only: the app's database user may INSERT and
- * SELECT here, never UPDATE or DELETE (server/db/grants.ts).
+ * SELECT here, never UPDATE or DELETE (server/db/grants.ts). Each row carries a hash chained to the
+ * one before, so a change made around the app (as the owner, or in the files) shows in
+ * `npm run audit:verify`.
  */
 @Entity({ name: 'audit_event' })
 @Index('ix_audit_event_occurred_at', ['occurredAt'])
@@ -33,4 +35,12 @@ export class AuditEvent {
 
   @Column({ type: 'json', nullable: true })
   details!: Record<string, unknown> | null;
+
+  /** The previous row's `hash` (64 zeros for the first row). */
+  @Column({ name: 'prev_hash', type: 'char', length: 64 })
+  prevHash!: string;
+
+  /** SHA-256 of the previous hash and this row's fields (server/audit/chain.ts). */
+  @Column({ type: 'char', length: 64 })
+  hash!: string;
 }

@@ -12,7 +12,7 @@ export function AuditTrailRoute() {
     <>
       <title>Audit trail · Luxtempo</title>
       {hasCapability(user, 'audit.read') ? (
-        <AuditTrailScreen />
+        <AuditTrailScreen mayVerify={hasCapability(user, 'audit.verify')} />
       ) : (
         <StatusPanel headingLevel="h1" icon={<LockIcon className="size-6" />} title="The audit trail is for auditors" actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}>
           <p>Ask an administrator if your roles need to change.</p>

@@ -5,10 +5,11 @@ import { PageHeader } from '../../../components/ui/page-header';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 import { auditTrailQueries } from '../api/audit-trail-queries';
 import { useAuditTrailParams } from '../hooks/use-audit-trail-params';
+import { AuditChainCheck } from './audit-chain-check';
 import { AuditTrailFilters } from './audit-trail-filters';
 import { AuditTrailTable } from './audit-trail-table';
 
-export function AuditTrailScreen() {
+export function AuditTrailScreen({ mayVerify = false }: { mayVerify?: boolean }) {
   const { query, update, filtered } = useAuditTrailParams();
   const list = useQuery(auditTrailQueries.list(query));
   const fieldErrors = filterProblems(list.error);
@@ -28,6 +29,7 @@ export function AuditTrailScreen() {
       >
         {(data) => <AuditTrailTable events={data.events} total={data.total} query={query} onChange={update} busy={list.isPlaceholderData} />}
       </FilteredListStates>
+      {mayVerify && <AuditChainCheck />}
     </>
   );
 }

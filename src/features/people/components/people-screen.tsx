@@ -7,6 +7,7 @@ import { AlertIcon, CheckCircleIcon, PeopleIcon, PlusIcon, ReloadIcon } from '..
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { describeError } from '../../../lib/api-client';
+import { AuditChainCheck } from '../../audit-trail/components/audit-chain-check';
 import { peopleQueries } from '../api/people-queries';
 import { AddPersonForm } from './add-person-form';
 import { ChangeStatusDialog } from './change-status-dialog';
@@ -178,6 +179,8 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
           setOutcome(`${person.displayName} is now ${person.active ? 'active and can sign in' : 'deactivated and cannot sign in'}.`);
         }}
       />
+      {/* Administrators keep the records' integrity in view; the same check as `npm run audit:verify`. */}
+      <AuditChainCheck />
     </>
   );
 }
