@@ -3,7 +3,7 @@ import { DateTime } from 'luxon';
 import type { DataSource, EntityManager } from 'typeorm';
 import { computePlan } from '../../shared/engine/compute-plan';
 import { PlanInputError } from '../../shared/engine/plan-input-error';
-import { signatureProblems } from '../../shared/orders/readiness';
+import { answeredCautions, signatureProblems } from '../../shared/orders/readiness';
 import type { DosePlan } from '../../shared/schemas/calculation';
 import type { AmendOrder, OrderDetail, OrderDraft, OrderListQuery, OrderStatus, OrderSummary } from '../../shared/schemas/orders';
 import type { Role } from '../../shared/roles';
@@ -127,6 +127,8 @@ export function createOrderService(deps: {
       softLimitReasons: order.softLimitReasons,
       retreatmentReason: order.retreatmentReason,
       note: order.note,
+      swellingAcknowledged: order.swellingAcknowledged,
+      answeredCautions: answeredCautions(order.protocolVersion.definition, order.checklist),
       plan: withheld ? null : order.plan,
       planWithheld: withheld,
       amendmentReason: order.amendmentReason,
@@ -176,6 +178,7 @@ export function createOrderService(deps: {
         softLimitReasons: input.softLimitReasons,
         retreatmentReason: input.retreatmentReason ?? null,
         note: input.note ?? null,
+        swellingAcknowledged: input.swellingAcknowledged ?? false,
         createdById: base.createdById ?? actor.id,
       });
       return saved;
@@ -242,8 +245,19 @@ export function createOrderService(deps: {
         softLimitReasons: order.softLimitReasons,
         retreatmentReason: order.retreatmentReason,
         recentTreatmentDays: await recentTreatmentDays(order, row),
+        swellingAcknowledged: order.swellingAcknowledged,
       });
-      if (problems.length > 0) throw AppError.badRequest(`The order cannot be signed yet: ${problems.map((p) => p.message).join('; ')}`, problems);
+      if (problems.length > 0) {
+        await audit.append({
+          actorUserId: actor.id,
+          action: 'order.signature-refused',
+          entityType: 'order',
+          entityId: id,
+          ipAddress: actor.ipAddress,
+          details: { protocol: `${row.key} v${row.version}`, problems: problems.map((p) => ({ path: p.path, message: p.message })) },
+        });
+        throw AppError.badRequest(`The order cannot be signed yet: ${problems.map((p) => p.message).join('; ')}`, problems);
+      }
 
       const status: OrderStatus = row.definition.drug ? 'signed' : 'ready';
       // Read before the transaction, which must not wait for a second pooled connection.
@@ -275,7 +289,7 @@ export function createOrderService(deps: {
         entityType: 'order',
         entityId: id,
         ipAddress: actor.ipAddress,
-        details: { meaning: 'ordered', status, protocol: `${row.key} v${row.version}`, engineVersion: frozen.engineVersion, contraindicationOverrides: overrides, softLimitReasons: order.softLimitReasons, retreatmentReason: order.retreatmentReason },
+        details: { meaning: 'ordered', status, protocol: `${row.key} v${row.version}`, engineVersion: frozen.engineVersion, contraindicationOverrides: overrides, swellingAcknowledged: order.swellingAcknowledged, softLimitReasons: order.softLimitReasons, retreatmentReason: order.retreatmentReason },
       });
       return detail(await mustFind(id), actor);
     },

@@ -47,6 +47,8 @@ export const orderDraftSchema = z.strictObject({
   /** Needed when this eye had the same kind of treatment within the protocol's minimum interval. */
   retreatmentReason: reason('retreatmentReason').nullable().optional(),
   note: z.string().trim().max(2000, 'note must be at most 2000 characters').nullable().optional(),
+  /** CXL with a swelling step: the clinician acknowledges that a stroma below the minimum is swollen before UV. */
+  swellingAcknowledged: z.boolean({ error: 'swellingAcknowledged must be true or false' }).default(false),
 });
 export type OrderDraft = z.infer<typeof orderDraftSchema>;
 
@@ -118,6 +120,9 @@ export const orderDetailSchema = orderSummarySchema.extend({
   softLimitReasons: z.record(z.string(), z.string()),
   retreatmentReason: z.string().nullable(),
   note: z.string().nullable(),
+  swellingAcknowledged: z.boolean().default(false),
+  /** Cautions answered yes, with the clinician's reason: the standing banner on every later screen. */
+  answeredCautions: z.array(z.object({ id: z.string(), question: z.string(), reason: z.string() })).default([]),
   /** The frozen dose plan; withheld (null) from a pharmacist until their blind check matches. */
   plan: dosePlanSchema.nullable(),
   planWithheld: z.boolean(),

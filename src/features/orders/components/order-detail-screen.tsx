@@ -126,6 +126,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
             softLimitReasons: detail.softLimitReasons,
             retreatmentReason: detail.retreatmentReason,
             recentTreatmentDays: null,
+            swellingAcknowledged: detail.swellingAcknowledged,
           }).map((p) => p.message),
           ...(retreatment && !detail.retreatmentReason ? [`${retreatment.message} Give a retreatment reason.`] : []),
         ]

@@ -156,6 +156,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
       softLimitReasons: draft.softLimitReasons,
       retreatmentReason: draft.retreatmentReason ?? null,
       recentTreatmentDays: null,
+      swellingAcknowledged: draft.swellingAcknowledged ?? false,
     }).map((p) => p.message);
     if (retreatmentWarning && !draft.retreatmentReason) problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
     return problems;
