@@ -34,6 +34,7 @@ import { printCss, PrintFrame } from '../../../components/ui/print-frame';
 import { SessionPanel } from './session-panel';
 import { SignOrderDialog } from './sign-order-dialog';
 import { TreatmentCautions } from './treatment-cautions';
+import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 
 type OrderDetailScreenProps = {
   orderId: number;
@@ -229,6 +230,9 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
             </p>
           )}
         </div>
+
+        {/* Signed orders carry their accepted cautions on every view, the printed dose record included. */}
+        {!isDraft && <AcceptedCautionsBanner cautions={detail.answeredCautions} className="mb-6" />}
 
         {detail.status === 'returned' && (
           <div role="alert" className={`mb-6 rounded-2xl border-2 border-alarm-700 bg-alarm-50 px-5 py-4 ${notInDoseRecord}`}>
