@@ -1,6 +1,12 @@
 import { DateTime } from 'luxon';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { seedDemoScenario } from '../../server/demo/scenario';
+import { seedDemoData } from '../../server/demo/seed';
+import { signatureProblems } from '../../shared/orders/readiness';
+import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
+import type { DosePlan } from '../../shared/schemas/calculation';
+import type { ChecklistAnswer } from '../../shared/schemas/orders';
 import { createTestPatient, createTestPerson, cxlOrder, pdtOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
 
 let ctx: TestContext;
@@ -202,5 +208,28 @@ describe('gate 3: the drawn volume delivers the dose', () => {
     expect(res.status).toBe(422);
     expect(res.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['doseMg']);
     expect((await storedOrder(order.id)).status).toBe('signed');
+  });
+});
+
+describe('the demo scenario under the gates', () => {
+  it('seeds orders that all pass the signature gates, and its draft PDT order signs through the API', { timeout: 120_000 }, async () => {
+    await seedDemoData(ctx.dataSource);
+    await seedDemoScenario(ctx.dataSource, 'Europe/Lisbon');
+    const rows: { id: number; status: string; note: string; plan: DosePlan; checklist: ChecklistAnswer[]; definition: ProtocolDefinition; swelling_acknowledged: number }[] = await ctx.dataSource.query(
+      "SELECT o.id, o.status, o.note, o.plan, o.checklist, o.swelling_acknowledged, v.definition FROM treatment_order o JOIN protocol_version v ON v.id = o.protocol_version_id WHERE o.note LIKE 'Demo %'",
+    );
+    expect(rows.length).toBeGreaterThan(10);
+    for (const row of rows) {
+      const problems = signatureProblems({ definition: row.definition, plan: row.plan, checklist: row.checklist, softLimitReasons: {}, retreatmentReason: null, recentTreatmentDays: null, swellingAcknowledged: row.swelling_acknowledged === 1 });
+      expect({ note: row.note, problems }).toEqual({ note: row.note, problems: [] });
+    }
+
+    const draftRow = rows.find((r) => r.note === 'Demo today: PDT draft');
+    if (draftRow?.status === 'draft') {
+      const demoClinician = supertest.agent(ctx.app);
+      expect((await demoClinician.post('/api/auth/login').send({ email: 'clinician@demo.luxtempo.example', password: 'luxtempo-demo' })).status).toBe(200);
+      const signed = await demoClinician.post(`/api/orders/${draftRow.id}/signature`).send({ password: 'luxtempo-demo', meaning: 'ordered' });
+      expect(signed.status, JSON.stringify(signed.body)).toBe(200);
+    }
   });
 });
