@@ -149,6 +149,8 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
     if (head === 'softLimitReasons') return `Reason for the ${fieldWords[rest.join('.')] ?? rest.join('.')}`;
     if (head === 'retreatmentReason') return 'Retreatment reason';
     if (head === 'inputs') return 'Measurements';
+    if (head === 'swellingAcknowledged') return 'Swelling acknowledgement';
+    if (head === 'protocol') return 'Protocol version';
     return head ?? path;
   };
 
