@@ -73,6 +73,29 @@ export function createOrderService(deps: {
     }
   }
 
+  /**
+   * The plan, or the engine's refusal. A refusal of the drawn-volume rule (path `protocol`) is a
+   * safety gate, not a typing slip, so it leaves an audit row naming the rule.
+   */
+  async function planOrRefuse(actor: Actor, row: ProtocolForUse, inputs: OrderDraft['inputs'], orderId: number | null): Promise<DosePlan> {
+    try {
+      return plan(row, inputs);
+    } catch (error) {
+      const gate = error instanceof AppError ? error.fields?.find((f) => f.path === 'protocol') : undefined;
+      if (gate) {
+        await audit.append({
+          actorUserId: actor.id,
+          action: 'order.plan-refused',
+          entityType: 'order',
+          entityId: orderId,
+          ipAddress: actor.ipAddress,
+          details: { protocol: `${row.key} v${row.version}`, rule: 'drawn-volume', problems: [gate] },
+        });
+      }
+      throw error;
+    }
+  }
+
   async function approvedProtocol(key: string, version?: number): Promise<ProtocolForUse> {
     const row = await protocols.resolveForUse(key, version);
     if (row.status !== 'approved') {
@@ -163,7 +186,7 @@ export function createOrderService(deps: {
     const patient = await patients.findById(input.patientId);
     if (!patient) throw AppError.badRequest(`There is no patient with id ${input.patientId}.`, [{ path: 'patientId', message: 'patientId must name an existing patient' }]);
     const row = await approvedProtocol(input.protocol.key, input.protocol.version);
-    const computed = plan(row, input.inputs);
+    const computed = await planOrRefuse(actor, row, input.inputs, base.id ?? null);
     const save = async (m: EntityManager) => {
       const saved = await orders.save(m, {
         ...base,
@@ -237,7 +260,7 @@ export function createOrderService(deps: {
       if (order.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} is ${order.status} and cannot be signed again.`);
       const row = await approvedProtocol(order.protocolVersion.key, order.protocolVersion.version);
       // The server's own figures at the moment of signing are what gets frozen.
-      const frozen = plan(row, order.inputs);
+      const frozen = await planOrRefuse(actor, row, order.inputs, id);
       const problems = signatureProblems({
         definition: row.definition,
         plan: frozen,

@@ -50,7 +50,8 @@ describe('the order form survives any order of entry', () => {
     // 178 cm, 84 kg: Mosteller √(178 × 84 ÷ 3600) = 2.038 → 2.04 m² (Mosteller RD, N Engl J Med 1987).
     await expect.poll(() => preview.innerText()).toContain('2.04');
 
-    const first = checklistQuestions(page).first();
+    // A caution (an absolute contraindication takes no reason: nothing unlocks it).
+    const first = checklistQuestions(page).filter({ hasText: 'photosensitising' });
     await first.getByLabel('Yes').check();
     await expect.poll(() => page.getByLabel('Reason to go on despite the yes (required)').count()).toBe(1);
     expect(await page.locator('body').innerText()).not.toMatch(crashScreen);
@@ -69,7 +70,7 @@ describe('the order form survives any order of entry', () => {
     expect(await page.getByLabel('Protocol version').inputValue()).toBe('pdt-standard@1');
     expect(await page.getByLabel('Right eye').isChecked()).toBe(true);
     await expect.poll(() => page.getByLabel('Lesion greatest linear dimension (GLD)').inputValue()).toBe('2400');
-    expect(await checklistQuestions(page).first().getByLabel('Yes').isChecked()).toBe(true);
+    expect(await checklistQuestions(page).filter({ hasText: 'photosensitising' }).getByLabel('Yes').isChecked()).toBe(true);
     expect(await page.getByLabel('Reason to go on despite the yes (required)').inputValue()).toMatch(/^Stopped the drug/);
     await expect.poll(() => preview.innerText()).toContain('2.04');
     expect(problems).toEqual([]);

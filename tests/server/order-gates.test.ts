@@ -168,6 +168,8 @@ describe('gate 3: the drawn volume delivers the dose', () => {
     expect(res.body.error.fields).toEqual([expect.objectContaining({ path: 'protocol', message: expect.stringMatching(/moves the dose in the syringe by -1\.1%/) })]);
     const stored = await ctx.dataSource.query('SELECT id FROM treatment_order WHERE patient_id = ?', [patient.id]);
     expect(stored).toHaveLength(0);
+    const audit = await ctx.dataSource.query("SELECT details FROM audit_event WHERE action = 'order.plan-refused' AND actor_user_id = ? ORDER BY id DESC LIMIT 1", [clinician.id]);
+    expect(audit[0].details).toMatchObject({ protocol: 'pdt-half-dose v1', rule: 'drawn-volume' });
   });
 
   it('draws to the 0.01 mL graduation, shows the dose in the drawn volume and the drug left over, and accepts the pharmacist’s exact figures', async () => {
