@@ -27,7 +27,13 @@ function thicknessFacts(plan: DosePlan): { measuredUm: number; minimumUm: number
   return measuredUm === undefined || minimumUm === undefined ? null : { measuredUm, minimumUm };
 }
 
-/** What the plan's measurement says the answer to a measurement-tied question must be; null when it cannot say. */
+/**
+ * What the plan's measurement says the answer to a measurement-tied question must be; null when it
+ * cannot say. A contradicting answer is refused rather than overwritten: the clinician answered
+ * a question and should see that it disagrees with what was measured (one of the two is wrong,
+ * a typo in the thickness as likely as a wrong tick), and a silently changed answer would sign
+ * something the clinician never said.
+ */
 export function measuredAnswer(question: Question, plan: DosePlan): 'yes' | 'no' | null {
   if (question.measurement === 'stromal-thickness-below-minimum' && plan.thicknessOk !== null) return plan.thicknessOk ? 'no' : 'yes';
   return null;
