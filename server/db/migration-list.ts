@@ -10,6 +10,7 @@ import { DatabaseIntegrity1796200000000 } from './migrations/1796200000000-Datab
 import { AccountsAndSessions1796293735643 } from './migrations/1796293735643-AccountsAndSessions';
 import { PatientMeasurements1796293936378 } from './migrations/1796293936378-PatientMeasurements';
 import { ProtocolVersionGuard1796293943222 } from './migrations/1796293943222-ProtocolVersionGuard';
+import { SwellingAcknowledged1796294162239 } from './migrations/1796294162239-SwellingAcknowledged';
 import { OrderRowVersion1796294215019 } from './migrations/1796294215019-OrderRowVersion';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
@@ -24,5 +25,6 @@ export const migrations = [
   AccountsAndSessions1796293735643,
   PatientMeasurements1796293936378,
   ProtocolVersionGuard1796293943222,
+  SwellingAcknowledged1796294162239,
   OrderRowVersion1796294215019,
 ];

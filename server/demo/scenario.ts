@@ -15,6 +15,17 @@ import { createUserRepository } from '../people/repository';
 import { addParticipant, createSessionRepository, recordOrderFacts } from '../sessions/repository';
 import { demoDomain, demoPatients } from './seed';
 
+/**
+ * The demo orders use each protocol's newest approved version, as a new order would: older
+ * versions may refuse a plan (v1 of the PDT protocols rounds volumes too coarsely for the 1%
+ * drawn-dose rule).
+ */
+export async function newestApprovedVersion(dataSource: DataSource, key: string): Promise<ProtocolVersion> {
+  const [newest] = await dataSource.getRepository(ProtocolVersion).find({ where: { key, status: 'approved' }, order: { version: 'DESC' }, take: 1 });
+  if (!newest) throw new Error(`the demo needs an approved version of protocol ${key}`);
+  return newest;
+}
+
 /** A script line: seconds from the session start, and the event as the tablet would send it. */
 type ScriptEvent = { type: SessionEventInput['type']; stepId?: string; checks?: Record<string, true>; thicknessUm?: number };
 export type Step = [offsetS: number, event: ScriptEvent];
@@ -123,7 +134,7 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
   for (const item of demoHistory) {
     const note = `Demo history ${item.key}`;
     if (await orderRepo.exists({ where: { note } })) continue;
-    const pv = await dataSource.getRepository(ProtocolVersion).findOneByOrFail({ key: item.protocol, version: 1 });
+    const pv = await newestApprovedVersion(dataSource, item.protocol);
     const who = await patients.findByRecordNumber(item.recordNumber);
     if (!who) continue;
     const plan = computePlan(pv.definition, item.inputs);
@@ -222,7 +233,7 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
   ];
   for (const item of today) {
     if (await orderRepo.exists({ where: { note: item.note } })) continue;
-    const pv = await dataSource.getRepository(ProtocolVersion).findOneByOrFail({ key: item.protocol, version: 1 });
+    const pv = await newestApprovedVersion(dataSource, item.protocol);
     const who = await patients.findByRecordNumber(item.recordNumber);
     if (!who) continue;
     const plan = computePlan(pv.definition, item.inputs);

@@ -9,7 +9,7 @@ import type { SessionEvent } from '../../shared/session/session-events';
 import { ProtocolVersion } from '../db/entities/protocol-version';
 import { createUserRepository } from '../people/repository';
 import { recordOrderFacts } from '../sessions/repository';
-import { cxlScript, pdtScript, type Step } from './scenario';
+import { cxlScript, newestApprovedVersion, pdtScript, type Step } from './scenario';
 import { demoDomain } from './seed';
 
 /** A small seeded generator (mulberry32), so two runs with one seed make the same data. */
@@ -53,7 +53,7 @@ export async function seedVolume(dataSource: DataSource, count: number, options:
   const [clinician, pharmacist, nurse, chargeNurse] = await Promise.all(['clinician', 'pharmacist', 'nurse', 'charge-nurse'].map((r) => users.findByEmail(`${r}@${demoDomain}`)));
   if (!clinician || !pharmacist || !nurse || !chargeNurse) throw new Error('seed the demo people first (npm start does)');
   const versions = new Map<string, ProtocolVersion>();
-  for (const [key] of protocolMix) versions.set(key, await dataSource.getRepository(ProtocolVersion).findOneByOrFail({ key, version: 1 }));
+  for (const [key] of protocolMix) versions.set(key, await newestApprovedVersion(dataSource, key));
   const totalWeight = protocolMix.reduce((s, [, w]) => s + w, 0);
   const pick = () => {
     let r = rand() * totalWeight;

@@ -3,7 +3,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { computePlan } from '../../shared/engine/compute-plan';
 import { PlanInputError } from '../../shared/engine/plan-input-error';
 import { amendableStatuses } from '../../shared/orders/lifecycle';
-import { signatureProblems } from '../../shared/orders/readiness';
+import { answeredCautions, signatureProblems } from '../../shared/orders/readiness';
 import { lastRecordedWeight, weightChangeMessage, weightChangeNeedingReason, type WeightChange, type WeightChangeRule } from '../../shared/orders/weight-change';
 import type { DosePlan } from '../../shared/schemas/calculation';
 import type { AmendOrder, OrderDetail, OrderDraft, OrderListQuery, OrderStatus, OrderSummary } from '../../shared/schemas/orders';
@@ -93,6 +93,29 @@ export function createOrderService(deps: {
     }
   }
 
+  /**
+   * The plan, or the engine's refusal. A refusal of the drawn-volume rule (path `protocol`) is a
+   * safety gate, not a typing slip, so it leaves an audit row naming the rule.
+   */
+  async function planOrRefuse(actor: Actor, row: ProtocolForUse, inputs: OrderDraft['inputs'], orderId: number | null): Promise<DosePlan> {
+    try {
+      return plan(row, inputs);
+    } catch (error) {
+      const gate = error instanceof AppError ? error.fields?.find((f) => f.path === 'protocol') : undefined;
+      if (gate) {
+        await audit.append({
+          actorUserId: actor.id,
+          action: 'order.plan-refused',
+          entityType: 'order',
+          entityId: orderId,
+          ipAddress: actor.ipAddress,
+          details: { protocol: `${row.key} v${row.version}`, rule: 'drawn-volume', problems: [gate] },
+        });
+      }
+      throw error;
+    }
+  }
+
   async function approvedProtocol(key: string, version?: number): Promise<ProtocolForUse> {
     const row = await protocols.resolveForUse(key, version);
     if (row.status !== 'approved') {
@@ -162,6 +185,8 @@ export function createOrderService(deps: {
       retreatmentReason: order.retreatmentReason,
       weightChangeReason: order.weightChangeReason,
       note: order.note,
+      swellingAcknowledged: order.swellingAcknowledged,
+      answeredCautions: answeredCautions(order.protocolVersion.definition, order.checklist),
       plan: withheld ? null : order.plan,
       planWithheld: withheld,
       amendmentReason: order.amendmentReason,
@@ -197,7 +222,7 @@ export function createOrderService(deps: {
     const patient = await patients.findById(input.patientId);
     if (!patient) throw AppError.badRequest(`There is no patient with id ${input.patientId}.`, [{ path: 'patientId', message: 'patientId must name an existing patient' }]);
     const row = await approvedProtocol(input.protocol.key, input.protocol.version);
-    const computed = plan(row, input.inputs);
+    const computed = await planOrRefuse(actor, row, input.inputs, base.id ?? null);
     const save = async (m: EntityManager) => {
       await guard?.(m);
       const saved = await orders.save(m, {
@@ -215,6 +240,7 @@ export function createOrderService(deps: {
         retreatmentReason: input.retreatmentReason ?? null,
         weightChangeReason: input.weightChangeReason ?? null,
         note: input.note ?? null,
+        swellingAcknowledged: input.swellingAcknowledged ?? false,
         createdById: base.createdById ?? actor.id,
       });
       return saved;
@@ -301,7 +327,7 @@ export function createOrderService(deps: {
       assertReadVersion(order, readVersion);
       const row = await approvedProtocol(order.protocolVersion.key, order.protocolVersion.version);
       // The server's own figures at the moment of signing are what gets frozen.
-      const frozen = plan(row, order.inputs);
+      const frozen = await planOrRefuse(actor, row, order.inputs, id);
       const problems = signatureProblems({
         definition: row.definition,
         plan: frozen,
@@ -311,8 +337,19 @@ export function createOrderService(deps: {
         recentTreatmentDays: await recentTreatmentDays(order, row),
         weightChange: await weightChangeOf(order),
         weightChangeReason: order.weightChangeReason,
+        swellingAcknowledged: order.swellingAcknowledged,
       });
-      if (problems.length > 0) throw AppError.badRequest(`The order cannot be signed yet: ${problems.map((p) => p.message).join('; ')}`, problems);
+      if (problems.length > 0) {
+        await audit.append({
+          actorUserId: actor.id,
+          action: 'order.signature-refused',
+          entityType: 'order',
+          entityId: id,
+          ipAddress: actor.ipAddress,
+          details: { protocol: `${row.key} v${row.version}`, problems: problems.map((p) => ({ path: p.path, message: p.message })) },
+        });
+        throw AppError.badRequest(`The order cannot be signed yet: ${problems.map((p) => p.message).join('; ')}`, problems);
+      }
 
       const status: OrderStatus = row.definition.drug ? 'signed' : 'ready';
       // Read before the transaction, which must not wait for a second pooled connection.
@@ -351,7 +388,7 @@ export function createOrderService(deps: {
         entityType: 'order',
         entityId: id,
         ipAddress: actor.ipAddress,
-        details: { meaning: 'ordered', status, protocol: `${row.key} v${row.version}`, engineVersion: frozen.engineVersion, contraindicationOverrides: overrides, softLimitReasons: order.softLimitReasons, retreatmentReason: order.retreatmentReason, weightChangeReason: order.weightChangeReason },
+        details: { meaning: 'ordered', status, protocol: `${row.key} v${row.version}`, engineVersion: frozen.engineVersion, contraindicationOverrides: overrides, swellingAcknowledged: order.swellingAcknowledged, softLimitReasons: order.softLimitReasons, retreatmentReason: order.retreatmentReason, weightChangeReason: order.weightChangeReason },
       });
       return detail(await mustFind(id), actor);
     },

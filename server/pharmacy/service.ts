@@ -1,6 +1,6 @@
 import { DateTime } from 'luxon';
 import type { DataSource } from 'typeorm';
-import { withinPct } from '../../shared/orders/readiness';
+import { doseCheckDiffering, withinPct } from '../../shared/engine/dose-check';
 import type { DoseCheckEntry, PreparationEntry } from '../../shared/schemas/orders';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
@@ -46,13 +46,8 @@ export function createPharmacyService(deps: {
       }
       const tolerance = order.protocolVersion.definition.tolerances.doseCheck;
       if (!tolerance) throw AppError.conflict('no_dose_check', `Protocol ${order.protocolVersion.key} sets no dose-check tolerance.`);
-      const plan = order.plan;
-      const comparisons = [
-        { field: 'bsaM2', entered: entry.bsaM2, planned: plan.bsaM2, pct: tolerance.bsaPct },
-        { field: 'doseMg', entered: entry.doseMg, planned: plan.doseMg, pct: tolerance.dosePct },
-        { field: 'drugVolumeMl', entered: entry.drugVolumeMl, planned: plan.drugVolumeMl, pct: tolerance.drugVolumePct },
-      ];
-      const differing = comparisons.filter((c) => c.planned == null || !withinPct(c.entered, c.planned, c.pct)).map((c) => c.field);
+      // Within tolerance of the plan's rounded figure or of the unrounded working: exact figures pass.
+      const differing: string[] = doseCheckDiffering(order.plan, entry, tolerance);
       const outcome = differing.length === 0 ? 'match' : 'mismatch';
 
       // Read before the transaction, which must not wait for a second pooled connection.

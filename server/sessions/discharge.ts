@@ -1,5 +1,6 @@
 import { DateTime } from 'luxon';
 import type { DataSource } from 'typeorm';
+import { answeredCautions } from '../../shared/orders/readiness';
 import { lightPrecautionEnd } from '../../shared/session/light-precaution';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
@@ -38,6 +39,7 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
       endedLocal: local(record.endedAt),
       precaution,
       cautions: definition.cautions,
+      answeredCautions: answeredCautions(definition, order.checklist),
     };
   }
 

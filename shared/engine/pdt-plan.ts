@@ -4,6 +4,7 @@ import { newInputReport, readBodyMeasures, readLimitedNumber, refuseInputs } fro
 import { energyJ, fluenceJPerCm2, lightArithmeticSource, spotAreaCm2 } from './light-arithmetic';
 import { PlanInputError } from './plan-input-error';
 import { emptyPlan, missingProtocolPart, protocolRef, recordBsa } from './plan-parts';
+import { drawnDoseShiftPct, maxDrawnDoseShiftPct } from './drawn-volume';
 import { formatNumber } from './rounding';
 import { record } from './working';
 
@@ -49,22 +50,80 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     source: `dose per body surface area; doseMgPerM2 from ${ref}`,
     step: rounding.doseMg,
   });
+  // The volume to draw, rounded to the syringe's graduation (versions written before that field
+  // round to their general volume step).
+  const graduationMl = drug.syringeGraduationMl ?? rounding.volumesMl;
   plan.drugVolumeMl = record(working, {
     name: 'drugVolumeMl',
     value: plan.doseMg / drug.concentrationMgPerMl,
     unit: 'mL',
-    formula: 'doseMg ÷ concentrationMgPerMl',
+    formula: 'doseMg ÷ concentrationMgPerMl, rounded to the syringe graduation',
     inputs: { doseMg: { value: plan.doseMg, unit: 'mg' }, concentrationMgPerMl: { value: drug.concentrationMgPerMl, unit: 'mg/mL' } },
-    source: `concentration after reconstitution from ${ref}`,
-    step: rounding.volumesMl,
+    source:
+      drug.syringeGraduationMl === undefined
+        ? `concentration after reconstitution from ${ref}; ${ref} gives no syringe graduation, so its volume step ${formatNumber(graduationMl)} mL is used`
+        : `concentration after reconstitution and syringe graduation (${formatNumber(graduationMl)} mL) from ${ref}`,
+    step: graduationMl,
   });
+  // The dose the drawn volume really holds, and how far rounding moved it.
+  const drawnDoseExactMg = plan.drugVolumeMl * drug.concentrationMgPerMl;
+  plan.drawnDoseMg = record(working, {
+    name: 'drawnDoseMg',
+    value: drawnDoseExactMg,
+    unit: 'mg',
+    formula: 'drugVolumeMl × concentrationMgPerMl (dose in the drawn volume)',
+    inputs: { drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' }, concentrationMgPerMl: { value: drug.concentrationMgPerMl, unit: 'mg/mL' } },
+    source: `concentration after reconstitution from ${ref}`,
+    step: rounding.doseMg,
+  });
+  const shiftPct = drawnDoseShiftPct(drawnDoseExactMg, plan.doseMg);
+  plan.drawnDoseDifferencePct = record(working, {
+    name: 'drawnDoseDifferencePct',
+    value: shiftPct,
+    unit: '%',
+    formula: `(drawnDoseMg − doseMg) ÷ doseMg × 100; at most ±${maxDrawnDoseShiftPct}%`,
+    inputs: { drawnDoseMg: { value: drawnDoseExactMg, unit: 'mg' }, doseMg: { value: plan.doseMg, unit: 'mg' } },
+    source: `engine rule: rounding the drawn volume may move the dose by at most ${maxDrawnDoseShiftPct}% (common practice)`,
+    step: 0.01,
+  });
+  if (Math.abs(shiftPct) > maxDrawnDoseShiftPct + 1e-9) {
+    throw new PlanInputError([
+      {
+        path: 'protocol',
+        message: `rounding the drug volume to ${formatNumber(graduationMl)} mL in ${ref} moves the dose in the syringe by ${formatNumber(Number(shiftPct.toFixed(2)))}% (${formatNumber(plan.drawnDoseMg)} mg drawn for ${formatNumber(plan.doseMg)} mg prescribed); at most ${maxDrawnDoseShiftPct}% is allowed — use a protocol version with a finer syringe graduation`,
+      },
+    ]);
+  }
+  // Vials come from the volume to draw and what one vial really gives up.
+  const withdrawableMl = drug.withdrawableVolumeMlPerVial ?? drug.reconstitutedVolumeMl;
   plan.vials = record(working, {
     name: 'vials',
-    value: Math.ceil(plan.doseMg / drug.vialContentMg),
+    value: Math.ceil(plan.drugVolumeMl / withdrawableMl - 1e-9),
     unit: 'vial',
-    formula: 'ceil(doseMg ÷ vialContentMg)',
-    inputs: { doseMg: { value: plan.doseMg, unit: 'mg' }, vialContentMg: { value: drug.vialContentMg, unit: 'mg' } },
-    source: `whole vials; vial content from ${ref}`,
+    formula: 'ceil(drugVolumeMl ÷ withdrawableVolumeMlPerVial)',
+    inputs: { drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' }, withdrawableVolumeMlPerVial: { value: withdrawableMl, unit: 'mL' } },
+    source:
+      drug.withdrawableVolumeMlPerVial === undefined
+        ? `whole vials; ${ref} gives no withdrawable volume, so the whole reconstituted volume (${formatNumber(withdrawableMl)} mL) is assumed`
+        : `whole vials; withdrawable volume per vial from ${ref}`,
+  });
+  plan.drugLeftOverMl = record(working, {
+    name: 'drugLeftOverMl',
+    value: plan.vials * drug.reconstitutedVolumeMl - plan.drugVolumeMl,
+    unit: 'mL',
+    formula: 'vials × reconstitutedVolumeMl − drugVolumeMl',
+    inputs: { vials: { value: plan.vials, unit: 'vial' }, reconstitutedVolumeMl: { value: drug.reconstitutedVolumeMl, unit: 'mL' }, drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' } },
+    source: `reconstituted volume per vial from ${ref}; what is left is discarded under local policy`,
+    step: graduationMl,
+  });
+  plan.drugLeftOverMg = record(working, {
+    name: 'drugLeftOverMg',
+    value: plan.vials * drug.vialContentMg - drawnDoseExactMg,
+    unit: 'mg',
+    formula: 'vials × vialContentMg − drawnDoseMg',
+    inputs: { vials: { value: plan.vials, unit: 'vial' }, vialContentMg: { value: drug.vialContentMg, unit: 'mg' }, drawnDoseMg: { value: drawnDoseExactMg, unit: 'mg' } },
+    source: `vial content from ${ref}`,
+    step: rounding.doseMg,
   });
   const diluentVolumeMl = drug.finalVolumeMl - plan.drugVolumeMl;
   if (diluentVolumeMl < 0) {

@@ -3,6 +3,8 @@ import type { ProtocolVersion as ProtocolDefinition } from '../protocol/protocol
 import type { DosePlan } from '../schemas/calculation';
 import type { ChecklistAnswer } from '../schemas/orders';
 import { weightChangeMessage, type WeightChange } from './weight-change';
+import { formatNumber } from '../engine/rounding';
+import { reasonOfSubstanceProblem } from './reason-of-substance';
 
 export interface ReadinessInput {
   definition: ProtocolDefinition;
@@ -15,13 +17,49 @@ export interface ReadinessInput {
   /** The change from the patient's last recorded weight, when it is beyond the unit's rule. */
   weightChange: WeightChange | null;
   weightChangeReason: string | null;
+  /** The clinician's explicit acknowledgement that a too-thin stroma must first be swollen (CXL). */
+  swellingAcknowledged: boolean;
+}
+
+type Question = ProtocolDefinition['contraindications'][number];
+
+/** The thickness facts of a CXL plan, read from its working; null for a plan without them. */
+function thicknessFacts(plan: DosePlan): { measuredUm: number; minimumUm: number } | null {
+  const line = plan.working.find((entry) => entry.name === 'thicknessMarginUm');
+  const measuredUm = line?.inputs.stromalThicknessUm?.value;
+  const minimumUm = line?.inputs.minStromalThicknessUm?.value;
+  return measuredUm === undefined || minimumUm === undefined ? null : { measuredUm, minimumUm };
+}
+
+/**
+ * What the plan's measurement says the answer to a measurement-tied question must be; null when it
+ * cannot say. A contradicting answer is refused rather than overwritten: the clinician answered
+ * a question and should see that it disagrees with what was measured (one of the two is wrong,
+ * a typo in the thickness as likely as a wrong tick), and a silently changed answer would sign
+ * something the clinician never said.
+ */
+export function measuredAnswer(question: Question, plan: DosePlan): 'yes' | 'no' | null {
+  if (question.measurement === 'stromal-thickness-below-minimum' && plan.thicknessOk !== null) return plan.thicknessOk ? 'no' : 'yes';
+  return null;
+}
+
+/** The cautions answered yes, with the clinician's reason: what the standing banner shows after signing. */
+export function answeredCautions(definition: ProtocolDefinition, checklist: ChecklistAnswer[]): { id: string; question: string; reason: string }[] {
+  const answers = new Map(checklist.map((a) => [a.id, a]));
+  return definition.contraindications.flatMap((question) => {
+    const answer = answers.get(question.id);
+    return question.severity === 'caution' && answer?.answer === 'yes' ? [{ id: question.id, question: question.question, reason: answer.overrideReason ?? '' }] : [];
+  });
 }
 
 /**
  * What stands between a draft and a signature, as field problems: unanswered contraindication
- * questions, a "yes" without an override reason, a soft-limit warning without a reason, a
- * retreatment inside the protocol's minimum interval without a reason. Pure, so the client can
- * show the same list before the clinician tries to sign.
+ * questions; an answer the order's own measurement contradicts; a "yes" to an absolute
+ * contraindication (nothing unlocks it); a "yes" to a caution without a reason of substance; a
+ * stroma below the minimum on a protocol without a swelling step, or with one but not
+ * acknowledged; a soft-limit warning without a reason; a retreatment inside the protocol's
+ * minimum interval without a reason. Pure, so the client can show the same list before the
+ * clinician tries to sign.
  */
 export function signatureProblems(input: ReadinessInput): FieldProblem[] {
   const problems: FieldProblem[] = [];
@@ -32,11 +70,31 @@ export function signatureProblems(input: ReadinessInput): FieldProblem[] {
   }
   for (const question of input.definition.contraindications) {
     const answer = answers.get(question.id);
+    const measured = measuredAnswer(question, input.plan);
+    const facts = thicknessFacts(input.plan);
     if (!answer) {
       problems.push({ path: `checklist.${question.id}`, message: `answer "${question.question}" (yes or no)` });
-    } else if (answer.answer === 'yes' && !answer.overrideReason) {
-      const kind = question.severity === 'absolute' ? 'a contraindication' : 'a caution';
-      problems.push({ path: `checklist.${question.id}.overrideReason`, message: `"${question.question}" is answered yes (${kind}): treatment needs an override reason of 5 to 500 characters` });
+    } else if (measured !== null && answer.answer !== measured) {
+      const said = facts ? `the stromal thickness entered (${formatNumber(facts.measuredUm)} µm) is ${measured === 'yes' ? 'below' : 'at or above'} the minimum of ${formatNumber(facts.minimumUm)} µm` : 'the measurement in this order says otherwise';
+      problems.push({ path: `checklist.${question.id}.answer`, message: `"${question.question}" is answered ${answer.answer}, but ${said}: correct the answer or the measurement` });
+    } else if (answer.answer === 'yes' && question.severity === 'absolute') {
+      problems.push({
+        path: `checklist.${question.id}.answer`,
+        message: `"${question.question}" is answered yes: an absolute contraindication in this protocol version stops the order, and no reason unlocks it`,
+      });
+    } else if (answer.answer === 'yes') {
+      const weak = reasonOfSubstanceProblem(answer.overrideReason, question.question);
+      if (weak) problems.push({ path: `checklist.${question.id}.overrideReason`, message: `"${question.question}" is answered yes (a caution): ${weak}` });
+    }
+  }
+  const facts = thicknessFacts(input.plan);
+  const cxl = input.definition.cxl;
+  if (cxl && input.plan.thicknessOk === false) {
+    const thin = facts ? `the stroma (${formatNumber(facts.measuredUm)} µm) is below this protocol's minimum of ${formatNumber(facts.minimumUm)} µm` : "the stroma is below this protocol's minimum";
+    if (!cxl.swellingAllowed) {
+      problems.push({ path: 'inputs.stromalThicknessUm', message: `${thin} and the protocol has no swelling step: do not treat with this protocol — the plan cannot be signed` });
+    } else if (!input.swellingAcknowledged) {
+      problems.push({ path: 'swellingAcknowledged', message: `${thin}: acknowledge that the swelling step must bring it to ${formatNumber(cxl.minStromalThicknessUm)} µm before UV` });
     }
   }
   for (const warning of input.plan.warnings) {
@@ -54,9 +112,4 @@ export function signatureProblems(input: ReadinessInput): FieldProblem[] {
     problems.push({ path: 'weightChangeReason', message: weightChangeMessage(input.weightChange) });
   }
   return problems;
-}
-
-/** True when the figure lies within pct percent of the plan's figure. */
-export function withinPct(entered: number, planned: number, pct: number): boolean {
-  return Math.abs(entered - planned) <= (Math.abs(planned) * pct) / 100 + 1e-9;
 }

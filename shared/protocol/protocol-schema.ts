@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { bsaFormulaNames, bsaFormulas } from '../engine/bsa';
+import { maxDrawnDoseShiftPct, worstDrawnDoseShiftPct } from '../engine/drawn-volume';
 
 /** Two figures that should agree (e.g. irradiance × exposure and the target fluence) may differ by this much. */
 export const protocolAgreementPct = 1;
@@ -121,6 +122,10 @@ const drugSchema = z.strictObject({
   beyondUseH: positive('drug.beyondUseH', 'h'),
   lightPrecautionH: positive('drug.lightPrecautionH', 'h'),
   lightPrecautionSource: text('drug.lightPrecautionSource'),
+  /** The syringe's graduation: the volume to draw is rounded to it (absent in versions written before this field). */
+  syringeGraduationMl: positive('drug.syringeGraduationMl', 'mL').optional(),
+  /** What can really be drawn from one reconstituted vial (dead space stays behind); vials are counted from it. */
+  withdrawableVolumeMlPerVial: positive('drug.withdrawableVolumeMlPerVial', 'mL').optional(),
 });
 export type ProtocolDrug = z.infer<typeof drugSchema>;
 
@@ -219,12 +224,21 @@ const stepSchema = z.strictObject({
 });
 export type ProtocolStep = z.infer<typeof stepSchema>;
 
+/** Measurements a checklist question can be tied to; each is read from the plan by shared/orders/readiness.ts. */
+export const contraindicationMeasurements = ['stromal-thickness-below-minimum'] as const;
+export type ContraindicationMeasurement = (typeof contraindicationMeasurements)[number];
+
 const contraindicationSchema = z.strictObject({
   id: kebabId('contraindications[].id'),
   question: text('contraindications[].question'),
   /** absolute: a yes stops the order; caution: a yes needs a clinician's note. */
   severity: z.enum(['absolute', 'caution'], { error: 'contraindications[].severity must be absolute or caution' }),
   source: text('contraindications[].source'),
+  /**
+   * The measurement in the same order that answers this question: an answer that contradicts it
+   * is refused at signing (absent in versions written before this field).
+   */
+  measurement: z.enum(contraindicationMeasurements, { error: `contraindications[].measurement must be one of ${contraindicationMeasurements.join(', ')}` }).optional(),
 });
 
 const protocolVersionObject = z.strictObject({
@@ -280,6 +294,11 @@ function checkCommon(p: ProtocolShape, issues: Issue[]): void {
   ] as const) {
     for (const id of duplicates(values)) issues.push({ path: [field], message: `${field} ids must be unique (${id} repeats)` });
   }
+  p.contraindications.forEach((item, index) => {
+    if (item.measurement !== undefined && p.kind !== 'cxl') {
+      issues.push({ path: ['contraindications', index, 'measurement'], message: `contraindications[].measurement ${item.measurement} applies to a cxl protocol only` });
+    }
+  });
   const allowedKinds = stepKindsByProtocolKind[p.kind];
   p.steps.forEach((step, index) => {
     if (!allowedKinds.includes(step.kind)) {
@@ -337,6 +356,9 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
       message: `drug.vialContentMg ÷ drug.reconstitutedVolumeMl gives ${concentrationFromVial} mg/mL, more than ${protocolAgreementPct}% from drug.concentrationMgPerMl (${drug.concentrationMgPerMl} mg/mL)`,
     });
   }
+  if (drug.withdrawableVolumeMlPerVial !== undefined && drug.withdrawableVolumeMlPerVial > drug.reconstitutedVolumeMl) {
+    issues.push({ path: ['drug', 'withdrawableVolumeMlPerVial'], message: 'drug.withdrawableVolumeMlPerVial cannot exceed drug.reconstitutedVolumeMl' });
+  }
   if (drug.reconstitutionVolumeMl > drug.reconstitutedVolumeMl) {
     issues.push({ path: ['drug', 'reconstitutionVolumeMl'], message: 'drug.reconstitutionVolumeMl cannot exceed drug.reconstitutedVolumeMl' });
   }
@@ -350,6 +372,19 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
       path: ['drug', 'finalVolumeMl'],
       message: `drug.finalVolumeMl (${drug.finalVolumeMl} mL) is smaller than the drug volume for the largest patient the hard limits admit (${largestDrugVolumeMl.toFixed(1)} mL)`,
     });
+  }
+  // The syringe graduation must keep the drawn dose within the engine's limit even for the
+  // smallest patient the hard limits admit.
+  if (drug.syringeGraduationMl !== undefined) {
+    const smallestBsaM2 = Math.min(...bsaFormulaNames.map((name) => bsaFormulas[name].bsaM2(heightCm.hard.min, weightKg.hard.min)));
+    const smallestDrugVolumeMl = (drug.doseMgPerM2 * smallestBsaM2) / drug.concentrationMgPerMl;
+    const worstPct = worstDrawnDoseShiftPct(drug.syringeGraduationMl, smallestDrugVolumeMl);
+    if (worstPct > maxDrawnDoseShiftPct) {
+      issues.push({
+        path: ['drug', 'syringeGraduationMl'],
+        message: `drug.syringeGraduationMl (${drug.syringeGraduationMl} mL) can move the dose in the syringe by ${worstPct.toFixed(2)}% for the smallest patient the hard limits admit (${smallestDrugVolumeMl.toFixed(2)} mL); at most ${maxDrawnDoseShiftPct}% is allowed`,
+      });
+    }
   }
   if (timing.lightStartAfterInfusionStartMin < drug.infusionMin) {
     issues.push({ path: ['timing', 'lightStartAfterInfusionStartMin'], message: 'timing.lightStartAfterInfusionStartMin cannot be earlier than the end of the infusion (drug.infusionMin)' });

@@ -99,7 +99,13 @@ export const dosePlanSchema = z.object({
   doseMg: nullableNumber,
   drugVolumeMl: nullableNumber,
   diluentVolumeMl: nullableNumber,
+  /** The dose the drawn (rounded) volume holds, and its difference from doseMg in percent; null in plans made before engine 1.1.0. */
+  drawnDoseMg: nullableNumber.default(null),
+  drawnDoseDifferencePct: nullableNumber.default(null),
   vials: z.number().int().nullable(),
+  /** Reconstituted drug left in the vials after drawing; null in plans made before engine 1.1.0. */
+  drugLeftOverMl: nullableNumber.default(null),
+  drugLeftOverMg: nullableNumber.default(null),
   infusionRateMlPerMin: nullableNumber,
   spotDiameterUm: nullableNumber,
   deviceSpotDiameterUm: nullableNumber,

@@ -49,6 +49,8 @@ export const orderDraftSchema = z.strictObject({
   /** Needed when the weight differs from the patient's last recorded weight beyond the unit's rule. */
   weightChangeReason: reason('weightChangeReason').nullable().optional(),
   note: z.string().trim().max(2000, 'note must be at most 2000 characters').nullable().optional(),
+  /** CXL with a swelling step: the clinician acknowledges that a stroma below the minimum is swollen before UV. */
+  swellingAcknowledged: z.boolean({ error: 'swellingAcknowledged must be true or false' }).default(false),
 });
 export type OrderDraft = z.infer<typeof orderDraftSchema>;
 
@@ -142,6 +144,9 @@ export const orderDetailSchema = orderSummarySchema.extend({
   retreatmentReason: z.string().nullable(),
   weightChangeReason: z.string().nullable(),
   note: z.string().nullable(),
+  swellingAcknowledged: z.boolean().default(false),
+  /** Cautions answered yes, with the clinician's reason: the standing banner on every later screen. */
+  answeredCautions: z.array(z.object({ id: z.string(), question: z.string(), reason: z.string() })).default([]),
   /** The frozen dose plan; withheld (null) from a pharmacist until their blind check matches. */
   plan: dosePlanSchema.nullable(),
   planWithheld: z.boolean(),

@@ -83,7 +83,7 @@ describe('body-mass index', () => {
 
   it('stops the signature until a reason is given', () => {
     const plan = computePlan(withRange, slip);
-    const base = { definition: withRange, plan, checklist: withRange.contraindications.map((c) => ({ id: c.id, answer: 'no' as const })), retreatmentReason: null, recentTreatmentDays: null, weightChange: null, weightChangeReason: null };
+    const base = { definition: withRange, plan, checklist: withRange.contraindications.map((c) => ({ id: c.id, answer: 'no' as const })), retreatmentReason: null, recentTreatmentDays: null, weightChange: null, weightChangeReason: null, swellingAcknowledged: false };
     expect(signatureProblems({ ...base, softLimitReasons: {} }).map((p) => p.path)).toEqual(['softLimitReasons.bmiKgPerM2']);
     expect(signatureProblems({ ...base, softLimitReasons: { bmiKgPerM2: 'Weighed again: 41.7 kg is right, patient is very thin.' } })).toEqual([]);
   });

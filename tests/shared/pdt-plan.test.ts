@@ -234,10 +234,11 @@ describe('verteporfin PDT, standard regimen', () => {
 describe('reduced-setting PDT', () => {
   it('half dose gives 3 mg/m² with the standard 49.8 J/cm² light', () => {
     // van Dijk EHC et al., Ophthalmology 2018 (PLACE); Altinel MG et al. (abstract): 3 mg/m² + 50 J/cm².
-    const plan = computePlan(loadProtocol('pdt-half-dose'), pdtInputs());
+    // Version 2 draws to the 0.01 mL graduation (common practice): 5.46 mg ÷ 2 mg/mL = 2.73 mL.
+    const plan = computePlan(loadProtocol('pdt-half-dose', 2), pdtInputs());
 
     expect(plan.doseMg).toBe(5.46);
-    expect(plan.drugVolumeMl).toBe(2.7);
+    expect(plan.drugVolumeMl).toBe(2.73);
     expect(plan.fluenceJPerCm2).toBe(49.8);
     expect(plan.powerMw).toBe(42.4);
   });

@@ -78,6 +78,10 @@ export class TreatmentOrder {
   @Column({ type: 'text', nullable: true })
   note!: string | null;
 
+  /** The clinician acknowledged that a stroma below the minimum must first be swollen (CXL with a swelling step). */
+  @Column({ name: 'swelling_acknowledged', type: 'boolean', default: false })
+  swellingAcknowledged!: boolean;
+
   @Column({ name: 'created_by', type: 'int', unsigned: true })
   createdById!: number;
 

@@ -60,6 +60,8 @@ export const dischargeSchema = z.object({
     })
     .nullable(),
   cautions: z.array(z.string()),
+  /** Cautions answered yes at ordering, with the clinician's reason. */
+  answeredCautions: z.array(z.object({ id: z.string(), question: z.string(), reason: z.string() })).default([]),
 });
 export type Discharge = z.infer<typeof dischargeSchema>;
 

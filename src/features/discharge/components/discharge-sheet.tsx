@@ -2,6 +2,7 @@ import { DateTime } from 'luxon';
 import type { Discharge } from '../api/discharge-schemas';
 import { CxlAftercare } from './cxl-aftercare';
 import { LightPrecaution, PdtEyeAdvice } from './light-precaution';
+import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 import { PrintFrame } from '../../../components/ui/print-frame';
 import { birthDateText, dayText } from './sheet-times';
 import { TreatmentGiven } from './treatment-given';
@@ -71,6 +72,8 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
               The session is still running: this sheet shows only what has been recorded so far. Print it again when the session has ended.
             </p>
           )}
+
+          <AcceptedCautionsBanner cautions={discharge.answeredCautions} />
 
           {/* After PDT the precaution is what the patient must carry home, so it comes first. */}
           {protocol.kind === 'pdt' ? (

@@ -26,6 +26,8 @@ const drugParametersSchema = z.object({
         diluent: z.string(),
         infusionMin: z.number(),
         beyondUseH: z.number(),
+        syringeGraduationMl: z.number().optional(),
+        withdrawableVolumeMlPerVial: z.number().optional(),
       })
       .nullable(),
     rounding: z.object({ bsaM2: z.number(), doseMg: z.number(), volumesMl: z.number(), rateMlPerMin: z.number() }),

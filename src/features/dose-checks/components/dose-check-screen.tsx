@@ -22,6 +22,7 @@ import { OrderInputs } from './order-inputs';
 import { PreparationForm } from './preparation-form';
 import { PreparationRecord } from './preparation-record';
 import { TreatmentCautions } from './treatment-cautions';
+import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 
 type DoseCheckScreenProps = {
   orderId: number;
@@ -116,6 +117,7 @@ export function DoseCheckScreen({ orderId, userId, canPrepare }: DoseCheckScreen
       </p>
       <div className="space-y-6">
         <OrderIdentity order={order} />
+        <AcceptedCautionsBanner cautions={order.answeredCautions} />
         <ScreenBody
           order={order}
           protocol={protocol}

@@ -36,9 +36,13 @@ export function DrugParameters({ protocol }: { protocol: ProtocolDrugParameters 
       </dl>
       <h3 className="mt-4 font-semibold text-paper-900">Rounding</h3>
       <p className="numerals-steady text-paper-800">
-        BSA to {quantity(rounding.bsaM2, 'm²')}; dose to {quantity(rounding.doseMg, 'mg')}; volumes to {quantity(rounding.volumesMl, 'mL')}; rate to{' '}
-        {quantity(rounding.rateMlPerMin, 'mL/min')}.
+        BSA to {quantity(rounding.bsaM2, 'm²')}; dose to {quantity(rounding.doseMg, 'mg')};{' '}
+        {drug.syringeGraduationMl !== undefined ? <>drug volume to the syringe graduation, {quantity(drug.syringeGraduationMl, 'mL')}; other volumes</> : 'volumes'} to{' '}
+        {quantity(rounding.volumesMl, 'mL')}; rate to {quantity(rounding.rateMlPerMin, 'mL/min')}.
       </p>
+      {drug.withdrawableVolumeMlPerVial !== undefined && (
+        <p className="numerals-steady text-paper-800">Vials are counted from the drug volume at {quantity(drug.withdrawableVolumeMlPerVial, 'mL')} withdrawable per vial.</p>
+      )}
       {check && (
         <>
           <h3 className="mt-4 font-semibold text-paper-900">How close your figures must be</h3>

@@ -14,6 +14,7 @@ import { PlanAndGiven } from '../../../components/plan-and-given';
 import { bmiText } from '../../../../shared/engine/body-mass-index';
 import { formatMeasureWithConversion } from '../../../../shared/engine/units';
 import { eventWordsOf } from '../../../lib/session-event-words';
+import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from '../../../lib/unit-times';
 
 function Part({ id, title, children }: { id: string; title: string; children: ReactNode }) {
@@ -120,6 +121,8 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
           </p>
           {record?.sessionStartedAt && <p className="text-paper-800">Session on {formatUnitDate(record.sessionStartedAt)}</p>}
         </header>
+
+        <AcceptedCautionsBanner cautions={o.answeredCautions} />
 
         <Part id="record-people" title="Order and preparation">
           <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1">

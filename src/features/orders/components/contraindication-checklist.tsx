@@ -3,12 +3,13 @@ import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schem
 import { FieldError } from '../../../components/ui/text-field';
 import type { OrderFormContext, OrderFormValues } from './order-form-values';
 import { TextAreaField } from '../../../components/ui/text-area-field';
+import { substantialReasonMinChars, substantialReasonMinWords } from '../../../../shared/orders/reason-of-substance';
 
 type Question = ProtocolVersion['contraindications'][number];
 
 export const severityWords: Record<Question['severity'], string> = {
-  absolute: 'Contraindication: a yes stops treatment unless a clinician records why it must go ahead',
-  caution: 'Caution: a yes needs a note of why treatment is still right',
+  absolute: 'Absolute contraindication: a yes stops the order, and no reason unlocks it',
+  caution: 'Caution: a yes needs a reason of substance saying why treatment is still right',
 };
 
 type ChecklistProps = {
@@ -48,11 +49,17 @@ function QuestionBlock({ question, number, register, control, errors, readMessag
         </div>
         <FieldError id={errorId} message={answerError} />
       </fieldset>
-      {answer === 'yes' && (
+      {answer === 'yes' && question.severity === 'absolute' && (
+        <p role="alert" className="mt-3 rounded-lg border-2 border-alarm-700 bg-white px-3 py-2 font-semibold text-alarm-800">
+          This order cannot be signed: “{question.question}” is an absolute contraindication in this protocol version. No reason unlocks
+          it; if the answer is wrong, correct it.
+        </p>
+      )}
+      {answer === 'yes' && question.severity === 'caution' && (
         <TextAreaField
           className="mt-3"
           label="Reason to go on despite the yes (required)"
-          hint="5 to 500 characters; it is shown to the pharmacist and the auditor"
+          hint={`At least ${substantialReasonMinChars} characters and ${substantialReasonMinWords} words saying why treatment is still right — not the question again, not “n/a” or “ok”. It is shown as a banner on every later screen.`}
           error={reasonError}
           {...register(`checklist.${question.id}.overrideReason`)}
         />

@@ -35,6 +35,7 @@ import { printCss, PrintFrame } from '../../../components/ui/print-frame';
 import { SessionPanel } from './session-panel';
 import { SignOrderDialog } from './sign-order-dialog';
 import { TreatmentCautions } from './treatment-cautions';
+import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 
 type OrderDetailScreenProps = {
   orderId: number;
@@ -131,6 +132,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
             recentTreatmentDays: null,
             weightChange: null,
             weightChangeReason: detail.weightChangeReason,
+            swellingAcknowledged: detail.swellingAcknowledged,
           }).map((p) => p.message),
           ...(retreatment && !detail.retreatmentReason ? [`${retreatment.message} Give a retreatment reason.`] : []),
           ...(weightChange && !detail.weightChangeReason ? [weightChange.message] : []),
@@ -154,6 +156,8 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
     if (head === 'retreatmentReason') return 'Retreatment reason';
     if (head === 'weightChangeReason') return 'Reason for the change in weight';
     if (head === 'inputs') return 'Measurements';
+    if (head === 'swellingAcknowledged') return 'Swelling acknowledgement';
+    if (head === 'protocol') return 'Protocol version';
     return head ?? path;
   };
 
@@ -235,6 +239,9 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
             </p>
           )}
         </div>
+
+        {/* Signed orders carry their accepted cautions on every view, the printed dose record included. */}
+        {!isDraft && <AcceptedCautionsBanner cautions={detail.answeredCautions} className="mb-6" />}
 
         {detail.status === 'returned' && (
           <div role="alert" className={`mb-6 rounded-2xl border-2 border-alarm-700 bg-alarm-50 px-5 py-4 ${notInDoseRecord}`}>

@@ -28,6 +28,8 @@ export type OrderFormValues = {
   weightChangeReason: string;
   note: string;
   amendmentReason: string;
+  /** CXL with a swelling step and a stroma below the minimum: the clinician's acknowledgement. */
+  swellingAcknowledged: boolean;
 };
 
 export type OrderFormMode = 'new' | 'edit' | 'amend';
@@ -68,6 +70,7 @@ export function emptyOrderForm(patientId?: number): OrderFormValues {
     weightChangeReason: '',
     note: '',
     amendmentReason: '',
+    swellingAcknowledged: false,
   };
 }
 
@@ -110,6 +113,7 @@ export function settleFormValues(raw: unknown): OrderFormValues {
     weightChangeReason: asText(v.weightChangeReason),
     note: asText(v.note),
     amendmentReason: asText(v.amendmentReason),
+    swellingAcknowledged: v.swellingAcknowledged === true,
   };
 }
 
@@ -137,6 +141,7 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
     weightChangeReason: order.weightChangeReason ?? '',
     note: order.note ?? '',
     amendmentReason: '',
+    swellingAcknowledged: order.swellingAcknowledged,
   };
 }
 
@@ -202,7 +207,8 @@ export function formToDraft(raw: OrderFormValues, context: OrderFormContext): Or
     const entry = values.checklist[id];
     // An unanswered radio pair reads as null or ''; either way the question stays open.
     if (!entry || (entry.answer !== 'yes' && entry.answer !== 'no')) return [];
-    const overrideReason = entry.answer === 'yes' ? blankToNull(entry.overrideReason) : null;
+    const severity = context.definition?.contraindications.find((c) => c.id === id)?.severity;
+    const overrideReason = entry.answer === 'yes' && severity !== 'absolute' ? blankToNull(entry.overrideReason) : null;
     return [{ id, answer: entry.answer, ...(overrideReason ? { overrideReason } : {}) }];
   });
   const softLimitReasons = Object.fromEntries(
@@ -220,6 +226,7 @@ export function formToDraft(raw: OrderFormValues, context: OrderFormContext): Or
     retreatmentReason: blankToNull(values.retreatmentReason),
     weightChangeReason: blankToNull(values.weightChangeReason),
     note: blankToNull(values.note),
+    swellingAcknowledged: context.definition?.kind === 'cxl' && values.swellingAcknowledged,
   };
   return context.mode === 'amend' ? { ...draft, amendmentReason: values.amendmentReason.trim() } : draft;
 }
@@ -235,6 +242,7 @@ export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>
     case 'weightChangeReason':
     case 'note':
     case 'amendmentReason':
+    case 'swellingAcknowledged':
       return head;
     case 'protocol':
       return 'protocolRef';
@@ -304,8 +312,9 @@ export function checkOrderForm(raw: OrderFormValues, context: OrderFormContext):
   for (const field of invalid) problems.push({ field, message: `${numberFields[field]} must be a number, e.g. ${field === 'lensMagnification' ? '1.05' : '180'}` });
   for (const question of context.definition?.contraindications ?? []) {
     const entry = values.checklist[question.id];
-    if (entry?.answer === 'yes' && entry.overrideReason.trim() === '') {
-      problems.push({ field: `checklist.${question.id}.overrideReason`, message: 'A yes needs the reason to go on with treatment (5 to 500 characters)' });
+    // An absolute contraindication takes no reason (nothing unlocks it); a caution needs one.
+    if (question.severity === 'caution' && entry?.answer === 'yes' && entry.overrideReason.trim() === '') {
+      problems.push({ field: `checklist.${question.id}.overrideReason`, message: 'A yes to a caution needs the reason to go on with treatment' });
     }
   }
 

@@ -41,6 +41,7 @@ import { PlanPreviewPanel } from './plan-preview-panel';
 import { formatFigure } from './plan-numbers';
 import { SelectField } from '../../../components/ui/select-field';
 import { TextAreaField } from '../../../components/ui/text-area-field';
+import { Checkbox } from '../../../components/ui/checkbox';
 import { TreatmentCautions } from './treatment-cautions';
 
 type OrderFormProps = {
@@ -157,6 +158,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
   });
   const fieldError = (name: keyof OrderFormValues) => read(errors[name]?.message as string | undefined) ?? besideField.get(name);
 
+  const thinStroma = preview.state === 'ready' && preview.plan.thicknessOk === false;
+
   const readiness = useMemo(() => {
     if (!definition || preview.state !== 'ready') return null;
     const draft = checkOrderForm(values, { ...contextRef.current, warnedFields: null }).draft;
@@ -169,6 +172,7 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
       recentTreatmentDays: null,
       weightChange: last.weightChange,
       weightChangeReason: draft.weightChangeReason ?? null,
+      swellingAcknowledged: draft.swellingAcknowledged ?? false,
     }).map((p) => p.message);
     if (retreatmentWarning && !draft.retreatmentReason) problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
     return problems;
@@ -346,6 +350,22 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
                 value={register('stromalThicknessUm')}
                 fixedUnit="µm"
               />
+              {thinStroma && definition?.cxl && !definition.cxl.swellingAllowed && (
+                <p role="alert" className="rounded-lg border-2 border-alarm-700 bg-alarm-50 px-3 py-2 font-semibold text-alarm-800 sm:col-span-2">
+                  Do not treat with this protocol: the stroma is below its minimum of {formatFigure(definition.cxl.minStromalThicknessUm)} µm and it has no
+                  swelling step. This order cannot be signed.
+                </p>
+              )}
+              {definition?.cxl?.swellingAllowed && (thinStroma || values.swellingAcknowledged) && (
+                <div className="rounded-lg border border-alarm-700 bg-alarm-50 p-3 sm:col-span-2">
+                  <Checkbox
+                    label="I acknowledge the stroma is below the minimum"
+                    description={`The swelling step (${definition.cxl.swellingRiboflavin ?? 'hypo-osmolar riboflavin'}) must bring it to ${formatFigure(definition.cxl.minStromalThicknessUm)} µm, re-measured, before UV starts. Required before signing.`}
+                    {...register('swellingAcknowledged')}
+                  />
+                  {fieldError('swellingAcknowledged') && <p className="mt-1 text-sm text-alarm-800">{fieldError('swellingAcknowledged')}</p>}
+                </div>
+              )}
             </div>
           )}
           {!kind && <p className="text-sm text-paper-700">Choose a protocol version to see the measurements it needs.</p>}

@@ -85,9 +85,16 @@ export function ChecklistAnswers({ order, definition }: { order: OrderDetail; de
                     </>
                   )}
                 </p>
-                {answer?.answer === 'yes' && (
+                {answer?.answer === 'yes' && q.severity === 'absolute' && (
                   <p className="text-sm text-paper-900">
-                    <span className="font-medium">Override reason: </span>
+                    <span className="font-semibold text-alarm-800">An absolute contraindication: no reason unlocks it.</span>
+                    {/* Orders signed before the gate may carry the reason they were overridden with. */}
+                    {answer.overrideReason && <> Reason recorded before this rule: {answer.overrideReason}</>}
+                  </p>
+                )}
+                {answer?.answer === 'yes' && q.severity !== 'absolute' && (
+                  <p className="text-sm text-paper-900">
+                    <span className="font-medium">Reason: </span>
                     {answer.overrideReason ?? <span className="text-alarm-700">none given yet</span>}
                   </p>
                 )}

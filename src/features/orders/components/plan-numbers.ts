@@ -17,14 +17,18 @@ export function formatSeconds(seconds: number): string {
   return `${formatFigure(seconds)} s (${minutes} min${rest ? ` ${rest} s` : ''})`;
 }
 
-type Figure = { key: keyof DosePlan; label: string; unit: string; time?: boolean; main?: boolean; estimate?: boolean };
+type Figure = { key: keyof DosePlan; label: string; unit: string; time?: boolean; main?: boolean; estimate?: boolean; signed?: boolean };
 
 /** The plan's figures in the order a person works through them; a null figure does not apply. */
 export const planFigures: readonly Figure[] = [
   { key: 'bsaM2', label: 'Body surface area', unit: 'm²' },
   { key: 'doseMg', label: 'Verteporfin dose', unit: 'mg', main: true },
   { key: 'drugVolumeMl', label: 'Drug volume', unit: 'mL', main: true },
+  { key: 'drawnDoseMg', label: 'Dose in the drawn volume', unit: 'mg' },
+  { key: 'drawnDoseDifferencePct', label: 'Drawn dose against the dose', unit: '%', signed: true },
   { key: 'vials', label: 'Vials', unit: '' },
+  { key: 'drugLeftOverMl', label: 'Drug left over in the vials', unit: 'mL' },
+  { key: 'drugLeftOverMg', label: 'Drug left over in the vials', unit: 'mg' },
   { key: 'diluentVolumeMl', label: 'Diluent volume', unit: 'mL' },
   { key: 'infusionRateMlPerMin', label: 'Infusion rate', unit: 'mL/min' },
   { key: 'infusionEndAfterStartS', label: 'Infusion ends after its start', unit: '', time: true },

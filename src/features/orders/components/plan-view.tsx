@@ -3,10 +3,11 @@ import type { DosePlan, PlanWarning, WorkingEntry } from '../../../../shared/sch
 import { AlertIcon, CheckCircleIcon, SigmaIcon } from '../../../components/ui/icons';
 import { formatFigure, formatSeconds, planFigures } from './plan-numbers';
 
-function FigureValue({ value, unit, time }: { value: number; unit: string; time?: boolean }) {
+function FigureValue({ value, unit, time, signed }: { value: number; unit: string; time?: boolean; signed?: boolean }) {
   if (time) return <>{formatSeconds(value)}</>;
   return (
     <>
+      {signed && value > 0 ? '+' : ''}
       {formatFigure(value)}
       {unit && <span className="ml-1 text-[0.8em] font-medium text-paper-700">{unit}</span>}
     </>
@@ -26,7 +27,7 @@ export function PlanFigures({ plan, compact = false }: { plan: DosePlan; compact
               {f.estimate && <span className="ml-1 font-medium">(estimate only)</span>}
             </dt>
             <dd className={`numerals-steady font-semibold text-paper-950 ${f.main ? 'text-xl' : 'text-lg'}`}>
-              <FigureValue value={plan[f.key] as number} unit={f.unit} time={f.time} />
+              <FigureValue value={plan[f.key] as number} unit={f.unit} time={f.time} signed={f.signed} />
             </dd>
           </div>
         ))}

@@ -73,6 +73,8 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
               { label: 'Use within, after reconstitution (h)', value: figure(drug.beyondUseH) },
               { label: 'Light precautions after the infusion (h)', value: figure(drug.lightPrecautionH) },
               { label: 'Light precaution period: source', value: drug.lightPrecautionSource },
+              ...(drug.syringeGraduationMl !== undefined ? [{ label: 'Syringe graduation the drug volume is rounded to (mL)', value: figure(drug.syringeGraduationMl) }] : []),
+              ...(drug.withdrawableVolumeMlPerVial !== undefined ? [{ label: 'Volume that can be drawn from one vial (mL)', value: figure(drug.withdrawableVolumeMlPerVial) }] : []),
             ]}
           />
         )}
@@ -196,13 +198,16 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
                   ) : (
                     <span className="inline-flex items-center gap-1.5 font-medium text-paper-800">
                       <InfoIcon className="size-4" />
-                      Caution: a yes needs a note
+                      Caution: a yes needs a reason of substance
                     </span>
                   )}
                 </span>
                 <span className="min-w-0">
                   <span className="block text-paper-950">{item.question}</span>
                   <span className="block text-sm text-paper-700">Source: {item.source}</span>
+                  {item.measurement === 'stromal-thickness-below-minimum' && (
+                    <span className="block text-sm text-paper-700">Checked against the stromal thickness entered in the order.</span>
+                  )}
                 </span>
               </li>
             ))}

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { dosePlanSchema } from '../../../../shared/schemas/calculation';
-import { orderStatuses } from '../../../../shared/schemas/orders';
+import { orderDetailSchema, orderStatuses } from '../../../../shared/schemas/orders';
 import { eyes } from '../../../../shared/schemas/patients';
 import { api } from '../../../lib/api-client';
 
@@ -14,6 +14,7 @@ const sessionOrderSchema = z.object({
   patient: z.object({ id: z.number(), recordNumber: z.string(), givenName: z.string(), familyName: z.string() }),
   plan: dosePlanSchema.nullable(),
   beyondUseAt: z.string().nullable(),
+  answeredCautions: orderDetailSchema.shape.answeredCautions,
 });
 export type SessionOrder = z.infer<typeof sessionOrderSchema>;
 

@@ -2,6 +2,7 @@ import { useId, useRef, useState, type ReactNode } from 'react';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
 import { preTreatmentChecks, type PreTreatmentCheck } from '../../../../shared/session/session-events';
+import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { CheckCircleIcon, DraftCircleIcon, StartCircleIcon } from '../../../components/ui/icons';
@@ -71,6 +72,7 @@ export function PreTreatmentChecks({
         <h2 id="pre-treatment-checks-heading" className="text-xl font-semibold text-paper-950">
           Confirm each check aloud, then tick it
         </h2>
+        <AcceptedCautionsBanner cautions={order.answeredCautions} />
         <ul className="flex flex-col gap-3">
           {preTreatmentChecks.map((check) => (
             <li key={check}>
