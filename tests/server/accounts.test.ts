@@ -528,9 +528,9 @@ describe('the signature password prompt', () => {
     expect(draft.status).toBe(201);
     const id = draft.body.order.id;
     for (let i = 1; i <= ctx.config.LOGIN_FAILURE_LIMIT; i++) {
-      expect((await agent.post(`/api/orders/${id}/signature`).send({ password: `wrong-${i}`, meaning: 'ordered' })).status).toBe(400);
+      expect((await agent.post(`/api/orders/${id}/signature`).send({ password: `wrong-${i}`, meaning: 'ordered', version: draft.body.order.version })).status).toBe(400);
     }
-    const res = await agent.post(`/api/orders/${id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const res = await agent.post(`/api/orders/${id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: draft.body.order.version });
     expect(res.status).toBe(429);
     expect(Number(res.headers['retry-after'])).toBeGreaterThan(0);
     const [order] = await ctx.dataSource.query('SELECT status FROM treatment_order WHERE id = ?', [id]);

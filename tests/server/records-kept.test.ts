@@ -88,9 +88,9 @@ describe("a signed order, as the app's database user", () => {
     const patient = await createTestPatient(ctx);
     const order = await signOrder(clinicianAgent, clinician, pdtOrder(patient.id));
     const before = await row('treatment_order', 'id', order.id);
-    const amended = await clinicianAgent.post(`/api/orders/${order.id}/amendments`).send({ ...pdtOrder(patient.id), amendmentReason: 'Weight re-measured on the ward.' });
+    const amended = await clinicianAgent.post(`/api/orders/${order.id}/amendments`).send({ ...pdtOrder(patient.id), amendmentReason: 'Weight re-measured on the ward.', version: (await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.version });
     expect(amended.status, JSON.stringify(amended.body)).toBe(201);
-    const signed = await clinicianAgent.post(`/api/orders/${amended.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered' });
+    const signed = await clinicianAgent.post(`/api/orders/${amended.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: amended.body.order.version });
     expect(signed.status, JSON.stringify(signed.body)).toBe(200);
     const after = await row('treatment_order', 'id', order.id);
     expect(after).toEqual({ ...before, status: 'superseded', updated_at: after!.updated_at });
