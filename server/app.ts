@@ -86,7 +86,7 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, unitTimeZone });
   const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
   const sessionRows = createSessionRepository(dataSource);
-  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now });
+  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now, tapClockSkewS: config.TAP_CLOCK_SKEW_S, tapOfflineWindowH: config.TAP_OFFLINE_WINDOW_H });
   const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitPhone: config.UNIT_PHONE, unitTimeZone });
 
   const routes: RouteSpec[] = [

@@ -1,4 +1,4 @@
-import bcrypt from 'bcryptjs';
+import { signaturePasswordMatches } from '../auth/signature-password';
 import { DateTime } from 'luxon';
 import type { DataSource, EntityManager } from 'typeorm';
 import { computePlan } from '../../shared/engine/compute-plan';
@@ -226,7 +226,7 @@ export function createOrderService(deps: {
 
     async sign(actor: Actor, id: number, password: string) {
       const user = await users.findById(actor.id);
-      if (!user || !(await bcrypt.compare(password, user.passwordHash))) {
+      if (!user || !(await signaturePasswordMatches(user, password))) {
         await audit.append({ actorUserId: actor.id, action: 'order.signature-refused', entityType: 'order', entityId: id, ipAddress: actor.ipAddress });
         throw AppError.badRequest('The password is not right; the order was not signed.', [{ path: 'password', message: 'password must be your sign-in password' }]);
       }

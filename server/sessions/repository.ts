@@ -142,10 +142,11 @@ export function createSessionRepository(dataSource: DataSource) {
     },
 
     /** Stores one event; a key already stored fails with ER_DUP_ENTRY. */
-    insertEvent: (manager: EntityManager, orderId: number, recordedBy: number, input: SessionEventInput) =>
+    /** `payload` is what is kept of the input (a password never is); `receivedAt` the server's receipt time by the app's clock. */
+    insertEvent: (manager: EntityManager, orderId: number, recordedBy: number, input: SessionEventInput, payload: Record<string, unknown>, receivedAt: Date) =>
       manager.query(
-        'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?)',
-        [orderId, input.idempotencyKey, input.type, 'stepId' in input ? input.stepId : null, new Date(input.clientTime), recordedBy, JSON.stringify(input)],
+        'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, server_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
+        [orderId, input.idempotencyKey, input.type, 'stepId' in input ? input.stepId : null, new Date(input.clientTime), receivedAt, recordedBy, JSON.stringify(payload)],
       ),
 
     /** One statement whether the record exists or not: this runs on every event. */

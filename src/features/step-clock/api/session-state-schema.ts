@@ -9,13 +9,20 @@ import { deviationSeverities, sessionEventSchema, type SessionEvent } from '../.
 const storedEventSchema = z
   .looseObject({ id: z.number(), serverTime: z.string(), recordedBy: z.number() })
   .transform((raw, ctx): SessionEvent => {
-    const { id, serverTime, recordedBy, ...input } = raw;
+    const { id, serverTime, recordedBy, authorisedById, authorisedByName, ...input } = raw;
     const parsed = sessionEventSchema.safeParse(input);
     if (!parsed.success) {
       ctx.addIssue({ code: 'custom', message: `stored event ${id} does not match the event contract` });
       return z.NEVER;
     }
-    return { ...parsed.data, id, serverTime, recordedBy };
+    return {
+      ...parsed.data,
+      id,
+      serverTime,
+      recordedBy,
+      ...(typeof authorisedById === 'number' ? { authorisedById } : {}),
+      ...(typeof authorisedByName === 'string' ? { authorisedByName } : {}),
+    };
   });
 
 export const sessionDeviationSchema = z.object({
