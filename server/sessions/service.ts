@@ -32,10 +32,14 @@ class SessionRuleRefusal extends AppError {
     readonly rule: string,
     message: string,
     field: { path: string; message: string },
+    status = 422,
   ) {
-    super(422, rule, message, [field]);
+    super(status, rule, message, [field]);
   }
 }
+
+/** A tap's time outside its bounds is bad input (400), as any other invalid field. */
+const timeRefusal = (rule: string, message: string, field: { path: string; message: string }) => new SessionRuleRefusal(rule, message, field, 400);
 
 /** The clinician who authorised UV below the thickness minimum, checked before the transaction. */
 interface Authoriser {
@@ -73,10 +77,10 @@ export function createSessionService(deps: {
     const { tapClockSkewS, tapOfflineWindowH } = tapBounds();
     const at = Date.parse(input.clientTime);
     if (at > nowMs + tapClockSkewS * 1000) {
-      throw new SessionRuleRefusal('tap_in_future', 'The tap is timed in the future; check the tablet clock.', { path: 'clientTime', message: `clientTime must not be ahead of the server clock by more than ${tapClockSkewS} s (TAP_CLOCK_SKEW_S)` });
+      throw timeRefusal('tap_in_future', 'The tap is timed in the future; check the tablet clock.', { path: 'clientTime', message: `clientTime must not be ahead of the server clock by more than ${tapClockSkewS} s (TAP_CLOCK_SKEW_S)` });
     }
     if (at < nowMs - tapOfflineWindowH * 3_600_000) {
-      throw new SessionRuleRefusal('tap_too_old', `The tap is older than the unit's offline window of ${tapOfflineWindowH} h.`, {
+      throw timeRefusal('tap_too_old', `The tap is older than the unit's offline window of ${tapOfflineWindowH} h.`, {
         path: 'clientTime',
         message: `clientTime must lie within the last ${tapOfflineWindowH} h (TAP_OFFLINE_WINDOW_H); record what happened as a note to the auditor instead`,
       });
@@ -122,13 +126,13 @@ export function createSessionService(deps: {
     // Gate 5: a tap's time is bounded by the session it belongs to.
     const started = kept.find((e) => e.type === 'session-started');
     if (input.type !== 'session-started' && started && at < Date.parse(started.clientTime)) {
-      throw new SessionRuleRefusal('tap_before_session', 'The tap is timed before the session started.', { path: 'clientTime', message: `clientTime must not be before the session started (${started.clientTime})` });
+      throw timeRefusal('tap_before_session', 'The tap is timed before the session started.', { path: 'clientTime', message: `clientTime must not be before the session started (${started.clientTime})` });
     }
     const stepId = 'stepId' in input ? input.stepId : null;
     if (stepId !== null) {
       const later = kept.filter((e) => stepIdOf(e) === stepId && Date.parse(e.clientTime) > at).sort((a, b) => Date.parse(b.clientTime) - Date.parse(a.clientTime))[0];
       if (later) {
-        throw new SessionRuleRefusal('tap_before_previous', 'The tap is timed before a tap of the same step already stored; the tablet clock went back.', {
+        throw timeRefusal('tap_before_previous', 'The tap is timed before a tap of the same step already stored; the tablet clock went back.', {
           path: 'clientTime',
           message: `clientTime must not be before the previous stored tap of step ${stepId} (${later.clientTime})`,
         });
@@ -364,8 +368,8 @@ export function createSessionService(deps: {
           const event = read.events.find((e) => e.idempotencyKey === input.idempotencyKey);
           if (!event) throw new Error(`event ${input.idempotencyKey} was stored but not read back`);
           // Refused here, the insert rolls back and `read` is never remembered.
-          checkSessionRules(order, input, read.events.filter((e) => e.idempotencyKey !== input.idempotencyKey), actor.id, authoriser);
           if (input.type === 'tap-withdrawn') checkWithdrawal(order, input, read.events);
+          checkSessionRules(order, input, read.events.filter((e) => e.idempotencyKey !== input.idempotencyKey), actor.id, authoriser);
           const result = await recompute(manager, order, read.events);
           if (status === 'reviewed') {
             const [{ open }] = await manager.query("SELECT COUNT(*) AS open FROM deviation WHERE order_id = ? AND review_status = 'open' AND withdrawn_at IS NULL", [orderId]);
