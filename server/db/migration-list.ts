@@ -6,5 +6,6 @@ import { OrdersAndOutbox1796162437763 } from './migrations/1796162437763-OrdersA
 import { Sessions1796162826105 } from './migrations/1796162826105-Sessions';
 import { AuditReview1796163852814 } from './migrations/1796163852814-AuditReview';
 import { DoseRecordOrderFacts1796177175796 } from './migrations/1796177175796-DoseRecordOrderFacts';
+import { PreparationHistory1796294636289 } from './migrations/1796294636289-PreparationHistory';
 
-export const migrations = [Initial1796161380660, ProtocolVersions1796161598177, OrdersAndOutbox1796162437763, Sessions1796162826105, AuditReview1796163852814, DoseRecordOrderFacts1796177175796];
+export const migrations = [Initial1796161380660, ProtocolVersions1796161598177, OrdersAndOutbox1796162437763, Sessions1796162826105, AuditReview1796163852814, DoseRecordOrderFacts1796177175796, PreparationHistory1796294636289];

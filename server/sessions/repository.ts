@@ -60,6 +60,15 @@ interface KnownEvents {
 
 const knownEventsMax = 2_000;
 
+/** Every stored event of an order in the order they happened (by the tablet's time, then as stored). */
+export async function readSessionEvents(manager: EntityManager, orderId: number): Promise<SessionEvent[]> {
+  const rows: StoredEventRow[] = await manager.query(
+    'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? ORDER BY client_time, id',
+    [orderId],
+  );
+  return rows.map(toSessionEvent);
+}
+
 export function createSessionRepository(dataSource: DataSource) {
   /**
    * Running sessions' events, kept between writes so that each new event reads only what is newer
@@ -74,13 +83,7 @@ export function createSessionRepository(dataSource: DataSource) {
 
   return {
     /** Every event of an order in the order they happened. */
-    async eventsFor(orderId: number, manager?: EntityManager): Promise<SessionEvent[]> {
-      const rows: StoredEventRow[] = await (manager ?? dataSource.manager).query(
-        'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? ORDER BY client_time, id',
-        [orderId],
-      );
-      return rows.map(toSessionEvent);
-    },
+    eventsFor: (orderId: number, manager?: EntityManager): Promise<SessionEvent[]> => readSessionEvents(manager ?? dataSource.manager, orderId),
 
     /**
      * Every event of an order, for a writer that holds the order's lock: what this process knew
