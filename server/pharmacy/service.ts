@@ -24,6 +24,8 @@ export function createPharmacyService(deps: {
   users: UserRepository;
   audit: AuditRepository;
   unitTimeZone: string;
+  /** The server's clock (tests move it); beyond-use times are judged by it. */
+  now?: () => number;
 }) {
   const { dataSource, orders, orderService, users, audit } = deps;
 
@@ -110,7 +112,7 @@ export function createPharmacyService(deps: {
       if (entry.vialExpiry < today) {
         throw AppError.badRequest(`The vial expired on ${entry.vialExpiry}; use an in-date vial.`, [{ path: 'vialExpiry', message: `vialExpiry must be today (${today}) or later` }]);
       }
-      const now = Date.now();
+      const now = deps.now?.() ?? Date.now();
       const reconstitutedAt = entry.reconstitutedAt ? new Date(entry.reconstitutedAt) : new Date(now);
       if (reconstitutedAt.getTime() > now + clockSkewS * 1000) {
         throw AppError.badRequest('The reconstitution time is in the future.', [{ path: 'reconstitutedAt', message: 'reconstitutedAt cannot be in the future' }]);
