@@ -53,6 +53,13 @@ const sessionRecordSchema = z.object({
   uvOnS: seconds,
   irradianceMwPerCm2: z.number().nullable(),
   deliveredFluenceJPerCm2: z.number().nullable(),
+  // Records stored before these figures existed have none.
+  volumeGivenSource: z.enum(['entered', 'derived']).nullable().optional().default(null),
+  doseGivenMg: z.number().nullable().optional().default(null),
+  plannedDoseMg: z.number().nullable().optional().default(null),
+  deviceExposureS: z.number().nullable().optional().default(null),
+  deviceEnergyJ: z.number().nullable().optional().default(null),
+  lateEntries: z.array(z.object({ idempotencyKey: z.string(), type: z.string(), at: z.string(), reason: z.string() })).optional().default([]),
 });
 export type SessionRecordSummary = z.infer<typeof sessionRecordSchema>;
 
