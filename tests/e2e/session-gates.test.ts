@@ -137,9 +137,21 @@ describe('gate 4: the drug past its beyond-use time', () => {
     expect(await page.getByRole('button', { name: 'Start infusion', exact: true }).count()).toBe(0);
     expect(await accessibilityViolations(page)).toEqual([]);
 
-    // The pharmacist makes the drug up again (the order stays in session), and the clock lets the infusion start.
-    const again = await prepare(id, 1);
-    expect(again.status(), await again.text()).toBe(201);
+    // The pharmacist makes the drug up again from the order's dose-check page (the order stays in
+    // session), and the clock lets the infusion start.
+    const pharmacy = await signedInPage('pharmacist@demo.luxtempo.example', `/dose-checks/${id}`);
+    await pharmacy.page.getByText('Past its beyond-use time: discard the drug and make it up again').waitFor();
+    expect(await accessibilityViolations(pharmacy.page)).toEqual([]);
+    await pharmacy.page.getByLabel('Vial lot').fill('SG-LOT-2');
+    await pharmacy.page.getByLabel('Vial expiry').fill(new Date(Date.now() + 90 * 86_400_000).toISOString().slice(0, 10));
+    await pharmacy.page.getByRole('button', { name: 'Set to now' }).click();
+    await pharmacy.page.getByLabel('Volume drawn (mL)').fill('5.5');
+    await pharmacy.page.getByRole('button', { name: 'Record preparation' }).click();
+    await pharmacy.page.getByText('Past its beyond-use time: discard the drug and make it up again').waitFor({ state: 'hidden' });
+    expect(pharmacy.problems).toEqual([]);
+    await pharmacy.page.context().close();
+    const preparations = (await (await clinician.get(`/api/orders/${id}`)).json()).order;
+    expect(preparations.status).toBe('in-session');
     await page.reload();
     await page.getByRole('button', { name: 'Start infusion', exact: true }).click();
     await page.getByRole('timer', { name: 'Time left for the infusion' }).waitFor();
@@ -180,7 +192,10 @@ describe('gate 6: UV below the minimum thickness', () => {
     await dialog.getByLabel('Authorising clinician’s password').fill('not-the-password');
     expect(await accessibilityViolations(page)).toEqual([]);
     await dialog.getByRole('button', { name: 'Authorise override' }).click();
-    await dialog.getByText('authoriserPassword must be the sign-in password of the clinician named by authoriserEmail').waitFor();
+    // Named beside the password field, in the server's words.
+    const password = dialog.getByLabel('Authorising clinician’s password');
+    await dialog.getByText('The e-mail or password of the authorising clinician is not right.').waitFor();
+    expect(await password.getAttribute('aria-invalid')).toBe('true');
     expect((await sessionOf(id)).events.some((e) => e.type === 'thickness-override')).toBe(false);
 
     await dialog.getByLabel('Authorising clinician’s password').fill(demoPassword);

@@ -54,10 +54,12 @@ export function OverrideAuthorisationDialog({ open, orderId, minimumUm, onDismis
       onRecorded();
     } catch (error) {
       setPassword('');
+      // The server's sentence is written for people; it goes beside the field it names.
       const fields = isApiRequestError(error) ? error.fields : [];
       const byField: typeof errors = {};
-      for (const field of fields) if (field.path === 'authoriserEmail' || field.path === 'authoriserPassword' || field.path === 'reason') byField[field.path] = field.message;
-      setErrors({ ...byField, other: isApiRequestError(error) && error.status === 0 ? 'The tablet is offline: an authorisation needs the network. Try again when it is back.' : describeError(error) });
+      for (const field of fields) if (field.path === 'authoriserEmail' || field.path === 'authoriserPassword' || field.path === 'reason') byField[field.path] = describeError(error);
+      const offline = isApiRequestError(error) && error.status === 0;
+      setErrors(Object.keys(byField).length > 0 ? byField : { other: offline ? 'The tablet is offline: an authorisation needs the network. Try again when it is back.' : describeError(error) });
     } finally {
       setBusy(false);
     }
