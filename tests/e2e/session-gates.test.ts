@@ -162,6 +162,39 @@ describe('gate 4: the drug past its beyond-use time', () => {
   });
 });
 
+describe('gate 4: light with no infusion start on record', () => {
+  it('is a critical deviation, and the discharge sheet counts the precaution from the latest plausible time and says so', async () => {
+    const id = await preparedPdtOrder(30);
+    const infusionKey = randomUUID();
+    const nowMs = serverNowMs();
+    const tap = (secondsAgo: number, body: Record<string, unknown>) => nurseApi.post(`/api/orders/${id}/session-events`, { data: { idempotencyKey: randomUUID(), clientTime: new Date(nowMs - secondsAgo * 1000).toISOString(), ...body } });
+    await seedEvents(id, pdtUpToInfusion);
+    expect((await nurseApi.post(`/api/orders/${id}/session-events`, { data: { idempotencyKey: infusionKey, clientTime: new Date(nowMs - 125_000).toISOString(), type: 'step-started', stepId: 'infusion' } })).status()).toBe(201);
+    for (const [secondsAgo, body] of [
+      [124, { type: 'tap-withdrawn', withdrawnKey: infusionKey, reason: 'Tapped on the wrong patient’s tablet.' }],
+      [100, { type: 'step-started', stepId: 'laser' }],
+      [17, { type: 'step-ended', stepId: 'laser' }],
+      [15, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }],
+      [10, { type: 'session-completed' }],
+    ] as const) {
+      const res = await tap(secondsAgo, body);
+      expect(res.status(), await res.text()).toBe(201);
+    }
+    expect((await sessionOf(id)).deviations.find((d) => d.type === 'light-without-infusion')).toBeDefined();
+
+    const sheet = await signedInPage('nurse@demo.luxtempo.example', `/orders/${id}/discharge`);
+    const precaution = sheet.page.getByRole('region', { name: 'Light precaution after verteporfin' });
+    await precaution.getByText('Counted from the latest plausible time.').waitFor();
+    expect(await precaution.innerText()).toMatch(/No infusion start is on record/);
+    // 48 h in the demo protocol (sources differ: 48 h or 5 days — from memory), from the session's end.
+    const end = Date.parse((await precaution.locator('time').getAttribute('datetime'))!);
+    expect(end - (nowMs - 10_000)).toBe(48 * 3600_000);
+    expect(await accessibilityViolations(sheet.page)).toEqual([]);
+    expect(sheet.problems).toEqual([]);
+    await sheet.page.context().close();
+  });
+});
+
 describe('gate 6: UV below the minimum thickness', () => {
   it('stays blocked until a clinician authorises it with their password on the tablet; a wrong password is refused, naming it', async () => {
     const id = await signedOrder({
