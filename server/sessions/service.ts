@@ -5,6 +5,7 @@ import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protoco
 import { deriveDoseRecord, withdrawalsApplied } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
 import { isWithdrawableType, type SessionEvent, type SessionEventInput } from '../../shared/session/session-events';
+import { drugTimeVerdict, exposureMissing, uvStartVerdict, volumeInfusedRequired } from '../../shared/session/session-rules';
 import type { AuditRepository } from '../audit/repository';
 import { signaturePasswordMatches } from '../auth/signature-password';
 import { AppError } from '../http/app-error';
@@ -153,14 +154,15 @@ export function createSessionService(deps: {
     if (preparation && (input.type === 'session-started' || startsInfusion)) {
       const beyondUseMs = Date.parse(preparation.beyondUseAt);
       const what = input.type === 'session-started' ? 'session' : 'infusion';
-      if (at > beyondUseMs) {
+      const verdict = drugTimeVerdict(what, at, preparation);
+      if (!verdict.allowed && verdict.rule === 'beyond_use') {
         throw new SessionRuleRefusal('beyond_use', `The drug passed its beyond-use time at ${wardTime(beyondUseMs)}: discard it; a pharmacist makes it up again (Preparation on the order) before the ${what} starts.`, {
           path: 'clientTime',
           message: `clientTime must not be after the drug's beyond-use time (${preparation.beyondUseAt}) for a ${what} start`,
         });
       }
       const reconstitutedMs = Date.parse(preparation.reconstitutedAt);
-      if (startsInfusion && at < reconstitutedMs) {
+      if (!verdict.allowed && verdict.rule === 'before_reconstitution') {
         throw new SessionRuleRefusal('before_reconstitution', `The infusion cannot start before the drug was made up (${wardTime(reconstitutedMs)}); check the tablet clock or the preparation time.`, {
           path: 'clientTime',
           message: `clientTime must not be before the reconstitution time (${preparation.reconstitutedAt}) for an infusion start`,
@@ -183,7 +185,7 @@ export function createSessionService(deps: {
       const readings = kept.filter((e): e is Extract<SessionEvent, { type: 'thickness-measured' }> => e.type === 'thickness-measured' && Date.parse(e.clientTime) <= at);
       const last = readings.sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime))[readings.length - 1];
       const authorised = kept.some((e) => e.type === 'thickness-override' && e.authorisedById !== undefined);
-      if ((!last || last.thicknessUm < minimumUm) && !authorised) {
+      if (!uvStartVerdict(minimumUm, last?.thicknessUm ?? null, authorised).allowed) {
         throw new SessionRuleRefusal('uv_below_minimum', last ? `The last reading, ${last.thicknessUm} µm, is below the ${minimumUm} µm minimum.` : `No stromal thickness reading is on record; UV needs at least ${minimumUm} µm.`, {
           path: 'thicknessUm',
           message: `a thickness reading of at least ${minimumUm} µm (cxl.minStromalThicknessUm) must precede the UV start, or a clinician must authorise an override with their password`,
@@ -197,7 +199,7 @@ export function createSessionService(deps: {
     const infusionStarted = infusionStep !== undefined && kept.some((e) => e.type === 'step-started' && e.stepId === infusionStep.id);
     if (definition.kind === 'pdt' && (input.type === 'extravasation' || input.type === 'session-stopped')) {
       const volumeKnown = kept.some((e) => e.type === 'extravasation' && e.volumeInfusedMl !== undefined);
-      const required = input.type === 'extravasation' || (infusionStarted && !volumeKnown);
+      const required = volumeInfusedRequired(input.type, { infusionStarted, volumeKnown });
       if (input.volumeInfusedMl === undefined && required) {
         throw new SessionRuleRefusal('volume_infused_required', 'Record the volume infused, as the pump shows it.', {
           path: 'volumeInfusedMl',
@@ -217,7 +219,15 @@ export function createSessionService(deps: {
       }
     }
     const lightStep = definition.kind === 'pdt' ? definition.steps.find((step) => step.kind === 'light') : undefined;
-    if (input.type === 'session-completed' && lightStep && kept.some((e) => e.type === 'step-started' && e.stepId === lightStep.id) && !kept.some((e) => e.type === 'exposure-recorded' && e.stepId === lightStep.id)) {
+    const missing =
+      lightStep !== undefined &&
+      exposureMissing({
+        lightStarted: kept.some((e) => e.type === 'step-started' && e.stepId === lightStep.id),
+        // The completion itself closes a light step still open; its exposure is due all the same.
+        lightRunning: false,
+        exposureEntered: kept.some((e) => e.type === 'exposure-recorded' && e.stepId === lightStep.id),
+      });
+    if (input.type === 'session-completed' && lightStep && missing) {
       throw new SessionRuleRefusal('exposure_required', 'Enter the exposure time the laser displays before completing the session.', {
         path: 'exposureS',
         message: `exposureS (the laser's displayed exposure, an exposure-recorded event for step ${lightStep.id}) is required before a PDT session with light completes`,

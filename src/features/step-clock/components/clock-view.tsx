@@ -3,6 +3,7 @@ import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schem
 import type { DosePlan } from '../../../../shared/schemas/calculation';
 import type { SessionEventLike } from '../../../../shared/session/dose-record';
 import type { SessionClock } from '../../../../shared/session/session-clock';
+import { volumeInfusedRequired } from '../../../../shared/session/session-rules';
 import { Button } from '../../../components/ui/button';
 import { LeakIcon, ScreenAwakeIcon, SoundOffIcon, SoundOnIcon, StatusStoppedIcon } from '../../../components/ui/icons';
 import type { SessionOrder } from '../api/get-session-order';
@@ -74,7 +75,8 @@ export function ClockView({
   const infusionStepId = protocol.steps.find((step) => step.kind === 'infusion')?.id;
   // Mirrors the server: a PDT stop after the infusion started records the volume the pump shows
   // (unless an extravasation recorded it already).
-  const stopNeedsVolume = finalVolumeMl !== null && infusionStepId !== undefined && facts.replay.runs.has(infusionStepId) && facts.replay.volumeInfusedMl === null;
+  const stopNeedsVolume =
+    finalVolumeMl !== null && infusionStepId !== undefined && volumeInfusedRequired('session-stopped', { infusionStarted: facts.replay.runs.has(infusionStepId), volumeKnown: facts.replay.volumeInfusedMl !== null });
   const lightStep = protocol.steps.find((step) => step.kind === 'light');
   // Stop and extravasation are timed at the press that opened the dialog, not at the confirmation.
   const pressedAtMs = useRef(0);

@@ -1,4 +1,5 @@
 import { useId, useRef, useState, type ReactNode } from 'react';
+import { drugTimeVerdict } from '../../../../shared/session/session-rules';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
 import { preTreatmentChecks, type PreTreatmentCheck } from '../../../../shared/session/session-events';
@@ -56,7 +57,7 @@ export function PreTreatmentChecks({
 
   const start = () => {
     // The server refuses a session start after the beyond-use time; the screen says why first.
-    if (beyondUseMs !== null && serverNowMs > beyondUseMs) return;
+    if (order.beyondUseAt && !drugTimeVerdict('session', serverNowMs, { reconstitutedAt: null, beyondUseAt: order.beyondUseAt }).allowed) return;
     const notYet = preTreatmentChecks.filter((check) => !ticks[check]);
     setMissing(notYet);
     if (notYet.length > 0) {

@@ -2,6 +2,7 @@ import { useId, useRef, useState } from 'react';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import { runsRunningMs } from '../../../../shared/session/dose-record';
 import type { NextStep, SessionClock } from '../../../../shared/session/session-clock';
+import { drugTimeVerdict } from '../../../../shared/session/session-rules';
 import { Button } from '../../../components/ui/button';
 import { AlertIcon, CheckCircleIcon, DropletIcon, EndStepIcon, PauseCircleIcon, StartCircleIcon, StatusCompletedIcon, ThicknessGaugeIcon } from '../../../components/ui/icons';
 import type { EventBody } from '../hooks/use-session-events';
@@ -70,7 +71,7 @@ export function StepActions({
 }) {
   const current = clock.current;
   const beyondUse = {
-    passed: beyondUseAtMs !== null && serverNowMs > beyondUseAtMs,
+    passed: beyondUseAtMs !== null && !drugTimeVerdict('infusion', serverNowMs, { reconstitutedAt: null, beyondUseAt: new Date(beyondUseAtMs).toISOString() }).allowed,
     why: 'The drug is past its beyond-use time: discard it. A pharmacist makes it up again (Preparation, on the order); the infusion starts after that.',
   };
   const primary = primaryAction(clock, facts, beyondUse);
