@@ -95,9 +95,9 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   const unitTimeZone = config.UNIT_TIME_ZONE;
   const weightChangeRule = { maxPct: config.WEIGHT_CHANGE_MAX_PCT, withinDays: config.WEIGHT_CHANGE_WITHIN_DAYS };
   const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, reads, unitTimeZone, weightChangeRule, confirmSignature: auth.confirmSignature });
-  const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone });
+  const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone, now });
   const sessionRows = createSessionRepository(dataSource);
-  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now });
+  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now, tapClockSkewS: config.TAP_CLOCK_SKEW_S, tapOfflineWindowH: config.TAP_OFFLINE_WINDOW_H, confirmSignature: auth.confirmSignature });
   const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitPhone: config.UNIT_PHONE, unitTimeZone });
 
   const routes: RouteSpec[] = [

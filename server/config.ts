@@ -61,6 +61,10 @@ const envSchema = z.object({
   LOGIN_FAILURE_LIMIT: z.coerce.number().int().min(1).max(1000).default(10),
   LOGIN_FAILURE_WINDOW_MIN: z.coerce.number().int().min(1).max(1440).default(15),
   UPLOAD_DIR: z.string().min(1).default('.data/uploads'),
+  /** How far ahead of the server a tablet's tap may be timed (its clock runs a little fast); further is refused. */
+  TAP_CLOCK_SKEW_S: z.coerce.number().int().min(0).max(300).default(10),
+  /** The oldest tap the unit accepts from a tablet's offline queue, in hours; older is refused. */
+  TAP_OFFLINE_WINDOW_H: z.coerce.number().min(0.25).max(24).default(4),
 });
 
 export type Config = Omit<z.infer<typeof envSchema>, 'DEMO_DATA'> & { DEMO_DATA: boolean };

@@ -12,6 +12,7 @@ import { PatientMeasurements1796293936378 } from './migrations/1796293936378-Pat
 import { ProtocolVersionGuard1796293943222 } from './migrations/1796293943222-ProtocolVersionGuard';
 import { SwellingAcknowledged1796294162239 } from './migrations/1796294162239-SwellingAcknowledged';
 import { OrderRowVersion1796294215019 } from './migrations/1796294215019-OrderRowVersion';
+import { PreparationHistory1796294636289 } from './migrations/1796294636289-PreparationHistory';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
 export const migrations = [
@@ -27,4 +28,5 @@ export const migrations = [
   ProtocolVersionGuard1796293943222,
   SwellingAcknowledged1796294162239,
   OrderRowVersion1796294215019,
+  PreparationHistory1796294636289,
 ];

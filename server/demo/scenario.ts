@@ -27,7 +27,7 @@ export async function newestApprovedVersion(dataSource: DataSource, key: string)
 }
 
 /** A script line: seconds from the session start, and the event as the tablet would send it. */
-type ScriptEvent = { type: SessionEventInput['type']; stepId?: string; checks?: Record<string, true>; thicknessUm?: number };
+type ScriptEvent = { type: SessionEventInput['type']; stepId?: string; checks?: Record<string, true>; thicknessUm?: number; exposureS?: number };
 export type Step = [offsetS: number, event: ScriptEvent];
 const checks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true } as const;
 
@@ -42,6 +42,8 @@ export function pdtScript(lightLateS = 0): Step[] {
     [light, { type: 'step-ended', stepId: 'wait-for-light' }],
     [light, { type: 'step-started', stepId: 'laser' }],
     [light + 83, { type: 'step-ended', stepId: 'laser' }],
+    // What the laser displayed, entered by the nurse at the end of the light step.
+    [light + 88, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }],
     [light + 90, { type: 'step-started', stepId: 'aftercare' }],
     [light + 400, { type: 'step-ended', stepId: 'aftercare' }],
     [light + 410, { type: 'session-completed' }],

@@ -49,7 +49,7 @@ export function createOrderRepository(dataSource: DataSource) {
         // every other.
         `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.protocol_sha256 AS protocolSha256, o.plan, o.checklist,
                 p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt
-           FROM treatment_order o LEFT JOIN preparation p ON p.order_id = o.id
+           FROM treatment_order o LEFT JOIN preparation p ON p.id = (SELECT MAX(latest.id) FROM preparation latest WHERE latest.order_id = o.id)
           WHERE o.id = ? FOR UPDATE`,
         [id],
       );
@@ -128,7 +128,11 @@ export function createOrderRepository(dataSource: DataSource) {
     addDoseCheck: (manager: EntityManager, check: Omit<DoseCheck, 'id' | 'createdAt' | 'order' | 'pharmacist'>) => manager.getRepository(DoseCheck).save(manager.getRepository(DoseCheck).create(check)),
 
     preparationFor: (orderId: number, manager?: EntityManager) =>
-      (manager?.getRepository(Preparation) ?? dataSource.getRepository(Preparation)).findOne({ where: { orderId }, relations: { pharmacist: true } }),
+      // The latest counts: a drug past its beyond-use time is made up again.
+      (manager?.getRepository(Preparation) ?? dataSource.getRepository(Preparation)).findOne({ where: { orderId }, relations: { pharmacist: true }, order: { id: 'DESC' } }),
+
+    /** Every preparation of an order, oldest first (more than one when a drug was made up again). */
+    preparationsFor: (orderId: number) => dataSource.getRepository(Preparation).find({ where: { orderId }, relations: { pharmacist: true }, order: { id: 'ASC' } }),
 
     addPreparation: (manager: EntityManager, preparation: Omit<Preparation, 'id' | 'createdAt' | 'order' | 'pharmacist'>) =>
       manager.getRepository(Preparation).save(manager.getRepository(Preparation).create(preparation)),

@@ -1,6 +1,8 @@
 import { DateTime } from 'luxon';
 import type { DataSource } from 'typeorm';
 import { doseCheckDiffering, withinPct } from '../../shared/engine/dose-check';
+import { canReprepare } from '../../shared/orders/lifecycle';
+import { withdrawalsApplied } from '../../shared/session/dose-record';
 import type { DoseCheckEntry, PreparationEntry } from '../../shared/schemas/orders';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
@@ -8,7 +10,7 @@ import { enqueueMessage } from '../mail/outbox';
 import { moveOrderStatus, type OrderRepository } from '../orders/repository';
 import type { Actor, OrderService } from '../orders/service';
 import type { UserRepository } from '../people/repository';
-import { addParticipant } from '../sessions/repository';
+import { addParticipant, readSessionEvents } from '../sessions/repository';
 
 /** A second refused check sends the order back to the clinician. */
 export const refusalsBeforeReturn = 2;
@@ -22,6 +24,8 @@ export function createPharmacyService(deps: {
   users: UserRepository;
   audit: AuditRepository;
   unitTimeZone: string;
+  /** The server's clock (tests move it); beyond-use times are judged by it. */
+  now?: () => number;
 }) {
   const { dataSource, orders, orderService, users, audit } = deps;
 
@@ -104,7 +108,7 @@ export function createPharmacyService(deps: {
       if (entry.vialExpiry < today) {
         throw AppError.badRequest(`The vial expired on ${entry.vialExpiry}; use an in-date vial.`, [{ path: 'vialExpiry', message: `vialExpiry must be today (${today}) or later` }]);
       }
-      const now = Date.now();
+      const now = deps.now?.() ?? Date.now();
       const reconstitutedAt = entry.reconstitutedAt ? new Date(entry.reconstitutedAt) : new Date(now);
       if (reconstitutedAt.getTime() > now + clockSkewS * 1000) {
         throw AppError.badRequest('The reconstitution time is in the future.', [{ path: 'reconstitutedAt', message: 'reconstitutedAt cannot be in the future' }]);
@@ -122,20 +126,44 @@ export function createPharmacyService(deps: {
         const high = +(planned * (1 + pct / 100)).toFixed(2);
         throw AppError.badRequest(`The volume drawn differs from the plan by more than ${pct}%.`, [{ path: 'volumeDrawnMl', message: `volumeDrawnMl must be between ${low} and ${high} mL (plan ${planned} mL ± ${pct}%)` }]);
       }
-      await dataSource.transaction(async (manager) => {
+      const infusionStepId = order.protocolVersion.definition.steps.find((step) => step.kind === 'infusion')?.id ?? null;
+      const discarded = await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
-        if (locked?.status !== 'checked') throw AppError.conflict('not_checked', `Order ${id} is ${locked?.status ?? 'gone'}; preparation follows a matching dose check.`);
+        let previous: { beyondUseAt: string } | null = null;
+        if (locked && locked.status !== 'checked') {
+          // Made up again: the drug made up before is past its beyond-use time and was discarded
+          // (shared/orders/lifecycle.ts canReprepare). The status stays; the new preparation counts.
+          const current = await orders.preparationFor(id, manager);
+          const { kept } = withdrawalsApplied(await readSessionEvents(manager, id));
+          const verdict = canReprepare(locked.status, {
+            beyondUsePassed: current !== null && current.beyondUseAt.getTime() <= now,
+            infusionStarted: kept.some((e) => e.type === 'step-started' && e.stepId === infusionStepId),
+          });
+          if (!verdict.allowed) throw AppError.conflict('not_checked', `Order ${id} is ${locked.status}; preparation follows a matching dose check, and ${verdict.why}.`);
+          previous = current ? { beyondUseAt: current.beyondUseAt.toISOString() } : null;
+        } else if (!locked) {
+          throw AppError.conflict('not_checked', `Order ${id} is gone; preparation follows a matching dose check.`);
+        }
         await orders.addPreparation(manager, { orderId: id, pharmacistId: actor.id, vialLot: entry.vialLot, vialExpiry: entry.vialExpiry, reconstitutedAt, volumeDrawnMl: entry.volumeDrawnMl, beyondUseAt });
-        await moveOrderStatus(manager, id, 'checked', 'prepared', { beyondUseAt });
+        if (!previous) await moveOrderStatus(manager, id, 'checked', 'prepared', { beyondUseAt });
+        else await orders.update(manager, id, { beyondUseAt });
         await addParticipant(manager, id, actor.id, 'prepared');
+        return previous;
       });
       await audit.append({
         actorUserId: actor.id,
-        action: 'order.prepared',
+        action: discarded ? 'order.re-prepared' : 'order.prepared',
         entityType: 'order',
         entityId: id,
         ipAddress: actor.ipAddress,
-        details: { vialLot: entry.vialLot, vialExpiry: entry.vialExpiry, reconstitutedAt: reconstitutedAt.toISOString(), volumeDrawnMl: entry.volumeDrawnMl, beyondUseAt: beyondUseAt.toISOString() },
+        details: {
+          vialLot: entry.vialLot,
+          vialExpiry: entry.vialExpiry,
+          reconstitutedAt: reconstitutedAt.toISOString(),
+          volumeDrawnMl: entry.volumeDrawnMl,
+          beyondUseAt: beyondUseAt.toISOString(),
+          ...(discarded ? { discardedBeyondUseAt: discarded.beyondUseAt } : {}),
+        },
       });
       return orderService.detail(id, actor);
     },

@@ -1,7 +1,7 @@
 import { DateTime } from 'luxon';
 import type { DataSource } from 'typeorm';
 import { answeredCautions } from '../../shared/orders/readiness';
-import { lightPrecautionEnd } from '../../shared/session/light-precaution';
+import { lightPrecautionEnd, precautionStartFor } from '../../shared/session/light-precaution';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
@@ -21,10 +21,19 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
     const definition = order.protocolVersion.definition;
     const zone = deps.unitTimeZone;
     const local = (iso: string | null | undefined) => (iso ? DateTime.fromISO(iso).setZone(zone).toFormat("cccc d LLLL yyyy, HH:mm (ZZZZ)") : null);
-    const infusionStartAt = record.kind === 'pdt' ? record.infusionStartAt : null;
+    // A PDT sheet always carries the precaution: from the infusion start, or with no start on
+    // record from the latest plausible time, with a note saying so.
+    const start = definition.drug && record.kind === 'pdt' ? precautionStartFor(record, new Date().toISOString()) : null;
     const precaution =
-      definition.drug && infusionStartAt
-        ? { ...lightPrecautionEnd({ infusionStartAt, hours: definition.drug.lightPrecautionH, zone }), hours: definition.drug.lightPrecautionH, source: definition.drug.lightPrecautionSource }
+      definition.drug && start
+        ? {
+            ...lightPrecautionEnd({ infusionStartAt: start.at, hours: definition.drug.lightPrecautionH, zone }),
+            hours: definition.drug.lightPrecautionH,
+            source: definition.drug.lightPrecautionSource,
+            countedFrom: start.at,
+            basis: start.basis,
+            note: start.note,
+          }
         : null;
     return {
       unitName: deps.unitName,
@@ -58,12 +67,15 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
         '',
         `Today at ${data.unitName} your ${data.order.eye} eye was treated (${data.protocol.title}).`,
       ];
-      if (data.precaution) {
+      if (data.protocol.kind === 'pdt') {
+        // Never without its light-precaution paragraph: a PDT sheet always has one (see sheet()).
+        if (!data.precaution) throw AppError.conflict('no_light_precaution', 'The light-precaution end cannot be worked out for this session, so the advice is not sent; give the printed sheet and ask the clinician.');
         lines.push(
           '',
           `Please protect your skin and eyes from direct sunlight and bright indoor light until ${data.precaution.endLocalText}.`,
           'Wear the protective clothing and dark glasses you were given. Normal indoor light is good for you: do not sit in the dark.',
         );
+        if (data.precaution.note) lines.push(`(${data.precaution.note})`);
       }
       lines.push('', `If your eye becomes painful, your vision gets worse, or you have any concern, call the eye unit on ${data.unitPhone}.`, '', `${data.unitName}`);
       await deps.dataSource.transaction((manager) =>

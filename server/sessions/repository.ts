@@ -60,6 +60,15 @@ interface KnownEvents {
 
 const knownEventsMax = 2_000;
 
+/** Every stored event of an order in the order they happened (by the tablet's time, then as stored). */
+export async function readSessionEvents(manager: EntityManager, orderId: number): Promise<SessionEvent[]> {
+  const rows: StoredEventRow[] = await manager.query(
+    'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? ORDER BY client_time, id',
+    [orderId],
+  );
+  return rows.map(toSessionEvent);
+}
+
 export function createSessionRepository(dataSource: DataSource) {
   /**
    * Running sessions' events, kept between writes so that each new event reads only what is newer
@@ -74,13 +83,7 @@ export function createSessionRepository(dataSource: DataSource) {
 
   return {
     /** Every event of an order in the order they happened. */
-    async eventsFor(orderId: number, manager?: EntityManager): Promise<SessionEvent[]> {
-      const rows: StoredEventRow[] = await (manager ?? dataSource.manager).query(
-        'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? ORDER BY client_time, id',
-        [orderId],
-      );
-      return rows.map(toSessionEvent);
-    },
+    eventsFor: (orderId: number, manager?: EntityManager): Promise<SessionEvent[]> => readSessionEvents(manager ?? dataSource.manager, orderId),
 
     /**
      * Every event of an order, for a writer that holds the order's lock: what this process knew
@@ -142,10 +145,11 @@ export function createSessionRepository(dataSource: DataSource) {
     },
 
     /** Stores one event; a key already stored fails with ER_DUP_ENTRY. */
-    insertEvent: (manager: EntityManager, orderId: number, recordedBy: number, input: SessionEventInput) =>
+    /** `payload` is what is kept of the input (a password never is); `receivedAt` the server's receipt time by the app's clock. */
+    insertEvent: (manager: EntityManager, orderId: number, recordedBy: number, input: SessionEventInput, payload: Record<string, unknown>, receivedAt: Date) =>
       manager.query(
-        'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?)',
-        [orderId, input.idempotencyKey, input.type, 'stepId' in input ? input.stepId : null, new Date(input.clientTime), recordedBy, JSON.stringify(input)],
+        'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, server_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
+        [orderId, input.idempotencyKey, input.type, 'stepId' in input ? input.stepId : null, new Date(input.clientTime), receivedAt, recordedBy, JSON.stringify(payload)],
       ),
 
     /** One statement whether the record exists or not: this runs on every event. */

@@ -1,10 +1,11 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { isSessionEnded, sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
+import { isSessionEnded, lateTapVerdict, sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
 import { readyForSessionStatuses, type OrderStatus } from '../../shared/schemas/orders';
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
-import { deriveDoseRecord } from '../../shared/session/dose-record';
+import { deriveDoseRecord, withdrawalsApplied } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
 import { isWithdrawableType, type SessionEvent, type SessionEventInput } from '../../shared/session/session-events';
+import { drugTimeVerdict, exposureMissing, uvStartVerdict, volumeInfusedRequired } from '../../shared/session/session-rules';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
@@ -14,17 +15,39 @@ import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
 import { recordOrderFacts, type SessionRepository } from './repository';
 
-/** A tablet clock may run a little ahead of ours; further ahead than this is a mistake. */
-const futureSkewMs = 10_000;
-/** An offline queue may hold events for a while, but not from another day. */
-const oldestEventMs = 12 * 3600_000;
-
 const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
   paused: ['light', 'uv'],
   resumed: ['light', 'uv'],
   'drop-given': ['soak', 'uv', 'swelling'],
   'thickness-measured': ['thickness', 'swelling'],
+  'exposure-recorded': ['light'],
 };
+
+/**
+ * A refusal by one of the session's safety rules: 422 naming the field and the rule, and an audit
+ * row (written after the transaction rolled back, so nothing of the tap is stored).
+ */
+class SessionRuleRefusal extends AppError {
+  constructor(
+    readonly rule: string,
+    message: string,
+    field: { path: string; message: string },
+    status = 422,
+  ) {
+    super(status, rule, message, [field]);
+  }
+}
+
+/** A tap's time outside its bounds is bad input (400), as any other invalid field. */
+const timeRefusal = (rule: string, message: string, field: { path: string; message: string }) => new SessionRuleRefusal(rule, message, field, 400);
+
+/** The clinician who authorised UV below the thickness minimum, checked before the transaction. */
+interface Authoriser {
+  id: number;
+  name: string;
+}
+
+const wardTime = (ms: number) => `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
 
 type SessionOrder = NonNullable<Awaited<ReturnType<OrderRepository['lockForSession']>>> & { definition: ProtocolDefinition };
 
@@ -36,6 +59,11 @@ export function createSessionService(deps: {
   audit: AuditRepository;
   unitTimeZone: string;
   now?: () => number;
+  /** Gate 5's bounds, from the unit's configuration (TAP_CLOCK_SKEW_S, TAP_OFFLINE_WINDOW_H). */
+  tapClockSkewS?: number;
+  tapOfflineWindowH?: number;
+  /** Checks a person's own password, throttled like a sign-in (server/auth/service.ts); the recovery at start-up needs none. */
+  confirmSignature?: (userId: number, password: string, ipAddress: string | undefined) => Promise<boolean>;
 }) {
   const { dataSource, orders, sessions, users, audit } = deps;
   const now = deps.now ?? Date.now;
@@ -48,12 +76,16 @@ export function createSessionService(deps: {
   }
 
   function checkEventFits(order: SessionOrder, input: SessionEventInput, nowMs: number) {
+    const { tapClockSkewS, tapOfflineWindowH } = tapBounds();
     const at = Date.parse(input.clientTime);
-    if (at > nowMs + futureSkewMs) {
-      throw AppError.badRequest('The event is timed in the future; check the tablet clock.', [{ path: 'clientTime', message: 'clientTime must not be ahead of the server clock by more than 10 s' }]);
+    if (at > nowMs + tapClockSkewS * 1000) {
+      throw timeRefusal('tap_in_future', 'The tap is timed in the future; check the tablet clock.', { path: 'clientTime', message: `clientTime must not be ahead of the server clock by more than ${tapClockSkewS} s (TAP_CLOCK_SKEW_S)` });
     }
-    if (at < nowMs - oldestEventMs) {
-      throw AppError.badRequest('The event is too old to belong to this session.', [{ path: 'clientTime', message: 'clientTime must lie within the last 12 hours' }]);
+    if (at < nowMs - tapOfflineWindowH * 3_600_000) {
+      throw timeRefusal('tap_too_old', `The tap is older than the unit's offline window of ${tapOfflineWindowH} h.`, {
+        path: 'clientTime',
+        message: `clientTime must lie within the last ${tapOfflineWindowH} h (TAP_OFFLINE_WINDOW_H); record what happened as a note to the auditor instead`,
+      });
     }
 
     if ('stepId' in input) {
@@ -77,6 +109,153 @@ export function createSessionService(deps: {
     }
   }
 
+  function tapBounds() {
+    if (deps.tapClockSkewS === undefined || deps.tapOfflineWindowH === undefined) throw new Error('the session service records taps only with tapClockSkewS and tapOfflineWindowH configured');
+    return { tapClockSkewS: deps.tapClockSkewS, tapOfflineWindowH: deps.tapOfflineWindowH };
+  }
+
+  /**
+   * The safety rules that read the session's other taps (as stored under the order's lock, the new
+   * one left out): the order of events (gate 4), the tap's time against the session (gate 5), UV
+   * below the thickness minimum (gate 6) and what was given (gate 7). A refusal rolls the tap back.
+   */
+  function checkSessionRules(order: SessionOrder, input: SessionEventInput, stored: readonly SessionEvent[], actorId: number, authoriser: Authoriser | null) {
+    const at = Date.parse(input.clientTime);
+    const { kept } = withdrawalsApplied(stored);
+    const definition = order.definition;
+    const stepOf = (id: string) => definition.steps.find((step) => step.id === id);
+    const stepIdOf = (e: SessionEvent) => ('stepId' in e ? e.stepId : null);
+
+    // Gate 5: a tap's time is bounded by the session it belongs to.
+    const started = kept.find((e) => e.type === 'session-started');
+    if (input.type !== 'session-started' && started && at < Date.parse(started.clientTime)) {
+      throw timeRefusal('tap_before_session', 'The tap is timed before the session started.', { path: 'clientTime', message: `clientTime must not be before the session started (${started.clientTime})` });
+    }
+    const stepId = 'stepId' in input ? input.stepId : null;
+    if (stepId !== null) {
+      const later = kept.filter((e) => stepIdOf(e) === stepId && Date.parse(e.clientTime) > at).sort((a, b) => Date.parse(b.clientTime) - Date.parse(a.clientTime))[0];
+      if (later) {
+        throw timeRefusal('tap_before_previous', 'The tap is timed before a tap of the same step already stored; the tablet clock went back.', {
+          path: 'clientTime',
+          message: `clientTime must not be before the previous stored tap of step ${stepId} (${later.clientTime})`,
+        });
+      }
+    }
+    const end = kept.find((e) => e.type === 'session-completed' || e.type === 'session-stopped');
+    const verdict = lateTapVerdict(order.status, {
+      tapMs: at,
+      endedMs: end ? Date.parse(end.clientTime) : null,
+      lateEntry: input.lateEntryReason !== undefined,
+      endsOrWithdraws: !isWithdrawableType(input.type),
+    });
+    if (!verdict.take) throw new SessionRuleRefusal('late_tap', `The session for order ${order.id} ended${end ? ` at ${wardTime(Date.parse(end.clientTime))}` : ''}.`, { path: verdict.field, message: verdict.why });
+
+    // Gate 4: the order of events against the preparation.
+    const preparation = order.preparation;
+    const startsInfusion = input.type === 'step-started' && stepOf(input.stepId)?.kind === 'infusion';
+    if (preparation && (input.type === 'session-started' || startsInfusion)) {
+      const beyondUseMs = Date.parse(preparation.beyondUseAt);
+      const what = input.type === 'session-started' ? 'session' : 'infusion';
+      const verdict = drugTimeVerdict(what, at, preparation);
+      if (!verdict.allowed && verdict.rule === 'beyond_use') {
+        throw new SessionRuleRefusal('beyond_use', `The drug passed its beyond-use time at ${wardTime(beyondUseMs)}: discard it; a pharmacist makes it up again (Preparation on the order) before the ${what} starts.`, {
+          path: 'clientTime',
+          message: `clientTime must not be after the drug's beyond-use time (${preparation.beyondUseAt}) for a ${what} start`,
+        });
+      }
+      const reconstitutedMs = Date.parse(preparation.reconstitutedAt);
+      if (!verdict.allowed && verdict.rule === 'before_reconstitution') {
+        throw new SessionRuleRefusal('before_reconstitution', `The infusion cannot start before the drug was made up (${wardTime(reconstitutedMs)}); check the tablet clock or the preparation time.`, {
+          path: 'clientTime',
+          message: `clientTime must not be before the reconstitution time (${preparation.reconstitutedAt}) for an infusion start`,
+        });
+      }
+    }
+
+    // Gate 6: UV on a stroma below the minimum needs a clinician's authorisation.
+    if (input.type === 'thickness-override') {
+      if (!authoriser) throw new Error('a thickness override reached the rules without its authoriser');
+      if (authoriser.id === actorId || stored.some((e) => e.recordedBy === authoriser.id)) {
+        throw new SessionRuleRefusal('authoriser_is_nurse', 'The override is authorised by a second person: a clinician who is not running this session.', {
+          path: 'authoriserEmail',
+          message: 'authoriserEmail must name a clinician other than the nurse(s) recording this session',
+        });
+      }
+    }
+    const minimumUm = definition.cxl?.minStromalThicknessUm ?? null;
+    if (input.type === 'step-started' && stepOf(input.stepId)?.kind === 'uv' && minimumUm !== null) {
+      const readings = kept.filter((e): e is Extract<SessionEvent, { type: 'thickness-measured' }> => e.type === 'thickness-measured' && Date.parse(e.clientTime) <= at);
+      const last = readings.sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime))[readings.length - 1];
+      const authorised = kept.some((e) => e.type === 'thickness-override' && e.authorisedById !== undefined);
+      if (!uvStartVerdict(minimumUm, last?.thicknessUm ?? null, authorised).allowed) {
+        throw new SessionRuleRefusal('uv_below_minimum', last ? `The last reading, ${last.thicknessUm} µm, is below the ${minimumUm} µm minimum.` : `No stromal thickness reading is on record; UV needs at least ${minimumUm} µm.`, {
+          path: 'thicknessUm',
+          message: `a thickness reading of at least ${minimumUm} µm (cxl.minStromalThicknessUm) must precede the UV start, or a clinician must authorise an override with their password`,
+        });
+      }
+    }
+
+    // Gate 7: what was given is recorded.
+    const finalVolumeMl = definition.drug?.finalVolumeMl ?? null;
+    const infusionStep = definition.steps.find((step) => step.kind === 'infusion');
+    const infusionStarted = infusionStep !== undefined && kept.some((e) => e.type === 'step-started' && e.stepId === infusionStep.id);
+    if (definition.kind === 'pdt' && (input.type === 'extravasation' || input.type === 'session-stopped')) {
+      const volumeKnown = kept.some((e) => e.type === 'extravasation' && e.volumeInfusedMl !== undefined);
+      const required = volumeInfusedRequired(input.type, { infusionStarted, volumeKnown });
+      if (input.volumeInfusedMl === undefined && required) {
+        throw new SessionRuleRefusal('volume_infused_required', 'Record the volume infused, as the pump shows it.', {
+          path: 'volumeInfusedMl',
+          message: `volumeInfusedMl is required when ${input.type === 'extravasation' ? 'an extravasation is recorded' : 'a PDT session stops after its infusion started'}: 0 to ${finalVolumeMl} mL`,
+        });
+      }
+      if (input.volumeInfusedMl !== undefined && finalVolumeMl !== null && input.volumeInfusedMl > finalVolumeMl) {
+        throw new SessionRuleRefusal('volume_infused_above_final', `The bag holds ${finalVolumeMl} mL; more cannot have been infused.`, {
+          path: 'volumeInfusedMl',
+          message: `volumeInfusedMl must be from 0 to ${finalVolumeMl} mL (drug.finalVolumeMl, the planned final volume)`,
+        });
+      }
+    }
+    if (input.type === 'exposure-recorded') {
+      if (!kept.some((e) => e.type === 'step-started' && e.stepId === input.stepId)) {
+        throw new SessionRuleRefusal('exposure_before_light', 'The exposure is entered at the end of the light step; the light has not started.', { path: 'stepId', message: `stepId ${input.stepId} must have started before its exposure is entered` });
+      }
+    }
+    const lightStep = definition.kind === 'pdt' ? definition.steps.find((step) => step.kind === 'light') : undefined;
+    const missing =
+      lightStep !== undefined &&
+      exposureMissing({
+        lightStarted: kept.some((e) => e.type === 'step-started' && e.stepId === lightStep.id),
+        // The completion itself closes a light step still open; its exposure is due all the same.
+        lightRunning: false,
+        exposureEntered: kept.some((e) => e.type === 'exposure-recorded' && e.stepId === lightStep.id),
+      });
+    if (input.type === 'session-completed' && lightStep && missing) {
+      throw new SessionRuleRefusal('exposure_required', 'Enter the exposure time the laser displays before completing the session.', {
+        path: 'exposureS',
+        message: `exposureS (the laser's displayed exposure, an exposure-recorded event for step ${lightStep.id}) is required before a PDT session with light completes`,
+      });
+    }
+  }
+
+  /** A clinician's authorisation of UV below the minimum: their e-mail and password, checked before the transaction. */
+  async function checkAuthoriser(input: Extract<SessionEventInput, { type: 'thickness-override' }>, ipAddress: string | undefined): Promise<Authoriser> {
+    if (!input.authoriserEmail) {
+      throw new SessionRuleRefusal('authoriser_required', 'UV below the thickness minimum needs a clinician’s authorisation.', { path: 'authoriserEmail', message: 'authoriserEmail is required: the clinician who authorises the override' });
+    }
+    if (!input.authoriserPassword) {
+      throw new SessionRuleRefusal('authoriser_required', 'UV below the thickness minimum needs a clinician’s authorisation.', { path: 'authoriserPassword', message: 'authoriserPassword is required: the authorising clinician’s sign-in password' });
+    }
+    const person = await users.findByEmail(input.authoriserEmail);
+    const matches = person && deps.confirmSignature ? await deps.confirmSignature(person.id, input.authoriserPassword, ipAddress) : false;
+    if (!person || !matches || !person.active) {
+      throw new SessionRuleRefusal('authoriser_refused', 'The e-mail or password of the authorising clinician is not right.', { path: 'authoriserPassword', message: 'authoriserPassword must be the sign-in password of the clinician named by authoriserEmail' });
+    }
+    if (!person.roles.includes('clinician')) {
+      throw new SessionRuleRefusal('authoriser_not_clinician', `${person.displayName} is not a clinician.`, { path: 'authoriserEmail', message: 'authoriserEmail must name a person with the clinician role' });
+    }
+    return { id: person.id, name: person.displayName };
+  }
+
   /**
    * An ended session takes events as long as a tap made before its end can still arrive (12 h),
    * and no longer: then its record and deviations are closed, and the database refuses to change
@@ -85,9 +264,11 @@ export function createSessionService(deps: {
    * join to dose_record under FOR UPDATE gap-locked it, and concurrent first events deadlocked).
    */
   function checkRecordOpen(order: SessionOrder, events: readonly SessionEvent[], nowMs: number) {
+    // The database closes the record an hour later still (migration DatabaseIntegrity), for clocks that differ.
+    const recordOpenAfterEndMs = 12 * 3_600_000;
     if (!isSessionEnded(order.status)) return;
     const endMs = Math.min(...events.filter((e) => e.type === 'session-completed' || e.type === 'session-stopped').map((e) => Date.parse(e.clientTime)));
-    if (Number.isFinite(endMs) && nowMs - endMs > oldestEventMs) {
+    if (Number.isFinite(endMs) && nowMs - endMs > recordOpenAfterEndMs) {
       throw AppError.conflict('record_closed', `The session for order ${order.id} ended more than 12 hours ago; its dose record is closed and takes no more events.`);
     }
   }
@@ -149,6 +330,19 @@ export function createSessionService(deps: {
     return { ...rest, event, eventCount: events.length, replayed: true };
   }
 
+  /** A tap refused by a safety rule leaves an audit row naming the rule and the field; nothing else of it is stored. */
+  async function auditRefusal(actor: Actor, orderId: number, input: SessionEventInput, error: unknown) {
+    if (!(error instanceof SessionRuleRefusal)) return;
+    await audit.append({
+      actorUserId: actor.id,
+      action: 'session.tap-refused',
+      entityType: 'order',
+      entityId: orderId,
+      ipAddress: actor.ipAddress,
+      details: { type: input.type, rule: error.rule, field: error.fields?.[0]?.path ?? null, clientTime: input.clientTime, idempotencyKey: input.idempotencyKey },
+    });
+  }
+
   const isDuplicateKey = (error: unknown) =>
     (error as { code?: string }).code === 'ER_DUP_ENTRY' || (error as { driverError?: { code?: string } }).driverError?.code === 'ER_DUP_ENTRY';
 
@@ -164,6 +358,21 @@ export function createSessionService(deps: {
       // Read before the transaction: a transaction must never wait for a second pooled connection,
       // or a burst of writes can hold every connection and wait on each other for ever.
       const auditors = input.type === 'session-completed' || input.type === 'session-stopped' ? (await users.list()).filter((u) => u.active && u.roles.includes('auditor')) : [];
+      // A replayed override must not need the password again: its stored row answers.
+      const storedAlready = input.type === 'thickness-override' ? await sessions.findEventByKey(input.idempotencyKey) : null;
+      let authoriser: Authoriser | null = null;
+      try {
+        if (input.type === 'thickness-override' && !storedAlready) authoriser = await checkAuthoriser(input, actor.ipAddress ?? undefined);
+      } catch (error) {
+        await auditRefusal(actor, orderId, input, error);
+        throw error;
+      }
+      // The password is checked, never stored: the event keeps who authorised.
+      const payload: Record<string, unknown> = { ...input };
+      if (input.type === 'thickness-override') {
+        delete payload.authoriserPassword;
+        if (authoriser) Object.assign(payload, { authorisedById: authoriser.id, authorisedByName: authoriser.name });
+      }
 
       let outcome: { status: OrderStatus; ended: boolean; event: SessionEvent; events: SessionEvent[]; result: Awaited<ReturnType<typeof recompute>> };
       let afterCommit: (() => void)[] = [];
@@ -174,8 +383,9 @@ export function createSessionService(deps: {
           const order = await sessionOrder(manager, orderId);
           // The key goes in first: a resend (the key is unique) fails here and is answered below
           // as the original was, whatever the session has done since.
-          await sessions.insertEvent(manager, orderId, actor.id, input);
-          checkEventFits(order, input, now());
+          const nowMs = now();
+          await sessions.insertEvent(manager, orderId, actor.id, input, payload, new Date(nowMs));
+          checkEventFits(order, input, nowMs);
           afterCommit.push(await sessions.addNurse(manager, orderId, actor.id));
           let status = order.status;
           if (input.type === 'session-started') status = 'in-session';
@@ -189,6 +399,7 @@ export function createSessionService(deps: {
           // Refused here, the insert rolls back and `read` is never remembered.
           if (input.type === 'tap-withdrawn') checkWithdrawal(order, input, read.events);
           checkRecordOpen(order, read.events, now());
+          checkSessionRules(order, input, read.events.filter((e) => e.idempotencyKey !== input.idempotencyKey), actor.id, authoriser);
           const result = await recompute(manager, order, read.events);
           if (status === 'reviewed') {
             const [{ open }] = await manager.query("SELECT COUNT(*) AS open FROM deviation WHERE order_id = ? AND review_status = 'open' AND withdrawn_at IS NULL", [orderId]);
@@ -221,10 +432,31 @@ export function createSessionService(deps: {
           if (stored && stored.orderId !== orderId) throw AppError.conflict('key_reused', 'This idempotency key belongs to another order’s event.');
           if (stored) return replayAnswer(orderId, input.idempotencyKey);
         }
+        await auditRefusal(actor, orderId, input, error);
         throw error;
       }
       for (const done of afterCommit) done();
-      if (input.type === 'session-started' || outcome.ended || input.type === 'extravasation' || input.type === 'thickness-override' || input.type === 'tap-withdrawn') {
+      if (authoriser) {
+        // The authorisation is the clinician's act, in their name.
+        await audit.append({
+          actorUserId: authoriser.id,
+          action: 'session.thickness-override-authorised',
+          entityType: 'order',
+          entityId: orderId,
+          ipAddress: actor.ipAddress,
+          details: { idempotencyKey: input.idempotencyKey, nurseUserId: actor.id, reason: 'reason' in input ? input.reason : null },
+        });
+      }
+      if (
+        input.type === 'session-started' ||
+        outcome.ended ||
+        input.type === 'extravasation' ||
+        input.type === 'thickness-override' ||
+        input.type === 'tap-withdrawn' ||
+        input.type === 'exposure-recorded' ||
+        input.type === 'session-stopped' ||
+        input.lateEntryReason !== undefined
+      ) {
         await audit.append({
           actorUserId: actor.id,
           action: `session.${input.type}`,
@@ -236,6 +468,10 @@ export function createSessionService(deps: {
             clientTime: input.clientTime,
             ...('reason' in input ? { reason: input.reason } : {}),
             ...(input.type === 'tap-withdrawn' ? { withdrawnKey: input.withdrawnKey } : {}),
+            ...(input.lateEntryReason !== undefined ? { lateEntryReason: input.lateEntryReason } : {}),
+            ...('volumeInfusedMl' in input && input.volumeInfusedMl !== undefined ? { volumeInfusedMl: input.volumeInfusedMl } : {}),
+            ...(input.type === 'exposure-recorded' ? { exposureS: input.exposureS, energyJ: input.energyJ ?? null } : {}),
+            ...(authoriser ? { authorisedById: authoriser.id } : {}),
           },
         });
       }

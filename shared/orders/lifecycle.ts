@@ -57,3 +57,38 @@ export function statusAfterReview(status: OrderStatus, facts: { sessionOutcome: 
 export function statusAfterLateEvent(status: OrderStatus, facts: { sessionOutcome: 'completed' | 'stopped'; openDeviations: number }): OrderStatus {
   return status === 'reviewed' && facts.openDeviations > 0 ? facts.sessionOutcome : status;
 }
+
+/**
+ * A drug past its beyond-use time is discarded and a pharmacist makes it up again. That is allowed
+ * while the order waits for its session (prepared) and while a session runs with no infusion
+ * started yet (in-session); the order's status does not move, the new preparation replaces the
+ * old one for every later check, and the old one stays on record.
+ */
+export const reprepareStatuses: readonly OrderStatus[] = ['prepared', 'in-session'];
+
+export function canReprepare(status: OrderStatus, facts: { beyondUsePassed: boolean; infusionStarted: boolean }): { allowed: true } | { allowed: false; why: string } {
+  if (!reprepareStatuses.includes(status)) return { allowed: false, why: `a drug is made up again only for a prepared order or a running session (this one is ${status})` };
+  if (!facts.beyondUsePassed) return { allowed: false, why: 'the drug made up is still within its beyond-use time' };
+  if (facts.infusionStarted) return { allowed: false, why: 'the infusion has started: the drug made up was given' };
+  return { allowed: true };
+}
+
+/**
+ * What a tap that reaches an ended session is. A tablet's offline queue legitimately delivers taps
+ * made before the end after it: a tap timed at or before the stored end is such a queued tap and is
+ * taken. A tap timed after the end is taken only as a late entry with its reason, and never one
+ * that would start, end or withdraw (those change nothing once the session is over). While the
+ * session runs, no tap is a late entry.
+ */
+export type LateTapVerdict = { take: true } | { take: false; field: 'lateEntryReason'; why: string };
+
+export function lateTapVerdict(status: OrderStatus, facts: { tapMs: number; endedMs: number | null; lateEntry: boolean; endsOrWithdraws: boolean }): LateTapVerdict {
+  const ended = isSessionEnded(status) && facts.endedMs !== null;
+  if (!ended) {
+    return facts.lateEntry ? { take: false, field: 'lateEntryReason', why: 'lateEntryReason is only for a tap entered after the session ended; the session is running' } : { take: true };
+  }
+  if (facts.tapMs <= facts.endedMs!) return { take: true };
+  if (facts.endsOrWithdraws) return { take: false, field: 'lateEntryReason', why: 'a late entry cannot start, end or withdraw anything: the session has ended' };
+  if (!facts.lateEntry) return { take: false, field: 'lateEntryReason', why: 'the tap is timed after the session ended: send it as a late entry with lateEntryReason (5 to 500 characters)' };
+  return { take: true };
+}

@@ -118,6 +118,19 @@ export function findDeviations({ protocol, plan, record, checklist, preparation 
     }
   }
 
+  // A light step with no infusion start on record: the drug may not have been given before the
+  // light, or was given at a time nobody recorded (TAP Study Group 1999 times the light from it).
+  if (record.lightWithoutInfusion && record.lightStartAt !== null) {
+    add({
+      type: 'light-without-infusion',
+      severity: 'critical',
+      expected: null,
+      actual: null,
+      unit: null,
+      message: `Light expected after a recorded infusion start; the light started at ${timeText(Date.parse(record.lightStartAt))} with no infusion start on record (never tapped, or withdrawn). The light precaution is counted from the latest plausible time.`,
+    });
+  }
+
   judgeLight({ protocol, plan, record, sessionOver, add });
 
   if (preparation && infusionStartMs !== null) {
@@ -160,7 +173,7 @@ export function findDeviations({ protocol, plan, record, checklist, preparation 
       expected: finalMl,
       actual: record.volumeGivenMl === null ? null : round(record.volumeGivenMl, 0.1),
       unit: 'mL',
-      message: `Extravasation recorded at ${timeText(Date.parse(record.extravasationAt))}; the infusion was stopped${record.volumeGivenMl === null ? '' : ` with about ${formatNumber(round(record.volumeGivenMl, 0.1))} mL${finalMl === null ? '' : ` of ${formatNumber(finalMl)} mL`} given (worked out from the planned rate, not measured)`}.`,
+      message: `Extravasation recorded at ${timeText(Date.parse(record.extravasationAt))}; the infusion was stopped${record.volumeGivenMl === null ? '' : ` with about ${formatNumber(round(record.volumeGivenMl, 0.1))} mL${finalMl === null ? '' : ` of ${formatNumber(finalMl)} mL`} given (${record.volumeGivenSource === 'entered' ? 'read off the pump by the nurse' : 'worked out from the planned rate, not measured'})`}${record.doseGivenMg === null || record.plannedDoseMg === null ? '' : `, about ${formatNumber(round(record.doseGivenMg, 0.1))} mg of ${formatNumber(record.plannedDoseMg)} mg`}.`,
     });
   }
 
@@ -192,10 +205,17 @@ function judgeLight({ protocol, plan, record, sessionOver, add }: { protocol: Pr
   // (nothing was given). A session stopped before the light is the stopped-early deviation.
   const finished = (startAt !== null && endAt !== null) || (startAt === null && sessionOver && record.outcome === 'completed');
   if (!finished) return;
+  // PDT: the exposure is judged on the figure the laser displayed, entered by the nurse at the end
+  // of the light step; the taps' difference is shown beside it as information. Until it is
+  // entered a running session is not judged; a session that ended without it is judged on the taps.
+  const tapsS = (isPdt ? record.lightOnS : record.uvOnS) ?? 0;
+  const deviceS = isPdt ? record.deviceExposureS : null;
+  if (isPdt && startAt !== null && deviceS === null && !sessionOver) return;
   const what = isPdt ? 'Laser' : 'UV';
-  const onS = (isPdt ? record.lightOnS : record.uvOnS) ?? 0;
+  const onS = deviceS ?? tapsS;
   const plannedS = (isPdt ? plan.exposureS : plan.uvTimeS) ?? protocol.light.exposureS;
   const { exposureS: exposureTolS, fluencePct } = protocol.tolerances;
+  const tapsNote = !isPdt || startAt === null ? '' : deviceS !== null ? ` (the taps put it at ${lightTimeText(tapsS)})` : ' by the taps: no exposure was entered from the laser';
   if (outside(onS, plannedS, exposureTolS)) {
     add({
       type: 'exposure-time',
@@ -203,7 +223,7 @@ function judgeLight({ protocol, plan, record, sessionOver, add }: { protocol: Pr
       expected: plannedS,
       actual: round(onS, 0.1),
       unit: 's',
-      message: `${what} on-time expected ${lightTimeText(plannedS)} (± ${lightTimeText(exposureTolS)}); it was on for ${lightTimeText(onS)}${protocol.light.pulse ? ' (on-share of the pulsed cycle)' : ''}.`,
+      message: `${what} on-time expected ${lightTimeText(plannedS)} (± ${lightTimeText(exposureTolS)}); ${deviceS !== null ? `the laser displayed ${lightTimeText(deviceS)}` : `it was on for ${lightTimeText(onS)}`}${tapsNote}${protocol.light.pulse ? ' (on-share of the pulsed cycle)' : ''}.`,
     });
   }
   const targetJPerCm2 = plan.fluenceJPerCm2 ?? protocol.light.targetFluenceJPerCm2;

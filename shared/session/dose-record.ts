@@ -1,3 +1,4 @@
+import { doseInInfusedVolumeMg } from '../engine/dose-given';
 import type { ProtocolStep, ProtocolVersion, StepKind } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
 import { isWithdrawableType, type SessionEventInput } from './session-events';
@@ -6,7 +7,33 @@ import { isWithdrawableType, type SessionEventInput } from './session-events';
  * An event as the session functions read it: stored events carry the server's `id`; events
  * still queued on a tablet have none yet and sort after stored ones at the same instant.
  */
-export type SessionEventLike = SessionEventInput & { id?: number };
+export type SessionEventLike = SessionEventInput & { id?: number; serverTime?: string };
+
+/**
+ * A tap that reached the server more than this long after it was made is listed with its delay
+ * in the dose record (a tablet that was offline; common practice: a minute is worth a look).
+ */
+export const receiptDelayShownS = 60;
+
+/** A tap entered after the session ended, with the reason it is late. */
+export interface LateEntry {
+  idempotencyKey: string;
+  type: SessionEventInput['type'];
+  stepId: string | null;
+  at: string;
+  receivedAt: string | null;
+  reason: string;
+}
+
+/** A tap that reached the server more than receiptDelayShownS after it was made. */
+export interface ReceiptDelay {
+  idempotencyKey: string;
+  type: SessionEventInput['type'];
+  stepId: string | null;
+  at: string;
+  receivedAt: string;
+  delayS: number;
+}
 
 export type SessionOutcome = 'not-started' | 'in-progress' | 'completed' | 'stopped';
 
@@ -53,6 +80,11 @@ export interface SessionReplay {
   thicknessOverrideReason: string | null;
   lastEventMs: number | null;
   withdrawnTaps: WithdrawnTap[];
+  /** The volume the nurse read off the pump at an extravasation or a stop (the latest counts). */
+  volumeInfusedMl: number | null;
+  /** What the laser displayed at the end of the light step (the latest reading counts). */
+  deviceExposure: { stepId: string; exposureS: number; energyJ: number | null } | null;
+  lateEntries: LateEntry[];
 }
 
 function compareIds(a: number | undefined, b: number | undefined): number {
@@ -149,6 +181,9 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
     thicknessOverrideReason: null,
     lastEventMs: null,
     withdrawnTaps: withdrawn,
+    volumeInfusedMl: null,
+    deviceExposure: null,
+    lateEntries: [],
   };
   const openRun = (): StepRun | undefined => {
     if (replay.openStepId === null) return undefined;
@@ -162,9 +197,31 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
   };
 
   for (const { event, ms } of sortedUnique(kept)) {
-    // Once the session has ended, later taps describe nothing that was given.
-    if (replay.endedMs !== null) break;
+    // Once the session has ended, later taps describe nothing that was given, except a late
+    // entry (refused without its reason): it is listed, and an extravasation found after the end
+    // or the laser's figures entered late still count.
+    if (replay.endedMs !== null) {
+      if (event.lateEntryReason === undefined) continue;
+      replay.lateEntries.push({
+        idempotencyKey: event.idempotencyKey,
+        type: event.type,
+        stepId: 'stepId' in event ? event.stepId : null,
+        at: event.clientTime,
+        receivedAt: event.serverTime ?? null,
+        reason: event.lateEntryReason,
+      });
+      if (event.type === 'extravasation') {
+        replay.extravasationMs ??= ms;
+        if (event.volumeInfusedMl !== undefined) replay.volumeInfusedMl = event.volumeInfusedMl;
+      }
+      if (event.type === 'exposure-recorded' && stepIds.has(event.stepId)) replay.deviceExposure = { stepId: event.stepId, exposureS: event.exposureS, energyJ: event.energyJ ?? null };
+      continue;
+    }
     replay.lastEventMs = ms;
+    if (event.lateEntryReason !== undefined) {
+      // A late entry timed inside the session (the server refuses none) still says so.
+      replay.lateEntries.push({ idempotencyKey: event.idempotencyKey, type: event.type, stepId: 'stepId' in event ? event.stepId : null, at: event.clientTime, receivedAt: event.serverTime ?? null, reason: event.lateEntryReason });
+    }
     switch (event.type) {
       case 'session-started':
         replay.sessionStartedMs ??= ms;
@@ -204,8 +261,12 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
       case 'thickness-override':
         replay.thicknessOverrideReason = event.reason;
         break;
+      case 'exposure-recorded':
+        if (stepIds.has(event.stepId)) replay.deviceExposure = { stepId: event.stepId, exposureS: event.exposureS, energyJ: event.energyJ ?? null };
+        break;
       case 'extravasation':
         replay.extravasationMs ??= ms;
+        if (event.volumeInfusedMl !== undefined) replay.volumeInfusedMl = event.volumeInfusedMl;
         // Extravasation stops the infusion at once (the protocol's caution), whatever is tapped next.
         if (infusionStepId !== null && replay.openStepId === infusionStepId) closeOpen(ms);
         break;
@@ -215,7 +276,10 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
         closeOpen(ms);
         replay.endedMs = ms;
         replay.outcome = event.type === 'session-stopped' ? 'stopped' : 'completed';
-        if (event.type === 'session-stopped') replay.stopReason = event.reason;
+        if (event.type === 'session-stopped') {
+          replay.stopReason = event.reason;
+          if (event.volumeInfusedMl !== undefined) replay.volumeInfusedMl = event.volumeInfusedMl;
+        }
         break;
       case 'tap-withdrawn':
         // Taken out before the replay (withdrawalsApplied); never reaches here.
@@ -311,15 +375,28 @@ export interface DoseRecord {
   /** The infusion step's end, or the extravasation that stopped it. */
   infusionEndAt: string | null;
   infusionDurationS: number | null;
-  /** Planned rate × infusion duration, capped at the final volume: derived, not measured. */
+  /**
+   * The volume infused: what the nurse read off the pump at an extravasation or a stop
+   * (`volumeGivenSource` 'entered'), otherwise planned rate × infusion duration capped at the
+   * final volume ('derived').
+   */
   volumeGivenMl: number | null;
+  volumeGivenSource: 'entered' | 'derived' | null;
+  /** Milligrams in the volume infused (shared/engine/dose-given), and the dose ordered, for "about N mg of M mg". */
+  doseGivenMg: number | null;
+  plannedDoseMg: number | null;
   extravasationAt: string | null;
   lightStartAt: string | null;
   lightEndAt: string | null;
   /** Timed from the START of the infusion (TAP Study Group, Arch Ophthalmol 1999). */
   lightStartAfterInfusionStartS: number | null;
-  /** Light on-time: running time of the light step less its pauses. */
+  /** Light on-time by the taps: running time of the light step less its pauses (information; the device's figure is judged). */
   lightOnS: number | null;
+  /** The exposure time and energy the laser displayed at the end of the light step, as the nurse entered them. */
+  deviceExposureS: number | null;
+  deviceEnergyJ: number | null;
+  /** PDT: a light step ran with no infusion start on record (never tapped, or withdrawn). */
+  lightWithoutInfusion: boolean;
 
   soakStartAt: string | null;
   soakEndAt: string | null;
@@ -338,11 +415,30 @@ export interface DoseRecord {
   /** UV on-time: the elapsed time, or its on-share when the light is pulsed. */
   uvOnS: number | null;
 
-  /** Irradiance × on-time ÷ 1000 (mW/cm² × s = mJ/cm²). */
+  /** Irradiance × on-time ÷ 1000 (mW/cm² × s = mJ/cm²); the on-time is the device's figure when entered. */
   deliveredFluenceJPerCm2: number | null;
 
   /** Taps withdrawn as mistakes, with the reason: none of the figures above counts them. */
   withdrawnTaps: WithdrawnTap[];
+  /** Taps entered after the session ended, each with its reason. */
+  lateEntries: LateEntry[];
+  /** Taps that reached the server more than receiptDelayShownS after they were made. */
+  receiptDelays: ReceiptDelay[];
+}
+
+/** Taps whose receipt lagged their making by more than receiptDelayShownS, oldest first. */
+export function receiptDelaysOf(events: readonly SessionEventLike[]): ReceiptDelay[] {
+  const delays: ReceiptDelay[] = [];
+  const seen = new Set<string>();
+  for (const event of events) {
+    if (event.serverTime === undefined || seen.has(event.idempotencyKey)) continue;
+    seen.add(event.idempotencyKey);
+    const delayS = (Date.parse(event.serverTime) - Date.parse(event.clientTime)) / 1000;
+    if (delayS > receiptDelayShownS) {
+      delays.push({ idempotencyKey: event.idempotencyKey, type: event.type, stepId: 'stepId' in event ? event.stepId : null, at: event.clientTime, receivedAt: event.serverTime, delayS });
+    }
+  }
+  return delays.sort((a, b) => Date.parse(a.at) - Date.parse(b.at));
 }
 
 export interface DoseRecordInput {
@@ -371,6 +467,12 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
 
   const infusionDurationS = isPdt ? seconds(infusion.span) : null;
   const lightOnS = isPdt ? onS(light.runs) : null;
+  const deviceExposure = isPdt && light.step && replay.deviceExposure?.stepId === light.step.id ? replay.deviceExposure : null;
+  const finalVolumeMl = protocol.drug?.finalVolumeMl ?? null;
+  const enteredMl = isPdt ? replay.volumeInfusedMl : null;
+  const volumeGivenMl = !isPdt ? null : enteredMl ?? infusedVolumeMl(plan.infusionRateMlPerMin, finalVolumeMl, infusionDurationS);
+  const plannedDoseMg = isPdt ? (plan.doseMg ?? null) : null;
+  const doseGivenMg = volumeGivenMl !== null && plannedDoseMg !== null && finalVolumeMl !== null ? doseInInfusedVolumeMg(Math.min(volumeGivenMl, finalVolumeMl), plannedDoseMg, finalVolumeMl) : null;
   const uvElapsedS = isPdt ? null : onS(uv.runs);
   const uvOnS = uvElapsedS === null ? null : pulsedOnS(uvElapsedS, protocol.light.pulse);
 
@@ -389,12 +491,18 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
     infusionStartAt: isPdt ? iso(infusion.span?.startMs) : null,
     infusionEndAt: isPdt ? iso(infusion.span?.endMs) : null,
     infusionDurationS,
-    volumeGivenMl: isPdt ? infusedVolumeMl(plan.infusionRateMlPerMin, protocol.drug?.finalVolumeMl ?? null, infusionDurationS) : null,
+    volumeGivenMl,
+    volumeGivenSource: volumeGivenMl === null ? null : enteredMl !== null ? 'entered' : 'derived',
+    doseGivenMg,
+    plannedDoseMg,
     extravasationAt: isPdt ? iso(replay.extravasationMs) : null,
     lightStartAt: isPdt ? iso(light.span?.startMs) : null,
     lightEndAt: isPdt ? iso(light.span?.endMs) : null,
     lightStartAfterInfusionStartS: isPdt && infusion.span && light.span ? (light.span.startMs - infusion.span.startMs) / 1000 : null,
     lightOnS,
+    deviceExposureS: deviceExposure?.exposureS ?? null,
+    deviceEnergyJ: deviceExposure?.energyJ ?? null,
+    lightWithoutInfusion: isPdt && light.span !== null && infusion.span === null,
 
     soakStartAt: isPdt ? null : iso(soak.span?.startMs),
     soakEndAt: isPdt ? null : iso(soak.span?.endMs),
@@ -410,8 +518,10 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
     uvElapsedS,
     uvOnS,
 
-    deliveredFluenceJPerCm2: fluenceFrom(plan.irradianceMwPerCm2, isPdt ? lightOnS : uvOnS),
+    deliveredFluenceJPerCm2: fluenceFrom(plan.irradianceMwPerCm2, isPdt ? (deviceExposure?.exposureS ?? lightOnS) : uvOnS),
 
     withdrawnTaps: replay.withdrawnTaps,
+    lateEntries: replay.lateEntries,
+    receiptDelays: receiptDelaysOf(events),
   };
 }

@@ -49,3 +49,26 @@ export function lightPrecautionEnd({ infusionStartAt, hours, zone }: LightPrecau
     endLocalText: `${endLocal.setLocale('en-GB').toFormat('cccc d LLLL yyyy, HH:mm')} ${zoneAbbreviation(endLocal)}`,
   };
 }
+
+/** Where the precaution period is counted from, and why. */
+export interface PrecautionStart {
+  at: string;
+  basis: 'infusion-start' | 'latest-plausible';
+  /** Said on the sheet and in the e-mail when the infusion start is not on record. */
+  note: string | null;
+}
+
+/**
+ * The precaution counts from the infusion's start. With no infusion start on record (never
+ * tapped, or withdrawn) it counts from the latest time the drug can have been started, the end of
+ * the session (or now, while it runs), so the period never ends earlier than it should.
+ */
+export function precautionStartFor(record: { infusionStartAt: string | null; endedAt: string | null }, nowIso: string): PrecautionStart {
+  if (record.infusionStartAt) return { at: record.infusionStartAt, basis: 'infusion-start', note: null };
+  const at = record.endedAt ?? nowIso;
+  return {
+    at,
+    basis: 'latest-plausible',
+    note: `No infusion start is on record, so the period is counted from the latest time the infusion can have started (${record.endedAt ? 'the end of the session' : 'now, the session still running'}); it may end later than it would from the true start.`,
+  };
+}

@@ -15,6 +15,7 @@ export const sessionEventTypes = [
   'thickness-measured',
   'thickness-override',
   'extravasation',
+  'exposure-recorded',
   'session-stopped',
   'session-completed',
   'tap-withdrawn',
@@ -36,11 +37,29 @@ export type PreTreatmentCheck = (typeof preTreatmentChecks)[number];
 const stepId = z.string({ error: 'stepId is required' }).regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'stepId must be a step id of the protocol').max(64);
 const reason = (field: string) => z.string({ error: `${field} is required` }).trim().min(5, `${field} must be 5 to 500 characters`).max(500, `${field} must be 5 to 500 characters`);
 
+/** Bounds of the figures a nurse types in at the bedside (device and pump ranges, not clinical limits). */
+export const enteredFigureLimits = {
+  volumeInfusedMl: { min: 0, max: 1000 },
+  exposureS: { min: 0.1, max: 3600 },
+  energyJ: { min: 0, max: 1000 },
+} as const;
+
+function boundedNumber(field: keyof typeof enteredFigureLimits, unit: string) {
+  const { min, max } = enteredFigureLimits[field];
+  const message = `${field} must be a number from ${min} to ${max} ${unit}`;
+  return z.number({ error: message }).min(min, message).max(max, message);
+}
+
 const common = {
   /** Made by the client (a UUID) so a retried send is recognised and stored only once. */
   idempotencyKey: z.uuid({ error: 'idempotencyKey must be a UUID' }),
   /** The moment of the tap by the client's clock, corrected by its measured server offset. */
   clientTime: z.iso.datetime({ offset: true, error: 'clientTime must be an ISO 8601 date-time with offset' }),
+  /**
+   * A tap timed after the session ended is taken only as a late entry, with the reason it is
+   * entered late; it is shown as a late entry everywhere (the server decides, see lateTapRule).
+   */
+  lateEntryReason: reason('lateEntryReason').optional(),
 };
 
 export const sessionEventSchema = z.discriminatedUnion(
@@ -65,9 +84,35 @@ export const sessionEventSchema = z.discriminatedUnion(
       stepId,
       thicknessUm: z.number({ error: 'thicknessUm must be a number in µm' }).min(100, 'thicknessUm must be between 100 and 900 µm').max(900, 'thicknessUm must be between 100 and 900 µm'),
     }),
-    z.strictObject({ ...common, type: z.literal('thickness-override'), reason: reason('reason') }),
-    z.strictObject({ ...common, type: z.literal('extravasation'), note: z.string().trim().max(500, 'note must be at most 500 characters').optional() }),
-    z.strictObject({ ...common, type: z.literal('session-stopped'), reason: reason('reason') }),
+    z.strictObject({
+      ...common,
+      type: z.literal('thickness-override'),
+      reason: reason('reason'),
+      /**
+       * UV below the minimum needs a second person: a clinician, not the nurse, types their e-mail
+       * and password on the tablet. The server checks them and stores who authorised it
+       * (authorisedById, authorisedByName), never the password. Optional in the shape only so
+       * that events stored before this rule still read; the server refuses a new override without them.
+       */
+      authoriserEmail: z.email({ error: 'authoriserEmail must be the e-mail of the clinician who authorises the override' }).max(254).optional(),
+      authoriserPassword: z.string({ error: 'authoriserPassword must be text' }).min(1, 'authoriserPassword is required').max(200, 'authoriserPassword must be at most 200 characters').optional(),
+    }),
+    z.strictObject({
+      ...common,
+      type: z.literal('extravasation'),
+      note: z.string().trim().max(500, 'note must be at most 500 characters').optional(),
+      /** What the pump shows as infused when the leak is found (PDT: required by the server, at most the final volume). */
+      volumeInfusedMl: boundedNumber('volumeInfusedMl', 'mL').optional(),
+    }),
+    /** The exposure time (and energy) the laser displays at the end of the light step: the figure the exposure is judged on. */
+    z.strictObject({ ...common, type: z.literal('exposure-recorded'), stepId, exposureS: boundedNumber('exposureS', 's'), energyJ: boundedNumber('energyJ', 'J').optional() }),
+    z.strictObject({
+      ...common,
+      type: z.literal('session-stopped'),
+      reason: reason('reason'),
+      /** What the pump shows as infused when a PDT session stops (required by the server once an infusion started). */
+      volumeInfusedMl: boundedNumber('volumeInfusedMl', 'mL').optional(),
+    }),
     z.strictObject({ ...common, type: z.literal('session-completed') }),
     z.strictObject({
       ...common,
@@ -84,9 +129,16 @@ export type SessionEventInput = z.infer<typeof sessionEventSchema>;
 /** An event as stored: the input plus who recorded it and the server's own time. */
 export type SessionEvent = SessionEventInput & {
   id: number;
+  /** When the server received it (the tablet's own time is clientTime). */
   serverTime: string;
   recordedBy: number;
+  /** A thickness override: the clinician whose password authorised it (the password is never stored). */
+  authorisedById?: number;
+  authorisedByName?: string;
 };
+
+/** Fields the server adds to a stored event's payload; a client takes them off before checking it against the contract. */
+export const serverAddedEventFields = ['authorisedById', 'authorisedByName'] as const;
 
 export const deviationSeverities = ['minor', 'major', 'critical'] as const;
 export type DeviationSeverity = (typeof deviationSeverities)[number];
@@ -98,6 +150,7 @@ export const deviationTypes = [
   'delivered-fluence',
   'beyond-use',
   'reconstitution-to-infusion',
+  'light-without-infusion',
   'soak-short',
   'drop-gap',
   'uv-below-thickness',

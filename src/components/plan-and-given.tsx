@@ -1,4 +1,5 @@
 import type { DosePlan } from '../../shared/schemas/calculation';
+import { doseGivenText } from '../lib/dose-given-words';
 import type { GivenRecord, ProtocolSteps } from '../lib/session-record-schemas';
 import { formatDurationS, formatFigure, formatUnitClock } from '../lib/unit-times';
 
@@ -15,12 +16,23 @@ function rowsFor(plan: DosePlan, record: GivenRecord | null, steps: ProtocolStep
   if ((record?.kind ?? (plan.doseMg !== null ? 'pdt' : 'cxl')) === 'pdt') {
     return [
       { label: 'BSA', planned: formatFigure(plan.bsaM2, 'm²'), given: '—', note: plan.bsaFormula ? `${bsaFormulaWords[plan.bsaFormula] ?? plan.bsaFormula} formula` : undefined },
-      { label: 'Verteporfin dose', planned: formatFigure(plan.doseMg, 'mg'), given: '—', note: 'Drawn up by the pharmacy; see the order.' },
-      { label: 'Infusion volume', planned: formatFigure(sum(plan.drugVolumeMl, plan.diluentVolumeMl), 'mL'), given: formatFigure(given?.volumeGivenMl, 'mL'), note: 'Given = planned rate × infusion time, not a pump reading.' },
+      {
+        label: 'Verteporfin dose',
+        planned: formatFigure(plan.doseMg, 'mg'),
+        given: (given && doseGivenText(given)) ?? '—',
+        note: 'Given = the share of the dose in the volume infused.',
+      },
+      {
+        label: 'Infusion volume',
+        planned: formatFigure(sum(plan.drugVolumeMl, plan.diluentVolumeMl), 'mL'),
+        given: formatFigure(given?.volumeGivenMl, 'mL'),
+        note: given?.volumeGivenSource === 'entered' ? 'Given = read off the pump by the nurse.' : 'Given = planned rate × infusion time, not a pump reading.',
+      },
       { label: 'Infusion time', planned: formatDurationS(plan.infusionEndAfterStartS), given: formatDurationS(given?.infusionDurationS) },
       { label: 'Light start after infusion start', planned: formatDurationS(plan.lightStartAfterInfusionStartS), given: formatDurationS(given?.lightStartAfterInfusionStartS) },
       { label: 'Irradiance', planned: formatFigure(plan.irradianceMwPerCm2, 'mW/cm²'), given: formatFigure(given?.irradianceMwPerCm2, 'mW/cm²'), note: 'Set on the laser; taken from the plan.' },
-      { label: 'Light on-time', planned: formatDurationS(plan.exposureS), given: formatDurationS(given?.lightOnS) },
+      { label: 'Exposure on the laser', planned: formatDurationS(plan.exposureS), given: formatDurationS(given?.deviceExposureS), note: given?.deviceEnergyJ != null ? `Energy on the laser ${formatFigure(given.deviceEnergyJ, 'J')}.` : 'As the nurse read it off the laser; the exposure is judged on it.' },
+      { label: 'Light on-time by the taps', planned: formatDurationS(plan.exposureS), given: formatDurationS(given?.lightOnS), note: 'Information: the taps’ difference.' },
       { label: 'Fluence', planned: formatFigure(plan.fluenceJPerCm2, 'J/cm²'), given: formatFigure(given?.deliveredFluenceJPerCm2, 'J/cm²') },
       { label: 'Spot diameter (retina)', planned: formatFigure(plan.spotDiameterUm, 'µm', 0), given: '—' },
       { label: 'Laser power', planned: formatFigure(plan.powerMw, 'mW', 1), given: '—' },

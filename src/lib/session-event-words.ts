@@ -11,6 +11,7 @@ export const eventWords: Record<SessionEventType, string> = {
   'thickness-measured': 'thickness reading',
   'thickness-override': 'thickness override',
   extravasation: 'extravasation',
+  'exposure-recorded': 'laser exposure entered',
   'session-stopped': 'stop',
   'session-completed': 'completion',
   'tap-withdrawn': 'withdrawal of a tap',

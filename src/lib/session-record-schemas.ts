@@ -17,6 +17,14 @@ export const withdrawnTapSchema = z.object({
 });
 export type WithdrawnTap = z.infer<typeof withdrawnTapSchema>;
 
+/** A tap entered after the session ended, with its reason. */
+export const lateEntrySchema = z.object({ idempotencyKey: z.string(), type: z.string(), stepId: z.string().nullable(), at: z.string(), receivedAt: z.string().nullable(), reason: z.string() });
+export type LateEntry = z.infer<typeof lateEntrySchema>;
+
+/** A tap that reached the server more than a minute after it was made. */
+export const receiptDelaySchema = z.object({ idempotencyKey: z.string(), type: z.string(), stepId: z.string().nullable(), at: z.string(), receivedAt: z.string(), delayS: z.number() });
+export type ReceiptDelay = z.infer<typeof receiptDelaySchema>;
+
 /** What was given, derived by the server from the session's events. */
 export const givenRecordSchema = z.object({
   kind: z.enum(['pdt', 'cxl']),
@@ -48,6 +56,14 @@ export const givenRecordSchema = z.object({
   deliveredFluenceJPerCm2: maybeFigure,
   // Records stored before withdrawals existed have none.
   withdrawnTaps: z.array(withdrawnTapSchema).optional().default([]),
+  // Records stored before the session gates have none of these.
+  volumeGivenSource: z.enum(['entered', 'derived']).nullable().optional().default(null),
+  doseGivenMg: maybeFigure,
+  plannedDoseMg: maybeFigure,
+  deviceExposureS: maybeFigure,
+  deviceEnergyJ: maybeFigure,
+  lateEntries: z.array(lateEntrySchema).optional().default([]),
+  receiptDelays: z.array(receiptDelaySchema).optional().default([]),
 });
 export type GivenRecord = z.infer<typeof givenRecordSchema>;
 

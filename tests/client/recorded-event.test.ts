@@ -29,6 +29,12 @@ const record = (soakDurationS: number) => ({
   uvOnS: null,
   irradianceMwPerCm2: null,
   deliveredFluenceJPerCm2: null,
+  volumeGivenSource: null,
+  doseGivenMg: null,
+  plannedDoseMg: null,
+  deviceExposureS: null,
+  deviceEnergyJ: null,
+  lateEntries: [],
 });
 
 const state = (events: SessionEvent[], soakS: number): SessionState => ({ orderId: 4, status: 'in-session', events, record: record(soakS), deviations: [], serverTime: new Date(startMs).toISOString() });

@@ -32,7 +32,8 @@ const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, ey
  * Returns the order id.
  */
 async function sessionWithLateLight(nurse: Agent, lightLateS: number): Promise<number> {
-  const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent });
+  // Made up an hour before: an infusion timed before the reconstitution is refused.
+  const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent }, 60);
   const t0 = Date.now() - 40 * 60_000;
   const at = (s: number, e: object) => ({ idempotencyKey: randomUUID(), clientTime: new Date(t0 + s * 1000).toISOString(), ...e });
   const light = 60 + 900 + lightLateS;
@@ -42,6 +43,8 @@ async function sessionWithLateLight(nurse: Agent, lightLateS: number): Promise<n
     at(660, { type: 'step-ended', stepId: 'infusion' }),
     at(light, { type: 'step-started', stepId: 'laser' }),
     at(light + 83, { type: 'step-ended', stepId: 'laser' }),
+    // The laser's displayed exposure, which a PDT session with light needs before it completes.
+    at(light + 90, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }),
     at(light + 200, { type: 'session-completed' }),
   ]) {
     const res = await nurse.post(`/api/orders/${order.id}/session-events`).send(event);
@@ -144,7 +147,7 @@ describe('reviewing during a running session', () => {
     expect(closed.status).toBe(200);
     expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('in-session');
 
-    const laterTaps = [at(light + 83, { type: 'step-ended', stepId: 'laser' }), at(light + 200, { type: 'session-completed' })];
+    const laterTaps = [at(light + 83, { type: 'step-ended', stepId: 'laser' }), at(light + 90, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }), at(light + 200, { type: 'session-completed' })];
     for (const tap of laterTaps) {
       const res = await send(tap);
       expect(res.status, JSON.stringify(res.body)).toBe(201);
@@ -163,7 +166,10 @@ describe('reviewing during a running session', () => {
 
     // A tap from an offline queue, made before the end, still lands on a reviewed session; an
     // extravasation it reports is a new open deviation, so the session goes back to the queue.
-    const late = await send(at(light + 150, { type: 'extravasation', note: 'Swelling at the cannula noted on paper, tablet was offline.' }));
+    // Timed before the stored end, it is a queued tap and needs no late-entry reason (a tap timed
+    // after the end would: sessions.test.ts 'tap times are bounded'). The nurse read the pump
+    // (the whole 30 mL bag: TAP Study Group 1999) when recording it.
+    const late = await send(at(light + 150, { type: 'extravasation', note: 'Swelling at the cannula noted on paper, tablet was offline.', volumeInfusedMl: 30 }));
     expect(late.status, JSON.stringify(late.body)).toBe(201);
     expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('completed');
     const open = await auditorAgent.get('/api/deviations').query({ type: 'extravasation', pageSize: 200 });

@@ -97,9 +97,11 @@ describe('session events', () => {
       at(960, { type: 'step-started', stepId: 'laser' }),
       at(1043, { type: 'step-ended', stepId: 'laser' }),
     ];
-    // The tablet was offline: the first event went out, the rest arrive shuffled.
+    // The tablet was offline: the first event went out, the rest arrive shuffled across steps.
+    // Each step's own taps keep their order: a tap timed before a stored tap of its own step is
+    // refused (the tablet clock went back), which two tablets' queues cannot cause for one step.
     await post(order.id, events[0]!);
-    for (const index of [4, 2, 6, 1, 5, 3]) expect((await post(order.id, events[index]!)).status).toBe(201);
+    for (const index of [3, 1, 5, 2, 6, 4]) expect((await post(order.id, events[index]!)).status).toBe(201);
     const state = await nurseAgent.get(`/api/orders/${order.id}/session`);
     const record = state.body.record;
     // TAP Study Group, Arch Ophthalmol 1999: 10 min infusion, light 15 min after the START of the
@@ -114,7 +116,8 @@ describe('session events', () => {
 
 describe('deviations', () => {
   it('are stored as events arrive: a short infusion and a late light start, each with expected and actual values', async () => {
-    const order = await preparedPdtOrder(ctx, await team());
+    // Made up an hour ago: an infusion timed before the reconstitution would be refused.
+    const order = await preparedPdtOrder(ctx, await team(), 60);
     const at = timeline(40);
     await post(order.id, at(0, { type: 'session-started', checks: allChecks }));
     await post(order.id, at(60, { type: 'step-started', stepId: 'infusion' }));
@@ -133,7 +136,7 @@ describe('deviations', () => {
   });
 
   it('a session that ends with deviations e-mails the auditors through the outbox, and the order is completed', async () => {
-    const order = await preparedPdtOrder(ctx, await team());
+    const order = await preparedPdtOrder(ctx, await team(), 60);
     const at = timeline(40);
     for (const event of [
       at(0, { type: 'session-started', checks: allChecks }),
@@ -145,6 +148,8 @@ describe('deviations', () => {
       at(990, { type: 'paused', stepId: 'laser' }),
       at(1000, { type: 'resumed', stepId: 'laser' }),
       at(1043, { type: 'step-ended', stepId: 'laser' }),
+      // The laser's own display, entered by the nurse: a PDT session with light completes only with it.
+      at(1050, { type: 'exposure-recorded', stepId: 'laser', exposureS: 73, energyJ: 3.1 }),
       at(1100, { type: 'session-completed' }),
     ]) {
       expect((await post(order.id, event)).status).toBe(201);
@@ -184,7 +189,8 @@ describe('deviations', () => {
       at(60 + 1800, { type: 'step-ended', stepId: 'riboflavin-soak' }),
       at(1900, { type: 'step-started', stepId: 'thickness-check' }),
       at(1910, { type: 'thickness-measured', stepId: 'thickness-check', thicknessUm: 380 }),
-      at(1920, { type: 'thickness-override', reason: 'Swelling not possible today; consultant decision recorded.' }),
+      // A clinician, not the nurse, authorises UV below the minimum with their password.
+      at(1920, { type: 'thickness-override', reason: 'Swelling not possible today; consultant decision recorded.', authoriserEmail: clinician.email, authoriserPassword: clinician.password }),
       at(1930, { type: 'step-ended', stepId: 'thickness-check' }),
       at(1930, { type: 'step-started', stepId: 'uv-exposure' }),
     ]) {

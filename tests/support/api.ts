@@ -24,13 +24,13 @@ export function testConfig(overrides: Record<string, string> = {}): Config {
 }
 
 /** A fresh app on the test database, connected as the app's own (restricted) database user. */
-export async function startTestApp(overrides: Record<string, string> = {}): Promise<TestContext> {
+export async function startTestApp(overrides: Record<string, string> = {}, options: { now?: () => number } = {}): Promise<TestContext> {
   const config = testConfig(overrides);
   const dataSource = appDataSource(config);
   await dataSource.initialize();
   const sentMail: OutgoingMessage[] = [];
   const mailer: Mailer = { send: async (m) => void sentMail.push(m), close: () => undefined };
-  const app = createApp({ config, dataSource, mailer });
+  const app = createApp({ config, dataSource, mailer, ...(options.now ? { now: options.now } : {}) });
   return { app, config, dataSource, sentMail, close: () => dataSource.destroy() };
 }
 
@@ -112,8 +112,13 @@ export async function signOrder(agent: Agent, person: TestPerson, body: object) 
  * A standard PDT order taken through the blind check and preparation, ready for the session.
  * `reconstitutedMinutesAgo` lets a test place the beyond-use time.
  */
-export async function preparedPdtOrder(ctx: TestContext, team: { clinician: [Agent, TestPerson]; pharmacist: Agent }, reconstitutedMinutesAgo = 30) {
-  const patient = await createTestPatient(ctx);
+export async function preparedPdtOrder(
+  ctx: TestContext,
+  team: { clinician: [Agent, TestPerson]; pharmacist: Agent },
+  reconstitutedMinutesAgo = 30,
+  patientOverrides: Parameters<typeof createTestPatient>[1] = {},
+) {
+  const patient = await createTestPatient(ctx, patientOverrides);
   const order = await signOrder(team.clinician[0], team.clinician[1], pdtOrder(patient.id));
   const check = await team.pharmacist.post(`/api/orders/${order.id}/dose-checks`).send({ bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 });
   if (check.status !== 201) throw new Error(`check failed: ${JSON.stringify(check.body)}`);

@@ -2,9 +2,12 @@ import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, Primary
 import { TreatmentOrder } from './treatment-order';
 import { User } from './user';
 
-/** How the drug for one order was made up. One per order. */
+/**
+ * How the drug for one order was made up. Normally one per order; a drug past its beyond-use time
+ * is discarded and made up again, and then the latest (highest id) is the one that counts.
+ */
 @Entity({ name: 'preparation' })
-@Index('uq_preparation_order', ['orderId'], { unique: true })
+@Index('ix_preparation_order', ['orderId', 'id'])
 export class Preparation {
   @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
   id!: number;

@@ -57,6 +57,11 @@ const sessionEventSchema = z.object({
   reason: z.string().optional(),
   note: z.string().optional(),
   withdrawnKey: z.string().optional(),
+  lateEntryReason: z.string().optional(),
+  volumeInfusedMl: z.number().optional(),
+  exposureS: z.number().optional(),
+  energyJ: z.number().optional(),
+  authorisedByName: z.string().optional(),
 });
 export type StoredSessionEvent = z.infer<typeof sessionEventSchema>;
 

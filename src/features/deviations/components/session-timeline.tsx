@@ -21,11 +21,13 @@ function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined)
     case 'thickness-measured':
       return `Thickness measured: ${event.thicknessUm ?? '?'} µm`;
     case 'thickness-override':
-      return `Thickness minimum overridden: ${event.reason ?? 'no reason recorded'}`;
+      return `Thickness minimum overridden${event.authorisedByName ? `, authorised by ${event.authorisedByName}` : ''}: ${event.reason ?? 'no reason recorded'}`;
     case 'extravasation':
-      return `Extravasation${event.note ? `: ${event.note}` : ''}`;
+      return `Extravasation${event.volumeInfusedMl !== undefined ? ` (${event.volumeInfusedMl} mL infused, read off the pump)` : ''}${event.note ? `: ${event.note}` : ''}`;
+    case 'exposure-recorded':
+      return `Exposure on the laser entered: ${event.exposureS ?? '?'} s${event.energyJ !== undefined ? `, ${event.energyJ} J` : ''}`;
     case 'session-stopped':
-      return `Session stopped: ${event.reason ?? 'no reason recorded'}`;
+      return `Session stopped${event.volumeInfusedMl !== undefined ? ` (${event.volumeInfusedMl} mL infused, read off the pump)` : ''}: ${event.reason ?? 'no reason recorded'}`;
     case 'session-completed':
       return 'Session completed';
     case 'tap-withdrawn': {
@@ -86,6 +88,12 @@ export function SessionTimeline({ events, steps, withdrawnTaps }: SessionTimelin
                   {formatOffset((Date.parse(event.clientTime) - startMs) / 1000)}
                 </span>
               </p>
+              {event.lateEntryReason && (
+                <p className="text-paper-900">
+                  <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">Late entry</span>
+                  Entered after the session ended: {event.lateEntryReason}
+                </p>
+              )}
               {withdrawal ? (
                 <p className="text-paper-800">
                   <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">Withdrawn</span>

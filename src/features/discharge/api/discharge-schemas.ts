@@ -30,6 +30,11 @@ const givenSchema = z.object({
   uvEndAt: at,
   uvOnS: figure,
   deliveredFluenceJPerCm2: figure,
+  volumeGivenMl: figure,
+  volumeGivenSource: z.enum(['entered', 'derived']).nullable().optional().default(null),
+  doseGivenMg: figure,
+  plannedDoseMg: figure,
+  deviceExposureS: figure,
 });
 export type GivenTreatment = z.infer<typeof givenSchema>;
 
@@ -57,6 +62,10 @@ export const dischargeSchema = z.object({
       endLocalText: z.string(),
       hours: z.number(),
       source: z.string(),
+      /** With no infusion start on record, the latest plausible time, and the note that says so. */
+      basis: z.enum(['infusion-start', 'latest-plausible']).optional().default('infusion-start'),
+      countedFrom: z.string().optional(),
+      note: z.string().nullable().optional().default(null),
     })
     .nullable(),
   cautions: z.array(z.string()),

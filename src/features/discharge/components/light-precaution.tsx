@@ -41,6 +41,15 @@ export function LightPrecaution({ discharge }: { discharge: Discharge }) {
         {record.infusionStartAt && <> ({dayAndClockText(record.infusionStartAt, zone)})</>}. Strong light on bare skin in that time can cause a burn
         like a severe sunburn.
       </p>
+      {precaution.note && (
+        <p className="flex items-start gap-2 rounded-lg border-2 border-paper-900 px-3 py-2 text-paper-950">
+          <AlertIcon className="mt-0.5 size-5 shrink-0" />
+          <span>
+            <strong className="font-semibold">Counted from the latest plausible time.</strong> {precaution.note}
+            {precaution.countedFrom && <> Counted from {dayAndClockText(precaution.countedFrom, zone)}.</>}
+          </span>
+        </p>
+      )}
 
       <div className="grid gap-x-8 gap-y-4 md:grid-cols-2 print:grid-cols-2">
         <div>

@@ -1,3 +1,4 @@
+import { doseGivenText } from '../../../lib/dose-given-words';
 import type { Discharge } from '../api/discharge-schemas';
 import { clockText, durationText, figureText, spanText } from './sheet-times';
 
@@ -5,11 +6,13 @@ type Row = { what: string; when: string; details: string };
 
 const eyeName = { right: 'right eye', left: 'left eye' } as const;
 
-function pdtRows({ record, plan, order, unitTimeZone: zone }: Discharge): Row[] {
+function pdtRows({ record, order, unitTimeZone: zone }: Discharge): Row[] {
   const rows: Row[] = [];
   if (record.infusionStartAt) {
+    // What was given, from the volume infused: never the ordered dose.
+    const given = doseGivenText(record);
     const details = [
-      plan?.doseMg != null ? `verteporfin ${figureText(plan.doseMg, 'mg')} as ordered` : 'verteporfin',
+      given ? `verteporfin, ${given}` : 'verteporfin',
       record.infusionDurationS != null && record.infusionEndAt ? `over ${durationText(record.infusionDurationS)}` : 'still running when this sheet was made',
     ];
     rows.push({ what: 'Medicine by drip into a vein', when: spanText(record.infusionStartAt, record.infusionEndAt, zone), details: details.join(', ') });
@@ -24,7 +27,7 @@ function pdtRows({ record, plan, order, unitTimeZone: zone }: Discharge): Row[] 
   if (record.lightStartAt) {
     const details = [
       // Laser times read in seconds, as the device shows them.
-      record.lightOnS != null ? `light on for ${figureText(record.lightOnS, 's')}` : null,
+      record.deviceExposureS != null ? `light on for ${figureText(record.deviceExposureS, 's')} (the laser's display)` : record.lightOnS != null ? `light on for ${figureText(record.lightOnS, 's')}` : null,
       record.deliveredFluenceJPerCm2 != null ? `${figureText(record.deliveredFluenceJPerCm2, 'J/cm²')} delivered` : null,
     ].filter(Boolean);
     rows.push({ what: `Laser light to the ${eyeName[order.eye]}`, when: spanText(record.lightStartAt, record.lightEndAt, zone), details: details.join(', ') || '—' });

@@ -1,5 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, type RefObject } from 'react';
+import { canReprepare } from '../../../../shared/orders/lifecycle';
 import type { OrderDetail, OrderStatus } from '../../../../shared/schemas/orders';
 import { Button, LinkButton } from '../../../components/ui/button';
 import { AlertIcon, ArrowLeftIcon, CheckCircleIcon, InfoIcon, LockIcon, ReloadIcon, TurnBackIcon } from '../../../components/ui/icons';
@@ -235,9 +236,21 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
   }
 
   if (order.preparation) {
+    // A drug past its beyond-use time is discarded and made up again (shared/orders/lifecycle.ts);
+    // the server also refuses once the infusion has started.
+    const remake =
+      canPrepare && canReprepare(order.status, { beyondUsePassed: Date.parse(order.preparation.beyondUseAt) <= Date.now() + clockOffsetMs, infusionStarted: false }).allowed;
     return (
       <>
         <PreparationRecord order={order} preparation={order.preparation} headingRef={movedToRef} />
+        {remake && (
+          <>
+            <StatusPanel role="alert" icon={<AlertIcon className="size-6" />} title="Past its beyond-use time: discard the drug and make it up again">
+              <p>The session cannot start, and the infusion cannot start, with this preparation. Record the fresh one below; the old one stays on record.</p>
+            </StatusPanel>
+            <PreparationForm order={order} plan={plan} protocol={protocol} clockOffsetMs={clockOffsetMs} />
+          </>
+        )}
         <CheckOutcome order={order} plan={plan} protocol={protocol} />
       </>
     );

@@ -13,6 +13,7 @@ import { eyeWords, severityWords, typeWords } from './dose-record-words';
 import { PlanAndGiven } from '../../../components/plan-and-given';
 import { bmiText } from '../../../../shared/engine/body-mass-index';
 import { formatMeasureWithConversion } from '../../../../shared/engine/units';
+import { delayText } from '../../../lib/dose-given-words';
 import { eventWordsOf } from '../../../lib/session-event-words';
 import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from '../../../lib/unit-times';
@@ -218,6 +219,37 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
                   </li>
                 );
               })}
+            </ul>
+          </Part>
+        )}
+
+        {record && record.lateEntries.length > 0 && (
+          <Part id="record-late" title="Late entries">
+            <p className="mb-2 text-sm text-paper-700">Taps entered after the session ended, each with the reason it was late.</p>
+            <ul className="flex flex-col gap-2">
+              {record.lateEntries.map((entry) => (
+                <li key={entry.idempotencyKey}>
+                  <span className="font-semibold">Late entry: {eventWordsOf(entry.type)}</span>{' '}
+                  <span className="numerals-steady">
+                    timed {formatUnitClock(entry.at)}
+                    {entry.receivedAt ? `, received ${formatUnitClock(entry.receivedAt)}` : ''}
+                  </span>
+                  <span className="block text-paper-800">Reason: {entry.reason}</span>
+                </li>
+              ))}
+            </ul>
+          </Part>
+        )}
+
+        {record && record.receiptDelays.length > 0 && (
+          <Part id="record-delays" title="Taps received late">
+            <p className="mb-2 text-sm text-paper-700">Taps that reached the server more than a minute after they were made (a tablet offline); their own time counts.</p>
+            <ul className="flex flex-col gap-1">
+              {record.receiptDelays.map((delay) => (
+                <li key={delay.idempotencyKey} className="numerals-steady">
+                  {eventWordsOf(delay.type)} tapped {formatUnitClock(delay.at)}, received {formatUnitClock(delay.receivedAt)}: {delayText(delay.delayS)} later
+                </li>
+              ))}
             </ul>
           </Part>
         )}

@@ -12,6 +12,7 @@ const deviationTypeWords: Record<DeviationType, string> = {
   'delivered-fluence': 'Delivered fluence off plan',
   'beyond-use': 'Drug used after its beyond-use time',
   'reconstitution-to-infusion': 'Too long from reconstitution to infusion',
+  'light-without-infusion': 'Light with no infusion start on record',
   'soak-short': 'Riboflavin soak too short',
   'drop-gap': 'Too long between drops',
   'uv-below-thickness': 'UV given below the minimum thickness',

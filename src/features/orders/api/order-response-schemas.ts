@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { withdrawnTapSchema } from '../../../lib/session-record-schemas';
+import { lateEntrySchema, receiptDelaySchema, withdrawnTapSchema } from '../../../lib/session-record-schemas';
 import { protocolKinds, protocolVersionSchema } from '../../../../shared/protocol/protocol-schema';
 import { orderDetailSchema, orderStatuses, orderSummarySchema } from '../../../../shared/schemas/orders';
 import { patientSchema } from '../../../../shared/schemas/patients';
@@ -77,6 +77,14 @@ export const givenRecordSchema = z.object({
   deliveredFluenceJPerCm2: figure,
   // Records stored before withdrawals existed have none.
   withdrawnTaps: z.array(withdrawnTapSchema).optional().default([]),
+  // Records stored before the session gates have none of these.
+  volumeGivenSource: z.enum(['entered', 'derived']).nullable().optional().default(null),
+  doseGivenMg: figure,
+  plannedDoseMg: figure,
+  deviceExposureS: figure,
+  deviceEnergyJ: figure,
+  lateEntries: z.array(lateEntrySchema).optional().default([]),
+  receiptDelays: z.array(receiptDelaySchema).optional().default([]),
 });
 export type GivenRecord = z.infer<typeof givenRecordSchema>;
 

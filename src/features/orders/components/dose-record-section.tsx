@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
 import { Button } from '../../../components/ui/button';
+import { delayText, doseGivenText, volumeGivenText } from '../../../lib/dose-given-words';
 import { eventWordsOf } from '../../../lib/session-event-words';
 import { PrinterIcon } from '../../../components/ui/icons';
 import { unitTimeZone, unitTimeZoneLabel } from '../../../config/unit-time-zone';
@@ -27,14 +28,15 @@ function pdtRows(plan: NonNullable<OrderDetail['plan']>, record: GivenRecord): R
     {
       label: 'Volume infused',
       planned: plan.drugVolumeMl == null ? none : `${formatFigure(plan.drugVolumeMl)} mL drug + ${formatFigure(plan.diluentVolumeMl ?? 0)} mL diluent`,
-      given: record.volumeGivenMl == null ? none : `${formatFigure(record.volumeGivenMl)} mL (from the rate × time, not measured)`,
+      given: volumeGivenText(record) ?? none,
     },
-    { label: 'Verteporfin dose', planned: num(plan.doseMg, 'mg'), given: none },
+    { label: 'Verteporfin dose', planned: num(plan.doseMg, 'mg'), given: doseGivenText(record) ?? none },
   ];
   if (record.extravasationAt) rows.push({ label: 'Extravasation', planned: none, given: `at ${formatUnitClock(record.extravasationAt)}` });
   rows.push(
     { label: 'Light start after infusion start', planned: secs(plan.lightStartAfterInfusionStartS), given: record.lightStartAt ? <>{secs(record.lightStartAfterInfusionStartS)}, at {formatUnitClock(record.lightStartAt)}</> : none },
-    { label: 'Light on-time', planned: secs(plan.exposureS), given: secs(record.lightOnS) },
+    { label: 'Exposure on the laser', planned: secs(plan.exposureS), given: record.deviceExposureS == null ? none : `${formatSeconds(record.deviceExposureS)}${record.deviceEnergyJ == null ? '' : `, ${formatFigure(record.deviceEnergyJ)} J`}` },
+    { label: 'Light on-time (taps)', planned: secs(plan.exposureS), given: secs(record.lightOnS) },
     { label: 'Fluence', planned: num(plan.fluenceJPerCm2, 'J/cm²'), given: num(record.deliveredFluenceJPerCm2, 'J/cm²') },
   );
   return rows;
@@ -167,6 +169,35 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
                 </li>
               );
             })}
+          </ul>
+        </div>
+      )}
+
+      {record.lateEntries.length > 0 && (
+        <div className="space-y-2">
+          <h3 className="text-lg font-semibold text-paper-950">Late entries</h3>
+          <ul className="space-y-1">
+            {record.lateEntries.map((entry) => (
+              <li key={entry.idempotencyKey} className="text-paper-950">
+                <span className="font-semibold">Late entry:</span> {eventWordsOf(entry.type)}, timed {formatUnitClock(entry.at)}
+                {entry.receivedAt ? `, received ${formatUnitClock(entry.receivedAt)}` : ''}
+                <span className="block text-sm text-paper-800">Reason: {entry.reason}</span>
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+
+      {record.receiptDelays.length > 0 && (
+        <div className="space-y-2">
+          <h3 className="text-lg font-semibold text-paper-950">Taps received late</h3>
+          <p className="text-sm text-paper-700">Reached the server more than a minute after they were made; their own time counts.</p>
+          <ul className="space-y-1">
+            {record.receiptDelays.map((delay) => (
+              <li key={delay.idempotencyKey} className="text-paper-950">
+                {eventWordsOf(delay.type)} tapped {formatUnitClock(delay.at)}, received {formatUnitClock(delay.receivedAt)}: {delayText(delay.delayS)} later
+              </li>
+            ))}
           </ul>
         </div>
       )}

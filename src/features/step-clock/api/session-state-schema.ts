@@ -9,13 +9,20 @@ import { deviationSeverities, sessionEventSchema, type SessionEvent } from '../.
 const storedEventSchema = z
   .looseObject({ id: z.number(), serverTime: z.string(), recordedBy: z.number() })
   .transform((raw, ctx): SessionEvent => {
-    const { id, serverTime, recordedBy, ...input } = raw;
+    const { id, serverTime, recordedBy, authorisedById, authorisedByName, ...input } = raw;
     const parsed = sessionEventSchema.safeParse(input);
     if (!parsed.success) {
       ctx.addIssue({ code: 'custom', message: `stored event ${id} does not match the event contract` });
       return z.NEVER;
     }
-    return { ...parsed.data, id, serverTime, recordedBy };
+    return {
+      ...parsed.data,
+      id,
+      serverTime,
+      recordedBy,
+      ...(typeof authorisedById === 'number' ? { authorisedById } : {}),
+      ...(typeof authorisedByName === 'string' ? { authorisedByName } : {}),
+    };
   });
 
 export const sessionDeviationSchema = z.object({
@@ -46,6 +53,13 @@ const sessionRecordSchema = z.object({
   uvOnS: seconds,
   irradianceMwPerCm2: z.number().nullable(),
   deliveredFluenceJPerCm2: z.number().nullable(),
+  // Records stored before these figures existed have none.
+  volumeGivenSource: z.enum(['entered', 'derived']).nullable().optional().default(null),
+  doseGivenMg: z.number().nullable().optional().default(null),
+  plannedDoseMg: z.number().nullable().optional().default(null),
+  deviceExposureS: z.number().nullable().optional().default(null),
+  deviceEnergyJ: z.number().nullable().optional().default(null),
+  lateEntries: z.array(z.object({ idempotencyKey: z.string(), type: z.string(), at: z.string(), reason: z.string() })).optional().default([]),
 });
 export type SessionRecordSummary = z.infer<typeof sessionRecordSchema>;
 

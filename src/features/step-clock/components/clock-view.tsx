@@ -3,6 +3,7 @@ import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schem
 import type { DosePlan } from '../../../../shared/schemas/calculation';
 import type { SessionEventLike } from '../../../../shared/session/dose-record';
 import type { SessionClock } from '../../../../shared/session/session-clock';
+import { volumeInfusedRequired } from '../../../../shared/session/session-rules';
 import { Button } from '../../../components/ui/button';
 import { LeakIcon, ScreenAwakeIcon, SoundOffIcon, SoundOnIcon, StatusStoppedIcon } from '../../../components/ui/icons';
 import type { SessionOrder } from '../api/get-session-order';
@@ -15,8 +16,10 @@ import { useWakeLock, type WakeLockStatus } from '../hooks/use-wake-lock';
 import { capitalised, stepNames } from './clock-format';
 import { ClockFace } from './clock-face';
 import { DeviationList } from './deviation-list';
-import { ExtravasationDialog, ExtravasationNotice } from './extravasation';
+import { ExposureDialog } from './exposure-dialog';
+import { ExtravasationDialog, ExtravasationNotice, readVolumeInfused, VolumeInfusedField } from './extravasation';
 import { eyeWords } from './eye-badge';
+import { OverrideAuthorisationDialog } from './override-authorisation-dialog';
 import { ReasonDialog } from './reason-dialog';
 import { RecentTaps } from './recent-taps';
 import { SessionCautions } from './session-cautions';
@@ -65,7 +68,16 @@ export function ClockView({
   watching: boolean;
 }) {
   const [muted, setMuted] = useMutedPreference();
-  const [dialog, setDialog] = useState<null | 'stop' | 'override' | 'extravasation'>(null);
+  const [dialog, setDialog] = useState<null | 'stop' | 'override' | 'extravasation' | 'exposure'>(null);
+  const [stopVolumeText, setStopVolumeText] = useState('');
+  const [stopVolumeError, setStopVolumeError] = useState<string | undefined>();
+  const finalVolumeMl = protocol.drug?.finalVolumeMl ?? null;
+  const infusionStepId = protocol.steps.find((step) => step.kind === 'infusion')?.id;
+  // Mirrors the server: a PDT stop after the infusion started records the volume the pump shows
+  // (unless an extravasation recorded it already).
+  const stopNeedsVolume =
+    finalVolumeMl !== null && infusionStepId !== undefined && volumeInfusedRequired('session-stopped', { infusionStarted: facts.replay.runs.has(infusionStepId), volumeKnown: facts.replay.volumeInfusedMl !== null });
+  const lightStep = protocol.steps.find((step) => step.kind === 'light');
   // Stop and extravasation are timed at the press that opened the dialog, not at the confirmation.
   const pressedAtMs = useRef(0);
   const wakeLock = useWakeLock(!watching);
@@ -122,7 +134,19 @@ export function ClockView({
       <div className="flex min-w-0 flex-col gap-3">
         {facts.extravasationMs !== null && <ExtravasationNotice atMs={facts.extravasationMs} />}
         <ClockFace clock={clock} protocol={protocol} plan={plan} facts={facts} serverNowMs={serverNowMs} deviceNowMs={deviceNowMs} flash={flash} />
-        {!watching && <StepActions clock={clock} protocol={protocol} facts={facts} serverNowMs={serverNowMs} orderId={order.id} onRecord={onRecord} onOverride={() => setDialog('override')} />}
+        {!watching && (
+          <StepActions
+            clock={clock}
+            protocol={protocol}
+            facts={facts}
+            serverNowMs={serverNowMs}
+            orderId={order.id}
+            onRecord={onRecord}
+            onOverride={() => setDialog('override')}
+            onEnterExposure={() => setDialog('exposure')}
+            beyondUseAtMs={order.beyondUseAt ? Date.parse(order.beyondUseAt) : null}
+          />
+        )}
       </div>
 
       {/* Sized to the screen so the page itself never scrolls on a landscape tablet; the lists scroll inside. */}
@@ -173,33 +197,51 @@ export function ClockView({
         confirmIcon={<StatusStoppedIcon />}
         draftKey={`stop.${order.id}`}
         danger
+        checkOthers={() => {
+          if (!stopNeedsVolume || finalVolumeMl === null) return true;
+          const volume = readVolumeInfused(stopVolumeText, finalVolumeMl);
+          setStopVolumeError('error' in volume ? volume.error : undefined);
+          return !('error' in volume);
+        }}
         onConfirm={(reason) => {
           setDialog(null);
-          onRecord([{ type: 'session-stopped', reason }], pressedAtMs.current);
+          const volume = stopNeedsVolume && finalVolumeMl !== null ? readVolumeInfused(stopVolumeText, finalVolumeMl) : null;
+          setStopVolumeText('');
+          onRecord([{ type: 'session-stopped', reason, ...(volume && 'value' in volume ? { volumeInfusedMl: volume.value } : {}) }], pressedAtMs.current);
         }}
-      />
-      <ReasonDialog
+      >
+        {stopNeedsVolume && finalVolumeMl !== null && <VolumeInfusedField text={stopVolumeText} onChange={setStopVolumeText} error={stopVolumeError} finalVolumeMl={finalVolumeMl} />}
+      </ReasonDialog>
+      <OverrideAuthorisationDialog
         open={dialog === 'override'}
+        orderId={order.id}
+        minimumUm={protocol.cxl?.minStromalThicknessUm ?? null}
         onDismiss={() => setDialog(null)}
-        title="Override the thickness minimum"
-        description={`The stroma is thinner than the protocol’s ${protocol.cxl?.minStromalThicknessUm ?? ''} µm minimum. UV on a thin stroma can harm the endothelium; an override is recorded as a deviation for the auditor.`}
-        fieldLabel="Reason for going on to UV"
-        confirmLabel="Record override"
-        draftKey={`override.${order.id}`}
-        danger
-        onConfirm={(reason) => {
+        onRecorded={() => {
           setDialog(null);
-          onRecord([{ type: 'thickness-override', reason }]);
+          announce('Override authorised and recorded.');
         }}
       />
-      {protocol.kind === 'pdt' && (
+      {lightStep && (
+        <ExposureDialog
+          open={dialog === 'exposure'}
+          plannedS={plan.exposureS ?? protocol.light.exposureS}
+          onDismiss={() => setDialog(null)}
+          onRecord={(figures) => {
+            setDialog(null);
+            onRecord([{ type: 'exposure-recorded', stepId: lightStep.id, ...figures }]);
+          }}
+        />
+      )}
+      {protocol.kind === 'pdt' && finalVolumeMl !== null && (
         <ExtravasationDialog
           open={dialog === 'extravasation'}
           draftKey={`extravasation.${order.id}`}
+          finalVolumeMl={finalVolumeMl}
           onDismiss={() => setDialog(null)}
-          onRecord={(note) => {
+          onRecord={(note, volumeInfusedMl) => {
             setDialog(null);
-            onRecord([{ type: 'extravasation', ...(note ? { note } : {}) }], pressedAtMs.current);
+            onRecord([{ type: 'extravasation', volumeInfusedMl, ...(note ? { note } : {}) }], pressedAtMs.current);
           }}
         />
       )}

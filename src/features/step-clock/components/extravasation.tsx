@@ -1,9 +1,31 @@
-import { useId } from 'react';
+import { useId, useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
 import { LeakIcon } from '../../../components/ui/icons';
+import { TextField } from '../../../components/ui/text-field';
 import { useStoredDraft } from '../hooks/use-stored-draft';
 import { formatWardTime } from './clock-format';
+import { readFigure } from './entered-figures';
+
+/** The volume the pump shows as infused, bounded by the bag's final volume; the server refuses a stop or extravasation without it. */
+export function VolumeInfusedField({ text, onChange, error, finalVolumeMl }: { text: string; onChange: (text: string) => void; error: string | undefined; finalVolumeMl: number }) {
+  return (
+    <TextField
+      label="Volume infused, as the pump shows it (mL)"
+      hint={`0 to ${finalVolumeMl} mL. The record shows the milligrams given from it.`}
+      inputMode="decimal"
+      autoComplete="off"
+      value={text}
+      error={error}
+      onChange={(event) => onChange(event.target.value)}
+    />
+  );
+}
+
+/** Reads the volume field; the error names the range. */
+export function readVolumeInfused(text: string, finalVolumeMl: number) {
+  return readFigure(text, 'volumeInfusedMl', 'the volume infused', 'mL', finalVolumeMl);
+}
 
 const extravasationActions = ['Stop the infusion now.', 'Apply a cool compress.', 'Protect the area from light.'];
 
@@ -21,8 +43,22 @@ function ActionList() {
  * Extravasation: the cautions come first and large; the tap is timed at the moment the button
  * was pressed, not when the note is finished.
  */
-export function ExtravasationDialog({ open, draftKey, onDismiss, onRecord }: { open: boolean; draftKey: string; onDismiss: () => void; onRecord: (note: string | undefined) => void }) {
+export function ExtravasationDialog({
+  open,
+  draftKey,
+  finalVolumeMl,
+  onDismiss,
+  onRecord,
+}: {
+  open: boolean;
+  draftKey: string;
+  finalVolumeMl: number;
+  onDismiss: () => void;
+  onRecord: (note: string | undefined, volumeInfusedMl: number) => void;
+}) {
   const [note, setNote, clearNote] = useStoredDraft(draftKey, '');
+  const [volumeText, setVolumeText] = useState('');
+  const [volumeError, setVolumeError] = useState<string | undefined>();
   const id = useId();
   return (
     <Dialog open={open} onDismiss={onDismiss} title="Extravasation" description="The infusion has leaked into the tissue around the cannula.">
@@ -30,6 +66,7 @@ export function ExtravasationDialog({ open, draftKey, onDismiss, onRecord }: { o
         <ActionList />
         <p className="mt-2 text-sm">Local policy and licensed practice prevail.</p>
       </div>
+      <VolumeInfusedField text={volumeText} onChange={setVolumeText} error={volumeError} finalVolumeMl={finalVolumeMl} />
       <div className="flex flex-col gap-1.5">
         <label htmlFor={id} className="font-medium text-paper-900">
           Note (optional)
@@ -51,9 +88,16 @@ export function ExtravasationDialog({ open, draftKey, onDismiss, onRecord }: { o
           variant="danger"
           icon={<LeakIcon />}
           onClick={() => {
+            const volume = readVolumeInfused(volumeText, finalVolumeMl);
+            if ('error' in volume) {
+              setVolumeError(volume.error);
+              return;
+            }
+            setVolumeError(undefined);
+            setVolumeText('');
             const trimmed = note.trim();
             clearNote();
-            onRecord(trimmed === '' ? undefined : trimmed);
+            onRecord(trimmed === '' ? undefined : trimmed, volume.value);
           }}
         >
           Record extravasation

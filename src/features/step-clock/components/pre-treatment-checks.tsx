@@ -1,4 +1,5 @@
 import { useId, useRef, useState, type ReactNode } from 'react';
+import { drugTimeVerdict } from '../../../../shared/session/session-rules';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
 import { preTreatmentChecks, type PreTreatmentCheck } from '../../../../shared/session/session-events';
@@ -56,6 +57,8 @@ export function PreTreatmentChecks({
   const beyondUseMs = order.beyondUseAt ? Date.parse(order.beyondUseAt) : null;
 
   const start = () => {
+    // The server refuses a session start after the beyond-use time; the screen says why first.
+    if (order.beyondUseAt && !drugTimeVerdict('session', serverNowMs, { reconstitutedAt: null, beyondUseAt: order.beyondUseAt }).allowed) return;
     const notYet = preTreatmentChecks.filter((check) => !ticks[check]);
     setMissing(notYet);
     if (notYet.length > 0) {
@@ -123,7 +126,8 @@ function BeyondUse({ beyondUseMs, serverNowMs }: { beyondUseMs: number; serverNo
   if (serverNowMs >= beyondUseMs) {
     return (
       <Alert tone="error" title="The prepared drug is past its beyond-use time" live="none">
-        It was usable until {formatWardTime(beyondUseMs, false)}. Do not infuse it; ask the pharmacy for a fresh preparation.
+        It was usable until {formatWardTime(beyondUseMs, false)}. Do not infuse it: it is discarded, and a pharmacist makes it up again (Preparation, on the
+        order). The session starts once the fresh preparation is recorded.
       </Alert>
     );
   }

@@ -21,6 +21,8 @@ export function ReasonDialog({
   confirmIcon,
   draftKey,
   danger = false,
+  children,
+  checkOthers,
   onConfirm,
 }: {
   open: boolean;
@@ -32,6 +34,10 @@ export function ReasonDialog({
   confirmIcon?: ReactNode;
   draftKey: string;
   danger?: boolean;
+  /** Further fields shown above the reason (e.g. the volume infused at a PDT stop). */
+  children?: ReactNode;
+  /** Checks those fields; false keeps the dialog open (they show their own errors). */
+  checkOthers?: () => boolean;
   onConfirm: (reason: string) => void;
 }) {
   const [reason, setReason, clearReason] = useStoredDraft(draftKey, '');
@@ -40,11 +46,14 @@ export function ReasonDialog({
 
   const confirm = () => {
     const trimmed = reason.trim();
+    const othersFine = checkOthers ? checkOthers() : true;
     if (trimmed.length < reasonMinChars || trimmed.length > reasonMaxChars) {
       setError(`Give a reason of ${reasonMinChars} to ${reasonMaxChars} characters (now ${trimmed.length}).`);
       document.getElementById(id)?.focus();
       return;
     }
+    setError(undefined);
+    if (!othersFine) return;
     setError(undefined);
     clearReason();
     onConfirm(trimmed);
@@ -52,6 +61,7 @@ export function ReasonDialog({
 
   return (
     <Dialog open={open} onDismiss={onDismiss} title={title} description={description}>
+      {children}
       <div className="flex flex-col gap-1.5">
         <label htmlFor={id} className="font-medium text-paper-900">
           {fieldLabel}

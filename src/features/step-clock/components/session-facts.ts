@@ -1,6 +1,7 @@
 import type { ProtocolStep, ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import { replaySession, type SessionEventLike, type SessionReplay } from '../../../../shared/session/dose-record';
 import type { SessionClock } from '../../../../shared/session/session-clock';
+import { exposureMissing, uvStartVerdict } from '../../../../shared/session/session-rules';
 
 export interface SessionFacts {
   replay: SessionReplay;
@@ -14,8 +15,10 @@ export interface SessionFacts {
   /** The last drop of the running step, or its start when none has been given yet. */
   lastDropOrStartMs: number | null;
   uvStep: ProtocolStep | undefined;
-  /** Whether UV may start: a reading at or above the minimum, or an override with a reason. */
+  /** Whether UV may start: a reading at or above the minimum, or an override a clinician authorised. */
   uvGate: { allowed: boolean; why: string | null };
+  /** PDT: the light step has run and ended, and the laser's displayed exposure is not entered yet. */
+  exposureMissing: boolean;
 }
 
 /** The facts the buttons depend on, read from the same events the clock uses. */
@@ -38,12 +41,16 @@ export function sessionFacts(protocol: ProtocolVersion, events: readonly Session
     }
   }
 
+  const lightStepId = protocol.kind === 'pdt' ? protocol.steps.find((step) => step.kind === 'light')?.id : undefined;
   const minimumUm = protocol.cxl?.minStromalThicknessUm ?? null;
   let uvGate: SessionFacts['uvGate'] = { allowed: true, why: null };
-  if (minimumUm !== null && replay.thicknessOverrideReason === null) {
-    if (!lastReading) uvGate = { allowed: false, why: `Record the thinnest stromal thickness first: UV needs at least ${minimumUm} µm.` };
-    else if (lastReading.thicknessUm < minimumUm)
-      uvGate = { allowed: false, why: `The last reading, ${lastReading.thicknessUm} µm, is below the ${minimumUm} µm minimum. UV starts only after a reading of at least ${minimumUm} µm or an override with a reason.` };
+  // An override reaches the tablet only once the server has checked its clinician's password.
+  const uv = uvStartVerdict(minimumUm, lastReading?.thicknessUm ?? null, replay.thicknessOverrideReason !== null);
+  if (!uv.allowed) {
+    uvGate =
+      uv.lastReadingUm === null
+        ? { allowed: false, why: `Record the thinnest stromal thickness first: UV needs at least ${uv.minimumUm} µm.` }
+        : { allowed: false, why: `The last reading, ${uv.lastReadingUm} µm, is below the ${uv.minimumUm} µm minimum. UV starts only after a reading of at least ${uv.minimumUm} µm or an override a clinician authorises with their password.` };
   }
 
   return {
@@ -56,5 +63,6 @@ export function sessionFacts(protocol: ProtocolVersion, events: readonly Session
     lastDropOrStartMs,
     uvStep: protocol.steps.find((step) => step.kind === 'uv'),
     uvGate,
+    exposureMissing: lightStepId !== undefined && exposureMissing({ lightStarted: replay.runs.has(lightStepId), lightRunning: replay.openStepId === lightStepId, exposureEntered: replay.deviceExposure !== null }),
   };
 }

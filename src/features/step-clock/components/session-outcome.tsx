@@ -3,6 +3,8 @@ import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schem
 import { LinkButton } from '../../../components/ui/button';
 import { CheckCircleIcon, OrderClipboardIcon, StatusStoppedIcon } from '../../../components/ui/icons';
 import { paths } from '../../../config/paths';
+import { doseGivenText, volumeGivenText } from '../../../lib/dose-given-words';
+import { eventWordsOf } from '../../../lib/session-event-words';
 import type { SessionDeviation, SessionRecordSummary } from '../api/session-state-schema';
 import { formatElapsed, formatFigure } from './clock-format';
 import { DeviationList } from './deviation-list';
@@ -13,9 +15,11 @@ function recordLines(protocol: ProtocolVersion, record: SessionRecordSummary): {
     protocol.kind === 'pdt'
       ? [
           { label: 'Infusion', value: duration(record.infusionDurationS) },
-          { label: 'Volume given (planned rate × time)', value: record.volumeGivenMl === null ? 'not recorded' : `${formatFigure(record.volumeGivenMl, 1)} mL` },
+          { label: 'Volume given', value: volumeGivenText(record) ?? 'not recorded' },
+          { label: 'Verteporfin given', value: doseGivenText(record) ?? 'not recorded' },
           { label: 'Light start after the infusion start', value: duration(record.lightStartAfterInfusionStartS) },
-          { label: 'Light on', value: duration(record.lightOnS) },
+          { label: 'Exposure on the laser', value: record.deviceExposureS === null ? 'not entered' : `${formatFigure(record.deviceExposureS, 1)} s${record.deviceEnergyJ === null ? '' : `, ${formatFigure(record.deviceEnergyJ, 2)} J`}` },
+          { label: 'Light on by the taps', value: duration(record.lightOnS) },
         ]
       : [
           { label: 'Soak', value: duration(record.soakDurationS) },
@@ -70,6 +74,19 @@ export function SessionOutcome({
           </dl>
         ) : (
           <p className="text-paper-800">No dose record yet.</p>
+        )}
+        {record && record.lateEntries.length > 0 && (
+          <div>
+            <h3 className="font-semibold text-paper-950">Late entries</h3>
+            <ul className="list-disc pl-5 text-paper-900">
+              {record.lateEntries.map((entry) => (
+                <li key={entry.idempotencyKey}>
+                  <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">Late entry</span>
+                  {eventWordsOf(entry.type)}: {entry.reason}
+                </li>
+              ))}
+            </ul>
+          </div>
         )}
         <div>
           <LinkButton to={paths.order.getHref(orderId)} variant="primary" icon={<OrderClipboardIcon />}>

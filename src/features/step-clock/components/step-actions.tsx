@@ -2,6 +2,7 @@ import { useId, useRef, useState } from 'react';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import { runsRunningMs } from '../../../../shared/session/dose-record';
 import type { NextStep, SessionClock } from '../../../../shared/session/session-clock';
+import { drugTimeVerdict } from '../../../../shared/session/session-rules';
 import { Button } from '../../../components/ui/button';
 import { AlertIcon, CheckCircleIcon, DropletIcon, EndStepIcon, PauseCircleIcon, StartCircleIcon, StatusCompletedIcon, ThicknessGaugeIcon } from '../../../components/ui/icons';
 import type { EventBody } from '../hooks/use-session-events';
@@ -16,19 +17,27 @@ type Primary =
   | { kind: 'complete'; endStepId: string | null; label: string }
   | { kind: 'blocked'; why: string };
 
-function primaryAction(clock: SessionClock, facts: SessionFacts): Primary {
+function primaryAction(clock: SessionClock, facts: SessionFacts, beyondUse: { passed: boolean; why: string }): Primary {
   const current = clock.current;
   const start = (next: NextStep, endStepId: string | null): Primary => {
     if (next.kind === 'uv' && !facts.uvGate.allowed) return { kind: 'blocked', why: facts.uvGate.why ?? 'UV cannot start yet.' };
+    // Mirrors the server: no infusion from a drug past its beyond-use time.
+    if (next.kind === 'infusion' && beyondUse.passed) return { kind: 'blocked', why: beyondUse.why };
     return { kind: 'start', stepId: next.id, endStepId, label: `Start ${stepNames[next.kind]}` };
   };
   if (current) {
     if (stepsEndedByTheirOwnTap.has(current.kind)) return { kind: 'end', stepId: current.id, label: `End ${stepNames[current.kind]}` };
     if (current.kind !== 'aftercare' && clock.next) return start(clock.next, current.id);
-    return { kind: 'complete', endStepId: current.id, label: 'Complete session' };
+    return complete(current.id);
   }
   if (clock.next) return start(clock.next, null);
-  return { kind: 'complete', endStepId: null, label: 'Complete session' };
+  return complete(null);
+
+  function complete(endStepId: string | null): Primary {
+    // Mirrors the server: a PDT session with light completes once the laser's exposure is entered.
+    if (facts.exposureMissing) return { kind: 'blocked', why: 'Enter the exposure the laser displays before completing the session.' };
+    return { kind: 'complete', endStepId, label: 'Complete session' };
+  }
 }
 
 /** A second press of the big button this soon after the first is taken as a double tap and ignored. */
@@ -45,6 +54,8 @@ export function StepActions({
   serverNowMs,
   onRecord,
   onOverride,
+  onEnterExposure,
+  beyondUseAtMs,
   orderId,
 }: {
   clock: SessionClock;
@@ -53,10 +64,17 @@ export function StepActions({
   serverNowMs: number;
   onRecord: (bodies: readonly EventBody[]) => void;
   onOverride: () => void;
+  /** Opens the dialog for the laser's displayed exposure (after the light step ends). */
+  onEnterExposure: () => void;
+  beyondUseAtMs: number | null;
   orderId: number;
 }) {
   const current = clock.current;
-  const primary = primaryAction(clock, facts);
+  const beyondUse = {
+    passed: beyondUseAtMs !== null && !drugTimeVerdict('infusion', serverNowMs, { reconstitutedAt: null, beyondUseAt: new Date(beyondUseAtMs).toISOString() }).allowed,
+    why: 'The drug is past its beyond-use time: discard it. A pharmacist makes it up again (Preparation, on the order); the infusion starts after that.',
+  };
+  const primary = primaryAction(clock, facts, beyondUse);
   const lastPressMs = useRef(Number.NEGATIVE_INFINITY);
 
   const pressPrimary = () => {
@@ -66,7 +84,10 @@ export function StepActions({
     const doubleTap = nowMs - lastPressMs.current < doubleTapGuardMs;
     lastPressMs.current = nowMs;
     if (doubleTap) return;
-    if (primary.kind === 'end') onRecord([{ type: 'step-ended', stepId: primary.stepId }]);
+    if (primary.kind === 'end') {
+      onRecord([{ type: 'step-ended', stepId: primary.stepId }]);
+      if (current?.kind === 'light') onEnterExposure();
+    }
     else if (primary.kind === 'start')
       onRecord(primary.endStepId ? [{ type: 'step-ended', stepId: primary.endStepId }, { type: 'step-started', stepId: primary.stepId }] : [{ type: 'step-started', stepId: primary.stepId }]);
     else if (primary.kind === 'complete') onRecord(primary.endStepId ? [{ type: 'step-ended', stepId: primary.endStepId }, { type: 'session-completed' }] : [{ type: 'session-completed' }]);
@@ -121,11 +142,16 @@ export function StepActions({
         )}
       </div>
 
-      {(thin || uvInstead || leftOfLastS > 0.5) && (
+      {(thin || uvInstead || leftOfLastS > 0.5 || facts.exposureMissing) && (
         <div className="flex flex-wrap gap-3">
+          {facts.exposureMissing && (
+            <Button icon={<AlertIcon />} onClick={onEnterExposure}>
+              Enter the laser’s exposure…
+            </Button>
+          )}
           {thin && facts.overrideReason === null && (
             <Button variant="secondary" icon={<AlertIcon />} onClick={onOverride}>
-              Override the thickness minimum…
+              Authorise UV below the minimum…
             </Button>
           )}
           {uvInstead && (

@@ -1,0 +1,31 @@
+import { formatNumber, roundToStep } from '../../shared/engine/rounding';
+
+/** The record's figures for what was given (shared/session/dose-record.ts). */
+export interface GivenFigures {
+  volumeGivenMl: number | null;
+  volumeGivenSource?: 'entered' | 'derived' | null;
+  doseGivenMg?: number | null;
+  plannedDoseMg?: number | null;
+}
+
+/** "about 4.4 mg of 10.92 mg": the milligrams in the volume infused, never "as ordered". */
+export function doseGivenText(record: GivenFigures): string | null {
+  if (record.doseGivenMg == null || record.plannedDoseMg == null) return null;
+  return `about ${formatNumber(roundToStep(record.doseGivenMg, 0.1))} mg of ${formatNumber(record.plannedDoseMg)} mg`;
+}
+
+/** "12 mL, read off the pump" or "30 mL, worked out from the planned rate and the infusion time". */
+export function volumeGivenText(record: GivenFigures): string | null {
+  if (record.volumeGivenMl == null) return null;
+  const how = record.volumeGivenSource === 'entered' ? 'read off the pump' : 'worked out from the planned rate and the infusion time';
+  return `${formatNumber(roundToStep(record.volumeGivenMl, 0.1))} mL, ${how}`;
+}
+
+/** "4 min 10 s" for a receipt delay. */
+export function delayText(seconds: number): string {
+  const whole = Math.round(seconds);
+  const h = Math.floor(whole / 3600);
+  const min = Math.floor((whole % 3600) / 60);
+  const s = whole % 60;
+  return [h > 0 ? `${h} h` : null, min > 0 || h > 0 ? `${min} min` : null, `${s} s`].filter(Boolean).join(' ');
+}
