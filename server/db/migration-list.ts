@@ -13,6 +13,7 @@ import { ProtocolVersionGuard1796293943222 } from './migrations/1796293943222-Pr
 import { SwellingAcknowledged1796294162239 } from './migrations/1796294162239-SwellingAcknowledged';
 import { OrderRowVersion1796294215019 } from './migrations/1796294215019-OrderRowVersion';
 import { PreparationHistory1796294636289 } from './migrations/1796294636289-PreparationHistory';
+import { SignedOrderFactsKept1796297991104 } from './migrations/1796297991104-SignedOrderFactsKept';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
 export const migrations = [
@@ -29,4 +30,5 @@ export const migrations = [
   SwellingAcknowledged1796294162239,
   OrderRowVersion1796294215019,
   PreparationHistory1796294636289,
+  SignedOrderFactsKept1796297991104,
 ];

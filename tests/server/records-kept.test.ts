@@ -52,7 +52,8 @@ async function refused(sql: string, params: unknown[], table: string, where: str
 
 /** A finished PDT session (light on time) run through the API; returns the order id. */
 async function finishedSession(): Promise<number> {
-  const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent });
+  // Made up an hour ago: the infusion (40 minutes ago) comes after the reconstitution.
+  const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent }, 60);
   const t0 = Date.now() - 40 * 60_000;
   const at = (s: number, e: object) => ({ idempotencyKey: randomUUID(), clientTime: new Date(t0 + s * 1000).toISOString(), ...e });
   for (const event of [
@@ -62,6 +63,7 @@ async function finishedSession(): Promise<number> {
     at(540, { type: 'step-ended', stepId: 'infusion' }),
     at(960, { type: 'step-started', stepId: 'laser' }),
     at(1043, { type: 'step-ended', stepId: 'laser' }),
+    at(1050, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }),
     at(1100, { type: 'session-completed' }),
   ]) {
     const res = await nurseAgent.post(`/api/orders/${order.id}/session-events`).send(event);
@@ -74,6 +76,13 @@ const denied = /command denied/;
 const signedKept = /A signed order cannot be changed/;
 
 describe("a signed order, as the app's database user", () => {
+  it('moves its beyond-use time only later (a fresh preparation), never earlier and never away', async () => {
+    const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent });
+    const laterOnly = /only moves later/;
+    await refused('UPDATE treatment_order SET beyond_use_at = beyond_use_at - INTERVAL 1 HOUR WHERE id = ?', [order.id], 'treatment_order', 'id', order.id, laterOnly);
+    await refused('UPDATE treatment_order SET beyond_use_at = NULL WHERE id = ?', [order.id], 'treatment_order', 'id', order.id, laterOnly);
+  });
+
   it('cannot have its plan, inputs, signer or patient changed, nor be deleted; the row stays as it was', async () => {
     const patient = await createTestPatient(ctx);
     const order = await signOrder(clinicianAgent, clinician, pdtOrder(patient.id));
@@ -82,6 +91,10 @@ describe("a signed order, as the app's database user", () => {
     await refused('UPDATE treatment_order SET signed_by = NULL, signed_at = NULL WHERE id = ?', [order.id], 'treatment_order', 'id', order.id, signedKept);
     await refused("UPDATE treatment_order SET eye = 'left' WHERE id = ?", [order.id], 'treatment_order', 'id', order.id, signedKept);
     await refused('DELETE FROM treatment_order WHERE id = ?', [order.id], 'treatment_order', 'id', order.id, /A signed order cannot be deleted/);
+    // Columns added after the first trigger are part of what was signed too.
+    await refused("UPDATE treatment_order SET protocol_sha256 = REPEAT('0', 64) WHERE id = ?", [order.id], 'treatment_order', 'id', order.id, signedKept);
+    await refused("UPDATE treatment_order SET weight_change_reason = 'changed afterwards' WHERE id = ?", [order.id], 'treatment_order', 'id', order.id, signedKept);
+    await refused('UPDATE treatment_order SET swelling_acknowledged = NOT swelling_acknowledged WHERE id = ?', [order.id], 'treatment_order', 'id', order.id, signedKept);
   });
 
   it('is still changed by an amendment: the new revision is signed and the old one only moves to superseded', async () => {
