@@ -245,6 +245,7 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
       patientId: who.id,
       eye: item.eye,
       protocolVersionId: pv.id,
+      protocolSha256: pv.sha256,
       status: item.status,
       revision: 1,
       inputs: item.inputs,

@@ -106,7 +106,8 @@ describe("a signed order, as the app's database user", () => {
     const signed = await clinicianAgent.post(`/api/orders/${amended.body.order.id}/signature`).send({ password: clinician.password, meaning: 'ordered', version: amended.body.order.version });
     expect(signed.status, JSON.stringify(signed.body)).toBe(200);
     const after = await row('treatment_order', 'id', order.id);
-    expect(after).toEqual({ ...before, status: 'superseded', updated_at: after!.updated_at });
+    // The status, and with it the row's version (optimistic locking) and update time, are all that move.
+    expect(after).toEqual({ ...before, status: 'superseded', updated_at: after!.updated_at, row_version: Number(before!.row_version) + 1 });
   });
 
   it('a draft stays editable: the rule starts at the signature', async () => {
