@@ -169,12 +169,12 @@ describe("a session's dose record and deviations, as the app's database user", (
     const nurseLater = supertest.agent(later);
     expect((await nurseLater.post('/api/auth/login').send({ email: nurse.email, password: nurse.password })).status).toBe(200);
     const eventsBefore = await row('dose_record', 'order_id', orderId);
-    const late = await nurseLater.post(`/api/orders/${orderId}/session-events`).send({ idempotencyKey: randomUUID(), clientTime: new Date(Date.now() + fourteenHoursMs).toISOString(), type: 'extravasation' });
+    const late = await nurseLater.post(`/api/orders/${orderId}/session-events`).send({ idempotencyKey: randomUUID(), clientTime: new Date(Date.now() + fourteenHoursMs).toISOString(), type: 'extravasation', volumeInfusedMl: 30 });
     expect(late.status, JSON.stringify(late.body)).toBe(409);
     expect(late.body.error).toMatchObject({ code: 'record_closed' });
     const [counted] = await app.query('SELECT COUNT(*) AS n FROM session_event WHERE order_id = ?', [orderId]);
     const { n } = (counted as { n: number }[])[0]!;
-    expect(Number(n)).toBe(6);
+    expect(Number(n)).toBe(7); // the seven taps of finishedSession, no more
     expect(await row('dose_record', 'order_id', orderId)).toEqual(eventsBefore);
 
     const auditor = await signedInAgent(ctx, await createTestPerson(ctx, ['auditor']));
@@ -187,7 +187,7 @@ describe("a session's dose record and deviations, as the app's database user", (
     const orderId = await finishedSession();
     const before = await row('dose_record', 'order_id', orderId);
     // A tap queued offline during the session, delivered after its end.
-    const late = await nurseAgent.post(`/api/orders/${orderId}/session-events`).send({ idempotencyKey: randomUUID(), clientTime: new Date(Date.now() - 30 * 60_000).toISOString(), type: 'extravasation', note: 'Noticed at the cannula.' });
+    const late = await nurseAgent.post(`/api/orders/${orderId}/session-events`).send({ idempotencyKey: randomUUID(), clientTime: new Date(Date.now() - 30 * 60_000).toISOString(), type: 'extravasation', note: 'Noticed at the cannula.', volumeInfusedMl: 30 });
     expect(late.status, JSON.stringify(late.body)).toBe(201);
     const after = await row('dose_record', 'order_id', orderId);
     expect(after!.record).not.toEqual(before!.record);
