@@ -3,6 +3,7 @@ import type { ReactNode } from 'react';
 import { ErrorBoundary } from '../components/ui/error-boundary';
 import { authQueries } from '../features/auth/api/auth-queries';
 import { setUnauthorizedHandler } from '../lib/api-client';
+import { clearOfflineCopies } from '../lib/offline-cache';
 import { queryClient } from '../lib/query-client';
 import { CrashScreen } from './crash-screen';
 
@@ -11,6 +12,8 @@ import { CrashScreen } from './crash-screen';
 // the page they were on so they can return to it.
 setUnauthorizedHandler(() => {
   queryClient.setQueryData(authQueries.session().queryKey, null);
+  // The ended session's copies of API answers must not open for whoever signs in next.
+  void clearOfflineCopies();
 });
 
 export function AppProvider({ children }: { children: ReactNode }) {

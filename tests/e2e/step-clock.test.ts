@@ -195,6 +195,27 @@ async function pressAt(page: Page, name: string, targetServerMs: number) {
   lastPress.set(page, serverNowMs());
 }
 
+/** The taps the tablet keeps for an order, read straight from its IndexedDB (not through the app). */
+async function keptTaps(page: Page, orderId: number): Promise<{ key: string; state: string; refusal: { message: string } | null }[]> {
+  return page.evaluate(
+    (id) =>
+      new Promise((resolve, reject) => {
+        const opening = indexedDB.open('luxtempo-step-clock');
+        opening.onerror = () => reject(opening.error);
+        opening.onsuccess = () => {
+          const db = opening.result;
+          const reading = db.transaction('taps').objectStore('taps').index('by-order').getAll(id);
+          reading.onsuccess = () => {
+            db.close();
+            resolve(reading.result);
+          };
+          reading.onerror = () => reject(reading.error);
+        };
+      }),
+    orderId,
+  );
+}
+
 async function allStored(page: Page) {
   await page.getByText('All taps stored').waitFor({ timeout: 15_000 });
 }
@@ -442,7 +463,7 @@ describe('the bedside step clock', () => {
     await page.getByRole('button', { name: 'Drop given' }).click();
     // Preparation start (1), its end and the soak's start (2), two drops (2).
     await page.getByText('Unsent: 5').waitFor();
-    const queuedKeys = await page.evaluate((orderId) => (JSON.parse(localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`) ?? '[]') as { idempotencyKey: string }[]).map((e) => e.idempotencyKey), id);
+    const queuedKeys = (await keptTaps(page, id)).filter((tap) => tap.state === 'unsent').map((tap) => tap.key);
     expect(queuedKeys).toHaveLength(5);
     // The clock runs on the queued taps: the 30-min soak (common practice; protocol file) started two minutes ago.
     const soak = await page.getByRole('timer', { name: 'Time left for the soak' }).textContent();
@@ -456,7 +477,7 @@ describe('the bedside step clock', () => {
     expect(after.events).toHaveLength(storedBefore + 5);
     const storedKeys = new Set(after.events.map((e) => e.idempotencyKey));
     expect(queuedKeys.every((key) => storedKeys.has(key))).toBe(true);
-    expect(await page.evaluate((orderId) => localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`), id)).toBeNull();
+    expect((await keptTaps(page, id)).filter((tap) => tap.state !== 'stored')).toEqual([]);
 
     // The queue waits for the browser's 'online' event instead of knocking: not even a refused request is logged.
     expect(problems).toEqual([]);
