@@ -142,10 +142,10 @@ export function RefusedTaps({ refused, protocol, onSendAgain, onDiscard }: { ref
                   {tap.refusal && tap.refusal.fields.length > 0 && ` (${tap.refusal.fields.map((field) => field.message).join('; ')})`}
                 </p>
               </div>
-              <Button variant="secondary" size="sm" aria-label={`Send again: ${words}`} onClick={() => onSendAgain(tap.key)}>
+              <Button variant="secondary" size="sm" aria-label={`Send again: ${words.toLowerCase()}`} onClick={() => onSendAgain(tap.key)}>
                 Send again
               </Button>
-              <Button variant="danger" size="sm" aria-label={`Discard: ${words}`} onClick={() => onDiscard(tap.key)}>
+              <Button variant="danger" size="sm" aria-label={`Discard this tap: ${words.toLowerCase()}`} onClick={() => onDiscard(tap.key)}>
                 Discard this tap
               </Button>
             </li>
