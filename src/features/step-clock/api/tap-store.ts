@@ -73,6 +73,7 @@ function database(): Promise<IDBPDatabase<TapDb> | null> {
         },
       });
       await moveLegacyQueues(db);
+      await forgetOldStoredTaps(db);
       return db;
     } catch {
       return null;
@@ -111,6 +112,17 @@ async function moveLegacyQueues(db: IDBPDatabase<TapDb>): Promise<void> {
     // Removed only after the taps are safely in IndexedDB.
     globalThis.localStorage.removeItem(storageKey);
   }
+}
+
+/** A stored tap's local copy matters only until the session is fetched again; a day on, the session is long over. */
+const storedCopyKeptMs = 24 * 3_600_000;
+
+async function forgetOldStoredTaps(db: IDBPDatabase<TapDb>): Promise<void> {
+  const tx = db.transaction('taps', 'readwrite');
+  for (let cursor = await tx.store.openCursor(); cursor; cursor = await cursor.continue()) {
+    if (cursor.value.state === 'stored' && cursor.value.keptAtMs < Date.now() - storedCopyKeptMs) await cursor.delete();
+  }
+  await tx.done;
 }
 
 const byTime = (a: KeptTap, b: KeptTap) => Date.parse(a.event.clientTime) - Date.parse(b.event.clientTime) || a.keptAtMs - b.keptAtMs;
