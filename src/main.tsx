@@ -7,7 +7,6 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './app';
 import { applyServerTimeZone } from './config/unit-time-zone';
-import { queryClient } from './lib/query-client';
 
 const container = document.getElementById('root');
 if (!container) throw new Error('index.html must contain <div id="root">');
@@ -25,12 +24,9 @@ async function loadUnitSettings(): Promise<void> {
 // The service worker (src/sw.ts) lets the clock open without network; the dev server has none.
 if (import.meta.env.PROD && 'serviceWorker' in navigator) {
   void navigator.serviceWorker.register('/sw.js', { scope: '/' }).catch(() => undefined);
-  // Answers fetched before the worker took over were not kept: ask again through it, so the
-  // first visit is already enough to reopen without network.
-  navigator.serviceWorker.addEventListener('controllerchange', () => {
-    void loadUnitSettings();
-    void queryClient.invalidateQueries();
-  });
+  // Fetched before the worker took over, the unit's settings were not kept: ask again through it
+  // (the provider does the same for the step clock's own answers).
+  navigator.serviceWorker.addEventListener('controllerchange', () => void loadUnitSettings());
 }
 
 void loadUnitSettings().then(() =>

@@ -2,6 +2,7 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { ErrorBoundary } from '../components/ui/error-boundary';
 import { authQueries } from '../features/auth/api/auth-queries';
+import { stepClockQueries } from '../features/step-clock/api/step-clock-queries';
 import { setUnauthorizedHandler } from '../lib/api-client';
 import { clearOfflineCopies } from '../lib/offline-cache';
 import { queryClient } from '../lib/query-client';
@@ -14,6 +15,14 @@ setUnauthorizedHandler(() => {
   queryClient.setQueryData(authQueries.session().queryKey, null);
   // The ended session's copies of API answers must not open for whoever signs in next.
   void clearOfflineCopies();
+});
+
+// Answers fetched before the service worker took over were not kept by it. The step clock's (and
+// who is signed in) are asked for again through it, so a first visit is enough to reopen the
+// clock without network. Only these: refetching a screen with a half-typed form could reset it.
+globalThis.navigator?.serviceWorker?.addEventListener('controllerchange', () => {
+  void queryClient.invalidateQueries({ queryKey: stepClockQueries.all() });
+  void queryClient.invalidateQueries({ queryKey: authQueries.session().queryKey });
 });
 
 export function AppProvider({ children }: { children: ReactNode }) {
