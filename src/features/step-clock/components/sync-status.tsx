@@ -67,7 +67,7 @@ export function SyncMarker({
       </div>
       {unsent + refused > 0 && (
         <Button variant="quiet" size="sm" aria-expanded={listOpen} aria-controls={listId} onClick={onToggleList}>
-          {listOpen ? 'Hide the list of unsent taps' : 'List unsent and refused taps'}
+          {listOpen ? 'Hide the list' : 'List unsent and refused taps'}
         </Button>
       )}
     </div>
@@ -99,7 +99,7 @@ export function UnsentTaps({ id, unsent, refused, protocol, sync }: { id: string
             <li key={tap.key} className="flex items-center gap-2 text-paper-950">
               <UnsentIcon className="size-5 shrink-0" />
               <span>
-                <strong className="font-semibold">Unsent:</strong> {tapWords(tap.event, protocol)} tapped at {tappedAt(tap)} —{' '}
+                <strong className="font-semibold">Unsent:</strong> {tapWords(tap.event, protocol)} at {tappedAt(tap)} —{' '}
                 {sync.offline ? 'waiting for the network' : 'waiting to be sent'}
               </span>
             </li>
@@ -108,7 +108,7 @@ export function UnsentTaps({ id, unsent, refused, protocol, sync }: { id: string
             <li key={tap.key} className="flex items-center gap-2 text-alarm-800">
               <CrossCircleIcon className="size-5 shrink-0" />
               <span>
-                <strong className="font-semibold">Refused, not stored:</strong> {tapWords(tap.event, protocol)} tapped at {tappedAt(tap)} (reason below)
+                <strong className="font-semibold">Refused, not stored:</strong> {tapWords(tap.event, protocol)} at {tappedAt(tap)} (reason below)
               </span>
             </li>
           ))}
@@ -132,7 +132,7 @@ export function RefusedTaps({ refused, protocol, onSendAgain, onDiscard }: { ref
       </p>
       <ul className="flex flex-col gap-2">
         {refused.map((tap) => {
-          const words = `${tapWords(tap.event, protocol)} tapped at ${tappedAt(tap)}`;
+          const words = `${tapWords(tap.event, protocol)} at ${tappedAt(tap)}`;
           return (
             <li key={tap.key} className="flex flex-wrap items-center gap-x-3 gap-y-1.5 border-t border-alarm-200 pt-2 first:border-t-0 first:pt-0">
               <div className="min-w-0 flex-1 text-paper-950">
