@@ -26,7 +26,9 @@ if (import.meta.env.PROD && 'serviceWorker' in navigator) {
   void navigator.serviceWorker.register('/sw.js', { scope: '/' }).catch(() => undefined);
   // Fetched before the worker took over, the unit's settings were not kept: ask again through it
   // (the provider does the same for the step clock's own answers).
-  navigator.serviceWorker.addEventListener('controllerchange', () => void loadUnitSettings());
+  navigator.serviceWorker.addEventListener('controllerchange', () => {
+    if (navigator.onLine) void loadUnitSettings();
+  });
 }
 
 void loadUnitSettings().then(() =>

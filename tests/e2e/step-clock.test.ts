@@ -453,6 +453,9 @@ describe('the bedside step clock', () => {
     await confirmChecksAndStart(page, 'left');
     await allStored(page);
     const storedBefore = (await sessionOf(id)).events.length;
+    // The service worker has taken over (it asks for the session once more when it does).
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+    await allStored(page);
 
     await page.context().setOffline(true);
     await press(page, 'Start preparation');
