@@ -523,6 +523,7 @@ describe('the bedside step clock', () => {
     expect(await page.getByText(/Unsent: \d/).count()).toBe(0);
     // She is told it is there, not what it is.
     await page.getByText('1 tap by another person waits for them to sign in').waitFor();
+    await page.getByText('All your taps stored').waitFor();
     expect((await sessionOf(id)).events).toHaveLength(storedBefore);
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();

@@ -9,7 +9,8 @@ import { tapWords } from './recent-taps';
 /**
  * Whether every tap is stored, in words, numbers and icons: "Unsent: n" stays until the server
  * has each one (they count on the clock meanwhile); "Refused: n" until the nurse has dealt with
- * each refused tap (they do not count). "All taps stored" only when neither is left.
+ * each refused tap (they do not count). "All taps stored" only when neither is left ("All your
+ * taps stored" while another person's taps are held on this tablet).
  */
 export function SyncMarker({
   unsent,
@@ -55,7 +56,7 @@ export function SyncMarker({
           {unsent === 0 && refused === 0 && (
             <p className="flex items-center gap-1.5 px-2.5 py-1 font-medium text-paper-700">
               <StoredIcon className="size-5" />
-              All taps stored
+              {held.forOthers + held.unowned > 0 ? 'All your taps stored' : 'All taps stored'}
             </p>
           )}
         </div>
