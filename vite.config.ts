@@ -2,9 +2,26 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { VitePWA } from 'vite-plugin-pwa';
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    // The service worker (src/sw.ts): the app shell precached, the running session's GETs kept
+    // network first, so the clock opens without network. Built app only: `npx vite` runs without it.
+    VitePWA({
+      strategies: 'injectManifest',
+      srcDir: 'src',
+      filename: 'sw.ts',
+      // Registered from src/main.tsx: an inline script would need the CSP loosened.
+      injectRegister: false,
+      manifest: false,
+      // A classic script (iife): every browser that has service workers runs it.
+      injectManifest: { globPatterns: ['**/*.{js,css,html,svg,woff2}'], rollupFormat: 'iife' },
+      devOptions: { enabled: false },
+    }),
+  ],
   publicDir: false,
   build: { outDir: 'dist/client', emptyOutDir: true, sourcemap: false },
   server: { host: '127.0.0.1', port: 5173, proxy: { '/api': 'http://127.0.0.1:3000' } },

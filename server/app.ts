@@ -131,7 +131,17 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   app.use('/api', api);
 
   if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
-    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.use(
+      express.static(clientDir, {
+        index: false,
+        maxAge: '1h',
+        // The service worker and the page it falls back to are checked on every load, so a new build reaches tablets at once.
+        setHeaders: (res, filePath) => {
+          const name = path.basename(filePath);
+          if (name === 'sw.js' || name === 'index.html') res.setHeader('Cache-Control', 'no-cache');
+        },
+      }),
+    );
     // The client routes in the browser: every other GET gets the app's page.
     app.get(/^\/(?!api\/).*/, (_req, res) => {
       res.set('Cache-Control', 'no-cache');

@@ -25,6 +25,16 @@ async function loadUnitSettings(): Promise<void> {
 // Unsaved drafts older than their lifetime go before anything can offer them.
 dropExpiredDrafts();
 
+// The service worker (src/sw.ts) lets the clock open without network; the dev server has none.
+if (import.meta.env.PROD && 'serviceWorker' in navigator) {
+  void navigator.serviceWorker.register('/sw.js', { scope: '/' }).catch(() => undefined);
+  // Fetched before the worker took over, the unit's settings were not kept: ask again through it
+  // (the provider does the same for the step clock's own answers).
+  navigator.serviceWorker.addEventListener('controllerchange', () => {
+    if (navigator.onLine) void loadUnitSettings();
+  });
+}
+
 void loadUnitSettings().then(() =>
   createRoot(container).render(
     <StrictMode>

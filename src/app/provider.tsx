@@ -2,8 +2,10 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { ErrorBoundary } from '../components/ui/error-boundary';
 import { authQueries } from '../features/auth/api/auth-queries';
+import { stepClockQueries } from '../features/step-clock/api/step-clock-queries';
 import { setUnauthorizedHandler } from '../lib/api-client';
 import { setCurrentPersonId } from '../lib/current-person';
+import { clearOfflineCopies } from '../lib/offline-cache';
 import { rememberWhySessionEnded } from '../lib/session-ended';
 import { queryClient } from '../lib/query-client';
 import { CrashScreen } from './crash-screen';
@@ -18,6 +20,16 @@ setUnauthorizedHandler((error) => {
   setCurrentPersonId(null);
   rememberWhySessionEnded(error.message);
   queryClient.setQueryData(authQueries.session().queryKey, null);
+  // The ended session's copies of API answers must not open for whoever signs in next.
+  void clearOfflineCopies();
+});
+
+// Answers fetched before the service worker took over were not kept by it. The step clock's (and
+// who is signed in) are asked for again through it, so a first visit is enough to reopen the
+// clock without network. Only these: refetching a screen with a half-typed form could reset it.
+globalThis.navigator?.serviceWorker?.addEventListener('controllerchange', () => {
+  void queryClient.invalidateQueries({ queryKey: stepClockQueries.all() });
+  void queryClient.invalidateQueries({ queryKey: authQueries.session().queryKey });
 });
 
 export function AppProvider({ children }: { children: ReactNode }) {

@@ -63,12 +63,14 @@ export type RequestOptions<T> = {
    * for a wrong password, which must stay on the form instead.
    */
   unauthorized?: 'end-session' | 'report';
+  /** Sees the answer's headers before the body is read (e.g. whether it is an offline copy). */
+  onHeaders?: (headers: Headers) => void;
 };
 
 const API_PREFIX = '/api';
 
 export async function apiRequest<T>(path: string, options: RequestOptions<T> = {}): Promise<T> {
-  const { method = 'GET', body, schema, signal, unauthorized = 'end-session' } = options;
+  const { method = 'GET', body, schema, signal, unauthorized = 'end-session', onHeaders } = options;
   const headers: Record<string, string> = { Accept: 'application/json' };
   // The browser writes a multipart body's Content-Type itself, with the boundary in it.
   const multipart = typeof FormData !== 'undefined' && body instanceof FormData;
@@ -93,6 +95,7 @@ export async function apiRequest<T>(path: string, options: RequestOptions<T> = {
     });
   }
 
+  onHeaders?.(response.headers);
   const payload = await readJson(response);
 
   if (!response.ok) {

@@ -8,8 +8,8 @@ export type SignOutStep = {
   name: string;
   /** Sends what the person still has queued. Resolves when done or given up (it must not hang). */
   send?: (personId: number) => Promise<void>;
-  /** Forgets what the person left in this browser: caches, drafts, ticks. */
-  clear: (personId: number) => void;
+  /** Forgets what the person left in this browser: caches, drafts, ticks. May be async; sign-out waits for it. */
+  clear?: (personId: number) => void | Promise<void>;
 };
 
 const steps = new Map<string, SignOutStep>();
@@ -32,12 +32,18 @@ export async function sendBeforeSignOut(personId: number): Promise<void> {
   );
 }
 
-export function clearAfterSignOut(personId: number): void {
-  for (const step of steps.values()) {
-    try {
-      step.clear(personId);
-    } catch {
-      // One feature failing to clear must not keep the others' data.
-    }
-  }
+/** Longest wait for one feature's clearing (what it did not finish, sign-in clears again). */
+export const clearAfterSignOutMs = 5_000;
+
+/** Runs every `clear` together and resolves when all have finished (or failed, or run out of time). */
+export async function clearAfterSignOut(personId: number): Promise<void> {
+  await Promise.all(
+    [...steps.values()].map(async (step) => {
+      try {
+        await Promise.race([step.clear?.(personId), new Promise<void>((resolve) => setTimeout(resolve, clearAfterSignOutMs))]);
+      } catch {
+        // One feature failing to clear must not keep the others' data.
+      }
+    }),
+  );
 }

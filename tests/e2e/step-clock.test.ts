@@ -198,6 +198,32 @@ async function pressAt(page: Page, name: string, targetServerMs: number) {
   lastPress.set(page, serverNowMs());
 }
 
+/** The taps the tablet keeps for an order, read straight from its IndexedDB (not through the app). */
+async function keptTaps(page: Page, orderId: number): Promise<{ key: string; by: number | null; state: string; refusal: { message: string } | null }[]> {
+  return page.evaluate(
+    (id) =>
+      new Promise((resolve, reject) => {
+        const opening = indexedDB.open('luxtempo-step-clock');
+        opening.onerror = () => reject(opening.error);
+        opening.onsuccess = () => {
+          const db = opening.result;
+          const reading = db.transaction('taps').objectStore('taps').index('by-order').getAll(id);
+          reading.onsuccess = () => {
+            db.close();
+            resolve(reading.result);
+          };
+          reading.onerror = () => reject(reading.error);
+        };
+      }),
+    orderId,
+  );
+}
+
+/** The demo nurse's person id. */
+async function nurseId(): Promise<number> {
+  return ((await (await nurseApi.get('/api/auth/me')).json()) as { id: number }).id;
+}
+
 async function allStored(page: Page) {
   await page.getByText('All taps stored').waitFor({ timeout: 15_000 });
 }
@@ -442,6 +468,9 @@ describe('the bedside step clock', () => {
     await confirmChecksAndStart(page, 'left');
     await allStored(page);
     const storedBefore = (await sessionOf(id)).events.length;
+    // The service worker has taken over (it asks for the session once more when it does).
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+    await allStored(page);
 
     await page.context().setOffline(true);
     await press(page, 'Start preparation');
@@ -452,8 +481,10 @@ describe('the bedside step clock', () => {
     await page.getByRole('button', { name: 'Drop given' }).click();
     // Preparation start (1), its end and the soak's start (2), two drops (2).
     await page.getByText('Unsent: 5').waitFor();
-    // Each queued tap is kept with the id of the nurse who made it.
-    const queuedKeys = await page.evaluate((orderId) => (JSON.parse(localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`) ?? '[]') as { by: number; event: { idempotencyKey: string } }[]).map((e) => e.event.idempotencyKey), id);
+    const unsentTaps = (await keptTaps(page, id)).filter((tap) => tap.state === 'unsent');
+    // Each kept tap carries the id of the nurse who made it.
+    expect(new Set(unsentTaps.map((tap) => tap.by))).toEqual(new Set([await nurseId()]));
+    const queuedKeys = unsentTaps.map((tap) => tap.key);
     expect(queuedKeys).toHaveLength(5);
     // The clock runs on the queued taps: the 30-min soak (common practice; protocol file) started two minutes ago.
     const soak = await page.getByRole('timer', { name: 'Time left for the soak' }).textContent();
@@ -467,7 +498,7 @@ describe('the bedside step clock', () => {
     expect(after.events).toHaveLength(storedBefore + 5);
     const storedKeys = new Set(after.events.map((e) => e.idempotencyKey));
     expect(queuedKeys.every((key) => storedKeys.has(key))).toBe(true);
-    expect(await page.evaluate((orderId) => localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`), id)).toBeNull();
+    expect((await keptTaps(page, id)).filter((tap) => tap.state !== 'stored')).toEqual([]);
 
     // The queue waits for the browser's 'online' event instead of knocking: not even a refused request is logged.
     expect(problems).toEqual([]);
@@ -488,11 +519,10 @@ describe('the bedside step clock', () => {
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
     await page.unroute('**/session-events');
-    // Pre-treatment ticks and notes went with the session; the tap stays, under its nurse's id.
-    expect(await page.evaluate(() => Object.keys(sessionStorage).filter((k) => k.startsWith('luxtempo.step-clock.draft.')))).toEqual([]);
-    const kept = await page.evaluate((orderId) => JSON.parse(localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`) ?? '[]') as { by: number }[], id);
-    const nurseId = ((await (await nurseApi.get('/api/auth/me')).json()) as { id: number }).id;
-    expect(kept.map((t) => t.by)).toEqual([nurseId]);
+    // Pre-treatment ticks and notes (kept drafts) went with the session; the tap stays, under its nurse's id.
+    expect(await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')))).toEqual([]);
+    const nurse = await nurseId();
+    expect((await keptTaps(page, id)).filter((tap) => tap.state === 'unsent').map((tap) => tap.by)).toEqual([nurse]);
 
     // The charge nurse signs in on the same tablet and opens the same clock: the tap is not hers to send.
     await signInThroughForm(page, ctx.baseUrl, 'charge-nurse@demo.luxtempo.example', demoPassword);
@@ -501,6 +531,9 @@ describe('the bedside step clock', () => {
     await page.locator('h1', { hasText: 'Step clock' }).waitFor();
     await page.waitForTimeout(2_000);
     expect(await page.getByText(/Unsent: \d/).count()).toBe(0);
+    // She is told it is there, not what it is.
+    await page.getByText('1 tap by another person waits for them to sign in').waitFor();
+    await page.getByText('All your taps stored').waitFor();
     expect((await sessionOf(id)).events).toHaveLength(storedBefore);
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
@@ -512,7 +545,7 @@ describe('the bedside step clock', () => {
     await allStored(page);
     const after = await sessionOf(id);
     expect(after.events).toHaveLength(storedBefore + 1);
-    expect((after.events.at(-1) as StoredEvent & { recordedBy: number }).recordedBy).toBe(nurseId);
+    expect((after.events.at(-1) as StoredEvent & { recordedBy: number }).recordedBy).toBe(nurse);
     await page.context().close();
   });
 
@@ -695,5 +728,228 @@ describe('the bedside step clock', () => {
     expect(await accessibilityViolations(auditor.page)).toEqual([]);
     expect(auditor.problems).toEqual([]);
     await auditor.page.context().close();
+  });
+
+  it('after a reload the clock says sound is off until a tap turns it on, and claims sound only while the AudioContext runs', async () => {
+    const { id } = await readyCxlOrder('cxl-standard');
+    await seedEvents(id, [
+      [400, { type: 'session-started', checks: allChecks }],
+      [399, { type: 'step-started', stepId: 'confirm-patient' }],
+      [398, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [397, { type: 'step-started', stepId: 'epithelium-removal' }],
+      [300, { type: 'step-ended', stepId: 'epithelium-removal' }],
+      [300, { type: 'step-started', stepId: 'riboflavin-soak' }],
+    ]);
+    const { page, problems } = await nursePage(id);
+    // Every AudioContext the page makes is kept where the test can read its real state.
+    await page.addInitScript(() => {
+      const Original = window.AudioContext;
+      const made: AudioContext[] = [];
+      (window as unknown as { madeAudio: AudioContext[] }).madeAudio = made;
+      window.AudioContext = class extends Original {
+        constructor(options?: AudioContextOptions) {
+          super(options);
+          made.push(this);
+        }
+      };
+    });
+    const audioStates = () => page.evaluate(() => (window as unknown as { madeAudio: AudioContext[] }).madeAudio.map((audio) => audio.state));
+    const turnOn = page.getByRole('button', { name: 'Tap to turn sound back on' });
+    const soundOn = page.getByRole('button', { name: 'Sound on', exact: true });
+
+    for (const round of [1, 2]) {
+      await page.reload();
+      await page.getByRole('timer', { name: 'Time left for the soak' }).waitFor();
+      await turnOn.waitFor();
+      // Nothing runs, and nothing claims it does.
+      expect((await audioStates()).filter((state) => state === 'running'), `round ${round}`).toEqual([]);
+      expect(await soundOn.count()).toBe(0);
+      await page.getByText('Sound is off', { exact: true }).waitFor();
+      if (round === 1) expect(await accessibilityViolations(page)).toEqual([]);
+      const box = await turnOn.boundingBox();
+      expect(box!.height).toBeGreaterThanOrEqual(44);
+
+      // The keyboard path: focus and Enter, as a tap would.
+      await turnOn.focus();
+      await page.keyboard.press('Enter');
+      await soundOn.waitFor();
+      expect(await audioStates()).toContain('running');
+      expect(await turnOn.count()).toBe(0);
+    }
+
+    // Muting is the nurse's choice and says so; unmuting needs no second tap.
+    await soundOn.click();
+    await page.getByRole('button', { name: 'Sound off', exact: true }).click();
+    await soundOn.waitFor();
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it('a tap the server refuses shows as refused with the server’s reason, never as stored, does not count, and stays listed over a reload', async () => {
+    const { id } = await readyCxlOrder('cxl-standard');
+    await seedEvents(id, [
+      [400, { type: 'session-started', checks: allChecks }],
+      [399, { type: 'step-started', stepId: 'confirm-patient' }],
+      [398, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [397, { type: 'step-started', stepId: 'epithelium-removal' }],
+      [300, { type: 'step-ended', stepId: 'epithelium-removal' }],
+      [300, { type: 'step-started', stepId: 'riboflavin-soak' }],
+    ]);
+    const { page, problems } = await nursePage(id);
+    // Once the service worker has taken over, the page fetches the session again; after that it waits 15 s.
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+    await page.getByRole('button', { name: 'Drop given' }).click();
+    await page.getByText('1 given in this step').waitFor();
+    await allStored(page);
+
+    // Someone stops the session at another tablet; this one has not fetched that yet, and the
+    // nurse withdraws the drop as a mistake: a withdrawal only fits a running session.
+    await seedEvents(id, [[0, { type: 'session-stopped', reason: 'Stopped at the desk: the patient felt faint.' }]]);
+    await advance(page, 1_000);
+    await page.getByRole('button', { name: /^Withdraw drop \(soak\) at/ }).click();
+    const dialog = page.getByRole('dialog', { name: 'Withdraw a tap' });
+    await dialog.getByLabel('Why was this tap a mistake?').fill('Tapped on the wrong patient’s clock.');
+    await dialog.getByRole('button', { name: 'Withdraw tap' }).click();
+
+    const refusedPanel = page.getByRole('alert', { name: 'Refused taps' });
+    await refusedPanel.getByText(/^Refused: Withdrawal of a tap at \d\d:\d\d:\d\d$/).waitFor();
+    await refusedPanel.getByText(`Server’s reason: The session for order ${id} is stopped; a tap can be withdrawn only while the session runs.`).waitFor();
+    await page.getByText('Refused: 1', { exact: true }).waitFor();
+    expect(await page.getByText('All taps stored').count()).toBe(0);
+    // The refused withdrawal does not count: the drop still does, on the clock and on the server.
+    await page.getByText('1 given in this step').waitFor();
+    expect(await page.getByText(/^Withdrawn:/).count()).toBe(0);
+    expect((await sessionOf(id)).events.filter((e) => e.type === 'tap-withdrawn')).toEqual([]);
+
+    // Beside the count, the list of every tap not stored, from the keyboard.
+    const listButton = page.getByRole('button', { name: 'List unsent and refused taps' });
+    await listButton.focus();
+    await page.keyboard.press('Enter');
+    const list = page.getByRole('region', { name: 'Unsent and refused taps' });
+    await list.getByText(/Refused, not stored: Withdrawal of a tap at \d\d:\d\d:\d\d/).waitFor();
+    expect(await accessibilityViolations(page)).toEqual([]);
+    const kept = await keptTaps(page, id);
+    expect(kept.filter((tap) => tap.state === 'refused').map((tap) => tap.refusal?.message)).toEqual([`The session for order ${id} is stopped; a tap can be withdrawn only while the session runs.`]);
+
+    // A reload keeps it refused; the clock now shows the session as stopped.
+    await page.reload();
+    await page.getByText('Session stopped').waitFor();
+    await refusedPanel.getByText(/^Refused: Withdrawal of a tap at/).waitFor();
+    await page.getByText('Refused: 1', { exact: true }).waitFor();
+
+    // Discarded by the nurse: only then does it leave the tablet.
+    await refusedPanel.getByRole('button', { name: /^Discard this tap: withdrawal of a tap at/ }).click();
+    await allStored(page);
+    expect((await keptTaps(page, id)).filter((tap) => tap.state === 'refused')).toEqual([]);
+    expect((await sessionOf(id)).events.filter((e) => e.type === 'tap-withdrawn')).toEqual([]);
+    // Chromium logs the refused request (409) itself; nothing else may go wrong.
+    expect(problems.filter((problem) => !/status of 409/.test(problem))).toEqual([]);
+    await page.context().close();
+  });
+
+  it('without network, a reload mid-wait opens the clock at the right second; taps made offline survive another reload and are stored once when the network returns', async () => {
+    const { id, patient } = await preparedPdtOrder();
+    // Infusion 0–600 s done, the wait running; the light is due 15 min after the infusion start (TAP Study Group, Arch Ophthalmol 1999).
+    await seedEvents(id, [
+      [790, { type: 'session-started', checks: allChecks }],
+      [789, { type: 'step-started', stepId: 'confirm-patient' }],
+      [788, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [780, { type: 'step-started', stepId: 'infusion' }],
+      [180, { type: 'step-ended', stepId: 'infusion' }],
+      [180, { type: 'step-started', stepId: 'wait-for-light' }],
+    ]);
+    const infusionStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'infusion');
+    const untilLight = (ms: number) => 900 - (ms - infusionStartMs) / 1000;
+    const { page, problems } = await nursePage(id);
+    await page.getByRole('timer', { name: 'Time until the light starts' }).waitFor();
+
+    // The service worker has taken over and kept what the clock needs.
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+    const keptAnswers = () =>
+      page.evaluate(async () => {
+        const cache = await caches.open('luxtempo-api-v1');
+        return (await cache.keys()).map((request) => new URL(request.url).pathname).sort();
+      });
+    await expect
+      .poll(keptAnswers, { timeout: 15_000 })
+      .toEqual(expect.arrayContaining(['/api/auth/me', '/api/unit', `/api/orders/${id}`, `/api/orders/${id}/session`, '/api/protocols/pdt-standard/versions/1']));
+
+    await page.context().setOffline(true);
+    await advance(page, 20_000);
+    await page.reload();
+    await page.getByRole('heading', { level: 1, name: new RegExp(patient.familyName) }).waitFor();
+    const offline = await readClock(page, 'Time until the light starts', untilLight, 'wait, offline reload', 0);
+    expect(Math.abs(offline.errorS)).toBeLessThan(1.1);
+    await page.getByText('no network; new taps are kept on this tablet').waitFor();
+
+    // The light starts on time with no network: the tap (the wait's end and the light's start) is kept and counts.
+    await pressAt(page, 'Start laser', infusionStartMs + 900_000);
+    await page.getByText('Unsent: 2', { exact: true }).waitFor();
+    const lightStartMs = infusionStartMs + 900_000;
+    await advance(page, 10_000);
+    await press(page, 'Pause laser');
+    await page.getByText('Unsent: 3', { exact: true }).waitFor();
+
+    // A second reload, still offline: the kept taps come back with the clock at the right second.
+    await advance(page, 5_000);
+    await page.reload();
+    await page.getByText('Unsent: 3', { exact: true }).waitFor();
+    const paused = await readClock(page, 'Time left for the laser', () => 83 - 10, 'laser paused, offline reload', 0);
+    expect(Math.abs(paused.errorS)).toBeLessThan(1.1);
+    await page.getByText('Paused', { exact: true }).waitFor();
+    const queued = (await keptTaps(page, id)).filter((tap) => tap.state === 'unsent').map((tap) => tap.key);
+    expect(queued).toHaveLength(3);
+
+    await page.context().setOffline(false);
+    await allStored(page);
+    const session = await sessionOf(id);
+    for (const key of queued) expect(session.events.filter((e) => e.idempotencyKey === key), key).toHaveLength(1);
+    // Timed by the tablet when tapped, not when sent (the tap is pressed a moment after the clocks reach the mark).
+    expect(Math.abs(eventTimeMs(session, 'step-started', 'laser') - lightStartMs)).toBeLessThan(500);
+    // Nothing the worker kept is a write.
+    expect((await keptAnswers()).filter((path) => path.includes('session-events'))).toEqual([]);
+    // Chromium logs the requests that failed for lack of network; nothing else may go wrong.
+    expect(problems.filter((problem) => !/ERR_INTERNET_DISCONNECTED/.test(problem))).toEqual([]);
+
+    // Signing out empties the kept API answers (the app's own files stay); the sign-in page asks
+    // again only for the unit's public settings.
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByLabel('E-mail').waitFor();
+    expect((await keptAnswers()).filter((path) => path !== '/api/unit')).toEqual([]);
+    expect((await page.evaluate(() => caches.keys())).some((name) => name.includes('precache'))).toBe(true);
+    await page.context().close();
+  });
+
+  it('taps queued in localStorage by the earlier version move into IndexedDB once, as the signed-in nurse’s, and are stored once', async () => {
+    const { id } = await readyCxlOrder('cxl-standard');
+    await seedEvents(id, [
+      [400, { type: 'session-started', checks: allChecks }],
+      [399, { type: 'step-started', stepId: 'confirm-patient' }],
+      [398, { type: 'step-ended', stepId: 'confirm-patient' }],
+      [397, { type: 'step-started', stepId: 'epithelium-removal' }],
+      [300, { type: 'step-ended', stepId: 'epithelium-removal' }],
+      [300, { type: 'step-started', stepId: 'riboflavin-soak' }],
+    ]);
+    const { page, problems } = await nursePage(id);
+    await page.getByRole('timer', { name: 'Time left for the soak' }).waitFor();
+    // Two drops left unsent by the earlier version, as it kept them.
+    const legacy = [60, 30].map((secondsAgo) => ({ type: 'drop-given', stepId: 'riboflavin-soak', idempotencyKey: randomUUID(), clientTime: new Date(serverNowMs() - secondsAgo * 1000).toISOString() }));
+    await page.evaluate(([orderId, events]) => localStorage.setItem(`luxtempo.step-clock.unsent.${orderId}`, JSON.stringify(events)), [id, legacy] as const);
+
+    await page.reload();
+    await page.getByText('2 given in this step').waitFor();
+    await allStored(page);
+    expect(await page.evaluate((orderId) => localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`), id)).toBeNull();
+    // A further reload finds nothing left to move, and nothing is sent twice.
+    await page.reload();
+    await page.getByText('2 given in this step').waitFor();
+    await allStored(page);
+    const session = await sessionOf(id);
+    for (const { idempotencyKey } of legacy) expect(session.events.filter((e) => e.idempotencyKey === idempotencyKey)).toHaveLength(1);
+    // Kept before taps named their person, they were given to the nurse whose session opened the clock, and sent as hers.
+    const nurse = await nurseId();
+    for (const { idempotencyKey } of legacy) expect((session.events.find((e) => e.idempotencyKey === idempotencyKey) as StoredEvent & { recordedBy: number }).recordedBy).toBe(nurse);
+    expect(problems).toEqual([]);
+    await page.context().close();
   });
 });

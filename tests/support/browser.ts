@@ -42,7 +42,8 @@ export async function startBrowserTest(overrides: Record<string, string> = {}): 
 export function watchPage(page: Page, baseUrl: string) {
   const problems: string[] = [];
   page.on('console', (m) => {
-    if (m.type() === 'error') problems.push(`console: ${m.text()}`);
+    // A failed load names no address in its text; the location says which resource it was.
+    if (m.type() === 'error') problems.push(`console: ${m.text()}${m.text().startsWith('Failed to load resource') ? ` (${m.location().url})` : ''}`);
   });
   page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
   page.on('request', (r) => {

@@ -2,14 +2,11 @@ import type { SignOutStep } from '../../lib/sign-out';
 import { sendQueuedTapsOf } from './api/event-sync';
 
 /**
- * What the step clock keeps for a person, and how it lets go on sign-out: queued taps are sent
- * first (what cannot be sent stays queued under the person's id, never sent by anyone else);
- * pre-treatment ticks and half-typed notes (sessionStorage) are dropped.
+ * What the step clock does on sign-out: the person's unsent taps are sent first, while their
+ * session still works. What cannot be sent stays in the tap store under the person's id, never
+ * sent by anyone else. Ticks and typed reasons are kept drafts, dropped with the other drafts.
  */
 export const stepClockSignOut: SignOutStep = {
   name: 'step-clock',
   send: sendQueuedTapsOf,
-  clear: () => {
-    for (const key of Object.keys(sessionStorage)) if (key.startsWith('luxtempo.step-clock.draft.')) sessionStorage.removeItem(key);
-  },
 };

@@ -1,9 +1,8 @@
-import type { SessionEventInput } from '../../../../shared/session/session-events';
-import { isApiRequestError, type FieldProblem } from '../../../lib/api-client';
+import { isApiRequestError } from '../../../lib/api-client';
 import { currentPersonId } from '../../../lib/current-person';
-import { eventQueueFor, queuedOrderIds, type EventQueue } from './event-queue';
 import { recordSessionEvent } from './record-session-event';
 import type { RecordedEventResponse } from './session-state-schema';
+import { ordersWithUnsentTapsOf, tapStoreFor, type TapStore } from './tap-store';
 
 export interface SyncState {
   sending: boolean;
@@ -11,8 +10,6 @@ export interface SyncState {
   offline: boolean;
   /** When the next try is due after a failure (device clock, ms). */
   retryAtMs: number | null;
-  /** The server refused the oldest tap; the queue waits until the nurse sends it again or discards it. */
-  refused: { event: SessionEventInput; message: string; fields: FieldProblem[] } | null;
 }
 
 export interface EventSync {
@@ -22,24 +19,28 @@ export interface EventSync {
   pump: () => void;
   /** The screen's handler for each stored answer (it brings the cached session up to date). */
   attach: (onStored: (response: RecordedEventResponse) => void) => () => void;
-  sendAgain: () => void;
-  discardRefused: () => void;
+  /** A refused tap goes back in the queue and out again now. */
+  sendAgain: (key: string) => void;
 }
 
 const firstRetryMs = 1_000;
 const longestRetryMs = 30_000;
 const syncs = new Map<number, EventSync>();
 
-/** A failure that waiting can cure: no answer, a busy or broken server, a lapsed sign-in. */
-function isTransient(error: unknown): boolean {
+/**
+ * A failure that waiting can cure: no answer, a busy or broken server (5xx), too many requests
+ * (429), a timeout (408), a lapsed sign-in (401: sent again after the nurse signs in). Any other
+ * answer is the server's refusal of this tap.
+ */
+export function isRetryable(error: unknown): boolean {
   if (!isApiRequestError(error)) return true;
   return error.status === 0 || error.status === 401 || error.status === 408 || error.status === 429 || error.status >= 500;
 }
 
-function createEventSync(orderId: number, queue: EventQueue): EventSync {
+function createEventSync(orderId: number, store: TapStore): EventSync {
   const listeners = new Set<() => void>();
   const handlers = new Set<(response: RecordedEventResponse) => void>();
-  let state: SyncState = { sending: false, offline: globalThis.navigator?.onLine === false, retryAtMs: null, refused: null };
+  let state: SyncState = { sending: false, offline: globalThis.navigator?.onLine === false, retryAtMs: null };
   let running = false;
   let failures = 0;
   let retryTimer: ReturnType<typeof setTimeout> | null = null;
@@ -48,6 +49,7 @@ function createEventSync(orderId: number, queue: EventQueue): EventSync {
     state = { ...state, ...changes };
     for (const listener of listeners) listener();
   };
+  const nextUnsent = () => store.taps().find((tap) => tap.state === 'unsent');
 
   const scheduleRetry = (afterS: number | null) => {
     failures += 1;
@@ -63,14 +65,14 @@ function createEventSync(orderId: number, queue: EventQueue): EventSync {
   };
 
   async function pump(): Promise<void> {
-    if (running || state.refused) return;
+    if (running || !store.ready()) return;
     running = true;
     try {
-      for (let next = queue.list()[0]; next; next = queue.list()[0]) {
+      for (let next = nextUnsent(); next; next = nextUnsent()) {
         // The hook the sign-out rule hangs on: a tap goes out only under the session of the
-        // person who made it (list() holds only theirs; this re-checks at the moment of sending).
+        // person who made it (taps() holds only theirs; this re-checks at the moment of sending).
         const person = currentPersonId();
-        if (person === null || queue.ownerOf(next.idempotencyKey) !== person) break;
+        if (person === null || store.ownerOf(next.key) !== person) break;
         if (globalThis.navigator?.onLine === false) {
           // The 'online' event brings us back; no point knocking while the browser says it is offline.
           set({ offline: true, sending: false });
@@ -78,20 +80,21 @@ function createEventSync(orderId: number, queue: EventQueue): EventSync {
         }
         set({ sending: true });
         try {
-          const response = await recordSessionEvent(orderId, next);
-          queue.remove(next.idempotencyKey);
+          const response = await recordSessionEvent(orderId, next.event);
+          store.markStored(next.key);
           failures = 0;
           set({ offline: false, retryAtMs: null });
           for (const handler of handlers) handler(response);
         } catch (error) {
-          if (isTransient(error)) {
+          if (isRetryable(error)) {
             set({ offline: isApiRequestError(error) ? error.status === 0 : true, sending: false });
             scheduleRetry(isApiRequestError(error) ? error.retryAfterS : null);
-          } else {
-            const problem = isApiRequestError(error) ? error : null;
-            set({ sending: false, refused: { event: next, message: problem?.message ?? 'The server refused this tap.', fields: problem?.fields ?? [] } });
+            return;
           }
-          return;
+          // Refused: kept and shown with the server's reason, never as stored. Later taps are
+          // still sent; the server judges each one on its own.
+          const problem = isApiRequestError(error) ? error : null;
+          store.markRefused(next.key, { status: problem?.status ?? 0, message: problem?.message ?? 'The server refused this tap.', fields: problem?.fields ?? [] });
         }
       }
       set({ sending: false });
@@ -110,11 +113,12 @@ function createEventSync(orderId: number, queue: EventQueue): EventSync {
   globalThis.addEventListener?.('online', wake);
   globalThis.addEventListener?.('offline', () => set({ offline: true }));
   globalThis.document?.addEventListener('visibilitychange', () => {
-    if (document.visibilityState === 'visible' && queue.list().length > 0) wake();
+    if (document.visibilityState === 'visible' && nextUnsent()) wake();
   });
-  // A tap written by another tab of this order is sent from here too; the key makes that harmless.
-  queue.subscribe(() => {
-    if (!running && retryTimer === null && queue.list().length > 0) void pump();
+  // Taps read from storage after a reload, or written by another tab of this order, are sent from
+  // here too; the idempotency key makes a double send harmless.
+  store.subscribe(() => {
+    if (!running && retryTimer === null && nextUnsent()) void pump();
   });
 
   return {
@@ -128,47 +132,45 @@ function createEventSync(orderId: number, queue: EventQueue): EventSync {
       handlers.add(onStored);
       return () => handlers.delete(onStored);
     },
-    sendAgain: () => {
-      set({ refused: null });
-      wake();
-    },
-    discardRefused: () => {
-      const refused = state.refused;
-      if (!refused) return;
-      queue.remove(refused.event.idempotencyKey);
-      set({ refused: null });
+    sendAgain: (key) => {
+      store.requeue(key);
       wake();
     },
   };
 }
 
 /** One sender per order for the whole page, so two screens never send the same queue at once. */
-export function eventSyncFor(orderId: number, queue: EventQueue): EventSync {
+export function eventSyncFor(orderId: number, store: TapStore): EventSync {
   let sync = syncs.get(orderId);
   if (!sync) {
-    sync = createEventSync(orderId, queue);
+    sync = createEventSync(orderId, store);
     syncs.set(orderId, sync);
   }
   return sync;
 }
 
 /**
- * On sign-out, while the session still works: sends the person's queued taps for every order in
- * this browser, and resolves when all are stored or sending stopped (offline, refused, waiting to
- * retry). Whatever is left stays queued under the person's id, for their next sign-in here.
+ * On sign-out, while the session still works: sends the person's unsent taps for every order this
+ * tablet keeps taps of, and resolves when all are stored or sending stopped (offline, waiting to
+ * retry; a refused tap stays refused). Whatever is left stays kept under the person's id, for
+ * their next sign-in here. Nothing is sent unless the person's own session is the one open.
  */
 export async function sendQueuedTapsOf(personId: number): Promise<void> {
-  const pending = queuedOrderIds()
-    .map((orderId) => ({ orderId, queue: eventQueueFor(orderId) }))
-    .filter(({ queue }) => queue.list().length > 0 && currentPersonId() === personId);
+  if (currentPersonId() !== personId) return;
+  const orderIds = await ordersWithUnsentTapsOf(personId);
   await Promise.all(
-    pending.map(async ({ orderId, queue }) => {
-      const sync = eventSyncFor(orderId, queue);
+    orderIds.map(async (orderId) => {
+      const store = tapStoreFor(orderId);
+      const sync = eventSyncFor(orderId, store);
+      const unsentOfPerson = () => store.taps().some((tap) => tap.state === 'unsent' && tap.by === personId);
+      // Sends at once if the taps are read already, else as soon as they are (the store tells the sender).
       sync.pump();
       for (;;) {
         await new Promise((resolve) => setTimeout(resolve, 100));
+        if (currentPersonId() !== personId) return;
+        if (!store.ready()) continue;
         const state = sync.state();
-        if (queue.list().length === 0 || state.refused || state.offline || (!state.sending && state.retryAtMs !== null)) return;
+        if (!unsentOfPerson() || state.offline || (!state.sending && state.retryAtMs !== null)) return;
       }
     }),
   );

@@ -5,7 +5,7 @@ import type { SessionEventLike } from '../../../../shared/session/dose-record';
 import type { SessionClock } from '../../../../shared/session/session-clock';
 import { volumeInfusedRequired } from '../../../../shared/session/session-rules';
 import { Button } from '../../../components/ui/button';
-import { LeakIcon, ScreenAwakeIcon, SoundOffIcon, SoundOnIcon, StatusStoppedIcon } from '../../../components/ui/icons';
+import { LeakIcon, ScreenAwakeIcon, StatusStoppedIcon } from '../../../components/ui/icons';
 import type { SessionOrder } from '../api/get-session-order';
 import type { SessionDeviation } from '../api/session-state-schema';
 import type { Urgency } from '../hooks/use-announcer';
@@ -23,6 +23,7 @@ import { OverrideAuthorisationDialog } from './override-authorisation-dialog';
 import { ReasonDialog } from './reason-dialog';
 import { RecentTaps } from './recent-taps';
 import { SessionCautions } from './session-cautions';
+import { SoundControl } from './sound-control';
 import type { SessionFacts } from './session-facts';
 import { StepActions } from './step-actions';
 import { StepList } from './step-list';
@@ -164,12 +165,7 @@ export function ClockView({
               )}
             </div>
             <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
-              <Button variant="quiet" size="sm" icon={muted ? <SoundOffIcon /> : <SoundOnIcon />} onClick={() => setMuted(!muted)} aria-describedby={`${stepsHeading}-sound`}>
-                {muted ? 'Sound off' : 'Sound on'}
-              </Button>
-              <span id={`${stepsHeading}-sound`} className="sr-only">
-                {muted ? 'Press to turn the sound cues back on; the flash and vibration stay.' : 'Press to mute the sound cues; the flash and vibration stay.'}
-              </span>
+              <SoundControl muted={muted} setMuted={setMuted} />
               {wakeLock !== 'off' && (
                 <p className="flex items-center gap-1.5 text-sm text-paper-700">
                   <ScreenAwakeIcon className="size-4 shrink-0" />

@@ -13,7 +13,7 @@ import { ReasonDialog } from './reason-dialog';
 /** Enough to catch a slip just made without crowding the clock; older taps are for the auditor. */
 const recentTapCount = 3;
 
-function tapWords(event: Pick<SessionEventLike, 'type'> & { stepId?: string | null }, protocol: ProtocolVersion): string {
+export function tapWords(event: Pick<SessionEventLike, 'type'> & { stepId?: string | null }, protocol: ProtocolVersion): string {
   const step = event.stepId ? protocol.steps.find((s) => s.id === event.stepId) : undefined;
   return `${capitalised(eventWords[event.type])}${step ? ` (${stepNames[step.kind]})` : ''}`;
 }

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useEffect, useMemo } from 'react';
+import { useEffect, useId, useMemo, useState } from 'react';
 import { readyForSessionStatuses } from '../../../../shared/schemas/orders';
 import { sessionClock, type SessionClock } from '../../../../shared/session/session-clock';
 import { preTreatmentChecks } from '../../../../shared/session/session-events';
@@ -20,7 +20,7 @@ import { LiveRegions } from './live-regions';
 import { PreTreatmentChecks } from './pre-treatment-checks';
 import { sessionFacts } from './session-facts';
 import { SessionOutcome } from './session-outcome';
-import { RefusedTap, SyncMarker, WatchedAsOf } from './sync-status';
+import { RefusedTaps, SyncMarker, UnsentTaps, WatchedAsOf } from './sync-status';
 
 /**
  * The bedside step clock of one order: the pre-treatment checks, then the protocol's steps timed
@@ -32,7 +32,9 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
   const protocolKey = order.data?.protocol.key ?? '';
   const protocolVersion = order.data?.protocol.version ?? 0;
   const protocol = useQuery({ ...stepClockQueries.protocol(protocolKey, protocolVersion), enabled: order.data !== undefined });
-  const { session, events, unsent, syncState, storageIsPersistent, record, sendAgain, discardRefused } = useSessionEvents(orderId, { records: canRecord });
+  const { session, events, tapsReady, unsent, refused, held, syncState, storageIsPersistent, record, sendAgain, discard } = useSessionEvents(orderId, { records: canRecord });
+  const [tapListOpen, setTapListOpen] = useState(false);
+  const tapListId = useId();
   const { polite, assertive, announce } = useAnnouncer();
   const offsetMs = useServerOffsetMs();
   const { nowMs, wakeAt } = useNowMs(250);
@@ -73,8 +75,9 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
       </StatusPanel>
     );
   }
-  // The stored events must be known before anything is shown: queued taps alone could put the clock in the wrong step.
-  if (!order.data || !plan || !definition || !clock || !facts || !session.data) {
+  // The stored events and the taps kept on this tablet must both be known before anything is
+  // shown: either alone could put the clock in the wrong step.
+  if (!order.data || !plan || !definition || !clock || !facts || !session.data || !tapsReady) {
     return <LoadingPanel label="Loading the session…" />;
   }
 
@@ -99,7 +102,16 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
           </p>
         </div>
         {canRecord ? (
-          <SyncMarker unsent={unsent.length} sync={syncState} persistent={storageIsPersistent} />
+          <SyncMarker
+            unsent={unsent.length}
+            refused={refused.length}
+            held={held}
+            sync={syncState}
+            persistent={storageIsPersistent}
+            listId={tapListId}
+            listOpen={tapListOpen}
+            onToggleList={() => setTapListOpen(!tapListOpen)}
+          />
         ) : (
           <WatchedAsOf updatedAtMs={session.dataUpdatedAt} />
         )}
@@ -119,7 +131,8 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
           The server did not answer the last update ({describeError(session.error)}). The clock runs on; deviations may be out of date until it answers.
         </p>
       )}
-      <RefusedTap sync={syncState} onSendAgain={sendAgain} onDiscard={discardRefused} />
+      {canRecord && tapListOpen && unsent.length + refused.length > 0 && <UnsentTaps id={tapListId} unsent={unsent} refused={refused} protocol={definition} sync={syncState} />}
+      <RefusedTaps refused={refused} protocol={definition} onSendAgain={sendAgain} onDiscard={discard} />
 
       {notReady ? (
         <StatusPanel icon={<AlertIcon className="size-6" />} title="This order is not ready for its session" actions={<LinkButton to={paths.order.getHref(orderId)}>Open the order</LinkButton>}>

@@ -1,6 +1,7 @@
 import { useEffect, useRef, useState } from 'react';
 import type { SessionClock } from '../../../../shared/session/session-clock';
 import type { Urgency } from './use-announcer';
+import { runningAudio, turnOnAudioOutput } from './use-audio-output';
 
 export type CueKind = 'soon' | 'now' | 'drop';
 
@@ -29,24 +30,10 @@ const tunes: Record<CueKind, { atS: number; lengthS: number; hz: number }[]> = {
 };
 const vibrations: Record<CueKind, number[]> = { soon: [120], now: [300, 150, 300, 150, 500], drop: [200, 100, 200] };
 
-let audio: AudioContext | null = null;
-
-/** Browsers let a page make sound only after a tap or key press; the first one opens the audio. */
-function unlockAudio(): void {
-  try {
-    if (!audio) {
-      const Context = window.AudioContext ?? (window as Window & { webkitAudioContext?: typeof AudioContext }).webkitAudioContext;
-      if (!Context) return;
-      audio = new Context();
-    }
-    if (audio.state === 'suspended') void audio.resume().catch(() => undefined);
-  } catch {
-    audio = null;
-  }
-}
-
-function play(kind: CueKind): void {
-  if (!audio || audio.state !== 'running') return;
+/** One cue's tones on the running output; nothing when the browser has not let the page make sound. */
+export function playCue(kind: CueKind): void {
+  const audio = runningAudio();
+  if (!audio) return;
   const startS = audio.currentTime + 0.02;
   for (const note of tunes[kind]) {
     const oscillator = audio.createOscillator();
@@ -128,7 +115,8 @@ export function useCues({
   const [flash, setFlash] = useState<Flash | null>(null);
 
   useEffect(() => {
-    const unlock = () => unlockAudio();
+    // Any tap or key press on the page may open the sound; the screen shows what the browser allowed.
+    const unlock = () => void turnOnAudioOutput();
     document.addEventListener('pointerdown', unlock, true);
     document.addEventListener('keydown', unlock, true);
     return () => {
@@ -155,7 +143,7 @@ export function useCues({
     if (!enabled || !before || before.stepId !== snapshot.stepId) return;
 
     const cue = (kind: CueKind, text: string, urgency: Urgency | null) => {
-      if (!muted) play(kind);
+      if (!muted) playCue(kind);
       vibrate(kind);
       setFlash({ kind, text, untilMs: Date.now() + 1600 });
       if (urgency) announce(text, urgency);
