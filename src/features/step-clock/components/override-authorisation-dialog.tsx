@@ -6,7 +6,7 @@ import { AlertIcon } from '../../../components/ui/icons';
 import { FieldError, TextField } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { serverNowMs } from '../api/clock-offset';
-import { newIdempotencyKey } from '../api/event-queue';
+import { newIdempotencyKey } from '../api/tap-store';
 import { recordSessionEvent } from '../api/record-session-event';
 import { stepClockQueries } from '../api/step-clock-queries';
 import { useStoredDraft } from '../hooks/use-stored-draft';
