@@ -116,7 +116,8 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
     for (const m of measurements) await fill(page, m);
     const preview = page.getByRole('region', { name: 'Live preview of the plan' });
     await expect.poll(() => preview.innerText()).toContain('2.04');
-    await checklistQuestions(page).first().getByLabel('Yes').click();
+    // A caution (an absolute contraindication opens no reason box: nothing unlocks it).
+    await checklistQuestions(page).filter({ hasText: 'photosensitising' }).getByLabel('Yes').click();
     await reasonBox(page).fill('Stopped the drug a week ago; checked with the patient');
     await page.getByLabel('Weight unit').selectOption('lb');
     await page.getByLabel('Weight unit').selectOption('kg');

@@ -42,8 +42,8 @@ async function advance(page: Page, ms: number) {
 async function signedOrder(body: Record<string, unknown>) {
   const draft = await clinician.post('/api/orders', { data: body });
   expect(draft.status(), await draft.text()).toBe(201);
-  const id = (await draft.json()).order.id as number;
-  expect((await clinician.post(`/api/orders/${id}/signature`, { data: { password: demoPassword, meaning: 'ordered' } })).status()).toBe(200);
+  const { id, version } = (await draft.json()).order as { id: number; version: number };
+  expect((await clinician.post(`/api/orders/${id}/signature`, { data: { password: demoPassword, meaning: 'ordered', version } })).status()).toBe(200);
   return id;
 }
 

@@ -38,7 +38,7 @@ describe('a weight typed in the wrong unit', () => {
           inputs: { height: { value: 183, unit: 'cm' }, weight: { value: 92, unit: 'kg' }, lesionGldUm: 2500, lensMagnification: 1 },
           checklist: checklistIds.map((id) => ({ id, answer: 'no' })),
         });
-        const signed = await post(`/api/orders/${order.id}/signature`, { password, meaning: 'ordered' });
+        const signed = await post(`/api/orders/${order.id}/signature`, { password, meaning: 'ordered', version: order.version });
         if (signed.order?.status !== 'signed') throw new Error(JSON.stringify(signed));
         return patient.id as number;
       },

@@ -5,6 +5,7 @@ import path from 'node:path';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadShippedProtocols, shippedProtocolsDir } from '../../server/protocols/load-shipped';
+import { ownerConnection } from '../support/database';
 import { createTestPatient, createTestPerson, cxlOrder, signOrder, signedInAgent, startTestApp, type TestContext } from '../support/api';
 
 let ctx: TestContext;
@@ -116,8 +117,20 @@ describe('an order and the version it was planned on', () => {
     expect(stored.kept).toMatch(/^[0-9a-f]{64}$/);
     expect(stored.kept).toBe(stored.version);
 
-    // What a change made around the database's own refusal looks like from the order's side.
-    await ctx.dataSource.query("UPDATE treatment_order SET protocol_sha256 = REPEAT('a', 64) WHERE id = ?", [signed.id]);
+    // What a change made around the database's own refusals looks like from the order's side: the
+    // owner takes the signed-order trigger away, changes the fingerprint, and puts the trigger back.
+    const owner = await ownerConnection(ctx.config);
+    try {
+      const [[trigger]] = (await owner.query('SHOW CREATE TRIGGER treatment_order_signed_kept')) as unknown as [Record<string, string>[]];
+      await owner.query('DROP TRIGGER treatment_order_signed_kept');
+      try {
+        await owner.query("UPDATE treatment_order SET protocol_sha256 = REPEAT('a', 64) WHERE id = ?", [signed.id]);
+      } finally {
+        await owner.query(trigger!['SQL Original Statement']!);
+      }
+    } finally {
+      await owner.end();
+    }
     const read = await clinicianAgent.get(`/api/orders/${signed.id}`);
     expect(read.status).toBe(409);
     expect(read.body.error.code).toBe('protocol_fingerprint_mismatch');
