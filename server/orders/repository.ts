@@ -114,7 +114,7 @@ export function createOrderRepository(dataSource: DataSource) {
       return { rows, total };
     },
 
-    listByStatus: (statuses: OrderStatus[], extra: { createdById?: number; signedById?: number } = {}) =>
+    listByStatus: (statuses: readonly OrderStatus[], extra: { createdById?: number; signedById?: number } = {}) =>
       orders.find({
         where: { status: In(statuses), ...(extra.createdById ? { createdById: extra.createdById } : {}), ...(extra.signedById ? { signedById: extra.signedById } : {}) },
         relations: withParts,

@@ -1,3 +1,4 @@
+import { stepClockStatuses } from '../../shared/orders/lifecycle';
 import type { OrderSummary } from '../../shared/schemas/orders';
 import type { OrderRepository } from './repository';
 import { toOrderSummary, type Actor } from './service';
@@ -24,7 +25,7 @@ export async function todayLists(orders: OrderRepository, actor: Actor): Promise
   }
   if (actor.roles.includes('nurse')) {
     // A running session stays on the list, so a nurse coming back to the tablet finds it.
-    lists.push({ id: 'nurse-ready', title: 'Ready for treatment or running', orders: summaries(await orders.listByStatus(['in-session', 'prepared', 'ready'])) });
+    lists.push({ id: 'nurse-ready', title: 'Ready for treatment or running', orders: summaries(await orders.listByStatus(stepClockStatuses)) });
   }
   return lists;
 }

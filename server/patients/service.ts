@@ -1,3 +1,4 @@
+import { treatmentStatuses } from '../../shared/orders/lifecycle';
 import type { WeightChangeRule } from '../../shared/orders/weight-change';
 import type { CreatePatient, PatientMeasurements, Patient as PatientDto } from '../../shared/schemas/patients';
 import type { AuditRepository } from '../audit/repository';
@@ -19,9 +20,6 @@ export function toPatientDto(p: Patient): PatientDto {
     emailConsent: p.emailConsent,
   };
 }
-
-/** Orders that stand for a treatment given or on its way (not drafts, returns or replaced revisions). */
-export const treatmentStatuses = ['signed', 'checked', 'prepared', 'ready', 'in-session', 'completed', 'stopped', 'reviewed'] as const;
 
 /** How many recorded measurements a new order shows beside its inputs. */
 const measurementsShown = 5;

@@ -1,6 +1,6 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { isSessionEnded, lateTapVerdict, sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
-import { readyForSessionStatuses, type OrderStatus } from '../../shared/schemas/orders';
+import { isSessionEnded, lateTapVerdict, readyForSessionStatuses, sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
+import type { OrderStatus } from '../../shared/schemas/orders';
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import { deriveDoseRecord, withdrawalsApplied } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';

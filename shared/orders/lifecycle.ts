@@ -26,17 +26,42 @@ export function canMoveOrder(from: OrderStatus, to: OrderStatus): boolean {
 /** Statuses an amendment may start from: signed, not yet in a session (its signing supersedes them). */
 export const amendableStatuses: readonly OrderStatus[] = (Object.keys(orderTransitions) as OrderStatus[]).filter((s) => orderTransitions[s].includes('superseded'));
 
+/** Statuses a move to `to` may start from. */
+const statusesMovingTo = (to: OrderStatus): readonly OrderStatus[] => (Object.keys(orderTransitions) as OrderStatus[]).filter((s) => orderTransitions[s].includes(to));
+
+/** Statuses that wait for the pharmacist's dose check (a match moves them to checked). */
+export const doseCheckStatuses: readonly OrderStatus[] = statusesMovingTo('checked');
+/** Statuses that wait for the preparation to be recorded. */
+export const preparationStatuses: readonly OrderStatus[] = statusesMovingTo('prepared');
+/** Statuses in which the nurse may start the session. */
+export const readyForSessionStatuses: readonly OrderStatus[] = statusesMovingTo('in-session');
+
 /** Statuses in which a session is running. */
 export const sessionRunningStatuses: readonly OrderStatus[] = ['in-session'];
 /** Statuses of an order whose session has ended, reviewed or not. */
 export const sessionEndedStatuses: readonly OrderStatus[] = ['completed', 'stopped', 'reviewed'];
+/** Statuses of an order whose session has started: it has (or had) a session record. */
+export const sessionStartedStatuses: readonly OrderStatus[] = [...sessionRunningStatuses, ...sessionEndedStatuses];
 /**
  * Statuses that take session events other than the start: a running session, and an ended one,
  * because a tablet's offline queue may deliver taps made before the end after it.
  */
-export const sessionEventStatuses: readonly OrderStatus[] = [...sessionRunningStatuses, ...sessionEndedStatuses];
+export const sessionEventStatuses: readonly OrderStatus[] = sessionStartedStatuses;
+/** Statuses in which the step clock opens for the nurse: before the session, and to go back to one that runs. */
+export const stepClockStatuses: readonly OrderStatus[] = [...readyForSessionStatuses, ...sessionRunningStatuses];
 
+/**
+ * Statuses that count as a treatment of the eye (the retreatment interval and the patient's
+ * history): signed and standing. A draft, an order sent back and a replaced revision do not.
+ */
+export const treatmentStatuses = ['signed', 'checked', 'prepared', 'ready', 'in-session', 'completed', 'stopped', 'reviewed'] as const satisfies readonly OrderStatus[];
+
+export const awaitsDoseCheck = (status: OrderStatus) => doseCheckStatuses.includes(status);
+export const awaitsPreparation = (status: OrderStatus) => preparationStatuses.includes(status);
+export const isSessionRunning = (status: OrderStatus) => sessionRunningStatuses.includes(status);
 export const isSessionEnded = (status: OrderStatus) => sessionEndedStatuses.includes(status);
+export const hasSessionStarted = (status: OrderStatus) => sessionStartedStatuses.includes(status);
+export const isTreatment = (status: OrderStatus) => (treatmentStatuses as readonly OrderStatus[]).includes(status);
 
 /**
  * The status an order should have once its deviations' review stands as given. A running session

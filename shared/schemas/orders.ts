@@ -22,9 +22,6 @@ export const orderStatuses = [
 ] as const;
 export type OrderStatus = (typeof orderStatuses)[number];
 
-/** Statuses in which the nurse may start the session. */
-export const readyForSessionStatuses: readonly OrderStatus[] = ['prepared', 'ready'];
-
 const reason = (field: string) =>
   z.string({ error: `${field} is required` }).trim().min(5, `${field} must be 5 to 500 characters`).max(500, `${field} must be 5 to 500 characters`);
 

@@ -1,5 +1,23 @@
 import { describe, expect, it } from 'vitest';
-import { amendableStatuses, canMoveOrder, orderTransitions, statusAfterLateEvent, statusAfterReview } from '../../shared/orders/lifecycle';
+import {
+  amendableStatuses,
+  awaitsDoseCheck,
+  awaitsPreparation,
+  canMoveOrder,
+  doseCheckStatuses,
+  hasSessionStarted,
+  isSessionEnded,
+  isSessionRunning,
+  isTreatment,
+  orderTransitions,
+  preparationStatuses,
+  readyForSessionStatuses,
+  sessionEventStatuses,
+  statusAfterLateEvent,
+  statusAfterReview,
+  stepClockStatuses,
+  treatmentStatuses,
+} from '../../shared/orders/lifecycle';
 import { orderStatuses } from '../../shared/schemas/orders';
 
 describe('the order lifecycle', () => {
@@ -33,5 +51,30 @@ describe('the order lifecycle', () => {
     expect(statusAfterLateEvent('reviewed', { sessionOutcome: 'completed', openDeviations: 1 })).toBe('completed');
     expect(statusAfterLateEvent('reviewed', { sessionOutcome: 'completed', openDeviations: 0 })).toBe('reviewed');
     expect(statusAfterLateEvent('completed', { sessionOutcome: 'completed', openDeviations: 0 })).toBe('completed');
+  });
+
+  it('only a signed order waits for the dose check, and only a checked one for the preparation', () => {
+    expect(doseCheckStatuses).toEqual(['signed']);
+    expect(preparationStatuses).toEqual(['checked']);
+    expect(orderStatuses.filter(awaitsDoseCheck)).toEqual(['signed']);
+    expect(orderStatuses.filter(awaitsPreparation)).toEqual(['checked']);
+  });
+
+  it('the session starts from a prepared PDT order or a ready CXL order, and the step clock also opens while it runs', () => {
+    expect([...readyForSessionStatuses].sort()).toEqual(['prepared', 'ready']);
+    expect([...stepClockStatuses].sort()).toEqual(['in-session', 'prepared', 'ready']);
+  });
+
+  it('a session is running only in session; it has started once running or ended, and ended ones take late taps', () => {
+    expect(orderStatuses.filter(isSessionRunning)).toEqual(['in-session']);
+    expect(orderStatuses.filter(isSessionEnded).sort()).toEqual(['completed', 'reviewed', 'stopped']);
+    expect(orderStatuses.filter(hasSessionStarted).sort()).toEqual(['completed', 'in-session', 'reviewed', 'stopped']);
+    expect([...sessionEventStatuses].sort()).toEqual(orderStatuses.filter(hasSessionStarted).sort());
+    expect(orderStatuses.filter((s) => isSessionRunning(s) && isSessionEnded(s))).toEqual([]);
+  });
+
+  it('a draft, an order sent back and a replaced revision are not treatments of the eye; every other status is', () => {
+    expect(orderStatuses.filter((s) => !isTreatment(s)).sort()).toEqual(['draft', 'returned', 'superseded']);
+    expect([...treatmentStatuses].sort()).toEqual(orderStatuses.filter(isTreatment).sort());
   });
 });

@@ -1,10 +1,10 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, type RefObject } from 'react';
-import { canReprepare } from '../../../../shared/orders/lifecycle';
+import { awaitsDoseCheck, awaitsPreparation, canReprepare } from '../../../../shared/orders/lifecycle';
 import type { OrderDetail, OrderStatus } from '../../../../shared/schemas/orders';
 import { Button, LinkButton } from '../../../components/ui/button';
 import { AlertIcon, ArrowLeftIcon, CheckCircleIcon, InfoIcon, LockIcon, ReloadIcon, TurnBackIcon } from '../../../components/ui/icons';
-import { orderStatusWords } from '../../../components/ui/order-status-label';
+import { orderStatusWords } from '../../../components/ui/order-status-words';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
@@ -155,7 +155,7 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
     );
   }
 
-  if (order.status === 'signed' && order.signedBy?.id === userId) {
+  if (awaitsDoseCheck(order.status) && order.signedBy?.id === userId) {
     return (
       <StatusPanel icon={<LockIcon className="size-6" />} title="You signed this order, so someone else must check it">
         <p>The dose check is independent only when it is done by a pharmacist who did not sign the order.</p>
@@ -163,7 +163,7 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
     );
   }
 
-  if (order.status === 'signed' && order.planWithheld) {
+  if (awaitsDoseCheck(order.status) && order.planWithheld) {
     return (
       <>
         <FiguresHiddenNote />
@@ -220,7 +220,7 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
     );
   }
 
-  if (order.status === 'checked') {
+  if (awaitsPreparation(order.status)) {
     return (
       <>
         <CheckOutcome order={order} plan={plan} protocol={protocol} headingRef={movedToRef} />

@@ -1,4 +1,5 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import { isSessionRunning } from '../../../../shared/orders/lifecycle';
 import type { OrderListQuery } from '../../../../shared/schemas/orders';
 import { findPatients, getPatient } from './find-patients';
 import { getOrder } from './get-order';
@@ -30,7 +31,7 @@ export const orderQueries = {
     queryOptions({
       queryKey: [...orderQueries.details(), id, 'session'] as const,
       queryFn: ({ signal }) => getOrderSession(id, { signal }),
-      refetchInterval: (query) => (query.state.data?.status === 'in-session' ? 10_000 : false),
+      refetchInterval: (query) => (query.state.data && isSessionRunning(query.state.data.status) ? 10_000 : false),
     }),
 
   /** What the order form reads from other parts of the API, kept under this feature's keys. */

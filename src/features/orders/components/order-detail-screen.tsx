@@ -3,7 +3,7 @@ import { useEffect, useState } from 'react';
 import { flushSync } from 'react-dom';
 import { Link, useLocation } from 'react-router-dom';
 import { signatureProblems } from '../../../../shared/orders/readiness';
-import type { OrderDetail, OrderStatus } from '../../../../shared/schemas/orders';
+import type { OrderDetail } from '../../../../shared/schemas/orders';
 import { Alert } from '../../../components/ui/alert';
 import { Button, LinkButton } from '../../../components/ui/button';
 import {
@@ -27,9 +27,10 @@ import { orderQueries } from '../api/order-queries';
 import { AttachmentsPanel } from './attachments-panel';
 import { DoseRecordSection } from './dose-record-section';
 import { ChecklistAnswers, OrderFacts, OrderInputs, OrderReasons, PharmacyRecord } from './order-record-sections';
-import { OrderStatusBadge } from './order-status-badge';
-import { amendableStatuses } from '../../../../shared/orders/lifecycle';
-import { eyeWords, fieldWords, kindWords, statusMeanings } from './order-words';
+import { OrderStatusBadge } from '../../../components/ui/order-status-badge';
+import { orderStatusMeaning } from '../../../components/ui/order-status-words';
+import { amendableStatuses, awaitsDoseCheck, hasSessionStarted, isSessionEnded, isSessionRunning, stepClockStatuses } from '../../../../shared/orders/lifecycle';
+import { eyeWords, fieldWords, kindWords } from './order-words';
 import { PlanFigures, PlanWarnings, PlanWorking } from './plan-view';
 import { printCss, PrintFrame } from '../../../components/ui/print-frame';
 import { SessionPanel } from './session-panel';
@@ -44,17 +45,10 @@ type OrderDetailScreenProps = {
   canRunSessions: boolean;
 };
 
-/** Statuses in which the nurse opens the step clock: before the session, and to go back to one that runs. */
-const stepClockStatuses: readonly OrderStatus[] = ['prepared', 'ready', 'in-session'];
-/** Statuses that have (or had) a session with a record. */
-const sessionStatuses: readonly OrderStatus[] = ['in-session', 'completed', 'stopped', 'reviewed'];
-/** Statuses after the session has ended: the patient can be discharged. */
-const endedStatuses: readonly OrderStatus[] = ['completed', 'stopped', 'reviewed'];
-
 export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDetailScreenProps) {
   const queryClient = useQueryClient();
   const order = useQuery(orderQueries.detail(orderId));
-  const hasSession = order.data !== undefined && sessionStatuses.includes(order.data.status);
+  const hasSession = order.data !== undefined && hasSessionStarted(order.data.status);
   const session = useQuery({ ...orderQueries.session(orderId), enabled: hasSession });
   // Printing only the dose record hides the rest of the order on paper; a plain print shows it all.
   const [printPart, setPrintPart] = useState<'dose-record' | null>(null);
@@ -147,7 +141,8 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
   /** Parts that stay off paper when only the dose record is printed. */
   const notInDoseRecord = printPart === 'dose-record' ? 'print:hidden' : '';
   const sessionRecord = session.data?.record ?? null;
-  const showsDischarge = endedStatuses.includes(detail.status) && sessionRecord !== null && sessionRecord.outcome !== 'not-started';
+  // Once the session has ended the patient can be discharged.
+  const showsDischarge = isSessionEnded(detail.status) && sessionRecord !== null && sessionRecord.outcome !== 'not-started';
 
   const describePath = (path: string) => {
     const [head, ...rest] = path.split('.');
@@ -216,7 +211,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
                   Open step clock
                 </LinkButton>
               )}
-              {!canRunSessions && detail.status === 'in-session' && (
+              {!canRunSessions && isSessionRunning(detail.status) && (
                 <LinkButton variant="secondary" to={paths.stepClock.getHref(detail.id)} icon={<ClockIcon />}>
                   Watch session
                 </LinkButton>
@@ -282,7 +277,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
           <div className="w-full border-t border-paper-200 pt-3 sm:w-auto sm:border-0 sm:pt-0">
             <p className="text-sm text-paper-600">Status</p>
             <OrderStatusBadge status={detail.status} size="lg" />
-            <p className="mt-1 max-w-xs text-sm text-paper-700">{statusMeanings[detail.status]}</p>
+            <p className="mt-1 max-w-xs text-sm text-paper-700">{orderStatusMeaning(detail.status)}</p>
           </div>
         </section>
 
@@ -371,7 +366,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
           onDismiss={() => setSigning(false)}
           onSigned={(signed: OrderDetail) => {
             setSigning(false);
-            setOutcome(`Order ${signed.id} is signed. ${signed.status === 'signed' ? 'It now waits for the pharmacist’s dose check.' : 'It is ready for the session.'}`);
+            setOutcome(`Order ${signed.id} is signed. ${awaitsDoseCheck(signed.status) ? 'It now waits for the pharmacist’s dose check.' : 'It is ready for the session.'}`);
           }}
         />
       )}

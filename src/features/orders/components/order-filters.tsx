@@ -3,8 +3,8 @@ import { orderStatuses, type OrderListQuery } from '../../../../shared/schemas/o
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { orderQueries } from '../api/order-queries';
-import { statusWords } from './order-words';
 import { SelectField } from '../../../components/ui/select-field';
+import { orderStatusWords } from '../../../components/ui/order-status-words';
 
 type OrderFiltersProps = {
   query: OrderListQuery;
@@ -26,7 +26,7 @@ export function OrderFilters({ query, filtered, onChange }: OrderFiltersProps) {
         <option value="">Any status</option>
         {orderStatuses.map((status) => (
           <option key={status} value={status}>
-            {statusWords[status]}
+            {orderStatusWords(status)}
           </option>
         ))}
       </SelectField>

@@ -10,7 +10,8 @@ import { orderQueries } from '../api/order-queries';
 import { OrderForm } from './order-form';
 import { emptyOrderForm, orderToForm, type OrderFormMode } from './order-form-values';
 import { amendableStatuses } from '../../../../shared/orders/lifecycle';
-import { eyeWords, statusWords } from './order-words';
+import { eyeWords } from './order-words';
+import { orderStatusWords } from '../../../components/ui/order-status-words';
 
 function Failed({ title, error, onRetry, busy }: { title: string; error: unknown; onRetry: () => void; busy: boolean }) {
   const missing = isApiRequestError(error) && error.status === 404;
@@ -84,7 +85,7 @@ export function ChangeOrderScreen({ orderId, mode }: { orderId: number; mode: Ex
         actions={<LinkButton to={paths.order.getHref(orderId)}>Open the order</LinkButton>}
       >
         <p>
-          It is {statusWords[detail.status].toLowerCase()}.{' '}
+          It is {orderStatusWords(detail.status).toLowerCase()}.{' '}
           {mode === 'edit'
             ? 'A signed order is amended instead; the signed revision stays readable.'
             : detail.nextRevisionId !== null

@@ -3,7 +3,7 @@ import { createColumnHelper } from '@tanstack/react-table';
 import type { OrderListQuery, OrderSummary } from '../../../../shared/schemas/orders';
 import { PagedTable, type PagedTableFeatures } from '../../../components/ui/paged-table';
 import { paths } from '../../../config/paths';
-import { OrderStatusBadge } from './order-status-badge';
+import { OrderStatusBadge } from '../../../components/ui/order-status-badge';
 import { eyeWords } from './order-words';
 import { formatUnitDateTime } from './unit-dates';
 

@@ -2,6 +2,7 @@ import type { UseQueryResult } from '@tanstack/react-query';
 import { Button } from '../../../components/ui/button';
 import { AlertIcon, CheckCircleIcon, CrossCircleIcon, HourglassIcon, ReloadIcon } from '../../../components/ui/icons';
 import { describeError } from '../../../lib/api-client';
+import { isSessionRunning } from '../../../../shared/orders/lifecycle';
 import type { OrderSession } from '../api/order-response-schemas';
 import { DeviationSeverityLabel } from './deviation-severity-label';
 import { deviationSeverityOrder, deviationSeverityWords, sessionOutcomeWords } from './session-words';
@@ -44,7 +45,7 @@ export function SessionPanel({ session }: { session: UseQueryResult<OrderSession
 
   const { record, deviations, status } = session.data;
   if (!record || record.outcome === 'not-started') return null;
-  const live = status === 'in-session';
+  const live = isSessionRunning(status);
   const OutcomeIcon = outcomeIcons[record.outcome];
   const sorted = [...deviations].sort((a, b) => deviationSeverityOrder.indexOf(a.severity) - deviationSeverityOrder.indexOf(b.severity));
 

@@ -2,14 +2,15 @@ import { Link } from 'react-router-dom';
 import type { Eye } from '../../../../shared/schemas/patients';
 import { paths } from '../../../config/paths';
 import type { Treatment } from '../api/patient-response-schemas';
-import { TreatmentStatus } from './treatment-status';
+import { OrderStatusLabel } from '../../../components/ui/order-status-label';
+import { isTreatment } from '../../../../shared/orders/lifecycle';
 import { formatUnitDateTime } from './unit-dates';
 
 const kindWords = { pdt: 'Photodynamic therapy', cxl: 'Corneal cross-linking' } as const;
 
 function daysText(treatment: Treatment): string {
   if (treatment.daysSincePreviousSameKind === null) {
-    return treatment.status === 'draft' || treatment.status === 'returned' || treatment.status === 'superseded' ? 'Not counted (not a treatment)' : 'First of its kind on this eye';
+    return isTreatment(treatment.status) ? 'First of its kind on this eye' : 'Not counted (not a treatment)';
   }
   const days = treatment.daysSincePreviousSameKind;
   return `${days} ${days === 1 ? 'day' : 'days'}`;
@@ -68,7 +69,7 @@ export function EyeHistory({ eye, treatments }: { eye: Eye; treatments: Treatmen
                     </span>
                   </td>
                   <td className="px-3 py-3">
-                    <TreatmentStatus status={t.status} />
+                    <OrderStatusLabel status={t.status} wording="short" />
                   </td>
                   <td className="px-3 py-3 pr-5">{daysText(t)}</td>
                 </tr>

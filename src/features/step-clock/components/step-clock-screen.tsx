@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useId, useMemo, useState } from 'react';
-import { readyForSessionStatuses } from '../../../../shared/schemas/orders';
+import { readyForSessionStatuses } from '../../../../shared/orders/lifecycle';
 import { sessionClock, type SessionClock } from '../../../../shared/session/session-clock';
 import { preTreatmentChecks } from '../../../../shared/session/session-events';
 import { Button, LinkButton } from '../../../components/ui/button';
