@@ -98,8 +98,8 @@ describe('a weight typed in the wrong unit', () => {
     expect(dialogText).toContain('92 lb (41.7 kg)');
     expect(dialogText).toContain('12.5 kg/m²');
     expect(dialogText).toMatch(/Verteporfin dose\s*8\.76 mg/);
-    // 8.76 mg ÷ 2 mg/mL (review table, Drug Discov Today 2008) = 4.38 → 4.4 mL at the protocol's 0.1 mL step.
-    expect(dialogText).toMatch(/Drug volume\s*4\.4 mL/);
+    // 8.76 mg ÷ 2 mg/mL (review table, Drug Discov Today 2008) = 4.38 mL, drawn at the 0.01 mL syringe graduation of version 2 (common practice).
+    expect(dialogText).toMatch(/Drug volume\s*4\.38 mL/);
     expect(dialogText).not.toContain('The server will refuse the signature');
     expect(await accessibilityViolations(page)).toEqual([]);
     await dialog.getByLabel('Your password').fill(demoPassword);
