@@ -512,13 +512,15 @@ describe('the bedside step clock', () => {
     await allStored(page);
     const storedBefore = (await sessionOf(id)).events.length;
 
-    // The server cannot be reached for taps (sign-out itself still gets through).
-    await page.route('**/session-events', (route) => route.abort());
+    // The server cannot be reached for taps (sign-out itself still gets through). On the context,
+    // not the page: once the service worker controls the page, a page route no longer sees what
+    // passes through the worker, and the tap would reach the server.
+    await page.context().route('**/session-events', (route) => route.abort());
     await press(page, 'Start preparation');
     await page.getByText('Unsent: 1').waitFor();
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
-    await page.unroute('**/session-events');
+    await page.context().unroute('**/session-events');
     // Pre-treatment ticks and notes (kept drafts) went with the session; the tap stays, under its nurse's id.
     expect(await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')))).toEqual([]);
     const nurse = await nurseId();
