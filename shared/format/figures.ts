@@ -35,12 +35,13 @@ export function formatQuantity(value: number | null | undefined, unit: string, m
 /**
  * How a duration reads:
  * - 'clock': the step clock's digits, "00:59", "01:23", "30:00", "1:02:03";
+ * - 'hours-clock': a beyond-use countdown, hours always shown, "04:00:00", "00:01:23";
  * - 'words': records, sheets and e-mails, "59 s", "1 min 23 s", "30 min", "1 h 2 min 3 s";
  * - 'seconds-and-words': a planned time that must be read both ways, "59 s", "83 s (1 min 23 s)",
  *   "1800 s (30 min)" (the seconds keep up to 2 decimals; the words are whole seconds);
  * - 'spoken': the step clock's words for a screen reader, "1 minute 23 seconds", "1 hour".
  */
-export type DurationStyle = 'clock' | 'words' | 'seconds-and-words' | 'spoken';
+export type DurationStyle = 'clock' | 'hours-clock' | 'words' | 'seconds-and-words' | 'spoken';
 
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 
@@ -66,6 +67,7 @@ export function formatDuration(seconds: number | null | undefined, style: Durati
   const whole = Math.max(0, wholeSeconds(seconds, rounding));
   const parts = Duration.fromObject({ seconds: whole }).shiftTo('hours', 'minutes', 'seconds');
   if (style === 'clock') return parts.toFormat(parts.hours > 0 ? 'h:mm:ss' : 'mm:ss');
+  if (style === 'hours-clock') return parts.toFormat('hh:mm:ss');
   if (style === 'spoken') {
     const spoken = [parts.hours ? plural(parts.hours, 'hour') : '', parts.minutes ? plural(parts.minutes, 'minute') : '', parts.seconds || whole === 0 ? plural(parts.seconds, 'second') : ''];
     return spoken.filter(Boolean).join(' ');

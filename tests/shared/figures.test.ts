@@ -25,6 +25,20 @@ describe('a duration on the step clock', () => {
   });
 });
 
+describe('a beyond-use countdown', () => {
+  it.each([
+    [0, '00:00:00'],
+    [83, '00:01:23'],
+    [14400, '04:00:00'],
+  ])('%d s reads %s', (seconds, text) => {
+    expect(formatDuration(seconds, 'hours-clock')).toBe(text);
+  });
+
+  it('rounds down, as the countdown always has', () => {
+    expect(formatDuration(14399.9, 'hours-clock', { rounding: 'down' })).toBe('03:59:59');
+  });
+});
+
 describe('a duration spoken by a screen reader on the step clock', () => {
   it.each([
     [0, '0 seconds'],
@@ -64,7 +78,7 @@ describe('a duration in words, as records, sheets and e-mails print it', () => {
   });
 
   it('a negative, missing or non-numeric duration prints as a dash, never as 0 or "NaN"', () => {
-    for (const style of ['clock', 'words', 'seconds-and-words', 'spoken'] as const) {
+    for (const style of ['clock', 'hours-clock', 'words', 'seconds-and-words', 'spoken'] as const) {
       expect(formatDuration(-1, style)).toBe('—');
       expect(formatDuration(Number.NaN, style)).toBe('—');
       expect(formatDuration(Number.POSITIVE_INFINITY, style)).toBe('—');
