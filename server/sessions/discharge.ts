@@ -1,5 +1,5 @@
-import { DateTime } from 'luxon';
 import type { DataSource } from 'typeorm';
+import { formatUnitTime } from '../../shared/format/figures';
 import { answeredCautions } from '../../shared/orders/readiness';
 import { lightPrecautionEnd, precautionStartFor } from '../../shared/session/light-precaution';
 import type { AuditRepository } from '../audit/repository';
@@ -20,7 +20,8 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
     const record = stored.record;
     const definition = order.protocolVersion.definition;
     const zone = deps.unitTimeZone;
-    const local = (iso: string | null | undefined) => (iso ? DateTime.fromISO(iso).setZone(zone).toFormat("cccc d LLLL yyyy, HH:mm (ZZZZ)") : null);
+    // Written as the printed sheet and the e-mail write it ("…, 14:05 WET"), no longer "(WET)".
+    const local = (iso: string | null | undefined) => (iso ? formatUnitTime(iso, zone, 'sheet') : null);
     // A PDT sheet always carries the precaution: from the infusion start, or with no start on
     // record from the latest plausible time, with a note saying so.
     const start = definition.drug && record.kind === 'pdt' ? precautionStartFor(record, new Date().toISOString()) : null;

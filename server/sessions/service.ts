@@ -1,4 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
+import { formatUnitTime } from '../../shared/format/figures';
 import { isSessionEnded, lateTapVerdict, readyForSessionStatuses, sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
 import type { OrderStatus } from '../../shared/schemas/orders';
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
@@ -47,8 +48,6 @@ interface Authoriser {
   name: string;
 }
 
-const wardTime = (ms: number) => `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
-
 type SessionOrder = NonNullable<Awaited<ReturnType<OrderRepository['lockForSession']>>> & { definition: ProtocolDefinition };
 
 export function createSessionService(deps: {
@@ -67,6 +66,8 @@ export function createSessionService(deps: {
 }) {
   const { dataSource, orders, sessions, users, audit } = deps;
   const now = deps.now ?? Date.now;
+  // Refusals name times as the ward clock shows them, with the zone's short name ("…, 14:05 WET").
+  const wardTime = (ms: number) => formatUnitTime(new Date(ms).toISOString(), deps.unitTimeZone, 'sheet');
 
   /** What the session code needs of an order: its row (locked when in a transaction) and its protocol. */
   async function sessionOrder(manager: EntityManager, orderId: number): Promise<SessionOrder> {

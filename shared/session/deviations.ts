@@ -1,4 +1,5 @@
 import { formatNumber, roundToStep } from '../engine/rounding';
+import { formatDuration } from '../format/figures';
 import type { ProtocolVersion } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
 import type { ChecklistAnswer } from '../schemas/orders';
@@ -25,19 +26,15 @@ function outside(actual: number, expected: number, tolerance: number): boolean {
   return Math.abs(actual - expected) > tolerance + slack;
 }
 
-/** "83 s", "10 min 59 s", "4 h 0 min 1 s": durations as a nurse reads them off a clock. */
+/**
+ * "83 s", "10 min 59 s", "4 h 1 s": durations as the records and sheets write them (shared/format),
+ * with a sign for an early figure and a tenth of a second under a minute.
+ */
 export function durationText(seconds: number): string {
   const sign = seconds < 0 ? '−' : '';
   const abs = Math.abs(seconds);
   if (abs < 60) return `${sign}${formatNumber(roundToStep(abs, 0.1))} s`;
-  const whole = Math.round(abs);
-  const h = Math.floor(whole / 3600);
-  const min = Math.floor((whole % 3600) / 60);
-  const s = whole % 60;
-  const parts = h > 0 ? [`${h} h`] : [];
-  if (h === 0 || min > 0 || s > 0) parts.push(`${min} min`);
-  if (s > 0) parts.push(`${s} s`);
-  return sign + parts.join(' ');
+  return sign + formatDuration(abs, 'words');
 }
 
 /** Light times read in seconds, as the device shows them, up to 10 min. */

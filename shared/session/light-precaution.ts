@@ -1,4 +1,5 @@
 import { DateTime } from 'luxon';
+import { formatUnitTime } from '../format/figures';
 
 export interface LightPrecautionEndInput {
   /** ISO 8601 date-time with offset (the infusion's start as recorded). */
@@ -20,17 +21,6 @@ export interface LightPrecautionEnd {
 const msPerHour = 3_600_000;
 
 /**
- * A short English name for the zone at that instant. British English names the European
- * zones (WET, WEST, CET); US English names the American ones (EST, PDT); otherwise an offset.
- */
-function zoneAbbreviation(at: DateTime): string {
-  const british = at.setLocale('en-GB').toFormat('ZZZZ');
-  if (!/^(GMT|UTC)[+−-]/.test(british)) return british;
-  const american = at.setLocale('en-US').toFormat('ZZZZ');
-  return /^(GMT|UTC)[+−-]/.test(american) ? british : american;
-}
-
-/**
  * When the photosensitivity precaution ends. The period is elapsed time counted from the
  * infusion start, not calendar time, so 48 h stays 48 real hours across a daylight-saving
  * change and the local clock time of the end may shift by an hour. Throws RangeError on an
@@ -46,7 +36,7 @@ export function lightPrecautionEnd({ infusionStartAt, hours, zone }: LightPrecau
   return {
     endUtc: endUtc.toISO() ?? '',
     endLocal: endLocal.toISO() ?? '',
-    endLocalText: `${endLocal.setLocale('en-GB').toFormat('cccc d LLLL yyyy, HH:mm')} ${zoneAbbreviation(endLocal)}`,
+    endLocalText: formatUnitTime(endUtc.toISO(), zone, 'sheet'),
   };
 }
 

@@ -1,4 +1,5 @@
 import { formatNumber, roundToStep } from '../../shared/engine/rounding';
+import { formatDuration } from '../../shared/format/figures';
 
 /** The record's figures for what was given (shared/session/dose-record.ts). */
 export interface GivenFigures {
@@ -21,11 +22,7 @@ export function volumeGivenText(record: GivenFigures): string | null {
   return `${formatNumber(roundToStep(record.volumeGivenMl, 0.1))} mL, ${how}`;
 }
 
-/** "4 min 10 s" for a receipt delay. */
+/** "4 min 10 s" for a receipt delay: the record's words for a duration. */
 export function delayText(seconds: number): string {
-  const whole = Math.round(seconds);
-  const h = Math.floor(whole / 3600);
-  const min = Math.floor((whole % 3600) / 60);
-  const s = whole % 60;
-  return [h > 0 ? `${h} h` : null, min > 0 || h > 0 ? `${min} min` : null, `${s} s`].filter(Boolean).join(' ');
+  return formatDuration(seconds, 'words');
 }

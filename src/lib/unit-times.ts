@@ -1,4 +1,5 @@
 import { DateTime } from 'luxon';
+import { formatDuration, formatQuantity } from '../../shared/format/figures';
 import { unitTimeZone } from '../config/unit-time-zone';
 
 /** A stored instant as the unit's wall clock, e.g. "7 Nov 2026, 10:05". */
@@ -24,28 +25,15 @@ export function formatUnitClock(iso: string | null | undefined): string {
 
 /** Seconds after a start as "+15:00", or "+1:02:05" past an hour. */
 export function formatOffset(seconds: number): string {
-  const sign = seconds < 0 ? '−' : '+';
-  const whole = Math.round(Math.abs(seconds));
-  const h = Math.floor(whole / 3600);
-  const m = Math.floor((whole % 3600) / 60);
-  const s = whole % 60;
-  const mmss = `${String(m).padStart(2, '0')}:${String(s).padStart(2, '0')}`;
-  return h > 0 ? `${sign}${h}:${mmss}` : `${sign}${mmss}`;
+  return `${seconds < 0 ? '−' : '+'}${formatDuration(Math.abs(seconds), 'clock')}`;
 }
 
-/** A duration in seconds as "10 min", "1 min 23 s" or "45 s". */
+/** A duration in seconds as "10 min", "1 min 23 s", "45 s" or "1 h 5 min". */
 export function formatDurationS(seconds: number | null | undefined): string {
-  if (seconds === null || seconds === undefined) return '—';
-  const whole = Math.round(seconds);
-  const m = Math.floor(whole / 60);
-  const s = whole % 60;
-  if (m === 0) return `${s} s`;
-  return s === 0 ? `${m} min` : `${m} min ${s} s`;
+  return formatDuration(seconds, 'words');
 }
 
 /** A figure with its unit, rounded for reading (the stored figure keeps its precision). */
 export function formatFigure(value: number | null | undefined, unit: string | null | undefined, digits = 2): string {
-  if (value === null || value === undefined) return '—';
-  const text = Number.isInteger(value) ? String(value) : String(Number(value.toFixed(digits)));
-  return unit ? `${text} ${unit}` : text;
+  return formatQuantity(value, unit ?? '', digits);
 }

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import supertest from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { formatUnitTime } from '../../shared/format/figures';
 import { createTestPatient, createTestPerson, cxlOrder, preparedPdtOrder, signOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
 
 // The session's safety gates (issue 11, gates 4–7), each tried as a hurried colleague would:
@@ -94,6 +95,9 @@ describe('gate 4: the order of events', () => {
 
     expect(refusedNaming(refused, 'clientTime')).toMatch(/beyond-use time/);
     expect(refused.body.error.code).toBe('beyond_use');
+    // The nurse reads the beyond-use time on the unit's clock (the test unit is in Europe/Lisbon), not in UTC.
+    expect(refused.body.error.message).toContain(`beyond-use time at ${formatUnitTime(order.preparation.beyondUseAt, 'Europe/Lisbon', 'sheet')}:`);
+    expect(refused.body.error.message).toMatch(/beyond-use time at [A-Z][a-z]+day \d{1,2} [A-Z][a-z]+ \d{4}, \d{2}:\d{2} WES?T:/);
     expect(await storedKeys(order.id)).toEqual([]);
     expect(await refusalAudits(order.id)).toEqual([expect.objectContaining({ rule: 'beyond_use', field: 'clientTime', type: 'session-started' })]);
 

@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestPatient, createTestPerson, cxlOrder, preparedPdtOrder, signOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
+import { formatUnitTime } from '../../shared/format/figures';
 
 type Agent = ReturnType<typeof supertest.agent>;
 let ctx: TestContext;
@@ -350,6 +351,11 @@ describe('discharge', () => {
     // 48 h in the demo protocol (sources differ: 48 h or 5 days — from memory); site policy decides.
     expect(Date.parse(res.body.discharge.precaution.endUtc) - Date.parse(infusionStart.clientTime)).toBe(48 * 3600_000);
     expect(res.body.discharge.precaution.endLocalText).toMatch(/\d{2}:\d{2}/);
+    // The session start is written as the sheet and the e-mail write times: the zone's short name, no brackets.
+    const sessionStartedAt = res.body.discharge.record.sessionStartedAt as string;
+    expect(res.body.discharge.startedLocal).toBe(formatUnitTime(sessionStartedAt, res.body.discharge.unitTimeZone, 'sheet'));
+    expect(res.body.discharge.startedLocal).toMatch(/^[A-Z][a-z]+day \d{1,2} [A-Z][a-z]+ \d{4}, \d{2}:\d{2} [A-Z]/);
+    expect(res.body.discharge.startedLocal).not.toContain('(');
     const email = await nurseAgent.post(`/api/orders/${order.id}/discharge-email`);
     expect(email.status).toBe(409);
     expect(email.body.error.code).toBe('no_email_consent');

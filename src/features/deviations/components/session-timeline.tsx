@@ -2,7 +2,7 @@ import { unitTimeZoneLabel } from '../../../config/unit-time-zone';
 import type { WithdrawnTap } from '../../../lib/session-record-schemas';
 import { eventWordsOf } from '../../../lib/session-event-words';
 import type { ProtocolSteps, StoredSessionEvent } from '../api/deviation-schemas';
-import { formatOffset, formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
+import { formatFigure, formatOffset, formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
 
 function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined) => string, byKey: Map<string, StoredSessionEvent>): string {
   switch (event.type) {
@@ -19,15 +19,15 @@ function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined)
     case 'drop-given':
       return `Drop given during: ${stepTitle(event.stepId)}`;
     case 'thickness-measured':
-      return `Thickness measured: ${event.thicknessUm ?? '?'} µm`;
+      return `Thickness measured: ${formatFigure(event.thicknessUm, 'µm')}`;
     case 'thickness-override':
       return `Thickness minimum overridden${event.authorisedByName ? `, authorised by ${event.authorisedByName}` : ''}: ${event.reason ?? 'no reason recorded'}`;
     case 'extravasation':
-      return `Extravasation${event.volumeInfusedMl !== undefined ? ` (${event.volumeInfusedMl} mL infused, read off the pump)` : ''}${event.note ? `: ${event.note}` : ''}`;
+      return `Extravasation${event.volumeInfusedMl !== undefined ? ` (${formatFigure(event.volumeInfusedMl, 'mL')} infused, read off the pump)` : ''}${event.note ? `: ${event.note}` : ''}`;
     case 'exposure-recorded':
-      return `Exposure on the laser entered: ${event.exposureS ?? '?'} s${event.energyJ !== undefined ? `, ${event.energyJ} J` : ''}`;
+      return `Exposure on the laser entered: ${formatFigure(event.exposureS, 's')}${event.energyJ !== undefined ? `, ${formatFigure(event.energyJ, 'J')}` : ''}`;
     case 'session-stopped':
-      return `Session stopped${event.volumeInfusedMl !== undefined ? ` (${event.volumeInfusedMl} mL infused, read off the pump)` : ''}: ${event.reason ?? 'no reason recorded'}`;
+      return `Session stopped${event.volumeInfusedMl !== undefined ? ` (${formatFigure(event.volumeInfusedMl, 'mL')} infused, read off the pump)` : ''}: ${event.reason ?? 'no reason recorded'}`;
     case 'session-completed':
       return 'Session completed';
     case 'tap-withdrawn': {

@@ -1,4 +1,5 @@
 import { DateTime } from 'luxon';
+import { zoneAbbreviation } from '../../../../shared/format/figures';
 import type { Discharge } from '../api/discharge-schemas';
 import { CxlAftercare } from './cxl-aftercare';
 import { LightPrecaution, PdtEyeAdvice } from './light-precaution';
@@ -15,7 +16,8 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
   const { unitName, unitTimeZone: zone, patient, order, protocol, record } = discharge;
   const fullName = `${patient.givenName} ${patient.familyName}`;
   const treatedOn = record.sessionStartedAt ? dayText(record.sessionStartedAt, zone) : null;
-  const printedAt = DateTime.now().setZone(zone).setLocale('en-GB').toFormat('d LLL yyyy, HH:mm ZZZZ');
+  const now = DateTime.now().setZone(zone).setLocale('en-GB');
+  const printedAt = `${now.toFormat('d LLL yyyy, HH:mm')} ${zoneAbbreviation(now)}`;
 
   const runningHead = (
     <p className="flex flex-wrap justify-between gap-x-4 border-b border-paper-950 pb-1 text-[9pt]">

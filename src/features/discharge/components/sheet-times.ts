@@ -1,4 +1,5 @@
 import { DateTime } from 'luxon';
+import { formatDuration, formatQuantity, formatUnitTime, zoneAbbreviation } from '../../../../shared/format/figures';
 
 /**
  * Times on the sheet are the unit's wall clock in the zone the server named, with the zone's
@@ -11,17 +12,17 @@ function inZone(iso: string, zone: string): DateTime | null {
 
 /** "10:06 WET" */
 export function clockText(iso: string, zone: string): string {
-  return inZone(iso, zone)?.toFormat('HH:mm ZZZZ') ?? iso;
+  return formatUnitTime(iso, zone, 'short');
 }
 
 /** "Thursday 26 November 2026" */
 export function dayText(iso: string, zone: string): string {
-  return inZone(iso, zone)?.toFormat('cccc d LLLL yyyy') ?? iso;
+  return formatUnitTime(iso, zone, 'day');
 }
 
 /** "Thursday 26 November 2026, 10:06 WET" */
 export function dayAndClockText(iso: string, zone: string): string {
-  return inZone(iso, zone)?.toFormat('cccc d LLLL yyyy, HH:mm ZZZZ') ?? iso;
+  return formatUnitTime(iso, zone, 'sheet');
 }
 
 /** "10:06 to 10:16 WET", or with both days when the span crosses midnight. */
@@ -29,9 +30,10 @@ export function spanText(fromIso: string, toIso: string | null, zone: string): s
   const from = inZone(fromIso, zone);
   const to = toIso ? inZone(toIso, zone) : null;
   if (!from) return fromIso;
-  if (!to) return `from ${from.toFormat('HH:mm ZZZZ')}`;
-  if (!from.hasSame(to, 'day')) return `${from.toFormat('d LLL HH:mm ZZZZ')} to ${to.toFormat('d LLL HH:mm ZZZZ')}`;
-  return from.toFormat('ZZZZ') === to.toFormat('ZZZZ') ? `${from.toFormat('HH:mm')} to ${to.toFormat('HH:mm ZZZZ')}` : `${from.toFormat('HH:mm ZZZZ')} to ${to.toFormat('HH:mm ZZZZ')}`;
+  const zoned = (at: DateTime, format: string) => `${at.toFormat(format)} ${zoneAbbreviation(at)}`;
+  if (!to) return `from ${zoned(from, 'HH:mm')}`;
+  if (!from.hasSame(to, 'day')) return `${zoned(from, 'd LLL HH:mm')} to ${zoned(to, 'd LLL HH:mm')}`;
+  return zoneAbbreviation(from) === zoneAbbreviation(to) ? `${from.toFormat('HH:mm')} to ${zoned(to, 'HH:mm')}` : `${zoned(from, 'HH:mm')} to ${zoned(to, 'HH:mm')}`;
 }
 
 /** A calendar date (YYYY-MM-DD), e.g. "21 July 1961". */
@@ -40,19 +42,12 @@ export function birthDateText(date: string): string {
   return day.isValid ? day.toFormat('d LLLL yyyy') : date;
 }
 
-/** "10 min", "83 s", "1 min 23 s": a duration as a patient reads it. */
+/** "10 min", "59 s", "1 min 23 s": a duration as a patient reads it. */
 export function durationText(seconds: number): string {
-  const whole = Math.round(seconds);
-  if (whole < 60) return `${whole} s`;
-  const h = Math.floor(whole / 3600);
-  const min = Math.floor((whole % 3600) / 60);
-  const s = whole % 60;
-  return [h ? `${h} h` : '', min ? `${min} min` : '', s ? `${s} s` : ''].filter(Boolean).join(' ');
+  return formatDuration(seconds, 'words');
 }
 
-// No thousands separator: "3,800" reads as 3.8 in much of Europe.
-const plain = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 2, useGrouping: false });
-
+/** "83 s", "12.5 J/cm²": no thousands separator. */
 export function figureText(value: number, unit: string): string {
-  return `${plain.format(value)} ${unit}`;
+  return formatQuantity(value, unit);
 }

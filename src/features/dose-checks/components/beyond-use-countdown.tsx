@@ -1,3 +1,4 @@
+import { formatDuration } from '../../../../shared/format/figures';
 import { useEffect, useRef, useState } from 'react';
 import { CheckCircleIcon, CrossCircleIcon, HourglassIcon } from '../../../components/ui/icons';
 import { unitTimeZoneLabel } from '../../../config/unit-time-zone';
@@ -19,13 +20,9 @@ function stateOf(remainingMs: number): UseState {
   return remainingMs <= closingWindowMs ? 'closing' : 'usable';
 }
 
-/** hh:mm:ss from whole seconds, so 4 h reads 04:00:00. */
+/** hh:mm:ss from whole seconds, so 4 h reads 04:00:00; past the time, how long past. */
 export function clockText(totalMs: number): string {
-  const totalS = Math.floor(Math.abs(totalMs) / 1000);
-  const hours = Math.floor(totalS / 3600);
-  const minutes = Math.floor((totalS % 3600) / 60);
-  const seconds = totalS % 60;
-  return [hours, minutes, seconds].map((n) => String(n).padStart(2, '0')).join(':');
+  return formatDuration(Math.abs(totalMs) / 1000, 'hours-clock', { rounding: 'down' });
 }
 
 /**

@@ -1,4 +1,5 @@
 import { useId, useRef, useState, type FormEvent } from 'react';
+import { formatUnitDateTime } from '../../../lib/unit-times';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
 import { Button } from '../../../components/ui/button';
 import { FileDownloadIcon, PaperclipIcon, UploadIcon } from '../../../components/ui/icons';
@@ -6,7 +7,6 @@ import { FieldError } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { attachmentMaxBytes } from '../api/upload-attachment';
 import { useUploadAttachment } from '../hooks/use-upload-attachment';
-import { formatUnitDateTime } from './unit-dates';
 
 function sizeText(bytes: number): string {
   if (bytes < 1024) return `${bytes} bytes`;

@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { formatUnitClock, formatUnitDateTime } from '../../../lib/unit-times';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
 import { Button } from '../../../components/ui/button';
@@ -10,7 +11,6 @@ import type { GivenRecord, OrderSession } from '../api/order-response-schemas';
 import { DeviationSeverityLabel } from './deviation-severity-label';
 import { formatFigure, formatSeconds } from './plan-numbers';
 import { deviationSeverityOrder, sessionOutcomeWords } from './session-words';
-import { formatUnitClock, formatUnitDateTime } from './unit-dates';
 
 type Row = { label: string; planned: ReactNode; given: ReactNode };
 

@@ -1,8 +1,8 @@
 import { formatMeasureWithConversion } from '../../../../shared/engine/units';
+import { formatUnitDateTime } from '../../../lib/unit-times';
 import type { RecordedMeasurement } from '../../../../shared/schemas/patients';
 import { describeError } from '../../../lib/api-client';
 import type { useLastMeasurements } from '../hooks/use-last-measurements';
-import { formatUnitDateTime } from './unit-dates';
 
 type LastMeasurementsProps = {
   last: ReturnType<typeof useLastMeasurements>;

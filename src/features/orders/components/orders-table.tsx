@@ -1,11 +1,11 @@
 import { Link } from 'react-router-dom';
+import { formatUnitDateTime } from '../../../lib/unit-times';
 import { createColumnHelper } from '@tanstack/react-table';
 import type { OrderListQuery, OrderSummary } from '../../../../shared/schemas/orders';
 import { PagedTable, type PagedTableFeatures } from '../../../components/ui/paged-table';
 import { paths } from '../../../config/paths';
 import { OrderStatusBadge } from '../../../components/ui/order-status-badge';
 import { eyeWords } from './order-words';
-import { formatUnitDateTime } from './unit-dates';
 
 const helper = createColumnHelper<PagedTableFeatures, OrderSummary>();
 const sortKeys: readonly OrderListQuery['sort'][] = ['createdAt', 'status', 'protocol', 'patient'];

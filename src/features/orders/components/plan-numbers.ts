@@ -1,20 +1,14 @@
+import { formatDuration, formatPlainNumber } from '../../../../shared/format/figures';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
 
-// No thousands separator: "3,800" reads as 3.8 in much of Europe.
-const plain = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 6, useGrouping: false });
-
-/** A figure as printed in the plan: digits the protocol kept, nothing added, no trailing zeros. */
+/** A figure as printed in the plan: digits the protocol kept, nothing added, no trailing zeros, no grouping. */
 export function formatFigure(value: number): string {
-  return plain.format(value);
+  return formatPlainNumber(value, 6);
 }
 
 /** Seconds as "83 s (1 min 23 s)", so a time reads either way at a glance. */
 export function formatSeconds(seconds: number): string {
-  const whole = Math.round(seconds);
-  if (whole < 60) return `${formatFigure(seconds)} s`;
-  const minutes = Math.floor(whole / 60);
-  const rest = whole % 60;
-  return `${formatFigure(seconds)} s (${minutes} min${rest ? ` ${rest} s` : ''})`;
+  return formatDuration(seconds, 'seconds-and-words', { maxDecimals: 6 });
 }
 
 type Figure = { key: keyof DosePlan; label: string; unit: string; time?: boolean; main?: boolean; estimate?: boolean; signed?: boolean };

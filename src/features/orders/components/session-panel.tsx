@@ -6,7 +6,7 @@ import { isSessionRunning } from '../../../../shared/orders/lifecycle';
 import type { OrderSession } from '../api/order-response-schemas';
 import { DeviationSeverityLabel } from './deviation-severity-label';
 import { deviationSeverityOrder, deviationSeverityWords, sessionOutcomeWords } from './session-words';
-import { formatUnitClock, formatUnitDateTime } from './unit-dates';
+import { formatUnitClock, formatUnitDateTime } from '../../../lib/unit-times';
 
 const outcomeIcons = { 'not-started': HourglassIcon, 'in-progress': HourglassIcon, completed: CheckCircleIcon, stopped: CrossCircleIcon } as const;
 

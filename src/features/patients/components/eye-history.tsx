@@ -1,10 +1,10 @@
 import { Link } from 'react-router-dom';
+import { formatUnitDateTime } from '../../../lib/unit-times';
 import type { Eye } from '../../../../shared/schemas/patients';
 import { paths } from '../../../config/paths';
 import type { Treatment } from '../api/patient-response-schemas';
 import { OrderStatusLabel } from '../../../components/ui/order-status-label';
 import { isTreatment } from '../../../../shared/orders/lifecycle';
-import { formatUnitDateTime } from './unit-dates';
 
 const kindWords = { pdt: 'Photodynamic therapy', cxl: 'Corneal cross-linking' } as const;
 

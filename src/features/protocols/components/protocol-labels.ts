@@ -1,4 +1,5 @@
 import type { ProtocolKind } from '../../../../shared/protocol/protocol-schema';
+import { formatDuration, formatPlainNumber } from '../../../../shared/format/figures';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 import type { VersionOrigin } from '../api/protocol-response-schemas';
 
@@ -37,19 +38,17 @@ export function formatDate(isoDate: string): string {
   return Number.isNaN(date.getTime()) ? isoDate : dateOnly.format(date);
 }
 
-const plainNumber = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 10, useGrouping: false });
-
 /** Protocol figures are shown exactly as stored: no rounding, no grouping. */
 export function formatFigure(value: number): string {
-  return plainNumber.format(value);
+  return formatPlainNumber(value, 10);
 }
 
-/** Seconds with minutes beside them when that reads more easily ("600 s (10 min)"). */
+/**
+ * Seconds with minutes beside them from a minute up ("83 s (1 min 23 s)", "600 s (10 min)"), as the
+ * plan prints the same figures; protocol figures keep every stored digit.
+ */
 export function formatDurationS(seconds: number): string {
-  if (seconds < 120) return `${formatFigure(seconds)} s`;
-  const minutes = seconds / 60;
-  const minutesText = Number.isInteger(minutes) ? `${minutes} min` : `${Math.floor(minutes)} min ${formatFigure(seconds - Math.floor(minutes) * 60)} s`;
-  return `${formatFigure(seconds)} s (${minutesText})`;
+  return formatDuration(seconds, 'seconds-and-words', { maxDecimals: 10 });
 }
 
 /** The first 12 hexadecimal digits identify a version to a person; the full value is one click away. */

@@ -1,44 +1,28 @@
 import type { StepKind } from '../../../../shared/protocol/protocol-schema';
+import { formatDuration, formatPlainNumber } from '../../../../shared/format/figures';
 import { unitTimeZone } from '../../../config/unit-time-zone';
-
-function clockText(wholeS: number): string {
-  const hours = Math.floor(wholeS / 3600);
-  const minutes = Math.floor((wholeS % 3600) / 60);
-  const seconds = wholeS % 60;
-  const ss = String(seconds).padStart(2, '0');
-  return hours > 0 ? `${hours}:${String(minutes).padStart(2, '0')}:${ss}` : `${String(minutes).padStart(2, '0')}:${ss}`;
-}
 
 /**
  * Time left as mm:ss (h:mm:ss past an hour). Rounded up, so "00:00" shows only when the time is
  * really up and the display is never ahead of the truth by a whole second.
  */
 export function formatRemaining(seconds: number): string {
-  return clockText(Math.max(0, Math.ceil(seconds - 1e-6)));
+  return formatDuration(Math.max(0, seconds), 'clock', { rounding: 'up' });
 }
 
 /** Time gone by, rounded down: "00:01" after one whole second. */
 export function formatElapsed(seconds: number): string {
-  return clockText(Math.max(0, Math.floor(seconds + 1e-6)));
+  return formatDuration(Math.max(0, seconds), 'clock', { rounding: 'down' });
 }
 
 /** The same time in words for a screen reader: "1 minute 23 seconds". */
 export function spokenDuration(seconds: number, round: 'up' | 'down' = 'up'): string {
-  const whole = Math.max(0, round === 'up' ? Math.ceil(seconds - 1e-6) : Math.floor(seconds + 1e-6));
-  const hours = Math.floor(whole / 3600);
-  const minutes = Math.floor((whole % 3600) / 60);
-  const secs = whole % 60;
-  const parts = [
-    hours > 0 ? `${hours} hour${hours === 1 ? '' : 's'}` : null,
-    minutes > 0 ? `${minutes} minute${minutes === 1 ? '' : 's'}` : null,
-    secs > 0 || whole === 0 ? `${secs} second${secs === 1 ? '' : 's'}` : null,
-  ];
-  return parts.filter(Boolean).join(' ');
+  return formatDuration(Math.max(0, seconds), 'spoken', { rounding: round });
 }
 
-/** A figure with at most `digits` decimals, as people write it ("600", "49.8", "0.25"). */
+/** A figure with at most `digits` decimals, as people write it ("600", "49.8", "0.25", "1800": no grouping). */
 export function formatFigure(value: number, digits = 2): string {
-  return new Intl.NumberFormat('en-GB', { maximumFractionDigits: digits }).format(value);
+  return formatPlainNumber(value, digits);
 }
 
 // Made on first use, after the app has learnt the unit's zone from the server.

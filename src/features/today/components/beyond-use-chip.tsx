@@ -1,3 +1,4 @@
+import { formatDuration } from '../../../../shared/format/figures';
 import { useEffect, useRef, useState } from 'react';
 import { CheckCircleIcon, CrossCircleIcon, HourglassIcon } from '../../../components/ui/icons';
 import { useServerNowMs } from '../hooks/use-server-now';
@@ -12,8 +13,7 @@ const states = {
 } as const;
 
 function clockText(ms: number): string {
-  const totalS = Math.floor(Math.max(0, ms) / 1000);
-  return [Math.floor(totalS / 3600), Math.floor((totalS % 3600) / 60), totalS % 60].map((n) => String(n).padStart(2, '0')).join(':');
+  return formatDuration(Math.max(0, ms) / 1000, 'hours-clock', { rounding: 'down' });
 }
 
 type BeyondUseChipProps = {

@@ -1,0 +1,111 @@
+import { DateTime, Duration } from 'luxon';
+
+/**
+ * One formatter per kind of figure, so that the step clock, the records, the sheets, the e-mails
+ * and the exports print the same figure the same way. No I/O; both sides import it.
+ *
+ * A figure that is missing, not a number, or (for a duration) negative prints as "—": a record
+ * shows that something is absent rather than a made-up 0 or a thrown error on a printed sheet.
+ */
+export const noFigure = '—';
+
+// No thousands separator: "3,800" reads as 3.8 in much of Europe, and "1,800 s" must not appear.
+const plainNumbers = new Map<number, Intl.NumberFormat>();
+function plain(maxDecimals: number): Intl.NumberFormat {
+  let format = plainNumbers.get(maxDecimals);
+  if (!format) {
+    format = new Intl.NumberFormat('en-GB', { maximumFractionDigits: maxDecimals, useGrouping: false });
+    plainNumbers.set(maxDecimals, format);
+  }
+  return format;
+}
+
+/** A number as people write it: at most `maxDecimals` decimals, no trailing zeros, no grouping ("1800", "49.8"). */
+export function formatPlainNumber(value: number | null | undefined, maxDecimals = 2): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return noFigure;
+  return plain(maxDecimals).format(value);
+}
+
+/** A number with its unit: "1800 s", "12.5 J/cm²", "0.25 mL". An empty unit prints the number alone. */
+export function formatQuantity(value: number | null | undefined, unit: string, maxDecimals = 2): string {
+  const text = formatPlainNumber(value, maxDecimals);
+  return text === noFigure || unit === '' ? text : `${text} ${unit}`;
+}
+
+/**
+ * How a duration reads:
+ * - 'clock': the step clock's digits, "00:59", "01:23", "30:00", "1:02:03";
+ * - 'hours-clock': a beyond-use countdown, hours always shown, "04:00:00", "00:01:23";
+ * - 'words': records, sheets and e-mails, "59 s", "1 min 23 s", "30 min", "1 h 2 min 3 s";
+ * - 'seconds-and-words': a planned time that must be read both ways, "59 s", "83 s (1 min 23 s)",
+ *   "1800 s (30 min)" (the seconds keep up to 2 decimals; the words are whole seconds);
+ * - 'spoken': the step clock's words for a screen reader, "1 minute 23 seconds", "1 hour".
+ */
+export type DurationStyle = 'clock' | 'hours-clock' | 'words' | 'seconds-and-words' | 'spoken';
+
+const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+
+/** Whole seconds: 'nearest' for records; a count-down rounds 'up' and a count-up 'down' so neither runs ahead. */
+export type SecondsRounding = 'nearest' | 'up' | 'down';
+
+function wholeSeconds(seconds: number, rounding: SecondsRounding): number {
+  // The small allowance keeps 59.9999999 (a difference of two clock readings) from losing a second.
+  if (rounding === 'up') return Math.ceil(seconds - 1e-6);
+  if (rounding === 'down') return Math.floor(seconds + 1e-6);
+  return Math.round(seconds);
+}
+
+export interface DurationOptions {
+  /** Whole seconds for the clock and the words; 'nearest' unless said. */
+  rounding?: SecondsRounding;
+  /** Decimals the seconds keep in 'seconds-and-words' (2 unless said; a plan keeps the protocol's digits). */
+  maxDecimals?: number;
+}
+
+export function formatDuration(seconds: number | null | undefined, style: DurationStyle, { rounding = 'nearest', maxDecimals = 2 }: DurationOptions = {}): string {
+  if (seconds === null || seconds === undefined || !Number.isFinite(seconds) || seconds < 0) return noFigure;
+  const whole = Math.max(0, wholeSeconds(seconds, rounding));
+  const parts = Duration.fromObject({ seconds: whole }).shiftTo('hours', 'minutes', 'seconds');
+  if (style === 'clock') return parts.toFormat(parts.hours > 0 ? 'h:mm:ss' : 'mm:ss');
+  if (style === 'hours-clock') return parts.toFormat('hh:mm:ss');
+  if (style === 'spoken') {
+    const spoken = [parts.hours ? plural(parts.hours, 'hour') : '', parts.minutes ? plural(parts.minutes, 'minute') : '', parts.seconds || whole === 0 ? plural(parts.seconds, 'second') : ''];
+    return spoken.filter(Boolean).join(' ');
+  }
+  const words = [parts.hours ? `${parts.hours} h` : '', parts.minutes ? `${parts.minutes} min` : '', parts.seconds || whole === 0 ? `${parts.seconds} s` : ''].filter(Boolean).join(' ');
+  if (style === 'words') return words;
+  const exact = formatQuantity(seconds, 's', maxDecimals);
+  return whole < 60 ? exact : `${exact} (${words})`;
+}
+
+/**
+ * A short English name for the zone at that instant. British English names the European
+ * zones (WET, WEST, CET); US English names the American ones (EST, PDT); otherwise an offset
+ * such as "GMT+9".
+ */
+export function zoneAbbreviation(at: DateTime): string {
+  const british = at.setLocale('en-GB').toFormat('ZZZZ');
+  if (!/^(GMT|UTC)[+−-]/.test(british)) return british;
+  const american = at.setLocale('en-US').toFormat('ZZZZ');
+  return /^(GMT|UTC)[+−-]/.test(american) ? british : american;
+}
+
+/**
+ * How a moment on the unit's clock reads; every style but 'day' carries the zone's short name,
+ * because a patient may read the sheet after the clocks have changed:
+ * - 'sheet': "Thursday 3 December 2026, 14:05 WET" (discharge sheet, e-mails);
+ * - 'short': "14:05 WET";
+ * - 'day': "Thursday 3 December 2026".
+ */
+export type UnitTimeStyle = 'sheet' | 'short' | 'day';
+
+const unitTimeFormats: Record<Exclude<UnitTimeStyle, 'day'>, string> = { sheet: 'cccc d LLLL yyyy, HH:mm', short: 'HH:mm' };
+
+/** A stored instant (ISO 8601) on the clock of the unit's IANA zone; an unreadable instant prints as given. */
+export function formatUnitTime(iso: string | null | undefined, zone: string, style: UnitTimeStyle): string {
+  if (!iso) return noFigure;
+  const at = DateTime.fromISO(iso, { zone: 'utc' }).setZone(zone).setLocale('en-GB');
+  if (!at.isValid) return iso;
+  if (style === 'day') return at.toFormat('cccc d LLLL yyyy');
+  return `${at.toFormat(unitTimeFormats[style])} ${zoneAbbreviation(at)}`;
+}
