@@ -1,8 +1,9 @@
 import { randomUUID } from 'node:crypto';
-import { request, type APIRequestContext, type Page } from 'playwright-core';
+import type { APIRequestContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import { accessibilityViolations, startBrowserTest, type BrowserContext } from '../support/browser';
+import { allChecks, clockKit } from '../support/clock-kit';
 
 /*
  * The session gates (issue 11, gates 4, 6 and 7) as the nurse and the clinician meet them on the
@@ -15,29 +16,20 @@ let pharmacist: APIRequestContext;
 let nurseApi: APIRequestContext;
 let auditorApi: APIRequestContext;
 
+const { serverNowMs, advance, signedInApi, signedInPage, nursePage, seedEvents, sessionOf: readSession, allStored } = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
+
 beforeAll(async () => {
   ctx = await startBrowserTest();
-  const signedIn = async (email: string) => {
-    const api = await request.newContext({ baseURL: ctx.baseUrl, extraHTTPHeaders: { Origin: ctx.baseUrl } });
-    expect((await api.post('/api/auth/login', { data: { email, password: demoPassword } })).status()).toBe(200);
-    return api;
-  };
-  clinician = await signedIn('clinician@demo.luxtempo.example');
-  pharmacist = await signedIn('pharmacist@demo.luxtempo.example');
-  nurseApi = await signedIn('nurse@demo.luxtempo.example');
-  auditorApi = await signedIn('auditor@demo.luxtempo.example');
+  clinician = await signedInApi('clinician@demo.luxtempo.example');
+  pharmacist = await signedInApi('pharmacist@demo.luxtempo.example');
+  nurseApi = await signedInApi('nurse@demo.luxtempo.example');
+  auditorApi = await signedInApi('auditor@demo.luxtempo.example');
 });
 afterAll(async () => {
   await Promise.all([clinician?.dispose(), pharmacist?.dispose(), nurseApi?.dispose(), auditorApi?.dispose()]);
   await ctx?.close();
 });
 
-const serverNowMs = () => Date.now() + ctx.serverClock.offsetMs;
-
-async function advance(page: Page, ms: number) {
-  ctx.serverClock.offsetMs += ms;
-  await page.clock.fastForward(ms);
-}
 
 async function signedOrder(body: Record<string, unknown>) {
   const draft = await clinician.post('/api/orders', { data: body });
@@ -80,43 +72,7 @@ async function preparedPdtOrder(reconstitutedMinutesAgo: number) {
   return id;
 }
 
-const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true };
-
-/** Taps made earlier on the tablet, `secondsAgo` before the server's now. */
-async function seedEvents(orderId: number, taps: [secondsAgo: number, body: Record<string, unknown>][]) {
-  const nowMs = serverNowMs();
-  for (const [secondsAgo, body] of taps) {
-    const res = await nurseApi.post(`/api/orders/${orderId}/session-events`, { data: { idempotencyKey: randomUUID(), clientTime: new Date(nowMs - secondsAgo * 1000).toISOString(), ...body } });
-    expect(res.status(), await res.text()).toBe(201);
-  }
-}
-
-async function sessionOf(orderId: number) {
-  const res = await clinician.get(`/api/orders/${orderId}/session`);
-  expect(res.status()).toBe(200);
-  return (await res.json()) as { status: string; events: { type: string; stepId?: string; authorisedById?: number; authorisedByName?: string }[]; record: Record<string, unknown>; deviations: { type: string; actual: number | null }[] };
-}
-
-async function signedInPage(email: string, address: string) {
-  const context = await ctx.browser.newContext({ viewport: { width: 1024, height: 768 } });
-  const page = await context.newPage();
-  const problems = watchPage(page, ctx.baseUrl);
-  await page.clock.install({ time: serverNowMs() });
-  await signInThroughForm(page, ctx.baseUrl, email, demoPassword);
-  await page.getByRole('navigation', { name: 'Main' }).waitFor();
-  await page.goto(`${ctx.baseUrl}${address}`);
-  return { page, problems };
-}
-
-async function nursePage(orderId: number) {
-  const opened = await signedInPage('nurse@demo.luxtempo.example', `/sessions/${orderId}`);
-  await opened.page.locator('h1', { hasText: 'Step clock' }).waitFor();
-  return opened;
-}
-
-async function allStored(page: Page) {
-  await page.getByText('All taps stored').waitFor({ timeout: 15_000 });
-}
+const sessionOf = (orderId: number) => readSession<{ status: string; events: { type: string; stepId?: string; authorisedById?: number; authorisedByName?: string }[]; record: Record<string, unknown>; deviations: { type: string; actual: number | null }[] }>(orderId);
 
 const pdtUpToInfusion: [number, Record<string, unknown>][] = [
   [130, { type: 'session-started', checks: allChecks }],

@@ -1,8 +1,9 @@
 import { randomUUID } from 'node:crypto';
-import { request, type APIRequestContext, type Page } from 'playwright-core';
+import type { APIRequestContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import { accessibilityViolations, signInThroughForm, startBrowserTest, type BrowserContext } from '../support/browser';
+import { allChecks, clockKit } from '../support/clock-kit';
 
 /*
  * The bedside step clock in a real browser, in accelerated time: the page runs on Playwright's
@@ -15,17 +16,13 @@ let clinician: APIRequestContext;
 let pharmacist: APIRequestContext;
 let nurseApi: APIRequestContext;
 
+const { serverNowMs, advance, signedInApi, signedInPage, nursePage, seedEvents, sessionOf: readSession, allStored } = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
+
 beforeAll(async () => {
   ctx = await startBrowserTest();
-  const signedIn = async (email: string) => {
-    const api = await request.newContext({ baseURL: ctx.baseUrl, extraHTTPHeaders: { Origin: ctx.baseUrl } });
-    const login = await api.post('/api/auth/login', { data: { email, password: demoPassword } });
-    expect(login.status()).toBe(200);
-    return api;
-  };
-  clinician = await signedIn('clinician@demo.luxtempo.example');
-  pharmacist = await signedIn('pharmacist@demo.luxtempo.example');
-  nurseApi = await signedIn('nurse@demo.luxtempo.example');
+  clinician = await signedInApi('clinician@demo.luxtempo.example');
+  pharmacist = await signedInApi('pharmacist@demo.luxtempo.example');
+  nurseApi = await signedInApi('nurse@demo.luxtempo.example');
 });
 afterAll(async () => {
   if (samples.length > 0) {
@@ -39,15 +36,6 @@ afterAll(async () => {
 
 /* ---------- time on both sides ---------- */
 
-/** The server's clock as the test sees it. */
-const serverNowMs = () => Date.now() + ctx.serverClock.offsetMs;
-
-/** Moves the server's clock, then the page's, by the same amount (server first: a request in between then only sees the server ahead). */
-async function advance(page: Page, ms: number) {
-  const step = Math.max(0, Math.round(ms));
-  ctx.serverClock.offsetMs += step;
-  await page.clock.fastForward(step);
-}
 
 async function advanceTo(page: Page, targetServerMs: number) {
   await advance(page, targetServerMs - serverNowMs());
@@ -121,11 +109,7 @@ interface SessionBody {
   deviations: { type: string; severity: string }[];
 }
 
-async function sessionOf(orderId: number): Promise<SessionBody> {
-  const res = await clinician.get(`/api/orders/${orderId}/session`);
-  expect(res.status()).toBe(200);
-  return (await res.json()) as SessionBody;
-}
+const sessionOf = (orderId: number) => readSession<SessionBody>(orderId);
 
 function eventTimeMs(session: SessionBody, type: string, stepId?: string): number {
   const event = session.events.find((e) => e.type === type && (stepId === undefined || e.stepId === stepId));
@@ -133,38 +117,7 @@ function eventTimeMs(session: SessionBody, type: string, stepId?: string): numbe
   return Date.parse(event.clientTime);
 }
 
-const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true };
-
-/** Taps made earlier on another tablet, placed on the server's timeline `secondsAgo` before now. */
-async function seedEvents(orderId: number, taps: [secondsAgo: number, body: Record<string, unknown>][]) {
-  const nowMs = serverNowMs();
-  for (const [secondsAgo, body] of taps) {
-    const res = await nurseApi.post(`/api/orders/${orderId}/session-events`, {
-      data: { idempotencyKey: randomUUID(), clientTime: new Date(nowMs - secondsAgo * 1000).toISOString(), ...body },
-    });
-    expect(res.status(), await res.text()).toBe(201);
-  }
-}
-
 /* ---------- the page ---------- */
-
-/** A tablet on the page's own clock, signed in as `email`, at `address`. */
-async function signedInPage(email: string, address: string) {
-  const context = await ctx.browser.newContext({ viewport: { width: 1024, height: 768 } });
-  const page = await context.newPage();
-  const problems = watchPage(page, ctx.baseUrl);
-  await page.clock.install({ time: serverNowMs() });
-  await signInThroughForm(page, ctx.baseUrl, email, demoPassword);
-  await page.getByRole('navigation', { name: 'Main' }).waitFor();
-  await page.goto(`${ctx.baseUrl}${address}`);
-  return { page, problems };
-}
-
-async function nursePage(orderId: number) {
-  const opened = await signedInPage('nurse@demo.luxtempo.example', `/sessions/${orderId}`);
-  await opened.page.locator('h1', { hasText: 'Step clock' }).waitFor();
-  return opened;
-}
 
 async function confirmChecksAndStart(page: Page, eyeWord: 'right' | 'left') {
   await page.getByLabel('Patient identity confirmed').check();
@@ -222,10 +175,6 @@ async function keptTaps(page: Page, orderId: number): Promise<{ key: string; by:
 /** The demo nurse's person id. */
 async function nurseId(): Promise<number> {
   return ((await (await nurseApi.get('/api/auth/me')).json()) as { id: number }).id;
-}
-
-async function allStored(page: Page) {
-  await page.getByText('All taps stored').waitFor({ timeout: 15_000 });
 }
 
 /* ---------- reading the clock against the true schedule ---------- */
