@@ -1,6 +1,7 @@
 import { DateTime } from 'luxon';
 import type { DataSource } from 'typeorm';
-import { doseCheckDiffering, withinPct } from '../../shared/engine/dose-check';
+import { doseCheckDiffering } from '../../shared/engine/dose-check';
+import { withinPct } from '../../shared/engine/tolerance';
 import { canReprepare } from '../../shared/orders/lifecycle';
 import { withdrawalsApplied } from '../../shared/session/dose-record';
 import type { DoseCheckEntry, PreparationEntry } from '../../shared/schemas/orders';

@@ -1,9 +1,6 @@
 import type { DosePlan, WorkingEntry } from '../schemas/calculation';
+import { withinPct } from './tolerance';
 
-/** True when the figure lies within pct percent of the plan's figure. */
-export function withinPct(entered: number, planned: number, pct: number): boolean {
-  return Math.abs(entered - planned) <= (Math.abs(planned) * pct) / 100 + 1e-9;
-}
 
 export const doseCheckFields = ['bsaM2', 'doseMg', 'drugVolumeMl'] as const;
 export type DoseCheckField = (typeof doseCheckFields)[number];

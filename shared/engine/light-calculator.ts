@@ -8,6 +8,7 @@ import { engineVersion } from './engine-version';
 import { lightArithmeticSource, spotAreaCm2, spotDiameterUmFromArea } from './light-arithmetic';
 import { PlanInputError, planInputErrorFromZod } from './plan-input-error';
 import { formatNumber } from './rounding';
+import { withinPct } from './tolerance';
 
 /** Given figures that two relations tie together may differ by this much before they are refused. */
 export const lightAgreementPct = 1;
@@ -113,7 +114,7 @@ export function solveLight(request: LightCalculationRequest): LightSolution {
     const [p, l, r] = [known.get(product), known.get(left), known.get(right)];
     if (!p || !l || !r) continue;
     const expected = factor * l.value * r.value;
-    if (Math.abs(p.value - expected) <= (Math.abs(expected) * lightAgreementPct) / 100) continue;
+    if (withinPct(p.value, expected, lightAgreementPct)) continue;
     const involved = lightFields.filter((field) => p.basis.has(field) || l.basis.has(field) || r.basis.has(field));
     const message = `${involved.join(', ')} disagree: ${left} × ${right}${scaleText(factor, 'product')} gives ${formatNumber(expected)} ${units[product]}, but ${product} is ${formatNumber(p.value)} ${units[product]} (more than ${lightAgreementPct}% apart); correct one or leave one out`;
     throw new PlanInputError(involved.map((path) => ({ path, message })));

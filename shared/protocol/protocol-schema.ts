@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { bsaFormulaNames, bsaFormulas } from '../engine/bsa';
 import { maxDrawnDoseShiftPct, worstDrawnDoseShiftPct } from '../engine/drawn-volume';
+import { withinPct } from '../engine/tolerance';
 
 /** Two figures that should agree (e.g. irradiance × exposure and the target fluence) may differ by this much. */
 export const protocolAgreementPct = 1;
@@ -266,10 +267,6 @@ const protocolVersionObject = z.strictObject({
 type ProtocolShape = z.infer<typeof protocolVersionObject>;
 type Issue = { message: string; path: (string | number)[] };
 
-function agreePct(a: number, b: number, pct: number): boolean {
-  return Math.abs(a - b) <= (Math.abs(b) * pct) / 100;
-}
-
 function duplicates(values: string[]): string[] {
   return [...new Set(values.filter((value, index) => values.indexOf(value) !== index))];
 }
@@ -281,7 +278,7 @@ export function pulsedElapsedS(onTimeS: number, pulse: { onS: number; offS: numb
 
 function checkCommon(p: ProtocolShape, issues: Issue[]): void {
   const fluenceFromTime = (p.light.irradianceMwPerCm2 * p.light.exposureS) / 1000;
-  if (!agreePct(fluenceFromTime, p.light.targetFluenceJPerCm2, protocolAgreementPct)) {
+  if (!withinPct(fluenceFromTime, p.light.targetFluenceJPerCm2, protocolAgreementPct)) {
     issues.push({
       path: ['light', 'exposureS'],
       message: `light.irradianceMwPerCm2 × light.exposureS gives ${fluenceFromTime} J/cm², more than ${protocolAgreementPct}% from light.targetFluenceJPerCm2 (${p.light.targetFluenceJPerCm2} J/cm²)`,
@@ -350,7 +347,7 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
   if (drug === null || timing === null || spotMarginUm === null || maxSpotUm === null) return;
 
   const concentrationFromVial = drug.vialContentMg / drug.reconstitutedVolumeMl;
-  if (!agreePct(concentrationFromVial, drug.concentrationMgPerMl, protocolAgreementPct)) {
+  if (!withinPct(concentrationFromVial, drug.concentrationMgPerMl, protocolAgreementPct)) {
     issues.push({
       path: ['drug', 'concentrationMgPerMl'],
       message: `drug.vialContentMg ÷ drug.reconstitutedVolumeMl gives ${concentrationFromVial} mg/mL, more than ${protocolAgreementPct}% from drug.concentrationMgPerMl (${drug.concentrationMgPerMl} mg/mL)`,
