@@ -55,8 +55,14 @@ export default {
       },
       fontSize: {
         // The step clock must be readable from about two metres at the bedside.
-        clock: ['clamp(5rem, 16vw, 12rem)', { lineHeight: '1', letterSpacing: '-0.02em', fontWeight: '600' }],
-        'clock-sm': ['clamp(3rem, 8vw, 6rem)', { lineHeight: '1', letterSpacing: '-0.01em', fontWeight: '600' }],
+        clock: [
+          'clamp(5rem, 16vw, 12rem)',
+          { lineHeight: '1', letterSpacing: '-0.02em', fontWeight: '600' },
+        ],
+        'clock-sm': [
+          'clamp(3rem, 8vw, 6rem)',
+          { lineHeight: '1', letterSpacing: '-0.01em', fontWeight: '600' },
+        ],
       },
       minHeight: {
         // Comfortable touch target on a bedside tablet.

@@ -31,7 +31,12 @@ export default defineConfig({
       {
         extends: true,
         // Pure code: sharing one module graph saves re-importing mathjs for every file.
-        test: { name: 'engine', include: ['tests/shared/**/*.test.ts', 'tests/client/**/*.test.ts'], environment: 'node', isolate: false },
+        test: {
+          name: 'engine',
+          include: ['tests/shared/**/*.test.ts', 'tests/client/**/*.test.ts'],
+          environment: 'node',
+          isolate: false,
+        },
       },
       {
         extends: true,

@@ -60,7 +60,12 @@ export interface AppDependencies {
 }
 
 /** Builds the Express app; `server/index.ts` decides where it listens. */
-export function createApp({ config, dataSource, clientDir, now = Date.now }: AppDependencies): Express {
+export function createApp({
+  config,
+  dataSource,
+  clientDir,
+  now = Date.now,
+}: AppDependencies): Express {
   const app = express();
   app.disable('x-powered-by');
   // API answers are never cached (Cache-Control: no-store), so hashing each body for an ETag is
@@ -87,34 +92,106 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
   const signInSessions = createSignInSessionRepository(dataSource);
   const sessions = createSessions(config, signInSessions);
   const passwordLinkRows = createPasswordLinkRepository(dataSource);
-  const auth = createAuthService({ dataSource, users, sessions: signInSessions, links: passwordLinkRows, throttle: createThrottle(dataSource, config), audit });
+  const auth = createAuthService({
+    dataSource,
+    users,
+    sessions: signInSessions,
+    links: passwordLinkRows,
+    throttle: createThrottle(dataSource, config),
+    audit,
+  });
   const passwordLinks = createPasswordLinks(dataSource, passwordLinkRows, config);
   const protocols = createProtocolService(createProtocolRepository(dataSource), audit);
   const patients = createPatientRepository(dataSource);
   const orders = createOrderRepository(dataSource);
   const unitTimeZone = config.UNIT_TIME_ZONE;
-  const weightChangeRule = { maxPct: config.WEIGHT_CHANGE_MAX_PCT, withinDays: config.WEIGHT_CHANGE_WITHIN_DAYS };
-  const orderService = createOrderService({ dataSource, orders, patients, users, protocols, audit, reads, unitTimeZone, weightChangeRule, confirmSignature: auth.confirmSignature });
-  const pharmacy = createPharmacyService({ dataSource, orders, orderService, users, audit, unitTimeZone, now });
+  const weightChangeRule = {
+    maxPct: config.WEIGHT_CHANGE_MAX_PCT,
+    withinDays: config.WEIGHT_CHANGE_WITHIN_DAYS,
+  };
+  const orderService = createOrderService({
+    dataSource,
+    orders,
+    patients,
+    users,
+    protocols,
+    audit,
+    reads,
+    unitTimeZone,
+    weightChangeRule,
+    confirmSignature: auth.confirmSignature,
+  });
+  const pharmacy = createPharmacyService({
+    dataSource,
+    orders,
+    orderService,
+    users,
+    audit,
+    unitTimeZone,
+    now,
+  });
   const sessionRows = createSessionRepository(dataSource);
-  const sessionService = createSessionService({ dataSource, orders, sessions: sessionRows, users, audit, unitTimeZone, now, tapClockSkewS: config.TAP_CLOCK_SKEW_S, tapOfflineWindowH: config.TAP_OFFLINE_WINDOW_H, confirmSignature: auth.confirmSignature });
-  const discharge = createDischargeService({ dataSource, orders, sessions: sessionRows, audit, unitName: config.UNIT_NAME, unitPhone: config.UNIT_PHONE, unitTimeZone });
+  const sessionService = createSessionService({
+    dataSource,
+    orders,
+    sessions: sessionRows,
+    users,
+    audit,
+    unitTimeZone,
+    now,
+    tapClockSkewS: config.TAP_CLOCK_SKEW_S,
+    tapOfflineWindowH: config.TAP_OFFLINE_WINDOW_H,
+    confirmSignature: auth.confirmSignature,
+  });
+  const discharge = createDischargeService({
+    dataSource,
+    orders,
+    sessions: sessionRows,
+    audit,
+    unitName: config.UNIT_NAME,
+    unitPhone: config.UNIT_PHONE,
+    unitTimeZone,
+  });
 
   const routes: RouteSpec[] = [
-    ...healthRoutes(dataSource, { name: config.UNIT_NAME, timeZone: config.UNIT_TIME_ZONE, phone: config.UNIT_PHONE }),
+    ...healthRoutes(dataSource, {
+      name: config.UNIT_NAME,
+      timeZone: config.UNIT_TIME_ZONE,
+      phone: config.UNIT_PHONE,
+    }),
     ...authRoutes(auth, sessions),
-    ...peopleRoutes(createPeopleService({ dataSource, users, roleRequests: createRoleRequestRepository(dataSource), sessions: signInSessions, passwordLinks, audit })),
+    ...peopleRoutes(
+      createPeopleService({
+        dataSource,
+        users,
+        roleRequests: createRoleRequestRepository(dataSource),
+        sessions: signInSessions,
+        passwordLinks,
+        audit,
+      }),
+    ),
     ...protocolRoutes(protocols),
     ...calculationRoutes(protocols),
     ...patientRoutes(createPatientService(patients, orders, audit, reads, weightChangeRule)),
     ...orderRoutes(orderService, orders, now),
     ...pharmacyRoutes(pharmacy),
-    ...attachmentRoutes(createAttachmentService(dataSource, audit, reads, path.resolve(config.UPLOAD_DIR))),
+    ...attachmentRoutes(
+      createAttachmentService(dataSource, audit, reads, path.resolve(config.UPLOAD_DIR)),
+    ),
     ...outboxRoutes(dataSource),
     ...sessionRoutes(sessionService, discharge),
     ...staffRoutes(dataSource),
     ...auditRoutes(createAuditService(audit)),
-    ...reviewRoutes(createReviewService({ dataSource, reviews: createReviewRepository(dataSource), sessions: sessionService, audit, reads, unitTimeZone })),
+    ...reviewRoutes(
+      createReviewService({
+        dataSource,
+        reviews: createReviewRepository(dataSource),
+        sessions: sessionService,
+        audit,
+        reads,
+        unitTimeZone,
+      }),
+    ),
   ];
   app.locals.routeTable = routes;
 
@@ -126,8 +203,13 @@ export function createApp({ config, dataSource, clientDir, now = Date.now }: App
     res.set('Cache-Control', 'no-store');
     next();
   });
-  mountRoutes(api, routes, { session: sessions.requireSession, capability: sessions.requireCapability });
-  api.use((req, _res, next) => next(AppError.notFound(`There is no API route ${req.method} ${req.baseUrl}${req.path}.`)));
+  mountRoutes(api, routes, {
+    session: sessions.requireSession,
+    capability: sessions.requireCapability,
+  });
+  api.use((req, _res, next) =>
+    next(AppError.notFound(`There is no API route ${req.method} ${req.baseUrl}${req.path}.`)),
+  );
   app.use('/api', api);
 
   if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {

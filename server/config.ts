@@ -9,18 +9,33 @@ const envSchema = z.object({
   PORT: port.default(3000),
   DB_HOST: z.string().min(1).default('127.0.0.1'),
   DB_PORT: port.default(3307),
-  DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, 'DB_NAME may hold letters, digits and _ only').default('luxtempo'),
+  DB_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_]+$/, 'DB_NAME may hold letters, digits and _ only')
+    .default('luxtempo'),
   DB_USER: z.string().min(1).default('luxtempo_app'),
   DB_PASSWORD: z.string().min(1, 'DB_PASSWORD is required'),
   JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters'),
   /** A session's maximum lifetime, however active it is. */
   SESSION_HOURS: z.coerce.number().min(1).max(24).default(12),
   /** A session with no call for this long ends (a shared ward tablet left signed in). */
-  SESSION_IDLE_MIN: z.coerce.number().int().min(1, 'SESSION_IDLE_MIN must be 1 to 720 minutes').max(720, 'SESSION_IDLE_MIN must be 1 to 720 minutes').default(30),
+  SESSION_IDLE_MIN: z.coerce
+    .number()
+    .int()
+    .min(1, 'SESSION_IDLE_MIN must be 1 to 720 minutes')
+    .max(720, 'SESSION_IDLE_MIN must be 1 to 720 minutes')
+    .default(30),
   /** How long an e-mailed link to set a password works. */
-  PASSWORD_LINK_HOURS: z.coerce.number().min(0.25, 'PASSWORD_LINK_HOURS must be 0.25 to 168').max(168, 'PASSWORD_LINK_HOURS must be 0.25 to 168').default(24),
+  PASSWORD_LINK_HOURS: z.coerce
+    .number()
+    .min(0.25, 'PASSWORD_LINK_HOURS must be 0.25 to 168')
+    .max(168, 'PASSWORD_LINK_HOURS must be 0.25 to 168')
+    .default(24),
   /** The address people open Luxtempo at, for links in e-mails; `http://HOST:PORT` when unset. */
-  PUBLIC_URL: z.string().url('PUBLIC_URL must be a full address such as https://luxtempo.example.org').optional(),
+  PUBLIC_URL: z
+    .string()
+    .url('PUBLIC_URL must be a full address such as https://luxtempo.example.org')
+    .optional(),
   COOKIE_SECURE: bool.default(false),
   /**
    * Which proxies' X-Forwarded-For to believe (Express `trust proxy`): off by default, so the
@@ -30,8 +45,17 @@ const envSchema = z.object({
   TRUST_PROXY: z
     .string()
     .default('false')
-    .refine((v) => v.trim() !== 'true', 'TRUST_PROXY=true would let any client choose its address; name the proxy (an address, subnet, "loopback") or a hop count')
-    .transform((v): false | number | string => (v.trim() === '' || v.trim() === 'false' ? false : /^\d+$/.test(v.trim()) ? Number(v.trim()) : v.trim())),
+    .refine(
+      (v) => v.trim() !== 'true',
+      'TRUST_PROXY=true would let any client choose its address; name the proxy (an address, subnet, "loopback") or a hop count',
+    )
+    .transform((v): false | number | string =>
+      v.trim() === '' || v.trim() === 'false'
+        ? false
+        : /^\d+$/.test(v.trim())
+          ? Number(v.trim())
+          : v.trim(),
+    ),
   SMTP_HOST: z.string().min(1).default('127.0.0.1'),
   SMTP_PORT: port.default(1025),
   MAIL_FROM: z.string().min(3).default('Luxtempo <luxtempo@demo.luxtempo.example>'),
@@ -54,8 +78,17 @@ const envSchema = z.object({
    * percentage, the last one less than WEIGHT_CHANGE_WITHIN_DAYS old, needs a reason to be signed
    * (demo defaults 10 % and 90 days: common practice, no single source).
    */
-  WEIGHT_CHANGE_MAX_PCT: z.coerce.number().positive('WEIGHT_CHANGE_MAX_PCT must be above 0').max(100, 'WEIGHT_CHANGE_MAX_PCT must be at most 100').default(10),
-  WEIGHT_CHANGE_WITHIN_DAYS: z.coerce.number().int('WEIGHT_CHANGE_WITHIN_DAYS must be a whole number').min(1, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650').max(3650, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650').default(90),
+  WEIGHT_CHANGE_MAX_PCT: z.coerce
+    .number()
+    .positive('WEIGHT_CHANGE_MAX_PCT must be above 0')
+    .max(100, 'WEIGHT_CHANGE_MAX_PCT must be at most 100')
+    .default(10),
+  WEIGHT_CHANGE_WITHIN_DAYS: z.coerce
+    .number()
+    .int('WEIGHT_CHANGE_WITHIN_DAYS must be a whole number')
+    .min(1, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650')
+    .max(3650, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650')
+    .default(90),
   /** Fictitious demo people (with a published password) and patients; never wanted in production. */
   DEMO_DATA: bool.optional(),
   LOGIN_FAILURE_LIMIT: z.coerce.number().int().min(1).max(1000).default(10),
@@ -77,5 +110,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     throw new Error(`Luxtempo cannot start: the configuration is not valid.\n${lines.join('\n')}`);
   }
   // Demo people have a published password: on unless told otherwise, except in production.
-  return { ...parsed.data, DEMO_DATA: parsed.data.DEMO_DATA ?? parsed.data.NODE_ENV !== 'production' };
+  return {
+    ...parsed.data,
+    DEMO_DATA: parsed.data.DEMO_DATA ?? parsed.data.NODE_ENV !== 'production',
+  };
 }

@@ -25,7 +25,9 @@ export interface RunningWebServer {
  * Connects to the database as the app user, loads the shipped protocol files (refusing to start
  * if one differs from its stored version) and listens. Migrations are not run here.
  */
-export async function startWebServer(options: { config?: Config; clientDir?: string; port?: number; now?: () => number } = {}): Promise<RunningWebServer> {
+export async function startWebServer(
+  options: { config?: Config; clientDir?: string; port?: number; now?: () => number } = {},
+): Promise<RunningWebServer> {
   const config = options.config ?? loadConfig();
   const dataSource = appDataSource(config);
   await dataSource.initialize();
@@ -39,7 +41,13 @@ export async function startWebServer(options: { config?: Config; clientDir?: str
     throw error;
   }
   const mailer = createSmtpMailer(config);
-  const app = createApp({ config, dataSource, mailer, clientDir: options.clientDir, now: options.now });
+  const app = createApp({
+    config,
+    dataSource,
+    mailer,
+    clientDir: options.clientDir,
+    now: options.now,
+  });
   const outbox = createOutboxWorker(dataSource, mailer);
   outbox.start();
   const port = options.port ?? config.PORT;
@@ -69,7 +77,9 @@ if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.a
   const workers = Number(process.env.WEB_CONCURRENCY ?? 1);
   if (workers > 1 && cluster.isPrimary) {
     for (let i = 0; i < workers; i++) cluster.fork();
-    cluster.on('exit', (worker, code) => console.error(`worker ${worker.process.pid} ended (${code})`));
+    cluster.on('exit', (worker, code) =>
+      console.error(`worker ${worker.process.pid} ended (${code})`),
+    );
     for (const signal of ['SIGINT', 'SIGTERM'] as const) {
       process.once(signal, () => {
         for (const worker of Object.values(cluster.workers ?? {})) worker?.kill(signal);

@@ -10,7 +10,12 @@
  *   is touched, and a POST never reaches a cache (routes here match GET only).
  * - The page empties the API cache on sign-in and sign-out.
  */
-import { cleanupOutdatedCaches, createHandlerBoundToURL, precacheAndRoute, type PrecacheEntry } from 'workbox-precaching';
+import {
+  cleanupOutdatedCaches,
+  createHandlerBoundToURL,
+  precacheAndRoute,
+  type PrecacheEntry,
+} from 'workbox-precaching';
 import { NavigationRoute, registerRoute } from 'workbox-routing';
 import { NetworkFirst } from 'workbox-strategies';
 import { apiCacheName, offlineApiPaths, offlineCopyHeader } from './lib/offline-cache';
@@ -21,17 +26,25 @@ interface WorkerScope {
   location: Location;
   skipWaiting(): Promise<void>;
   clients: { claim(): Promise<void> };
-  addEventListener(type: 'install' | 'activate', listener: (event: Event & { waitUntil(promise: Promise<unknown>): void }) => void): void;
+  addEventListener(
+    type: 'install' | 'activate',
+    listener: (event: Event & { waitUntil(promise: Promise<unknown>): void }) => void,
+  ): void;
 }
 const worker = self as unknown as WorkerScope;
 
 // Written out as `self.__WB_MANIFEST`: the build replaces exactly that text with the list of built files.
 precacheAndRoute((self as unknown as WorkerScope).__WB_MANIFEST);
 cleanupOutdatedCaches();
-registerRoute(new NavigationRoute(createHandlerBoundToURL('/index.html'), { denylist: [/^\/api\//] }));
+registerRoute(
+  new NavigationRoute(createHandlerBoundToURL('/index.html'), { denylist: [/^\/api\//] }),
+);
 
 registerRoute(
-  ({ url, request }) => url.origin === worker.location.origin && request.method === 'GET' && offlineApiPaths.some((pattern) => pattern.test(url.pathname)),
+  ({ url, request }) =>
+    url.origin === worker.location.origin &&
+    request.method === 'GET' &&
+    offlineApiPaths.some((pattern) => pattern.test(url.pathname)),
   new NetworkFirst({
     cacheName: apiCacheName,
     // A network that answers nothing (not refused, just silent) falls back to the copy after this long.
@@ -43,7 +56,11 @@ registerRoute(
           if (!cachedResponse) return null;
           const headers = new Headers(cachedResponse.headers);
           headers.set(offlineCopyHeader, headers.get('Date') ?? 'unknown');
-          return new Response(cachedResponse.body, { status: cachedResponse.status, statusText: cachedResponse.statusText, headers });
+          return new Response(cachedResponse.body, {
+            status: cachedResponse.status,
+            statusText: cachedResponse.statusText,
+            headers,
+          });
         },
       },
     ],

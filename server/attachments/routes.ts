@@ -5,7 +5,10 @@ import { idParam, parseInput } from '../http/validation';
 import { actorOf } from '../orders/routes';
 import { attachmentMaxBytes, type AttachmentService } from './service';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: attachmentMaxBytes, files: 1 } }).single('file');
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: attachmentMaxBytes, files: 1 },
+}).single('file');
 
 export function attachmentRoutes(attachments: AttachmentService): RouteSpec[] {
   return [
@@ -16,8 +19,13 @@ export function attachmentRoutes(attachments: AttachmentService): RouteSpec[] {
       before: [upload],
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        if (!req.file) throw AppError.badRequest('Attach the report as the form field "file".', [{ path: 'file', message: 'file is required (PDF, PNG or JPEG, up to 10 MB)' }]);
-        res.status(201).json({ attachment: await attachments.add(actorOf(req, res), id, req.file) });
+        if (!req.file)
+          throw AppError.badRequest('Attach the report as the form field "file".', [
+            { path: 'file', message: 'file is required (PDF, PNG or JPEG, up to 10 MB)' },
+          ]);
+        res
+          .status(201)
+          .json({ attachment: await attachments.add(actorOf(req, res), id, req.file) });
       },
     },
     {
@@ -26,7 +34,10 @@ export function attachmentRoutes(attachments: AttachmentService): RouteSpec[] {
       // Whoever may read orders may read their reports; nobody else (see permissions.ts).
       access: 'orders.read',
       handler: async (req, res) => {
-        const { row, content, downloadName } = await attachments.read(parseInput(idParam, req.params.id, 'id'), actorOf(req, res));
+        const { row, content, downloadName } = await attachments.read(
+          parseInput(idParam, req.params.id, 'id'),
+          actorOf(req, res),
+        );
         const asciiName = downloadName.replace(/[^\w.\- ()]/g, '_');
         res.set({
           // The type it was checked as on upload, never a type the browser guesses or renders as a page.

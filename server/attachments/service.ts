@@ -11,18 +11,34 @@ import { detectFileType, extensionOf } from './file-type';
 
 export const attachmentMaxBytes = 10 * 1024 * 1024;
 
-export function createAttachmentService(dataSource: DataSource, audit: AuditRepository, reads: ReadAudit, uploadDir: string) {
+export function createAttachmentService(
+  dataSource: DataSource,
+  audit: AuditRepository,
+  reads: ReadAudit,
+  uploadDir: string,
+) {
   const attachments = dataSource.getRepository(Attachment);
   return {
-    async add(actor: { id: number; ipAddress?: string | null }, orderId: number, file: { originalname: string; buffer: Buffer }) {
+    async add(
+      actor: { id: number; ipAddress?: string | null },
+      orderId: number,
+      file: { originalname: string; buffer: Buffer },
+    ) {
       const order = await dataSource.getRepository(TreatmentOrder).findOneBy({ id: orderId });
       if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
-      if (order.status !== 'draft') throw AppError.conflict('order_signed', `Order ${orderId} is ${order.status}; reports are attached before signing.`);
+      if (order.status !== 'draft')
+        throw AppError.conflict(
+          'order_signed',
+          `Order ${orderId} is ${order.status}; reports are attached before signing.`,
+        );
       const type = detectFileType(file.buffer);
       if (!type) {
-        throw new AppError(415, 'unsupported_type', 'Only PDF, PNG and JPEG reports can be attached; this file is none of them, whatever its name says.', [
-          { path: 'file', message: 'file must be a PDF, PNG or JPEG (checked by its content)' },
-        ]);
+        throw new AppError(
+          415,
+          'unsupported_type',
+          'Only PDF, PNG and JPEG reports can be attached; this file is none of them, whatever its name says.',
+          [{ path: 'file', message: 'file must be a PDF, PNG or JPEG (checked by its content)' }],
+        );
       }
       const sha256 = createHash('sha256').update(file.buffer).digest('hex');
       const storageName = `${randomUUID()}.${type.extension}`;
@@ -31,10 +47,38 @@ export function createAttachmentService(dataSource: DataSource, audit: AuditRepo
       const stored = path.join(uploadDir, storageName);
       await writeFile(stored, file.buffer, { flag: 'wx', mode: 0o600 });
       await chmod(stored, 0o600);
-      const fileName = path.basename(file.originalname).replace(/[^\w.\- ()]/g, '_').slice(0, 200) || `report.${type.extension}`;
-      const saved = await attachments.save(attachments.create({ orderId, fileName, mimeType: type.mimeType, sizeBytes: file.buffer.length, sha256, storageName, uploadedBy: actor.id }));
-      await audit.append({ actorUserId: actor.id, action: 'attachment.added', entityType: 'order', entityId: orderId, ipAddress: actor.ipAddress, details: { attachmentId: saved.id, fileName, sha256, sizeBytes: saved.sizeBytes } });
-      return { id: saved.id, fileName, mimeType: saved.mimeType, sizeBytes: saved.sizeBytes, sha256, createdAt: saved.createdAt.toISOString() };
+      const fileName =
+        path
+          .basename(file.originalname)
+          .replace(/[^\w.\- ()]/g, '_')
+          .slice(0, 200) || `report.${type.extension}`;
+      const saved = await attachments.save(
+        attachments.create({
+          orderId,
+          fileName,
+          mimeType: type.mimeType,
+          sizeBytes: file.buffer.length,
+          sha256,
+          storageName,
+          uploadedBy: actor.id,
+        }),
+      );
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'attachment.added',
+        entityType: 'order',
+        entityId: orderId,
+        ipAddress: actor.ipAddress,
+        details: { attachmentId: saved.id, fileName, sha256, sizeBytes: saved.sizeBytes },
+      });
+      return {
+        id: saved.id,
+        fileName,
+        mimeType: saved.mimeType,
+        sizeBytes: saved.sizeBytes,
+        sha256,
+        createdAt: saved.createdAt.toISOString(),
+      };
     },
 
     /**
@@ -45,14 +89,25 @@ export function createAttachmentService(dataSource: DataSource, audit: AuditRepo
     async read(id: number, reader: Reader) {
       const row = await attachments.findOneBy({ id });
       if (!row) throw AppError.notFound(`There is no attachment ${id}.`);
-      await reads.note(reader, { action: 'attachment.viewed', entityType: 'order', entityId: row.orderId, details: { attachmentId: row.id, fileName: row.fileName } });
+      await reads.note(reader, {
+        action: 'attachment.viewed',
+        entityType: 'order',
+        entityId: row.orderId,
+        details: { attachmentId: row.id, fileName: row.fileName },
+      });
       const content = await readFile(path.join(uploadDir, row.storageName));
       // The bytes must still be the ones that were stored.
       if (createHash('sha256').update(content).digest('hex') !== row.sha256) {
-        throw new AppError(500, 'attachment_damaged', 'The stored file no longer matches its SHA-256; it has been changed or damaged.');
+        throw new AppError(
+          500,
+          'attachment_damaged',
+          'The stored file no longer matches its SHA-256; it has been changed or damaged.',
+        );
       }
       const extension = extensionOf(row.mimeType);
-      const downloadName = row.fileName.toLowerCase().endsWith(`.${extension}`) ? row.fileName : `${row.fileName}.${extension}`;
+      const downloadName = row.fileName.toLowerCase().endsWith(`.${extension}`)
+        ? row.fileName
+        : `${row.fileName}.${extension}`;
       return { row, content, downloadName };
     },
   };

@@ -22,6 +22,16 @@ export interface ChainedFields {
  * migration DatabaseIntegrity1796200000000; both must stay equal.)
  */
 export function auditRowHash(prevHash: string, row: ChainedFields): string {
-  const canonical = JSON.stringify(['luxtempo-audit-v1', prevHash, row.occurredAt.toISOString(), row.actorUserId, row.action, row.entityType, row.entityId, row.ipAddress, row.details]);
+  const canonical = JSON.stringify([
+    'luxtempo-audit-v1',
+    prevHash,
+    row.occurredAt.toISOString(),
+    row.actorUserId,
+    row.action,
+    row.entityType,
+    row.entityId,
+    row.ipAddress,
+    row.details,
+  ]);
   return createHash('sha256').update(canonical, 'utf8').digest('hex');
 }

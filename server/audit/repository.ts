@@ -19,7 +19,10 @@ type StoredRow = ChainedFields & { id: string; prevHash: string; hash: string };
  * the first row whose stored hash or link does not match (the row that was changed, or the one
  * after a row that was removed), and whether the chain's head still points at the last row.
  */
-export async function verifyAuditChain(dataSource: DataSource, batchSize = 2000): Promise<AuditChainReport> {
+export async function verifyAuditChain(
+  dataSource: DataSource,
+  batchSize = 2000,
+): Promise<AuditChainReport> {
   let prevHash = genesisHash;
   let lastId = '0';
   let checked = 0;
@@ -32,22 +35,45 @@ export async function verifyAuditChain(dataSource: DataSource, batchSize = 2000)
     );
     if (rows.length === 0) break;
     for (const row of rows) {
-      const fields: ChainedFields = { ...row, actorUserId: row.actorUserId == null ? null : Number(row.actorUserId), details: detailsText(row.details) };
+      const fields: ChainedFields = {
+        ...row,
+        actorUserId: row.actorUserId == null ? null : Number(row.actorUserId),
+        details: detailsText(row.details),
+      };
       const expected = auditRowHash(prevHash, fields);
       if (row.prevHash !== prevHash) {
-        return { ok: false, checked, firstBrokenId: String(row.id), reason: 'Its link to the row before does not match: a row before it was removed, added or changed.' };
+        return {
+          ok: false,
+          checked,
+          firstBrokenId: String(row.id),
+          reason:
+            'Its link to the row before does not match: a row before it was removed, added or changed.',
+        };
       }
       if (row.hash !== expected) {
-        return { ok: false, checked, firstBrokenId: String(row.id), reason: 'Its contents do not match its hash: the row was changed after it was written.' };
+        return {
+          ok: false,
+          checked,
+          firstBrokenId: String(row.id),
+          reason: 'Its contents do not match its hash: the row was changed after it was written.',
+        };
       }
       prevHash = row.hash;
       lastId = String(row.id);
       checked++;
     }
   }
-  const [head] = await dataSource.query('SELECT last_event_id AS lastEventId, last_hash AS lastHash FROM audit_chain_head WHERE id = 1');
+  const [head] = await dataSource.query(
+    'SELECT last_event_id AS lastEventId, last_hash AS lastHash FROM audit_chain_head WHERE id = 1',
+  );
   if (!head || head.lastHash !== prevHash || String(head.lastEventId ?? '0') !== lastId) {
-    return { ok: false, checked, firstBrokenId: null, reason: 'The chain’s head does not point at the last row: rows at the end were removed or added around the app.' };
+    return {
+      ok: false,
+      checked,
+      firstBrokenId: null,
+      reason:
+        'The chain’s head does not point at the last row: rows at the end were removed or added around the app.',
+    };
   }
   return { ok: true, checked, firstBrokenId: null, reason: null };
 }
@@ -68,7 +94,9 @@ export function createAuditRepository(dataSource: DataSource) {
      */
     async append(entry: AuditEntry): Promise<void> {
       await dataSource.transaction(async (manager) => {
-        const [head] = await manager.query('SELECT last_hash AS lastHash FROM audit_chain_head WHERE id = 1 FOR UPDATE');
+        const [head] = await manager.query(
+          'SELECT last_hash AS lastHash FROM audit_chain_head WHERE id = 1 FOR UPDATE',
+        );
         if (!head) throw new Error('The audit chain has no head row: run the migrations.');
         const fields: ChainedFields = {
           // Milliseconds, as the column keeps them, so the hash covers exactly what is stored.
@@ -83,12 +111,30 @@ export function createAuditRepository(dataSource: DataSource) {
         const hash = auditRowHash(head.lastHash, fields);
         const result = await manager.query(
           'INSERT INTO audit_event (occurred_at, actor_user_id, action, entity_type, entity_id, ip_address, details, prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)',
-          [fields.occurredAt, fields.actorUserId, fields.action, fields.entityType, fields.entityId, fields.ipAddress, fields.details, head.lastHash, hash],
+          [
+            fields.occurredAt,
+            fields.actorUserId,
+            fields.action,
+            fields.entityType,
+            fields.entityId,
+            fields.ipAddress,
+            fields.details,
+            head.lastHash,
+            hash,
+          ],
         );
-        await manager.query('UPDATE audit_chain_head SET last_event_id = ?, last_hash = ? WHERE id = 1', [result.insertId, hash]);
+        await manager.query(
+          'UPDATE audit_chain_head SET last_event_id = ?, last_hash = ? WHERE id = 1',
+          [result.insertId, hash],
+        );
       });
     },
-    async listFor(filter: { entityType?: string; entityId?: string; action?: string; limit?: number }): Promise<AuditEvent[]> {
+    async listFor(filter: {
+      entityType?: string;
+      entityId?: string;
+      action?: string;
+      limit?: number;
+    }): Promise<AuditEvent[]> {
       return repo.find({
         where: {
           ...(filter.entityType ? { entityType: filter.entityType } : {}),

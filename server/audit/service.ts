@@ -3,7 +3,8 @@ import type { AuditRepository } from './repository';
 /** Repeated reads of one record by one person within this window make one audit row (the first). */
 export const readAuditWindowMs = 60_000;
 
-export type ReadAction = 'patient.viewed' | 'order.viewed' | 'attachment.viewed' | 'export.downloaded';
+export type ReadAction =
+  'patient.viewed' | 'order.viewed' | 'attachment.viewed' | 'export.downloaded';
 
 export interface Reader {
   id: number;
@@ -20,15 +21,31 @@ export interface Reader {
 export function createReadAudit(audit: AuditRepository, now: () => number = Date.now) {
   const lastNoted = new Map<string, number>();
   return {
-    async note(reader: Reader, read: { action: ReadAction; entityType: string; entityId: string | number; details?: Record<string, unknown> }) {
+    async note(
+      reader: Reader,
+      read: {
+        action: ReadAction;
+        entityType: string;
+        entityId: string | number;
+        details?: Record<string, unknown>;
+      },
+    ) {
       const key = `${reader.id}|${read.action}|${read.entityType}|${read.entityId}`;
       const at = now();
       if (read.action !== 'export.downloaded') {
         const last = lastNoted.get(key);
         if (last !== undefined && at - last < readAuditWindowMs) return;
-        if (lastNoted.size > 10_000) for (const [k, t] of lastNoted) if (at - t >= readAuditWindowMs) lastNoted.delete(k);
+        if (lastNoted.size > 10_000)
+          for (const [k, t] of lastNoted) if (at - t >= readAuditWindowMs) lastNoted.delete(k);
       }
-      await audit.append({ actorUserId: reader.id, action: read.action, entityType: read.entityType, entityId: read.entityId, ipAddress: reader.ipAddress, details: read.details ?? null });
+      await audit.append({
+        actorUserId: reader.id,
+        action: read.action,
+        entityType: read.entityType,
+        entityId: read.entityId,
+        ipAddress: reader.ipAddress,
+        details: read.details ?? null,
+      });
       if (read.action !== 'export.downloaded') lastNoted.set(key, at);
     },
   };

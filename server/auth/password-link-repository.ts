@@ -13,25 +13,48 @@ export interface PasswordLinkRow {
 export function createPasswordLinkRepository(dataSource: DataSource) {
   return {
     /** A new link replaces any the person still had. */
-    async insert(manager: EntityManager, link: { tokenHash: string; userId: number; purpose: PasswordLinkPurpose; createdBy: number | null; lifetimeS: number }): Promise<void> {
-      await manager.query('UPDATE password_link SET used_at = NOW(3) WHERE user_id = ? AND used_at IS NULL', [link.userId]);
-      await manager.query('INSERT INTO password_link (token_hash, user_id, purpose, created_by, expires_at) VALUES (?, ?, ?, ?, NOW(3) + INTERVAL ? SECOND)', [
-        link.tokenHash,
-        link.userId,
-        link.purpose,
-        link.createdBy,
-        Math.round(link.lifetimeS),
-      ]);
+    async insert(
+      manager: EntityManager,
+      link: {
+        tokenHash: string;
+        userId: number;
+        purpose: PasswordLinkPurpose;
+        createdBy: number | null;
+        lifetimeS: number;
+      },
+    ): Promise<void> {
+      await manager.query(
+        'UPDATE password_link SET used_at = NOW(3) WHERE user_id = ? AND used_at IS NULL',
+        [link.userId],
+      );
+      await manager.query(
+        'INSERT INTO password_link (token_hash, user_id, purpose, created_by, expires_at) VALUES (?, ?, ?, ?, NOW(3) + INTERVAL ? SECOND)',
+        [link.tokenHash, link.userId, link.purpose, link.createdBy, Math.round(link.lifetimeS)],
+      );
     },
 
     async find(tokenHash: string): Promise<PasswordLinkRow | null> {
-      const [row] = await dataSource.query('SELECT id, user_id AS userId, purpose, used_at IS NOT NULL AS used, expires_at <= NOW(3) AS expired FROM password_link WHERE token_hash = ?', [tokenHash]);
-      return row ? { id: Number(row.id), userId: Number(row.userId), purpose: row.purpose, used: Boolean(Number(row.used)), expired: Boolean(Number(row.expired)) } : null;
+      const [row] = await dataSource.query(
+        'SELECT id, user_id AS userId, purpose, used_at IS NOT NULL AS used, expires_at <= NOW(3) AS expired FROM password_link WHERE token_hash = ?',
+        [tokenHash],
+      );
+      return row
+        ? {
+            id: Number(row.id),
+            userId: Number(row.userId),
+            purpose: row.purpose,
+            used: Boolean(Number(row.used)),
+            expired: Boolean(Number(row.expired)),
+          }
+        : null;
     },
 
     /** Marks the link used if it still works; false when another request used it first or it ran out. */
     async consume(manager: EntityManager, id: number): Promise<boolean> {
-      const result = await manager.query('UPDATE password_link SET used_at = NOW(3) WHERE id = ? AND used_at IS NULL AND expires_at > NOW(3)', [id]);
+      const result = await manager.query(
+        'UPDATE password_link SET used_at = NOW(3) WHERE id = ? AND used_at IS NULL AND expires_at > NOW(3)',
+        [id],
+      );
       return Number(result?.affectedRows ?? 0) === 1;
     },
   };

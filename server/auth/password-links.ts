@@ -15,13 +15,30 @@ export function publicUrl(config: Pick<Config, 'PUBLIC_URL' | 'HOST' | 'PORT'>):
 }
 
 /** Makes one-time links to set a password and e-mails them through the outbox. */
-export function createPasswordLinks(dataSource: DataSource, links: PasswordLinkRepository, config: Config) {
+export function createPasswordLinks(
+  dataSource: DataSource,
+  links: PasswordLinkRepository,
+  config: Config,
+) {
   const lifetimeS = config.PASSWORD_LINK_HOURS * 3600;
-  const hoursText = Number.isInteger(config.PASSWORD_LINK_HOURS) ? `${config.PASSWORD_LINK_HOURS} hours` : `${Math.round(lifetimeS / 60)} minutes`;
+  const hoursText = Number.isInteger(config.PASSWORD_LINK_HOURS)
+    ? `${config.PASSWORD_LINK_HOURS} hours`
+    : `${Math.round(lifetimeS / 60)} minutes`;
 
-  async function issue(manager: EntityManager, person: { id: number }, purpose: PasswordLinkPurpose, createdBy: number | null): Promise<string> {
+  async function issue(
+    manager: EntityManager,
+    person: { id: number },
+    purpose: PasswordLinkPurpose,
+    createdBy: number | null,
+  ): Promise<string> {
     const token = randomBytes(32).toString('base64url');
-    await links.insert(manager, { tokenHash: hashLinkToken(token), userId: person.id, purpose, createdBy, lifetimeS });
+    await links.insert(manager, {
+      tokenHash: hashLinkToken(token),
+      userId: person.id,
+      purpose,
+      createdBy,
+      lifetimeS,
+    });
     return token;
   }
 
@@ -32,10 +49,16 @@ export function createPasswordLinks(dataSource: DataSource, links: PasswordLinkR
     urlOf,
     /** For the command that creates the first admin: the link is printed, not mailed. */
     async issueForPrinting(person: { id: number }): Promise<string> {
-      return urlOf(await dataSource.transaction((manager) => issue(manager, person, 'new-account', null)));
+      return urlOf(
+        await dataSource.transaction((manager) => issue(manager, person, 'new-account', null)),
+      );
     },
     /** Writes the link and its e-mail in one transaction: both or neither. */
-    async send(person: { id: number; email: string; displayName: string }, purpose: PasswordLinkPurpose, createdBy: number): Promise<void> {
+    async send(
+      person: { id: number; email: string; displayName: string },
+      purpose: PasswordLinkPurpose,
+      createdBy: number,
+    ): Promise<void> {
       await dataSource.transaction(async (manager) => {
         const token = await issue(manager, person, purpose, createdBy);
         const opening =
@@ -45,7 +68,10 @@ export function createPasswordLinks(dataSource: DataSource, links: PasswordLinkR
         await enqueueMessage(manager, {
           kind: 'password-link',
           recipients: [person.email],
-          subject: purpose === 'new-account' ? 'Your Luxtempo account: set your password' : 'Luxtempo: set a new password',
+          subject:
+            purpose === 'new-account'
+              ? 'Your Luxtempo account: set your password'
+              : 'Luxtempo: set a new password',
           body: [
             `Hello ${person.displayName},`,
             '',

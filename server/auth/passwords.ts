@@ -34,9 +34,15 @@ export interface PasswordCheck {
 // Compared against when there is no usable hash, so every failure takes about the same time.
 const decoyHash = bcrypt.hashSync('luxtempo-no-such-person', passwordHashCost);
 
-export async function verifyPassword(password: string, stored: string | null | undefined): Promise<PasswordCheck> {
+export async function verifyPassword(
+  password: string,
+  stored: string | null | undefined,
+): Promise<PasswordCheck> {
   if (stored?.startsWith(currentFormat)) {
-    return { matches: await bcrypt.compare(prehash(password), stored.slice(currentFormat.length)), needsUpgrade: false };
+    return {
+      matches: await bcrypt.compare(prehash(password), stored.slice(currentFormat.length)),
+      needsUpgrade: false,
+    };
   }
   if (stored && /^\$2[aby]\$/.test(stored)) {
     return { matches: await bcrypt.compare(password, stored), needsUpgrade: true };
@@ -61,7 +67,11 @@ export function isCommonPassword(password: string): boolean {
 }
 
 /** The rules a new password must meet; the problem names the field it was given in. */
-export function checkNewPassword(password: string, field: string, person?: { email: string }): void {
+export function checkNewPassword(
+  password: string,
+  field: string,
+  person?: { email: string },
+): void {
   const problem =
     [...password].length < passwordMinLength
       ? `${field} must be at least ${passwordMinLength} characters`
@@ -72,5 +82,8 @@ export function checkNewPassword(password: string, field: string, person?: { ema
           : person && password.trim().toLowerCase() === person.email.trim().toLowerCase()
             ? `${field} must not be your e-mail address`
             : null;
-  if (problem) throw AppError.badRequest('The new password does not meet the rules.', [{ path: field, message: problem }]);
+  if (problem)
+    throw AppError.badRequest('The new password does not meet the rules.', [
+      { path: field, message: problem },
+    ]);
 }

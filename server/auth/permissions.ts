@@ -5,11 +5,56 @@ import { capabilities, type Capability, type Role } from '../../shared/roles';
  * a person's capabilities are the union over their roles.
  */
 export const roleCapabilities: Record<Role, readonly Capability[]> = {
-  clinician: ['today.view', 'protocols.read', 'protocols.approve', 'calculations.run', 'patients.read', 'patients.manage', 'orders.read', 'orders.write'],
-  pharmacist: ['today.view', 'protocols.read', 'protocols.approve', 'calculations.run', 'patients.read', 'orders.read', 'dose-checks.perform', 'preparations.record'],
-  nurse: ['today.view', 'protocols.read', 'calculations.run', 'patients.read', 'orders.read', 'sessions.run'],
-  auditor: ['today.view', 'protocols.read', 'calculations.run', 'audit.read', 'audit.review', 'audit.verify', 'patients.read', 'orders.read'],
-  admin: ['today.view', 'people.manage', 'protocols.read', 'protocols.import', 'protocols.retire', 'calculations.run', 'patients.manage', 'patients.read', 'outbox.read', 'audit.verify'],
+  clinician: [
+    'today.view',
+    'protocols.read',
+    'protocols.approve',
+    'calculations.run',
+    'patients.read',
+    'patients.manage',
+    'orders.read',
+    'orders.write',
+  ],
+  pharmacist: [
+    'today.view',
+    'protocols.read',
+    'protocols.approve',
+    'calculations.run',
+    'patients.read',
+    'orders.read',
+    'dose-checks.perform',
+    'preparations.record',
+  ],
+  nurse: [
+    'today.view',
+    'protocols.read',
+    'calculations.run',
+    'patients.read',
+    'orders.read',
+    'sessions.run',
+  ],
+  auditor: [
+    'today.view',
+    'protocols.read',
+    'calculations.run',
+    'audit.read',
+    'audit.review',
+    'audit.verify',
+    'patients.read',
+    'orders.read',
+  ],
+  admin: [
+    'today.view',
+    'people.manage',
+    'protocols.read',
+    'protocols.import',
+    'protocols.retire',
+    'calculations.run',
+    'patients.manage',
+    'patients.read',
+    'outbox.read',
+    'audit.verify',
+  ],
 };
 
 export function capabilitiesOf(roles: readonly Role[]): Capability[] {

@@ -1,8 +1,19 @@
-import { changePasswordSchema, loginRequestSchema, passwordLinkCheckSchema, setPasswordSchema } from '../../shared/schemas/auth';
+import {
+  changePasswordSchema,
+  loginRequestSchema,
+  passwordLinkCheckSchema,
+  setPasswordSchema,
+} from '../../shared/schemas/auth';
 import type { RouteSpec } from '../http/route-table';
 import { parseInput } from '../http/validation';
 import type { AuthService } from './service';
-import { sessionCookieName, sessionHintCookieName, signedInSessionId, signedInUser, type Sessions } from './session';
+import {
+  sessionCookieName,
+  sessionHintCookieName,
+  signedInSessionId,
+  signedInUser,
+  type Sessions,
+} from './session';
 
 export function authRoutes(auth: AuthService, sessions: Sessions): RouteSpec[] {
   return [
@@ -15,7 +26,11 @@ export function authRoutes(auth: AuthService, sessions: Sessions): RouteSpec[] {
         const user = await auth.login(input, req.ip);
         const { token, maxAgeMs } = await sessions.issue(user.id, req.ip);
         res.cookie(sessionCookieName, token, { ...sessions.cookieOptions, maxAge: maxAgeMs });
-        res.cookie(sessionHintCookieName, '1', { ...sessions.cookieOptions, httpOnly: false, maxAge: maxAgeMs });
+        res.cookie(sessionHintCookieName, '1', {
+          ...sessions.cookieOptions,
+          httpOnly: false,
+          maxAge: maxAgeMs,
+        });
         res.json({ user });
       },
     },
@@ -45,7 +60,10 @@ export function authRoutes(auth: AuthService, sessions: Sessions): RouteSpec[] {
       access: 'signed-in',
       handler: async (req, res) => {
         const input = parseInput(changePasswordSchema, req.body);
-        await auth.changePassword({ id: signedInUser(res).id, sessionId: signedInSessionId(res), ipAddress: req.ip }, input);
+        await auth.changePassword(
+          { id: signedInUser(res).id, sessionId: signedInSessionId(res), ipAddress: req.ip },
+          input,
+        );
         res.status(204).end();
       },
     },

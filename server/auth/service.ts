@@ -1,5 +1,10 @@
 import type { DataSource } from 'typeorm';
-import type { ChangePassword, LoginRequest, PasswordLinkInfo, SetPassword } from '../../shared/schemas/auth';
+import type {
+  ChangePassword,
+  LoginRequest,
+  PasswordLinkInfo,
+  SetPassword,
+} from '../../shared/schemas/auth';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
 import type { UserRepository } from '../people/repository';
@@ -12,10 +17,18 @@ import type { SignInSessionRepository } from './session-repository';
 import type { Throttle } from './throttle';
 
 const invalidCredentials = () =>
-  new AppError(401, 'invalid_credentials', 'The e-mail or password is not right, or the account cannot sign in.');
+  new AppError(
+    401,
+    'invalid_credentials',
+    'The e-mail or password is not right, or the account cannot sign in.',
+  );
 
 const linkGone = () =>
-  new AppError(410, 'link_not_valid', 'This link has been used, has expired or was replaced by a newer one. Ask an administrator to send a new link.');
+  new AppError(
+    410,
+    'link_not_valid',
+    'This link has been used, has expired or was replaced by a newer one. Ask an administrator to send a new link.',
+  );
 
 interface Deps {
   dataSource: DataSource;
@@ -31,17 +44,27 @@ export function createAuthService({ dataSource, users, sessions, links, throttle
    * Checks a person's own password, for signing in and at every signature prompt: the same
    * throttle, the same verification, and an older hash upgraded once the password is known.
    */
-  async function checkPassword(email: string, password: string, ipAddress: string | undefined, what: string) {
+  async function checkPassword(
+    email: string,
+    password: string,
+    ipAddress: string | undefined,
+    what: string,
+  ) {
     const keys = { email, ipAddress };
     await throttle.assertMayTry(keys, what);
     const user = await users.findByEmail(email);
     const check = await verifyPassword(password, user?.passwordHash);
     if (!user || !check.matches || !user.active) {
       await throttle.recordFailure(keys);
-      return { user, ok: false as const, reason: !user ? 'unknown-email' : !check.matches ? 'wrong-password' : 'deactivated' };
+      return {
+        user,
+        ok: false as const,
+        reason: !user ? 'unknown-email' : !check.matches ? 'wrong-password' : 'deactivated',
+      };
     }
     await throttle.recordSuccess(keys);
-    if (check.needsUpgrade) await users.rehashPassword(user.id, user.passwordHash, await hashPassword(password));
+    if (check.needsUpgrade)
+      await users.rehashPassword(user.id, user.passwordHash, await hashPassword(password));
     return { user, ok: true as const };
   }
 
@@ -61,42 +84,93 @@ export function createAuthService({ dataSource, users, sessions, links, throttle
         throw invalidCredentials();
       }
       const { user } = result;
-      await audit.append({ actorUserId: user.id, action: 'sign-in', entityType: 'user', entityId: user.id, ipAddress });
-      return { id: user.id, email: user.email, displayName: user.displayName, roles: user.roles, capabilities: capabilitiesOf(user.roles) };
+      await audit.append({
+        actorUserId: user.id,
+        action: 'sign-in',
+        entityType: 'user',
+        entityId: user.id,
+        ipAddress,
+      });
+      return {
+        id: user.id,
+        email: user.email,
+        displayName: user.displayName,
+        roles: user.roles,
+        capabilities: capabilitiesOf(user.roles),
+      };
     },
 
     /** The signature prompt: the signer's own password, throttled like a sign-in. */
-    async confirmSignature(userId: number, password: string, ipAddress: string | undefined): Promise<boolean> {
+    async confirmSignature(
+      userId: number,
+      password: string,
+      ipAddress: string | undefined,
+    ): Promise<boolean> {
       const user = await users.findById(userId);
       if (!user) return false;
       return (await checkPassword(user.email, password, ipAddress, 'password entries')).ok;
     },
 
-    async logout(session: { userId: number; tokenHash: string } | null, ipAddress: string | undefined): Promise<void> {
+    async logout(
+      session: { userId: number; tokenHash: string } | null,
+      ipAddress: string | undefined,
+    ): Promise<void> {
       if (!session) return;
       await sessions.revoke({ tokenHash: session.tokenHash }, 'signed-out');
-      await audit.append({ actorUserId: session.userId, action: 'sign-out', entityType: 'user', entityId: session.userId, ipAddress });
+      await audit.append({
+        actorUserId: session.userId,
+        action: 'sign-out',
+        entityType: 'user',
+        entityId: session.userId,
+        ipAddress,
+      });
     },
 
     /** A person changes their own password; every other session of theirs ends. */
-    async changePassword(actor: { id: number; sessionId: string; ipAddress?: string }, input: ChangePassword): Promise<void> {
+    async changePassword(
+      actor: { id: number; sessionId: string; ipAddress?: string },
+      input: ChangePassword,
+    ): Promise<void> {
       const user = await users.findById(actor.id);
       if (!user) throw AppError.unauthorised();
-      await throttle.assertMayTry({ email: user.email, ipAddress: actor.ipAddress }, 'password entries');
+      await throttle.assertMayTry(
+        { email: user.email, ipAddress: actor.ipAddress },
+        'password entries',
+      );
       const check = await verifyPassword(input.currentPassword, user.passwordHash);
       if (!check.matches) {
         await throttle.recordFailure({ email: user.email, ipAddress: actor.ipAddress });
-        await audit.append({ actorUserId: user.id, action: 'password.change-refused', entityType: 'user', entityId: user.id, ipAddress: actor.ipAddress });
-        throw AppError.badRequest('The current password is not right; nothing was changed.', [{ path: 'currentPassword', message: 'currentPassword must be the password you sign in with now' }]);
+        await audit.append({
+          actorUserId: user.id,
+          action: 'password.change-refused',
+          entityType: 'user',
+          entityId: user.id,
+          ipAddress: actor.ipAddress,
+        });
+        throw AppError.badRequest('The current password is not right; nothing was changed.', [
+          {
+            path: 'currentPassword',
+            message: 'currentPassword must be the password you sign in with now',
+          },
+        ]);
       }
       checkNewPassword(input.newPassword, 'newPassword', user);
       if (input.newPassword === input.currentPassword) {
-        throw AppError.badRequest('The new password is the same as the current one.', [{ path: 'newPassword', message: 'newPassword must differ from the current password' }]);
+        throw AppError.badRequest('The new password is the same as the current one.', [
+          { path: 'newPassword', message: 'newPassword must differ from the current password' },
+        ]);
       }
       await users.setPassword(user.id, await hashPassword(input.newPassword));
       await throttle.recordSuccess({ email: user.email, ipAddress: actor.ipAddress });
       const ended = await sessions.revokeAllOf(user.id, 'password-changed', actor.sessionId);
-      await audit.append({ actorUserId: user.id, action: 'password.changed', entityType: 'user', entityId: user.id, ipAddress: actor.ipAddress, details: { otherSessionsEnded: ended } });
+      await audit.append({
+        actorUserId: user.id,
+        action: 'password.changed',
+        entityType: 'user',
+        entityId: user.id,
+        ipAddress: actor.ipAddress,
+        details: { otherSessionsEnded: ended },
+      });
     },
 
     /** What the set-password page shows before the person types: whose link it is. */
@@ -123,7 +197,14 @@ export function createAuthService({ dataSource, users, sessions, links, throttle
       });
       const ended = await sessions.revokeAllOf(user.id, 'password-set');
       await throttle.recordSuccess({ email: user.email, ipAddress });
-      await audit.append({ actorUserId: user.id, action: 'password.set-by-link', entityType: 'user', entityId: user.id, ipAddress, details: { purpose: link.purpose, sessionsEnded: ended } });
+      await audit.append({
+        actorUserId: user.id,
+        action: 'password.set-by-link',
+        entityType: 'user',
+        entityId: user.id,
+        ipAddress,
+        details: { purpose: link.purpose, sessionsEnded: ended },
+      });
     },
   };
 }

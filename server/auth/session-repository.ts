@@ -18,13 +18,20 @@ export interface SessionRow {
 /** The sign_in_session table. Times come from the database's clock, the same for every process. */
 export function createSignInSessionRepository(dataSource: DataSource) {
   return {
-    async insert(row: { tokenHash: string; userId: number; lifetimeS: number; ipAddress: string | undefined }): Promise<void> {
+    async insert(row: {
+      tokenHash: string;
+      userId: number;
+      lifetimeS: number;
+      ipAddress: string | undefined;
+    }): Promise<void> {
       await dataSource.query(
         'INSERT INTO sign_in_session (token_hash, user_id, expires_at, ip_address) VALUES (?, ?, NOW(3) + INTERVAL ? SECOND, ?)',
         [row.tokenHash, row.userId, row.lifetimeS, row.ipAddress?.slice(0, 64) ?? null],
       );
       // Rows long past their end are of no use; a few go with each sign-in.
-      await dataSource.query('DELETE FROM sign_in_session WHERE expires_at < NOW(3) - INTERVAL 30 DAY LIMIT 100');
+      await dataSource.query(
+        'DELETE FROM sign_in_session WHERE expires_at < NOW(3) - INTERVAL 30 DAY LIMIT 100',
+      );
     },
 
     /**
@@ -53,12 +60,21 @@ export function createSignInSessionRepository(dataSource: DataSource) {
     },
 
     async touch(sessionId: string): Promise<void> {
-      await dataSource.query('UPDATE sign_in_session SET last_seen_at = NOW(3) WHERE id = ?', [sessionId]);
+      await dataSource.query('UPDATE sign_in_session SET last_seen_at = NOW(3) WHERE id = ?', [
+        sessionId,
+      ]);
     },
 
-    async revoke(where: { sessionId: string } | { tokenHash: string }, reason: string): Promise<number> {
-      const [column, value] = 'sessionId' in where ? ['id', where.sessionId] : ['token_hash', where.tokenHash];
-      const result = await dataSource.query(`UPDATE sign_in_session SET revoked_at = NOW(3), revoked_reason = ? WHERE ${column} = ? AND revoked_at IS NULL`, [reason, value]);
+    async revoke(
+      where: { sessionId: string } | { tokenHash: string },
+      reason: string,
+    ): Promise<number> {
+      const [column, value] =
+        'sessionId' in where ? ['id', where.sessionId] : ['token_hash', where.tokenHash];
+      const result = await dataSource.query(
+        `UPDATE sign_in_session SET revoked_at = NOW(3), revoked_reason = ? WHERE ${column} = ? AND revoked_at IS NULL`,
+        [reason, value],
+      );
       return Number(result?.affectedRows ?? 0);
     },
 

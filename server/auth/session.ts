@@ -62,10 +62,19 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
   const idleLimitS = config.SESSION_IDLE_MIN * 60;
 
   /** Starts a session: a row keyed by the hash of a random id, and a signed cookie carrying the id. */
-  async function issue(userId: number, ipAddress: string | undefined): Promise<{ token: string; maxAgeMs: number }> {
+  async function issue(
+    userId: number,
+    ipAddress: string | undefined,
+  ): Promise<{ token: string; maxAgeMs: number }> {
     const sessionKey = randomBytes(32).toString('base64url');
     await rows.insert({ tokenHash: sha256Hex(sessionKey), userId, lifetimeS, ipAddress });
-    const token = jwt.sign({}, config.JWT_SECRET, { algorithm: 'HS256', subject: String(userId), jwtid: sessionKey, expiresIn: lifetimeS, issuer: 'luxtempo' });
+    const token = jwt.sign({}, config.JWT_SECRET, {
+      algorithm: 'HS256',
+      subject: String(userId),
+      jwtid: sessionKey,
+      expiresIn: lifetimeS,
+      issuer: 'luxtempo',
+    });
     return { token, maxAgeMs: lifetimeS * 1000 };
   }
 
@@ -76,7 +85,10 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
    * genuine: whether its session still counts is read from the database on every call, so no
    * process can honour a session another has ended.
    */
-  const checkedTokens = new Map<string, { userId: number; tokenHash: string; expiresAtMs: number }>();
+  const checkedTokens = new Map<
+    string,
+    { userId: number; tokenHash: string; expiresAtMs: number }
+  >();
   const checkedTokensMax = 10_000;
 
   function verifiedToken(token: string): { userId: number; tokenHash: string } | null {
@@ -87,12 +99,26 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
       return null;
     }
     try {
-      const payload = jwt.verify(token, config.JWT_SECRET, { algorithms: ['HS256'], issuer: 'luxtempo' });
-      if (typeof payload !== 'object' || typeof payload.exp !== 'number' || typeof payload.jti !== 'string' || payload.jti.length < 32) return null;
+      const payload = jwt.verify(token, config.JWT_SECRET, {
+        algorithms: ['HS256'],
+        issuer: 'luxtempo',
+      });
+      if (
+        typeof payload !== 'object' ||
+        typeof payload.exp !== 'number' ||
+        typeof payload.jti !== 'string' ||
+        payload.jti.length < 32
+      )
+        return null;
       const userId = Number(payload.sub);
       if (!Number.isInteger(userId) || userId <= 0) return null;
-      const checked = { userId, tokenHash: sha256Hex(payload.jti), expiresAtMs: payload.exp * 1000 };
-      if (checkedTokens.size >= checkedTokensMax) checkedTokens.delete(checkedTokens.keys().next().value!);
+      const checked = {
+        userId,
+        tokenHash: sha256Hex(payload.jti),
+        expiresAtMs: payload.exp * 1000,
+      };
+      if (checkedTokens.size >= checkedTokensMax)
+        checkedTokens.delete(checkedTokens.keys().next().value!);
       checkedTokens.set(token, checked);
       return checked;
     } catch {
@@ -101,7 +127,9 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
   }
 
   /** The session a request's cookie names, if its token is genuine (for sign-out). */
-  function tokenOf(cookies: Record<string, unknown> | undefined): { userId: number; tokenHash: string } | null {
+  function tokenOf(
+    cookies: Record<string, unknown> | undefined,
+  ): { userId: number; tokenHash: string } | null {
     const token = cookies?.[sessionCookieName];
     return typeof token === 'string' && token.length > 0 ? verifiedToken(token) : null;
   }
@@ -110,16 +138,24 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
     const token: unknown = req.cookies?.[sessionCookieName];
     if (typeof token !== 'string' || token.length === 0) return next(AppError.unauthorised());
     const checked = verifiedToken(token);
-    if (checked === null) return next(AppError.unauthorised('Your session has ended or is not valid. Please sign in again.'));
+    if (checked === null)
+      return next(
+        AppError.unauthorised('Your session has ended or is not valid. Please sign in again.'),
+      );
     const session = await rows.find(checked.tokenHash);
     if (!session || session.userId !== checked.userId || session.revoked || session.ended) {
       return next(AppError.unauthorised('Your session has ended. Please sign in again.'));
     }
     if (session.idleS >= idleLimitS) {
       await rows.revoke({ sessionId: session.sessionId }, 'idle');
-      return next(AppError.unauthorised(`You were signed out after ${config.SESSION_IDLE_MIN} minutes without activity. Please sign in again.`));
+      return next(
+        AppError.unauthorised(
+          `You were signed out after ${config.SESSION_IDLE_MIN} minutes without activity. Please sign in again.`,
+        ),
+      );
     }
-    if (!session.active) return next(AppError.unauthorised('This account cannot sign in. Ask an administrator.'));
+    if (!session.active)
+      return next(AppError.unauthorised('This account cannot sign in. Ask an administrator.'));
     if (session.idleS >= touchEveryS) await rows.touch(session.sessionId);
     res.locals.sessionId = session.sessionId;
     res.locals.user = {
@@ -132,10 +168,12 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
     next();
   };
 
-  const requireCapability = (capability: Capability): RequestHandler => (_req, res, next) => {
-    if (res.locals.user?.capabilities.includes(capability)) return next();
-    next(AppError.forbidden());
-  };
+  const requireCapability =
+    (capability: Capability): RequestHandler =>
+    (_req, res, next) => {
+      if (res.locals.user?.capabilities.includes(capability)) return next();
+      next(AppError.forbidden());
+    };
 
   return {
     cookieOptions,

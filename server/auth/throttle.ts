@@ -25,11 +25,23 @@ function keysOf({ email, ipAddress }: ThrottleKeys): string[] {
 
 export function tooManyAttempts(retryAfterS: number, what = 'sign-ins'): AppError {
   const minutes = Math.max(1, Math.ceil(retryAfterS / 60));
-  const wait = retryAfterS < 60 ? `${retryAfterS} seconds` : `about ${minutes} minute${minutes === 1 ? '' : 's'}`;
-  return new AppError(429, 'too_many_attempts', `Too many failed ${what}. Wait ${wait} and try again, or ask an administrator.`, undefined, retryAfterS);
+  const wait =
+    retryAfterS < 60
+      ? `${retryAfterS} seconds`
+      : `about ${minutes} minute${minutes === 1 ? '' : 's'}`;
+  return new AppError(
+    429,
+    'too_many_attempts',
+    `Too many failed ${what}. Wait ${wait} and try again, or ask an administrator.`,
+    undefined,
+    retryAfterS,
+  );
 }
 
-export function createThrottle(dataSource: DataSource, config: Pick<Config, 'LOGIN_FAILURE_LIMIT' | 'LOGIN_FAILURE_WINDOW_MIN'>) {
+export function createThrottle(
+  dataSource: DataSource,
+  config: Pick<Config, 'LOGIN_FAILURE_LIMIT' | 'LOGIN_FAILURE_WINDOW_MIN'>,
+) {
   const windowS = config.LOGIN_FAILURE_WINDOW_MIN * 60;
   const limit = config.LOGIN_FAILURE_LIMIT;
 
@@ -68,7 +80,9 @@ export function createThrottle(dataSource: DataSource, config: Pick<Config, 'LOG
 
     /** The right password for an account clears that account's count (an address keeps its own). */
     async recordSuccess(keys: ThrottleKeys): Promise<void> {
-      await dataSource.query('DELETE FROM sign_in_throttle WHERE throttle_key = ?', [keysOf(keys)[0]]);
+      await dataSource.query('DELETE FROM sign_in_throttle WHERE throttle_key = ?', [
+        keysOf(keys)[0],
+      ]);
     },
   };
 }

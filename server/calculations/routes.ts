@@ -1,7 +1,10 @@
 import { computePlan } from '../../shared/engine/compute-plan';
 import { solveLight } from '../../shared/engine/light-calculator';
 import { PlanInputError } from '../../shared/engine/plan-input-error';
-import { calculationRequestSchema, lightCalculationRequestSchema } from '../../shared/schemas/calculation';
+import {
+  calculationRequestSchema,
+  lightCalculationRequestSchema,
+} from '../../shared/schemas/calculation';
 import { AppError } from '../http/app-error';
 import type { RouteSpec } from '../http/route-table';
 import { parseInput } from '../http/validation';
@@ -24,7 +27,10 @@ export function calculationRoutes(protocols: ProtocolService): RouteSpec[] {
       access: 'orders.write',
       handler: async (req, res) => {
         const request = parseInput(calculationRequestSchema, req.body);
-        const row = await protocols.resolveForPreview(request.protocol.key, request.protocol.version);
+        const row = await protocols.resolveForPreview(
+          request.protocol.key,
+          request.protocol.version,
+        );
         let plan;
         try {
           plan = computePlan(row.definition, request.inputs);
@@ -37,7 +43,10 @@ export function calculationRoutes(protocols: ProtocolService): RouteSpec[] {
             message: `Protocol ${row.key} version ${row.version} is ${row.status}: this plan is for review only and cannot be used for an order.`,
           });
         }
-        res.json({ plan, protocol: { key: row.key, version: row.version, status: row.status, sha256: row.sha256 } });
+        res.json({
+          plan,
+          protocol: { key: row.key, version: row.version, status: row.status, sha256: row.sha256 },
+        });
       },
     },
     {

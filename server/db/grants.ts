@@ -1,7 +1,15 @@
 import type { DataSource } from 'typeorm';
 
 /** Tables whose rows, once written, stay as written: the app may add and read, never change. */
-export const appendOnlyTables = new Set(['audit_event', 'dose_check', 'session_event', 'deviation_review', 'preparation', 'protocol_approval', 'patient_measurement']);
+export const appendOnlyTables = new Set([
+  'audit_event',
+  'dose_check',
+  'session_event',
+  'deviation_review',
+  'preparation',
+  'protocol_approval',
+  'patient_measurement',
+]);
 
 /** Tables the app may read and change but never add to or delete from (a single row kept up to date). */
 export const updateOnlyTables = new Set(['audit_chain_head']);
@@ -19,10 +27,19 @@ export async function grantAppUserRights(owner: DataSource, appUser: string): Pr
   );
   for (const host of ['127.0.0.1', 'localhost']) {
     for (const { name } of tables) {
-      const rights = appendOnlyTables.has(name) ? 'SELECT, INSERT' : updateOnlyTables.has(name) ? 'SELECT, UPDATE' : 'SELECT, INSERT, UPDATE, DELETE';
+      const rights = appendOnlyTables.has(name)
+        ? 'SELECT, INSERT'
+        : updateOnlyTables.has(name)
+          ? 'SELECT, UPDATE'
+          : 'SELECT, INSERT, UPDATE, DELETE';
       if (appendOnlyTables.has(name) || updateOnlyTables.has(name)) {
         // A right granted before a table became append-only must not linger.
-        await owner.query(`REVOKE INSERT, UPDATE, DELETE ON \`${database}\`.\`${name}\` FROM ?@?`, [appUser, host]).catch(() => undefined);
+        await owner
+          .query(`REVOKE INSERT, UPDATE, DELETE ON \`${database}\`.\`${name}\` FROM ?@?`, [
+            appUser,
+            host,
+          ])
+          .catch(() => undefined);
       }
       await owner.query(`GRANT ${rights} ON \`${database}\`.\`${name}\` TO ?@?`, [appUser, host]);
     }

@@ -23,7 +23,29 @@ import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
 import { migrations } from './migration-list';
 
-export const entities = [User, AuditEvent, ProtocolVersion, ProtocolApproval, Patient, TreatmentOrder, DoseCheck, Preparation, Attachment, OutboxMessage, SessionEventRow, DeviationRow, DoseRecordRow, DeviationReview, SessionParticipant, PatientMeasurement, SignInSession, PasswordLink, SignInThrottle, RoleRequest, AuditChainHead];
+export const entities = [
+  User,
+  AuditEvent,
+  ProtocolVersion,
+  ProtocolApproval,
+  Patient,
+  TreatmentOrder,
+  DoseCheck,
+  Preparation,
+  Attachment,
+  OutboxMessage,
+  SessionEventRow,
+  DeviationRow,
+  DoseRecordRow,
+  DeviationReview,
+  SessionParticipant,
+  PatientMeasurement,
+  SignInSession,
+  PasswordLink,
+  SignInThrottle,
+  RoleRequest,
+  AuditChainHead,
+];
 
 export interface DatabaseConnection {
   host: string;
@@ -55,7 +77,13 @@ export function dataSourceOptions(connection: DatabaseConnection): DataSourceOpt
 /** The running app's connection: the app user, with table rights only. */
 export function appDataSource(config: Config): DataSource {
   return new DataSource(
-    dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: config.DB_USER, password: config.DB_PASSWORD }),
+    dataSourceOptions({
+      host: config.DB_HOST,
+      port: config.DB_PORT,
+      database: config.DB_NAME,
+      username: config.DB_USER,
+      password: config.DB_PASSWORD,
+    }),
   );
 }
 
@@ -69,9 +97,19 @@ export interface OwnerCredentials {
 }
 
 /** The schema owner's connection, for migrations. */
-export function ownerDataSource(config: Config, owner: OwnerCredentials, extra: { migrationsTransactionMode?: 'all' | 'none' | 'each'; logging?: boolean } = {}): DataSource {
+export function ownerDataSource(
+  config: Config,
+  owner: OwnerCredentials,
+  extra: { migrationsTransactionMode?: 'all' | 'none' | 'each'; logging?: boolean } = {},
+): DataSource {
   return new DataSource({
-    ...dataSourceOptions({ host: config.DB_HOST, port: config.DB_PORT, database: config.DB_NAME, username: owner.user, password: owner.password }),
+    ...dataSourceOptions({
+      host: config.DB_HOST,
+      port: config.DB_PORT,
+      database: config.DB_NAME,
+      username: owner.user,
+      password: owner.password,
+    }),
     ...extra,
   } as DataSourceOptions);
 }

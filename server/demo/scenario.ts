@@ -20,16 +20,33 @@ import { demoDomain, demoPatients } from './seed';
  * versions may refuse a plan (v1 of the PDT protocols rounds volumes too coarsely for the 1%
  * drawn-dose rule).
  */
-export async function newestApprovedVersion(dataSource: DataSource, key: string): Promise<ProtocolVersion> {
-  const [newest] = await dataSource.getRepository(ProtocolVersion).find({ where: { key, status: 'approved' }, order: { version: 'DESC' }, take: 1 });
+export async function newestApprovedVersion(
+  dataSource: DataSource,
+  key: string,
+): Promise<ProtocolVersion> {
+  const [newest] = await dataSource
+    .getRepository(ProtocolVersion)
+    .find({ where: { key, status: 'approved' }, order: { version: 'DESC' }, take: 1 });
   if (!newest) throw new Error(`the demo needs an approved version of protocol ${key}`);
   return newest;
 }
 
 /** A script line: seconds from the session start, and the event as the tablet would send it. */
-type ScriptEvent = { type: SessionEventInput['type']; stepId?: string; checks?: Record<string, true>; thicknessUm?: number; exposureS?: number };
+type ScriptEvent = {
+  type: SessionEventInput['type'];
+  stepId?: string;
+  checks?: Record<string, true>;
+  thicknessUm?: number;
+  exposureS?: number;
+};
 export type Step = [offsetS: number, event: ScriptEvent];
-const checks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true } as const;
+const checks = {
+  patientIdentity: true,
+  treatmentEye: true,
+  consent: true,
+  eyewear: true,
+  deviceSettings: true,
+} as const;
 
 /** A standard PDT session; `lightLateS` moves the laser later, as when the laser room was busy. */
 export function pdtScript(lightLateS = 0): Step[] {
@@ -51,7 +68,14 @@ export function pdtScript(lightLateS = 0): Step[] {
 }
 
 /** A CXL session: soak with drops every interval, a thickness reading, UV with drops. */
-export function cxlScript(opts: { soakS: number; dropEveryS: number; uvS: number; uvDropEveryS: number; thicknessUm: number; missedDropAtS?: number }): Step[] {
+export function cxlScript(opts: {
+  soakS: number;
+  dropEveryS: number;
+  uvS: number;
+  uvDropEveryS: number;
+  thicknessUm: number;
+  missedDropAtS?: number;
+}): Step[] {
   const steps: Step[] = [
     [0, { type: 'session-started', checks }],
     [30, { type: 'step-started', stepId: 'epithelium-removal' }],
@@ -66,11 +90,15 @@ export function cxlScript(opts: { soakS: number; dropEveryS: number; uvS: number
   steps.push(
     [soakEnd, { type: 'step-ended', stepId: 'riboflavin-soak' }],
     [soakEnd, { type: 'step-started', stepId: 'thickness-check' }],
-    [soakEnd + 40, { type: 'thickness-measured', stepId: 'thickness-check', thicknessUm: opts.thicknessUm }],
+    [
+      soakEnd + 40,
+      { type: 'thickness-measured', stepId: 'thickness-check', thicknessUm: opts.thicknessUm },
+    ],
     [soakEnd + 60, { type: 'step-ended', stepId: 'thickness-check' }],
     [soakEnd + 60, { type: 'step-started', stepId: 'uv-exposure' }],
   );
-  for (let t = opts.uvDropEveryS; t < opts.uvS; t += opts.uvDropEveryS) steps.push([soakEnd + 60 + t, { type: 'drop-given', stepId: 'uv-exposure' }]);
+  for (let t = opts.uvDropEveryS; t < opts.uvS; t += opts.uvDropEveryS)
+    steps.push([soakEnd + 60 + t, { type: 'drop-given', stepId: 'uv-exposure' }]);
   const uvEnd = soakEnd + 60 + opts.uvS;
   steps.push(
     [uvEnd, { type: 'step-ended', stepId: 'uv-exposure' }],
@@ -93,34 +121,175 @@ interface HistoryItem {
   script: Step[];
 }
 
-const adult = (p: (typeof demoPatients)[number], imperial = false): Pick<PlanInputs, 'height' | 'weight'> =>
+const adult = (
+  p: (typeof demoPatients)[number],
+  imperial = false,
+): Pick<PlanInputs, 'height' | 'weight'> =>
   imperial
-    ? { height: { value: Math.round((p.heightCm / 2.54) * 10) / 10, unit: 'in' }, weight: { value: Math.round((p.weightKg / 0.45359237) * 10) / 10, unit: 'lb' } }
+    ? {
+        height: { value: Math.round((p.heightCm / 2.54) * 10) / 10, unit: 'in' },
+        weight: { value: Math.round((p.weightKg / 0.45359237) * 10) / 10, unit: 'lb' },
+      }
     : { height: { value: p.heightCm, unit: 'cm' }, weight: { value: p.weightKg, unit: 'kg' } };
-const patient = (recordNumber: string) => demoPatients.find((p) => p.recordNumber === recordNumber)!;
+const patient = (recordNumber: string) =>
+  demoPatients.find((p) => p.recordNumber === recordNumber)!;
 
 /** The unit's recent past: mostly on-protocol sessions, and a few realistic departures. */
 export const demoHistory: HistoryItem[] = [
-  { key: 'h01', recordNumber: 'MP-100201', eye: 'right', protocol: 'pdt-standard', daysAgo: 118, hour: 9, inputs: { ...adult(patient('MP-100201')), lesionGldUm: 2600, lensMagnification: 1.05 }, script: pdtScript() },
-  { key: 'h02', recordNumber: 'MP-100201', eye: 'right', protocol: 'pdt-standard', daysAgo: 24, hour: 10, inputs: { ...adult(patient('MP-100201')), lesionGldUm: 2200, lensMagnification: 1.05 }, script: pdtScript(180) },
-  { key: 'h03', recordNumber: 'MP-100202', eye: 'left', protocol: 'pdt-half-dose', daysAgo: 75, hour: 11, inputs: { ...adult(patient('MP-100202'), true), lesionGldUm: 1800, lensMagnification: 1.0 }, script: pdtScript() },
-  { key: 'h04', recordNumber: 'MP-100205', eye: 'right', protocol: 'pdt-half-fluence', daysAgo: 52, hour: 9, inputs: { ...adult(patient('MP-100205')), lesionGldUm: 3100, lensMagnification: 1.6 }, script: pdtScript() },
-  { key: 'h05', recordNumber: 'MP-100211', eye: 'left', protocol: 'pdt-standard', daysAgo: 33, hour: 14, inputs: { ...adult(patient('MP-100211'), true), lesionGldUm: 4000, lensMagnification: 1.0 }, script: pdtScript(150) },
-  { key: 'h06', recordNumber: 'MP-100207', eye: 'right', protocol: 'cxl-standard', daysAgo: 96, hour: 9, inputs: { stromalThicknessUm: 452 }, script: cxlScript({ soakS: 1800, dropEveryS: 120, uvS: 1800, uvDropEveryS: 300, thicknessUm: 446 }) },
-  { key: 'h07', recordNumber: 'MP-100208', eye: 'left', protocol: 'cxl-accelerated', daysAgo: 61, hour: 10, inputs: { stromalThicknessUm: 470 }, script: cxlScript({ soakS: 1500, dropEveryS: 120, uvS: 600, uvDropEveryS: 120, thicknessUm: 462 }) },
-  { key: 'h08', recordNumber: 'MP-100209', eye: 'right', protocol: 'cxl-accelerated-pulsed', daysAgo: 40, hour: 11, inputs: { stromalThicknessUm: 489 }, script: cxlScript({ soakS: 1800, dropEveryS: 120, uvS: 480, uvDropEveryS: 120, thicknessUm: 480 }) },
-  { key: 'h09', recordNumber: 'MP-100212', eye: 'left', protocol: 'cxl-standard', daysAgo: 19, hour: 9, inputs: { stromalThicknessUm: 468 }, script: cxlScript({ soakS: 1800, dropEveryS: 120, uvS: 1800, uvDropEveryS: 300, thicknessUm: 455, missedDropAtS: 840 }) },
-  { key: 'h10', recordNumber: 'MP-100207', eye: 'left', protocol: 'cxl-accelerated', daysAgo: 9, hour: 13, inputs: { stromalThicknessUm: 458 }, script: cxlScript({ soakS: 1800, dropEveryS: 120, uvS: 600, uvDropEveryS: 120, thicknessUm: 449 }) },
-  { key: 'h11', recordNumber: 'MP-100203', eye: 'left', protocol: 'pdt-standard', daysAgo: 5, hour: 10, inputs: { ...adult(patient('MP-100203')), lesionGldUm: 2900, lensMagnification: 1.0 }, script: pdtScript() },
+  {
+    key: 'h01',
+    recordNumber: 'MP-100201',
+    eye: 'right',
+    protocol: 'pdt-standard',
+    daysAgo: 118,
+    hour: 9,
+    inputs: { ...adult(patient('MP-100201')), lesionGldUm: 2600, lensMagnification: 1.05 },
+    script: pdtScript(),
+  },
+  {
+    key: 'h02',
+    recordNumber: 'MP-100201',
+    eye: 'right',
+    protocol: 'pdt-standard',
+    daysAgo: 24,
+    hour: 10,
+    inputs: { ...adult(patient('MP-100201')), lesionGldUm: 2200, lensMagnification: 1.05 },
+    script: pdtScript(180),
+  },
+  {
+    key: 'h03',
+    recordNumber: 'MP-100202',
+    eye: 'left',
+    protocol: 'pdt-half-dose',
+    daysAgo: 75,
+    hour: 11,
+    inputs: { ...adult(patient('MP-100202'), true), lesionGldUm: 1800, lensMagnification: 1.0 },
+    script: pdtScript(),
+  },
+  {
+    key: 'h04',
+    recordNumber: 'MP-100205',
+    eye: 'right',
+    protocol: 'pdt-half-fluence',
+    daysAgo: 52,
+    hour: 9,
+    inputs: { ...adult(patient('MP-100205')), lesionGldUm: 3100, lensMagnification: 1.6 },
+    script: pdtScript(),
+  },
+  {
+    key: 'h05',
+    recordNumber: 'MP-100211',
+    eye: 'left',
+    protocol: 'pdt-standard',
+    daysAgo: 33,
+    hour: 14,
+    inputs: { ...adult(patient('MP-100211'), true), lesionGldUm: 4000, lensMagnification: 1.0 },
+    script: pdtScript(150),
+  },
+  {
+    key: 'h06',
+    recordNumber: 'MP-100207',
+    eye: 'right',
+    protocol: 'cxl-standard',
+    daysAgo: 96,
+    hour: 9,
+    inputs: { stromalThicknessUm: 452 },
+    script: cxlScript({
+      soakS: 1800,
+      dropEveryS: 120,
+      uvS: 1800,
+      uvDropEveryS: 300,
+      thicknessUm: 446,
+    }),
+  },
+  {
+    key: 'h07',
+    recordNumber: 'MP-100208',
+    eye: 'left',
+    protocol: 'cxl-accelerated',
+    daysAgo: 61,
+    hour: 10,
+    inputs: { stromalThicknessUm: 470 },
+    script: cxlScript({
+      soakS: 1500,
+      dropEveryS: 120,
+      uvS: 600,
+      uvDropEveryS: 120,
+      thicknessUm: 462,
+    }),
+  },
+  {
+    key: 'h08',
+    recordNumber: 'MP-100209',
+    eye: 'right',
+    protocol: 'cxl-accelerated-pulsed',
+    daysAgo: 40,
+    hour: 11,
+    inputs: { stromalThicknessUm: 489 },
+    script: cxlScript({
+      soakS: 1800,
+      dropEveryS: 120,
+      uvS: 480,
+      uvDropEveryS: 120,
+      thicknessUm: 480,
+    }),
+  },
+  {
+    key: 'h09',
+    recordNumber: 'MP-100212',
+    eye: 'left',
+    protocol: 'cxl-standard',
+    daysAgo: 19,
+    hour: 9,
+    inputs: { stromalThicknessUm: 468 },
+    script: cxlScript({
+      soakS: 1800,
+      dropEveryS: 120,
+      uvS: 1800,
+      uvDropEveryS: 300,
+      thicknessUm: 455,
+      missedDropAtS: 840,
+    }),
+  },
+  {
+    key: 'h10',
+    recordNumber: 'MP-100207',
+    eye: 'left',
+    protocol: 'cxl-accelerated',
+    daysAgo: 9,
+    hour: 13,
+    inputs: { stromalThicknessUm: 458 },
+    script: cxlScript({
+      soakS: 1800,
+      dropEveryS: 120,
+      uvS: 600,
+      uvDropEveryS: 120,
+      thicknessUm: 449,
+    }),
+  },
+  {
+    key: 'h11',
+    recordNumber: 'MP-100203',
+    eye: 'left',
+    protocol: 'pdt-standard',
+    daysAgo: 5,
+    hour: 10,
+    inputs: { ...adult(patient('MP-100203')), lesionGldUm: 2900, lensMagnification: 1.0 },
+    script: pdtScript(),
+  },
 ];
 
-const noAnswers = (definition: ProtocolVersion['definition']): ChecklistAnswer[] => definition.contraindications.map((c) => ({ id: c.id, answer: 'no' }));
+const noAnswers = (definition: ProtocolVersion['definition']): ChecklistAnswer[] =>
+  definition.contraindications.map((c) => ({ id: c.id, answer: 'no' }));
 
 /**
  * Loads the demo unit's history of treatments (sessions with events, dose records and a few
  * deviations) and today's open orders. Each item is written once: a rerun finds it by its note.
  */
-export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: string): Promise<number> {
+export async function seedDemoScenario(
+  dataSource: DataSource,
+  unitTimeZone: string,
+): Promise<number> {
   const { DateTime } = await import('luxon');
   const users = createUserRepository(dataSource);
   const patients = createPatientRepository(dataSource);
@@ -140,7 +309,10 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
     const who = await patients.findByRecordNumber(item.recordNumber);
     if (!who) continue;
     const plan = computePlan(pv.definition, item.inputs);
-    const start = DateTime.now().setZone(unitTimeZone).minus({ days: item.daysAgo }).set({ hour: item.hour, minute: 5, second: 0, millisecond: 0 });
+    const start = DateTime.now()
+      .setZone(unitTimeZone)
+      .minus({ days: item.daysAgo })
+      .set({ hour: item.hour, minute: 5, second: 0, millisecond: 0 });
     const startMs = start.toMillis();
     const signedAt = new Date(startMs - 3 * 3600_000);
 
@@ -168,34 +340,52 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
         returnComment: null,
         beyondUseAt: null,
       });
-      await manager.query('UPDATE treatment_order SET created_at = ? WHERE id = ?', [new Date(signedAt.getTime() - 600_000), order.id]);
-      await patients.recordMeasurement(manager, { patientId: who.id, orderId: order.id, measuredAt: signedAt }, item.inputs);
+      await manager.query('UPDATE treatment_order SET created_at = ? WHERE id = ?', [
+        new Date(signedAt.getTime() - 600_000),
+        order.id,
+      ]);
+      await patients.recordMeasurement(
+        manager,
+        { patientId: who.id, orderId: order.id, measuredAt: signedAt },
+        item.inputs,
+      );
       let preparation = null;
       if (pv.definition.drug) {
         // Dated that morning, not when the demo was loaded (dose checks are append-only, so set at insert).
-        await manager.query("INSERT INTO dose_check (order_id, pharmacist_id, bsa_m2, dose_mg, drug_volume_ml, outcome, differing, created_at) VALUES (?, ?, ?, ?, ?, 'match', '[]', ?)", [
-          order.id,
-          pharmacist.id,
-          plan.bsaM2,
-          plan.doseMg,
-          plan.drugVolumeMl,
-          new Date(signedAt.getTime() + 45 * 60_000),
-        ]);
+        await manager.query(
+          "INSERT INTO dose_check (order_id, pharmacist_id, bsa_m2, dose_mg, drug_volume_ml, outcome, differing, created_at) VALUES (?, ?, ?, ?, ?, 'match', '[]', ?)",
+          [
+            order.id,
+            pharmacist.id,
+            plan.bsaM2,
+            plan.doseMg,
+            plan.drugVolumeMl,
+            new Date(signedAt.getTime() + 45 * 60_000),
+          ],
+        );
         const reconstitutedAt = new Date(startMs - 30 * 60_000);
-        const beyondUseAt = new Date(reconstitutedAt.getTime() + pv.definition.drug.beyondUseH * 3600_000);
+        const beyondUseAt = new Date(
+          reconstitutedAt.getTime() + pv.definition.drug.beyondUseH * 3600_000,
+        );
         // Preparations are append-only too: dated at insert.
-        await manager.query('INSERT INTO preparation (order_id, pharmacist_id, vial_lot, vial_expiry, reconstituted_at, volume_drawn_ml, beyond_use_at, created_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)', [
-          order.id,
-          pharmacist.id,
-          `DEMO-${item.key.toUpperCase()}`,
-          start.plus({ months: 8 }).toISODate()!,
-          reconstitutedAt,
-          plan.drugVolumeMl!,
-          beyondUseAt,
-          reconstitutedAt,
-        ]);
+        await manager.query(
+          'INSERT INTO preparation (order_id, pharmacist_id, vial_lot, vial_expiry, reconstituted_at, volume_drawn_ml, beyond_use_at, created_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
+          [
+            order.id,
+            pharmacist.id,
+            `DEMO-${item.key.toUpperCase()}`,
+            start.plus({ months: 8 }).toISODate()!,
+            reconstitutedAt,
+            plan.drugVolumeMl!,
+            beyondUseAt,
+            reconstitutedAt,
+          ],
+        );
         await manager.update(TreatmentOrder, { id: order.id }, { beyondUseAt });
-        preparation = { reconstitutedAt: reconstitutedAt.toISOString(), beyondUseAt: beyondUseAt.toISOString() };
+        preparation = {
+          reconstitutedAt: reconstitutedAt.toISOString(),
+          beyondUseAt: beyondUseAt.toISOString(),
+        };
       }
       const rows = item.script.map(([offsetS, event]) => ({
         orderId: order.id,
@@ -205,18 +395,37 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
         clientTime: new Date(startMs + offsetS * 1000),
         serverTime: new Date(startMs + offsetS * 1000 + 150),
         recordedBy: nurse.id,
-        payload: { ...event, idempotencyKey: '', clientTime: new Date(startMs + offsetS * 1000).toISOString() } as unknown as SessionEventRow['payload'] & object,
+        payload: {
+          ...event,
+          idempotencyKey: '',
+          clientTime: new Date(startMs + offsetS * 1000).toISOString(),
+        } as unknown as SessionEventRow['payload'] & object,
       }));
-      for (const row of rows) (row.payload as { idempotencyKey: string }).idempotencyKey = row.idempotencyKey;
+      for (const row of rows)
+        (row.payload as { idempotencyKey: string }).idempotencyKey = row.idempotencyKey;
       await manager.getRepository(SessionEventRow).insert(rows);
       const events = await sessions.eventsFor(order.id, manager);
       const record = deriveDoseRecord({ protocol: pv.definition, plan, events });
-      const found = findDeviations({ protocol: pv.definition, plan, record, checklist: noAnswers(pv.definition), preparation });
+      const found = findDeviations({
+        protocol: pv.definition,
+        plan,
+        record,
+        checklist: noAnswers(pv.definition),
+        preparation,
+      });
       await sessions.reconcileDeviations(manager, order.id, pv.id, found);
       // Deviations belong to the session's day, for the monthly figures; dated before the record
       // exists, because an ended session's deviations are closed to change (migration DatabaseIntegrity).
-      await manager.query('UPDATE deviation SET detected_at = ? WHERE order_id = ?', [new Date(startMs + 3600_000), order.id]);
-      await sessions.saveRecord(manager, order.id, record, { protocolVersionId: pv.id, unitTimeZone, deviationCount: found.length, order: recordOrderFacts({ eye: item.eye, patientId: who.id, plan }) });
+      await manager.query('UPDATE deviation SET detected_at = ? WHERE order_id = ?', [
+        new Date(startMs + 3600_000),
+        order.id,
+      ]);
+      await sessions.saveRecord(manager, order.id, record, {
+        protocolVersionId: pv.id,
+        unitTimeZone,
+        deviationCount: found.length,
+        order: recordOrderFacts({ eye: item.eye, patientId: who.id, plan }),
+      });
       await addParticipant(manager, order.id, clinician.id, 'ordered');
       await addParticipant(manager, order.id, nurse.id, 'nursed');
       if (preparation) {
@@ -228,10 +437,38 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
   }
 
   // Today's open work: a ready CXL order for the nurse, a signed PDT order for the pharmacist.
-  const today: { note: string; recordNumber: string; eye: 'right' | 'left'; protocol: string; inputs: PlanInputs; status: 'ready' | 'signed' | 'draft' }[] = [
-    { note: 'Demo today: ready CXL', recordNumber: 'MP-100212', eye: 'right', protocol: 'cxl-standard', inputs: { stromalThicknessUm: 474 }, status: 'ready' },
-    { note: 'Demo today: PDT for check', recordNumber: 'MP-100206', eye: 'right', protocol: 'pdt-standard', inputs: { ...adult(patient('MP-100206')), lesionGldUm: 2400, lensMagnification: 1.05 }, status: 'signed' },
-    { note: 'Demo today: PDT draft', recordNumber: 'MP-100210', eye: 'left', protocol: 'pdt-half-fluence', inputs: { ...adult(patient('MP-100210'), true), lesionGldUm: 1900, lensMagnification: 1.0 }, status: 'draft' },
+  const today: {
+    note: string;
+    recordNumber: string;
+    eye: 'right' | 'left';
+    protocol: string;
+    inputs: PlanInputs;
+    status: 'ready' | 'signed' | 'draft';
+  }[] = [
+    {
+      note: 'Demo today: ready CXL',
+      recordNumber: 'MP-100212',
+      eye: 'right',
+      protocol: 'cxl-standard',
+      inputs: { stromalThicknessUm: 474 },
+      status: 'ready',
+    },
+    {
+      note: 'Demo today: PDT for check',
+      recordNumber: 'MP-100206',
+      eye: 'right',
+      protocol: 'pdt-standard',
+      inputs: { ...adult(patient('MP-100206')), lesionGldUm: 2400, lensMagnification: 1.05 },
+      status: 'signed',
+    },
+    {
+      note: 'Demo today: PDT draft',
+      recordNumber: 'MP-100210',
+      eye: 'left',
+      protocol: 'pdt-half-fluence',
+      inputs: { ...adult(patient('MP-100210'), true), lesionGldUm: 1900, lensMagnification: 1.0 },
+      status: 'draft',
+    },
   ];
   for (const item of today) {
     if (await orderRepo.exists({ where: { note: item.note } })) continue;
@@ -260,9 +497,15 @@ export async function seedDemoScenario(dataSource: DataSource, unitTimeZone: str
       signedAt: signed ? signedAt : null,
       signatureMeaning: signed ? 'ordered' : null,
     });
-    if (signed) await patients.recordMeasurement(dataSource.manager, { patientId: who.id, orderId: saved.id, measuredAt: signedAt }, item.inputs);
+    if (signed)
+      await patients.recordMeasurement(
+        dataSource.manager,
+        { patientId: who.id, orderId: saved.id, measuredAt: signedAt },
+        item.inputs,
+      );
     added++;
   }
-  if (added > 0) await audit.append({ actorUserId: null, action: 'demo.scenario-loaded', details: { added } });
+  if (added > 0)
+    await audit.append({ actorUserId: null, action: 'demo.scenario-loaded', details: { added } });
   return added;
 }

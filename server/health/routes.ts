@@ -1,7 +1,10 @@
 import type { DataSource } from 'typeorm';
 import type { RouteSpec } from '../http/route-table';
 
-export function healthRoutes(dataSource: DataSource, unit: { name: string; timeZone: string; phone: string }): RouteSpec[] {
+export function healthRoutes(
+  dataSource: DataSource,
+  unit: { name: string; timeZone: string; phone: string },
+): RouteSpec[] {
   return [
     {
       method: 'get',
@@ -23,7 +26,13 @@ export function healthRoutes(dataSource: DataSource, unit: { name: string; timeZ
         const started = performance.now();
         try {
           await dataSource.query('SELECT 1');
-          res.json({ status: 'ok', database: { status: 'up', latencyMs: Math.round((performance.now() - started) * 10) / 10 } });
+          res.json({
+            status: 'ok',
+            database: {
+              status: 'up',
+              latencyMs: Math.round((performance.now() - started) * 10) / 10,
+            },
+          });
         } catch {
           res.status(503).json({ status: 'degraded', database: { status: 'down' } });
         }

@@ -27,8 +27,14 @@ export function mountRoutes(router: Router, specs: RouteSpec[], guards: AccessGu
   for (const spec of specs) {
     const checks: RequestHandler[] = [];
     if (spec.access !== 'public') checks.push(guards.session);
-    if (spec.access !== 'public' && spec.access !== 'signed-in') checks.push(guards.capability(spec.access));
+    if (spec.access !== 'public' && spec.access !== 'signed-in')
+      checks.push(guards.capability(spec.access));
     // Express 5 passes a rejected promise from a handler on to the error middleware.
-    router[spec.method](spec.path, ...checks, ...(spec.before ?? []), spec.handler as RequestHandler);
+    router[spec.method](
+      spec.path,
+      ...checks,
+      ...(spec.before ?? []),
+      spec.handler as RequestHandler,
+    );
   }
 }

@@ -17,6 +17,7 @@ export const sameOriginOnly: RequestHandler = (req, _res, next) => {
   } catch {
     return next(AppError.forbidden('This request came from an unknown page and was refused.'));
   }
-  if (host !== req.get('host')) return next(AppError.forbidden('This request came from another site and was refused.'));
+  if (host !== req.get('host'))
+    return next(AppError.forbidden('This request came from another site and was refused.'));
   next();
 };

@@ -23,7 +23,12 @@ export function createSmtpMailer(config: Config): Mailer {
   });
   return {
     async send(message) {
-      await transport.sendMail({ from: config.MAIL_FROM, to: message.to, subject: message.subject, text: message.text });
+      await transport.sendMail({
+        from: config.MAIL_FROM,
+        to: message.to,
+        subject: message.subject,
+        text: message.text,
+      });
     },
     close: () => transport.close(),
   };

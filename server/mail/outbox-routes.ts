@@ -9,7 +9,9 @@ export function outboxRoutes(dataSource: DataSource): RouteSpec[] {
       path: '/outbox',
       access: 'outbox.read',
       handler: async (_req, res) => {
-        const rows = await dataSource.getRepository(OutboxMessage).find({ order: { id: 'DESC' }, take: 200 });
+        const rows = await dataSource
+          .getRepository(OutboxMessage)
+          .find({ order: { id: 'DESC' }, take: 200 });
         res.json({
           messages: rows.map((m) => ({
             id: m.id,

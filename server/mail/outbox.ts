@@ -38,7 +38,11 @@ const secretKinds = new Set(['password-link']);
  * (under SKIP LOCKED), so several app instances can run workers on one database without sending
  * a message twice, and a worker that dies mid-send only delays its batch by the lease.
  */
-export function createOutboxWorker(dataSource: DataSource, mailer: Mailer, options: { intervalMs?: number; batchSize?: number } = {}) {
+export function createOutboxWorker(
+  dataSource: DataSource,
+  mailer: Mailer,
+  options: { intervalMs?: number; batchSize?: number } = {},
+) {
   const repo = dataSource.getRepository(OutboxMessage);
   let timer: NodeJS.Timeout | undefined;
   let running: Promise<number> | undefined;
@@ -51,7 +55,10 @@ export function createOutboxWorker(dataSource: DataSource, mailer: Mailer, optio
       );
       if (rows.length === 0) return [];
       const ids = rows.map((r) => r.id);
-      await manager.query(`UPDATE outbox_message SET next_attempt_at = NOW(3) + INTERVAL ? SECOND WHERE id IN (?)`, [leaseS, ids]);
+      await manager.query(
+        `UPDATE outbox_message SET next_attempt_at = NOW(3) + INTERVAL ? SECOND WHERE id IN (?)`,
+        [leaseS, ids],
+      );
       return manager.getRepository(OutboxMessage).findBy({ id: In(ids) });
     });
   }
@@ -65,13 +72,22 @@ export function createOutboxWorker(dataSource: DataSource, mailer: Mailer, optio
         await mailer.send({ to: message.recipients, subject: message.subject, text: message.body });
         await repo.update(
           { id: message.id },
-          { status: 'sent', attempts, sentAt: new Date(), lastError: null, ...(secretKinds.has(message.kind) ? { body: '(removed once delivered: it held a one-time link)' } : {}) },
+          {
+            status: 'sent',
+            attempts,
+            sentAt: new Date(),
+            lastError: null,
+            ...(secretKinds.has(message.kind)
+              ? { body: '(removed once delivered: it held a one-time link)' }
+              : {}),
+          },
         );
         sent++;
       } catch (error) {
         const responseCode = (error as { responseCode?: number }).responseCode;
         // A 5xx answer means the server refused this message for good; anything else is retried.
-        const permanent = typeof responseCode === 'number' && responseCode >= 500 && responseCode < 600;
+        const permanent =
+          typeof responseCode === 'number' && responseCode >= 500 && responseCode < 600;
         await repo.update(
           { id: message.id },
           {

@@ -15,7 +15,11 @@ export interface ApiProcess {
  * through the tsx command, which would put a second process in between), so killing it really
  * ends the server. Resolves once this very process answers /api/health.
  */
-export async function startApiProcess(options: { port: number; env: NodeJS.ProcessEnv; logFile?: string }): Promise<ApiProcess> {
+export async function startApiProcess(options: {
+  port: number;
+  env: NodeJS.ProcessEnv;
+  logFile?: string;
+}): Promise<ApiProcess> {
   const log = options.logFile ? openSync(options.logFile, 'a') : 'inherit';
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     cwd: repoRoot,
@@ -29,11 +33,17 @@ export async function startApiProcess(options: { port: number; env: NodeJS.Proce
   // tsx compiles the server on start: a minute, for a machine busy with other work.
   const until = Date.now() + 60_000;
   for (;;) {
-    if (exited) throw new Error(`the API process on port ${options.port} exited at start; see ${options.logFile ?? 'its output above'}`);
+    if (exited)
+      throw new Error(
+        `the API process on port ${options.port} exited at start; see ${options.logFile ?? 'its output above'}`,
+      );
     try {
       // The answer must come from this process, not from one left over on the port.
       const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(1000) });
-      const ours = [res.headers.get('x-luxtempo-pid'), res.headers.get('x-luxtempo-parent-pid')].includes(String(child.pid));
+      const ours = [
+        res.headers.get('x-luxtempo-pid'),
+        res.headers.get('x-luxtempo-parent-pid'),
+      ].includes(String(child.pid));
       if (res.ok && ours) break;
     } catch {
       // not listening yet
@@ -41,7 +51,9 @@ export async function startApiProcess(options: { port: number; env: NodeJS.Proce
     if (Date.now() > until) {
       // Not left behind holding the port (and the database) for the next run.
       child.kill('SIGKILL');
-      throw new Error(`the API process on port ${options.port} did not answer within 60 s; see ${options.logFile ?? 'its output above'}`);
+      throw new Error(
+        `the API process on port ${options.port} did not answer within 60 s; see ${options.logFile ?? 'its output above'}`,
+      );
     }
     await new Promise((r) => setTimeout(r, 200));
   }

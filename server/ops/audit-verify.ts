@@ -13,11 +13,15 @@ await runMaintenance(async () => {
   try {
     const report = await verifyAuditChain(source);
     if (report.ok) {
-      console.log(`✓ The audit trail of ${config.DB_NAME} is intact: ${report.checked} rows, each matching its hash, and the chain ends at the newest row.`);
+      console.log(
+        `✓ The audit trail of ${config.DB_NAME} is intact: ${report.checked} rows, each matching its hash, and the chain ends at the newest row.`,
+      );
       return { code: 0, database };
     }
     const where = report.firstBrokenId ? `at row ${report.firstBrokenId}` : 'at its end';
-    console.error(`✗ The audit trail of ${config.DB_NAME} is broken ${where}: ${report.reason} (${report.checked} rows before it are intact.)`);
+    console.error(
+      `✗ The audit trail of ${config.DB_NAME} is broken ${where}: ${report.reason} (${report.checked} rows before it are intact.)`,
+    );
     return { code: 1, database };
   } finally {
     await source.destroy();

@@ -13,14 +13,28 @@ await runMaintenance(async () => {
   const { config, owner, database } = await openMaintenance(process.argv.slice(2));
   mkdirSync(backupDir, { recursive: true, mode: 0o700 });
   chmodSync(backupDir, 0o700);
-  const stamp = new Date().toISOString().replace(/[-:]/g, '').replace(/\.\d+Z$/, 'Z');
+  const stamp = new Date()
+    .toISOString()
+    .replace(/[-:]/g, '')
+    .replace(/\.\d+Z$/, 'Z');
   const file = path.join(backupDir, `${config.DB_NAME}-${stamp}.sql`);
   // Created 0600 before a byte is written: the dump holds health data and password hashes.
   const fd = openSync(file, 'wx', 0o600);
   const code = await new Promise<number>((resolve, reject) => {
     const dump = spawn(
       'mariadb-dump',
-      ['--no-defaults', `--host=${config.DB_HOST}`, `--port=${config.DB_PORT}`, `--user=${owner.user}`, '--single-transaction', '--triggers', '--hex-blob', '--no-tablespaces', '--skip-comments', config.DB_NAME],
+      [
+        '--no-defaults',
+        `--host=${config.DB_HOST}`,
+        `--port=${config.DB_PORT}`,
+        `--user=${owner.user}`,
+        '--single-transaction',
+        '--triggers',
+        '--hex-blob',
+        '--no-tablespaces',
+        '--skip-comments',
+        config.DB_NAME,
+      ],
       // The password goes by the environment, never on the command line where `ps` shows it.
       { env: { ...process.env, MYSQL_PWD: owner.password }, stdio: ['ignore', fd, 'inherit'] },
     );
@@ -28,7 +42,10 @@ await runMaintenance(async () => {
     dump.on('exit', (c) => resolve(c ?? 1));
   });
   closeSync(fd);
-  if (code !== 0) throw new Error(`mariadb-dump failed (exit ${code}); the partial file ${file} is not a backup.`);
+  if (code !== 0)
+    throw new Error(
+      `mariadb-dump failed (exit ${code}); the partial file ${file} is not a backup.`,
+    );
   console.log(`✓ Backup of ${config.DB_NAME} written (${statSync(file).size} bytes, mode 0600):`);
   console.log(file);
   return { code: 0, database };

@@ -10,7 +10,9 @@ import type { PlanInputs } from '../../shared/schemas/calculation';
 const protocolsDir = fileURLToPath(new URL('../../protocols/', import.meta.url));
 
 function loadProtocol(fileName: string): ProtocolVersion {
-  return protocolVersionSchema.parse(JSON.parse(readFileSync(`${protocolsDir}${fileName}`, 'utf8')));
+  return protocolVersionSchema.parse(
+    JSON.parse(readFileSync(`${protocolsDir}${fileName}`, 'utf8')),
+  );
 }
 
 export interface EngineResult {
@@ -18,7 +20,12 @@ export interface EngineResult {
   plansPerSecond: number;
 }
 
-function bench(label: string, protocol: ProtocolVersion, inputsFor: (i: number) => PlanInputs, seconds: number): EngineResult {
+function bench(
+  label: string,
+  protocol: ProtocolVersion,
+  inputsFor: (i: number) => PlanInputs,
+  seconds: number,
+): EngineResult {
   // Warm up so the JIT has compiled the hot path before timing starts.
   for (let i = 0; i < 2000; i += 1) computePlan(protocol, inputsFor(i));
   const deadline = performance.now() + seconds * 1000;
@@ -33,23 +40,42 @@ function bench(label: string, protocol: ProtocolVersion, inputsFor: (i: number) 
     plans += 200;
   }
   const elapsedS = (performance.now() - started) / 1000;
-  console.log(`${label.padEnd(28)} ${Math.round(plans / elapsedS).toLocaleString('en-GB').padStart(9)} plans/s  (${plans} plans in ${elapsedS.toFixed(2)} s, checksum ${checksum})`);
+  console.log(
+    `${label.padEnd(28)} ${Math.round(plans / elapsedS)
+      .toLocaleString('en-GB')
+      .padStart(9)} plans/s  (${plans} plans in ${elapsedS.toFixed(2)} s, checksum ${checksum})`,
+  );
   return { label, plansPerSecond: Math.round(plans / elapsedS) };
 }
 
 /** Plans per second on this one core, for one PDT and one CXL protocol. */
 export function measureEngine(seconds: number): EngineResult[] {
-  console.log(`engine ${engineVersion}, Node ${process.version}, one core, ${seconds} s per protocol`);
+  console.log(
+    `engine ${engineVersion}, Node ${process.version}, one core, ${seconds} s per protocol`,
+  );
   return [
-    bench('pdt-standard v1', loadProtocol('pdt-standard.v1.json'), (i) => ({
-      height: { value: 150 + (i % 40), unit: 'cm' },
-      weight: i % 2 === 0 ? { value: 50 + (i % 60), unit: 'kg' } : { value: 110 + (i % 130), unit: 'lb' },
-      lesionGldUm: 1000 + (i % 4000),
-      lensMagnification: 1.5,
-    }), seconds),
-    bench('cxl-accelerated-pulsed v1', loadProtocol('cxl-accelerated-pulsed.v1.json'), (i) => ({
-      stromalThicknessUm: 380 + (i % 200),
-    }), seconds),
+    bench(
+      'pdt-standard v1',
+      loadProtocol('pdt-standard.v1.json'),
+      (i) => ({
+        height: { value: 150 + (i % 40), unit: 'cm' },
+        weight:
+          i % 2 === 0
+            ? { value: 50 + (i % 60), unit: 'kg' }
+            : { value: 110 + (i % 130), unit: 'lb' },
+        lesionGldUm: 1000 + (i % 4000),
+        lensMagnification: 1.5,
+      }),
+      seconds,
+    ),
+    bench(
+      'cxl-accelerated-pulsed v1',
+      loadProtocol('cxl-accelerated-pulsed.v1.json'),
+      (i) => ({
+        stromalThicknessUm: 380 + (i % 200),
+      }),
+      seconds,
+    ),
   ];
 }
 

@@ -29,11 +29,24 @@ const connections = 50;
 const durationS = Number(process.env.BENCH_SECONDS ?? 10);
 const warmUpS = 3;
 const sessionCount = Number(process.env.BENCH_SESSIONS ?? 300);
-const targets = { calculationP95Ms: 20, eventWriteP95Ms: 40, firstLoadJsGzipKb: 200, clockErrorMs: 250 };
+const targets = {
+  calculationP95Ms: 20,
+  eventWriteP95Ms: 40,
+  firstLoadJsGzipKb: 200,
+  clockErrorMs: 250,
+};
 
 // One API process per core, as the server would be run on this machine (WEB_CONCURRENCY overrides).
 const webConcurrency = process.env.WEB_CONCURRENCY ?? String(availableParallelism());
-const env = { ...localEnvironment(benchDatabase), NODE_ENV: 'production', DEMO_DATA: 'false', SMTP_PORT: '1126', LOGIN_FAILURE_LIMIT: '1000', CLIENT_DIR: clientDistDir, WEB_CONCURRENCY: webConcurrency };
+const env = {
+  ...localEnvironment(benchDatabase),
+  NODE_ENV: 'production',
+  DEMO_DATA: 'false',
+  SMTP_PORT: '1126',
+  LOGIN_FAILURE_LIMIT: '1000',
+  CLIENT_DIR: clientDistDir,
+  WEB_CONCURRENCY: webConcurrency,
+};
 const config = loadConfig(env);
 
 async function prepareDatabase() {
@@ -50,9 +63,18 @@ async function prepareDatabase() {
 
 /** How many events the sessions hold, fewest and most. */
 async function eventsPerSession(orderIds: number[]): Promise<{ min: number; max: number }> {
-  const db = await mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_USER, password: config.DB_PASSWORD, database: benchDatabase });
+  const db = await mysql.createConnection({
+    host: config.DB_HOST,
+    port: config.DB_PORT,
+    user: config.DB_USER,
+    password: config.DB_PASSWORD,
+    database: benchDatabase,
+  });
   try {
-    const [rows] = await db.query('SELECT MIN(n) AS min, MAX(n) AS max FROM (SELECT COUNT(*) AS n FROM session_event WHERE order_id IN (?) GROUP BY order_id) counts', [orderIds]);
+    const [rows] = await db.query(
+      'SELECT MIN(n) AS min, MAX(n) AS max FROM (SELECT COUNT(*) AS n FROM session_event WHERE order_id IN (?) GROUP BY order_id) counts',
+      [orderIds],
+    );
     const [row] = rows as { min: number; max: number }[];
     return { min: Number(row!.min), max: Number(row!.max) };
   } finally {
@@ -61,13 +83,24 @@ async function eventsPerSession(orderIds: number[]): Promise<{ min: number; max:
 }
 
 async function signIn(base: string, role: string): Promise<string> {
-  const res = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: `${role}@demo.luxtempo.example`, password: demoPassword }) });
+  const res = await fetch(`${base}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json' },
+    body: JSON.stringify({ email: `${role}@demo.luxtempo.example`, password: demoPassword }),
+  });
   if (!res.ok) throw new Error(`sign-in as ${role}: ${res.status}`);
-  return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
 }
 
 async function call(base: string, cookie: string, method: string, url: string, body?: unknown) {
-  const res = await fetch(`${base}/api${url}`, { method, headers: { Cookie: cookie, 'Content-Type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
+  const res = await fetch(`${base}/api${url}`, {
+    method,
+    headers: { Cookie: cookie, 'Content-Type': 'application/json' },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
   const json = (await res.json()) as Record<string, any>;
   if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${JSON.stringify(json)}`);
   return json;
@@ -87,7 +120,10 @@ let measured: { apiPid: number; databasePid: number } | null = null;
  * core were kept busy, the most the machine could serve, and so (Little's law) the least average
  * wait with this many connections open.
  */
-function cpuCost(before: { api: number; database: number; loadGenerator: NodeJS.CpuUsage }, requests: number) {
+function cpuCost(
+  before: { api: number; database: number; loadGenerator: NodeJS.CpuUsage },
+  requests: number,
+) {
   const perRequest = (ms: number) => Math.round((ms / Math.max(1, requests)) * 1000) / 1000;
   const api = perRequest(cpuTimeMs([measured!.apiPid]) - before.api);
   const database = perRequest(cpuTimeMs([measured!.databasePid]) - before.database);
@@ -96,18 +132,41 @@ function cpuCost(before: { api: number; database: number; loadGenerator: NodeJS.
   const loadGenerator = perRequest((generator.user + generator.system) / 1000);
   const cores = availableParallelism();
   const ceilingPerS = Math.round((cores * 1000) / (api + database + loadGenerator));
-  return { api, database, loadGenerator, cores, ceilingPerS, leastMeanLatencyMs: Math.round(((connections * 1000) / ceilingPerS) * 10) / 10 };
+  return {
+    api,
+    database,
+    loadGenerator,
+    cores,
+    ceilingPerS,
+    leastMeanLatencyMs: Math.round(((connections * 1000) / ceilingPerS) * 10) / 10,
+  };
 }
 
 /** Runs autocannon and takes every response's time itself, so p95 is exact rather than bucketed. */
 async function load(title: string, opts: autocannon.Options) {
   // A few seconds first that are not counted: the API's code is compiled as it is first used.
-  await (autocannon({ ...opts, connections, duration: warmUpS }) as unknown as Promise<autocannon.Result>);
+  await (autocannon({
+    ...opts,
+    connections,
+    duration: warmUpS,
+  }) as unknown as Promise<autocannon.Result>);
   const times: number[] = [];
-  const cpuBefore = measured && { api: cpuTimeMs([measured.apiPid]), database: cpuTimeMs([measured.databasePid]), loadGenerator: process.cpuUsage() };
+  const cpuBefore = measured && {
+    api: cpuTimeMs([measured.apiPid]),
+    database: cpuTimeMs([measured.databasePid]),
+    loadGenerator: process.cpuUsage(),
+  };
   // Without a callback autocannon returns an emitter that is also a promise of the result.
-  const instance = autocannon({ ...opts, connections, duration: durationS }) as unknown as EventEmitter & Promise<autocannon.Result>;
-  instance.on('response', (_client: unknown, _status: number, _bytes: number, responseTimeMs: number) => times.push(responseTimeMs));
+  const instance = autocannon({
+    ...opts,
+    connections,
+    duration: durationS,
+  }) as unknown as EventEmitter & Promise<autocannon.Result>;
+  instance.on(
+    'response',
+    (_client: unknown, _status: number, _bytes: number, responseTimeMs: number) =>
+      times.push(responseTimeMs),
+  );
   const result = await instance;
   times.sort((a, b) => a - b);
   const cpuMsPerRequest = measured && cpuBefore ? cpuCost(cpuBefore, times.length) : null;
@@ -116,37 +175,66 @@ async function load(title: string, opts: autocannon.Options) {
     durationS,
     requests: result.requests.total,
     throughputPerS: Math.round(result.requests.average),
-    latencyMs: { p50: percentile(times, 50), p95: percentile(times, 95), p99: percentile(times, 99), max: percentile(times, 100) },
+    latencyMs: {
+      p50: percentile(times, 50),
+      p95: percentile(times, 95),
+      p99: percentile(times, 99),
+      max: percentile(times, 100),
+    },
     non2xx: result.non2xx,
     errors: result.errors,
     cpuMsPerRequest,
   };
-  console.log(`${title.padEnd(24)} p50 ${out.latencyMs.p50} ms  p95 ${out.latencyMs.p95} ms  p99 ${out.latencyMs.p99} ms  ${out.throughputPerS} req/s  (${out.requests} requests, ${out.non2xx} not 2xx, ${out.errors} errors)`);
+  console.log(
+    `${title.padEnd(24)} p50 ${out.latencyMs.p50} ms  p95 ${out.latencyMs.p95} ms  p99 ${out.latencyMs.p99} ms  ${out.throughputPerS} req/s  (${out.requests} requests, ${out.non2xx} not 2xx, ${out.errors} errors)`,
+  );
   if (cpuMsPerRequest) {
     const c = cpuMsPerRequest;
-    console.log(`${''.padEnd(24)} CPU per request: API ${c.api} ms + MariaDB ${c.database} ms + load generator ${c.loadGenerator} ms → ${c.cores} cores serve at most ${c.ceilingPerS} req/s, so ${connections} connections wait ≥ ${c.leastMeanLatencyMs} ms on average`);
+    console.log(
+      `${''.padEnd(24)} CPU per request: API ${c.api} ms + MariaDB ${c.database} ms + load generator ${c.loadGenerator} ms → ${c.cores} cores serve at most ${c.ceilingPerS} req/s, so ${connections} connections wait ≥ ${c.leastMeanLatencyMs} ms on average`,
+    );
   }
   return out;
 }
 
 async function measureJs(base: string) {
-  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'] });
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+    ],
+  });
   try {
     const sizeOf = async (signInFirst: boolean, urlPath: string) => {
       const context = await browser.newContext();
-      if (signInFirst) await context.request.post(`${base}/api/auth/login`, { headers: { origin: base }, data: { email: 'nurse@demo.luxtempo.example', password: demoPassword } });
+      if (signInFirst)
+        await context.request.post(`${base}/api/auth/login`, {
+          headers: { origin: base },
+          data: { email: 'nurse@demo.luxtempo.example', password: demoPassword },
+        });
       const page = await context.newPage();
       const scripts = new Map<string, number>();
       page.on('response', async (res) => {
-        if (res.request().resourceType() === 'script' && res.ok()) scripts.set(res.url(), gzipSync(await res.body()).length);
+        if (res.request().resourceType() === 'script' && res.ok())
+          scripts.set(res.url(), gzipSync(await res.body()).length);
       });
       await page.goto(`${base}${urlPath}`, { waitUntil: 'networkidle' });
       await context.close();
-      return { files: scripts.size, gzipKb: Math.round([...scripts.values()].reduce((a, b) => a + b, 0) / 102.4) / 10 };
+      return {
+        files: scripts.size,
+        gzipKb: Math.round([...scripts.values()].reduce((a, b) => a + b, 0) / 102.4) / 10,
+      };
     };
     const signInPage = await sizeOf(false, '/sign-in');
     const today = await sizeOf(true, '/');
-    console.log(`first-load JS (gzip)   sign-in ${signInPage.gzipKb} kB in ${signInPage.files} files; Today ${today.gzipKb} kB in ${today.files} files`);
+    console.log(
+      `first-load JS (gzip)   sign-in ${signInPage.gzipKb} kB in ${signInPage.files} files; Today ${today.gzipKb} kB in ${today.files} files`,
+    );
     return { signIn: signInPage, today };
   } finally {
     await browser.close();
@@ -154,7 +242,9 @@ async function measureJs(base: string) {
 }
 
 const started = new Date();
-console.log(`Luxtempo benchmark — ${started.toISOString()} — Node ${process.version} — API processes: ${webConcurrency}\n`);
+console.log(
+  `Luxtempo benchmark — ${started.toISOString()} — Node ${process.version} — API processes: ${webConcurrency}\n`,
+);
 const database = await prepareDatabase();
 console.log(`client build: ${await buildClient()}`);
 const engine = measureEngine(3);
@@ -175,7 +265,15 @@ try {
     url: `${base}/api/calculations`,
     method: 'POST',
     headers: { 'content-type': 'application/json', cookie: clinician },
-    body: JSON.stringify({ protocol: { key: 'pdt-standard', version: 1 }, inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, lesionGldUm: 2500, lensMagnification: 1 } }),
+    body: JSON.stringify({
+      protocol: { key: 'pdt-standard', version: 1 },
+      inputs: {
+        height: { value: 170, unit: 'cm' },
+        weight: { value: 70, unit: 'kg' },
+        lesionGldUm: 2500,
+        lensMagnification: 1,
+      },
+    }),
   });
 
   // Running CXL sessions to write to, taken in turn. A real session gathers some 20–40 events
@@ -183,15 +281,52 @@ try {
   // them within that over the whole run, instead of piling hundreds of drops onto 50 sessions.
   const orderIds: number[] = [];
   const startSession = async (i: number) => {
-    const patient = await call(base, clinician, 'POST', '/patients', { recordNumber: `B-${randomUUID().slice(0, 8)}`, givenName: 'Bench', familyName: `Session ${i}`, dateOfBirth: '1970-01-01' });
-    const draft = await call(base, clinician, 'POST', '/orders', { patientId: patient.patient.id, eye: 'right', protocol: { key: 'cxl-standard', version: 1 }, inputs: { stromalThicknessUm: 470 }, checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({ id, answer: 'no' })) });
-    await call(base, clinician, 'POST', `/orders/${draft.order.id}/signature`, { password: demoPassword, meaning: 'ordered', version: draft.order.version });
+    const patient = await call(base, clinician, 'POST', '/patients', {
+      recordNumber: `B-${randomUUID().slice(0, 8)}`,
+      givenName: 'Bench',
+      familyName: `Session ${i}`,
+      dateOfBirth: '1970-01-01',
+    });
+    const draft = await call(base, clinician, 'POST', '/orders', {
+      patientId: patient.patient.id,
+      eye: 'right',
+      protocol: { key: 'cxl-standard', version: 1 },
+      inputs: { stromalThicknessUm: 470 },
+      checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({
+        id,
+        answer: 'no',
+      })),
+    });
+    await call(base, clinician, 'POST', `/orders/${draft.order.id}/signature`, {
+      password: demoPassword,
+      meaning: 'ordered',
+      version: draft.order.version,
+    });
     const now = new Date().toISOString();
-    await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, { idempotencyKey: randomUUID(), clientTime: now, type: 'session-started', checks: { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true } });
-    await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, { idempotencyKey: randomUUID(), clientTime: now, type: 'step-started', stepId: 'riboflavin-soak' });
+    await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, {
+      idempotencyKey: randomUUID(),
+      clientTime: now,
+      type: 'session-started',
+      checks: {
+        patientIdentity: true,
+        treatmentEye: true,
+        consent: true,
+        eyewear: true,
+        deviceSettings: true,
+      },
+    });
+    await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, {
+      idempotencyKey: randomUUID(),
+      clientTime: now,
+      type: 'step-started',
+      stepId: 'riboflavin-soak',
+    });
     orderIds.push(draft.order.id);
   };
-  for (let i = 0; i < sessionCount; i += 10) await Promise.all(Array.from({ length: Math.min(10, sessionCount - i) }, (_, j) => startSession(i + j)));
+  for (let i = 0; i < sessionCount; i += 10)
+    await Promise.all(
+      Array.from({ length: Math.min(10, sessionCount - i) }, (_, j) => startSession(i + j)),
+    );
   let next = 0;
   const eventWrites = await load('POST session-events', {
     url: base,
@@ -202,14 +337,21 @@ try {
         setupRequest: (request) => ({
           ...request,
           path: `/api/orders/${orderIds[next++ % orderIds.length]}/session-events`,
-          body: JSON.stringify({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'drop-given', stepId: 'riboflavin-soak' }),
+          body: JSON.stringify({
+            idempotencyKey: randomUUID(),
+            clientTime: new Date().toISOString(),
+            type: 'drop-given',
+            stepId: 'riboflavin-soak',
+          }),
         }),
       },
     ],
   });
 
   const perSession = await eventsPerSession(orderIds);
-  console.log(`${''.padEnd(24)} ${orderIds.length} sessions written to in turn; events per session at the end: ${perSession.min}–${perSession.max}`);
+  console.log(
+    `${''.padEnd(24)} ${orderIds.length} sessions written to in turn; events per session at the end: ${perSession.min}–${perSession.max}`,
+  );
   Object.assign(eventWrites, { sessions: orderIds.length, eventsPerSession: perSession });
 
   const js = await measureJs(base);
@@ -226,6 +368,29 @@ const verdict = {
   firstLoadJs: `sign-in ${(results.firstLoadJs as { signIn: { gzipKb: number } }).signIn.gzipKb} kB, Today ${(results.firstLoadJs as { today: { gzipKb: number } }).today.gzipKb} kB (target ≤ ${targets.firstLoadJsGzipKb})`,
   clockError: `${(results.clock as { maxErrorMs: number }).maxErrorMs} ms (target ≤ ${targets.clockErrorMs})`,
 };
-const file = path.join(dataDir, 'bench', `bench-${started.toISOString().replace(/[:.]/g, '-')}.json`);
-writeFileSync(file, JSON.stringify({ startedAt: started.toISOString(), node: process.version, webConcurrency: Number(webConcurrency), cpus: (await import('node:os')).cpus().length, targets, results, verdict }, null, 2));
-console.log(`\n${Object.entries(verdict).map(([k, v]) => `${k.padEnd(16)} ${v}`).join('\n')}\n\nwritten to ${path.relative(process.cwd(), file)}`);
+const file = path.join(
+  dataDir,
+  'bench',
+  `bench-${started.toISOString().replace(/[:.]/g, '-')}.json`,
+);
+writeFileSync(
+  file,
+  JSON.stringify(
+    {
+      startedAt: started.toISOString(),
+      node: process.version,
+      webConcurrency: Number(webConcurrency),
+      cpus: (await import('node:os')).cpus().length,
+      targets,
+      results,
+      verdict,
+    },
+    null,
+    2,
+  ),
+);
+console.log(
+  `\n${Object.entries(verdict)
+    .map(([k, v]) => `${k.padEnd(16)} ${v}`)
+    .join('\n')}\n\nwritten to ${path.relative(process.cwd(), file)}`,
+);

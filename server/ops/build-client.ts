@@ -3,7 +3,14 @@ import { existsSync, readFileSync, readdirSync, statSync, writeFileSync } from '
 import path from 'node:path';
 import { clientDistDir, repoRoot } from './paths';
 
-const inputs = ['src', 'shared', 'index.html', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
+const inputs = [
+  'src',
+  'shared',
+  'index.html',
+  'vite.config.ts',
+  'tailwind.config.ts',
+  'package-lock.json',
+];
 
 function fingerprint(): string {
   const hash = createHash('sha256');
@@ -32,7 +39,12 @@ export async function buildClient(): Promise<'built' | 'up to date'> {
   const nodeEnv = process.env.NODE_ENV;
   process.env.NODE_ENV = 'production';
   try {
-    await build({ root: repoRoot, configFile: path.join(repoRoot, 'vite.config.ts'), logLevel: 'warn', mode: 'production' });
+    await build({
+      root: repoRoot,
+      configFile: path.join(repoRoot, 'vite.config.ts'),
+      logLevel: 'warn',
+      mode: 'production',
+    });
   } finally {
     if (nodeEnv === undefined) delete process.env.NODE_ENV;
     else process.env.NODE_ENV = nodeEnv;

@@ -12,7 +12,9 @@ const { values } = parseArgs({ options: { email: { type: 'string' }, name: { typ
 const email = z.string().trim().toLowerCase().email().max(254).safeParse(values.email);
 const name = z.string().trim().min(2).max(120).safeParse(values.name);
 if (!email.success || !name.success) {
-  console.error('Usage: npm run admin:create -- --email someone@hospital.example --name "Their Name"');
+  console.error(
+    'Usage: npm run admin:create -- --email someone@hospital.example --name "Their Name"',
+  );
   if (!email.success) console.error('  --email must be an e-mail address');
   if (!name.success) console.error('  --name must be 2 to 120 characters');
   process.exit(2);
@@ -28,9 +30,18 @@ try {
   const dataSource = appDataSource(config);
   await dataSource.initialize();
   try {
-    const { url, created, expiresInHours } = await createFirstAdmin(dataSource, config, { email: email.data, displayName: name.data });
-    console.log(created ? `Administrator ${email.data} created.` : `${email.data} is already an administrator: here is a fresh link.`);
-    console.log(`Give them this one-time link to set their password (it works once, for ${expiresInHours} hours):\n\n  ${url}\n`);
+    const { url, created, expiresInHours } = await createFirstAdmin(dataSource, config, {
+      email: email.data,
+      displayName: name.data,
+    });
+    console.log(
+      created
+        ? `Administrator ${email.data} created.`
+        : `${email.data} is already an administrator: here is a fresh link.`,
+    );
+    console.log(
+      `Give them this one-time link to set their password (it works once, for ${expiresInHours} hours):\n\n  ${url}\n`,
+    );
   } finally {
     await dataSource.destroy();
   }

@@ -1,5 +1,15 @@
 import { spawn, spawnSync } from 'node:child_process';
-import { chmodSync, chownSync, closeSync, existsSync, mkdirSync, openSync, readFileSync, readdirSync, statSync } from 'node:fs';
+import {
+  chmodSync,
+  chownSync,
+  closeSync,
+  existsSync,
+  mkdirSync,
+  openSync,
+  readFileSync,
+  readdirSync,
+  statSync,
+} from 'node:fs';
 import { userInfo } from 'node:os';
 import path from 'node:path';
 import mysql from 'mysql2/promise';
@@ -63,12 +73,20 @@ export function adminUser(): string {
 /** Asks an instance to shut down cleanly and waits until it has. */
 export function shutdownDatabaseServer(instanceDir?: string): void {
   const { socketPath } = instancePaths(instanceDir);
-  spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socketPath}`, `-u${adminUser()}`, 'shutdown'], { stdio: 'ignore' });
+  spawnSync(
+    'mariadb-admin',
+    ['--no-defaults', `--socket=${socketPath}`, `-u${adminUser()}`, 'shutdown'],
+    { stdio: 'ignore' },
+  );
 }
 
 function ping(socketPath: string, user = adminUser()): boolean {
   if (!existsSync(socketPath)) return false;
-  const r = spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socketPath}`, `-u${user}`, '--connect-timeout=2', 'ping'], { stdio: 'ignore' });
+  const r = spawnSync(
+    'mariadb-admin',
+    ['--no-defaults', `--socket=${socketPath}`, `-u${user}`, '--connect-timeout=2', 'ping'],
+    { stdio: 'ignore' },
+  );
   return r.status === 0;
 }
 
@@ -87,13 +105,22 @@ function chooseServerUser(instanceDir: string): { user: ServerUser | null; why?:
   const id = (flag: string) => spawnSync('id', [flag, 'mysql'], { encoding: 'utf8' });
   const uid = id('-u');
   const gid = id('-g');
-  if (uid.status !== 0 || gid.status !== 0) return { user: null, why: 'there is no `mysql` system user on this machine' };
+  if (uid.status !== 0 || gid.status !== 0)
+    return { user: null, why: 'there is no `mysql` system user on this machine' };
   // `test -x` as that user: every folder above the instance folder must let it through (the
   // instance folder itself is ours to open, in prepareFolders).
   const above = path.dirname(instanceDir);
-  const reach = spawnSync('su', ['-s', '/bin/sh', 'mysql', '-c', `test -x ${shellQuote(above)}`], { stdio: 'ignore' });
-  if (reach.status !== 0) return { user: null, why: `the \`mysql\` system user cannot reach ${above} (it or a folder above it is private to its owner)` };
-  return { user: { name: 'mysql', uid: Number(uid.stdout.trim()), gid: Number(gid.stdout.trim()) } };
+  const reach = spawnSync('su', ['-s', '/bin/sh', 'mysql', '-c', `test -x ${shellQuote(above)}`], {
+    stdio: 'ignore',
+  });
+  if (reach.status !== 0)
+    return {
+      user: null,
+      why: `the \`mysql\` system user cannot reach ${above} (it or a folder above it is private to its owner)`,
+    };
+  return {
+    user: { name: 'mysql', uid: Number(uid.stdout.trim()), gid: Number(gid.stdout.trim()) },
+  };
 }
 
 function shellQuote(value: string): string {
@@ -130,24 +157,45 @@ function initialise({ mariadbDir }: InstancePaths, user: ServerUser | null): voi
   if (existsSync(path.join(mariadbDir, 'mysql'))) return;
   mkdirSync(mariadbDir, { recursive: true, mode: 0o700 });
   if (user) chownSync(mariadbDir, user.uid, user.gid);
-  console.log(`• Initialising a private MariaDB data directory in ${path.relative(process.cwd(), mariadbDir)} …`);
-  const who = process.getuid?.() === 0 ? [`--user=${user?.name ?? 'root'}`] : [`--auth-root-socket-user=${adminUser()}`];
+  console.log(
+    `• Initialising a private MariaDB data directory in ${path.relative(process.cwd(), mariadbDir)} …`,
+  );
+  const who =
+    process.getuid?.() === 0
+      ? [`--user=${user?.name ?? 'root'}`]
+      : [`--auth-root-socket-user=${adminUser()}`];
   const r = spawnSync(
     'mariadb-install-db',
-    ['--no-defaults', ...who, `--datadir=${mariadbDir}`, '--auth-root-authentication-method=socket', '--skip-test-db', '--skip-name-resolve'],
+    [
+      '--no-defaults',
+      ...who,
+      `--datadir=${mariadbDir}`,
+      '--auth-root-authentication-method=socket',
+      '--skip-test-db',
+      '--skip-name-resolve',
+    ],
     { encoding: 'utf8' },
   );
   if (r.status !== 0) throw new Error(`mariadb-install-db failed:\n${r.stdout}\n${r.stderr}`);
 }
 
-async function waitUntil(check: () => boolean, paths: InstancePaths, timeoutMs: number, what: string): Promise<void> {
+async function waitUntil(
+  check: () => boolean,
+  paths: InstancePaths,
+  timeoutMs: number,
+  what: string,
+): Promise<void> {
   const until = Date.now() + timeoutMs;
   while (Date.now() < until) {
     if (check()) return;
     await new Promise((r) => setTimeout(r, 150));
   }
-  const tail = existsSync(paths.errorLog) ? readFileSync(paths.errorLog, 'utf8').split('\n').slice(-15).join('\n') : '(no log)';
-  throw new Error(`MariaDB ${what} within ${timeoutMs / 1000} s. Last lines of ${paths.errorLog}:\n${tail}`);
+  const tail = existsSync(paths.errorLog)
+    ? readFileSync(paths.errorLog, 'utf8').split('\n').slice(-15).join('\n')
+    : '(no log)';
+  throw new Error(
+    `MariaDB ${what} within ${timeoutMs / 1000} s. Last lines of ${paths.errorLog}:\n${tail}`,
+  );
 }
 
 function launch(paths: InstancePaths, port: number, user: ServerUser | null): void {
@@ -186,8 +234,14 @@ function launch(paths: InstancePaths, port: number, user: ServerUser | null): vo
 async function stopLegacyInstance(paths: InstancePaths): Promise<void> {
   if (!existsSync(paths.legacySocketPath)) return;
   if (ping(paths.legacySocketPath, 'root')) {
-    console.log('• A MariaDB started by an earlier Luxtempo is running on this checkout: restarting it hardened (its data stays) …');
-    spawnSync('mariadb-admin', ['--no-defaults', `--socket=${paths.legacySocketPath}`, '-uroot', 'shutdown'], { stdio: 'ignore' });
+    console.log(
+      '• A MariaDB started by an earlier Luxtempo is running on this checkout: restarting it hardened (its data stays) …',
+    );
+    spawnSync(
+      'mariadb-admin',
+      ['--no-defaults', `--socket=${paths.legacySocketPath}`, '-uroot', 'shutdown'],
+      { stdio: 'ignore' },
+    );
     await waitUntil(() => !existsSync(paths.legacySocketPath), paths, 60_000, 'did not stop');
   }
 }
@@ -199,10 +253,19 @@ function sqlString(value: string): string {
 /** The administrator's connection: through the socket, by unix_socket; an earlier version's root had an empty password. */
 async function adminConnection({ socketPath }: InstancePaths): Promise<mysql.Connection> {
   try {
-    return await mysql.createConnection({ socketPath, user: adminUser(), multipleStatements: true });
+    return await mysql.createConnection({
+      socketPath,
+      user: adminUser(),
+      multipleStatements: true,
+    });
   } catch (error) {
     if (adminUser() === 'root') throw error;
-    return mysql.createConnection({ socketPath, user: 'root', password: '', multipleStatements: true });
+    return mysql.createConnection({
+      socketPath,
+      user: 'root',
+      password: '',
+      multipleStatements: true,
+    });
   }
 }
 
@@ -223,21 +286,40 @@ interface GlobalPriv {
 
 /** Every account with how it signs in, read from mysql.global_priv. */
 export async function listAccounts(db: mysql.Connection): Promise<AccountRow[]> {
-  const [rows] = await db.query('SELECT User AS user, Host AS host, Priv AS priv FROM mysql.global_priv');
-  return (rows as { user: string; host: string; priv: string | GlobalPriv }[]).map(({ user, host, priv }) => {
-    const p = (typeof priv === 'string' ? JSON.parse(priv) : priv) as GlobalPriv;
-    const top = { plugin: p.plugin ?? 'mysql_native_password', auth: p.authentication_string ?? '' };
-    // An empty entry in auth_or stands for the top-level method.
-    const methods = p.auth_or ? p.auth_or.map((m) => (m.plugin ? { plugin: m.plugin, auth: m.authentication_string ?? '' } : top)) : [top];
-    return { user, host, methods, locked: p.account_locked === true };
-  });
+  const [rows] = await db.query(
+    'SELECT User AS user, Host AS host, Priv AS priv FROM mysql.global_priv',
+  );
+  return (rows as { user: string; host: string; priv: string | GlobalPriv }[]).map(
+    ({ user, host, priv }) => {
+      const p = (typeof priv === 'string' ? JSON.parse(priv) : priv) as GlobalPriv;
+      const top = {
+        plugin: p.plugin ?? 'mysql_native_password',
+        auth: p.authentication_string ?? '',
+      };
+      // An empty entry in auth_or stands for the top-level method.
+      const methods = p.auth_or
+        ? p.auth_or.map((m) =>
+            m.plugin ? { plugin: m.plugin, auth: m.authentication_string ?? '' } : top,
+          )
+        : [top];
+      return { user, host, methods, locked: p.account_locked === true };
+    },
+  );
 }
 
-const passwordPlugins = new Set(['mysql_native_password', 'mysql_old_password', 'ed25519', 'caching_sha2_password', 'parsec']);
+const passwordPlugins = new Set([
+  'mysql_native_password',
+  'mysql_old_password',
+  'ed25519',
+  'caching_sha2_password',
+  'parsec',
+]);
 
 /** An account that is not locked and may sign in with an empty password by one of its methods. */
 export function hasEmptyPassword(account: AccountRow): boolean {
-  return !account.locked && account.methods.some((m) => passwordPlugins.has(m.plugin) && m.auth === '');
+  return (
+    !account.locked && account.methods.some((m) => passwordPlugins.has(m.plugin) && m.auth === '')
+  );
 }
 
 async function hardenAccounts(paths: InstancePaths): Promise<void> {
@@ -246,8 +328,12 @@ async function hardenAccounts(paths: InstancePaths): Promise<void> {
     const me = adminUser();
     if (me !== 'root') {
       // Before root is switched to the socket: the user running Luxtempo keeps a way in.
-      await db.query(`CREATE USER IF NOT EXISTS ${sqlString(me)}@'localhost' IDENTIFIED VIA unix_socket`);
-      await db.query(`GRANT ALL PRIVILEGES ON *.* TO ${sqlString(me)}@'localhost' WITH GRANT OPTION`);
+      await db.query(
+        `CREATE USER IF NOT EXISTS ${sqlString(me)}@'localhost' IDENTIFIED VIA unix_socket`,
+      );
+      await db.query(
+        `GRANT ALL PRIVILEGES ON *.* TO ${sqlString(me)}@'localhost' WITH GRANT OPTION`,
+      );
     }
     await db.query(`ALTER USER 'root'@'localhost' IDENTIFIED VIA unix_socket`);
     for (const account of await listAccounts(db)) {
@@ -265,7 +351,10 @@ async function hardenAccounts(paths: InstancePaths): Promise<void> {
   }
 }
 
-async function createDatabasesAndUsers(paths: InstancePaths, options: DatabaseServerOptions): Promise<void> {
+async function createDatabasesAndUsers(
+  paths: InstancePaths,
+  options: DatabaseServerOptions,
+): Promise<void> {
   const root = await adminConnection(paths);
   try {
     for (const host of ['127.0.0.1', 'localhost']) {
@@ -273,14 +362,22 @@ async function createDatabasesAndUsers(paths: InstancePaths, options: DatabaseSe
         [options.ownerUser, options.ownerPassword],
         [options.appUser, options.appPassword],
       ] as const) {
-        await root.query(`CREATE USER IF NOT EXISTS ${sqlString(user)}@${sqlString(host)} IDENTIFIED BY ${sqlString(password)}`);
-        await root.query(`ALTER USER ${sqlString(user)}@${sqlString(host)} IDENTIFIED BY ${sqlString(password)}`);
+        await root.query(
+          `CREATE USER IF NOT EXISTS ${sqlString(user)}@${sqlString(host)} IDENTIFIED BY ${sqlString(password)}`,
+        );
+        await root.query(
+          `ALTER USER ${sqlString(user)}@${sqlString(host)} IDENTIFIED BY ${sqlString(password)}`,
+        );
       }
       for (const db of options.databases) {
-        await root.query(`CREATE DATABASE IF NOT EXISTS \`${db}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+        await root.query(
+          `CREATE DATABASE IF NOT EXISTS \`${db}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
+        );
         // The owner runs migrations and hands table rights to the app user (see server/db/grants.ts);
         // the app user gets no database-wide rights, so the audit table can stay append-only.
-        await root.query(`GRANT ALL PRIVILEGES ON \`${db}\`.* TO ${sqlString(options.ownerUser)}@${sqlString(host)} WITH GRANT OPTION`);
+        await root.query(
+          `GRANT ALL PRIVILEGES ON \`${db}\`.* TO ${sqlString(options.ownerUser)}@${sqlString(host)} WITH GRANT OPTION`,
+        );
       }
     }
   } finally {
@@ -288,9 +385,13 @@ async function createDatabasesAndUsers(paths: InstancePaths, options: DatabaseSe
   }
 }
 
-export async function ensureDatabaseServer(options: DatabaseServerOptions): Promise<DatabaseServer> {
+export async function ensureDatabaseServer(
+  options: DatabaseServerOptions,
+): Promise<DatabaseServer> {
   if (!existsSync('/usr/sbin/mariadbd')) {
-    throw new Error('MariaDB is not installed: run `npm start` or `npm test` (they install mariadb-server with apt-get).');
+    throw new Error(
+      'MariaDB is not installed: run `npm start` or `npm test` (they install mariadb-server with apt-get).',
+    );
   }
   const paths = instancePaths(options.instanceDir);
   await stopLegacyInstance(paths);
@@ -299,11 +400,16 @@ export async function ensureDatabaseServer(options: DatabaseServerOptions): Prom
   if (ping(paths.socketPath)) {
     console.log(`• Reusing the private MariaDB already running on 127.0.0.1:${options.port}`);
   } else {
-    if (why) console.log(`• Note: MariaDB runs as root because ${why}; the socket, password and file protections still hold.`);
+    if (why)
+      console.log(
+        `• Note: MariaDB runs as root because ${why}; the socket, password and file protections still hold.`,
+      );
     prepareFolders(paths, user);
     initialise(paths, user);
     prepareFolders(paths, user);
-    console.log(`• Starting a private MariaDB on 127.0.0.1:${options.port}${user ? ` as the ${user.name} system user` : ''} …`);
+    console.log(
+      `• Starting a private MariaDB on 127.0.0.1:${options.port}${user ? ` as the ${user.name} system user` : ''} …`,
+    );
     launch(paths, options.port, user);
     startedHere = true;
     await waitUntil(() => ping(paths.socketPath), paths, 30_000, 'did not answer');

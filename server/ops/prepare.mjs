@@ -9,7 +9,11 @@ import path from 'node:path';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const command = process.argv[2];
-const entries = { start: 'server/ops/start.ts', test: 'server/ops/test.ts', bench: 'server/ops/bench.ts' };
+const entries = {
+  start: 'server/ops/start.ts',
+  test: 'server/ops/test.ts',
+  bench: 'server/ops/bench.ts',
+};
 if (!entries[command]) {
   console.error(`usage: node server/ops/prepare.mjs <${Object.keys(entries).join('|')}>`);
   process.exit(2);
@@ -18,7 +22,9 @@ if (!entries[command]) {
 function run(cmd, args, options = {}) {
   const result = spawnSync(cmd, args, { stdio: 'inherit', cwd: root, ...options });
   if (result.status !== 0) {
-    console.error(`\n✗ "${cmd} ${args.join(' ')}" failed (exit ${result.status ?? result.signal}).`);
+    console.error(
+      `\n✗ "${cmd} ${args.join(' ')}" failed (exit ${result.status ?? result.signal}).`,
+    );
     process.exit(1);
   }
 }
@@ -46,15 +52,20 @@ function ensureDebianPackages(packages) {
 }
 
 const debian = [{ name: 'mariadb-server', binary: '/usr/sbin/mariadbd' }];
-if (command === 'test' || command === 'bench') debian.push({ name: 'chromium', binary: '/usr/bin/chromium' });
+if (command === 'test' || command === 'bench')
+  debian.push({ name: 'chromium', binary: '/usr/bin/chromium' });
 
 ensureNpmPackages();
 ensureDebianPackages(debian);
 
-const child = spawn(path.join(root, 'node_modules/.bin/tsx'), [entries[command], ...process.argv.slice(3)], {
-  cwd: root,
-  stdio: 'inherit',
-});
+const child = spawn(
+  path.join(root, 'node_modules/.bin/tsx'),
+  [entries[command], ...process.argv.slice(3)],
+  {
+    cwd: root,
+    stdio: 'inherit',
+  },
+);
 // The child shares our terminal's process group, so Ctrl-C reaches it directly; a SIGTERM sent
 // to us alone is passed on so the child can shut its services down cleanly.
 for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal));

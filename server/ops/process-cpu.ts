@@ -13,13 +13,16 @@ export function cpuTimeMs(rootPids: number[]): number {
       const stat = readFileSync(`/proc/${entry}/stat`, 'utf8');
       // The command name (field 2) may hold spaces; the fields after its closing parenthesis do not.
       const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-      stats.set(Number(entry), { parent: Number(fields[1]), ticks: Number(fields[11]) + Number(fields[12]) });
+      stats.set(Number(entry), {
+        parent: Number(fields[1]),
+        ticks: Number(fields[11]) + Number(fields[12]),
+      });
     } catch {
       // The process ended while /proc was being read.
     }
   }
   const counted = new Set(rootPids.filter((pid) => stats.has(pid)));
-  for (let grew = true; grew; ) {
+  for (let grew = true; grew;) {
     grew = false;
     for (const [pid, { parent }] of stats) {
       if (!counted.has(pid) && counted.has(parent)) {

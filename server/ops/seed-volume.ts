@@ -5,7 +5,9 @@ import { seedVolume } from '../demo/volume';
 import { appDatabase, localEnvironment } from './environment';
 
 // npm run seed:volume -- --records 100000   (into the app database; MariaDB must be running: npm start)
-const { values } = parseArgs({ options: { records: { type: 'string', default: '100000' }, seed: { type: 'string' } } });
+const { values } = parseArgs({
+  options: { records: { type: 'string', default: '100000' }, seed: { type: 'string' } },
+});
 const records = Number(values.records);
 if (!Number.isInteger(records) || records < 1 || records > 2_000_000) {
   console.error('--records must be a whole number from 1 to 2000000');
@@ -20,5 +22,7 @@ await seedVolume(dataSource, records, {
   seed: values.seed ? Number(values.seed) : undefined,
   onProgress: (done) => process.stdout.write(`\r  ${done} / ${records} sessions`),
 });
-console.log(`\nAdded ${records} sessions in ${((performance.now() - started) / 1000).toFixed(1)} s.`);
+console.log(
+  `\nAdded ${records} sessions in ${((performance.now() - started) / 1000).toFixed(1)} s.`,
+);
 await dataSource.destroy();

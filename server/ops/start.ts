@@ -29,7 +29,9 @@ async function shutdown(reason: string, exitCode: number) {
   stopping = true;
   console.log(`\n${reason}: stopping Luxtempo …`);
   if (web) {
-    const exited = new Promise<void>((resolve) => (web!.child.exitCode !== null ? resolve() : web!.child.once('exit', () => resolve())));
+    const exited = new Promise<void>((resolve) =>
+      web!.child.exitCode !== null ? resolve() : web!.child.once('exit', () => resolve()),
+    );
     web.child.kill('SIGTERM');
     await Promise.race([exited, new Promise((r) => setTimeout(r, 10_000))]);
     await web.kill();
@@ -37,7 +39,11 @@ async function shutdown(reason: string, exitCode: number) {
   mail?.stop();
   if (database) {
     await database.stop();
-    console.log(database.startedHere ? '• MariaDB shut down.' : '• MariaDB left running (it was running before).');
+    console.log(
+      database.startedHere
+        ? '• MariaDB shut down.'
+        : '• MariaDB left running (it was running before).',
+    );
   }
   process.exit(exitCode);
 }
@@ -48,7 +54,9 @@ try {
   const owner = localOwnerCredentials();
   database = await ensureDatabaseFor(config, owner, [config.DB_NAME, testDatabase]);
   const ran = await migrateDatabase(config, owner);
-  console.log(ran.length ? `• Migrations run: ${ran.join(', ')}` : '• Database schema is up to date');
+  console.log(
+    ran.length ? `• Migrations run: ${ran.join(', ')}` : '• Database schema is up to date',
+  );
 
   if (config.DEMO_DATA) {
     const seedSource = appDataSource(config);
@@ -57,7 +65,11 @@ try {
       const { created } = await seedDemoData(seedSource);
       await loadShippedProtocols(seedSource);
       const sessions = await seedDemoScenario(seedSource, config.UNIT_TIME_ZONE);
-      console.log(created.length || sessions ? `• Demo data added (${created.length} people and patients, ${sessions} orders)` : '• Demo data already present');
+      console.log(
+        created.length || sessions
+          ? `• Demo data added (${created.length} people and patients, ${sessions} orders)`
+          : '• Demo data already present',
+      );
     } finally {
       await seedSource.destroy();
     }
@@ -68,8 +80,13 @@ try {
     try {
       const retired = await retireDemoPeople(source);
       if (retired) console.log(`• Demo data is off: ${retired} demo people deactivated`);
-      const [{ admins }] = await source.query("SELECT COUNT(*) AS admins FROM user WHERE active = 1 AND FIND_IN_SET('admin', roles)");
-      if (Number(admins) === 0) console.log('• Nobody can sign in yet: create the first administrator with\n    npm run admin:create -- --email you@hospital.example --name "Your Name"');
+      const [{ admins }] = await source.query(
+        "SELECT COUNT(*) AS admins FROM user WHERE active = 1 AND FIND_IN_SET('admin', roles)",
+      );
+      if (Number(admins) === 0)
+        console.log(
+          '• Nobody can sign in yet: create the first administrator with\n    npm run admin:create -- --email you@hospital.example --name "Your Name"',
+        );
     } finally {
       await source.destroy();
     }
@@ -80,9 +97,14 @@ try {
 
   console.log(`• Client build: ${await buildClient()}`);
   web = await startApiProcess({ port: config.PORT, env: { ...env, CLIENT_DIR: clientDistDir } });
-  web.child.once('exit', (code, signal) => void shutdown(`The web server ended (${code ?? signal})`, code ? 1 : 0));
+  web.child.once(
+    'exit',
+    (code, signal) => void shutdown(`The web server ended (${code ?? signal})`, code ? 1 : 0),
+  );
 } catch (error) {
-  console.error(`\n✗ Luxtempo could not start: ${error instanceof Error ? error.message : String(error)}`);
+  console.error(
+    `\n✗ Luxtempo could not start: ${error instanceof Error ? error.message : String(error)}`,
+  );
   await shutdown('Start failed', 1);
 }
 
@@ -90,4 +112,6 @@ const seconds = ((performance.now() - startedAt) / 1000).toFixed(1);
 const signIns = config.DEMO_DATA
   ? `\nDemo sign-ins (password for all: ${demoPassword}):\n${demoPeople.map((p) => `  ${p.email.padEnd(40)} ${p.roles.join(' + ')}`).join('\n')}\n`
   : '';
-console.log(`\nLuxtempo is ready (${seconds} s): http://${config.HOST}:${config.PORT}\n${signIns}\nStop with Ctrl-C.`);
+console.log(
+  `\nLuxtempo is ready (${seconds} s): http://${config.HOST}:${config.PORT}\n${signIns}\nStop with Ctrl-C.`,
+);

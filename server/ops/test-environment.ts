@@ -2,7 +2,11 @@ import { loadConfig, type Config } from '../config';
 import { appDataSource } from '../db/options';
 import { loadShippedProtocols } from '../protocols/load-shipped';
 import { ensureDatabaseFor, recreateDatabase } from './database-setup';
-import { localEnvironment, localOwnerCredentials, testDatabase as defaultTestDatabase } from './environment';
+import {
+  localEnvironment,
+  localOwnerCredentials,
+  testDatabase as defaultTestDatabase,
+} from './environment';
 import type { DatabaseServer } from './mariadb';
 
 /** The browser tests' database, beside the API tests' one. */
@@ -14,10 +18,14 @@ export function browserTestDatabase(testDatabase: string): string {
  * What every API and browser test needs: the private MariaDB, and the test database emptied and
  * migrated afresh, so a run never depends on what an earlier run left behind.
  */
-export async function prepareTestEnvironment(): Promise<{ config: Config; database: DatabaseServer }> {
+export async function prepareTestEnvironment(): Promise<{
+  config: Config;
+  database: DatabaseServer;
+}> {
   // LUXTEMPO_TEST_DB lets two people (or two checkouts) run tests side by side on one MariaDB.
   const testDatabase = process.env.LUXTEMPO_TEST_DB ?? defaultTestDatabase;
-  if (!/^luxtempo_test[a-z0-9_]*$/.test(testDatabase)) throw new Error('LUXTEMPO_TEST_DB must start with luxtempo_test (it is emptied on every run)');
+  if (!/^luxtempo_test[a-z0-9_]*$/.test(testDatabase))
+    throw new Error('LUXTEMPO_TEST_DB must start with luxtempo_test (it is emptied on every run)');
   const env = localEnvironment(testDatabase);
   // Mail from tests goes to a port of its own (nothing listens there unless a test starts a catcher).
   Object.assign(process.env, env, { NODE_ENV: 'test', DEMO_DATA: 'false', SMTP_PORT: '1126' });

@@ -8,7 +8,12 @@ import { DoseCheck } from '../db/entities/dose-check';
 import { Preparation } from '../db/entities/preparation';
 import { TreatmentOrder } from '../db/entities/treatment-order';
 
-const withParts = { patient: true, protocolVersion: true, createdBy: true, signedBy: true } as const;
+const withParts = {
+  patient: true,
+  protocolVersion: true,
+  createdBy: true,
+  signedBy: true,
+} as const;
 
 const sortColumns: Record<OrderListQuery['sort'], string> = {
   createdAt: 'o.createdAt',
@@ -21,11 +26,24 @@ const sortColumns: Record<OrderListQuery['sort'], string> = {
  * The one way an order's status changes: the move must be one the lifecycle allows, and the row
  * must still be in the status the caller read (compare and set), so two writers cannot both win.
  */
-export async function moveOrderStatus(manager: EntityManager, id: number, from: OrderStatus, to: OrderStatus, changes: Omit<Partial<TreatmentOrder>, 'status'> = {}): Promise<void> {
+export async function moveOrderStatus(
+  manager: EntityManager,
+  id: number,
+  from: OrderStatus,
+  to: OrderStatus,
+  changes: Omit<Partial<TreatmentOrder>, 'status'> = {},
+): Promise<void> {
   if (from === to) return;
-  if (!canMoveOrder(from, to)) throw AppError.conflict('status_move_refused', `Order ${id} cannot go from ${from} to ${to}.`);
-  const result = await manager.getRepository(TreatmentOrder).update({ id, status: from }, { ...changes, status: to });
-  if (result.affected !== 1) throw AppError.conflict('status_changed', `Order ${id} is no longer ${from}; reload it and try again.`);
+  if (!canMoveOrder(from, to))
+    throw AppError.conflict('status_move_refused', `Order ${id} cannot go from ${from} to ${to}.`);
+  const result = await manager
+    .getRepository(TreatmentOrder)
+    .update({ id, status: from }, { ...changes, status: to });
+  if (result.affected !== 1)
+    throw AppError.conflict(
+      'status_changed',
+      `Order ${id} is no longer ${from}; reload it and try again.`,
+    );
 }
 
 export function createOrderRepository(dataSource: DataSource) {
@@ -33,7 +51,10 @@ export function createOrderRepository(dataSource: DataSource) {
   return {
     /** One order with its parts; its protocol definition is checked against the fingerprint it was planned on. */
     async findById(id: number, manager?: EntityManager) {
-      const order = await (manager?.getRepository(TreatmentOrder) ?? orders).findOne({ where: { id }, relations: withParts });
+      const order = await (manager?.getRepository(TreatmentOrder) ?? orders).findOne({
+        where: { id },
+        relations: withParts,
+      });
       if (order) checkOrderedDefinition(order, definitionSha256(order.protocolVersion.definition));
       return order;
     },
@@ -65,30 +86,61 @@ export function createOrderRepository(dataSource: DataSource) {
         plan: parse<TreatmentOrder['plan']>(row.plan),
         checklist: parse<TreatmentOrder['checklist']>(row.checklist),
         /** When the drug was made up and must be used by (PDT), for the beyond-use deviations. */
-        preparation: row.reconstitutedAt ? { reconstitutedAt: (row.reconstitutedAt as Date).toISOString(), beyondUseAt: (row.beyondUseAt as Date).toISOString() } : null,
+        preparation: row.reconstitutedAt
+          ? {
+              reconstitutedAt: (row.reconstitutedAt as Date).toISOString(),
+              beyondUseAt: (row.beyondUseAt as Date).toISOString(),
+            }
+          : null,
       };
     },
 
     /** Locks the order row for the rest of the transaction: status changes never race. */
     lockById: (manager: EntityManager, id: number) =>
-      manager.getRepository(TreatmentOrder).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } }),
+      manager
+        .getRepository(TreatmentOrder)
+        .findOne({ where: { id }, lock: { mode: 'pessimistic_write' } }),
 
-    save: (manager: EntityManager, order: Partial<TreatmentOrder>) => manager.getRepository(TreatmentOrder).save(order),
+    save: (manager: EntityManager, order: Partial<TreatmentOrder>) =>
+      manager.getRepository(TreatmentOrder).save(order),
 
     /** Changes other than the status; a status moves only through `moveOrderStatus`. */
-    update: (manager: EntityManager, id: number, changes: Omit<Partial<TreatmentOrder>, 'status'>) => manager.getRepository(TreatmentOrder).update({ id }, changes),
+    update: (
+      manager: EntityManager,
+      id: number,
+      changes: Omit<Partial<TreatmentOrder>, 'status'>,
+    ) => manager.getRepository(TreatmentOrder).update({ id }, changes),
 
     nextRevisionOf: (id: number, manager?: EntityManager) =>
-      (manager?.getRepository(TreatmentOrder) ?? orders).findOne({ where: { previousRevisionId: id }, select: { id: true, status: true } }),
+      (manager?.getRepository(TreatmentOrder) ?? orders).findOne({
+        where: { previousRevisionId: id },
+        select: { id: true, status: true },
+      }),
 
-    listForPatient: (patientId: number) => orders.find({ where: { patientId }, relations: { protocolVersion: true }, order: { createdAt: 'DESC' } }),
+    listForPatient: (patientId: number) =>
+      orders.find({
+        where: { patientId },
+        relations: { protocolVersion: true },
+        order: { createdAt: 'DESC' },
+      }),
 
     /** Treatments of one kind on one eye since a moment, for the retreatment interval. */
-    async treatmentsSince(patientId: number, eye: 'right' | 'left', kind: 'pdt' | 'cxl', since: Date, statuses: readonly OrderStatus[], excludeIds: number[] = []) {
+    async treatmentsSince(
+      patientId: number,
+      eye: 'right' | 'left',
+      kind: 'pdt' | 'cxl',
+      since: Date,
+      statuses: readonly OrderStatus[],
+      excludeIds: number[] = [],
+    ) {
       const qb = orders
         .createQueryBuilder('o')
         .innerJoinAndSelect('o.protocolVersion', 'pv')
-        .where('o.patientId = :patientId AND o.eye = :eye AND pv.kind = :kind', { patientId, eye, kind })
+        .where('o.patientId = :patientId AND o.eye = :eye AND pv.kind = :kind', {
+          patientId,
+          eye,
+          kind,
+        })
         .andWhere('o.status IN (:...statuses)', { statuses })
         .andWhere('COALESCE(o.signedAt, o.createdAt) >= :since', { since })
         .orderBy('o.signedAt', 'DESC');
@@ -108,36 +160,66 @@ export function createOrderRepository(dataSource: DataSource) {
       if (query.patientId) qb.andWhere('o.patientId = :patientId', { patientId: query.patientId });
       if (createdRange.from) qb.andWhere('o.createdAt >= :from', { from: createdRange.from });
       if (createdRange.to) qb.andWhere('o.createdAt < :to', { to: createdRange.to });
-      qb.orderBy(sortColumns[query.sort], query.direction === 'asc' ? 'ASC' : 'DESC').addOrderBy('o.id', query.direction === 'asc' ? 'ASC' : 'DESC');
+      qb.orderBy(sortColumns[query.sort], query.direction === 'asc' ? 'ASC' : 'DESC').addOrderBy(
+        'o.id',
+        query.direction === 'asc' ? 'ASC' : 'DESC',
+      );
       qb.skip((query.page - 1) * query.pageSize).take(query.pageSize);
       const [rows, total] = await qb.getManyAndCount();
       return { rows, total };
     },
 
-    listByStatus: (statuses: readonly OrderStatus[], extra: { createdById?: number; signedById?: number } = {}) =>
+    listByStatus: (
+      statuses: readonly OrderStatus[],
+      extra: { createdById?: number; signedById?: number } = {},
+    ) =>
       orders.find({
-        where: { status: In(statuses), ...(extra.createdById ? { createdById: extra.createdById } : {}), ...(extra.signedById ? { signedById: extra.signedById } : {}) },
+        where: {
+          status: In(statuses),
+          ...(extra.createdById ? { createdById: extra.createdById } : {}),
+          ...(extra.signedById ? { signedById: extra.signedById } : {}),
+        },
         relations: withParts,
         order: { createdAt: 'ASC' },
         take: 200,
       }),
 
     doseChecksFor: (orderId: number, manager?: EntityManager) =>
-      (manager?.getRepository(DoseCheck) ?? dataSource.getRepository(DoseCheck)).find({ where: { orderId }, relations: { pharmacist: true }, order: { id: 'ASC' } }),
+      (manager?.getRepository(DoseCheck) ?? dataSource.getRepository(DoseCheck)).find({
+        where: { orderId },
+        relations: { pharmacist: true },
+        order: { id: 'ASC' },
+      }),
 
-    addDoseCheck: (manager: EntityManager, check: Omit<DoseCheck, 'id' | 'createdAt' | 'order' | 'pharmacist'>) => manager.getRepository(DoseCheck).save(manager.getRepository(DoseCheck).create(check)),
+    addDoseCheck: (
+      manager: EntityManager,
+      check: Omit<DoseCheck, 'id' | 'createdAt' | 'order' | 'pharmacist'>,
+    ) => manager.getRepository(DoseCheck).save(manager.getRepository(DoseCheck).create(check)),
 
     preparationFor: (orderId: number, manager?: EntityManager) =>
       // The latest counts: a drug past its beyond-use time is made up again.
-      (manager?.getRepository(Preparation) ?? dataSource.getRepository(Preparation)).findOne({ where: { orderId }, relations: { pharmacist: true }, order: { id: 'DESC' } }),
+      (manager?.getRepository(Preparation) ?? dataSource.getRepository(Preparation)).findOne({
+        where: { orderId },
+        relations: { pharmacist: true },
+        order: { id: 'DESC' },
+      }),
 
     /** Every preparation of an order, oldest first (more than one when a drug was made up again). */
-    preparationsFor: (orderId: number) => dataSource.getRepository(Preparation).find({ where: { orderId }, relations: { pharmacist: true }, order: { id: 'ASC' } }),
+    preparationsFor: (orderId: number) =>
+      dataSource
+        .getRepository(Preparation)
+        .find({ where: { orderId }, relations: { pharmacist: true }, order: { id: 'ASC' } }),
 
-    addPreparation: (manager: EntityManager, preparation: Omit<Preparation, 'id' | 'createdAt' | 'order' | 'pharmacist'>) =>
-      manager.getRepository(Preparation).save(manager.getRepository(Preparation).create(preparation)),
+    addPreparation: (
+      manager: EntityManager,
+      preparation: Omit<Preparation, 'id' | 'createdAt' | 'order' | 'pharmacist'>,
+    ) =>
+      manager
+        .getRepository(Preparation)
+        .save(manager.getRepository(Preparation).create(preparation)),
 
-    attachmentsFor: (orderId: number) => dataSource.getRepository(Attachment).find({ where: { orderId }, order: { id: 'ASC' } }),
+    attachmentsFor: (orderId: number) =>
+      dataSource.getRepository(Attachment).find({ where: { orderId }, order: { id: 'ASC' } }),
   };
 }
 

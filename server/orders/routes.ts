@@ -1,4 +1,10 @@
-import { amendOrderRequestSchema, orderDraftSchema, orderListQuerySchema, signOrderSchema, updateOrderSchema } from '../../shared/schemas/orders';
+import {
+  amendOrderRequestSchema,
+  orderDraftSchema,
+  orderListQuerySchema,
+  signOrderSchema,
+  updateOrderSchema,
+} from '../../shared/schemas/orders';
 import { signedInUser } from '../auth/session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
@@ -11,14 +17,21 @@ export function actorOf(req: { ip?: string }, res: Parameters<typeof signedInUse
   return { id: user.id, roles: user.roles, ipAddress: req.ip };
 }
 
-export function orderRoutes(orders: OrderService, repository: OrderRepository, now: () => number = Date.now): RouteSpec[] {
+export function orderRoutes(
+  orders: OrderService,
+  repository: OrderRepository,
+  now: () => number = Date.now,
+): RouteSpec[] {
   return [
     {
       method: 'get',
       path: '/today',
       access: 'today.view',
       handler: async (req, res) => {
-        res.json({ lists: await todayLists(repository, actorOf(req, res)), serverTime: new Date(now()).toISOString() });
+        res.json({
+          lists: await todayLists(repository, actorOf(req, res)),
+          serverTime: new Date(now()).toISOString(),
+        });
       },
     },
     {
@@ -43,7 +56,9 @@ export function orderRoutes(orders: OrderService, repository: OrderRepository, n
       path: '/orders/:id',
       access: 'orders.read',
       handler: async (req, res) => {
-        res.json({ order: await orders.detail(parseInput(idParam, req.params.id, 'id'), actorOf(req, res)) });
+        res.json({
+          order: await orders.detail(parseInput(idParam, req.params.id, 'id'), actorOf(req, res)),
+        });
       },
     },
     {
@@ -73,7 +88,9 @@ export function orderRoutes(orders: OrderService, repository: OrderRepository, n
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
         const { version, ...amendment } = parseInput(amendOrderRequestSchema, req.body);
-        res.status(201).json({ order: await orders.amend(actorOf(req, res), id, amendment, version) });
+        res
+          .status(201)
+          .json({ order: await orders.amend(actorOf(req, res), id, amendment, version) });
       },
     },
   ];

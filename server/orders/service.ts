@@ -4,9 +4,22 @@ import { computePlan } from '../../shared/engine/compute-plan';
 import { PlanInputError } from '../../shared/engine/plan-input-error';
 import { amendableStatuses, treatmentStatuses } from '../../shared/orders/lifecycle';
 import { answeredCautions, signatureProblems } from '../../shared/orders/readiness';
-import { lastRecordedWeight, weightChangeMessage, weightChangeNeedingReason, type WeightChange, type WeightChangeRule } from '../../shared/orders/weight-change';
+import {
+  lastRecordedWeight,
+  weightChangeMessage,
+  weightChangeNeedingReason,
+  type WeightChange,
+  type WeightChangeRule,
+} from '../../shared/orders/weight-change';
 import type { DosePlan } from '../../shared/schemas/calculation';
-import type { AmendOrder, OrderDetail, OrderDraft, OrderListQuery, OrderStatus, OrderSummary } from '../../shared/schemas/orders';
+import type {
+  AmendOrder,
+  OrderDetail,
+  OrderDraft,
+  OrderListQuery,
+  OrderStatus,
+  OrderSummary,
+} from '../../shared/schemas/orders';
 import type { Role } from '../../shared/roles';
 import type { AuditRepository } from '../audit/repository';
 import type { ReadAudit } from '../audit/service';
@@ -28,7 +41,8 @@ export interface Actor {
   ipAddress?: string | null;
 }
 
-const person = (u: User | null | undefined) => (u ? { id: u.id, displayName: u.displayName } : null);
+const person = (u: User | null | undefined) =>
+  u ? { id: u.id, displayName: u.displayName } : null;
 
 export function toOrderSummary(o: TreatmentOrder): OrderSummary {
   return {
@@ -37,8 +51,17 @@ export function toOrderSummary(o: TreatmentOrder): OrderSummary {
     status: o.status,
     eye: o.eye,
     kind: o.protocolVersion.kind,
-    protocol: { key: o.protocolVersion.key, version: o.protocolVersion.version, title: o.protocolVersion.title },
-    patient: { id: o.patient.id, recordNumber: o.patient.recordNumber, givenName: o.patient.givenName, familyName: o.patient.familyName },
+    protocol: {
+      key: o.protocolVersion.key,
+      version: o.protocolVersion.version,
+      title: o.protocolVersion.title,
+    },
+    patient: {
+      id: o.patient.id,
+      recordNumber: o.patient.recordNumber,
+      givenName: o.patient.givenName,
+      familyName: o.patient.familyName,
+    },
     createdAt: o.createdAt.toISOString(),
     signedAt: o.signedAt?.toISOString() ?? null,
     beyondUseAt: o.beyondUseAt?.toISOString() ?? null,
@@ -55,7 +78,10 @@ export function toOrderSummary(o: TreatmentOrder): OrderSummary {
  * An edit, a signature or an amendment names the version of the order it was made from; any
  * other write since (an edit by a colleague, a signature, a status move) makes it stale.
  */
-export function assertReadVersion(order: Pick<TreatmentOrder, 'id' | 'version'>, readVersion: number): void {
+export function assertReadVersion(
+  order: Pick<TreatmentOrder, 'id' | 'version'>,
+  readVersion: number,
+): void {
   if (order.version === readVersion) return;
   throw AppError.conflict(
     'order_changed',
@@ -64,7 +90,10 @@ export function assertReadVersion(order: Pick<TreatmentOrder, 'id' | 'version'>,
 }
 
 export function planIsWithheldFrom(order: TreatmentOrder, viewer: Actor): boolean {
-  const mayCheck = viewer.roles.includes('pharmacist') && order.signedById !== viewer.id && order.createdById !== viewer.id;
+  const mayCheck =
+    viewer.roles.includes('pharmacist') &&
+    order.signedById !== viewer.id &&
+    order.createdById !== viewer.id;
   return order.status === 'signed' && order.protocolVersion.kind === 'pdt' && mayCheck;
 }
 
@@ -79,9 +108,23 @@ export function createOrderService(deps: {
   unitTimeZone: string;
   weightChangeRule: WeightChangeRule;
   /** Checks the signer's own password, throttled like a sign-in (server/auth/service.ts). */
-  confirmSignature: (userId: number, password: string, ipAddress: string | undefined) => Promise<boolean>;
+  confirmSignature: (
+    userId: number,
+    password: string,
+    ipAddress: string | undefined,
+  ) => Promise<boolean>;
 }) {
-  const { dataSource, orders, patients, users, protocols, audit, reads, weightChangeRule, confirmSignature } = deps;
+  const {
+    dataSource,
+    orders,
+    patients,
+    users,
+    protocols,
+    audit,
+    reads,
+    weightChangeRule,
+    confirmSignature,
+  } = deps;
 
   function plan(row: ProtocolForUse, inputs: OrderDraft['inputs']): DosePlan {
     try {
@@ -96,11 +139,17 @@ export function createOrderService(deps: {
    * The plan, or the engine's refusal. A refusal of the drawn-volume rule (path `protocol`) is a
    * safety gate, not a typing slip, so it leaves an audit row naming the rule.
    */
-  async function planOrRefuse(actor: Actor, row: ProtocolForUse, inputs: OrderDraft['inputs'], orderId: number | null): Promise<DosePlan> {
+  async function planOrRefuse(
+    actor: Actor,
+    row: ProtocolForUse,
+    inputs: OrderDraft['inputs'],
+    orderId: number | null,
+  ): Promise<DosePlan> {
     try {
       return plan(row, inputs);
     } catch (error) {
-      const gate = error instanceof AppError ? error.fields?.find((f) => f.path === 'protocol') : undefined;
+      const gate =
+        error instanceof AppError ? error.fields?.find((f) => f.path === 'protocol') : undefined;
       if (gate) {
         await audit.append({
           actorUserId: actor.id,
@@ -108,7 +157,11 @@ export function createOrderService(deps: {
           entityType: 'order',
           entityId: orderId,
           ipAddress: actor.ipAddress,
-          details: { protocol: `${row.key} v${row.version}`, rule: 'drawn-volume', problems: [gate] },
+          details: {
+            protocol: `${row.key} v${row.version}`,
+            rule: 'drawn-volume',
+            problems: [gate],
+          },
         });
       }
       throw error;
@@ -118,33 +171,63 @@ export function createOrderService(deps: {
   async function approvedProtocol(key: string, version?: number): Promise<ProtocolForUse> {
     const row = await protocols.resolveForUse(key, version);
     if (row.status !== 'approved') {
-      throw AppError.conflict('protocol_not_approved', `Protocol ${key} version ${row.version} is ${row.status}; orders use approved versions only.`);
+      throw AppError.conflict(
+        'protocol_not_approved',
+        `Protocol ${key} version ${row.version} is ${row.status}; orders use approved versions only.`,
+      );
     }
     return row;
   }
 
   /** Days since the last treatment of this kind on this eye, if inside the protocol's minimum interval. */
   async function recentTreatmentDays(
-    order: { patientId: number; eye: 'right' | 'left'; id?: number; previousRevisionId?: number | null },
+    order: {
+      patientId: number;
+      eye: 'right' | 'left';
+      id?: number;
+      previousRevisionId?: number | null;
+    },
     row: ProtocolForUse,
   ): Promise<number | null> {
     const minDays = row.definition.retreatmentMinDays;
     if (!minDays) return null;
     const since = new Date(Date.now() - minDays * 86_400_000);
     // An amendment replaces its earlier revision; that one is not a previous treatment.
-    const excluded = [order.id, order.previousRevisionId].filter((id): id is number => typeof id === 'number');
-    const recent = await orders.treatmentsSince(order.patientId, order.eye, row.kind, since, treatmentStatuses, excluded);
+    const excluded = [order.id, order.previousRevisionId].filter(
+      (id): id is number => typeof id === 'number',
+    );
+    const recent = await orders.treatmentsSince(
+      order.patientId,
+      order.eye,
+      row.kind,
+      since,
+      treatmentStatuses,
+      excluded,
+    );
     if (recent.length === 0) return null;
     const last = recent.map((o) => (o.signedAt ?? o.createdAt).getTime()).sort((a, b) => b - a)[0]!;
     return Math.floor((Date.now() - last) / 86_400_000);
   }
 
   /** The change from the patient's last recorded weight, when it needs a reason under the unit's rule. */
-  async function weightChangeOf(order: { id: number; patientId: number; previousRevisionId: number | null; inputs: OrderDraft['inputs'] }): Promise<WeightChange | null> {
+  async function weightChangeOf(order: {
+    id: number;
+    patientId: number;
+    previousRevisionId: number | null;
+    inputs: OrderDraft['inputs'];
+  }): Promise<WeightChange | null> {
     if (!order.inputs.weight) return null;
     // An amendment corrects its earlier revision; that one's weight is not a previous measurement.
-    const excludeOrderIds = [order.id, order.previousRevisionId].filter((id): id is number => typeof id === 'number');
-    const last = lastRecordedWeight(await patients.lastMeasurements(order.patientId, { limit: 1, excludeOrderIds, withWeight: true }));
+    const excludeOrderIds = [order.id, order.previousRevisionId].filter(
+      (id): id is number => typeof id === 'number',
+    );
+    const last = lastRecordedWeight(
+      await patients.lastMeasurements(order.patientId, {
+        limit: 1,
+        excludeOrderIds,
+        withWeight: true,
+      }),
+    );
     return weightChangeNeedingReason(last, order.inputs.weight, Date.now(), weightChangeRule);
   }
 
@@ -161,7 +244,9 @@ export function createOrderService(deps: {
       orders.preparationFor(order.id),
       orders.attachmentsFor(order.id),
       orders.nextRevisionOf(order.id),
-      order.status === 'draft' ? recentTreatmentDays(order, order.protocolVersion) : Promise.resolve(null),
+      order.status === 'draft'
+        ? recentTreatmentDays(order, order.protocolVersion)
+        : Promise.resolve(null),
       order.status === 'draft' ? weightChangeOf(order) : Promise.resolve(null),
     ]);
     const warnings = withheld ? [] : [...order.plan.warnings];
@@ -172,7 +257,12 @@ export function createOrderService(deps: {
         message: `This eye had the same kind of treatment ${recentDays} days ago; the protocol's minimum interval is ${order.protocolVersion.definition.retreatmentMinDays} days.`,
       });
     }
-    if (weightChange !== null) warnings.push({ code: 'weight-change', field: 'weightChangeReason', message: weightChangeMessage(weightChange) });
+    if (weightChange !== null)
+      warnings.push({
+        code: 'weight-change',
+        field: 'weightChangeReason',
+        message: weightChangeMessage(weightChange),
+      });
     const summary = toOrderSummary(order);
     return {
       ...summary,
@@ -192,7 +282,14 @@ export function createOrderService(deps: {
       previousRevisionId: order.previousRevisionId,
       nextRevisionId: next?.id ?? null,
       returnComment: order.returnComment,
-      attachments: attachments.map((a) => ({ id: a.id, fileName: a.fileName, mimeType: a.mimeType, sizeBytes: a.sizeBytes, sha256: a.sha256, createdAt: a.createdAt.toISOString() })),
+      attachments: attachments.map((a) => ({
+        id: a.id,
+        fileName: a.fileName,
+        mimeType: a.mimeType,
+        sizeBytes: a.sizeBytes,
+        sha256: a.sha256,
+        createdAt: a.createdAt.toISOString(),
+      })),
       doseChecks: checks.map((c) => ({
         id: c.id,
         outcome: c.outcome,
@@ -217,9 +314,18 @@ export function createOrderService(deps: {
   }
 
   /** `guard` runs in the saving transaction first: it locks and re-checks what the save depends on. */
-  async function writeDraft(actor: Actor, input: OrderDraft, base: Partial<TreatmentOrder>, action: string, guard?: (manager: EntityManager) => Promise<void>) {
+  async function writeDraft(
+    actor: Actor,
+    input: OrderDraft,
+    base: Partial<TreatmentOrder>,
+    action: string,
+    guard?: (manager: EntityManager) => Promise<void>,
+  ) {
     const patient = await patients.findById(input.patientId);
-    if (!patient) throw AppError.badRequest(`There is no patient with id ${input.patientId}.`, [{ path: 'patientId', message: 'patientId must name an existing patient' }]);
+    if (!patient)
+      throw AppError.badRequest(`There is no patient with id ${input.patientId}.`, [
+        { path: 'patientId', message: 'patientId must name an existing patient' },
+      ]);
     const row = await approvedProtocol(input.protocol.key, input.protocol.version);
     const computed = await planOrRefuse(actor, row, input.inputs, base.id ?? null);
     const save = async (m: EntityManager) => {
@@ -251,7 +357,12 @@ export function createOrderService(deps: {
       entityType: 'order',
       entityId: saved.id,
       ipAddress: actor.ipAddress,
-      details: { protocol: `${row.key} v${row.version}`, eye: input.eye, patientId: input.patientId, revision: saved.revision },
+      details: {
+        protocol: `${row.key} v${row.version}`,
+        eye: input.eye,
+        patientId: input.patientId,
+        revision: saved.revision,
+      },
     });
     return saved.id;
   }
@@ -260,7 +371,12 @@ export function createOrderService(deps: {
     /** Opening an order: audited as a read of health data. */
     async detail(id: number, viewer: Actor) {
       const order = await mustFind(id);
-      await reads.note(viewer, { action: 'order.viewed', entityType: 'order', entityId: id, details: { patientId: order.patientId, status: order.status } });
+      await reads.note(viewer, {
+        action: 'order.viewed',
+        entityType: 'order',
+        entityId: id,
+        details: { patientId: order.patientId, status: order.status },
+      });
       return detail(order, viewer);
     },
 
@@ -273,12 +389,21 @@ export function createOrderService(deps: {
       const order = await mustFind(id);
       const stillDraft = (o: Pick<TreatmentOrder, 'status'>) => {
         if (o.status !== 'draft') {
-          throw AppError.conflict('order_signed', `Order ${id} is ${o.status}: a signed order cannot be edited. Amend it instead; the signed revision stays readable.`);
+          throw AppError.conflict(
+            'order_signed',
+            `Order ${id} is ${o.status}: a signed order cannot be edited. Amend it instead; the signed revision stays readable.`,
+          );
         }
       };
       stillDraft(order);
       assertReadVersion(order, readVersion);
-      const base = { id, revision: order.revision, previousRevisionId: order.previousRevisionId, amendmentReason: order.amendmentReason, createdById: order.createdById };
+      const base = {
+        id,
+        revision: order.revision,
+        previousRevisionId: order.previousRevisionId,
+        amendmentReason: order.amendmentReason,
+        createdById: order.createdById,
+      };
       await writeDraft(actor, input, base, 'order.draft-edited', async (manager) => {
         // Locked until the edit commits: a signature waits for it, then finds a newer version.
         const locked = await orders.lockById(manager, id);
@@ -292,23 +417,41 @@ export function createOrderService(deps: {
     async amend(actor: Actor, id: number, input: AmendOrder, readVersion: number) {
       const order = await mustFind(id);
       if (!amendableStatuses.includes(order.status)) {
-        throw AppError.conflict('not_amendable', `Order ${id} is ${order.status}; only a signed order that has not reached the session can be amended.`);
+        throw AppError.conflict(
+          'not_amendable',
+          `Order ${id} is ${order.status}; only a signed order that has not reached the session can be amended.`,
+        );
       }
-      const alreadyAmended = () => AppError.conflict('already_amended', `Order ${id} has an amendment already; open that revision and work on it.`);
+      const alreadyAmended = () =>
+        AppError.conflict(
+          'already_amended',
+          `Order ${id} has an amendment already; open that revision and work on it.`,
+        );
       if (await orders.nextRevisionOf(id)) throw alreadyAmended();
       assertReadVersion(order, readVersion);
       if (input.patientId !== order.patientId) {
-        throw AppError.badRequest('An amendment keeps the patient.', [{ path: 'patientId', message: `patientId must stay ${order.patientId}; start a new order for another patient` }]);
+        throw AppError.badRequest('An amendment keeps the patient.', [
+          {
+            path: 'patientId',
+            message: `patientId must stay ${order.patientId}; start a new order for another patient`,
+          },
+        ]);
       }
       const { amendmentReason, ...draft } = input;
-      const newId = await writeDraft(actor, draft, { revision: order.revision + 1, previousRevisionId: id, amendmentReason }, 'order.amended', async (manager) => {
-        // Two amendments of one revision queue here; the second finds the first (and the unique
-        // key on the previous revision stops it even if it did not).
-        const locked = await orders.lockById(manager, id);
-        if (!locked) throw AppError.notFound(`There is no order ${id}.`);
-        assertReadVersion(locked, readVersion);
-        if (await orders.nextRevisionOf(id, manager)) throw alreadyAmended();
-      }).catch((error: unknown) => {
+      const newId = await writeDraft(
+        actor,
+        draft,
+        { revision: order.revision + 1, previousRevisionId: id, amendmentReason },
+        'order.amended',
+        async (manager) => {
+          // Two amendments of one revision queue here; the second finds the first (and the unique
+          // key on the previous revision stops it even if it did not).
+          const locked = await orders.lockById(manager, id);
+          if (!locked) throw AppError.notFound(`There is no order ${id}.`);
+          assertReadVersion(locked, readVersion);
+          if (await orders.nextRevisionOf(id, manager)) throw alreadyAmended();
+        },
+      ).catch((error: unknown) => {
         throw isDuplicateKey(error) ? alreadyAmended() : error;
       });
       return detail(await mustFind(newId), actor);
@@ -317,11 +460,23 @@ export function createOrderService(deps: {
     async sign(actor: Actor, id: number, password: string, readVersion: number) {
       const user = await users.findById(actor.id);
       if (!user || !(await confirmSignature(actor.id, password, actor.ipAddress ?? undefined))) {
-        await audit.append({ actorUserId: actor.id, action: 'order.signature-refused', entityType: 'order', entityId: id, ipAddress: actor.ipAddress });
-        throw AppError.badRequest('The password is not right; the order was not signed.', [{ path: 'password', message: 'password must be your sign-in password' }]);
+        await audit.append({
+          actorUserId: actor.id,
+          action: 'order.signature-refused',
+          entityType: 'order',
+          entityId: id,
+          ipAddress: actor.ipAddress,
+        });
+        throw AppError.badRequest('The password is not right; the order was not signed.', [
+          { path: 'password', message: 'password must be your sign-in password' },
+        ]);
       }
       const order = await mustFind(id);
-      if (order.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} is ${order.status} and cannot be signed again.`);
+      if (order.status !== 'draft')
+        throw AppError.conflict(
+          'order_signed',
+          `Order ${id} is ${order.status} and cannot be signed again.`,
+        );
       // The signer signs what they read, and the plan is frozen from exactly that version.
       assertReadVersion(order, readVersion);
       const row = await approvedProtocol(order.protocolVersion.key, order.protocolVersion.version);
@@ -345,22 +500,45 @@ export function createOrderService(deps: {
           entityType: 'order',
           entityId: id,
           ipAddress: actor.ipAddress,
-          details: { protocol: `${row.key} v${row.version}`, problems: problems.map((p) => ({ path: p.path, message: p.message })) },
+          details: {
+            protocol: `${row.key} v${row.version}`,
+            problems: problems.map((p) => ({ path: p.path, message: p.message })),
+          },
         });
-        throw AppError.badRequest(`The order cannot be signed yet: ${problems.map((p) => p.message).join('; ')}`, problems);
+        throw AppError.badRequest(
+          `The order cannot be signed yet: ${problems.map((p) => p.message).join('; ')}`,
+          problems,
+        );
       }
 
       const status: OrderStatus = row.definition.drug ? 'signed' : 'ready';
       // Read before the transaction, which must not wait for a second pooled connection.
-      const pharmacists = status === 'signed' ? (await users.list()).filter((u) => u.active && u.roles.includes('pharmacist') && u.id !== actor.id) : [];
+      const pharmacists =
+        status === 'signed'
+          ? (await users.list()).filter(
+              (u) => u.active && u.roles.includes('pharmacist') && u.id !== actor.id,
+            )
+          : [];
       await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
-        if (locked?.status !== 'draft') throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
+        if (locked?.status !== 'draft')
+          throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
         assertReadVersion(locked, readVersion);
         const signedAt = new Date();
-        await moveOrderStatus(manager, id, 'draft', status, { plan: frozen, engineVersion: frozen.engineVersion, protocolSha256: row.sha256, signedById: actor.id, signedAt, signatureMeaning: 'ordered' });
+        await moveOrderStatus(manager, id, 'draft', status, {
+          plan: frozen,
+          engineVersion: frozen.engineVersion,
+          protocolSha256: row.sha256,
+          signedById: actor.id,
+          signedAt,
+          signatureMeaning: 'ordered',
+        });
         // The patient's measurement history: what was signed, when.
-        await patients.recordMeasurement(manager, { patientId: order.patientId, orderId: id, measuredAt: signedAt }, order.inputs);
+        await patients.recordMeasurement(
+          manager,
+          { patientId: order.patientId, orderId: id, measuredAt: signedAt },
+          order.inputs,
+        );
         if (order.previousRevisionId) {
           const previous = await orders.lockById(manager, order.previousRevisionId);
           if (previous) await moveOrderStatus(manager, previous.id, previous.status, 'superseded');
@@ -380,14 +558,26 @@ export function createOrderService(deps: {
           });
         }
       });
-      const overrides = order.checklist.filter((a) => a.answer === 'yes').map((a) => ({ id: a.id, reason: a.overrideReason }));
+      const overrides = order.checklist
+        .filter((a) => a.answer === 'yes')
+        .map((a) => ({ id: a.id, reason: a.overrideReason }));
       await audit.append({
         actorUserId: actor.id,
         action: 'order.signed',
         entityType: 'order',
         entityId: id,
         ipAddress: actor.ipAddress,
-        details: { meaning: 'ordered', status, protocol: `${row.key} v${row.version}`, engineVersion: frozen.engineVersion, contraindicationOverrides: overrides, swellingAcknowledged: order.swellingAcknowledged, softLimitReasons: order.softLimitReasons, retreatmentReason: order.retreatmentReason, weightChangeReason: order.weightChangeReason },
+        details: {
+          meaning: 'ordered',
+          status,
+          protocol: `${row.key} v${row.version}`,
+          engineVersion: frozen.engineVersion,
+          contraindicationOverrides: overrides,
+          swellingAcknowledged: order.swellingAcknowledged,
+          softLimitReasons: order.softLimitReasons,
+          retreatmentReason: order.retreatmentReason,
+          weightChangeReason: order.weightChangeReason,
+        },
       });
       return detail(await mustFind(id), actor);
     },
@@ -395,10 +585,19 @@ export function createOrderService(deps: {
     async list(query: OrderListQuery) {
       const zone = deps.unitTimeZone;
       // Dates in the filter are the unit's calendar days; the database holds UTC.
-      const from = query.from ? DateTime.fromISO(query.from, { zone }).startOf('day').toJSDate() : undefined;
-      const to = query.to ? DateTime.fromISO(query.to, { zone }).plus({ days: 1 }).startOf('day').toJSDate() : undefined;
+      const from = query.from
+        ? DateTime.fromISO(query.from, { zone }).startOf('day').toJSDate()
+        : undefined;
+      const to = query.to
+        ? DateTime.fromISO(query.to, { zone }).plus({ days: 1 }).startOf('day').toJSDate()
+        : undefined;
       const { rows, total } = await orders.list(query, { from, to });
-      return { orders: rows.map(toOrderSummary), total, page: query.page, pageSize: query.pageSize };
+      return {
+        orders: rows.map(toOrderSummary),
+        total,
+        page: query.page,
+        pageSize: query.pageSize,
+      };
     },
   };
 }

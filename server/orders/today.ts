@@ -12,20 +12,47 @@ export interface TodayList {
 /** Each role's worklist, built for the roles the person holds. */
 export async function todayLists(orders: OrderRepository, actor: Actor): Promise<TodayList[]> {
   const lists: TodayList[] = [];
-  const summaries = (rows: Awaited<ReturnType<OrderRepository['listByStatus']>>) => rows.map(toOrderSummary);
+  const summaries = (rows: Awaited<ReturnType<OrderRepository['listByStatus']>>) =>
+    rows.map(toOrderSummary);
   if (actor.roles.includes('clinician')) {
-    lists.push({ id: 'clinician-drafts', title: 'Your draft orders', orders: summaries(await orders.listByStatus(['draft'], { createdById: actor.id })) });
-    lists.push({ id: 'clinician-returned', title: 'Orders sent back after the dose check', orders: summaries(await orders.listByStatus(['returned'], { signedById: actor.id })) });
+    lists.push({
+      id: 'clinician-drafts',
+      title: 'Your draft orders',
+      orders: summaries(await orders.listByStatus(['draft'], { createdById: actor.id })),
+    });
+    lists.push({
+      id: 'clinician-returned',
+      title: 'Orders sent back after the dose check',
+      orders: summaries(await orders.listByStatus(['returned'], { signedById: actor.id })),
+    });
   }
   if (actor.roles.includes('pharmacist')) {
-    const waiting = (await orders.listByStatus(['signed'])).filter((o) => o.signedById !== actor.id);
-    lists.push({ id: 'pharmacist-checks', title: 'Waiting for a dose check', orders: summaries(waiting) });
-    lists.push({ id: 'pharmacist-preparation', title: 'Checked, waiting for preparation', orders: summaries(await orders.listByStatus(['checked'])) });
-    lists.push({ id: 'pharmacist-prepared', title: 'Prepared, with beyond-use time', orders: summaries(await orders.listByStatus(['prepared'])) });
+    const waiting = (await orders.listByStatus(['signed'])).filter(
+      (o) => o.signedById !== actor.id,
+    );
+    lists.push({
+      id: 'pharmacist-checks',
+      title: 'Waiting for a dose check',
+      orders: summaries(waiting),
+    });
+    lists.push({
+      id: 'pharmacist-preparation',
+      title: 'Checked, waiting for preparation',
+      orders: summaries(await orders.listByStatus(['checked'])),
+    });
+    lists.push({
+      id: 'pharmacist-prepared',
+      title: 'Prepared, with beyond-use time',
+      orders: summaries(await orders.listByStatus(['prepared'])),
+    });
   }
   if (actor.roles.includes('nurse')) {
     // A running session stays on the list, so a nurse coming back to the tablet finds it.
-    lists.push({ id: 'nurse-ready', title: 'Ready for treatment or running', orders: summaries(await orders.listByStatus(stepClockStatuses)) });
+    lists.push({
+      id: 'nurse-ready',
+      title: 'Ready for treatment or running',
+      orders: summaries(await orders.listByStatus(stepClockStatuses)),
+    });
   }
   return lists;
 }

@@ -23,9 +23,15 @@ function toRecordedMeasurement(m: PatientMeasurement): RecordedMeasurement {
   return {
     orderId: m.orderId,
     measuredAt: m.measuredAt.toISOString(),
-    height: m.heightValue !== null && m.heightUnit !== null ? { value: m.heightValue, unit: m.heightUnit } : null,
+    height:
+      m.heightValue !== null && m.heightUnit !== null
+        ? { value: m.heightValue, unit: m.heightUnit }
+        : null,
     heightCm: m.heightCm,
-    weight: m.weightValue !== null && m.weightUnit !== null ? { value: m.weightValue, unit: m.weightUnit } : null,
+    weight:
+      m.weightValue !== null && m.weightUnit !== null
+        ? { value: m.weightValue, unit: m.weightUnit }
+        : null,
     weightKg: m.weightKg,
   };
 }
@@ -37,7 +43,13 @@ export function createPatientRepository(dataSource: DataSource) {
     findByRecordNumber: (recordNumber: string) => repo.findOneBy({ recordNumber }),
     search: (text: string | undefined, limit: number) =>
       repo.find({
-        where: text ? [{ recordNumber: Like(`${escapeLike(text)}%`) }, { familyName: Like(`${escapeLike(text)}%`) }, { givenName: Like(`${escapeLike(text)}%`) }] : {},
+        where: text
+          ? [
+              { recordNumber: Like(`${escapeLike(text)}%`) },
+              { familyName: Like(`${escapeLike(text)}%`) },
+              { givenName: Like(`${escapeLike(text)}%`) },
+            ]
+          : {},
         order: { familyName: 'ASC', givenName: 'ASC' },
         take: limit,
       }),
@@ -47,7 +59,10 @@ export function createPatientRepository(dataSource: DataSource) {
      * The patient's recorded measurements, newest first. Rows of revisions an amendment replaced
      * are left out (the amendment carries the corrected figures), and so are the orders named.
      */
-    async lastMeasurements(patientId: number, options: { limit: number; excludeOrderIds?: number[]; withWeight?: boolean }): Promise<RecordedMeasurement[]> {
+    async lastMeasurements(
+      patientId: number,
+      options: { limit: number; excludeOrderIds?: number[]; withWeight?: boolean },
+    ): Promise<RecordedMeasurement[]> {
       const qb = dataSource
         .getRepository(PatientMeasurement)
         .createQueryBuilder('m')
@@ -64,7 +79,11 @@ export function createPatientRepository(dataSource: DataSource) {
     },
 
     /** Written once, in the signing transaction. */
-    async recordMeasurement(manager: EntityManager, at: { patientId: number; orderId: number; measuredAt: Date }, inputs: PlanInputs): Promise<void> {
+    async recordMeasurement(
+      manager: EntityManager,
+      at: { patientId: number; orderId: number; measuredAt: Date },
+      inputs: PlanInputs,
+    ): Promise<void> {
       const measured = measuredFrom(inputs);
       if (measured) await manager.getRepository(PatientMeasurement).insert({ ...at, ...measured });
     },

@@ -5,7 +5,9 @@ import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
 import type { PatientService } from './service';
 
-const searchQuery = z.object({ q: z.string().max(80, 'q must be at most 80 characters').optional() });
+const searchQuery = z.object({
+  q: z.string().max(80, 'q must be at most 80 characters').optional(),
+});
 
 export function patientRoutes(patients: PatientService): RouteSpec[] {
   return [
@@ -24,7 +26,11 @@ export function patientRoutes(patients: PatientService): RouteSpec[] {
       access: 'patients.manage',
       handler: async (req, res) => {
         const input = parseInput(createPatientSchema, req.body);
-        res.status(201).json({ patient: await patients.create({ id: signedInUser(res).id, ipAddress: req.ip }, input) });
+        res
+          .status(201)
+          .json({
+            patient: await patients.create({ id: signedInUser(res).id, ipAddress: req.ip }, input),
+          });
       },
     },
     {
@@ -32,7 +38,12 @@ export function patientRoutes(patients: PatientService): RouteSpec[] {
       path: '/patients/:id',
       access: 'patients.read',
       handler: async (req, res) => {
-        res.json(await patients.history(parseInput(idParam, req.params.id, 'id'), { id: signedInUser(res).id, ipAddress: req.ip }));
+        res.json(
+          await patients.history(parseInput(idParam, req.params.id, 'id'), {
+            id: signedInUser(res).id,
+            ipAddress: req.ip,
+          }),
+        );
       },
     },
     {

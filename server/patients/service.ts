@@ -1,6 +1,10 @@
 import { treatmentStatuses } from '../../shared/orders/lifecycle';
 import type { WeightChangeRule } from '../../shared/orders/weight-change';
-import type { CreatePatient, PatientMeasurements, Patient as PatientDto } from '../../shared/schemas/patients';
+import type {
+  CreatePatient,
+  PatientMeasurements,
+  Patient as PatientDto,
+} from '../../shared/schemas/patients';
 import type { AuditRepository } from '../audit/repository';
 import type { Reader, ReadAudit } from '../audit/service';
 import type { Patient } from '../db/entities/patient';
@@ -24,12 +28,22 @@ export function toPatientDto(p: Patient): PatientDto {
 /** How many recorded measurements a new order shows beside its inputs. */
 const measurementsShown = 5;
 
-export function createPatientService(patients: PatientRepository, orders: OrderRepository, audit: AuditRepository, reads: ReadAudit, weightChangeRule: WeightChangeRule) {
+export function createPatientService(
+  patients: PatientRepository,
+  orders: OrderRepository,
+  audit: AuditRepository,
+  reads: ReadAudit,
+  weightChangeRule: WeightChangeRule,
+) {
   return {
     /** The last heights and weights recorded on signed orders, newest first, with the rule a new weight is held to. */
     async measurements(id: number): Promise<PatientMeasurements> {
-      if (!(await patients.findById(id))) throw AppError.notFound(`There is no patient with id ${id}.`);
-      return { measurements: await patients.lastMeasurements(id, { limit: measurementsShown }), weightChangeRule };
+      if (!(await patients.findById(id)))
+        throw AppError.notFound(`There is no patient with id ${id}.`);
+      return {
+        measurements: await patients.lastMeasurements(id, { limit: measurementsShown }),
+        weightChangeRule,
+      };
     },
 
     async search(text?: string) {
@@ -37,13 +51,26 @@ export function createPatientService(patients: PatientRepository, orders: OrderR
     },
 
     async create(actor: { id: number; ipAddress?: string | null }, input: CreatePatient) {
-      const taken = () => AppError.conflict('record_number_taken', `A patient with record number ${input.recordNumber} exists already; search for it instead of adding it again.`);
+      const taken = () =>
+        AppError.conflict(
+          'record_number_taken',
+          `A patient with record number ${input.recordNumber} exists already; search for it instead of adding it again.`,
+        );
       if (await patients.findByRecordNumber(input.recordNumber)) throw taken();
       // Two people adding the same record at once: both pass the look-up, the unique key stops one.
-      const patient = await patients.create({ ...input, email: input.email ?? null }).catch((error: unknown) => {
-        throw isDuplicateKey(error) ? taken() : error;
+      const patient = await patients
+        .create({ ...input, email: input.email ?? null })
+        .catch((error: unknown) => {
+          throw isDuplicateKey(error) ? taken() : error;
+        });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'patient.created',
+        entityType: 'patient',
+        entityId: patient.id,
+        ipAddress: actor.ipAddress,
+        details: { recordNumber: patient.recordNumber },
       });
-      await audit.append({ actorUserId: actor.id, action: 'patient.created', entityType: 'patient', entityId: patient.id, ipAddress: actor.ipAddress, details: { recordNumber: patient.recordNumber } });
       return toPatientDto(patient);
     },
 
@@ -54,14 +81,23 @@ export function createPatientService(patients: PatientRepository, orders: OrderR
     async history(id: number, reader: Reader) {
       const patient = await patients.findById(id);
       if (!patient) throw AppError.notFound(`There is no patient with id ${id}.`);
-      await reads.note(reader, { action: 'patient.viewed', entityType: 'patient', entityId: id, details: { recordNumber: patient.recordNumber } });
+      await reads.note(reader, {
+        action: 'patient.viewed',
+        entityType: 'patient',
+        entityId: id,
+        details: { recordNumber: patient.recordNumber },
+      });
       const rows = await orders.listForPatient(id);
       const treatments = rows.map((o) => ({
         orderId: o.id,
         revision: o.revision,
         eye: o.eye,
         kind: o.protocolVersion.kind,
-        protocol: { key: o.protocolVersion.key, version: o.protocolVersion.version, title: o.protocolVersion.title },
+        protocol: {
+          key: o.protocolVersion.key,
+          version: o.protocolVersion.version,
+          title: o.protocolVersion.title,
+        },
         status: o.status,
         date: (o.signedAt ?? o.createdAt).toISOString(),
         daysSincePreviousSameKind: null as number | null,
@@ -69,9 +105,13 @@ export function createPatientService(patients: PatientRepository, orders: OrderR
       const counted = new Set<string>(treatmentStatuses);
       for (const eye of ['right', 'left'] as const) {
         for (const kind of ['pdt', 'cxl'] as const) {
-          const series = treatments.filter((t) => t.eye === eye && t.kind === kind && counted.has(t.status)).sort((a, b) => a.date.localeCompare(b.date));
+          const series = treatments
+            .filter((t) => t.eye === eye && t.kind === kind && counted.has(t.status))
+            .sort((a, b) => a.date.localeCompare(b.date));
           for (let i = 1; i < series.length; i++) {
-            series[i]!.daysSincePreviousSameKind = Math.floor((Date.parse(series[i]!.date) - Date.parse(series[i - 1]!.date)) / 86_400_000);
+            series[i]!.daysSincePreviousSameKind = Math.floor(
+              (Date.parse(series[i]!.date) - Date.parse(series[i - 1]!.date)) / 86_400_000,
+            );
           }
         }
       }

@@ -13,16 +13,30 @@ import { createUserRepository } from './repository';
  * second administrator. Run for an existing administrator's e-mail, it prints a fresh link
  * (the way back in when the only administrator has lost their password).
  */
-export async function createFirstAdmin(dataSource: DataSource, config: Config, person: { email: string; displayName: string }): Promise<{ url: string; created: boolean; expiresInHours: number }> {
+export async function createFirstAdmin(
+  dataSource: DataSource,
+  config: Config,
+  person: { email: string; displayName: string },
+): Promise<{ url: string; created: boolean; expiresInHours: number }> {
   const users = createUserRepository(dataSource);
   const audit = createAuditRepository(dataSource);
   const links = createPasswordLinks(dataSource, createPasswordLinkRepository(dataSource), config);
   const existing = await users.findByEmail(person.email);
   if (existing && !existing.roles.includes('admin')) {
-    throw new Error(`${existing.email} already has an account without the administrator role; an administrator can give it that role on the People page.`);
+    throw new Error(
+      `${existing.email} already has an account without the administrator role; an administrator can give it that role on the People page.`,
+    );
   }
-  if (existing && !existing.active) throw new Error(`${existing.email} is deactivated; another administrator can reactivate it.`);
-  const user = existing ?? (await users.create({ email: person.email, displayName: person.displayName, roles: ['admin'], passwordHash: noPasswordYet }));
+  if (existing && !existing.active)
+    throw new Error(`${existing.email} is deactivated; another administrator can reactivate it.`);
+  const user =
+    existing ??
+    (await users.create({
+      email: person.email,
+      displayName: person.displayName,
+      roles: ['admin'],
+      passwordHash: noPasswordYet,
+    }));
   await audit.append({
     actorUserId: null,
     action: existing ? 'person.password-link-sent' : 'person.created',
@@ -30,5 +44,9 @@ export async function createFirstAdmin(dataSource: DataSource, config: Config, p
     entityId: user.id,
     details: { email: user.email, roles: user.roles, by: 'admin:create command' },
   });
-  return { url: await links.issueForPrinting(user), created: !existing, expiresInHours: config.PASSWORD_LINK_HOURS };
+  return {
+    url: await links.issueForPrinting(user),
+    created: !existing,
+    expiresInHours: config.PASSWORD_LINK_HOURS,
+  };
 }

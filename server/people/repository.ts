@@ -9,21 +9,43 @@ export function createUserRepository(dataSource: DataSource) {
     findById: (id: number) => repo.findOneBy({ id }),
     findByEmail: (email: string) => repo.findOneBy({ email: email.trim().toLowerCase() }),
     list: () => repo.find({ order: { displayName: 'ASC' } }),
-    async create(person: { email: string; displayName: string; roles: Role[]; passwordHash: string }): Promise<User> {
-      const created = repo.create({ ...person, email: person.email.trim().toLowerCase(), active: true });
+    async create(person: {
+      email: string;
+      displayName: string;
+      roles: Role[];
+      passwordHash: string;
+    }): Promise<User> {
+      const created = repo.create({
+        ...person,
+        email: person.email.trim().toLowerCase(),
+        active: true,
+      });
       return repo.save(created);
     },
-    async update(id: number, changes: Partial<Pick<User, 'displayName' | 'roles' | 'active' | 'passwordHash'>>): Promise<User | null> {
+    async update(
+      id: number,
+      changes: Partial<Pick<User, 'displayName' | 'roles' | 'active' | 'passwordHash'>>,
+    ): Promise<User | null> {
       await repo.update({ id }, changes);
       return repo.findOneBy({ id });
     },
     /** A password the person has just set (or one rehashed in the current format). */
-    async setPassword(id: number, passwordHash: string, manager: EntityManager = dataSource.manager): Promise<void> {
-      await manager.query('UPDATE user SET password_hash = ?, password_changed_at = NOW(3) WHERE id = ?', [passwordHash, id]);
+    async setPassword(
+      id: number,
+      passwordHash: string,
+      manager: EntityManager = dataSource.manager,
+    ): Promise<void> {
+      await manager.query(
+        'UPDATE user SET password_hash = ?, password_changed_at = NOW(3) WHERE id = ?',
+        [passwordHash, id],
+      );
     },
     async rehashPassword(id: number, previousHash: string, passwordHash: string): Promise<void> {
       // Only if nobody changed it meanwhile.
-      await dataSource.query('UPDATE user SET password_hash = ? WHERE id = ? AND password_hash = ?', [passwordHash, id, previousHash]);
+      await dataSource.query(
+        'UPDATE user SET password_hash = ? WHERE id = ? AND password_hash = ?',
+        [passwordHash, id, previousHash],
+      );
     },
   };
 }
@@ -38,13 +60,28 @@ export function createRoleRequestRepository(dataSource: DataSource) {
     pending: () => repo.find({ where: { status: 'pending' }, order: { id: 'ASC' } }),
     pendingFor: (userId: number) => repo.findOneBy({ userId, status: 'pending' }),
     /** A new request for a person replaces the one still waiting. */
-    async create(request: { userId: number; roles: Role[]; requestedBy: number }): Promise<RoleRequest> {
-      await dataSource.query("UPDATE role_request SET status = 'withdrawn', decided_by = ?, decided_at = NOW(3) WHERE user_id = ? AND status = 'pending'", [request.requestedBy, request.userId]);
+    async create(request: {
+      userId: number;
+      roles: Role[];
+      requestedBy: number;
+    }): Promise<RoleRequest> {
+      await dataSource.query(
+        "UPDATE role_request SET status = 'withdrawn', decided_by = ?, decided_at = NOW(3) WHERE user_id = ? AND status = 'pending'",
+        [request.requestedBy, request.userId],
+      );
       return repo.save(repo.create({ ...request, status: 'pending' }));
     },
     /** Decides a request still pending; false when someone else decided it first. */
-    async decide(manager: EntityManager, id: number, status: 'approved' | 'rejected', decidedBy: number): Promise<boolean> {
-      const result = await manager.query("UPDATE role_request SET status = ?, decided_by = ?, decided_at = NOW(3) WHERE id = ? AND status = 'pending'", [status, decidedBy, id]);
+    async decide(
+      manager: EntityManager,
+      id: number,
+      status: 'approved' | 'rejected',
+      decidedBy: number,
+    ): Promise<boolean> {
+      const result = await manager.query(
+        "UPDATE role_request SET status = ?, decided_by = ?, decided_at = NOW(3) WHERE id = ? AND status = 'pending'",
+        [status, decidedBy, id],
+      );
       return Number(result?.affectedRows ?? 0) === 1;
     },
   };

@@ -5,7 +5,10 @@ import { idParam, parseInput } from '../http/validation';
 import type { PeopleService } from './service';
 
 export function peopleRoutes(people: PeopleService): RouteSpec[] {
-  const actorOf = (req: { ip?: string }, res: Parameters<typeof signedInUser>[0]) => ({ id: signedInUser(res).id, ipAddress: req.ip });
+  const actorOf = (req: { ip?: string }, res: Parameters<typeof signedInUser>[0]) => ({
+    id: signedInUser(res).id,
+    ipAddress: req.ip,
+  });
   return [
     {
       method: 'get',

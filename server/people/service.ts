@@ -1,6 +1,12 @@
 import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/roles';
-import { clinicalRoles, type CreatePerson, type Person, type RoleRequestView, type UpdatePerson } from '../../shared/schemas/people';
+import {
+  clinicalRoles,
+  type CreatePerson,
+  type Person,
+  type RoleRequestView,
+  type UpdatePerson,
+} from '../../shared/schemas/people';
 import type { AuditRepository } from '../audit/repository';
 import { noPasswordYet } from '../auth/passwords';
 import type { PasswordLinks } from '../auth/password-links';
@@ -18,7 +24,9 @@ export function toPerson(user: User, pending: RoleRequest | null = null): Person
     roles: user.roles,
     active: user.active,
     accountReady: user.passwordChangedAt !== null,
-    pendingRoleRequest: pending ? { id: pending.id, roles: pending.roles, requestedBy: pending.requestedBy } : null,
+    pendingRoleRequest: pending
+      ? { id: pending.id, roles: pending.roles, requestedBy: pending.requestedBy }
+      : null,
     createdAt: user.createdAt.toISOString(),
     updatedAt: user.updatedAt.toISOString(),
   };
@@ -44,7 +52,14 @@ interface Deps {
  * People and their roles. Giving anyone a clinical role (clinician, pharmacist) is a request that
  * a second administrator approves; nobody can ask for one for themselves or approve their own.
  */
-export function createPeopleService({ dataSource, users, roleRequests, sessions, passwordLinks, audit }: Deps) {
+export function createPeopleService({
+  dataSource,
+  users,
+  roleRequests,
+  sessions,
+  passwordLinks,
+  audit,
+}: Deps) {
   async function mustFind(id: number): Promise<User> {
     const user = await users.findById(id);
     if (!user) throw AppError.notFound(`No person has the id ${id}.`);
@@ -52,7 +67,10 @@ export function createPeopleService({ dataSource, users, roleRequests, sessions,
   }
 
   /** Roles that take effect now and, if any clinical role is being given, the set to request. */
-  function splitRoles(before: readonly Role[], wanted: readonly Role[]): { now: Role[]; request: Role[] | null } {
+  function splitRoles(
+    before: readonly Role[],
+    wanted: readonly Role[],
+  ): { now: Role[]; request: Role[] | null } {
     const gainsClinical = wanted.some((role) => isClinical(role) && !before.includes(role));
     if (!gainsClinical) return { now: [...wanted], request: null };
     // Until approved, the person keeps what they had, less anything being taken away.
@@ -86,7 +104,12 @@ export function createPeopleService({ dataSource, users, roleRequests, sessions,
       const { now, request } = splitRoles([], input.roles);
       let user: User;
       try {
-        user = await users.create({ email: input.email, displayName: input.displayName, roles: now, passwordHash: noPasswordYet });
+        user = await users.create({
+          email: input.email,
+          displayName: input.displayName,
+          roles: now,
+          passwordHash: noPasswordYet,
+        });
       } catch (error) {
         if ((error as { code?: string }).code === 'ER_DUP_ENTRY') {
           throw AppError.conflict('email_taken', `Someone already has the e-mail ${input.email}.`);
@@ -103,36 +126,73 @@ export function createPeopleService({ dataSource, users, roleRequests, sessions,
       });
       const pending = request ? await requestRoles(actor, user, request) : null;
       await passwordLinks.send(user, 'new-account', actor.id);
-      await audit.append({ actorUserId: actor.id, action: 'person.password-link-sent', entityType: 'user', entityId: user.id, ipAddress: actor.ipAddress, details: { purpose: 'new-account' } });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'person.password-link-sent',
+        entityType: 'user',
+        entityId: user.id,
+        ipAddress: actor.ipAddress,
+        details: { purpose: 'new-account' },
+      });
       return toPerson(user, pending);
     },
 
     async update(actor: Actor, id: number, changes: UpdatePerson): Promise<Person> {
       const before = await mustFind(id);
-      if (actor.id === id && changes.roles && !changes.roles.includes('admin') && before.roles.includes('admin')) {
-        throw AppError.conflict('own_admin_role', 'You cannot remove your own administrator role; ask another administrator.');
+      if (
+        actor.id === id &&
+        changes.roles &&
+        !changes.roles.includes('admin') &&
+        before.roles.includes('admin')
+      ) {
+        throw AppError.conflict(
+          'own_admin_role',
+          'You cannot remove your own administrator role; ask another administrator.',
+        );
       }
       if (actor.id === id && changes.active === false) {
-        throw AppError.conflict('own_account', 'You cannot deactivate your own account; ask another administrator.');
+        throw AppError.conflict(
+          'own_account',
+          'You cannot deactivate your own account; ask another administrator.',
+        );
       }
       const split = changes.roles ? splitRoles(before.roles, changes.roles) : null;
       if (actor.id === id && split?.request) {
-        throw AppError.conflict('own_clinical_role', 'You cannot give yourself a clinical role; another administrator must ask for it and a third approve it.');
+        throw AppError.conflict(
+          'own_clinical_role',
+          'You cannot give yourself a clinical role; another administrator must ask for it and a third approve it.',
+        );
       }
       const after = await users.update(id, { ...changes, ...(split ? { roles: split.now } : {}) });
       if (!after) throw AppError.notFound(`No person has the id ${id}.`);
       const changed: Record<string, { from: unknown; to: unknown }> = {};
       for (const key of ['displayName', 'roles', 'active'] as const) {
-        if (changes[key] !== undefined && JSON.stringify(before[key]) !== JSON.stringify(after[key])) {
+        if (
+          changes[key] !== undefined &&
+          JSON.stringify(before[key]) !== JSON.stringify(after[key])
+        ) {
           changed[key] = { from: before[key], to: after[key] };
         }
       }
       if (Object.keys(changed).length > 0) {
-        const action = changed.active ? (after.active ? 'person.reactivated' : 'person.deactivated') : 'person.updated';
-        await audit.append({ actorUserId: actor.id, action, entityType: 'user', entityId: id, ipAddress: actor.ipAddress, details: { changed } });
+        const action = changed.active
+          ? after.active
+            ? 'person.reactivated'
+            : 'person.deactivated'
+          : 'person.updated';
+        await audit.append({
+          actorUserId: actor.id,
+          action,
+          entityType: 'user',
+          entityId: id,
+          ipAddress: actor.ipAddress,
+          details: { changed },
+        });
       }
       if (changed.active && !after.active) await sessions.revokeAllOf(id, 'deactivated');
-      const pending = split?.request ? await requestRoles(actor, after, split.request) : await roleRequests.pendingFor(id);
+      const pending = split?.request
+        ? await requestRoles(actor, after, split.request)
+        : await roleRequests.pendingFor(id);
       return toPerson(after, pending);
     },
 
@@ -152,30 +212,59 @@ export function createPeopleService({ dataSource, users, roleRequests, sessions,
     },
 
     /** A second administrator approves or rejects; never the one who asked, nor the person concerned. */
-    async decideRoleRequest(actor: Actor, requestId: number, decision: 'approved' | 'rejected'): Promise<Person> {
+    async decideRoleRequest(
+      actor: Actor,
+      requestId: number,
+      decision: 'approved' | 'rejected',
+    ): Promise<Person> {
       const request = await roleRequests.findById(requestId);
       if (!request) throw AppError.notFound(`No role request has the id ${requestId}.`);
-      if (request.status !== 'pending') throw AppError.conflict('request_decided', `Role request ${requestId} is already ${request.status}.`);
+      if (request.status !== 'pending')
+        throw AppError.conflict(
+          'request_decided',
+          `Role request ${requestId} is already ${request.status}.`,
+        );
       if (request.requestedBy === actor.id) {
-        throw new AppError(403, 'own_request', 'You asked for this change; a different administrator must decide it.');
+        throw new AppError(
+          403,
+          'own_request',
+          'You asked for this change; a different administrator must decide it.',
+        );
       }
       if (request.userId === actor.id) {
-        throw new AppError(403, 'own_roles', 'This change is to your own roles; a different administrator must decide it.');
+        throw new AppError(
+          403,
+          'own_roles',
+          'This change is to your own roles; a different administrator must decide it.',
+        );
       }
       const before = await mustFind(request.userId);
       await dataSource.transaction(async (manager) => {
         if (!(await roleRequests.decide(manager, requestId, decision, actor.id))) {
-          throw AppError.conflict('request_decided', `Role request ${requestId} was decided by someone else just now.`);
+          throw AppError.conflict(
+            'request_decided',
+            `Role request ${requestId} was decided by someone else just now.`,
+          );
         }
-        if (decision === 'approved') await manager.query('UPDATE user SET roles = ? WHERE id = ?', [request.roles.join(','), request.userId]);
+        if (decision === 'approved')
+          await manager.query('UPDATE user SET roles = ? WHERE id = ?', [
+            request.roles.join(','),
+            request.userId,
+          ]);
       });
       await audit.append({
         actorUserId: actor.id,
-        action: decision === 'approved' ? 'person.role-change-approved' : 'person.role-change-rejected',
+        action:
+          decision === 'approved' ? 'person.role-change-approved' : 'person.role-change-rejected',
         entityType: 'user',
         entityId: request.userId,
         ipAddress: actor.ipAddress,
-        details: { requestId, requestedBy: request.requestedBy, from: before.roles, to: request.roles },
+        details: {
+          requestId,
+          requestedBy: request.requestedBy,
+          from: before.roles,
+          to: request.roles,
+        },
       });
       return toPerson(await mustFind(request.userId));
     },
@@ -183,16 +272,38 @@ export function createPeopleService({ dataSource, users, roleRequests, sessions,
     /** An admin's reset: a one-time link by e-mail. The admin is told only that it was sent. */
     async sendPasswordLink(actor: Actor, id: number): Promise<void> {
       const user = await mustFind(id);
-      if (!user.active) throw AppError.conflict('person_inactive', `${user.displayName} is deactivated; reactivate them before sending a link.`);
-      await passwordLinks.send(user, user.passwordChangedAt === null ? 'new-account' : 'reset', actor.id);
-      await audit.append({ actorUserId: actor.id, action: 'person.password-link-sent', entityType: 'user', entityId: id, ipAddress: actor.ipAddress, details: { purpose: user.passwordChangedAt === null ? 'new-account' : 'reset' } });
+      if (!user.active)
+        throw AppError.conflict(
+          'person_inactive',
+          `${user.displayName} is deactivated; reactivate them before sending a link.`,
+        );
+      await passwordLinks.send(
+        user,
+        user.passwordChangedAt === null ? 'new-account' : 'reset',
+        actor.id,
+      );
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'person.password-link-sent',
+        entityType: 'user',
+        entityId: id,
+        ipAddress: actor.ipAddress,
+        details: { purpose: user.passwordChangedAt === null ? 'new-account' : 'reset' },
+      });
     },
 
     /** Signs the person out everywhere, at once. */
     async endSessions(actor: Actor, id: number): Promise<{ ended: number }> {
       await mustFind(id);
       const ended = await sessions.revokeAllOf(id, 'ended-by-admin');
-      await audit.append({ actorUserId: actor.id, action: 'person.sessions-ended', entityType: 'user', entityId: id, ipAddress: actor.ipAddress, details: { ended } });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'person.sessions-ended',
+        entityType: 'user',
+        entityId: id,
+        ipAddress: actor.ipAddress,
+        details: { ended },
+      });
       return { ended };
     },
   };

@@ -34,7 +34,11 @@ export function createPharmacyService(deps: {
     const order = await orders.findById(id);
     if (!order) throw AppError.notFound(`There is no order ${id}.`);
     const drug = order.protocolVersion.definition.drug;
-    if (!drug) throw AppError.conflict('no_drug', `Order ${id} uses ${order.protocolVersion.key}, which has no drug to check or prepare.`);
+    if (!drug)
+      throw AppError.conflict(
+        'no_drug',
+        `Order ${id} uses ${order.protocolVersion.key}, which has no drug to check or prepare.`,
+      );
     return { order, drug };
   }
 
@@ -47,10 +51,16 @@ export function createPharmacyService(deps: {
       const { order } = await loadForPharmacy(id);
       if (order.signedById === actor.id || order.createdById === actor.id) {
         const act = order.signedById === actor.id ? 'signed' : 'drafted';
-        throw AppError.forbidden(`You ${act} this order, so you cannot check it: the dose check must be done by someone else.`);
+        throw AppError.forbidden(
+          `You ${act} this order, so you cannot check it: the dose check must be done by someone else.`,
+        );
       }
       const tolerance = order.protocolVersion.definition.tolerances.doseCheck;
-      if (!tolerance) throw AppError.conflict('no_dose_check', `Protocol ${order.protocolVersion.key} sets no dose-check tolerance.`);
+      if (!tolerance)
+        throw AppError.conflict(
+          'no_dose_check',
+          `Protocol ${order.protocolVersion.key} sets no dose-check tolerance.`,
+        );
       // Within tolerance of the plan's rounded figure or of the unrounded working: exact figures pass.
       const differing: string[] = doseCheckDiffering(order.plan, entry, tolerance);
       const outcome = differing.length === 0 ? 'match' : 'mismatch';
@@ -59,22 +69,45 @@ export function createPharmacyService(deps: {
       const clinician = order.signedById ? await users.findById(order.signedById) : null;
       const result = await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
-        if (locked?.status !== 'signed') throw AppError.conflict('not_waiting_for_check', `Order ${id} is ${locked?.status ?? 'gone'}, not waiting for a dose check.`);
-        await orders.addDoseCheck(manager, { orderId: id, pharmacistId: actor.id, bsaM2: entry.bsaM2, doseMg: entry.doseMg, drugVolumeMl: entry.drugVolumeMl, outcome, differing, comment: entry.comment ?? null });
+        if (locked?.status !== 'signed')
+          throw AppError.conflict(
+            'not_waiting_for_check',
+            `Order ${id} is ${locked?.status ?? 'gone'}, not waiting for a dose check.`,
+          );
+        await orders.addDoseCheck(manager, {
+          orderId: id,
+          pharmacistId: actor.id,
+          bsaM2: entry.bsaM2,
+          doseMg: entry.doseMg,
+          drugVolumeMl: entry.drugVolumeMl,
+          outcome,
+          differing,
+          comment: entry.comment ?? null,
+        });
         if (outcome === 'match') {
           await moveOrderStatus(manager, id, 'signed', 'checked');
           await addParticipant(manager, id, actor.id, 'checked');
           return { returned: false, refusals: 0 };
         }
-        const refusals = (await orders.doseChecksFor(id, manager)).filter((c) => c.outcome === 'mismatch').length;
+        const refusals = (await orders.doseChecksFor(id, manager)).filter(
+          (c) => c.outcome === 'mismatch',
+        ).length;
         if (refusals < refusalsBeforeReturn) return { returned: false, refusals };
-        const comment = entry.comment?.trim() || `The dose check was refused ${refusals} times (figures differing: ${differing.join(', ')}).`;
+        const comment =
+          entry.comment?.trim() ||
+          `The dose check was refused ${refusals} times (figures differing: ${differing.join(', ')}).`;
         await moveOrderStatus(manager, id, 'signed', 'returned', { returnComment: comment });
         await enqueueMessage(manager, {
           kind: 'order-returned',
           recipients: clinician?.active ? [clinician.email] : [],
           subject: `Luxtempo: order ${id} was sent back after the dose check`,
-          body: [`The independent dose check for order ${id} (${order.protocolVersion.title}, ${order.eye} eye) was refused ${refusals} times.`, '', `Pharmacist's comment: ${comment}`, '', 'Open Luxtempo to review and amend the order.'].join('\n'),
+          body: [
+            `The independent dose check for order ${id} (${order.protocolVersion.title}, ${order.eye} eye) was refused ${refusals} times.`,
+            '',
+            `Pharmacist's comment: ${comment}`,
+            '',
+            'Open Luxtempo to review and amend the order.',
+          ].join('\n'),
           related: { type: 'order', id },
         });
         return { returned: true, refusals };
@@ -82,21 +115,33 @@ export function createPharmacyService(deps: {
 
       await audit.append({
         actorUserId: actor.id,
-        action: outcome === 'match' ? 'dose-check.matched' : result.returned ? 'dose-check.refused-and-returned' : 'dose-check.refused',
+        action:
+          outcome === 'match'
+            ? 'dose-check.matched'
+            : result.returned
+              ? 'dose-check.refused-and-returned'
+              : 'dose-check.refused',
         entityType: 'order',
         entityId: id,
         ipAddress: actor.ipAddress,
-        details: { entered: { bsaM2: entry.bsaM2, doseMg: entry.doseMg, drugVolumeMl: entry.drugVolumeMl }, differing, comment: entry.comment ?? null },
+        details: {
+          entered: { bsaM2: entry.bsaM2, doseMg: entry.doseMg, drugVolumeMl: entry.drugVolumeMl },
+          differing,
+          comment: entry.comment ?? null,
+        },
       });
       if (outcome === 'mismatch') {
         const message = result.returned
-          ? `Your figures differ from the plan again (${differing.join(", ")}): the order goes back to the clinician with your comment.`
+          ? `Your figures differ from the plan again (${differing.join(', ')}): the order goes back to the clinician with your comment.`
           : `Your figures differ from the plan: ${differing.join(', ')}. Recalculate and enter them again; one more refusal sends the order back to the clinician.`;
         throw new AppError(
           422,
           result.returned ? 'dose_check_returned' : 'dose_check_mismatch',
           message,
-          differing.map((path) => ({ path, message: `${path} is outside the protocol's tolerance` })),
+          differing.map((path) => ({
+            path,
+            message: `${path} is outside the protocol's tolerance`,
+          })),
         );
       }
       return orderService.detail(id, actor);
@@ -107,27 +152,45 @@ export function createPharmacyService(deps: {
       const zone = deps.unitTimeZone;
       const today = DateTime.now().setZone(zone).toISODate()!;
       if (entry.vialExpiry < today) {
-        throw AppError.badRequest(`The vial expired on ${entry.vialExpiry}; use an in-date vial.`, [{ path: 'vialExpiry', message: `vialExpiry must be today (${today}) or later` }]);
+        throw AppError.badRequest(`The vial expired on ${entry.vialExpiry}; use an in-date vial.`, [
+          { path: 'vialExpiry', message: `vialExpiry must be today (${today}) or later` },
+        ]);
       }
       const now = deps.now?.() ?? Date.now();
-      const reconstitutedAt = entry.reconstitutedAt ? new Date(entry.reconstitutedAt) : new Date(now);
+      const reconstitutedAt = entry.reconstitutedAt
+        ? new Date(entry.reconstitutedAt)
+        : new Date(now);
       if (reconstitutedAt.getTime() > now + clockSkewS * 1000) {
-        throw AppError.badRequest('The reconstitution time is in the future.', [{ path: 'reconstitutedAt', message: 'reconstitutedAt cannot be in the future' }]);
+        throw AppError.badRequest('The reconstitution time is in the future.', [
+          { path: 'reconstitutedAt', message: 'reconstitutedAt cannot be in the future' },
+        ]);
       }
       const beyondUseAt = new Date(reconstitutedAt.getTime() + drug.beyondUseH * 3_600_000);
       if (beyondUseAt.getTime() <= now) {
-        throw AppError.badRequest(`Drug reconstituted then is already past its beyond-use time of ${drug.beyondUseH} h.`, [
-          { path: 'reconstitutedAt', message: `reconstitutedAt must be within the last ${drug.beyondUseH} hours` },
-        ]);
+        throw AppError.badRequest(
+          `Drug reconstituted then is already past its beyond-use time of ${drug.beyondUseH} h.`,
+          [
+            {
+              path: 'reconstitutedAt',
+              message: `reconstitutedAt must be within the last ${drug.beyondUseH} hours`,
+            },
+          ],
+        );
       }
       const planned = order.plan.drugVolumeMl;
       const pct = order.protocolVersion.definition.tolerances.drugVolumePct;
       if (planned != null && pct != null && !withinPct(entry.volumeDrawnMl, planned, pct)) {
         const low = +(planned * (1 - pct / 100)).toFixed(2);
         const high = +(planned * (1 + pct / 100)).toFixed(2);
-        throw AppError.badRequest(`The volume drawn differs from the plan by more than ${pct}%.`, [{ path: 'volumeDrawnMl', message: `volumeDrawnMl must be between ${low} and ${high} mL (plan ${planned} mL ± ${pct}%)` }]);
+        throw AppError.badRequest(`The volume drawn differs from the plan by more than ${pct}%.`, [
+          {
+            path: 'volumeDrawnMl',
+            message: `volumeDrawnMl must be between ${low} and ${high} mL (plan ${planned} mL ± ${pct}%)`,
+          },
+        ]);
       }
-      const infusionStepId = order.protocolVersion.definition.steps.find((step) => step.kind === 'infusion')?.id ?? null;
+      const infusionStepId =
+        order.protocolVersion.definition.steps.find((step) => step.kind === 'infusion')?.id ?? null;
       const discarded = await dataSource.transaction(async (manager) => {
         const locked = await orders.lockById(manager, id);
         let previous: { beyondUseAt: string } | null = null;
@@ -138,14 +201,31 @@ export function createPharmacyService(deps: {
           const { kept } = withdrawalsApplied(await readSessionEvents(manager, id));
           const verdict = canReprepare(locked.status, {
             beyondUsePassed: current !== null && current.beyondUseAt.getTime() <= now,
-            infusionStarted: kept.some((e) => e.type === 'step-started' && e.stepId === infusionStepId),
+            infusionStarted: kept.some(
+              (e) => e.type === 'step-started' && e.stepId === infusionStepId,
+            ),
           });
-          if (!verdict.allowed) throw AppError.conflict('not_checked', `Order ${id} is ${locked.status}; preparation follows a matching dose check, and ${verdict.why}.`);
+          if (!verdict.allowed)
+            throw AppError.conflict(
+              'not_checked',
+              `Order ${id} is ${locked.status}; preparation follows a matching dose check, and ${verdict.why}.`,
+            );
           previous = current ? { beyondUseAt: current.beyondUseAt.toISOString() } : null;
         } else if (!locked) {
-          throw AppError.conflict('not_checked', `Order ${id} is gone; preparation follows a matching dose check.`);
+          throw AppError.conflict(
+            'not_checked',
+            `Order ${id} is gone; preparation follows a matching dose check.`,
+          );
         }
-        await orders.addPreparation(manager, { orderId: id, pharmacistId: actor.id, vialLot: entry.vialLot, vialExpiry: entry.vialExpiry, reconstitutedAt, volumeDrawnMl: entry.volumeDrawnMl, beyondUseAt });
+        await orders.addPreparation(manager, {
+          orderId: id,
+          pharmacistId: actor.id,
+          vialLot: entry.vialLot,
+          vialExpiry: entry.vialExpiry,
+          reconstitutedAt,
+          volumeDrawnMl: entry.volumeDrawnMl,
+          beyondUseAt,
+        });
         if (!previous) await moveOrderStatus(manager, id, 'checked', 'prepared', { beyondUseAt });
         else await orders.update(manager, id, { beyondUseAt });
         await addParticipant(manager, id, actor.id, 'prepared');

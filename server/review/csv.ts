@@ -20,6 +20,13 @@ export function csvLine(values: unknown[]): string {
 /** ISO 8601 with the unit's offset, e.g. 2026-11-20T10:05:00.000+00:00. */
 export function isoInZone(value: Date | string | null, zone: string): string | null {
   if (value === null) return null;
-  const date = value instanceof Date ? value : new Date(value.includes('T') || value.endsWith('Z') ? value : `${value.replace(' ', 'T')}Z`);
-  return DateTime.fromJSDate(date).setZone(zone).toISO({ suppressMilliseconds: false, includeOffset: true });
+  const date =
+    value instanceof Date
+      ? value
+      : new Date(
+          value.includes('T') || value.endsWith('Z') ? value : `${value.replace(' ', 'T')}Z`,
+        );
+  return DateTime.fromJSDate(date)
+    .setZone(zone)
+    .toISO({ suppressMilliseconds: false, includeOffset: true });
 }

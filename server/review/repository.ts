@@ -20,31 +20,61 @@ const deviationSort: Record<AuditFilter['sort'], string> = {
 
 export function createReviewRepository(dataSource: DataSource) {
   /** Protocol versions matching a key (and version): a handful of ids, so filters stay on the indexed column. */
-  async function protocolIds(filter: { protocol?: string; version?: number }): Promise<number[] | null> {
+  async function protocolIds(filter: {
+    protocol?: string;
+    version?: number;
+  }): Promise<number[] | null> {
     if (!filter.protocol) return null;
-    const rows = await dataSource.getRepository(ProtocolVersion).find({ where: { key: filter.protocol, ...(filter.version ? { version: filter.version } : {}) }, select: { id: true } });
+    const rows = await dataSource
+      .getRepository(ProtocolVersion)
+      .find({
+        where: { key: filter.protocol, ...(filter.version ? { version: filter.version } : {}) },
+        select: { id: true },
+      });
     return rows.map((r) => r.id);
   }
 
-  function filteredDeviations(filter: AuditFilter, range: DateRange, ids: number[] | null): SelectQueryBuilder<DeviationRow> {
-    const qb = dataSource.getRepository(DeviationRow).createQueryBuilder('d').where('d.withdrawn_at IS NULL');
+  function filteredDeviations(
+    filter: AuditFilter,
+    range: DateRange,
+    ids: number[] | null,
+  ): SelectQueryBuilder<DeviationRow> {
+    const qb = dataSource
+      .getRepository(DeviationRow)
+      .createQueryBuilder('d')
+      .where('d.withdrawn_at IS NULL');
     if (range.from) qb.andWhere('d.detected_at >= :from', { from: range.from });
     if (range.to) qb.andWhere('d.detected_at < :to', { to: range.to });
     if (ids) qb.andWhere(ids.length ? 'd.protocol_version_id IN (:...ids)' : '1 = 0', { ids });
     if (filter.type) qb.andWhere('d.type = :type', { type: filter.type });
     if (filter.severity) qb.andWhere('d.severity = :severity', { severity: filter.severity });
     if (filter.status) qb.andWhere('d.review_status = :status', { status: filter.status });
-    if (filter.staff) qb.andWhere('EXISTS (SELECT 1 FROM session_participant sp WHERE sp.order_id = d.order_id AND sp.user_id = :staff)', { staff: filter.staff });
+    if (filter.staff)
+      qb.andWhere(
+        'EXISTS (SELECT 1 FROM session_participant sp WHERE sp.order_id = d.order_id AND sp.user_id = :staff)',
+        { staff: filter.staff },
+      );
     return qb;
   }
 
-  function filteredRecords(filter: DoseRecordFilter, range: DateRange, ids: number[] | null): SelectQueryBuilder<DoseRecordRow> {
-    const qb = dataSource.getRepository(DoseRecordRow).createQueryBuilder('r').where("r.outcome IN ('completed', 'stopped')");
+  function filteredRecords(
+    filter: DoseRecordFilter,
+    range: DateRange,
+    ids: number[] | null,
+  ): SelectQueryBuilder<DoseRecordRow> {
+    const qb = dataSource
+      .getRepository(DoseRecordRow)
+      .createQueryBuilder('r')
+      .where("r.outcome IN ('completed', 'stopped')");
     if (filter.outcome) qb.andWhere('r.outcome = :outcome', { outcome: filter.outcome });
     if (range.from) qb.andWhere('r.ended_at >= :from', { from: range.from });
     if (range.to) qb.andWhere('r.ended_at < :to', { to: range.to });
     if (ids) qb.andWhere(ids.length ? 'r.protocol_version_id IN (:...ids)' : '1 = 0', { ids });
-    if (filter.staff) qb.andWhere('EXISTS (SELECT 1 FROM session_participant sp WHERE sp.order_id = r.order_id AND sp.user_id = :staff)', { staff: filter.staff });
+    if (filter.staff)
+      qb.andWhere(
+        'EXISTS (SELECT 1 FROM session_participant sp WHERE sp.order_id = r.order_id AND sp.user_id = :staff)',
+        { staff: filter.staff },
+      );
     return qb;
   }
 
@@ -113,9 +143,14 @@ export function createReviewRepository(dataSource: DataSource) {
         .addOrderBy('d.id', direction)
         .offset((filter.page - 1) * filter.pageSize)
         .limit(filter.pageSize);
-      const [pageIds, total] = await Promise.all([pageQuery.getRawMany<{ id: number }>(), filteredDeviations(filter, range, ids).getCount()]);
+      const [pageIds, total] = await Promise.all([
+        pageQuery.getRawMany<{ id: number }>(),
+        filteredDeviations(filter, range, ids).getCount(),
+      ]);
       if (pageIds.length === 0) return { rows: [], total };
-      const rows = await deviationColumns(dataSource.getRepository(DeviationRow).createQueryBuilder('d'))
+      const rows = await deviationColumns(
+        dataSource.getRepository(DeviationRow).createQueryBuilder('d'),
+      )
         .where('d.id IN (:...ids)', { ids: pageIds.map((r) => r.id) })
         .orderBy(deviationSort[filter.sort], direction)
         .addOrderBy('d.id', direction)
@@ -139,7 +174,10 @@ export function createReviewRepository(dataSource: DataSource) {
     async deviationsForExport(filter: AuditFilter, range: DateRange) {
       const ids = await protocolIds(filter);
       const direction = filter.direction === 'asc' ? 'ASC' : 'DESC';
-      return deviationColumns(filteredDeviations(filter, range, ids)).orderBy(deviationSort[filter.sort], direction).addOrderBy('d.id', direction).getQueryAndParameters();
+      return deviationColumns(filteredDeviations(filter, range, ids))
+        .orderBy(deviationSort[filter.sort], direction)
+        .addOrderBy('d.id', direction)
+        .getQueryAndParameters();
     },
 
     async recordPage(filter: DoseRecordFilter, range: DateRange) {
@@ -155,7 +193,9 @@ export function createReviewRepository(dataSource: DataSource) {
         .getRawMany<{ orderId: number }>();
       const total = await filteredRecords(filter, range, ids).getCount();
       if (pageIds.length === 0) return { rows: [], total };
-      const rows = await recordColumns(dataSource.getRepository(DoseRecordRow).createQueryBuilder('r'))
+      const rows = await recordColumns(
+        dataSource.getRepository(DoseRecordRow).createQueryBuilder('r'),
+      )
         .where('r.order_id IN (:...ids)', { ids: pageIds.map((r) => r.orderId) })
         .orderBy(sort, direction)
         .addOrderBy('r.order_id', direction)
@@ -167,7 +207,10 @@ export function createReviewRepository(dataSource: DataSource) {
       const ids = await protocolIds(filter);
       const direction = filter.direction === 'asc' ? 'ASC' : 'DESC';
       const sort = filter.sort === 'fluence' ? 'r.delivered_fluence_j_per_cm2' : 'r.ended_at';
-      return recordColumns(filteredRecords(filter, range, ids)).orderBy(sort, direction).addOrderBy('r.order_id', direction).getQueryAndParameters();
+      return recordColumns(filteredRecords(filter, range, ids))
+        .orderBy(sort, direction)
+        .addOrderBy('r.order_id', direction)
+        .getQueryAndParameters();
     },
 
     /** Sessions and sessions with a deviation per unit month and protocol version. */
@@ -177,7 +220,12 @@ export function createReviewRepository(dataSource: DataSource) {
         .getRepository(DoseRecordRow)
         .createQueryBuilder('r')
         .innerJoin('protocol_version', 'pv', 'pv.id = r.protocol_version_id')
-        .select(['r.local_month AS month', 'pv.protocol_key AS protocolKey', 'pv.version AS protocolVersion', 'pv.title AS protocolTitle'])
+        .select([
+          'r.local_month AS month',
+          'pv.protocol_key AS protocolKey',
+          'pv.version AS protocolVersion',
+          'pv.title AS protocolTitle',
+        ])
         .addSelect('COUNT(*)', 'sessions')
         .addSelect('SUM(r.deviation_count > 0)', 'sessionsWithDeviation')
         .where("r.outcome IN ('completed', 'stopped') AND r.local_month IS NOT NULL")
@@ -185,10 +233,18 @@ export function createReviewRepository(dataSource: DataSource) {
         .addGroupBy('pv.id')
         .orderBy('r.local_month', 'ASC')
         .addOrderBy('pv.protocol_key', 'ASC');
-      if (filter.fromMonth) qb.andWhere('r.local_month >= :fromMonth', { fromMonth: filter.fromMonth });
+      if (filter.fromMonth)
+        qb.andWhere('r.local_month >= :fromMonth', { fromMonth: filter.fromMonth });
       if (filter.toMonth) qb.andWhere('r.local_month <= :toMonth', { toMonth: filter.toMonth });
       if (ids) qb.andWhere(ids.length ? 'r.protocol_version_id IN (:...ids)' : '1 = 0', { ids });
-      return qb.getRawMany<{ month: string; protocolKey: string; protocolVersion: number; protocolTitle: string; sessions: string; sessionsWithDeviation: string }>();
+      return qb.getRawMany<{
+        month: string;
+        protocolKey: string;
+        protocolVersion: number;
+        protocolTitle: string;
+        sessions: string;
+        sessionsWithDeviation: string;
+      }>();
     },
 
     findDeviation: (id: number) => dataSource.getRepository(DeviationRow).findOneBy({ id }),
@@ -197,24 +253,51 @@ export function createReviewRepository(dataSource: DataSource) {
         .getRepository(DeviationReview)
         .createQueryBuilder('r')
         .leftJoin('user', 'u', 'u.id = r.reviewer_id')
-        .select(['r.id AS id', 'r.action AS action', 'r.classification AS classification', 'r.comment AS comment', 'r.created_at AS createdAt', 'u.display_name AS reviewer', 'r.reviewer_id AS reviewerId'])
+        .select([
+          'r.id AS id',
+          'r.action AS action',
+          'r.classification AS classification',
+          'r.comment AS comment',
+          'r.created_at AS createdAt',
+          'u.display_name AS reviewer',
+          'r.reviewer_id AS reviewerId',
+        ])
         .where('r.deviation_id = :deviationId', { deviationId })
         .orderBy('r.id', 'ASC')
         .getRawMany(),
-    participantsOf: (orderId: number): Promise<{ userId: number; part: string; displayName: string }[]> =>
-      dataSource.query('SELECT sp.user_id AS userId, sp.part AS part, u.display_name AS displayName FROM session_participant sp JOIN user u ON u.id = sp.user_id WHERE sp.order_id = ? ORDER BY sp.part', [orderId]),
+    participantsOf: (
+      orderId: number,
+    ): Promise<{ userId: number; part: string; displayName: string }[]> =>
+      dataSource.query(
+        'SELECT sp.user_id AS userId, sp.part AS part, u.display_name AS displayName FROM session_participant sp JOIN user u ON u.id = sp.user_id WHERE sp.order_id = ? ORDER BY sp.part',
+        [orderId],
+      ),
 
     auditTrail: async (query: AuditTrailQuery, range: DateRange) => {
-      const qb = dataSource.getRepository(AuditEvent).createQueryBuilder('a').leftJoin('user', 'u', 'u.id = a.actor_user_id');
+      const qb = dataSource
+        .getRepository(AuditEvent)
+        .createQueryBuilder('a')
+        .leftJoin('user', 'u', 'u.id = a.actor_user_id');
       if (range.from) qb.andWhere('a.occurred_at >= :from', { from: range.from });
       if (range.to) qb.andWhere('a.occurred_at < :to', { to: range.to });
       if (query.action) qb.andWhere('a.action = :action', { action: query.action });
       if (query.actor) qb.andWhere('a.actor_user_id = :actor', { actor: query.actor });
-      if (query.entityType) qb.andWhere('a.entity_type = :entityType', { entityType: query.entityType });
+      if (query.entityType)
+        qb.andWhere('a.entity_type = :entityType', { entityType: query.entityType });
       if (query.entityId) qb.andWhere('a.entity_id = :entityId', { entityId: query.entityId });
       const total = await qb.clone().getCount();
       const rows = await qb
-        .select(['a.id AS id', 'a.occurred_at AS occurredAt', 'a.action AS action', 'a.entity_type AS entityType', 'a.entity_id AS entityId', 'a.actor_user_id AS actorUserId', 'u.display_name AS actor', 'a.ip_address AS ipAddress', 'a.details AS details'])
+        .select([
+          'a.id AS id',
+          'a.occurred_at AS occurredAt',
+          'a.action AS action',
+          'a.entity_type AS entityType',
+          'a.entity_id AS entityId',
+          'a.actor_user_id AS actorUserId',
+          'u.display_name AS actor',
+          'a.ip_address AS ipAddress',
+          'a.details AS details',
+        ])
         .orderBy('a.id', query.direction === 'asc' ? 'ASC' : 'DESC')
         .offset((query.page - 1) * query.pageSize)
         .limit(query.pageSize)

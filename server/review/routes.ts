@@ -1,5 +1,11 @@
 import { z } from 'zod';
-import { auditFilterSchema, auditTrailQuerySchema, closeDeviationSchema, doseRecordFilterSchema, reopenDeviationSchema } from '../../shared/schemas/reviews';
+import {
+  auditFilterSchema,
+  auditTrailQuerySchema,
+  closeDeviationSchema,
+  doseRecordFilterSchema,
+  reopenDeviationSchema,
+} from '../../shared/schemas/reviews';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
 import { actorOf } from '../orders/routes';
@@ -8,7 +14,10 @@ import type { ReviewService } from './service';
 const trendsQuery = z.strictObject({
   from: z.iso.date({ error: 'from must be a date (YYYY-MM-DD)' }).optional(),
   to: z.iso.date({ error: 'to must be a date (YYYY-MM-DD)' }).optional(),
-  protocol: z.string().regex(/^[a-z0-9-]{1,64}$/, 'protocol must be a protocol key').optional(),
+  protocol: z
+    .string()
+    .regex(/^[a-z0-9-]{1,64}$/, 'protocol must be a protocol key')
+    .optional(),
 });
 
 function csvHeaders(res: Parameters<RouteSpec['handler']>[1], name: string) {
@@ -43,7 +52,9 @@ export function reviewRoutes(reviews: ReviewService): RouteSpec[] {
       access: 'audit.review',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        res.json(await reviews.close(actorOf(req, res), id, parseInput(closeDeviationSchema, req.body)));
+        res.json(
+          await reviews.close(actorOf(req, res), id, parseInput(closeDeviationSchema, req.body)),
+        );
       },
     },
     {
@@ -52,7 +63,13 @@ export function reviewRoutes(reviews: ReviewService): RouteSpec[] {
       access: 'audit.review',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        res.json(await reviews.reopen(actorOf(req, res), id, parseInput(reopenDeviationSchema, req.body).comment));
+        res.json(
+          await reviews.reopen(
+            actorOf(req, res),
+            id,
+            parseInput(reopenDeviationSchema, req.body).comment,
+          ),
+        );
       },
     },
     {

@@ -3,7 +3,12 @@ import { pipeline } from 'node:stream/promises';
 import type { Writable } from 'node:stream';
 import { DateTime } from 'luxon';
 import { IsNull, type DataSource, type EntityManager } from 'typeorm';
-import type { AuditFilter, AuditTrailQuery, DoseRecordFilter, ReviewClassification } from '../../shared/schemas/reviews';
+import type {
+  AuditFilter,
+  AuditTrailQuery,
+  DoseRecordFilter,
+  ReviewClassification,
+} from '../../shared/schemas/reviews';
 import type { AuditRepository } from '../audit/repository';
 import type { Reader, ReadAudit } from '../audit/service';
 import { DeviationRow } from '../db/entities/deviation';
@@ -18,15 +23,26 @@ import type { SessionService } from '../sessions/service';
 import { csvLine, isoInZone } from './csv';
 import type { DateRange, ReviewRepository } from './repository';
 
-export function createReviewService(deps: { dataSource: DataSource; reviews: ReviewRepository; sessions: SessionService; audit: AuditRepository; reads: ReadAudit; unitTimeZone: string }) {
+export function createReviewService(deps: {
+  dataSource: DataSource;
+  reviews: ReviewRepository;
+  sessions: SessionService;
+  audit: AuditRepository;
+  reads: ReadAudit;
+  unitTimeZone: string;
+}) {
   const { dataSource, reviews, audit } = deps;
   const zone = deps.unitTimeZone;
 
   /** Calendar days of the unit to a half-open UTC range. */
   function rangeOf(filter: { from?: string; to?: string }): DateRange {
     return {
-      from: filter.from ? DateTime.fromISO(filter.from, { zone }).startOf('day').toJSDate() : undefined,
-      to: filter.to ? DateTime.fromISO(filter.to, { zone }).plus({ days: 1 }).startOf('day').toJSDate() : undefined,
+      from: filter.from
+        ? DateTime.fromISO(filter.from, { zone }).startOf('day').toJSDate()
+        : undefined,
+      to: filter.to
+        ? DateTime.fromISO(filter.to, { zone }).plus({ days: 1 }).startOf('day').toJSDate()
+        : undefined,
     };
   }
 
@@ -34,7 +50,8 @@ export function createReviewService(deps: { dataSource: DataSource; reviews: Rev
 
   async function mustFindDeviation(id: number) {
     const deviation = await reviews.findDeviation(id);
-    if (!deviation || deviation.withdrawnAt) throw AppError.notFound(`There is no deviation ${id}.`);
+    if (!deviation || deviation.withdrawnAt)
+      throw AppError.notFound(`There is no deviation ${id}.`);
     return deviation;
   }
 
@@ -44,25 +61,50 @@ export function createReviewService(deps: { dataSource: DataSource; reviews: Rev
 
   /** Brings the order's status in line with its deviations' review (shared/orders/lifecycle). */
   async function settleOrderStatus(manager: EntityManager, orderId: number) {
-    const order = await manager.getRepository(TreatmentOrder).findOne({ where: { id: orderId }, lock: { mode: 'pessimistic_write' } });
+    const order = await manager
+      .getRepository(TreatmentOrder)
+      .findOne({ where: { id: orderId }, lock: { mode: 'pessimistic_write' } });
     const record = await manager.getRepository(DoseRecordRow).findOneBy({ orderId });
     if (!order || !record) return;
-    const openDeviations = await manager.getRepository(DeviationRow).count({ where: { orderId, reviewStatus: 'open', withdrawnAt: IsNull() } });
-    const next = statusAfterReview(order.status, { sessionOutcome: record.outcome === 'stopped' ? 'stopped' : 'completed', openDeviations });
+    const openDeviations = await manager
+      .getRepository(DeviationRow)
+      .count({ where: { orderId, reviewStatus: 'open', withdrawnAt: IsNull() } });
+    const next = statusAfterReview(order.status, {
+      sessionOutcome: record.outcome === 'stopped' ? 'stopped' : 'completed',
+      openDeviations,
+    });
     await moveOrderStatus(manager, orderId, order.status, next);
   }
 
   return {
     async queue(filter: AuditFilter) {
       const { rows, total } = await reviews.deviationPage(filter, rangeOf(filter));
-      return { deviations: rows.map((r) => ({ ...r, detectedAt: iso(r.detectedAt), reviewedAt: iso(r.reviewedAt) })), total, page: filter.page, pageSize: filter.pageSize };
+      return {
+        deviations: rows.map((r) => ({
+          ...r,
+          detectedAt: iso(r.detectedAt),
+          reviewedAt: iso(r.reviewedAt),
+        })),
+        total,
+        page: filter.page,
+        pageSize: filter.pageSize,
+      };
     },
 
     async detail(id: number, actor: Actor) {
       const deviation = await mustFindDeviation(id);
-      const [history, participants, session] = await Promise.all([reviews.reviewsOf(id), reviews.participantsOf(deviation.orderId), deps.sessions.state(deviation.orderId)]);
+      const [history, participants, session] = await Promise.all([
+        reviews.reviewsOf(id),
+        reviews.participantsOf(deviation.orderId),
+        deps.sessions.state(deviation.orderId),
+      ]);
       return {
-        deviation: { ...deviation, detectedAt: iso(deviation.detectedAt), reviewedAt: iso(deviation.reviewedAt), withdrawnAt: undefined },
+        deviation: {
+          ...deviation,
+          detectedAt: iso(deviation.detectedAt),
+          reviewedAt: iso(deviation.reviewedAt),
+          withdrawnAt: undefined,
+        },
         history: history.map((h) => ({ ...h, createdAt: iso(h.createdAt) })),
         participants,
         session,
@@ -70,39 +112,108 @@ export function createReviewService(deps: { dataSource: DataSource; reviews: Rev
       };
     },
 
-    async close(actor: Actor, id: number, input: { classification: ReviewClassification; comment: string }) {
+    async close(
+      actor: Actor,
+      id: number,
+      input: { classification: ReviewClassification; comment: string },
+    ) {
       const deviation = await mustFindDeviation(id);
-      if (await tookPart(actor.id, deviation.orderId)) throw AppError.forbidden('You took part in this session, so someone else must review it.');
+      if (await tookPart(actor.id, deviation.orderId))
+        throw AppError.forbidden('You took part in this session, so someone else must review it.');
       await dataSource.transaction(async (manager) => {
-        const locked = await manager.getRepository(DeviationRow).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
-        if (locked?.reviewStatus !== 'open') throw AppError.conflict('already_closed', 'This deviation is closed already; reopen it to change the judgement.');
-        await manager.update(DeviationRow, { id }, { reviewStatus: 'closed', classification: input.classification, reviewedBy: actor.id, reviewedAt: new Date() });
-        await manager.getRepository(DeviationReview).insert({ deviationId: id, reviewerId: actor.id, action: 'closed', classification: input.classification, comment: input.comment });
+        const locked = await manager
+          .getRepository(DeviationRow)
+          .findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+        if (locked?.reviewStatus !== 'open')
+          throw AppError.conflict(
+            'already_closed',
+            'This deviation is closed already; reopen it to change the judgement.',
+          );
+        await manager.update(
+          DeviationRow,
+          { id },
+          {
+            reviewStatus: 'closed',
+            classification: input.classification,
+            reviewedBy: actor.id,
+            reviewedAt: new Date(),
+          },
+        );
+        await manager
+          .getRepository(DeviationReview)
+          .insert({
+            deviationId: id,
+            reviewerId: actor.id,
+            action: 'closed',
+            classification: input.classification,
+            comment: input.comment,
+          });
         await settleOrderStatus(manager, deviation.orderId);
       });
-      await audit.append({ actorUserId: actor.id, action: 'deviation.closed', entityType: 'deviation', entityId: id, ipAddress: actor.ipAddress, details: { orderId: deviation.orderId, type: deviation.type, classification: input.classification } });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'deviation.closed',
+        entityType: 'deviation',
+        entityId: id,
+        ipAddress: actor.ipAddress,
+        details: {
+          orderId: deviation.orderId,
+          type: deviation.type,
+          classification: input.classification,
+        },
+      });
       return this.detail(id, actor);
     },
 
     async reopen(actor: Actor, id: number, comment: string) {
       const deviation = await mustFindDeviation(id);
-      if (await tookPart(actor.id, deviation.orderId)) throw AppError.forbidden('You took part in this session, so someone else must review it.');
+      if (await tookPart(actor.id, deviation.orderId))
+        throw AppError.forbidden('You took part in this session, so someone else must review it.');
       await dataSource.transaction(async (manager) => {
-        const locked = await manager.getRepository(DeviationRow).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
-        if (locked?.reviewStatus !== 'closed') throw AppError.conflict('not_closed', 'Only a closed deviation can be reopened.');
+        const locked = await manager
+          .getRepository(DeviationRow)
+          .findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+        if (locked?.reviewStatus !== 'closed')
+          throw AppError.conflict('not_closed', 'Only a closed deviation can be reopened.');
         // The earlier judgement stays in the history; the row shows the current state.
-        await manager.update(DeviationRow, { id }, { reviewStatus: 'open', classification: null, reviewedBy: null, reviewedAt: null });
-        await manager.getRepository(DeviationReview).insert({ deviationId: id, reviewerId: actor.id, action: 'reopened', classification: null, comment });
+        await manager.update(
+          DeviationRow,
+          { id },
+          { reviewStatus: 'open', classification: null, reviewedBy: null, reviewedAt: null },
+        );
+        await manager
+          .getRepository(DeviationReview)
+          .insert({
+            deviationId: id,
+            reviewerId: actor.id,
+            action: 'reopened',
+            classification: null,
+            comment,
+          });
         await settleOrderStatus(manager, deviation.orderId);
       });
-      await audit.append({ actorUserId: actor.id, action: 'deviation.reopened', entityType: 'deviation', entityId: id, ipAddress: actor.ipAddress, details: { orderId: deviation.orderId, comment } });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'deviation.reopened',
+        entityType: 'deviation',
+        entityId: id,
+        ipAddress: actor.ipAddress,
+        details: { orderId: deviation.orderId, comment },
+      });
       return this.detail(id, actor);
     },
 
     async doseRecords(filter: DoseRecordFilter) {
       const { rows, total } = await reviews.recordPage(filter, rangeOf(filter));
       return {
-        records: rows.map((r) => ({ ...r, startedAt: iso(r.startedAt), endedAt: iso(r.endedAt), doseMg: r.doseMg === null ? null : Number(r.doseMg), plannedFluenceJPerCm2: r.plannedFluenceJPerCm2 === null ? null : Number(r.plannedFluenceJPerCm2) })),
+        records: rows.map((r) => ({
+          ...r,
+          startedAt: iso(r.startedAt),
+          endedAt: iso(r.endedAt),
+          doseMg: r.doseMg === null ? null : Number(r.doseMg),
+          plannedFluenceJPerCm2:
+            r.plannedFluenceJPerCm2 === null ? null : Number(r.plannedFluenceJPerCm2),
+        })),
         total,
         page: filter.page,
         pageSize: filter.pageSize,
@@ -110,26 +221,58 @@ export function createReviewService(deps: { dataSource: DataSource; reviews: Rev
     },
 
     async trends(filter: { from?: string; to?: string; protocol?: string }) {
-      const rows = await reviews.monthly({ fromMonth: filter.from?.slice(0, 7), toMonth: filter.to?.slice(0, 7), protocol: filter.protocol });
+      const rows = await reviews.monthly({
+        fromMonth: filter.from?.slice(0, 7),
+        toMonth: filter.to?.slice(0, 7),
+        protocol: filter.protocol,
+      });
       return rows.map((r) => {
         const sessions = Number(r.sessions);
         const withDeviation = Number(r.sessionsWithDeviation);
-        return { month: r.month, protocolKey: r.protocolKey, protocolVersion: Number(r.protocolVersion), protocolTitle: r.protocolTitle, sessions, sessionsWithDeviation: withDeviation, ratePct: sessions ? Math.round((withDeviation / sessions) * 1000) / 10 : 0 };
+        return {
+          month: r.month,
+          protocolKey: r.protocolKey,
+          protocolVersion: Number(r.protocolVersion),
+          protocolTitle: r.protocolTitle,
+          sessions,
+          sessionsWithDeviation: withDeviation,
+          ratePct: sessions ? Math.round((withDeviation / sessions) * 1000) / 10 : 0,
+        };
       });
     },
 
     async auditTrail(query: AuditTrailQuery) {
       const { rows, total } = await reviews.auditTrail(query, rangeOf(query));
-      return { events: rows.map((r) => ({ ...r, id: String(r.id), occurredAt: iso(r.occurredAt), details: typeof r.details === 'string' ? JSON.parse(r.details) : r.details })), total, page: query.page, pageSize: query.pageSize };
+      return {
+        events: rows.map((r) => ({
+          ...r,
+          id: String(r.id),
+          occurredAt: iso(r.occurredAt),
+          details: typeof r.details === 'string' ? JSON.parse(r.details) : r.details,
+        })),
+        total,
+        page: query.page,
+        pageSize: query.pageSize,
+      };
     },
 
     /**
      * Streams a CSV of the filtered rows straight from a database cursor: memory stays flat
      * however many rows there are.
      */
-    async exportCsv(kind: 'deviations' | 'dose-records', filter: AuditFilter | DoseRecordFilter, out: Writable, reader: Reader) {
+    async exportCsv(
+      kind: 'deviations' | 'dose-records',
+      filter: AuditFilter | DoseRecordFilter,
+      out: Writable,
+      reader: Reader,
+    ) {
       // Every export is a copy of health data leaving the system: recorded before the first row.
-      await deps.reads.note(reader, { action: 'export.downloaded', entityType: 'export', entityId: kind, details: { export: `${kind}.csv`, filter } });
+      await deps.reads.note(reader, {
+        action: 'export.downloaded',
+        entityType: 'export',
+        entityId: kind,
+        details: { export: `${kind}.csv`, filter },
+      });
       const [sql, params] =
         kind === 'deviations'
           ? await reviews.deviationsForExport(filter as AuditFilter, rangeOf(filter))
@@ -169,7 +312,10 @@ export function createReviewService(deps: { dataSource: DataSource; reviews: Rev
               ['planned_dose (mg)', (r) => (r.doseMg === null ? null : Number(r.doseMg))],
               ['volume_given (mL)', (r) => r.volumeGivenMl],
               ['light_on_time (s)', (r) => r.onTimeS],
-              ['planned_fluence (J/cm2)', (r) => (r.plannedFluenceJPerCm2 === null ? null : Number(r.plannedFluenceJPerCm2))],
+              [
+                'planned_fluence (J/cm2)',
+                (r) => (r.plannedFluenceJPerCm2 === null ? null : Number(r.plannedFluenceJPerCm2)),
+              ],
               ['delivered_fluence (J/cm2)', (r) => r.deliveredFluenceJPerCm2],
               ['deviations', (r) => r.deviationCount],
             ];

@@ -12,10 +12,18 @@ export function staffRoutes(dataSource: DataSource): RouteSpec[] {
       path: '/staff',
       access: 'audit.read',
       handler: async (_req, res) => {
-        const rows: { id: number; displayName: string; roles: string; active: number }[] = await dataSource.query(
-          'SELECT id, display_name AS displayName, roles, active FROM user ORDER BY display_name',
-        );
-        res.json({ staff: rows.map((r) => ({ id: r.id, displayName: r.displayName, roles: r.roles ? r.roles.split(',') : [], active: Boolean(r.active) })) });
+        const rows: { id: number; displayName: string; roles: string; active: number }[] =
+          await dataSource.query(
+            'SELECT id, display_name AS displayName, roles, active FROM user ORDER BY display_name',
+          );
+        res.json({
+          staff: rows.map((r) => ({
+            id: r.id,
+            displayName: r.displayName,
+            roles: r.roles ? r.roles.split(',') : [],
+            active: Boolean(r.active),
+          })),
+        });
       },
     },
   ];

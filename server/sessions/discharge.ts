@@ -9,26 +9,43 @@ import type { OrderRepository } from '../orders/repository';
 import type { Actor } from '../orders/service';
 import type { SessionRepository } from './repository';
 
-export function createDischargeService(deps: { dataSource: DataSource; orders: OrderRepository; sessions: SessionRepository; audit: AuditRepository; unitName: string; unitPhone: string; unitTimeZone: string }) {
+export function createDischargeService(deps: {
+  dataSource: DataSource;
+  orders: OrderRepository;
+  sessions: SessionRepository;
+  audit: AuditRepository;
+  unitName: string;
+  unitPhone: string;
+  unitTimeZone: string;
+}) {
   const { orders, sessions } = deps;
 
   async function sheet(orderId: number) {
     const order = await orders.findById(orderId);
     if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
     const stored = await sessions.recordFor(orderId);
-    if (!stored || stored.record.outcome === 'not-started') throw AppError.conflict('no_session', `Order ${orderId} has no session to discharge from.`);
+    if (!stored || stored.record.outcome === 'not-started')
+      throw AppError.conflict('no_session', `Order ${orderId} has no session to discharge from.`);
     const record = stored.record;
     const definition = order.protocolVersion.definition;
     const zone = deps.unitTimeZone;
     // Written as the printed sheet and the e-mail write it ("…, 14:05 WET"), no longer "(WET)".
-    const local = (iso: string | null | undefined) => (iso ? formatUnitTime(iso, zone, 'sheet') : null);
+    const local = (iso: string | null | undefined) =>
+      iso ? formatUnitTime(iso, zone, 'sheet') : null;
     // A PDT sheet always carries the precaution: from the infusion start, or with no start on
     // record from the latest plausible time, with a note saying so.
-    const start = definition.drug && record.kind === 'pdt' ? precautionStartFor(record, new Date().toISOString()) : null;
+    const start =
+      definition.drug && record.kind === 'pdt'
+        ? precautionStartFor(record, new Date().toISOString())
+        : null;
     const precaution =
       definition.drug && start
         ? {
-            ...lightPrecautionEnd({ infusionStartAt: start.at, hours: definition.drug.lightPrecautionH, zone }),
+            ...lightPrecautionEnd({
+              infusionStartAt: start.at,
+              hours: definition.drug.lightPrecautionH,
+              zone,
+            }),
             hours: definition.drug.lightPrecautionH,
             source: definition.drug.lightPrecautionSource,
             countedFrom: start.at,
@@ -41,8 +58,20 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
       unitPhone: deps.unitPhone,
       unitTimeZone: zone,
       order: { id: order.id, revision: order.revision, eye: order.eye, status: order.status },
-      patient: { recordNumber: order.patient.recordNumber, givenName: order.patient.givenName, familyName: order.patient.familyName, dateOfBirth: order.patient.dateOfBirth, emailConsent: order.patient.emailConsent, hasEmail: !!order.patient.email },
-      protocol: { key: order.protocolVersion.key, version: order.protocolVersion.version, title: order.protocolVersion.title, kind: order.protocolVersion.kind },
+      patient: {
+        recordNumber: order.patient.recordNumber,
+        givenName: order.patient.givenName,
+        familyName: order.patient.familyName,
+        dateOfBirth: order.patient.dateOfBirth,
+        emailConsent: order.patient.emailConsent,
+        hasEmail: !!order.patient.email,
+      },
+      protocol: {
+        key: order.protocolVersion.key,
+        version: order.protocolVersion.version,
+        title: order.protocolVersion.title,
+        kind: order.protocolVersion.kind,
+      },
       plan: order.plan,
       record,
       startedLocal: local(record.sessionStartedAt),
@@ -61,7 +90,10 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
       const data = await sheet(orderId);
       const order = await orders.findById(orderId);
       if (!order?.patient.email || !order.patient.emailConsent) {
-        throw AppError.conflict('no_email_consent', 'The patient has not agreed to e-mail (or has no address); give the printed sheet instead.');
+        throw AppError.conflict(
+          'no_email_consent',
+          'The patient has not agreed to e-mail (or has no address); give the printed sheet instead.',
+        );
       }
       const lines = [
         `Dear ${data.patient.givenName} ${data.patient.familyName},`,
@@ -70,7 +102,11 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
       ];
       if (data.protocol.kind === 'pdt') {
         // Never without its light-precaution paragraph: a PDT sheet always has one (see sheet()).
-        if (!data.precaution) throw AppError.conflict('no_light_precaution', 'The light-precaution end cannot be worked out for this session, so the advice is not sent; give the printed sheet and ask the clinician.');
+        if (!data.precaution)
+          throw AppError.conflict(
+            'no_light_precaution',
+            'The light-precaution end cannot be worked out for this session, so the advice is not sent; give the printed sheet and ask the clinician.',
+          );
         lines.push(
           '',
           `Please protect your skin and eyes from direct sunlight and bright indoor light until ${data.precaution.endLocalText}.`,
@@ -78,7 +114,12 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
         );
         if (data.precaution.note) lines.push(`(${data.precaution.note})`);
       }
-      lines.push('', `If your eye becomes painful, your vision gets worse, or you have any concern, call the eye unit on ${data.unitPhone}.`, '', `${data.unitName}`);
+      lines.push(
+        '',
+        `If your eye becomes painful, your vision gets worse, or you have any concern, call the eye unit on ${data.unitPhone}.`,
+        '',
+        `${data.unitName}`,
+      );
       await deps.dataSource.transaction((manager) =>
         enqueueMessage(manager, {
           kind: 'discharge-advice',
@@ -88,7 +129,13 @@ export function createDischargeService(deps: { dataSource: DataSource; orders: O
           related: { type: 'order', id: orderId },
         }),
       );
-      await deps.audit.append({ actorUserId: actor.id, action: 'discharge.emailed', entityType: 'order', entityId: orderId, ipAddress: actor.ipAddress });
+      await deps.audit.append({
+        actorUserId: actor.id,
+        action: 'discharge.emailed',
+        entityType: 'order',
+        entityId: orderId,
+        ipAddress: actor.ipAddress,
+      });
       return { queued: true };
     },
   };

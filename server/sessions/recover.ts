@@ -10,7 +10,10 @@ import { createSessionService } from './service';
  * their consequences are written in one transaction, so this only repairs what another path
  * (a manual insert, an older version's crash) may have left behind; it is cheap and idempotent.
  */
-export function recomputeRunningSessions(dataSource: DataSource, unitTimeZone: string): Promise<number> {
+export function recomputeRunningSessions(
+  dataSource: DataSource,
+  unitTimeZone: string,
+): Promise<number> {
   return createSessionService({
     dataSource,
     orders: createOrderRepository(dataSource),

@@ -1,11 +1,14 @@
 import { DateTime } from 'luxon';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { DoseRecord } from '../../shared/session/dose-record';
-import type { Deviation, SessionEvent, SessionEventInput } from '../../shared/session/session-events';
+import type {
+  Deviation,
+  SessionEvent,
+  SessionEventInput,
+} from '../../shared/session/session-events';
 import { DeviationRow } from '../db/entities/deviation';
 import { DoseRecordRow } from '../db/entities/dose-record';
 import type { SessionParticipant } from '../db/entities/session-participant';
-
 
 export interface StandingDeviation {
   id: number;
@@ -19,15 +22,30 @@ export interface StandingDeviation {
 }
 
 /** Records that a person took part in a treatment; harmless when said twice. */
-export function addParticipant(manager: EntityManager, orderId: number, userId: number, part: SessionParticipant['part']) {
-  return manager.query('INSERT IGNORE INTO session_participant (order_id, user_id, part) VALUES (?, ?, ?)', [orderId, userId, part]);
+export function addParticipant(
+  manager: EntityManager,
+  orderId: number,
+  userId: number,
+  part: SessionParticipant['part'],
+) {
+  return manager.query(
+    'INSERT IGNORE INTO session_participant (order_id, user_id, part) VALUES (?, ?, ?)',
+    [orderId, userId, part],
+  );
 }
 
-type StoredEventRow = { id: string | number; payload: string | Record<string, unknown>; serverTime: Date; recordedBy: number };
+type StoredEventRow = {
+  id: string | number;
+  payload: string | Record<string, unknown>;
+  serverTime: Date;
+  recordedBy: number;
+};
 
 function toSessionEvent(row: StoredEventRow): SessionEvent {
   return {
-    ...((typeof row.payload === 'string' ? JSON.parse(row.payload) : row.payload) as SessionEventInput),
+    ...((typeof row.payload === 'string'
+      ? JSON.parse(row.payload)
+      : row.payload) as SessionEventInput),
     id: Number(row.id),
     serverTime: row.serverTime.toISOString(),
     recordedBy: row.recordedBy,
@@ -48,8 +66,17 @@ export interface RecordOrderFacts {
 }
 
 /** The order facts a record copies, from the order's row and its frozen plan. */
-export function recordOrderFacts(order: { eye: 'right' | 'left'; patientId: number; plan: { doseMg?: number | null; fluenceJPerCm2?: number | null } }): RecordOrderFacts {
-  return { eye: order.eye, patientId: order.patientId, plannedDoseMg: order.plan.doseMg ?? null, plannedFluenceJPerCm2: order.plan.fluenceJPerCm2 ?? null };
+export function recordOrderFacts(order: {
+  eye: 'right' | 'left';
+  patientId: number;
+  plan: { doseMg?: number | null; fluenceJPerCm2?: number | null };
+}): RecordOrderFacts {
+  return {
+    eye: order.eye,
+    patientId: order.patientId,
+    plannedDoseMg: order.plan.doseMg ?? null,
+    plannedFluenceJPerCm2: order.plan.fluenceJPerCm2 ?? null,
+  };
 }
 
 /** A session's events as this process last read them, up to and including `lastId`. */
@@ -61,7 +88,10 @@ interface KnownEvents {
 const knownEventsMax = 2_000;
 
 /** Every stored event of an order in the order they happened (by the tablet's time, then as stored). */
-export async function readSessionEvents(manager: EntityManager, orderId: number): Promise<SessionEvent[]> {
+export async function readSessionEvents(
+  manager: EntityManager,
+  orderId: number,
+): Promise<SessionEvent[]> {
   const rows: StoredEventRow[] = await manager.query(
     'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? ORDER BY client_time, id',
     [orderId],
@@ -83,7 +113,8 @@ export function createSessionRepository(dataSource: DataSource) {
 
   return {
     /** Every event of an order in the order they happened. */
-    eventsFor: (orderId: number, manager?: EntityManager): Promise<SessionEvent[]> => readSessionEvents(manager ?? dataSource.manager, orderId),
+    eventsFor: (orderId: number, manager?: EntityManager): Promise<SessionEvent[]> =>
+      readSessionEvents(manager ?? dataSource.manager, orderId),
 
     /**
      * Every event of an order, for a writer that holds the order's lock: what this process knew
@@ -136,7 +167,9 @@ export function createSessionRepository(dataSource: DataSource) {
     },
 
     /** One stored event by its idempotency key (for answering a replayed send). */
-    async findEventByKey(idempotencyKey: string): Promise<(SessionEvent & { orderId: number }) | null> {
+    async findEventByKey(
+      idempotencyKey: string,
+    ): Promise<(SessionEvent & { orderId: number }) | null> {
       const [row]: (StoredEventRow & { orderId: number })[] = await dataSource.query(
         'SELECT id, order_id AS orderId, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE idempotency_key = ?',
         [idempotencyKey],
@@ -146,14 +179,40 @@ export function createSessionRepository(dataSource: DataSource) {
 
     /** Stores one event; a key already stored fails with ER_DUP_ENTRY. */
     /** `payload` is what is kept of the input (a password never is); `receivedAt` the server's receipt time by the app's clock. */
-    insertEvent: (manager: EntityManager, orderId: number, recordedBy: number, input: SessionEventInput, payload: Record<string, unknown>, receivedAt: Date) =>
+    insertEvent: (
+      manager: EntityManager,
+      orderId: number,
+      recordedBy: number,
+      input: SessionEventInput,
+      payload: Record<string, unknown>,
+      receivedAt: Date,
+    ) =>
       manager.query(
         'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, server_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
-        [orderId, input.idempotencyKey, input.type, 'stepId' in input ? input.stepId : null, new Date(input.clientTime), receivedAt, recordedBy, JSON.stringify(payload)],
+        [
+          orderId,
+          input.idempotencyKey,
+          input.type,
+          'stepId' in input ? input.stepId : null,
+          new Date(input.clientTime),
+          receivedAt,
+          recordedBy,
+          JSON.stringify(payload),
+        ],
       ),
 
     /** One statement whether the record exists or not: this runs on every event. */
-    saveRecord: (manager: EntityManager, orderId: number, record: DoseRecord, extra: { protocolVersionId: number; unitTimeZone: string; deviationCount: number; order: RecordOrderFacts }) =>
+    saveRecord: (
+      manager: EntityManager,
+      orderId: number,
+      record: DoseRecord,
+      extra: {
+        protocolVersionId: number;
+        unitTimeZone: string;
+        deviationCount: number;
+        order: RecordOrderFacts;
+      },
+    ) =>
       manager.query(
         `INSERT INTO dose_record (order_id, outcome, started_at, ended_at, on_time_s, delivered_fluence_j_per_cm2, volume_given_ml, record, protocol_version_id, local_month, deviation_count,
                                   eye, patient_id, planned_dose_mg, planned_fluence_j_per_cm2)
@@ -167,12 +226,14 @@ export function createSessionRepository(dataSource: DataSource) {
           record.outcome,
           record.sessionStartedAt ? new Date(record.sessionStartedAt) : null,
           record.endedAt ? new Date(record.endedAt) : null,
-          record.kind === 'pdt' ? record.lightOnS ?? null : record.uvOnS ?? null,
+          record.kind === 'pdt' ? (record.lightOnS ?? null) : (record.uvOnS ?? null),
           record.deliveredFluenceJPerCm2 ?? null,
-          record.kind === 'pdt' ? record.volumeGivenMl ?? null : null,
+          record.kind === 'pdt' ? (record.volumeGivenMl ?? null) : null,
           JSON.stringify(record),
           extra.protocolVersionId,
-          record.endedAt ? DateTime.fromISO(record.endedAt).setZone(extra.unitTimeZone).toFormat('yyyy-MM') : null,
+          record.endedAt
+            ? DateTime.fromISO(record.endedAt).setZone(extra.unitTimeZone).toFormat('yyyy-MM')
+            : null,
           extra.deviationCount,
           extra.order.eye,
           extra.order.patientId,
@@ -184,17 +245,34 @@ export function createSessionRepository(dataSource: DataSource) {
     recordFor: (orderId: number) => dataSource.getRepository(DoseRecordRow).findOneBy({ orderId }),
 
     deviationsFor: (orderId: number, manager?: EntityManager) =>
-      (manager ?? dataSource.manager).getRepository(DeviationRow).find({ where: { orderId }, order: { detectedAt: 'ASC', id: 'ASC' } }),
+      (manager ?? dataSource.manager)
+        .getRepository(DeviationRow)
+        .find({ where: { orderId }, order: { detectedAt: 'ASC', id: 'ASC' } }),
 
     /**
      * Brings the stored deviations in line with what the record now shows: new ones are added,
      * changed figures follow, and ones that no longer hold are withdrawn, never deleted.
      * Returns the types that are new.
      */
-    async reconcileDeviations(manager: EntityManager, orderId: number, protocolVersionId: number, found: Deviation[]): Promise<{ added: string[]; standing: StandingDeviation[] }> {
+    async reconcileDeviations(
+      manager: EntityManager,
+      orderId: number,
+      protocolVersionId: number,
+      found: Deviation[],
+    ): Promise<{ added: string[]; standing: StandingDeviation[] }> {
       const repo = manager.getRepository(DeviationRow);
       // Read on every event, so plain SQL rather than the ORM's query builder.
-      const rows: Pick<DeviationRow, 'id' | 'type' | 'severity' | 'expected' | 'actual' | 'message' | 'detectedAt' | 'withdrawnAt'>[] = await manager.query(
+      const rows: Pick<
+        DeviationRow,
+        | 'id'
+        | 'type'
+        | 'severity'
+        | 'expected'
+        | 'actual'
+        | 'message'
+        | 'detectedAt'
+        | 'withdrawnAt'
+      >[] = await manager.query(
         'SELECT id, type, severity, expected, actual, message, detected_at AS detectedAt, withdrawn_at AS withdrawnAt FROM deviation WHERE order_id = ?',
         [orderId],
       );
@@ -203,21 +281,51 @@ export function createSessionRepository(dataSource: DataSource) {
       const standing: StandingDeviation[] = [];
       for (const deviation of found) {
         const row = stored.get(deviation.type);
-        const values = { severity: deviation.severity, expected: deviation.expected, actual: deviation.actual, unit: deviation.unit, message: deviation.message.slice(0, 600), withdrawnAt: null };
+        const values = {
+          severity: deviation.severity,
+          expected: deviation.expected,
+          actual: deviation.actual,
+          unit: deviation.unit,
+          message: deviation.message.slice(0, 600),
+          withdrawnAt: null,
+        };
         if (!row) {
           const detectedAt = new Date();
-          const result = await repo.insert({ orderId, protocolVersionId, type: deviation.type, ...values, detectedAt });
+          const result = await repo.insert({
+            orderId,
+            protocolVersionId,
+            type: deviation.type,
+            ...values,
+            detectedAt,
+          });
           added.push(deviation.type);
-          standing.push({ id: Number(result.identifiers[0]!.id), type: deviation.type, ...values, detectedAt: detectedAt.toISOString() });
+          standing.push({
+            id: Number(result.identifiers[0]!.id),
+            type: deviation.type,
+            ...values,
+            detectedAt: detectedAt.toISOString(),
+          });
         } else {
-          if (row.withdrawnAt || row.severity !== values.severity || row.expected !== values.expected || row.actual !== values.actual || row.message !== values.message) {
+          if (
+            row.withdrawnAt ||
+            row.severity !== values.severity ||
+            row.expected !== values.expected ||
+            row.actual !== values.actual ||
+            row.message !== values.message
+          ) {
             await repo.update({ id: row.id }, values);
           }
-          standing.push({ id: row.id, type: deviation.type, ...values, detectedAt: row.detectedAt.toISOString() });
+          standing.push({
+            id: row.id,
+            type: deviation.type,
+            ...values,
+            detectedAt: row.detectedAt.toISOString(),
+          });
         }
         stored.delete(deviation.type);
       }
-      for (const gone of stored.values()) if (!gone.withdrawnAt) await repo.update({ id: gone.id }, { withdrawnAt: new Date() });
+      for (const gone of stored.values())
+        if (!gone.withdrawnAt) await repo.update({ id: gone.id }, { withdrawnAt: new Date() });
       return { added, standing };
     },
   };

@@ -21,7 +21,11 @@ export function sessionRoutes(sessions: SessionService, discharge: DischargeServ
       access: 'sessions.run',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        const result = await sessions.record(actorOf(req, res), id, parseInput(sessionEventSchema, req.body));
+        const result = await sessions.record(
+          actorOf(req, res),
+          id,
+          parseInput(sessionEventSchema, req.body),
+        );
         res.status(result.replayed ? 200 : 201).json(result);
       },
     },

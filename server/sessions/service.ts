@@ -1,12 +1,27 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { formatUnitTime } from '../../shared/format/figures';
-import { isSessionEnded, lateTapVerdict, readyForSessionStatuses, sessionEventStatuses, statusAfterLateEvent } from '../../shared/orders/lifecycle';
+import {
+  isSessionEnded,
+  lateTapVerdict,
+  readyForSessionStatuses,
+  sessionEventStatuses,
+  statusAfterLateEvent,
+} from '../../shared/orders/lifecycle';
 import type { OrderStatus } from '../../shared/schemas/orders';
 import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import { deriveDoseRecord, withdrawalsApplied } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
-import { isWithdrawableType, type SessionEvent, type SessionEventInput } from '../../shared/session/session-events';
-import { drugTimeVerdict, exposureMissing, uvStartVerdict, volumeInfusedRequired } from '../../shared/session/session-rules';
+import {
+  isWithdrawableType,
+  type SessionEvent,
+  type SessionEventInput,
+} from '../../shared/session/session-events';
+import {
+  drugTimeVerdict,
+  exposureMissing,
+  uvStartVerdict,
+  volumeInfusedRequired,
+} from '../../shared/session/session-rules';
 import type { AuditRepository } from '../audit/repository';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
@@ -40,7 +55,8 @@ class SessionRuleRefusal extends AppError {
 }
 
 /** A tap's time outside its bounds is bad input (400), as any other invalid field. */
-const timeRefusal = (rule: string, message: string, field: { path: string; message: string }) => new SessionRuleRefusal(rule, message, field, 400);
+const timeRefusal = (rule: string, message: string, field: { path: string; message: string }) =>
+  new SessionRuleRefusal(rule, message, field, 400);
 
 /** The clinician who authorised UV below the thickness minimum, checked before the transaction. */
 interface Authoriser {
@@ -48,7 +64,9 @@ interface Authoriser {
   name: string;
 }
 
-type SessionOrder = NonNullable<Awaited<ReturnType<OrderRepository['lockForSession']>>> & { definition: ProtocolDefinition };
+type SessionOrder = NonNullable<Awaited<ReturnType<OrderRepository['lockForSession']>>> & {
+  definition: ProtocolDefinition;
+};
 
 export function createSessionService(deps: {
   dataSource: DataSource;
@@ -62,12 +80,17 @@ export function createSessionService(deps: {
   tapClockSkewS?: number;
   tapOfflineWindowH?: number;
   /** Checks a person's own password, throttled like a sign-in (server/auth/service.ts); the recovery at start-up needs none. */
-  confirmSignature?: (userId: number, password: string, ipAddress: string | undefined) => Promise<boolean>;
+  confirmSignature?: (
+    userId: number,
+    password: string,
+    ipAddress: string | undefined,
+  ) => Promise<boolean>;
 }) {
   const { dataSource, orders, sessions, users, audit } = deps;
   const now = deps.now ?? Date.now;
   // Refusals name times as the ward clock shows them, with the zone's short name ("…, 14:05 WET").
-  const wardTime = (ms: number) => formatUnitTime(new Date(ms).toISOString(), deps.unitTimeZone, 'sheet');
+  const wardTime = (ms: number) =>
+    formatUnitTime(new Date(ms).toISOString(), deps.unitTimeZone, 'sheet');
 
   /** What the session code needs of an order: its row (locked when in a transaction) and its protocol. */
   async function sessionOrder(manager: EntityManager, orderId: number): Promise<SessionOrder> {
@@ -80,38 +103,75 @@ export function createSessionService(deps: {
     const { tapClockSkewS, tapOfflineWindowH } = tapBounds();
     const at = Date.parse(input.clientTime);
     if (at > nowMs + tapClockSkewS * 1000) {
-      throw timeRefusal('tap_in_future', 'The tap is timed in the future; check the tablet clock.', { path: 'clientTime', message: `clientTime must not be ahead of the server clock by more than ${tapClockSkewS} s (TAP_CLOCK_SKEW_S)` });
+      throw timeRefusal(
+        'tap_in_future',
+        'The tap is timed in the future; check the tablet clock.',
+        {
+          path: 'clientTime',
+          message: `clientTime must not be ahead of the server clock by more than ${tapClockSkewS} s (TAP_CLOCK_SKEW_S)`,
+        },
+      );
     }
     if (at < nowMs - tapOfflineWindowH * 3_600_000) {
-      throw timeRefusal('tap_too_old', `The tap is older than the unit's offline window of ${tapOfflineWindowH} h.`, {
-        path: 'clientTime',
-        message: `clientTime must lie within the last ${tapOfflineWindowH} h (TAP_OFFLINE_WINDOW_H); record what happened as a note to the auditor instead`,
-      });
+      throw timeRefusal(
+        'tap_too_old',
+        `The tap is older than the unit's offline window of ${tapOfflineWindowH} h.`,
+        {
+          path: 'clientTime',
+          message: `clientTime must lie within the last ${tapOfflineWindowH} h (TAP_OFFLINE_WINDOW_H); record what happened as a note to the auditor instead`,
+        },
+      );
     }
 
     if ('stepId' in input) {
       const step = order.definition.steps.find((s) => s.id === input.stepId);
-      if (!step) throw AppError.badRequest(`Protocol ${order.definition.key} has no step ${input.stepId}.`, [{ path: 'stepId', message: 'stepId must be a step of the order’s protocol version' }]);
+      if (!step)
+        throw AppError.badRequest(`Protocol ${order.definition.key} has no step ${input.stepId}.`, [
+          { path: 'stepId', message: 'stepId must be a step of the order’s protocol version' },
+        ]);
       const kinds = stepKindsFor[input.type];
       if (kinds && !kinds.includes(step.kind)) {
-        throw AppError.badRequest(`A ${input.type} event does not belong to the ${step.kind} step.`, [{ path: 'stepId', message: `stepId must be a ${kinds.join(' or ')} step for ${input.type}` }]);
+        throw AppError.badRequest(
+          `A ${input.type} event does not belong to the ${step.kind} step.`,
+          [
+            {
+              path: 'stepId',
+              message: `stepId must be a ${kinds.join(' or ')} step for ${input.type}`,
+            },
+          ],
+        );
       }
     }
     if (input.type === 'extravasation' && order.definition.kind !== 'pdt') {
-      throw AppError.badRequest('Extravasation belongs to an infusion.', [{ path: 'type', message: 'extravasation is recorded in PDT sessions only' }]);
+      throw AppError.badRequest('Extravasation belongs to an infusion.', [
+        { path: 'type', message: 'extravasation is recorded in PDT sessions only' },
+      ]);
     }
     if (input.type === 'session-started') {
-      if (order.status === 'in-session') throw AppError.conflict('already_started', `The session for order ${order.id} has started already.`);
+      if (order.status === 'in-session')
+        throw AppError.conflict(
+          'already_started',
+          `The session for order ${order.id} has started already.`,
+        );
       if (!readyForSessionStatuses.includes(order.status)) {
-        throw AppError.conflict('not_ready', `Order ${order.id} is ${order.status}; a session starts from a prepared (PDT) or ready (CXL) order.`);
+        throw AppError.conflict(
+          'not_ready',
+          `Order ${order.id} is ${order.status}; a session starts from a prepared (PDT) or ready (CXL) order.`,
+        );
       }
     } else if (!sessionEventStatuses.includes(order.status)) {
-      throw AppError.conflict('session_not_started', `Order ${order.id} has no session running (it is ${order.status}).`);
+      throw AppError.conflict(
+        'session_not_started',
+        `Order ${order.id} has no session running (it is ${order.status}).`,
+      );
     }
   }
 
   function tapBounds() {
-    if (deps.tapClockSkewS === undefined || deps.tapOfflineWindowH === undefined) throw new Error('the session service records taps only with tapClockSkewS and tapOfflineWindowH configured');
+    if (deps.tapClockSkewS === undefined || deps.tapOfflineWindowH === undefined)
+      throw new Error(
+        'the session service records taps only with tapClockSkewS and tapOfflineWindowH configured',
+      );
     return { tapClockSkewS: deps.tapClockSkewS, tapOfflineWindowH: deps.tapOfflineWindowH };
   }
 
@@ -120,7 +180,13 @@ export function createSessionService(deps: {
    * one left out): the order of events (gate 4), the tap's time against the session (gate 5), UV
    * below the thickness minimum (gate 6) and what was given (gate 7). A refusal rolls the tap back.
    */
-  function checkSessionRules(order: SessionOrder, input: SessionEventInput, stored: readonly SessionEvent[], actorId: number, authoriser: Authoriser | null) {
+  function checkSessionRules(
+    order: SessionOrder,
+    input: SessionEventInput,
+    stored: readonly SessionEvent[],
+    actorId: number,
+    authoriser: Authoriser | null,
+  ) {
     const at = Date.parse(input.clientTime);
     const { kept } = withdrawalsApplied(stored);
     const definition = order.definition;
@@ -130,16 +196,25 @@ export function createSessionService(deps: {
     // Gate 5: a tap's time is bounded by the session it belongs to.
     const started = kept.find((e) => e.type === 'session-started');
     if (input.type !== 'session-started' && started && at < Date.parse(started.clientTime)) {
-      throw timeRefusal('tap_before_session', 'The tap is timed before the session started.', { path: 'clientTime', message: `clientTime must not be before the session started (${started.clientTime})` });
+      throw timeRefusal('tap_before_session', 'The tap is timed before the session started.', {
+        path: 'clientTime',
+        message: `clientTime must not be before the session started (${started.clientTime})`,
+      });
     }
     const stepId = 'stepId' in input ? input.stepId : null;
     if (stepId !== null) {
-      const later = kept.filter((e) => stepIdOf(e) === stepId && Date.parse(e.clientTime) > at).sort((a, b) => Date.parse(b.clientTime) - Date.parse(a.clientTime))[0];
+      const later = kept
+        .filter((e) => stepIdOf(e) === stepId && Date.parse(e.clientTime) > at)
+        .sort((a, b) => Date.parse(b.clientTime) - Date.parse(a.clientTime))[0];
       if (later) {
-        throw timeRefusal('tap_before_previous', 'The tap is timed before a tap of the same step already stored; the tablet clock went back.', {
-          path: 'clientTime',
-          message: `clientTime must not be before the previous stored tap of step ${stepId} (${later.clientTime})`,
-        });
+        throw timeRefusal(
+          'tap_before_previous',
+          'The tap is timed before a tap of the same step already stored; the tablet clock went back.',
+          {
+            path: 'clientTime',
+            message: `clientTime must not be before the previous stored tap of step ${stepId} (${later.clientTime})`,
+          },
+        );
       }
     }
     const end = kept.find((e) => e.type === 'session-completed' || e.type === 'session-stopped');
@@ -149,110 +224,217 @@ export function createSessionService(deps: {
       lateEntry: input.lateEntryReason !== undefined,
       endsOrWithdraws: !isWithdrawableType(input.type),
     });
-    if (!verdict.take) throw new SessionRuleRefusal('late_tap', `The session for order ${order.id} ended${end ? ` at ${wardTime(Date.parse(end.clientTime))}` : ''}.`, { path: verdict.field, message: verdict.why });
+    if (!verdict.take)
+      throw new SessionRuleRefusal(
+        'late_tap',
+        `The session for order ${order.id} ended${end ? ` at ${wardTime(Date.parse(end.clientTime))}` : ''}.`,
+        { path: verdict.field, message: verdict.why },
+      );
 
     // Gate 4: the order of events against the preparation.
     const preparation = order.preparation;
-    const startsInfusion = input.type === 'step-started' && stepOf(input.stepId)?.kind === 'infusion';
+    const startsInfusion =
+      input.type === 'step-started' && stepOf(input.stepId)?.kind === 'infusion';
     if (preparation && (input.type === 'session-started' || startsInfusion)) {
       const beyondUseMs = Date.parse(preparation.beyondUseAt);
       const what = input.type === 'session-started' ? 'session' : 'infusion';
       const verdict = drugTimeVerdict(what, at, preparation);
       if (!verdict.allowed && verdict.rule === 'beyond_use') {
-        throw new SessionRuleRefusal('beyond_use', `The drug passed its beyond-use time at ${wardTime(beyondUseMs)}: discard it; a pharmacist makes it up again (Preparation on the order) before the ${what} starts.`, {
-          path: 'clientTime',
-          message: `clientTime must not be after the drug's beyond-use time (${preparation.beyondUseAt}) for a ${what} start`,
-        });
+        throw new SessionRuleRefusal(
+          'beyond_use',
+          `The drug passed its beyond-use time at ${wardTime(beyondUseMs)}: discard it; a pharmacist makes it up again (Preparation on the order) before the ${what} starts.`,
+          {
+            path: 'clientTime',
+            message: `clientTime must not be after the drug's beyond-use time (${preparation.beyondUseAt}) for a ${what} start`,
+          },
+        );
       }
       const reconstitutedMs = Date.parse(preparation.reconstitutedAt);
       if (!verdict.allowed && verdict.rule === 'before_reconstitution') {
-        throw new SessionRuleRefusal('before_reconstitution', `The infusion cannot start before the drug was made up (${wardTime(reconstitutedMs)}); check the tablet clock or the preparation time.`, {
-          path: 'clientTime',
-          message: `clientTime must not be before the reconstitution time (${preparation.reconstitutedAt}) for an infusion start`,
-        });
+        throw new SessionRuleRefusal(
+          'before_reconstitution',
+          `The infusion cannot start before the drug was made up (${wardTime(reconstitutedMs)}); check the tablet clock or the preparation time.`,
+          {
+            path: 'clientTime',
+            message: `clientTime must not be before the reconstitution time (${preparation.reconstitutedAt}) for an infusion start`,
+          },
+        );
       }
     }
 
     // Gate 6: UV on a stroma below the minimum needs a clinician's authorisation.
     if (input.type === 'thickness-override') {
-      if (!authoriser) throw new Error('a thickness override reached the rules without its authoriser');
+      if (!authoriser)
+        throw new Error('a thickness override reached the rules without its authoriser');
       if (authoriser.id === actorId || stored.some((e) => e.recordedBy === authoriser.id)) {
-        throw new SessionRuleRefusal('authoriser_is_nurse', 'The override is authorised by a second person: a clinician who is not running this session.', {
-          path: 'authoriserEmail',
-          message: 'authoriserEmail must name a clinician other than the nurse(s) recording this session',
-        });
+        throw new SessionRuleRefusal(
+          'authoriser_is_nurse',
+          'The override is authorised by a second person: a clinician who is not running this session.',
+          {
+            path: 'authoriserEmail',
+            message:
+              'authoriserEmail must name a clinician other than the nurse(s) recording this session',
+          },
+        );
       }
     }
     const minimumUm = definition.cxl?.minStromalThicknessUm ?? null;
-    if (input.type === 'step-started' && stepOf(input.stepId)?.kind === 'uv' && minimumUm !== null) {
-      const readings = kept.filter((e): e is Extract<SessionEvent, { type: 'thickness-measured' }> => e.type === 'thickness-measured' && Date.parse(e.clientTime) <= at);
-      const last = readings.sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime))[readings.length - 1];
-      const authorised = kept.some((e) => e.type === 'thickness-override' && e.authorisedById !== undefined);
+    if (
+      input.type === 'step-started' &&
+      stepOf(input.stepId)?.kind === 'uv' &&
+      minimumUm !== null
+    ) {
+      const readings = kept.filter(
+        (e): e is Extract<SessionEvent, { type: 'thickness-measured' }> =>
+          e.type === 'thickness-measured' && Date.parse(e.clientTime) <= at,
+      );
+      const last = readings.sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime))[
+        readings.length - 1
+      ];
+      const authorised = kept.some(
+        (e) => e.type === 'thickness-override' && e.authorisedById !== undefined,
+      );
       if (!uvStartVerdict(minimumUm, last?.thicknessUm ?? null, authorised).allowed) {
-        throw new SessionRuleRefusal('uv_below_minimum', last ? `The last reading, ${last.thicknessUm} µm, is below the ${minimumUm} µm minimum.` : `No stromal thickness reading is on record; UV needs at least ${minimumUm} µm.`, {
-          path: 'thicknessUm',
-          message: `a thickness reading of at least ${minimumUm} µm (cxl.minStromalThicknessUm) must precede the UV start, or a clinician must authorise an override with their password`,
-        });
+        throw new SessionRuleRefusal(
+          'uv_below_minimum',
+          last
+            ? `The last reading, ${last.thicknessUm} µm, is below the ${minimumUm} µm minimum.`
+            : `No stromal thickness reading is on record; UV needs at least ${minimumUm} µm.`,
+          {
+            path: 'thicknessUm',
+            message: `a thickness reading of at least ${minimumUm} µm (cxl.minStromalThicknessUm) must precede the UV start, or a clinician must authorise an override with their password`,
+          },
+        );
       }
     }
 
     // Gate 7: what was given is recorded.
     const finalVolumeMl = definition.drug?.finalVolumeMl ?? null;
     const infusionStep = definition.steps.find((step) => step.kind === 'infusion');
-    const infusionStarted = infusionStep !== undefined && kept.some((e) => e.type === 'step-started' && e.stepId === infusionStep.id);
-    if (definition.kind === 'pdt' && (input.type === 'extravasation' || input.type === 'session-stopped')) {
-      const volumeKnown = kept.some((e) => e.type === 'extravasation' && e.volumeInfusedMl !== undefined);
+    const infusionStarted =
+      infusionStep !== undefined &&
+      kept.some((e) => e.type === 'step-started' && e.stepId === infusionStep.id);
+    if (
+      definition.kind === 'pdt' &&
+      (input.type === 'extravasation' || input.type === 'session-stopped')
+    ) {
+      const volumeKnown = kept.some(
+        (e) => e.type === 'extravasation' && e.volumeInfusedMl !== undefined,
+      );
       const required = volumeInfusedRequired(input.type, { infusionStarted, volumeKnown });
       if (input.volumeInfusedMl === undefined && required) {
-        throw new SessionRuleRefusal('volume_infused_required', 'Record the volume infused, as the pump shows it.', {
-          path: 'volumeInfusedMl',
-          message: `volumeInfusedMl is required when ${input.type === 'extravasation' ? 'an extravasation is recorded' : 'a PDT session stops after its infusion started'}: 0 to ${finalVolumeMl} mL`,
-        });
+        throw new SessionRuleRefusal(
+          'volume_infused_required',
+          'Record the volume infused, as the pump shows it.',
+          {
+            path: 'volumeInfusedMl',
+            message: `volumeInfusedMl is required when ${input.type === 'extravasation' ? 'an extravasation is recorded' : 'a PDT session stops after its infusion started'}: 0 to ${finalVolumeMl} mL`,
+          },
+        );
       }
-      if (input.volumeInfusedMl !== undefined && finalVolumeMl !== null && input.volumeInfusedMl > finalVolumeMl) {
-        throw new SessionRuleRefusal('volume_infused_above_final', `The bag holds ${finalVolumeMl} mL; more cannot have been infused.`, {
-          path: 'volumeInfusedMl',
-          message: `volumeInfusedMl must be from 0 to ${finalVolumeMl} mL (drug.finalVolumeMl, the planned final volume)`,
-        });
+      if (
+        input.volumeInfusedMl !== undefined &&
+        finalVolumeMl !== null &&
+        input.volumeInfusedMl > finalVolumeMl
+      ) {
+        throw new SessionRuleRefusal(
+          'volume_infused_above_final',
+          `The bag holds ${finalVolumeMl} mL; more cannot have been infused.`,
+          {
+            path: 'volumeInfusedMl',
+            message: `volumeInfusedMl must be from 0 to ${finalVolumeMl} mL (drug.finalVolumeMl, the planned final volume)`,
+          },
+        );
       }
     }
     if (input.type === 'exposure-recorded') {
       if (!kept.some((e) => e.type === 'step-started' && e.stepId === input.stepId)) {
-        throw new SessionRuleRefusal('exposure_before_light', 'The exposure is entered at the end of the light step; the light has not started.', { path: 'stepId', message: `stepId ${input.stepId} must have started before its exposure is entered` });
+        throw new SessionRuleRefusal(
+          'exposure_before_light',
+          'The exposure is entered at the end of the light step; the light has not started.',
+          {
+            path: 'stepId',
+            message: `stepId ${input.stepId} must have started before its exposure is entered`,
+          },
+        );
       }
     }
-    const lightStep = definition.kind === 'pdt' ? definition.steps.find((step) => step.kind === 'light') : undefined;
+    const lightStep =
+      definition.kind === 'pdt'
+        ? definition.steps.find((step) => step.kind === 'light')
+        : undefined;
     const missing =
       lightStep !== undefined &&
       exposureMissing({
         lightStarted: kept.some((e) => e.type === 'step-started' && e.stepId === lightStep.id),
         // The completion itself closes a light step still open; its exposure is due all the same.
         lightRunning: false,
-        exposureEntered: kept.some((e) => e.type === 'exposure-recorded' && e.stepId === lightStep.id),
+        exposureEntered: kept.some(
+          (e) => e.type === 'exposure-recorded' && e.stepId === lightStep.id,
+        ),
       });
     if (input.type === 'session-completed' && lightStep && missing) {
-      throw new SessionRuleRefusal('exposure_required', 'Enter the exposure time the laser displays before completing the session.', {
-        path: 'exposureS',
-        message: `exposureS (the laser's displayed exposure, an exposure-recorded event for step ${lightStep.id}) is required before a PDT session with light completes`,
-      });
+      throw new SessionRuleRefusal(
+        'exposure_required',
+        'Enter the exposure time the laser displays before completing the session.',
+        {
+          path: 'exposureS',
+          message: `exposureS (the laser's displayed exposure, an exposure-recorded event for step ${lightStep.id}) is required before a PDT session with light completes`,
+        },
+      );
     }
   }
 
   /** A clinician's authorisation of UV below the minimum: their e-mail and password, checked before the transaction. */
-  async function checkAuthoriser(input: Extract<SessionEventInput, { type: 'thickness-override' }>, ipAddress: string | undefined): Promise<Authoriser> {
+  async function checkAuthoriser(
+    input: Extract<SessionEventInput, { type: 'thickness-override' }>,
+    ipAddress: string | undefined,
+  ): Promise<Authoriser> {
     if (!input.authoriserEmail) {
-      throw new SessionRuleRefusal('authoriser_required', 'UV below the thickness minimum needs a clinician’s authorisation.', { path: 'authoriserEmail', message: 'authoriserEmail is required: the clinician who authorises the override' });
+      throw new SessionRuleRefusal(
+        'authoriser_required',
+        'UV below the thickness minimum needs a clinician’s authorisation.',
+        {
+          path: 'authoriserEmail',
+          message: 'authoriserEmail is required: the clinician who authorises the override',
+        },
+      );
     }
     if (!input.authoriserPassword) {
-      throw new SessionRuleRefusal('authoriser_required', 'UV below the thickness minimum needs a clinician’s authorisation.', { path: 'authoriserPassword', message: 'authoriserPassword is required: the authorising clinician’s sign-in password' });
+      throw new SessionRuleRefusal(
+        'authoriser_required',
+        'UV below the thickness minimum needs a clinician’s authorisation.',
+        {
+          path: 'authoriserPassword',
+          message: 'authoriserPassword is required: the authorising clinician’s sign-in password',
+        },
+      );
     }
     const person = await users.findByEmail(input.authoriserEmail);
-    const matches = person && deps.confirmSignature ? await deps.confirmSignature(person.id, input.authoriserPassword, ipAddress) : false;
+    const matches =
+      person && deps.confirmSignature
+        ? await deps.confirmSignature(person.id, input.authoriserPassword, ipAddress)
+        : false;
     if (!person || !matches || !person.active) {
-      throw new SessionRuleRefusal('authoriser_refused', 'The e-mail or password of the authorising clinician is not right.', { path: 'authoriserPassword', message: 'authoriserPassword must be the sign-in password of the clinician named by authoriserEmail' });
+      throw new SessionRuleRefusal(
+        'authoriser_refused',
+        'The e-mail or password of the authorising clinician is not right.',
+        {
+          path: 'authoriserPassword',
+          message:
+            'authoriserPassword must be the sign-in password of the clinician named by authoriserEmail',
+        },
+      );
     }
     if (!person.roles.includes('clinician')) {
-      throw new SessionRuleRefusal('authoriser_not_clinician', `${person.displayName} is not a clinician.`, { path: 'authoriserEmail', message: 'authoriserEmail must name a person with the clinician role' });
+      throw new SessionRuleRefusal(
+        'authoriser_not_clinician',
+        `${person.displayName} is not a clinician.`,
+        {
+          path: 'authoriserEmail',
+          message: 'authoriserEmail must name a person with the clinician role',
+        },
+      );
     }
     return { id: person.id, name: person.displayName };
   }
@@ -268,9 +450,16 @@ export function createSessionService(deps: {
     // The database closes the record an hour later still (migration DatabaseIntegrity), for clocks that differ.
     const recordOpenAfterEndMs = 12 * 3_600_000;
     if (!isSessionEnded(order.status)) return;
-    const endMs = Math.min(...events.filter((e) => e.type === 'session-completed' || e.type === 'session-stopped').map((e) => Date.parse(e.clientTime)));
+    const endMs = Math.min(
+      ...events
+        .filter((e) => e.type === 'session-completed' || e.type === 'session-stopped')
+        .map((e) => Date.parse(e.clientTime)),
+    );
     if (Number.isFinite(endMs) && nowMs - endMs > recordOpenAfterEndMs) {
-      throw AppError.conflict('record_closed', `The session for order ${order.id} ended more than 12 hours ago; its dose record is closed and takes no more events.`);
+      throw AppError.conflict(
+        'record_closed',
+        `The session for order ${order.id} ended more than 12 hours ago; its dose record is closed and takes no more events.`,
+      );
     }
   }
 
@@ -279,20 +468,48 @@ export function createSessionService(deps: {
    * Checked against the events as read under the order's lock, which include this withdrawal, so
    * two withdrawals of one tap sent at once cannot both pass.
    */
-  function checkWithdrawal(order: SessionOrder, input: Extract<SessionEventInput, { type: 'tap-withdrawn' }>, events: readonly SessionEvent[]) {
-    const refuse = (summary: string, message: string) => AppError.badRequest(summary, [{ path: 'withdrawnKey', message }]);
+  function checkWithdrawal(
+    order: SessionOrder,
+    input: Extract<SessionEventInput, { type: 'tap-withdrawn' }>,
+    events: readonly SessionEvent[],
+  ) {
+    const refuse = (summary: string, message: string) =>
+      AppError.badRequest(summary, [{ path: 'withdrawnKey', message }]);
     const target = events.find((e) => e.idempotencyKey === input.withdrawnKey);
-    if (!target) throw refuse('There is no such tap in this session.', 'withdrawnKey must be the key of an event of this session');
-    if (target.type === 'tap-withdrawn') throw refuse('A withdrawal cannot itself be withdrawn.', 'withdrawnKey must not name a withdrawal; record the tap again instead');
+    if (!target)
+      throw refuse(
+        'There is no such tap in this session.',
+        'withdrawnKey must be the key of an event of this session',
+      );
+    if (target.type === 'tap-withdrawn')
+      throw refuse(
+        'A withdrawal cannot itself be withdrawn.',
+        'withdrawnKey must not name a withdrawal; record the tap again instead',
+      );
     if (!isWithdrawableType(target.type)) {
-      throw refuse(`The ${target.type} tap cannot be withdrawn.`, 'withdrawnKey must not name session-started, session-completed or session-stopped: those cannot be withdrawn');
+      throw refuse(
+        `The ${target.type} tap cannot be withdrawn.`,
+        'withdrawnKey must not name session-started, session-completed or session-stopped: those cannot be withdrawn',
+      );
     }
-    const earlier = events.find((e) => e.type === 'tap-withdrawn' && e.withdrawnKey === input.withdrawnKey && e.idempotencyKey !== input.idempotencyKey);
-    if (earlier) throw refuse('That tap has been withdrawn already.', 'withdrawnKey names a tap that is already withdrawn');
+    const earlier = events.find(
+      (e) =>
+        e.type === 'tap-withdrawn' &&
+        e.withdrawnKey === input.withdrawnKey &&
+        e.idempotencyKey !== input.idempotencyKey,
+    );
+    if (earlier)
+      throw refuse(
+        'That tap has been withdrawn already.',
+        'withdrawnKey names a tap that is already withdrawn',
+      );
     // After the key, so that naming a session's end says why it cannot be withdrawn. A late tap
     // from an offline queue is still a fact; a correction is made only while the session runs.
     if (order.status !== 'in-session') {
-      throw AppError.conflict('session_ended', `The session for order ${order.id} is ${order.status}; a tap can be withdrawn only while the session runs.`);
+      throw AppError.conflict(
+        'session_ended',
+        `The session for order ${order.id} is ${order.status}; a tap can be withdrawn only while the session runs.`,
+      );
     }
   }
 
@@ -302,23 +519,61 @@ export function createSessionService(deps: {
    */
   async function recompute(manager: EntityManager, order: SessionOrder, events?: SessionEvent[]) {
     const all = events ?? (await sessions.eventsFor(order.id, manager));
-    const record = deriveDoseRecord({ protocol: order.definition, plan: order.plan, events: all, nowMs: now() });
-    const deviations = findDeviations({ protocol: order.definition, plan: order.plan, record, checklist: order.checklist, preparation: order.preparation });
-    const { standing } = await sessions.reconcileDeviations(manager, order.id, order.protocolVersionId, deviations);
-    await sessions.saveRecord(manager, order.id, record, { protocolVersionId: order.protocolVersionId, unitTimeZone: deps.unitTimeZone, deviationCount: deviations.length, order: recordOrderFacts(order) });
+    const record = deriveDoseRecord({
+      protocol: order.definition,
+      plan: order.plan,
+      events: all,
+      nowMs: now(),
+    });
+    const deviations = findDeviations({
+      protocol: order.definition,
+      plan: order.plan,
+      record,
+      checklist: order.checklist,
+      preparation: order.preparation,
+    });
+    const { standing } = await sessions.reconcileDeviations(
+      manager,
+      order.id,
+      order.protocolVersionId,
+      deviations,
+    );
+    await sessions.saveRecord(manager, order.id, record, {
+      protocolVersionId: order.protocolVersionId,
+      unitTimeZone: deps.unitTimeZone,
+      deviationCount: deviations.length,
+      order: recordOrderFacts(order),
+    });
     return { record, deviations: standing };
   }
 
   async function state(orderId: number) {
-    const [order] = await dataSource.query('SELECT status FROM treatment_order WHERE id = ?', [orderId]);
+    const [order] = await dataSource.query('SELECT status FROM treatment_order WHERE id = ?', [
+      orderId,
+    ]);
     if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
-    const [events, stored, deviations] = await Promise.all([sessions.eventsFor(orderId), sessions.recordFor(orderId), sessions.deviationsFor(orderId)]);
+    const [events, stored, deviations] = await Promise.all([
+      sessions.eventsFor(orderId),
+      sessions.recordFor(orderId),
+      sessions.deviationsFor(orderId),
+    ]);
     return {
       orderId,
       status: order.status as OrderStatus,
       events,
       record: stored?.record ?? null,
-      deviations: deviations.filter((d) => !d.withdrawnAt).map((d) => ({ id: d.id, type: d.type, severity: d.severity, expected: d.expected, actual: d.actual, unit: d.unit, message: d.message, detectedAt: d.detectedAt.toISOString() })),
+      deviations: deviations
+        .filter((d) => !d.withdrawnAt)
+        .map((d) => ({
+          id: d.id,
+          type: d.type,
+          severity: d.severity,
+          expected: d.expected,
+          actual: d.actual,
+          unit: d.unit,
+          message: d.message,
+          detectedAt: d.detectedAt.toISOString(),
+        })),
       serverTime: new Date(now()).toISOString(),
     };
   }
@@ -327,12 +582,21 @@ export function createSessionService(deps: {
   async function replayAnswer(orderId: number, idempotencyKey: string) {
     const { events, ...rest } = await state(orderId);
     const event = events.find((e) => e.idempotencyKey === idempotencyKey);
-    if (!event) throw AppError.conflict('key_reused', 'This idempotency key belongs to another order’s event.');
+    if (!event)
+      throw AppError.conflict(
+        'key_reused',
+        'This idempotency key belongs to another order’s event.',
+      );
     return { ...rest, event, eventCount: events.length, replayed: true };
   }
 
   /** A tap refused by a safety rule leaves an audit row naming the rule and the field; nothing else of it is stored. */
-  async function auditRefusal(actor: Actor, orderId: number, input: SessionEventInput, error: unknown) {
+  async function auditRefusal(
+    actor: Actor,
+    orderId: number,
+    input: SessionEventInput,
+    error: unknown,
+  ) {
     if (!(error instanceof SessionRuleRefusal)) return;
     await audit.append({
       actorUserId: actor.id,
@@ -340,12 +604,19 @@ export function createSessionService(deps: {
       entityType: 'order',
       entityId: orderId,
       ipAddress: actor.ipAddress,
-      details: { type: input.type, rule: error.rule, field: error.fields?.[0]?.path ?? null, clientTime: input.clientTime, idempotencyKey: input.idempotencyKey },
+      details: {
+        type: input.type,
+        rule: error.rule,
+        field: error.fields?.[0]?.path ?? null,
+        clientTime: input.clientTime,
+        idempotencyKey: input.idempotencyKey,
+      },
     });
   }
 
   const isDuplicateKey = (error: unknown) =>
-    (error as { code?: string }).code === 'ER_DUP_ENTRY' || (error as { driverError?: { code?: string } }).driverError?.code === 'ER_DUP_ENTRY';
+    (error as { code?: string }).code === 'ER_DUP_ENTRY' ||
+    (error as { driverError?: { code?: string } }).driverError?.code === 'ER_DUP_ENTRY';
 
   return {
     state,
@@ -358,12 +629,19 @@ export function createSessionService(deps: {
     async record(actor: Actor, orderId: number, input: SessionEventInput) {
       // Read before the transaction: a transaction must never wait for a second pooled connection,
       // or a burst of writes can hold every connection and wait on each other for ever.
-      const auditors = input.type === 'session-completed' || input.type === 'session-stopped' ? (await users.list()).filter((u) => u.active && u.roles.includes('auditor')) : [];
+      const auditors =
+        input.type === 'session-completed' || input.type === 'session-stopped'
+          ? (await users.list()).filter((u) => u.active && u.roles.includes('auditor'))
+          : [];
       // A replayed override must not need the password again: its stored row answers.
-      const storedAlready = input.type === 'thickness-override' ? await sessions.findEventByKey(input.idempotencyKey) : null;
+      const storedAlready =
+        input.type === 'thickness-override'
+          ? await sessions.findEventByKey(input.idempotencyKey)
+          : null;
       let authoriser: Authoriser | null = null;
       try {
-        if (input.type === 'thickness-override' && !storedAlready) authoriser = await checkAuthoriser(input, actor.ipAddress ?? undefined);
+        if (input.type === 'thickness-override' && !storedAlready)
+          authoriser = await checkAuthoriser(input, actor.ipAddress ?? undefined);
       } catch (error) {
         await auditRefusal(actor, orderId, input, error);
         throw error;
@@ -372,10 +650,20 @@ export function createSessionService(deps: {
       const payload: Record<string, unknown> = { ...input };
       if (input.type === 'thickness-override') {
         delete payload.authoriserPassword;
-        if (authoriser) Object.assign(payload, { authorisedById: authoriser.id, authorisedByName: authoriser.name });
+        if (authoriser)
+          Object.assign(payload, {
+            authorisedById: authoriser.id,
+            authorisedByName: authoriser.name,
+          });
       }
 
-      let outcome: { status: OrderStatus; ended: boolean; event: SessionEvent; events: SessionEvent[]; result: Awaited<ReturnType<typeof recompute>> };
+      let outcome: {
+        status: OrderStatus;
+        ended: boolean;
+        event: SessionEvent;
+        events: SessionEvent[];
+        result: Awaited<ReturnType<typeof recompute>>;
+      };
       let afterCommit: (() => void)[] = [];
       try {
         outcome = await dataSource.transaction(async (manager) => {
@@ -390,21 +678,37 @@ export function createSessionService(deps: {
           afterCommit.push(await sessions.addNurse(manager, orderId, actor.id));
           let status = order.status;
           if (input.type === 'session-started') status = 'in-session';
-          const ends = (input.type === 'session-completed' || input.type === 'session-stopped') && order.status === 'in-session';
+          const ends =
+            (input.type === 'session-completed' || input.type === 'session-stopped') &&
+            order.status === 'in-session';
           if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
           await moveOrderStatus(manager, orderId, order.status, status);
           const read = await sessions.eventsUnderLock(manager, orderId);
-          afterCommit.push(() => (ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read)));
+          afterCommit.push(() =>
+            ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read),
+          );
           const event = read.events.find((e) => e.idempotencyKey === input.idempotencyKey);
           if (!event) throw new Error(`event ${input.idempotencyKey} was stored but not read back`);
           // Refused here, the insert rolls back and `read` is never remembered.
           if (input.type === 'tap-withdrawn') checkWithdrawal(order, input, read.events);
           checkRecordOpen(order, read.events, now());
-          checkSessionRules(order, input, read.events.filter((e) => e.idempotencyKey !== input.idempotencyKey), actor.id, authoriser);
+          checkSessionRules(
+            order,
+            input,
+            read.events.filter((e) => e.idempotencyKey !== input.idempotencyKey),
+            actor.id,
+            authoriser,
+          );
           const result = await recompute(manager, order, read.events);
           if (status === 'reviewed') {
-            const [{ open }] = await manager.query("SELECT COUNT(*) AS open FROM deviation WHERE order_id = ? AND review_status = 'open' AND withdrawn_at IS NULL", [orderId]);
-            const next = statusAfterLateEvent(status, { sessionOutcome: result.record.outcome === 'stopped' ? 'stopped' : 'completed', openDeviations: Number(open) });
+            const [{ open }] = await manager.query(
+              "SELECT COUNT(*) AS open FROM deviation WHERE order_id = ? AND review_status = 'open' AND withdrawn_at IS NULL",
+              [orderId],
+            );
+            const next = statusAfterLateEvent(status, {
+              sessionOutcome: result.record.outcome === 'stopped' ? 'stopped' : 'completed',
+              openDeviations: Number(open),
+            });
             await moveOrderStatus(manager, orderId, status, next);
             status = next;
           }
@@ -430,7 +734,11 @@ export function createSessionService(deps: {
         // A resend, or two sends of one key at once: answer from the stored row.
         if (isDuplicateKey(error)) {
           const stored = await sessions.findEventByKey(input.idempotencyKey);
-          if (stored && stored.orderId !== orderId) throw AppError.conflict('key_reused', 'This idempotency key belongs to another order’s event.');
+          if (stored && stored.orderId !== orderId)
+            throw AppError.conflict(
+              'key_reused',
+              'This idempotency key belongs to another order’s event.',
+            );
           if (stored) return replayAnswer(orderId, input.idempotencyKey);
         }
         await auditRefusal(actor, orderId, input, error);
@@ -445,7 +753,11 @@ export function createSessionService(deps: {
           entityType: 'order',
           entityId: orderId,
           ipAddress: actor.ipAddress,
-          details: { idempotencyKey: input.idempotencyKey, nurseUserId: actor.id, reason: 'reason' in input ? input.reason : null },
+          details: {
+            idempotencyKey: input.idempotencyKey,
+            nurseUserId: actor.id,
+            reason: 'reason' in input ? input.reason : null,
+          },
         });
       }
       if (
@@ -469,9 +781,15 @@ export function createSessionService(deps: {
             clientTime: input.clientTime,
             ...('reason' in input ? { reason: input.reason } : {}),
             ...(input.type === 'tap-withdrawn' ? { withdrawnKey: input.withdrawnKey } : {}),
-            ...(input.lateEntryReason !== undefined ? { lateEntryReason: input.lateEntryReason } : {}),
-            ...('volumeInfusedMl' in input && input.volumeInfusedMl !== undefined ? { volumeInfusedMl: input.volumeInfusedMl } : {}),
-            ...(input.type === 'exposure-recorded' ? { exposureS: input.exposureS, energyJ: input.energyJ ?? null } : {}),
+            ...(input.lateEntryReason !== undefined
+              ? { lateEntryReason: input.lateEntryReason }
+              : {}),
+            ...('volumeInfusedMl' in input && input.volumeInfusedMl !== undefined
+              ? { volumeInfusedMl: input.volumeInfusedMl }
+              : {}),
+            ...(input.type === 'exposure-recorded'
+              ? { exposureS: input.exposureS, energyJ: input.energyJ ?? null }
+              : {}),
             ...(authoriser ? { authorisedById: authoriser.id } : {}),
           },
         });
@@ -493,7 +811,10 @@ export function createSessionService(deps: {
     /** After a restart: sessions still running get their record and deviations recomputed. */
     async recomputeRunning(): Promise<number> {
       const running = await orders.listByStatus(['in-session']);
-      for (const { id } of running) await dataSource.transaction(async (manager) => recompute(manager, await sessionOrder(manager, id)));
+      for (const { id } of running)
+        await dataSource.transaction(async (manager) =>
+          recompute(manager, await sessionOrder(manager, id)),
+        );
       return running.length;
     },
   };

@@ -36,7 +36,8 @@ export const bsaFormulas: Record<BsaFormulaName, BsaFormula> = {
   },
   boyd: {
     label: 'Boyd',
-    expression: '0.0003207 × heightCm^0.3 × weightG^(0.7285 − 0.0188 × log10 weightG), weightG = weightKg × 1000',
+    expression:
+      '0.0003207 × heightCm^0.3 × weightG^(0.7285 − 0.0188 × log10 weightG), weightG = weightKg × 1000',
     source:
       'Boyd E. The Growth of the Surface Area of the Human Body. University of Minnesota Press, 1935 (formula published; citation from memory)',
     bsaM2: (heightCm, weightKg) => {

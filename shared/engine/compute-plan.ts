@@ -13,5 +13,7 @@ export function computePlan(protocol: ProtocolVersion, inputs: PlanInputs): Dose
   // Inputs are parsed again here because the client may call the engine with raw form data.
   const parsed = planInputsSchema.safeParse(inputs);
   if (!parsed.success) throw planInputErrorFromZod(parsed.error, 'inputs');
-  return protocol.kind === 'pdt' ? computePdtPlan(protocol, parsed.data) : computeCxlPlan(protocol, parsed.data);
+  return protocol.kind === 'pdt'
+    ? computePdtPlan(protocol, parsed.data)
+    : computeCxlPlan(protocol, parsed.data);
 }

@@ -10,7 +10,8 @@ export const spoerlEndothelialMwPerCm2 = 0.18;
 export const spoerlDepthCm = 0.04;
 
 /** Natural-log attenuation coefficient from Spoerl's figures (our own arithmetic): ≈ 70.3 cm⁻¹. */
-export const stromaAttenuationPerCm = Math.log(spoerlSurfaceMwPerCm2 / spoerlEndothelialMwPerCm2) / spoerlDepthCm;
+export const stromaAttenuationPerCm =
+  Math.log(spoerlSurfaceMwPerCm2 / spoerlEndothelialMwPerCm2) / spoerlDepthCm;
 
 export const attenuationSource =
   'Spoerl E, Mrochen M, Sliney D, Trokel S, Seiler T. Cornea 2007;26:385–389 (3 → 0.18 mW/cm² across 400 µm of riboflavin-saturated stroma) with our own Beer–Lambert arithmetic';

@@ -30,8 +30,17 @@ export function computeCxlPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
   refuseInputs(report, inputs, ['lesionGldUm', 'lensMagnification'], 'cxl');
   // Height and weight are optional here; when given they are checked and a BSA is recorded.
   const body = readBodyMeasures(report, protocol, inputs, false);
-  const stromalThicknessUm = readLimitedNumber(report, 'stromalThicknessUm', 'stromal thickness', 'µm', inputs.stromalThicknessUm, thicknessLimit, 'cxl');
-  if (report.problems.length > 0 || stromalThicknessUm === undefined) throw new PlanInputError(report.problems);
+  const stromalThicknessUm = readLimitedNumber(
+    report,
+    'stromalThicknessUm',
+    'stromal thickness',
+    'µm',
+    inputs.stromalThicknessUm,
+    thicknessLimit,
+    'cxl',
+  );
+  if (report.problems.length > 0 || stromalThicknessUm === undefined)
+    throw new PlanInputError(report.problems);
 
   const ref = protocolRef(protocol);
   const working = report.working;
@@ -70,7 +79,10 @@ export function computeCxlPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: fluenceJPerCm2(plan.irradianceMwPerCm2, plan.uvTimeS),
     unit: 'J/cm²',
     formula: 'irradianceMwPerCm2 × uvTimeS ÷ 1000',
-    inputs: { irradianceMwPerCm2: { value: plan.irradianceMwPerCm2, unit: 'mW/cm²' }, uvTimeS: { value: plan.uvTimeS, unit: 's' } },
+    inputs: {
+      irradianceMwPerCm2: { value: plan.irradianceMwPerCm2, unit: 'mW/cm²' },
+      uvTimeS: { value: plan.uvTimeS, unit: 's' },
+    },
     source: lightArithmeticSource,
     step: rounding.fluenceJPerCm2,
   });
@@ -79,11 +91,16 @@ export function computeCxlPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     name: 'uvElapsedS',
     value: pulsedElapsedS(plan.uvTimeS, pulse),
     unit: 's',
-    formula: pulse === null ? 'uvTimeS (continuous light)' : 'uvTimeS × (pulseOnS + pulseOffS) ÷ pulseOnS',
+    formula:
+      pulse === null ? 'uvTimeS (continuous light)' : 'uvTimeS × (pulseOnS + pulseOffS) ÷ pulseOnS',
     inputs:
       pulse === null
         ? { uvTimeS: { value: plan.uvTimeS, unit: 's' } }
-        : { uvTimeS: { value: plan.uvTimeS, unit: 's' }, pulseOnS: { value: pulse.onS, unit: 's' }, pulseOffS: { value: pulse.offS, unit: 's' } },
+        : {
+            uvTimeS: { value: plan.uvTimeS, unit: 's' },
+            pulseOnS: { value: pulse.onS, unit: 's' },
+            pulseOffS: { value: pulse.offS, unit: 's' },
+          },
     source: pulse === null ? ref : `on/off cycle from ${ref}`,
     step: rounding.timeS,
   });
@@ -94,7 +111,10 @@ export function computeCxlPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: stromalThicknessUm - minUm,
     unit: 'µm',
     formula: 'stromalThicknessUm − minStromalThicknessUm (thicknessOk when at least 0)',
-    inputs: { stromalThicknessUm: { value: stromalThicknessUm, unit: 'µm' }, minStromalThicknessUm: { value: minUm, unit: 'µm' } },
+    inputs: {
+      stromalThicknessUm: { value: stromalThicknessUm, unit: 'µm' },
+      minStromalThicknessUm: { value: minUm, unit: 'µm' },
+    },
     source: `minimum stromal thickness from ${ref}`,
   });
   plan.thicknessOk = thicknessMarginUm >= 0;

@@ -38,7 +38,9 @@ function rangeText(range: { min: number; max: number }, unit: string): string {
 
 function gotText(input: LimitedValue): string {
   const inLimitUnit = withUnit(input.value, input.unit);
-  return input.typed ? `${withUnit(input.typed.value, input.typed.unit)} = ${inLimitUnit}` : inLimitUnit;
+  return input.typed
+    ? `${withUnit(input.typed.value, input.typed.unit)} = ${inLimitUnit}`
+    : inLimitUnit;
 }
 
 /** Hard range refuses; soft range warns and asks for a reason. Returns whether the value is usable. */
@@ -77,17 +79,28 @@ export function readLimitedNumber(
 ): number | undefined {
   const path = `inputs.${field}`;
   if (value === undefined) {
-    report.problems.push({ path, message: `${label} is required for a ${kind} protocol (allowed ${rangeHint(limit, unit)})` });
+    report.problems.push({
+      path,
+      message: `${label} is required for a ${kind} protocol (allowed ${rangeHint(limit, unit)})`,
+    });
     return undefined;
   }
   return checkLimit({ path, label, unit, value, limit }, report) ? value : undefined;
 }
 
 /** Inputs that belong to the other kind of protocol are refused rather than quietly ignored. */
-export function refuseInputs(report: InputReport, inputs: PlanInputs, fields: (keyof PlanInputs)[], kind: ProtocolVersion['kind']): void {
+export function refuseInputs(
+  report: InputReport,
+  inputs: PlanInputs,
+  fields: (keyof PlanInputs)[],
+  kind: ProtocolVersion['kind'],
+): void {
   for (const field of fields) {
     if (inputs[field] !== undefined) {
-      report.problems.push({ path: `inputs.${field}`, message: `${field} does not apply to a ${kind} protocol; leave it out` });
+      report.problems.push({
+        path: `inputs.${field}`,
+        message: `${field} does not apply to a ${kind} protocol; leave it out`,
+      });
     }
   }
 }
@@ -103,26 +116,51 @@ export interface BodyMeasures {
  * Height and weight in cm and kg, checked against the protocol's limits. Conversions from
  * other units go through mathjs and appear in the working.
  */
-export function readBodyMeasures(report: InputReport, protocol: ProtocolVersion, inputs: PlanInputs, required: boolean): BodyMeasures | undefined {
+export function readBodyMeasures(
+  report: InputReport,
+  protocol: ProtocolVersion,
+  inputs: PlanInputs,
+  required: boolean,
+): BodyMeasures | undefined {
   const { height, weight } = inputs;
   const { heightCm: heightLimit, weightKg: weightLimit } = protocol.inputLimits;
   if (!required && height === undefined && weight === undefined) return undefined;
   if (height === undefined) {
-    report.problems.push({ path: 'inputs.height', message: `height is required${required ? ` for a ${protocol.kind} protocol` : ' when weight is given'} (allowed ${rangeHint(heightLimit, 'cm')})` });
+    report.problems.push({
+      path: 'inputs.height',
+      message: `height is required${required ? ` for a ${protocol.kind} protocol` : ' when weight is given'} (allowed ${rangeHint(heightLimit, 'cm')})`,
+    });
   }
   if (weight === undefined) {
-    report.problems.push({ path: 'inputs.weight', message: `weight is required${required ? ` for a ${protocol.kind} protocol` : ' when height is given'} (allowed ${rangeHint(weightLimit, 'kg')})` });
+    report.problems.push({
+      path: 'inputs.weight',
+      message: `weight is required${required ? ` for a ${protocol.kind} protocol` : ' when height is given'} (allowed ${rangeHint(weightLimit, 'kg')})`,
+    });
   }
   if (height === undefined || weight === undefined) return undefined;
 
   const heightCm = lengthToCm(height.value, height.unit);
   const weightKg = massToKg(weight.value, weight.unit);
   const heightOk = checkLimit(
-    { path: 'inputs.height.value', label: 'height', unit: 'cm', value: heightCm, limit: heightLimit, ...(height.unit === 'cm' ? {} : { typed: height }) },
+    {
+      path: 'inputs.height.value',
+      label: 'height',
+      unit: 'cm',
+      value: heightCm,
+      limit: heightLimit,
+      ...(height.unit === 'cm' ? {} : { typed: height }),
+    },
     report,
   );
   const weightOk = checkLimit(
-    { path: 'inputs.weight.value', label: 'weight', unit: 'kg', value: weightKg, limit: weightLimit, ...(weight.unit === 'kg' ? {} : { typed: weight }) },
+    {
+      path: 'inputs.weight.value',
+      label: 'weight',
+      unit: 'kg',
+      value: weightKg,
+      limit: weightLimit,
+      ...(weight.unit === 'kg' ? {} : { typed: weight }),
+    },
     report,
   );
   if (!heightOk || !weightOk) return undefined;
@@ -147,6 +185,11 @@ export function readBodyMeasures(report: InputReport, protocol: ProtocolVersion,
       source: unitConversionSource,
     });
   }
-  const bmiKgPerM2 = recordBodyMassIndex(report, protocol, { height, weight }, { heightCm, weightKg });
+  const bmiKgPerM2 = recordBodyMassIndex(
+    report,
+    protocol,
+    { height, weight },
+    { heightCm, weightKg },
+  );
   return { heightCm, weightKg, bmiKgPerM2 };
 }

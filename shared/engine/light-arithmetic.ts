@@ -3,7 +3,8 @@
 const umPerCm = 10_000;
 const mjPerJ = 1000;
 
-export const lightArithmeticSource = 'definition: area of a circle π d²/4; irradiance = power ÷ area; fluence = irradiance × time; energy = power × time';
+export const lightArithmeticSource =
+  'definition: area of a circle π d²/4; irradiance = power ÷ area; fluence = irradiance × time; energy = power × time';
 
 export function spotAreaCm2(spotDiameterUm: number): number {
   const diameterCm = spotDiameterUm / umPerCm;

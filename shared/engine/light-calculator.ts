@@ -13,7 +13,14 @@ import { withinPct } from './tolerance';
 /** Given figures that two relations tie together may differ by this much before they are refused. */
 export const lightAgreementPct = 1;
 
-export const lightFields = ['powerMw', 'spotDiameterUm', 'irradianceMwPerCm2', 'exposureS', 'fluenceJPerCm2', 'energyJ'] as const;
+export const lightFields = [
+  'powerMw',
+  'spotDiameterUm',
+  'irradianceMwPerCm2',
+  'exposureS',
+  'fluenceJPerCm2',
+  'energyJ',
+] as const;
 export type LightField = (typeof lightFields)[number];
 type Quantity = LightField | 'spotAreaCm2';
 
@@ -66,7 +73,8 @@ export function solveLight(request: LightCalculationRequest): LightSolution {
   const given = lightFields.filter((field) => parsed.data[field] !== undefined);
 
   const known = new Map<Quantity, Known>();
-  for (const field of given) known.set(field, { value: parsed.data[field] as number, basis: new Set([field]) });
+  for (const field of given)
+    known.set(field, { value: parsed.data[field] as number, basis: new Set([field]) });
   const working: WorkingEntry[] = [];
   const derive = (name: Quantity, value: number, formula: string, from: Quantity[]): void => {
     const basis = new Set<LightField>();
@@ -78,32 +86,52 @@ export function solveLight(request: LightCalculationRequest): LightSolution {
       inputs[source] = { value: entry.value, unit: units[source] };
     }
     known.set(name, { value, basis });
-    working.push({ name, value, unit: units[name], formula, inputs, source: lightArithmeticSource });
+    working.push({
+      name,
+      value,
+      unit: units[name],
+      formula,
+      inputs,
+      source: lightArithmeticSource,
+    });
   };
   const valueOf = (name: Quantity): number | undefined => known.get(name)?.value;
 
   // Substitute until nothing new can be worked out.
-  for (let progress = true; progress; ) {
+  for (let progress = true; progress;) {
     progress = false;
     const diameter = valueOf('spotDiameterUm');
     const area = valueOf('spotAreaCm2');
     if (diameter !== undefined && area === undefined) {
-      derive('spotAreaCm2', spotAreaCm2(diameter), 'π × (spotDiameterUm ÷ 10 000)² ÷ 4', ['spotDiameterUm']);
+      derive('spotAreaCm2', spotAreaCm2(diameter), 'π × (spotDiameterUm ÷ 10 000)² ÷ 4', [
+        'spotDiameterUm',
+      ]);
       progress = true;
     } else if (diameter === undefined && area !== undefined) {
-      derive('spotDiameterUm', spotDiameterUmFromArea(area), '√(4 × spotAreaCm2 ÷ π) × 10 000', ['spotAreaCm2']);
+      derive('spotDiameterUm', spotDiameterUmFromArea(area), '√(4 × spotAreaCm2 ÷ π) × 10 000', [
+        'spotAreaCm2',
+      ]);
       progress = true;
     }
     for (const { product, left, right, factor } of relations) {
       const [p, l, r] = [valueOf(product), valueOf(left), valueOf(right)];
       if (p === undefined && l !== undefined && r !== undefined) {
-        derive(product, factor * l * r, `${left} × ${right}${scaleText(factor, 'product')}`, [left, right]);
+        derive(product, factor * l * r, `${left} × ${right}${scaleText(factor, 'product')}`, [
+          left,
+          right,
+        ]);
         progress = true;
       } else if (p !== undefined && l === undefined && r !== undefined) {
-        derive(left, p / (factor * r), `${product}${scaleText(factor, 'factor')} ÷ ${right}`, [product, right]);
+        derive(left, p / (factor * r), `${product}${scaleText(factor, 'factor')} ÷ ${right}`, [
+          product,
+          right,
+        ]);
         progress = true;
       } else if (p !== undefined && l !== undefined && r === undefined) {
-        derive(right, p / (factor * l), `${product}${scaleText(factor, 'factor')} ÷ ${left}`, [product, left]);
+        derive(right, p / (factor * l), `${product}${scaleText(factor, 'factor')} ÷ ${left}`, [
+          product,
+          left,
+        ]);
         progress = true;
       }
     }
@@ -115,7 +143,9 @@ export function solveLight(request: LightCalculationRequest): LightSolution {
     if (!p || !l || !r) continue;
     const expected = factor * l.value * r.value;
     if (withinPct(p.value, expected, lightAgreementPct)) continue;
-    const involved = lightFields.filter((field) => p.basis.has(field) || l.basis.has(field) || r.basis.has(field));
+    const involved = lightFields.filter(
+      (field) => p.basis.has(field) || l.basis.has(field) || r.basis.has(field),
+    );
     const message = `${involved.join(', ')} disagree: ${left} × ${right}${scaleText(factor, 'product')} gives ${formatNumber(expected)} ${units[product]}, but ${product} is ${formatNumber(p.value)} ${units[product]} (more than ${lightAgreementPct}% apart); correct one or leave one out`;
     throw new PlanInputError(involved.map((path) => ({ path, message })));
   }

@@ -18,15 +18,38 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
   const { lesionGldUm: gldLimit, lensMagnification: lensLimit } = protocol.inputLimits;
   if (drug === null) throw missingProtocolPart(protocol, 'a drug block');
   if (timing === null) throw missingProtocolPart(protocol, 'a timing block');
-  if (spotMarginUm === null || maxSpotUm === null) throw missingProtocolPart(protocol, 'light.spotMarginUm and light.maxSpotUm');
-  if (gldLimit === null || lensLimit === null) throw missingProtocolPart(protocol, 'lesionGldUm and lensMagnification limits');
+  if (spotMarginUm === null || maxSpotUm === null)
+    throw missingProtocolPart(protocol, 'light.spotMarginUm and light.maxSpotUm');
+  if (gldLimit === null || lensLimit === null)
+    throw missingProtocolPart(protocol, 'lesionGldUm and lensMagnification limits');
 
   const report = newInputReport();
   refuseInputs(report, inputs, ['stromalThicknessUm'], 'pdt');
   const body = readBodyMeasures(report, protocol, inputs, true);
-  const lesionGldUm = readLimitedNumber(report, 'lesionGldUm', 'lesion GLD', 'µm', inputs.lesionGldUm, gldLimit, 'pdt');
-  const lensMagnification = readLimitedNumber(report, 'lensMagnification', 'lens magnification factor', '', inputs.lensMagnification, lensLimit, 'pdt');
-  if (report.problems.length > 0 || body === undefined || lesionGldUm === undefined || lensMagnification === undefined) {
+  const lesionGldUm = readLimitedNumber(
+    report,
+    'lesionGldUm',
+    'lesion GLD',
+    'µm',
+    inputs.lesionGldUm,
+    gldLimit,
+    'pdt',
+  );
+  const lensMagnification = readLimitedNumber(
+    report,
+    'lensMagnification',
+    'lens magnification factor',
+    '',
+    inputs.lensMagnification,
+    lensLimit,
+    'pdt',
+  );
+  if (
+    report.problems.length > 0 ||
+    body === undefined ||
+    lesionGldUm === undefined ||
+    lensMagnification === undefined
+  ) {
     throw new PlanInputError(report.problems);
   }
 
@@ -46,7 +69,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: drug.doseMgPerM2 * plan.bsaM2,
     unit: 'mg',
     formula: 'doseMgPerM2 × bsaM2',
-    inputs: { doseMgPerM2: { value: drug.doseMgPerM2, unit: 'mg/m²' }, bsaM2: { value: plan.bsaM2, unit: 'm²' } },
+    inputs: {
+      doseMgPerM2: { value: drug.doseMgPerM2, unit: 'mg/m²' },
+      bsaM2: { value: plan.bsaM2, unit: 'm²' },
+    },
     source: `dose per body surface area; doseMgPerM2 from ${ref}`,
     step: rounding.doseMg,
   });
@@ -58,7 +84,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: plan.doseMg / drug.concentrationMgPerMl,
     unit: 'mL',
     formula: 'doseMg ÷ concentrationMgPerMl, rounded to the syringe graduation',
-    inputs: { doseMg: { value: plan.doseMg, unit: 'mg' }, concentrationMgPerMl: { value: drug.concentrationMgPerMl, unit: 'mg/mL' } },
+    inputs: {
+      doseMg: { value: plan.doseMg, unit: 'mg' },
+      concentrationMgPerMl: { value: drug.concentrationMgPerMl, unit: 'mg/mL' },
+    },
     source:
       drug.syringeGraduationMl === undefined
         ? `concentration after reconstitution from ${ref}; ${ref} gives no syringe graduation, so its volume step ${formatNumber(graduationMl)} mL is used`
@@ -72,7 +101,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: drawnDoseExactMg,
     unit: 'mg',
     formula: 'drugVolumeMl × concentrationMgPerMl (dose in the drawn volume)',
-    inputs: { drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' }, concentrationMgPerMl: { value: drug.concentrationMgPerMl, unit: 'mg/mL' } },
+    inputs: {
+      drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' },
+      concentrationMgPerMl: { value: drug.concentrationMgPerMl, unit: 'mg/mL' },
+    },
     source: `concentration after reconstitution from ${ref}`,
     step: rounding.doseMg,
   });
@@ -82,7 +114,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: shiftPct,
     unit: '%',
     formula: `(drawnDoseMg − doseMg) ÷ doseMg × 100; at most ±${maxDrawnDoseShiftPct}%`,
-    inputs: { drawnDoseMg: { value: drawnDoseExactMg, unit: 'mg' }, doseMg: { value: plan.doseMg, unit: 'mg' } },
+    inputs: {
+      drawnDoseMg: { value: drawnDoseExactMg, unit: 'mg' },
+      doseMg: { value: plan.doseMg, unit: 'mg' },
+    },
     source: `engine rule: rounding the drawn volume may move the dose by at most ${maxDrawnDoseShiftPct}% (common practice)`,
     step: 0.01,
   });
@@ -101,7 +136,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: Math.ceil(plan.drugVolumeMl / withdrawableMl - 1e-9),
     unit: 'vial',
     formula: 'ceil(drugVolumeMl ÷ withdrawableVolumeMlPerVial)',
-    inputs: { drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' }, withdrawableVolumeMlPerVial: { value: withdrawableMl, unit: 'mL' } },
+    inputs: {
+      drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' },
+      withdrawableVolumeMlPerVial: { value: withdrawableMl, unit: 'mL' },
+    },
     source:
       drug.withdrawableVolumeMlPerVial === undefined
         ? `whole vials; ${ref} gives no withdrawable volume, so the whole reconstituted volume (${formatNumber(withdrawableMl)} mL) is assumed`
@@ -112,7 +150,11 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: plan.vials * drug.reconstitutedVolumeMl - plan.drugVolumeMl,
     unit: 'mL',
     formula: 'vials × reconstitutedVolumeMl − drugVolumeMl',
-    inputs: { vials: { value: plan.vials, unit: 'vial' }, reconstitutedVolumeMl: { value: drug.reconstitutedVolumeMl, unit: 'mL' }, drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' } },
+    inputs: {
+      vials: { value: plan.vials, unit: 'vial' },
+      reconstitutedVolumeMl: { value: drug.reconstitutedVolumeMl, unit: 'mL' },
+      drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' },
+    },
     source: `reconstituted volume per vial from ${ref}; what is left is discarded under local policy`,
     step: graduationMl,
   });
@@ -121,7 +163,11 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: plan.vials * drug.vialContentMg - drawnDoseExactMg,
     unit: 'mg',
     formula: 'vials × vialContentMg − drawnDoseMg',
-    inputs: { vials: { value: plan.vials, unit: 'vial' }, vialContentMg: { value: drug.vialContentMg, unit: 'mg' }, drawnDoseMg: { value: drawnDoseExactMg, unit: 'mg' } },
+    inputs: {
+      vials: { value: plan.vials, unit: 'vial' },
+      vialContentMg: { value: drug.vialContentMg, unit: 'mg' },
+      drawnDoseMg: { value: drawnDoseExactMg, unit: 'mg' },
+    },
     source: `vial content from ${ref}`,
     step: rounding.doseMg,
   });
@@ -141,7 +187,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: diluentVolumeMl,
     unit: 'mL',
     formula: 'finalVolumeMl − drugVolumeMl',
-    inputs: { finalVolumeMl: { value: drug.finalVolumeMl, unit: 'mL' }, drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' } },
+    inputs: {
+      finalVolumeMl: { value: drug.finalVolumeMl, unit: 'mL' },
+      drugVolumeMl: { value: plan.drugVolumeMl, unit: 'mL' },
+    },
     source: `final volume and diluent (${drug.diluent}) from ${ref}`,
     step: rounding.volumesMl,
   });
@@ -150,7 +199,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: drug.finalVolumeMl / drug.infusionMin,
     unit: 'mL/min',
     formula: 'finalVolumeMl ÷ infusionMin',
-    inputs: { finalVolumeMl: { value: drug.finalVolumeMl, unit: 'mL' }, infusionMin: { value: drug.infusionMin, unit: 'min' } },
+    inputs: {
+      finalVolumeMl: { value: drug.finalVolumeMl, unit: 'mL' },
+      infusionMin: { value: drug.infusionMin, unit: 'min' },
+    },
     source: `final volume and infusion time from ${ref}`,
     step: rounding.rateMlPerMin,
   });
@@ -170,7 +222,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: spotDiameterUm,
     unit: 'µm',
     formula: 'lesionGldUm + spotMarginUm',
-    inputs: { lesionGldUm: { value: lesionGldUm, unit: 'µm' }, spotMarginUm: { value: spotMarginUm, unit: 'µm' } },
+    inputs: {
+      lesionGldUm: { value: lesionGldUm, unit: 'µm' },
+      spotMarginUm: { value: spotMarginUm, unit: 'µm' },
+    },
     source: `spot = lesion GLD + margin; margin from ${ref}`,
     step: rounding.spotUm,
   });
@@ -179,8 +234,12 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: plan.spotDiameterUm / lensMagnification,
     unit: 'µm',
     formula: 'spotDiameterUm ÷ lensMagnification',
-    inputs: { spotDiameterUm: { value: plan.spotDiameterUm, unit: 'µm' }, lensMagnification: { value: lensMagnification, unit: '×' } },
-    source: 'common practice: the laser is set to the retinal spot divided by the contact lens spot magnification factor',
+    inputs: {
+      spotDiameterUm: { value: plan.spotDiameterUm, unit: 'µm' },
+      lensMagnification: { value: lensMagnification, unit: '×' },
+    },
+    source:
+      'common practice: the laser is set to the retinal spot divided by the contact lens spot magnification factor',
     step: rounding.spotUm,
   });
   plan.spotAreaCm2 = record(working, {
@@ -213,7 +272,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: plan.irradianceMwPerCm2 * plan.spotAreaCm2,
     unit: 'mW',
     formula: 'irradianceMwPerCm2 × spotAreaCm2',
-    inputs: { irradianceMwPerCm2: { value: plan.irradianceMwPerCm2, unit: 'mW/cm²' }, spotAreaCm2: { value: plan.spotAreaCm2, unit: 'cm²' } },
+    inputs: {
+      irradianceMwPerCm2: { value: plan.irradianceMwPerCm2, unit: 'mW/cm²' },
+      spotAreaCm2: { value: plan.spotAreaCm2, unit: 'cm²' },
+    },
     source: lightArithmeticSource,
     step: rounding.powerMw,
   });
@@ -222,7 +284,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: fluenceJPerCm2(plan.irradianceMwPerCm2, plan.exposureS),
     unit: 'J/cm²',
     formula: 'irradianceMwPerCm2 × exposureS ÷ 1000',
-    inputs: { irradianceMwPerCm2: { value: plan.irradianceMwPerCm2, unit: 'mW/cm²' }, exposureS: { value: plan.exposureS, unit: 's' } },
+    inputs: {
+      irradianceMwPerCm2: { value: plan.irradianceMwPerCm2, unit: 'mW/cm²' },
+      exposureS: { value: plan.exposureS, unit: 's' },
+    },
     source: `${lightArithmeticSource}; target ${formatNumber(protocol.light.targetFluenceJPerCm2)} J/cm² in ${ref}`,
     step: rounding.fluenceJPerCm2,
   });
@@ -231,7 +296,10 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: energyJ(plan.powerMw, plan.exposureS),
     unit: 'J',
     formula: 'powerMw × exposureS ÷ 1000',
-    inputs: { powerMw: { value: plan.powerMw, unit: 'mW' }, exposureS: { value: plan.exposureS, unit: 's' } },
+    inputs: {
+      powerMw: { value: plan.powerMw, unit: 'mW' },
+      exposureS: { value: plan.exposureS, unit: 's' },
+    },
     source: lightArithmeticSource,
     step: rounding.energyJ,
   });
@@ -250,7 +318,12 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     value: timing.lightStartAfterInfusionStartMin * 60,
     unit: 's',
     formula: 'lightStartAfterInfusionStartMin × 60',
-    inputs: { lightStartAfterInfusionStartMin: { value: timing.lightStartAfterInfusionStartMin, unit: 'min' } },
+    inputs: {
+      lightStartAfterInfusionStartMin: {
+        value: timing.lightStartAfterInfusionStartMin,
+        unit: 'min',
+      },
+    },
     source: `light start after the start of the infusion from ${ref}`,
   });
   plan.lightEndAfterInfusionStartS = record(working, {

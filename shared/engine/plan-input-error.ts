@@ -23,12 +23,16 @@ export class PlanInputError extends Error {
 
 /** Turns zod issues into field problems, with paths prefixed the way the API names them. */
 export function planInputErrorFromZod(error: z.ZodError, pathPrefix: string): PlanInputError {
-  const joinPath = (parts: PropertyKey[]): string => [pathPrefix, ...parts.map(String)].filter((part) => part !== '').join('.');
+  const joinPath = (parts: PropertyKey[]): string =>
+    [pathPrefix, ...parts.map(String)].filter((part) => part !== '').join('.');
   return new PlanInputError(
     error.issues.flatMap((issue) =>
       // An unknown field is named by its own path, so the person sees which one to remove.
       issue.code === 'unrecognized_keys'
-        ? issue.keys.map((key) => ({ path: joinPath([...issue.path, key]), message: `${joinPath([...issue.path, key])} is not a field this calculation takes` }))
+        ? issue.keys.map((key) => ({
+            path: joinPath([...issue.path, key]),
+            message: `${joinPath([...issue.path, key])} is not a field this calculation takes`,
+          }))
         : [{ path: joinPath(issue.path), message: issue.message }],
     ),
   );

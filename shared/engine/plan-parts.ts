@@ -48,14 +48,22 @@ export function emptyPlan(protocol: ProtocolVersion): DosePlan {
   };
 }
 
-export function recordBsa(working: WorkingEntry[], protocol: ProtocolVersion, formula: BsaFormulaName, body: BodyMeasures): number {
+export function recordBsa(
+  working: WorkingEntry[],
+  protocol: ProtocolVersion,
+  formula: BsaFormulaName,
+  body: BodyMeasures,
+): number {
   const chosen = bsaFormulas[formula];
   return record(working, {
     name: 'bsaM2',
     value: chosen.bsaM2(body.heightCm, body.weightKg),
     unit: 'm²',
     formula: `${chosen.label}: ${chosen.expression}`,
-    inputs: { heightCm: { value: body.heightCm, unit: 'cm' }, weightKg: { value: body.weightKg, unit: 'kg' } },
+    inputs: {
+      heightCm: { value: body.heightCm, unit: 'cm' },
+      weightKg: { value: body.weightKg, unit: 'kg' },
+    },
     source: chosen.source,
     step: protocol.rounding.bsaM2,
   });
@@ -63,5 +71,7 @@ export function recordBsa(working: WorkingEntry[], protocol: ProtocolVersion, fo
 
 /** Thrown for a protocol that skipped schema validation and lacks a block its kind needs. */
 export function missingProtocolPart(protocol: ProtocolVersion, part: string): Error {
-  return new Error(`${protocolRef(protocol)} is a ${protocol.kind} protocol without ${part}; validate it with protocolVersionSchema first`);
+  return new Error(
+    `${protocolRef(protocol)} is a ${protocol.kind} protocol without ${part}; validate it with protocolVersionSchema first`,
+  );
 }

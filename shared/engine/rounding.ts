@@ -12,7 +12,8 @@ function decimalsOf(step: number): number {
  */
 export function roundToStep(value: number, step: number): number {
   if (!Number.isFinite(value)) throw new RangeError(`cannot round ${value}: not a finite number`);
-  if (!(step > 0) || !Number.isFinite(step)) throw new RangeError(`rounding step must be a positive number (got ${step})`);
+  if (!(step > 0) || !Number.isFinite(step))
+    throw new RangeError(`rounding step must be a positive number (got ${step})`);
   const quotient = Number((Math.abs(value) / step).toPrecision(12));
   const rounded = Math.round(quotient) * step * Math.sign(value);
   return Number(rounded.toFixed(Math.min(20, decimalsOf(step))));

@@ -35,7 +35,10 @@ const counterpartUnit = { cm: 'in', m: 'in', in: 'cm', kg: 'lb', lb: 'kg' } as c
  * "183 cm (72 in)": the one formatter for a measure wherever a figure is checked, so that a
  * value typed in the wrong unit shows itself. The converted value is rounded to 0.1.
  */
-export function formatMeasureWithConversion(measure: { value: number; unit: HeightUnit | WeightUnit }): string {
+export function formatMeasureWithConversion(measure: {
+  value: number;
+  unit: HeightUnit | WeightUnit;
+}): string {
   const other = counterpartUnit[measure.unit];
   const converted = roundToStep(math.unit(measure.value, measure.unit).toNumber(other), 0.1);
   return `${formatNumber(measure.value)} ${measure.unit} (${formatNumber(converted)} ${other})`;

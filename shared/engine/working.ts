@@ -28,7 +28,8 @@ export function record(working: WorkingEntry[], line: WorkingStep): number {
     inputs: line.inputs,
     source: line.source,
   };
-  if (line.step !== undefined) entry.rounded = { value: roundToStep(line.value, line.step), step: line.step };
+  if (line.step !== undefined)
+    entry.rounded = { value: roundToStep(line.value, line.step), step: line.step };
   working.push(entry);
   return entry.rounded?.value ?? entry.value;
 }

@@ -14,7 +14,10 @@ const plainNumbers = new Map<number, Intl.NumberFormat>();
 function plain(maxDecimals: number): Intl.NumberFormat {
   let format = plainNumbers.get(maxDecimals);
   if (!format) {
-    format = new Intl.NumberFormat('en-GB', { maximumFractionDigits: maxDecimals, useGrouping: false });
+    format = new Intl.NumberFormat('en-GB', {
+      maximumFractionDigits: maxDecimals,
+      useGrouping: false,
+    });
     plainNumbers.set(maxDecimals, format);
   }
   return format;
@@ -27,7 +30,11 @@ export function formatPlainNumber(value: number | null | undefined, maxDecimals 
 }
 
 /** A number with its unit: "1800 s", "12.5 J/cm²", "0.25 mL". An empty unit prints the number alone. */
-export function formatQuantity(value: number | null | undefined, unit: string, maxDecimals = 2): string {
+export function formatQuantity(
+  value: number | null | undefined,
+  unit: string,
+  maxDecimals = 2,
+): string {
   const text = formatPlainNumber(value, maxDecimals);
   return text === noFigure || unit === '' ? text : `${text} ${unit}`;
 }
@@ -62,17 +69,32 @@ export interface DurationOptions {
   maxDecimals?: number;
 }
 
-export function formatDuration(seconds: number | null | undefined, style: DurationStyle, { rounding = 'nearest', maxDecimals = 2 }: DurationOptions = {}): string {
-  if (seconds === null || seconds === undefined || !Number.isFinite(seconds) || seconds < 0) return noFigure;
+export function formatDuration(
+  seconds: number | null | undefined,
+  style: DurationStyle,
+  { rounding = 'nearest', maxDecimals = 2 }: DurationOptions = {},
+): string {
+  if (seconds === null || seconds === undefined || !Number.isFinite(seconds) || seconds < 0)
+    return noFigure;
   const whole = Math.max(0, wholeSeconds(seconds, rounding));
   const parts = Duration.fromObject({ seconds: whole }).shiftTo('hours', 'minutes', 'seconds');
   if (style === 'clock') return parts.toFormat(parts.hours > 0 ? 'h:mm:ss' : 'mm:ss');
   if (style === 'hours-clock') return parts.toFormat('hh:mm:ss');
   if (style === 'spoken') {
-    const spoken = [parts.hours ? plural(parts.hours, 'hour') : '', parts.minutes ? plural(parts.minutes, 'minute') : '', parts.seconds || whole === 0 ? plural(parts.seconds, 'second') : ''];
+    const spoken = [
+      parts.hours ? plural(parts.hours, 'hour') : '',
+      parts.minutes ? plural(parts.minutes, 'minute') : '',
+      parts.seconds || whole === 0 ? plural(parts.seconds, 'second') : '',
+    ];
     return spoken.filter(Boolean).join(' ');
   }
-  const words = [parts.hours ? `${parts.hours} h` : '', parts.minutes ? `${parts.minutes} min` : '', parts.seconds || whole === 0 ? `${parts.seconds} s` : ''].filter(Boolean).join(' ');
+  const words = [
+    parts.hours ? `${parts.hours} h` : '',
+    parts.minutes ? `${parts.minutes} min` : '',
+    parts.seconds || whole === 0 ? `${parts.seconds} s` : '',
+  ]
+    .filter(Boolean)
+    .join(' ');
   if (style === 'words') return words;
   const exact = formatQuantity(seconds, 's', maxDecimals);
   return whole < 60 ? exact : `${exact} (${words})`;
@@ -99,10 +121,17 @@ export function zoneAbbreviation(at: DateTime): string {
  */
 export type UnitTimeStyle = 'sheet' | 'short' | 'day';
 
-const unitTimeFormats: Record<Exclude<UnitTimeStyle, 'day'>, string> = { sheet: 'cccc d LLLL yyyy, HH:mm', short: 'HH:mm' };
+const unitTimeFormats: Record<Exclude<UnitTimeStyle, 'day'>, string> = {
+  sheet: 'cccc d LLLL yyyy, HH:mm',
+  short: 'HH:mm',
+};
 
 /** A stored instant (ISO 8601) on the clock of the unit's IANA zone; an unreadable instant prints as given. */
-export function formatUnitTime(iso: string | null | undefined, zone: string, style: UnitTimeStyle): string {
+export function formatUnitTime(
+  iso: string | null | undefined,
+  zone: string,
+  style: UnitTimeStyle,
+): string {
   if (!iso) return noFigure;
   const at = DateTime.fromISO(iso, { zone: 'utc' }).setZone(zone).setLocale('en-GB');
   if (!at.isValid) return iso;

@@ -24,10 +24,13 @@ export function canMoveOrder(from: OrderStatus, to: OrderStatus): boolean {
 }
 
 /** Statuses an amendment may start from: signed, not yet in a session (its signing supersedes them). */
-export const amendableStatuses: readonly OrderStatus[] = (Object.keys(orderTransitions) as OrderStatus[]).filter((s) => orderTransitions[s].includes('superseded'));
+export const amendableStatuses: readonly OrderStatus[] = (
+  Object.keys(orderTransitions) as OrderStatus[]
+).filter((s) => orderTransitions[s].includes('superseded'));
 
 /** Statuses a move to `to` may start from. */
-const statusesMovingTo = (to: OrderStatus): readonly OrderStatus[] => (Object.keys(orderTransitions) as OrderStatus[]).filter((s) => orderTransitions[s].includes(to));
+const statusesMovingTo = (to: OrderStatus): readonly OrderStatus[] =>
+  (Object.keys(orderTransitions) as OrderStatus[]).filter((s) => orderTransitions[s].includes(to));
 
 /** Statuses that wait for the pharmacist's dose check (a match moves them to checked). */
 export const doseCheckStatuses: readonly OrderStatus[] = statusesMovingTo('checked');
@@ -41,27 +44,43 @@ export const sessionRunningStatuses: readonly OrderStatus[] = ['in-session'];
 /** Statuses of an order whose session has ended, reviewed or not. */
 export const sessionEndedStatuses: readonly OrderStatus[] = ['completed', 'stopped', 'reviewed'];
 /** Statuses of an order whose session has started: it has (or had) a session record. */
-export const sessionStartedStatuses: readonly OrderStatus[] = [...sessionRunningStatuses, ...sessionEndedStatuses];
+export const sessionStartedStatuses: readonly OrderStatus[] = [
+  ...sessionRunningStatuses,
+  ...sessionEndedStatuses,
+];
 /**
  * Statuses that take session events other than the start: a running session, and an ended one,
  * because a tablet's offline queue may deliver taps made before the end after it.
  */
 export const sessionEventStatuses: readonly OrderStatus[] = sessionStartedStatuses;
 /** Statuses in which the step clock opens for the nurse: before the session, and to go back to one that runs. */
-export const stepClockStatuses: readonly OrderStatus[] = [...readyForSessionStatuses, ...sessionRunningStatuses];
+export const stepClockStatuses: readonly OrderStatus[] = [
+  ...readyForSessionStatuses,
+  ...sessionRunningStatuses,
+];
 
 /**
  * Statuses that count as a treatment of the eye (the retreatment interval and the patient's
  * history): signed and standing. A draft, an order sent back and a replaced revision do not.
  */
-export const treatmentStatuses = ['signed', 'checked', 'prepared', 'ready', 'in-session', 'completed', 'stopped', 'reviewed'] as const satisfies readonly OrderStatus[];
+export const treatmentStatuses = [
+  'signed',
+  'checked',
+  'prepared',
+  'ready',
+  'in-session',
+  'completed',
+  'stopped',
+  'reviewed',
+] as const satisfies readonly OrderStatus[];
 
 export const awaitsDoseCheck = (status: OrderStatus) => doseCheckStatuses.includes(status);
 export const awaitsPreparation = (status: OrderStatus) => preparationStatuses.includes(status);
 export const isSessionRunning = (status: OrderStatus) => sessionRunningStatuses.includes(status);
 export const isSessionEnded = (status: OrderStatus) => sessionEndedStatuses.includes(status);
 export const hasSessionStarted = (status: OrderStatus) => sessionStartedStatuses.includes(status);
-export const isTreatment = (status: OrderStatus) => (treatmentStatuses as readonly OrderStatus[]).includes(status);
+export const isTreatment = (status: OrderStatus) =>
+  (treatmentStatuses as readonly OrderStatus[]).includes(status);
 
 /**
  * The status an order should have once its deviations' review stands as given. A running session
@@ -69,7 +88,10 @@ export const isTreatment = (status: OrderStatus) => (treatmentStatuses as readon
  * refused). An ended session is reviewed when nothing is open, and goes back to its outcome when
  * something is open again (a reopening, or a deviation a late tap brought).
  */
-export function statusAfterReview(status: OrderStatus, facts: { sessionOutcome: 'completed' | 'stopped'; openDeviations: number }): OrderStatus {
+export function statusAfterReview(
+  status: OrderStatus,
+  facts: { sessionOutcome: 'completed' | 'stopped'; openDeviations: number },
+): OrderStatus {
   if (!isSessionEnded(status)) return status;
   if (facts.openDeviations === 0) return 'reviewed';
   return status === 'reviewed' ? facts.sessionOutcome : status;
@@ -79,7 +101,10 @@ export function statusAfterReview(status: OrderStatus, facts: { sessionOutcome: 
  * After a late tap on an ended session: a reviewed session that now has an open deviation again
  * goes back to its outcome, so the auditor's queue shows it. Nothing else moves.
  */
-export function statusAfterLateEvent(status: OrderStatus, facts: { sessionOutcome: 'completed' | 'stopped'; openDeviations: number }): OrderStatus {
+export function statusAfterLateEvent(
+  status: OrderStatus,
+  facts: { sessionOutcome: 'completed' | 'stopped'; openDeviations: number },
+): OrderStatus {
   return status === 'reviewed' && facts.openDeviations > 0 ? facts.sessionOutcome : status;
 }
 
@@ -91,10 +116,19 @@ export function statusAfterLateEvent(status: OrderStatus, facts: { sessionOutcom
  */
 export const reprepareStatuses: readonly OrderStatus[] = ['prepared', 'in-session'];
 
-export function canReprepare(status: OrderStatus, facts: { beyondUsePassed: boolean; infusionStarted: boolean }): { allowed: true } | { allowed: false; why: string } {
-  if (!reprepareStatuses.includes(status)) return { allowed: false, why: `a drug is made up again only for a prepared order or a running session (this one is ${status})` };
-  if (!facts.beyondUsePassed) return { allowed: false, why: 'the drug made up is still within its beyond-use time' };
-  if (facts.infusionStarted) return { allowed: false, why: 'the infusion has started: the drug made up was given' };
+export function canReprepare(
+  status: OrderStatus,
+  facts: { beyondUsePassed: boolean; infusionStarted: boolean },
+): { allowed: true } | { allowed: false; why: string } {
+  if (!reprepareStatuses.includes(status))
+    return {
+      allowed: false,
+      why: `a drug is made up again only for a prepared order or a running session (this one is ${status})`,
+    };
+  if (!facts.beyondUsePassed)
+    return { allowed: false, why: 'the drug made up is still within its beyond-use time' };
+  if (facts.infusionStarted)
+    return { allowed: false, why: 'the infusion has started: the drug made up was given' };
   return { allowed: true };
 }
 
@@ -105,15 +139,35 @@ export function canReprepare(status: OrderStatus, facts: { beyondUsePassed: bool
  * that would start, end or withdraw (those change nothing once the session is over). While the
  * session runs, no tap is a late entry.
  */
-export type LateTapVerdict = { take: true } | { take: false; field: 'lateEntryReason'; why: string };
+export type LateTapVerdict =
+  { take: true } | { take: false; field: 'lateEntryReason'; why: string };
 
-export function lateTapVerdict(status: OrderStatus, facts: { tapMs: number; endedMs: number | null; lateEntry: boolean; endsOrWithdraws: boolean }): LateTapVerdict {
+export function lateTapVerdict(
+  status: OrderStatus,
+  facts: { tapMs: number; endedMs: number | null; lateEntry: boolean; endsOrWithdraws: boolean },
+): LateTapVerdict {
   const ended = isSessionEnded(status) && facts.endedMs !== null;
   if (!ended) {
-    return facts.lateEntry ? { take: false, field: 'lateEntryReason', why: 'lateEntryReason is only for a tap entered after the session ended; the session is running' } : { take: true };
+    return facts.lateEntry
+      ? {
+          take: false,
+          field: 'lateEntryReason',
+          why: 'lateEntryReason is only for a tap entered after the session ended; the session is running',
+        }
+      : { take: true };
   }
   if (facts.tapMs <= facts.endedMs!) return { take: true };
-  if (facts.endsOrWithdraws) return { take: false, field: 'lateEntryReason', why: 'a late entry cannot start, end or withdraw anything: the session has ended' };
-  if (!facts.lateEntry) return { take: false, field: 'lateEntryReason', why: 'the tap is timed after the session ended: send it as a late entry with lateEntryReason (5 to 500 characters)' };
+  if (facts.endsOrWithdraws)
+    return {
+      take: false,
+      field: 'lateEntryReason',
+      why: 'a late entry cannot start, end or withdraw anything: the session has ended',
+    };
+  if (!facts.lateEntry)
+    return {
+      take: false,
+      field: 'lateEntryReason',
+      why: 'the tap is timed after the session ended: send it as a late entry with lateEntryReason (5 to 500 characters)',
+    };
   return { take: true };
 }

@@ -39,16 +39,22 @@ function thicknessFacts(plan: DosePlan): { measuredUm: number; minimumUm: number
  * something the clinician never said.
  */
 export function measuredAnswer(question: Question, plan: DosePlan): 'yes' | 'no' | null {
-  if (question.measurement === 'stromal-thickness-below-minimum' && plan.thicknessOk !== null) return plan.thicknessOk ? 'no' : 'yes';
+  if (question.measurement === 'stromal-thickness-below-minimum' && plan.thicknessOk !== null)
+    return plan.thicknessOk ? 'no' : 'yes';
   return null;
 }
 
 /** The cautions answered yes, with the clinician's reason: what the standing banner shows after signing. */
-export function answeredCautions(definition: ProtocolDefinition, checklist: ChecklistAnswer[]): { id: string; question: string; reason: string }[] {
+export function answeredCautions(
+  definition: ProtocolDefinition,
+  checklist: ChecklistAnswer[],
+): { id: string; question: string; reason: string }[] {
   const answers = new Map(checklist.map((a) => [a.id, a]));
   return definition.contraindications.flatMap((question) => {
     const answer = answers.get(question.id);
-    return question.severity === 'caution' && answer?.answer === 'yes' ? [{ id: question.id, question: question.question, reason: answer.overrideReason ?? '' }] : [];
+    return question.severity === 'caution' && answer?.answer === 'yes'
+      ? [{ id: question.id, question: question.question, reason: answer.overrideReason ?? '' }]
+      : [];
   });
 }
 
@@ -66,17 +72,29 @@ export function signatureProblems(input: ReadinessInput): FieldProblem[] {
   const answers = new Map(input.checklist.map((a) => [a.id, a]));
   const known = new Set(input.definition.contraindications.map((c) => c.id));
   for (const answer of input.checklist) {
-    if (!known.has(answer.id)) problems.push({ path: `checklist.${answer.id}`, message: `checklist question ${answer.id} is not part of this protocol version` });
+    if (!known.has(answer.id))
+      problems.push({
+        path: `checklist.${answer.id}`,
+        message: `checklist question ${answer.id} is not part of this protocol version`,
+      });
   }
   for (const question of input.definition.contraindications) {
     const answer = answers.get(question.id);
     const measured = measuredAnswer(question, input.plan);
     const facts = thicknessFacts(input.plan);
     if (!answer) {
-      problems.push({ path: `checklist.${question.id}`, message: `answer "${question.question}" (yes or no)` });
+      problems.push({
+        path: `checklist.${question.id}`,
+        message: `answer "${question.question}" (yes or no)`,
+      });
     } else if (measured !== null && answer.answer !== measured) {
-      const said = facts ? `the stromal thickness entered (${formatNumber(facts.measuredUm)} µm) is ${measured === 'yes' ? 'below' : 'at or above'} the minimum of ${formatNumber(facts.minimumUm)} µm` : 'the measurement in this order says otherwise';
-      problems.push({ path: `checklist.${question.id}.answer`, message: `"${question.question}" is answered ${answer.answer}, but ${said}: correct the answer or the measurement` });
+      const said = facts
+        ? `the stromal thickness entered (${formatNumber(facts.measuredUm)} µm) is ${measured === 'yes' ? 'below' : 'at or above'} the minimum of ${formatNumber(facts.minimumUm)} µm`
+        : 'the measurement in this order says otherwise';
+      problems.push({
+        path: `checklist.${question.id}.answer`,
+        message: `"${question.question}" is answered ${answer.answer}, but ${said}: correct the answer or the measurement`,
+      });
     } else if (answer.answer === 'yes' && question.severity === 'absolute') {
       problems.push({
         path: `checklist.${question.id}.answer`,
@@ -84,22 +102,37 @@ export function signatureProblems(input: ReadinessInput): FieldProblem[] {
       });
     } else if (answer.answer === 'yes') {
       const weak = reasonOfSubstanceProblem(answer.overrideReason, question.question);
-      if (weak) problems.push({ path: `checklist.${question.id}.overrideReason`, message: `"${question.question}" is answered yes (a caution): ${weak}` });
+      if (weak)
+        problems.push({
+          path: `checklist.${question.id}.overrideReason`,
+          message: `"${question.question}" is answered yes (a caution): ${weak}`,
+        });
     }
   }
   const facts = thicknessFacts(input.plan);
   const cxl = input.definition.cxl;
   if (cxl && input.plan.thicknessOk === false) {
-    const thin = facts ? `the stroma (${formatNumber(facts.measuredUm)} µm) is below this protocol's minimum of ${formatNumber(facts.minimumUm)} µm` : "the stroma is below this protocol's minimum";
+    const thin = facts
+      ? `the stroma (${formatNumber(facts.measuredUm)} µm) is below this protocol's minimum of ${formatNumber(facts.minimumUm)} µm`
+      : "the stroma is below this protocol's minimum";
     if (!cxl.swellingAllowed) {
-      problems.push({ path: 'inputs.stromalThicknessUm', message: `${thin} and the protocol has no swelling step: do not treat with this protocol — the plan cannot be signed` });
+      problems.push({
+        path: 'inputs.stromalThicknessUm',
+        message: `${thin} and the protocol has no swelling step: do not treat with this protocol — the plan cannot be signed`,
+      });
     } else if (!input.swellingAcknowledged) {
-      problems.push({ path: 'swellingAcknowledged', message: `${thin}: acknowledge that the swelling step must bring it to ${formatNumber(cxl.minStromalThicknessUm)} µm before UV` });
+      problems.push({
+        path: 'swellingAcknowledged',
+        message: `${thin}: acknowledge that the swelling step must bring it to ${formatNumber(cxl.minStromalThicknessUm)} µm before UV`,
+      });
     }
   }
   for (const warning of input.plan.warnings) {
     if (warning.code === 'soft-limit' && warning.field && !input.softLimitReasons[warning.field]) {
-      problems.push({ path: `softLimitReasons.${warning.field}`, message: `${warning.message} — give a reason (5 to 500 characters) to go on` });
+      problems.push({
+        path: `softLimitReasons.${warning.field}`,
+        message: `${warning.message} — give a reason (5 to 500 characters) to go on`,
+      });
     }
   }
   if (input.recentTreatmentDays !== null && !input.retreatmentReason) {

@@ -8,9 +8,51 @@ export const substantialReasonMinWords = 3;
 
 /** Words that carry nothing on their own; a reason made only of them is a placeholder. */
 const fillerWords = new Set([
-  'n', 'a', 'na', 'ok', 'okay', 'k', 'none', 'nil', 'no', 'yes', 'y', 'test', 'testing', 'x', 'xx', 'xxx', 'tbc', 'tbd', 'todo',
-  'see', 'notes', 'note', 'above', 'below', 'as', 'per', 'fine', 'same', 'nothing', 'reason', 'asdf', 'etc', 'dito', 'ditto',
-  'done', 'checked', 'noted', 'agreed', 'unknown', 'whatever', 'blah', 'the', 'and', 'it', 'is',
+  'n',
+  'a',
+  'na',
+  'ok',
+  'okay',
+  'k',
+  'none',
+  'nil',
+  'no',
+  'yes',
+  'y',
+  'test',
+  'testing',
+  'x',
+  'xx',
+  'xxx',
+  'tbc',
+  'tbd',
+  'todo',
+  'see',
+  'notes',
+  'note',
+  'above',
+  'below',
+  'as',
+  'per',
+  'fine',
+  'same',
+  'nothing',
+  'reason',
+  'asdf',
+  'etc',
+  'dito',
+  'ditto',
+  'done',
+  'checked',
+  'noted',
+  'agreed',
+  'unknown',
+  'whatever',
+  'blah',
+  'the',
+  'and',
+  'it',
+  'is',
 ]);
 
 function wordsOf(text: string): string[] {
@@ -21,9 +63,13 @@ function wordsOf(text: string): string[] {
  * Why a reason is not one of substance, as a sentence that says what to write instead; null when
  * it is. `question` is the question the reason answers, so that repeating it does not count.
  */
-export function reasonOfSubstanceProblem(reason: string | null | undefined, question?: string): string | null {
+export function reasonOfSubstanceProblem(
+  reason: string | null | undefined,
+  question?: string,
+): string | null {
   const text = (reason ?? '').trim();
-  if (text === '') return `give a reason (at least ${substantialReasonMinChars} characters and ${substantialReasonMinWords} words) saying why treatment is still right`;
+  if (text === '')
+    return `give a reason (at least ${substantialReasonMinChars} characters and ${substantialReasonMinWords} words) saying why treatment is still right`;
   const words = wordsOf(text);
   const distinct = new Set(words);
   if (text.length < substantialReasonMinChars || distinct.size < substantialReasonMinWords) {

@@ -18,9 +18,13 @@ export interface RecordedWeight {
 }
 
 /** The newest recorded weight among measurements listed newest first. */
-export function lastRecordedWeight(measurements: readonly RecordedMeasurement[]): RecordedWeight | null {
+export function lastRecordedWeight(
+  measurements: readonly RecordedMeasurement[],
+): RecordedWeight | null {
   const last = measurements.find((m) => m.weight !== null && m.weightKg !== null);
-  return last?.weight && last.weightKg !== null ? { weight: last.weight, weightKg: last.weightKg, measuredAt: last.measuredAt } : null;
+  return last?.weight && last.weightKg !== null
+    ? { weight: last.weight, weightKg: last.weightKg, measuredAt: last.measuredAt }
+    : null;
 }
 
 export interface WeightChange {
@@ -50,12 +54,24 @@ export function weightChangeNeedingReason(
   if (!(ageMs < rule.withinDays * 86_400_000)) return null;
   const changePct = ((currentKg - last.weightKg) / last.weightKg) * 100;
   if (Math.abs(changePct) <= rule.maxPct + 1e-9) return null;
-  return { last, current, currentKg, daysAgo: Math.max(0, Math.floor(ageMs / 86_400_000)), changePct, rule };
+  return {
+    last,
+    current,
+    currentKg,
+    daysAgo: Math.max(0, Math.floor(ageMs / 86_400_000)),
+    changePct,
+    rule,
+  };
 }
 
 /** What the clinician reads: both weights in both units, the change, and the rule it breaks. */
 export function weightChangeMessage(change: WeightChange): string {
   const pct = formatNumber(roundToStep(Math.abs(change.changePct), 0.1));
-  const when = change.daysAgo === 0 ? 'today' : change.daysAgo === 1 ? '1 day ago' : `${change.daysAgo} days ago`;
+  const when =
+    change.daysAgo === 0
+      ? 'today'
+      : change.daysAgo === 1
+        ? '1 day ago'
+        : `${change.daysAgo} days ago`;
   return `the weight ${formatMeasureWithConversion(change.current)} is ${pct} % ${change.changePct < 0 ? 'less' : 'more'} than the ${formatMeasureWithConversion(change.last.weight)} recorded ${when} (more than ${formatNumber(change.rule.maxPct)} % within ${formatNumber(change.rule.withinDays)} days): check the weight and its unit, and give a reason (5 to 500 characters)`;
 }

@@ -15,7 +15,8 @@ function write(value: unknown, path: string): string {
     case 'boolean':
       return JSON.stringify(value);
     case 'number':
-      if (!Number.isFinite(value)) throw new TypeError(`canonicalJson: ${path} is ${value}, which JSON cannot carry`);
+      if (!Number.isFinite(value))
+        throw new TypeError(`canonicalJson: ${path} is ${value}, which JSON cannot carry`);
       return JSON.stringify(value);
     case 'object': {
       if (Array.isArray(value)) {

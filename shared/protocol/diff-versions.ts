@@ -9,7 +9,8 @@ import type { ProtocolVersion } from './protocol-schema';
  */
 
 /** What sits at the end of a path: a JSON scalar, or an empty array or object (kept so it is not lost). */
-export type JsonLeaf = string | number | boolean | null | readonly [] | Readonly<Record<string, never>>;
+export type JsonLeaf =
+  string | number | boolean | null | readonly [] | Readonly<Record<string, never>>;
 
 export type ChangeKind = 'added' | 'removed' | 'changed';
 
@@ -23,7 +24,9 @@ export type ProtocolDifference = {
 };
 
 /** Every path of both versions, including those that did not change, in reading order. */
-export type ProtocolComparisonRow = Omit<ProtocolDifference, 'change'> & { change: ChangeKind | 'unchanged' };
+export type ProtocolComparisonRow = Omit<ProtocolDifference, 'change'> & {
+  change: ChangeKind | 'unchanged';
+};
 
 const identifier = /^[A-Za-z_$][A-Za-z0-9_$]*$/;
 
@@ -52,7 +55,8 @@ export function flattenJson(value: unknown): Map<string, JsonLeaf> {
       return;
     }
     if (typeof node === 'number') {
-      if (!Number.isFinite(node)) throw new TypeError(`flattenJson: ${where} is ${node}, which JSON cannot carry`);
+      if (!Number.isFinite(node))
+        throw new TypeError(`flattenJson: ${where} is ${node}, which JSON cannot carry`);
       leaves.set(where, node);
       return;
     }
@@ -67,7 +71,9 @@ export function flattenJson(value: unknown): Map<string, JsonLeaf> {
       for (const key of keys) visit(node[key], childPath(path, key));
       return;
     }
-    throw new TypeError(`flattenJson: ${where} is ${typeof node === 'object' ? 'not a plain object' : typeof node}, which JSON cannot carry`);
+    throw new TypeError(
+      `flattenJson: ${where} is ${typeof node === 'object' ? 'not a plain object' : typeof node}, which JSON cannot carry`,
+    );
   };
   visit(value, '');
   return leaves;
@@ -102,7 +108,8 @@ function mergedOrder(before: string[], after: string[]): string[] {
       next = Math.max(next, at + 1);
     } else {
       // What was removed at this point reads before what was added there, as in a diff.
-      while (next < before.length && !inAfter.has(before[next] as string)) order.push(before[next++] as string);
+      while (next < before.length && !inAfter.has(before[next] as string))
+        order.push(before[next++] as string);
     }
     order.push(path);
   }
@@ -121,12 +128,20 @@ export function compareJson(a: unknown, b: unknown): ProtocolComparisonRow[] {
     const afterHas = after.has(path);
     if (!afterHas) return { path, before: was, after: undefined, change: 'removed' };
     if (!beforeHas) return { path, before: undefined, after: now, change: 'added' };
-    return { path, before: was, after: now, change: sameLeaf(was as JsonLeaf, now as JsonLeaf) ? 'unchanged' : 'changed' };
+    return {
+      path,
+      before: was,
+      after: now,
+      change: sameLeaf(was as JsonLeaf, now as JsonLeaf) ? 'unchanged' : 'changed',
+    };
   });
 }
 
 /** Every path of two protocol versions with whether it changed; the screen's "show all" view. */
-export function compareProtocolVersions(a: ProtocolVersion, b: ProtocolVersion): ProtocolComparisonRow[] {
+export function compareProtocolVersions(
+  a: ProtocolVersion,
+  b: ProtocolVersion,
+): ProtocolComparisonRow[] {
   return compareJson(a, b);
 }
 

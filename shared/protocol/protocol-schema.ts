@@ -16,7 +16,10 @@ function kebabId(field: string) {
 }
 
 function text(field: string) {
-  return z.string({ error: `${field} is required` }).trim().min(1, `${field} must not be empty`);
+  return z
+    .string({ error: `${field} is required` })
+    .trim()
+    .min(1, `${field} must not be empty`);
 }
 
 function positive(field: string, unitText: string) {
@@ -35,13 +38,19 @@ function wholePositive(field: string, unitText: string) {
 }
 
 const rangeSchema = z
-  .strictObject({ min: z.number({ error: 'min must be a number' }), max: z.number({ error: 'max must be a number' }) })
+  .strictObject({
+    min: z.number({ error: 'min must be a number' }),
+    max: z.number({ error: 'max must be a number' }),
+  })
   .refine((range) => range.min <= range.max, 'min must not exceed max');
 
 /** Soft limits warn and need a reason; hard limits refuse. Soft must sit inside hard. */
 const inputLimitSchema = z
   .strictObject({ soft: rangeSchema, hard: rangeSchema })
-  .refine((limit) => limit.hard.min > 0, { message: 'hard.min must be greater than 0', path: ['hard', 'min'] })
+  .refine((limit) => limit.hard.min > 0, {
+    message: 'hard.min must be greater than 0',
+    path: ['hard', 'min'],
+  })
   .refine((limit) => limit.soft.min >= limit.hard.min && limit.soft.max <= limit.hard.max, {
     message: 'the soft range must lie inside the hard range',
     path: ['soft'],
@@ -54,7 +63,10 @@ export type InputLimit = z.infer<typeof inputLimitSchema>;
  */
 const softOnlyLimitSchema = z
   .strictObject({ soft: rangeSchema })
-  .refine((limit) => limit.soft.min > 0, { message: 'soft.min must be greater than 0', path: ['soft', 'min'] });
+  .refine((limit) => limit.soft.min > 0, {
+    message: 'soft.min must be greater than 0',
+    path: ['soft', 'min'],
+  });
 export type SoftOnlyLimit = z.infer<typeof softOnlyLimitSchema>;
 
 /**
@@ -94,14 +106,19 @@ const sourceSchema = z.strictObject({
   /** What this source stands behind in this file. */
   supports: text('sources[].supports'),
   /** published: read in the publication; memory: recalled, unchecked; practice: common practice, no single source. */
-  status: z.enum(sourceStatuses, { error: `sources[].status must be one of ${sourceStatuses.join(', ')}` }),
+  status: z.enum(sourceStatuses, {
+    error: `sources[].status must be one of ${sourceStatuses.join(', ')}`,
+  }),
 });
 
 const approvalSchema = z.strictObject({
   approvedBy: z
     .array(text('approval.approvedBy[]'))
     .min(2, 'approval.approvedBy must name at least two people (two-person approval)')
-    .refine((names) => new Set(names).size === names.length, 'approval.approvedBy must name different people'),
+    .refine(
+      (names) => new Set(names).size === names.length,
+      'approval.approvedBy must name different people',
+    ),
   approvedOn: z.iso.date({ error: 'approval.approvedOn must be an ISO date (YYYY-MM-DD)' }),
   note: text('approval.note'),
 });
@@ -221,7 +238,9 @@ const stepSchema = z.strictObject({
   /** The step clock cues (e.g. a drop) at this interval. */
   cueEveryS: positive('steps[].cueEveryS', 's').optional(),
   /** A step run only in a condition, e.g. swelling when the cornea is too thin. */
-  onlyIf: z.enum(['thickness-below-minimum'], { error: 'steps[].onlyIf must be thickness-below-minimum' }).optional(),
+  onlyIf: z
+    .enum(['thickness-below-minimum'], { error: 'steps[].onlyIf must be thickness-below-minimum' })
+    .optional(),
 });
 export type ProtocolStep = z.infer<typeof stepSchema>;
 
@@ -233,13 +252,19 @@ const contraindicationSchema = z.strictObject({
   id: kebabId('contraindications[].id'),
   question: text('contraindications[].question'),
   /** absolute: a yes stops the order; caution: a yes needs a clinician's note. */
-  severity: z.enum(['absolute', 'caution'], { error: 'contraindications[].severity must be absolute or caution' }),
+  severity: z.enum(['absolute', 'caution'], {
+    error: 'contraindications[].severity must be absolute or caution',
+  }),
   source: text('contraindications[].source'),
   /**
    * The measurement in the same order that answers this question: an answer that contradicts it
    * is refused at signing (absent in versions written before this field).
    */
-  measurement: z.enum(contraindicationMeasurements, { error: `contraindications[].measurement must be one of ${contraindicationMeasurements.join(', ')}` }).optional(),
+  measurement: z
+    .enum(contraindicationMeasurements, {
+      error: `contraindications[].measurement must be one of ${contraindicationMeasurements.join(', ')}`,
+    })
+    .optional(),
 });
 
 const protocolVersionObject = z.strictObject({
@@ -255,7 +280,9 @@ const protocolVersionObject = z.strictObject({
   timing: timingSchema.nullable(),
   cxl: cxlSchema.nullable(),
   rounding: roundingSchema,
-  bsaFormulaDefault: z.enum(bsaFormulaNames, { error: `bsaFormulaDefault must be one of ${bsaFormulaNames.join(', ')}` }),
+  bsaFormulaDefault: z.enum(bsaFormulaNames, {
+    error: `bsaFormulaDefault must be one of ${bsaFormulaNames.join(', ')}`,
+  }),
   inputLimits: inputLimitsSchema,
   tolerances: tolerancesSchema,
   retreatmentMinDays: wholePositive('retreatmentMinDays', 'days').nullable(),
@@ -272,7 +299,10 @@ function duplicates(values: string[]): string[] {
 }
 
 /** UV on-time stretched by a pulsed cycle: on-time × (on + off) ÷ on. */
-export function pulsedElapsedS(onTimeS: number, pulse: { onS: number; offS: number } | null): number {
+export function pulsedElapsedS(
+  onTimeS: number,
+  pulse: { onS: number; offS: number } | null,
+): number {
   return pulse === null ? onTimeS : (onTimeS * (pulse.onS + pulse.offS)) / pulse.onS;
 }
 
@@ -289,17 +319,24 @@ function checkCommon(p: ProtocolShape, issues: Issue[]): void {
     ['sources', p.sources.map((source) => source.id)],
     ['contraindications', p.contraindications.map((item) => item.id)],
   ] as const) {
-    for (const id of duplicates(values)) issues.push({ path: [field], message: `${field} ids must be unique (${id} repeats)` });
+    for (const id of duplicates(values))
+      issues.push({ path: [field], message: `${field} ids must be unique (${id} repeats)` });
   }
   p.contraindications.forEach((item, index) => {
     if (item.measurement !== undefined && p.kind !== 'cxl') {
-      issues.push({ path: ['contraindications', index, 'measurement'], message: `contraindications[].measurement ${item.measurement} applies to a cxl protocol only` });
+      issues.push({
+        path: ['contraindications', index, 'measurement'],
+        message: `contraindications[].measurement ${item.measurement} applies to a cxl protocol only`,
+      });
     }
   });
   const allowedKinds = stepKindsByProtocolKind[p.kind];
   p.steps.forEach((step, index) => {
     if (!allowedKinds.includes(step.kind)) {
-      issues.push({ path: ['steps', index, 'kind'], message: `a ${p.kind} protocol cannot have a ${step.kind} step (allowed: ${allowedKinds.join(', ')})` });
+      issues.push({
+        path: ['steps', index, 'kind'],
+        message: `a ${p.kind} protocol cannot have a ${step.kind} step (allowed: ${allowedKinds.join(', ')})`,
+      });
     }
   });
 }
@@ -317,7 +354,10 @@ function checkKindFields(p: ProtocolShape, issues: Issue[]): void {
     [['tolerances', 'infusionDurationMin'], p.tolerances.infusionDurationMin !== null],
     [['tolerances', 'lightStartMin'], p.tolerances.lightStartMin !== null],
     [['tolerances', 'drugVolumePct'], p.tolerances.drugVolumePct !== null],
-    [['tolerances', 'reconstitutionToInfusionMaxH'], p.tolerances.reconstitutionToInfusionMaxH !== null],
+    [
+      ['tolerances', 'reconstitutionToInfusionMaxH'],
+      p.tolerances.reconstitutionToInfusionMaxH !== null,
+    ],
     [['tolerances', 'doseCheck'], p.tolerances.doseCheck !== null],
   ];
   const cxlPresence: [path: (string | number)[], present: boolean][] = [
@@ -327,14 +367,22 @@ function checkKindFields(p: ProtocolShape, issues: Issue[]): void {
     [['tolerances', 'dropGapPct'], p.tolerances.dropGapPct !== null],
   ];
   for (const [path, present] of presence) {
-    if (isPdt && !present) issues.push({ path, message: `${path.join('.')} is required for a pdt protocol` });
-    if (!isPdt && present) issues.push({ path, message: `${path.join('.')} must be null for a cxl protocol` });
+    if (isPdt && !present)
+      issues.push({ path, message: `${path.join('.')} is required for a pdt protocol` });
+    if (!isPdt && present)
+      issues.push({ path, message: `${path.join('.')} must be null for a cxl protocol` });
   }
   for (const [path, present] of cxlPresence) {
-    if (!isPdt && !present) issues.push({ path, message: `${path.join('.')} is required for a cxl protocol` });
-    if (isPdt && present) issues.push({ path, message: `${path.join('.')} must be null for a pdt protocol` });
+    if (!isPdt && !present)
+      issues.push({ path, message: `${path.join('.')} is required for a cxl protocol` });
+    if (isPdt && present)
+      issues.push({ path, message: `${path.join('.')} must be null for a pdt protocol` });
   }
-  if (isPdt && p.light.pulse !== null) issues.push({ path: ['light', 'pulse'], message: 'light.pulse must be null for a pdt protocol' });
+  if (isPdt && p.light.pulse !== null)
+    issues.push({
+      path: ['light', 'pulse'],
+      message: 'light.pulse must be null for a pdt protocol',
+    });
 }
 
 function stepIndex(p: ProtocolShape, kind: StepKind): number {
@@ -353,16 +401,27 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
       message: `drug.vialContentMg ÷ drug.reconstitutedVolumeMl gives ${concentrationFromVial} mg/mL, more than ${protocolAgreementPct}% from drug.concentrationMgPerMl (${drug.concentrationMgPerMl} mg/mL)`,
     });
   }
-  if (drug.withdrawableVolumeMlPerVial !== undefined && drug.withdrawableVolumeMlPerVial > drug.reconstitutedVolumeMl) {
-    issues.push({ path: ['drug', 'withdrawableVolumeMlPerVial'], message: 'drug.withdrawableVolumeMlPerVial cannot exceed drug.reconstitutedVolumeMl' });
+  if (
+    drug.withdrawableVolumeMlPerVial !== undefined &&
+    drug.withdrawableVolumeMlPerVial > drug.reconstitutedVolumeMl
+  ) {
+    issues.push({
+      path: ['drug', 'withdrawableVolumeMlPerVial'],
+      message: 'drug.withdrawableVolumeMlPerVial cannot exceed drug.reconstitutedVolumeMl',
+    });
   }
   if (drug.reconstitutionVolumeMl > drug.reconstitutedVolumeMl) {
-    issues.push({ path: ['drug', 'reconstitutionVolumeMl'], message: 'drug.reconstitutionVolumeMl cannot exceed drug.reconstitutedVolumeMl' });
+    issues.push({
+      path: ['drug', 'reconstitutionVolumeMl'],
+      message: 'drug.reconstitutionVolumeMl cannot exceed drug.reconstitutedVolumeMl',
+    });
   }
   // The largest patient the hard limits admit must still fit the final volume, so that a valid
   // input can never produce a negative diluent volume.
   const { heightCm, weightKg } = p.inputLimits;
-  const largestBsaM2 = Math.max(...bsaFormulaNames.map((name) => bsaFormulas[name].bsaM2(heightCm.hard.max, weightKg.hard.max)));
+  const largestBsaM2 = Math.max(
+    ...bsaFormulaNames.map((name) => bsaFormulas[name].bsaM2(heightCm.hard.max, weightKg.hard.max)),
+  );
   const largestDrugVolumeMl = (drug.doseMgPerM2 * largestBsaM2) / drug.concentrationMgPerMl;
   if (largestDrugVolumeMl > drug.finalVolumeMl) {
     issues.push({
@@ -373,7 +432,11 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
   // The syringe graduation must keep the drawn dose within the engine's limit even for the
   // smallest patient the hard limits admit.
   if (drug.syringeGraduationMl !== undefined) {
-    const smallestBsaM2 = Math.min(...bsaFormulaNames.map((name) => bsaFormulas[name].bsaM2(heightCm.hard.min, weightKg.hard.min)));
+    const smallestBsaM2 = Math.min(
+      ...bsaFormulaNames.map((name) =>
+        bsaFormulas[name].bsaM2(heightCm.hard.min, weightKg.hard.min),
+      ),
+    );
     const smallestDrugVolumeMl = (drug.doseMgPerM2 * smallestBsaM2) / drug.concentrationMgPerMl;
     const worstPct = worstDrawnDoseShiftPct(drug.syringeGraduationMl, smallestDrugVolumeMl);
     if (worstPct > maxDrawnDoseShiftPct) {
@@ -384,11 +447,18 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
     }
   }
   if (timing.lightStartAfterInfusionStartMin < drug.infusionMin) {
-    issues.push({ path: ['timing', 'lightStartAfterInfusionStartMin'], message: 'timing.lightStartAfterInfusionStartMin cannot be earlier than the end of the infusion (drug.infusionMin)' });
+    issues.push({
+      path: ['timing', 'lightStartAfterInfusionStartMin'],
+      message:
+        'timing.lightStartAfterInfusionStartMin cannot be earlier than the end of the infusion (drug.infusionMin)',
+    });
   }
   const maxReconstitutionH = p.tolerances.reconstitutionToInfusionMaxH;
   if (maxReconstitutionH !== null && maxReconstitutionH > drug.beyondUseH) {
-    issues.push({ path: ['tolerances', 'reconstitutionToInfusionMaxH'], message: 'tolerances.reconstitutionToInfusionMaxH cannot exceed drug.beyondUseH' });
+    issues.push({
+      path: ['tolerances', 'reconstitutionToInfusionMaxH'],
+      message: 'tolerances.reconstitutionToInfusionMaxH cannot exceed drug.beyondUseH',
+    });
   }
   const gld = p.inputLimits.lesionGldUm;
   if (gld !== null && gld.hard.max + spotMarginUm > maxSpotUm) {
@@ -401,18 +471,29 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
   const infusion = stepIndex(p, 'infusion');
   const light = stepIndex(p, 'light');
   if (infusion < 0 || light < 0 || light < infusion) {
-    issues.push({ path: ['steps'], message: 'a pdt protocol needs an infusion step followed later by a light step' });
+    issues.push({
+      path: ['steps'],
+      message: 'a pdt protocol needs an infusion step followed later by a light step',
+    });
     return;
   }
   const infusionStep = p.steps[infusion];
   if (infusionStep && infusionStep.durationS !== drug.infusionMin * 60) {
-    issues.push({ path: ['steps', infusion, 'durationS'], message: `the infusion step must last drug.infusionMin × 60 = ${drug.infusionMin * 60} s` });
+    issues.push({
+      path: ['steps', infusion, 'durationS'],
+      message: `the infusion step must last drug.infusionMin × 60 = ${drug.infusionMin * 60} s`,
+    });
   }
   const lightStep = p.steps[light];
   if (lightStep && lightStep.durationS !== p.light.exposureS) {
-    issues.push({ path: ['steps', light, 'durationS'], message: `the light step must last light.exposureS = ${p.light.exposureS} s` });
+    issues.push({
+      path: ['steps', light, 'durationS'],
+      message: `the light step must last light.exposureS = ${p.light.exposureS} s`,
+    });
   }
-  const beforeLightS = p.steps.slice(infusion, light).reduce((sum, step) => sum + (step.durationS ?? Number.NaN), 0);
+  const beforeLightS = p.steps
+    .slice(infusion, light)
+    .reduce((sum, step) => sum + (step.durationS ?? Number.NaN), 0);
   if (beforeLightS !== timing.lightStartAfterInfusionStartMin * 60) {
     issues.push({
       path: ['steps'],
@@ -424,44 +505,90 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
 function checkCxl(p: ProtocolShape, issues: Issue[]): void {
   const { cxl } = p;
   if (cxl === null) return;
-  if (cxl.swellingAllowed !== (cxl.swellingDropIntervalS !== null) || cxl.swellingAllowed !== (cxl.swellingRiboflavin !== null)) {
-    issues.push({ path: ['cxl', 'swellingDropIntervalS'], message: 'cxl.swellingDropIntervalS and cxl.swellingRiboflavin are required when cxl.swellingAllowed is true, and must be null otherwise' });
+  if (
+    cxl.swellingAllowed !== (cxl.swellingDropIntervalS !== null) ||
+    cxl.swellingAllowed !== (cxl.swellingRiboflavin !== null)
+  ) {
+    issues.push({
+      path: ['cxl', 'swellingDropIntervalS'],
+      message:
+        'cxl.swellingDropIntervalS and cxl.swellingRiboflavin are required when cxl.swellingAllowed is true, and must be null otherwise',
+    });
   }
   const thicknessLimit = p.inputLimits.stromalThicknessUm;
-  if (thicknessLimit !== null && (cxl.minStromalThicknessUm < thicknessLimit.hard.min || cxl.minStromalThicknessUm > thicknessLimit.hard.max)) {
-    issues.push({ path: ['cxl', 'minStromalThicknessUm'], message: 'cxl.minStromalThicknessUm must lie inside inputLimits.stromalThicknessUm.hard' });
+  if (
+    thicknessLimit !== null &&
+    (cxl.minStromalThicknessUm < thicknessLimit.hard.min ||
+      cxl.minStromalThicknessUm > thicknessLimit.hard.max)
+  ) {
+    issues.push({
+      path: ['cxl', 'minStromalThicknessUm'],
+      message: 'cxl.minStromalThicknessUm must lie inside inputLimits.stromalThicknessUm.hard',
+    });
   }
   const shortfall = p.tolerances.soakShortfallMin;
   if (shortfall !== null && shortfall >= cxl.soakMin) {
-    issues.push({ path: ['tolerances', 'soakShortfallMin'], message: 'tolerances.soakShortfallMin must be less than cxl.soakMin' });
+    issues.push({
+      path: ['tolerances', 'soakShortfallMin'],
+      message: 'tolerances.soakShortfallMin must be less than cxl.soakMin',
+    });
   }
 
   const soak = stepIndex(p, 'soak');
   const thickness = stepIndex(p, 'thickness');
   const uv = stepIndex(p, 'uv');
   if (soak < 0 || thickness < 0 || uv < 0 || !(soak < thickness && thickness < uv)) {
-    issues.push({ path: ['steps'], message: 'a cxl protocol needs a soak step, then a thickness step, then a uv step' });
+    issues.push({
+      path: ['steps'],
+      message: 'a cxl protocol needs a soak step, then a thickness step, then a uv step',
+    });
     return;
   }
   const soakStep = p.steps[soak];
-  if (soakStep && (soakStep.durationS !== cxl.soakMin * 60 || soakStep.cueEveryS !== cxl.dropIntervalSoakMin * 60)) {
-    issues.push({ path: ['steps', soak], message: `the soak step must last cxl.soakMin × 60 = ${cxl.soakMin * 60} s with a cue every cxl.dropIntervalSoakMin × 60 = ${cxl.dropIntervalSoakMin * 60} s` });
+  if (
+    soakStep &&
+    (soakStep.durationS !== cxl.soakMin * 60 || soakStep.cueEveryS !== cxl.dropIntervalSoakMin * 60)
+  ) {
+    issues.push({
+      path: ['steps', soak],
+      message: `the soak step must last cxl.soakMin × 60 = ${cxl.soakMin * 60} s with a cue every cxl.dropIntervalSoakMin × 60 = ${cxl.dropIntervalSoakMin * 60} s`,
+    });
   }
   const uvStep = p.steps[uv];
   const uvElapsedS = pulsedElapsedS(p.light.exposureS, p.light.pulse);
-  if (uvStep && (uvStep.durationS !== uvElapsedS || uvStep.cueEveryS !== cxl.dropIntervalUvMin * 60)) {
-    issues.push({ path: ['steps', uv], message: `the uv step must last the elapsed UV time ${uvElapsedS} s with a cue every cxl.dropIntervalUvMin × 60 = ${cxl.dropIntervalUvMin * 60} s` });
+  if (
+    uvStep &&
+    (uvStep.durationS !== uvElapsedS || uvStep.cueEveryS !== cxl.dropIntervalUvMin * 60)
+  ) {
+    issues.push({
+      path: ['steps', uv],
+      message: `the uv step must last the elapsed UV time ${uvElapsedS} s with a cue every cxl.dropIntervalUvMin × 60 = ${cxl.dropIntervalUvMin * 60} s`,
+    });
   }
   const swelling = stepIndex(p, 'swelling');
   const swellingStep = p.steps[swelling];
   if (cxl.swellingAllowed) {
     if (!swellingStep || swelling < thickness || swelling > uv) {
-      issues.push({ path: ['steps'], message: 'cxl.swellingAllowed needs a swelling step between the thickness step and the uv step' });
-    } else if (swellingStep.onlyIf !== 'thickness-below-minimum' || swellingStep.cueEveryS !== cxl.swellingDropIntervalS) {
-      issues.push({ path: ['steps', swelling], message: 'the swelling step must run only if the thickness is below the minimum, with a cue every cxl.swellingDropIntervalS' });
+      issues.push({
+        path: ['steps'],
+        message:
+          'cxl.swellingAllowed needs a swelling step between the thickness step and the uv step',
+      });
+    } else if (
+      swellingStep.onlyIf !== 'thickness-below-minimum' ||
+      swellingStep.cueEveryS !== cxl.swellingDropIntervalS
+    ) {
+      issues.push({
+        path: ['steps', swelling],
+        message:
+          'the swelling step must run only if the thickness is below the minimum, with a cue every cxl.swellingDropIntervalS',
+      });
     }
   } else if (swellingStep) {
-    issues.push({ path: ['steps', swelling], message: 'a swelling step needs cxl.swellingAllowed to be true' });
+    issues.push({
+      path: ['steps', swelling],
+      message: 'a swelling step needs cxl.swellingAllowed to be true',
+    });
   }
 }
 
@@ -472,7 +599,8 @@ export const protocolVersionSchema = protocolVersionObject.superRefine((protocol
   checkKindFields(protocol, issues);
   if (protocol.kind === 'pdt') checkPdt(protocol, issues);
   else checkCxl(protocol, issues);
-  for (const issue of issues) ctx.addIssue({ code: 'custom', message: issue.message, path: issue.path });
+  for (const issue of issues)
+    ctx.addIssue({ code: 'custom', message: issue.message, path: issue.path });
 });
 export type ProtocolVersion = z.infer<typeof protocolVersionSchema>;
 

@@ -3,8 +3,16 @@ import { capabilities, roles } from '../roles';
 import { newPasswordSchema } from './people';
 
 export const loginRequestSchema = z.object({
-  email: z.string({ error: 'email is required' }).trim().min(1, 'email is required').max(254, 'email must be at most 254 characters').email('email must be an e-mail address'),
-  password: z.string({ error: 'password is required' }).min(1, 'password is required').max(200, 'password must be at most 200 characters'),
+  email: z
+    .string({ error: 'email is required' })
+    .trim()
+    .min(1, 'email is required')
+    .max(254, 'email must be at most 254 characters')
+    .email('email must be an e-mail address'),
+  password: z
+    .string({ error: 'password is required' })
+    .min(1, 'password is required')
+    .max(200, 'password must be at most 200 characters'),
 });
 export type LoginRequest = z.infer<typeof loginRequestSchema>;
 
@@ -18,17 +26,25 @@ export const sessionUserSchema = z.object({
 export type SessionUser = z.infer<typeof sessionUserSchema>;
 
 export const changePasswordSchema = z.object({
-  currentPassword: z.string({ error: 'currentPassword is required' }).min(1, 'currentPassword is required').max(200, 'currentPassword must be at most 200 characters'),
+  currentPassword: z
+    .string({ error: 'currentPassword is required' })
+    .min(1, 'currentPassword is required')
+    .max(200, 'currentPassword must be at most 200 characters'),
   newPassword: newPasswordSchema('newPassword'),
 });
 export type ChangePassword = z.infer<typeof changePasswordSchema>;
 
 /** The token from an e-mailed link: 43 characters of base64url. */
-const linkToken = z.string({ error: 'token is required' }).regex(/^[A-Za-z0-9_-]{43}$/, 'token must be the code from the e-mailed link');
+const linkToken = z
+  .string({ error: 'token is required' })
+  .regex(/^[A-Za-z0-9_-]{43}$/, 'token must be the code from the e-mailed link');
 
 export const passwordLinkCheckSchema = z.object({ token: linkToken });
 
-export const setPasswordSchema = z.object({ token: linkToken, password: newPasswordSchema('password') });
+export const setPasswordSchema = z.object({
+  token: linkToken,
+  password: newPasswordSchema('password'),
+});
 export type SetPassword = z.infer<typeof setPasswordSchema>;
 
 export const passwordLinkInfoSchema = z.object({

@@ -16,51 +16,72 @@ function positiveNumber(field: string, unitText: string) {
   return z.number({ error: range }).positive(range);
 }
 
-export const planInputsSchema = z.strictObject({
-  height: z
-    .strictObject({
-      value: positiveNumber('height.value', 'in the unit given'),
-      unit: z.enum(heightUnits, { error: `height.unit must be one of ${heightUnits.join(', ')}` }),
-    }, { error: 'height must be an object { value, unit }' })
-    .optional(),
-  weight: z
-    .strictObject({
-      value: positiveNumber('weight.value', 'in the unit given'),
-      unit: z.enum(weightUnits, { error: `weight.unit must be one of ${weightUnits.join(', ')}` }),
-    }, { error: 'weight must be an object { value, unit }' })
-    .optional(),
-  bsaFormula: z.enum(bsaFormulaNames, { error: `bsaFormula must be one of ${bsaFormulaNames.join(', ')}` }).optional(),
-  lesionGldUm: positiveNumber('lesionGldUm', 'µm').optional(),
-  lensMagnification: positiveNumber('lensMagnification', '(a factor)').optional(),
-  stromalThicknessUm: positiveNumber('stromalThicknessUm', 'µm').optional(),
-}, { error: 'inputs must be an object of measurements' });
+export const planInputsSchema = z.strictObject(
+  {
+    height: z
+      .strictObject(
+        {
+          value: positiveNumber('height.value', 'in the unit given'),
+          unit: z.enum(heightUnits, {
+            error: `height.unit must be one of ${heightUnits.join(', ')}`,
+          }),
+        },
+        { error: 'height must be an object { value, unit }' },
+      )
+      .optional(),
+    weight: z
+      .strictObject(
+        {
+          value: positiveNumber('weight.value', 'in the unit given'),
+          unit: z.enum(weightUnits, {
+            error: `weight.unit must be one of ${weightUnits.join(', ')}`,
+          }),
+        },
+        { error: 'weight must be an object { value, unit }' },
+      )
+      .optional(),
+    bsaFormula: z
+      .enum(bsaFormulaNames, { error: `bsaFormula must be one of ${bsaFormulaNames.join(', ')}` })
+      .optional(),
+    lesionGldUm: positiveNumber('lesionGldUm', 'µm').optional(),
+    lensMagnification: positiveNumber('lensMagnification', '(a factor)').optional(),
+    stromalThicknessUm: positiveNumber('stromalThicknessUm', 'µm').optional(),
+  },
+  { error: 'inputs must be an object of measurements' },
+);
 export type PlanInputs = z.infer<typeof planInputsSchema>;
 
 export const calculationRequestSchema = z.strictObject({
-  protocol: z.strictObject({
-    key: z
-      .string({ error: 'protocol.key is required' })
-      .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'protocol.key must be kebab-case, e.g. pdt-standard')
-      .max(64, 'protocol.key must be at most 64 characters'),
-    version: z
-      .number({ error: 'protocol.version must be a whole number of at least 1' })
-      .int('protocol.version must be a whole number of at least 1')
-      .min(1, 'protocol.version must be a whole number of at least 1')
-      .optional(),
-  }, { error: 'protocol must be an object { key, version? }' }),
+  protocol: z.strictObject(
+    {
+      key: z
+        .string({ error: 'protocol.key is required' })
+        .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'protocol.key must be kebab-case, e.g. pdt-standard')
+        .max(64, 'protocol.key must be at most 64 characters'),
+      version: z
+        .number({ error: 'protocol.version must be a whole number of at least 1' })
+        .int('protocol.version must be a whole number of at least 1')
+        .min(1, 'protocol.version must be a whole number of at least 1')
+        .optional(),
+    },
+    { error: 'protocol must be an object { key, version? }' },
+  ),
   inputs: planInputsSchema,
 });
 export type CalculationRequest = z.infer<typeof calculationRequestSchema>;
 
 /** The stand-alone light calculator: any consistent subset of these, each above zero. */
-export const lightCalculationRequestSchema = z.strictObject({
-  powerMw: positiveNumber('powerMw', 'mW').optional(),
-  spotDiameterUm: positiveNumber('spotDiameterUm', 'µm').optional(),
-  irradianceMwPerCm2: positiveNumber('irradianceMwPerCm2', 'mW/cm²').optional(),
-  exposureS: positiveNumber('exposureS', 's').optional(),
-  fluenceJPerCm2: positiveNumber('fluenceJPerCm2', 'J/cm²').optional(),
-  energyJ: positiveNumber('energyJ', 'J').optional(),
-}, { error: 'the light calculation must be an object of measurements' });
+export const lightCalculationRequestSchema = z.strictObject(
+  {
+    powerMw: positiveNumber('powerMw', 'mW').optional(),
+    spotDiameterUm: positiveNumber('spotDiameterUm', 'µm').optional(),
+    irradianceMwPerCm2: positiveNumber('irradianceMwPerCm2', 'mW/cm²').optional(),
+    exposureS: positiveNumber('exposureS', 's').optional(),
+    fluenceJPerCm2: positiveNumber('fluenceJPerCm2', 'J/cm²').optional(),
+    energyJ: positiveNumber('energyJ', 'J').optional(),
+  },
+  { error: 'the light calculation must be an object of measurements' },
+);
 export type LightCalculationRequest = z.infer<typeof lightCalculationRequestSchema>;
 
 const quantitySchema = z.object({ value: z.number(), unit: z.string() });

@@ -23,7 +23,11 @@ export const orderStatuses = [
 export type OrderStatus = (typeof orderStatuses)[number];
 
 const reason = (field: string) =>
-  z.string({ error: `${field} is required` }).trim().min(5, `${field} must be 5 to 500 characters`).max(500, `${field} must be 5 to 500 characters`);
+  z
+    .string({ error: `${field} is required` })
+    .trim()
+    .min(5, `${field} must be 5 to 500 characters`)
+    .max(500, `${field} must be 5 to 500 characters`);
 
 export const checklistAnswerSchema = z.strictObject({
   id: z.string({ error: 'checklist[].id is required' }).min(1).max(64),
@@ -34,11 +38,17 @@ export const checklistAnswerSchema = z.strictObject({
 export type ChecklistAnswer = z.infer<typeof checklistAnswerSchema>;
 
 export const orderDraftSchema = z.strictObject({
-  patientId: z.number({ error: 'patientId must be a whole number' }).int('patientId must be a whole number').positive('patientId must be 1 or more'),
+  patientId: z
+    .number({ error: 'patientId must be a whole number' })
+    .int('patientId must be a whole number')
+    .positive('patientId must be 1 or more'),
   eye: z.enum(eyes, { error: 'eye must be right or left' }),
   protocol: calculationRequestSchema.shape.protocol,
   inputs: planInputsSchema,
-  checklist: z.array(checklistAnswerSchema).max(50, 'checklist can hold at most 50 answers').default([]),
+  checklist: z
+    .array(checklistAnswerSchema)
+    .max(50, 'checklist can hold at most 50 answers')
+    .default([]),
   /** A reason for each soft-limit warning, keyed by the warning's field (e.g. inputs.weight.value). */
   softLimitReasons: z.record(z.string().max(100), reason('softLimitReasons[field]')).default({}),
   /** Needed when this eye had the same kind of treatment within the protocol's minimum interval. */
@@ -47,7 +57,9 @@ export const orderDraftSchema = z.strictObject({
   weightChangeReason: reason('weightChangeReason').nullable().optional(),
   note: z.string().trim().max(2000, 'note must be at most 2000 characters').nullable().optional(),
   /** CXL with a swelling step: the clinician acknowledges that a stroma below the minimum is swollen before UV. */
-  swellingAcknowledged: z.boolean({ error: 'swellingAcknowledged must be true or false' }).default(false),
+  swellingAcknowledged: z
+    .boolean({ error: 'swellingAcknowledged must be true or false' })
+    .default(false),
 });
 export type OrderDraft = z.infer<typeof orderDraftSchema>;
 
@@ -57,7 +69,9 @@ export type OrderDraft = z.infer<typeof orderDraftSchema>;
  * what they have not seen.
  */
 export const orderVersionSchema = z
-  .number({ error: 'version must be the version of the order you read (a whole number of 1 or more)' })
+  .number({
+    error: 'version must be the version of the order you read (a whole number of 1 or more)',
+  })
   .int('version must be the version of the order you read (a whole number of 1 or more)')
   .positive('version must be the version of the order you read (a whole number of 1 or more)');
 
@@ -65,12 +79,17 @@ export const orderVersionSchema = z
 export const updateOrderSchema = orderDraftSchema.safeExtend({ version: orderVersionSchema });
 
 export const signOrderSchema = z.strictObject({
-  password: z.string({ error: 'password is required' }).min(1, 'password is required').max(200, 'password must be at most 200 characters'),
+  password: z
+    .string({ error: 'password is required' })
+    .min(1, 'password is required')
+    .max(200, 'password must be at most 200 characters'),
   meaning: z.literal('ordered', { error: 'meaning must be "ordered"' }),
   version: orderVersionSchema,
 });
 
-export const amendOrderSchema = orderDraftSchema.safeExtend({ amendmentReason: reason('amendmentReason') });
+export const amendOrderSchema = orderDraftSchema.safeExtend({
+  amendmentReason: reason('amendmentReason'),
+});
 export type AmendOrder = z.infer<typeof amendOrderSchema>;
 
 /** POST /orders/:id/amendments: the amendment and the version of the signed order it amends. */
@@ -86,29 +105,61 @@ export const doseCheckSchema = z.strictObject({
   bsaM2: measured('bsaM2', 'm²', 5),
   doseMg: measured('doseMg', 'mg', 100),
   drugVolumeMl: measured('drugVolumeMl', 'mL', 100),
-  comment: z.string().trim().max(1000, 'comment must be at most 1000 characters').nullable().optional(),
+  comment: z
+    .string()
+    .trim()
+    .max(1000, 'comment must be at most 1000 characters')
+    .nullable()
+    .optional(),
 });
 export type DoseCheckEntry = z.infer<typeof doseCheckSchema>;
 
 export const preparationSchema = z.strictObject({
-  vialLot: z.string({ error: 'vialLot is required' }).trim().regex(/^[A-Za-z0-9][A-Za-z0-9 ./-]{1,39}$/, 'vialLot must be 2 to 40 letters, digits, spaces, dots, slashes or hyphens'),
+  vialLot: z
+    .string({ error: 'vialLot is required' })
+    .trim()
+    .regex(
+      /^[A-Za-z0-9][A-Za-z0-9 ./-]{1,39}$/,
+      'vialLot must be 2 to 40 letters, digits, spaces, dots, slashes or hyphens',
+    ),
   vialExpiry: z.iso.date({ error: 'vialExpiry must be a date (YYYY-MM-DD)' }),
   /** When the powder was reconstituted; left out, now. */
-  reconstitutedAt: z.iso.datetime({ offset: true, error: 'reconstitutedAt must be an ISO 8601 date-time with offset' }).optional(),
+  reconstitutedAt: z.iso
+    .datetime({ offset: true, error: 'reconstitutedAt must be an ISO 8601 date-time with offset' })
+    .optional(),
   volumeDrawnMl: measured('volumeDrawnMl', 'mL', 100),
 });
 export type PreparationEntry = z.infer<typeof preparationSchema>;
 
 export const orderListQuerySchema = z.strictObject({
-  status: z.enum(orderStatuses, { error: `status must be one of ${orderStatuses.join(', ')}` }).optional(),
-  protocol: z.string().regex(/^[a-z0-9-]{1,64}$/, 'protocol must be a protocol key').optional(),
+  status: z
+    .enum(orderStatuses, { error: `status must be one of ${orderStatuses.join(', ')}` })
+    .optional(),
+  protocol: z
+    .string()
+    .regex(/^[a-z0-9-]{1,64}$/, 'protocol must be a protocol key')
+    .optional(),
   from: z.iso.date({ error: 'from must be a date (YYYY-MM-DD)' }).optional(),
   to: z.iso.date({ error: 'to must be a date (YYYY-MM-DD)' }).optional(),
   patientId: z.coerce.number().int().positive('patientId must be 1 or more').optional(),
-  sort: z.enum(['createdAt', 'status', 'protocol', 'patient'], { error: 'sort must be createdAt, status, protocol or patient' }).default('createdAt'),
+  sort: z
+    .enum(['createdAt', 'status', 'protocol', 'patient'], {
+      error: 'sort must be createdAt, status, protocol or patient',
+    })
+    .default('createdAt'),
   direction: z.enum(['asc', 'desc'], { error: 'direction must be asc or desc' }).default('desc'),
-  page: z.coerce.number({ error: 'page must be a whole number' }).int('page must be a whole number').min(1, 'page must be 1 or more').max(100000, 'page must be at most 100000').default(1),
-  pageSize: z.coerce.number({ error: 'pageSize must be a whole number' }).int('pageSize must be a whole number').min(1, 'pageSize must be 1 to 100').max(100, 'pageSize must be 1 to 100').default(25),
+  page: z.coerce
+    .number({ error: 'page must be a whole number' })
+    .int('page must be a whole number')
+    .min(1, 'page must be 1 or more')
+    .max(100000, 'page must be at most 100000')
+    .default(1),
+  pageSize: z.coerce
+    .number({ error: 'pageSize must be a whole number' })
+    .int('pageSize must be a whole number')
+    .min(1, 'pageSize must be 1 to 100')
+    .max(100, 'pageSize must be 1 to 100')
+    .default(25),
 });
 export type OrderListQuery = z.infer<typeof orderListQuerySchema>;
 
@@ -134,7 +185,13 @@ export const orderDetailSchema = orderSummarySchema.extend({
   /** The row version: send it back with an edit, a signature or an amendment. */
   version: z.number(),
   /** The date of birth too: the signature dialog and the printed order confirm identity with it. */
-  patient: patientSchema.pick({ id: true, recordNumber: true, givenName: true, familyName: true, dateOfBirth: true }),
+  patient: patientSchema.pick({
+    id: true,
+    recordNumber: true,
+    givenName: true,
+    familyName: true,
+    dateOfBirth: true,
+  }),
   inputs: planInputsSchema,
   checklist: z.array(checklistAnswerSchema),
   softLimitReasons: z.record(z.string(), z.string()),
@@ -143,7 +200,9 @@ export const orderDetailSchema = orderSummarySchema.extend({
   note: z.string().nullable(),
   swellingAcknowledged: z.boolean().default(false),
   /** Cautions answered yes, with the clinician's reason: the standing banner on every later screen. */
-  answeredCautions: z.array(z.object({ id: z.string(), question: z.string(), reason: z.string() })).default([]),
+  answeredCautions: z
+    .array(z.object({ id: z.string(), question: z.string(), reason: z.string() }))
+    .default([]),
   /** The frozen dose plan; withheld (null) from a pharmacist until their blind check matches. */
   plan: dosePlanSchema.nullable(),
   planWithheld: z.boolean(),
@@ -151,7 +210,16 @@ export const orderDetailSchema = orderSummarySchema.extend({
   previousRevisionId: z.number().nullable(),
   nextRevisionId: z.number().nullable(),
   returnComment: z.string().nullable(),
-  attachments: z.array(z.object({ id: z.number(), fileName: z.string(), mimeType: z.string(), sizeBytes: z.number(), sha256: z.string(), createdAt: z.string() })),
+  attachments: z.array(
+    z.object({
+      id: z.number(),
+      fileName: z.string(),
+      mimeType: z.string(),
+      sizeBytes: z.number(),
+      sha256: z.string(),
+      createdAt: z.string(),
+    }),
+  ),
   doseChecks: z.array(
     z.object({
       id: z.number(),
@@ -173,6 +241,8 @@ export const orderDetailSchema = orderSummarySchema.extend({
       pharmacist: person,
     })
     .nullable(),
-  warnings: z.array(z.object({ code: z.string(), message: z.string(), field: z.string().optional() })),
+  warnings: z.array(
+    z.object({ code: z.string(), message: z.string(), field: z.string().optional() }),
+  ),
 });
 export type OrderDetail = z.infer<typeof orderDetailSchema>;

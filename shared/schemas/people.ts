@@ -7,7 +7,11 @@ const roleList = z
   .max(roles.length, `roles can hold at most ${roles.length} entries`)
   .refine((list) => new Set(list).size === list.length, 'roles must not repeat');
 
-const displayName = z.string().trim().min(2, 'displayName must be 2 to 120 characters').max(120, 'displayName must be 2 to 120 characters');
+const displayName = z
+  .string()
+  .trim()
+  .min(2, 'displayName must be 2 to 120 characters')
+  .max(120, 'displayName must be 2 to 120 characters');
 
 /**
  * A password a person sets: at least 12 characters (the server also refuses common ones). Any
@@ -20,11 +24,19 @@ export const newPasswordSchema = (field: string) =>
     .refine((v) => [...v].length <= 200, `${field} must be at most 200 characters`);
 
 /** The clinical roles: giving one needs a second administrator's approval. */
-export const clinicalRoles = ['clinician', 'pharmacist'] as const satisfies readonly (typeof roles)[number][];
+export const clinicalRoles = [
+  'clinician',
+  'pharmacist',
+] as const satisfies readonly (typeof roles)[number][];
 
 /** A new person gets no password from the admin: they are e-mailed a one-time link to set their own. */
 export const createPersonSchema = z.object({
-  email: z.string({ error: 'email is required' }).trim().toLowerCase().max(254, 'email must be at most 254 characters').email('email must be an e-mail address'),
+  email: z
+    .string({ error: 'email is required' })
+    .trim()
+    .toLowerCase()
+    .max(254, 'email must be at most 254 characters')
+    .email('email must be an e-mail address'),
   displayName,
   roles: roleList,
 });
@@ -49,7 +61,9 @@ export const personSchema = z.object({
   /** False until the person has set their own sign-in secret through their e-mailed link. */
   accountReady: z.boolean(),
   /** Roles waiting for a second administrator's approval, if any. */
-  pendingRoleRequest: z.object({ id: z.number().int(), roles: z.array(z.enum(roles)), requestedBy: z.number().int() }).nullable(),
+  pendingRoleRequest: z
+    .object({ id: z.number().int(), roles: z.array(z.enum(roles)), requestedBy: z.number().int() })
+    .nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });

@@ -39,7 +39,9 @@ export function durationText(seconds: number): string {
 
 /** Light times read in seconds, as the device shows them, up to 10 min. */
 function lightTimeText(seconds: number): string {
-  return Math.abs(seconds) < 600 ? `${formatNumber(roundToStep(seconds, 0.1))} s` : durationText(seconds);
+  return Math.abs(seconds) < 600
+    ? `${formatNumber(roundToStep(seconds, 0.1))} s`
+    : durationText(seconds);
 }
 
 function timeText(ms: number): string {
@@ -75,7 +77,13 @@ function quoted(text: string): string {
  * - minor: worth an auditor's look, little effect on the dose — a soak-phase drop gap, a
  *   caution answered yes with the clinician's reason (the designed path for a caution).
  */
-export function findDeviations({ protocol, plan, record, checklist, preparation }: DeviationInput): Deviation[] {
+export function findDeviations({
+  protocol,
+  plan,
+  record,
+  checklist,
+  preparation,
+}: DeviationInput): Deviation[] {
   const found = new Map<Deviation['type'], Deviation>();
   const add = (deviation: Deviation) => found.set(deviation.type, deviation);
   const { tolerances } = protocol;
@@ -84,7 +92,12 @@ export function findDeviations({ protocol, plan, record, checklist, preparation 
 
   // Infusion length: the regimen's light timing assumes the studied infusion (TAP 1999: 10 min).
   const infusionEndMs = msOf(record.infusionEndAt);
-  if (protocol.drug && tolerances.infusionDurationMin !== null && infusionStartMs !== null && infusionEndMs !== null) {
+  if (
+    protocol.drug &&
+    tolerances.infusionDurationMin !== null &&
+    infusionStartMs !== null &&
+    infusionEndMs !== null
+  ) {
     const actualS = (infusionEndMs - infusionStartMs) / 1000;
     const expectedS = protocol.drug.infusionMin * 60;
     if (outside(actualS, expectedS, tolerances.infusionDurationMin * 60)) {
@@ -100,8 +113,13 @@ export function findDeviations({ protocol, plan, record, checklist, preparation 
   }
 
   // Light start is timed from the START of the infusion (TAP Study Group, Arch Ophthalmol 1999).
-  if (protocol.timing && tolerances.lightStartMin !== null && record.lightStartAfterInfusionStartS !== null) {
-    const expectedS = plan.lightStartAfterInfusionStartS ?? protocol.timing.lightStartAfterInfusionStartMin * 60;
+  if (
+    protocol.timing &&
+    tolerances.lightStartMin !== null &&
+    record.lightStartAfterInfusionStartS !== null
+  ) {
+    const expectedS =
+      plan.lightStartAfterInfusionStartS ?? protocol.timing.lightStartAfterInfusionStartMin * 60;
     const actualS = record.lightStartAfterInfusionStartS;
     if (outside(actualS, expectedS, tolerances.lightStartMin * 60)) {
       add({
@@ -139,7 +157,10 @@ export function findDeviations({ protocol, plan, record, checklist, preparation 
         type: 'beyond-use',
         severity: 'critical',
         expected: limitH === null ? null : round(limitH, 0.01),
-        actual: reconstitutedMs === null ? null : round((infusionStartMs - reconstitutedMs) / 3_600_000, 0.01),
+        actual:
+          reconstitutedMs === null
+            ? null
+            : round((infusionStartMs - reconstitutedMs) / 3_600_000, 0.01),
         unit: 'h',
         message: `Infusion expected to start by the drug's beyond-use time, ${timeText(beyondUseMs)}${limitH === null ? '' : ` (${durationText(limitH * 3600)} after reconstitution)`}; it started at ${timeText(infusionStartMs)}, ${durationText((infusionStartMs - beyondUseMs) / 1000)} past it.`,
       });
@@ -194,13 +215,27 @@ export function findDeviations({ protocol, plan, record, checklist, preparation 
   });
 }
 
-function judgeLight({ protocol, plan, record, sessionOver, add }: { protocol: ProtocolVersion; plan: DosePlan; record: DoseRecord; sessionOver: boolean; add: (d: Deviation) => void }): void {
+function judgeLight({
+  protocol,
+  plan,
+  record,
+  sessionOver,
+  add,
+}: {
+  protocol: ProtocolVersion;
+  plan: DosePlan;
+  record: DoseRecord;
+  sessionOver: boolean;
+  add: (d: Deviation) => void;
+}): void {
   const isPdt = protocol.kind === 'pdt';
   const startAt = isPdt ? record.lightStartAt : record.uvStartAt;
   const endAt = isPdt ? record.lightEndAt : record.uvEndAt;
   // Judged when the light step has ended, or the session ended as completed without any light
   // (nothing was given). A session stopped before the light is the stopped-early deviation.
-  const finished = (startAt !== null && endAt !== null) || (startAt === null && sessionOver && record.outcome === 'completed');
+  const finished =
+    (startAt !== null && endAt !== null) ||
+    (startAt === null && sessionOver && record.outcome === 'completed');
   if (!finished) return;
   // PDT: the exposure is judged on the figure the laser displayed, entered by the nurse at the end
   // of the light step; the taps' difference is shown beside it as information. Until it is
@@ -212,7 +247,12 @@ function judgeLight({ protocol, plan, record, sessionOver, add }: { protocol: Pr
   const onS = deviceS ?? tapsS;
   const plannedS = (isPdt ? plan.exposureS : plan.uvTimeS) ?? protocol.light.exposureS;
   const { exposureS: exposureTolS, fluencePct } = protocol.tolerances;
-  const tapsNote = !isPdt || startAt === null ? '' : deviceS !== null ? ` (the taps put it at ${lightTimeText(tapsS)})` : ' by the taps: no exposure was entered from the laser';
+  const tapsNote =
+    !isPdt || startAt === null
+      ? ''
+      : deviceS !== null
+        ? ` (the taps put it at ${lightTimeText(tapsS)})`
+        : ' by the taps: no exposure was entered from the laser';
   if (outside(onS, plannedS, exposureTolS)) {
     add({
       type: 'exposure-time',
@@ -240,7 +280,12 @@ function judgeLight({ protocol, plan, record, sessionOver, add }: { protocol: Pr
   }
 }
 
-function judgeCxl(protocol: ProtocolVersion, cxl: NonNullable<ProtocolVersion['cxl']>, record: DoseRecord, add: (d: Deviation) => void): void {
+function judgeCxl(
+  protocol: ProtocolVersion,
+  cxl: NonNullable<ProtocolVersion['cxl']>,
+  record: DoseRecord,
+  add: (d: Deviation) => void,
+): void {
   const { tolerances } = protocol;
   const soakFinished = record.soakStartAt !== null && record.soakEndAt !== null;
   const uvWithoutSoak = record.soakStartAt === null && record.uvStartAt !== null;
@@ -263,11 +308,25 @@ function judgeCxl(protocol: ProtocolVersion, cxl: NonNullable<ProtocolVersion['c
   if (tolerances.dropGapPct !== null) {
     const factor = 1 + tolerances.dropGapPct / 100;
     const phases = [
-      { name: 'the soak', intervalS: cxl.dropIntervalSoakMin * 60, gapS: record.soakEndAt !== null ? record.longestDropGapSoakS : null, severity: 'minor' as DeviationSeverity },
+      {
+        name: 'the soak',
+        intervalS: cxl.dropIntervalSoakMin * 60,
+        gapS: record.soakEndAt !== null ? record.longestDropGapSoakS : null,
+        severity: 'minor' as DeviationSeverity,
+      },
       // During UV the riboflavin film is what shields the deeper cornea, so a gap there weighs more.
-      { name: 'UV', intervalS: cxl.dropIntervalUvMin * 60, gapS: record.uvEndAt !== null ? record.longestDropGapUvS : null, severity: 'major' as DeviationSeverity },
+      {
+        name: 'UV',
+        intervalS: cxl.dropIntervalUvMin * 60,
+        gapS: record.uvEndAt !== null ? record.longestDropGapUvS : null,
+        severity: 'major' as DeviationSeverity,
+      },
     ];
-    const over = phases.flatMap((phase) => (phase.gapS !== null && phase.gapS > phase.intervalS * factor + slack ? [{ ...phase, gapS: phase.gapS, ratio: phase.gapS / (phase.intervalS * factor) }] : []));
+    const over = phases.flatMap((phase) =>
+      phase.gapS !== null && phase.gapS > phase.intervalS * factor + slack
+        ? [{ ...phase, gapS: phase.gapS, ratio: phase.gapS / (phase.intervalS * factor) }]
+        : [],
+    );
     const worst = [...over].sort((a, b) => b.ratio - a.ratio)[0];
     if (worst) {
       add({
@@ -277,7 +336,10 @@ function judgeCxl(protocol: ProtocolVersion, cxl: NonNullable<ProtocolVersion['c
         actual: round(worst.gapS, 0.1),
         unit: 's',
         message: over
-          .map((phase) => `During ${phase.name} a drop was expected every ${durationText(phase.intervalS)} (gap at most ${durationText(phase.intervalS * factor)}); the longest gap was ${durationText(phase.gapS)}.`)
+          .map(
+            (phase) =>
+              `During ${phase.name} a drop was expected every ${durationText(phase.intervalS)} (gap at most ${durationText(phase.intervalS * factor)}); the longest gap was ${durationText(phase.gapS)}.`,
+          )
           .join(' '),
       });
     }
@@ -314,7 +376,11 @@ function judgeCxl(protocol: ProtocolVersion, cxl: NonNullable<ProtocolVersion['c
   }
 }
 
-function judgeChecklist(protocol: ProtocolVersion, checklist: readonly ChecklistAnswer[], add: (d: Deviation) => void): void {
+function judgeChecklist(
+  protocol: ProtocolVersion,
+  checklist: readonly ChecklistAnswer[],
+  add: (d: Deviation) => void,
+): void {
   const questions = new Map(protocol.contraindications.map((item) => [item.id, item]));
   const overridden = checklist.filter((answer) => answer.answer === 'yes' && answer.overrideReason);
   if (overridden.length === 0) return;

@@ -110,10 +110,17 @@ function sortedUnique(events: readonly SessionEventLike[]): TimedEvent[] {
     const ms = Date.parse(event.clientTime);
     if (Number.isFinite(ms)) timed.push({ event, ms });
   }
-  timed.sort((a, b) => a.ms - b.ms || compareIds(a.event.id, b.event.id) || compareText(a.event.idempotencyKey, b.event.idempotencyKey));
+  timed.sort(
+    (a, b) =>
+      a.ms - b.ms ||
+      compareIds(a.event.id, b.event.id) ||
+      compareText(a.event.idempotencyKey, b.event.idempotencyKey),
+  );
   // A re-sent event keeps its idempotency key; the earliest copy stands.
   const seen = new Set<string>();
-  return timed.filter(({ event }) => (seen.has(event.idempotencyKey) ? false : (seen.add(event.idempotencyKey), true)));
+  return timed.filter(({ event }) =>
+    seen.has(event.idempotencyKey) ? false : (seen.add(event.idempotencyKey), true),
+  );
 }
 
 /**
@@ -123,15 +130,21 @@ function sortedUnique(events: readonly SessionEventLike[]): TimedEvent[] {
  * one that names a tap that cannot be withdrawn (or no tap at all) takes nothing out; the server
  * refuses those, so this only guards against a list that never passed through it.
  */
-export function withdrawalsApplied<E extends SessionEventLike>(events: readonly E[]): { kept: E[]; withdrawn: WithdrawnTap[] } {
+export function withdrawalsApplied<E extends SessionEventLike>(
+  events: readonly E[],
+): { kept: E[]; withdrawn: WithdrawnTap[] } {
   const withdrawals = new Map<string, Extract<SessionEventLike, { type: 'tap-withdrawn' }>>();
-  for (const event of events) if (event.type === 'tap-withdrawn' && !withdrawals.has(event.withdrawnKey)) withdrawals.set(event.withdrawnKey, event);
+  for (const event of events)
+    if (event.type === 'tap-withdrawn' && !withdrawals.has(event.withdrawnKey))
+      withdrawals.set(event.withdrawnKey, event);
   if (withdrawals.size === 0) return { kept: [...events], withdrawn: [] };
   const kept: E[] = [];
   const withdrawn = new Map<string, WithdrawnTap>();
   for (const event of events) {
     if (event.type === 'tap-withdrawn') continue;
-    const withdrawal = isWithdrawableType(event.type) ? withdrawals.get(event.idempotencyKey) : undefined;
+    const withdrawal = isWithdrawableType(event.type)
+      ? withdrawals.get(event.idempotencyKey)
+      : undefined;
     if (!withdrawal) {
       kept.push(event);
       continue;
@@ -148,7 +161,10 @@ export function withdrawalsApplied<E extends SessionEventLike>(events: readonly 
       });
     }
   }
-  return { kept, withdrawn: [...withdrawn.values()].sort((a, b) => Date.parse(a.at) - Date.parse(b.at)) };
+  return {
+    kept,
+    withdrawn: [...withdrawn.values()].sort((a, b) => Date.parse(a.at) - Date.parse(b.at)),
+  };
 }
 
 function closeRun(run: StepRun, ms: number): void {
@@ -162,7 +178,10 @@ function closeRun(run: StepRun, ms: number): void {
  * start of a running step, a resume with no pause, an event after the session ended) is
  * ignored rather than refused, because the events are facts already recorded at the bedside.
  */
-export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: readonly SessionEventLike[]): SessionReplay {
+export function replaySession(
+  protocol: Pick<ProtocolVersion, 'steps'>,
+  events: readonly SessionEventLike[],
+): SessionReplay {
   const { kept, withdrawn } = withdrawalsApplied(events);
   const stepIds = new Set(protocol.steps.map((step) => step.id));
   const infusionStepId = protocol.steps.find((step) => step.kind === 'infusion')?.id ?? null;
@@ -214,13 +233,25 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
         replay.extravasationMs ??= ms;
         if (event.volumeInfusedMl !== undefined) replay.volumeInfusedMl = event.volumeInfusedMl;
       }
-      if (event.type === 'exposure-recorded' && stepIds.has(event.stepId)) replay.deviceExposure = { stepId: event.stepId, exposureS: event.exposureS, energyJ: event.energyJ ?? null };
+      if (event.type === 'exposure-recorded' && stepIds.has(event.stepId))
+        replay.deviceExposure = {
+          stepId: event.stepId,
+          exposureS: event.exposureS,
+          energyJ: event.energyJ ?? null,
+        };
       continue;
     }
     replay.lastEventMs = ms;
     if (event.lateEntryReason !== undefined) {
       // A late entry timed inside the session (the server refuses none) still says so.
-      replay.lateEntries.push({ idempotencyKey: event.idempotencyKey, type: event.type, stepId: 'stepId' in event ? event.stepId : null, at: event.clientTime, receivedAt: event.serverTime ?? null, reason: event.lateEntryReason });
+      replay.lateEntries.push({
+        idempotencyKey: event.idempotencyKey,
+        type: event.type,
+        stepId: 'stepId' in event ? event.stepId : null,
+        at: event.clientTime,
+        receivedAt: event.serverTime ?? null,
+        reason: event.lateEntryReason,
+      });
     }
     switch (event.type) {
       case 'session-started':
@@ -256,13 +287,23 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
         if (stepIds.has(event.stepId)) replay.drops.push({ stepId: event.stepId, ms });
         break;
       case 'thickness-measured':
-        if (stepIds.has(event.stepId)) replay.thicknessReadings.push({ stepId: event.stepId, ms, thicknessUm: event.thicknessUm });
+        if (stepIds.has(event.stepId))
+          replay.thicknessReadings.push({
+            stepId: event.stepId,
+            ms,
+            thicknessUm: event.thicknessUm,
+          });
         break;
       case 'thickness-override':
         replay.thicknessOverrideReason = event.reason;
         break;
       case 'exposure-recorded':
-        if (stepIds.has(event.stepId)) replay.deviceExposure = { stepId: event.stepId, exposureS: event.exposureS, energyJ: event.energyJ ?? null };
+        if (stepIds.has(event.stepId))
+          replay.deviceExposure = {
+            stepId: event.stepId,
+            exposureS: event.exposureS,
+            energyJ: event.energyJ ?? null,
+          };
         break;
       case 'extravasation':
         replay.extravasationMs ??= ms;
@@ -286,7 +327,11 @@ export function replaySession(protocol: Pick<ProtocolVersion, 'steps'>, events: 
         break;
     }
   }
-  if (replay.outcome === 'not-started' && (replay.sessionStartedMs !== null || replay.runs.size > 0)) replay.outcome = 'in-progress';
+  if (
+    replay.outcome === 'not-started' &&
+    (replay.sessionStartedMs !== null || replay.runs.size > 0)
+  )
+    replay.outcome = 'in-progress';
   return replay;
 }
 
@@ -314,7 +359,10 @@ export function spanOf(runs: readonly StepRun[] | undefined): Interval | null {
   return first && last ? { startMs: first.startMs, endMs: last.endMs } : null;
 }
 
-export function firstStepOfKind(protocol: Pick<ProtocolVersion, 'steps'>, kind: StepKind): ProtocolStep | undefined {
+export function firstStepOfKind(
+  protocol: Pick<ProtocolVersion, 'steps'>,
+  kind: StepKind,
+): ProtocolStep | undefined {
   return protocol.steps.find((step) => step.kind === kind);
 }
 
@@ -332,14 +380,23 @@ function fluenceFrom(irradianceMwPerCm2: number | null, onS: number | null): num
  * Volume infused so far at the plan's rate. Derived, not measured: the pump's own counter is
  * the measured figure. Capped at the final volume because the bag holds no more.
  */
-export function infusedVolumeMl(rateMlPerMin: number | null, finalVolumeMl: number | null, infusionS: number | null): number | null {
+export function infusedVolumeMl(
+  rateMlPerMin: number | null,
+  finalVolumeMl: number | null,
+  infusionS: number | null,
+): number | null {
   if (rateMlPerMin === null || infusionS === null) return null;
   const volumeMl = (rateMlPerMin * infusionS) / 60;
   return finalVolumeMl === null ? volumeMl : Math.min(volumeMl, finalVolumeMl);
 }
 
 /** The longest time without a drop in a step, counting from its start and up to its end. */
-function longestDropGapS(stepId: string | undefined, span: Interval | null, drops: SessionReplay['drops'], untilMs: number): number | null {
+function longestDropGapS(
+  stepId: string | undefined,
+  span: Interval | null,
+  drops: SessionReplay['drops'],
+  untilMs: number,
+): number | null {
   if (stepId === undefined || span === null) return null;
   const endMs = Math.max(span.startMs, span.endMs ?? untilMs);
   let previousMs = span.startMs;
@@ -352,7 +409,8 @@ function longestDropGapS(stepId: string | undefined, span: Interval | null, drop
   return Math.max(longestMs, endMs - previousMs) / 1000;
 }
 
-const iso = (ms: number | null | undefined): string | null => (ms === null || ms === undefined ? null : new Date(ms).toISOString());
+const iso = (ms: number | null | undefined): string | null =>
+  ms === null || ms === undefined ? null : new Date(ms).toISOString();
 
 /**
  * What was actually given, as figures derived from the session's events. Fields another kind
@@ -435,7 +493,14 @@ export function receiptDelaysOf(events: readonly SessionEventLike[]): ReceiptDel
     seen.add(event.idempotencyKey);
     const delayS = (Date.parse(event.serverTime) - Date.parse(event.clientTime)) / 1000;
     if (delayS > receiptDelayShownS) {
-      delays.push({ idempotencyKey: event.idempotencyKey, type: event.type, stepId: 'stepId' in event ? event.stepId : null, at: event.clientTime, receivedAt: event.serverTime, delayS });
+      delays.push({
+        idempotencyKey: event.idempotencyKey,
+        type: event.type,
+        stepId: 'stepId' in event ? event.stepId : null,
+        at: event.clientTime,
+        receivedAt: event.serverTime,
+        delayS,
+      });
     }
   }
   return delays.sort((a, b) => Date.parse(a.at) - Date.parse(b.at));
@@ -456,8 +521,10 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
     const runs = step ? replay.runs.get(step.id) : undefined;
     return { step, runs, span: spanOf(runs) };
   };
-  const seconds = (span: Interval | null) => (span === null ? null : Math.max(0, (span.endMs ?? untilMs) - span.startMs) / 1000);
-  const onS = (runs: StepRun[] | undefined) => (runs && runs.length > 0 ? runsRunningMs(runs, untilMs) / 1000 : null);
+  const seconds = (span: Interval | null) =>
+    span === null ? null : Math.max(0, (span.endMs ?? untilMs) - span.startMs) / 1000;
+  const onS = (runs: StepRun[] | undefined) =>
+    runs && runs.length > 0 ? runsRunningMs(runs, untilMs) / 1000 : null;
 
   const isPdt = protocol.kind === 'pdt';
   const infusion = stepSpan('infusion');
@@ -467,17 +534,27 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
 
   const infusionDurationS = isPdt ? seconds(infusion.span) : null;
   const lightOnS = isPdt ? onS(light.runs) : null;
-  const deviceExposure = isPdt && light.step && replay.deviceExposure?.stepId === light.step.id ? replay.deviceExposure : null;
+  const deviceExposure =
+    isPdt && light.step && replay.deviceExposure?.stepId === light.step.id
+      ? replay.deviceExposure
+      : null;
   const finalVolumeMl = protocol.drug?.finalVolumeMl ?? null;
   const enteredMl = isPdt ? replay.volumeInfusedMl : null;
-  const volumeGivenMl = !isPdt ? null : enteredMl ?? infusedVolumeMl(plan.infusionRateMlPerMin, finalVolumeMl, infusionDurationS);
+  const volumeGivenMl = !isPdt
+    ? null
+    : (enteredMl ?? infusedVolumeMl(plan.infusionRateMlPerMin, finalVolumeMl, infusionDurationS));
   const plannedDoseMg = isPdt ? (plan.doseMg ?? null) : null;
-  const doseGivenMg = volumeGivenMl !== null && plannedDoseMg !== null && finalVolumeMl !== null ? doseInInfusedVolumeMg(Math.min(volumeGivenMl, finalVolumeMl), plannedDoseMg, finalVolumeMl) : null;
+  const doseGivenMg =
+    volumeGivenMl !== null && plannedDoseMg !== null && finalVolumeMl !== null
+      ? doseInInfusedVolumeMg(Math.min(volumeGivenMl, finalVolumeMl), plannedDoseMg, finalVolumeMl)
+      : null;
   const uvElapsedS = isPdt ? null : onS(uv.runs);
   const uvOnS = uvElapsedS === null ? null : pulsedOnS(uvElapsedS, protocol.light.pulse);
 
   const uvStartMs = uv.span?.startMs ?? null;
-  const readingsBeforeUv = replay.thicknessReadings.filter((reading) => uvStartMs === null || reading.ms <= uvStartMs);
+  const readingsBeforeUv = replay.thicknessReadings.filter(
+    (reading) => uvStartMs === null || reading.ms <= uvStartMs,
+  );
 
   return {
     kind: protocol.kind,
@@ -498,7 +575,10 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
     extravasationAt: isPdt ? iso(replay.extravasationMs) : null,
     lightStartAt: isPdt ? iso(light.span?.startMs) : null,
     lightEndAt: isPdt ? iso(light.span?.endMs) : null,
-    lightStartAfterInfusionStartS: isPdt && infusion.span && light.span ? (light.span.startMs - infusion.span.startMs) / 1000 : null,
+    lightStartAfterInfusionStartS:
+      isPdt && infusion.span && light.span
+        ? (light.span.startMs - infusion.span.startMs) / 1000
+        : null,
     lightOnS,
     deviceExposureS: deviceExposure?.exposureS ?? null,
     deviceEnergyJ: deviceExposure?.energyJ ?? null,
@@ -507,18 +587,33 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
     soakStartAt: isPdt ? null : iso(soak.span?.startMs),
     soakEndAt: isPdt ? null : iso(soak.span?.endMs),
     soakDurationS: isPdt ? null : seconds(soak.span),
-    drops: isPdt ? [] : replay.drops.map((drop) => ({ stepId: drop.stepId, at: new Date(drop.ms).toISOString() })),
-    longestDropGapSoakS: isPdt ? null : longestDropGapS(soak.step?.id, soak.span, replay.drops, untilMs),
+    drops: isPdt
+      ? []
+      : replay.drops.map((drop) => ({ stepId: drop.stepId, at: new Date(drop.ms).toISOString() })),
+    longestDropGapSoakS: isPdt
+      ? null
+      : longestDropGapS(soak.step?.id, soak.span, replay.drops, untilMs),
     longestDropGapUvS: isPdt ? null : longestDropGapS(uv.step?.id, uv.span, replay.drops, untilMs),
-    thicknessReadings: isPdt ? [] : replay.thicknessReadings.map((reading) => ({ stepId: reading.stepId, at: new Date(reading.ms).toISOString(), thicknessUm: reading.thicknessUm })),
-    thicknessBeforeUvUm: isPdt ? null : (readingsBeforeUv[readingsBeforeUv.length - 1]?.thicknessUm ?? null),
+    thicknessReadings: isPdt
+      ? []
+      : replay.thicknessReadings.map((reading) => ({
+          stepId: reading.stepId,
+          at: new Date(reading.ms).toISOString(),
+          thicknessUm: reading.thicknessUm,
+        })),
+    thicknessBeforeUvUm: isPdt
+      ? null
+      : (readingsBeforeUv[readingsBeforeUv.length - 1]?.thicknessUm ?? null),
     thicknessOverrideReason: isPdt ? null : replay.thicknessOverrideReason,
     uvStartAt: isPdt ? null : iso(uvStartMs),
     uvEndAt: isPdt ? null : iso(uv.span?.endMs),
     uvElapsedS,
     uvOnS,
 
-    deliveredFluenceJPerCm2: fluenceFrom(plan.irradianceMwPerCm2, isPdt ? (deviceExposure?.exposureS ?? lightOnS) : uvOnS),
+    deliveredFluenceJPerCm2: fluenceFrom(
+      plan.irradianceMwPerCm2,
+      isPdt ? (deviceExposure?.exposureS ?? lightOnS) : uvOnS,
+    ),
 
     withdrawnTaps: replay.withdrawnTaps,
     lateEntries: replay.lateEntries,

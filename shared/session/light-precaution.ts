@@ -26,13 +26,20 @@ const msPerHour = 3_600_000;
  * change and the local clock time of the end may shift by an hour. Throws RangeError on an
  * unusable input.
  */
-export function lightPrecautionEnd({ infusionStartAt, hours, zone }: LightPrecautionEndInput): LightPrecautionEnd {
+export function lightPrecautionEnd({
+  infusionStartAt,
+  hours,
+  zone,
+}: LightPrecautionEndInput): LightPrecautionEnd {
   const start = DateTime.fromISO(infusionStartAt, { setZone: true });
-  if (!start.isValid) throw new RangeError(`infusionStartAt must be an ISO 8601 date-time (got ${infusionStartAt})`);
-  if (!Number.isFinite(hours) || hours < 0) throw new RangeError(`hours must be a number of at least 0 (got ${hours})`);
+  if (!start.isValid)
+    throw new RangeError(`infusionStartAt must be an ISO 8601 date-time (got ${infusionStartAt})`);
+  if (!Number.isFinite(hours) || hours < 0)
+    throw new RangeError(`hours must be a number of at least 0 (got ${hours})`);
   const endUtc = start.toUTC().plus({ milliseconds: Math.round(hours * msPerHour) });
   const endLocal = endUtc.setZone(zone);
-  if (!endLocal.isValid) throw new RangeError(`zone must be an IANA time zone such as Europe/Lisbon (got ${zone})`);
+  if (!endLocal.isValid)
+    throw new RangeError(`zone must be an IANA time zone such as Europe/Lisbon (got ${zone})`);
   return {
     endUtc: endUtc.toISO() ?? '',
     endLocal: endLocal.toISO() ?? '',
@@ -53,8 +60,12 @@ export interface PrecautionStart {
  * tapped, or withdrawn) it counts from the latest time the drug can have been started, the end of
  * the session (or now, while it runs), so the period never ends earlier than it should.
  */
-export function precautionStartFor(record: { infusionStartAt: string | null; endedAt: string | null }, nowIso: string): PrecautionStart {
-  if (record.infusionStartAt) return { at: record.infusionStartAt, basis: 'infusion-start', note: null };
+export function precautionStartFor(
+  record: { infusionStartAt: string | null; endedAt: string | null },
+  nowIso: string,
+): PrecautionStart {
+  if (record.infusionStartAt)
+    return { at: record.infusionStartAt, basis: 'infusion-start', note: null };
   const at = record.endedAt ?? nowIso;
   return {
     at,

@@ -1,6 +1,14 @@
 import type { ProtocolStep, ProtocolVersion, StepKind } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
-import { firstStepOfKind, infusedVolumeMl, replaySession, runsRunningMs, spanOf, type SessionEventLike, type SessionReplay } from './dose-record';
+import {
+  firstStepOfKind,
+  infusedVolumeMl,
+  replaySession,
+  runsRunningMs,
+  spanOf,
+  type SessionEventLike,
+  type SessionReplay,
+} from './dose-record';
 
 export type ClockPhase = 'not-started' | 'running' | 'finished' | 'stopped';
 
@@ -101,10 +109,17 @@ export function sessionClock({ protocol, plan, events, nowMs }: SessionClockInpu
     const lightStarted = lightStep ? replay.runs.has(lightStep.id) : false;
     if (infusion) {
       // Timed from the START of the infusion (TAP Study Group, Arch Ophthalmol 1999).
-      const dueAfterS = plan.lightStartAfterInfusionStartS ?? (protocol.timing?.lightStartAfterInfusionStartMin ?? 0) * 60;
-      if (!over && !lightStarted) lightStartInS = (infusion.startMs + dueAfterS * 1000 - nowMs) / 1000;
+      const dueAfterS =
+        plan.lightStartAfterInfusionStartS ??
+        (protocol.timing?.lightStartAfterInfusionStartMin ?? 0) * 60;
+      if (!over && !lightStarted)
+        lightStartInS = (infusion.startMs + dueAfterS * 1000 - nowMs) / 1000;
       const endMs = Math.min(infusion.endMs ?? nowMs, nowMs);
-      infusedMl = infusedVolumeMl(plan.infusionRateMlPerMin, protocol.drug?.finalVolumeMl ?? null, Math.max(0, endMs - infusion.startMs) / 1000);
+      infusedMl = infusedVolumeMl(
+        plan.infusionRateMlPerMin,
+        protocol.drug?.finalVolumeMl ?? null,
+        Math.max(0, endMs - infusion.startMs) / 1000,
+      );
     }
   }
 
@@ -119,13 +134,22 @@ export function sessionClock({ protocol, plan, events, nowMs }: SessionClockInpu
       const positionMs = (current.elapsedS * 1000) % cycleMs;
       const lightOn = positionMs < onMs;
       const phaseLeftS = ((lightOn ? onMs : cycleMs) - positionMs) / 1000;
-      pulse = { lightOn, phaseLeftS: current.remainingS === null ? phaseLeftS : Math.min(phaseLeftS, current.remainingS) };
+      pulse = {
+        lightOn,
+        phaseLeftS:
+          current.remainingS === null ? phaseLeftS : Math.min(phaseLeftS, current.remainingS),
+      };
     }
   }
 
   let upcomingChangeInS: number | null = null;
   const consider = (seconds: number | null) => {
-    if (seconds !== null && seconds > 0 && (upcomingChangeInS === null || seconds < upcomingChangeInS)) upcomingChangeInS = seconds;
+    if (
+      seconds !== null &&
+      seconds > 0 &&
+      (upcomingChangeInS === null || seconds < upcomingChangeInS)
+    )
+      upcomingChangeInS = seconds;
   };
   if (current && !current.paused) consider(current.remainingS);
   consider(nextCueInS);
@@ -148,7 +172,11 @@ function lastRunOf(replay: SessionReplay, stepId: string) {
   return runs?.[runs.length - 1];
 }
 
-function currentStep(protocol: ProtocolVersion, replay: SessionReplay, nowMs: number): ClockStep | null {
+function currentStep(
+  protocol: ProtocolVersion,
+  replay: SessionReplay,
+  nowMs: number,
+): ClockStep | null {
   if (replay.openStepId === null) return null;
   const index = protocol.steps.findIndex((step) => step.id === replay.openStepId);
   const step = protocol.steps[index];
@@ -176,15 +204,24 @@ function currentStep(protocol: ProtocolVersion, replay: SessionReplay, nowMs: nu
 function applies(step: ProtocolStep, protocol: ProtocolVersion, replay: SessionReplay): boolean {
   if (step.onlyIf !== 'thickness-below-minimum') return true;
   const last = replay.thicknessReadings[replay.thicknessReadings.length - 1];
-  return protocol.cxl !== null && last !== undefined && last.thicknessUm < protocol.cxl.minStromalThicknessUm;
+  return (
+    protocol.cxl !== null &&
+    last !== undefined &&
+    last.thicknessUm < protocol.cxl.minStromalThicknessUm
+  );
 }
 
-function nextStep(protocol: ProtocolVersion, replay: SessionReplay, current: ClockStep | null): NextStep | null {
+function nextStep(
+  protocol: ProtocolVersion,
+  replay: SessionReplay,
+  current: ClockStep | null,
+): NextStep | null {
   const anchorId = current?.id ?? replay.lastStartedStepId;
   const anchor = anchorId === null ? -1 : protocol.steps.findIndex((step) => step.id === anchorId);
   for (let index = anchor + 1; index < protocol.steps.length; index += 1) {
     const step = protocol.steps[index];
-    if (step && applies(step, protocol, replay)) return { index, id: step.id, kind: step.kind, title: step.title, durationS: step.durationS };
+    if (step && applies(step, protocol, replay))
+      return { index, id: step.id, kind: step.kind, title: step.title, durationS: step.durationS };
   }
   return null;
 }

@@ -27,15 +27,34 @@ export type SessionEventType = (typeof sessionEventTypes)[number];
  * status and start or close its record, so undoing them would leave a status no tap explains. A
  * withdrawal cannot itself be withdrawn either (a correction of a correction is a new tap).
  */
-const notWithdrawable: ReadonlySet<SessionEventType> = new Set(['session-started', 'session-completed', 'session-stopped', 'tap-withdrawn']);
+const notWithdrawable: ReadonlySet<SessionEventType> = new Set([
+  'session-started',
+  'session-completed',
+  'session-stopped',
+  'tap-withdrawn',
+]);
 export const isWithdrawableType = (type: SessionEventType): boolean => !notWithdrawable.has(type);
 
 /** The pre-treatment checks, each confirmed aloud and ticked before the clock starts. */
-export const preTreatmentChecks = ['patientIdentity', 'treatmentEye', 'consent', 'eyewear', 'deviceSettings'] as const;
+export const preTreatmentChecks = [
+  'patientIdentity',
+  'treatmentEye',
+  'consent',
+  'eyewear',
+  'deviceSettings',
+] as const;
 export type PreTreatmentCheck = (typeof preTreatmentChecks)[number];
 
-const stepId = z.string({ error: 'stepId is required' }).regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'stepId must be a step id of the protocol').max(64);
-const reason = (field: string) => z.string({ error: `${field} is required` }).trim().min(5, `${field} must be 5 to 500 characters`).max(500, `${field} must be 5 to 500 characters`);
+const stepId = z
+  .string({ error: 'stepId is required' })
+  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'stepId must be a step id of the protocol')
+  .max(64);
+const reason = (field: string) =>
+  z
+    .string({ error: `${field} is required` })
+    .trim()
+    .min(5, `${field} must be 5 to 500 characters`)
+    .max(500, `${field} must be 5 to 500 characters`);
 
 /** Bounds of the figures a nurse types in at the bedside (device and pump ranges, not clinical limits). */
 export const enteredFigureLimits = {
@@ -54,7 +73,10 @@ const common = {
   /** Made by the client (a UUID) so a retried send is recognised and stored only once. */
   idempotencyKey: z.uuid({ error: 'idempotencyKey must be a UUID' }),
   /** The moment of the tap by the client's clock, corrected by its measured server offset. */
-  clientTime: z.iso.datetime({ offset: true, error: 'clientTime must be an ISO 8601 date-time with offset' }),
+  clientTime: z.iso.datetime({
+    offset: true,
+    error: 'clientTime must be an ISO 8601 date-time with offset',
+  }),
   /**
    * A tap timed after the session ended is taken only as a late entry, with the reason it is
    * entered late; it is shown as a late entry everywhere (the server decides, see lateTapRule).
@@ -69,7 +91,14 @@ export const sessionEventSchema = z.discriminatedUnion(
       ...common,
       type: z.literal('session-started'),
       checks: z.strictObject(
-        Object.fromEntries(preTreatmentChecks.map((c) => [c, z.literal(true, { error: `checks.${c} must be confirmed (true) before the session starts` })])) as Record<PreTreatmentCheck, z.ZodLiteral<true>>,
+        Object.fromEntries(
+          preTreatmentChecks.map((c) => [
+            c,
+            z.literal(true, {
+              error: `checks.${c} must be confirmed (true) before the session starts`,
+            }),
+          ]),
+        ) as Record<PreTreatmentCheck, z.ZodLiteral<true>>,
         { error: `checks must confirm ${preTreatmentChecks.join(', ')}` },
       ),
     }),
@@ -82,7 +111,10 @@ export const sessionEventSchema = z.discriminatedUnion(
       ...common,
       type: z.literal('thickness-measured'),
       stepId,
-      thicknessUm: z.number({ error: 'thicknessUm must be a number in µm' }).min(100, 'thicknessUm must be between 100 and 900 µm').max(900, 'thicknessUm must be between 100 and 900 µm'),
+      thicknessUm: z
+        .number({ error: 'thicknessUm must be a number in µm' })
+        .min(100, 'thicknessUm must be between 100 and 900 µm')
+        .max(900, 'thicknessUm must be between 100 and 900 µm'),
     }),
     z.strictObject({
       ...common,
@@ -94,8 +126,17 @@ export const sessionEventSchema = z.discriminatedUnion(
        * (authorisedById, authorisedByName), never the password. Optional in the shape only so
        * that events stored before this rule still read; the server refuses a new override without them.
        */
-      authoriserEmail: z.email({ error: 'authoriserEmail must be the e-mail of the clinician who authorises the override' }).max(254).optional(),
-      authoriserPassword: z.string({ error: 'authoriserPassword must be text' }).min(1, 'authoriserPassword is required').max(200, 'authoriserPassword must be at most 200 characters').optional(),
+      authoriserEmail: z
+        .email({
+          error: 'authoriserEmail must be the e-mail of the clinician who authorises the override',
+        })
+        .max(254)
+        .optional(),
+      authoriserPassword: z
+        .string({ error: 'authoriserPassword must be text' })
+        .min(1, 'authoriserPassword is required')
+        .max(200, 'authoriserPassword must be at most 200 characters')
+        .optional(),
     }),
     z.strictObject({
       ...common,
@@ -105,7 +146,13 @@ export const sessionEventSchema = z.discriminatedUnion(
       volumeInfusedMl: boundedNumber('volumeInfusedMl', 'mL').optional(),
     }),
     /** The exposure time (and energy) the laser displays at the end of the light step: the figure the exposure is judged on. */
-    z.strictObject({ ...common, type: z.literal('exposure-recorded'), stepId, exposureS: boundedNumber('exposureS', 's'), energyJ: boundedNumber('energyJ', 'J').optional() }),
+    z.strictObject({
+      ...common,
+      type: z.literal('exposure-recorded'),
+      stepId,
+      exposureS: boundedNumber('exposureS', 's'),
+      energyJ: boundedNumber('energyJ', 'J').optional(),
+    }),
     z.strictObject({
       ...common,
       type: z.literal('session-stopped'),

@@ -19,7 +19,11 @@ export function CrashScreen() {
         title="Luxtempo stopped unexpectedly"
         actions={
           <>
-            <button type="button" className={buttonClasses('primary')} onClick={() => window.location.reload()}>
+            <button
+              type="button"
+              className={buttonClasses('primary')}
+              onClick={() => window.location.reload()}
+            >
               <ReloadIcon />
               Reload the page
             </button>
@@ -29,7 +33,10 @@ export function CrashScreen() {
           </>
         }
       >
-        <p>Anything already saved is kept. Reload to carry on; if it happens again, tell your unit&rsquo;s administrator.</p>
+        <p>
+          Anything already saved is kept. Reload to carry on; if it happens again, tell your
+          unit&rsquo;s administrator.
+        </p>
         <KeptDraftNotice />
       </StatusPanel>
     </PlainPage>

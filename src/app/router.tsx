@@ -40,146 +40,233 @@ export const router = createBrowserRouter([
     children: [
       {
         path: paths.signIn.path,
-        lazy: screen(() => import('./routes/sign-in'), (m) => m.SignInRoute),
+        lazy: screen(
+          () => import('./routes/sign-in'),
+          (m) => m.SignInRoute,
+        ),
       },
       {
         path: paths.setPassword.path,
-        lazy: screen(() => import('./routes/set-password'), (m) => m.SetPasswordRoute),
+        lazy: screen(
+          () => import('./routes/set-password'),
+          (m) => m.SetPasswordRoute,
+        ),
       },
       {
         id: 'signed-in',
-        lazy: screen(() => import('./layout/authenticated-layout'), (m) => m.AuthenticatedLayout),
+        lazy: screen(
+          () => import('./layout/authenticated-layout'),
+          (m) => m.AuthenticatedLayout,
+        ),
         children: [
           {
             path: paths.today.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/today'), (m) => m.TodayRoute),
+            lazy: screen(
+              () => import('./routes/today'),
+              (m) => m.TodayRoute,
+            ),
           },
           {
             path: paths.changePassword.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/change-password'), (m) => m.ChangePasswordRoute),
+            lazy: screen(
+              () => import('./routes/change-password'),
+              (m) => m.ChangePasswordRoute,
+            ),
           },
           {
             path: paths.people.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/people'), (m) => m.PeopleRoute),
+            lazy: screen(
+              () => import('./routes/people'),
+              (m) => m.PeopleRoute,
+            ),
           },
           {
             path: paths.patients.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/patients'), (m) => m.PatientsRoute),
+            lazy: screen(
+              () => import('./routes/patients'),
+              (m) => m.PatientsRoute,
+            ),
           },
           {
             path: paths.patient.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/patients-record'), (m) => m.PatientRecordRoute),
+            lazy: screen(
+              () => import('./routes/patients-record'),
+              (m) => m.PatientRecordRoute,
+            ),
           },
           {
             path: paths.orders.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/orders'), (m) => m.OrdersRoute),
+            lazy: screen(
+              () => import('./routes/orders'),
+              (m) => m.OrdersRoute,
+            ),
           },
           {
             path: paths.newOrder.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/order-new'), (m) => m.NewOrderRoute),
+            lazy: screen(
+              () => import('./routes/order-new'),
+              (m) => m.NewOrderRoute,
+            ),
           },
           {
             path: paths.order.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/order-detail'), (m) => m.OrderDetailRoute),
+            lazy: screen(
+              () => import('./routes/order-detail'),
+              (m) => m.OrderDetailRoute,
+            ),
           },
           {
             path: paths.orderEdit.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/order-edit'), (m) => m.OrderEditRoute),
+            lazy: screen(
+              () => import('./routes/order-edit'),
+              (m) => m.OrderEditRoute,
+            ),
           },
           {
             path: paths.orderAmend.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/order-amend'), (m) => m.OrderAmendRoute),
+            lazy: screen(
+              () => import('./routes/order-amend'),
+              (m) => m.OrderAmendRoute,
+            ),
           },
           {
             path: paths.orderDischarge.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/order-discharge'), (m) => m.OrderDischargeRoute),
+            lazy: screen(
+              () => import('./routes/order-discharge'),
+              (m) => m.OrderDischargeRoute,
+            ),
           },
           {
             path: paths.protocols.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/protocols'), (m) => m.ProtocolsRoute),
+            lazy: screen(
+              () => import('./routes/protocols'),
+              (m) => m.ProtocolsRoute,
+            ),
           },
           {
             path: paths.protocolVersion.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/protocol-version'), (m) => m.ProtocolVersionRoute),
+            lazy: screen(
+              () => import('./routes/protocol-version'),
+              (m) => m.ProtocolVersionRoute,
+            ),
           },
           {
             path: paths.protocolCompare.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/protocol-compare'), (m) => m.ProtocolCompareRoute),
+            lazy: screen(
+              () => import('./routes/protocol-compare'),
+              (m) => m.ProtocolCompareRoute,
+            ),
           },
           {
             path: paths.lightCalculator.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/light-calculator'), (m) => m.LightCalculatorRoute),
+            lazy: screen(
+              () => import('./routes/light-calculator'),
+              (m) => m.LightCalculatorRoute,
+            ),
           },
           {
             path: paths.doseChecks.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/dose-checks'), (m) => m.DoseChecksRoute),
+            lazy: screen(
+              () => import('./routes/dose-checks'),
+              (m) => m.DoseChecksRoute,
+            ),
           },
           {
             path: paths.doseCheck.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/dose-check'), (m) => m.DoseCheckRoute),
+            lazy: screen(
+              () => import('./routes/dose-check'),
+              (m) => m.DoseCheckRoute,
+            ),
           },
           {
             path: paths.outbox.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/outbox'), (m) => m.OutboxRoute),
+            lazy: screen(
+              () => import('./routes/outbox'),
+              (m) => m.OutboxRoute,
+            ),
           },
           {
             path: paths.deviations.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/deviations'), (m) => m.DeviationsRoute),
+            lazy: screen(
+              () => import('./routes/deviations'),
+              (m) => m.DeviationsRoute,
+            ),
           },
           {
             path: paths.deviation.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/deviation-review'), (m) => m.DeviationReviewRoute),
+            lazy: screen(
+              () => import('./routes/deviation-review'),
+              (m) => m.DeviationReviewRoute,
+            ),
           },
           {
             path: paths.doseRecords.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/dose-records'), (m) => m.DoseRecordsRoute),
+            lazy: screen(
+              () => import('./routes/dose-records'),
+              (m) => m.DoseRecordsRoute,
+            ),
           },
           {
             path: paths.doseRecordPrint.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/dose-records'), (m) => m.DoseRecordPrintRoute),
+            lazy: screen(
+              () => import('./routes/dose-records'),
+              (m) => m.DoseRecordPrintRoute,
+            ),
           },
           {
             path: paths.trends.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/trends'), (m) => m.TrendsRoute),
+            lazy: screen(
+              () => import('./routes/trends'),
+              (m) => m.TrendsRoute,
+            ),
           },
           {
             path: paths.auditTrail.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/audit-trail'), (m) => m.AuditTrailRoute),
+            lazy: screen(
+              () => import('./routes/audit-trail'),
+              (m) => m.AuditTrailRoute,
+            ),
           },
           {
             path: paths.stepClock.path,
             errorElement: <RouteErrorScreen framed={false} />,
-            lazy: screen(() => import('./routes/step-clock'), (m) => m.StepClockRoute),
+            lazy: screen(
+              () => import('./routes/step-clock'),
+              (m) => m.StepClockRoute,
+            ),
           },
         ],
       },
       {
         path: '*',
-        lazy: screen(() => import('./routes/not-found'), (m) => m.NotFoundRoute),
+        lazy: screen(
+          () => import('./routes/not-found'),
+          (m) => m.NotFoundRoute,
+        ),
       },
     ],
   },

@@ -3,19 +3,36 @@ import { doseGivenText } from '../lib/dose-given-words';
 import type { GivenRecord, ProtocolSteps } from '../lib/session-record-schemas';
 import { formatDurationS, formatFigure, formatUnitClock } from '../lib/unit-times';
 
-const bsaFormulaWords: Record<string, string> = { mosteller: 'Mosteller', 'du-bois': 'Du Bois', haycock: 'Haycock', 'gehan-george': 'Gehan–George', boyd: 'Boyd' };
+const bsaFormulaWords: Record<string, string> = {
+  mosteller: 'Mosteller',
+  'du-bois': 'Du Bois',
+  haycock: 'Haycock',
+  'gehan-george': 'Gehan–George',
+  boyd: 'Boyd',
+};
 
 type Row = { label: string; planned: string; given: string; note?: string };
 
 const sum = (a: number | null, b: number | null) => (a === null || b === null ? null : a + b);
 
 /** Plan figures beside the figures the session's events give, for the kind of treatment. */
-function rowsFor(plan: DosePlan, record: GivenRecord | null, steps: ProtocolSteps | undefined): Row[] {
+function rowsFor(
+  plan: DosePlan,
+  record: GivenRecord | null,
+  steps: ProtocolSteps | undefined,
+): Row[] {
   const given = record;
   const stepOfKind = (kind: string) => steps?.definition.steps.find((s) => s.kind === kind);
   if ((record?.kind ?? (plan.doseMg !== null ? 'pdt' : 'cxl')) === 'pdt') {
     return [
-      { label: 'BSA', planned: formatFigure(plan.bsaM2, 'm²'), given: '—', note: plan.bsaFormula ? `${bsaFormulaWords[plan.bsaFormula] ?? plan.bsaFormula} formula` : undefined },
+      {
+        label: 'BSA',
+        planned: formatFigure(plan.bsaM2, 'm²'),
+        given: '—',
+        note: plan.bsaFormula
+          ? `${bsaFormulaWords[plan.bsaFormula] ?? plan.bsaFormula} formula`
+          : undefined,
+      },
       {
         label: 'Verteporfin dose',
         planned: formatFigure(plan.doseMg, 'mg'),
@@ -26,42 +43,122 @@ function rowsFor(plan: DosePlan, record: GivenRecord | null, steps: ProtocolStep
         label: 'Infusion volume',
         planned: formatFigure(sum(plan.drugVolumeMl, plan.diluentVolumeMl), 'mL'),
         given: formatFigure(given?.volumeGivenMl, 'mL'),
-        note: given?.volumeGivenSource === 'entered' ? 'Given = read off the pump by the nurse.' : 'Given = planned rate × infusion time, not a pump reading.',
+        note:
+          given?.volumeGivenSource === 'entered'
+            ? 'Given = read off the pump by the nurse.'
+            : 'Given = planned rate × infusion time, not a pump reading.',
       },
-      { label: 'Infusion time', planned: formatDurationS(plan.infusionEndAfterStartS), given: formatDurationS(given?.infusionDurationS) },
-      { label: 'Light start after infusion start', planned: formatDurationS(plan.lightStartAfterInfusionStartS), given: formatDurationS(given?.lightStartAfterInfusionStartS) },
-      { label: 'Irradiance', planned: formatFigure(plan.irradianceMwPerCm2, 'mW/cm²'), given: formatFigure(given?.irradianceMwPerCm2, 'mW/cm²'), note: 'Set on the laser; taken from the plan.' },
-      { label: 'Exposure on the laser', planned: formatDurationS(plan.exposureS), given: formatDurationS(given?.deviceExposureS), note: given?.deviceEnergyJ != null ? `Energy on the laser ${formatFigure(given.deviceEnergyJ, 'J')}.` : 'As the nurse read it off the laser; the exposure is judged on it.' },
-      { label: 'Light on-time by the taps', planned: formatDurationS(plan.exposureS), given: formatDurationS(given?.lightOnS), note: 'Information: the taps’ difference.' },
-      { label: 'Fluence', planned: formatFigure(plan.fluenceJPerCm2, 'J/cm²'), given: formatFigure(given?.deliveredFluenceJPerCm2, 'J/cm²') },
-      { label: 'Spot diameter (retina)', planned: formatFigure(plan.spotDiameterUm, 'µm', 0), given: '—' },
+      {
+        label: 'Infusion time',
+        planned: formatDurationS(plan.infusionEndAfterStartS),
+        given: formatDurationS(given?.infusionDurationS),
+      },
+      {
+        label: 'Light start after infusion start',
+        planned: formatDurationS(plan.lightStartAfterInfusionStartS),
+        given: formatDurationS(given?.lightStartAfterInfusionStartS),
+      },
+      {
+        label: 'Irradiance',
+        planned: formatFigure(plan.irradianceMwPerCm2, 'mW/cm²'),
+        given: formatFigure(given?.irradianceMwPerCm2, 'mW/cm²'),
+        note: 'Set on the laser; taken from the plan.',
+      },
+      {
+        label: 'Exposure on the laser',
+        planned: formatDurationS(plan.exposureS),
+        given: formatDurationS(given?.deviceExposureS),
+        note:
+          given?.deviceEnergyJ != null
+            ? `Energy on the laser ${formatFigure(given.deviceEnergyJ, 'J')}.`
+            : 'As the nurse read it off the laser; the exposure is judged on it.',
+      },
+      {
+        label: 'Light on-time by the taps',
+        planned: formatDurationS(plan.exposureS),
+        given: formatDurationS(given?.lightOnS),
+        note: 'Information: the taps’ difference.',
+      },
+      {
+        label: 'Fluence',
+        planned: formatFigure(plan.fluenceJPerCm2, 'J/cm²'),
+        given: formatFigure(given?.deliveredFluenceJPerCm2, 'J/cm²'),
+      },
+      {
+        label: 'Spot diameter (retina)',
+        planned: formatFigure(plan.spotDiameterUm, 'µm', 0),
+        given: '—',
+      },
       { label: 'Laser power', planned: formatFigure(plan.powerMw, 'mW', 1), given: '—' },
     ];
   }
   const soak = stepOfKind('soak');
   const uv = stepOfKind('uv');
   return [
-    { label: 'Riboflavin soak', planned: formatDurationS(soak?.durationS), given: formatDurationS(given?.soakDurationS) },
-    { label: 'Longest gap between drops, soak', planned: soak?.cueEveryS ? `every ${formatDurationS(soak.cueEveryS)}` : '—', given: formatDurationS(given?.longestDropGapSoakS) },
+    {
+      label: 'Riboflavin soak',
+      planned: formatDurationS(soak?.durationS),
+      given: formatDurationS(given?.soakDurationS),
+    },
+    {
+      label: 'Longest gap between drops, soak',
+      planned: soak?.cueEveryS ? `every ${formatDurationS(soak.cueEveryS)}` : '—',
+      given: formatDurationS(given?.longestDropGapSoakS),
+    },
     {
       label: 'Stromal thickness before UV',
-      planned: steps?.definition.cxl ? `at least ${formatFigure(steps.definition.cxl.minStromalThicknessUm, 'µm', 0)}` : '—',
+      planned: steps?.definition.cxl
+        ? `at least ${formatFigure(steps.definition.cxl.minStromalThicknessUm, 'µm', 0)}`
+        : '—',
       given: formatFigure(given?.thicknessBeforeUvUm, 'µm', 0),
-      note: given?.thicknessOverrideReason ? `Minimum overridden: ${given.thicknessOverrideReason}` : undefined,
+      note: given?.thicknessOverrideReason
+        ? `Minimum overridden: ${given.thicknessOverrideReason}`
+        : undefined,
     },
-    { label: 'Irradiance', planned: formatFigure(plan.irradianceMwPerCm2, 'mW/cm²'), given: formatFigure(given?.irradianceMwPerCm2, 'mW/cm²'), note: 'Set on the device; taken from the plan.' },
-    { label: 'UV on-time', planned: formatDurationS(plan.uvTimeS), given: formatDurationS(given?.uvOnS) },
-    { label: 'UV elapsed time', planned: formatDurationS(plan.uvElapsedS), given: formatDurationS(given?.uvElapsedS) },
-    { label: 'Longest gap between drops, UV', planned: uv?.cueEveryS ? `every ${formatDurationS(uv.cueEveryS)}` : '—', given: formatDurationS(given?.longestDropGapUvS) },
-    { label: 'Fluence', planned: formatFigure(plan.fluenceJPerCm2, 'J/cm²'), given: formatFigure(given?.deliveredFluenceJPerCm2, 'J/cm²') },
+    {
+      label: 'Irradiance',
+      planned: formatFigure(plan.irradianceMwPerCm2, 'mW/cm²'),
+      given: formatFigure(given?.irradianceMwPerCm2, 'mW/cm²'),
+      note: 'Set on the device; taken from the plan.',
+    },
+    {
+      label: 'UV on-time',
+      planned: formatDurationS(plan.uvTimeS),
+      given: formatDurationS(given?.uvOnS),
+    },
+    {
+      label: 'UV elapsed time',
+      planned: formatDurationS(plan.uvElapsedS),
+      given: formatDurationS(given?.uvElapsedS),
+    },
+    {
+      label: 'Longest gap between drops, UV',
+      planned: uv?.cueEveryS ? `every ${formatDurationS(uv.cueEveryS)}` : '—',
+      given: formatDurationS(given?.longestDropGapUvS),
+    },
+    {
+      label: 'Fluence',
+      planned: formatFigure(plan.fluenceJPerCm2, 'J/cm²'),
+      given: formatFigure(given?.deliveredFluenceJPerCm2, 'J/cm²'),
+    },
   ];
 }
 
-type PlanAndGivenProps = { plan: DosePlan | null; record: GivenRecord | null; steps: ProtocolSteps | undefined; headingId: string };
+type PlanAndGivenProps = {
+  plan: DosePlan | null;
+  record: GivenRecord | null;
+  steps: ProtocolSteps | undefined;
+  headingId: string;
+};
 
 /** The plan's key figures beside what the session gave, as one table. */
 export function PlanAndGiven({ plan, record, steps, headingId }: PlanAndGivenProps) {
-  if (!plan) return <p className="text-paper-700">The order’s plan is not available to you, so only what was given is shown below.</p>;
+  if (!plan)
+    return (
+      <p className="text-paper-700">
+        The order’s plan is not available to you, so only what was given is shown below.
+      </p>
+    );
   const rows = rowsFor(plan, record, steps);
   return (
     <div className="relative overflow-x-auto rounded-xl border border-paper-200">
@@ -84,10 +181,14 @@ export function PlanAndGiven({ plan, record, steps, headingId }: PlanAndGivenPro
             <tr key={row.label} className="border-t border-paper-200 align-top">
               <th scope="row" className="px-3 py-2 font-medium text-paper-900">
                 {row.label}
-                {row.note && <span className="block text-sm font-normal text-paper-600">{row.note}</span>}
+                {row.note && (
+                  <span className="block text-sm font-normal text-paper-600">{row.note}</span>
+                )}
               </th>
               <td className="numerals-steady px-3 py-2 whitespace-nowrap">{row.planned}</td>
-              <td className="numerals-steady px-3 py-2 font-semibold whitespace-nowrap">{row.given}</td>
+              <td className="numerals-steady px-3 py-2 font-semibold whitespace-nowrap">
+                {row.given}
+              </td>
             </tr>
           ))}
         </tbody>
@@ -98,8 +199,16 @@ export function PlanAndGiven({ plan, record, steps, headingId }: PlanAndGivenPro
 
 /** When the session ran and how it ended. */
 export function SessionTimes({ record }: { record: GivenRecord | null }) {
-  if (!record) return <p className="text-paper-700">No dose record was derived for this session.</p>;
-  const outcome = record.outcome === 'completed' ? 'Completed' : record.outcome === 'stopped' ? 'Stopped early' : record.outcome === 'in-progress' ? 'Still running' : 'Not started';
+  if (!record)
+    return <p className="text-paper-700">No dose record was derived for this session.</p>;
+  const outcome =
+    record.outcome === 'completed'
+      ? 'Completed'
+      : record.outcome === 'stopped'
+        ? 'Stopped early'
+        : record.outcome === 'in-progress'
+          ? 'Still running'
+          : 'Not started';
   return (
     <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1">
       <dt className="text-paper-700">Outcome</dt>

@@ -7,7 +7,9 @@ export const paths = {
     path: '/sign-in',
     /** `redirectTo` is where the person was heading; they land there after signing in. */
     getHref: (redirectTo?: string | null) =>
-      redirectTo && redirectTo !== '/' ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : '/sign-in',
+      redirectTo && redirectTo !== '/'
+        ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}`
+        : '/sign-in',
   },
   /** Public: the page a one-time link opens; the token follows in the fragment (`#…`). */
   setPassword: {
@@ -58,7 +60,9 @@ export const paths = {
   newOrder: {
     path: '/orders/new',
     getHref: (patientId?: number | string) =>
-      patientId !== undefined ? `/orders/new?patientId=${encodeURIComponent(String(patientId))}` : '/orders/new',
+      patientId !== undefined
+        ? `/orders/new?patientId=${encodeURIComponent(String(patientId))}`
+        : '/orders/new',
   },
   order: {
     path: '/orders/:id',
@@ -114,7 +118,8 @@ export const paths = {
   doseRecordPrint: {
     path: '/dose-records/:orderId/print',
     /** One order's dose record laid out for printing and filing in the chart. */
-    getHref: (orderId: number | string) => `/dose-records/${encodeURIComponent(String(orderId))}/print`,
+    getHref: (orderId: number | string) =>
+      `/dose-records/${encodeURIComponent(String(orderId))}/print`,
   },
   trends: {
     path: '/trends',

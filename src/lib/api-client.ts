@@ -19,7 +19,13 @@ export class ApiRequestError extends Error {
   /** Seconds the server asked us to wait (Retry-After), when it said. */
   readonly retryAfterS: number | null;
 
-  constructor(init: { status: number; code: string; message: string; fields?: FieldProblem[]; retryAfterS?: number | null }) {
+  constructor(init: {
+    status: number;
+    code: string;
+    message: string;
+    fields?: FieldProblem[];
+    retryAfterS?: number | null;
+  }) {
     super(init.message);
     this.name = 'ApiRequestError';
     this.status = init.status;
@@ -91,7 +97,8 @@ export async function apiRequest<T>(path: string, options: RequestOptions<T> = {
     throw new ApiRequestError({
       status: 0,
       code: 'network_unreachable',
-      message: 'The Luxtempo server could not be reached. Check the network connection and try again.',
+      message:
+        'The Luxtempo server could not be reached. Check the network connection and try again.',
     });
   }
 
@@ -117,7 +124,8 @@ export async function apiRequest<T>(path: string, options: RequestOptions<T> = {
 }
 
 export const api = {
-  get: <T>(path: string, options?: Omit<RequestOptions<T>, 'method' | 'body'>) => apiRequest<T>(path, { ...options, method: 'GET' }),
+  get: <T>(path: string, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
+    apiRequest<T>(path, { ...options, method: 'GET' }),
   post: <T>(path: string, body?: unknown, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
     apiRequest<T>(path, { ...options, method: 'POST', body }),
   put: <T>(path: string, body: unknown, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
@@ -125,8 +133,11 @@ export const api = {
   patch: <T>(path: string, body: unknown, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
     apiRequest<T>(path, { ...options, method: 'PATCH', body }),
   /** Posts files as multipart form data; errors and a 401 are handled as for every other call. */
-  upload: <T>(path: string, formData: FormData, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
-    apiRequest<T>(path, { ...options, method: 'POST', body: formData }),
+  upload: <T>(
+    path: string,
+    formData: FormData,
+    options?: Omit<RequestOptions<T>, 'method' | 'body'>,
+  ) => apiRequest<T>(path, { ...options, method: 'POST', body: formData }),
   delete: <T = void>(path: string, options?: Omit<RequestOptions<T>, 'method' | 'body'>) =>
     apiRequest<T>(path, { ...options, method: 'DELETE' }),
 };
@@ -155,13 +166,16 @@ function toRequestError(response: Response, payload: unknown): ApiRequestError {
   });
 }
 
-function readErrorBody(payload: unknown): { code: string; message: string; fields: FieldProblem[] } | null {
+function readErrorBody(
+  payload: unknown,
+): { code: string; message: string; fields: FieldProblem[] } | null {
   if (!isRecord(payload) || !isRecord(payload.error)) return null;
   const { code, message, fields } = payload.error;
   if (typeof code !== 'string' || typeof message !== 'string') return null;
   const cleanFields = Array.isArray(fields)
     ? fields.filter(
-        (f): f is FieldProblem => isRecord(f) && typeof f.path === 'string' && typeof f.message === 'string',
+        (f): f is FieldProblem =>
+          isRecord(f) && typeof f.path === 'string' && typeof f.message === 'string',
       )
     : [];
   return { code, message, fields: cleanFields };
@@ -174,7 +188,8 @@ function fallbackMessage(status: number): string {
   if (status === 413) return 'What was sent is larger than the server accepts.';
   if (status === 415) return 'The server does not accept this kind of file.';
   if (status === 429) return 'Too many requests in a short time. Wait a little and try again.';
-  if (status >= 500) return `The Luxtempo server could not answer just now (HTTP ${status}). Try again in a moment.`;
+  if (status >= 500)
+    return `The Luxtempo server could not answer just now (HTTP ${status}). Try again in a moment.`;
   return `The request was refused (HTTP ${status}).`;
 }
 
@@ -182,7 +197,8 @@ function unexpectedShape(status: number): ApiRequestError {
   return new ApiRequestError({
     status,
     code: 'unexpected_response',
-    message: 'The server answered in a form this screen does not understand. Reload the page; if it persists, tell your administrator.',
+    message:
+      'The server answered in a form this screen does not understand. Reload the page; if it persists, tell your administrator.',
   });
 }
 

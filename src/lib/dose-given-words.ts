@@ -18,7 +18,10 @@ export function doseGivenText(record: GivenFigures): string | null {
 /** "12 mL, read off the pump" or "30 mL, worked out from the planned rate and the infusion time". */
 export function volumeGivenText(record: GivenFigures): string | null {
   if (record.volumeGivenMl == null) return null;
-  const how = record.volumeGivenSource === 'entered' ? 'read off the pump' : 'worked out from the planned rate and the infusion time';
+  const how =
+    record.volumeGivenSource === 'entered'
+      ? 'read off the pump'
+      : 'worked out from the planned rate and the infusion time';
   return `${formatNumber(roundToStep(record.volumeGivenMl, 0.1))} mL, ${how}`;
 }
 

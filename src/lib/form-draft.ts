@@ -11,7 +11,12 @@ import { createContext, useCallback, useContext, useEffect, useRef, useState } f
  *   linger on a shared ward tablet.
  * localStorage rather than sessionStorage, so a closed tab or a browser killed mid-form keeps it too.
  */
-export type KeptDraft<T> = { ownerId: number; savedAt: string; values: T; /** What the values were based on, e.g. the version of the order read. */ basis?: unknown };
+export type KeptDraft<T> = {
+  ownerId: number;
+  savedAt: string;
+  values: T;
+  /** What the values were based on, e.g. the version of the order read. */ basis?: unknown;
+};
 
 export const draftLifetimeMs = 12 * 60 * 60 * 1000;
 
@@ -48,7 +53,11 @@ export function draftsKeptInThisPage(): number {
   return keptInThisPage.size;
 }
 
-export function readKeptDraft<T>(key: string, ownerId: number | null, nowMs = Date.now()): KeptDraft<T> | null {
+export function readKeptDraft<T>(
+  key: string,
+  ownerId: number | null,
+  nowMs = Date.now(),
+): KeptDraft<T> | null {
   const store = browserStore();
   if (ownerId === null || !store) return null;
   const name = storageKey(ownerId, key);
@@ -56,8 +65,15 @@ export function readKeptDraft<T>(key: string, ownerId: number | null, nowMs = Da
     const raw = store.getItem(name);
     if (raw === null) return null;
     const parsed = JSON.parse(raw) as Partial<KeptDraft<T>> | null;
-    const savedMs = parsed && typeof parsed.savedAt === 'string' ? Date.parse(parsed.savedAt) : Number.NaN;
-    if (!parsed || parsed.ownerId !== ownerId || !Number.isFinite(savedMs) || nowMs - savedMs > draftLifetimeMs || !('values' in parsed)) {
+    const savedMs =
+      parsed && typeof parsed.savedAt === 'string' ? Date.parse(parsed.savedAt) : Number.NaN;
+    if (
+      !parsed ||
+      parsed.ownerId !== ownerId ||
+      !Number.isFinite(savedMs) ||
+      nowMs - savedMs > draftLifetimeMs ||
+      !('values' in parsed)
+    ) {
       store.removeItem(name);
       return null;
     }
@@ -70,7 +86,15 @@ export function readKeptDraft<T>(key: string, ownerId: number | null, nowMs = Da
 export function keepDraft<T>(key: string, ownerId: number, values: T, basis?: unknown): void {
   const name = storageKey(ownerId, key);
   try {
-    browserStore()?.setItem(name, JSON.stringify({ ownerId, savedAt: new Date().toISOString(), values, ...(basis === undefined ? {} : { basis }) } satisfies KeptDraft<T>));
+    browserStore()?.setItem(
+      name,
+      JSON.stringify({
+        ownerId,
+        savedAt: new Date().toISOString(),
+        values,
+        ...(basis === undefined ? {} : { basis }),
+      } satisfies KeptDraft<T>),
+    );
     noteKept(name, true);
   } catch {
     // Storage full or refused: the values still live in the page.
@@ -91,7 +115,8 @@ export function dropDraft(key: string, ownerId: number | null): void {
 function dropWhere(store: Storage | null, drop: (name: string, raw: string | null) => boolean) {
   if (!store) return;
   try {
-    for (const name of Object.keys(store)) if (drop(name, store.getItem(name))) store.removeItem(name);
+    for (const name of Object.keys(store))
+      if (drop(name, store.getItem(name))) store.removeItem(name);
   } catch {
     // Nothing to drop.
   }
@@ -99,7 +124,8 @@ function dropWhere(store: Storage | null, drop: (name: string, raw: string | nul
 
 /** On sign-out: nothing one person typed stays for the next. */
 export function dropAllDrafts(): void {
-  const isDraft = (name: string) => name.startsWith(prefix) || legacyPrefixes.some((p) => name.startsWith(p));
+  const isDraft = (name: string) =>
+    name.startsWith(prefix) || legacyPrefixes.some((p) => name.startsWith(p));
   dropWhere(browserStore(), isDraft);
   try {
     dropWhere(globalThis.sessionStorage ?? null, isDraft);
@@ -114,7 +140,9 @@ export function dropExpiredDrafts(nowMs = Date.now()): void {
   dropWhere(browserStore(), (name, raw) => {
     if (!name.startsWith(prefix)) return false;
     try {
-      const savedMs = Date.parse((JSON.parse(raw ?? 'null') as { savedAt?: string } | null)?.savedAt ?? '');
+      const savedMs = Date.parse(
+        (JSON.parse(raw ?? 'null') as { savedAt?: string } | null)?.savedAt ?? '',
+      );
       return !Number.isFinite(savedMs) || nowMs - savedMs > draftLifetimeMs;
     } catch {
       return true;
@@ -185,7 +213,11 @@ export type FormDraftControl<T> = {
 };
 
 /** The draft a form finds on load, offered until the person restores or discards it. */
-function useOffer<T>(key: string, ownerId: number | null, wanted: (values: T) => boolean = () => true) {
+function useOffer<T>(
+  key: string,
+  ownerId: number | null,
+  wanted: (values: T) => boolean = () => true,
+) {
   const [offered, setOffered] = useState<KeptDraft<T> | null>(() => {
     const kept = readKeptDraft<T>(key, ownerId);
     if (kept && wanted(kept.values)) {
@@ -240,12 +272,20 @@ export function useFormDraft<T>(
     setOffered(null);
     clearWriter();
   }, [clearWriter, setOffered]);
-  const clear = useCallback(() => clearWriter(getValues ? settle(getValues()) : undefined), [clearWriter, getValues, settle]);
+  const clear = useCallback(
+    () => clearWriter(getValues ? settle(getValues()) : undefined),
+    [clearWriter, getValues, settle],
+  );
   return { offered, restore, discard, clear };
 }
 
 /** The same for a form kept in plain React state; `differs` says whether there is anything to keep. */
-export function useStateDraft<T>(key: string, current: T, setCurrent: (values: T) => void, differs: (values: T) => boolean): FormDraftControl<T> {
+export function useStateDraft<T>(
+  key: string,
+  current: T,
+  setCurrent: (values: T) => void,
+  differs: (values: T) => boolean,
+): FormDraftControl<T> {
   const ownerId = useContext(DraftOwnerContext);
   const { offered, setOffered } = useOffer<T>(key, ownerId, differs);
   const { schedule, clear: clearWriter } = useDraftWriter<T>(key, ownerId, 200);
@@ -282,8 +322,15 @@ export function useKeptState<T>(key: string, initial: T): [T, (next: T) => void,
   const initialValue = useRef(initial).current;
   const [value, setValue] = useState<T>(() => {
     const kept = readKeptDraft<unknown>(key, ownerId)?.values;
-    if (kept === undefined || kept === null || typeof kept !== typeof initialValue || Array.isArray(kept) !== Array.isArray(initialValue)) return initialValue;
-    if (typeof kept === 'object' && !Array.isArray(kept)) return { ...initialValue, ...(kept as object) } as T;
+    if (
+      kept === undefined ||
+      kept === null ||
+      typeof kept !== typeof initialValue ||
+      Array.isArray(kept) !== Array.isArray(initialValue)
+    )
+      return initialValue;
+    if (typeof kept === 'object' && !Array.isArray(kept))
+      return { ...initialValue, ...(kept as object) } as T;
     return kept as T;
   });
   const update = useCallback(
@@ -320,7 +367,8 @@ export function overDefaults<T extends object>(defaults: T): (raw: unknown) => T
     const kept = raw && typeof raw === 'object' ? (raw as Record<string, unknown>) : {};
     const merged: Record<string, unknown> = { ...(defaults as Record<string, unknown>) };
     // A kept value of another type than the default (an older form, a hand-edited store) is not trusted.
-    for (const [name, fallback] of Object.entries(defaults)) if (typeof kept[name] === typeof fallback) merged[name] = kept[name];
+    for (const [name, fallback] of Object.entries(defaults))
+      if (typeof kept[name] === typeof fallback) merged[name] = kept[name];
     return merged as T;
   };
 }

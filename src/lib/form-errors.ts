@@ -5,10 +5,14 @@ import type { ApiRequestError } from './api-client';
  * Shared schemas word their messages with the field's key ("displayName must be …") because
  * the API returns them too. Screens swap the key for the label the person sees.
  */
-export function readableMessage(message: string | undefined, labels: Record<string, string>): string | undefined {
+export function readableMessage(
+  message: string | undefined,
+  labels: Record<string, string>,
+): string | undefined {
   if (!message) return message;
   for (const [key, label] of Object.entries(labels)) {
-    if (message === key || message.startsWith(`${key} `)) return `${label}${message.slice(key.length)}`;
+    if (message === key || message.startsWith(`${key} `))
+      return `${label}${message.slice(key.length)}`;
   }
   return message.charAt(0).toUpperCase() + message.slice(1);
 }
@@ -32,8 +36,13 @@ export function applyServerFieldErrors<T extends FieldValues>(
 }
 
 /** Field problems that no field on this form can show; the form lists them in its alert. */
-export function unplacedFieldProblems(error: ApiRequestError, fieldNames: readonly string[]): string[] {
-  return error.fields.filter((problem) => !fieldNames.includes(fieldOf(problem.path))).map((problem) => problem.message);
+export function unplacedFieldProblems(
+  error: ApiRequestError,
+  fieldNames: readonly string[],
+): string[] {
+  return error.fields
+    .filter((problem) => !fieldNames.includes(fieldOf(problem.path)))
+    .map((problem) => problem.message);
 }
 
 function fieldOf(path: string): string {

@@ -2,7 +2,12 @@
  * A list's parameters read from the address, starting from the defaults; `readOne` gives
  * undefined for a parameter that is missing or that the API would refuse.
  */
-export function readListParams<T extends object, K extends string>(search: URLSearchParams, defaults: T, keys: readonly K[], readOne: (search: URLSearchParams, key: K) => unknown): T {
+export function readListParams<T extends object, K extends string>(
+  search: URLSearchParams,
+  defaults: T,
+  keys: readonly K[],
+  readOne: (search: URLSearchParams, key: K) => unknown,
+): T {
   const params = { ...defaults };
   for (const key of keys) {
     const value = readOne(search, key);
@@ -15,7 +20,11 @@ export function readListParams<T extends object, K extends string>(search: URLSe
  * A list's parameters as search params. Unset, empty and default values are left out, so the
  * address shows only what the person chose.
  */
-export function writeListParams<K extends string>(values: Partial<Record<K, unknown>>, keys: readonly K[], defaults: Partial<Record<K, unknown>> = {}): URLSearchParams {
+export function writeListParams<K extends string>(
+  values: Partial<Record<K, unknown>>,
+  keys: readonly K[],
+  defaults: Partial<Record<K, unknown>> = {},
+): URLSearchParams {
   const out = new URLSearchParams();
   for (const key of keys) {
     const value = values[key];

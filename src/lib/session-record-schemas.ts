@@ -18,11 +18,25 @@ export const withdrawnTapSchema = z.object({
 export type WithdrawnTap = z.infer<typeof withdrawnTapSchema>;
 
 /** A tap entered after the session ended, with its reason. */
-export const lateEntrySchema = z.object({ idempotencyKey: z.string(), type: z.string(), stepId: z.string().nullable(), at: z.string(), receivedAt: z.string().nullable(), reason: z.string() });
+export const lateEntrySchema = z.object({
+  idempotencyKey: z.string(),
+  type: z.string(),
+  stepId: z.string().nullable(),
+  at: z.string(),
+  receivedAt: z.string().nullable(),
+  reason: z.string(),
+});
 export type LateEntry = z.infer<typeof lateEntrySchema>;
 
 /** A tap that reached the server more than a minute after it was made. */
-export const receiptDelaySchema = z.object({ idempotencyKey: z.string(), type: z.string(), stepId: z.string().nullable(), at: z.string(), receivedAt: z.string(), delayS: z.number() });
+export const receiptDelaySchema = z.object({
+  idempotencyKey: z.string(),
+  type: z.string(),
+  stepId: z.string().nullable(),
+  at: z.string(),
+  receivedAt: z.string(),
+  delayS: z.number(),
+});
 export type ReceiptDelay = z.infer<typeof receiptDelaySchema>;
 
 /** What was given, derived by the server from the session's events. */
@@ -74,7 +88,15 @@ export const protocolStepsSchema = z.object({
     version: z.number().int(),
     title: z.string(),
     definition: z.object({
-      steps: z.array(z.object({ id: z.string(), kind: z.string(), title: z.string(), durationS: z.number().nullable(), cueEveryS: z.number().optional() })),
+      steps: z.array(
+        z.object({
+          id: z.string(),
+          kind: z.string(),
+          title: z.string(),
+          durationS: z.number().nullable(),
+          cueEveryS: z.number().optional(),
+        }),
+      ),
       cxl: z.object({ minStromalThicknessUm: z.number() }).nullable().optional(),
     }),
   }),

@@ -26,7 +26,10 @@ export async function sendBeforeSignOut(personId: number): Promise<void> {
   await Promise.all(
     [...steps.values()].map((step) =>
       step.send
-        ? Promise.race([step.send(personId).catch(() => undefined), new Promise<void>((resolve) => setTimeout(resolve, sendBeforeSignOutMs))])
+        ? Promise.race([
+            step.send(personId).catch(() => undefined),
+            new Promise<void>((resolve) => setTimeout(resolve, sendBeforeSignOutMs)),
+          ])
         : undefined,
     ),
   );
@@ -40,7 +43,10 @@ export async function clearAfterSignOut(personId: number): Promise<void> {
   await Promise.all(
     [...steps.values()].map(async (step) => {
       try {
-        await Promise.race([step.clear?.(personId), new Promise<void>((resolve) => setTimeout(resolve, clearAfterSignOutMs))]);
+        await Promise.race([
+          step.clear?.(personId),
+          new Promise<void>((resolve) => setTimeout(resolve, clearAfterSignOutMs)),
+        ]);
       } catch {
         // One feature failing to clear must not keep the others' data.
       }

@@ -6,7 +6,9 @@ import { unitTimeZone } from '../config/unit-time-zone';
 export function formatUnitDateTime(iso: string | null | undefined): string {
   if (!iso) return '—';
   const at = DateTime.fromISO(iso, { setZone: true });
-  return at.isValid ? at.setZone(unitTimeZone).setLocale('en-GB').toFormat('d LLL yyyy, HH:mm') : iso;
+  return at.isValid
+    ? at.setZone(unitTimeZone).setLocale('en-GB').toFormat('d LLL yyyy, HH:mm')
+    : iso;
 }
 
 /** The unit's calendar date of an instant, e.g. "7 Nov 2026". */
@@ -34,6 +36,10 @@ export function formatDurationS(seconds: number | null | undefined): string {
 }
 
 /** A figure with its unit, rounded for reading (the stored figure keeps its precision). */
-export function formatFigure(value: number | null | undefined, unit: string | null | undefined, digits = 2): string {
+export function formatFigure(
+  value: number | null | undefined,
+  unit: string | null | undefined,
+  digits = 2,
+): string {
   return formatQuantity(value, unit ?? '', digits);
 }

@@ -27,10 +27,15 @@ export function useLatestSearchParams(): [URLSearchParams, (change: SearchChange
       const current = window.location.search;
       const waiting = unwritten.current;
       // Once the address has moved on (the change was written, or the person went back), it is the truth again.
-      const latest = new URLSearchParams(waiting && waiting.over === current ? waiting.search : current);
+      const latest = new URLSearchParams(
+        waiting && waiting.over === current ? waiting.search : current,
+      );
       const next = change(latest);
       setSearch(next);
-      unwritten.current = window.location.search === current && !sameSearch(next, current) ? { over: current, search: next } : null;
+      unwritten.current =
+        window.location.search === current && !sameSearch(next, current)
+          ? { over: current, search: next }
+          : null;
     },
     [setSearch],
   );

@@ -19,7 +19,15 @@ const drop = (n: number): SessionEventInput => ({
 
 /** The store's contract in memory: what the sender needs, nothing persisted; every tap is the signed-in nurse's. */
 function memoryStore(orderId: number, events: SessionEventInput[]): TapStore {
-  let taps: KeptTap[] = events.map((event, index) => ({ key: event.idempotencyKey, orderId, by: nurseId, event, state: 'unsent', keptAtMs: index, refusal: null }));
+  let taps: KeptTap[] = events.map((event, index) => ({
+    key: event.idempotencyKey,
+    orderId,
+    by: nurseId,
+    event,
+    state: 'unsent',
+    keptAtMs: index,
+    refusal: null,
+  }));
   const listeners = new Set<() => void>();
   const change = (key: string, update: (tap: KeptTap) => KeptTap) => {
     taps = taps.map((tap) => (tap.key === key ? update(tap) : tap));
@@ -33,7 +41,8 @@ function memoryStore(orderId: number, events: SessionEventInput[]): TapStore {
     heldUnowned: () => 0,
     add: () => undefined,
     markStored: (key) => change(key, (tap) => ({ ...tap, state: 'stored' })),
-    markRefused: (key, refusal: Refusal) => change(key, (tap) => ({ ...tap, state: 'refused', refusal })),
+    markRefused: (key, refusal: Refusal) =>
+      change(key, (tap) => ({ ...tap, state: 'refused', refusal })),
     requeue: (key) => change(key, (tap) => ({ ...tap, state: 'unsent', refusal: null })),
     discard: () => undefined,
     forgetStored: () => undefined,
@@ -59,8 +68,16 @@ const stored = (orderId: number, event: SessionEventInput) =>
     }),
     { status: 201, headers: { 'Content-Type': 'application/json' } },
   );
-const refusedWith = (status: number, code: string, message: string, headers: Record<string, string> = {}) =>
-  new Response(JSON.stringify({ error: { code, message } }), { status, headers: { 'Content-Type': 'application/json', ...headers } });
+const refusedWith = (
+  status: number,
+  code: string,
+  message: string,
+  headers: Record<string, string> = {},
+) =>
+  new Response(JSON.stringify({ error: { code, message } }), {
+    status,
+    headers: { 'Content-Type': 'application/json', ...headers },
+  });
 
 /** Answers each POST in turn from `script`, keyed by the tap's idempotency key; records what was sent. */
 function scriptedServer(orderId: number, script: Record<string, (Response | 'network-down')[]>) {
@@ -75,7 +92,8 @@ function scriptedServer(orderId: number, script: Record<string, (Response | 'net
   return sent;
 }
 
-const stateOf = (store: TapStore) => store.taps().map((tap) => [tap.event.idempotencyKey.slice(-2), tap.state]);
+const stateOf = (store: TapStore) =>
+  store.taps().map((tap) => [tap.event.idempotencyKey.slice(-2), tap.state]);
 
 describe('sending kept taps', () => {
   beforeEach(() => {
@@ -91,18 +109,32 @@ describe('sending kept taps', () => {
     const orderId = 101;
     const [a, b] = [drop(1), drop(2)];
     const store = memoryStore(orderId, [a, b]);
-    const sent = scriptedServer(orderId, { [a.idempotencyKey]: [refusedWith(503, 'db_down', 'The database is not answering.'), 'network-down'] });
+    const sent = scriptedServer(orderId, {
+      [a.idempotencyKey]: [
+        refusedWith(503, 'db_down', 'The database is not answering.'),
+        'network-down',
+      ],
+    });
     const sync = eventSyncFor(orderId, store);
 
     sync.pump();
     await vi.advanceTimersByTimeAsync(0);
-    expect(stateOf(store)).toEqual([['01', 'unsent'], ['02', 'unsent']]);
+    expect(stateOf(store)).toEqual([
+      ['01', 'unsent'],
+      ['02', 'unsent'],
+    ]);
     expect(sync.state().retryAtMs).not.toBeNull();
     await vi.advanceTimersByTimeAsync(1_300);
-    expect(stateOf(store)).toEqual([['01', 'unsent'], ['02', 'unsent']]);
+    expect(stateOf(store)).toEqual([
+      ['01', 'unsent'],
+      ['02', 'unsent'],
+    ]);
     expect(sync.state().offline).toBe(true);
     await vi.advanceTimersByTimeAsync(2_500);
-    expect(stateOf(store)).toEqual([['01', 'stored'], ['02', 'stored']]);
+    expect(stateOf(store)).toEqual([
+      ['01', 'stored'],
+      ['02', 'stored'],
+    ]);
     expect(sent).toEqual([a.idempotencyKey, a.idempotencyKey, a.idempotencyKey, b.idempotencyKey]);
   });
 
@@ -110,7 +142,11 @@ describe('sending kept taps', () => {
     const orderId = 102;
     const a = drop(1);
     const store = memoryStore(orderId, [a]);
-    const sent = scriptedServer(orderId, { [a.idempotencyKey]: [refusedWith(429, 'rate_limited', 'Too many requests.', { 'Retry-After': '5' })] });
+    const sent = scriptedServer(orderId, {
+      [a.idempotencyKey]: [
+        refusedWith(429, 'rate_limited', 'Too many requests.', { 'Retry-After': '5' }),
+      ],
+    });
     eventSyncFor(orderId, store).pump();
     await vi.advanceTimersByTimeAsync(4_900);
     expect(sent).toHaveLength(1);
@@ -123,19 +159,35 @@ describe('sending kept taps', () => {
     const orderId = 103;
     const [a, b, c] = [drop(1), drop(2), drop(3)];
     const store = memoryStore(orderId, [a, b, c]);
-    const sent = scriptedServer(orderId, { [b.idempotencyKey]: [refusedWith(409, 'session_ended', 'The session for order 103 is stopped.')] });
+    const sent = scriptedServer(orderId, {
+      [b.idempotencyKey]: [
+        refusedWith(409, 'session_ended', 'The session for order 103 is stopped.'),
+      ],
+    });
     const sync = eventSyncFor(orderId, store);
 
     sync.pump();
     await vi.advanceTimersByTimeAsync(60_000);
-    expect(stateOf(store)).toEqual([['01', 'stored'], ['02', 'refused'], ['03', 'stored']]);
-    expect(store.taps()[1]!.refusal).toEqual({ status: 409, message: 'The session for order 103 is stopped.', fields: [] });
+    expect(stateOf(store)).toEqual([
+      ['01', 'stored'],
+      ['02', 'refused'],
+      ['03', 'stored'],
+    ]);
+    expect(store.taps()[1]!.refusal).toEqual({
+      status: 409,
+      message: 'The session for order 103 is stopped.',
+      fields: [],
+    });
     expect(sent).toEqual([a.idempotencyKey, b.idempotencyKey, c.idempotencyKey]);
 
     // Sent again by the nurse: the same key, once.
     sync.sendAgain(b.idempotencyKey);
     await vi.advanceTimersByTimeAsync(0);
-    expect(stateOf(store)).toEqual([['01', 'stored'], ['02', 'stored'], ['03', 'stored']]);
+    expect(stateOf(store)).toEqual([
+      ['01', 'stored'],
+      ['02', 'stored'],
+      ['03', 'stored'],
+    ]);
     expect(sent.filter((key) => key === b.idempotencyKey)).toHaveLength(2);
   });
 
@@ -145,15 +197,28 @@ describe('sending kept taps', () => {
     const store = memoryStore(orderId, [a]);
     scriptedServer(orderId, {
       [a.idempotencyKey]: [
-        new Response(JSON.stringify({ error: { code: 'bad_request', message: 'The event is too old to belong to this session.', fields: [{ path: 'clientTime', message: 'clientTime must lie within the last 12 hours' }] } }), {
-          status: 400,
-          headers: { 'Content-Type': 'application/json' },
-        }),
+        new Response(
+          JSON.stringify({
+            error: {
+              code: 'bad_request',
+              message: 'The event is too old to belong to this session.',
+              fields: [
+                { path: 'clientTime', message: 'clientTime must lie within the last 12 hours' },
+              ],
+            },
+          }),
+          {
+            status: 400,
+            headers: { 'Content-Type': 'application/json' },
+          },
+        ),
       ],
     });
     eventSyncFor(orderId, store).pump();
     await vi.advanceTimersByTimeAsync(0);
     expect(store.taps()[0]!.state).toBe('refused');
-    expect(store.taps()[0]!.refusal?.fields).toEqual([{ path: 'clientTime', message: 'clientTime must lie within the last 12 hours' }]);
+    expect(store.taps()[0]!.refusal?.fields).toEqual([
+      { path: 'clientTime', message: 'clientTime must lie within the last 12 hours' },
+    ]);
   });
 });

@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { hasDashedOutline, orderStatusMeaning, orderStatusTable, orderStatusWords } from '../../src/components/ui/order-status-words';
+import {
+  hasDashedOutline,
+  orderStatusMeaning,
+  orderStatusTable,
+  orderStatusWords,
+} from '../../src/components/ui/order-status-words';
 import { orderStatuses } from '../../shared/schemas/orders';
 
 // The one table of what each order status is called and means, read by every status label and badge.
@@ -28,7 +33,11 @@ describe('the order status table', () => {
   });
 
   it('the long word starts with the short one, so the worklists and the pharmacy screens name a status alike', () => {
-    for (const status of orderStatuses) expect(orderStatusWords(status, 'long').startsWith(orderStatusWords(status, 'short')), status).toBe(true);
+    for (const status of orderStatuses)
+      expect(
+        orderStatusWords(status, 'long').startsWith(orderStatusWords(status, 'short')),
+        status,
+      ).toBe(true);
   });
 
   it('reads the words and the meaning from the table, the short word by default', () => {

@@ -1,12 +1,20 @@
 import { describe, expect, it } from 'vitest';
-import { withRecordedEvent, type RecordedEventResponse, type SessionState } from '../../src/features/step-clock/api/session-state-schema';
+import {
+  withRecordedEvent,
+  type RecordedEventResponse,
+  type SessionState,
+} from '../../src/features/step-clock/api/session-state-schema';
 import type { SessionEvent } from '../../shared/session/session-events';
 
 // How the step clock folds one recorded event's answer into what the tablet shows. The figures
 // are made up for the test; nothing clinical is checked here.
 
 const startMs = Date.parse('2026-03-02T09:00:00.000Z');
-const stored = (id: number, offsetS: number, type: 'drop-given' | 'step-started' = 'drop-given'): SessionEvent => ({
+const stored = (
+  id: number,
+  offsetS: number,
+  type: 'drop-given' | 'step-started' = 'drop-given',
+): SessionEvent => ({
   id,
   idempotencyKey: `00000000-0000-4000-8000-${String(id).padStart(12, '0')}`,
   clientTime: new Date(startMs + offsetS * 1000).toISOString(),
@@ -37,7 +45,14 @@ const record = (soakDurationS: number) => ({
   lateEntries: [],
 });
 
-const state = (events: SessionEvent[], soakS: number): SessionState => ({ orderId: 4, status: 'in-session', events, record: record(soakS), deviations: [], serverTime: new Date(startMs).toISOString() });
+const state = (events: SessionEvent[], soakS: number): SessionState => ({
+  orderId: 4,
+  status: 'in-session',
+  events,
+  record: record(soakS),
+  deviations: [],
+  serverTime: new Date(startMs).toISOString(),
+});
 const answer = (event: SessionEvent, eventCount: number, soakS: number): RecordedEventResponse => ({
   orderId: 4,
   status: 'in-session',
@@ -76,7 +91,10 @@ describe('folding a recorded event into the session the tablet shows', () => {
 
   it('does not list a resent event twice', () => {
     const current = state([stored(1, 0, 'step-started'), stored(2, 60)], 60);
-    const { state: next } = withRecordedEvent(current, { ...answer(stored(2, 60), 2, 60), replayed: true });
+    const { state: next } = withRecordedEvent(current, {
+      ...answer(stored(2, 60), 2, 60),
+      replayed: true,
+    });
     expect(next.events).toHaveLength(2);
   });
 });

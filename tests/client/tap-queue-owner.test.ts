@@ -37,23 +37,48 @@ function server(status: number) {
   vi.stubGlobal('fetch', async (url: string, init: { body: string }) => {
     const event = JSON.parse(init.body) as SessionEventInput;
     sent.push(event.idempotencyKey);
-    if (status !== 201) return new Response(JSON.stringify({ error: { code: 'db_down', message: 'The database is not answering.' } }), { status, headers: { 'Content-Type': 'application/json' } });
+    if (status !== 201)
+      return new Response(
+        JSON.stringify({ error: { code: 'db_down', message: 'The database is not answering.' } }),
+        { status, headers: { 'Content-Type': 'application/json' } },
+      );
     const orderId = Number(/orders\/(\d+)\//.exec(url)?.[1]);
-    const body = { orderId, status: 'in-session', event: { ...event, id: 1, serverTime: event.clientTime, recordedBy: 3 }, eventCount: 1, replayed: false, record: null, deviations: [], serverTime: event.clientTime };
-    return new Response(JSON.stringify(body), { status: 201, headers: { 'Content-Type': 'application/json' } });
+    const body = {
+      orderId,
+      status: 'in-session',
+      event: { ...event, id: 1, serverTime: event.clientTime, recordedBy: 3 },
+      eventCount: 1,
+      replayed: false,
+      record: null,
+      deviations: [],
+      serverTime: event.clientTime,
+    };
+    return new Response(JSON.stringify(body), {
+      status: 201,
+      headers: { 'Content-Type': 'application/json' },
+    });
   });
   return sent;
 }
 
 /** localStorage holding what an earlier version left, listed by Object.keys as in a browser. */
 function legacyStorage(entries: Record<string, unknown>) {
-  const items = new Map(Object.entries(entries).map(([key, value]) => [key, JSON.stringify(value)]));
-  const storage = { getItem: (key: string) => items.get(key) ?? null, setItem: (key: string, value: string) => void items.set(key, value), removeItem: (key: string) => void items.delete(key) };
+  const items = new Map(
+    Object.entries(entries).map(([key, value]) => [key, JSON.stringify(value)]),
+  );
+  const storage = {
+    getItem: (key: string) => items.get(key) ?? null,
+    setItem: (key: string, value: string) => void items.set(key, value),
+    removeItem: (key: string) => void items.delete(key),
+  };
   vi.stubGlobal(
     'localStorage',
     new Proxy(storage, {
       ownKeys: () => [...items.keys()],
-      getOwnPropertyDescriptor: (_target, key) => (items.has(String(key)) ? { enumerable: true, configurable: true, value: items.get(String(key)) } : undefined),
+      getOwnPropertyDescriptor: (_target, key) =>
+        items.has(String(key))
+          ? { enumerable: true, configurable: true, value: items.get(String(key)) }
+          : undefined,
     }),
   );
   return items;
@@ -136,7 +161,11 @@ describe('kept step-clock taps on a shared tablet', () => {
     const legacyKey = 'luxtempo.step-clock.unsent.';
     const storage = legacyStorage({
       [`${legacyKey}7001`]: [tap(21), tap(22)],
-      [`${legacyKey}7002`]: [{ by: 32, event: tap(23) }, { by: null, event: tap(24) }, { nonsense: true }],
+      [`${legacyKey}7002`]: [
+        { by: 32, event: tap(23) },
+        { by: null, event: tap(24) },
+        { nonsense: true },
+      ],
     });
     const page = await loadPage();
     server(503);
@@ -174,7 +203,9 @@ describe('kept step-clock taps on a shared tablet', () => {
 
     expect(page.legacyTap(tap(41), null)).toEqual([{ by: null, event: tap(41) }]);
     expect(page.legacyTap({ by: 5, event: tap(41) }, null)).toEqual([{ by: 5, event: tap(41) }]);
-    expect(page.legacyTap({ by: 'someone', event: tap(41) }, 9)).toEqual([{ by: 9, event: tap(41) }]);
+    expect(page.legacyTap({ by: 'someone', event: tap(41) }, 9)).toEqual([
+      { by: 9, event: tap(41) },
+    ]);
     expect(page.legacyTap({ type: 'not-a-tap' }, 9)).toEqual([]);
   });
 });

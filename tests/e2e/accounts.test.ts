@@ -4,7 +4,13 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
 import { ensureMailCatcher, type MailCatcher } from '../../server/ops/mail-catcher';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -38,7 +44,10 @@ async function linkMailedTo(email: string): Promise<string> {
   await expect
     .poll(
       async () => {
-        const inbox = (await (await fetch(`http://127.0.0.1:${webPort}/api/email`)).json()) as { to: { address: string }[]; text: string }[];
+        const inbox = (await (await fetch(`http://127.0.0.1:${webPort}/api/email`)).json()) as {
+          to: { address: string }[];
+          text: string;
+        }[];
         const mine = inbox.filter((m) => m.to.some((t) => t.address === email));
         token = /\/set-password#([A-Za-z0-9_-]{43})/.exec(mine.at(-1)?.text ?? '')?.[1];
         return token;
@@ -67,7 +76,9 @@ describe('an account from first link to being signed out everywhere', () => {
     await admin.getByLabel('E-mail', { exact: true }).fill(email);
     await admin.getByLabel('Nurse').check();
     await admin.getByRole('button', { name: 'Add person' }).click();
-    await expect.poll(() => admin.getByRole('status').first().innerText()).toMatch(/Kestrel Ambleside was added\. A link to set their password was e-mailed/);
+    await expect
+      .poll(() => admin.getByRole('status').first().innerText())
+      .toMatch(/Kestrel Ambleside was added\. A link to set their password was e-mailed/);
 
     // The person opens the link from the mail catcher, in a browser of their own.
     const link = await linkMailedTo(email);
@@ -79,7 +90,9 @@ describe('an account from first link to being signed out everywhere', () => {
     expect(await accessibilityViolations(person)).toEqual([]);
     await fillNewPassword(person, 'short-one');
     await person.getByRole('button', { name: 'Set password' }).click();
-    await expect.poll(() => person.getByLabel('New password', { exact: true }).getAttribute('aria-invalid')).toBe('true');
+    await expect
+      .poll(() => person.getByLabel('New password', { exact: true }).getAttribute('aria-invalid'))
+      .toBe('true');
     const first = `heron lantern ${randomUUID().slice(0, 6)} quay`;
     await fillNewPassword(person, first);
     await person.getByRole('button', { name: 'Set password' }).click();
@@ -113,7 +126,9 @@ describe('an account from first link to being signed out everywhere', () => {
     // The admin signs the person out everywhere.
     await admin.reload();
     await admin.getByRole('button', { name: 'Sign out everywhere: Kestrel Ambleside' }).click();
-    await expect.poll(() => admin.getByRole('status').first().innerText()).toMatch(/Kestrel Ambleside is signed out everywhere \(2 sessions ended\)/);
+    await expect
+      .poll(() => admin.getByRole('status').first().innerText())
+      .toMatch(/Kestrel Ambleside is signed out everywhere \(2 sessions ended\)/);
 
     for (const page of [person, deskPage]) {
       await page.reload();

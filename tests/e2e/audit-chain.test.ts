@@ -1,6 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  type BrowserContext,
+} from '../support/browser';
 
 let ctx: BrowserContext;
 beforeAll(async () => {

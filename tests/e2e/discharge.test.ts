@@ -3,7 +3,13 @@ import { request, type APIRequestContext, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoScenario } from '../../server/demo/scenario';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 /*
  * The discharge sheet and the dose record in a real browser, on the demo unit's history of
@@ -23,7 +29,10 @@ let nurseApi: APIRequestContext;
 let adminApi: APIRequestContext;
 
 async function signedInApi(email: string): Promise<APIRequestContext> {
-  const api = await request.newContext({ baseURL: ctx.baseUrl, extraHTTPHeaders: { Origin: ctx.baseUrl } });
+  const api = await request.newContext({
+    baseURL: ctx.baseUrl,
+    extraHTTPHeaders: { Origin: ctx.baseUrl },
+  });
   const login = await api.post('/api/auth/login', { data: { email, password: demoPassword } });
   expect(login.status()).toBe(200);
   return api;
@@ -50,8 +59,15 @@ async function nursePage(): Promise<{ page: Page; problems: string[] }> {
 }
 
 /** Opens the one order of a demo patient from the Orders list, filtered by status, as a nurse would. */
-async function openOrderFromList(page: Page, status: string, recordNumber: string): Promise<number> {
-  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Orders', exact: true }).click();
+async function openOrderFromList(
+  page: Page,
+  status: string,
+  recordNumber: string,
+): Promise<number> {
+  await page
+    .getByRole('navigation', { name: 'Main' })
+    .getByRole('link', { name: 'Orders', exact: true })
+    .click();
   await page.getByRole('heading', { level: 1, name: 'Orders' }).waitFor();
   await page.getByLabel('Status').selectOption({ label: status });
   const row = page.getByRole('row').filter({ hasText: recordNumber });
@@ -89,19 +105,32 @@ describe('the nurse gives the discharge sheet after a PDT session', () => {
     expect(await doseRecord.innerText()).toMatch(/Fluence\s+49\.8 J\/cm²\s+49\.8 J\/cm²/);
     await page.getByRole('link', { name: 'Discharge sheet' }).click();
     await page.waitForURL(new RegExp(`/orders/${orderId}/discharge$`));
-    await page.getByRole('heading', { level: 1, name: /Going home after your photodynamic therapy/ }).waitFor();
+    await page
+      .getByRole('heading', { level: 1, name: /Going home after your photodynamic therapy/ })
+      .waitFor();
 
     // The expected end, worked out here from the infusion's own start event, not from the server's record.
     const session = await nurseApi.get(`/api/orders/${orderId}/session`);
     expect(session.status()).toBe(200);
-    const events = (await session.json()).events as { type: string; stepId?: string; clientTime: string }[];
+    const events = (await session.json()).events as {
+      type: string;
+      stepId?: string;
+      clientTime: string;
+    }[];
     const infusionStart = events.find((e) => e.type === 'step-started' && e.stepId === 'infusion');
     expect(infusionStart).toBeDefined();
-    const startLocal = DateTime.fromISO(infusionStart!.clientTime, { zone: 'utc' }).setZone(unitZone).setLocale('en-GB');
-    const endLocal = DateTime.fromISO(infusionStart!.clientTime, { zone: 'utc' }).plus({ hours: precautionH }).setZone(unitZone).setLocale('en-GB');
+    const startLocal = DateTime.fromISO(infusionStart!.clientTime, { zone: 'utc' })
+      .setZone(unitZone)
+      .setLocale('en-GB');
+    const endLocal = DateTime.fromISO(infusionStart!.clientTime, { zone: 'utc' })
+      .plus({ hours: precautionH })
+      .setZone(unitZone)
+      .setLocale('en-GB');
 
     const precaution = page.getByRole('region', { name: 'Light precaution after verteporfin' });
-    const headline = await precaution.getByText(/^Protect skin and eyes from direct sunlight and bright light until/).innerText();
+    const headline = await precaution
+      .getByText(/^Protect skin and eyes from direct sunlight and bright light until/)
+      .innerText();
     expect(headline).toContain(endLocal.toFormat('cccc d LLLL yyyy, HH:mm'));
     expect(headline).toContain(endLocal.offsetNameShort!);
     const endAttribute = await precaution.locator('time').getAttribute('datetime');
@@ -125,23 +154,45 @@ describe('the nurse gives the discharge sheet after a PDT session', () => {
     await page.emulateMedia({ media: 'print' });
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false);
     expect(await visibleControlsInPrint(page)).toEqual([]);
-    expect(await page.getByRole('complementary', { name: 'For staff (not printed)' }).isVisible()).toBe(false);
+    expect(
+      await page.getByRole('complementary', { name: 'For staff (not printed)' }).isVisible(),
+    ).toBe(false);
     const runningHead = page.locator('thead[data-running-head]');
     expect(await runningHead.isVisible()).toBe(true);
-    expect(await runningHead.innerText()).toMatch(/Brightwater, Casimir[\s\S]*MP-100203[\s\S]*LEFT EYE/);
-    expect(await runningHead.evaluate((el) => getComputedStyle(el).display)).toBe('table-header-group');
-    const colours = await precaution.evaluate((el) => ({ text: getComputedStyle(el).color, background: getComputedStyle(el).backgroundColor }));
+    expect(await runningHead.innerText()).toMatch(
+      /Brightwater, Casimir[\s\S]*MP-100203[\s\S]*LEFT EYE/,
+    );
+    expect(await runningHead.evaluate((el) => getComputedStyle(el).display)).toBe(
+      'table-header-group',
+    );
+    const colours = await precaution.evaluate((el) => ({
+      text: getComputedStyle(el).color,
+      background: getComputedStyle(el).backgroundColor,
+    }));
     expect(colours).toEqual({ text: 'rgb(0, 0, 0)', background: 'rgb(255, 255, 255)' });
-    expect(await page.getByText(endLocal.toFormat('cccc d LLLL yyyy, HH:mm'), { exact: false }).first().isVisible()).toBe(true);
+    expect(
+      await page
+        .getByText(endLocal.toFormat('cccc d LLLL yyyy, HH:mm'), { exact: false })
+        .first()
+        .isVisible(),
+    ).toBe(true);
     expect(await accessibilityViolations(page)).toEqual([]);
     await page.emulateMedia({ media: 'screen' });
 
     // The patient agreed to e-mail and has an address: the nurse can send the same advice.
     await page.getByRole('button', { name: 'E-mail to patient' }).click();
-    await page.getByText('Queued: the advice goes to the patient’s e-mail address from the outbox.').waitFor();
+    await page
+      .getByText('Queued: the advice goes to the patient’s e-mail address from the outbox.')
+      .waitFor();
     const outbox = await adminApi.get('/api/outbox');
     const messages = (await outbox.json()).messages as { kind: string; recipients: string[] }[];
-    expect(messages.filter((m) => m.kind === 'discharge-advice' && m.recipients.includes('c.brightwater@patients.demo.luxtempo.example'))).toHaveLength(1);
+    expect(
+      messages.filter(
+        (m) =>
+          m.kind === 'discharge-advice' &&
+          m.recipients.includes('c.brightwater@patients.demo.luxtempo.example'),
+      ),
+    ).toHaveLength(1);
 
     expect(problems).toEqual([]);
     await page.context().close();
@@ -155,14 +206,20 @@ describe('the discharge sheet after cross-linking, and before any session', () =
     const orderId = await openOrderFromList(page, 'Completed', 'MP-100208');
     await page.getByRole('link', { name: 'Discharge sheet' }).click();
     await page.waitForURL(new RegExp(`/orders/${orderId}/discharge$`));
-    await page.getByRole('heading', { level: 1, name: /Going home after your corneal cross-linking/ }).waitFor();
+    await page
+      .getByRole('heading', { level: 1, name: /Going home after your corneal cross-linking/ })
+      .waitFor();
 
     const sheetText = await page.getByRole('article').innerText();
     expect(sheetText).toContain('LEFT EYE');
     expect(sheetText).toMatch(/bandage contact lens/);
     expect(sheetText).toMatch(/Call us straight away if/);
     expect(sheetText).not.toMatch(/Protect skin and eyes from direct sunlight/);
-    expect(await page.getByRole('row', { name: /Ultraviolet \(UVA\) light to the left eye/ }).innerText()).toMatch(/\d\d:\d\d to \d\d:\d\d/);
+    expect(
+      await page
+        .getByRole('row', { name: /Ultraviolet \(UVA\) light to the left eye/ })
+        .innerText(),
+    ).toMatch(/\d\d:\d\d to \d\d:\d\d/);
 
     expect(await page.getByRole('button', { name: 'E-mail to patient' }).count()).toBe(0);
     await page.getByText('No e-mail: the patient has not agreed to advice by e-mail.').waitFor();
@@ -175,18 +232,24 @@ describe('the discharge sheet after cross-linking, and before any session', () =
     const { page, problems } = await nursePage();
     // The demo's ready CXL order for today (Marguerite Thistlewood, right eye).
     const ready = page.getByRole('region', { name: /Ready for treatment/ });
-    const stepClock = ready.getByRole('link', { name: /Open step clock for Thistlewood, Marguerite, order \d+/ });
+    const stepClock = ready.getByRole('link', {
+      name: /Open step clock for Thistlewood, Marguerite, order \d+/,
+    });
     await stepClock.waitFor();
     const orderId = Number((await stepClock.getAttribute('href'))!.split('/').pop());
     expect(await stepClock.getAttribute('href')).toBe(`/sessions/${orderId}`);
 
     await page.goto(`${ctx.baseUrl}/orders/${orderId}`);
-    expect(await page.getByRole('link', { name: 'Open step clock' }).getAttribute('href')).toBe(`/sessions/${orderId}`);
+    expect(await page.getByRole('link', { name: 'Open step clock' }).getAttribute('href')).toBe(
+      `/sessions/${orderId}`,
+    );
     expect(await page.getByRole('link', { name: 'Discharge sheet' }).count()).toBe(0);
 
     await page.goto(`${ctx.baseUrl}/orders/${orderId}/discharge`);
     await page.getByRole('heading', { level: 1, name: 'No session yet' }).waitFor();
-    expect(await page.getByRole('main').innerText()).toContain(`Order ${orderId} has no session yet`);
+    expect(await page.getByRole('main').innerText()).toContain(
+      `Order ${orderId} has no session yet`,
+    );
     expect(await accessibilityViolations(page)).toEqual([]);
     // The browser logs the refused request itself; nothing else may go wrong.
     expect(problems.filter((p) => !p.includes('409 (Conflict)'))).toEqual([]);

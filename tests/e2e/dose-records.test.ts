@@ -2,7 +2,14 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoHistory, seedDemoScenario } from '../../server/demo/scenario';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, settledRows, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  settledRows,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 /*
  * The dose records list as an auditor uses it: sorting by a column header from the keyboard,
@@ -27,7 +34,10 @@ afterAll(async () => {
  */
 async function deliveredFluences(page: Page): Promise<number[]> {
   const rows = await settledRows(page);
-  return rows.map((row) => /([\d.]+) J\/cm² delivered/.exec(row)?.[1]).filter((figure) => figure !== undefined).map(Number);
+  return rows
+    .map((row) => /([\d.]+) J\/cm² delivered/.exec(row)?.[1])
+    .filter((figure) => figure !== undefined)
+    .map(Number);
 }
 
 function searchParam(page: Page, name: string): string | null {
@@ -40,7 +50,10 @@ describe('the auditor reads the dose records', () => {
     const page = await context.newPage();
     const problems = watchPage(page, ctx.baseUrl);
     await signInThroughForm(page, ctx.baseUrl, 'auditor@demo.luxtempo.example', demoPassword);
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Dose records', exact: true }).click();
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Dose records', exact: true })
+      .click();
     await page.getByRole('heading', { level: 1, name: 'Dose records' }).waitFor();
     await expect.poll(async () => (await settledRows(page)).length).toBeGreaterThan(0);
 
@@ -58,30 +71,43 @@ describe('the auditor reads the dose records', () => {
     await page.waitForURL(/[?&]sort=fluence(&|$)/);
     const firstDirection = searchParam(page, 'direction') ?? 'desc';
     const ariaFor = (direction: string) => (direction === 'asc' ? 'ascending' : 'descending');
-    await expect.poll(() => header('Fluence').getAttribute('aria-sort')).toBe(ariaFor(firstDirection));
+    await expect
+      .poll(() => header('Fluence').getAttribute('aria-sort'))
+      .toBe(ariaFor(firstDirection));
     expect(await header('Ended').getAttribute('aria-sort')).toBe('none');
-    const inOrder = (values: number[], direction: string) => values.every((v, i) => i === 0 || (direction === 'asc' ? values[i - 1]! <= v : values[i - 1]! >= v));
-    await expect.poll(async () => {
-      const values = await deliveredFluences(page);
-      return values.length > 0 && inOrder(values, firstDirection);
-    }).toBe(true);
+    const inOrder = (values: number[], direction: string) =>
+      values.every(
+        (v, i) => i === 0 || (direction === 'asc' ? values[i - 1]! <= v : values[i - 1]! >= v),
+      );
+    await expect
+      .poll(async () => {
+        const values = await deliveredFluences(page);
+        return values.length > 0 && inOrder(values, firstDirection);
+      })
+      .toBe(true);
 
     // A second press turns the order round.
     await page.keyboard.press('Enter');
     const secondDirection = firstDirection === 'asc' ? 'desc' : 'asc';
     await expect.poll(() => searchParam(page, 'direction') ?? 'desc').toBe(secondDirection);
-    await expect.poll(() => header('Fluence').getAttribute('aria-sort')).toBe(ariaFor(secondDirection));
-    await expect.poll(async () => {
-      const values = await deliveredFluences(page);
-      return values.length > 0 && inOrder(values, secondDirection);
-    }).toBe(true);
+    await expect
+      .poll(() => header('Fluence').getAttribute('aria-sort'))
+      .toBe(ariaFor(secondDirection));
+    await expect
+      .poll(async () => {
+        const values = await deliveredFluences(page);
+        return values.length > 0 && inOrder(values, secondDirection);
+      })
+      .toBe(true);
 
     // Ten a page: more records than that exist (the demo history alone has more), so there is a second page.
     const pager = page.getByRole('navigation', { name: 'Pages of dose records' });
     await pager.getByLabel('Records per page').selectOption('10');
     await page.waitForURL(/[?&]pageSize=10(&|$)/);
     await expect.poll(async () => (await settledRows(page)).length).toBe(10);
-    const firstPage = /^Records 1–10 of (\d+) · page 1 of (\d+)$/.exec((await pager.getByRole('status').innerText()).trim());
+    const firstPage = /^Records 1–10 of (\d+) · page 1 of (\d+)$/.exec(
+      (await pager.getByRole('status').innerText()).trim(),
+    );
     expect(firstPage).not.toBeNull();
     const total = Number(firstPage![1]);
     expect(total).toBeGreaterThanOrEqual(demoHistory.length);
@@ -91,7 +117,9 @@ describe('the auditor reads the dose records', () => {
     await pager.getByRole('button', { name: 'Next page' }).click();
     await page.waitForURL(/[?&]page=2(&|$)/);
     await expect.poll(async () => (await settledRows(page)).length).toBe(Math.min(10, total - 10));
-    expect((await pager.getByRole('status').innerText()).trim()).toBe(`Records 11–${Math.min(20, total)} of ${total} · page 2 of ${Math.ceil(total / 10)}`);
+    expect((await pager.getByRole('status').innerText()).trim()).toBe(
+      `Records 11–${Math.min(20, total)} of ${total} · page 2 of ${Math.ceil(total / 10)}`,
+    );
     expect(await pager.getByRole('button', { name: 'Previous page' }).isDisabled()).toBe(false);
     expect(await accessibilityViolations(page)).toEqual([]);
 
@@ -99,22 +127,32 @@ describe('the auditor reads the dose records', () => {
     const filters = page.getByRole('form', { name: 'Filter the dose records' });
     await filters.getByLabel('Ended to').fill('2024-03-01');
     await filters.getByLabel('Ended from').fill('2024-03-02');
-    await expect.poll(() => filters.getByLabel('Ended from').getAttribute('aria-invalid')).toBe('true');
-    await filters.getByText('The “from” date is after the “to” date, so nothing can match.').waitFor();
+    await expect
+      .poll(() => filters.getByLabel('Ended from').getAttribute('aria-invalid'))
+      .toBe('true');
+    await filters
+      .getByText('The “from” date is after the “to” date, so nothing can match.')
+      .waitFor();
     await filters.getByRole('button', { name: 'Clear filters' }).click();
-    await expect.poll(() => filters.getByLabel('Ended from').getAttribute('aria-invalid')).toBeNull();
+    await expect
+      .poll(() => filters.getByLabel('Ended from').getAttribute('aria-invalid'))
+      .toBeNull();
 
     // The version select waits for a protocol, then offers that protocol's versions.
     const version = filters.getByLabel('Protocol version');
     expect(await version.isDisabled()).toBe(true);
-    await filters.getByLabel('Protocol', { exact: true }).selectOption({ label: 'Verteporfin PDT — standard' });
+    await filters
+      .getByLabel('Protocol', { exact: true })
+      .selectOption({ label: 'Verteporfin PDT — standard' });
     await page.waitForURL(/[?&]protocol=pdt-standard(&|$)/);
     await expect.poll(() => version.isDisabled()).toBe(false);
     expect(await version.locator('option').allInnerTexts()).toContain('Version 1');
-    await expect.poll(async () => {
-      const rows = await settledRows(page);
-      return rows.length > 0 && rows.every((row) => row.includes('Verteporfin PDT — standard'));
-    }).toBe(true);
+    await expect
+      .poll(async () => {
+        const rows = await settledRows(page);
+        return rows.length > 0 && rows.every((row) => row.includes('Verteporfin PDT — standard'));
+      })
+      .toBe(true);
     expect(await accessibilityViolations(page)).toEqual([]);
 
     expect(problems).toEqual([]);

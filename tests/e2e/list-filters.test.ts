@@ -1,7 +1,12 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 /*
  * Every list that keeps its filters in the address, changed twice in one go: both changes are
@@ -21,7 +26,14 @@ afterAll(async () => {
 /** One filter control: its label, the value chosen, and that value's name and form in the address and in the API request. */
 type FilterChange = { label: string; value: string; param: string; inRequest?: string };
 
-type ListUnderTest = { screen: string; path: string; form: string; api: string; first: FilterChange; second: FilterChange };
+type ListUnderTest = {
+  screen: string;
+  path: string;
+  form: string;
+  api: string;
+  first: FilterChange;
+  second: FilterChange;
+};
 
 const lists: ListUnderTest[] = [
   {
@@ -71,7 +83,12 @@ const lists: ListUnderTest[] = [
  * reply can come between them. The value is set through the prototype's setter because React
  * ignores an input event whose value it has already seen set on the element.
  */
-async function changeBothAtOnce(page: Page, form: string, first: FilterChange, second: FilterChange) {
+async function changeBothAtOnce(
+  page: Page,
+  form: string,
+  first: FilterChange,
+  second: FilterChange,
+) {
   const filters = page.getByRole('form', { name: form });
   const controls = [
     [await filters.getByLabel(first.label, { exact: true }).elementHandle(), first.value],
@@ -80,7 +97,10 @@ async function changeBothAtOnce(page: Page, form: string, first: FilterChange, s
   await page.evaluate((pairs) => {
     for (const [control, value] of pairs) {
       const isSelect = control instanceof HTMLSelectElement;
-      Object.getOwnPropertyDescriptor(isSelect ? HTMLSelectElement.prototype : HTMLInputElement.prototype, 'value')?.set?.call(control, value);
+      Object.getOwnPropertyDescriptor(
+        isSelect ? HTMLSelectElement.prototype : HTMLInputElement.prototype,
+        'value',
+      )?.set?.call(control, value);
       control.dispatchEvent(new Event(isSelect ? 'change' : 'input', { bubbles: true }));
     }
   }, controls);
@@ -105,14 +125,29 @@ describe('two filter changes made at once are both kept', () => {
 
       await changeBothAtOnce(page, list.form, list.first, list.second);
 
-      const wanted = { [list.first.param]: list.first.value, [list.second.param]: list.second.value };
-      await expect.poll(() => Object.fromEntries(new URL(page.url()).searchParams)).toMatchObject(wanted);
+      const wanted = {
+        [list.first.param]: list.first.value,
+        [list.second.param]: list.second.value,
+      };
+      await expect
+        .poll(() => Object.fromEntries(new URL(page.url()).searchParams))
+        .toMatchObject(wanted);
       const filters = page.getByRole('form', { name: list.form });
-      await expect.poll(() => filters.getByLabel(list.first.label, { exact: true }).inputValue()).toBe(list.first.value);
-      await expect.poll(() => filters.getByLabel(list.second.label, { exact: true }).inputValue()).toBe(list.second.value);
+      await expect
+        .poll(() => filters.getByLabel(list.first.label, { exact: true }).inputValue())
+        .toBe(list.first.value);
+      await expect
+        .poll(() => filters.getByLabel(list.second.label, { exact: true }).inputValue())
+        .toBe(list.second.value);
       const sent = (change: FilterChange) => change.inRequest ?? change.value;
       await expect
-        .poll(() => listRequests.some((search) => search.get(list.first.param) === sent(list.first) && search.get(list.second.param) === sent(list.second)))
+        .poll(() =>
+          listRequests.some(
+            (search) =>
+              search.get(list.first.param) === sent(list.first) &&
+              search.get(list.second.param) === sent(list.second),
+          ),
+        )
         .toBe(true);
 
       expect(problems).toEqual([]);

@@ -2,7 +2,13 @@ import { randomUUID } from 'node:crypto';
 import { request, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -39,7 +45,6 @@ async function fill(page: Page, [label, value]: [string, string]) {
 function checklistQuestions(page: Page) {
   return page.getByRole('region', { name: 'Contraindication checklist' }).getByRole('group');
 }
-
 
 async function clinicianPage() {
   const context = await ctx.browser.newContext({ viewport: { width: 1366, height: 900 } });
@@ -100,7 +105,11 @@ describe('the order form survives any order of entry', () => {
         await question.getByLabel('No').click();
       }
       const preview = page.getByRole('region', { name: 'Live preview of the plan' });
-      await expect.poll(() => preview.innerText(), { message: `measurements before the checklist: ${position}` }).toContain('2.04');
+      await expect
+        .poll(() => preview.innerText(), {
+          message: `measurements before the checklist: ${position}`,
+        })
+        .toContain('2.04');
       expect(await reasonBox(page).count()).toBe(0);
       expect(await page.locator('body').innerText()).not.toMatch(crashScreen);
       expect(problems, `measurements before the checklist: ${position}`).toEqual([]);
@@ -117,7 +126,10 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
     const preview = page.getByRole('region', { name: 'Live preview of the plan' });
     await expect.poll(() => preview.innerText()).toContain('2.04');
     // A caution (an absolute contraindication opens no reason box: nothing unlocks it).
-    await checklistQuestions(page).filter({ hasText: 'photosensitising' }).getByLabel('Yes').click();
+    await checklistQuestions(page)
+      .filter({ hasText: 'photosensitising' })
+      .getByLabel('Yes')
+      .click();
     await reasonBox(page).fill('Stopped the drug a week ago; checked with the patient');
     await page.getByLabel('Weight unit').selectOption('lb');
     await page.getByLabel('Weight unit').selectOption('kg');
@@ -136,11 +148,22 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
     expect(await page.getByLabel('Protocol version').inputValue()).toBe('pdt-standard@1');
     expect(await page.getByLabel('Right eye').isChecked()).toBe(true);
     expect(await page.getByRole('button', { name: 'Choose another patient' }).count()).toBe(1);
-    await expect.poll(() => page.getByLabel('Lesion greatest linear dimension (GLD)').inputValue()).toBe('2400');
-    expect(await page.getByLabel('Laser-spot magnification of the contact lens').inputValue()).toBe('1.6');
-    expect(await checklistQuestions(page).filter({ hasText: 'photosensitising' }).getByLabel('Yes').isChecked()).toBe(true);
+    await expect
+      .poll(() => page.getByLabel('Lesion greatest linear dimension (GLD)').inputValue())
+      .toBe('2400');
+    expect(await page.getByLabel('Laser-spot magnification of the contact lens').inputValue()).toBe(
+      '1.6',
+    );
+    expect(
+      await checklistQuestions(page)
+        .filter({ hasText: 'photosensitising' })
+        .getByLabel('Yes')
+        .isChecked(),
+    ).toBe(true);
     expect(await reasonBox(page).inputValue()).toMatch(/^Stopped the drug/);
-    expect(await page.getByLabel('Note for the team (optional)').inputValue()).toBe('Kept across a reload');
+    expect(await page.getByLabel('Note for the team (optional)').inputValue()).toBe(
+      'Kept across a reload',
+    );
     await expect.poll(() => preview.innerText()).toContain('2.04');
 
     // Saving the order drops the draft: the next new order offers nothing.
@@ -150,7 +173,11 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
     await expect.poll(() => page.getByRole('heading', { level: 1 }).innerText()).toBe('New order');
     await page.getByLabel('Find the patient').waitFor();
     expect(await keptDraft(page).count()).toBe(0);
-    expect(await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')))).toEqual([]);
+    expect(
+      await page.evaluate(() =>
+        Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')),
+      ),
+    ).toEqual([]);
     expect(problems).toEqual([]);
     await page.context().close();
   });
@@ -169,7 +196,11 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
     await typeAndLeave();
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.waitForURL(/\/sign-in/);
-    expect(await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')))).toEqual([]);
+    expect(
+      await page.evaluate(() =>
+        Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')),
+      ),
+    ).toEqual([]);
     await signInThroughForm(page, ctx.baseUrl, 'clinician@demo.luxtempo.example', demoPassword);
     await page.getByRole('navigation', { name: 'Main' }).waitFor();
     await page.goto(`${ctx.baseUrl}/orders/new`);
@@ -188,7 +219,11 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
     await page.reload();
     await page.getByLabel('Find the patient').waitFor();
     expect(await keptDraft(page).count()).toBe(0);
-    expect(await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')))).toEqual([]);
+    expect(
+      await page.evaluate(() =>
+        Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')),
+      ),
+    ).toEqual([]);
 
     // Another person's draft on the same browser is never offered.
     await typeAndLeave();
@@ -197,7 +232,10 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
         const kept = JSON.parse(localStorage.getItem(key)!) as { ownerId: number };
         const other = kept.ownerId + 1000;
         localStorage.removeItem(key);
-        localStorage.setItem(key.replace(`luxtempo.draft.${kept.ownerId}.`, `luxtempo.draft.${other}.`), JSON.stringify({ ...kept, ownerId: other }));
+        localStorage.setItem(
+          key.replace(`luxtempo.draft.${kept.ownerId}.`, `luxtempo.draft.${other}.`),
+          JSON.stringify({ ...kept, ownerId: other }),
+        );
       }
     });
     await page.reload();
@@ -217,22 +255,61 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
   });
 
   it('the pharmacist’s blind-check figures survive a reload, for that order only', async () => {
-    const api = await request.newContext({ baseURL: ctx.baseUrl, extraHTTPHeaders: { Origin: ctx.baseUrl } });
-    expect((await api.post('/api/auth/login', { data: { email: 'clinician@demo.luxtempo.example', password: demoPassword } })).status()).toBe(200);
+    const api = await request.newContext({
+      baseURL: ctx.baseUrl,
+      extraHTTPHeaders: { Origin: ctx.baseUrl },
+    });
+    expect(
+      (
+        await api.post('/api/auth/login', {
+          data: { email: 'clinician@demo.luxtempo.example', password: demoPassword },
+        })
+      ).status(),
+    ).toBe(200);
     const suffix = randomUUID().slice(0, 6).toUpperCase();
-    const patient = (await (await api.post('/api/patients', { data: { recordNumber: `DRF-${suffix}`, givenName: 'Ines', familyName: `Pellow ${suffix}`, dateOfBirth: '1961-05-02', emailConsent: false } })).json()).patient as { id: number };
+    const patient = (
+      await (
+        await api.post('/api/patients', {
+          data: {
+            recordNumber: `DRF-${suffix}`,
+            givenName: 'Ines',
+            familyName: `Pellow ${suffix}`,
+            dateOfBirth: '1961-05-02',
+            emailConsent: false,
+          },
+        })
+      ).json()
+    ).patient as { id: number };
     const created = await api.post('/api/orders', {
       data: {
         patientId: patient.id,
         eye: 'right',
         protocol: { key: 'pdt-standard', version: 1 },
-        inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
-        checklist: ['porphyria', 'hypersensitivity', 'hepatic-impairment', 'pregnancy-breastfeeding', 'other-photosensitisers'].map((id) => ({ id, answer: 'no' })),
+        inputs: {
+          height: { value: 170, unit: 'cm' },
+          weight: { value: 70, unit: 'kg' },
+          bsaFormula: 'mosteller',
+          lesionGldUm: 2500,
+          lensMagnification: 1,
+        },
+        checklist: [
+          'porphyria',
+          'hypersensitivity',
+          'hepatic-impairment',
+          'pregnancy-breastfeeding',
+          'other-photosensitisers',
+        ].map((id) => ({ id, answer: 'no' })),
       },
     });
     expect(created.status()).toBe(201);
     const order = (await created.json()).order as { id: number; version: number };
-    expect((await api.post(`/api/orders/${order.id}/signature`, { data: { password: demoPassword, meaning: 'ordered', version: order.version } })).status()).toBe(200);
+    expect(
+      (
+        await api.post(`/api/orders/${order.id}/signature`, {
+          data: { password: demoPassword, meaning: 'ordered', version: order.version },
+        })
+      ).status(),
+    ).toBe(200);
     await api.dispose();
 
     const context = await ctx.browser.newContext({ viewport: { width: 1024, height: 768 } });
@@ -257,7 +334,9 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
     expect(await page.getByLabel('Dose (mg)').inputValue()).toBe('10.9');
     expect(await page.getByLabel('Comment (optional)').inputValue()).toBe('Worked from the chart');
     // The figures are filed under this order: no other order's check offers them.
-    const keys = await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')));
+    const keys = await page.evaluate(() =>
+      Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')),
+    );
     expect(keys).toEqual([expect.stringMatching(new RegExp(`\\.dose-check\\.${order.id}$`))]);
     expect(problems).toEqual([]);
     await context.close();
@@ -266,41 +345,87 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
 
 describe('an order changed by someone else while it is open', () => {
   it('saving the older form is refused with a message to reload, even after the screen refreshed in the background, and the colleague’s change stands', async () => {
-    const api = await request.newContext({ baseURL: ctx.baseUrl, extraHTTPHeaders: { Origin: ctx.baseUrl } });
-    expect((await api.post('/api/auth/login', { data: { email: 'clinician@demo.luxtempo.example', password: demoPassword } })).status()).toBe(200);
+    const api = await request.newContext({
+      baseURL: ctx.baseUrl,
+      extraHTTPHeaders: { Origin: ctx.baseUrl },
+    });
+    expect(
+      (
+        await api.post('/api/auth/login', {
+          data: { email: 'clinician@demo.luxtempo.example', password: demoPassword },
+        })
+      ).status(),
+    ).toBe(200);
     const suffix = randomUUID().slice(0, 6).toUpperCase();
-    const patient = (await (await api.post('/api/patients', { data: { recordNumber: `STL-${suffix}`, givenName: 'Tamsin', familyName: `Rosewarne ${suffix}`, dateOfBirth: '1966-08-19', emailConsent: false } })).json()).patient as { id: number };
+    const patient = (
+      await (
+        await api.post('/api/patients', {
+          data: {
+            recordNumber: `STL-${suffix}`,
+            givenName: 'Tamsin',
+            familyName: `Rosewarne ${suffix}`,
+            dateOfBirth: '1966-08-19',
+            emailConsent: false,
+          },
+        })
+      ).json()
+    ).patient as { id: number };
     const body = {
       patientId: patient.id,
       eye: 'left',
       protocol: { key: 'pdt-standard', version: 1 },
-      inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
+      inputs: {
+        height: { value: 170, unit: 'cm' },
+        weight: { value: 70, unit: 'kg' },
+        bsaFormula: 'mosteller',
+        lesionGldUm: 2500,
+        lensMagnification: 1,
+      },
       checklist: [],
     };
-    const order = (await (await api.post('/api/orders', { data: body })).json()).order as { id: number; version: number };
+    const order = (await (await api.post('/api/orders', { data: body })).json()).order as {
+      id: number;
+      version: number;
+    };
 
     const { page, problems } = await clinicianPage();
     await page.clock.install();
     await page.goto(`${ctx.baseUrl}/orders/${order.id}/edit`);
-    await expect.poll(() => page.getByLabel('Lesion greatest linear dimension (GLD)').inputValue()).toBe('2500');
+    await expect
+      .poll(() => page.getByLabel('Lesion greatest linear dimension (GLD)').inputValue())
+      .toBe('2500');
     await page.getByLabel('Note for the team (optional)').fill('My note on the older copy');
 
     // A colleague saves a change meanwhile; this screen then refreshes its data in the background.
-    const colleague = await api.put(`/api/orders/${order.id}`, { data: { ...body, inputs: { ...body.inputs, lesionGldUm: 3000 }, version: order.version } });
+    const colleague = await api.put(`/api/orders/${order.id}`, {
+      data: { ...body, inputs: { ...body.inputs, lesionGldUm: 3000 }, version: order.version },
+    });
     expect(colleague.status()).toBe(200);
     await page.clock.fastForward(31_000); // past the data's 30 s freshness
-    const refetched = page.waitForResponse((r) => r.url().endsWith(`/api/orders/${order.id}`) && r.request().method() === 'GET');
+    const refetched = page.waitForResponse(
+      (r) => r.url().endsWith(`/api/orders/${order.id}`) && r.request().method() === 'GET',
+    );
     await page.evaluate(() => window.dispatchEvent(new Event('visibilitychange')));
     expect((await (await refetched).json()).order.version).toBe(order.version + 1);
 
     await page.getByRole('button', { name: 'Save draft' }).click();
     const alert = page.getByRole('alert').filter({ hasText: 'The draft was not saved' });
-    await expect.poll(() => alert.innerText()).toMatch(/changed after you opened it.*reload the order/i);
-    const stored = (await (await api.get(`/api/orders/${order.id}`)).json()).order as { inputs: { lesionGldUm: number }; note: string | null };
+    await expect
+      .poll(() => alert.innerText())
+      .toMatch(/changed after you opened it.*reload the order/i);
+    const stored = (await (await api.get(`/api/orders/${order.id}`)).json()).order as {
+      inputs: { lesionGldUm: number };
+      note: string | null;
+    };
     expect(stored.inputs.lesionGldUm).toBe(3000);
     expect(stored.note).toBeNull();
     // What was typed is still kept as a draft for after the reload.
-    expect(await page.evaluate((id) => Object.keys(localStorage).some((k) => k.endsWith(`.order.edit.${id}`)), order.id)).toBe(true);
+    expect(
+      await page.evaluate(
+        (id) => Object.keys(localStorage).some((k) => k.endsWith(`.order.edit.${id}`)),
+        order.id,
+      ),
+    ).toBe(true);
     await api.dispose();
     // The refusal is a 409 the screen shows; the browser logs that failed request, nothing else.
     expect(problems.filter((p) => !/409/.test(p))).toEqual([]);

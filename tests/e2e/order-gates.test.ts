@@ -2,7 +2,13 @@ import { randomUUID } from 'node:crypto';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -34,7 +40,13 @@ describe('gate 1 as the clinician and the pharmacist meet it', () => {
     // A fictitious patient of this test's own, with no earlier treatment to ask a retreatment reason for.
     const suffix = randomUUID().slice(0, 6).toUpperCase();
     const created = await page.request.post(`${ctx.baseUrl}/api/patients`, {
-      data: { recordNumber: `E2E-G${suffix}`, givenName: 'Perpetua', familyName: `Wrenfield ${suffix}`, dateOfBirth: '1952-07-09', emailConsent: false },
+      data: {
+        recordNumber: `E2E-G${suffix}`,
+        givenName: 'Perpetua',
+        familyName: `Wrenfield ${suffix}`,
+        dateOfBirth: '1952-07-09',
+        emailConsent: false,
+      },
     });
     expect(created.status()).toBe(201);
     const patientId = (await created.json()).patient.id as number;
@@ -60,7 +72,9 @@ describe('gate 1 as the clinician and the pharmacist meet it', () => {
     await expect.poll(() => block.count()).toBe(1);
     expect(await checklist.getByLabel(/Reason to go on/).count()).toBe(0);
     const preview = page.getByRole('region', { name: 'Live preview of the plan' });
-    await expect.poll(() => preview.innerText()).toMatch(/absolute contraindication.*no reason unlocks it/i);
+    await expect
+      .poll(() => preview.innerText())
+      .toMatch(/absolute contraindication.*no reason unlocks it/i);
     // 170 cm, 70 kg: Mosteller 1.82 m² (Mosteller 1987); 6 mg/m² (TAP Study Group 1999) → 10.92 mg; 2 mg/mL
     // (Drug Discov Today 2008) → 5.46 mL on the 0.01 mL graduation (common practice); dose in the drawn volume 10.92 mg.
     expect(await preview.innerText()).toContain('5.46');
@@ -75,8 +89,14 @@ describe('gate 1 as the clinician and the pharmacist meet it', () => {
     const dialog = page.getByRole('dialog', { name: `Sign order ${orderId}` });
     await dialog.getByLabel('Your password').fill(demoPassword);
     await dialog.getByRole('button', { name: 'Sign: I order this treatment' }).click();
-    await expect.poll(() => dialog.getByRole('alert').innerText()).toMatch(/Checklist: .*porphyria.*absolute contraindication/is);
-    const afterRefusal = await page.evaluate(async (id) => (await (await fetch(`/api/orders/${id}`)).json()) as { order: { status: string } }, orderId);
+    await expect
+      .poll(() => dialog.getByRole('alert').innerText())
+      .toMatch(/Checklist: .*porphyria.*absolute contraindication/is);
+    const afterRefusal = await page.evaluate(
+      async (id) =>
+        (await (await fetch(`/api/orders/${id}`)).json()) as { order: { status: string } },
+      orderId,
+    );
     expect(afterRefusal.order.status).toBe('draft');
     await dialog.getByRole('button', { name: 'Cancel' }).click();
 
@@ -96,20 +116,32 @@ describe('gate 1 as the clinician and the pharmacist meet it', () => {
     await page.getByRole('button', { name: 'Sign', exact: true }).click();
     await dialog.getByLabel('Your password').fill(demoPassword);
     await dialog.getByRole('button', { name: 'Sign: I order this treatment' }).click();
-    await expect.poll(() => page.getByRole('status').filter({ hasText: 'is signed' }).count()).toBe(1);
+    await expect
+      .poll(() => page.getByRole('status').filter({ hasText: 'is signed' }).count())
+      .toBe(1);
 
     // The signed order carries the standing banner with the reason.
-    const banner = page.getByRole('region', { name: /caution was accepted when this order was signed/ });
+    const banner = page.getByRole('region', {
+      name: /caution was accepted when this order was signed/,
+    });
     await expect.poll(() => banner.innerText()).toContain(reason);
-    expect(await banner.innerText()).toContain('Does the patient have moderate or severe hepatic impairment? — yes');
+    expect(await banner.innerText()).toContain(
+      'Does the patient have moderate or severe hepatic impairment? — yes',
+    );
     expect(await accessibilityViolations(page)).toEqual([]);
     // The one refused signature above, and nothing else.
-    expect(problems).toEqual([expect.stringMatching(/^console: Failed to load resource: the server responded with a status of 400 \(Bad Request\) \(http:\/\/[^)]+\/api\/orders\/\d+\/signature\)$/)]);
+    expect(problems).toEqual([
+      expect.stringMatching(
+        /^console: Failed to load resource: the server responded with a status of 400 \(Bad Request\) \(http:\/\/[^)]+\/api\/orders\/\d+\/signature\)$/,
+      ),
+    ]);
 
     // The pharmacist meets the same banner on the blind dose check, before any figure is shown.
     const pharmacist = await signedInPage('pharmacist@demo.luxtempo.example');
     await pharmacist.page.goto(`${ctx.baseUrl}/dose-checks/${orderId}`);
-    const pharmacyBanner = pharmacist.page.getByRole('region', { name: /caution was accepted when this order was signed/ });
+    const pharmacyBanner = pharmacist.page.getByRole('region', {
+      name: /caution was accepted when this order was signed/,
+    });
     await expect.poll(() => pharmacyBanner.innerText()).toContain(reason);
     expect(await accessibilityViolations(pharmacist.page)).toEqual([]);
     expect(pharmacist.problems).toEqual([]);

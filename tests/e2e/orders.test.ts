@@ -1,7 +1,13 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -22,7 +28,10 @@ describe('ordering PDT through the browser', () => {
     await signInThroughForm(page, ctx.baseUrl, 'clinician@demo.luxtempo.example', demoPassword);
 
     // Find the demo patient by record number and open their page.
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Patients' }).click();
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Patients' })
+      .click();
     await page.getByLabel('Find a patient').fill('MP-100203');
     await page.getByRole('link', { name: /^MP-100203,/ }).click();
     await expect.poll(() => headingText(page)).toBe('Brightwater, Casimir');
@@ -67,14 +76,27 @@ describe('ordering PDT through the browser', () => {
     await dialog.getByRole('button', { name: 'Sign: I order this treatment' }).click();
 
     await expect.poll(() => banner.innerText()).toMatch(/Signed/);
-    await expect.poll(() => page.getByRole('status').filter({ hasText: 'is signed' }).count()).toBe(1);
-    const stored = await page.evaluate(async (id) => (await (await fetch(`/api/orders/${id}`)).json()) as { order: { status: string; eye: string } }, orderId);
+    await expect
+      .poll(() => page.getByRole('status').filter({ hasText: 'is signed' }).count())
+      .toBe(1);
+    const stored = await page.evaluate(
+      async (id) =>
+        (await (await fetch(`/api/orders/${id}`)).json()) as {
+          order: { status: string; eye: string };
+        },
+      orderId,
+    );
     expect(stored.order).toMatchObject({ status: 'signed', eye: 'right' });
     expect(await accessibilityViolations(page)).toEqual([]);
 
     // The orders table lists it with its status in words.
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Orders' }).click();
-    const row = page.getByRole('row').filter({ has: page.getByRole('link', { name: new RegExp(`^Order ${orderId}\\b`) }) });
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Orders' })
+      .click();
+    const row = page
+      .getByRole('row')
+      .filter({ has: page.getByRole('link', { name: new RegExp(`^Order ${orderId}\\b`) }) });
     await expect.poll(() => row.innerText()).toMatch(/Signed/);
     expect(await accessibilityViolations(page)).toEqual([]);
 

@@ -3,7 +3,13 @@ import { DateTime } from 'luxon';
 import { request, type APIRequestContext, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 let ctx: BrowserContext;
 let clinician: APIRequestContext;
@@ -11,8 +17,13 @@ let clinician: APIRequestContext;
 beforeAll(async () => {
   ctx = await startBrowserTest();
   // The demo clinician orders through the API, as the order screens would.
-  clinician = await request.newContext({ baseURL: ctx.baseUrl, extraHTTPHeaders: { Origin: ctx.baseUrl } });
-  const login = await clinician.post('/api/auth/login', { data: { email: 'clinician@demo.luxtempo.example', password: demoPassword } });
+  clinician = await request.newContext({
+    baseURL: ctx.baseUrl,
+    extraHTTPHeaders: { Origin: ctx.baseUrl },
+  });
+  const login = await clinician.post('/api/auth/login', {
+    data: { email: 'clinician@demo.luxtempo.example', password: demoPassword },
+  });
   expect(login.status()).toBe(200);
 });
 afterAll(async () => {
@@ -20,28 +31,52 @@ afterAll(async () => {
   await ctx?.close();
 });
 
-const pdtChecklist = ['porphyria', 'hypersensitivity', 'hepatic-impairment', 'pregnancy-breastfeeding', 'other-photosensitisers'];
+const pdtChecklist = [
+  'porphyria',
+  'hypersensitivity',
+  'hepatic-impairment',
+  'pregnancy-breastfeeding',
+  'other-photosensitisers',
+];
 
 /** A fictitious patient of this test's own and a signed standard-PDT order for 170 cm / 70 kg. */
 async function signedPdtOrder() {
   const suffix = randomUUID().slice(0, 6).toUpperCase();
   const patientRes = await clinician.post('/api/patients', {
-    data: { recordNumber: `E2E-${suffix}`, givenName: 'Odile', familyName: `Quarrendon ${suffix}`, dateOfBirth: '1958-03-14', emailConsent: false },
+    data: {
+      recordNumber: `E2E-${suffix}`,
+      givenName: 'Odile',
+      familyName: `Quarrendon ${suffix}`,
+      dateOfBirth: '1958-03-14',
+      emailConsent: false,
+    },
   });
   expect(patientRes.status()).toBe(201);
-  const patient = (await patientRes.json()).patient as { id: number; recordNumber: string; familyName: string };
+  const patient = (await patientRes.json()).patient as {
+    id: number;
+    recordNumber: string;
+    familyName: string;
+  };
   const draft = await clinician.post('/api/orders', {
     data: {
       patientId: patient.id,
       eye: 'left',
       protocol: { key: 'pdt-standard', version: 1 },
-      inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
+      inputs: {
+        height: { value: 170, unit: 'cm' },
+        weight: { value: 70, unit: 'kg' },
+        bsaFormula: 'mosteller',
+        lesionGldUm: 2500,
+        lensMagnification: 1,
+      },
       checklist: pdtChecklist.map((id) => ({ id, answer: 'no' })),
     },
   });
   expect(draft.status()).toBe(201);
   const { id: orderId, version } = (await draft.json()).order as { id: number; version: number };
-  const signed = await clinician.post(`/api/orders/${orderId}/signature`, { data: { password: demoPassword, meaning: 'ordered', version } });
+  const signed = await clinician.post(`/api/orders/${orderId}/signature`, {
+    data: { password: demoPassword, meaning: 'ordered', version },
+  });
   expect(signed.status()).toBe(200);
   return { orderId, patient };
 }
@@ -77,7 +112,8 @@ describe('the pharmacist checks a PDT dose blind, prepares it, and the nurse see
     expect(blindText).toContain('170 cm');
     expect(blindText).toContain('70 kg');
     expect(blindText).toContain('6 mg/m²');
-    for (const planFigure of ['1.82', '10.92', '5.5 mL', '24.5']) expect(blindText).not.toContain(planFigure);
+    for (const planFigure of ['1.82', '10.92', '5.5 mL', '24.5'])
+      expect(blindText).not.toContain(planFigure);
     expect(await accessibilityViolations(page)).toEqual([]);
 
     // A wrong dose: only the dose is marked, and every typed figure stays.
@@ -92,7 +128,9 @@ describe('the pharmacist checks a PDT dose blind, prepares it, and the nurse see
     expect(await bsa.getAttribute('aria-invalid')).toBeNull();
     expect(await volume.getAttribute('aria-invalid')).toBeNull();
     const doseError = (await dose.getAttribute('aria-describedby'))!.split(' ').at(-1)!;
-    expect(await page.locator(`[id="${doseError}"]`).innerText()).toMatch(/Differs from the plan by more than ±2 %/);
+    expect(await page.locator(`[id="${doseError}"]`).innerText()).toMatch(
+      /Differs from the plan by more than ±2 %/,
+    );
     expect(await dose.inputValue()).toBe('12.5');
     expect(await bsa.inputValue()).toBe(right.bsa);
     expect(await page.locator('main').innerText()).not.toContain('10.92');
@@ -112,7 +150,9 @@ describe('the pharmacist checks a PDT dose blind, prepares it, and the nurse see
 
     // Preparation: reconstitution time defaults to now on the unit's clock.
     await page.getByRole('heading', { name: 'Record the preparation', exact: true }).waitFor();
-    expect(await page.getByLabel('Reconstituted at').inputValue()).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d$/);
+    expect(await page.getByLabel('Reconstituted at').inputValue()).toMatch(
+      /^\d{4}-\d\d-\d\dT\d\d:\d\d$/,
+    );
     await page.getByLabel('Vial lot').fill('E2E-LOT 7');
     await page.getByLabel('Vial expiry').fill(DateTime.now().plus({ months: 6 }).toISODate()!);
     await page.getByLabel('Volume drawn (mL)').fill('5.5');
@@ -133,7 +173,10 @@ describe('the pharmacist checks a PDT dose blind, prepares it, and the nurse see
     const nurse = await signedInPage('nurse@demo.luxtempo.example');
     const ready = nurse.page.getByRole('region', { name: /Ready for treatment/ });
     await ready.getByRole('link', { name: new RegExp(`^${patient.familyName}`) }).waitFor();
-    const row = await ready.getByRole('listitem').filter({ hasText: patient.familyName }).innerText();
+    const row = await ready
+      .getByRole('listitem')
+      .filter({ hasText: patient.familyName })
+      .innerText();
     expect(row).toContain(patient.recordNumber);
     expect(row).toContain('Left eye');
     expect(row).toContain('Prepared');

@@ -1,7 +1,13 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -32,17 +38,26 @@ describe('the protocol pages', () => {
   it('the demo clinician opens Protocols, then pdt-standard version 1, and reads its figures and sources', async () => {
     const { page, problems } = await signedInPage('clinician');
 
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Protocols' }).click();
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Protocols' })
+      .click();
     await page.getByRole('heading', { level: 1, name: 'Protocols' }).waitFor();
     const standard = page.getByRole('region', { name: 'Verteporfin PDT — standard' });
-    await expect.poll(() => standard.getByRole('row', { name: /v1/ }).innerText()).toMatch(/Approved/);
+    await expect
+      .poll(() => standard.getByRole('row', { name: /v1/ }).innerText())
+      .toMatch(/Approved/);
     // A clinician may approve but not import or draft: those controls belong to administrators.
     expect(await page.getByRole('button', { name: /Start a new draft/ }).count()).toBe(0);
     expect(await page.getByLabel('Protocol file (JSON)').count()).toBe(0);
     expect(await accessibilityViolations(page)).toEqual([]);
 
-    await standard.getByRole('link', { name: 'Open Verteporfin PDT — standard, version 1' }).click();
-    await page.getByRole('heading', { level: 1, name: /Verteporfin PDT — standard · version 1/ }).waitFor();
+    await standard
+      .getByRole('link', { name: 'Open Verteporfin PDT — standard, version 1' })
+      .click();
+    await page
+      .getByRole('heading', { level: 1, name: /Verteporfin PDT — standard · version 1/ })
+      .waitFor();
     const sources = page.getByRole('region', { name: 'Sources' });
     await expect.poll(() => sources.innerText()).toMatch(/TAP/);
     expect(await sources.innerText()).toMatch(/Published/);
@@ -51,8 +66,12 @@ describe('the protocol pages', () => {
     const light = await page.getByRole('region', { name: 'Light', exact: true }).innerText();
     expect(light).toMatch(/Irradiance \(mW\/cm²\)\s+600/);
     expect(light).toMatch(/Target fluence \(J\/cm²\)\s+50/);
-    expect(await page.getByRole('region', { name: 'Steps of the step clock' }).getByRole('row').count()).toBe(1 + 5 + 1);
-    expect(await page.getByRole('complementary', { name: 'Caution' }).innerText()).toMatch(/approved policy/);
+    expect(
+      await page.getByRole('region', { name: 'Steps of the step clock' }).getByRole('row').count(),
+    ).toBe(1 + 5 + 1);
+    expect(await page.getByRole('complementary', { name: 'Caution' }).innerText()).toMatch(
+      /approved policy/,
+    );
     expect(await accessibilityViolations(page)).toEqual([]);
 
     expect(problems).toEqual([]);
@@ -63,26 +82,41 @@ describe('the protocol pages', () => {
     const { page, problems } = await signedInPage('admin');
     await page.goto(`${ctx.baseUrl}/protocols`);
     const halfDose = page.getByRole('region', { name: 'Verteporfin PDT — half dose' });
-    await halfDose.getByRole('button', { name: 'Start a new draft from Verteporfin PDT — half dose, version 1' }).click();
+    await halfDose
+      .getByRole('button', {
+        name: 'Start a new draft from Verteporfin PDT — half dose, version 1',
+      })
+      .click();
     const outcome = page.getByRole('status').filter({ hasText: 'was made from version 1' });
     // The draft takes the next free number after every shipped version of the protocol.
     await expect.poll(() => outcome.innerText()).toMatch(/Draft version \d+ /);
     const draftVersion = Number(/Draft version (\d+) /.exec(await outcome.innerText())![1]);
     expect(draftVersion).toBeGreaterThan(1);
     await outcome.getByRole('link', { name: `Open draft version ${draftVersion}` }).click();
-    await page.getByRole('heading', { level: 1, name: new RegExp(`version ${draftVersion}`) }).waitFor();
+    await page
+      .getByRole('heading', { level: 1, name: new RegExp(`version ${draftVersion}`) })
+      .waitFor();
     expect(await page.getByText('0 of 2 approvals so far').count()).toBe(1);
 
     await page.getByLabel('Compare with…').selectOption('1');
     await page.getByRole('button', { name: 'Compare side by side' }).click();
-    await page.getByRole('heading', { level: 1, name: new RegExp(`version 1 with version ${draftVersion}`) }).waitFor();
+    await page
+      .getByRole('heading', {
+        level: 1,
+        name: new RegExp(`version 1 with version ${draftVersion}`),
+      })
+      .waitFor();
     const table = page.getByRole('table');
     // A draft copies every figure; only its number and the approval block differ.
     await expect.poll(() => table.getByRole('row', { name: /^Changed version/ }).count()).toBe(1);
-    expect(await table.getByRole('row', { name: /^Removed approval\.approvedBy\[0\]/ }).count()).toBe(1);
+    expect(
+      await table.getByRole('row', { name: /^Removed approval\.approvedBy\[0\]/ }).count(),
+    ).toBe(1);
     expect(await table.getByRole('row', { name: /irradianceMwPerCm2/ }).count()).toBe(0);
     await page.getByLabel('Show the values that are the same too').check();
-    await expect.poll(() => table.getByRole('row', { name: /^Same light\.irradianceMwPerCm2/ }).count()).toBe(1);
+    await expect
+      .poll(() => table.getByRole('row', { name: /^Same light\.irradianceMwPerCm2/ }).count())
+      .toBe(1);
     expect(await accessibilityViolations(page)).toEqual([]);
 
     await page.getByRole('link', { name: `Back to version ${draftVersion}` }).click();
@@ -107,7 +141,10 @@ describe('the light calculator', () => {
   it('works out irradiance and fluence from power 42.4 mW, a 3000 µm spot and 83 s', async () => {
     const { page, problems } = await signedInPage('clinician');
 
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Light calculator' }).click();
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Light calculator' })
+      .click();
     await page.getByRole('heading', { level: 1, name: 'Light calculator' }).waitFor();
     expect(await accessibilityViolations(page)).toEqual([]);
 
@@ -142,7 +179,9 @@ describe('the light calculator', () => {
     await expect.poll(() => power.getAttribute('aria-invalid')).toBe('true');
     const describedBy = (await power.getAttribute('aria-describedby')) ?? '';
     const errorId = describedBy.split(' ').find((id) => id.endsWith('-error'));
-    expect(await page.locator(`[id="${errorId}"]`).innerText()).toMatch(/Power must be a number greater than 0 mW/);
+    expect(await page.locator(`[id="${errorId}"]`).innerText()).toMatch(
+      /Power must be a number greater than 0 mW/,
+    );
     expect(problems).toEqual([]);
     await page.close();
   });

@@ -16,7 +16,16 @@ let pharmacist: APIRequestContext;
 let nurseApi: APIRequestContext;
 let auditorApi: APIRequestContext;
 
-const { serverNowMs, advance, signedInApi, signedInPage, nursePage, seedEvents, sessionOf: readSession, allStored } = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
+const {
+  serverNowMs,
+  advance,
+  signedInApi,
+  signedInPage,
+  nursePage,
+  seedEvents,
+  sessionOf: readSession,
+  allStored,
+} = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
 
 beforeAll(async () => {
   ctx = await startBrowserTest();
@@ -26,22 +35,40 @@ beforeAll(async () => {
   auditorApi = await signedInApi('auditor@demo.luxtempo.example');
 });
 afterAll(async () => {
-  await Promise.all([clinician?.dispose(), pharmacist?.dispose(), nurseApi?.dispose(), auditorApi?.dispose()]);
+  await Promise.all([
+    clinician?.dispose(),
+    pharmacist?.dispose(),
+    nurseApi?.dispose(),
+    auditorApi?.dispose(),
+  ]);
   await ctx?.close();
 });
-
 
 async function signedOrder(body: Record<string, unknown>) {
   const draft = await clinician.post('/api/orders', { data: body });
   expect(draft.status(), await draft.text()).toBe(201);
   const { id, version } = (await draft.json()).order as { id: number; version: number };
-  expect((await clinician.post(`/api/orders/${id}/signature`, { data: { password: demoPassword, meaning: 'ordered', version } })).status()).toBe(200);
+  expect(
+    (
+      await clinician.post(`/api/orders/${id}/signature`, {
+        data: { password: demoPassword, meaning: 'ordered', version },
+      })
+    ).status(),
+  ).toBe(200);
   return id;
 }
 
 async function newPatientId() {
   const suffix = randomUUID().slice(0, 6).toUpperCase();
-  const res = await clinician.post('/api/patients', { data: { recordNumber: `SG-${suffix}`, givenName: 'Ottoline', familyName: `Fernhollow ${suffix}`, dateOfBirth: '1950-03-14', emailConsent: false } });
+  const res = await clinician.post('/api/patients', {
+    data: {
+      recordNumber: `SG-${suffix}`,
+      givenName: 'Ottoline',
+      familyName: `Fernhollow ${suffix}`,
+      dateOfBirth: '1950-03-14',
+      emailConsent: false,
+    },
+  });
   expect(res.status()).toBe(201);
   return (await res.json()).patient.id as number;
 }
@@ -63,16 +90,40 @@ async function preparedPdtOrder(reconstitutedMinutesAgo: number) {
     patientId: await newPatientId(),
     eye: 'right',
     protocol: { key: 'pdt-standard', version: 1 },
-    inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
-    checklist: ['porphyria', 'hypersensitivity', 'hepatic-impairment', 'pregnancy-breastfeeding', 'other-photosensitisers'].map((q) => ({ id: q, answer: 'no' })),
+    inputs: {
+      height: { value: 170, unit: 'cm' },
+      weight: { value: 70, unit: 'kg' },
+      bsaFormula: 'mosteller',
+      lesionGldUm: 2500,
+      lensMagnification: 1,
+    },
+    checklist: [
+      'porphyria',
+      'hypersensitivity',
+      'hepatic-impairment',
+      'pregnancy-breastfeeding',
+      'other-photosensitisers',
+    ].map((q) => ({ id: q, answer: 'no' })),
   });
-  expect((await pharmacist.post(`/api/orders/${id}/dose-checks`, { data: { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 } })).status()).toBe(201);
+  expect(
+    (
+      await pharmacist.post(`/api/orders/${id}/dose-checks`, {
+        data: { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 },
+      })
+    ).status(),
+  ).toBe(201);
   const prepared = await prepare(id, reconstitutedMinutesAgo);
   expect(prepared.status(), await prepared.text()).toBe(201);
   return id;
 }
 
-const sessionOf = (orderId: number) => readSession<{ status: string; events: { type: string; stepId?: string; authorisedById?: number; authorisedByName?: string }[]; record: Record<string, unknown>; deviations: { type: string; actual: number | null }[] }>(orderId);
+const sessionOf = (orderId: number) =>
+  readSession<{
+    status: string;
+    events: { type: string; stepId?: string; authorisedById?: number; authorisedByName?: string }[];
+    record: Record<string, unknown>;
+    deviations: { type: string; actual: number | null }[];
+  }>(orderId);
 
 const pdtUpToInfusion: [number, Record<string, unknown>][] = [
   [130, { type: 'session-started', checks: allChecks }],
@@ -89,21 +140,29 @@ describe('gate 4: the drug past its beyond-use time', () => {
     await page.getByRole('button', { name: 'Start infusion', exact: true }).waitFor();
 
     await advance(page, 3 * 60_000);
-    await page.getByText('The drug is past its beyond-use time: discard it.', { exact: false }).waitFor();
+    await page
+      .getByText('The drug is past its beyond-use time: discard it.', { exact: false })
+      .waitFor();
     expect(await page.getByRole('button', { name: 'Start infusion', exact: true }).count()).toBe(0);
     expect(await accessibilityViolations(page)).toEqual([]);
 
     // The pharmacist makes the drug up again from the order's dose-check page (the order stays in
     // session), and the clock lets the infusion start.
     const pharmacy = await signedInPage('pharmacist@demo.luxtempo.example', `/dose-checks/${id}`);
-    await pharmacy.page.getByText('Past its beyond-use time: discard the drug and make it up again').waitFor();
+    await pharmacy.page
+      .getByText('Past its beyond-use time: discard the drug and make it up again')
+      .waitFor();
     expect(await accessibilityViolations(pharmacy.page)).toEqual([]);
     await pharmacy.page.getByLabel('Vial lot').fill('SG-LOT-2');
-    await pharmacy.page.getByLabel('Vial expiry').fill(new Date(Date.now() + 90 * 86_400_000).toISOString().slice(0, 10));
+    await pharmacy.page
+      .getByLabel('Vial expiry')
+      .fill(new Date(Date.now() + 90 * 86_400_000).toISOString().slice(0, 10));
     await pharmacy.page.getByRole('button', { name: 'Set to now' }).click();
     await pharmacy.page.getByLabel('Volume drawn (mL)').fill('5.5');
     await pharmacy.page.getByRole('button', { name: 'Record preparation' }).click();
-    await pharmacy.page.getByText('Past its beyond-use time: discard the drug and make it up again').waitFor({ state: 'hidden' });
+    await pharmacy.page
+      .getByText('Past its beyond-use time: discard the drug and make it up again')
+      .waitFor({ state: 'hidden' });
     expect(pharmacy.problems).toEqual([]);
     await pharmacy.page.context().close();
     const preparations = (await (await clinician.get(`/api/orders/${id}`)).json()).order;
@@ -112,7 +171,11 @@ describe('gate 4: the drug past its beyond-use time', () => {
     await page.getByRole('button', { name: 'Start infusion', exact: true }).click();
     await page.getByRole('timer', { name: 'Time left for the infusion' }).waitFor();
     await allStored(page);
-    expect((await sessionOf(id)).events.some((e) => e.type === 'step-started' && e.stepId === 'infusion')).toBe(true);
+    expect(
+      (await sessionOf(id)).events.some(
+        (e) => e.type === 'step-started' && e.stepId === 'infusion',
+      ),
+    ).toBe(true);
     expect(problems).toEqual([]);
     await page.context().close();
   });
@@ -123,11 +186,36 @@ describe('gate 4: light with no infusion start on record', () => {
     const id = await preparedPdtOrder(30);
     const infusionKey = randomUUID();
     const nowMs = serverNowMs();
-    const tap = (secondsAgo: number, body: Record<string, unknown>) => nurseApi.post(`/api/orders/${id}/session-events`, { data: { idempotencyKey: randomUUID(), clientTime: new Date(nowMs - secondsAgo * 1000).toISOString(), ...body } });
+    const tap = (secondsAgo: number, body: Record<string, unknown>) =>
+      nurseApi.post(`/api/orders/${id}/session-events`, {
+        data: {
+          idempotencyKey: randomUUID(),
+          clientTime: new Date(nowMs - secondsAgo * 1000).toISOString(),
+          ...body,
+        },
+      });
     await seedEvents(id, pdtUpToInfusion);
-    expect((await nurseApi.post(`/api/orders/${id}/session-events`, { data: { idempotencyKey: infusionKey, clientTime: new Date(nowMs - 125_000).toISOString(), type: 'step-started', stepId: 'infusion' } })).status()).toBe(201);
+    expect(
+      (
+        await nurseApi.post(`/api/orders/${id}/session-events`, {
+          data: {
+            idempotencyKey: infusionKey,
+            clientTime: new Date(nowMs - 125_000).toISOString(),
+            type: 'step-started',
+            stepId: 'infusion',
+          },
+        })
+      ).status(),
+    ).toBe(201);
     for (const [secondsAgo, body] of [
-      [124, { type: 'tap-withdrawn', withdrawnKey: infusionKey, reason: 'Tapped on the wrong patient’s tablet.' }],
+      [
+        124,
+        {
+          type: 'tap-withdrawn',
+          withdrawnKey: infusionKey,
+          reason: 'Tapped on the wrong patient’s tablet.',
+        },
+      ],
       [100, { type: 'step-started', stepId: 'laser' }],
       [17, { type: 'step-ended', stepId: 'laser' }],
       [15, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }],
@@ -136,10 +224,14 @@ describe('gate 4: light with no infusion start on record', () => {
       const res = await tap(secondsAgo, body);
       expect(res.status(), await res.text()).toBe(201);
     }
-    expect((await sessionOf(id)).deviations.find((d) => d.type === 'light-without-infusion')).toBeDefined();
+    expect(
+      (await sessionOf(id)).deviations.find((d) => d.type === 'light-without-infusion'),
+    ).toBeDefined();
 
     const sheet = await signedInPage('nurse@demo.luxtempo.example', `/orders/${id}/discharge`);
-    const precaution = sheet.page.getByRole('region', { name: 'Light precaution after verteporfin' });
+    const precaution = sheet.page.getByRole('region', {
+      name: 'Light precaution after verteporfin',
+    });
     await precaution.getByText('Counted from the latest plausible time.').waitFor();
     expect(await precaution.innerText()).toMatch(/No infusion start is on record/);
     // 48 h in the demo protocol (sources differ: 48 h or 5 days — from memory), from the session's end.
@@ -158,7 +250,10 @@ describe('gate 6: UV below the minimum thickness', () => {
       eye: 'left',
       protocol: { key: 'cxl-standard', version: 1 },
       inputs: { stromalThicknessUm: 460 },
-      checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({ id: q, answer: 'no' })),
+      checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({
+        id: q,
+        answer: 'no',
+      })),
     });
     await seedEvents(id, [
       [2000, { type: 'session-started', checks: allChecks }],
@@ -176,21 +271,29 @@ describe('gate 6: UV below the minimum thickness', () => {
 
     await page.getByRole('button', { name: 'Authorise UV below the minimum…' }).click();
     const dialog = page.getByRole('dialog', { name: 'Authorise UV below the thickness minimum' });
-    await dialog.getByLabel('Reason for going on to UV').fill('Swelling not tolerated; consultant decision after discussion with the patient.');
-    await dialog.getByLabel('Authorising clinician’s e-mail').fill('clinician@demo.luxtempo.example');
+    await dialog
+      .getByLabel('Reason for going on to UV')
+      .fill('Swelling not tolerated; consultant decision after discussion with the patient.');
+    await dialog
+      .getByLabel('Authorising clinician’s e-mail')
+      .fill('clinician@demo.luxtempo.example');
     await dialog.getByLabel('Authorising clinician’s password').fill('not-the-password');
     expect(await accessibilityViolations(page)).toEqual([]);
     await dialog.getByRole('button', { name: 'Authorise override' }).click();
     // Named beside the password field, in the server's words.
     const password = dialog.getByLabel('Authorising clinician’s password');
-    await dialog.getByText('The e-mail or password of the authorising clinician is not right.').waitFor();
+    await dialog
+      .getByText('The e-mail or password of the authorising clinician is not right.')
+      .waitFor();
     expect(await password.getAttribute('aria-invalid')).toBe('true');
     expect((await sessionOf(id)).events.some((e) => e.type === 'thickness-override')).toBe(false);
 
     await dialog.getByLabel('Authorising clinician’s password').fill(demoPassword);
     await dialog.getByRole('button', { name: 'Authorise override' }).click();
     await dialog.waitFor({ state: 'hidden' });
-    await page.getByRole('button', { name: 'Start UV without swelling (override recorded)' }).click();
+    await page
+      .getByRole('button', { name: 'Start UV without swelling (override recorded)' })
+      .click();
     await page.getByRole('timer', { name: 'Time left for the UV' }).waitFor();
     await allStored(page);
 
@@ -198,7 +301,9 @@ describe('gate 6: UV below the minimum thickness', () => {
     const override = session.events.find((e) => e.type === 'thickness-override');
     expect(override?.authorisedByName).toBeTruthy();
     expect(JSON.stringify(session.events)).not.toContain(demoPassword);
-    expect(session.deviations.map((d) => d.type)).toEqual(expect.arrayContaining(['uv-below-thickness', 'thickness-override']));
+    expect(session.deviations.map((d) => d.type)).toEqual(
+      expect.arrayContaining(['uv-below-thickness', 'thickness-override']),
+    );
     expect(problems.filter((p) => !p.includes('422'))).toEqual([]);
     await page.context().close();
   });
@@ -228,7 +333,9 @@ describe('gate 7: what was given is recorded', () => {
     await dialog.getByRole('button', { name: 'Later' }).click();
     await advance(page, 700);
     await page.getByRole('button', { name: 'Start after-care', exact: true }).click();
-    await page.getByText('Enter the exposure the laser displays before completing the session.').waitFor();
+    await page
+      .getByText('Enter the exposure the laser displays before completing the session.')
+      .waitFor();
     await page.getByRole('button', { name: 'Enter the laser’s exposure…' }).click();
     await dialog.getByLabel('Exposure time on the laser (s)').fill('70');
     await dialog.getByLabel('Energy on the laser (J), if it shows one').fill('2.97');
@@ -257,7 +364,9 @@ describe('gate 7: what was given is recorded', () => {
     await page.getByRole('timer', { name: 'Time left for the infusion' }).waitFor();
     await page.getByRole('button', { name: 'Stop session…' }).click();
     const stop = page.getByRole('dialog', { name: 'Stop the session' });
-    await stop.getByLabel('Why is the session stopped?').fill('Patient felt faint; infusion stopped.');
+    await stop
+      .getByLabel('Why is the session stopped?')
+      .fill('Patient felt faint; infusion stopped.');
     await stop.getByRole('button', { name: 'Stop session' }).click();
     await stop.getByText('Enter the volume infused as a number from 0 to 30 mL.').waitFor();
     expect(await accessibilityViolations(page)).toEqual([]);
@@ -266,7 +375,9 @@ describe('gate 7: what was given is recorded', () => {
     await page.getByText('Session stopped').waitFor();
     await allStored(page);
     // 6 of 30 mL carry 6/30 of 10.92 mg = 2.184 mg (proportion).
-    expect(await page.locator('main').innerText()).toMatch(/Verteporfin given\s*about 2\.2 mg of 10\.92 mg/);
+    expect(await page.locator('main').innerText()).toMatch(
+      /Verteporfin given\s*about 2\.2 mg of 10\.92 mg/,
+    );
     expect(problems).toEqual([]);
     await page.context().close();
 

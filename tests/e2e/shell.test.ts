@@ -1,7 +1,13 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -16,9 +22,27 @@ const expectedNavigation: Record<string, string[]> = {
   clinician: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
   nurse: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
   pharmacist: ['Today', 'Dose checks', 'Orders', 'Patients', 'Protocols', 'Light calculator'],
-  auditor: ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator', 'Deviations', 'Dose records', 'Trends', 'Audit trail'],
+  auditor: [
+    'Today',
+    'Orders',
+    'Patients',
+    'Protocols',
+    'Light calculator',
+    'Deviations',
+    'Dose records',
+    'Trends',
+    'Audit trail',
+  ],
   admin: ['Today', 'Patients', 'Protocols', 'Light calculator', 'People', 'Outbox'],
-  'charge-nurse': ['Today', 'Orders', 'Patients', 'Protocols', 'Light calculator', 'People', 'Outbox'],
+  'charge-nurse': [
+    'Today',
+    'Orders',
+    'Patients',
+    'Protocols',
+    'Light calculator',
+    'People',
+    'Outbox',
+  ],
 };
 
 async function navigationLabels(page: Page): Promise<string[]> {
@@ -42,7 +66,9 @@ describe('signing in through the browser', () => {
   it('a wrong password shows the error on the page and no session', async () => {
     const page = await ctx.browser.newPage();
     await signInThroughForm(page, ctx.baseUrl, 'nurse@demo.luxtempo.example', 'not-the-password');
-    await expect.poll(() => page.getByRole('alert').innerText()).toMatch(/e-mail or password is not right/);
+    await expect
+      .poll(() => page.getByRole('alert').innerText())
+      .toMatch(/e-mail or password is not right/);
     expect(page.url()).toContain('/sign-in');
     await page.close();
   });
@@ -55,7 +81,9 @@ describe('signing in through the browser', () => {
     await expect.poll(() => email.getAttribute('aria-invalid')).toBe('true');
     const describedBy = await email.getAttribute('aria-describedby');
     expect(describedBy).toBeTruthy();
-    expect(await page.locator(`[id="${describedBy!.split(' ')[0]}"]`).innerText()).toMatch(/e-mail/i);
+    expect(await page.locator(`[id="${describedBy!.split(' ')[0]}"]`).innerText()).toMatch(
+      /e-mail/i,
+    );
     await page.close();
   });
 
@@ -75,7 +103,9 @@ describe('signing in through the browser', () => {
     await signInThroughForm(page, ctx.baseUrl, 'nurse@demo.luxtempo.example', demoPassword);
     await navigationLabels(page);
     await page.goto(`${ctx.baseUrl}/no/such/page`);
-    await expect.poll(() => page.getByRole('heading', { level: 1 }).innerText()).toBe('There is no page here');
+    await expect
+      .poll(() => page.getByRole('heading', { level: 1 }).innerText())
+      .toBe('There is no page here');
     await page.close();
   });
 });
@@ -89,10 +119,14 @@ describe('the look of the app', () => {
     // document.fonts.check() answers true even for missing fonts; the FontFace list does not lie.
     const faces = await page.evaluate(async () => {
       await document.fonts.ready;
-      return [...document.fonts].filter((f) => f.status === 'loaded').map((f) => f.family.replace(/["']/g, ''));
+      return [...document.fonts]
+        .filter((f) => f.status === 'loaded')
+        .map((f) => f.family.replace(/["']/g, ''));
     });
     expect(faces).toContain('Lexend');
-    const family = await page.getByRole('button', { name: 'Sign in' }).evaluate((el) => getComputedStyle(el).fontFamily);
+    const family = await page
+      .getByRole('button', { name: 'Sign in' })
+      .evaluate((el) => getComputedStyle(el).fontFamily);
     expect(family).toMatch(/^"?Lexend/);
     expect(problems).toEqual([]);
     await page.close();
@@ -118,14 +152,24 @@ describe('the look of the app', () => {
     await page.getByLabel('E-mail').waitFor();
     await page.keyboard.press('Tab');
     let guard = 0;
-    while (!(await page.evaluate(() => document.activeElement?.id && document.activeElement === document.querySelector('input[type="email"], input[name="email"]'))) && guard++ < 6) {
+    while (
+      !(await page.evaluate(
+        () =>
+          document.activeElement?.id &&
+          document.activeElement ===
+            document.querySelector('input[type="email"], input[name="email"]'),
+      )) &&
+      guard++ < 6
+    ) {
       await page.keyboard.press('Tab');
     }
     const outline = await page.evaluate(() => {
       const style = getComputedStyle(document.activeElement as Element);
       return { outline: style.outlineStyle, width: style.outlineWidth, shadow: style.boxShadow };
     });
-    expect(outline.outline !== 'none' && outline.width !== '0px' ? true : outline.shadow !== 'none').toBe(true);
+    expect(
+      outline.outline !== 'none' && outline.width !== '0px' ? true : outline.shadow !== 'none',
+    ).toBe(true);
     await page.close();
   });
 });

@@ -2,7 +2,12 @@ import { randomUUID } from 'node:crypto';
 import type { APIRequestContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  type BrowserContext,
+} from '../support/browser';
 import { allChecks, clockKit } from '../support/clock-kit';
 
 /*
@@ -16,7 +21,16 @@ let clinician: APIRequestContext;
 let pharmacist: APIRequestContext;
 let nurseApi: APIRequestContext;
 
-const { serverNowMs, advance, signedInApi, signedInPage, nursePage, seedEvents, sessionOf: readSession, allStored } = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
+const {
+  serverNowMs,
+  advance,
+  signedInApi,
+  signedInPage,
+  nursePage,
+  seedEvents,
+  sessionOf: readSession,
+  allStored,
+} = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
 
 beforeAll(async () => {
   ctx = await startBrowserTest();
@@ -28,14 +42,15 @@ afterAll(async () => {
   if (samples.length > 0) {
     const worst = samples.reduce((a, b) => (Math.abs(b.errorS) > Math.abs(a.errorS) ? b : a));
     const steps = Math.max(...samples.map((s) => Math.abs(s.shownS - shownAtResolution(s.trueS))));
-    console.log(`step clock: ${samples.length} readings over all tests; largest error ${worst.errorS.toFixed(3)} s (${worst.label}); at display resolution at most ${steps} s`);
+    console.log(
+      `step clock: ${samples.length} readings over all tests; largest error ${worst.errorS.toFixed(3)} s (${worst.label}); at display resolution at most ${steps} s`,
+    );
   }
   await Promise.all([clinician?.dispose(), pharmacist?.dispose(), nurseApi?.dispose()]);
   await ctx?.close();
 });
 
 /* ---------- time on both sides ---------- */
-
 
 async function advanceTo(page: Page, targetServerMs: number) {
   await advance(page, targetServerMs - serverNowMs());
@@ -46,7 +61,13 @@ async function advanceTo(page: Page, targetServerMs: number) {
 async function newPatient() {
   const suffix = randomUUID().slice(0, 6).toUpperCase();
   const res = await clinician.post('/api/patients', {
-    data: { recordNumber: `SC-${suffix}`, givenName: 'Perpetua', familyName: `Lanternwick ${suffix}`, dateOfBirth: '1957-09-02', emailConsent: false },
+    data: {
+      recordNumber: `SC-${suffix}`,
+      givenName: 'Perpetua',
+      familyName: `Lanternwick ${suffix}`,
+      dateOfBirth: '1957-09-02',
+      emailConsent: false,
+    },
   });
   expect(res.status()).toBe(201);
   return (await res.json()).patient as { id: number; familyName: string };
@@ -56,7 +77,9 @@ async function signedOrder(body: Record<string, unknown>) {
   const draft = await clinician.post('/api/orders', { data: body });
   expect(draft.status(), await draft.text()).toBe(201);
   const { id, version } = (await draft.json()).order as { id: number; version: number };
-  const signed = await clinician.post(`/api/orders/${id}/signature`, { data: { password: demoPassword, meaning: 'ordered', version } });
+  const signed = await clinician.post(`/api/orders/${id}/signature`, {
+    data: { password: demoPassword, meaning: 'ordered', version },
+  });
   expect(signed.status()).toBe(200);
   return id;
 }
@@ -68,17 +91,33 @@ async function preparedPdtOrder() {
     patientId: patient.id,
     eye: 'right',
     protocol: { key: 'pdt-standard', version: 1 },
-    inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
-    checklist: ['porphyria', 'hypersensitivity', 'hepatic-impairment', 'pregnancy-breastfeeding', 'other-photosensitisers'].map((q) => ({ id: q, answer: 'no' })),
+    inputs: {
+      height: { value: 170, unit: 'cm' },
+      weight: { value: 70, unit: 'kg' },
+      bsaFormula: 'mosteller',
+      lesionGldUm: 2500,
+      lensMagnification: 1,
+    },
+    checklist: [
+      'porphyria',
+      'hypersensitivity',
+      'hepatic-impairment',
+      'pregnancy-breastfeeding',
+      'other-photosensitisers',
+    ].map((q) => ({ id: q, answer: 'no' })),
   });
   // Mosteller 1.82 m² (Mosteller RD, N Engl J Med 1987) × 6 mg/m² = 10.92 mg; 2 mg/mL → 5.46 mL (TAP Study Group, Arch Ophthalmol 1999).
-  const check = await pharmacist.post(`/api/orders/${id}/dose-checks`, { data: { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 } });
+  const check = await pharmacist.post(`/api/orders/${id}/dose-checks`, {
+    data: { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 },
+  });
   expect(check.status(), await check.text()).toBe(201);
   const vialExpiry = new Date(Date.now() + 90 * 86_400_000).toISOString().slice(0, 10);
   // Made up 20 min before: the seeded infusion starts below lie up to 15 min back, and an infusion
   // before the reconstitution is refused.
   const reconstitutedAt = new Date(serverNowMs() - 20 * 60_000).toISOString();
-  const prepared = await pharmacist.post(`/api/orders/${id}/preparation`, { data: { vialLot: 'SC-LOT-1', vialExpiry, reconstitutedAt, volumeDrawnMl: 5.5 } });
+  const prepared = await pharmacist.post(`/api/orders/${id}/preparation`, {
+    data: { vialLot: 'SC-LOT-1', vialExpiry, reconstitutedAt, volumeDrawnMl: 5.5 },
+  });
   expect(prepared.status(), await prepared.text()).toBe(201);
   return { id, patient };
 }
@@ -91,7 +130,10 @@ async function readyCxlOrder(key = 'cxl-standard') {
     eye: 'left',
     protocol: { key, version: 1 },
     inputs: { stromalThicknessUm: 460 },
-    checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({ id: q, answer: 'no' })),
+    checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({
+      id: q,
+      answer: 'no',
+    })),
   });
   return { id, patient };
 }
@@ -112,8 +154,13 @@ interface SessionBody {
 const sessionOf = (orderId: number) => readSession<SessionBody>(orderId);
 
 function eventTimeMs(session: SessionBody, type: string, stepId?: string): number {
-  const event = session.events.find((e) => e.type === type && (stepId === undefined || e.stepId === stepId));
-  if (!event) throw new Error(`no ${type} ${stepId ?? ''} among ${session.events.map((e) => `${e.type}:${e.stepId ?? ''}`).join(', ')}`);
+  const event = session.events.find(
+    (e) => e.type === type && (stepId === undefined || e.stepId === stepId),
+  );
+  if (!event)
+    throw new Error(
+      `no ${type} ${stepId ?? ''} among ${session.events.map((e) => `${e.type}:${e.stepId ?? ''}`).join(', ')}`,
+    );
   return Date.parse(event.clientTime);
 }
 
@@ -152,7 +199,12 @@ async function pressAt(page: Page, name: string, targetServerMs: number) {
 }
 
 /** The taps the tablet keeps for an order, read straight from its IndexedDB (not through the app). */
-async function keptTaps(page: Page, orderId: number): Promise<{ key: string; by: number | null; state: string; refusal: { message: string } | null }[]> {
+async function keptTaps(
+  page: Page,
+  orderId: number,
+): Promise<
+  { key: string; by: number | null; state: string; refusal: { message: string } | null }[]
+> {
   return page.evaluate(
     (id) =>
       new Promise((resolve, reject) => {
@@ -189,7 +241,8 @@ const samples: ClockSample[] = [];
 
 function parseClock(text: string): number {
   const parts = text.trim().split(':').map(Number);
-  if (parts.length < 2 || parts.some((n) => !Number.isInteger(n))) throw new Error(`not a clock reading: "${text}"`);
+  if (parts.length < 2 || parts.some((n) => !Number.isInteger(n)))
+    throw new Error(`not a clock reading: "${text}"`);
   return parts.reduce((total, n) => total * 60 + n, 0);
 }
 
@@ -198,7 +251,13 @@ function parseClock(text: string): number {
  * The page is given a third of a second first, so a reading after a jump of the clock measures
  * the clock and not the jump.
  */
-async function readClock(page: Page, timerName: string, truthS: (serverMs: number) => number, label: string, settleMs = 300): Promise<ClockSample> {
+async function readClock(
+  page: Page,
+  timerName: string,
+  truthS: (serverMs: number) => number,
+  label: string,
+  settleMs = 300,
+): Promise<ClockSample> {
   const timer = page.getByRole('timer', { name: timerName });
   await timer.waitFor();
   if (settleMs > 0) await page.waitForTimeout(settleMs);
@@ -226,7 +285,9 @@ describe('the bedside step clock', () => {
     expect(checksText).toContain('RIGHT');
     expect(checksText).toContain('600 mW/cm²'); // TAP Study Group, Arch Ophthalmol 1999
     expect(checksText).toContain('83 s');
-    expect(checksText).toMatch(/Extravasation: stop the infusion, apply a cool compress and protect the area from light/);
+    expect(checksText).toMatch(
+      /Extravasation: stop the infusion, apply a cool compress and protect the area from light/,
+    );
     expect(await accessibilityViolations(page)).toEqual([]);
 
     // Start refuses until every check is ticked, and names what is missing.
@@ -243,7 +304,12 @@ describe('the bedside step clock', () => {
 
     // 7 min in: 21 mL given of 30 mL at 3 mL/min (30 mL over 10 min: TAP Study Group, Arch Ophthalmol 1999).
     await advanceTo(page, infusionStartMs + 420_000);
-    const infusion = await readClock(page, 'Time left for the infusion', (ms) => 600 - (ms - infusionStartMs) / 1000, 'PDT infusion at 7 min');
+    const infusion = await readClock(
+      page,
+      'Time left for the infusion',
+      (ms) => 600 - (ms - infusionStartMs) / 1000,
+      'PDT infusion at 7 min',
+    );
     expect(Math.abs(infusion.errorS)).toBeLessThan(1.1);
     expect(await page.locator('main').innerText()).toMatch(/Given so far 21(\.\d)? mL of 30 mL/);
 
@@ -252,7 +318,12 @@ describe('the bedside step clock', () => {
     await page.getByText('Time is up', { exact: true }).waitFor();
     await press(page, 'End infusion');
     await press(page, 'Start wait');
-    const wait = await readClock(page, 'Time until the light starts', (ms) => 900 - (ms - infusionStartMs) / 1000, 'PDT wait for light');
+    const wait = await readClock(
+      page,
+      'Time until the light starts',
+      (ms) => 900 - (ms - infusionStartMs) / 1000,
+      'PDT wait for light',
+    );
     expect(Math.abs(wait.errorS)).toBeLessThan(1.1);
 
     // The light starts 15 min after the START of the infusion (TAP Study Group, Arch Ophthalmol 1999).
@@ -261,7 +332,12 @@ describe('the bedside step clock', () => {
     await allStored(page);
     const lightStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'laser');
     await advanceTo(page, lightStartMs + 41_300);
-    const light = await readClock(page, 'Time left for the laser', (ms) => 83 - (ms - lightStartMs) / 1000, 'PDT light at 41.3 s');
+    const light = await readClock(
+      page,
+      'Time left for the laser',
+      (ms) => 83 - (ms - lightStartMs) / 1000,
+      'PDT light at 41.3 s',
+    );
     expect(Math.abs(light.errorS)).toBeLessThan(1.1);
 
     await pressAt(page, 'End laser', lightStartMs + 83_000);
@@ -341,7 +417,12 @@ describe('the bedside step clock', () => {
       await page.getByRole('button', { name: 'Drop given' }).click();
     }
     await advanceTo(page, uvStartMs + 1_234_500);
-    const uv = await readClock(page, 'Time left for the UV', (ms) => 1800 - (ms - uvStartMs) / 1000, 'CXL UV at 20:34.5');
+    const uv = await readClock(
+      page,
+      'Time left for the UV',
+      (ms) => 1800 - (ms - uvStartMs) / 1000,
+      'CXL UV at 20:34.5',
+    );
     expect(Math.abs(uv.errorS)).toBeLessThan(1.1);
     await advanceTo(page, uvStartMs + 1_800_200);
     await press(page, 'End UV');
@@ -353,7 +434,9 @@ describe('the bedside step clock', () => {
     const session = await sessionOf(id);
     expect(session.status).toBe('completed');
     const record = session.record!;
-    console.log(`CXL record: soak ${record.soakDurationS} s, thickness before UV ${record.thicknessBeforeUvUm} µm, UV ${record.uvOnS} s, ${record.deliveredFluenceJPerCm2} J/cm²`);
+    console.log(
+      `CXL record: soak ${record.soakDurationS} s, thickness before UV ${record.thicknessBeforeUvUm} µm, UV ${record.uvOnS} s, ${record.deliveredFluenceJPerCm2} J/cm²`,
+    );
     expect(session.events.filter((e) => e.type === 'drop-given')).toHaveLength(15 + 3 + 5);
     expect(record.thicknessBeforeUvUm).toBe(412);
     // 3 mW/cm² × 1800 s = 5.4 J/cm² (Wollensak G, Spoerl E, Seiler T, Am J Ophthalmol 2003), to the tap's fraction of a second.
@@ -383,13 +466,28 @@ describe('the bedside step clock', () => {
     const left = (ms: number) => 83 - (ms - lightStartMs) / 1000;
 
     await advanceTo(page, lightStartMs + 30_400);
-    const beforeReload = await readClock(page, 'Time left for the laser', left, 'light before reload');
+    const beforeReload = await readClock(
+      page,
+      'Time left for the laser',
+      left,
+      'light before reload',
+    );
     await page.reload();
     // Read as soon as the clock is back: no settling, the first frame must be right.
-    const afterReload = await readClock(page, 'Time left for the laser', left, 'light straight after reload', 0);
-    console.log(`reload at the light step: ${beforeReload.shownS} s shown before, ${afterReload.shownS} s shown after (true ${afterReload.trueS.toFixed(2)} s)`);
+    const afterReload = await readClock(
+      page,
+      'Time left for the laser',
+      left,
+      'light straight after reload',
+      0,
+    );
+    console.log(
+      `reload at the light step: ${beforeReload.shownS} s shown before, ${afterReload.shownS} s shown after (true ${afterReload.trueS.toFixed(2)} s)`,
+    );
     expect(Math.abs(afterReload.errorS)).toBeLessThan(1.1);
-    expect(Math.abs(afterReload.shownS - shownAtResolution(afterReload.trueS))).toBeLessThanOrEqual(1);
+    expect(Math.abs(afterReload.shownS - shownAtResolution(afterReload.trueS))).toBeLessThanOrEqual(
+      1,
+    );
 
     // Paused, the light's time stands still, also over a reload.
     await advance(page, 5_000);
@@ -398,14 +496,25 @@ describe('the bedside step clock', () => {
     const pausedLeft = left(eventTimeMs(await sessionOf(id), 'paused', 'laser'));
     await advance(page, 20_000);
     await page.reload();
-    const paused = await readClock(page, 'Time left for the laser', () => pausedLeft, 'light paused after reload', 0);
+    const paused = await readClock(
+      page,
+      'Time left for the laser',
+      () => pausedLeft,
+      'light paused after reload',
+      0,
+    );
     expect(Math.abs(paused.errorS)).toBeLessThan(1.1);
     await page.getByText('Paused', { exact: true }).waitFor();
     await page.getByRole('button', { name: 'Resume laser' }).click();
     await allStored(page);
     const resumedMs = eventTimeMs(await sessionOf(id), 'resumed', 'laser');
     await advance(page, 10_000);
-    const resumed = await readClock(page, 'Time left for the laser', (ms) => pausedLeft - (ms - resumedMs) / 1000, 'light after resume');
+    const resumed = await readClock(
+      page,
+      'Time left for the laser',
+      (ms) => pausedLeft - (ms - resumedMs) / 1000,
+      'light after resume',
+    );
     expect(Math.abs(resumed.errorS)).toBeLessThan(1.1);
     expect(problems).toEqual([]);
     await page.context().close();
@@ -471,9 +580,15 @@ describe('the bedside step clock', () => {
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
     await page.context().unroute('**/session-events');
     // Pre-treatment ticks and notes (kept drafts) went with the session; the tap stays, under its nurse's id.
-    expect(await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')))).toEqual([]);
+    expect(
+      await page.evaluate(() =>
+        Object.keys(localStorage).filter((k) => k.startsWith('luxtempo.draft.')),
+      ),
+    ).toEqual([]);
     const nurse = await nurseId();
-    expect((await keptTaps(page, id)).filter((tap) => tap.state === 'unsent').map((tap) => tap.by)).toEqual([nurse]);
+    expect(
+      (await keptTaps(page, id)).filter((tap) => tap.state === 'unsent').map((tap) => tap.by),
+    ).toEqual([nurse]);
 
     // The charge nurse signs in on the same tablet and opens the same clock: the tap is not hers to send.
     await signInThroughForm(page, ctx.baseUrl, 'charge-nurse@demo.luxtempo.example', demoPassword);
@@ -514,20 +629,39 @@ describe('the bedside step clock', () => {
     // Jumps of odd lengths, so readings fall anywhere inside a second.
     for (const jumpMs of [0, 13_137, 41_503, 77_777, 120_019, 2_345, 999, 180_511]) {
       await advance(page, jumpMs);
-      own.push(await readClock(page, 'Time left for the infusion', (ms) => 600 - (ms - infusionStartMs) / 1000, `infusion +${jumpMs} ms`));
+      own.push(
+        await readClock(
+          page,
+          'Time left for the infusion',
+          (ms) => 600 - (ms - infusionStartMs) / 1000,
+          `infusion +${jumpMs} ms`,
+        ),
+      );
     }
     await advanceTo(page, infusionStartMs + 600_000);
     await press(page, 'End infusion');
     await press(page, 'Start wait');
     for (const jumpMs of [1_111, 33_333, 97_501]) {
       await advance(page, jumpMs);
-      own.push(await readClock(page, 'Time until the light starts', (ms) => 900 - (ms - infusionStartMs) / 1000, `wait +${jumpMs} ms`));
+      own.push(
+        await readClock(
+          page,
+          'Time until the light starts',
+          (ms) => 900 - (ms - infusionStartMs) / 1000,
+          `wait +${jumpMs} ms`,
+        ),
+      );
     }
     const worstS = Math.max(...own.map((s) => Math.abs(s.errorS)));
     const worstSteps = Math.max(...own.map((s) => Math.abs(s.shownS - shownAtResolution(s.trueS))));
     console.log(
       `clock error over ${own.length} readings: largest ${worstS.toFixed(3)} s; at display resolution (whole seconds, rounded up) off by at most ${worstSteps} s\n` +
-        own.map((s) => `  ${s.label}: shown ${s.shownS} s, true ${s.trueS.toFixed(3)} s, error ${s.errorS.toFixed(3)} s`).join('\n'),
+        own
+          .map(
+            (s) =>
+              `  ${s.label}: shown ${s.shownS} s, true ${s.trueS.toFixed(3)} s, error ${s.errorS.toFixed(3)} s`,
+          )
+          .join('\n'),
     );
     // At display resolution (whole seconds) the clock is never more than one step off the truth.
     expect(worstSteps).toBeLessThanOrEqual(1);
@@ -556,7 +690,9 @@ describe('the bedside step clock', () => {
     await allStored(page);
 
     // Newest first: the second tap of the drop is the first Withdraw button; opened from the keyboard.
-    const withdrawButtons = page.getByRole('button', { name: /^Withdraw drop \(soak\) at \d\d:\d\d:\d\d\s*…$/i });
+    const withdrawButtons = page.getByRole('button', {
+      name: /^Withdraw drop \(soak\) at \d\d:\d\d:\d\d\s*…$/i,
+    });
     expect(await withdrawButtons.count()).toBe(2);
     const firstBox = await withdrawButtons.first().boundingBox();
     expect(firstBox!.height).toBeGreaterThanOrEqual(44);
@@ -573,7 +709,11 @@ describe('the bedside step clock', () => {
     await dialog.getByRole('button', { name: 'Withdraw tap' }).click();
 
     await page.getByText('1 given in this step').waitFor();
-    await page.getByText(/Withdrawn:\s*Drop \(soak\) at \d\d:\d\d:\d\d\s*— “The same drop was tapped twice\.”/).waitFor();
+    await page
+      .getByText(
+        /Withdrawn:\s*Drop \(soak\) at \d\d:\d\d:\d\d\s*— “The same drop was tapped twice\.”/,
+      )
+      .waitFor();
     expect(await withdrawButtons.count()).toBe(1);
     await allStored(page);
     expect(await accessibilityViolations(page)).toEqual([]);
@@ -581,9 +721,18 @@ describe('the bedside step clock', () => {
     const session = await sessionOf(id);
     const drops = session.events.filter((e) => e.type === 'drop-given');
     expect(drops).toHaveLength(2);
-    const record = session.record as unknown as { drops: unknown[]; withdrawnTaps: { idempotencyKey: string; type: string; reason: string }[] };
+    const record = session.record as unknown as {
+      drops: unknown[];
+      withdrawnTaps: { idempotencyKey: string; type: string; reason: string }[];
+    };
     expect(record.drops).toHaveLength(1);
-    expect(record.withdrawnTaps).toEqual([expect.objectContaining({ idempotencyKey: drops[1]!.idempotencyKey, type: 'drop-given', reason: 'The same drop was tapped twice.' })]);
+    expect(record.withdrawnTaps).toEqual([
+      expect.objectContaining({
+        idempotencyKey: drops[1]!.idempotencyKey,
+        type: 'drop-given',
+        reason: 'The same drop was tapped twice.',
+      }),
+    ]);
     expect(problems).toEqual([]);
     await page.context().close();
   });
@@ -600,7 +749,9 @@ describe('the bedside step clock', () => {
     await page.getByRole('timer', { name: 'Time left for the infusion' }).waitFor();
     await page.getByRole('button', { name: 'Extravasation…' }).click();
     const dialog = page.getByRole('dialog', { name: 'Extravasation' });
-    expect(await dialog.innerText()).toMatch(/Stop the infusion now\.\s*Apply a cool compress\.\s*Protect the area from light\./);
+    expect(await dialog.innerText()).toMatch(
+      /Stop the infusion now\.\s*Apply a cool compress\.\s*Protect the area from light\./,
+    );
     expect(await accessibilityViolations(page)).toEqual([]);
     await dialog.getByLabel('Note (optional)').fill('Swelling at the cannula site, left forearm.');
     // The volume the pump shows is required, at most the bag's 30 mL (TAP Study Group 1999).
@@ -619,13 +770,17 @@ describe('the bedside step clock', () => {
     const stop = page.getByRole('dialog', { name: 'Stop the session' });
     await stop.getByRole('button', { name: 'Stop session' }).click();
     await stop.getByText(/Give a reason of 5 to 500 characters/).waitFor();
-    await stop.getByLabel('Why is the session stopped?').fill('Extravasation; consultant stops the treatment.');
+    await stop
+      .getByLabel('Why is the session stopped?')
+      .fill('Extravasation; consultant stops the treatment.');
     await stop.getByRole('button', { name: 'Stop session' }).click();
     await page.getByText('Session stopped').waitFor();
     await allStored(page);
     const stopped = await sessionOf(id);
     expect(stopped.status).toBe('stopped');
-    expect(stopped.deviations.map((d) => d.type)).toEqual(expect.arrayContaining(['extravasation', 'stopped-early']));
+    expect(stopped.deviations.map((d) => d.type)).toEqual(
+      expect.arrayContaining(['extravasation', 'stopped-early']),
+    );
     expect(problems).toEqual([]);
     await page.context().close();
   });
@@ -645,7 +800,15 @@ describe('the bedside step clock', () => {
     const offersNoTaps = async (page: Page) => {
       const main = page.getByRole('main');
       await page.getByText('Watching only.').waitFor();
-      for (const name of ['Start infusion', 'End infusion', 'Start laser', 'Stop session…', 'Extravasation…', 'Sound on', 'Sound off']) {
+      for (const name of [
+        'Start infusion',
+        'End infusion',
+        'Start laser',
+        'Stop session…',
+        'Extravasation…',
+        'Sound on',
+        'Sound off',
+      ]) {
         expect(await main.getByRole('button', { name, exact: true }).count(), name).toBe(0);
       }
       expect(await main.getByRole('heading', { name: 'Recent taps' }).count()).toBe(0);
@@ -653,10 +816,18 @@ describe('the bedside step clock', () => {
     };
 
     // The clinician comes in from the order page, which offers the way to someone who does not run sessions.
-    const { page, problems } = await signedInPage('clinician@demo.luxtempo.example', `/orders/${id}`);
+    const { page, problems } = await signedInPage(
+      'clinician@demo.luxtempo.example',
+      `/orders/${id}`,
+    );
     await page.getByRole('link', { name: 'Watch session' }).click();
     await page.locator('h1', { hasText: 'Step clock' }).waitFor();
-    const left = await readClock(page, 'Time left for the infusion', (ms) => 600 - (ms - infusionStartMs) / 1000, 'infusion, watched');
+    const left = await readClock(
+      page,
+      'Time left for the infusion',
+      (ms) => 600 - (ms - infusionStartMs) / 1000,
+      'infusion, watched',
+    );
     expect(Math.abs(left.errorS)).toBeLessThan(1.1);
     await page.getByRole('heading', { name: 'Steps' }).waitFor();
     await page.getByRole('heading', { name: /^Deviations from protocol/ }).waitFor();
@@ -667,7 +838,9 @@ describe('the bedside step clock', () => {
     // The nurse ends the infusion on her tablet; the watching clock moves on at its next fetch.
     await seedEvents(id, [[0, { type: 'step-ended', stepId: 'infusion' }]]);
     await advance(page, 16_000);
-    await page.getByRole('timer', { name: 'Time until the light starts' }).waitFor({ timeout: 15_000 });
+    await page
+      .getByRole('timer', { name: 'Time until the light starts' })
+      .waitFor({ timeout: 15_000 });
     await offersNoTaps(page);
     expect(problems).toEqual([]);
     await page.context().close();
@@ -704,7 +877,10 @@ describe('the bedside step clock', () => {
         }
       };
     });
-    const audioStates = () => page.evaluate(() => (window as unknown as { madeAudio: AudioContext[] }).madeAudio.map((audio) => audio.state));
+    const audioStates = () =>
+      page.evaluate(() =>
+        (window as unknown as { madeAudio: AudioContext[] }).madeAudio.map((audio) => audio.state),
+      );
     const turnOn = page.getByRole('button', { name: 'Tap to turn sound back on' });
     const soundOn = page.getByRole('button', { name: 'Sound on', exact: true });
 
@@ -713,7 +889,10 @@ describe('the bedside step clock', () => {
       await page.getByRole('timer', { name: 'Time left for the soak' }).waitFor();
       await turnOn.waitFor();
       // Nothing runs, and nothing claims it does.
-      expect((await audioStates()).filter((state) => state === 'running'), `round ${round}`).toEqual([]);
+      expect(
+        (await audioStates()).filter((state) => state === 'running'),
+        `round ${round}`,
+      ).toEqual([]);
       expect(await soundOn.count()).toBe(0);
       await page.getByText('Sound is off', { exact: true }).waitFor();
       if (round === 1) expect(await accessibilityViolations(page)).toEqual([]);
@@ -755,16 +934,24 @@ describe('the bedside step clock', () => {
 
     // Someone stops the session at another tablet; this one has not fetched that yet, and the
     // nurse withdraws the drop as a mistake: a withdrawal only fits a running session.
-    await seedEvents(id, [[0, { type: 'session-stopped', reason: 'Stopped at the desk: the patient felt faint.' }]]);
+    await seedEvents(id, [
+      [0, { type: 'session-stopped', reason: 'Stopped at the desk: the patient felt faint.' }],
+    ]);
     await advance(page, 1_000);
     await page.getByRole('button', { name: /^Withdraw drop \(soak\) at/ }).click();
     const dialog = page.getByRole('dialog', { name: 'Withdraw a tap' });
-    await dialog.getByLabel('Why was this tap a mistake?').fill('Tapped on the wrong patient’s clock.');
+    await dialog
+      .getByLabel('Why was this tap a mistake?')
+      .fill('Tapped on the wrong patient’s clock.');
     await dialog.getByRole('button', { name: 'Withdraw tap' }).click();
 
     const refusedPanel = page.getByRole('alert', { name: 'Refused taps' });
     await refusedPanel.getByText(/^Refused: Withdrawal of a tap at \d\d:\d\d:\d\d$/).waitFor();
-    await refusedPanel.getByText(`Server’s reason: The session for order ${id} is stopped; a tap can be withdrawn only while the session runs.`).waitFor();
+    await refusedPanel
+      .getByText(
+        `Server’s reason: The session for order ${id} is stopped; a tap can be withdrawn only while the session runs.`,
+      )
+      .waitFor();
     await page.getByText('Refused: 1', { exact: true }).waitFor();
     expect(await page.getByText('All taps stored').count()).toBe(0);
     // The refused withdrawal does not count: the drop still does, on the clock and on the server.
@@ -780,7 +967,11 @@ describe('the bedside step clock', () => {
     await list.getByText(/Refused, not stored: Withdrawal of a tap at \d\d:\d\d:\d\d/).waitFor();
     expect(await accessibilityViolations(page)).toEqual([]);
     const kept = await keptTaps(page, id);
-    expect(kept.filter((tap) => tap.state === 'refused').map((tap) => tap.refusal?.message)).toEqual([`The session for order ${id} is stopped; a tap can be withdrawn only while the session runs.`]);
+    expect(
+      kept.filter((tap) => tap.state === 'refused').map((tap) => tap.refusal?.message),
+    ).toEqual([
+      `The session for order ${id} is stopped; a tap can be withdrawn only while the session runs.`,
+    ]);
 
     // A reload keeps it refused; the clock now shows the session as stopped.
     await page.reload();
@@ -789,7 +980,9 @@ describe('the bedside step clock', () => {
     await page.getByText('Refused: 1', { exact: true }).waitFor();
 
     // Discarded by the nurse: only then does it leave the tablet.
-    await refusedPanel.getByRole('button', { name: /^Discard this tap: withdrawal of a tap at/ }).click();
+    await refusedPanel
+      .getByRole('button', { name: /^Discard this tap: withdrawal of a tap at/ })
+      .click();
     await allStored(page);
     expect((await keptTaps(page, id)).filter((tap) => tap.state === 'refused')).toEqual([]);
     expect((await sessionOf(id)).events.filter((e) => e.type === 'tap-withdrawn')).toEqual([]);
@@ -823,13 +1016,27 @@ describe('the bedside step clock', () => {
       });
     await expect
       .poll(keptAnswers, { timeout: 15_000 })
-      .toEqual(expect.arrayContaining(['/api/auth/me', '/api/unit', `/api/orders/${id}`, `/api/orders/${id}/session`, '/api/protocols/pdt-standard/versions/1']));
+      .toEqual(
+        expect.arrayContaining([
+          '/api/auth/me',
+          '/api/unit',
+          `/api/orders/${id}`,
+          `/api/orders/${id}/session`,
+          '/api/protocols/pdt-standard/versions/1',
+        ]),
+      );
 
     await page.context().setOffline(true);
     await advance(page, 20_000);
     await page.reload();
     await page.getByRole('heading', { level: 1, name: new RegExp(patient.familyName) }).waitFor();
-    const offline = await readClock(page, 'Time until the light starts', untilLight, 'wait, offline reload', 0);
+    const offline = await readClock(
+      page,
+      'Time until the light starts',
+      untilLight,
+      'wait, offline reload',
+      0,
+    );
     expect(Math.abs(offline.errorS)).toBeLessThan(1.1);
     await page.getByText('no network; new taps are kept on this tablet').waitFor();
 
@@ -845,18 +1052,32 @@ describe('the bedside step clock', () => {
     await advance(page, 5_000);
     await page.reload();
     await page.getByText('Unsent: 3', { exact: true }).waitFor();
-    const paused = await readClock(page, 'Time left for the laser', () => 83 - 10, 'laser paused, offline reload', 0);
+    const paused = await readClock(
+      page,
+      'Time left for the laser',
+      () => 83 - 10,
+      'laser paused, offline reload',
+      0,
+    );
     expect(Math.abs(paused.errorS)).toBeLessThan(1.1);
     await page.getByText('Paused', { exact: true }).waitFor();
-    const queued = (await keptTaps(page, id)).filter((tap) => tap.state === 'unsent').map((tap) => tap.key);
+    const queued = (await keptTaps(page, id))
+      .filter((tap) => tap.state === 'unsent')
+      .map((tap) => tap.key);
     expect(queued).toHaveLength(3);
 
     await page.context().setOffline(false);
     await allStored(page);
     const session = await sessionOf(id);
-    for (const key of queued) expect(session.events.filter((e) => e.idempotencyKey === key), key).toHaveLength(1);
+    for (const key of queued)
+      expect(
+        session.events.filter((e) => e.idempotencyKey === key),
+        key,
+      ).toHaveLength(1);
     // Timed by the tablet when tapped, not when sent (the tap is pressed a moment after the clocks reach the mark).
-    expect(Math.abs(eventTimeMs(session, 'step-started', 'laser') - lightStartMs)).toBeLessThan(500);
+    expect(Math.abs(eventTimeMs(session, 'step-started', 'laser') - lightStartMs)).toBeLessThan(
+      500,
+    );
     // Nothing the worker kept is a write.
     expect((await keptAnswers()).filter((path) => path.includes('session-events'))).toEqual([]);
     // Chromium logs the requests that failed for lack of network; nothing else may go wrong.
@@ -867,7 +1088,9 @@ describe('the bedside step clock', () => {
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByLabel('E-mail').waitFor();
     expect((await keptAnswers()).filter((path) => path !== '/api/unit')).toEqual([]);
-    expect((await page.evaluate(() => caches.keys())).some((name) => name.includes('precache'))).toBe(true);
+    expect(
+      (await page.evaluate(() => caches.keys())).some((name) => name.includes('precache')),
+    ).toBe(true);
     await page.context().close();
   });
 
@@ -884,22 +1107,44 @@ describe('the bedside step clock', () => {
     const { page, problems } = await nursePage(id);
     await page.getByRole('timer', { name: 'Time left for the soak' }).waitFor();
     // Two drops left unsent by the earlier version, as it kept them.
-    const legacy = [60, 30].map((secondsAgo) => ({ type: 'drop-given', stepId: 'riboflavin-soak', idempotencyKey: randomUUID(), clientTime: new Date(serverNowMs() - secondsAgo * 1000).toISOString() }));
-    await page.evaluate(([orderId, events]) => localStorage.setItem(`luxtempo.step-clock.unsent.${orderId}`, JSON.stringify(events)), [id, legacy] as const);
+    const legacy = [60, 30].map((secondsAgo) => ({
+      type: 'drop-given',
+      stepId: 'riboflavin-soak',
+      idempotencyKey: randomUUID(),
+      clientTime: new Date(serverNowMs() - secondsAgo * 1000).toISOString(),
+    }));
+    await page.evaluate(
+      ([orderId, events]) =>
+        localStorage.setItem(`luxtempo.step-clock.unsent.${orderId}`, JSON.stringify(events)),
+      [id, legacy] as const,
+    );
 
     await page.reload();
     await page.getByText('2 given in this step').waitFor();
     await allStored(page);
-    expect(await page.evaluate((orderId) => localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`), id)).toBeNull();
+    expect(
+      await page.evaluate(
+        (orderId) => localStorage.getItem(`luxtempo.step-clock.unsent.${orderId}`),
+        id,
+      ),
+    ).toBeNull();
     // A further reload finds nothing left to move, and nothing is sent twice.
     await page.reload();
     await page.getByText('2 given in this step').waitFor();
     await allStored(page);
     const session = await sessionOf(id);
-    for (const { idempotencyKey } of legacy) expect(session.events.filter((e) => e.idempotencyKey === idempotencyKey)).toHaveLength(1);
+    for (const { idempotencyKey } of legacy)
+      expect(session.events.filter((e) => e.idempotencyKey === idempotencyKey)).toHaveLength(1);
     // Kept before taps named their person, they were given to the nurse whose session opened the clock, and sent as hers.
     const nurse = await nurseId();
-    for (const { idempotencyKey } of legacy) expect((session.events.find((e) => e.idempotencyKey === idempotencyKey) as StoredEvent & { recordedBy: number }).recordedBy).toBe(nurse);
+    for (const { idempotencyKey } of legacy)
+      expect(
+        (
+          session.events.find((e) => e.idempotencyKey === idempotencyKey) as StoredEvent & {
+            recordedBy: number;
+          }
+        ).recordedBy,
+      ).toBe(nurse);
     expect(problems).toEqual([]);
     await page.context().close();
   });

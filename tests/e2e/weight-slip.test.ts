@@ -1,7 +1,13 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
-import { accessibilityViolations, signInThroughForm, startBrowserTest, watchPage, type BrowserContext } from '../support/browser';
+import {
+  accessibilityViolations,
+  signInThroughForm,
+  startBrowserTest,
+  watchPage,
+  type BrowserContext,
+} from '../support/browser';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -11,7 +17,13 @@ afterAll(async () => {
   await ctx?.close();
 });
 
-const checklistIds = ['porphyria', 'hypersensitivity', 'hepatic-impairment', 'pregnancy-breastfeeding', 'other-photosensitisers'];
+const checklistIds = [
+  'porphyria',
+  'hypersensitivity',
+  'hepatic-impairment',
+  'pregnancy-breastfeeding',
+  'other-photosensitisers',
+];
 
 describe('a weight typed in the wrong unit', () => {
   it('183 cm and 92 with the unit left on lb: the BMI warning and the weight change show in both units before signing, and the signature dialog shows birth date, dose and volume', async () => {
@@ -26,19 +38,37 @@ describe('a weight typed in the wrong unit', () => {
     const patientId = await page.evaluate(
       async ({ recordNumber, checklistIds, password }) => {
         const post = async (url: string, body: unknown) => {
-          const res = await fetch(url, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body) });
+          const res = await fetch(url, {
+            method: 'POST',
+            headers: { 'Content-Type': 'application/json' },
+            body: JSON.stringify(body),
+          });
           if (!res.ok) throw new Error(`${url} answered ${res.status}: ${await res.text()}`);
           return res.json();
         };
-        const { patient } = await post('/api/patients', { recordNumber, givenName: 'Orrin', familyName: 'Slipstone', dateOfBirth: '1961-07-21' });
+        const { patient } = await post('/api/patients', {
+          recordNumber,
+          givenName: 'Orrin',
+          familyName: 'Slipstone',
+          dateOfBirth: '1961-07-21',
+        });
         const { order } = await post('/api/orders', {
           patientId: patient.id,
           eye: 'left',
           protocol: { key: 'pdt-standard', version: 2 },
-          inputs: { height: { value: 183, unit: 'cm' }, weight: { value: 92, unit: 'kg' }, lesionGldUm: 2500, lensMagnification: 1 },
+          inputs: {
+            height: { value: 183, unit: 'cm' },
+            weight: { value: 92, unit: 'kg' },
+            lesionGldUm: 2500,
+            lensMagnification: 1,
+          },
           checklist: checklistIds.map((id) => ({ id, answer: 'no' })),
         });
-        const signed = await post(`/api/orders/${order.id}/signature`, { password, meaning: 'ordered', version: order.version });
+        const signed = await post(`/api/orders/${order.id}/signature`, {
+          password,
+          meaning: 'ordered',
+          version: order.version,
+        });
         if (signed.order?.status !== 'signed') throw new Error(JSON.stringify(signed));
         return patient.id as number;
       },
@@ -62,7 +92,9 @@ describe('a weight typed in the wrong unit', () => {
     await page.getByLabel('Weight unit').selectOption('lb');
     await page.getByLabel('Lesion greatest linear dimension (GLD)').fill('2800');
     await page.getByLabel('Laser-spot magnification of the contact lens').fill('1');
-    const questions = page.getByRole('region', { name: 'Contraindication checklist' }).getByRole('group');
+    const questions = page
+      .getByRole('region', { name: 'Contraindication checklist' })
+      .getByRole('group');
     await expect.poll(() => questions.count()).toBe(checklistIds.length);
     for (const question of await questions.all()) await question.getByLabel('No').check();
 
@@ -76,20 +108,32 @@ describe('a weight typed in the wrong unit', () => {
     expect(previewText).toMatch(/body-mass index 12\.5 kg\/m²/i);
     expect(previewText).toContain('16 to 45 kg/m²');
     // The readiness list names both reasons, so no refusal waits behind the password.
-    expect(previewText).toMatch(/Before it can be signed[\s\S]*body-mass index 12\.5 kg\/m²[\s\S]*give a reason/i);
-    expect(previewText).toContain('The weight 92 lb (41.7 kg) is 54.6 % less than the 92 kg (202.8 lb) recorded today');
+    expect(previewText).toMatch(
+      /Before it can be signed[\s\S]*body-mass index 12\.5 kg\/m²[\s\S]*give a reason/i,
+    );
+    expect(previewText).toContain(
+      'The weight 92 lb (41.7 kg) is 54.6 % less than the 92 kg (202.8 lb) recorded today',
+    );
     expect(previewText).not.toMatch(/Nothing missing/);
     expect(await accessibilityViolations(page)).toEqual([]);
 
-    await page.getByLabel('Reason for the body-mass index outside the usual range').fill('Very thin; weighed again on the ward scale today.');
-    await page.getByLabel('Reason for the change in weight since the last one recorded').fill('Weight loss confirmed with the patient and the ward scale.');
+    await page
+      .getByLabel('Reason for the body-mass index outside the usual range')
+      .fill('Very thin; weighed again on the ward scale today.');
+    await page
+      .getByLabel('Reason for the change in weight since the last one recorded')
+      .fill('Weight loss confirmed with the patient and the ward scale.');
     await expect.poll(() => preview.innerText()).toMatch(/Nothing missing/);
 
     await page.getByRole('button', { name: 'Save draft' }).click();
     await page.waitForURL(/\/orders\/\d+$/);
     const orderId = Number(new URL(page.url()).pathname.split('/').pop());
-    await expect.poll(() => page.getByRole('heading', { level: 1 }).innerText()).toBe(`Order ${orderId}`);
-    await expect.poll(() => page.getByRole('region', { name: 'Measurements entered' }).innerText()).toContain('92 lb (41.7 kg)');
+    await expect
+      .poll(() => page.getByRole('heading', { level: 1 }).innerText())
+      .toBe(`Order ${orderId}`);
+    await expect
+      .poll(() => page.getByRole('region', { name: 'Measurements entered' }).innerText())
+      .toContain('92 lb (41.7 kg)');
 
     await page.getByRole('button', { name: 'Sign', exact: true }).click();
     const dialog = page.getByRole('dialog', { name: `Sign order ${orderId}` });
@@ -104,9 +148,17 @@ describe('a weight typed in the wrong unit', () => {
     expect(await accessibilityViolations(page)).toEqual([]);
     await dialog.getByLabel('Your password').fill(demoPassword);
     await dialog.getByRole('button', { name: 'Sign: I order this treatment' }).click();
-    await expect.poll(() => page.getByRole('status').filter({ hasText: 'is signed' }).count()).toBe(1);
+    await expect
+      .poll(() => page.getByRole('status').filter({ hasText: 'is signed' }).count())
+      .toBe(1);
 
-    const history = await page.evaluate(async (id) => (await (await fetch(`/api/patients/${id}/measurements`)).json()) as { measurements: { weight: { value: number; unit: string } }[] }, patientId);
+    const history = await page.evaluate(
+      async (id) =>
+        (await (await fetch(`/api/patients/${id}/measurements`)).json()) as {
+          measurements: { weight: { value: number; unit: string } }[];
+        },
+      patientId,
+    );
     expect(history.measurements[0]?.weight).toEqual({ value: 92, unit: 'lb' });
     expect(problems).toEqual([]);
     await page.close();

@@ -26,7 +26,9 @@ afterAll(async () => {
 });
 
 async function auditIds(): Promise<string[]> {
-  const rows: { id: string }[] = await ctx.dataSource.query('SELECT id FROM audit_event ORDER BY id');
+  const rows: { id: string }[] = await ctx.dataSource.query(
+    'SELECT id FROM audit_event ORDER BY id',
+  );
   return rows.map((r) => String(r.id));
 }
 
@@ -37,7 +39,17 @@ describe('the audit chain', () => {
     try {
       const a = createAuditRepository(ctx.dataSource);
       const b = createAuditRepository(second);
-      await Promise.all(Array.from({ length: 40 }, (_, i) => (i % 2 ? a : b).append({ actorUserId: null, action: 'test.concurrent', entityType: 'test', entityId: i, details: { i, text: 'ünïcode “quoted” \\ back' } })));
+      await Promise.all(
+        Array.from({ length: 40 }, (_, i) =>
+          (i % 2 ? a : b).append({
+            actorUserId: null,
+            action: 'test.concurrent',
+            entityType: 'test',
+            entityId: i,
+            details: { i, text: 'ünïcode “quoted” \\ back' },
+          }),
+        ),
+      );
     } finally {
       await second.destroy();
     }
@@ -49,7 +61,12 @@ describe('the audit chain', () => {
 
   it('names exactly the row an owner changed, in the command (exit 1) and on the API; the admin and the auditor may ask, a nurse may not', async () => {
     const admin = await signedInAgent(ctx, await createTestPerson(ctx, ['admin']));
-    for (let i = 0; i < 5; i++) await createAuditRepository(ctx.dataSource).append({ actorUserId: null, action: 'test.tamper-target', details: { i } });
+    for (let i = 0; i < 5; i++)
+      await createAuditRepository(ctx.dataSource).append({
+        actorUserId: null,
+        action: 'test.tamper-target',
+        details: { i },
+      });
     const ids = await auditIds();
     const target = ids[ids.length - 3]!;
     expect((await admin.get('/api/audit-chain')).body).toMatchObject({ ok: true });
@@ -57,12 +74,18 @@ describe('the audit chain', () => {
 
     const db = await ownerConnection(config);
     try {
-      await db.query("UPDATE audit_event SET details = JSON_SET(details, '$.i', 99) WHERE id = ?", [target]);
+      await db.query("UPDATE audit_event SET details = JSON_SET(details, '$.i', 99) WHERE id = ?", [
+        target,
+      ]);
     } finally {
       await db.end();
     }
     const report = await verifyAuditChain(ctx.dataSource);
-    expect(report).toMatchObject({ ok: false, firstBrokenId: target, reason: expect.stringMatching(/changed after it was written/) });
+    expect(report).toMatchObject({
+      ok: false,
+      firstBrokenId: target,
+      reason: expect.stringMatching(/changed after it was written/),
+    });
     expect(report.checked).toBe(ids.indexOf(target));
 
     const command = runCommand('server/ops/audit-verify.ts', ['--database', config.DB_NAME]);
@@ -73,19 +96,31 @@ describe('the audit chain', () => {
     expect(api.body).toMatchObject({ ok: false, firstBrokenId: target });
     const auditor = await signedInAgent(ctx, await createTestPerson(ctx, ['auditor']));
     expect((await auditor.get('/api/audit-chain')).body.firstBrokenId).toBe(target);
-    expect((await (await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']))).get('/api/audit-chain')).status).toBe(403);
+    expect(
+      (
+        await (
+          await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']))
+        ).get('/api/audit-chain')
+      ).status,
+    ).toBe(403);
 
     // A row removed instead: the row after it is named, by its broken link.
     const db2 = await ownerConnection(config);
     try {
-      await db2.query("UPDATE audit_event SET details = JSON_SET(details, '$.i', 2) WHERE id = ?", [target]);
+      await db2.query("UPDATE audit_event SET details = JSON_SET(details, '$.i', 2) WHERE id = ?", [
+        target,
+      ]);
       expect((await verifyAuditChain(ctx.dataSource)).ok).toBe(true);
       await db2.query('DELETE FROM audit_event WHERE id = ?', [target]);
     } finally {
       await db2.end();
     }
     const after = ids[ids.indexOf(target) + 1]!;
-    expect(await verifyAuditChain(ctx.dataSource)).toMatchObject({ ok: false, firstBrokenId: after, reason: expect.stringMatching(/link to the row before/) });
+    expect(await verifyAuditChain(ctx.dataSource)).toMatchObject({
+      ok: false,
+      firstBrokenId: after,
+      reason: expect.stringMatching(/link to the row before/),
+    });
   });
 });
 
@@ -93,29 +128,57 @@ describe('the migration that starts the chain', () => {
   it('hashes the rows an earlier version wrote, so an upgraded database verifies', async () => {
     const upgraded = await freshTestDatabase('chain_upgrade');
     // Back to the schema as it stood before the chain: the migrations older than the chain's.
-    const admin = await mysql.createConnection({ host: upgraded.DB_HOST, port: upgraded.DB_PORT, user: owner.user, password: owner.password });
+    const admin = await mysql.createConnection({
+      host: upgraded.DB_HOST,
+      port: upgraded.DB_PORT,
+      user: owner.user,
+      password: owner.password,
+    });
     await admin.query(`DROP DATABASE \`${upgraded.DB_NAME}\``);
-    await admin.query(`CREATE DATABASE \`${upgraded.DB_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+    await admin.query(
+      `CREATE DATABASE \`${upgraded.DB_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
+    );
     await admin.end();
     const earlier = new DataSource({
-      ...dataSourceOptions({ host: upgraded.DB_HOST, port: upgraded.DB_PORT, database: upgraded.DB_NAME, username: owner.user, password: owner.password }),
+      ...dataSourceOptions({
+        host: upgraded.DB_HOST,
+        port: upgraded.DB_PORT,
+        database: upgraded.DB_NAME,
+        username: owner.user,
+        password: owner.password,
+      }),
       migrations: migrations.slice(0, migrations.indexOf(DatabaseIntegrity1796200000000)),
     });
     await earlier.initialize();
     try {
       await earlier.runMigrations();
       for (let i = 0; i < 7; i++) {
-        await earlier.query('INSERT INTO audit_event (actor_user_id, action, entity_type, entity_id, details) VALUES (NULL, ?, ?, ?, ?)', ['test.before-chain', 'test', String(i), i % 2 ? null : JSON.stringify({ i, note: 'written before the chain' })]);
+        await earlier.query(
+          'INSERT INTO audit_event (actor_user_id, action, entity_type, entity_id, details) VALUES (NULL, ?, ?, ?, ?)',
+          [
+            'test.before-chain',
+            'test',
+            String(i),
+            i % 2 ? null : JSON.stringify({ i, note: 'written before the chain' }),
+          ],
+        );
       }
     } finally {
       await earlier.destroy();
     }
-    const later = migrations.slice(migrations.indexOf(DatabaseIntegrity1796200000000)).map((m) => m.name);
+    const later = migrations
+      .slice(migrations.indexOf(DatabaseIntegrity1796200000000))
+      .map((m) => m.name);
     expect(await migrateDatabase(upgraded, owner)).toEqual(later);
     const source = appDataSource(upgraded);
     await source.initialize();
     try {
-      expect(await verifyAuditChain(source)).toEqual({ ok: true, checked: 7, firstBrokenId: null, reason: null });
+      expect(await verifyAuditChain(source)).toEqual({
+        ok: true,
+        checked: 7,
+        firstBrokenId: null,
+        reason: null,
+      });
       await createAuditRepository(source).append({ actorUserId: null, action: 'test.after-chain' });
       expect(await verifyAuditChain(source)).toMatchObject({ ok: true, checked: 8 });
     } finally {

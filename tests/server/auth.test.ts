@@ -25,9 +25,15 @@ async function auditRows(where: string, params: unknown[]) {
 describe('signing in', () => {
   it('with the right password sets an httpOnly, SameSite=Strict session cookie and returns the person', async () => {
     const person = await createTestPerson(ctx, ['clinician']);
-    const res = await supertest(ctx.app).post('/api/auth/login').send({ email: person.email, password: person.password });
+    const res = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: person.email, password: person.password });
     expect(res.status).toBe(200);
-    expect(res.body.user).toMatchObject({ id: person.id, email: person.email, roles: ['clinician'] });
+    expect(res.body.user).toMatchObject({
+      id: person.id,
+      email: person.email,
+      roles: ['clinician'],
+    });
     expect(res.body.user.capabilities).toContain('calculations.run');
     const cookie = sessionCookie(res.headers['set-cookie']);
     expect(cookie).toBeDefined();
@@ -38,14 +44,20 @@ describe('signing in', () => {
 
   it('accepts the e-mail in any case and with spaces around it', async () => {
     const person = await createTestPerson(ctx, ['nurse']);
-    const res = await supertest(ctx.app).post('/api/auth/login').send({ email: `  ${person.email.toUpperCase()} `, password: person.password });
+    const res = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: `  ${person.email.toUpperCase()} `, password: person.password });
     expect(res.status).toBe(200);
   });
 
   it('with a wrong password is refused with 401, and an unknown e-mail gets the very same answer', async () => {
     const person = await createTestPerson(ctx, ['nurse']);
-    const wrongPassword = await supertest(ctx.app).post('/api/auth/login').send({ email: person.email, password: 'not-the-password' });
-    const unknownEmail = await supertest(ctx.app).post('/api/auth/login').send({ email: 'nobody-here@test.luxtempo.example', password: 'whatever-it-is' });
+    const wrongPassword = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: person.email, password: 'not-the-password' });
+    const unknownEmail = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: 'nobody-here@test.luxtempo.example', password: 'whatever-it-is' });
     expect(wrongPassword.status).toBe(401);
     expect(unknownEmail.status).toBe(401);
     expect(unknownEmail.body).toEqual(wrongPassword.body);
@@ -53,34 +65,47 @@ describe('signing in', () => {
   });
 
   it('without a password is refused with 400 naming the field', async () => {
-    const res = await supertest(ctx.app).post('/api/auth/login').send({ email: 'someone@test.luxtempo.example' });
+    const res = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: 'someone@test.luxtempo.example' });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual([expect.objectContaining({ path: 'password' })]);
   });
 
   it('with a malformed e-mail is refused with 400 naming the field', async () => {
-    const res = await supertest(ctx.app).post('/api/auth/login').send({ email: 'not an address', password: 'x' });
+    const res = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: 'not an address', password: 'x' });
     expect(res.status).toBe(400);
     expect(res.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['email']);
   });
 
   it('with a body that is not JSON is refused with 400', async () => {
-    const res = await supertest(ctx.app).post('/api/auth/login').set('Content-Type', 'application/json').send('{"email":');
+    const res = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .set('Content-Type', 'application/json')
+      .send('{"email":');
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('invalid_json');
   });
 
   it('is refused for a deactivated person, with the same 401 as any failure', async () => {
     const person = await createTestPerson(ctx, ['pharmacist'], { active: false });
-    const res = await supertest(ctx.app).post('/api/auth/login').send({ email: person.email, password: person.password });
+    const res = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: person.email, password: person.password });
     expect(res.status).toBe(401);
     expect(res.body.error.code).toBe('invalid_credentials');
   });
 
   it('writes an audit row for a sign-in and for a failed sign-in', async () => {
     const person = await createTestPerson(ctx, ['auditor']);
-    await supertest(ctx.app).post('/api/auth/login').send({ email: person.email, password: 'wrong-password' });
-    await supertest(ctx.app).post('/api/auth/login').send({ email: person.email, password: person.password });
+    await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: person.email, password: 'wrong-password' });
+    await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: person.email, password: person.password });
     const rows = await auditRows('entity_type = ? AND entity_id = ?', ['user', String(person.id)]);
     expect(rows.map((r: { action: string }) => r.action)).toEqual(['sign-in.failed', 'sign-in']);
     expect(rows[0].details).toMatchObject({ reason: 'wrong-password', email: person.email });
@@ -97,10 +122,16 @@ describe('failed sign-in limits', () => {
     try {
       const person = await createTestPerson(limited, ['nurse']);
       for (let attempt = 1; attempt <= 10; attempt++) {
-        const res = await supertest(limited.app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email: person.email, password: `wrong-${attempt}` });
+        const res = await supertest(limited.app)
+          .post('/api/auth/login')
+          .set('X-Forwarded-For', address)
+          .send({ email: person.email, password: `wrong-${attempt}` });
         expect(res.status).toBe(401);
       }
-      const eleventh = await supertest(limited.app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email: person.email, password: person.password });
+      const eleventh = await supertest(limited.app)
+        .post('/api/auth/login')
+        .set('X-Forwarded-For', address)
+        .send({ email: person.email, password: person.password });
       expect(eleventh.status).toBe(429);
       expect(eleventh.body.error.code).toBe('too_many_attempts');
       expect(Number(eleventh.headers['retry-after'])).toBeGreaterThan(0);
@@ -115,15 +146,24 @@ describe('failed sign-in limits', () => {
     try {
       const person = await createTestPerson(limited, ['nurse']);
       for (let i = 0; i < 11; i++) {
-        const ok = await supertest(limited.app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email: person.email, password: person.password });
+        const ok = await supertest(limited.app)
+          .post('/api/auth/login')
+          .set('X-Forwarded-For', address)
+          .send({ email: person.email, password: person.password });
         expect(ok.status).toBe(200);
       }
       const guess = randomUUID().slice(0, 8);
       for (let i = 1; i <= 10; i++) {
-        const res = await supertest(limited.app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email: `guess-${guess}-${i}@test.luxtempo.example`, password: 'guess' });
+        const res = await supertest(limited.app)
+          .post('/api/auth/login')
+          .set('X-Forwarded-For', address)
+          .send({ email: `guess-${guess}-${i}@test.luxtempo.example`, password: 'guess' });
         expect(res.status).toBe(401);
       }
-      const next = await supertest(limited.app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email: `guess-${guess}-11@test.luxtempo.example`, password: 'guess' });
+      const next = await supertest(limited.app)
+        .post('/api/auth/login')
+        .set('X-Forwarded-For', address)
+        .send({ email: `guess-${guess}-11@test.luxtempo.example`, password: 'guess' });
       expect(next.status).toBe(429);
     } finally {
       await limited.close();
@@ -142,35 +182,56 @@ describe('the session', () => {
     const agent = await signedInAgent(ctx, person);
     const res = await agent.get('/api/auth/me');
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ id: person.id, email: person.email, roles: ['nurse', 'admin'] });
+    expect(res.body).toMatchObject({
+      id: person.id,
+      email: person.email,
+      roles: ['nurse', 'admin'],
+    });
     expect(res.body.capabilities).toEqual(expect.arrayContaining(['people.manage', 'today.view']));
   });
 
   it('a tampered token is 401', async () => {
     const person = await createTestPerson(ctx, ['clinician']);
-    const login = await supertest(ctx.app).post('/api/auth/login').send({ email: person.email, password: person.password });
+    const login = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email: person.email, password: person.password });
     const token = sessionCookie(login.headers['set-cookie'])!.split(';')[0]!.split('=')[1]!;
     const [header, , signature] = token.split('.');
-    const forgedPayload = Buffer.from(JSON.stringify({ sub: '1', iss: 'luxtempo', exp: Math.floor(Date.now() / 1000) + 3600 })).toString('base64url');
-    const res = await supertest(ctx.app).get('/api/auth/me').set('Cookie', `${sessionCookieName}=${header}.${forgedPayload}.${signature}`);
+    const forgedPayload = Buffer.from(
+      JSON.stringify({ sub: '1', iss: 'luxtempo', exp: Math.floor(Date.now() / 1000) + 3600 }),
+    ).toString('base64url');
+    const res = await supertest(ctx.app)
+      .get('/api/auth/me')
+      .set('Cookie', `${sessionCookieName}=${header}.${forgedPayload}.${signature}`);
     expect(res.status).toBe(401);
   });
 
   it('a token signed with another secret is 401', async () => {
     const person = await createTestPerson(ctx, ['clinician']);
-    const token = jwt.sign({}, 'some-other-secret-that-is-long-enough-0123456789', { subject: String(person.id), issuer: 'luxtempo', expiresIn: '1h' });
-    const res = await supertest(ctx.app).get('/api/auth/me').set('Cookie', `${sessionCookieName}=${token}`);
+    const token = jwt.sign({}, 'some-other-secret-that-is-long-enough-0123456789', {
+      subject: String(person.id),
+      issuer: 'luxtempo',
+      expiresIn: '1h',
+    });
+    const res = await supertest(ctx.app)
+      .get('/api/auth/me')
+      .set('Cookie', `${sessionCookieName}=${token}`);
     expect(res.status).toBe(401);
   });
 
   it('an expired token is 401', async () => {
     const person = await createTestPerson(ctx, ['clinician']);
-    const token = jwt.sign({ exp: Math.floor(Date.now() / 1000) - 60 }, ctx.config.JWT_SECRET, { subject: String(person.id), issuer: 'luxtempo' });
-    const res = await supertest(ctx.app).get('/api/auth/me').set('Cookie', `${sessionCookieName}=${token}`);
+    const token = jwt.sign({ exp: Math.floor(Date.now() / 1000) - 60 }, ctx.config.JWT_SECRET, {
+      subject: String(person.id),
+      issuer: 'luxtempo',
+    });
+    const res = await supertest(ctx.app)
+      .get('/api/auth/me')
+      .set('Cookie', `${sessionCookieName}=${token}`);
     expect(res.status).toBe(401);
   });
 
-  it("a person deactivated after signing in is 401 on their next call", async () => {
+  it('a person deactivated after signing in is 401 on their next call', async () => {
     const person = await createTestPerson(ctx, ['nurse']);
     const agent = await signedInAgent(ctx, person);
     expect((await agent.get('/api/auth/me')).status).toBe(200);
@@ -200,7 +261,11 @@ describe('the API as a whole', () => {
   it('tells anyone the unit’s name, time zone and telephone, which the client formats times with', async () => {
     const res = await supertest(ctx.app).get('/api/unit');
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ name: ctx.config.UNIT_NAME, timeZone: ctx.config.UNIT_TIME_ZONE, phone: ctx.config.UNIT_PHONE });
+    expect(res.body).toEqual({
+      name: ctx.config.UNIT_NAME,
+      timeZone: ctx.config.UNIT_TIME_ZONE,
+      phone: ctx.config.UNIT_PHONE,
+    });
   });
 
   it('sends security headers, with no upgrade-insecure-requests on plain http', async () => {

@@ -4,7 +4,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { verifyAuditChain } from '../../server/audit/repository';
 import type { Config } from '../../server/config';
 import { appDataSource } from '../../server/db/options';
-import { createTestPerson, signedInAgent, startTestApp, testConfig, type TestContext } from '../support/api';
+import {
+  createTestPerson,
+  signedInAgent,
+  startTestApp,
+  testConfig,
+  type TestContext,
+} from '../support/api';
 import { freshTestDatabase, runCommand } from '../support/database';
 
 // `npm run backup` and `npm run restore`, run as a person would, on databases of the test's own.
@@ -19,13 +25,22 @@ afterAll(async () => {
   await ctx?.close();
 });
 
-const patientBody = (recordNumber: string, familyName: string) => ({ recordNumber, givenName: 'Maren', familyName, dateOfBirth: '1951-03-09', email: null, emailConsent: false });
+const patientBody = (recordNumber: string, familyName: string) => ({
+  recordNumber,
+  givenName: 'Maren',
+  familyName,
+  dateOfBirth: '1951-03-09',
+  email: null,
+  emailConsent: false,
+});
 
 async function snapshot(dbName: string) {
   const source = appDataSource(testConfig({ DB_NAME: dbName }));
   await source.initialize();
   try {
-    const patients = await source.query('SELECT record_number AS recordNumber, family_name AS familyName FROM patient ORDER BY id');
+    const patients = await source.query(
+      'SELECT record_number AS recordNumber, family_name AS familyName FROM patient ORDER BY id',
+    );
     const audit = await source.query('SELECT id, action, hash FROM audit_event ORDER BY id');
     return { patients, audit, chain: await verifyAuditChain(source) };
   } finally {
@@ -36,7 +51,9 @@ async function snapshot(dbName: string) {
 describe('a backup', () => {
   it('is written with mode 0600, and restores into a fresh database with the data and the audit chain as they were', async () => {
     const clinician = await signedInAgent(ctx, await createTestPerson(ctx, ['clinician']));
-    expect((await clinician.post('/api/patients').send(patientBody('BK-0001', 'Before'))).status).toBe(201);
+    expect(
+      (await clinician.post('/api/patients').send(patientBody('BK-0001', 'Before'))).status,
+    ).toBe(201);
     const atBackup = await snapshot(config.DB_NAME);
     expect(atBackup.chain.ok).toBe(true);
 
@@ -48,7 +65,9 @@ describe('a backup', () => {
     expect(statSync(path.dirname(file)).mode & 0o777).toBe(0o700);
 
     // Life goes on after the backup: a new patient, another audit row.
-    expect((await clinician.post('/api/patients').send(patientBody('BK-0002', 'After'))).status).toBe(201);
+    expect(
+      (await clinician.post('/api/patients').send(patientBody('BK-0002', 'After'))).status,
+    ).toBe(201);
     const changed = await snapshot(config.DB_NAME);
     expect(changed.patients).toHaveLength(atBackup.patients.length + 1);
 

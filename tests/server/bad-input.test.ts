@@ -2,7 +2,18 @@ import { randomUUID } from 'node:crypto';
 import fc from 'fast-check';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestPatient, createTestPerson, cxlOrder, pdtOrder, preparedPdtOrder, signOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
+import {
+  createTestPatient,
+  createTestPerson,
+  cxlOrder,
+  pdtOrder,
+  preparedPdtOrder,
+  signOrder,
+  signedInAgent,
+  startTestApp,
+  type TestContext,
+  type TestPerson,
+} from '../support/api';
 
 type Agent = ReturnType<typeof supertest.agent>;
 let ctx: TestContext;
@@ -24,13 +35,26 @@ beforeAll(async () => {
   const patient = await createTestPatient(ctx);
   draftId = (await clinicianAgent.post('/api/orders').send(pdtOrder(patient.id))).body.order.id;
   signedId = (await signOrder(clinicianAgent, clinician, pdtOrder(patient.id, { eye: 'left' }))).id;
-  preparedId = (await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent })).id;
-  readyId = (await signOrder(clinicianAgent, clinician, cxlOrder((await createTestPatient(ctx)).id))).id;
+  preparedId = (
+    await preparedPdtOrder(ctx, {
+      clinician: [clinicianAgent, clinician],
+      pharmacist: pharmacistAgent,
+    })
+  ).id;
+  readyId = (
+    await signOrder(clinicianAgent, clinician, cxlOrder((await createTestPatient(ctx)).id))
+  ).id;
   await nurseAgent.post(`/api/orders/${readyId}/session-events`).send({
     idempotencyKey: randomUUID(),
     clientTime: new Date().toISOString(),
     type: 'session-started',
-    checks: { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true },
+    checks: {
+      patientIdentity: true,
+      treatmentEye: true,
+      consent: true,
+      eyewear: true,
+      deviceSettings: true,
+    },
   });
 });
 afterAll(async () => {
@@ -57,7 +81,20 @@ const nastyText = fc.constantFrom(
 /** A value of the wrong kind where a measurement belongs. */
 const junk: fc.Arbitrary<unknown> = fc.oneof(
   nastyText,
-  fc.constantFrom(null, true, false, 0, -1, 1e308, -1e308, Number.MAX_SAFE_INTEGER, 0.1 + 0.2, [], {}, [[[]]]),
+  fc.constantFrom(
+    null,
+    true,
+    false,
+    0,
+    -1,
+    1e308,
+    -1e308,
+    Number.MAX_SAFE_INTEGER,
+    0.1 + 0.2,
+    [],
+    {},
+    [[[]]],
+  ),
   fc.double(),
   fc.integer(),
   fc.array(fc.integer(), { maxLength: 2000 }),
@@ -77,7 +114,11 @@ function mutated(valid: Record<string, unknown>): fc.Arbitrary<unknown> {
     }
   };
   walk(valid, []);
-  const edit = fc.record({ path: fc.constantFrom(...paths), kind: fc.constantFrom('replace', 'drop', 'extra'), value: junk });
+  const edit = fc.record({
+    path: fc.constantFrom(...paths),
+    kind: fc.constantFrom('replace', 'drop', 'extra'),
+    value: junk,
+  });
   return fc.array(edit, { minLength: 1, maxLength: 3 }).map((edits) => {
     const copy = structuredClone(valid);
     for (const { path, kind, value } of edits) {
@@ -111,17 +152,58 @@ const targets: Target[] = [
     agent: () => clinicianAgent,
     method: 'post',
     url: () => '/api/calculations',
-    body: fc.oneof(anyBody, mutated({ protocol: { key: 'pdt-standard', version: 1 }, inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 } })),
+    body: fc.oneof(
+      anyBody,
+      mutated({
+        protocol: { key: 'pdt-standard', version: 1 },
+        inputs: {
+          height: { value: 170, unit: 'cm' },
+          weight: { value: 70, unit: 'kg' },
+          bsaFormula: 'mosteller',
+          lesionGldUm: 2500,
+          lensMagnification: 1,
+        },
+      }),
+    ),
   },
-  { name: 'order', agent: () => clinicianAgent, method: 'post', url: () => '/api/orders', body: fc.oneof(anyBody, mutated(pdtOrder(1) as Record<string, unknown>)) },
-  { name: 'order edit', agent: () => clinicianAgent, method: 'put', url: () => `/api/orders/${draftId}`, body: fc.oneof(anyBody, mutated({ ...(pdtOrder(1) as Record<string, unknown>), version: 1 })) },
-  { name: 'dose check', agent: () => pharmacistAgent, method: 'post', url: () => `/api/orders/${signedId}/dose-checks`, body: fc.oneof(anyBody, mutated({ bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46, comment: 'ok' })) },
+  {
+    name: 'order',
+    agent: () => clinicianAgent,
+    method: 'post',
+    url: () => '/api/orders',
+    body: fc.oneof(anyBody, mutated(pdtOrder(1) as Record<string, unknown>)),
+  },
+  {
+    name: 'order edit',
+    agent: () => clinicianAgent,
+    method: 'put',
+    url: () => `/api/orders/${draftId}`,
+    body: fc.oneof(anyBody, mutated({ ...(pdtOrder(1) as Record<string, unknown>), version: 1 })),
+  },
+  {
+    name: 'dose check',
+    agent: () => pharmacistAgent,
+    method: 'post',
+    url: () => `/api/orders/${signedId}/dose-checks`,
+    body: fc.oneof(
+      anyBody,
+      mutated({ bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46, comment: 'ok' }),
+    ),
+  },
   {
     name: 'preparation',
     agent: () => pharmacistAgent,
     method: 'post',
     url: () => `/api/orders/${preparedId}/preparation`,
-    body: fc.oneof(anyBody, mutated({ vialLot: 'LOT-1', vialExpiry: '2030-01-01', reconstitutedAt: new Date().toISOString(), volumeDrawnMl: 5.5 })),
+    body: fc.oneof(
+      anyBody,
+      mutated({
+        vialLot: 'LOT-1',
+        vialExpiry: '2030-01-01',
+        reconstitutedAt: new Date().toISOString(),
+        volumeDrawnMl: 5.5,
+      }),
+    ),
   },
   {
     name: 'session event',
@@ -130,9 +212,26 @@ const targets: Target[] = [
     url: () => `/api/orders/${readyId}/session-events`,
     body: fc.oneof(
       anyBody,
-      mutated({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'thickness-measured', stepId: 'thickness-check', thicknessUm: 450 }),
-      mutated({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'session-stopped', reason: 'patient unwell today' }),
-      mutated({ idempotencyKey: randomUUID(), clientTime: new Date().toISOString(), type: 'tap-withdrawn', withdrawnKey: randomUUID(), reason: 'tapped by mistake' }),
+      mutated({
+        idempotencyKey: randomUUID(),
+        clientTime: new Date().toISOString(),
+        type: 'thickness-measured',
+        stepId: 'thickness-check',
+        thicknessUm: 450,
+      }),
+      mutated({
+        idempotencyKey: randomUUID(),
+        clientTime: new Date().toISOString(),
+        type: 'session-stopped',
+        reason: 'patient unwell today',
+      }),
+      mutated({
+        idempotencyKey: randomUUID(),
+        clientTime: new Date().toISOString(),
+        type: 'tap-withdrawn',
+        withdrawnKey: randomUUID(),
+        reason: 'tapped by mistake',
+      }),
     ),
   },
   {
@@ -140,7 +239,17 @@ const targets: Target[] = [
     agent: () => clinicianAgent,
     method: 'post',
     url: () => '/api/patients',
-    body: fc.oneof(anyBody, mutated({ recordNumber: 'X-123', givenName: 'Ann', familyName: 'Example', dateOfBirth: '1960-01-01', email: 'a@b.example', emailConsent: true })),
+    body: fc.oneof(
+      anyBody,
+      mutated({
+        recordNumber: 'X-123',
+        givenName: 'Ann',
+        familyName: 'Example',
+        dateOfBirth: '1960-01-01',
+        email: 'a@b.example',
+        emailConsent: true,
+      }),
+    ),
   },
 ];
 
@@ -150,12 +259,20 @@ function withoutEchoes(answer: string, body: unknown): string {
   const walk = (value: unknown) => {
     if (typeof value === 'string') said.add(value);
     else if (Array.isArray(value)) value.forEach(walk);
-    else if (value && typeof value === 'object') for (const [key, inner] of Object.entries(value)) { said.add(key); walk(inner); }
+    else if (value && typeof value === 'object')
+      for (const [key, inner] of Object.entries(value)) {
+        said.add(key);
+        walk(inner);
+      }
   };
   walk(body);
   let text = answer;
   for (const s of [...said].filter((s) => s.length > 0).sort((a, b) => b.length - a.length)) {
-    text = text.split(JSON.stringify(JSON.stringify(s).slice(1, -1)).slice(1, -1)).join('').split(JSON.stringify(s).slice(1, -1)).join('');
+    text = text
+      .split(JSON.stringify(JSON.stringify(s).slice(1, -1)).slice(1, -1))
+      .join('')
+      .split(JSON.stringify(s).slice(1, -1))
+      .join('');
   }
   return text;
 }
@@ -164,31 +281,51 @@ const runsPerTarget = 1500; // 7 targets × 1,500 = 10,500 bodies
 
 describe('random and malformed bodies', () => {
   for (const target of targets) {
-    it(`never break the ${target.name} route: no 500, and every 400 names a field`, { timeout: 240_000 }, async () => {
-      await fc.assert(
-        fc.asyncProperty(target.body, async (body) => {
-          const res = await target.agent()[target.method](target.url()).set('Content-Type', 'application/json').send(JSON.stringify(body) ?? 'null');
-          expect(res.status).toBeLessThan(500);
-          if (res.status === 400) {
-            expect(res.body.error.fields.length).toBeGreaterThan(0);
-            for (const field of res.body.error.fields) {
-              expect(typeof field.path).toBe('string');
-              expect(field.path.length).toBeGreaterThan(0);
-              expect(field.message.length).toBeGreaterThan(0);
+    it(
+      `never break the ${target.name} route: no 500, and every 400 names a field`,
+      { timeout: 240_000 },
+      async () => {
+        await fc.assert(
+          fc.asyncProperty(target.body, async (body) => {
+            const res = await target
+              .agent()
+              [target.method](target.url())
+              .set('Content-Type', 'application/json')
+              .send(JSON.stringify(body) ?? 'null');
+            expect(res.status).toBeLessThan(500);
+            if (res.status === 400) {
+              expect(res.body.error.fields.length).toBeGreaterThan(0);
+              for (const field of res.body.error.fields) {
+                expect(typeof field.path).toBe('string');
+                expect(field.path.length).toBeGreaterThan(0);
+                expect(field.message.length).toBeGreaterThan(0);
+              }
             }
-          }
-          // What the body itself said may come back in a message naming the field; only the server's own internals are a leak.
-          expect(withoutEchoes(JSON.stringify(res.body), body)).not.toMatch(/\bat \S+\.(ts|js):\d+|ER_[A-Z_]+|SELECT |INSERT INTO/);
-        }),
-        // A key named like a database error code once failed the leak check by being echoed back.
-        { numRuns: runsPerTarget, examples: [[{ ER_A: {} }]] },
-      );
-    });
+            // What the body itself said may come back in a message naming the field; only the server's own internals are a leak.
+            expect(withoutEchoes(JSON.stringify(res.body), body)).not.toMatch(
+              /\bat \S+\.(ts|js):\d+|ER_[A-Z_]+|SELECT |INSERT INTO/,
+            );
+          }),
+          // A key named like a database error code once failed the leak check by being echoed back.
+          { numRuns: runsPerTarget, examples: [[{ ER_A: {} }]] },
+        );
+      },
+    );
   }
 
   it('bodies that are not JSON at all, or too large, are refused cleanly', async () => {
-    for (const raw of ['{"a":', 'NaN', '{"x": Infinity}', "{'single': 'quotes'}", '\u0000', '[1,2,']) {
-      const res = await clinicianAgent.post('/api/orders').set('Content-Type', 'application/json').send(raw);
+    for (const raw of [
+      '{"a":',
+      'NaN',
+      '{"x": Infinity}',
+      "{'single': 'quotes'}",
+      '\u0000',
+      '[1,2,',
+    ]) {
+      const res = await clinicianAgent
+        .post('/api/orders')
+        .set('Content-Type', 'application/json')
+        .send(raw);
       expect(res.status).toBe(400);
       expect(res.body.error.fields[0].path).toBe('body');
     }
@@ -198,12 +335,19 @@ describe('random and malformed bodies', () => {
   });
 
   it('SQL and HTML typed into text fields are stored and returned exactly as typed, and do nothing', async () => {
-    const text = { givenName: `<script>alert("x")</script>`, familyName: "O'Brien'); DROP TABLE patient;--" };
-    const created = await clinicianAgent.post('/api/patients').send({ recordNumber: `S-${randomUUID().slice(0, 8)}`, dateOfBirth: '1950-05-05', ...text });
+    const text = {
+      givenName: `<script>alert("x")</script>`,
+      familyName: "O'Brien'); DROP TABLE patient;--",
+    };
+    const created = await clinicianAgent
+      .post('/api/patients')
+      .send({ recordNumber: `S-${randomUUID().slice(0, 8)}`, dateOfBirth: '1950-05-05', ...text });
     expect(created.status).toBe(201);
     const read = await clinicianAgent.get(`/api/patients/${created.body.patient.id}`);
     expect(read.body.patient).toMatchObject(text);
     expect(read.headers['content-type']).toMatch(/application\/json/);
-    expect(Number((await ctx.dataSource.query('SELECT COUNT(*) AS n FROM patient'))[0].n)).toBeGreaterThan(0);
+    expect(
+      Number((await ctx.dataSource.query('SELECT COUNT(*) AS n FROM patient'))[0].n),
+    ).toBeGreaterThan(0);
   });
 });

@@ -41,13 +41,22 @@ describe('POST /api/calculations', () => {
     expect(bsa).toMatchObject({ unit: 'm²', rounded: { value: 1.82, step: 0.01 } });
     expect(bsa.value).toBeCloseTo(1.8181, 4);
     expect(bsa.formula).toMatch(/Mosteller/);
-    expect(res.body.protocol).toMatchObject({ key: 'pdt-standard', version: 1, status: 'approved' });
+    expect(res.body.protocol).toMatchObject({
+      key: 'pdt-standard',
+      version: 1,
+      status: 'approved',
+    });
   });
 
   it('uses the newest approved version when no version is given, and accepts pounds and inches', async () => {
     const res = await agent.post('/api/calculations').send({
       protocol: { key: 'pdt-half-dose' },
-      inputs: { height: { value: 66.93, unit: 'in' }, weight: { value: 154.32, unit: 'lb' }, lesionGldUm: 1800, lensMagnification: 1 },
+      inputs: {
+        height: { value: 66.93, unit: 'in' },
+        weight: { value: 154.32, unit: 'lb' },
+        lesionGldUm: 1800,
+        lensMagnification: 1,
+      },
     });
     expect(res.status).toBe(200);
     // Version 2 (the BMI range, syringe graduation and withdrawable volume) is the newest shipped version.
@@ -59,28 +68,41 @@ describe('POST /api/calculations', () => {
   });
 
   it('computes the standard CXL plan and warns when the cornea is below the minimum thickness', async () => {
-    const res = await agent.post('/api/calculations').send({ protocol: { key: 'cxl-standard' }, inputs: { stromalThicknessUm: 380 } });
+    const res = await agent
+      .post('/api/calculations')
+      .send({ protocol: { key: 'cxl-standard' }, inputs: { stromalThicknessUm: 380 } });
     expect(res.status).toBe(200);
     // Source: Wollensak G, Spoerl E, Seiler T. Am J Ophthalmol 2003 — 3 mW/cm² for 30 min = 5.4 J/cm².
     expect(res.body.plan.uvTimeS).toBe(1800);
     expect(res.body.plan.fluenceJPerCm2).toBeCloseTo(5.4, 5);
     // Source: Spoerl E et al. Cornea 2007 — minimum stromal thickness 400 µm.
     expect(res.body.plan.thicknessOk).toBe(false);
-    expect(res.body.plan.warnings.map((w: { code: string }) => w.code)).toContain('thickness-below-minimum');
+    expect(res.body.plan.warnings.map((w: { code: string }) => w.code)).toContain(
+      'thickness-below-minimum',
+    );
   });
 
   it('refuses an input outside the hard range with 400 naming the field and the allowed range', async () => {
     const res = await agent.post('/api/calculations').send({
       protocol: { key: 'pdt-standard', version: 1 },
-      inputs: { height: { value: 20, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, lesionGldUm: 2500, lensMagnification: 1 },
+      inputs: {
+        height: { value: 20, unit: 'cm' },
+        weight: { value: 70, unit: 'kg' },
+        lesionGldUm: 2500,
+        lensMagnification: 1,
+      },
     });
     expect(res.status).toBe(400);
-    const field = res.body.error.fields.find((f: { path: string }) => f.path === 'inputs.height.value');
+    const field = res.body.error.fields.find(
+      (f: { path: string }) => f.path === 'inputs.height.value',
+    );
     expect(field.message).toMatch(/between \d+ and \d+ cm/);
   });
 
   it('refuses a body of the wrong shape with 400 naming the fields', async () => {
-    const res = await agent.post('/api/calculations').send({ protocol: { key: 'pdt-standard', version: 'one' }, inputs: { height: 170 } });
+    const res = await agent
+      .post('/api/calculations')
+      .send({ protocol: { key: 'pdt-standard', version: 'one' }, inputs: { height: 170 } });
     expect(res.status).toBe(400);
     const paths = res.body.error.fields.map((f: { path: string }) => f.path);
     expect(paths).toEqual(expect.arrayContaining(['protocol.version']));
@@ -88,9 +110,19 @@ describe('POST /api/calculations', () => {
   });
 
   it('an unknown protocol or version is 404', async () => {
-    const unknown = await agent.post('/api/calculations').send({ protocol: { key: 'pdt-unknown' }, inputs: { ...adult, lesionGldUm: 2500, lensMagnification: 1 } });
+    const unknown = await agent
+      .post('/api/calculations')
+      .send({
+        protocol: { key: 'pdt-unknown' },
+        inputs: { ...adult, lesionGldUm: 2500, lensMagnification: 1 },
+      });
     expect(unknown.status).toBe(404);
-    const version = await agent.post('/api/calculations').send({ protocol: { key: 'pdt-standard', version: 42 }, inputs: { ...adult, lesionGldUm: 2500, lensMagnification: 1 } });
+    const version = await agent
+      .post('/api/calculations')
+      .send({
+        protocol: { key: 'pdt-standard', version: 42 },
+        inputs: { ...adult, lesionGldUm: 2500, lensMagnification: 1 },
+      });
     expect(version.status).toBe(404);
   });
 
@@ -103,11 +135,13 @@ describe('POST /api/calculations', () => {
 describe('POST /api/light-calculations', () => {
   it('fills in irradiance, fluence and energy from power, spot and time', async () => {
     // Definitions (no source needed): area = π d²/4; irradiance = power ÷ area; fluence = irradiance × time.
-    const res = await agent.post('/api/light-calculations').send({ powerMw: 42.4, spotDiameterUm: 3000, exposureS: 83 });
+    const res = await agent
+      .post('/api/light-calculations')
+      .send({ powerMw: 42.4, spotDiameterUm: 3000, exposureS: 83 });
     expect(res.status).toBe(200);
     const { solution } = res.body;
     expect(solution.irradianceMwPerCm2).toBeCloseTo(42.4 / 0.070686, 0);
-    expect(solution.fluenceJPerCm2).toBeCloseTo((42.4 / 0.070686) * 83 / 1000, 1);
+    expect(solution.fluenceJPerCm2).toBeCloseTo(((42.4 / 0.070686) * 83) / 1000, 1);
     expect(solution.energyJ).toBeCloseTo(0.0424 * 83, 3);
   });
 

@@ -3,7 +3,15 @@ import { readdirSync, rmSync, statSync } from 'node:fs';
 import path from 'node:path';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestPatient, createTestPerson, pdtOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
+import {
+  createTestPatient,
+  createTestPerson,
+  pdtOrder,
+  signedInAgent,
+  startTestApp,
+  type TestContext,
+  type TestPerson,
+} from '../support/api';
 
 type Agent = ReturnType<typeof supertest.agent>;
 
@@ -21,7 +29,11 @@ beforeAll(async () => {
   first = await createTestPerson(ctx, ['clinician']);
   second = await createTestPerson(ctx, ['clinician']);
   auditor = await createTestPerson(ctx, ['auditor']);
-  [firstAgent, secondAgent, auditorAgent] = await Promise.all([signedInAgent(ctx, first), signedInAgent(ctx, second), signedInAgent(ctx, auditor)]);
+  [firstAgent, secondAgent, auditorAgent] = await Promise.all([
+    signedInAgent(ctx, first),
+    signedInAgent(ctx, second),
+    signedInAgent(ctx, auditor),
+  ]);
 });
 afterAll(async () => {
   await ctx.close();
@@ -31,11 +43,23 @@ afterAll(async () => {
 const json = <T>(value: unknown): T => (typeof value === 'string' ? JSON.parse(value) : value) as T;
 
 async function storedOrder(id: number) {
-  const [row] = await ctx.dataSource.query('SELECT status, inputs, plan, row_version AS version, signed_by AS signedBy FROM treatment_order WHERE id = ?', [id]);
-  return { status: row.status as string, version: Number(row.version), signedBy: row.signedBy === null ? null : Number(row.signedBy), inputs: json<{ lesionGldUm: number }>(row.inputs), plan: json<{ spotDiameterUm: number }>(row.plan) };
+  const [row] = await ctx.dataSource.query(
+    'SELECT status, inputs, plan, row_version AS version, signed_by AS signedBy FROM treatment_order WHERE id = ?',
+    [id],
+  );
+  return {
+    status: row.status as string,
+    version: Number(row.version),
+    signedBy: row.signedBy === null ? null : Number(row.signedBy),
+    inputs: json<{ lesionGldUm: number }>(row.inputs),
+    plan: json<{ spotDiameterUm: number }>(row.plan),
+  };
 }
 
-const sign = (agent: Agent, person: TestPerson, id: number, version: number) => agent.post(`/api/orders/${id}/signature`).send({ password: person.password, meaning: 'ordered', version });
+const sign = (agent: Agent, person: TestPerson, id: number, version: number) =>
+  agent
+    .post(`/api/orders/${id}/signature`)
+    .send({ password: person.password, meaning: 'ordered', version });
 const wait = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 // Spot = GLD + 1000 µm (TAP Study Group, Arch Ophthalmol 1999): GLD 2500 → 3500 µm, GLD 3000 → 4000 µm.
@@ -51,19 +75,33 @@ describe('editing a draft and signing it cannot interleave', () => {
       const changed = pdtOrder(patient.id, { inputs: { ...draft.inputs, lesionGldUm: 3000 } });
       const [signature, edit] = await Promise.all([
         sign(firstAgent, first, draft.id, draft.version),
-        wait(round * 25).then(() => secondAgent.put(`/api/orders/${draft.id}`).send({ ...changed, version: draft.version })),
+        wait(round * 25).then(() =>
+          secondAgent.put(`/api/orders/${draft.id}`).send({ ...changed, version: draft.version }),
+        ),
       ]);
       expect([signature.status, edit.status].sort(), `round ${round}`).toEqual([200, 409]);
       const stored = await storedOrder(draft.id);
       if (signature.status === 200) {
         winners.add('signature');
         expect(['order_signed', 'order_changed']).toContain(edit.body.error.code);
-        expect(stored).toMatchObject({ status: 'signed', signedBy: first.id, inputs: { lesionGldUm: 2500 }, plan: { spotDiameterUm: spotFor[2500] } });
+        expect(stored).toMatchObject({
+          status: 'signed',
+          signedBy: first.id,
+          inputs: { lesionGldUm: 2500 },
+          plan: { spotDiameterUm: spotFor[2500] },
+        });
       } else {
         winners.add('edit');
         expect(signature.body.error.code).toBe('order_changed');
-        expect(signature.body.error.message).toMatch(/changed after you opened it.*reload the order/i);
-        expect(stored).toMatchObject({ status: 'draft', signedBy: null, inputs: { lesionGldUm: 3000 }, plan: { spotDiameterUm: spotFor[3000] } });
+        expect(signature.body.error.message).toMatch(
+          /changed after you opened it.*reload the order/i,
+        );
+        expect(stored).toMatchObject({
+          status: 'draft',
+          signedBy: null,
+          inputs: { lesionGldUm: 3000 },
+          plan: { spotDiameterUm: spotFor[3000] },
+        });
       }
     }
     // Which side wins depends on timing; every round above held either way.
@@ -74,49 +112,93 @@ describe('editing a draft and signing it cannot interleave', () => {
     const patient = await createTestPatient(ctx);
     const draft = (await firstAgent.post('/api/orders').send(pdtOrder(patient.id))).body.order;
     expect(draft.version).toBe(1);
-    const edited = await secondAgent.put(`/api/orders/${draft.id}`).send({ ...pdtOrder(patient.id, { inputs: { ...draft.inputs, lesionGldUm: 3000 } }), version: draft.version });
+    const edited = await secondAgent
+      .put(`/api/orders/${draft.id}`)
+      .send({
+        ...pdtOrder(patient.id, { inputs: { ...draft.inputs, lesionGldUm: 3000 } }),
+        version: draft.version,
+      });
     expect(edited.status).toBe(200);
     expect(edited.body.order.version).toBe(2);
 
     // The first clinician still has version 1 on screen.
-    const staleEdit = await firstAgent.put(`/api/orders/${draft.id}`).send({ ...pdtOrder(patient.id, { note: 'my older copy' }), version: 1 });
+    const staleEdit = await firstAgent
+      .put(`/api/orders/${draft.id}`)
+      .send({ ...pdtOrder(patient.id, { note: 'my older copy' }), version: 1 });
     expect(staleEdit.status).toBe(409);
     expect(staleEdit.body.error).toMatchObject({ code: 'order_changed' });
     expect(staleEdit.body.error.message).toContain('version 1');
     const staleSignature = await sign(firstAgent, first, draft.id, 1);
     expect(staleSignature.status).toBe(409);
-    expect(await storedOrder(draft.id)).toMatchObject({ status: 'draft', version: 2, inputs: { lesionGldUm: 3000 } });
-    expect((await ctx.dataSource.query("SELECT COUNT(*) AS n FROM audit_event WHERE action = 'order.signed' AND entity_id = ?", [String(draft.id)]))[0].n).toBe('0');
+    expect(await storedOrder(draft.id)).toMatchObject({
+      status: 'draft',
+      version: 2,
+      inputs: { lesionGldUm: 3000 },
+    });
+    expect(
+      (
+        await ctx.dataSource.query(
+          "SELECT COUNT(*) AS n FROM audit_event WHERE action = 'order.signed' AND entity_id = ?",
+          [String(draft.id)],
+        )
+      )[0].n,
+    ).toBe('0');
 
     // Without a version the server cannot tell what was read: refused, naming the field.
-    const unversioned = await firstAgent.post(`/api/orders/${draft.id}/signature`).send({ password: first.password, meaning: 'ordered' });
+    const unversioned = await firstAgent
+      .post(`/api/orders/${draft.id}/signature`)
+      .send({ password: first.password, meaning: 'ordered' });
     expect(unversioned.status).toBe(400);
     expect(unversioned.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['version']);
 
     const current = await sign(firstAgent, first, draft.id, 2);
     expect(current.status).toBe(200);
-    expect(await storedOrder(draft.id)).toMatchObject({ status: 'signed', version: 3, inputs: { lesionGldUm: 3000 }, plan: { spotDiameterUm: spotFor[3000] } });
+    expect(await storedOrder(draft.id)).toMatchObject({
+      status: 'signed',
+      version: 3,
+      inputs: { lesionGldUm: 3000 },
+      plan: { spotDiameterUm: spotFor[3000] },
+    });
   });
 
   it('two amendments of one signed order at once make one revision; a second amendment afterwards is refused with 409', async () => {
     const patient = await createTestPatient(ctx);
     const draft = (await firstAgent.post('/api/orders').send(pdtOrder(patient.id))).body.order;
     const signed = (await sign(firstAgent, first, draft.id, draft.version)).body.order;
-    const amendment = (who: string, gld: number) => ({ ...pdtOrder(patient.id, { inputs: { ...draft.inputs, lesionGldUm: gld } }), amendmentReason: `New angiogram read by ${who}.`, version: signed.version });
+    const amendment = (who: string, gld: number) => ({
+      ...pdtOrder(patient.id, { inputs: { ...draft.inputs, lesionGldUm: gld } }),
+      amendmentReason: `New angiogram read by ${who}.`,
+      version: signed.version,
+    });
     const [a, b] = await Promise.all([
-      firstAgent.post(`/api/orders/${signed.id}/amendments`).send(amendment('the first clinician', 3000)),
-      secondAgent.post(`/api/orders/${signed.id}/amendments`).send(amendment('the second clinician', 2600)),
+      firstAgent
+        .post(`/api/orders/${signed.id}/amendments`)
+        .send(amendment('the first clinician', 3000)),
+      secondAgent
+        .post(`/api/orders/${signed.id}/amendments`)
+        .send(amendment('the second clinician', 2600)),
     ]);
     expect([a.status, b.status].sort()).toEqual([201, 409]);
-    expect(['already_amended', 'order_changed']).toContain((a.status === 409 ? a : b).body.error.code);
-    const revisions = await ctx.dataSource.query('SELECT id FROM treatment_order WHERE previous_revision_id = ?', [signed.id]);
+    expect(['already_amended', 'order_changed']).toContain(
+      (a.status === 409 ? a : b).body.error.code,
+    );
+    const revisions = await ctx.dataSource.query(
+      'SELECT id FROM treatment_order WHERE previous_revision_id = ?',
+      [signed.id],
+    );
     expect(revisions).toHaveLength(1);
     expect(Number(revisions[0].id)).toBe((a.status === 201 ? a : b).body.order.id);
 
-    const again = await firstAgent.post(`/api/orders/${signed.id}/amendments`).send(amendment('the first clinician, again', 2700));
+    const again = await firstAgent
+      .post(`/api/orders/${signed.id}/amendments`)
+      .send(amendment('the first clinician, again', 2700));
     expect(again.status).toBe(409);
     expect(again.body.error.code).toBe('already_amended');
-    expect(await ctx.dataSource.query('SELECT id FROM treatment_order WHERE previous_revision_id = ?', [signed.id])).toHaveLength(1);
+    expect(
+      await ctx.dataSource.query('SELECT id FROM treatment_order WHERE previous_revision_id = ?', [
+        signed.id,
+      ]),
+    ).toHaveLength(1);
   });
 });
 
@@ -124,21 +206,42 @@ describe('one record number, one patient', () => {
   it('four people adding the same record number at once: one 201, the others 409 naming the record number, one row stored', async () => {
     for (let round = 0; round < 5; round += 1) {
       const recordNumber = `RACE-${randomUUID().slice(0, 6).toUpperCase()}`;
-      const body = { recordNumber, givenName: 'Morwenna', familyName: 'Trevail', dateOfBirth: '1949-11-30', emailConsent: false };
-      const answers = await Promise.all([firstAgent, secondAgent, firstAgent, secondAgent].map((agent) => agent.post('/api/patients').send(body)));
+      const body = {
+        recordNumber,
+        givenName: 'Morwenna',
+        familyName: 'Trevail',
+        dateOfBirth: '1949-11-30',
+        emailConsent: false,
+      };
+      const answers = await Promise.all(
+        [firstAgent, secondAgent, firstAgent, secondAgent].map((agent) =>
+          agent.post('/api/patients').send(body),
+        ),
+      );
       expect(answers.map((r) => r.status).sort(), `round ${round}`).toEqual([201, 409, 409, 409]);
       for (const refused of answers.filter((r) => r.status === 409)) {
         expect(refused.body.error.code).toBe('record_number_taken');
         expect(refused.body.error.message).toContain(recordNumber);
       }
-      expect(await ctx.dataSource.query('SELECT id FROM patient WHERE record_number = ?', [recordNumber])).toHaveLength(1);
+      expect(
+        await ctx.dataSource.query('SELECT id FROM patient WHERE record_number = ?', [
+          recordNumber,
+        ]),
+      ).toHaveLength(1);
     }
   });
 });
 
-const pdf = Buffer.concat([Buffer.from('%PDF-1.7\n'), Buffer.alloc(1500, 0x20), Buffer.from('\n%%EOF\n')]);
+const pdf = Buffer.concat([
+  Buffer.from('%PDF-1.7\n'),
+  Buffer.alloc(1500, 0x20),
+  Buffer.from('\n%%EOF\n'),
+]);
 // The PNG signature and an IHDR start: enough for the check by content.
-const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(500)]);
+const png = Buffer.concat([
+  Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+  Buffer.alloc(500),
+]);
 
 function download(agent: Agent | ReturnType<typeof supertest>, id: number) {
   return agent
@@ -154,7 +257,9 @@ function download(agent: Agent | ReturnType<typeof supertest>, id: number) {
 async function draftWithAttachment(content: Buffer, filename: string) {
   const patient = await createTestPatient(ctx);
   const draft = (await firstAgent.post('/api/orders').send(pdtOrder(patient.id))).body.order;
-  const res = await firstAgent.post(`/api/orders/${draft.id}/attachments`).attach('file', content, { filename, contentType: 'text/html' });
+  const res = await firstAgent
+    .post(`/api/orders/${draft.id}/attachments`)
+    .attach('file', content, { filename, contentType: 'text/html' });
   return { draft, patient, res };
 }
 
@@ -167,11 +272,16 @@ describe('attachments are read only by roles that may read orders, and never as 
     expect(got.headers['content-type']).toBe('application/pdf');
     expect(got.headers['content-type']).not.toMatch(/html/);
     expect(got.headers['x-content-type-options']).toBe('nosniff');
-    expect(got.headers['content-disposition']).toMatch(/^attachment; filename="results\.html\.pdf"/);
+    expect(got.headers['content-disposition']).toMatch(
+      /^attachment; filename="results\.html\.pdf"/,
+    );
     expect(got.headers['content-security-policy']).toContain('sandbox');
     expect(Buffer.compare(got.body as Buffer, pdf)).toBe(0);
 
-    const [row] = await ctx.dataSource.query('SELECT storage_name AS storageName FROM attachment WHERE id = ?', [res.body.attachment.id]);
+    const [row] = await ctx.dataSource.query(
+      'SELECT storage_name AS storageName FROM attachment WHERE id = ?',
+      [res.body.attachment.id],
+    );
     expect(row.storageName).toMatch(/\.pdf$/);
     expect(statSync(path.join(uploadDir, row.storageName)).mode & 0o777).toBe(0o600);
     expect(statSync(uploadDir).mode & 0o777).toBe(0o700);
@@ -188,7 +298,9 @@ describe('attachments are read only by roles that may read orders, and never as 
     const html = Buffer.from('<!doctype html><script>fetch("/api/patients")</script>%PDF-1.7');
     const { draft, res: refused } = await draftWithAttachment(html, 'report.pdf');
     expect(refused.status).toBe(415);
-    expect(await ctx.dataSource.query('SELECT id FROM attachment WHERE order_id = ?', [draft.id])).toHaveLength(0);
+    expect(
+      await ctx.dataSource.query('SELECT id FROM attachment WHERE order_id = ?', [draft.id]),
+    ).toHaveLength(0);
     expect(readdirSync(uploadDir).length).toBe(filesBefore);
   });
 
@@ -201,7 +313,12 @@ describe('attachments are read only by roles that may read orders, and never as 
     expect(refused.status).toBe(403);
     expect((refused.body as Buffer).includes(Buffer.from('%PDF'))).toBe(false);
     expect((await download(supertest(ctx.app), id)).status).toBe(401);
-    expect(await ctx.dataSource.query("SELECT id FROM audit_event WHERE action = 'attachment.viewed' AND actor_user_id = ?", [admin.id])).toHaveLength(0);
+    expect(
+      await ctx.dataSource.query(
+        "SELECT id FROM audit_event WHERE action = 'attachment.viewed' AND actor_user_id = ?",
+        [admin.id],
+      ),
+    ).toHaveLength(0);
     for (const role of ['nurse', 'pharmacist', 'auditor'] as const) {
       const reader = await signedInAgent(ctx, await createTestPerson(ctx, [role]));
       expect((await download(reader, id)).status, role).toBe(200);
@@ -218,7 +335,8 @@ describe('reading health data is audited', () => {
 
     expect((await readerAgent.get(`/api/patients/${patient.id}`)).status).toBe(200);
     // Opened three times within the minute (a screen refreshing): one row.
-    for (let i = 0; i < 3; i += 1) expect((await readerAgent.get(`/api/orders/${draft.id}`)).status).toBe(200);
+    for (let i = 0; i < 3; i += 1)
+      expect((await readerAgent.get(`/api/orders/${draft.id}`)).status).toBe(200);
     expect((await download(readerAgent, res.body.attachment.id)).status).toBe(200);
     // Exports are never batched: each is a copy leaving the system.
     expect((await auditorAgent.get('/api/exports/deviations.csv')).status).toBe(200);
@@ -230,19 +348,32 @@ describe('reading health data is audited', () => {
       [reader.id, auditor.id],
     );
     const mine = rows.filter((r: { actor: number }) => Number(r.actor) === reader.id);
-    expect(mine.map((r: { action: string; entityType: string; entityId: string }) => [r.action, r.entityType, r.entityId])).toEqual([
+    expect(
+      mine.map((r: { action: string; entityType: string; entityId: string }) => [
+        r.action,
+        r.entityType,
+        r.entityId,
+      ]),
+    ).toEqual([
       ['patient.viewed', 'patient', String(patient.id)],
       ['order.viewed', 'order', String(draft.id)],
       ['attachment.viewed', 'order', String(draft.id)],
     ]);
     for (const row of mine) expect(new Date(row.at).getTime()).toBeGreaterThanOrEqual(before);
-    const exports = rows.filter((r: { actor: number; action: string }) => Number(r.actor) === auditor.id && r.action === 'export.downloaded');
-    expect(exports.map((r: { entityId: string }) => r.entityId)).toEqual(expect.arrayContaining(['deviations', 'deviations', 'dose-records']));
+    const exports = rows.filter(
+      (r: { actor: number; action: string }) =>
+        Number(r.actor) === auditor.id && r.action === 'export.downloaded',
+    );
+    expect(exports.map((r: { entityId: string }) => r.entityId)).toEqual(
+      expect.arrayContaining(['deviations', 'deviations', 'dose-records']),
+    );
     expect(exports.length).toBeGreaterThanOrEqual(3);
 
     // The auditor sees them in the audit trail, by person.
     const trail = await auditorAgent.get('/api/audit-events').query({ actor: reader.id });
     expect(trail.status).toBe(200);
-    expect(trail.body.events.map((e: { action: string }) => e.action)).toEqual(expect.arrayContaining(['patient.viewed', 'order.viewed', 'attachment.viewed']));
+    expect(trail.body.events.map((e: { action: string }) => e.action)).toEqual(
+      expect.arrayContaining(['patient.viewed', 'order.viewed', 'attachment.viewed']),
+    );
   });
 });

@@ -2,7 +2,16 @@ import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import mysql from 'mysql2/promise';
 import { demoPassword } from '../../server/demo/seed';
-import { FaultClient, faultConfig, faultDbPort, resetFaultDatabase, startApiProcess, startFaultDatabase, stopFaultDatabase, type ApiProcess } from '../support/fault-rig';
+import {
+  FaultClient,
+  faultConfig,
+  faultDbPort,
+  resetFaultDatabase,
+  startApiProcess,
+  startFaultDatabase,
+  stopFaultDatabase,
+  type ApiProcess,
+} from '../support/fault-rig';
 
 // Ports of these tests' own API processes.
 const portA = 3391;
@@ -22,30 +31,63 @@ afterAll(async () => {
   stopFaultDatabase();
 });
 
-const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true };
+const allChecks = {
+  patientIdentity: true,
+  treatmentEye: true,
+  consent: true,
+  eyewear: true,
+  deviceSettings: true,
+};
 const t0 = Date.now() - 30 * 60_000;
-const at = (s: number, e: object) => ({ idempotencyKey: randomUUID(), clientTime: new Date(t0 + s * 1000).toISOString(), ...e });
+const at = (s: number, e: object) => ({
+  idempotencyKey: randomUUID(),
+  clientTime: new Date(t0 + s * 1000).toISOString(),
+  ...e,
+});
 
 /** A ready CXL order for a new patient, made through the API by the demo clinician. */
 async function readyCxlOrder(base: string): Promise<number> {
-  const clinician = await new FaultClient(base).signIn('clinician@demo.luxtempo.example', demoPassword);
-  const patient = await clinician.call('POST', '/patients', { recordNumber: `F-${randomUUID().slice(0, 8)}`, givenName: 'Fault', familyName: 'Testcase', dateOfBirth: '1970-01-01' });
+  const clinician = await new FaultClient(base).signIn(
+    'clinician@demo.luxtempo.example',
+    demoPassword,
+  );
+  const patient = await clinician.call('POST', '/patients', {
+    recordNumber: `F-${randomUUID().slice(0, 8)}`,
+    givenName: 'Fault',
+    familyName: 'Testcase',
+    dateOfBirth: '1970-01-01',
+  });
   const draft = await clinician.call('POST', '/orders', {
     patientId: patient.body.patient.id,
     eye: 'right',
     protocol: { key: 'cxl-standard', version: 1 },
     inputs: { stromalThicknessUm: 470 },
-    checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({ id, answer: 'no' })),
+    checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({
+      id,
+      answer: 'no',
+    })),
   });
-  const signed = await clinician.call('POST', `/orders/${draft.body.order.id}/signature`, { password: demoPassword, meaning: 'ordered', version: draft.body.order.version });
+  const signed = await clinician.call('POST', `/orders/${draft.body.order.id}/signature`, {
+    password: demoPassword,
+    meaning: 'ordered',
+    version: draft.body.order.version,
+  });
   expect(signed.body.order.status).toBe('ready');
   return draft.body.order.id;
 }
 
 async function eventCount(orderId: number): Promise<number> {
   const config = faultConfig();
-  const db = await mysql.createConnection({ host: '127.0.0.1', port: faultDbPort, user: config.DB_USER, password: config.DB_PASSWORD, database: config.DB_NAME });
-  const [rows] = await db.query('SELECT COUNT(*) AS n FROM session_event WHERE order_id = ?', [orderId]);
+  const db = await mysql.createConnection({
+    host: '127.0.0.1',
+    port: faultDbPort,
+    user: config.DB_USER,
+    password: config.DB_PASSWORD,
+    database: config.DB_NAME,
+  });
+  const [rows] = await db.query('SELECT COUNT(*) AS n FROM session_event WHERE order_id = ?', [
+    orderId,
+  ]);
   await db.end();
   return Number((rows as { n: number }[])[0]!.n);
 }
@@ -53,8 +95,15 @@ async function eventCount(orderId: number): Promise<number> {
 describe('when the API process dies mid-session', () => {
   it('a restarted process shows the session exactly where it was, and the clock goes on', async () => {
     const orderId = await readyCxlOrder(api!.url);
-    const nurse = await new FaultClient(api!.url).signIn('nurse@demo.luxtempo.example', demoPassword);
-    for (const e of [at(0, { type: 'session-started', checks: allChecks }), at(60, { type: 'step-started', stepId: 'riboflavin-soak' }), at(180, { type: 'drop-given', stepId: 'riboflavin-soak' })]) {
+    const nurse = await new FaultClient(api!.url).signIn(
+      'nurse@demo.luxtempo.example',
+      demoPassword,
+    );
+    for (const e of [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
+      at(180, { type: 'drop-given', stepId: 'riboflavin-soak' }),
+    ]) {
       expect((await nurse.call('POST', `/orders/${orderId}/session-events`, e)).status).toBe(201);
     }
     const before = await nurse.call('GET', `/orders/${orderId}/session`);
@@ -65,28 +114,56 @@ describe('when the API process dies mid-session', () => {
     expect(after.body.events).toEqual(before.body.events);
     expect(after.body.record.soakStartAt).toBe(before.body.record.soakStartAt);
     // The old cookie still works: the session is a signed token, not server memory.
-    expect((await nurse.call('POST', `/orders/${orderId}/session-events`, at(300, { type: 'drop-given', stepId: 'riboflavin-soak' }))).status).toBe(201);
+    expect(
+      (
+        await nurse.call(
+          'POST',
+          `/orders/${orderId}/session-events`,
+          at(300, { type: 'drop-given', stepId: 'riboflavin-soak' }),
+        )
+      ).status,
+    ).toBe(201);
   }, 90_000);
 
   it('deviations of an event written just before a crash are worked out when the server starts again', async () => {
     const orderId = await readyCxlOrder(api!.url);
-    const nurse = await new FaultClient(api!.url).signIn('nurse@demo.luxtempo.example', demoPassword);
-    await nurse.call('POST', `/orders/${orderId}/session-events`, at(0, { type: 'session-started', checks: allChecks }));
-    await nurse.call('POST', `/orders/${orderId}/session-events`, at(60, { type: 'step-started', stepId: 'riboflavin-soak' }));
+    const nurse = await new FaultClient(api!.url).signIn(
+      'nurse@demo.luxtempo.example',
+      demoPassword,
+    );
+    await nurse.call(
+      'POST',
+      `/orders/${orderId}/session-events`,
+      at(0, { type: 'session-started', checks: allChecks }),
+    );
+    await nurse.call(
+      'POST',
+      `/orders/${orderId}/session-events`,
+      at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
+    );
     await api!.kill();
     // The row as a dying process might have left it: stored, but nothing derived from it.
     const config = faultConfig();
-    const db = await mysql.createConnection({ host: '127.0.0.1', port: faultDbPort, user: config.DB_USER, password: config.DB_PASSWORD, database: config.DB_NAME });
+    const db = await mysql.createConnection({
+      host: '127.0.0.1',
+      port: faultDbPort,
+      user: config.DB_USER,
+      password: config.DB_PASSWORD,
+      database: config.DB_NAME,
+    });
     const event = at(60 + 20 * 60, { type: 'step-ended', stepId: 'riboflavin-soak' });
-    await db.query('INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, (SELECT id FROM user WHERE email = ?), ?)', [
-      orderId,
-      event.idempotencyKey,
-      'step-ended',
-      'riboflavin-soak',
-      new Date(event.clientTime),
-      'nurse@demo.luxtempo.example',
-      JSON.stringify(event),
-    ]);
+    await db.query(
+      'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, (SELECT id FROM user WHERE email = ?), ?)',
+      [
+        orderId,
+        event.idempotencyKey,
+        'step-ended',
+        'riboflavin-soak',
+        new Date(event.clientTime),
+        'nurse@demo.luxtempo.example',
+        JSON.stringify(event),
+      ],
+    );
     await db.end();
     api = await startApiProcess(portA, 'api-a');
     const state = await nurse.call('GET', `/orders/${orderId}/session`);
@@ -99,44 +176,80 @@ describe('two API instances on one database', () => {
   it('store one row when both receive the same event at the same moment', async () => {
     second ??= await startApiProcess(portB, 'api-b');
     const orderId = await readyCxlOrder(api!.url);
-    const nurse = await new FaultClient(api!.url).signIn('nurse@demo.luxtempo.example', demoPassword);
-    await nurse.call('POST', `/orders/${orderId}/session-events`, at(0, { type: 'session-started', checks: allChecks }));
+    const nurse = await new FaultClient(api!.url).signIn(
+      'nurse@demo.luxtempo.example',
+      demoPassword,
+    );
+    await nurse.call(
+      'POST',
+      `/orders/${orderId}/session-events`,
+      at(0, { type: 'session-started', checks: allChecks }),
+    );
     const event = at(60, { type: 'step-started', stepId: 'riboflavin-soak' });
     const answers = await Promise.all([
-      ...Array.from({ length: 5 }, () => nurse.call('POST', `/orders/${orderId}/session-events`, event, api!.url)),
-      ...Array.from({ length: 5 }, () => nurse.call('POST', `/orders/${orderId}/session-events`, event, second!.url)),
+      ...Array.from({ length: 5 }, () =>
+        nurse.call('POST', `/orders/${orderId}/session-events`, event, api!.url),
+      ),
+      ...Array.from({ length: 5 }, () =>
+        nurse.call('POST', `/orders/${orderId}/session-events`, event, second!.url),
+      ),
     ]);
-    expect(answers.map((a) => a.status).sort()).toEqual([200, 200, 200, 200, 200, 200, 200, 200, 200, 201]);
+    expect(answers.map((a) => a.status).sort()).toEqual([
+      200, 200, 200, 200, 200, 200, 200, 200, 200, 201,
+    ]);
     expect(await eventCount(orderId)).toBe(2);
   }, 90_000);
 
   it('take turns on one session, and every answer counts the events the other one stored', async () => {
     second ??= await startApiProcess(portB, 'api-b');
     const orderId = await readyCxlOrder(api!.url);
-    const nurse = await new FaultClient(api!.url).signIn('nurse@demo.luxtempo.example', demoPassword);
+    const nurse = await new FaultClient(api!.url).signIn(
+      'nurse@demo.luxtempo.example',
+      demoPassword,
+    );
     const taps = [
       at(0, { type: 'session-started', checks: allChecks }),
       at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
-      ...[180, 300, 420, 540, 660].map((s) => at(s, { type: 'drop-given', stepId: 'riboflavin-soak' })),
+      ...[180, 300, 420, 540, 660].map((s) =>
+        at(s, { type: 'drop-given', stepId: 'riboflavin-soak' }),
+      ),
     ];
     for (const [index, tap] of taps.entries()) {
       // Each process remembers the events it has seen; the other's writes must still be counted.
-      const answer = await nurse.call('POST', `/orders/${orderId}/session-events`, tap, index % 2 === 0 ? api!.url : second!.url);
+      const answer = await nurse.call(
+        'POST',
+        `/orders/${orderId}/session-events`,
+        tap,
+        index % 2 === 0 ? api!.url : second!.url,
+      );
       expect(answer.status).toBe(201);
       expect(answer.body.event.idempotencyKey).toBe(tap.idempotencyKey);
       expect(answer.body.eventCount).toBe(index + 1);
     }
     const state = await nurse.call('GET', `/orders/${orderId}/session`);
-    expect(state.body.events.map((e: { idempotencyKey: string }) => e.idempotencyKey)).toEqual(taps.map((t) => t.idempotencyKey));
+    expect(state.body.events.map((e: { idempotencyKey: string }) => e.idempotencyKey)).toEqual(
+      taps.map((t) => t.idempotencyKey),
+    );
   }, 90_000);
 });
 
 describe('when the database stops for 20 seconds', () => {
   it('the API answers 503 with a clear message meanwhile, and the queued events are all stored once it is back', async () => {
     const orderId = await readyCxlOrder(api!.url);
-    const nurse = await new FaultClient(api!.url).signIn('nurse@demo.luxtempo.example', demoPassword);
-    await nurse.call('POST', `/orders/${orderId}/session-events`, at(0, { type: 'session-started', checks: allChecks }));
-    const queue = [at(60, { type: 'step-started', stepId: 'riboflavin-soak' }), at(180, { type: 'drop-given', stepId: 'riboflavin-soak' }), at(300, { type: 'drop-given', stepId: 'riboflavin-soak' })];
+    const nurse = await new FaultClient(api!.url).signIn(
+      'nurse@demo.luxtempo.example',
+      demoPassword,
+    );
+    await nurse.call(
+      'POST',
+      `/orders/${orderId}/session-events`,
+      at(0, { type: 'session-started', checks: allChecks }),
+    );
+    const queue = [
+      at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
+      at(180, { type: 'drop-given', stepId: 'riboflavin-soak' }),
+      at(300, { type: 'drop-given', stepId: 'riboflavin-soak' }),
+    ];
 
     stopFaultDatabase();
     const downSince = Date.now();

@@ -22,13 +22,21 @@ afterAll(async () => {
 describe('the outbox', () => {
   it('keeps a message while the mail server is down, retries with growing waits, and delivers it once the server is back', async () => {
     const subject = `Luxtempo test message ${randomUUID()}`;
-    await enqueueMessage(ctx.dataSource.manager, { kind: 'test', recipients: ['ward@test.luxtempo.example'], subject, body: 'Hello from the outbox test.' });
+    await enqueueMessage(ctx.dataSource.manager, {
+      kind: 'test',
+      recipients: ['ward@test.luxtempo.example'],
+      subject,
+      body: 'Hello from the outbox test.',
+    });
     const mailer = createSmtpMailer(testConfig({ SMTP_PORT: String(smtpPort) }));
     // Other tests leave messages waiting too; one batch large enough takes them all in.
     const worker = createOutboxWorker(ctx.dataSource, mailer, { batchSize: 5000 });
 
     await worker.runOnce();
-    const [waiting] = await ctx.dataSource.query('SELECT status, attempts, last_error, next_attempt_at FROM outbox_message WHERE subject = ?', [subject]);
+    const [waiting] = await ctx.dataSource.query(
+      'SELECT status, attempts, last_error, next_attempt_at FROM outbox_message WHERE subject = ?',
+      [subject],
+    );
     expect(waiting.status).toBe('pending');
     expect(waiting.attempts).toBe(1);
     expect(waiting.last_error).toMatch(/ECONNREFUSED|connect/i);
@@ -36,19 +44,30 @@ describe('the outbox', () => {
 
     catcher = await ensureMailCatcher(smtpPort, webPort);
     // Skip the back-off wait rather than sleeping through it.
-    await ctx.dataSource.query('UPDATE outbox_message SET next_attempt_at = NOW(3) WHERE subject = ?', [subject]);
+    await ctx.dataSource.query(
+      'UPDATE outbox_message SET next_attempt_at = NOW(3) WHERE subject = ?',
+      [subject],
+    );
     await worker.runOnce();
-    const [sent] = await ctx.dataSource.query('SELECT status, attempts, sent_at FROM outbox_message WHERE subject = ?', [subject]);
+    const [sent] = await ctx.dataSource.query(
+      'SELECT status, attempts, sent_at FROM outbox_message WHERE subject = ?',
+      [subject],
+    );
     expect(sent).toMatchObject({ status: 'sent', attempts: 2 });
 
-    const inbox = (await (await fetch(`http://127.0.0.1:${webPort}/api/email`)).json()) as { subject: string; to: { address: string }[] }[];
+    const inbox = (await (await fetch(`http://127.0.0.1:${webPort}/api/email`)).json()) as {
+      subject: string;
+      to: { address: string }[];
+    }[];
     const delivered = inbox.filter((m) => m.subject === subject);
     expect(delivered).toHaveLength(1);
     expect(delivered[0]!.to[0]!.address).toBe('ward@test.luxtempo.example');
 
     // A second pass sends nothing again.
     await worker.runOnce();
-    const again = (await (await fetch(`http://127.0.0.1:${webPort}/api/email`)).json()) as { subject: string }[];
+    const again = (await (await fetch(`http://127.0.0.1:${webPort}/api/email`)).json()) as {
+      subject: string;
+    }[];
     expect(again.filter((m) => m.subject === subject)).toHaveLength(1);
     mailer.close();
   });

@@ -14,7 +14,10 @@ afterAll(async () => {
 const newEmail = () => `new-${randomUUID().slice(0, 8)}@test.luxtempo.example`;
 
 async function auditActions(entityId: number): Promise<string[]> {
-  const rows = await ctx.dataSource.query('SELECT action FROM audit_event WHERE entity_type = ? AND entity_id = ? ORDER BY id', ['user', String(entityId)]);
+  const rows = await ctx.dataSource.query(
+    'SELECT action FROM audit_event WHERE entity_type = ? AND entity_id = ? ORDER BY id',
+    ['user', String(entityId)],
+  );
   return rows.map((r: { action: string }) => r.action);
 }
 
@@ -41,20 +44,38 @@ describe('people administration', () => {
     const admin = await createTestPerson(ctx, ['admin']);
     const agent = await signedInAgent(ctx, admin);
     const email = newEmail();
-    const res = await agent.post('/api/people').send({ email, displayName: 'Ada Testperson', roles: ['nurse', 'auditor'], password: 'a-first-password-1' });
+    const res = await agent
+      .post('/api/people')
+      .send({
+        email,
+        displayName: 'Ada Testperson',
+        roles: ['nurse', 'auditor'],
+        password: 'a-first-password-1',
+      });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ passwordLink: 'sent' });
-    expect(res.body.person).toMatchObject({ email, roles: ['nurse', 'auditor'], active: true, accountReady: false });
+    expect(res.body.person).toMatchObject({
+      email,
+      roles: ['nurse', 'auditor'],
+      active: true,
+      accountReady: false,
+    });
     // A password sent along by an old client is ignored, never stored.
-    const login = await supertest(ctx.app).post('/api/auth/login').send({ email, password: 'a-first-password-1' });
+    const login = await supertest(ctx.app)
+      .post('/api/auth/login')
+      .send({ email, password: 'a-first-password-1' });
     expect(login.status).toBe(401);
-    expect(await auditActions(res.body.person.id)).toEqual(expect.arrayContaining(['person.created', 'person.password-link-sent']));
+    expect(await auditActions(res.body.person.id)).toEqual(
+      expect.arrayContaining(['person.created', 'person.password-link-sent']),
+    );
   });
 
   it('creating a person with bad fields is refused with 400 naming each field and its rule', async () => {
     const admin = await createTestPerson(ctx, ['admin']);
     const agent = await signedInAgent(ctx, admin);
-    const res = await agent.post('/api/people').send({ email: 'nope', displayName: 'A', roles: ['surgeon'] });
+    const res = await agent
+      .post('/api/people')
+      .send({ email: 'nope', displayName: 'A', roles: ['surgeon'] });
     expect(res.status).toBe(400);
     const paths = res.body.error.fields.map((f: { path: string }) => f.path);
     expect(paths).toEqual(expect.arrayContaining(['email', 'displayName', 'roles.0']));
@@ -63,7 +84,9 @@ describe('people administration', () => {
   it('an e-mail already in use is a 409', async () => {
     const admin = await createTestPerson(ctx, ['admin']);
     const agent = await signedInAgent(ctx, admin);
-    const res = await agent.post('/api/people').send({ email: admin.email, displayName: 'Someone Else', roles: ['nurse'] });
+    const res = await agent
+      .post('/api/people')
+      .send({ email: admin.email, displayName: 'Someone Else', roles: ['nurse'] });
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('email_taken');
   });
@@ -74,7 +97,9 @@ describe('people administration', () => {
     const adminAgent = await signedInAgent(ctx, admin);
     const otherAgent = await signedInAgent(ctx, other);
     expect((await otherAgent.get('/api/people')).status).toBe(403);
-    const res = await adminAgent.patch(`/api/people/${other.id}`).send({ roles: ['nurse', 'admin'] });
+    const res = await adminAgent
+      .patch(`/api/people/${other.id}`)
+      .send({ roles: ['nurse', 'admin'] });
     expect(res.status).toBe(200);
     expect(res.body.person.roles).toEqual(['nurse', 'admin']);
     expect((await otherAgent.get('/api/people')).status).toBe(200);
@@ -97,12 +122,28 @@ describe('people administration', () => {
     const off = await agent.patch(`/api/people/${other.id}`).send({ active: false });
     expect(off.status).toBe(200);
     expect(off.body.person.active).toBe(false);
-    expect((await supertest(ctx.app).post('/api/auth/login').send({ email: other.email, password: other.password })).status).toBe(401);
-    const listed = (await agent.get('/api/people')).body.people.find((p: { id: number }) => p.id === other.id);
+    expect(
+      (
+        await supertest(ctx.app)
+          .post('/api/auth/login')
+          .send({ email: other.email, password: other.password })
+      ).status,
+    ).toBe(401);
+    const listed = (await agent.get('/api/people')).body.people.find(
+      (p: { id: number }) => p.id === other.id,
+    );
     expect(listed).toMatchObject({ active: false, email: other.email });
     await agent.patch(`/api/people/${other.id}`).send({ active: true });
-    expect((await supertest(ctx.app).post('/api/auth/login').send({ email: other.email, password: other.password })).status).toBe(200);
-    expect(await auditActions(other.id)).toEqual(expect.arrayContaining(['person.deactivated', 'person.reactivated']));
+    expect(
+      (
+        await supertest(ctx.app)
+          .post('/api/auth/login')
+          .send({ email: other.email, password: other.password })
+      ).status,
+    ).toBe(200);
+    expect(await auditActions(other.id)).toEqual(
+      expect.arrayContaining(['person.deactivated', 'person.reactivated']),
+    );
   });
 
   it('changing a person who does not exist is a 404, and a bad id a 400 naming it', async () => {

@@ -76,8 +76,12 @@ const agents = new Map<Role, ReturnType<typeof supertest.agent>>();
 
 beforeAll(async () => {
   ctx = await startTestApp();
-  routes = (ctx.app.locals.routeTable as RouteSpec[]).map((r) => ({ ...r, key: `${r.method.toUpperCase()} /api${r.path}` }));
-  for (const role of all) agents.set(role, await signedInAgent(ctx, await createTestPerson(ctx, [role])));
+  routes = (ctx.app.locals.routeTable as RouteSpec[]).map((r) => ({
+    ...r,
+    key: `${r.method.toUpperCase()} /api${r.path}`,
+  }));
+  for (const role of all)
+    agents.set(role, await signedInAgent(ctx, await createTestPerson(ctx, [role])));
 });
 afterAll(async () => {
   await ctx.close();
@@ -88,7 +92,10 @@ function concrete(path: string): string {
   return `/api${path.replace(':id', '999999').replace(':key', 'pdt-standard').replace(':version', '1')}`;
 }
 
-async function call(agent: ReturnType<typeof supertest.agent> | ReturnType<typeof supertest>, route: RouteSpec) {
+async function call(
+  agent: ReturnType<typeof supertest.agent> | ReturnType<typeof supertest>,
+  route: RouteSpec,
+) {
   const url = concrete(route.path);
   const request = route.method === 'get' ? agent.get(url) : agent[route.method](url).send({});
   return (await request).status;
@@ -108,15 +115,20 @@ describe('the permission matrix', () => {
       if (route.key === 'POST /api/auth/logout') continue;
       const anonymous = await call(supertest(ctx.app), route);
       if (allowed === 'public') {
-        if (anonymous === 401 || anonymous === 403) mismatches.push(`${route.key} as nobody: ${anonymous}, expected open`);
+        if (anonymous === 401 || anonymous === 403)
+          mismatches.push(`${route.key} as nobody: ${anonymous}, expected open`);
         continue;
       }
       if (anonymous !== 401) mismatches.push(`${route.key} as nobody: ${anonymous}, expected 401`);
       for (const role of all) {
         const status = await call(agents.get(role)!, route);
         const through = status !== 401 && status !== 403;
-        if (allowed.includes(role) !== through) mismatches.push(`${route.key} as ${role}: ${status}, expected ${allowed.includes(role) ? 'through' : '403'}`);
-        if (!allowed.includes(role) && status !== 403) mismatches.push(`${route.key} as ${role}: ${status}, expected exactly 403`);
+        if (allowed.includes(role) !== through)
+          mismatches.push(
+            `${route.key} as ${role}: ${status}, expected ${allowed.includes(role) ? 'through' : '403'}`,
+          );
+        if (!allowed.includes(role) && status !== 403)
+          mismatches.push(`${route.key} as ${role}: ${status}, expected exactly 403`);
       }
     }
     expect(mismatches).toEqual([]);

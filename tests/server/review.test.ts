@@ -5,7 +5,14 @@ import { seedDemoData } from '../../server/demo/seed';
 import { seedVolume } from '../../server/demo/volume';
 import { createReviewRepository } from '../../server/review/repository';
 import { auditFilterSchema } from '../../shared/schemas/reviews';
-import { createTestPerson, preparedPdtOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
+import {
+  createTestPerson,
+  preparedPdtOrder,
+  signedInAgent,
+  startTestApp,
+  type TestContext,
+  type TestPerson,
+} from '../support/api';
 
 type Agent = ReturnType<typeof supertest.agent>;
 let ctx: TestContext;
@@ -25,7 +32,13 @@ afterAll(async () => {
   await ctx.close();
 });
 
-const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true };
+const allChecks = {
+  patientIdentity: true,
+  treatmentEye: true,
+  consent: true,
+  eyewear: true,
+  deviceSettings: true,
+};
 
 /**
  * A finished standard PDT session run by `nurse`, with the light `lightLateS` seconds late.
@@ -33,9 +46,17 @@ const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, ey
  */
 async function sessionWithLateLight(nurse: Agent, lightLateS: number): Promise<number> {
   // Made up an hour before: an infusion timed before the reconstitution is refused.
-  const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent }, 60);
+  const order = await preparedPdtOrder(
+    ctx,
+    { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent },
+    60,
+  );
   const t0 = Date.now() - 40 * 60_000;
-  const at = (s: number, e: object) => ({ idempotencyKey: randomUUID(), clientTime: new Date(t0 + s * 1000).toISOString(), ...e });
+  const at = (s: number, e: object) => ({
+    idempotencyKey: randomUUID(),
+    clientTime: new Date(t0 + s * 1000).toISOString(),
+    ...e,
+  });
   const light = 60 + 900 + lightLateS;
   for (const event of [
     at(0, { type: 'session-started', checks: allChecks }),
@@ -59,17 +80,47 @@ describe('the deviations queue', () => {
     const nurseAgent = await signedInAgent(ctx, nurse);
     const orderIds = [];
     for (const late of [180, 240, 300]) orderIds.push(await sessionWithLateLight(nurseAgent, late));
-    const page1 = await auditorAgent.get('/api/deviations').query({ staff: nurse.id, type: 'light-start-window', pageSize: 2, sort: 'detectedAt', direction: 'asc' });
+    const page1 = await auditorAgent
+      .get('/api/deviations')
+      .query({
+        staff: nurse.id,
+        type: 'light-start-window',
+        pageSize: 2,
+        sort: 'detectedAt',
+        direction: 'asc',
+      });
     expect(page1.status).toBe(200);
     expect(page1.body.total).toBe(3);
     expect(page1.body.deviations).toHaveLength(2);
-    expect(page1.body.deviations.map((d: { orderId: number }) => d.orderId)).toEqual(orderIds.slice(0, 2));
+    expect(page1.body.deviations.map((d: { orderId: number }) => d.orderId)).toEqual(
+      orderIds.slice(0, 2),
+    );
     // Light 15 min ± 1 min after infusion start (TAP Study Group, Arch Ophthalmol 1999; tolerance common practice).
-    expect(page1.body.deviations[0]).toMatchObject({ type: 'light-start-window', expected: 15, actual: 18, unit: 'min', protocolKey: 'pdt-standard', reviewStatus: 'open' });
+    expect(page1.body.deviations[0]).toMatchObject({
+      type: 'light-start-window',
+      expected: 15,
+      actual: 18,
+      unit: 'min',
+      protocolKey: 'pdt-standard',
+      reviewStatus: 'open',
+    });
     expect(page1.body.deviations[0].detectedAt).toMatch(/[+-]\d{2}:\d{2}$/);
-    const page2 = await auditorAgent.get('/api/deviations').query({ staff: nurse.id, type: 'light-start-window', pageSize: 2, page: 2, sort: 'detectedAt', direction: 'asc' });
-    expect(page2.body.deviations.map((d: { orderId: number }) => d.orderId)).toEqual(orderIds.slice(2));
-    const otherType = await auditorAgent.get('/api/deviations').query({ staff: nurse.id, type: 'soak-short' });
+    const page2 = await auditorAgent
+      .get('/api/deviations')
+      .query({
+        staff: nurse.id,
+        type: 'light-start-window',
+        pageSize: 2,
+        page: 2,
+        sort: 'detectedAt',
+        direction: 'asc',
+      });
+    expect(page2.body.deviations.map((d: { orderId: number }) => d.orderId)).toEqual(
+      orderIds.slice(2),
+    );
+    const otherType = await auditorAgent
+      .get('/api/deviations')
+      .query({ staff: nurse.id, type: 'soak-short' });
     expect(otherType.body.total).toBe(0);
     const bad = await auditorAgent.get('/api/deviations').query({ severity: 'terrible' });
     expect(bad.status).toBe(400);
@@ -86,24 +137,53 @@ describe('reviewing a deviation', () => {
   it('an auditor closes it with a classification and comment, reopens it, and the history keeps every step', async () => {
     const nurse = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
     const orderId = await sessionWithLateLight(nurse, 200);
-    const list = await auditorAgent.get('/api/deviations').query({ type: 'light-start-window', pageSize: 200 });
+    const list = await auditorAgent
+      .get('/api/deviations')
+      .query({ type: 'light-start-window', pageSize: 200 });
     const id = list.body.deviations.find((d: { orderId: number }) => d.orderId === orderId).id;
 
-    const noComment = await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'acceptable' });
+    const noComment = await auditorAgent
+      .post(`/api/deviations/${id}/closure`)
+      .send({ classification: 'acceptable' });
     expect(noComment.status).toBe(400);
     expect(noComment.body.error.fields[0].path).toBe('comment');
 
-    const closed = await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'acceptable', comment: 'Laser room delayed; within local policy.' });
+    const closed = await auditorAgent
+      .post(`/api/deviations/${id}/closure`)
+      .send({ classification: 'acceptable', comment: 'Laser room delayed; within local policy.' });
     expect(closed.status).toBe(200);
-    expect(closed.body.deviation).toMatchObject({ reviewStatus: 'closed', classification: 'acceptable' });
+    expect(closed.body.deviation).toMatchObject({
+      reviewStatus: 'closed',
+      classification: 'acceptable',
+    });
     expect((await clinicianAgent.get(`/api/orders/${orderId}`)).body.order.status).toBe('reviewed');
 
-    expect((await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'incident', comment: 'Second look.' })).status).toBe(409);
-    const reopened = await auditorAgent.post(`/api/deviations/${id}/reopening`).send({ comment: 'Pharmacy asks for a second look.' });
+    expect(
+      (
+        await auditorAgent
+          .post(`/api/deviations/${id}/closure`)
+          .send({ classification: 'incident', comment: 'Second look.' })
+      ).status,
+    ).toBe(409);
+    const reopened = await auditorAgent
+      .post(`/api/deviations/${id}/reopening`)
+      .send({ comment: 'Pharmacy asks for a second look.' });
     expect(reopened.body.deviation.reviewStatus).toBe('open');
-    expect((await clinicianAgent.get(`/api/orders/${orderId}`)).body.order.status).toBe('completed');
-    const again = await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'needs-follow-up', comment: 'Discuss scheduling at the unit meeting.' });
-    expect(again.body.history.map((h: { action: string; classification: string | null }) => [h.action, h.classification])).toEqual([
+    expect((await clinicianAgent.get(`/api/orders/${orderId}`)).body.order.status).toBe(
+      'completed',
+    );
+    const again = await auditorAgent
+      .post(`/api/deviations/${id}/closure`)
+      .send({
+        classification: 'needs-follow-up',
+        comment: 'Discuss scheduling at the unit meeting.',
+      });
+    expect(
+      again.body.history.map((h: { action: string; classification: string | null }) => [
+        h.action,
+        h.classification,
+      ]),
+    ).toEqual([
       ['closed', 'acceptable'],
       ['reopened', null],
       ['closed', 'needs-follow-up'],
@@ -118,7 +198,9 @@ describe('reviewing a deviation', () => {
     const id = list.body.deviations.find((d: { orderId: number }) => d.orderId === orderId).id;
     const detail = await agent.get(`/api/deviations/${id}`);
     expect(detail.body.canReview).toBe(false);
-    const res = await agent.post(`/api/deviations/${id}/closure`).send({ classification: 'acceptable', comment: 'Looks fine to me.' });
+    const res = await agent
+      .post(`/api/deviations/${id}/closure`)
+      .send({ classification: 'acceptable', comment: 'Looks fine to me.' });
     expect(res.status).toBe(403);
   });
 });
@@ -126,10 +208,18 @@ describe('reviewing a deviation', () => {
 describe('reviewing during a running session', () => {
   it('closing the last open deviation of a running session leaves it in session, and every later tap is stored', async () => {
     const nurse = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
-    const order = await preparedPdtOrder(ctx, { clinician: [clinicianAgent, clinician], pharmacist: pharmacistAgent });
+    const order = await preparedPdtOrder(ctx, {
+      clinician: [clinicianAgent, clinician],
+      pharmacist: pharmacistAgent,
+    });
     const t0 = Date.now() - 30 * 60_000;
-    const at = (s: number, e: object) => ({ idempotencyKey: randomUUID(), clientTime: new Date(t0 + s * 1000).toISOString(), ...e });
-    const send = (event: object) => nurse.post(`/api/orders/${order.id}/session-events`).send(event);
+    const at = (s: number, e: object) => ({
+      idempotencyKey: randomUUID(),
+      clientTime: new Date(t0 + s * 1000).toISOString(),
+      ...e,
+    });
+    const send = (event: object) =>
+      nurse.post(`/api/orders/${order.id}/session-events`).send(event);
     // Light 20 min after the infusion started, outside 15 ± 1 min (TAP Study Group, Arch Ophthalmol 1999;
     // the window's tolerance common practice): a deviation while the laser step runs.
     const light = 60 + 1200;
@@ -138,16 +228,27 @@ describe('reviewing during a running session', () => {
       at(60, { type: 'step-started', stepId: 'infusion' }),
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(light, { type: 'step-started', stepId: 'laser' }),
-    ]) expect((await send(event)).status).toBe(201);
-    const list = await auditorAgent.get('/api/deviations').query({ type: 'light-start-window', pageSize: 200 });
+    ])
+      expect((await send(event)).status).toBe(201);
+    const list = await auditorAgent
+      .get('/api/deviations')
+      .query({ type: 'light-start-window', pageSize: 200 });
     const deviation = list.body.deviations.find((d: { orderId: number }) => d.orderId === order.id);
     expect(deviation).toBeDefined();
 
-    const closed = await auditorAgent.post(`/api/deviations/${deviation.id}/closure`).send({ classification: 'acceptable', comment: 'Laser room was still being cleaned.' });
+    const closed = await auditorAgent
+      .post(`/api/deviations/${deviation.id}/closure`)
+      .send({ classification: 'acceptable', comment: 'Laser room was still being cleaned.' });
     expect(closed.status).toBe(200);
-    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('in-session');
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe(
+      'in-session',
+    );
 
-    const laterTaps = [at(light + 83, { type: 'step-ended', stepId: 'laser' }), at(light + 90, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }), at(light + 200, { type: 'session-completed' })];
+    const laterTaps = [
+      at(light + 83, { type: 'step-ended', stepId: 'laser' }),
+      at(light + 90, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }),
+      at(light + 200, { type: 'session-completed' }),
+    ];
     for (const tap of laterTaps) {
       const res = await send(tap);
       expect(res.status, JSON.stringify(res.body)).toBe(201);
@@ -155,25 +256,47 @@ describe('reviewing during a running session', () => {
     const state = await nurse.get(`/api/orders/${order.id}/session`);
     const storedKeys = state.body.events.map((e: { idempotencyKey: string }) => e.idempotencyKey);
     for (const tap of laterTaps) expect(storedKeys).toContain(tap.idempotencyKey);
-    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('completed');
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe(
+      'completed',
+    );
 
     // Ended, with nothing open: the next review settles it as reviewed.
-    const reopened = await auditorAgent.post(`/api/deviations/${deviation.id}/reopening`).send({ comment: 'Closed before the session ended; look again.' });
+    const reopened = await auditorAgent
+      .post(`/api/deviations/${deviation.id}/reopening`)
+      .send({ comment: 'Closed before the session ended; look again.' });
     expect(reopened.status).toBe(200);
-    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('completed');
-    await auditorAgent.post(`/api/deviations/${deviation.id}/closure`).send({ classification: 'acceptable', comment: 'Reviewed after the end.' });
-    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('reviewed');
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe(
+      'completed',
+    );
+    await auditorAgent
+      .post(`/api/deviations/${deviation.id}/closure`)
+      .send({ classification: 'acceptable', comment: 'Reviewed after the end.' });
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe(
+      'reviewed',
+    );
 
     // A tap from an offline queue, made before the end, still lands on a reviewed session; an
     // extravasation it reports is a new open deviation, so the session goes back to the queue.
     // Timed before the stored end, it is a queued tap and needs no late-entry reason (a tap timed
     // after the end would: sessions.test.ts 'tap times are bounded'). The nurse read the pump
     // (the whole 30 mL bag: TAP Study Group 1999) when recording it.
-    const late = await send(at(light + 150, { type: 'extravasation', note: 'Swelling at the cannula noted on paper, tablet was offline.', volumeInfusedMl: 30 }));
+    const late = await send(
+      at(light + 150, {
+        type: 'extravasation',
+        note: 'Swelling at the cannula noted on paper, tablet was offline.',
+        volumeInfusedMl: 30,
+      }),
+    );
     expect(late.status, JSON.stringify(late.body)).toBe(201);
-    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('completed');
-    const open = await auditorAgent.get('/api/deviations').query({ type: 'extravasation', pageSize: 200 });
-    expect(open.body.deviations.find((d: { orderId: number }) => d.orderId === order.id)).toMatchObject({ reviewStatus: 'open' });
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe(
+      'completed',
+    );
+    const open = await auditorAgent
+      .get('/api/deviations')
+      .query({ type: 'extravasation', pageSize: 200 });
+    expect(
+      open.body.deviations.find((d: { orderId: number }) => d.orderId === order.id),
+    ).toMatchObject({ reviewStatus: 'open' });
   });
 });
 
@@ -184,17 +307,32 @@ describe('the CSV export', () => {
     const list = await auditorAgent.get('/api/deviations').query({ staff: nurse.id });
     const id = list.body.deviations[0].id;
     const comment = 'Delayed, "laser room" busy,\nsee incident log';
-    await auditorAgent.post(`/api/deviations/${id}/closure`).send({ classification: 'needs-follow-up', comment });
-    const res = await auditorAgent.get('/api/exports/deviations.csv').query({ staff: nurse.id }).buffer(true);
+    await auditorAgent
+      .post(`/api/deviations/${id}/closure`)
+      .send({ classification: 'needs-follow-up', comment });
+    const res = await auditorAgent
+      .get('/api/exports/deviations.csv')
+      .query({ staff: nurse.id })
+      .buffer(true);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/text\/csv/);
     const text = res.text;
     const header = text.split('\r\n')[0]!;
-    expect(header).toBe('deviation_id,order_id,detected_at (ISO 8601),protocol,protocol_version,patient_record_number,eye,type,severity,expected,actual,unit,message,review_status,classification,reviewed_by,reviewed_at (ISO 8601),review_comment');
+    expect(header).toBe(
+      'deviation_id,order_id,detected_at (ISO 8601),protocol,protocol_version,patient_record_number,eye,type,severity,expected,actual,unit,message,review_status,classification,reviewed_by,reviewed_at (ISO 8601),review_comment',
+    );
     expect(text).toContain(`"${comment.replace(/"/g, '""')}"`);
-    expect(text).toMatch(new RegExp(`^${id},${orderId},\\d{4}-\\d{2}-\\d{2}T\\d{2}:\\d{2}:\\d{2}\\.\\d{3}[+-]\\d{2}:\\d{2},pdt-standard,1,`, 'm'));
+    expect(text).toMatch(
+      new RegExp(
+        `^${id},${orderId},\\d{4}-\\d{2}-\\d{2}T\\d{2}:\\d{2}:\\d{2}\\.\\d{3}[+-]\\d{2}:\\d{2},pdt-standard,1,`,
+        'm',
+      ),
+    );
 
-    const records = await auditorAgent.get('/api/exports/dose-records.csv').query({ staff: nurse.id }).buffer(true);
+    const records = await auditorAgent
+      .get('/api/exports/dose-records.csv')
+      .query({ staff: nurse.id })
+      .buffer(true);
     expect(records.text.split('\r\n')[0]).toContain('delivered_fluence (J/cm2)');
     // 6 mg/m² × 1.82 m² = 10.92 mg; 30 mL infused; 83 s at 600 mW/cm² = 49.8 J/cm² planned and
     // delivered (TAP Study Group, Arch Ophthalmol 1999; Mosteller RD, N Engl J Med 1987); one deviation.
@@ -210,8 +348,13 @@ describe('dose records and trends', () => {
     await sessionWithLateLight(agent, 300);
     const records = await auditorAgent.get('/api/dose-records').query({ staff: nurse.id });
     expect(records.body.total).toBe(2);
-    expect(records.body.records[0]).toMatchObject({ protocolKey: 'pdt-standard', outcome: 'completed' });
-    expect(records.body.records.map((r: { deviationCount: number }) => r.deviationCount).sort()).toEqual([0, 1]);
+    expect(records.body.records[0]).toMatchObject({
+      protocolKey: 'pdt-standard',
+      outcome: 'completed',
+    });
+    expect(
+      records.body.records.map((r: { deviationCount: number }) => r.deviationCount).sort(),
+    ).toEqual([0, 1]);
     const trends = await auditorAgent.get('/api/trends').query({ protocol: 'pdt-standard' });
     const month = trends.body.months.at(-1);
     expect(month.sessions).toBeGreaterThanOrEqual(2);
@@ -224,33 +367,56 @@ describe('the staff list for filters', () => {
     const nurse = await createTestPerson(ctx, ['nurse']);
     const res = await auditorAgent.get('/api/staff');
     expect(res.status).toBe(200);
-    expect(res.body.staff).toContainEqual({ id: nurse.id, displayName: 'Test nurse', roles: ['nurse'], active: true });
+    expect(res.body.staff).toContainEqual({
+      id: nurse.id,
+      displayName: 'Test nurse',
+      roles: ['nurse'],
+      active: true,
+    });
     expect(JSON.stringify(res.body)).not.toContain('@');
   });
 });
 
 describe('the audit trail', () => {
   it('shows who did what, filterable, to auditors', async () => {
-    const res = await auditorAgent.get('/api/audit-events').query({ action: 'order.signed', pageSize: 5 });
+    const res = await auditorAgent
+      .get('/api/audit-events')
+      .query({ action: 'order.signed', pageSize: 5 });
     expect(res.status).toBe(200);
     expect(res.body.events.length).toBeGreaterThan(0);
-    expect(res.body.events.every((e: { action: string }) => e.action === 'order.signed')).toBe(true);
+    expect(res.body.events.every((e: { action: string }) => e.action === 'order.signed')).toBe(
+      true,
+    );
     expect(res.body.events[0].occurredAt).toMatch(/[+-]\d{2}:\d{2}$/);
   });
 });
 
 describe('with 5,000 sessions loaded', () => {
-  it('the queue’s page query uses an index rather than reading the whole table', { timeout: 180_000 }, async () => {
-    await seedDemoData(ctx.dataSource);
-    await seedVolume(ctx.dataSource, 5000, { unitTimeZone: 'Europe/Lisbon', seed: 7 });
-    const repo = createReviewRepository(ctx.dataSource);
-    for (const query of [{}, { status: 'open' }, { protocol: 'cxl-standard' }, { type: 'light-start-window' }, { severity: 'major', sort: 'detectedAt' }]) {
-      const filter = auditFilterSchema.parse(query);
-      const [sql, params] = await repo.deviationPageSql(filter, {});
-      const plan: { table: string; type: string; key: string | null; rows: number }[] = await ctx.dataSource.query(`EXPLAIN ${sql}`, params);
-      const deviationRow = plan.find((p) => p.table === 'd')!;
-      expect({ query, type: deviationRow.type, key: deviationRow.key }).toMatchObject({ query, key: expect.stringMatching(/^(ix_deviation_|PRIMARY)/) });
-      expect(deviationRow.type).not.toBe('ALL');
-    }
-  });
+  it(
+    'the queue’s page query uses an index rather than reading the whole table',
+    { timeout: 180_000 },
+    async () => {
+      await seedDemoData(ctx.dataSource);
+      await seedVolume(ctx.dataSource, 5000, { unitTimeZone: 'Europe/Lisbon', seed: 7 });
+      const repo = createReviewRepository(ctx.dataSource);
+      for (const query of [
+        {},
+        { status: 'open' },
+        { protocol: 'cxl-standard' },
+        { type: 'light-start-window' },
+        { severity: 'major', sort: 'detectedAt' },
+      ]) {
+        const filter = auditFilterSchema.parse(query);
+        const [sql, params] = await repo.deviationPageSql(filter, {});
+        const plan: { table: string; type: string; key: string | null; rows: number }[] =
+          await ctx.dataSource.query(`EXPLAIN ${sql}`, params);
+        const deviationRow = plan.find((p) => p.table === 'd')!;
+        expect({ query, type: deviationRow.type, key: deviationRow.key }).toMatchObject({
+          query,
+          key: expect.stringMatching(/^(ix_deviation_|PRIMARY)/),
+        });
+        expect(deviationRow.type).not.toBe('ALL');
+      }
+    },
+  );
 });

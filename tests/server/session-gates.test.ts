@@ -2,14 +2,27 @@ import { randomUUID } from 'node:crypto';
 import supertest from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { formatUnitTime } from '../../shared/format/figures';
-import { createTestPatient, createTestPerson, cxlOrder, preparedPdtOrder, signOrder, signedInAgent, startTestApp, type TestContext, type TestPerson } from '../support/api';
+import {
+  createTestPatient,
+  createTestPerson,
+  cxlOrder,
+  preparedPdtOrder,
+  signOrder,
+  signedInAgent,
+  startTestApp,
+  type TestContext,
+  type TestPerson,
+} from '../support/api';
 
 // The session's safety gates (issue 11, gates 4–7), each tried as a hurried colleague would:
 // the unsafe tap is refused with the field named, nothing of it is stored, an audit row says
 // which rule refused it, and the safe path still works.
 
 type Agent = ReturnType<typeof supertest.agent>;
-type Refusal = { status: number; body: { error: { code: string; fields: { path: string; message: string }[] } } };
+type Refusal = {
+  status: number;
+  body: { error: { code: string; fields: { path: string; message: string }[] } };
+};
 
 /** The server's clock: real time plus an offset a test moves (the beyond-use time passes). */
 const serverClock = { offsetMs: 0 };
@@ -25,7 +38,10 @@ let nurseAgent: Agent;
 
 beforeAll(async () => {
   // A 5 s clock skew and a 1 h offline window: the unit configures both (README, Configuration).
-  ctx = await startTestApp({ TAP_CLOCK_SKEW_S: '5', TAP_OFFLINE_WINDOW_H: '1' }, { now: serverNow });
+  ctx = await startTestApp(
+    { TAP_CLOCK_SKEW_S: '5', TAP_OFFLINE_WINDOW_H: '1' },
+    { now: serverNow },
+  );
   clinician = await createTestPerson(ctx, ['clinician']);
   clinicianAgent = await signedInAgent(ctx, clinician);
   secondClinician = await createTestPerson(ctx, ['clinician']);
@@ -40,22 +56,41 @@ beforeEach(() => {
   serverClock.offsetMs = 0;
 });
 
-const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true };
-const team = () => ({ clinician: [clinicianAgent, clinician] as [Agent, TestPerson], pharmacist: pharmacistAgent });
+const allChecks = {
+  patientIdentity: true,
+  treatmentEye: true,
+  consent: true,
+  eyewear: true,
+  deviceSettings: true,
+};
+const team = () => ({
+  clinician: [clinicianAgent, clinician] as [Agent, TestPerson],
+  pharmacist: pharmacistAgent,
+});
 
 /** Events on a timeline that started `minutesAgo` minutes before the server's now. */
 function timeline(minutesAgo: number) {
   const t0 = serverNow() - minutesAgo * 60_000;
-  return (seconds: number, event: Record<string, unknown>) => ({ idempotencyKey: randomUUID(), clientTime: new Date(t0 + seconds * 1000).toISOString(), ...event });
+  return (seconds: number, event: Record<string, unknown>) => ({
+    idempotencyKey: randomUUID(),
+    clientTime: new Date(t0 + seconds * 1000).toISOString(),
+    ...event,
+  });
 }
-const tapNow = (event: Record<string, unknown>) => ({ idempotencyKey: randomUUID(), clientTime: new Date(serverNow()).toISOString(), ...event });
+const tapNow = (event: Record<string, unknown>) => ({
+  idempotencyKey: randomUUID(),
+  clientTime: new Date(serverNow()).toISOString(),
+  ...event,
+});
 
-const post = (orderId: number, event: object, agent: Agent = nurseAgent) => agent.post(`/api/orders/${orderId}/session-events`).send(event);
+const post = (orderId: number, event: object, agent: Agent = nurseAgent) =>
+  agent.post(`/api/orders/${orderId}/session-events`).send(event);
 
 async function postAll(orderId: number, events: object[], agent: Agent = nurseAgent) {
   for (const event of events) {
     const res = await post(orderId, event, agent);
-    if (res.status !== 201) throw new Error(`${JSON.stringify(event)} → ${res.status} ${JSON.stringify(res.body)}`);
+    if (res.status !== 201)
+      throw new Error(`${JSON.stringify(event)} → ${res.status} ${JSON.stringify(res.body)}`);
   }
 }
 
@@ -67,12 +102,20 @@ function refusedNaming(res: Refusal, field: string, status = 422): string {
 }
 
 async function storedKeys(orderId: number): Promise<string[]> {
-  const rows: { k: string }[] = await ctx.dataSource.query('SELECT idempotency_key AS k FROM session_event WHERE order_id = ?', [orderId]);
+  const rows: { k: string }[] = await ctx.dataSource.query(
+    'SELECT idempotency_key AS k FROM session_event WHERE order_id = ?',
+    [orderId],
+  );
   return rows.map((r) => r.k);
 }
 
-async function refusalAudits(orderId: number): Promise<{ rule: string; field: string; type: string }[]> {
-  const rows: { details: string | object }[] = await ctx.dataSource.query("SELECT details FROM audit_event WHERE action = 'session.tap-refused' AND entity_id = ? ORDER BY id", [String(orderId)]);
+async function refusalAudits(
+  orderId: number,
+): Promise<{ rule: string; field: string; type: string }[]> {
+  const rows: { details: string | object }[] = await ctx.dataSource.query(
+    "SELECT details FROM audit_event WHERE action = 'session.tap-refused' AND entity_id = ? ORDER BY id",
+    [String(orderId)],
+  );
   return rows.map((r) => (typeof r.details === 'string' ? JSON.parse(r.details) : r.details));
 }
 
@@ -96,20 +139,34 @@ describe('gate 4: the order of events', () => {
     expect(refusedNaming(refused, 'clientTime')).toMatch(/beyond-use time/);
     expect(refused.body.error.code).toBe('beyond_use');
     // The nurse reads the beyond-use time on the unit's clock (the test unit is in Europe/Lisbon), not in UTC.
-    expect(refused.body.error.message).toContain(`beyond-use time at ${formatUnitTime(order.preparation.beyondUseAt, 'Europe/Lisbon', 'sheet')}:`);
-    expect(refused.body.error.message).toMatch(/beyond-use time at [A-Z][a-z]+day \d{1,2} [A-Z][a-z]+ \d{4}, \d{2}:\d{2} WES?T:/);
+    expect(refused.body.error.message).toContain(
+      `beyond-use time at ${formatUnitTime(order.preparation.beyondUseAt, 'Europe/Lisbon', 'sheet')}:`,
+    );
+    expect(refused.body.error.message).toMatch(
+      /beyond-use time at [A-Z][a-z]+day \d{1,2} [A-Z][a-z]+ \d{4}, \d{2}:\d{2} WES?T:/,
+    );
     expect(await storedKeys(order.id)).toEqual([]);
-    expect(await refusalAudits(order.id)).toEqual([expect.objectContaining({ rule: 'beyond_use', field: 'clientTime', type: 'session-started' })]);
+    expect(await refusalAudits(order.id)).toEqual([
+      expect.objectContaining({ rule: 'beyond_use', field: 'clientTime', type: 'session-started' }),
+    ]);
 
     // Re-preparation: the order stays prepared, the new drug counts, the old one stays on record.
     const again = await remake(order.id, new Date(serverNow() - 60_000));
     expect(again.status, JSON.stringify(again.body)).toBe(201);
     expect(again.body.order.status).toBe('prepared');
-    const preparations = await ctx.dataSource.query('SELECT id FROM preparation WHERE order_id = ?', [order.id]);
+    const preparations = await ctx.dataSource.query(
+      'SELECT id FROM preparation WHERE order_id = ?',
+      [order.id],
+    );
     expect(preparations).toHaveLength(2);
-    const audit = await ctx.dataSource.query("SELECT id FROM audit_event WHERE action = 'order.re-prepared' AND entity_id = ?", [String(order.id)]);
+    const audit = await ctx.dataSource.query(
+      "SELECT id FROM audit_event WHERE action = 'order.re-prepared' AND entity_id = ?",
+      [String(order.id)],
+    );
     expect(audit).toHaveLength(1);
-    expect((await post(order.id, tapNow({ type: 'session-started', checks: allChecks }))).status).toBe(201);
+    expect(
+      (await post(order.id, tapNow({ type: 'session-started', checks: allChecks }))).status,
+    ).toBe(201);
   });
 
   it('a drug still within its beyond-use time is not made up again', async () => {
@@ -117,7 +174,9 @@ describe('gate 4: the order of events', () => {
     const res = await remake(order.id, new Date(serverNow() - 60_000));
     expect(res.status).toBe(409);
     expect(res.body.error.message).toMatch(/still within its beyond-use time/);
-    expect(await ctx.dataSource.query('SELECT id FROM preparation WHERE order_id = ?', [order.id])).toHaveLength(1);
+    expect(
+      await ctx.dataSource.query('SELECT id FROM preparation WHERE order_id = ?', [order.id]),
+    ).toHaveLength(1);
   });
 
   it('an infusion start after the beyond-use time is refused in a running session; made up again there, the infusion starts', async () => {
@@ -128,12 +187,16 @@ describe('gate 4: the order of events', () => {
 
     const refused = await post(order.id, infusion);
 
-    expect(refusedNaming(refused, 'clientTime')).toMatch(/beyond-use time .* for a infusion start|for a infusion start/);
+    expect(refusedNaming(refused, 'clientTime')).toMatch(
+      /beyond-use time .* for a infusion start|for a infusion start/,
+    );
     expect(await storedKeys(order.id)).not.toContain(infusion.idempotencyKey);
     const again = await remake(order.id, new Date(serverNow() - 60_000));
     expect(again.status, JSON.stringify(again.body)).toBe(201);
     expect(again.body.order.status).toBe('in-session');
-    expect((await post(order.id, tapNow({ type: 'step-started', stepId: 'infusion' }))).status).toBe(201);
+    expect(
+      (await post(order.id, tapNow({ type: 'step-started', stepId: 'infusion' }))).status,
+    ).toBe(201);
     // Once the infusion has started the drug was given: it is not made up again.
     serverClock.offsetMs += 5 * 3600_000;
     expect((await remake(order.id, new Date(serverNow() - 60_000))).status).toBe(409);
@@ -147,18 +210,27 @@ describe('gate 4: the order of events', () => {
 
     expect(refusedNaming(await post(order.id, early), 'clientTime')).toMatch(/reconstitution time/);
     expect(await storedKeys(order.id)).not.toContain(early.idempotencyKey);
-    expect((await post(order.id, at(360, { type: 'step-started', stepId: 'infusion' }))).status).toBe(201);
+    expect(
+      (await post(order.id, at(360, { type: 'step-started', stepId: 'infusion' }))).status,
+    ).toBe(201);
   });
 
   it('light with its infusion start withdrawn is a critical deviation; the precaution counts from the latest plausible time, on the sheet and in the e-mail', async () => {
-    const order = await preparedPdtOrder(ctx, team(), 60, { email: `patient-${randomUUID().slice(0, 8)}@demo.luxtempo.example`, emailConsent: true });
+    const order = await preparedPdtOrder(ctx, team(), 60, {
+      email: `patient-${randomUUID().slice(0, 8)}@demo.luxtempo.example`,
+      emailConsent: true,
+    });
     const at = timeline(30);
     const infusion = at(60, { type: 'step-started', stepId: 'infusion' });
     await postAll(order.id, [
       at(0, { type: 'session-started', checks: allChecks }),
       infusion,
       at(660, { type: 'step-ended', stepId: 'infusion' }),
-      at(670, { type: 'tap-withdrawn', withdrawnKey: infusion.idempotencyKey, reason: 'Tapped on the wrong patient’s tablet.' }),
+      at(670, {
+        type: 'tap-withdrawn',
+        withdrawnKey: infusion.idempotencyKey,
+        reason: 'Tapped on the wrong patient’s tablet.',
+      }),
       at(960, { type: 'step-started', stepId: 'laser' }),
       at(1043, { type: 'step-ended', stepId: 'laser' }),
       at(1050, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }),
@@ -166,7 +238,9 @@ describe('gate 4: the order of events', () => {
     const end = at(1100, { type: 'session-completed' });
     const completed = await post(order.id, end);
     expect(completed.status).toBe(201);
-    expect(completed.body.deviations.find((d: { type: string }) => d.type === 'light-without-infusion')).toMatchObject({ severity: 'critical' });
+    expect(
+      completed.body.deviations.find((d: { type: string }) => d.type === 'light-without-infusion'),
+    ).toMatchObject({ severity: 'critical' });
 
     const sheet = await nurseAgent.get(`/api/orders/${order.id}/discharge`);
     const precaution = sheet.body.discharge.precaution;
@@ -177,20 +251,34 @@ describe('gate 4: the order of events', () => {
     expect(precaution.note).toMatch(/No infusion start is on record/);
 
     expect((await nurseAgent.post(`/api/orders/${order.id}/discharge-email`)).status).toBe(202);
-    const [mail] = await ctx.dataSource.query("SELECT body FROM outbox_message WHERE kind = 'discharge-advice' AND related_id = ?", [String(order.id)]);
+    const [mail] = await ctx.dataSource.query(
+      "SELECT body FROM outbox_message WHERE kind = 'discharge-advice' AND related_id = ?",
+      [String(order.id)],
+    );
     expect(mail.body).toContain(`until ${precaution.endLocalText}`);
     expect(mail.body).toMatch(/No infusion start is on record/);
   });
 
   it('a PDT session stopped before any infusion still has its light-precaution paragraph on the sheet and in the e-mail', async () => {
-    const order = await preparedPdtOrder(ctx, team(), 60, { email: `patient-${randomUUID().slice(0, 8)}@demo.luxtempo.example`, emailConsent: true });
+    const order = await preparedPdtOrder(ctx, team(), 60, {
+      email: `patient-${randomUUID().slice(0, 8)}@demo.luxtempo.example`,
+      emailConsent: true,
+    });
     const at = timeline(10);
-    await postAll(order.id, [at(0, { type: 'session-started', checks: allChecks }), at(120, { type: 'session-stopped', reason: 'Cannula could not be placed.' })]);
+    await postAll(order.id, [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(120, { type: 'session-stopped', reason: 'Cannula could not be placed.' }),
+    ]);
     const sheet = await nurseAgent.get(`/api/orders/${order.id}/discharge`);
     expect(sheet.body.discharge.precaution).toMatchObject({ basis: 'latest-plausible', hours: 48 });
     expect((await nurseAgent.post(`/api/orders/${order.id}/discharge-email`)).status).toBe(202);
-    const [mail] = await ctx.dataSource.query("SELECT body FROM outbox_message WHERE kind = 'discharge-advice' AND related_id = ?", [String(order.id)]);
-    expect(mail.body).toMatch(/protect your skin and eyes from direct sunlight and bright indoor light until /);
+    const [mail] = await ctx.dataSource.query(
+      "SELECT body FROM outbox_message WHERE kind = 'discharge-advice' AND related_id = ?",
+      [String(order.id)],
+    );
+    expect(mail.body).toMatch(
+      /protect your skin and eyes from direct sunlight and bright indoor light until /,
+    );
   });
 });
 
@@ -198,11 +286,18 @@ describe('gate 5: tap times are bounded', () => {
   it('keeps the tablet’s time and the server’s receipt time, and lists receipt delays above a minute in the record', async () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(10);
-    await postAll(order.id, [at(0, { type: 'session-started', checks: allChecks }), at(570, { type: 'step-started', stepId: 'infusion' })]);
+    await postAll(order.id, [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(570, { type: 'step-started', stepId: 'infusion' }),
+    ]);
     const state = await nurseAgent.get(`/api/orders/${order.id}/session`);
     const [started] = state.body.events;
-    expect(Date.parse(started.serverTime) - Date.parse(started.clientTime)).toBeGreaterThan(590_000);
-    expect(state.body.record.receiptDelays).toEqual([expect.objectContaining({ type: 'session-started' })]);
+    expect(Date.parse(started.serverTime) - Date.parse(started.clientTime)).toBeGreaterThan(
+      590_000,
+    );
+    expect(state.body.record.receiptDelays).toEqual([
+      expect.objectContaining({ type: 'session-started' }),
+    ]);
     expect(state.body.record.receiptDelays[0].delayS).toBeGreaterThan(599);
   });
 
@@ -211,27 +306,46 @@ describe('gate 5: tap times are bounded', () => {
     const at = timeline(20);
     await postAll(order.id, [at(300, { type: 'session-started', checks: allChecks })]);
     const before = at(200, { type: 'step-started', stepId: 'confirm-patient' });
-    expect(refusedNaming(await post(order.id, before), 'clientTime', 400)).toMatch(/before the session started/);
+    expect(refusedNaming(await post(order.id, before), 'clientTime', 400)).toMatch(
+      /before the session started/,
+    );
     expect(await storedKeys(order.id)).not.toContain(before.idempotencyKey);
-    expect(await refusalAudits(order.id)).toEqual([expect.objectContaining({ rule: 'tap_before_session', field: 'clientTime' })]);
+    expect(await refusalAudits(order.id)).toEqual([
+      expect.objectContaining({ rule: 'tap_before_session', field: 'clientTime' }),
+    ]);
   });
 
   it('refuses a tap timed before the previous stored tap of the same step', async () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(20);
-    await postAll(order.id, [at(0, { type: 'session-started', checks: allChecks }), at(60, { type: 'step-started', stepId: 'infusion' }), at(660, { type: 'step-ended', stepId: 'infusion' })]);
+    await postAll(order.id, [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(60, { type: 'step-started', stepId: 'infusion' }),
+      at(660, { type: 'step-ended', stepId: 'infusion' }),
+    ]);
     const back = at(600, { type: 'step-started', stepId: 'infusion' });
-    expect(refusedNaming(await post(order.id, back), 'clientTime', 400)).toMatch(/previous stored tap of step infusion/);
+    expect(refusedNaming(await post(order.id, back), 'clientTime', 400)).toMatch(
+      /previous stored tap of step infusion/,
+    );
     expect(await storedKeys(order.id)).not.toContain(back.idempotencyKey);
     // Another step's tap at that time is fine (taps of different steps may arrive in any order).
-    expect((await post(order.id, at(600, { type: 'step-started', stepId: 'wait-for-light' }))).status).toBe(201);
+    expect(
+      (await post(order.id, at(600, { type: 'step-started', stepId: 'wait-for-light' }))).status,
+    ).toBe(201);
   });
 
   it('refuses a tap in the future beyond the configured skew, and takes one within it', async () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
-    const ahead = (s: number) => ({ idempotencyKey: randomUUID(), clientTime: new Date(serverNow() + s * 1000).toISOString(), type: 'session-started', checks: allChecks });
+    const ahead = (s: number) => ({
+      idempotencyKey: randomUUID(),
+      clientTime: new Date(serverNow() + s * 1000).toISOString(),
+      type: 'session-started',
+      checks: allChecks,
+    });
     const far = ahead(30);
-    expect(refusedNaming(await post(order.id, far), 'clientTime', 400)).toMatch(/more than 5 s \(TAP_CLOCK_SKEW_S\)/);
+    expect(refusedNaming(await post(order.id, far), 'clientTime', 400)).toMatch(
+      /more than 5 s \(TAP_CLOCK_SKEW_S\)/,
+    );
     expect(await storedKeys(order.id)).toEqual([]);
     expect((await post(order.id, ahead(2))).status).toBe(201);
   });
@@ -239,9 +353,14 @@ describe('gate 5: tap times are bounded', () => {
   it('refuses a tap older than the unit’s offline window', async () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const old = timeline(70)(0, { type: 'session-started', checks: allChecks });
-    expect(refusedNaming(await post(order.id, old), 'clientTime', 400)).toMatch(/last 1 h \(TAP_OFFLINE_WINDOW_H\)/);
+    expect(refusedNaming(await post(order.id, old), 'clientTime', 400)).toMatch(
+      /last 1 h \(TAP_OFFLINE_WINDOW_H\)/,
+    );
     expect(await storedKeys(order.id)).toEqual([]);
-    expect((await post(order.id, timeline(50)(0, { type: 'session-started', checks: allChecks }))).status).toBe(201);
+    expect(
+      (await post(order.id, timeline(50)(0, { type: 'session-started', checks: allChecks })))
+        .status,
+    ).toBe(201);
   });
 
   it('after the end: a queued tap made before it is taken; one timed after it needs a late-entry reason, and is shown as a late entry', async () => {
@@ -250,30 +369,71 @@ describe('gate 5: tap times are bounded', () => {
     await postAll(order.id, [
       at(0, { type: 'session-started', checks: allChecks }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
-      at(300, { type: 'session-stopped', reason: 'Patient felt faint; treatment abandoned.', volumeInfusedMl: 12 }),
+      at(300, {
+        type: 'session-stopped',
+        reason: 'Patient felt faint; treatment abandoned.',
+        volumeInfusedMl: 12,
+      }),
     ]);
     // The tablet was offline: a drop in the pre-stop queue arrives after the end.
-    expect((await post(order.id, at(250, { type: 'step-ended', stepId: 'infusion' }))).status).toBe(201);
+    expect((await post(order.id, at(250, { type: 'step-ended', stepId: 'infusion' }))).status).toBe(
+      201,
+    );
 
-    const after = at(900, { type: 'extravasation', note: 'Swelling at the cannula seen in recovery.', volumeInfusedMl: 12 });
+    const after = at(900, {
+      type: 'extravasation',
+      note: 'Swelling at the cannula seen in recovery.',
+      volumeInfusedMl: 12,
+    });
     expect(refusedNaming(await post(order.id, after), 'lateEntryReason')).toMatch(/late entry/);
     expect(await storedKeys(order.id)).not.toContain(after.idempotencyKey);
 
-    const late = await post(order.id, { ...after, lateEntryReason: 'Seen in recovery after the session was closed.' });
+    const late = await post(order.id, {
+      ...after,
+      lateEntryReason: 'Seen in recovery after the session was closed.',
+    });
     expect(late.status, JSON.stringify(late.body)).toBe(201);
-    expect(late.body.record.lateEntries).toEqual([expect.objectContaining({ type: 'extravasation', reason: 'Seen in recovery after the session was closed.' })]);
+    expect(late.body.record.lateEntries).toEqual([
+      expect.objectContaining({
+        type: 'extravasation',
+        reason: 'Seen in recovery after the session was closed.',
+      }),
+    ]);
     expect(late.body.deviations.map((d: { type: string }) => d.type)).toContain('extravasation');
-    const audit = await ctx.dataSource.query("SELECT details FROM audit_event WHERE action = 'session.extravasation' AND entity_id = ?", [String(order.id)]);
+    const audit = await ctx.dataSource.query(
+      "SELECT details FROM audit_event WHERE action = 'session.extravasation' AND entity_id = ?",
+      [String(order.id)],
+    );
     expect(JSON.stringify(audit[0].details)).toMatch(/lateEntryReason/);
     // A late entry cannot end a session again.
-    expect(refusedNaming(await post(order.id, at(960, { type: 'session-completed', lateEntryReason: 'Forgot to complete it.' })), 'lateEntryReason')).toMatch(/cannot start, end or withdraw/);
+    expect(
+      refusedNaming(
+        await post(
+          order.id,
+          at(960, { type: 'session-completed', lateEntryReason: 'Forgot to complete it.' }),
+        ),
+        'lateEntryReason',
+      ),
+    ).toMatch(/cannot start, end or withdraw/);
   });
 
   it('a late-entry reason on a tap of a running session is refused', async () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(10);
     await postAll(order.id, [at(0, { type: 'session-started', checks: allChecks })]);
-    expect(refusedNaming(await post(order.id, at(60, { type: 'step-started', stepId: 'infusion', lateEntryReason: 'Entered afterwards.' })), 'lateEntryReason')).toMatch(/session is running/);
+    expect(
+      refusedNaming(
+        await post(
+          order.id,
+          at(60, {
+            type: 'step-started',
+            stepId: 'infusion',
+            lateEntryReason: 'Entered afterwards.',
+          }),
+        ),
+        'lateEntryReason',
+      ),
+    ).toMatch(/session is running/);
   });
 });
 
@@ -290,7 +450,15 @@ describe('gate 6: UV below the minimum thickness needs a second person', () => {
         at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
         at(1860, { type: 'step-ended', stepId: 'riboflavin-soak' }),
         at(1860, { type: 'step-started', stepId: 'thickness-check' }),
-        ...(readingUm === null ? [] : [at(1900, { type: 'thickness-measured', stepId: 'thickness-check', thicknessUm: readingUm })]),
+        ...(readingUm === null
+          ? []
+          : [
+              at(1900, {
+                type: 'thickness-measured',
+                stepId: 'thickness-check',
+                thicknessUm: readingUm,
+              }),
+            ]),
       ],
       agent,
     );
@@ -304,60 +472,109 @@ describe('gate 6: UV below the minimum thickness needs a second person', () => {
       // 400 µm minimum stromal thickness before UV (Spoerl E et al. Cornea 2007).
       expect(refusedNaming(await post(order.id, uv), 'thicknessUm')).toMatch(/at least 400 µm/);
       expect(await storedKeys(order.id)).not.toContain(uv.idempotencyKey);
-      expect(await refusalAudits(order.id)).toEqual([expect.objectContaining({ rule: 'uv_below_minimum', field: 'thicknessUm' })]);
+      expect(await refusalAudits(order.id)).toEqual([
+        expect.objectContaining({ rule: 'uv_below_minimum', field: 'thicknessUm' }),
+      ]);
     }
   });
 
   it('a reading at the minimum lets UV start', async () => {
     const { order, at } = await atThicknessCheck(400);
-    expect((await post(order.id, at(1950, { type: 'step-started', stepId: 'uv-exposure' }))).status).toBe(201);
+    expect(
+      (await post(order.id, at(1950, { type: 'step-started', stepId: 'uv-exposure' }))).status,
+    ).toBe(201);
   });
 
   it('an override without a clinician, with a wrong password, by a non-clinician or by the nurse herself is refused and stores nothing', async () => {
     const { order, at } = await atThicknessCheck(380);
     const reason = 'Swelling not possible today; consultant decision recorded.';
-    const override = (extra: Record<string, unknown>) => at(1910, { type: 'thickness-override', reason, ...extra });
+    const override = (extra: Record<string, unknown>) =>
+      at(1910, { type: 'thickness-override', reason, ...extra });
     const nurseClinician = await createTestPerson(ctx, ['nurse', 'clinician']);
     const nurseClinicianAgent = await signedInAgent(ctx, nurseClinician);
     const attempts: [Record<string, unknown>, string, Agent][] = [
       [{}, 'authoriserEmail', nurseAgent],
       [{ authoriserEmail: secondClinician.email }, 'authoriserPassword', nurseAgent],
-      [{ authoriserEmail: secondClinician.email, authoriserPassword: 'not-their-password' }, 'authoriserPassword', nurseAgent],
-      [{ authoriserEmail: nurse.email, authoriserPassword: nurse.password }, 'authoriserEmail', nurseAgent],
-      [{ authoriserEmail: nurseClinician.email, authoriserPassword: nurseClinician.password }, 'authoriserEmail', nurseClinicianAgent],
+      [
+        { authoriserEmail: secondClinician.email, authoriserPassword: 'not-their-password' },
+        'authoriserPassword',
+        nurseAgent,
+      ],
+      [
+        { authoriserEmail: nurse.email, authoriserPassword: nurse.password },
+        'authoriserEmail',
+        nurseAgent,
+      ],
+      [
+        { authoriserEmail: nurseClinician.email, authoriserPassword: nurseClinician.password },
+        'authoriserEmail',
+        nurseClinicianAgent,
+      ],
     ];
     for (const [extra, field, agent] of attempts) {
       const tap = override(extra);
       refusedNaming(await post(order.id, tap, agent), field);
       expect(await storedKeys(order.id)).not.toContain(tap.idempotencyKey);
     }
-    expect((await refusalAudits(order.id)).map((a) => a.rule)).toEqual(['authoriser_required', 'authoriser_required', 'authoriser_refused', 'authoriser_not_clinician', 'authoriser_is_nurse']);
-    expect(refusedNaming(await post(order.id, at(1950, { type: 'step-started', stepId: 'uv-exposure' })), 'thicknessUm')).toMatch(/authorise/);
+    expect((await refusalAudits(order.id)).map((a) => a.rule)).toEqual([
+      'authoriser_required',
+      'authoriser_required',
+      'authoriser_refused',
+      'authoriser_not_clinician',
+      'authoriser_is_nurse',
+    ]);
+    expect(
+      refusedNaming(
+        await post(order.id, at(1950, { type: 'step-started', stepId: 'uv-exposure' })),
+        'thicknessUm',
+      ),
+    ).toMatch(/authorise/);
   });
 
   it('a clinician who nursed this session cannot authorise its override', async () => {
     const nurseClinician = await createTestPerson(ctx, ['nurse', 'clinician']);
     const { order, at } = await atThicknessCheck(380, await signedInAgent(ctx, nurseClinician));
-    const tap = at(1910, { type: 'thickness-override', reason: 'Swelling not possible today.', authoriserEmail: nurseClinician.email, authoriserPassword: nurseClinician.password });
+    const tap = at(1910, {
+      type: 'thickness-override',
+      reason: 'Swelling not possible today.',
+      authoriserEmail: nurseClinician.email,
+      authoriserPassword: nurseClinician.password,
+    });
     refusedNaming(await post(order.id, tap), 'authoriserEmail');
   });
 
   it('a clinician’s password authorises it: the event stores the authoriser, never the password, the audit names the clinician, and UV starts', async () => {
     const { order, at } = await atThicknessCheck(380);
-    const tap = at(1910, { type: 'thickness-override', reason: 'Swelling not possible today; consultant decision recorded.', authoriserEmail: secondClinician.email, authoriserPassword: secondClinician.password });
+    const tap = at(1910, {
+      type: 'thickness-override',
+      reason: 'Swelling not possible today; consultant decision recorded.',
+      authoriserEmail: secondClinician.email,
+      authoriserPassword: secondClinician.password,
+    });
     const res = await post(order.id, tap);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body.event).toMatchObject({ authorisedById: secondClinician.id, authoriserEmail: secondClinician.email });
+    expect(res.body.event).toMatchObject({
+      authorisedById: secondClinician.id,
+      authoriserEmail: secondClinician.email,
+    });
     expect(res.body.event.authoriserPassword).toBeUndefined();
-    const [row] = await ctx.dataSource.query('SELECT payload FROM session_event WHERE idempotency_key = ?', [tap.idempotencyKey]);
+    const [row] = await ctx.dataSource.query(
+      'SELECT payload FROM session_event WHERE idempotency_key = ?',
+      [tap.idempotencyKey],
+    );
     expect(JSON.stringify(row.payload)).not.toContain(secondClinician.password);
-    const audit = await ctx.dataSource.query("SELECT actor_user_id AS actor FROM audit_event WHERE action = 'session.thickness-override-authorised' AND entity_id = ?", [String(order.id)]);
+    const audit = await ctx.dataSource.query(
+      "SELECT actor_user_id AS actor FROM audit_event WHERE action = 'session.thickness-override-authorised' AND entity_id = ?",
+      [String(order.id)],
+    );
     expect(audit.map((a: { actor: number }) => Number(a.actor))).toEqual([secondClinician.id]);
     // The resend of the same tap needs no password again and stores nothing more.
     expect((await post(order.id, { ...tap, authoriserPassword: undefined })).status).toBe(200);
     const uv = await post(order.id, at(1950, { type: 'step-started', stepId: 'uv-exposure' }));
     expect(uv.status).toBe(201);
-    expect(uv.body.deviations.map((d: { type: string }) => d.type)).toEqual(expect.arrayContaining(['uv-below-thickness', 'thickness-override']));
+    expect(uv.body.deviations.map((d: { type: string }) => d.type)).toEqual(
+      expect.arrayContaining(['uv-below-thickness', 'thickness-override']),
+    );
   });
 });
 
@@ -365,13 +582,20 @@ describe('gate 7: what was given is recorded', () => {
   async function infusing(minutesAgo = 20) {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(minutesAgo);
-    await postAll(order.id, [at(0, { type: 'session-started', checks: allChecks }), at(60, { type: 'step-started', stepId: 'infusion' })]);
+    await postAll(order.id, [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(60, { type: 'step-started', stepId: 'infusion' }),
+    ]);
     return { order, at };
   }
 
   it('an extravasation without the volume infused, or above the planned final volume, is refused naming volumeInfusedMl', async () => {
     const { order, at } = await infusing();
-    for (const [extra, status] of [[{}, 422], [{ volumeInfusedMl: 30.5 }, 422], [{ volumeInfusedMl: -1 }, 400]] as const) {
+    for (const [extra, status] of [
+      [{}, 422],
+      [{ volumeInfusedMl: 30.5 }, 422],
+      [{ volumeInfusedMl: -1 }, 400],
+    ] as const) {
       const tap = at(300, { type: 'extravasation', ...extra });
       // 30 mL final volume (TAP Study Group, Arch Ophthalmol 1999).
       refusedNaming(await post(order.id, tap), 'volumeInfusedMl', status);
@@ -381,20 +605,35 @@ describe('gate 7: what was given is recorded', () => {
     expect(ok.status).toBe(201);
     // 170 cm, 70 kg → Mosteller 1.82 m² → 6 mg/m² = 10.92 mg in 30 mL (Mosteller 1987; TAP 1999):
     // 12 mL of the 30 mL carry 12/30 of it, 4.368 mg.
-    expect(ok.body.record).toMatchObject({ volumeGivenMl: 12, volumeGivenSource: 'entered', plannedDoseMg: 10.92 });
+    expect(ok.body.record).toMatchObject({
+      volumeGivenMl: 12,
+      volumeGivenSource: 'entered',
+      plannedDoseMg: 10.92,
+    });
     expect(ok.body.record.doseGivenMg).toBeCloseTo(4.368, 9);
-    expect(ok.body.deviations.find((d: { type: string }) => d.type === 'extravasation').message).toMatch(/read off the pump by the nurse\), about 4\.4 mg of 10\.92 mg/);
+    expect(
+      ok.body.deviations.find((d: { type: string }) => d.type === 'extravasation').message,
+    ).toMatch(/read off the pump by the nurse\), about 4\.4 mg of 10\.92 mg/);
   });
 
   it('a PDT stop after the infusion started needs the volume infused; the discharge sheet carries the milligrams given', async () => {
     const { order, at } = await infusing();
-    const bare = at(400, { type: 'session-stopped', reason: 'Patient felt faint; treatment abandoned.' });
+    const bare = at(400, {
+      type: 'session-stopped',
+      reason: 'Patient felt faint; treatment abandoned.',
+    });
     refusedNaming(await post(order.id, bare), 'volumeInfusedMl');
     expect(await storedKeys(order.id)).not.toContain(bare.idempotencyKey);
-    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe('in-session');
+    expect((await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.status).toBe(
+      'in-session',
+    );
     expect((await post(order.id, { ...bare, volumeInfusedMl: 21 })).status).toBe(201);
     const sheet = await nurseAgent.get(`/api/orders/${order.id}/discharge`);
-    expect(sheet.body.discharge.record).toMatchObject({ volumeGivenMl: 21, volumeGivenSource: 'entered', plannedDoseMg: 10.92 });
+    expect(sheet.body.discharge.record).toMatchObject({
+      volumeGivenMl: 21,
+      volumeGivenSource: 'entered',
+      plannedDoseMg: 10.92,
+    });
     // 21/30 of 10.92 mg (proportion; TAP 1999 30 mL final volume).
     expect(sheet.body.discharge.record.doseGivenMg).toBeCloseTo(7.644, 9);
   });
@@ -413,18 +652,34 @@ describe('gate 7: what was given is recorded', () => {
     const tooLong = at(1060, { type: 'exposure-recorded', stepId: 'laser', exposureS: 4000 });
     refusedNaming(await post(order.id, tooLong), 'exposureS', 400);
 
-    const entered = await post(order.id, at(1060, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83, energyJ: 3.5 }));
+    const entered = await post(
+      order.id,
+      at(1060, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83, energyJ: 3.5 }),
+    );
     expect(entered.status).toBe(201);
-    expect(entered.body.record).toMatchObject({ deviceExposureS: 83, deviceEnergyJ: 3.5, lightOnS: 90 });
+    expect(entered.body.record).toMatchObject({
+      deviceExposureS: 83,
+      deviceEnergyJ: 3.5,
+      lightOnS: 90,
+    });
     // 600 mW/cm² × 83 s = 49.8 J/cm² (TAP Study Group 1999): judged on the laser's figure, no deviation.
     expect(entered.body.record.deliveredFluenceJPerCm2).toBeCloseTo(49.8, 9);
-    expect((await post(order.id, done)).body.deviations.map((d: { type: string }) => d.type)).toEqual([]);
+    expect(
+      (await post(order.id, done)).body.deviations.map((d: { type: string }) => d.type),
+    ).toEqual([]);
   });
 
   it('a laser figure off the plan is the exposure deviation, whatever the taps say', async () => {
     const { order, at } = await infusing(30);
-    await postAll(order.id, [at(660, { type: 'step-ended', stepId: 'infusion' }), at(960, { type: 'step-started', stepId: 'laser' }), at(1043, { type: 'step-ended', stepId: 'laser' })]);
-    const res = await post(order.id, at(1050, { type: 'exposure-recorded', stepId: 'laser', exposureS: 70 }));
+    await postAll(order.id, [
+      at(660, { type: 'step-ended', stepId: 'infusion' }),
+      at(960, { type: 'step-started', stepId: 'laser' }),
+      at(1043, { type: 'step-ended', stepId: 'laser' }),
+    ]);
+    const res = await post(
+      order.id,
+      at(1050, { type: 'exposure-recorded', stepId: 'laser', exposureS: 70 }),
+    );
     // 83 s ± 2 s (TAP 1999; tolerance common practice); 70 s at 600 mW/cm² = 42 J/cm², 16 % under.
     const exposure = res.body.deviations.find((d: { type: string }) => d.type === 'exposure-time');
     expect(exposure).toMatchObject({ expected: 83, actual: 70, unit: 's' });
@@ -434,6 +689,9 @@ describe('gate 7: what was given is recorded', () => {
 
   it('an exposure before the light started is refused naming stepId', async () => {
     const { order, at } = await infusing();
-    refusedNaming(await post(order.id, at(300, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 })), 'stepId');
+    refusedNaming(
+      await post(order.id, at(300, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 })),
+      'stepId',
+    );
   });
 });

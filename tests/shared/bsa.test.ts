@@ -19,24 +19,31 @@ describe('body surface area', () => {
     expect(bsaM2).toBeCloseTo(expectedM2, 4);
   });
 
-  it.each(bsaFormulaNames)('%s grows with height at a fixed weight and with weight at a fixed height', (formula) => {
-    const heightCm = fc.double({ min: 100, max: 230, noNaN: true });
-    const weightKg = fc.double({ min: 25, max: 250, noNaN: true });
-    fc.assert(
-      fc.property(heightCm, heightCm, weightKg, (a, b, weight) => {
-        fc.pre(Math.abs(a - b) > 1e-6);
-        const [shorter, taller] = a < b ? [a, b] : [b, a];
+  it.each(bsaFormulaNames)(
+    '%s grows with height at a fixed weight and with weight at a fixed height',
+    (formula) => {
+      const heightCm = fc.double({ min: 100, max: 230, noNaN: true });
+      const weightKg = fc.double({ min: 25, max: 250, noNaN: true });
+      fc.assert(
+        fc.property(heightCm, heightCm, weightKg, (a, b, weight) => {
+          fc.pre(Math.abs(a - b) > 1e-6);
+          const [shorter, taller] = a < b ? [a, b] : [b, a];
 
-        expect(computeBsaM2(formula, taller, weight)).toBeGreaterThan(computeBsaM2(formula, shorter, weight));
-      }),
-    );
-    fc.assert(
-      fc.property(weightKg, weightKg, heightCm, (a, b, height) => {
-        fc.pre(Math.abs(a - b) > 1e-6);
-        const [lighter, heavier] = a < b ? [a, b] : [b, a];
+          expect(computeBsaM2(formula, taller, weight)).toBeGreaterThan(
+            computeBsaM2(formula, shorter, weight),
+          );
+        }),
+      );
+      fc.assert(
+        fc.property(weightKg, weightKg, heightCm, (a, b, height) => {
+          fc.pre(Math.abs(a - b) > 1e-6);
+          const [lighter, heavier] = a < b ? [a, b] : [b, a];
 
-        expect(computeBsaM2(formula, height, heavier)).toBeGreaterThan(computeBsaM2(formula, height, lighter));
-      }),
-    );
-  });
+          expect(computeBsaM2(formula, height, heavier)).toBeGreaterThan(
+            computeBsaM2(formula, height, lighter),
+          );
+        }),
+      );
+    },
+  );
 });

@@ -14,7 +14,8 @@ describe('canonical JSON', () => {
     const protocol = readProtocolJson('pdt-standard.v1.json') as Record<string, unknown>;
     const reordered = Object.fromEntries(Object.entries(protocol).reverse());
 
-    const hash = (value: unknown) => createHash('sha256').update(canonicalJson(value)).digest('hex');
+    const hash = (value: unknown) =>
+      createHash('sha256').update(canonicalJson(value)).digest('hex');
 
     expect(hash(reordered)).toBe(hash(protocol));
     expect(JSON.parse(canonicalJson(protocol))).toEqual(protocol);
@@ -29,7 +30,9 @@ describe('canonical JSON', () => {
   });
 
   it('leaves out undefined properties, as JSON does, and keeps strings escaped', () => {
-    expect(canonicalJson({ a: undefined, b: 'line\n"quoted"', c: 'µm' })).toBe('{"b":"line\\n\\"quoted\\"","c":"µm"}');
+    expect(canonicalJson({ a: undefined, b: 'line\n"quoted"', c: 'µm' })).toBe(
+      '{"b":"line\\n\\"quoted\\"","c":"µm"}',
+    );
   });
 
   it.each([

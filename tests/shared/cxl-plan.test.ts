@@ -73,13 +73,16 @@ describe('corneal cross-linking plans', () => {
     [400, 0.18],
     [350, 0.256],
     [300, 0.364],
-  ])('estimates %i µm of stroma leaves %f mW/cm² at the endothelium under 3 mW/cm²', (thicknessUm, expected) => {
-    // Spoerl E et al. Cornea 2007 (0.18 mW/cm² at 400 µm), Beer–Lambert by our own arithmetic.
-    const plan = computePlan(standard, { stromalThicknessUm: thicknessUm });
+  ])(
+    'estimates %i µm of stroma leaves %f mW/cm² at the endothelium under 3 mW/cm²',
+    (thicknessUm, expected) => {
+      // Spoerl E et al. Cornea 2007 (0.18 mW/cm² at 400 µm), Beer–Lambert by our own arithmetic.
+      const plan = computePlan(standard, { stromalThicknessUm: thicknessUm });
 
-    expect(plan.endothelialIrradianceMwPerCm2).toBe(expected);
-    expect(irradianceAtDepthMwPerCm2(3, thicknessUm)).toBeCloseTo(expected, 3);
-  });
+      expect(plan.endothelialIrradianceMwPerCm2).toBe(expected);
+      expect(irradianceAtDepthMwPerCm2(3, thicknessUm)).toBeCloseTo(expected, 3);
+    },
+  );
 
   it('labels the endothelial figures as an estimate that ignores riboflavin bleaching', () => {
     const plan = computePlan(standard, { stromalThicknessUm: 400 });
@@ -92,14 +95,20 @@ describe('corneal cross-linking plans', () => {
   });
 
   it('has a working line for every number it outputs, and one for the thickness check', () => {
-    const plan = computePlan(pulsed, { stromalThicknessUm: 450, height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' } });
+    const plan = computePlan(pulsed, {
+      stromalThicknessUm: 450,
+      height: { value: 170, unit: 'cm' },
+      weight: { value: 70, unit: 'kg' },
+    });
     const outputNames = Object.entries(plan)
       .filter(([, value]) => typeof value === 'number')
       .map(([name]) => name);
 
     const workedNames = new Set(plan.working.map((line) => line.name));
 
-    expect(outputNames).toEqual(expect.arrayContaining(['bsaM2', 'uvTimeS', 'uvElapsedS', 'endothelialDoseJPerCm2']));
+    expect(outputNames).toEqual(
+      expect.arrayContaining(['bsaM2', 'uvTimeS', 'uvElapsedS', 'endothelialDoseJPerCm2']),
+    );
     for (const name of outputNames) expect(workedNames, `working for ${name}`).toContain(name);
     expect(plan.working.find((line) => line.name === 'thicknessMarginUm')?.value).toBe(50);
   });
@@ -134,7 +143,11 @@ describe('corneal cross-linking plans', () => {
     // 3 × e^(−70.3 × 0.03) = 0.364 mW/cm² × 1800 s = 0.655 J/cm² (our arithmetic).
     const plan = computePlan(standard, { stromalThicknessUm: 300 });
 
-    expect(warningCodes(plan)).toEqual(['thickness-below-minimum', 'swelling-step-needed', 'endothelial-dose']);
+    expect(warningCodes(plan)).toEqual([
+      'thickness-below-minimum',
+      'swelling-step-needed',
+      'endothelial-dose',
+    ]);
     expect(plan.endothelialDoseJPerCm2).toBe(0.655);
   });
 
@@ -147,7 +160,9 @@ describe('corneal cross-linking plans', () => {
     expect(plan.warnings).toEqual([]);
     expect(plan.endothelialIrradianceMwPerCm2).toBeGreaterThan(0.35);
     expect(plan.endothelialDoseJPerCm2).toBeLessThan(0.65);
-    expect(plan.working.find((line) => line.name === 'endothelialIrradianceMwPerCm2')?.source).toMatch(/for information/);
+    expect(
+      plan.working.find((line) => line.name === 'endothelialIrradianceMwPerCm2')?.source,
+    ).toMatch(/for information/);
   });
 
   it('warns above 45 mW/cm², where reciprocity is reported to fail, and not at 45', () => {
@@ -162,7 +177,11 @@ describe('corneal cross-linking plans', () => {
 
   it('needs no height or weight, but records a BSA when both are given', () => {
     const without = computePlan(standard, { stromalThicknessUm: 450 });
-    const withBody = computePlan(standard, { stromalThicknessUm: 450, height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' } });
+    const withBody = computePlan(standard, {
+      stromalThicknessUm: 450,
+      height: { value: 170, unit: 'cm' },
+      weight: { value: 70, unit: 'kg' },
+    });
 
     expect(without.bsaM2).toBeNull();
     expect(without.bsaFormula).toBeNull();
@@ -173,15 +192,24 @@ describe('corneal cross-linking plans', () => {
 
   it('refuses a height without a weight, and PDT-only inputs', () => {
     try {
-      computePlan(standard, { stromalThicknessUm: 450, height: { value: 170, unit: 'cm' }, lesionGldUm: 2000 });
+      computePlan(standard, {
+        stromalThicknessUm: 450,
+        height: { value: 170, unit: 'cm' },
+        lesionGldUm: 2000,
+      });
       expect.unreachable('computePlan should refuse');
     } catch (error) {
       expect(error).toBeInstanceOf(PlanInputError);
-      expect((error as PlanInputError).fields.map((field) => field.path)).toEqual(['inputs.lesionGldUm', 'inputs.weight']);
+      expect((error as PlanInputError).fields.map((field) => field.path)).toEqual([
+        'inputs.lesionGldUm',
+        'inputs.weight',
+      ]);
     }
   });
 
   it('refuses a missing thickness, naming the range', () => {
-    expect(() => computePlan(standard, {})).toThrow('stromal thickness is required for a cxl protocol (allowed 200–800 µm)');
+    expect(() => computePlan(standard, {})).toThrow(
+      'stromal thickness is required for a cxl protocol (allowed 200–800 µm)',
+    );
   });
 });

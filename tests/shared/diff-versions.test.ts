@@ -1,11 +1,19 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { compareJson, compareProtocolVersions, diffProtocolVersions, flattenJson } from '../../shared/protocol/diff-versions';
+import {
+  compareJson,
+  compareProtocolVersions,
+  diffProtocolVersions,
+  flattenJson,
+} from '../../shared/protocol/diff-versions';
 import { copyOf, loadProtocol } from './support/shipped-protocols';
 
 describe('flattening a definition to JSON paths', () => {
   it('names object members with dots and array items by index', () => {
-    const leaves = flattenJson({ light: { irradianceMwPerCm2: 600, pulse: null }, steps: [{ id: 'a' }, { id: 'b', durationS: 83 }] });
+    const leaves = flattenJson({
+      light: { irradianceMwPerCm2: 600, pulse: null },
+      steps: [{ id: 'a' }, { id: 'b', durationS: 83 }],
+    });
 
     expect([...leaves.entries()]).toEqual([
       ['light.irradianceMwPerCm2', 600],
@@ -54,12 +62,17 @@ describe('the difference between two protocol versions', () => {
     const after = copyOf(before);
     after.light.exposureS = 84;
 
-    expect(diffProtocolVersions(before, after)).toEqual([{ path: 'light.exposureS', before: 83, after: 84, change: 'changed' }]);
+    expect(diffProtocolVersions(before, after)).toEqual([
+      { path: 'light.exposureS', before: 83, after: 84, change: 'changed' },
+    ]);
   });
 
   it('counts a change of wording as a change, and a number turned into text as a change', () => {
     const before = loadProtocol('pdt-standard');
-    const after = copyOf(before) as unknown as Record<string, unknown> & { cautions: string[]; retreatmentMinDays: unknown };
+    const after = copyOf(before) as unknown as Record<string, unknown> & {
+      cautions: string[];
+      retreatmentMinDays: unknown;
+    };
     after.cautions[0] = `${before.cautions[0]} Check the eyewear rating.`;
     after.retreatmentMinDays = '84';
 
@@ -74,17 +87,37 @@ describe('the difference between two protocol versions', () => {
   it('compares steps by index: a step added at the end is added, a step taken out of the middle shifts the rest', () => {
     const before = loadProtocol('pdt-standard');
     const appended = copyOf(before);
-    appended.steps.push({ id: 'review', kind: 'aftercare', title: 'Review the next day', durationS: null });
+    appended.steps.push({
+      id: 'review',
+      kind: 'aftercare',
+      title: 'Review the next day',
+      durationS: null,
+    });
 
     const added = diffProtocolVersions(before, appended);
     expect(added.every((d) => d.change === 'added' && d.path.startsWith('steps[5].'))).toBe(true);
-    expect(added.map((d) => d.path)).toEqual(['steps[5].id', 'steps[5].kind', 'steps[5].title', 'steps[5].durationS']);
+    expect(added.map((d) => d.path)).toEqual([
+      'steps[5].id',
+      'steps[5].kind',
+      'steps[5].title',
+      'steps[5].durationS',
+    ]);
 
     const shortened = copyOf(before);
     shortened.steps.splice(2, 1); // remove the wait step
     const differences = diffProtocolVersions(before, shortened);
-    expect(differences).toContainEqual({ path: 'steps[2].id', before: 'wait-for-light', after: 'laser', change: 'changed' });
-    expect(differences).toContainEqual({ path: 'steps[4].id', before: 'aftercare', after: undefined, change: 'removed' });
+    expect(differences).toContainEqual({
+      path: 'steps[2].id',
+      before: 'wait-for-light',
+      after: 'laser',
+      change: 'changed',
+    });
+    expect(differences).toContainEqual({
+      path: 'steps[4].id',
+      before: 'aftercare',
+      after: undefined,
+      change: 'removed',
+    });
   });
 
   it('shows an object replacing null as the null removed and each new member added', () => {
@@ -94,12 +127,24 @@ describe('the difference between two protocol versions', () => {
     expect(before.light.pulse).toBeNull();
     expect(after.light.pulse).not.toBeNull();
 
-    const pulse = diffProtocolVersions(before, after).filter((d) => d.path.startsWith('light.pulse'));
+    const pulse = diffProtocolVersions(before, after).filter((d) =>
+      d.path.startsWith('light.pulse'),
+    );
 
     expect(pulse).toEqual([
       { path: 'light.pulse', before: null, after: undefined, change: 'removed' },
-      { path: 'light.pulse.onS', before: undefined, after: after.light.pulse?.onS, change: 'added' },
-      { path: 'light.pulse.offS', before: undefined, after: after.light.pulse?.offS, change: 'added' },
+      {
+        path: 'light.pulse.onS',
+        before: undefined,
+        after: after.light.pulse?.onS,
+        change: 'added',
+      },
+      {
+        path: 'light.pulse.offS',
+        before: undefined,
+        after: after.light.pulse?.offS,
+        change: 'added',
+      },
     ]);
   });
 
@@ -137,19 +182,32 @@ describe('the difference between two protocol versions', () => {
       ['version', 'unchanged'],
       ['title', 'unchanged'],
     ]);
-    expect(rows.filter((r) => r.change !== 'unchanged')).toEqual(diffProtocolVersions(before, after));
+    expect(rows.filter((r) => r.change !== 'unchanged')).toEqual(
+      diffProtocolVersions(before, after),
+    );
   });
 
   it('places a path found only in the earlier version where it stood', () => {
     const rows = compareJson({ a: 1, gone: 2, c: 3 }, { a: 1, c: 3, fresh: 4 });
 
-    expect(rows.map((r) => `${r.path}:${r.change}`)).toEqual(['a:unchanged', 'gone:removed', 'c:unchanged', 'fresh:added']);
-    expect(compareJson({ a: 1, old: 2 }, { a: 1, new: 3 }).map((r) => `${r.path}:${r.change}`)).toEqual(['a:unchanged', 'old:removed', 'new:added']);
+    expect(rows.map((r) => `${r.path}:${r.change}`)).toEqual([
+      'a:unchanged',
+      'gone:removed',
+      'c:unchanged',
+      'fresh:added',
+    ]);
+    expect(
+      compareJson({ a: 1, old: 2 }, { a: 1, new: 3 }).map((r) => `${r.path}:${r.change}`),
+    ).toEqual(['a:unchanged', 'old:removed', 'new:added']);
   });
 
   it('tells an empty array from an empty object and from a missing value', () => {
-    expect(compareJson({ x: [] }, { x: {} })).toEqual([{ path: 'x', before: [], after: {}, change: 'changed' }]);
-    expect(compareJson({ x: [] }, { x: [] })).toEqual([{ path: 'x', before: [], after: [], change: 'unchanged' }]);
+    expect(compareJson({ x: [] }, { x: {} })).toEqual([
+      { path: 'x', before: [], after: {}, change: 'changed' },
+    ]);
+    expect(compareJson({ x: [] }, { x: [] })).toEqual([
+      { path: 'x', before: [], after: [], change: 'unchanged' },
+    ]);
     expect(compareJson({ x: null }, {})).toEqual([
       { path: 'x', before: null, after: undefined, change: 'removed' },
       { path: '$', before: undefined, after: {}, change: 'added' },
@@ -166,7 +224,9 @@ describe('the difference between two protocol versions', () => {
           if (row.change === 'removed') rebuilt.delete(row.path);
           else if (row.after !== undefined) rebuilt.set(row.path, row.after);
         }
-        expect(new Map([...rebuilt.entries()].sort())).toEqual(new Map([...flattenJson(b).entries()].sort()));
+        expect(new Map([...rebuilt.entries()].sort())).toEqual(
+          new Map([...flattenJson(b).entries()].sort()),
+        );
         // Every path appears once.
         expect(new Set(rows.map((r) => r.path)).size).toBe(rows.length);
       }),

@@ -13,7 +13,13 @@ const halfDoseV1 = loadProtocol('pdt-half-dose', 1);
 const halfDoseV2 = loadProtocol('pdt-half-dose', 2);
 
 function body(heightCm: number, weightKg: number): PlanInputs {
-  return { height: { value: heightCm, unit: 'cm' }, weight: { value: weightKg, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2000, lensMagnification: 1 };
+  return {
+    height: { value: heightCm, unit: 'cm' },
+    weight: { value: weightKg, unit: 'kg' },
+    bsaFormula: 'mosteller',
+    lesionGldUm: 2000,
+    lensMagnification: 1,
+  };
 }
 
 function line(plan: DosePlan, name: string) {
@@ -59,7 +65,12 @@ describe('the drawn volume delivers the dose', () => {
       caught = error;
     }
     expect(caught).toBeInstanceOf(PlanInputError);
-    expect((caught as PlanInputError).fields).toEqual([expect.objectContaining({ path: 'protocol', message: expect.stringMatching(/-1\.1%.*at most 1%/) })]);
+    expect((caught as PlanInputError).fields).toEqual([
+      expect.objectContaining({
+        path: 'protocol',
+        message: expect.stringMatching(/-1\.1%.*at most 1%/),
+      }),
+    ]);
     // The same patient on v2 (0.01 mL graduation) draws 2.73 mL = 5.46 mg exactly.
     expect(computePlan(halfDoseV2, body(170, 70)).drawnDoseDifferencePct).toBe(0);
     expect(maxDrawnDoseShiftPct).toBe(1);
@@ -94,7 +105,9 @@ describe('the drawn volume delivers the dose', () => {
     const result = protocolVersionSchema.safeParse(coarse);
 
     expect(result.success).toBe(false);
-    expect(result.error?.issues.map((issue) => issue.path.join('.'))).toContain('drug.syringeGraduationMl');
+    expect(result.error?.issues.map((issue) => issue.path.join('.'))).toContain(
+      'drug.syringeGraduationMl',
+    );
   });
 });
 
@@ -108,16 +121,26 @@ describe('the blind dose check accepts exact figures', () => {
     const tight = { bsaPct: 0.05, dosePct: 0.05, drugVolumePct: 0.05 };
 
     expect(doseCheckDiffering(plan, exact, tight)).toEqual([]);
-    expect(doseCheckDiffering({ ...plan, working: [] }, exact, tight)).toEqual(['bsaM2', 'doseMg', 'drugVolumeMl']);
-    expect(doseCheckDiffering(plan, { ...exact, drugVolumeMl: 5.6 }, tight)).toEqual(['drugVolumeMl']);
+    expect(doseCheckDiffering({ ...plan, working: [] }, exact, tight)).toEqual([
+      'bsaM2',
+      'doseMg',
+      'drugVolumeMl',
+    ]);
+    expect(doseCheckDiffering(plan, { ...exact, drugVolumeMl: 5.6 }, tight)).toEqual([
+      'drugVolumeMl',
+    ]);
   });
 
   it('still matches the plan’s rounded figures and refuses a figure outside the protocol tolerance', () => {
     const plan = computePlan(standardV2, body(170, 70));
     const tolerance = standardV2.tolerances.doseCheck!;
 
-    expect(doseCheckDiffering(plan, { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 }, tolerance)).toEqual([]);
+    expect(
+      doseCheckDiffering(plan, { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 }, tolerance),
+    ).toEqual([]);
     // 2% (site default, common practice) of 10.92 mg is 0.22 mg: 11.3 mg is outside every reference.
-    expect(doseCheckDiffering(plan, { bsaM2: 1.82, doseMg: 11.3, drugVolumeMl: 5.46 }, tolerance)).toEqual(['doseMg']);
+    expect(
+      doseCheckDiffering(plan, { bsaM2: 1.82, doseMg: 11.3, drugVolumeMl: 5.46 }, tolerance),
+    ).toEqual(['doseMg']);
   });
 });

@@ -74,7 +74,9 @@ describe('a duration in words, as records, sheets and e-mails print it', () => {
     expect(formatDuration(59, 'seconds-and-words')).toBe('59 s');
     expect(formatDuration(83, 'seconds-and-words')).toBe('83 s (1 min 23 s)');
     expect(formatDuration(83.25, 'seconds-and-words')).toBe('83.25 s (1 min 23 s)');
-    expect(formatDuration(545.454545, 'seconds-and-words', { maxDecimals: 6 })).toBe('545.454545 s (9 min 5 s)');
+    expect(formatDuration(545.454545, 'seconds-and-words', { maxDecimals: 6 })).toBe(
+      '545.454545 s (9 min 5 s)',
+    );
   });
 
   it('a negative, missing or non-numeric duration prints as a dash, never as 0 or "NaN"', () => {
@@ -114,14 +116,22 @@ describe('a number with its unit', () => {
 
 describe('a moment on the unit clock, with the zone’s short name', () => {
   it('names WEST on the Saturday before the autumn change in Lisbon and WET on the Sunday after it', () => {
-    expect(formatUnitTime('2026-10-24T13:05:00Z', 'Europe/Lisbon', 'sheet')).toBe('Saturday 24 October 2026, 14:05 WEST');
-    expect(formatUnitTime('2026-10-25T14:05:00Z', 'Europe/Lisbon', 'sheet')).toBe('Sunday 25 October 2026, 14:05 WET');
+    expect(formatUnitTime('2026-10-24T13:05:00Z', 'Europe/Lisbon', 'sheet')).toBe(
+      'Saturday 24 October 2026, 14:05 WEST',
+    );
+    expect(formatUnitTime('2026-10-25T14:05:00Z', 'Europe/Lisbon', 'sheet')).toBe(
+      'Sunday 25 October 2026, 14:05 WET',
+    );
   });
 
   it('prints a December afternoon in Lisbon short or for a sheet, whatever offset the instant was written with', () => {
-    expect(formatUnitTime('2026-12-03T14:05:00Z', 'Europe/Lisbon', 'sheet')).toBe('Thursday 3 December 2026, 14:05 WET');
+    expect(formatUnitTime('2026-12-03T14:05:00Z', 'Europe/Lisbon', 'sheet')).toBe(
+      'Thursday 3 December 2026, 14:05 WET',
+    );
     expect(formatUnitTime('2026-12-03T15:05:00+01:00', 'Europe/Lisbon', 'short')).toBe('14:05 WET');
-    expect(formatUnitTime('2026-12-03T23:30:00Z', 'Europe/Lisbon', 'day')).toBe('Thursday 3 December 2026');
+    expect(formatUnitTime('2026-12-03T23:30:00Z', 'Europe/Lisbon', 'day')).toBe(
+      'Thursday 3 December 2026',
+    );
   });
 
   it('names an American zone by its US abbreviation', () => {

@@ -19,7 +19,11 @@ function required(limit: InputLimit | null, what: string): InputLimit {
 /** Any value inside the hard range; the narrowing keeps a converted value off the exact edge. */
 function inside(limit: InputLimit, divisor = 1) {
   const edge = divisor === 1 ? 0 : 1e-9;
-  return fc.double({ min: (limit.hard.min / divisor) * (1 + edge), max: (limit.hard.max / divisor) * (1 - edge), noNaN: true });
+  return fc.double({
+    min: (limit.hard.min / divisor) * (1 + edge),
+    max: (limit.hard.max / divisor) * (1 - edge),
+    noNaN: true,
+  });
 }
 
 function outside(limit: InputLimit) {
@@ -40,7 +44,13 @@ function validInputs(protocol: ProtocolVersion): fc.Arbitrary<PlanInputs> {
     inside(weightKg).map((value) => ({ value, unit: 'kg' as const })),
     inside(weightKg, 0.45359237).map((value) => ({ value, unit: 'lb' as const })),
   );
-  const bsaFormula = fc.constantFrom('mosteller', 'du-bois', 'haycock', 'gehan-george', 'boyd' as const);
+  const bsaFormula = fc.constantFrom(
+    'mosteller',
+    'du-bois',
+    'haycock',
+    'gehan-george',
+    'boyd' as const,
+  );
   if (protocol.kind === 'pdt') {
     return fc.record({
       height,
@@ -50,10 +60,17 @@ function validInputs(protocol: ProtocolVersion): fc.Arbitrary<PlanInputs> {
       lensMagnification: inside(required(protocol.inputLimits.lensMagnification, 'lens')),
     });
   }
-  return fc.record(
-    { height, weight, bsaFormula, stromalThicknessUm: inside(required(protocol.inputLimits.stromalThicknessUm, 'thickness')) },
-    { requiredKeys: ['stromalThicknessUm'] },
-  ).filter((inputs) => (inputs.height === undefined) === (inputs.weight === undefined));
+  return fc
+    .record(
+      {
+        height,
+        weight,
+        bsaFormula,
+        stromalThicknessUm: inside(required(protocol.inputLimits.stromalThicknessUm, 'thickness')),
+      },
+      { requiredKeys: ['stromalThicknessUm'] },
+    )
+    .filter((inputs) => (inputs.height === undefined) === (inputs.weight === undefined));
 }
 
 /**
@@ -66,7 +83,13 @@ function planOrDrawnVolumeRefusal(protocol: ProtocolVersion, inputs: PlanInputs)
   try {
     return computePlan(protocol, inputs);
   } catch (error) {
-    if (protocol.drug !== null && protocol.drug.syringeGraduationMl === undefined && error instanceof PlanInputError && error.fields.every((f) => f.path === 'protocol')) return null;
+    if (
+      protocol.drug !== null &&
+      protocol.drug.syringeGraduationMl === undefined &&
+      error instanceof PlanInputError &&
+      error.fields.every((f) => f.path === 'protocol')
+    )
+      return null;
     throw error;
   }
 }
@@ -80,66 +103,129 @@ interface LimitedField {
 }
 
 function limitedFields(protocol: ProtocolVersion): LimitedField[] {
-  const { heightCm, weightKg, lesionGldUm, lensMagnification, stromalThicknessUm } = protocol.inputLimits;
+  const { heightCm, weightKg, lesionGldUm, lensMagnification, stromalThicknessUm } =
+    protocol.inputLimits;
   const fields: LimitedField[] = [];
   fields.push(
-      { path: 'inputs.height.value', label: 'height', unit: ' cm', limit: heightCm, place: (inputs, value) => ({ ...inputs, height: { value, unit: 'cm' }, weight: inputs.weight ?? { value: 70, unit: 'kg' } }) },
-      { path: 'inputs.weight.value', label: 'weight', unit: ' kg', limit: weightKg, place: (inputs, value) => ({ ...inputs, weight: { value, unit: 'kg' }, height: inputs.height ?? { value: 170, unit: 'cm' } }) },
+    {
+      path: 'inputs.height.value',
+      label: 'height',
+      unit: ' cm',
+      limit: heightCm,
+      place: (inputs, value) => ({
+        ...inputs,
+        height: { value, unit: 'cm' },
+        weight: inputs.weight ?? { value: 70, unit: 'kg' },
+      }),
+    },
+    {
+      path: 'inputs.weight.value',
+      label: 'weight',
+      unit: ' kg',
+      limit: weightKg,
+      place: (inputs, value) => ({
+        ...inputs,
+        weight: { value, unit: 'kg' },
+        height: inputs.height ?? { value: 170, unit: 'cm' },
+      }),
+    },
   );
-  if (lesionGldUm) fields.push({ path: 'inputs.lesionGldUm', label: 'lesion GLD', unit: ' µm', limit: lesionGldUm, place: (inputs, value) => ({ ...inputs, lesionGldUm: value }) });
-  if (lensMagnification) fields.push({ path: 'inputs.lensMagnification', label: 'lens magnification factor', unit: '', limit: lensMagnification, place: (inputs, value) => ({ ...inputs, lensMagnification: value }) });
-  if (stromalThicknessUm) fields.push({ path: 'inputs.stromalThicknessUm', label: 'stromal thickness', unit: ' µm', limit: stromalThicknessUm, place: (inputs, value) => ({ ...inputs, stromalThicknessUm: value }) });
+  if (lesionGldUm)
+    fields.push({
+      path: 'inputs.lesionGldUm',
+      label: 'lesion GLD',
+      unit: ' µm',
+      limit: lesionGldUm,
+      place: (inputs, value) => ({ ...inputs, lesionGldUm: value }),
+    });
+  if (lensMagnification)
+    fields.push({
+      path: 'inputs.lensMagnification',
+      label: 'lens magnification factor',
+      unit: '',
+      limit: lensMagnification,
+      place: (inputs, value) => ({ ...inputs, lensMagnification: value }),
+    });
+  if (stromalThicknessUm)
+    fields.push({
+      path: 'inputs.stromalThicknessUm',
+      label: 'stromal thickness',
+      unit: ' µm',
+      limit: stromalThicknessUm,
+      place: (inputs, value) => ({ ...inputs, stromalThicknessUm: value }),
+    });
   return fields;
 }
 
-describe.each(protocols.map((protocol) => [protocol.key, protocol] as const))('input limits of %s', (_key, protocol) => {
-  it('computes a plan of finite numbers for every input inside the hard ranges, in any unit', () => {
-    fc.assert(
-      fc.property(validInputs(protocol), (inputs) => {
-        const plan = planOrDrawnVolumeRefusal(protocol, inputs);
-        if (plan === null) return;
+describe.each(protocols.map((protocol) => [protocol.key, protocol] as const))(
+  'input limits of %s',
+  (_key, protocol) => {
+    it('computes a plan of finite numbers for every input inside the hard ranges, in any unit', () => {
+      fc.assert(
+        fc.property(validInputs(protocol), (inputs) => {
+          const plan = planOrDrawnVolumeRefusal(protocol, inputs);
+          if (plan === null) return;
 
-        for (const [name, value] of Object.entries(plan)) {
-          // The drawn dose's difference from the prescribed dose is signed; its size is checked below.
-          if (name === 'drawnDoseDifferencePct') continue;
-          if (typeof value === 'number') expect(Number.isFinite(value) && value >= 0, `${name} = ${value}`).toBe(true);
-        }
-        if (plan.drawnDoseDifferencePct !== null) expect(Math.abs(plan.drawnDoseDifferencePct)).toBeLessThanOrEqual(1);
-      }),
-      { numRuns: 60 },
+          for (const [name, value] of Object.entries(plan)) {
+            // The drawn dose's difference from the prescribed dose is signed; its size is checked below.
+            if (name === 'drawnDoseDifferencePct') continue;
+            if (typeof value === 'number')
+              expect(Number.isFinite(value) && value >= 0, `${name} = ${value}`).toBe(true);
+          }
+          if (plan.drawnDoseDifferencePct !== null)
+            expect(Math.abs(plan.drawnDoseDifferencePct)).toBeLessThanOrEqual(1);
+        }),
+        { numRuns: 60 },
+      );
+    });
+
+    it.each(limitedFields(protocol).map((field) => [field.path, field] as const))(
+      'refuses %s outside its hard range, naming the field and range',
+      (_path, field) => {
+        fc.assert(
+          fc.property(validInputs(protocol), outside(field.limit), (inputs, value) => {
+            let caught: unknown;
+            try {
+              computePlan(protocol, field.place(inputs, value));
+            } catch (error) {
+              caught = error;
+            }
+
+            expect(caught).toBeInstanceOf(PlanInputError);
+            const problems = (caught as PlanInputError).fields;
+            expect(problems.map((problem) => problem.path)).toEqual([field.path]);
+            expect(problems[0]?.message).toContain(
+              `${field.label} must be between ${field.limit.hard.min} and ${field.limit.hard.max}${field.unit}`,
+            );
+          }),
+          { numRuns: 30 },
+        );
+      },
     );
-  });
 
-  it.each(limitedFields(protocol).map((field) => [field.path, field] as const))('refuses %s outside its hard range, naming the field and range', (_path, field) => {
-    fc.assert(
-      fc.property(validInputs(protocol), outside(field.limit), (inputs, value) => {
-        let caught: unknown;
-        try {
-          computePlan(protocol, field.place(inputs, value));
-        } catch (error) {
-          caught = error;
-        }
+    it('warns, and does not refuse, for a value between the soft and hard limits', () => {
+      const [field] = limitedFields(protocol);
+      if (!field) throw new Error('no limited field');
+      fc.assert(
+        fc.property(
+          validInputs(protocol),
+          fc.double({
+            min: field.limit.hard.min,
+            max: field.limit.soft.min,
+            maxExcluded: true,
+            noNaN: true,
+          }),
+          (inputs, value) => {
+            const plan = planOrDrawnVolumeRefusal(protocol, field.place(inputs, value));
+            if (plan === null) return;
 
-        expect(caught).toBeInstanceOf(PlanInputError);
-        const problems = (caught as PlanInputError).fields;
-        expect(problems.map((problem) => problem.path)).toEqual([field.path]);
-        expect(problems[0]?.message).toContain(`${field.label} must be between ${field.limit.hard.min} and ${field.limit.hard.max}${field.unit}`);
-      }),
-      { numRuns: 30 },
-    );
-  });
-
-  it('warns, and does not refuse, for a value between the soft and hard limits', () => {
-    const [field] = limitedFields(protocol);
-    if (!field) throw new Error('no limited field');
-    fc.assert(
-      fc.property(validInputs(protocol), fc.double({ min: field.limit.hard.min, max: field.limit.soft.min, maxExcluded: true, noNaN: true }), (inputs, value) => {
-        const plan = planOrDrawnVolumeRefusal(protocol, field.place(inputs, value));
-        if (plan === null) return;
-
-        expect(plan.warnings).toContainEqual(expect.objectContaining({ code: 'soft-limit', field: field.path }));
-      }),
-      { numRuns: 30 },
-    );
-  });
-});
+            expect(plan.warnings).toContainEqual(
+              expect.objectContaining({ code: 'soft-limit', field: field.path }),
+            );
+          },
+        ),
+        { numRuns: 30 },
+      );
+    });
+  },
+);

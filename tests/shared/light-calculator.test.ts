@@ -14,14 +14,19 @@ function inputErrorOf(run: () => unknown): PlanInputError {
   throw new Error('expected a PlanInputError');
 }
 
-function pick(source: Record<LightField, number>, fields: readonly LightField[]): LightCalculationRequest {
+function pick(
+  source: Record<LightField, number>,
+  fields: readonly LightField[],
+): LightCalculationRequest {
   return Object.fromEntries(fields.map((field) => [field, source[field]]));
 }
 
 function triples(): LightField[][] {
   const result: LightField[][] = [];
   lightFields.forEach((a, i) =>
-    lightFields.slice(i + 1).forEach((b, j) => lightFields.slice(i + j + 2).forEach((c) => result.push([a, b, c]))),
+    lightFields
+      .slice(i + 1)
+      .forEach((b, j) => lightFields.slice(i + j + 2).forEach((c) => result.push([a, b, c]))),
   );
   return result;
 }
@@ -48,7 +53,11 @@ describe('the light calculator', () => {
 
   it('finds 83.3 s for 50 J/cm² at 600 mW/cm²', () => {
     // Definition: 50 J/cm² ÷ 0.6 W/cm² = 83.3 s.
-    const solution = solveLight({ fluenceJPerCm2: 50, irradianceMwPerCm2: 600, spotDiameterUm: 6400 });
+    const solution = solveLight({
+      fluenceJPerCm2: 50,
+      irradianceMwPerCm2: 600,
+      spotDiameterUm: 6400,
+    });
 
     expect(solution.exposureS).toBeCloseTo(83.33, 2);
     expect(solution.powerMw).toBeCloseTo(193.0, 1);
@@ -57,11 +66,16 @@ describe('the light calculator', () => {
   it.each(triples().filter((fields) => !dependentTriples.includes(fields.join(','))))(
     'recovers every value from %s, %s and %s',
     (...fields) => {
-      const reference = solveLight({ spotDiameterUm: 2400, irradianceMwPerCm2: 600, exposureS: 83 });
+      const reference = solveLight({
+        spotDiameterUm: 2400,
+        irradianceMwPerCm2: 600,
+        exposureS: 83,
+      });
 
       const solution = solveLight(pick(reference, fields));
 
-      for (const field of lightFields) expect(solution[field], field).toBeCloseTo(reference[field], 8);
+      for (const field of lightFields)
+        expect(solution[field], field).toBeCloseTo(reference[field], 8);
     },
   );
 
@@ -71,43 +85,77 @@ describe('the light calculator', () => {
 
     const error = inputErrorOf(() => solveLight(pick(reference, fields)));
 
-    expect(error.fields.map((field) => field.path).sort()).toEqual(lightFields.filter((field) => !fields.includes(field)).sort());
+    expect(error.fields.map((field) => field.path).sort()).toEqual(
+      lightFields.filter((field) => !fields.includes(field)).sort(),
+    );
     expect(error.fields[0]?.message).toContain('give three independent values');
   });
 
   it('refuses figures that disagree, naming each of them', () => {
-    const error = inputErrorOf(() => solveLight({ spotDiameterUm: 3000, irradianceMwPerCm2: 600, powerMw: 50, exposureS: 83 }));
+    const error = inputErrorOf(() =>
+      solveLight({ spotDiameterUm: 3000, irradianceMwPerCm2: 600, powerMw: 50, exposureS: 83 }),
+    );
 
-    expect(error.fields.map((field) => field.path)).toEqual(['powerMw', 'spotDiameterUm', 'irradianceMwPerCm2']);
+    expect(error.fields.map((field) => field.path)).toEqual([
+      'powerMw',
+      'spotDiameterUm',
+      'irradianceMwPerCm2',
+    ]);
     expect(error.fields[0]?.message).toMatch(/gives 42\.4115 mW, but powerMw is 50 mW/);
   });
 
   it('accepts the published rounding 600 mW/cm² × 83 s ≈ 50 J/cm² as agreeing (0.4% apart)', () => {
     // TAP Study Group, Arch Ophthalmol 1999.
-    const solution = solveLight({ irradianceMwPerCm2: 600, exposureS: 83, fluenceJPerCm2: 50, spotDiameterUm: 3000 });
+    const solution = solveLight({
+      irradianceMwPerCm2: 600,
+      exposureS: 83,
+      fluenceJPerCm2: 50,
+      spotDiameterUm: 3000,
+    });
 
     expect(solution.fluenceJPerCm2).toBe(50);
   });
 
   it('refuses zero, negative and unknown fields', () => {
-    const error = inputErrorOf(() => solveLight({ powerMw: 0, exposureS: -1, colour: 'red' } as unknown as LightCalculationRequest));
+    const error = inputErrorOf(() =>
+      solveLight({
+        powerMw: 0,
+        exposureS: -1,
+        colour: 'red',
+      } as unknown as LightCalculationRequest),
+    );
 
-    expect(error.fields.map((field) => field.path).sort()).toEqual(['colour', 'exposureS', 'powerMw']);
-    expect(error.fields.find((field) => field.path === 'powerMw')?.message).toBe('powerMw must be a number greater than 0 mW');
+    expect(error.fields.map((field) => field.path).sort()).toEqual([
+      'colour',
+      'exposureS',
+      'powerMw',
+    ]);
+    expect(error.fields.find((field) => field.path === 'powerMw')?.message).toBe(
+      'powerMw must be a number greater than 0 mW',
+    );
   });
 
   it('round-trips fluence = irradiance × time: exposure solved back from the fluence is the exposure put in', () => {
     const positive = (min: number, max: number) => fc.double({ min, max, noNaN: true });
     fc.assert(
-      fc.property(positive(0.1, 5000), positive(0.1, 10_000), positive(10, 10_000), (irradianceMwPerCm2, exposureS, spotDiameterUm) => {
-        const forward = solveLight({ irradianceMwPerCm2, exposureS, spotDiameterUm });
+      fc.property(
+        positive(0.1, 5000),
+        positive(0.1, 10_000),
+        positive(10, 10_000),
+        (irradianceMwPerCm2, exposureS, spotDiameterUm) => {
+          const forward = solveLight({ irradianceMwPerCm2, exposureS, spotDiameterUm });
 
-        const back = solveLight({ irradianceMwPerCm2, fluenceJPerCm2: forward.fluenceJPerCm2, spotDiameterUm });
+          const back = solveLight({
+            irradianceMwPerCm2,
+            fluenceJPerCm2: forward.fluenceJPerCm2,
+            spotDiameterUm,
+          });
 
-        expect(forward.fluenceJPerCm2).toBeCloseTo((irradianceMwPerCm2 * exposureS) / 1000, 6);
-        expect(back.exposureS / exposureS).toBeCloseTo(1, 10);
-        expect(back.energyJ / forward.energyJ).toBeCloseTo(1, 10);
-      }),
+          expect(forward.fluenceJPerCm2).toBeCloseTo((irradianceMwPerCm2 * exposureS) / 1000, 6);
+          expect(back.exposureS / exposureS).toBeCloseTo(1, 10);
+          expect(back.energyJ / forward.energyJ).toBeCloseTo(1, 10);
+        },
+      ),
     );
   });
 });

@@ -23,7 +23,8 @@ import { orderStatuses } from '../../shared/schemas/orders';
 describe('the order lifecycle', () => {
   it('names every status, and every move leads to a known status', () => {
     expect(Object.keys(orderTransitions).sort()).toEqual([...orderStatuses].sort());
-    for (const targets of Object.values(orderTransitions)) for (const to of targets) expect(orderStatuses).toContain(to);
+    for (const targets of Object.values(orderTransitions))
+      for (const to of targets) expect(orderStatuses).toContain(to);
   });
 
   it('never ends or reviews a session by skipping its run, and a superseded order goes nowhere', () => {
@@ -34,23 +35,43 @@ describe('the order lifecycle', () => {
   });
 
   it('an amendment starts from a signed order that has not reached its session, never from a draft or a session', () => {
-    expect([...amendableStatuses].sort()).toEqual(['checked', 'prepared', 'ready', 'returned', 'signed']);
+    expect([...amendableStatuses].sort()).toEqual([
+      'checked',
+      'prepared',
+      'ready',
+      'returned',
+      'signed',
+    ]);
   });
 
   it('review leaves a running session alone, however many deviations are closed', () => {
-    expect(statusAfterReview('in-session', { sessionOutcome: 'completed', openDeviations: 0 })).toBe('in-session');
+    expect(
+      statusAfterReview('in-session', { sessionOutcome: 'completed', openDeviations: 0 }),
+    ).toBe('in-session');
   });
 
   it('review settles an ended session as reviewed when nothing is open, and a reopening takes it back to its outcome', () => {
-    expect(statusAfterReview('stopped', { sessionOutcome: 'stopped', openDeviations: 0 })).toBe('reviewed');
-    expect(statusAfterReview('reviewed', { sessionOutcome: 'stopped', openDeviations: 1 })).toBe('stopped');
-    expect(statusAfterReview('completed', { sessionOutcome: 'completed', openDeviations: 2 })).toBe('completed');
+    expect(statusAfterReview('stopped', { sessionOutcome: 'stopped', openDeviations: 0 })).toBe(
+      'reviewed',
+    );
+    expect(statusAfterReview('reviewed', { sessionOutcome: 'stopped', openDeviations: 1 })).toBe(
+      'stopped',
+    );
+    expect(statusAfterReview('completed', { sessionOutcome: 'completed', openDeviations: 2 })).toBe(
+      'completed',
+    );
   });
 
   it('a late tap moves only a reviewed session with something open again', () => {
-    expect(statusAfterLateEvent('reviewed', { sessionOutcome: 'completed', openDeviations: 1 })).toBe('completed');
-    expect(statusAfterLateEvent('reviewed', { sessionOutcome: 'completed', openDeviations: 0 })).toBe('reviewed');
-    expect(statusAfterLateEvent('completed', { sessionOutcome: 'completed', openDeviations: 0 })).toBe('completed');
+    expect(
+      statusAfterLateEvent('reviewed', { sessionOutcome: 'completed', openDeviations: 1 }),
+    ).toBe('completed');
+    expect(
+      statusAfterLateEvent('reviewed', { sessionOutcome: 'completed', openDeviations: 0 }),
+    ).toBe('reviewed');
+    expect(
+      statusAfterLateEvent('completed', { sessionOutcome: 'completed', openDeviations: 0 }),
+    ).toBe('completed');
   });
 
   it('only a signed order waits for the dose check, and only a checked one for the preparation', () => {
@@ -67,14 +88,29 @@ describe('the order lifecycle', () => {
 
   it('a session is running only in session; it has started once running or ended, and ended ones take late taps', () => {
     expect(orderStatuses.filter(isSessionRunning)).toEqual(['in-session']);
-    expect(orderStatuses.filter(isSessionEnded).sort()).toEqual(['completed', 'reviewed', 'stopped']);
-    expect(orderStatuses.filter(hasSessionStarted).sort()).toEqual(['completed', 'in-session', 'reviewed', 'stopped']);
-    expect([...sessionEventStatuses].sort()).toEqual(orderStatuses.filter(hasSessionStarted).sort());
+    expect(orderStatuses.filter(isSessionEnded).sort()).toEqual([
+      'completed',
+      'reviewed',
+      'stopped',
+    ]);
+    expect(orderStatuses.filter(hasSessionStarted).sort()).toEqual([
+      'completed',
+      'in-session',
+      'reviewed',
+      'stopped',
+    ]);
+    expect([...sessionEventStatuses].sort()).toEqual(
+      orderStatuses.filter(hasSessionStarted).sort(),
+    );
     expect(orderStatuses.filter((s) => isSessionRunning(s) && isSessionEnded(s))).toEqual([]);
   });
 
   it('a draft, an order sent back and a replaced revision are not treatments of the eye; every other status is', () => {
-    expect(orderStatuses.filter((s) => !isTreatment(s)).sort()).toEqual(['draft', 'returned', 'superseded']);
+    expect(orderStatuses.filter((s) => !isTreatment(s)).sort()).toEqual([
+      'draft',
+      'returned',
+      'superseded',
+    ]);
     expect([...treatmentStatuses].sort()).toEqual(orderStatuses.filter(isTreatment).sort());
   });
 });

@@ -54,8 +54,18 @@ describe('verteporfin PDT, standard regimen', () => {
 
   it('needs a second vial once the dose passes 15 mg', () => {
     // 15 mg vial: from memory. 190 cm/110 kg → Mosteller 2.41 m² → 14.46 mg; 200 cm/140 kg → 2.79 m² → 16.74 mg.
-    expect(computePlan(standard, pdtInputs({ height: { value: 190, unit: 'cm' }, weight: { value: 110, unit: 'kg' } })).vials).toBe(1);
-    expect(computePlan(standard, pdtInputs({ height: { value: 200, unit: 'cm' }, weight: { value: 140, unit: 'kg' } })).vials).toBe(2);
+    expect(
+      computePlan(
+        standard,
+        pdtInputs({ height: { value: 190, unit: 'cm' }, weight: { value: 110, unit: 'kg' } }),
+      ).vials,
+    ).toBe(1);
+    expect(
+      computePlan(
+        standard,
+        pdtInputs({ height: { value: 200, unit: 'cm' }, weight: { value: 140, unit: 'kg' } }),
+      ).vials,
+    ).toBe(2);
   });
 
   it('infuses 30 mL over 10 min at 3 mL/min', () => {
@@ -106,7 +116,12 @@ describe('verteporfin PDT, standard regimen', () => {
     // TAP Study Group, Arch Ophthalmol 1999: lesions up to 5400 µm.
     const error = inputErrorOf(() => computePlan(standard, pdtInputs({ lesionGldUm: 5600 })));
 
-    expect(error.fields).toEqual([{ path: 'inputs.lesionGldUm', message: 'lesion GLD must be between 100 and 5400 µm (got 5600 µm)' }]);
+    expect(error.fields).toEqual([
+      {
+        path: 'inputs.lesionGldUm',
+        message: 'lesion GLD must be between 100 and 5400 µm (got 5600 µm)',
+      },
+    ]);
   });
 
   it('still refuses an oversized spot when a protocol forgot to cap the lesion size', () => {
@@ -119,7 +134,9 @@ describe('verteporfin PDT, standard regimen', () => {
     const error = inputErrorOf(() => computePlan(unvalidated, pdtInputs({ lesionGldUm: 5600 })));
 
     expect(error.fields[0]?.path).toBe('inputs.lesionGldUm');
-    expect(error.fields[0]?.message).toMatch(/at most 5400 µm .* may not exceed 6400 µm \(got 5600 µm\)/);
+    expect(error.fields[0]?.message).toMatch(
+      /at most 5400 µm .* may not exceed 6400 µm \(got 5600 µm\)/,
+    );
   });
 
   it('sets the laser to the retinal spot divided by the lens magnification', () => {
@@ -133,9 +150,15 @@ describe('verteporfin PDT, standard regimen', () => {
   });
 
   it('gives the same BSA from inches-and-pounds inputs as from their metric equivalents', () => {
-    const metric = computePlan(standard, pdtInputs({ height: { value: 177.8, unit: 'cm' }, weight: { value: 69.853225, unit: 'kg' } }));
+    const metric = computePlan(
+      standard,
+      pdtInputs({ height: { value: 177.8, unit: 'cm' }, weight: { value: 69.853225, unit: 'kg' } }),
+    );
 
-    const imperial = computePlan(standard, pdtInputs({ height: { value: 70, unit: 'in' }, weight: { value: 154, unit: 'lb' } }));
+    const imperial = computePlan(
+      standard,
+      pdtInputs({ height: { value: 70, unit: 'in' }, weight: { value: 154, unit: 'lb' } }),
+    );
 
     expect(imperial.bsaM2).toBe(metric.bsaM2);
     expect(workingFor(imperial, 'heightCm').value).toBeCloseTo(177.8, 10);
@@ -159,7 +182,10 @@ describe('verteporfin PDT, standard regimen', () => {
     expect(bsa.rounded).toEqual({ value: 1.82, step: 0.01 });
     expect(bsa.formula).toContain('√(heightCm × weightKg ÷ 3600)');
     expect(bsa.source).toContain('Mosteller RD');
-    expect(bsa.inputs).toEqual({ heightCm: { value: 170, unit: 'cm' }, weightKg: { value: 70, unit: 'kg' } });
+    expect(bsa.inputs).toEqual({
+      heightCm: { value: 170, unit: 'cm' },
+      weightKg: { value: 70, unit: 'kg' },
+    });
     // The dose is worked from the rounded BSA, as the pharmacist will repeat it by hand.
     expect(workingFor(plan, 'doseMg').inputs['bsaM2']).toEqual({ value: 1.82, unit: 'm²' });
   });
@@ -189,19 +215,36 @@ describe('verteporfin PDT, standard regimen', () => {
     const plan = computePlan(standard, pdtInputs({ height: { value: 135, unit: 'cm' } }));
 
     expect(plan.warnings).toEqual([
-      expect.objectContaining({ code: 'soft-limit', field: 'inputs.height.value', message: expect.stringContaining('140 and 200 cm') }),
+      expect.objectContaining({
+        code: 'soft-limit',
+        field: 'inputs.height.value',
+        message: expect.stringContaining('140 and 200 cm'),
+      }),
     ]);
   });
 
   it('refuses several bad inputs at once, naming each with its allowed range', () => {
     const error = inputErrorOf(() =>
-      computePlan(standard, pdtInputs({ height: { value: 20, unit: 'in' }, weight: { value: 300, unit: 'kg' }, lensMagnification: undefined })),
+      computePlan(
+        standard,
+        pdtInputs({
+          height: { value: 20, unit: 'in' },
+          weight: { value: 300, unit: 'kg' },
+          lensMagnification: undefined,
+        }),
+      ),
     );
 
     expect(error.fields).toEqual([
-      { path: 'inputs.height.value', message: 'height must be between 100 and 230 cm (got 20 in = 50.8 cm)' },
+      {
+        path: 'inputs.height.value',
+        message: 'height must be between 100 and 230 cm (got 20 in = 50.8 cm)',
+      },
       { path: 'inputs.weight.value', message: 'weight must be between 25 and 250 kg (got 300 kg)' },
-      { path: 'inputs.lensMagnification', message: 'lens magnification factor is required for a pdt protocol (allowed 0.5–2.5)' },
+      {
+        path: 'inputs.lensMagnification',
+        message: 'lens magnification factor is required for a pdt protocol (allowed 0.5–2.5)',
+      },
     ]);
   });
 
@@ -217,17 +260,31 @@ describe('verteporfin PDT, standard regimen', () => {
     ['not a number', Number.NaN],
     ['infinite', Number.POSITIVE_INFINITY],
   ])('refuses a height that is %s, naming the field', (_label, value) => {
-    const error = inputErrorOf(() => computePlan(standard, pdtInputs({ height: { value, unit: 'cm' } })));
+    const error = inputErrorOf(() =>
+      computePlan(standard, pdtInputs({ height: { value, unit: 'cm' } })),
+    );
 
-    expect(error.fields).toEqual([{ path: 'inputs.height.value', message: 'height.value must be a number greater than 0 in the unit given' }]);
+    expect(error.fields).toEqual([
+      {
+        path: 'inputs.height.value',
+        message: 'height.value must be a number greater than 0 in the unit given',
+      },
+    ]);
   });
 
   it('refuses an unknown unit and an unknown field', () => {
-    const raw = { ...pdtInputs(), height: { value: 170, unit: 'ft' }, eye: 'right' } as unknown as PlanInputs;
+    const raw = {
+      ...pdtInputs(),
+      height: { value: 170, unit: 'ft' },
+      eye: 'right',
+    } as unknown as PlanInputs;
 
     const error = inputErrorOf(() => computePlan(standard, raw));
 
-    expect(error.fields.map((field) => field.path).sort()).toEqual(['inputs.eye', 'inputs.height.unit']);
+    expect(error.fields.map((field) => field.path).sort()).toEqual([
+      'inputs.eye',
+      'inputs.height.unit',
+    ]);
   });
 });
 

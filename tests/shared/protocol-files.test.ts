@@ -1,10 +1,19 @@
 import { describe, expect, it } from 'vitest';
 import { computePlan } from '../../shared/engine/compute-plan';
-import { protocolFileName, protocolVersionSchema, type ProtocolVersion } from '../../shared/protocol/protocol-schema';
+import {
+  protocolFileName,
+  protocolVersionSchema,
+  type ProtocolVersion,
+} from '../../shared/protocol/protocol-schema';
 import type { DosePlan, PlanInputs } from '../../shared/schemas/calculation';
 import { readProtocolJson, shippedProtocolFiles } from './support/shipped-protocols';
 
-const pdtInputs: PlanInputs = { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, lesionGldUm: 2000, lensMagnification: 1 };
+const pdtInputs: PlanInputs = {
+  height: { value: 170, unit: 'cm' },
+  weight: { value: 70, unit: 'kg' },
+  lesionGldUm: 2000,
+  lensMagnification: 1,
+};
 const cxlInputs: PlanInputs = { stromalThicknessUm: 450 };
 
 /**
@@ -15,17 +24,38 @@ const checkValues: Record<string, { source: string; expected: Partial<DosePlan> 
   // TAP Study Group, Arch Ophthalmol 1999.
   'pdt-standard': {
     source: 'TAP Study Group, Arch Ophthalmol 1999',
-    expected: { doseMg: 10.92, infusionRateMlPerMin: 3, irradianceMwPerCm2: 600, exposureS: 83, fluenceJPerCm2: 49.8, powerMw: 42.4, spotDiameterUm: 3000, lightStartAfterInfusionStartS: 900 },
+    expected: {
+      doseMg: 10.92,
+      infusionRateMlPerMin: 3,
+      irradianceMwPerCm2: 600,
+      exposureS: 83,
+      fluenceJPerCm2: 49.8,
+      powerMw: 42.4,
+      spotDiameterUm: 3000,
+      lightStartAfterInfusionStartS: 900,
+    },
   },
   // van Dijk EHC et al., Ophthalmology 2018; Altinel MG et al. (abstract).
   'pdt-half-dose': {
     source: 'van Dijk EHC et al., Ophthalmology 2018; Altinel MG et al.',
-    expected: { doseMg: 5.46, irradianceMwPerCm2: 600, exposureS: 83, fluenceJPerCm2: 49.8, lightStartAfterInfusionStartS: 900 },
+    expected: {
+      doseMg: 5.46,
+      irradianceMwPerCm2: 600,
+      exposureS: 83,
+      fluenceJPerCm2: 49.8,
+      lightStartAfterInfusionStartS: 900,
+    },
   },
   // Altinel MG et al. (abstract): 6 mg/m² + 25 J/cm²; 300 mW/cm² × 83 s from memory.
   'pdt-half-fluence': {
     source: 'Altinel MG et al.; light setting from memory',
-    expected: { doseMg: 10.92, irradianceMwPerCm2: 300, exposureS: 83, fluenceJPerCm2: 24.9, powerMw: 21.2 },
+    expected: {
+      doseMg: 10.92,
+      irradianceMwPerCm2: 300,
+      exposureS: 83,
+      fluenceJPerCm2: 24.9,
+      powerMw: 21.2,
+    },
   },
   // NCT01797861 (half-time strategy); 600 mW/cm² × 42 s from memory.
   'pdt-half-time': {
@@ -35,7 +65,13 @@ const checkValues: Record<string, { source: string; expected: Partial<DosePlan> 
   // Wollensak G et al., Am J Ophthalmol 2003; Caporossi A et al., J Cataract Refract Surg 2006.
   'cxl-standard': {
     source: 'Wollensak 2003; Caporossi 2006',
-    expected: { irradianceMwPerCm2: 3, uvTimeS: 1800, uvElapsedS: 1800, fluenceJPerCm2: 5.4, thicknessOk: true },
+    expected: {
+      irradianceMwPerCm2: 3,
+      uvTimeS: 1800,
+      uvElapsedS: 1800,
+      fluenceJPerCm2: 5.4,
+      thicknessOk: true,
+    },
   },
   // Seiler TG et al., Invest Ophthalmol Vis Sci 2014.
   'cxl-accelerated': {
@@ -53,20 +89,43 @@ describe('the shipped protocol files', () => {
   const files = shippedProtocolFiles();
 
   it('include every protocol the unit needs, each at version 1 and at version 2', () => {
-    expect(files).toEqual(Object.keys(checkValues).flatMap((key) => [`${key}.v1.json`, `${key}.v2.json`]).sort());
+    expect(files).toEqual(
+      Object.keys(checkValues)
+        .flatMap((key) => [`${key}.v1.json`, `${key}.v2.json`])
+        .sort(),
+    );
   });
 
   it('version 2 of each differs from version 1 only by the BMI range, the drawn-volume and thin-stroma fields, their sources and the approval date', () => {
-    const addedSources = ['bmi-usual-range', 'syringe-graduation', 'withdrawable-volume', 'thin-stroma-measurement'];
+    const addedSources = [
+      'bmi-usual-range',
+      'syringe-graduation',
+      'withdrawable-volume',
+      'thin-stroma-measurement',
+    ];
     const withoutAdditions = (version: ProtocolVersion) => {
-      const { inputLimits, sources, approval, version: _number, drug, contraindications, ...rest } = version;
+      const {
+        inputLimits,
+        sources,
+        approval,
+        version: _number,
+        drug,
+        contraindications,
+        ...rest
+      } = version;
       const { bmiKgPerM2: _bmi, ...limits } = inputLimits;
-      const { syringeGraduationMl: _graduation, withdrawableVolumeMlPerVial: _withdrawable, ...drugRest } = drug ?? {};
+      const {
+        syringeGraduationMl: _graduation,
+        withdrawableVolumeMlPerVial: _withdrawable,
+        ...drugRest
+      } = drug ?? {};
       return {
         rest,
         limits,
         drug: drug ? drugRest : null,
-        contraindications: contraindications.map(({ measurement: _measurement, ...question }) => question),
+        contraindications: contraindications.map(
+          ({ measurement: _measurement, ...question }) => question,
+        ),
         sources: sources.filter((s) => !addedSources.includes(s.id)),
         approval: approval ? { ...approval, approvedOn: null } : null,
       };
@@ -76,7 +135,8 @@ describe('the shipped protocol files', () => {
       const v2 = protocolVersionSchema.parse(readProtocolJson(`${key}.v2.json`));
       // Demo soft limits 16–45 kg/m² (common practice; BMI as the World Health Organization defines it).
       expect(v2.inputLimits.bmiKgPerM2).toEqual({ soft: { min: 16, max: 45 } });
-      for (const id of ['bmi-usual-range']) expect(v2.sources.find((s) => s.id === id)?.status).toBe('practice');
+      for (const id of ['bmi-usual-range'])
+        expect(v2.sources.find((s) => s.id === id)?.status).toBe('practice');
       expect(withoutAdditions(v2)).toEqual(withoutAdditions(v1));
     }
   });
@@ -99,10 +159,16 @@ describe('the shipped protocol files', () => {
       if (!check) throw new Error(`no check values for ${parsed.data.key}`);
 
       const drug = parsed.data.drug;
-      if (drug !== null && drug.syringeGraduationMl === undefined && parsed.data.key === 'pdt-half-dose') {
+      if (
+        drug !== null &&
+        drug.syringeGraduationMl === undefined &&
+        parsed.data.key === 'pdt-half-dose'
+      ) {
         // v1 rounds the volume to 0.1 mL: 5.46 mg ÷ 2 mg/mL = 2.73 mL → 2.7 mL holds 5.4 mg,
         // 1.1% short (hand arithmetic), so the engine refuses the plan rather than move the dose.
-        expect(() => computePlan(parsed.data, pdtInputs)).toThrow(/moves the dose in the syringe by -1\.1%/);
+        expect(() => computePlan(parsed.data, pdtInputs)).toThrow(
+          /moves the dose in the syringe by -1\.1%/,
+        );
         return;
       }
       const plan = computePlan(parsed.data, parsed.data.kind === 'pdt' ? pdtInputs : cxlInputs);
@@ -116,7 +182,8 @@ describe('the shipped protocol files', () => {
       const { sources, approval } = parsed.data;
       if (!approval) throw new Error(`${file} must record its approvers`);
 
-      for (const source of sources) expect(source.citation).toMatch(/\[(published|from memory|common practice)[^\]]*\]/);
+      for (const source of sources)
+        expect(source.citation).toMatch(/\[(published|from memory|common practice)[^\]]*\]/);
       for (const name of approval.approvedBy) expect(name).toMatch(/\(demo\)$/);
       expect(approval.approvedOn).toBe(parsed.data.version === 1 ? '2026-11-20' : '2026-12-03');
       expect(approval.note).toMatch(/demo/i);

@@ -6,11 +6,16 @@ const pdt = loadProtocol('pdt-standard');
 const cxl = loadProtocol('cxl-standard');
 
 /** The schema's complaints about a protocol changed by `change`, as "path: message" lines. */
-function complaintsAbout(base: ProtocolVersion, change: (protocol: ProtocolVersion) => void): string[] {
+function complaintsAbout(
+  base: ProtocolVersion,
+  change: (protocol: ProtocolVersion) => void,
+): string[] {
   const protocol = copyOf(base);
   change(protocol);
   const result = protocolVersionSchema.safeParse(protocol);
-  return result.success ? [] : result.error.issues.map((issue) => `${issue.path.join('.')}: ${issue.message}`);
+  return result.success
+    ? []
+    : result.error.issues.map((issue) => `${issue.path.join('.')}: ${issue.message}`);
 }
 
 describe('the protocol schema', () => {
@@ -47,7 +52,9 @@ describe('the protocol schema', () => {
       if (lightStep) lightStep.durationS = 90;
     });
 
-    expect(complaints).toEqual(['light.exposureS: light.irradianceMwPerCm2 × light.exposureS gives 54 J/cm², more than 1% from light.targetFluenceJPerCm2 (50 J/cm²)']);
+    expect(complaints).toEqual([
+      'light.exposureS: light.irradianceMwPerCm2 × light.exposureS gives 54 J/cm², more than 1% from light.targetFluenceJPerCm2 (50 J/cm²)',
+    ]);
   });
 
   it('refuses a soft range that reaches outside the hard range', () => {
@@ -55,7 +62,9 @@ describe('the protocol schema', () => {
       protocol.inputLimits.heightCm.soft.max = 240;
     });
 
-    expect(complaints).toEqual(['inputLimits.heightCm.soft: the soft range must lie inside the hard range']);
+    expect(complaints).toEqual([
+      'inputLimits.heightCm.soft: the soft range must lie inside the hard range',
+    ]);
   });
 
   it('refuses a lesion limit that would let the spot exceed the largest spot', () => {
@@ -64,7 +73,11 @@ describe('the protocol schema', () => {
       if (protocol.inputLimits.lesionGldUm) protocol.inputLimits.lesionGldUm.hard.max = 6000;
     });
 
-    expect(complaints).toEqual([expect.stringMatching(/^inputLimits\.lesionGldUm\.hard\.max: .* exceeds light\.maxSpotUm \(6400 µm\)$/)]);
+    expect(complaints).toEqual([
+      expect.stringMatching(
+        /^inputLimits\.lesionGldUm\.hard\.max: .* exceeds light\.maxSpotUm \(6400 µm\)$/,
+      ),
+    ]);
   });
 
   it('refuses a concentration that the vial and its reconstituted volume do not give', () => {
@@ -81,7 +94,11 @@ describe('the protocol schema', () => {
       if (waitStep) waitStep.durationS = 240;
     });
 
-    expect(complaints).toEqual([expect.stringContaining('must add up to timing.lightStartAfterInfusionStartMin × 60 = 900 s (they give 840 s)')]);
+    expect(complaints).toEqual([
+      expect.stringContaining(
+        'must add up to timing.lightStartAfterInfusionStartMin × 60 = 900 s (they give 840 s)',
+      ),
+    ]);
   });
 
   it('refuses a CXL uv step that does not last the elapsed UV time', () => {
@@ -89,7 +106,9 @@ describe('the protocol schema', () => {
       protocol.light.pulse = { onS: 1, offS: 1 };
     });
 
-    expect(complaints).toEqual([expect.stringContaining('the uv step must last the elapsed UV time 3600 s')]);
+    expect(complaints).toEqual([
+      expect.stringContaining('the uv step must last the elapsed UV time 3600 s'),
+    ]);
   });
 
   it('refuses a swelling step in a protocol that does not allow swelling', () => {
@@ -101,7 +120,9 @@ describe('the protocol schema', () => {
       }
     });
 
-    expect(complaints).toEqual([expect.stringContaining('a swelling step needs cxl.swellingAllowed to be true')]);
+    expect(complaints).toEqual([
+      expect.stringContaining('a swelling step needs cxl.swellingAllowed to be true'),
+    ]);
   });
 
   it('refuses unknown fields, a single approver and a key that is not kebab-case', () => {
@@ -125,6 +146,8 @@ describe('the protocol schema', () => {
       protocol.steps.push({ id: 'soak', kind: 'soak', title: 'Soak', durationS: 60 });
     });
 
-    expect(complaints).toContain('steps.5.kind: a pdt protocol cannot have a soak step (allowed: check, infusion, wait, light, aftercare)');
+    expect(complaints).toContain(
+      'steps.5.kind: a pdt protocol cannot have a soak step (allowed: check, infusion, wait, light, aftercare)',
+    );
   });
 });

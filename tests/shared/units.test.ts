@@ -38,13 +38,17 @@ describe('unit conversion', () => {
   it('Mosteller from metric inputs agrees with its imperial form √(in × lb ÷ 3131) to 0.15%', () => {
     // Mosteller RD, N Engl J Med 1987: the imperial constant 3131 is itself rounded, hence the margin.
     fc.assert(
-      fc.property(fc.double({ min: 40, max: 90, noNaN: true }), fc.double({ min: 55, max: 550, noNaN: true }), (heightIn, weightLb) => {
-        const imperialM2 = Math.sqrt((heightIn * weightLb) / 3131);
+      fc.property(
+        fc.double({ min: 40, max: 90, noNaN: true }),
+        fc.double({ min: 55, max: 550, noNaN: true }),
+        (heightIn, weightLb) => {
+          const imperialM2 = Math.sqrt((heightIn * weightLb) / 3131);
 
-        const metricM2 = computeBsaM2('mosteller', inchesToCm(heightIn), poundsToKg(weightLb));
+          const metricM2 = computeBsaM2('mosteller', inchesToCm(heightIn), poundsToKg(weightLb));
 
-        expect(Math.abs(metricM2 - imperialM2) / imperialM2).toBeLessThan(0.0015);
-      }),
+          expect(Math.abs(metricM2 - imperialM2) / imperialM2).toBeLessThan(0.0015);
+        },
+      ),
     );
   });
 });

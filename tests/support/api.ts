@@ -24,13 +24,21 @@ export function testConfig(overrides: Record<string, string> = {}): Config {
 }
 
 /** A fresh app on the test database, connected as the app's own (restricted) database user. */
-export async function startTestApp(overrides: Record<string, string> = {}, options: { now?: () => number } = {}): Promise<TestContext> {
+export async function startTestApp(
+  overrides: Record<string, string> = {},
+  options: { now?: () => number } = {},
+): Promise<TestContext> {
   const config = testConfig(overrides);
   const dataSource = appDataSource(config);
   await dataSource.initialize();
   const sentMail: OutgoingMessage[] = [];
   const mailer: Mailer = { send: async (m) => void sentMail.push(m), close: () => undefined };
-  const app = createApp({ config, dataSource, mailer, ...(options.now ? { now: options.now } : {}) });
+  const app = createApp({
+    config,
+    dataSource,
+    mailer,
+    ...(options.now ? { now: options.now } : {}),
+  });
   return { app, config, dataSource, sentMail, close: () => dataSource.destroy() };
 }
 
@@ -42,12 +50,21 @@ export interface TestPerson {
 }
 
 /** Each test makes its own people, with unique e-mails, so tests never depend on each other. */
-export async function createTestPerson(ctx: TestContext, roles: Role[], options: { active?: boolean } = {}): Promise<TestPerson> {
+export async function createTestPerson(
+  ctx: TestContext,
+  roles: Role[],
+  options: { active?: boolean } = {},
+): Promise<TestPerson> {
   const email = `${roles.join('-')}-${randomUUID().slice(0, 8)}@test.luxtempo.example`;
   const password = `pw-${randomUUID()}`;
   const users = createUserRepository(ctx.dataSource);
   // Cost 4 keeps hundreds of test people quick to make; the format is the one the app writes.
-  const user = await users.create({ email, displayName: `Test ${roles.join(' & ')}`, roles, passwordHash: await hashPassword(password, 4) });
+  const user = await users.create({
+    email,
+    displayName: `Test ${roles.join(' & ')}`,
+    roles,
+    passwordHash: await hashPassword(password, 4),
+  });
   await users.setPassword(user.id, user.passwordHash);
   if (options.active === false) await users.update(user.id, { active: false });
   return { id: user.id, email, password, roles };
@@ -56,22 +73,41 @@ export async function createTestPerson(ctx: TestContext, roles: Role[], options:
 /** A supertest agent that keeps cookies, already signed in as the person. */
 export async function signedInAgent(ctx: TestContext, person: TestPerson) {
   const agent = supertest.agent(ctx.app);
-  const res = await agent.post('/api/auth/login').send({ email: person.email, password: person.password });
-  if (res.status !== 200) throw new Error(`sign-in for the test failed: ${res.status} ${JSON.stringify(res.body)}`);
+  const res = await agent
+    .post('/api/auth/login')
+    .send({ email: person.email, password: person.password });
+  if (res.status !== 200)
+    throw new Error(`sign-in for the test failed: ${res.status} ${JSON.stringify(res.body)}`);
   return agent;
 }
 
 /** A fictitious patient with a record number of the test's own. */
-export async function createTestPatient(ctx: TestContext, overrides: Partial<{ email: string | null; emailConsent: boolean }> = {}) {
+export async function createTestPatient(
+  ctx: TestContext,
+  overrides: Partial<{ email: string | null; emailConsent: boolean }> = {},
+) {
   const recordNumber = `T-${randomUUID().slice(0, 8).toUpperCase()}`;
   const rows = await ctx.dataSource.query(
     'INSERT INTO patient (record_number, given_name, family_name, date_of_birth, email, email_consent) VALUES (?, ?, ?, ?, ?, ?) RETURNING id',
-    [recordNumber, 'Testa', `Patient-${recordNumber}`, '1956-04-12', overrides.email ?? null, overrides.emailConsent ?? false],
+    [
+      recordNumber,
+      'Testa',
+      `Patient-${recordNumber}`,
+      '1956-04-12',
+      overrides.email ?? null,
+      overrides.emailConsent ?? false,
+    ],
   );
   return { id: Number(rows[0].id), recordNumber };
 }
 
-const pdtChecklist = ['porphyria', 'hypersensitivity', 'hepatic-impairment', 'pregnancy-breastfeeding', 'other-photosensitisers'];
+const pdtChecklist = [
+  'porphyria',
+  'hypersensitivity',
+  'hepatic-impairment',
+  'pregnancy-breastfeeding',
+  'other-photosensitisers',
+];
 const cxlChecklist = ['thin-stroma', 'active-infection', 'herpetic-keratitis'];
 
 /** A complete, signable order body for the standard PDT protocol (170 cm, 70 kg, GLD 2500 µm). */
@@ -80,7 +116,13 @@ export function pdtOrder(patientId: number, overrides: Record<string, unknown> =
     patientId,
     eye: 'right',
     protocol: { key: 'pdt-standard', version: 1 },
-    inputs: { height: { value: 170, unit: 'cm' }, weight: { value: 70, unit: 'kg' }, bsaFormula: 'mosteller', lesionGldUm: 2500, lensMagnification: 1 },
+    inputs: {
+      height: { value: 170, unit: 'cm' },
+      weight: { value: 70, unit: 'kg' },
+      bsaFormula: 'mosteller',
+      lesionGldUm: 2500,
+      lensMagnification: 1,
+    },
     checklist: pdtChecklist.map((id) => ({ id, answer: 'no' })),
     ...overrides,
   };
@@ -103,7 +145,9 @@ type Agent = ReturnType<typeof supertest.agent>;
 export async function signOrder(agent: Agent, person: TestPerson, body: object) {
   const draft = await agent.post('/api/orders').send(body);
   if (draft.status !== 201) throw new Error(`draft failed: ${JSON.stringify(draft.body)}`);
-  const signed = await agent.post(`/api/orders/${draft.body.order.id}/signature`).send({ password: person.password, meaning: 'ordered', version: draft.body.order.version });
+  const signed = await agent
+    .post(`/api/orders/${draft.body.order.id}/signature`)
+    .send({ password: person.password, meaning: 'ordered', version: draft.body.order.version });
   if (signed.status !== 200) throw new Error(`signing failed: ${JSON.stringify(signed.body)}`);
   return signed.body.order;
 }
@@ -120,7 +164,9 @@ export async function preparedPdtOrder(
 ) {
   const patient = await createTestPatient(ctx, patientOverrides);
   const order = await signOrder(team.clinician[0], team.clinician[1], pdtOrder(patient.id));
-  const check = await team.pharmacist.post(`/api/orders/${order.id}/dose-checks`).send({ bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 });
+  const check = await team.pharmacist
+    .post(`/api/orders/${order.id}/dose-checks`)
+    .send({ bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 });
   if (check.status !== 201) throw new Error(`check failed: ${JSON.stringify(check.body)}`);
   const prepared = await team.pharmacist.post(`/api/orders/${order.id}/preparation`).send({
     vialLot: 'TEST-LOT-1',
@@ -128,6 +174,7 @@ export async function preparedPdtOrder(
     reconstitutedAt: new Date(Date.now() - reconstitutedMinutesAgo * 60_000).toISOString(),
     volumeDrawnMl: 5.5,
   });
-  if (prepared.status !== 201) throw new Error(`preparation failed: ${JSON.stringify(prepared.body)}`);
+  if (prepared.status !== 201)
+    throw new Error(`preparation failed: ${JSON.stringify(prepared.body)}`);
   return prepared.body.order;
 }

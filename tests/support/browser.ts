@@ -17,14 +17,29 @@ export interface BrowserContext {
 }
 
 /** The built client and the API on a free loopback port, with the demo people, and Debian's Chromium. */
-export async function startBrowserTest(overrides: Record<string, string> = {}): Promise<BrowserContext> {
+export async function startBrowserTest(
+  overrides: Record<string, string> = {},
+): Promise<BrowserContext> {
   const serverClock = { offsetMs: 0 };
   const config = testConfig({ DB_NAME: browserTestDatabase(process.env.DB_NAME!), ...overrides });
-  const server = await startWebServer({ config, clientDir: clientDistDir, port: 0, now: () => Date.now() + serverClock.offsetMs });
+  const server = await startWebServer({
+    config,
+    clientDir: clientDistDir,
+    port: 0,
+    now: () => Date.now() + serverClock.offsetMs,
+  });
   await seedDemoData(server.dataSource);
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+      '--disable-quic',
+    ],
   });
   return {
     baseUrl: server.url,
@@ -43,12 +58,16 @@ export function watchPage(page: Page, baseUrl: string) {
   const problems: string[] = [];
   page.on('console', (m) => {
     // A failed load names no address in its text; the location says which resource it was.
-    if (m.type() === 'error') problems.push(`console: ${m.text()}${m.text().startsWith('Failed to load resource') ? ` (${m.location().url})` : ''}`);
+    if (m.type() === 'error')
+      problems.push(
+        `console: ${m.text()}${m.text().startsWith('Failed to load resource') ? ` (${m.location().url})` : ''}`,
+      );
   });
   page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
   page.on('request', (r) => {
     const url = r.url();
-    if (!url.startsWith(baseUrl) && !url.startsWith('data:') && !url.startsWith('blob:')) problems.push(`left the machine: ${url}`);
+    if (!url.startsWith(baseUrl) && !url.startsWith('data:') && !url.startsWith('blob:'))
+      problems.push(`left the machine: ${url}`);
   });
   return problems;
 }
@@ -59,11 +78,20 @@ export function watchPage(page: Page, baseUrl: string) {
  */
 export async function settledRows(page: Page): Promise<string[]> {
   const table = page.locator('main table').first();
-  if ((await table.count()) === 0 || (await table.locator('xpath=..').getAttribute('aria-busy')) === 'true') return [];
+  if (
+    (await table.count()) === 0 ||
+    (await table.locator('xpath=..').getAttribute('aria-busy')) === 'true'
+  )
+    return [];
   return table.locator('tbody tr').allInnerTexts();
 }
 
-export async function signInThroughForm(page: Page, baseUrl: string, email: string, password: string) {
+export async function signInThroughForm(
+  page: Page,
+  baseUrl: string,
+  email: string,
+  password: string,
+) {
   await page.goto(`${baseUrl}/sign-in`);
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
@@ -78,8 +106,25 @@ export async function accessibilityViolations(page: Page) {
   // Evaluated through the DevTools protocol, so the app's strict CSP needs no loosening for it.
   await page.evaluate(axeSource);
   return page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; help: string; nodes: { target: string[] }[] }[] }> } }).axe;
-    const result = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] } });
-    return result.violations.map((v) => ({ id: v.id, help: v.help, targets: v.nodes.map((n) => n.target.join(' ')) }));
+    const axe = (
+      window as unknown as {
+        axe: {
+          run: (
+            ctx: Document,
+            opts: object,
+          ) => Promise<{
+            violations: { id: string; help: string; nodes: { target: string[] }[] }[];
+          }>;
+        };
+      }
+    ).axe;
+    const result = await axe.run(document, {
+      runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] },
+    });
+    return result.violations.map((v) => ({
+      id: v.id,
+      help: v.help,
+      targets: v.nodes.map((n) => n.target.join(' ')),
+    }));
   });
 }

@@ -9,7 +9,9 @@ import { signInThroughForm, watchPage, type BrowserContext } from './browser';
  * `serverClock`, moved together; signed-in API clients; tablets signed in through the form; taps
  * placed on the server's timeline. `current` is read at call time (the context is made in beforeAll).
  */
-export function clockKit(current: () => { ctx: BrowserContext; nurseApi: APIRequestContext; reader: APIRequestContext }) {
+export function clockKit(
+  current: () => { ctx: BrowserContext; nurseApi: APIRequestContext; reader: APIRequestContext },
+) {
   const serverNowMs = () => Date.now() + current().ctx.serverClock.offsetMs;
 
   /** Moves the server's clock, then the page's, by the same amount (server first: a request in between then only sees the server ahead). */
@@ -22,8 +24,13 @@ export function clockKit(current: () => { ctx: BrowserContext; nurseApi: APIRequ
   /** An API client signed in as a demo person. */
   async function signedInApi(email: string) {
     const { baseUrl } = current().ctx;
-    const api = await request.newContext({ baseURL: baseUrl, extraHTTPHeaders: { Origin: baseUrl } });
-    expect((await api.post('/api/auth/login', { data: { email, password: demoPassword } })).status()).toBe(200);
+    const api = await request.newContext({
+      baseURL: baseUrl,
+      extraHTTPHeaders: { Origin: baseUrl },
+    });
+    expect(
+      (await api.post('/api/auth/login', { data: { email, password: demoPassword } })).status(),
+    ).toBe(200);
     return api;
   }
 
@@ -47,11 +54,18 @@ export function clockKit(current: () => { ctx: BrowserContext; nurseApi: APIRequ
   }
 
   /** Taps made earlier on another tablet, placed on the server's timeline `secondsAgo` before now. */
-  async function seedEvents(orderId: number, taps: [secondsAgo: number, body: Record<string, unknown>][]) {
+  async function seedEvents(
+    orderId: number,
+    taps: [secondsAgo: number, body: Record<string, unknown>][],
+  ) {
     const nowMs = serverNowMs();
     for (const [secondsAgo, body] of taps) {
       const res = await current().nurseApi.post(`/api/orders/${orderId}/session-events`, {
-        data: { idempotencyKey: randomUUID(), clientTime: new Date(nowMs - secondsAgo * 1000).toISOString(), ...body },
+        data: {
+          idempotencyKey: randomUUID(),
+          clientTime: new Date(nowMs - secondsAgo * 1000).toISOString(),
+          ...body,
+        },
       });
       expect(res.status(), await res.text()).toBe(201);
     }
@@ -68,8 +82,23 @@ export function clockKit(current: () => { ctx: BrowserContext; nurseApi: APIRequ
     await page.getByText('All taps stored').waitFor({ timeout: 15_000 });
   }
 
-  return { serverNowMs, advance, signedInApi, signedInPage, nursePage, seedEvents, sessionOf, allStored };
+  return {
+    serverNowMs,
+    advance,
+    signedInApi,
+    signedInPage,
+    nursePage,
+    seedEvents,
+    sessionOf,
+    allStored,
+  };
 }
 
 /** The five pre-treatment checks, all confirmed. */
-export const allChecks = { patientIdentity: true, treatmentEye: true, consent: true, eyewear: true, deviceSettings: true };
+export const allChecks = {
+  patientIdentity: true,
+  treatmentEye: true,
+  consent: true,
+  eyewear: true,
+  deviceSettings: true,
+};

@@ -8,13 +8,27 @@ import { testConfig } from './api';
 
 /** A connection as the app's own database user (table rights only), as the web server has. */
 export function appConnection(config: Config) {
-  return mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_USER, password: config.DB_PASSWORD, database: config.DB_NAME, dateStrings: true });
+  return mysql.createConnection({
+    host: config.DB_HOST,
+    port: config.DB_PORT,
+    user: config.DB_USER,
+    password: config.DB_PASSWORD,
+    database: config.DB_NAME,
+    dateStrings: true,
+  });
 }
 
 /** A connection as the schema owner: what someone with the migration password could do. */
 export function ownerConnection(config: Config) {
   const owner = localOwnerCredentials();
-  return mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: owner.user, password: owner.password, database: config.DB_NAME, dateStrings: true });
+  return mysql.createConnection({
+    host: config.DB_HOST,
+    port: config.DB_PORT,
+    user: owner.user,
+    password: owner.password,
+    database: config.DB_NAME,
+    dateStrings: true,
+  });
 }
 
 /** A database of the test's own beside the test database, emptied and migrated. */
@@ -27,6 +41,11 @@ export async function freshTestDatabase(suffix: string): Promise<Config> {
 
 /** Runs one of the maintenance commands (`npm run <name>`) as its own process, the way a person would. */
 export function runCommand(script: string, args: string[], env: NodeJS.ProcessEnv = {}) {
-  const r = spawnSync(process.execPath, ['--import', 'tsx', script, ...args], { cwd: repoRoot, encoding: 'utf8', env: { ...process.env, ...env }, timeout: 120_000 });
+  const r = spawnSync(process.execPath, ['--import', 'tsx', script, ...args], {
+    cwd: repoRoot,
+    encoding: 'utf8',
+    env: { ...process.env, ...env },
+    timeout: 120_000,
+  });
   return { code: r.status, out: `${r.stdout}${r.stderr}` };
 }

@@ -20,7 +20,13 @@ export const faultDir = path.join(dataDir, 'fault-test');
 const database = 'luxtempo_fault';
 
 export function faultConfig(): Config {
-  return loadConfig({ ...localEnvironment(database), DB_PORT: String(faultDbPort), SMTP_PORT: '1126', DEMO_DATA: 'false', NODE_ENV: 'test' });
+  return loadConfig({
+    ...localEnvironment(database),
+    DB_PORT: String(faultDbPort),
+    SMTP_PORT: '1126',
+    DEMO_DATA: 'false',
+    NODE_ENV: 'test',
+  });
 }
 
 export async function startFaultDatabase(): Promise<void> {
@@ -51,7 +57,14 @@ export function startApiProcess(port: number, name: string): Promise<ApiProcess>
   return startProcess({
     port,
     logFile: path.join(faultDir, `${name}.log`),
-    env: { ...localEnvironment(database), DB_PORT: String(faultDbPort), SMTP_PORT: '1126', NODE_ENV: 'test', DEMO_DATA: 'false', LOGIN_FAILURE_LIMIT: '1000' },
+    env: {
+      ...localEnvironment(database),
+      DB_PORT: String(faultDbPort),
+      SMTP_PORT: '1126',
+      NODE_ENV: 'test',
+      DEMO_DATA: 'false',
+      LOGIN_FAILURE_LIMIT: '1000',
+    },
   });
 }
 
@@ -61,16 +74,26 @@ export class FaultClient {
   constructor(public baseUrl: string) {}
 
   async signIn(email: string, password: string) {
-    const res = await fetch(`${this.baseUrl}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email, password }) });
+    const res = await fetch(`${this.baseUrl}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ email, password }),
+    });
     if (res.status !== 200) throw new Error(`sign-in as ${email}: ${res.status}`);
-    this.cookie = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    this.cookie = res.headers
+      .getSetCookie()
+      .map((c) => c.split(';')[0])
+      .join('; ');
     return this;
   }
 
   async call(method: string, urlPath: string, body?: unknown, baseUrl = this.baseUrl) {
     const res = await fetch(`${baseUrl}/api${urlPath}`, {
       method,
-      headers: { Cookie: this.cookie, ...(body === undefined ? {} : { 'Content-Type': 'application/json' }) },
+      headers: {
+        Cookie: this.cookie,
+        ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
+      },
       body: body === undefined ? undefined : JSON.stringify(body),
     });
     const text = await res.text();

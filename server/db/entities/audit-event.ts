@@ -15,7 +15,12 @@ export class AuditEvent {
   @PrimaryGeneratedColumn({ type: 'bigint', unsigned: true })
   id!: string;
 
-  @CreateDateColumn({ name: 'occurred_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'occurred_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   occurredAt!: Date;
 
   @Column({ name: 'actor_user_id', type: 'int', unsigned: true, nullable: true })

@@ -23,6 +23,11 @@ export class DeviationReview {
   @Column({ type: 'varchar', length: 2000 })
   comment!: string;
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'created_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   createdAt!: Date;
 }

@@ -1,6 +1,14 @@
 import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
-import { reviewClassifications, reviewStatuses, type ReviewClassification, type ReviewStatus } from '../../../shared/schemas/reviews';
-import { deviationSeverities, type DeviationSeverity } from '../../../shared/session/session-events';
+import {
+  reviewClassifications,
+  reviewStatuses,
+  type ReviewClassification,
+  type ReviewStatus,
+} from '../../../shared/schemas/reviews';
+import {
+  deviationSeverities,
+  type DeviationSeverity,
+} from '../../../shared/session/session-events';
 
 /**
  * A departure from protocol found in a session's record. One row per order and type; when late
@@ -41,7 +49,12 @@ export class DeviationRow {
   @Column({ type: 'varchar', length: 600 })
   message!: string;
 
-  @Column({ name: 'detected_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @Column({
+    name: 'detected_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   detectedAt!: Date;
 
   @Column({ name: 'withdrawn_at', type: 'datetime', precision: 3, nullable: true })

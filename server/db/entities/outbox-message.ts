@@ -31,7 +31,12 @@ export class OutboxMessage {
   @Column({ type: 'smallint', unsigned: true, default: 0 })
   attempts!: number;
 
-  @Column({ name: 'next_attempt_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @Column({
+    name: 'next_attempt_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   nextAttemptAt!: Date;
 
   @Column({ name: 'last_error', type: 'varchar', length: 500, nullable: true })
@@ -46,6 +51,11 @@ export class OutboxMessage {
   @Column({ name: 'related_id', type: 'varchar', length: 40, nullable: true })
   relatedId!: string | null;
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'created_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   createdAt!: Date;
 }

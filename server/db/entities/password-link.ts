@@ -27,7 +27,12 @@ export class PasswordLink {
   @Column({ name: 'created_by', type: 'int', unsigned: true, nullable: true })
   createdBy!: number | null;
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'created_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   createdAt!: Date;
 
   @Column({ name: 'expires_at', type: 'datetime', precision: 3 })

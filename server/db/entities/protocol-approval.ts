@@ -1,4 +1,13 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  PrimaryGeneratedColumn,
+  type Relation,
+} from 'typeorm';
 import { ProtocolVersion } from './protocol-version';
 import { User } from './user';
 
@@ -31,6 +40,11 @@ export class ProtocolApproval {
   @Column({ name: 'definition_sha256', type: 'char', length: 64 })
   definitionSha256!: string;
 
-  @CreateDateColumn({ name: 'approved_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'approved_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   approvedAt!: Date;
 }

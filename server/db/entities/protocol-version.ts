@@ -1,4 +1,12 @@
-import { Column, CreateDateColumn, Entity, Index, OneToMany, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  OneToMany,
+  PrimaryGeneratedColumn,
+  type Relation,
+} from 'typeorm';
 import type { ProtocolVersion as ProtocolDefinition } from '../../../shared/protocol/protocol-schema';
 import { ProtocolApproval } from './protocol-approval';
 
@@ -48,7 +56,12 @@ export class ProtocolVersion {
   @Column({ name: 'created_by', type: 'int', unsigned: true, nullable: true })
   createdBy!: number | null;
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'created_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   createdAt!: Date;
 
   @Column({ name: 'approved_at', type: 'datetime', precision: 3, nullable: true })

@@ -24,7 +24,12 @@ export class RoleRequest {
   @Column({ name: 'requested_by', type: 'int', unsigned: true })
   requestedBy!: number;
 
-  @CreateDateColumn({ name: 'requested_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'requested_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   requestedAt!: Date;
 
   @Column({ type: 'enum', enum: roleRequestStatuses, default: 'pending' })

@@ -26,7 +26,12 @@ export class SessionEventRow {
   @Column({ name: 'client_time', type: 'datetime', precision: 3 })
   clientTime!: Date;
 
-  @Column({ name: 'server_time', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @Column({
+    name: 'server_time',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   serverTime!: Date;
 
   @Column({ name: 'recorded_by', type: 'int', unsigned: true })

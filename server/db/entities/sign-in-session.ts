@@ -19,11 +19,21 @@ export class SignInSession {
   @Column({ name: 'user_id', type: 'int', unsigned: true })
   userId!: number;
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'created_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   createdAt!: Date;
 
   /** Moved forward at most once a minute, to keep the every-call read free of writes. */
-  @Column({ name: 'last_seen_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @Column({
+    name: 'last_seen_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   lastSeenAt!: Date;
 
   @Column({ name: 'expires_at', type: 'datetime', precision: 3 })

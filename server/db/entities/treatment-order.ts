@@ -1,6 +1,21 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn, VersionColumn, type Relation } from 'typeorm';
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  PrimaryGeneratedColumn,
+  UpdateDateColumn,
+  VersionColumn,
+  type Relation,
+} from 'typeorm';
 import type { DosePlan, PlanInputs } from '../../../shared/schemas/calculation';
-import { orderStatuses, type ChecklistAnswer, type OrderStatus } from '../../../shared/schemas/orders';
+import {
+  orderStatuses,
+  type ChecklistAnswer,
+  type OrderStatus,
+} from '../../../shared/schemas/orders';
 import { Patient } from './patient';
 import { ProtocolVersion } from './protocol-version';
 import { User } from './user';
@@ -108,7 +123,12 @@ export class TreatmentOrder {
   @Column({ name: 'beyond_use_at', type: 'datetime', precision: 3, nullable: true })
   beyondUseAt!: Date | null;
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreateDateColumn({
+    name: 'created_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+  })
   createdAt!: Date;
 
   /**
@@ -118,6 +138,12 @@ export class TreatmentOrder {
   @VersionColumn({ name: 'row_version', type: 'int', unsigned: true, default: 1 })
   version!: number;
 
-  @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)', onUpdate: 'CURRENT_TIMESTAMP(3)' })
+  @UpdateDateColumn({
+    name: 'updated_at',
+    type: 'datetime',
+    precision: 3,
+    default: () => 'CURRENT_TIMESTAMP(3)',
+    onUpdate: 'CURRENT_TIMESTAMP(3)',
+  })
   updatedAt!: Date;
 }

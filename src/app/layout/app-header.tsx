@@ -30,16 +30,28 @@ export function AppHeader({ user }: { user: SessionUser }) {
               {roleLine || 'No roles yet'}
             </p>
           </div>
-          <Link to={paths.changePassword.getHref()} className="rounded-lg px-2 py-1 text-sm font-medium text-iris-800 underline underline-offset-2 print:hidden">
+          <Link
+            to={paths.changePassword.getHref()}
+            className="rounded-lg px-2 py-1 text-sm font-medium text-iris-800 underline underline-offset-2 print:hidden"
+          >
             Change password
           </Link>
-          <Button variant="secondary" size="sm" icon={<SignOutIcon className="size-4" />} busy={logOut.isPending} onClick={() => logOut.mutate()}>
+          <Button
+            variant="secondary"
+            size="sm"
+            icon={<SignOutIcon className="size-4" />}
+            busy={logOut.isPending}
+            onClick={() => logOut.mutate()}
+          >
             {logOut.isPending ? 'Signing out…' : 'Sign out'}
           </Button>
         </div>
       </div>
       {logOut.isError && (
-        <p role="alert" className="border-t border-alarm-200 bg-alarm-50 px-5 py-2 text-sm font-medium text-alarm-800">
+        <p
+          role="alert"
+          className="border-t border-alarm-200 bg-alarm-50 px-5 py-2 text-sm font-medium text-alarm-800"
+        >
           You are still signed in: {describeError(logOut.error)}
         </p>
       )}

@@ -43,7 +43,12 @@ export function AppShell({ user }: { user: SessionUser }) {
           <div className="border-b border-paper-200 bg-paper-100 px-4 py-2 xl:w-56 xl:shrink-0 xl:border-r xl:border-b-0 xl:px-3 xl:py-5 print:hidden">
             <MainNav user={user} />
           </div>
-          <main id="main-content" ref={mainRef} tabIndex={-1} className="min-w-0 flex-1 px-6 py-8 xl:px-10 print:p-0">
+          <main
+            id="main-content"
+            ref={mainRef}
+            tabIndex={-1}
+            className="min-w-0 flex-1 px-6 py-8 xl:px-10 print:p-0"
+          >
             <div className="mx-auto max-w-6xl">
               <Outlet context={context} />
             </div>

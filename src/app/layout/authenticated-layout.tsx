@@ -33,7 +33,12 @@ export function AuthenticatedLayout() {
           icon={<PlugOffIcon className="size-6" />}
           title="Luxtempo cannot check your sign-in"
           actions={
-            <Button variant="primary" icon={<ReloadIcon />} busy={session.isFetching} onClick={() => void session.refetch()}>
+            <Button
+              variant="primary"
+              icon={<ReloadIcon />}
+              busy={session.isFetching}
+              onClick={() => void session.refetch()}
+            >
               Try again
             </Button>
           }

@@ -1,8 +1,20 @@
 import type { ComponentType, SVGProps } from 'react';
 import type { Capability } from '../../../shared/roles';
-import { LightBeamIcon, OutboxTrayIcon, PeopleIcon, ProtocolBookIcon, SunriseIcon, VialCheckIcon } from '../../components/ui/icons';
+import {
+  LightBeamIcon,
+  OutboxTrayIcon,
+  PeopleIcon,
+  ProtocolBookIcon,
+  SunriseIcon,
+  VialCheckIcon,
+} from '../../components/ui/icons';
 import { OrderClipboardIcon, PatientCardIcon } from '../../components/ui/icons';
-import { DeviationPathIcon, RecordLedgerIcon, TrailLogIcon, TrendBarsIcon } from '../../components/ui/icons';
+import {
+  DeviationPathIcon,
+  RecordLedgerIcon,
+  TrailLogIcon,
+  TrendBarsIcon,
+} from '../../components/ui/icons';
 import { paths } from '../../config/paths';
 
 export type NavItem = {
@@ -16,16 +28,62 @@ export type NavItem = {
 };
 
 export const navItems: readonly NavItem[] = [
-  { label: 'Today', to: paths.today.getHref(), capability: 'today.view', icon: SunriseIcon, end: true },
-  { label: 'Dose checks', to: paths.doseChecks.getHref(), capability: 'dose-checks.perform', icon: VialCheckIcon },
-  { label: 'Orders', to: paths.orders.getHref(), capability: 'orders.read', icon: OrderClipboardIcon },
-  { label: 'Patients', to: paths.patients.getHref(), capability: 'patients.read', icon: PatientCardIcon },
-  { label: 'Protocols', to: paths.protocols.getHref(), capability: 'protocols.read', icon: ProtocolBookIcon },
-  { label: 'Deviations', to: paths.deviations.getHref(), capability: 'audit.read', icon: DeviationPathIcon },
-  { label: 'Dose records', to: paths.doseRecords.getHref(), capability: 'audit.read', icon: RecordLedgerIcon },
+  {
+    label: 'Today',
+    to: paths.today.getHref(),
+    capability: 'today.view',
+    icon: SunriseIcon,
+    end: true,
+  },
+  {
+    label: 'Dose checks',
+    to: paths.doseChecks.getHref(),
+    capability: 'dose-checks.perform',
+    icon: VialCheckIcon,
+  },
+  {
+    label: 'Orders',
+    to: paths.orders.getHref(),
+    capability: 'orders.read',
+    icon: OrderClipboardIcon,
+  },
+  {
+    label: 'Patients',
+    to: paths.patients.getHref(),
+    capability: 'patients.read',
+    icon: PatientCardIcon,
+  },
+  {
+    label: 'Protocols',
+    to: paths.protocols.getHref(),
+    capability: 'protocols.read',
+    icon: ProtocolBookIcon,
+  },
+  {
+    label: 'Deviations',
+    to: paths.deviations.getHref(),
+    capability: 'audit.read',
+    icon: DeviationPathIcon,
+  },
+  {
+    label: 'Dose records',
+    to: paths.doseRecords.getHref(),
+    capability: 'audit.read',
+    icon: RecordLedgerIcon,
+  },
   { label: 'Trends', to: paths.trends.getHref(), capability: 'audit.read', icon: TrendBarsIcon },
-  { label: 'Audit trail', to: paths.auditTrail.getHref(), capability: 'audit.read', icon: TrailLogIcon },
-  { label: 'Light calculator', to: paths.lightCalculator.getHref(), capability: 'calculations.run', icon: LightBeamIcon },
+  {
+    label: 'Audit trail',
+    to: paths.auditTrail.getHref(),
+    capability: 'audit.read',
+    icon: TrailLogIcon,
+  },
+  {
+    label: 'Light calculator',
+    to: paths.lightCalculator.getHref(),
+    capability: 'calculations.run',
+    icon: LightBeamIcon,
+  },
   { label: 'People', to: paths.people.getHref(), capability: 'people.manage', icon: PeopleIcon },
   { label: 'Outbox', to: paths.outbox.getHref(), capability: 'outbox.read', icon: OutboxTrayIcon },
 ];

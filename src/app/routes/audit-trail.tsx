@@ -14,7 +14,12 @@ export function AuditTrailRoute() {
       {hasCapability(user, 'audit.read') ? (
         <AuditTrailScreen mayVerify={hasCapability(user, 'audit.verify')} />
       ) : (
-        <StatusPanel headingLevel="h1" icon={<LockIcon className="size-6" />} title="The audit trail is for auditors" actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}>
+        <StatusPanel
+          headingLevel="h1"
+          icon={<LockIcon className="size-6" />}
+          title="The audit trail is for auditors"
+          actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
+        >
           <p>Ask an administrator if your roles need to change.</p>
         </StatusPanel>
       )}

@@ -5,7 +5,10 @@ export function ChangePasswordRoute() {
   return (
     <>
       <title>Change password · Luxtempo</title>
-      <PageHeader title="Change your password" lead="Your current password is needed. Changing it signs you out everywhere else." />
+      <PageHeader
+        title="Change your password"
+        lead="Your current password is needed. Changing it signs you out everywhere else."
+      />
       <ChangePasswordForm />
     </>
   );

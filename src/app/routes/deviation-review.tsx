@@ -15,16 +15,31 @@ export function DeviationReviewRoute() {
     <>
       <title>{deviationId ? `Deviation ${deviationId} · Luxtempo` : 'Deviation · Luxtempo'}</title>
       {!hasCapability(user, 'audit.read') ? (
-        <StatusPanel headingLevel="h1" icon={<LockIcon className="size-6" />} title="Deviations are for auditors" actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}>
+        <StatusPanel
+          headingLevel="h1"
+          icon={<LockIcon className="size-6" />}
+          title="Deviations are for auditors"
+          actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
+        >
           <p>Ask an administrator if your roles need to change.</p>
         </StatusPanel>
       ) : deviationId === null ? (
-        <StatusPanel headingLevel="h1" icon={<AlertIcon className="size-6" />} title="There is no such deviation" actions={<LinkButton to={paths.deviations.getHref()}>All deviations</LinkButton>}>
+        <StatusPanel
+          headingLevel="h1"
+          icon={<AlertIcon className="size-6" />}
+          title="There is no such deviation"
+          actions={<LinkButton to={paths.deviations.getHref()}>All deviations</LinkButton>}
+        >
           <p>“{id ?? ''}” is not a deviation number; they are whole numbers from 1.</p>
         </StatusPanel>
       ) : (
         // A new deviation starts with a fresh screen (no message left from the last one).
-        <DeviationReviewScreen key={deviationId} deviationId={deviationId} userId={user.id} mayReview={hasCapability(user, 'audit.review')} />
+        <DeviationReviewScreen
+          key={deviationId}
+          deviationId={deviationId}
+          userId={user.id}
+          mayReview={hasCapability(user, 'audit.review')}
+        />
       )}
     </>
   );

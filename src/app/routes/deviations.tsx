@@ -8,7 +8,12 @@ import { useSignedInUser } from '../layout/signed-in-user';
 
 function AuditLocked({ what }: { what: string }) {
   return (
-    <StatusPanel headingLevel="h1" icon={<LockIcon className="size-6" />} title={`${what} are for auditors`} actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}>
+    <StatusPanel
+      headingLevel="h1"
+      icon={<LockIcon className="size-6" />}
+      title={`${what} are for auditors`}
+      actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
+    >
       <p>Ask an administrator if your roles need to change.</p>
     </StatusPanel>
   );

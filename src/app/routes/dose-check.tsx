@@ -23,7 +23,10 @@ export function DoseCheckRoute() {
           title="Dose checks are done by pharmacists"
           actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
         >
-          <p>Checking and preparing doses is not part of your roles. Ask an administrator if your roles need to change.</p>
+          <p>
+            Checking and preparing doses is not part of your roles. Ask an administrator if your
+            roles need to change.
+          </p>
         </StatusPanel>
       </>
     );
@@ -47,7 +50,12 @@ export function DoseCheckRoute() {
     <>
       {title}
       {/* A fresh screen per order, so one order's typed figures never show on another. */}
-      <DoseCheckScreen key={orderId} orderId={orderId} userId={user.id} canPrepare={hasCapability(user, 'preparations.record')} />
+      <DoseCheckScreen
+        key={orderId}
+        orderId={orderId}
+        userId={user.id}
+        canPrepare={hasCapability(user, 'preparations.record')}
+      />
     </>
   );
 }

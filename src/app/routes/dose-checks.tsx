@@ -20,7 +20,10 @@ export function DoseChecksRoute() {
           title="Dose checks are done by pharmacists"
           actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
         >
-          <p>Checking and preparing doses is not part of your roles. Ask an administrator if your roles need to change.</p>
+          <p>
+            Checking and preparing doses is not part of your roles. Ask an administrator if your
+            roles need to change.
+          </p>
         </StatusPanel>
       )}
     </>

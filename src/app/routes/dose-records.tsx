@@ -10,7 +10,12 @@ import { useSignedInUser } from '../layout/signed-in-user';
 
 function Locked() {
   return (
-    <StatusPanel headingLevel="h1" icon={<LockIcon className="size-6" />} title="Dose records are for auditors" actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}>
+    <StatusPanel
+      headingLevel="h1"
+      icon={<LockIcon className="size-6" />}
+      title="Dose records are for auditors"
+      actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
+    >
       <p>Ask an administrator if your roles need to change.</p>
     </StatusPanel>
   );
@@ -37,7 +42,12 @@ export function DoseRecordPrintRoute() {
       {!hasCapability(user, 'audit.read') ? (
         <Locked />
       ) : id === null ? (
-        <StatusPanel headingLevel="h1" icon={<AlertIcon className="size-6" />} title="There is no such order" actions={<LinkButton to={paths.doseRecords.getHref()}>All dose records</LinkButton>}>
+        <StatusPanel
+          headingLevel="h1"
+          icon={<AlertIcon className="size-6" />}
+          title="There is no such order"
+          actions={<LinkButton to={paths.doseRecords.getHref()}>All dose records</LinkButton>}
+        >
           <p>“{orderId ?? ''}” is not an order number; order numbers are whole numbers from 1.</p>
         </StatusPanel>
       ) : (

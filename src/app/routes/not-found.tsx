@@ -21,8 +21,9 @@ export function NotFoundRoute() {
         }
       >
         <p>
-          Nothing in Luxtempo lives at <code className="rounded bg-paper-100 px-1.5 py-0.5 text-sm break-all">{pathname}</code>. The
-          link may be mistyped or out of date.
+          Nothing in Luxtempo lives at{' '}
+          <code className="rounded bg-paper-100 px-1.5 py-0.5 text-sm break-all">{pathname}</code>.
+          The link may be mistyped or out of date.
         </p>
       </StatusPanel>
     </PlainPage>

@@ -1,7 +1,11 @@
 import { useParams } from 'react-router-dom';
 import { hasCapability } from '../../features/auth/hooks/use-session';
 import { ChangeOrderScreen } from '../../features/orders/components/order-form-screen';
-import { NoSuchOrder, OrdersLocked, parseOrderId } from '../../features/orders/components/orders-locked';
+import {
+  NoSuchOrder,
+  OrdersLocked,
+  parseOrderId,
+} from '../../features/orders/components/orders-locked';
 import { useSignedInUser } from '../layout/signed-in-user';
 
 export function OrderAmendRoute() {
@@ -11,7 +15,13 @@ export function OrderAmendRoute() {
   return (
     <>
       <title>{`Amend order ${id ?? ''} · Luxtempo`}</title>
-      {!hasCapability(user, 'orders.write') ? <OrdersLocked write /> : orderId === null ? <NoSuchOrder text={id} /> : <ChangeOrderScreen key={orderId} orderId={orderId} mode="amend" />}
+      {!hasCapability(user, 'orders.write') ? (
+        <OrdersLocked write />
+      ) : orderId === null ? (
+        <NoSuchOrder text={id} />
+      ) : (
+        <ChangeOrderScreen key={orderId} orderId={orderId} mode="amend" />
+      )}
     </>
   );
 }

@@ -1,7 +1,11 @@
 import { useParams } from 'react-router-dom';
 import { hasCapability } from '../../features/auth/hooks/use-session';
 import { OrderDetailScreen } from '../../features/orders/components/order-detail-screen';
-import { NoSuchOrder, OrdersLocked, parseOrderId } from '../../features/orders/components/orders-locked';
+import {
+  NoSuchOrder,
+  OrdersLocked,
+  parseOrderId,
+} from '../../features/orders/components/orders-locked';
 import { useSignedInUser } from '../layout/signed-in-user';
 
 export function OrderDetailRoute() {
@@ -10,13 +14,20 @@ export function OrderDetailRoute() {
   const orderId = parseOrderId(id);
   return (
     <>
-      {(!hasCapability(user, 'orders.read') || orderId === null) && <title>{`Order ${id ?? ''} · Luxtempo`}</title>}
+      {(!hasCapability(user, 'orders.read') || orderId === null) && (
+        <title>{`Order ${id ?? ''} · Luxtempo`}</title>
+      )}
       {!hasCapability(user, 'orders.read') ? (
         <OrdersLocked />
       ) : orderId === null ? (
         <NoSuchOrder text={id} />
       ) : (
-        <OrderDetailScreen key={orderId} orderId={orderId} canWrite={hasCapability(user, 'orders.write')} canRunSessions={hasCapability(user, 'sessions.run')} />
+        <OrderDetailScreen
+          key={orderId}
+          orderId={orderId}
+          canWrite={hasCapability(user, 'orders.write')}
+          canRunSessions={hasCapability(user, 'sessions.run')}
+        />
       )}
     </>
   );

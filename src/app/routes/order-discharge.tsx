@@ -1,7 +1,11 @@
 import { useParams } from 'react-router-dom';
 import { hasCapability } from '../../features/auth/hooks/use-session';
 import { DischargeScreen } from '../../features/discharge/components/discharge-screen';
-import { NoSuchOrder, OrdersLocked, parseOrderId } from '../../features/orders/components/orders-locked';
+import {
+  NoSuchOrder,
+  OrdersLocked,
+  parseOrderId,
+} from '../../features/orders/components/orders-locked';
 import { useSignedInUser } from '../layout/signed-in-user';
 
 export function OrderDischargeRoute() {
@@ -12,9 +16,19 @@ export function OrderDischargeRoute() {
     return (
       <>
         <title>{`Discharge sheet · order ${id ?? ''} · Luxtempo`}</title>
-        {orderId === null && hasCapability(user, 'orders.read') ? <NoSuchOrder text={id} /> : <OrdersLocked />}
+        {orderId === null && hasCapability(user, 'orders.read') ? (
+          <NoSuchOrder text={id} />
+        ) : (
+          <OrdersLocked />
+        )}
       </>
     );
   }
-  return <DischargeScreen key={orderId} orderId={orderId} canRunSessions={hasCapability(user, 'sessions.run')} />;
+  return (
+    <DischargeScreen
+      key={orderId}
+      orderId={orderId}
+      canRunSessions={hasCapability(user, 'sessions.run')}
+    />
+  );
 }

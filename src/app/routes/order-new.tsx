@@ -12,7 +12,11 @@ export function NewOrderRoute() {
   return (
     <>
       <title>New order · Luxtempo</title>
-      {hasCapability(user, 'orders.write') ? <NewOrderScreen key={patientId ?? 'none'} patientId={patientId} /> : <OrdersLocked write />}
+      {hasCapability(user, 'orders.write') ? (
+        <NewOrderScreen key={patientId ?? 'none'} patientId={patientId} />
+      ) : (
+        <OrdersLocked write />
+      )}
     </>
   );
 }

@@ -8,7 +8,11 @@ export function OrdersRoute() {
   return (
     <>
       <title>Orders · Luxtempo</title>
-      {hasCapability(user, 'orders.read') ? <OrdersScreen canWrite={hasCapability(user, 'orders.write')} /> : <OrdersLocked />}
+      {hasCapability(user, 'orders.read') ? (
+        <OrdersScreen canWrite={hasCapability(user, 'orders.write')} />
+      ) : (
+        <OrdersLocked />
+      )}
     </>
   );
 }

@@ -37,7 +37,11 @@ export function PatientRecordRoute() {
   }
   return (
     <>
-      <PatientRecordScreen key={patientId} patientId={patientId} canOrder={hasCapability(user, 'orders.write')} />
+      <PatientRecordScreen
+        key={patientId}
+        patientId={patientId}
+        canOrder={hasCapability(user, 'orders.write')}
+      />
     </>
   );
 }

@@ -14,7 +14,10 @@ export function PatientsLocked() {
       title="Patient records are not part of your roles"
       actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
     >
-      <p>Patients are seen by clinical staff and auditors. Ask an administrator if your roles need to change.</p>
+      <p>
+        Patients are seen by clinical staff and auditors. Ask an administrator if your roles need to
+        change.
+      </p>
     </StatusPanel>
   );
 }
@@ -24,7 +27,11 @@ export function PatientsRoute() {
   return (
     <>
       <title>Patients · Luxtempo</title>
-      {hasCapability(user, 'patients.read') ? <PatientsScreen canAdd={hasCapability(user, 'patients.manage')} /> : <PatientsLocked />}
+      {hasCapability(user, 'patients.read') ? (
+        <PatientsScreen canAdd={hasCapability(user, 'patients.manage')} />
+      ) : (
+        <PatientsLocked />
+      )}
     </>
   );
 }

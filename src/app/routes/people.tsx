@@ -19,7 +19,10 @@ export function PeopleRoute() {
           title="Managing staff accounts is not part of your roles"
           actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
         >
-          <p>The People page is for those who look after accounts and roles. Ask an administrator if your roles need to change.</p>
+          <p>
+            The People page is for those who look after accounts and roles. Ask an administrator if
+            your roles need to change.
+          </p>
         </StatusPanel>
       </>
     );

@@ -1,7 +1,11 @@
 import { useParams } from 'react-router-dom';
 import { hasCapability } from '../../features/auth/hooks/use-session';
 import { CompareScreen } from '../../features/protocols/components/compare-screen';
-import { NoSuchVersion, parseVersionNumber, ProtocolsLocked } from '../../features/protocols/components/protocol-route-states';
+import {
+  NoSuchVersion,
+  parseVersionNumber,
+  ProtocolsLocked,
+} from '../../features/protocols/components/protocol-route-states';
 import { useSignedInUser } from '../layout/signed-in-user';
 
 export function ProtocolCompareRoute() {
@@ -9,7 +13,9 @@ export function ProtocolCompareRoute() {
   const { key = '', from: fromText, to: toText } = useParams();
   const from = parseVersionNumber(fromText);
   const to = parseVersionNumber(toText);
-  const title = <title>{`Compare ${key} v${fromText ?? ''} and v${toText ?? ''} · Luxtempo`}</title>;
+  const title = (
+    <title>{`Compare ${key} v${fromText ?? ''} and v${toText ?? ''} · Luxtempo`}</title>
+  );
   if (!hasCapability(user, 'protocols.read')) {
     return (
       <>

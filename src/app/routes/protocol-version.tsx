@@ -1,6 +1,10 @@
 import { useParams } from 'react-router-dom';
 import { hasCapability } from '../../features/auth/hooks/use-session';
-import { NoSuchVersion, parseVersionNumber, ProtocolsLocked } from '../../features/protocols/components/protocol-route-states';
+import {
+  NoSuchVersion,
+  parseVersionNumber,
+  ProtocolsLocked,
+} from '../../features/protocols/components/protocol-route-states';
 import { VersionScreen } from '../../features/protocols/components/version-screen';
 import { useSignedInUser } from '../layout/signed-in-user';
 
@@ -21,7 +25,9 @@ export function ProtocolVersionRoute() {
     return (
       <>
         {title}
-        <NoSuchVersion text={`“${versionText ?? ''}” is not a version number; versions are whole numbers from 1.`} />
+        <NoSuchVersion
+          text={`“${versionText ?? ''}” is not a version number; versions are whole numbers from 1.`}
+        />
       </>
     );
   }

@@ -8,7 +8,11 @@ export function ProtocolsRoute() {
   return (
     <>
       <title>Protocols · Luxtempo</title>
-      {hasCapability(user, 'protocols.read') ? <ProtocolsScreen canManage={hasCapability(user, 'protocols.import')} /> : <ProtocolsLocked />}
+      {hasCapability(user, 'protocols.read') ? (
+        <ProtocolsScreen canManage={hasCapability(user, 'protocols.import')} />
+      ) : (
+        <ProtocolsLocked />
+      )}
     </>
   );
 }

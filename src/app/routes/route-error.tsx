@@ -40,8 +40,9 @@ export function RouteErrorScreen({ framed }: { framed: boolean }) {
         ) : (
           <>
             <p>
-              Something went wrong while opening it. Reloading usually helps; anything already saved is kept. If it happens again, tell
-              your unit&rsquo;s administrator what you were doing.
+              Something went wrong while opening it. Reloading usually helps; anything already saved
+              is kept. If it happens again, tell your unit&rsquo;s administrator what you were
+              doing.
             </p>
             <KeptDraftNotice />
           </>

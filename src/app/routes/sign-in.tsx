@@ -43,18 +43,25 @@ export function SignInRoute() {
             <span className="text-3xl font-semibold tracking-tight text-paper-950">Luxtempo</span>
           </div>
           <p className="max-w-md text-lg leading-relaxed text-paper-800">
-            Plans, double-checks, times and records verteporfin photodynamic therapy and riboflavin/UVA corneal cross-linking for the
-            eye unit.
+            Plans, double-checks, times and records verteporfin photodynamic therapy and
+            riboflavin/UVA corneal cross-linking for the eye unit.
           </p>
         </div>
         <LightSweep />
         <p className="flex max-w-md items-start gap-2 text-sm text-paper-700">
           <LockIcon className="mt-0.5 size-4" />
-          <span>For authorised staff of the eye unit only. Your unit&rsquo;s administrator sets up accounts.</span>
+          <span>
+            For authorised staff of the eye unit only. Your unit&rsquo;s administrator sets up
+            accounts.
+          </span>
         </p>
       </header>
 
-      <main id="main-content" tabIndex={-1} className="flex flex-1 items-center justify-center px-6 py-12">
+      <main
+        id="main-content"
+        tabIndex={-1}
+        className="flex flex-1 items-center justify-center px-6 py-12"
+      >
         <div className="w-full max-w-sm space-y-6">
           {session.isPending ? (
             <LoadingPanel label="Checking whether you are signed in…" />
@@ -100,7 +107,12 @@ export function SignInRoute() {
 /** A quiet drawing of the mark's idea: a lens ringed by the sweep of a timer. Decorative only. */
 function LightSweep() {
   return (
-    <svg viewBox="0 0 240 120" aria-hidden="true" focusable="false" className="hidden w-full max-w-xs text-iris-300 md:block">
+    <svg
+      viewBox="0 0 240 120"
+      aria-hidden="true"
+      focusable="false"
+      className="hidden w-full max-w-xs text-iris-300 md:block"
+    >
       <g fill="none" stroke="currentColor" strokeWidth="1.5">
         <circle cx="60" cy="60" r="52" opacity="0.35" />
         <circle cx="60" cy="60" r="38" opacity="0.6" />

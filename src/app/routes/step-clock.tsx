@@ -33,7 +33,12 @@ export function StepClockRoute() {
     return (
       <>
         {title}
-        <StatusPanel headingLevel="h1" icon={<AlertIcon className="size-6" />} title="There is no such order" actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}>
+        <StatusPanel
+          headingLevel="h1"
+          icon={<AlertIcon className="size-6" />}
+          title="There is no such order"
+          actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
+        >
           <p>“{orderIdText}” is not an order number; order numbers are whole numbers from 1.</p>
         </StatusPanel>
       </>
@@ -43,7 +48,11 @@ export function StepClockRoute() {
     <>
       {title}
       {/* A fresh screen per order, so one order's ticks and typed figures never show on another. */}
-      <StepClockScreen key={orderId} orderId={orderId} canRecord={hasCapability(user, 'sessions.run')} />
+      <StepClockScreen
+        key={orderId}
+        orderId={orderId}
+        canRecord={hasCapability(user, 'sessions.run')}
+      />
     </>
   );
 }

@@ -14,7 +14,12 @@ export function TrendsRoute() {
       {hasCapability(user, 'audit.read') ? (
         <TrendsScreen />
       ) : (
-        <StatusPanel headingLevel="h1" icon={<LockIcon className="size-6" />} title="Trends are for auditors" actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}>
+        <StatusPanel
+          headingLevel="h1"
+          icon={<LockIcon className="size-6" />}
+          title="Trends are for auditors"
+          actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
+        >
           <p>Ask an administrator if your roles need to change.</p>
         </StatusPanel>
       )}

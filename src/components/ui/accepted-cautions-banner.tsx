@@ -8,7 +8,13 @@ export type AcceptedCaution = { id: string; question: string; reason: string };
  * the signed order, the dose check and preparation, the step clock's pre-checks, the dose record
  * and the discharge sheet, so everyone who handles the treatment reads the same reason.
  */
-export function AcceptedCautionsBanner({ cautions, className = '' }: { cautions: readonly AcceptedCaution[]; className?: string }) {
+export function AcceptedCautionsBanner({
+  cautions,
+  className = '',
+}: {
+  cautions: readonly AcceptedCaution[];
+  className?: string;
+}) {
   const headingId = useId();
   if (cautions.length === 0) return null;
   return (
@@ -19,7 +25,9 @@ export function AcceptedCautionsBanner({ cautions, className = '' }: { cautions:
     >
       <h2 id={headingId} className="flex items-center gap-2 font-semibold text-alarm-800">
         <AlertIcon className="size-5" />
-        {cautions.length === 1 ? 'A caution was accepted when this order was signed' : `${cautions.length} cautions were accepted when this order was signed`}
+        {cautions.length === 1
+          ? 'A caution was accepted when this order was signed'
+          : `${cautions.length} cautions were accepted when this order was signed`}
       </h2>
       <ul className="mt-2 space-y-2">
         {cautions.map((caution) => (

@@ -16,13 +16,26 @@ const tones = {
 };
 
 /** A boxed message with an icon and, when there is no title, a spoken kind ("Problem:"). */
-export function Alert({ tone, title, children, live = tone === 'error' ? 'alert' : 'status', className = '' }: AlertProps) {
+export function Alert({
+  tone,
+  title,
+  children,
+  live = tone === 'error' ? 'alert' : 'status',
+  className = '',
+}: AlertProps) {
   const { box, Icon, word } = tones[tone];
   return (
-    <div role={live === 'none' ? undefined : live} className={`flex gap-3 rounded-lg border-l-4 border px-4 py-3 ${box} ${className}`}>
+    <div
+      role={live === 'none' ? undefined : live}
+      className={`flex gap-3 rounded-lg border-l-4 border px-4 py-3 ${box} ${className}`}
+    >
       <Icon className="mt-0.5 size-5" />
       <div className="min-w-0 space-y-1">
-        {title ? <p className="font-semibold">{title}</p> : <span className="sr-only">{word}: </span>}
+        {title ? (
+          <p className="font-semibold">{title}</p>
+        ) : (
+          <span className="sr-only">{word}: </span>
+        )}
         {children && <div className="text-sm leading-relaxed text-paper-900">{children}</div>}
       </div>
     </div>

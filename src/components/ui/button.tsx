@@ -11,7 +11,8 @@ const base =
 
 const variants: Record<ButtonVariant, string> = {
   primary: 'bg-iris-700 text-white hover:bg-iris-800 active:bg-iris-900',
-  secondary: 'border border-paper-500 bg-white text-paper-900 hover:bg-paper-100 active:bg-paper-200',
+  secondary:
+    'border border-paper-500 bg-white text-paper-900 hover:bg-paper-100 active:bg-paper-200',
   quiet: 'text-iris-700 hover:bg-iris-50 active:bg-iris-100 underline-offset-4 hover:underline',
   danger: 'bg-alarm-700 text-white hover:bg-alarm-800',
 };
@@ -21,7 +22,11 @@ const sizes: Record<ButtonSize, string> = {
   sm: 'min-h-10 px-3 py-1.5 text-sm',
 };
 
-export function buttonClasses(variant: ButtonVariant = 'primary', size: ButtonSize = 'md', extra = ''): string {
+export function buttonClasses(
+  variant: ButtonVariant = 'primary',
+  size: ButtonSize = 'md',
+  extra = '',
+): string {
   return `${base} ${variants[variant]} ${sizes[size]} ${extra}`;
 }
 
@@ -34,7 +39,18 @@ type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & {
   ref?: Ref<HTMLButtonElement>;
 };
 
-export function Button({ variant = 'primary', size = 'md', busy = false, icon, className = '', children, disabled, type = 'button', ref, ...rest }: ButtonProps) {
+export function Button({
+  variant = 'primary',
+  size = 'md',
+  busy = false,
+  icon,
+  className = '',
+  children,
+  disabled,
+  type = 'button',
+  ref,
+  ...rest
+}: ButtonProps) {
   return (
     <button
       ref={ref}
@@ -52,7 +68,14 @@ export function Button({ variant = 'primary', size = 'md', busy = false, icon, c
 
 type LinkButtonProps = LinkProps & { variant?: ButtonVariant; size?: ButtonSize; icon?: ReactNode };
 
-export function LinkButton({ variant = 'secondary', size = 'md', icon, className = '', children, ...rest }: LinkButtonProps) {
+export function LinkButton({
+  variant = 'secondary',
+  size = 'md',
+  icon,
+  className = '',
+  children,
+  ...rest
+}: LinkButtonProps) {
   return (
     <Link className={buttonClasses(variant, size, className)} {...rest}>
       {icon}

@@ -7,7 +7,13 @@ type CheckboxProps = Omit<InputHTMLAttributes<HTMLInputElement>, 'type' | 'id'> 
 };
 
 /** A checkbox whose whole row is the tap target, large enough for a finger on a tablet. */
-export function Checkbox({ label, description, className = '', ref, ...inputProps }: CheckboxProps) {
+export function Checkbox({
+  label,
+  description,
+  className = '',
+  ref,
+  ...inputProps
+}: CheckboxProps) {
   const id = useId();
   const descriptionId = description ? `${id}-description` : undefined;
   return (

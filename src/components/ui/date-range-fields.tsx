@@ -17,12 +17,36 @@ type DateRangeFieldsProps = {
  * "from" date, because the server would simply return nothing. Both fields are returned
  * without a wrapper so they sit in the filter form's own grid.
  */
-export function DateRangeFields({ fromLabel, toLabel, from, to, errors, onChange }: DateRangeFieldsProps) {
-  const rangeError = from && to && from > to ? 'The “from” date is after the “to” date, so nothing can match.' : undefined;
+export function DateRangeFields({
+  fromLabel,
+  toLabel,
+  from,
+  to,
+  errors,
+  onChange,
+}: DateRangeFieldsProps) {
+  const rangeError =
+    from && to && from > to
+      ? 'The “from” date is after the “to” date, so nothing can match.'
+      : undefined;
   return (
     <>
-      <TextField label={fromLabel} type="date" value={from ?? ''} max={to} error={rangeError ?? errors.from} onChange={(e) => onChange({ from: e.target.value || undefined })} />
-      <TextField label={toLabel} type="date" value={to ?? ''} min={from} error={errors.to} onChange={(e) => onChange({ to: e.target.value || undefined })} />
+      <TextField
+        label={fromLabel}
+        type="date"
+        value={from ?? ''}
+        max={to}
+        error={rangeError ?? errors.from}
+        onChange={(e) => onChange({ from: e.target.value || undefined })}
+      />
+      <TextField
+        label={toLabel}
+        type="date"
+        value={to ?? ''}
+        min={from}
+        error={errors.to}
+        onChange={(e) => onChange({ to: e.target.value || undefined })}
+      />
     </>
   );
 }

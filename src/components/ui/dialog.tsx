@@ -15,7 +15,14 @@ type DialogProps = {
  * A modal built on the native <dialog>: the browser traps focus inside it, makes the page behind
  * inert, and returns focus to the control that opened it when it closes.
  */
-export function Dialog({ open, onDismiss, title, description, children, dismissible = true }: DialogProps) {
+export function Dialog({
+  open,
+  onDismiss,
+  title,
+  description,
+  children,
+  dismissible = true,
+}: DialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();
   const descriptionId = useId();

@@ -27,7 +27,13 @@ interface FilteredListStatesProps<T extends { total: number }> {
  * a refused filter) with a way to try again, nothing found, and a warning when a refresh failed
  * but the last page is still on screen.
  */
-export function FilteredListStates<T extends { total: number }>({ list, refused, words, empty, children }: FilteredListStatesProps<T>) {
+export function FilteredListStates<T extends { total: number }>({
+  list,
+  refused,
+  words,
+  empty,
+  children,
+}: FilteredListStatesProps<T>) {
   if (list.isPending) return <LoadingPanel label={words.loading} />;
   if (list.isError && !list.data) {
     return (
@@ -36,7 +42,12 @@ export function FilteredListStates<T extends { total: number }>({ list, refused,
         icon={<AlertIcon className="size-6" />}
         title={refused ? 'The server refused this filter' : words.failed}
         actions={
-          <Button variant="secondary" icon={<ReloadIcon />} busy={list.isFetching} onClick={() => void list.refetch()}>
+          <Button
+            variant="secondary"
+            icon={<ReloadIcon />}
+            busy={list.isFetching}
+            onClick={() => void list.refetch()}
+          >
             Try again
           </Button>
         }

@@ -27,7 +27,13 @@ function Icon({ className = 'size-5', children, ...rest }: IconProps & { childre
 
 export function MarkIcon({ className = 'size-8', ...rest }: IconProps) {
   return (
-    <svg viewBox="0 0 32 32" aria-hidden="true" focusable="false" className={`shrink-0 ${className}`} {...rest}>
+    <svg
+      viewBox="0 0 32 32"
+      aria-hidden="true"
+      focusable="false"
+      className={`shrink-0 ${className}`}
+      {...rest}
+    >
       <rect width="32" height="32" rx="8" fill="#512c95" />
       <circle cx="16" cy="16" r="9.5" fill="none" stroke="#faf8f5" strokeWidth="2.5" />
       <path d="M16 16V8.5A7.5 7.5 0 0 1 23.5 16Z" fill="#d6c9f2" />
@@ -160,7 +166,10 @@ export function ReloadIcon(props: IconProps) {
   );
 }
 
-export function SortIcon({ sortOrder, ...props }: IconProps & { sortOrder: 'asc' | 'desc' | false }) {
+export function SortIcon({
+  sortOrder,
+  ...props
+}: IconProps & { sortOrder: 'asc' | 'desc' | false }) {
   return (
     <Icon {...props}>
       {sortOrder !== 'desc' && <path d="M8 10l4-4 4 4" opacity={sortOrder === 'asc' ? 1 : 0.45} />}
@@ -171,9 +180,29 @@ export function SortIcon({ sortOrder, ...props }: IconProps & { sortOrder: 'asc'
 
 export function SpinnerIcon({ className = 'size-5', ...rest }: IconProps) {
   return (
-    <svg viewBox="0 0 24 24" aria-hidden="true" focusable="false" className={`shrink-0 animate-spin ${className}`} {...rest}>
-      <circle cx="12" cy="12" r="9" fill="none" stroke="currentColor" strokeWidth="2.5" opacity="0.25" />
-      <path d="M21 12a9 9 0 0 0-9-9" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinecap="round" />
+    <svg
+      viewBox="0 0 24 24"
+      aria-hidden="true"
+      focusable="false"
+      className={`shrink-0 animate-spin ${className}`}
+      {...rest}
+    >
+      <circle
+        cx="12"
+        cy="12"
+        r="9"
+        fill="none"
+        stroke="currentColor"
+        strokeWidth="2.5"
+        opacity="0.25"
+      />
+      <path
+        d="M21 12a9 9 0 0 0-9-9"
+        fill="none"
+        stroke="currentColor"
+        strokeWidth="2.5"
+        strokeLinecap="round"
+      />
     </svg>
   );
 }
@@ -642,8 +671,22 @@ export function SeverityLevelIcon({ level, ...props }: IconProps & { level: 1 | 
   return (
     <Icon {...props}>
       <rect x="3.5" y="14" width="4" height="6" rx="1" fill="currentColor" />
-      <rect x="10" y="9.5" width="4" height="10.5" rx="1" fill={level >= 2 ? 'currentColor' : 'none'} />
-      <rect x="16.5" y="4" width="4" height="16" rx="1" fill={level >= 3 ? 'currentColor' : 'none'} />
+      <rect
+        x="10"
+        y="9.5"
+        width="4"
+        height="10.5"
+        rx="1"
+        fill={level >= 2 ? 'currentColor' : 'none'}
+      />
+      <rect
+        x="16.5"
+        y="4"
+        width="4"
+        height="16"
+        rx="1"
+        fill={level >= 3 ? 'currentColor' : 'none'}
+      />
     </Icon>
   );
 }

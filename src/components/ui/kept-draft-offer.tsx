@@ -8,18 +8,24 @@ import { InfoIcon } from './icons';
 function keptAt(iso: string): string {
   const at = DateTime.fromISO(iso).setZone(unitTimeZone).setLocale('en-GB');
   if (!at.isValid) return iso;
-  return at.hasSame(DateTime.now().setZone(unitTimeZone), 'day') ? at.toFormat('HH:mm') : at.toFormat('d LLL, HH:mm');
+  return at.hasSame(DateTime.now().setZone(unitTimeZone), 'day')
+    ? at.toFormat('HH:mm')
+    : at.toFormat('d LLL, HH:mm');
 }
 
 /** Offers back what a form held when it was last left unsaved (a crash, a reload, a closed tab). */
 export function KeptDraftOffer<T>({ draft, what }: { draft: FormDraftControl<T>; what: string }) {
   if (!draft.offered) return null;
   return (
-    <div role="status" aria-label="Kept draft" className="my-3 flex flex-wrap items-center gap-3 rounded-lg first:mt-0 border-2 border-iris-700 bg-iris-50 px-4 py-3">
+    <div
+      role="status"
+      aria-label="Kept draft"
+      className="my-3 flex flex-wrap items-center gap-3 rounded-lg first:mt-0 border-2 border-iris-700 bg-iris-50 px-4 py-3"
+    >
       <InfoIcon className="size-5 text-iris-900" />
       <p className="min-w-0 flex-1 text-paper-950">
-        <span className="font-semibold">A draft from {keptAt(draft.offered.savedAt)} was kept</span> — the {what} you had typed and not saved.
-        Restore it, or discard it and start afresh.
+        <span className="font-semibold">A draft from {keptAt(draft.offered.savedAt)} was kept</span>{' '}
+        — the {what} you had typed and not saved. Restore it, or discard it and start afresh.
       </p>
       <div className="flex flex-wrap gap-2">
         <Button type="button" onClick={draft.restore}>
@@ -39,7 +45,8 @@ export function KeptDraftNotice() {
   if (!kept) return null;
   return (
     <p className="mt-2 font-medium">
-      What you had typed and not saved was kept as a draft in this browser: reload, open the same form, and choose Restore.
+      What you had typed and not saved was kept as a draft in this browser: reload, open the same
+      form, and choose Restore.
     </p>
   );
 }

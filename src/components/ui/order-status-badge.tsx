@@ -15,11 +15,19 @@ const boxes: Record<OrderStatusTone, string> = {
 };
 
 /** An order's status as its word and icon in a toned box (the Orders list, the order itself); colour is never the only cue. */
-export function OrderStatusBadge({ status, size = 'sm' }: { status: OrderStatus; size?: 'sm' | 'lg' }) {
+export function OrderStatusBadge({
+  status,
+  size = 'sm',
+}: {
+  status: OrderStatus;
+  size?: 'sm' | 'lg';
+}) {
   const { Icon, short, tone } = orderStatusTable[status];
   const scale = size === 'lg' ? 'px-3.5 py-1 text-base' : 'px-2.5 py-0.5 text-sm';
   return (
-    <span className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border font-medium ${scale} ${boxes[tone]}`}>
+    <span
+      className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border font-medium ${scale} ${boxes[tone]}`}
+    >
       <Icon className={size === 'lg' ? 'size-5' : 'size-4'} />
       {short}
     </span>

@@ -17,7 +17,16 @@ import {
  * How an order's status looks beside its word, so the label and the badge agree without colour
  * being the only cue: an unsigned or replaced order gets a dashed outline.
  */
-export type OrderStatusTone = 'unsigned' | 'waiting' | 'sent-back' | 'ready' | 'running' | 'done' | 'stopped' | 'filed' | 'replaced';
+export type OrderStatusTone =
+  | 'unsigned'
+  | 'waiting'
+  | 'sent-back'
+  | 'ready'
+  | 'running'
+  | 'done'
+  | 'stopped'
+  | 'filed'
+  | 'replaced';
 
 export type OrderStatusEntry = {
   /** The status's name: lists, badges, the patient's history, the status filter. */
@@ -35,7 +44,13 @@ export type OrderStatusEntry = {
  * their moves and their groups live in shared/orders/lifecycle.ts; this is only the wording.
  */
 export const orderStatusTable: Readonly<Record<OrderStatus, OrderStatusEntry>> = {
-  draft: { short: 'Draft', long: 'Draft', meaning: 'Not signed yet; it can still be edited.', Icon: DraftCircleIcon, tone: 'unsigned' },
+  draft: {
+    short: 'Draft',
+    long: 'Draft',
+    meaning: 'Not signed yet; it can still be edited.',
+    Icon: DraftCircleIcon,
+    tone: 'unsigned',
+  },
   signed: {
     short: 'Signed',
     long: 'Signed, waiting for dose check',
@@ -46,7 +61,8 @@ export const orderStatusTable: Readonly<Record<OrderStatus, OrderStatusEntry>> =
   returned: {
     short: 'Sent back',
     long: 'Sent back to the clinician',
-    meaning: 'Sent back by the pharmacist after the dose check twice disagreed; amend it or leave it.',
+    meaning:
+      'Sent back by the pharmacist after the dose check twice disagreed; amend it or leave it.',
     Icon: StatusReturnedIcon,
     tone: 'sent-back',
   },
@@ -57,12 +73,48 @@ export const orderStatusTable: Readonly<Record<OrderStatus, OrderStatusEntry>> =
     Icon: StatusCheckedIcon,
     tone: 'waiting',
   },
-  prepared: { short: 'Prepared', long: 'Prepared', meaning: 'The drug is made up; the beyond-use time runs.', Icon: StatusPreparedIcon, tone: 'waiting' },
-  ready: { short: 'Ready', long: 'Ready for treatment', meaning: 'Ready for the session.', Icon: CheckCircleIcon, tone: 'ready' },
-  'in-session': { short: 'In session', long: 'In session', meaning: 'The session is running on the step clock.', Icon: StatusInSessionIcon, tone: 'running' },
-  completed: { short: 'Completed', long: 'Completed', meaning: 'The treatment was given.', Icon: StatusCompletedIcon, tone: 'done' },
-  stopped: { short: 'Stopped early', long: 'Stopped early', meaning: 'The session was stopped before the end.', Icon: StatusStoppedIcon, tone: 'stopped' },
-  reviewed: { short: 'Reviewed', long: 'Reviewed', meaning: 'Reviewed by the auditor.', Icon: ArchiveBoxIcon, tone: 'filed' },
+  prepared: {
+    short: 'Prepared',
+    long: 'Prepared',
+    meaning: 'The drug is made up; the beyond-use time runs.',
+    Icon: StatusPreparedIcon,
+    tone: 'waiting',
+  },
+  ready: {
+    short: 'Ready',
+    long: 'Ready for treatment',
+    meaning: 'Ready for the session.',
+    Icon: CheckCircleIcon,
+    tone: 'ready',
+  },
+  'in-session': {
+    short: 'In session',
+    long: 'In session',
+    meaning: 'The session is running on the step clock.',
+    Icon: StatusInSessionIcon,
+    tone: 'running',
+  },
+  completed: {
+    short: 'Completed',
+    long: 'Completed',
+    meaning: 'The treatment was given.',
+    Icon: StatusCompletedIcon,
+    tone: 'done',
+  },
+  stopped: {
+    short: 'Stopped early',
+    long: 'Stopped early',
+    meaning: 'The session was stopped before the end.',
+    Icon: StatusStoppedIcon,
+    tone: 'stopped',
+  },
+  reviewed: {
+    short: 'Reviewed',
+    long: 'Reviewed',
+    meaning: 'Reviewed by the auditor.',
+    Icon: ArchiveBoxIcon,
+    tone: 'filed',
+  },
   superseded: {
     short: 'Replaced by an amendment',
     long: 'Replaced by an amendment',
@@ -75,7 +127,10 @@ export const orderStatusTable: Readonly<Record<OrderStatus, OrderStatusEntry>> =
 /** "short" names the status (lists, badges, Today); "long" adds what the order waits for (pharmacy). */
 export type OrderStatusWording = 'long' | 'short';
 
-export function orderStatusWords(status: OrderStatus, wording: OrderStatusWording = 'short'): string {
+export function orderStatusWords(
+  status: OrderStatus,
+  wording: OrderStatusWording = 'short',
+): string {
   return orderStatusTable[status][wording];
 }
 

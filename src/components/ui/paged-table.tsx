@@ -1,5 +1,13 @@
 import { useMemo, type ReactNode } from 'react';
-import { functionalUpdate, rowSortingFeature, tableFeatures, useTable, type ColumnDef, type RowData, type SortingState } from '@tanstack/react-table';
+import {
+  functionalUpdate,
+  rowSortingFeature,
+  tableFeatures,
+  useTable,
+  type ColumnDef,
+  type RowData,
+  type SortingState,
+} from '@tanstack/react-table';
 import { SortableHeader } from './sortable-header';
 import { pageRange, TablePager, type PageRange, type PagerWords } from './table-pager';
 
@@ -12,7 +20,12 @@ export const pagedTableFeatures = tableFeatures({ rowSortingFeature });
 export type PagedTableFeatures = typeof pagedTableFeatures;
 
 /** The part of a list's address that says which page, in which order. */
-export type PageAndSort<TSort extends string> = { sort: TSort; direction: 'asc' | 'desc'; page: number; pageSize: number };
+export type PageAndSort<TSort extends string> = {
+  sort: TSort;
+  direction: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+};
 
 type PagedTableProps<TRow extends RowData, TSort extends string> = {
   columns: ReadonlyArray<ColumnDef<PagedTableFeatures, TRow, any>>;
@@ -49,7 +62,10 @@ export function PagedTable<TRow extends RowData, TSort extends string>({
   perPageClassName,
   onRowClick,
 }: PagedTableProps<TRow, TSort>) {
-  const sorting = useMemo<SortingState>(() => [{ id: paging.sort, desc: paging.direction === 'desc' }], [paging.sort, paging.direction]);
+  const sorting = useMemo<SortingState>(
+    () => [{ id: paging.sort, desc: paging.direction === 'desc' }],
+    [paging.sort, paging.direction],
+  );
   const isSortKey = (id: string): id is TSort => (sortKeys as readonly string[]).includes(id);
 
   const table = useTable({
@@ -62,23 +78,33 @@ export function PagedTable<TRow extends RowData, TSort extends string>({
     state: { sorting },
     onSortingChange: (updater) => {
       const [next] = functionalUpdate(updater, sorting);
-      if (next && isSortKey(next.id)) onChange({ sort: next.id, direction: next.desc ? 'desc' : 'asc' });
+      if (next && isSortKey(next.id))
+        onChange({ sort: next.id, direction: next.desc ? 'desc' : 'asc' });
     },
   });
 
   return (
     <div className="space-y-3">
       {/* aria-busy sits on the table's parent: tests and assistive technology read it there. */}
-      <div className="relative overflow-x-auto rounded-2xl border border-paper-200 bg-white" aria-busy={busy || undefined}>
+      <div
+        className="relative overflow-x-auto rounded-2xl border border-paper-200 bg-white"
+        aria-busy={busy || undefined}
+      >
         <table className="w-full border-collapse text-left">
-          <caption className="sr-only">{caption(pageRange(paging.page, paging.pageSize, total))}</caption>
+          <caption className="sr-only">
+            {caption(pageRange(paging.page, paging.pageSize, total))}
+          </caption>
           <thead className="bg-paper-100 text-sm text-paper-700">
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id}>
                 {group.headers.map((header) => (
                   <SortableHeader
                     key={header.id}
-                    canSort={!header.isPlaceholder && header.column.getCanSort() && isSortKey(header.column.id)}
+                    canSort={
+                      !header.isPlaceholder &&
+                      header.column.getCanSort() &&
+                      isSortKey(header.column.id)
+                    }
                     sorted={header.column.getIsSorted()}
                     onToggleSort={header.column.getToggleSortingHandler()}
                   >

@@ -6,7 +6,13 @@ import type { ReactNode } from 'react';
  * is a layout table — presentational to assistive technology, and plain blocks on screen, where
  * the running head is not shown.
  */
-export function PrintFrame({ runningHead, children }: { runningHead: ReactNode; children: ReactNode }) {
+export function PrintFrame({
+  runningHead,
+  children,
+}: {
+  runningHead: ReactNode;
+  children: ReactNode;
+}) {
   return (
     <table role="presentation" className="block w-full print:table">
       <thead className="hidden print:table-header-group" data-running-head>

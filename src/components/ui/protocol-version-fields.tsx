@@ -1,7 +1,11 @@
 import { SelectField } from './select-field';
 
 /** What a protocol filter needs to know of each protocol, whichever feature loaded the list. */
-export type ProtocolVersionChoice = { key: string; title: string; versions: ReadonlyArray<{ version: number }> };
+export type ProtocolVersionChoice = {
+  key: string;
+  title: string;
+  versions: ReadonlyArray<{ version: number }>;
+};
 
 type ProtocolVersionFieldsProps = {
   /** The protocols to choose from; undefined while the list is loading. */
@@ -19,14 +23,25 @@ type ProtocolVersionFieldsProps = {
  * from the address that the list does not (or not yet) hold is still offered, so the selects
  * never show something other than the filter in force.
  */
-export function ProtocolVersionFields({ choices, loadFailed, protocol, version, errors, onChange }: ProtocolVersionFieldsProps) {
+export function ProtocolVersionFields({
+  choices,
+  loadFailed,
+  protocol,
+  version,
+  errors,
+  onChange,
+}: ProtocolVersionFieldsProps) {
   const chosen = choices?.find((p) => p.key === protocol);
   return (
     <>
       <SelectField
         label="Protocol"
         value={protocol ?? ''}
-        error={loadFailed ? 'The protocol list could not be loaded; reload the page to try again.' : errors.protocol}
+        error={
+          loadFailed
+            ? 'The protocol list could not be loaded; reload the page to try again.'
+            : errors.protocol
+        }
         onChange={(e) => onChange({ protocol: e.target.value || undefined })}
       >
         <option value="">Any protocol</option>
@@ -51,7 +66,9 @@ export function ProtocolVersionFields({ choices, loadFailed, protocol, version, 
             Version {v.version}
           </option>
         ))}
-        {version !== undefined && !chosen?.versions.some((v) => v.version === version) && <option value={version}>Version {version}</option>}
+        {version !== undefined && !chosen?.versions.some((v) => v.version === version) && (
+          <option value={version}>Version {version}</option>
+        )}
       </SelectField>
     </>
   );

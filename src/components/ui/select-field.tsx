@@ -10,7 +10,15 @@ type SelectFieldProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, 'id'> & {
 };
 
 /** A labelled drop-down whose hint and error are tied to it, like the shared text field. */
-export function SelectField({ label, hint, error, className = '', children, ref, ...rest }: SelectFieldProps) {
+export function SelectField({
+  label,
+  hint,
+  error,
+  className = '',
+  children,
+  ref,
+  ...rest
+}: SelectFieldProps) {
   const id = useId();
   const hintId = hint ? `${id}-hint` : undefined;
   const errorId = error ? `${id}-error` : undefined;

@@ -5,17 +5,32 @@ import { api } from '../../lib/api-client';
 import { roleLabels, roles } from '../../../shared/roles';
 
 const staffSchema = z.object({
-  staff: z.array(z.object({ id: z.number(), displayName: z.string(), roles: z.array(z.enum(roles)), active: z.boolean() })),
+  staff: z.array(
+    z.object({
+      id: z.number(),
+      displayName: z.string(),
+      roles: z.array(z.enum(roles)),
+      active: z.boolean(),
+    }),
+  ),
 });
 
-type StaffFieldProps = { value: number | undefined; error?: string; onChange: (staff: number | undefined) => void };
+type StaffFieldProps = {
+  value: number | undefined;
+  error?: string;
+  onChange: (staff: number | undefined) => void;
+};
 
 /**
  * The auditor's staff filter: a person chosen by name (from `GET /api/staff`, which auditors may
  * read). Used by the deviations queue and the dose records, so it lives with the shared controls.
  */
 export function StaffField({ value, error, onChange }: StaffFieldProps) {
-  const staff = useQuery({ queryKey: ['staff'], queryFn: ({ signal }) => api.get('/staff', { schema: staffSchema, signal }), staleTime: 5 * 60_000 });
+  const staff = useQuery({
+    queryKey: ['staff'],
+    queryFn: ({ signal }) => api.get('/staff', { schema: staffSchema, signal }),
+    staleTime: 5 * 60_000,
+  });
   const id = useId();
   return (
     <div className="flex flex-col gap-1.5">
@@ -30,7 +45,9 @@ export function StaffField({ value, error, onChange }: StaffFieldProps) {
         aria-describedby={`${id}-hint${error || staff.isError ? ` ${id}-error` : ''}`}
         aria-invalid={error ? true : undefined}
         value={value === undefined ? '' : String(value)}
-        onChange={(event) => onChange(event.target.value === '' ? undefined : Number(event.target.value))}
+        onChange={(event) =>
+          onChange(event.target.value === '' ? undefined : Number(event.target.value))
+        }
         className={`min-h-tap w-full rounded-lg border bg-white px-3 py-2 text-base text-paper-950 ${error ? 'border-2 border-alarm-700' : 'border-paper-500'}`}
       >
         <option value="">Anyone</option>
@@ -40,7 +57,9 @@ export function StaffField({ value, error, onChange }: StaffFieldProps) {
             {person.active ? '' : ' (deactivated)'}
           </option>
         ))}
-        {value !== undefined && staff.data && !staff.data.staff.some((p) => p.id === value) ? <option value={value}>Person {value}</option> : null}
+        {value !== undefined && staff.data && !staff.data.staff.some((p) => p.id === value) ? (
+          <option value={value}>Person {value}</option>
+        ) : null}
       </select>
       {error || staff.isError ? (
         <p id={`${id}-error`} className="text-sm font-medium text-alarm-700">

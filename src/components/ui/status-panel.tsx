@@ -12,11 +12,23 @@ type StatusPanelProps = {
 };
 
 /** The calm centred message used for loading, empty and failed states across the app. */
-export function StatusPanel({ icon, title, children, actions, role = 'status', headingLevel = 'h2' }: StatusPanelProps) {
+export function StatusPanel({
+  icon,
+  title,
+  children,
+  actions,
+  role = 'status',
+  headingLevel = 'h2',
+}: StatusPanelProps) {
   const Heading = headingLevel;
   return (
-    <div role={role} className="mx-auto flex max-w-xl flex-col items-center gap-3 rounded-2xl border border-paper-200 bg-white px-6 py-10 text-center">
-      <div className="flex size-12 items-center justify-center rounded-full bg-paper-100 text-paper-700">{icon}</div>
+    <div
+      role={role}
+      className="mx-auto flex max-w-xl flex-col items-center gap-3 rounded-2xl border border-paper-200 bg-white px-6 py-10 text-center"
+    >
+      <div className="flex size-12 items-center justify-center rounded-full bg-paper-100 text-paper-700">
+        {icon}
+      </div>
       <Heading className="text-xl font-semibold text-paper-900">{title}</Heading>
       {children && <div className="max-w-prose text-paper-700">{children}</div>}
       {actions && <div className="mt-2 flex flex-wrap justify-center gap-3">{actions}</div>}

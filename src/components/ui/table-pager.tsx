@@ -30,22 +30,42 @@ type TablePagerProps = {
 };
 
 /** The row count, a page-size select and previous/next buttons under a server-paged table. */
-export function TablePager({ words, page, pageSize, total, pageSizes = [10, 25, 50, 100], perPageClassName = 'w-44', onPage, onPageSize }: TablePagerProps) {
+export function TablePager({
+  words,
+  page,
+  pageSize,
+  total,
+  pageSizes = [10, 25, 50, 100],
+  perPageClassName = 'w-44',
+  onPage,
+  onPageSize,
+}: TablePagerProps) {
   const { first, last, pageCount } = pageRange(page, pageSize, total);
   return (
     <nav aria-label={words.navLabel} className="flex flex-wrap items-end justify-between gap-4">
       <p role="status" className="text-paper-800">
-        {total === 0 ? words.none : `${words.items} ${first}–${last} of ${total}`} · page {page} of {pageCount}
+        {total === 0 ? words.none : `${words.items} ${first}–${last} of ${total}`} · page {page} of{' '}
+        {pageCount}
       </p>
       <div className="flex flex-wrap items-end gap-3">
-        <SelectField label={words.perPage} value={String(pageSize)} className={perPageClassName} onChange={(e) => onPageSize(Number(e.target.value))}>
+        <SelectField
+          label={words.perPage}
+          value={String(pageSize)}
+          className={perPageClassName}
+          onChange={(e) => onPageSize(Number(e.target.value))}
+        >
           {pageSizes.map((size) => (
             <option key={size} value={size}>
               {size}
             </option>
           ))}
         </SelectField>
-        <Button variant="secondary" icon={<PageBackIcon />} disabled={page <= 1} onClick={() => onPage(page - 1)}>
+        <Button
+          variant="secondary"
+          icon={<PageBackIcon />}
+          disabled={page <= 1}
+          onClick={() => onPage(page - 1)}
+        >
           Previous page
         </Button>
         <Button variant="secondary" disabled={page >= pageCount} onClick={() => onPage(page + 1)}>

@@ -9,7 +9,15 @@ type TextAreaFieldProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, 'id'
 };
 
 /** A multi-line field with its label, hint and error tied to it. */
-export function TextAreaField({ label, hint, error, className = '', rows = 2, ref, ...rest }: TextAreaFieldProps) {
+export function TextAreaField({
+  label,
+  hint,
+  error,
+  className = '',
+  rows = 2,
+  ref,
+  ...rest
+}: TextAreaFieldProps) {
   const id = useId();
   const hintId = hint ? `${id}-hint` : undefined;
   const errorId = error ? `${id}-error` : undefined;

@@ -13,7 +13,14 @@ type TextFieldProps = Omit<InputHTMLAttributes<HTMLInputElement>, 'id'> & {
  * A labelled input whose hint and error are tied to it with aria-describedby, so a screen
  * reader hears the rule and the problem when the field gets focus.
  */
-export function TextField({ label, hint, error, className = '', ref, ...inputProps }: TextFieldProps) {
+export function TextField({
+  label,
+  hint,
+  error,
+  className = '',
+  ref,
+  ...inputProps
+}: TextFieldProps) {
   const id = useId();
   const hintId = hint ? `${id}-hint` : undefined;
   const errorId = error ? `${id}-error` : undefined;
@@ -46,7 +53,13 @@ export function TextField({ label, hint, error, className = '', ref, ...inputPro
   );
 }
 
-export function FieldError({ id, message }: { id: string | undefined; message: string | undefined }) {
+export function FieldError({
+  id,
+  message,
+}: {
+  id: string | undefined;
+  message: string | undefined;
+}) {
   if (!message) return null;
   return (
     <p id={id} className="flex items-start gap-1.5 text-sm font-medium text-alarm-700">

@@ -1,6 +1,9 @@
 import { readFileSync, readdirSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { protocolVersionSchema, type ProtocolVersion } from '../../../shared/protocol/protocol-schema';
+import {
+  protocolVersionSchema,
+  type ProtocolVersion,
+} from '../../../shared/protocol/protocol-schema';
 
 export const protocolsDir = fileURLToPath(new URL('../../../protocols/', import.meta.url));
 

@@ -13,5 +13,8 @@ export const auditEventSchema = z.object({
 });
 export type AuditEvent = z.infer<typeof auditEventSchema>;
 
-export const auditEventPageSchema = z.object({ events: z.array(auditEventSchema), total: z.number().int() });
+export const auditEventPageSchema = z.object({
+  events: z.array(auditEventSchema),
+  total: z.number().int(),
+});
 export type AuditEventPage = z.infer<typeof auditEventPageSchema>;

@@ -14,13 +14,19 @@ export function AuditChainCheck() {
   const headingId = useId();
   const report = check.data;
   return (
-    <section aria-labelledby={headingId} className="mt-8 rounded-2xl border border-paper-200 bg-white px-5 py-4">
+    <section
+      aria-labelledby={headingId}
+      className="mt-8 rounded-2xl border border-paper-200 bg-white px-5 py-4"
+    >
       <div className="flex flex-wrap items-center justify-between gap-3">
         <div>
           <h2 id={headingId} className="text-lg font-semibold text-paper-900">
             Is the audit trail intact?
           </h2>
-          <p className="text-sm text-paper-700">Each event carries a hash of the one before; a change made around Luxtempo breaks the chain at that event.</p>
+          <p className="text-sm text-paper-700">
+            Each event carries a hash of the one before; a change made around Luxtempo breaks the
+            chain at that event.
+          </p>
         </div>
         <Button variant="secondary" busy={check.isPending} onClick={() => check.mutate()}>
           Check the chain now
@@ -34,12 +40,21 @@ export function AuditChainCheck() {
         )}
         {report?.ok && (
           <Alert tone="info" title="Intact">
-            All {report.checked.toLocaleString('en-GB')} events match their hashes, and the chain ends at the newest event.
+            All {report.checked.toLocaleString('en-GB')} events match their hashes, and the chain
+            ends at the newest event.
           </Alert>
         )}
         {report && !report.ok && (
-          <Alert tone="error" title={report.firstBrokenId ? `Broken at event ${report.firstBrokenId}` : 'The end of the chain does not match'}>
-            {report.reason} {report.checked.toLocaleString('en-GB')} events before it are intact. Tell the unit’s information governance lead and keep the latest backup.
+          <Alert
+            tone="error"
+            title={
+              report.firstBrokenId
+                ? `Broken at event ${report.firstBrokenId}`
+                : 'The end of the chain does not match'
+            }
+          >
+            {report.reason} {report.checked.toLocaleString('en-GB')} events before it are intact.
+            Tell the unit’s information governance lead and keep the latest backup.
           </Alert>
         )}
       </div>

@@ -15,16 +15,46 @@ type AuditTrailFiltersProps = {
 
 /** Checks typed text by the API's own schema, in words a person can act on. */
 function checker(key: 'action' | 'entityId' | 'actor', message: string) {
-  return (text: string) => (auditTrailQuerySchema.shape[key].safeParse(text).success && (key === 'action' || /^\d+$/.test(text)) ? null : message);
+  return (text: string) =>
+    auditTrailQuerySchema.shape[key].safeParse(text).success &&
+    (key === 'action' || /^\d+$/.test(text))
+      ? null
+      : message;
 }
 
-export function AuditTrailFilters({ query, filtered, fieldErrors, onChange }: AuditTrailFiltersProps) {
+export function AuditTrailFilters({
+  query,
+  filtered,
+  fieldErrors,
+  onChange,
+}: AuditTrailFiltersProps) {
   const actionsListId = useId();
-  const rangeError = query.from && query.to && query.from > query.to ? 'The “from” date is after the “to” date, so nothing can match.' : undefined;
+  const rangeError =
+    query.from && query.to && query.from > query.to
+      ? 'The “from” date is after the “to” date, so nothing can match.'
+      : undefined;
   return (
-    <form aria-label="Filter the audit trail" onSubmit={(e) => e.preventDefault()} className="mb-4 grid gap-4 rounded-2xl border border-paper-200 bg-white p-4 sm:grid-cols-2 lg:grid-cols-4">
-      <TextField label="From" type="date" value={query.from ?? ''} max={query.to} error={rangeError ?? fieldErrors.from} onChange={(e) => onChange({ from: e.target.value || undefined })} />
-      <TextField label="To" type="date" value={query.to ?? ''} min={query.from} error={fieldErrors.to} onChange={(e) => onChange({ to: e.target.value || undefined })} />
+    <form
+      aria-label="Filter the audit trail"
+      onSubmit={(e) => e.preventDefault()}
+      className="mb-4 grid gap-4 rounded-2xl border border-paper-200 bg-white p-4 sm:grid-cols-2 lg:grid-cols-4"
+    >
+      <TextField
+        label="From"
+        type="date"
+        value={query.from ?? ''}
+        max={query.to}
+        error={rangeError ?? fieldErrors.from}
+        onChange={(e) => onChange({ from: e.target.value || undefined })}
+      />
+      <TextField
+        label="To"
+        type="date"
+        value={query.to ?? ''}
+        min={query.from}
+        error={fieldErrors.to}
+        onChange={(e) => onChange({ to: e.target.value || undefined })}
+      />
       <div>
         <CheckedTextField
           label="Action"
@@ -33,7 +63,10 @@ export function AuditTrailFilters({ query, filtered, fieldErrors, onChange }: Au
           autoComplete="off"
           spellCheck={false}
           value={query.action}
-          check={checker('action', 'An action name is lower-case letters, digits, dots and hyphens, e.g. order.signed.')}
+          check={checker(
+            'action',
+            'An action name is lower-case letters, digits, dots and hyphens, e.g. order.signed.',
+          )}
           error={fieldErrors.action}
           onChange={(action) => onChange({ action })}
         />
@@ -55,14 +88,21 @@ export function AuditTrailFilters({ query, filtered, fieldErrors, onChange }: Au
         error={fieldErrors.actor}
         onChange={(actor) => onChange({ actor: actor === undefined ? undefined : Number(actor) })}
       />
-      <SelectField label="Record type" value={query.entityType ?? ''} error={fieldErrors.entityType} onChange={(e) => onChange({ entityType: e.target.value || undefined })}>
+      <SelectField
+        label="Record type"
+        value={query.entityType ?? ''}
+        error={fieldErrors.entityType}
+        onChange={(e) => onChange({ entityType: e.target.value || undefined })}
+      >
         <option value="">Any record</option>
         {Object.entries(recordTypes).map(([type, label]) => (
           <option key={type} value={type}>
             {label}
           </option>
         ))}
-        {query.entityType && !(query.entityType in recordTypes) && <option value={query.entityType}>{query.entityType}</option>}
+        {query.entityType && !(query.entityType in recordTypes) && (
+          <option value={query.entityType}>{query.entityType}</option>
+        )}
       </SelectField>
       <CheckedTextField
         label="Record id"
@@ -74,7 +114,11 @@ export function AuditTrailFilters({ query, filtered, fieldErrors, onChange }: Au
         error={fieldErrors.entityId}
         onChange={(entityId) => onChange({ entityId })}
       />
-      <SelectField label="Order of events" value={query.direction} onChange={(e) => onChange({ direction: e.target.value as AuditTrailQuery['direction'] })}>
+      <SelectField
+        label="Order of events"
+        value={query.direction}
+        onChange={(e) => onChange({ direction: e.target.value as AuditTrailQuery['direction'] })}
+      >
         <option value="desc">Newest first</option>
         <option value="asc">Oldest first</option>
       </SelectField>
@@ -82,7 +126,16 @@ export function AuditTrailFilters({ query, filtered, fieldErrors, onChange }: Au
         <Button
           variant="secondary"
           disabled={!filtered}
-          onClick={() => onChange({ from: undefined, to: undefined, action: undefined, actor: undefined, entityType: undefined, entityId: undefined })}
+          onClick={() =>
+            onChange({
+              from: undefined,
+              to: undefined,
+              action: undefined,
+              actor: undefined,
+              entityType: undefined,
+              entityId: undefined,
+            })
+          }
         >
           Clear filters
         </Button>

@@ -20,14 +20,37 @@ export function AuditTrailScreen({ mayVerify = false }: { mayVerify?: boolean })
         title="Audit trail"
         lead={`Who did what, and when: sign-ins, orders, checks, sessions and reviews, as the server wrote them. Nothing here can be changed. Times are in the unit’s time zone (${unitTimeZone}).`}
       />
-      <AuditTrailFilters query={query} filtered={filtered} fieldErrors={fieldErrors} onChange={update} />
+      <AuditTrailFilters
+        query={query}
+        filtered={filtered}
+        fieldErrors={fieldErrors}
+        onChange={update}
+      />
       <FilteredListStates
         list={list}
         refused={Object.keys(fieldErrors).length > 0}
-        words={{ loading: 'Loading the audit trail…', failed: 'The audit trail could not be loaded', stale: 'The list may be out of date' }}
-        empty={{ icon: <TrailLogIcon className="size-6" />, title: filtered ? 'No event matches these filters' : 'No events yet', body: filtered ? 'Widen the dates or clear the filters.' : 'Events appear as people use Luxtempo.' }}
+        words={{
+          loading: 'Loading the audit trail…',
+          failed: 'The audit trail could not be loaded',
+          stale: 'The list may be out of date',
+        }}
+        empty={{
+          icon: <TrailLogIcon className="size-6" />,
+          title: filtered ? 'No event matches these filters' : 'No events yet',
+          body: filtered
+            ? 'Widen the dates or clear the filters.'
+            : 'Events appear as people use Luxtempo.',
+        }}
       >
-        {(data) => <AuditTrailTable events={data.events} total={data.total} query={query} onChange={update} busy={list.isPlaceholderData} />}
+        {(data) => (
+          <AuditTrailTable
+            events={data.events}
+            total={data.total}
+            query={query}
+            onChange={update}
+            busy={list.isPlaceholderData}
+          />
+        )}
       </FilteredListStates>
       {mayVerify && <AuditChainCheck />}
     </>

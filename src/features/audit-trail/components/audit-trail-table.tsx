@@ -16,12 +16,16 @@ function recordHref(type: string | null, id: string | null): string | null {
 }
 
 function RecordCell({ event }: { event: AuditEvent }) {
-  if (event.entityType === null && event.entityId === null) return <span className="text-paper-600">—</span>;
+  if (event.entityType === null && event.entityId === null)
+    return <span className="text-paper-600">—</span>;
   const id = event.entityId === null ? null : String(event.entityId);
   const label = `${recordTypeLabel(event.entityType)}${id ? ` ${id}` : ''}`;
   const href = recordHref(event.entityType, id);
   return href ? (
-    <Link to={href} className="whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900">
+    <Link
+      to={href}
+      className="whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900"
+    >
       {label}
     </Link>
   ) : (
@@ -35,7 +39,9 @@ function Details({ details }: { details: unknown }) {
   return (
     <details className="max-w-md min-w-48">
       <summary className="cursor-pointer text-sm wrap-anywhere text-paper-900">{summary}</summary>
-      <pre className="mt-1 overflow-x-auto rounded-md bg-paper-100 p-2 text-xs whitespace-pre-wrap wrap-anywhere text-paper-900">{JSON.stringify(details, null, 2)}</pre>
+      <pre className="mt-1 overflow-x-auto rounded-md bg-paper-100 p-2 text-xs whitespace-pre-wrap wrap-anywhere text-paper-900">
+        {JSON.stringify(details, null, 2)}
+      </pre>
     </details>
   );
 }
@@ -53,10 +59,14 @@ export function AuditTrailTable({ events, total, query, onChange, busy }: AuditT
   const { first, last } = pageRange(query.page, query.pageSize, total);
   return (
     <div className="space-y-3">
-      <div className="relative overflow-x-auto rounded-2xl border border-paper-200 bg-white" aria-busy={busy || undefined}>
+      <div
+        className="relative overflow-x-auto rounded-2xl border border-paper-200 bg-white"
+        aria-busy={busy || undefined}
+      >
         <table className="w-full border-collapse text-left">
           <caption className="sr-only">
-            Audit events {first} to {last} of {total}, {query.direction === 'desc' ? 'newest' : 'oldest'} first.
+            Audit events {first} to {last} of {total},{' '}
+            {query.direction === 'desc' ? 'newest' : 'oldest'} first.
           </caption>
           <thead className="bg-paper-100 text-sm text-paper-700">
             <tr>
@@ -72,12 +82,20 @@ export function AuditTrailTable({ events, total, query, onChange, busy }: AuditT
               <tr key={event.id} className="border-t border-paper-200 align-top">
                 <td className="numerals-steady px-3 py-2.5 pl-4 whitespace-nowrap">
                   {formatUnitDate(event.occurredAt)}
-                  <span className="block text-sm text-paper-700">{formatUnitClock(event.occurredAt)}</span>
+                  <span className="block text-sm text-paper-700">
+                    {formatUnitClock(event.occurredAt)}
+                  </span>
                 </td>
                 <td className="min-w-40 px-3 py-2.5">
-                  {event.actor ?? (event.actorUserId === null ? 'Luxtempo itself' : 'Unknown person')}
+                  {event.actor ??
+                    (event.actorUserId === null ? 'Luxtempo itself' : 'Unknown person')}
                   <span className="block text-sm text-paper-600">
-                    {[event.actorUserId !== null ? `person id ${event.actorUserId}` : null, event.ipAddress ? `from ${event.ipAddress}` : null].filter(Boolean).join(' · ')}
+                    {[
+                      event.actorUserId !== null ? `person id ${event.actorUserId}` : null,
+                      event.ipAddress ? `from ${event.ipAddress}` : null,
+                    ]
+                      .filter(Boolean)
+                      .join(' · ')}
                   </span>
                 </td>
                 <td className="px-3 py-2.5">
@@ -96,7 +114,12 @@ export function AuditTrailTable({ events, total, query, onChange, busy }: AuditT
         </table>
       </div>
       <TablePager
-        words={{ navLabel: 'Pages of the audit trail', items: 'Events', none: 'No events', perPage: 'Events per page' }}
+        words={{
+          navLabel: 'Pages of the audit trail',
+          items: 'Events',
+          none: 'No events',
+          perPage: 'Events per page',
+        }}
         page={query.page}
         pageSize={query.pageSize}
         total={total}

@@ -70,7 +70,10 @@ export function summariseDetails(details: unknown, limit = 140): string {
   if (typeof details !== 'object') return String(details);
   const parts = Object.entries(details as Record<string, unknown>)
     .filter(([key]) => key !== 'idempotencyKey')
-    .map(([key, value]) => `${key}: ${typeof value === 'object' && value !== null ? JSON.stringify(value) : String(value)}`);
+    .map(
+      ([key, value]) =>
+        `${key}: ${typeof value === 'object' && value !== null ? JSON.stringify(value) : String(value)}`,
+    );
   const text = parts.join('; ');
   return text.length > limit ? `${text.slice(0, limit - 1)}…` : text;
 }

@@ -1,7 +1,10 @@
 import { useEffect, useState, type InputHTMLAttributes } from 'react';
 import { TextField } from '../../../components/ui/text-field';
 
-type CheckedTextFieldProps = Omit<InputHTMLAttributes<HTMLInputElement>, 'value' | 'onChange' | 'id'> & {
+type CheckedTextFieldProps = Omit<
+  InputHTMLAttributes<HTMLInputElement>,
+  'value' | 'onChange' | 'id'
+> & {
   label: string;
   hint?: string;
   value: string | undefined;
@@ -12,7 +15,13 @@ type CheckedTextFieldProps = Omit<InputHTMLAttributes<HTMLInputElement>, 'value'
 };
 
 /** A text filter that becomes part of the query only once it is valid. */
-export function CheckedTextField({ value, check, error, onChange, ...rest }: CheckedTextFieldProps) {
+export function CheckedTextField({
+  value,
+  check,
+  error,
+  onChange,
+  ...rest
+}: CheckedTextFieldProps) {
   const [text, setText] = useState(value ?? '');
   const [problem, setProblem] = useState<string | null>(null);
 

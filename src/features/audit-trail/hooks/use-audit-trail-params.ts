@@ -25,7 +25,9 @@ export function useAuditTrailParams() {
 
   const update = useCallback(
     (changes: Partial<AuditTrailQuery>) =>
-      changeSearch((latest) => writeListParams(changedListParams(readQuery(latest), changes), keys, defaults)),
+      changeSearch((latest) =>
+        writeListParams(changedListParams(readQuery(latest), changes), keys, defaults),
+      ),
     [changeSearch],
   );
 

@@ -6,7 +6,9 @@ import { rememberWhySessionEnded } from '../../../lib/session-ended';
  * Who is signed in, or `null` when nobody is. "Not signed in" (401) is an ordinary answer here,
  * not a failure; anything else going wrong is thrown so the screen can say so.
  */
-export async function getSession({ signal }: { signal?: AbortSignal } = {}): Promise<SessionUser | null> {
+export async function getSession({
+  signal,
+}: { signal?: AbortSignal } = {}): Promise<SessionUser | null> {
   // The server sets this readable cookie beside the httpOnly session; without it nobody has
   // signed in on this browser, so there is nothing to ask (and no 401 in the console).
   if (!document.cookie.split('; ').includes('luxtempo_signed_in=1')) return null;

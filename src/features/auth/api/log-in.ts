@@ -7,6 +7,9 @@ const loginResponseSchema = z.object({ user: sessionUserSchema });
 
 export async function logIn(credentials: LoginRequest): Promise<SessionUser> {
   // A wrong password answers 401 too; it belongs on the form, not to the session-ended handler.
-  const { user } = await api.post('/auth/login', credentials, { schema: loginResponseSchema, unauthorized: 'report' });
+  const { user } = await api.post('/auth/login', credentials, {
+    schema: loginResponseSchema,
+    unauthorized: 'report',
+  });
   return user;
 }

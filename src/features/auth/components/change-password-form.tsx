@@ -17,10 +17,17 @@ const formSchema = z
     newPassword: newPasswordSchema('newPassword'),
     repeat: z.string(),
   })
-  .refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'repeat must be the same as the new password' });
+  .refine((v) => v.newPassword === v.repeat, {
+    path: ['repeat'],
+    message: 'repeat must be the same as the new password',
+  });
 type FormValues = z.infer<typeof formSchema>;
 
-const labels = { currentPassword: 'Current password', newPassword: 'New password', repeat: 'New password again' };
+const labels = {
+  currentPassword: 'Current password',
+  newPassword: 'New password',
+  repeat: 'New password again',
+};
 const fieldNames = ['currentPassword', 'newPassword'] as const;
 
 export function ChangePasswordForm() {
@@ -31,7 +38,10 @@ export function ChangePasswordForm() {
     setError,
     reset,
     formState: { errors },
-  } = useForm<FormValues>({ resolver: zodResolver(formSchema), defaultValues: { currentPassword: '', newPassword: '', repeat: '' } });
+  } = useForm<FormValues>({
+    resolver: zodResolver(formSchema),
+    defaultValues: { currentPassword: '', newPassword: '', repeat: '' },
+  });
 
   const onSubmit = handleSubmit(({ currentPassword, newPassword }) => {
     change.mutate(
@@ -39,7 +49,8 @@ export function ChangePasswordForm() {
       {
         onSuccess: () => reset(),
         onError: (error) => {
-          if (isApiRequestError(error) && error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
+          if (isApiRequestError(error) && error.status === 400)
+            applyServerFieldErrors(error, setError, fieldNames);
         },
       },
     );
@@ -59,9 +70,28 @@ export function ChangePasswordForm() {
           {describeError(change.error)}
         </Alert>
       )}
-      <TextField label={labels.currentPassword} type="password" autoComplete="current-password" error={readableMessage(errors.currentPassword?.message, labels)} {...register('currentPassword')} />
-      <TextField label={labels.newPassword} type="password" autoComplete="new-password" hint={newPasswordHint} error={readableMessage(errors.newPassword?.message, labels)} {...register('newPassword')} />
-      <TextField label={labels.repeat} type="password" autoComplete="new-password" error={readableMessage(errors.repeat?.message, labels)} {...register('repeat')} />
+      <TextField
+        label={labels.currentPassword}
+        type="password"
+        autoComplete="current-password"
+        error={readableMessage(errors.currentPassword?.message, labels)}
+        {...register('currentPassword')}
+      />
+      <TextField
+        label={labels.newPassword}
+        type="password"
+        autoComplete="new-password"
+        hint={newPasswordHint}
+        error={readableMessage(errors.newPassword?.message, labels)}
+        {...register('newPassword')}
+      />
+      <TextField
+        label={labels.repeat}
+        type="password"
+        autoComplete="new-password"
+        error={readableMessage(errors.repeat?.message, labels)}
+        {...register('repeat')}
+      />
       <Button type="submit" busy={change.isPending} className="self-start">
         {change.isPending ? 'Changing…' : 'Change password'}
       </Button>

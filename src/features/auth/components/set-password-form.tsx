@@ -16,30 +16,52 @@ import { newPasswordHint } from './new-password-fields';
 
 const formSchema = z
   .object({ password: newPasswordSchema('password'), repeat: z.string() })
-  .refine((v) => v.password === v.repeat, { path: ['repeat'], message: 'repeat must be the same as the new password' });
+  .refine((v) => v.password === v.repeat, {
+    path: ['repeat'],
+    message: 'repeat must be the same as the new password',
+  });
 type FormValues = z.infer<typeof formSchema>;
 
 const labels = { password: 'New password', repeat: 'New password again' };
 
 /** The page an e-mailed link opens: who the link is for, then the new password twice. */
 export function SetPasswordForm({ token }: { token: string }) {
-  const link = useQuery({ queryKey: ['auth', 'password-link', token], queryFn: ({ signal }) => checkPasswordLink(token, { signal }), retry: false, staleTime: Infinity });
+  const link = useQuery({
+    queryKey: ['auth', 'password-link', token],
+    queryFn: ({ signal }) => checkPasswordLink(token, { signal }),
+    retry: false,
+    staleTime: Infinity,
+  });
   const save = useMutation({ mutationFn: setPasswordWithLink });
   const {
     register,
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<FormValues>({ resolver: zodResolver(formSchema), defaultValues: { password: '', repeat: '' } });
+  } = useForm<FormValues>({
+    resolver: zodResolver(formSchema),
+    defaultValues: { password: '', repeat: '' },
+  });
 
-  if (!/^[A-Za-z0-9_-]{43}$/.test(token) || (link.isError && isApiRequestError(link.error) && [400, 410].includes(link.error.status))) {
+  if (
+    !/^[A-Za-z0-9_-]{43}$/.test(token) ||
+    (link.isError && isApiRequestError(link.error) && [400, 410].includes(link.error.status))
+  ) {
     return (
       <Alert tone="error" title="This link does not work">
-        <p>It has been used already, has expired, or was replaced by a newer one. Ask your administrator to send a new link.</p>
+        <p>
+          It has been used already, has expired, or was replaced by a newer one. Ask your
+          administrator to send a new link.
+        </p>
       </Alert>
     );
   }
-  if (link.isError) return <Alert tone="error" title="The link could not be checked">{describeError(link.error)}</Alert>;
+  if (link.isError)
+    return (
+      <Alert tone="error" title="The link could not be checked">
+        {describeError(link.error)}
+      </Alert>
+    );
   if (link.isPending) return <LoadingPanel label="Checking your link…" />;
   if (save.isSuccess) {
     return (
@@ -47,7 +69,10 @@ export function SetPasswordForm({ token }: { token: string }) {
         <Alert tone="info" title="Your password is set" live="none">
           Sign in with your e-mail, {link.data.email}, and the password you just chose.
         </Alert>
-        <Link to={paths.signIn.getHref()} className="inline-block rounded-lg bg-iris-700 px-4 py-2 font-medium text-white">
+        <Link
+          to={paths.signIn.getHref()}
+          className="inline-block rounded-lg bg-iris-700 px-4 py-2 font-medium text-white"
+        >
           Go to sign in
         </Link>
       </div>
@@ -59,7 +84,8 @@ export function SetPasswordForm({ token }: { token: string }) {
       { token, password },
       {
         onError: (error) => {
-          if (isApiRequestError(error) && error.status === 400) applyServerFieldErrors(error, setError, ['password'] as const);
+          if (isApiRequestError(error) && error.status === 400)
+            applyServerFieldErrors(error, setError, ['password'] as const);
         },
       },
     );
@@ -68,7 +94,9 @@ export function SetPasswordForm({ token }: { token: string }) {
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">
       <div>
-        <h1 className="text-2xl font-semibold text-paper-950">{link.data.purpose === 'new-account' ? 'Welcome to Luxtempo' : 'Set a new password'}</h1>
+        <h1 className="text-2xl font-semibold text-paper-950">
+          {link.data.purpose === 'new-account' ? 'Welcome to Luxtempo' : 'Set a new password'}
+        </h1>
         <p className="mt-1 text-paper-700">
           For {link.data.displayName} ({link.data.email}). This link works once.
         </p>
@@ -79,8 +107,21 @@ export function SetPasswordForm({ token }: { token: string }) {
         </Alert>
       )}
       <input type="email" autoComplete="username" value={link.data.email} readOnly hidden />
-      <TextField label={labels.password} type="password" autoComplete="new-password" hint={newPasswordHint} error={readableMessage(errors.password?.message, labels)} {...register('password')} />
-      <TextField label={labels.repeat} type="password" autoComplete="new-password" error={readableMessage(errors.repeat?.message, labels)} {...register('repeat')} />
+      <TextField
+        label={labels.password}
+        type="password"
+        autoComplete="new-password"
+        hint={newPasswordHint}
+        error={readableMessage(errors.password?.message, labels)}
+        {...register('password')}
+      />
+      <TextField
+        label={labels.repeat}
+        type="password"
+        autoComplete="new-password"
+        error={readableMessage(errors.repeat?.message, labels)}
+        {...register('repeat')}
+      />
       <Button type="submit" busy={save.isPending} className="w-full">
         {save.isPending ? 'Saving…' : 'Set password'}
       </Button>

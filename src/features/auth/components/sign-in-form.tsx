@@ -30,13 +30,19 @@ export function SignInForm() {
   const onSubmit = handleSubmit((credentials) => {
     logIn.mutate(credentials, {
       onError: (error) => {
-        if (isApiRequestError(error) && error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
+        if (isApiRequestError(error) && error.status === 400)
+          applyServerFieldErrors(error, setError, fieldNames);
       },
     });
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-labelledby="sign-in-heading" className="flex flex-col gap-5">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-labelledby="sign-in-heading"
+      className="flex flex-col gap-5"
+    >
       <h1 id="sign-in-heading" className="text-2xl font-semibold text-paper-950">
         Sign in
       </h1>
@@ -67,11 +73,18 @@ export function SignInForm() {
 }
 
 function SignInProblem({ error }: { error: Error }) {
-  if (!isApiRequestError(error)) return <Alert tone="error" title="Could not sign in">{describeError(error)}</Alert>;
+  if (!isApiRequestError(error))
+    return (
+      <Alert tone="error" title="Could not sign in">
+        {describeError(error)}
+      </Alert>
+    );
   return (
     <Alert tone="error" title={titleFor(error)}>
       <p>{error.message}</p>
-      {error.status === 429 && error.retryAfterS !== null && <p className="mt-1 font-medium">{waitSentence(error.retryAfterS)}</p>}
+      {error.status === 429 && error.retryAfterS !== null && (
+        <p className="mt-1 font-medium">{waitSentence(error.retryAfterS)}</p>
+      )}
     </Alert>
   );
 }

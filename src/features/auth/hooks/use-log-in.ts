@@ -14,7 +14,9 @@ export function useLogIn() {
     },
     onSuccess: (user) => {
       // Nothing cached for an earlier person may show to this one.
-      queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== authQueries.all()[0] });
+      queryClient.removeQueries({
+        predicate: (query) => query.queryKey[0] !== authQueries.all()[0],
+      });
       queryClient.setQueryData(authQueries.session().queryKey, user);
     },
   });

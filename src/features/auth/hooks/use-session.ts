@@ -8,6 +8,9 @@ export function useSession() {
 }
 
 /** Capabilities come from the server's role table; the client only reads them. */
-export function hasCapability(user: SessionUser | null | undefined, capability: Capability): boolean {
+export function hasCapability(
+  user: SessionUser | null | undefined,
+  capability: Capability,
+): boolean {
   return user?.capabilities.includes(capability) ?? false;
 }

@@ -3,7 +3,12 @@ import { orderDetailSchema } from '../../../../shared/schemas/orders';
 import { eyes } from '../../../../shared/schemas/patients';
 import { reviewClassifications, reviewStatuses } from '../../../../shared/schemas/reviews';
 import { deviationSeverities } from '../../../../shared/session/session-events';
-import { givenRecordSchema, protocolStepsSchema, type GivenRecord, type ProtocolSteps } from '../../../lib/session-record-schemas';
+import {
+  givenRecordSchema,
+  protocolStepsSchema,
+  type GivenRecord,
+  type ProtocolSteps,
+} from '../../../lib/session-record-schemas';
 
 export { protocolStepsSchema };
 export type { GivenRecord, ProtocolSteps };
@@ -65,9 +70,7 @@ const sessionEventSchema = z.object({
 });
 export type StoredSessionEvent = z.infer<typeof sessionEventSchema>;
 
-
 /** What was given, derived by the server from the events (shared/session/dose-record.ts). */
-
 
 const sessionDeviationSchema = z.object({
   id: z.number().int(),
@@ -105,7 +108,9 @@ export const deviationDetailSchema = z.object({
       reviewer: z.string().nullable(),
     }),
   ),
-  participants: z.array(z.object({ userId: z.number().int(), part: z.string(), displayName: z.string() })),
+  participants: z.array(
+    z.object({ userId: z.number().int(), part: z.string(), displayName: z.string() }),
+  ),
   session: z.object({
     status: z.string(),
     events: z.array(sessionEventSchema),
@@ -119,4 +124,3 @@ export type DeviationDetail = z.infer<typeof deviationDetailSchema>;
 export const orderResponseSchema = z.object({ order: orderDetailSchema });
 
 /** Only what the review reads from a protocol version: its steps (names, durations) and the CXL thickness minimum. */
-

@@ -12,7 +12,10 @@ export function deviationSearch(filter: Partial<AuditFilter>): string {
 }
 
 /** One page of the queue, filtered, sorted and paged by the server. */
-export async function getDeviations(filter: AuditFilter, { signal }: { signal?: AbortSignal } = {}): Promise<DeviationPage> {
+export async function getDeviations(
+  filter: AuditFilter,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<DeviationPage> {
   return api.get(`/deviations?${deviationSearch(filter)}`, { schema: deviationPageSchema, signal });
 }
 

@@ -2,7 +2,11 @@ import { api } from '../../../lib/api-client';
 import { protocolStepsSchema, type ProtocolSteps } from './deviation-schemas';
 
 /** The steps of one protocol version, so the timeline can name them as the step clock did. */
-export async function getProtocolSteps(key: string, version: number, { signal }: { signal?: AbortSignal } = {}): Promise<ProtocolSteps> {
+export async function getProtocolSteps(
+  key: string,
+  version: number,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<ProtocolSteps> {
   const address = `/protocols/${encodeURIComponent(key)}/versions/${encodeURIComponent(String(version))}`;
   const { version: found } = await api.get(address, { schema: protocolStepsSchema, signal });
   return found;

@@ -1,9 +1,17 @@
 import type { ReviewClassification, ReviewStatus } from '../../../../shared/schemas/reviews';
 import type { DeviationSeverity } from '../../../../shared/session/session-events';
-import { AlertIcon, ArchiveBoxIcon, CheckCircleIcon, FlagIcon, HourglassIcon, SeverityLevelIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  ArchiveBoxIcon,
+  CheckCircleIcon,
+  FlagIcon,
+  HourglassIcon,
+  SeverityLevelIcon,
+} from '../../../components/ui/icons';
 import { classificationWords, severityWords, statusWords } from './deviation-words';
 
-const pill = 'inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border px-2.5 py-0.5 text-sm font-medium';
+const pill =
+  'inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border px-2.5 py-0.5 text-sm font-medium';
 
 const severityLooks: Record<DeviationSeverity, { level: 1 | 2 | 3; box: string }> = {
   minor: { level: 1, box: 'border-paper-400 bg-white text-paper-800' },
@@ -25,7 +33,10 @@ export function SeverityBadge({ severity }: { severity: DeviationSeverity }) {
 /** Open or closed, as a word and an icon. */
 export function ReviewStatusBadge({ status }: { status: ReviewStatus }) {
   const Icon = status === 'open' ? HourglassIcon : ArchiveBoxIcon;
-  const box = status === 'open' ? 'border-iris-700 bg-white text-iris-800' : 'border-paper-300 bg-paper-200 text-paper-800';
+  const box =
+    status === 'open'
+      ? 'border-iris-700 bg-white text-iris-800'
+      : 'border-paper-300 bg-paper-200 text-paper-800';
   return (
     <span className={`${pill} ${box}`}>
       <Icon className="size-4" />
@@ -34,7 +45,11 @@ export function ReviewStatusBadge({ status }: { status: ReviewStatus }) {
   );
 }
 
-const classificationIcons = { acceptable: CheckCircleIcon, 'needs-follow-up': FlagIcon, incident: AlertIcon } as const;
+const classificationIcons = {
+  acceptable: CheckCircleIcon,
+  'needs-follow-up': FlagIcon,
+  incident: AlertIcon,
+} as const;
 
 export function ClassificationLabel({ classification }: { classification: ReviewClassification }) {
   const Icon = classificationIcons[classification];

@@ -3,7 +3,13 @@ import { useState, type ReactNode } from 'react';
 import { Link, useLocation } from 'react-router-dom';
 import { Alert } from '../../../components/ui/alert';
 import { Button, LinkButton } from '../../../components/ui/button';
-import { AlertIcon, ArrowLeftIcon, LockIcon, OrderClipboardIcon, ReloadIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  ArrowLeftIcon,
+  LockIcon,
+  OrderClipboardIcon,
+  ReloadIcon,
+} from '../../../components/ui/icons';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
@@ -18,9 +24,22 @@ import { CloseDeviationForm, ReopenDeviationForm } from './review-forms';
 import { SessionTimeline } from './session-timeline';
 import { formatFigure, formatUnitDateTime } from '../../../lib/unit-times';
 
-function Section({ id, title, children, className = '' }: { id: string; title: string; children: ReactNode; className?: string }) {
+function Section({
+  id,
+  title,
+  children,
+  className = '',
+}: {
+  id: string;
+  title: string;
+  children: ReactNode;
+  className?: string;
+}) {
   return (
-    <section aria-labelledby={id} className={`rounded-2xl border border-paper-200 bg-white p-5 ${className}`}>
+    <section
+      aria-labelledby={id}
+      className={`rounded-2xl border border-paper-200 bg-white p-5 ${className}`}
+    >
       <h2 id={id} className="mb-3 text-xl font-semibold text-paper-950">
         {title}
       </h2>
@@ -36,14 +55,24 @@ type DeviationReviewScreenProps = {
   mayReview: boolean;
 };
 
-export function DeviationReviewScreen({ deviationId, userId, mayReview }: DeviationReviewScreenProps) {
+export function DeviationReviewScreen({
+  deviationId,
+  userId,
+  mayReview,
+}: DeviationReviewScreenProps) {
   const location = useLocation();
   const queueSearch = (location.state as QueueState | null)?.queueSearch;
   const detail = useQuery(deviationQueries.detail(deviationId));
   const orderId = detail.data?.deviation.orderId;
-  const order = useQuery({ ...deviationQueries.order(orderId ?? 0), enabled: orderId !== undefined });
+  const order = useQuery({
+    ...deviationQueries.order(orderId ?? 0),
+    enabled: orderId !== undefined,
+  });
   const protocol = order.data?.protocol;
-  const steps = useQuery({ ...deviationQueries.protocolSteps(protocol?.key ?? '', protocol?.version ?? 0), enabled: protocol !== undefined });
+  const steps = useQuery({
+    ...deviationQueries.protocolSteps(protocol?.key ?? '', protocol?.version ?? 0),
+    enabled: protocol !== undefined,
+  });
   const [outcome, setOutcome] = useState('');
 
   const backLink = (
@@ -65,7 +94,11 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
           <>
             {backLink}
             {!missing && (
-              <Button icon={<ReloadIcon />} busy={detail.isFetching} onClick={() => void detail.refetch()}>
+              <Button
+                icon={<ReloadIcon />}
+                busy={detail.isFetching}
+                onClick={() => void detail.refetch()}
+              >
                 Try again
               </Button>
             )}
@@ -78,13 +111,22 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
   }
 
   const { deviation, session, participants, history, canReview } = detail.data;
-  const myParts = participants.filter((p) => p.userId === userId).map((p) => participantPart(p.part).toLowerCase());
-  const difference = deviation.expected !== null && deviation.actual !== null ? deviation.actual - deviation.expected : null;
+  const myParts = participants
+    .filter((p) => p.userId === userId)
+    .map((p) => participantPart(p.part).toLowerCase());
+  const difference =
+    deviation.expected !== null && deviation.actual !== null
+      ? deviation.actual - deviation.expected
+      : null;
   const o = order.data;
   // One line per person, with every part they had (a pharmacist checks and prepares).
   const people = [...new Set(participants.map((p) => p.userId))].map((id) => {
     const parts = participants.filter((p) => p.userId === id);
-    return { userId: id, displayName: parts[0]!.displayName, parts: parts.map((p) => participantPart(p.part)) };
+    return {
+      userId: id,
+      displayName: parts[0]!.displayName,
+      parts: parts.map((p) => participantPart(p.part)),
+    };
   });
 
   return (
@@ -94,7 +136,8 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
         lead={
           o ? (
             <>
-              {o.protocol.title}, version {o.protocol.version} · {o.patient.familyName}, {o.patient.givenName} ({o.patient.recordNumber}) · {eyeWords[o.eye]}
+              {o.protocol.title}, version {o.protocol.version} · {o.patient.familyName},{' '}
+              {o.patient.givenName} ({o.patient.recordNumber}) · {eyeWords[o.eye]}
             </>
           ) : (
             `Order ${deviation.orderId}`
@@ -112,7 +155,9 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
 
       {outcome && (
         <Alert tone="info" title={outcome} className="mb-5">
-          {deviation.reviewStatus === 'closed' ? 'It has left the open queue; reopen it below if the judgement needs another look.' : 'It is in the open queue.'}
+          {deviation.reviewStatus === 'closed'
+            ? 'It has left the open queue; reopen it below if the judgement needs another look.'
+            : 'It is in the open queue.'}
         </Alert>
       )}
 
@@ -122,14 +167,20 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
             <div className="mb-3 flex flex-wrap items-center gap-2">
               <SeverityBadge severity={deviation.severity} />
               <ReviewStatusBadge status={deviation.reviewStatus} />
-              {deviation.classification && <ClassificationLabel classification={deviation.classification} />}
+              {deviation.classification && (
+                <ClassificationLabel classification={deviation.classification} />
+              )}
             </div>
             <p className="mb-4 max-w-prose text-paper-900">{deviation.message}</p>
             <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1.5">
               <dt className="text-paper-700">Expected</dt>
-              <dd className="numerals-steady font-medium">{formatFigure(deviation.expected, deviation.unit)}</dd>
+              <dd className="numerals-steady font-medium">
+                {formatFigure(deviation.expected, deviation.unit)}
+              </dd>
               <dt className="text-paper-700">Actual</dt>
-              <dd className="numerals-steady font-semibold">{formatFigure(deviation.actual, deviation.unit)}</dd>
+              <dd className="numerals-steady font-semibold">
+                {formatFigure(deviation.actual, deviation.unit)}
+              </dd>
               {difference !== null && (
                 <>
                   <dt className="text-paper-700">Difference</dt>
@@ -152,7 +203,12 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
             ) : order.isPending ? (
               <LoadingPanel label="Loading the plan…" />
             ) : (
-              <PlanAndGiven plan={order.data.plan} record={session.record} steps={steps.data} headingId="plan-and-given" />
+              <PlanAndGiven
+                plan={order.data.plan}
+                record={session.record}
+                steps={steps.data}
+                headingId="plan-and-given"
+              />
             )}
             <h3 className="mt-5 mb-2 font-semibold text-paper-950">The session</h3>
             <SessionTimes record={session.record} />
@@ -160,17 +216,31 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
 
           <Section id="timeline" title="Session timeline">
             {steps.isError && (
-              <Alert tone="error" title="The protocol’s step names could not be loaded" className="mb-3">
+              <Alert
+                tone="error"
+                title="The protocol’s step names could not be loaded"
+                className="mb-3"
+              >
                 Steps are shown by their ids. {describeError(steps.error)}
               </Alert>
             )}
-            <SessionTimeline events={session.events} steps={steps.data} withdrawnTaps={session.record?.withdrawnTaps ?? []} />
+            <SessionTimeline
+              events={session.events}
+              steps={steps.data}
+              withdrawnTaps={session.record?.withdrawnTaps ?? []}
+            />
           </Section>
         </div>
 
         <div className="flex min-w-0 flex-col gap-5">
           <Section id="review" title="Your review">
-            <ReviewPanel detail={detail.data} mayReview={mayReview} myParts={myParts} canReview={canReview} onOutcome={setOutcome} />
+            <ReviewPanel
+              detail={detail.data}
+              mayReview={mayReview}
+              myParts={myParts}
+              canReview={canReview}
+              onOutcome={setOutcome}
+            />
           </Section>
 
           <Section id="history" title="Review history">
@@ -182,7 +252,9 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
                   <li key={`${h.createdAt}-${index}`} className="border-l-4 border-paper-300 pl-3">
                     <p className="font-medium text-paper-950">
                       {h.action === 'closed' ? 'Closed' : 'Reopened'}
-                      {h.classification && <> as {classificationWords[h.classification].label.toLowerCase()}</>}
+                      {h.classification && (
+                        <> as {classificationWords[h.classification].label.toLowerCase()}</>
+                      )}
                     </p>
                     <p className="text-sm text-paper-700">
                       {h.reviewer ?? 'Unknown reviewer'} · {formatUnitDateTime(h.createdAt)}
@@ -202,16 +274,22 @@ export function DeviationReviewScreen({ deviationId, userId, mayReview }: Deviat
                     <SeverityBadge severity={d.severity} />
                     {d.id === deviation.id ? (
                       <span className="font-semibold">
-                        {typeWords(d.type)} <span className="font-normal text-paper-700">(this one)</span>
+                        {typeWords(d.type)}{' '}
+                        <span className="font-normal text-paper-700">(this one)</span>
                       </span>
                     ) : (
-                      <Link to={paths.deviation.getHref(d.id)} state={location.state} className="font-semibold text-iris-700 underline underline-offset-4 hover:text-iris-900">
+                      <Link
+                        to={paths.deviation.getHref(d.id)}
+                        state={location.state}
+                        className="font-semibold text-iris-700 underline underline-offset-4 hover:text-iris-900"
+                      >
                         {typeWords(d.type)}
                       </Link>
                     )}
                   </span>
                   <span className="numerals-steady text-sm text-paper-700">
-                    Expected {formatFigure(d.expected, d.unit)}, actual {formatFigure(d.actual, d.unit)}
+                    Expected {formatFigure(d.expected, d.unit)}, actual{' '}
+                    {formatFigure(d.actual, d.unit)}
                   </span>
                 </li>
               ))}
@@ -254,7 +332,9 @@ function ReviewPanel({ detail, mayReview, myParts, canReview, onOutcome }: Revie
     return (
       <p className="flex gap-2 text-paper-800">
         <LockIcon className="mt-0.5 size-5" />
-        <span>Closing and reopening deviations is not part of your roles; you can read the review here.</span>
+        <span>
+          Closing and reopening deviations is not part of your roles; you can read the review here.
+        </span>
       </p>
     );
   }
@@ -263,8 +343,8 @@ function ReviewPanel({ detail, mayReview, myParts, canReview, onOutcome }: Revie
       <div className="flex gap-2 text-paper-800">
         <LockIcon className="mt-0.5 size-5" />
         <p>
-          You took part in this session{myParts.length > 0 ? ` (${myParts.join('; ')})` : ''}, so another auditor must review it. A review is independent or it
-          is not a review.
+          You took part in this session{myParts.length > 0 ? ` (${myParts.join('; ')})` : ''}, so
+          another auditor must review it. A review is independent or it is not a review.
         </p>
       </div>
     );
@@ -275,8 +355,12 @@ function ReviewPanel({ detail, mayReview, myParts, canReview, onOutcome }: Revie
   return (
     <>
       <p className="mb-4 text-paper-800">
-        Closed{deviation.classification ? ` as ${classificationWords[deviation.classification].label.toLowerCase()}` : ''}
-        {deviation.reviewedAt ? ` on ${formatUnitDateTime(deviation.reviewedAt)}` : ''}. Reopen it if the judgement needs another look.
+        Closed
+        {deviation.classification
+          ? ` as ${classificationWords[deviation.classification].label.toLowerCase()}`
+          : ''}
+        {deviation.reviewedAt ? ` on ${formatUnitDateTime(deviation.reviewedAt)}` : ''}. Reopen it
+        if the judgement needs another look.
       </p>
       <ReopenDeviationForm deviationId={deviation.id} onOutcome={onOutcome} />
     </>

@@ -23,14 +23,29 @@ export function typeWords(type: string): string {
   return (deviationTypeWords as Record<string, string>)[type] ?? type;
 }
 
-export const severityWords: Record<DeviationSeverity, string> = { minor: 'Minor', major: 'Major', critical: 'Critical' };
+export const severityWords: Record<DeviationSeverity, string> = {
+  minor: 'Minor',
+  major: 'Major',
+  critical: 'Critical',
+};
 export const statusWords: Record<ReviewStatus, string> = { open: 'Open', closed: 'Closed' };
 
-export const classificationWords: Record<ReviewClassification, { label: string; meaning: string }> = {
-  acceptable: { label: 'Acceptable', meaning: 'Within what the unit accepts; nothing further to do.' },
-  'needs-follow-up': { label: 'Needs follow-up', meaning: 'Something to act on: a process change, a word with the team, or a check on the patient.' },
-  incident: { label: 'Incident', meaning: 'Harm or a near miss: also report it through the hospital’s incident system.' },
-};
+export const classificationWords: Record<ReviewClassification, { label: string; meaning: string }> =
+  {
+    acceptable: {
+      label: 'Acceptable',
+      meaning: 'Within what the unit accepts; nothing further to do.',
+    },
+    'needs-follow-up': {
+      label: 'Needs follow-up',
+      meaning:
+        'Something to act on: a process change, a word with the team, or a check on the patient.',
+    },
+    incident: {
+      label: 'Incident',
+      meaning: 'Harm or a near miss: also report it through the hospital’s incident system.',
+    },
+  };
 
 export const eyeWords = { right: 'Right eye', left: 'Left eye' } as const;
 

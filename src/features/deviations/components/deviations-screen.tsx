@@ -31,15 +31,39 @@ export function DeviationsScreen() {
           </a>
         }
       />
-      <DeviationFilters params={params} filtered={filtered} fieldErrors={fieldErrors} onChange={update} />
+      <DeviationFilters
+        params={params}
+        filtered={filtered}
+        fieldErrors={fieldErrors}
+        onChange={update}
+      />
 
       <FilteredListStates
         list={list}
         refused={Object.keys(fieldErrors).length > 0}
-        words={{ loading: 'Loading deviations…', failed: 'The deviations could not be loaded', stale: 'The queue may be out of date' }}
-        empty={{ icon: <CheckCircleIcon className="size-6" />, title: filtered ? 'No deviation matches these filters' : 'No open deviations', body: filtered ? 'Widen the dates or clear the filters.' : 'Every deviation found so far has been reviewed. New ones appear here as sessions end.' }}
+        words={{
+          loading: 'Loading deviations…',
+          failed: 'The deviations could not be loaded',
+          stale: 'The queue may be out of date',
+        }}
+        empty={{
+          icon: <CheckCircleIcon className="size-6" />,
+          title: filtered ? 'No deviation matches these filters' : 'No open deviations',
+          body: filtered
+            ? 'Widen the dates or clear the filters.'
+            : 'Every deviation found so far has been reviewed. New ones appear here as sessions end.',
+        }}
       >
-        {(data) => <DeviationsTable rows={data.deviations} total={data.total} params={params} queueSearch={search} onChange={update} busy={list.isPlaceholderData} />}
+        {(data) => (
+          <DeviationsTable
+            rows={data.deviations}
+            total={data.total}
+            params={params}
+            queueSearch={search}
+            onChange={update}
+            busy={list.isPlaceholderData}
+          />
+        )}
       </FilteredListStates>
     </>
   );

@@ -21,7 +21,9 @@ function columnsFor(queueSearch: string) {
     helper.accessor('detectedAt', {
       header: 'Detected',
       sortDescFirst: true,
-      cell: ({ getValue }) => <span className="whitespace-nowrap">{formatUnitDateTime(getValue())}</span>,
+      cell: ({ getValue }) => (
+        <span className="whitespace-nowrap">{formatUnitDateTime(getValue())}</span>
+      ),
     }),
     helper.accessor('type', {
       header: 'Deviation',
@@ -38,7 +40,10 @@ function columnsFor(queueSearch: string) {
         </>
       ),
     }),
-    helper.accessor('severity', { header: 'Severity', cell: ({ getValue }) => <SeverityBadge severity={getValue()} /> }),
+    helper.accessor('severity', {
+      header: 'Severity',
+      cell: ({ getValue }) => <SeverityBadge severity={getValue()} />,
+    }),
     helper.display({
       id: 'figures',
       header: 'Expected → actual',
@@ -48,8 +53,12 @@ function columnsFor(queueSearch: string) {
         ) : (
           <span className="whitespace-nowrap">
             <span className="sr-only">expected </span>
-            {formatFigure(row.original.expected, row.original.unit)} <span aria-hidden="true">→</span>
-            <span className="sr-only">, actual</span> <strong className="font-semibold">{formatFigure(row.original.actual, row.original.unit)}</strong>
+            {formatFigure(row.original.expected, row.original.unit)}{' '}
+            <span aria-hidden="true">→</span>
+            <span className="sr-only">, actual</span>{' '}
+            <strong className="font-semibold">
+              {formatFigure(row.original.actual, row.original.unit)}
+            </strong>
           </span>
         ),
     }),
@@ -63,7 +72,10 @@ function columnsFor(queueSearch: string) {
           </span>
           <span className="text-sm text-paper-600">
             {row.original.recordNumber} · {eyeWords[row.original.eye]} ·{' '}
-            <Link to={paths.order.getHref(row.original.orderId)} className="text-iris-700 underline underline-offset-2 hover:text-iris-900">
+            <Link
+              to={paths.order.getHref(row.original.orderId)}
+              className="text-iris-700 underline underline-offset-2 hover:text-iris-900"
+            >
               order {row.original.orderId}
             </Link>
           </span>
@@ -76,7 +88,9 @@ function columnsFor(queueSearch: string) {
       cell: ({ row }) => (
         <div className="flex flex-col items-start gap-1">
           <ReviewStatusBadge status={row.original.reviewStatus} />
-          {row.original.classification && <ClassificationLabel classification={row.original.classification} />}
+          {row.original.classification && (
+            <ClassificationLabel classification={row.original.classification} />
+          )}
         </div>
       ),
     }),
@@ -93,7 +107,14 @@ type DeviationsTableProps = {
 };
 
 /** One page of the queue. Sorting and paging are done by the server; the table only asks for them. */
-export function DeviationsTable({ rows, total, params, queueSearch, onChange, busy }: DeviationsTableProps) {
+export function DeviationsTable({
+  rows,
+  total,
+  params,
+  queueSearch,
+  onChange,
+  busy,
+}: DeviationsTableProps) {
   const navigate = useNavigate();
   const columns = useMemo(() => columnsFor(queueSearch), [queueSearch]);
   return (
@@ -106,9 +127,18 @@ export function DeviationsTable({ rows, total, params, queueSearch, onChange, bu
       sortKeys={sortKeys}
       onChange={onChange}
       busy={busy}
-      caption={({ first, last }) => `Deviations ${first} to ${last} of ${total}. Column headers with a button sort the queue; the deviation’s name opens its review.`}
-      pagerWords={{ navLabel: 'Pages of deviations', items: 'Deviations', none: 'No deviations', perPage: 'Deviations per page' }}
-      onRowClick={(row) => navigate(paths.deviation.getHref(row.id), { state: { queueSearch } satisfies QueueState })}
+      caption={({ first, last }) =>
+        `Deviations ${first} to ${last} of ${total}. Column headers with a button sort the queue; the deviation’s name opens its review.`
+      }
+      pagerWords={{
+        navLabel: 'Pages of deviations',
+        items: 'Deviations',
+        none: 'No deviations',
+        perPage: 'Deviations per page',
+      }}
+      onRowClick={(row) =>
+        navigate(paths.deviation.getHref(row.id), { state: { queueSearch } satisfies QueueState })
+      }
     />
   );
 }

@@ -2,13 +2,21 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useId } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { closeDeviationSchema, reopenDeviationSchema, reviewClassifications } from '../../../../shared/schemas/reviews';
+import {
+  closeDeviationSchema,
+  reopenDeviationSchema,
+  reviewClassifications,
+} from '../../../../shared/schemas/reviews';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { ArchiveBoxIcon, TurnBackIcon } from '../../../components/ui/icons';
 import { FieldError } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
-import { applyServerFieldErrors, readableMessage, unplacedFieldProblems } from '../../../lib/form-errors';
+import {
+  applyServerFieldErrors,
+  readableMessage,
+  unplacedFieldProblems,
+} from '../../../lib/form-errors';
 import { useCloseDeviation } from '../hooks/use-close-deviation';
 import { useReopenDeviation } from '../hooks/use-reopen-deviation';
 import { classificationIcons } from './deviation-badges';
@@ -20,11 +28,20 @@ type CloseOutput = z.output<typeof closeDeviationSchema>;
 const closeFields = ['classification', 'comment'] as const;
 
 /** What went wrong with a review request, where no field can show it. */
-function RequestProblem({ error, title, fields }: { error: unknown; title: string; fields: readonly string[] }) {
+function RequestProblem({
+  error,
+  title,
+  fields,
+}: {
+  error: unknown;
+  title: string;
+  fields: readonly string[];
+}) {
   if (!error) return null;
   const fieldLevel = isApiRequestError(error) && error.status === 400 && error.fields.length > 0;
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fields) : [];
-  if (fieldLevel && unplaced.length === 0) return <Alert tone="error" title={`${title}: check the fields marked below`} />;
+  if (fieldLevel && unplaced.length === 0)
+    return <Alert tone="error" title={`${title}: check the fields marked below`} />;
   return (
     <Alert tone="error" title={title}>
       {unplaced.length > 0 ? (
@@ -41,7 +58,13 @@ function RequestProblem({ error, title, fields }: { error: unknown; title: strin
 }
 
 /** The auditor's judgement: one classification and a comment, both required by the server. */
-export function CloseDeviationForm({ deviationId, onOutcome }: { deviationId: number; onOutcome: (text: string) => void }) {
+export function CloseDeviationForm({
+  deviationId,
+  onOutcome,
+}: {
+  deviationId: number;
+  onOutcome: (text: string) => void;
+}) {
   const close = useCloseDeviation();
   const legendId = useId();
   const classificationErrorId = useId();
@@ -51,7 +74,10 @@ export function CloseDeviationForm({ deviationId, onOutcome }: { deviationId: nu
     setError,
     reset,
     formState: { errors },
-  } = useForm<CloseInput, unknown, CloseOutput>({ resolver: zodResolver(closeDeviationSchema), defaultValues: { comment: '' } });
+  } = useForm<CloseInput, unknown, CloseOutput>({
+    resolver: zodResolver(closeDeviationSchema),
+    defaultValues: { comment: '' },
+  });
 
   // mutateAsync: a successful closure replaces this form with the reopening one, and the outcome
   // must still reach the screen after this form has gone.
@@ -59,11 +85,14 @@ export function CloseDeviationForm({ deviationId, onOutcome }: { deviationId: nu
     try {
       await close.mutateAsync({ id: deviationId, ...values });
       reset({ comment: '' });
-      onOutcome(`Deviation ${deviationId} closed as ${classificationWords[values.classification].label.toLowerCase()}.`);
+      onOutcome(
+        `Deviation ${deviationId} closed as ${classificationWords[values.classification].label.toLowerCase()}.`,
+      );
     } catch (error) {
       if (!isApiRequestError(error)) return;
       if (error.status === 400) applyServerFieldErrors(error, setError, closeFields);
-      if (error.status === 409) onOutcome(`${error.message} The screen now shows the deviation as it stands.`);
+      if (error.status === 409)
+        onOutcome(`${error.message} The screen now shows the deviation as it stands.`);
     }
   });
 
@@ -75,8 +104,17 @@ export function CloseDeviationForm({ deviationId, onOutcome }: { deviationId: nu
         : undefined;
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label="Close the deviation" className="flex flex-col gap-5">
-      <RequestProblem error={close.error} title="The deviation was not closed" fields={closeFields} />
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label="Close the deviation"
+      className="flex flex-col gap-5"
+    >
+      <RequestProblem
+        error={close.error}
+        title="The deviation was not closed"
+        fields={closeFields}
+      />
       <fieldset aria-describedby={classificationError ? classificationErrorId : undefined}>
         <legend id={legendId} className="mb-2 font-medium text-paper-900">
           Classification
@@ -86,7 +124,10 @@ export function CloseDeviationForm({ deviationId, onOutcome }: { deviationId: nu
             const Icon = classificationIcons[classification];
             const id = `${legendId}-${classification}`;
             return (
-              <div key={classification} className="flex items-start gap-3 rounded-lg border border-paper-300 bg-white px-3 py-2.5 has-[:checked]:border-2 has-[:checked]:border-iris-700 has-[:checked]:bg-iris-50">
+              <div
+                key={classification}
+                className="flex items-start gap-3 rounded-lg border border-paper-300 bg-white px-3 py-2.5 has-[:checked]:border-2 has-[:checked]:border-iris-700 has-[:checked]:bg-iris-50"
+              >
                 <input
                   id={id}
                   type="radio"
@@ -97,7 +138,10 @@ export function CloseDeviationForm({ deviationId, onOutcome }: { deviationId: nu
                   {...register('classification')}
                 />
                 <div className="min-w-0">
-                  <label htmlFor={id} className="inline-flex cursor-pointer items-center gap-1.5 font-medium text-paper-950">
+                  <label
+                    htmlFor={id}
+                    className="inline-flex cursor-pointer items-center gap-1.5 font-medium text-paper-950"
+                  >
                     <Icon className="size-4" />
                     {classificationWords[classification].label}
                   </label>
@@ -134,7 +178,13 @@ type ReopenOutput = z.output<typeof reopenDeviationSchema>;
 const reopenFields = ['comment'] as const;
 
 /** Reopening takes the deviation back to the queue; the comment says why. */
-export function ReopenDeviationForm({ deviationId, onOutcome }: { deviationId: number; onOutcome: (text: string) => void }) {
+export function ReopenDeviationForm({
+  deviationId,
+  onOutcome,
+}: {
+  deviationId: number;
+  onOutcome: (text: string) => void;
+}) {
   const reopen = useReopenDeviation();
   const {
     register,
@@ -142,7 +192,10 @@ export function ReopenDeviationForm({ deviationId, onOutcome }: { deviationId: n
     setError,
     reset,
     formState: { errors },
-  } = useForm<ReopenInput, unknown, ReopenOutput>({ resolver: zodResolver(reopenDeviationSchema), defaultValues: { comment: '' } });
+  } = useForm<ReopenInput, unknown, ReopenOutput>({
+    resolver: zodResolver(reopenDeviationSchema),
+    defaultValues: { comment: '' },
+  });
 
   const onSubmit = handleSubmit(async (values) => {
     try {
@@ -152,13 +205,23 @@ export function ReopenDeviationForm({ deviationId, onOutcome }: { deviationId: n
     } catch (error) {
       if (!isApiRequestError(error)) return;
       if (error.status === 400) applyServerFieldErrors(error, setError, reopenFields);
-      if (error.status === 409) onOutcome(`${error.message} The screen now shows the deviation as it stands.`);
+      if (error.status === 409)
+        onOutcome(`${error.message} The screen now shows the deviation as it stands.`);
     }
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label="Reopen the deviation" className="flex flex-col gap-5">
-      <RequestProblem error={reopen.error} title="The deviation was not reopened" fields={reopenFields} />
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label="Reopen the deviation"
+      className="flex flex-col gap-5"
+    >
+      <RequestProblem
+        error={reopen.error}
+        title="The deviation was not reopened"
+        fields={reopenFields}
+      />
       <TextAreaField
         rows={4}
         label="Why reopen it"

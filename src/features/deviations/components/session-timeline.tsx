@@ -2,9 +2,18 @@ import { unitTimeZoneLabel } from '../../../config/unit-time-zone';
 import type { WithdrawnTap } from '../../../lib/session-record-schemas';
 import { eventWordsOf } from '../../../lib/session-event-words';
 import type { ProtocolSteps, StoredSessionEvent } from '../api/deviation-schemas';
-import { formatFigure, formatOffset, formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
+import {
+  formatFigure,
+  formatOffset,
+  formatUnitClock,
+  formatUnitDate,
+} from '../../../lib/unit-times';
 
-function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined) => string, byKey: Map<string, StoredSessionEvent>): string {
+function describe(
+  event: StoredSessionEvent,
+  stepTitle: (id: string | undefined) => string,
+  byKey: Map<string, StoredSessionEvent>,
+): string {
   switch (event.type) {
     case 'session-started':
       return 'Session started: the pre-treatment checks were confirmed';
@@ -32,7 +41,9 @@ function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined)
       return 'Session completed';
     case 'tap-withdrawn': {
       const target = event.withdrawnKey ? byKey.get(event.withdrawnKey) : undefined;
-      const what = target ? `the ${eventWordsOf(target.type)}${target.stepId ? ` (${stepTitle(target.stepId)})` : ''} tapped at ${formatUnitClock(target.clientTime)}` : 'a tap';
+      const what = target
+        ? `the ${eventWordsOf(target.type)}${target.stepId ? ` (${stepTitle(target.stepId)})` : ''} tapped at ${formatUnitClock(target.clientTime)}`
+        : 'a tap';
       return `Withdrew ${what} as a mistake: ${event.reason ?? 'no reason recorded'}`;
     }
     default:
@@ -40,7 +51,14 @@ function describe(event: StoredSessionEvent, stepTitle: (id: string | undefined)
   }
 }
 
-const marked = new Set(['session-started', 'session-stopped', 'session-completed', 'extravasation', 'thickness-override', 'tap-withdrawn']);
+const marked = new Set([
+  'session-started',
+  'session-stopped',
+  'session-completed',
+  'extravasation',
+  'thickness-override',
+  'tap-withdrawn',
+]);
 
 type SessionTimelineProps = {
   events: StoredSessionEvent[];
@@ -54,10 +72,14 @@ type SessionTimelineProps = {
  * of the session, with each step named as the step clock named it.
  */
 export function SessionTimeline({ events, steps, withdrawnTaps }: SessionTimelineProps) {
-  if (events.length === 0) return <p className="text-paper-700">No events were recorded for this session.</p>;
+  if (events.length === 0)
+    return <p className="text-paper-700">No events were recorded for this session.</p>;
   const titles = new Map((steps?.definition.steps ?? []).map((s) => [s.id, s.title]));
-  const stepTitle = (id: string | undefined) => (id ? (titles.get(id) ?? `step “${id}”`) : 'a step');
-  const ordered = [...events].sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime) || a.id - b.id);
+  const stepTitle = (id: string | undefined) =>
+    id ? (titles.get(id) ?? `step “${id}”`) : 'a step';
+  const ordered = [...events].sort(
+    (a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime) || a.id - b.id,
+  );
   const start = ordered.find((e) => e.type === 'session-started') ?? ordered[0]!;
   const startMs = Date.parse(start.clientTime);
   const byKey = new Map(events.map((e) => [e.idempotencyKey, e]));
@@ -66,7 +88,8 @@ export function SessionTimeline({ events, steps, withdrawnTaps }: SessionTimelin
   return (
     <>
       <p className="mb-3 text-sm text-paper-700">
-        Clock times are {unitTimeZoneLabel}; the offset counts from the session start at {formatUnitClock(start.clientTime)} on {formatUnitDate(start.clientTime)}.
+        Clock times are {unitTimeZoneLabel}; the offset counts from the session start at{' '}
+        {formatUnitClock(start.clientTime)} on {formatUnitDate(start.clientTime)}.
       </p>
       <ol className="relative ml-2 border-l-2 border-paper-300">
         {ordered.map((event) => {
@@ -90,20 +113,27 @@ export function SessionTimeline({ events, steps, withdrawnTaps }: SessionTimelin
               </p>
               {event.lateEntryReason && (
                 <p className="text-paper-900">
-                  <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">Late entry</span>
+                  <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">
+                    Late entry
+                  </span>
                   Entered after the session ended: {event.lateEntryReason}
                 </p>
               )}
               {withdrawal ? (
                 <p className="text-paper-800">
-                  <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">Withdrawn</span>
+                  <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">
+                    Withdrawn
+                  </span>
                   <s>{describe(event, stepTitle, byKey)}</s>
                   <span className="block text-sm">
-                    Not counted in the record. Reason, given at {formatUnitClock(withdrawal.withdrawnAt)}: {withdrawal.reason}
+                    Not counted in the record. Reason, given at{' '}
+                    {formatUnitClock(withdrawal.withdrawnAt)}: {withdrawal.reason}
                   </span>
                 </p>
               ) : (
-                <p className={strong ? 'font-semibold text-paper-950' : 'text-paper-900'}>{describe(event, stepTitle, byKey)}</p>
+                <p className={strong ? 'font-semibold text-paper-950' : 'text-paper-900'}>
+                  {describe(event, stepTitle, byKey)}
+                </p>
               )}
             </li>
           );

@@ -10,7 +10,13 @@ import { useLatestSearchParams } from '../../../lib/use-latest-search-params';
 export type StatusChoice = 'open' | 'closed' | 'any';
 export type DeviationListParams = Omit<AuditFilter, 'status'> & { status: StatusChoice };
 
-const defaults = { status: 'open', sort: 'detectedAt', direction: 'desc', page: 1, pageSize: 25 } as const;
+const defaults = {
+  status: 'open',
+  sort: 'detectedAt',
+  direction: 'desc',
+  page: 1,
+  pageSize: 25,
+} as const;
 const filterKeys = ['from', 'to', 'protocol', 'version', 'type', 'severity', 'staff'] as const;
 const keys = [...filterKeys, 'status', 'sort', 'direction', 'page', 'pageSize'] as const;
 type Key = (typeof keys)[number];
@@ -19,7 +25,8 @@ type Key = (typeof keys)[number];
 function readParam(search: URLSearchParams, key: Key): unknown {
   const raw = search.get(key);
   if (raw === null || raw === '') return undefined;
-  if (key === 'status') return raw === 'open' || raw === 'closed' || raw === 'any' ? raw : undefined;
+  if (key === 'status')
+    return raw === 'open' || raw === 'closed' || raw === 'any' ? raw : undefined;
   const parsed = auditFilterSchema.shape[key].safeParse(raw);
   return parsed.success ? parsed.data : undefined;
 }
@@ -55,6 +62,7 @@ export function useDeviationListParams() {
     [changeSearch],
   );
 
-  const filtered = filterKeys.some((key) => params[key] !== undefined) || params.status !== defaults.status;
+  const filtered =
+    filterKeys.some((key) => params[key] !== undefined) || params.status !== defaults.status;
   return { params, update, filtered, search: search.toString() };
 }

@@ -13,7 +13,8 @@ export function useReopenDeviation() {
     },
     // Someone else changed it meanwhile (409): show it as it now stands.
     onError: (error, { id }) => {
-      if (isApiRequestError(error) && error.status === 409) return queryClient.invalidateQueries({ queryKey: deviationQueries.detail(id).queryKey });
+      if (isApiRequestError(error) && error.status === 409)
+        return queryClient.invalidateQueries({ queryKey: deviationQueries.detail(id).queryKey });
     },
   });
 }

@@ -10,6 +10,7 @@ export const dischargeQueries = {
       queryKey: [...dischargeQueries.sheets(), orderId] as const,
       queryFn: ({ signal }) => getDischarge(orderId, { signal }),
       // While a session still runs its record grows; afterwards a refetch changes nothing.
-      refetchInterval: (query) => (query.state.data?.record.outcome === 'in-progress' ? 30_000 : false),
+      refetchInterval: (query) =>
+        query.state.data?.record.outcome === 'in-progress' ? 30_000 : false,
     }),
 };

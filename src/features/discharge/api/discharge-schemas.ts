@@ -42,7 +42,12 @@ export const dischargeSchema = z.object({
   unitName: z.string(),
   unitPhone: z.string(),
   unitTimeZone: z.string(),
-  order: z.object({ id: z.number().int(), revision: z.number().int(), eye: z.enum(eyes), status: z.enum(orderStatuses) }),
+  order: z.object({
+    id: z.number().int(),
+    revision: z.number().int(),
+    eye: z.enum(eyes),
+    status: z.enum(orderStatuses),
+  }),
   patient: z.object({
     recordNumber: z.string(),
     givenName: z.string(),
@@ -51,8 +56,15 @@ export const dischargeSchema = z.object({
     emailConsent: z.boolean(),
     hasEmail: z.boolean(),
   }),
-  protocol: z.object({ key: z.string(), version: z.number().int(), title: z.string(), kind: z.enum(['pdt', 'cxl']) }),
-  plan: dosePlanSchema.pick({ doseMg: true, exposureS: true, uvTimeS: true, fluenceJPerCm2: true }).nullable(),
+  protocol: z.object({
+    key: z.string(),
+    version: z.number().int(),
+    title: z.string(),
+    kind: z.enum(['pdt', 'cxl']),
+  }),
+  plan: dosePlanSchema
+    .pick({ doseMg: true, exposureS: true, uvTimeS: true, fluenceJPerCm2: true })
+    .nullable(),
   record: givenSchema,
   precaution: z
     .object({
@@ -70,7 +82,9 @@ export const dischargeSchema = z.object({
     .nullable(),
   cautions: z.array(z.string()),
   /** Cautions answered yes at ordering, with the clinician's reason. */
-  answeredCautions: z.array(z.object({ id: z.string(), question: z.string(), reason: z.string() })).default([]),
+  answeredCautions: z
+    .array(z.object({ id: z.string(), question: z.string(), reason: z.string() }))
+    .default([]),
 });
 export type Discharge = z.infer<typeof dischargeSchema>;
 

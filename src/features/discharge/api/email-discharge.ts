@@ -6,5 +6,7 @@ import { dischargeEmailResponseSchema } from './discharge-schemas';
  * `no_email_consent` when the patient has not agreed to e-mail or has no address.
  */
 export async function emailDischarge(orderId: number): Promise<{ queued: true }> {
-  return api.post(`/orders/${encodeURIComponent(String(orderId))}/discharge-email`, undefined, { schema: dischargeEmailResponseSchema });
+  return api.post(`/orders/${encodeURIComponent(String(orderId))}/discharge-email`, undefined, {
+    schema: dischargeEmailResponseSchema,
+  });
 }

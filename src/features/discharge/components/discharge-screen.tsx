@@ -1,6 +1,13 @@
 import { useQuery } from '@tanstack/react-query';
 import { Button, LinkButton } from '../../../components/ui/button';
-import { AlertIcon, ArrowLeftIcon, ClockIcon, HourglassIcon, PrinterIcon, ReloadIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  ArrowLeftIcon,
+  ClockIcon,
+  HourglassIcon,
+  PrinterIcon,
+  ReloadIcon,
+} from '../../../components/ui/icons';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
@@ -50,7 +57,11 @@ export function DischargeScreen({ orderId, canRunSessions }: DischargeScreenProp
               <>
                 {backToOrder}
                 {canRunSessions && (
-                  <LinkButton variant="primary" to={paths.stepClock.getHref(orderId)} icon={<ClockIcon />}>
+                  <LinkButton
+                    variant="primary"
+                    to={paths.stepClock.getHref(orderId)}
+                    icon={<ClockIcon />}
+                  >
                     Open step clock
                   </LinkButton>
                 )}
@@ -58,8 +69,8 @@ export function DischargeScreen({ orderId, canRunSessions }: DischargeScreenProp
             }
           >
             <p>
-              The discharge sheet is made from what the step clock records. Order {orderId} has no session yet; the sheet is ready once the session
-              has started.
+              The discharge sheet is made from what the step clock records. Order {orderId} has no
+              session yet; the sheet is ready once the session has started.
             </p>
           </StatusPanel>
         </>
@@ -83,7 +94,12 @@ export function DischargeScreen({ orderId, canRunSessions }: DischargeScreenProp
                 backToOrder
               )}
               {!missing && (
-                <Button variant="primary" icon={<ReloadIcon />} busy={sheet.isFetching} onClick={() => void sheet.refetch()}>
+                <Button
+                  variant="primary"
+                  icon={<ReloadIcon />}
+                  busy={sheet.isFetching}
+                  onClick={() => void sheet.refetch()}
+                >
                   Try again
                 </Button>
               )}

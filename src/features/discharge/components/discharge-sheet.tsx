@@ -9,7 +9,10 @@ import { birthDateText, dayText } from './sheet-times';
 import { TreatmentGiven } from './treatment-given';
 
 const eyeCaps = { right: 'RIGHT EYE', left: 'LEFT EYE' } as const;
-const treatmentNames = { pdt: 'photodynamic therapy (PDT)', cxl: 'corneal cross-linking (CXL)' } as const;
+const treatmentNames = {
+  pdt: 'photodynamic therapy (PDT)',
+  cxl: 'corneal cross-linking (CXL)',
+} as const;
 
 /** The sheet the patient takes home; on screen it looks like the page it prints as. */
 export function DischargeSheet({ discharge }: { discharge: Discharge }) {
@@ -43,11 +46,22 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
       <PrintFrame runningHead={runningHead}>
         <div className="space-y-6 print:space-y-4">
           <div className="space-y-4 border-b-2 border-paper-300 pb-5 print:space-y-2 print:pb-3">
-            <p className="text-sm font-semibold tracking-wide text-paper-700 uppercase">{unitName}</p>
-            <h1 id="discharge-title" tabIndex={-1} data-page-heading className="text-3xl font-semibold tracking-tight text-paper-950 print:text-[20pt]">
+            <p className="text-sm font-semibold tracking-wide text-paper-700 uppercase">
+              {unitName}
+            </p>
+            <h1
+              id="discharge-title"
+              tabIndex={-1}
+              data-page-heading
+              className="text-3xl font-semibold tracking-tight text-paper-950 print:text-[20pt]"
+            >
               Going home after your {treatmentNames[protocol.kind]}
             </h1>
-            <div className="flex flex-wrap items-end justify-between gap-4" aria-label="Patient and treated eye" role="group">
+            <div
+              className="flex flex-wrap items-end justify-between gap-4"
+              aria-label="Patient and treated eye"
+              role="group"
+            >
               <dl className="grid grid-cols-[max-content_1fr] gap-x-5 gap-y-1">
                 <dt className="text-paper-700">Name</dt>
                 <dd className="font-semibold text-paper-950">{fullName}</dd>
@@ -64,14 +78,20 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
               </dl>
               <div className="rounded-xl border-2 border-paper-950 px-4 py-2 text-right">
                 <p className="text-sm text-paper-700">Treated eye</p>
-                <p className="text-3xl font-bold tracking-tight text-paper-950">{eyeCaps[order.eye]}</p>
+                <p className="text-3xl font-bold tracking-tight text-paper-950">
+                  {eyeCaps[order.eye]}
+                </p>
               </div>
             </div>
           </div>
 
           {record.outcome === 'in-progress' && (
-            <p role="status" className="rounded-lg border-2 border-paper-950 px-4 py-2 font-medium text-paper-950">
-              The session is still running: this sheet shows only what has been recorded so far. Print it again when the session has ended.
+            <p
+              role="status"
+              className="rounded-lg border-2 border-paper-950 px-4 py-2 font-medium text-paper-950"
+            >
+              The session is still running: this sheet shows only what has been recorded so far.
+              Print it again when the session has ended.
             </p>
           )}
 
@@ -91,12 +111,16 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
             </>
           )}
 
-          <section aria-labelledby="contact-heading" className="space-y-2 rounded-xl border border-paper-300 px-5 py-4 break-inside-avoid">
+          <section
+            aria-labelledby="contact-heading"
+            className="space-y-2 rounded-xl border border-paper-300 px-5 py-4 break-inside-avoid"
+          >
             <h2 id="contact-heading" className="text-lg font-semibold text-paper-950">
               Questions or worries
             </h2>
             <p className="text-paper-900">
-              Call {unitName}. In an emergency outside our opening hours, go to your nearest emergency department and take this sheet with you.
+              Call {unitName}. In an emergency outside our opening hours, go to your nearest
+              emergency department and take this sheet with you.
             </p>
             <dl className="grid gap-x-6 gap-y-3 pt-1 sm:grid-cols-2 print:grid-cols-2">
               <div>
@@ -114,12 +138,13 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
 
           <footer className="space-y-1 border-t border-paper-300 pt-3 text-sm text-paper-800">
             <p>
-              This is the standard advice of {unitName}. Local policy, and what your own doctor or nurse tells you, may change it; if they differ,
-              follow what they tell you.
+              This is the standard advice of {unitName}. Local policy, and what your own doctor or
+              nurse tells you, may change it; if they differ, follow what they tell you.
             </p>
             <p className="numerals-steady">
               Order {order.id}
-              {order.revision > 1 ? ` (revision ${order.revision})` : ''} · {protocol.title}, version {protocol.version} · printed {printedAt}
+              {order.revision > 1 ? ` (revision ${order.revision})` : ''} · {protocol.title},
+              version {protocol.version} · printed {printedAt}
             </p>
           </footer>
         </div>

@@ -17,15 +17,22 @@ export function EmailToPatient({ discharge }: { discharge: Discharge }) {
     return (
       <p className="flex items-start gap-2 text-sm text-paper-800">
         <InfoIcon className="mt-0.5 size-4" />
-        {!emailConsent ? 'No e-mail: the patient has not agreed to advice by e-mail.' : 'No e-mail: there is no e-mail address on the patient’s record.'} Give the
-        printed sheet.
+        {!emailConsent
+          ? 'No e-mail: the patient has not agreed to advice by e-mail.'
+          : 'No e-mail: there is no e-mail address on the patient’s record.'}{' '}
+        Give the printed sheet.
       </p>
     );
   }
 
   return (
     <div className="space-y-2">
-      <Button variant="secondary" icon={<EnvelopeIcon />} busy={email.isPending} onClick={() => email.mutate()}>
+      <Button
+        variant="secondary"
+        icon={<EnvelopeIcon />}
+        busy={email.isPending}
+        onClick={() => email.mutate()}
+      >
         {email.isSuccess ? 'E-mail to patient again' : 'E-mail to patient'}
       </Button>
       <div role="status">

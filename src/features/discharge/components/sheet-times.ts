@@ -1,5 +1,10 @@
 import { DateTime } from 'luxon';
-import { formatDuration, formatQuantity, formatUnitTime, zoneAbbreviation } from '../../../../shared/format/figures';
+import {
+  formatDuration,
+  formatQuantity,
+  formatUnitTime,
+  zoneAbbreviation,
+} from '../../../../shared/format/figures';
 
 /**
  * Times on the sheet are the unit's wall clock in the zone the server named, with the zone's
@@ -32,8 +37,11 @@ export function spanText(fromIso: string, toIso: string | null, zone: string): s
   if (!from) return fromIso;
   const zoned = (at: DateTime, format: string) => `${at.toFormat(format)} ${zoneAbbreviation(at)}`;
   if (!to) return `from ${zoned(from, 'HH:mm')}`;
-  if (!from.hasSame(to, 'day')) return `${zoned(from, 'd LLL HH:mm')} to ${zoned(to, 'd LLL HH:mm')}`;
-  return zoneAbbreviation(from) === zoneAbbreviation(to) ? `${from.toFormat('HH:mm')} to ${zoned(to, 'HH:mm')}` : `${zoned(from, 'HH:mm')} to ${zoned(to, 'HH:mm')}`;
+  if (!from.hasSame(to, 'day'))
+    return `${zoned(from, 'd LLL HH:mm')} to ${zoned(to, 'd LLL HH:mm')}`;
+  return zoneAbbreviation(from) === zoneAbbreviation(to)
+    ? `${from.toFormat('HH:mm')} to ${zoned(to, 'HH:mm')}`
+    : `${zoned(from, 'HH:mm')} to ${zoned(to, 'HH:mm')}`;
 }
 
 /** A calendar date (YYYY-MM-DD), e.g. "21 July 1961". */

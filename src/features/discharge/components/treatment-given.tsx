@@ -13,9 +13,15 @@ function pdtRows({ record, order, unitTimeZone: zone }: Discharge): Row[] {
     const given = doseGivenText(record);
     const details = [
       given ? `verteporfin, ${given}` : 'verteporfin',
-      record.infusionDurationS != null && record.infusionEndAt ? `over ${durationText(record.infusionDurationS)}` : 'still running when this sheet was made',
+      record.infusionDurationS != null && record.infusionEndAt
+        ? `over ${durationText(record.infusionDurationS)}`
+        : 'still running when this sheet was made',
     ];
-    rows.push({ what: 'Medicine by drip into a vein', when: spanText(record.infusionStartAt, record.infusionEndAt, zone), details: details.join(', ') });
+    rows.push({
+      what: 'Medicine by drip into a vein',
+      when: spanText(record.infusionStartAt, record.infusionEndAt, zone),
+      details: details.join(', '),
+    });
   }
   if (record.extravasationAt) {
     rows.push({
@@ -27,10 +33,20 @@ function pdtRows({ record, order, unitTimeZone: zone }: Discharge): Row[] {
   if (record.lightStartAt) {
     const details = [
       // Laser times read in seconds, as the device shows them.
-      record.deviceExposureS != null ? `light on for ${figureText(record.deviceExposureS, 's')} (the laser's display)` : record.lightOnS != null ? `light on for ${figureText(record.lightOnS, 's')}` : null,
-      record.deliveredFluenceJPerCm2 != null ? `${figureText(record.deliveredFluenceJPerCm2, 'J/cm²')} delivered` : null,
+      record.deviceExposureS != null
+        ? `light on for ${figureText(record.deviceExposureS, 's')} (the laser's display)`
+        : record.lightOnS != null
+          ? `light on for ${figureText(record.lightOnS, 's')}`
+          : null,
+      record.deliveredFluenceJPerCm2 != null
+        ? `${figureText(record.deliveredFluenceJPerCm2, 'J/cm²')} delivered`
+        : null,
     ].filter(Boolean);
-    rows.push({ what: `Laser light to the ${eyeName[order.eye]}`, when: spanText(record.lightStartAt, record.lightEndAt, zone), details: details.join(', ') || '—' });
+    rows.push({
+      what: `Laser light to the ${eyeName[order.eye]}`,
+      when: spanText(record.lightStartAt, record.lightEndAt, zone),
+      details: details.join(', ') || '—',
+    });
   }
   return rows;
 }
@@ -41,18 +57,31 @@ function cxlRows({ record, order, unitTimeZone: zone }: Discharge): Row[] {
     rows.push({
       what: 'Riboflavin (vitamin B2) drops soaked into the cornea',
       when: spanText(record.soakStartAt, record.soakEndAt, zone),
-      details: record.soakDurationS != null && record.soakEndAt ? `${durationText(record.soakDurationS)}` : 'still running when this sheet was made',
+      details:
+        record.soakDurationS != null && record.soakEndAt
+          ? `${durationText(record.soakDurationS)}`
+          : 'still running when this sheet was made',
     });
   }
   if (record.thicknessBeforeUvUm != null) {
-    rows.push({ what: 'Corneal thickness measured before the light', when: '—', details: figureText(record.thicknessBeforeUvUm, 'µm') });
+    rows.push({
+      what: 'Corneal thickness measured before the light',
+      when: '—',
+      details: figureText(record.thicknessBeforeUvUm, 'µm'),
+    });
   }
   if (record.uvStartAt) {
     const details = [
       record.uvOnS != null ? `light on for ${durationText(record.uvOnS)}` : null,
-      record.deliveredFluenceJPerCm2 != null ? `${figureText(record.deliveredFluenceJPerCm2, 'J/cm²')} delivered` : null,
+      record.deliveredFluenceJPerCm2 != null
+        ? `${figureText(record.deliveredFluenceJPerCm2, 'J/cm²')} delivered`
+        : null,
     ].filter(Boolean);
-    rows.push({ what: `Ultraviolet (UVA) light to the ${eyeName[order.eye]}`, when: spanText(record.uvStartAt, record.uvEndAt, zone), details: details.join(', ') || '—' });
+    rows.push({
+      what: `Ultraviolet (UVA) light to the ${eyeName[order.eye]}`,
+      when: spanText(record.uvStartAt, record.uvEndAt, zone),
+      details: details.join(', ') || '—',
+    });
   }
   return rows;
 }
@@ -68,7 +97,10 @@ export function TreatmentGiven({ discharge }: { discharge: Discharge }) {
       </h2>
       <p className="text-paper-900">
         {protocol.title} (protocol version {protocol.version})
-        {record.sessionStartedAt && <>, {spanText(record.sessionStartedAt, record.endedAt, zone)}</>}.
+        {record.sessionStartedAt && (
+          <>, {spanText(record.sessionStartedAt, record.endedAt, zone)}</>
+        )}
+        .
       </p>
       {rows.length === 0 ? (
         <p className="text-paper-800">No treatment step was recorded in this session.</p>
@@ -94,7 +126,9 @@ export function TreatmentGiven({ discharge }: { discharge: Discharge }) {
                 <th scope="row" className="py-2 pr-4 font-medium text-paper-950">
                   {row.what}
                 </th>
-                <td className="numerals-steady py-2 pr-4 whitespace-nowrap text-paper-950">{row.when}</td>
+                <td className="numerals-steady py-2 pr-4 whitespace-nowrap text-paper-950">
+                  {row.when}
+                </td>
                 <td className="py-2 text-paper-900">{row.details}</td>
               </tr>
             ))}
@@ -105,7 +139,8 @@ export function TreatmentGiven({ discharge }: { discharge: Discharge }) {
         <p className="rounded-lg border-2 border-paper-900 px-4 py-2 text-paper-950">
           <span className="font-semibold">The treatment was stopped before the end</span>
           {record.endedAt && <> at {clockText(record.endedAt, zone)}</>}
-          {record.stopReason && <>. Reason noted: {record.stopReason}</>}. Your nurse or doctor will explain what happens next.
+          {record.stopReason && <>. Reason noted: {record.stopReason}</>}. Your nurse or doctor will
+          explain what happens next.
         </p>
       )}
     </section>

@@ -3,7 +3,9 @@ import { orderSummarySchema, type OrderSummary } from '../../../../shared/schema
 import { api } from '../../../lib/api-client';
 
 const todayResponseSchema = z.object({
-  lists: z.array(z.object({ id: z.string(), title: z.string(), orders: z.array(orderSummarySchema) })),
+  lists: z.array(
+    z.object({ id: z.string(), title: z.string(), orders: z.array(orderSummarySchema) }),
+  ),
   serverTime: z.string(),
 });
 
@@ -16,7 +18,9 @@ export type PharmacyWorklists = {
 };
 
 /** The pharmacist's part of Today: orders to check, to prepare, and already prepared. */
-export async function getPharmacyWorklists({ signal }: { signal?: AbortSignal } = {}): Promise<PharmacyWorklists> {
+export async function getPharmacyWorklists({
+  signal,
+}: { signal?: AbortSignal } = {}): Promise<PharmacyWorklists> {
   const sentAtMs = Date.now();
   const { lists, serverTime } = await api.get('/today', { schema: todayResponseSchema, signal });
   const receivedAtMs = Date.now();

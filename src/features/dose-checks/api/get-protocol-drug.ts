@@ -30,10 +30,17 @@ const drugParametersSchema = z.object({
         withdrawableVolumeMlPerVial: z.number().optional(),
       })
       .nullable(),
-    rounding: z.object({ bsaM2: z.number(), doseMg: z.number(), volumesMl: z.number(), rateMlPerMin: z.number() }),
+    rounding: z.object({
+      bsaM2: z.number(),
+      doseMg: z.number(),
+      volumesMl: z.number(),
+      rateMlPerMin: z.number(),
+    }),
     tolerances: z.object({
       drugVolumePct: z.number().nullable(),
-      doseCheck: z.object({ bsaPct: z.number(), dosePct: z.number(), drugVolumePct: z.number() }).nullable(),
+      doseCheck: z
+        .object({ bsaPct: z.number(), dosePct: z.number(), drugVolumePct: z.number() })
+        .nullable(),
     }),
     cautions: z.array(z.string()),
   }),
@@ -42,7 +49,11 @@ export type ProtocolDrugParameters = z.infer<typeof drugParametersSchema>;
 
 const versionResponseSchema = z.object({ version: drugParametersSchema });
 
-export async function getProtocolDrug(key: string, version: number, { signal }: { signal?: AbortSignal } = {}): Promise<ProtocolDrugParameters> {
+export async function getProtocolDrug(
+  key: string,
+  version: number,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<ProtocolDrugParameters> {
   const address = `/protocols/${encodeURIComponent(key)}/versions/${encodeURIComponent(String(version))}`;
   const response = await api.get(address, { schema: versionResponseSchema, signal });
   return response.version;

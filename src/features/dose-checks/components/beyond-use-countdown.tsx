@@ -10,9 +10,21 @@ const closingWindowMs = 30 * 60_000;
 type UseState = 'usable' | 'closing' | 'past';
 
 const states: Record<UseState, { words: string; Icon: typeof CheckCircleIcon; box: string }> = {
-  usable: { words: 'Usable', Icon: CheckCircleIcon, box: 'border-iris-300 bg-iris-50 text-iris-900' },
-  closing: { words: 'Under 30 minutes left', Icon: HourglassIcon, box: 'border-paper-800 border-dashed bg-paper-100 text-paper-950' },
-  past: { words: 'Past beyond-use time — do not use', Icon: CrossCircleIcon, box: 'border-alarm-700 bg-alarm-50 text-alarm-800' },
+  usable: {
+    words: 'Usable',
+    Icon: CheckCircleIcon,
+    box: 'border-iris-300 bg-iris-50 text-iris-900',
+  },
+  closing: {
+    words: 'Under 30 minutes left',
+    Icon: HourglassIcon,
+    box: 'border-paper-800 border-dashed bg-paper-100 text-paper-950',
+  },
+  past: {
+    words: 'Past beyond-use time — do not use',
+    Icon: CrossCircleIcon,
+    box: 'border-alarm-700 bg-alarm-50 text-alarm-800',
+  },
 };
 
 function stateOf(remainingMs: number): UseState {
@@ -51,11 +63,19 @@ type CountdownProps = {
 
 /** The large countdown on the order's screen. */
 export function BeyondUseCountdown({ beyondUseAt, nowMs }: CountdownProps) {
-  const { remainingMs, state, announcement, words, Icon, box } = useBeyondUse(beyondUseAt, nowMs, 'Beyond-use countdown');
+  const { remainingMs, state, announcement, words, Icon, box } = useBeyondUse(
+    beyondUseAt,
+    nowMs,
+    'Beyond-use countdown',
+  );
   return (
-    <div className={`flex flex-wrap items-center gap-x-8 gap-y-3 rounded-2xl border-2 px-6 py-5 ${box}`}>
+    <div
+      className={`flex flex-wrap items-center gap-x-8 gap-y-3 rounded-2xl border-2 px-6 py-5 ${box}`}
+    >
       <div>
-        <p className="text-sm font-medium uppercase tracking-wider">{state === 'past' ? 'Over by' : 'Time left'}</p>
+        <p className="text-sm font-medium uppercase tracking-wider">
+          {state === 'past' ? 'Over by' : 'Time left'}
+        </p>
         <p className="numerals-steady text-clock-sm">{clockText(remainingMs)}</p>
       </div>
       <div className="space-y-1.5">
@@ -75,10 +95,20 @@ export function BeyondUseCountdown({ beyondUseAt, nowMs }: CountdownProps) {
 }
 
 /** A one-line countdown for a list row. */
-export function BeyondUseChip({ beyondUseAt, nowMs, subject }: CountdownProps & { subject: string }) {
-  const { remainingMs, state, announcement, words, Icon, box } = useBeyondUse(beyondUseAt, nowMs, subject);
+export function BeyondUseChip({
+  beyondUseAt,
+  nowMs,
+  subject,
+}: CountdownProps & { subject: string }) {
+  const { remainingMs, state, announcement, words, Icon, box } = useBeyondUse(
+    beyondUseAt,
+    nowMs,
+    subject,
+  );
   return (
-    <span className={`inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-medium ${box}`}>
+    <span
+      className={`inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-medium ${box}`}
+    >
       <Icon className="size-4" />
       {words}
       {state !== 'past' && <span className="numerals-steady">· {clockText(remainingMs)} left</span>}

@@ -13,7 +13,17 @@ import { readableMessage, unplacedFieldProblems } from '../../../lib/form-errors
 import type { ProtocolDrugParameters } from '../api/get-protocol-drug';
 import { useSubmitDoseCheck } from '../hooks/use-submit-dose-check';
 import { quantity, unitTime } from './display-format';
-import { checkedFigures, figureLabels, figureMaximum, figureTolerance, figureUnits, figureWords, isCheckedFigure, refusalsBeforeReturn, type CheckedFigure } from './dose-figures';
+import {
+  checkedFigures,
+  figureLabels,
+  figureMaximum,
+  figureTolerance,
+  figureUnits,
+  figureWords,
+  isCheckedFigure,
+  refusalsBeforeReturn,
+  type CheckedFigure,
+} from './dose-figures';
 
 /** A typed figure: a point or a comma for decimals, then the server's own range. */
 function figureText(field: CheckedFigure) {
@@ -23,7 +33,10 @@ function figureText(field: CheckedFigure) {
   return z
     .string()
     .trim()
-    .min(1, `Enter your ${figureWords[field]} in ${unit}: a number greater than 0 and at most ${figureMaximum[field]}`)
+    .min(
+      1,
+      `Enter your ${figureWords[field]} in ${unit}: a number greater than 0 and at most ${figureMaximum[field]}`,
+    )
     .transform((text) => Number(text.replace(',', '.')))
     .pipe(z.number({ error: rule }).positive(rule).max(figureMaximum[field], rule));
 }
@@ -65,7 +78,11 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
     resolver: zodResolver(checkFormSchema),
     defaultValues: checkDefaults,
   });
-  const draftKeeper = useFormDraft(`dose-check.${order.id}`, { watch, reset, getValues }, { settle: overDefaults(checkDefaults) });
+  const draftKeeper = useFormDraft(
+    `dose-check.${order.id}`,
+    { watch, reset, getValues },
+    { settle: overDefaults(checkDefaults) },
+  );
 
   const refusals = order.doseChecks.filter((check) => check.outcome === 'mismatch');
   const lastTry = refusals.length >= refusalsBeforeReturn - 1;
@@ -85,7 +102,7 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
             const message =
               error.status === 422 && isCheckedFigure(field)
                 ? `Differs from the plan by more than ${tolerances ? `±${quantity(tolerances[figureTolerance[field]], '%')}` : 'the protocol’s tolerance'}. Work this figure out again.`
-                : readableMessage(problem.message, labels) ?? problem.message;
+                : (readableMessage(problem.message, labels) ?? problem.message);
             setError(field, { type: 'server', message }, { shouldFocus: !focused });
             focused = true;
           }
@@ -99,27 +116,39 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-labelledby="blind-check-heading" className="rounded-2xl border-2 border-iris-300 bg-white p-6">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-labelledby="blind-check-heading"
+      className="rounded-2xl border-2 border-iris-300 bg-white p-6"
+    >
       <h2 id="blind-check-heading" className="text-xl font-semibold text-paper-950">
         Your figures
       </h2>
       <KeptDraftOffer draft={draftKeeper} what="figures" />
       <p className="mt-1 mb-5 text-paper-700">
-        Work them out from the measurements and the protocol’s figures, rounded as the protocol says. A point or a comma may mark the decimals.
+        Work them out from the measurements and the protocol’s figures, rounded as the protocol
+        says. A point or a comma may mark the decimals.
       </p>
 
       {refusals.length > 0 && (
         <div className="mb-5 space-y-3">
-          <h3 className="font-semibold text-paper-900">Earlier {refusals.length === 1 ? 'attempt' : 'attempts'}</h3>
+          <h3 className="font-semibold text-paper-900">
+            Earlier {refusals.length === 1 ? 'attempt' : 'attempts'}
+          </h3>
           <ul className="space-y-1.5 text-sm text-paper-800">
             {refusals.map((check) => (
               <li key={check.id} className="flex items-start gap-2">
                 <AlertIcon className="mt-0.5 size-4 text-alarm-700" />
                 <span>
                   {unitTime(check.createdAt)}
-                  {check.pharmacist ? `, ${check.pharmacist.displayName}` : ''}: {quantity(check.entered.bsaM2, 'm²')}, {quantity(check.entered.doseMg, 'mg')},{' '}
+                  {check.pharmacist ? `, ${check.pharmacist.displayName}` : ''}:{' '}
+                  {quantity(check.entered.bsaM2, 'm²')}, {quantity(check.entered.doseMg, 'mg')},{' '}
                   {quantity(check.entered.drugVolumeMl, 'mL')} — differed from the plan in{' '}
-                  {check.differing.map((path) => (isCheckedFigure(path) ? figureWords[path] : path)).join(', ')}.
+                  {check.differing
+                    .map((path) => (isCheckedFigure(path) ? figureWords[path] : path))
+                    .join(', ')}
+                  .
                 </span>
               </li>
             ))}
@@ -128,9 +157,15 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
       )}
 
       {lastTry && (
-        <Alert tone="info" live="none" title="This is the last try before the order goes back" className="mb-5">
-          If these figures differ from the plan again, the order is sent back to the clinician who signed it. Say in the comment what you found (for
-          example, a weight that looks like pounds), so they can put it right.
+        <Alert
+          tone="info"
+          live="none"
+          title="This is the last try before the order goes back"
+          className="mb-5"
+        >
+          If these figures differ from the plan again, the order is sent back to the clinician who
+          signed it. Say in the comment what you found (for example, a weight that looks like
+          pounds), so they can put it right.
         </Alert>
       )}
 
@@ -144,8 +179,8 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
                 .filter(isCheckedFigure)
                 .map((field) => figureWords[field])
                 .join(', ')}
-              . Work {error.fields.length === 1 ? 'that figure' : 'those figures'} out again from the start; one more difference sends the order back to
-              the clinician.
+              . Work {error.fields.length === 1 ? 'that figure' : 'those figures'} out again from
+              the start; one more difference sends the order back to the clinician.
             </p>
           </Alert>
         ) : (
@@ -180,7 +215,9 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
           {lastTry ? 'Comment for the clinician' : 'Comment (optional)'}
         </label>
         <p id="dose-check-comment-hint" className="text-sm text-paper-600">
-          {lastTry ? 'Sent with the order if it goes back. Up to 1000 characters.' : 'Kept with your check. Up to 1000 characters.'}
+          {lastTry
+            ? 'Sent with the order if it goes back. Up to 1000 characters.'
+            : 'Kept with your check. Up to 1000 characters.'}
         </p>
         <textarea
           id="dose-check-comment"
@@ -191,7 +228,10 @@ export function BlindCheckForm({ order, protocol }: BlindCheckFormProps) {
           {...register('comment')}
         />
         {errors.comment?.message && (
-          <p id="dose-check-comment-error" className="flex items-start gap-1.5 text-sm font-medium text-alarm-700">
+          <p
+            id="dose-check-comment-error"
+            className="flex items-start gap-1.5 text-sm font-medium text-alarm-700"
+          >
             <AlertIcon className="mt-px size-4" />
             <span>{errors.comment.message}</span>
           </p>

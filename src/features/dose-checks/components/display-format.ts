@@ -10,7 +10,10 @@ export function patientName(patient: { givenName: string; familyName: string }):
 
 /** A number as the plan would print it: no trailing zeros, a point for decimals. */
 export function numberText(value: number, maxDecimals = 6): string {
-  return new Intl.NumberFormat('en-GB', { maximumFractionDigits: maxDecimals, useGrouping: false }).format(value);
+  return new Intl.NumberFormat('en-GB', {
+    maximumFractionDigits: maxDecimals,
+    useGrouping: false,
+  }).format(value);
 }
 
 export function quantity(value: number | null | undefined, unit: string, maxDecimals = 6): string {

@@ -1,9 +1,21 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, type RefObject } from 'react';
-import { awaitsDoseCheck, awaitsPreparation, canReprepare } from '../../../../shared/orders/lifecycle';
+import {
+  awaitsDoseCheck,
+  awaitsPreparation,
+  canReprepare,
+} from '../../../../shared/orders/lifecycle';
 import type { OrderDetail, OrderStatus } from '../../../../shared/schemas/orders';
 import { Button, LinkButton } from '../../../components/ui/button';
-import { AlertIcon, ArrowLeftIcon, CheckCircleIcon, InfoIcon, LockIcon, ReloadIcon, TurnBackIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  ArrowLeftIcon,
+  CheckCircleIcon,
+  InfoIcon,
+  LockIcon,
+  ReloadIcon,
+  TurnBackIcon,
+} from '../../../components/ui/icons';
 import { orderStatusWords } from '../../../components/ui/order-status-words';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
@@ -32,8 +44,10 @@ type DoseCheckScreenProps = {
 };
 
 const announcements: Partial<Record<`${OrderStatus}>${OrderStatus}`, string>> = {
-  'signed>checked': 'Your figures agree with the plan. The plan and its working are now shown beside your figures.',
-  'signed>returned': 'Your figures differed again. The order has gone back to the clinician with your comment.',
+  'signed>checked':
+    'Your figures agree with the plan. The plan and its working are now shown beside your figures.',
+  'signed>returned':
+    'Your figures differed again. The order has gone back to the clinician with your comment.',
   'checked>prepared': 'Preparation recorded. The beyond-use countdown has started.',
 };
 
@@ -63,7 +77,11 @@ export function DoseCheckScreen({ orderId, userId, canPrepare }: DoseCheckScreen
   const header = (
     <PageHeader
       title={order ? `Dose check: ${patientName(order.patient)}` : 'Dose check'}
-      lead={order ? `Order ${order.id}, record ${order.patient.recordNumber}. ${orderStatusWords(order.status, 'long')}.` : `Order ${orderId}`}
+      lead={
+        order
+          ? `Order ${order.id}, record ${order.patient.recordNumber}. ${orderStatusWords(order.status, 'long')}.`
+          : `Order ${orderId}`
+      }
       actions={
         <LinkButton to={paths.doseChecks.getHref()} icon={<ArrowLeftIcon />}>
           All dose checks
@@ -93,7 +111,12 @@ export function DoseCheckScreen({ orderId, userId, canPrepare }: DoseCheckScreen
             missing ? (
               <LinkButton to={paths.doseChecks.getHref()}>Back to dose checks</LinkButton>
             ) : (
-              <Button variant="secondary" icon={<ReloadIcon />} busy={orderQuery.isFetching} onClick={() => void orderQuery.refetch()}>
+              <Button
+                variant="secondary"
+                icon={<ReloadIcon />}
+                busy={orderQuery.isFetching}
+                onClick={() => void orderQuery.refetch()}
+              >
                 Try again
               </Button>
             )
@@ -146,19 +169,37 @@ type ScreenBodyProps = {
   movedToRef: RefObject<HTMLHeadingElement | null>;
 };
 
-function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId, canPrepare, clockOffsetMs, movedToRef }: ScreenBodyProps) {
+function ScreenBody({
+  order,
+  protocol,
+  protocolProblem,
+  onRetryProtocol,
+  userId,
+  canPrepare,
+  clockOffsetMs,
+  movedToRef,
+}: ScreenBodyProps) {
   if (order.kind !== 'pdt') {
     return (
       <StatusPanel icon={<InfoIcon className="size-6" />} title="No drug to check">
-        <p>{order.protocol.title} gives no drug, so this order needs neither a dose check nor a preparation.</p>
+        <p>
+          {order.protocol.title} gives no drug, so this order needs neither a dose check nor a
+          preparation.
+        </p>
       </StatusPanel>
     );
   }
 
   if (awaitsDoseCheck(order.status) && order.signedBy?.id === userId) {
     return (
-      <StatusPanel icon={<LockIcon className="size-6" />} title="You signed this order, so someone else must check it">
-        <p>The dose check is independent only when it is done by a pharmacist who did not sign the order.</p>
+      <StatusPanel
+        icon={<LockIcon className="size-6" />}
+        title="You signed this order, so someone else must check it"
+      >
+        <p>
+          The dose check is independent only when it is done by a pharmacist who did not sign the
+          order.
+        </p>
       </StatusPanel>
     );
   }
@@ -169,8 +210,15 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
         <FiguresHiddenNote />
         <div className="grid items-start gap-6 lg:grid-cols-2">
           <div className="space-y-6">
-            <OrderInputs inputs={order.inputs} defaultFormula={protocol?.definition.bsaFormulaDefault ?? null} />
-            <ProtocolPanel protocol={protocol} problem={protocolProblem} onRetry={onRetryProtocol} />
+            <OrderInputs
+              inputs={order.inputs}
+              defaultFormula={protocol?.definition.bsaFormulaDefault ?? null}
+            />
+            <ProtocolPanel
+              protocol={protocol}
+              problem={protocolProblem}
+              onRetry={onRetryProtocol}
+            />
           </div>
           {/* Stays in view while the person reads down the measurements and the protocol. */}
           <div className="lg:sticky lg:top-4">
@@ -184,13 +232,22 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
   if (order.status === 'returned') {
     const refusals = order.doseChecks.filter((check) => check.outcome === 'mismatch');
     return (
-      <section aria-labelledby="returned-heading" className="rounded-2xl border-2 border-paper-400 bg-white p-6">
-        <h2 ref={movedToRef} tabIndex={-1} id="returned-heading" className="flex items-center gap-2 text-xl font-semibold text-paper-950">
+      <section
+        aria-labelledby="returned-heading"
+        className="rounded-2xl border-2 border-paper-400 bg-white p-6"
+      >
+        <h2
+          ref={movedToRef}
+          tabIndex={-1}
+          id="returned-heading"
+          className="flex items-center gap-2 text-xl font-semibold text-paper-950"
+        >
           <TurnBackIcon className="size-6" />
           Sent back to the clinician
         </h2>
         <p className="mt-2 text-paper-800">
-          The figures differed from the plan {refusals.length} {refusals.length === 1 ? 'time' : 'times'}, so the order went back to the clinician who
+          The figures differed from the plan {refusals.length}{' '}
+          {refusals.length === 1 ? 'time' : 'times'}, so the order went back to the clinician who
           signed it. It returns to the dose-check list once they amend and sign it again.
         </p>
         {order.returnComment && (
@@ -202,8 +259,12 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
         <ul className="numerals-steady mt-3 space-y-1 text-sm text-paper-800">
           {refusals.map((check) => (
             <li key={check.id}>
-              {unitDateTime(check.createdAt)}: {quantity(check.entered.bsaM2, 'm²')}, {quantity(check.entered.doseMg, 'mg')}, {quantity(check.entered.drugVolumeMl, 'mL')} — differed in{' '}
-              {check.differing.map((path) => (isCheckedFigure(path) ? figureWords[path] : path)).join(', ')}
+              {unitDateTime(check.createdAt)}: {quantity(check.entered.bsaM2, 'm²')},{' '}
+              {quantity(check.entered.doseMg, 'mg')}, {quantity(check.entered.drugVolumeMl, 'mL')} —
+              differed in{' '}
+              {check.differing
+                .map((path) => (isCheckedFigure(path) ? figureWords[path] : path))
+                .join(', ')}
             </li>
           ))}
         </ul>
@@ -214,7 +275,10 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
   const plan = order.plan;
   if (!plan) {
     return (
-      <StatusPanel icon={<InfoIcon className="size-6" />} title={`This order is ${orderStatusWords(order.status, 'long').toLowerCase()}`}>
+      <StatusPanel
+        icon={<InfoIcon className="size-6" />}
+        title={`This order is ${orderStatusWords(order.status, 'long').toLowerCase()}`}
+      >
         <p>It is not waiting for a dose check, and its plan is not shown to you here.</p>
       </StatusPanel>
     );
@@ -225,9 +289,17 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
       <>
         <CheckOutcome order={order} plan={plan} protocol={protocol} headingRef={movedToRef} />
         {canPrepare ? (
-          <PreparationForm order={order} plan={plan} protocol={protocol} clockOffsetMs={clockOffsetMs} />
+          <PreparationForm
+            order={order}
+            plan={plan}
+            protocol={protocol}
+            clockOffsetMs={clockOffsetMs}
+          />
         ) : (
-          <StatusPanel icon={<LockIcon className="size-6" />} title="Recording the preparation is not part of your roles">
+          <StatusPanel
+            icon={<LockIcon className="size-6" />}
+            title="Recording the preparation is not part of your roles"
+          >
             <p>A pharmacist records the vial, its expiry and the reconstitution time.</p>
           </StatusPanel>
         )}
@@ -239,16 +311,32 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
     // A drug past its beyond-use time is discarded and made up again (shared/orders/lifecycle.ts);
     // the server also refuses once the infusion has started.
     const remake =
-      canPrepare && canReprepare(order.status, { beyondUsePassed: Date.parse(order.preparation.beyondUseAt) <= Date.now() + clockOffsetMs, infusionStarted: false }).allowed;
+      canPrepare &&
+      canReprepare(order.status, {
+        beyondUsePassed: Date.parse(order.preparation.beyondUseAt) <= Date.now() + clockOffsetMs,
+        infusionStarted: false,
+      }).allowed;
     return (
       <>
         <PreparationRecord order={order} preparation={order.preparation} headingRef={movedToRef} />
         {remake && (
           <>
-            <StatusPanel role="alert" icon={<AlertIcon className="size-6" />} title="Past its beyond-use time: discard the drug and make it up again">
-              <p>The session cannot start, and the infusion cannot start, with this preparation. Record the fresh one below; the old one stays on record.</p>
+            <StatusPanel
+              role="alert"
+              icon={<AlertIcon className="size-6" />}
+              title="Past its beyond-use time: discard the drug and make it up again"
+            >
+              <p>
+                The session cannot start, and the infusion cannot start, with this preparation.
+                Record the fresh one below; the old one stays on record.
+              </p>
             </StatusPanel>
-            <PreparationForm order={order} plan={plan} protocol={protocol} clockOffsetMs={clockOffsetMs} />
+            <PreparationForm
+              order={order}
+              plan={plan}
+              protocol={protocol}
+              clockOffsetMs={clockOffsetMs}
+            />
           </>
         )}
         <CheckOutcome order={order} plan={plan} protocol={protocol} />
@@ -261,13 +349,24 @@ function ScreenBody({ order, protocol, protocolProblem, onRetryProtocol, userId,
   }
 
   return (
-    <StatusPanel icon={<CheckCircleIcon className="size-6" />} title={`This order is ${orderStatusWords(order.status, 'long').toLowerCase()}`}>
+    <StatusPanel
+      icon={<CheckCircleIcon className="size-6" />}
+      title={`This order is ${orderStatusWords(order.status, 'long').toLowerCase()}`}
+    >
       <p>It is not waiting for a dose check.</p>
     </StatusPanel>
   );
 }
 
-function ProtocolPanel({ protocol, problem, onRetry }: { protocol: ProtocolDrugParameters | undefined; problem: string | null; onRetry: () => void }) {
+function ProtocolPanel({
+  protocol,
+  problem,
+  onRetry,
+}: {
+  protocol: ProtocolDrugParameters | undefined;
+  problem: string | null;
+  onRetry: () => void;
+}) {
   if (protocol) return <DrugParameters protocol={protocol} />;
   if (problem) {
     return (

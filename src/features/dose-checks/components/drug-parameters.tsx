@@ -11,7 +11,10 @@ export function DrugParameters({ protocol }: { protocol: ProtocolDrugParameters 
     ['Dose per BSA', quantity(drug.doseMgPerM2, 'mg/m²')],
     ['Concentration after reconstitution', quantity(drug.concentrationMgPerMl, 'mg/mL')],
     ['Vial content', quantity(drug.vialContentMg, 'mg')],
-    ['Reconstitution', `${quantity(drug.reconstitutionVolumeMl, 'mL')} ${drug.reconstitutionFluid}, giving ${quantity(drug.reconstitutedVolumeMl, 'mL')}`],
+    [
+      'Reconstitution',
+      `${quantity(drug.reconstitutionVolumeMl, 'mL')} ${drug.reconstitutionFluid}, giving ${quantity(drug.reconstitutedVolumeMl, 'mL')}`,
+    ],
     ['Final infusion volume', quantity(drug.finalVolumeMl, 'mL')],
     ['Diluent', drug.diluent],
     ['Infusion time', quantity(drug.infusionMin, 'min')],
@@ -19,7 +22,10 @@ export function DrugParameters({ protocol }: { protocol: ProtocolDrugParameters 
   ];
   const check = tolerances.doseCheck;
   return (
-    <section aria-labelledby="drug-parameters-heading" className="rounded-2xl border border-paper-200 bg-white px-6 py-5">
+    <section
+      aria-labelledby="drug-parameters-heading"
+      className="rounded-2xl border border-paper-200 bg-white px-6 py-5"
+    >
       <h2 id="drug-parameters-heading" className="text-lg font-semibold text-paper-950">
         The protocol’s drug figures
       </h2>
@@ -37,18 +43,29 @@ export function DrugParameters({ protocol }: { protocol: ProtocolDrugParameters 
       <h3 className="mt-4 font-semibold text-paper-900">Rounding</h3>
       <p className="numerals-steady text-paper-800">
         BSA to {quantity(rounding.bsaM2, 'm²')}; dose to {quantity(rounding.doseMg, 'mg')};{' '}
-        {drug.syringeGraduationMl !== undefined ? <>drug volume to the syringe graduation, {quantity(drug.syringeGraduationMl, 'mL')}; other volumes</> : 'volumes'} to{' '}
-        {quantity(rounding.volumesMl, 'mL')}; rate to {quantity(rounding.rateMlPerMin, 'mL/min')}.
+        {drug.syringeGraduationMl !== undefined ? (
+          <>
+            drug volume to the syringe graduation, {quantity(drug.syringeGraduationMl, 'mL')}; other
+            volumes
+          </>
+        ) : (
+          'volumes'
+        )}{' '}
+        to {quantity(rounding.volumesMl, 'mL')}; rate to {quantity(rounding.rateMlPerMin, 'mL/min')}
+        .
       </p>
       {drug.withdrawableVolumeMlPerVial !== undefined && (
-        <p className="numerals-steady text-paper-800">Vials are counted from the drug volume at {quantity(drug.withdrawableVolumeMlPerVial, 'mL')} withdrawable per vial.</p>
+        <p className="numerals-steady text-paper-800">
+          Vials are counted from the drug volume at{' '}
+          {quantity(drug.withdrawableVolumeMlPerVial, 'mL')} withdrawable per vial.
+        </p>
       )}
       {check && (
         <>
           <h3 className="mt-4 font-semibold text-paper-900">How close your figures must be</h3>
           <p className="numerals-steady text-paper-800">
-            Within ±{quantity(check.bsaPct, '%')} for BSA, ±{quantity(check.dosePct, '%')} for the dose and ±{quantity(check.drugVolumePct, '%')} for the drug
-            volume, against the plan.
+            Within ±{quantity(check.bsaPct, '%')} for BSA, ±{quantity(check.dosePct, '%')} for the
+            dose and ±{quantity(check.drugVolumePct, '%')} for the drug volume, against the plan.
           </p>
         </>
       )}

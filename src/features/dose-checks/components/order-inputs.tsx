@@ -15,21 +15,30 @@ export function OrderInputs({ inputs, defaultFormula }: OrderInputsProps) {
   const formula = formulaName ? bsaFormulas[formulaName] : null;
   const imperial = inputs.height?.unit === 'in' || inputs.weight?.unit === 'lb';
   return (
-    <section aria-labelledby="order-inputs-heading" className="rounded-2xl border border-paper-200 bg-white px-6 py-5">
+    <section
+      aria-labelledby="order-inputs-heading"
+      className="rounded-2xl border border-paper-200 bg-white px-6 py-5"
+    >
       <h2 id="order-inputs-heading" className="text-lg font-semibold text-paper-950">
         The order’s measurements
       </h2>
       <dl className="mt-3 grid grid-cols-[minmax(0,11rem)_1fr] gap-x-5 gap-y-2">
         <dt className="text-paper-700">Height</dt>
-        <dd className="numerals-steady font-semibold text-paper-950">{inputs.height ? formatMeasureWithConversion(inputs.height) : 'Not given'}</dd>
+        <dd className="numerals-steady font-semibold text-paper-950">
+          {inputs.height ? formatMeasureWithConversion(inputs.height) : 'Not given'}
+        </dd>
         <dt className="text-paper-700">Weight</dt>
-        <dd className="numerals-steady font-semibold text-paper-950">{inputs.weight ? formatMeasureWithConversion(inputs.weight) : 'Not given'}</dd>
+        <dd className="numerals-steady font-semibold text-paper-950">
+          {inputs.weight ? formatMeasureWithConversion(inputs.weight) : 'Not given'}
+        </dd>
         <dt className="text-paper-700">BSA formula</dt>
         <dd className="text-paper-950">
           {formula ? (
             <>
               <span className="font-semibold">{formula.label}</span>
-              {!inputs.bsaFormula && <span className="text-paper-700"> (the protocol’s default)</span>}
+              {!inputs.bsaFormula && (
+                <span className="text-paper-700"> (the protocol’s default)</span>
+              )}
               <span className="block text-sm text-paper-700">
                 <span className="font-mono">{formula.expression}</span> — {formula.source}
               </span>
@@ -41,7 +50,11 @@ export function OrderInputs({ inputs, defaultFormula }: OrderInputsProps) {
         <dt className="text-paper-700">Lesion GLD</dt>
         <dd className="numerals-steady text-paper-950">{quantity(inputs.lesionGldUm, 'µm')}</dd>
         <dt className="text-paper-700">Lens magnification</dt>
-        <dd className="numerals-steady text-paper-950">{inputs.lensMagnification === undefined ? '—' : `× ${quantity(inputs.lensMagnification, '')}`}</dd>
+        <dd className="numerals-steady text-paper-950">
+          {inputs.lensMagnification === undefined
+            ? '—'
+            : `× ${quantity(inputs.lensMagnification, '')}`}
+        </dd>
       </dl>
       {imperial && (
         <p className="mt-3 text-sm text-paper-700">

@@ -12,7 +12,11 @@ import { ClockIcon } from '../../../components/ui/icons';
 import { TextField } from '../../../components/ui/text-field';
 import { unitTimeZone, unitTimeZoneLabel } from '../../../config/unit-time-zone';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
-import { applyServerFieldErrors, readableMessage, unplacedFieldProblems } from '../../../lib/form-errors';
+import {
+  applyServerFieldErrors,
+  readableMessage,
+  unplacedFieldProblems,
+} from '../../../lib/form-errors';
 import type { ProtocolDrugParameters } from '../api/get-protocol-drug';
 import { useRecordPreparation } from '../hooks/use-record-preparation';
 import { quantity } from './display-format';
@@ -28,16 +32,25 @@ const preparationFormSchema = z.object({
   vialLot: z
     .string()
     .trim()
-    .regex(/^[A-Za-z0-9][A-Za-z0-9 ./-]{1,39}$/, 'Vial lot must be 2 to 40 letters, digits, spaces, dots, slashes or hyphens, starting with a letter or digit'),
+    .regex(
+      /^[A-Za-z0-9][A-Za-z0-9 ./-]{1,39}$/,
+      'Vial lot must be 2 to 40 letters, digits, spaces, dots, slashes or hyphens, starting with a letter or digit',
+    ),
   vialExpiry: z.iso.date({ error: 'Enter the expiry date printed on the vial (today or later)' }),
   reconstitutedAt: z
     .string()
     .trim()
-    .min(1, `Enter when the powder was reconstituted (${unitTimeZoneLabel}); it cannot be in the future`)
+    .min(
+      1,
+      `Enter when the powder was reconstituted (${unitTimeZoneLabel}); it cannot be in the future`,
+    )
     .transform((text, ctx) => {
       const at = DateTime.fromISO(text, { zone: unitTimeZone });
       if (!at.isValid) {
-        ctx.addIssue({ code: 'custom', message: 'Reconstitution time must be a date and a time of day' });
+        ctx.addIssue({
+          code: 'custom',
+          message: 'Reconstitution time must be a date and a time of day',
+        });
         return z.NEVER;
       }
       return at.toISO({ suppressMilliseconds: true })!;
@@ -57,7 +70,12 @@ const preparationFormSchema = z.object({
 type PreparationFormInput = z.input<typeof preparationFormSchema>;
 
 const fieldNames = ['vialLot', 'vialExpiry', 'reconstitutedAt', 'volumeDrawnMl'] as const;
-const labels = { vialLot: 'Vial lot', vialExpiry: 'Vial expiry', reconstitutedAt: 'Reconstitution time', volumeDrawnMl: 'Volume drawn' };
+const labels = {
+  vialLot: 'Vial lot',
+  vialExpiry: 'Vial expiry',
+  reconstitutedAt: 'Reconstitution time',
+  volumeDrawnMl: 'Volume drawn',
+};
 
 type PreparationFormProps = {
   order: OrderDetail;
@@ -84,7 +102,13 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
     resolver: zodResolver(preparationFormSchema),
     defaultValues: { vialLot: '', vialExpiry: '', reconstitutedAt: nowText(), volumeDrawnMl: '' },
   });
-  const draftKeeper = useFormDraft(`preparation.${order.id}`, { watch, reset, getValues }, { settle: overDefaults({ vialLot: '', vialExpiry: '', reconstitutedAt: '', volumeDrawnMl: '' }) });
+  const draftKeeper = useFormDraft(
+    `preparation.${order.id}`,
+    { watch, reset, getValues },
+    {
+      settle: overDefaults({ vialLot: '', vialExpiry: '', reconstitutedAt: '', volumeDrawnMl: '' }),
+    },
+  );
 
   const onSubmit = handleSubmit((entry) => {
     record.mutate(
@@ -92,7 +116,8 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
       {
         onSuccess: draftKeeper.clear,
         onError: (error) => {
-          if (isApiRequestError(error) && error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
+          if (isApiRequestError(error) && error.status === 400)
+            applyServerFieldErrors(error, setError, fieldNames);
         },
       },
     );
@@ -102,14 +127,24 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
   const pct = protocol?.definition.tolerances.drugVolumePct ?? null;
   const planned = plan.drugVolumeMl;
   const range =
-    planned !== null && pct !== null ? `from ${quantity(+(planned * (1 - pct / 100)).toFixed(2), 'mL')} to ${quantity(+(planned * (1 + pct / 100)).toFixed(2), 'mL')} (plan ± ${quantity(pct, '%')})` : null;
+    planned !== null && pct !== null
+      ? `from ${quantity(+(planned * (1 - pct / 100)).toFixed(2), 'mL')} to ${quantity(+(planned * (1 + pct / 100)).toFixed(2), 'mL')} (plan ± ${quantity(pct, '%')})`
+      : null;
 
   const error = record.error;
-  const atFields = isApiRequestError(error) && error.status === 400 && error.fields.some((f) => (fieldNames as readonly string[]).includes(f.path));
+  const atFields =
+    isApiRequestError(error) &&
+    error.status === 400 &&
+    error.fields.some((f) => (fieldNames as readonly string[]).includes(f.path));
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-labelledby="preparation-heading" className="rounded-2xl border-2 border-iris-300 bg-white p-6">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-labelledby="preparation-heading"
+      className="rounded-2xl border-2 border-iris-300 bg-white p-6"
+    >
       <h2 id="preparation-heading" className="text-xl font-semibold text-paper-950">
         Record the preparation
       </h2>
@@ -120,22 +155,30 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
         <ol className="numerals-steady mt-1 list-decimal space-y-0.5 pl-5">
           {drug && (
             <li>
-              Reconstitute {quantity(plan.vials, plan.vials === 1 ? 'vial' : 'vials')} of {quantity(drug.vialContentMg, 'mg')} with{' '}
-              {quantity(drug.reconstitutionVolumeMl, 'mL')} {drug.reconstitutionFluid} each ({quantity(drug.concentrationMgPerMl, 'mg/mL')}).
+              Reconstitute {quantity(plan.vials, plan.vials === 1 ? 'vial' : 'vials')} of{' '}
+              {quantity(drug.vialContentMg, 'mg')} with{' '}
+              {quantity(drug.reconstitutionVolumeMl, 'mL')} {drug.reconstitutionFluid} each (
+              {quantity(drug.concentrationMgPerMl, 'mg/mL')}).
             </li>
           )}
           <li>
-            Draw <strong>{quantity(plan.drugVolumeMl, 'mL')}</strong> ({quantity(plan.doseMg, 'mg')}).
+            Draw <strong>{quantity(plan.drugVolumeMl, 'mL')}</strong> ({quantity(plan.doseMg, 'mg')}
+            ).
           </li>
           <li>
             Add {quantity(plan.diluentVolumeMl, 'mL')} {drug ? drug.diluent : 'diluent'}
-            {drug ? ` to make ${quantity(drug.finalVolumeMl, 'mL')}` : ''}; infuse at {quantity(plan.infusionRateMlPerMin, 'mL/min')}.
+            {drug ? ` to make ${quantity(drug.finalVolumeMl, 'mL')}` : ''}; infuse at{' '}
+            {quantity(plan.infusionRateMlPerMin, 'mL/min')}.
           </li>
         </ol>
       </div>
 
       {error && (
-        <Alert tone="error" title={atFields ? 'Not recorded: see the fields marked below' : 'Not recorded'} className="mb-5">
+        <Alert
+          tone="error"
+          title={atFields ? 'Not recorded: see the fields marked below' : 'Not recorded'}
+          className="mb-5"
+        >
           {!atFields && <p>{describeError(error)}</p>}
           {atFields && <p>{error.message}</p>}
           {unplaced.length > 0 && (
@@ -187,7 +230,11 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
           label="Volume drawn (mL)"
           inputMode="decimal"
           autoComplete="off"
-          hint={range ? `Plan ${quantity(planned, 'mL')}; allowed ${range}.` : `Plan ${quantity(planned, 'mL')}.`}
+          hint={
+            range
+              ? `Plan ${quantity(planned, 'mL')}; allowed ${range}.`
+              : `Plan ${quantity(planned, 'mL')}.`
+          }
           className="numerals-steady"
           error={readableMessage(errors.volumeDrawnMl?.message, labels)}
           {...register('volumeDrawnMl')}

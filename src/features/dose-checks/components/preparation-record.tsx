@@ -22,12 +22,22 @@ export function PreparationRecord({ order, preparation, headingRef }: Preparatio
     ['Prepared by', preparation.pharmacist?.displayName ?? '—'],
   ];
   return (
-    <section aria-labelledby="preparation-record-heading" className="space-y-5 rounded-2xl border border-paper-200 bg-white p-6">
-      <h2 ref={headingRef} tabIndex={-1} id="preparation-record-heading" className="flex items-center gap-2 text-xl font-semibold text-paper-950">
+    <section
+      aria-labelledby="preparation-record-heading"
+      className="space-y-5 rounded-2xl border border-paper-200 bg-white p-6"
+    >
+      <h2
+        ref={headingRef}
+        tabIndex={-1}
+        id="preparation-record-heading"
+        className="flex items-center gap-2 text-xl font-semibold text-paper-950"
+      >
         <VialCheckIcon className="size-6 text-iris-700" />
         Prepared
       </h2>
-      {order.status === 'prepared' && <LiveBeyondUseCountdown beyondUseAt={preparation.beyondUseAt} />}
+      {order.status === 'prepared' && (
+        <LiveBeyondUseCountdown beyondUseAt={preparation.beyondUseAt} />
+      )}
       <dl className="numerals-steady grid grid-cols-[auto_1fr] gap-x-6 gap-y-2">
         {rows.map(([label, value]) => (
           <div key={label} className="contents">

@@ -12,10 +12,13 @@ let timer: ReturnType<typeof setTimeout> | null = null;
 
 function scheduleTick() {
   // Aligned to the next whole second so every countdown on screen changes together.
-  timer = setTimeout(() => {
-    for (const listener of listeners) listener();
-    scheduleTick();
-  }, 1000 - (Date.now() % 1000) + 5);
+  timer = setTimeout(
+    () => {
+      for (const listener of listeners) listener();
+      scheduleTick();
+    },
+    1000 - (Date.now() % 1000) + 5,
+  );
 }
 
 function subscribe(listener: () => void) {

@@ -2,11 +2,15 @@ import { z } from 'zod';
 import { orderDetailSchema } from '../../../../shared/schemas/orders';
 import { eyes } from '../../../../shared/schemas/patients';
 import { deviationSeverities } from '../../../../shared/session/session-events';
-import { givenRecordSchema, protocolStepsSchema, type GivenRecord, type ProtocolSteps } from '../../../lib/session-record-schemas';
+import {
+  givenRecordSchema,
+  protocolStepsSchema,
+  type GivenRecord,
+  type ProtocolSteps,
+} from '../../../lib/session-record-schemas';
 
 export { protocolStepsSchema };
 export type { GivenRecord, ProtocolSteps };
-
 
 /** The shapes the dose-record, order, session and protocol APIs answer with, as these screens read them. */
 
@@ -31,13 +35,13 @@ export const doseRecordRowSchema = z.object({
 });
 export type DoseRecordRow = z.infer<typeof doseRecordRowSchema>;
 
-export const doseRecordPageSchema = z.object({ records: z.array(doseRecordRowSchema), total: z.number().int() });
+export const doseRecordPageSchema = z.object({
+  records: z.array(doseRecordRowSchema),
+  total: z.number().int(),
+});
 export type DoseRecordPage = z.infer<typeof doseRecordPageSchema>;
 
 export const orderResponseSchema = z.object({ order: orderDetailSchema });
-
-
-
 
 export const sessionStateSchema = z.object({
   status: z.string(),
@@ -57,4 +61,3 @@ export const sessionStateSchema = z.object({
 export type SessionState = z.infer<typeof sessionStateSchema>;
 
 /** What the printed record reads from a protocol version: step durations and the CXL thickness minimum. */
-

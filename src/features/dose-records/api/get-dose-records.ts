@@ -12,8 +12,14 @@ export function doseRecordSearch(filter: Partial<DoseRecordFilter>): string {
 }
 
 /** One page of finished sessions' dose records, filtered, sorted and paged by the server. */
-export async function getDoseRecords(filter: DoseRecordFilter, { signal }: { signal?: AbortSignal } = {}): Promise<DoseRecordPage> {
-  return api.get(`/dose-records?${doseRecordSearch(filter)}`, { schema: doseRecordPageSchema, signal });
+export async function getDoseRecords(
+  filter: DoseRecordFilter,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<DoseRecordPage> {
+  return api.get(`/dose-records?${doseRecordSearch(filter)}`, {
+    schema: doseRecordPageSchema,
+    signal,
+  });
 }
 
 /** The CSV of every record the filter matches, in the table's order; the server sends it as an attachment. */

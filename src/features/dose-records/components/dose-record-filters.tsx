@@ -16,11 +16,27 @@ type DoseRecordFiltersProps = {
 };
 
 /** Filters act at once; the address keeps them. */
-export function DoseRecordFilters({ filter, filtered, fieldErrors, onChange }: DoseRecordFiltersProps) {
+export function DoseRecordFilters({
+  filter,
+  filtered,
+  fieldErrors,
+  onChange,
+}: DoseRecordFiltersProps) {
   const protocols = useQuery(doseRecordQueries.protocolChoices());
   return (
-    <form aria-label="Filter the dose records" onSubmit={(event) => event.preventDefault()} className="mb-4 grid gap-4 rounded-2xl border border-paper-200 bg-white p-4 sm:grid-cols-2 lg:grid-cols-4">
-      <DateRangeFields fromLabel="Ended from" toLabel="Ended to" from={filter.from} to={filter.to} errors={fieldErrors} onChange={onChange} />
+    <form
+      aria-label="Filter the dose records"
+      onSubmit={(event) => event.preventDefault()}
+      className="mb-4 grid gap-4 rounded-2xl border border-paper-200 bg-white p-4 sm:grid-cols-2 lg:grid-cols-4"
+    >
+      <DateRangeFields
+        fromLabel="Ended from"
+        toLabel="Ended to"
+        from={filter.from}
+        to={filter.to}
+        errors={fieldErrors}
+        onChange={onChange}
+      />
       <ProtocolVersionFields
         choices={protocols.data}
         loadFailed={protocols.isError}
@@ -29,14 +45,38 @@ export function DoseRecordFilters({ filter, filtered, fieldErrors, onChange }: D
         errors={fieldErrors}
         onChange={onChange}
       />
-      <SelectField label="Outcome" value={filter.outcome ?? ''} error={fieldErrors.outcome} onChange={(e) => onChange({ outcome: (e.target.value || undefined) as DoseRecordFilter['outcome'] })}>
+      <SelectField
+        label="Outcome"
+        value={filter.outcome ?? ''}
+        error={fieldErrors.outcome}
+        onChange={(e) =>
+          onChange({ outcome: (e.target.value || undefined) as DoseRecordFilter['outcome'] })
+        }
+      >
         <option value="">Completed or stopped</option>
         <option value="completed">{outcomeWords.completed}</option>
         <option value="stopped">{outcomeWords.stopped}</option>
       </SelectField>
-      <StaffField value={filter.staff} error={fieldErrors.staff} onChange={(staff) => onChange({ staff })} />
+      <StaffField
+        value={filter.staff}
+        error={fieldErrors.staff}
+        onChange={(staff) => onChange({ staff })}
+      />
       <div className="flex items-end sm:col-span-2">
-        <Button variant="secondary" disabled={!filtered} onClick={() => onChange({ from: undefined, to: undefined, protocol: undefined, version: undefined, outcome: undefined, staff: undefined })}>
+        <Button
+          variant="secondary"
+          disabled={!filtered}
+          onClick={() =>
+            onChange({
+              from: undefined,
+              to: undefined,
+              protocol: undefined,
+              version: undefined,
+              outcome: undefined,
+              staff: undefined,
+            })
+          }
+        >
           Clear filters
         </Button>
       </div>

@@ -16,7 +16,13 @@ import { formatMeasureWithConversion } from '../../../../shared/engine/units';
 import { delayText } from '../../../lib/dose-given-words';
 import { eventWordsOf } from '../../../lib/session-event-words';
 import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
-import { formatFigure, formatOffset, formatUnitClock, formatUnitDate, formatUnitDateTime } from '../../../lib/unit-times';
+import {
+  formatFigure,
+  formatOffset,
+  formatUnitClock,
+  formatUnitDate,
+  formatUnitDateTime,
+} from '../../../lib/unit-times';
 
 function Part({ id, title, children }: { id: string; title: string; children: ReactNode }) {
   return (
@@ -44,7 +50,9 @@ function moments(record: GivenRecord): { label: string; at: string }[] {
     ['UV ended', record.uvEndAt],
     [record.outcome === 'stopped' ? 'Session stopped' : 'Session ended', record.endedAt],
   ];
-  return all.filter((m): m is [string, string] => m[1] !== null).map(([label, at]) => ({ label, at }));
+  return all
+    .filter((m): m is [string, string] => m[1] !== null)
+    .map(([label, at]) => ({ label, at }));
 }
 
 /** One order's dose record laid out for A4: plan against what was given, the times, the deviations. */
@@ -52,7 +60,10 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
   const order = useQuery(doseRecordQueries.order(orderId));
   const session = useQuery(doseRecordQueries.session(orderId));
   const protocol = order.data?.protocol;
-  const steps = useQuery({ ...doseRecordQueries.protocolSteps(protocol?.key ?? '', protocol?.version ?? 0), enabled: protocol !== undefined });
+  const steps = useQuery({
+    ...doseRecordQueries.protocolSteps(protocol?.key ?? '', protocol?.version ?? 0),
+    enabled: protocol !== undefined,
+  });
 
   const back = (
     <LinkButton to={paths.doseRecords.getHref()} icon={<ArrowLeftIcon />}>
@@ -60,7 +71,8 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
     </LinkButton>
   );
 
-  if (order.isPending || session.isPending) return <LoadingPanel label="Loading the dose record…" />;
+  if (order.isPending || session.isPending)
+    return <LoadingPanel label="Loading the dose record…" />;
   if (order.isError || session.isError) {
     const error = order.error ?? session.error;
     const missing = isApiRequestError(error) && error.status === 404;
@@ -96,7 +108,10 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
   const o = order.data;
   const { record, deviations } = session.data;
   const startMs = record?.sessionStartedAt ? Date.parse(record.sessionStartedAt) : null;
-  const printedAt = DateTime.now().setZone(unitTimeZone).setLocale('en-GB').toFormat('d LLL yyyy, HH:mm');
+  const printedAt = DateTime.now()
+    .setZone(unitTimeZone)
+    .setLocale('en-GB')
+    .toFormat('d LLL yyyy, HH:mm');
   const lastCheck = o.doseChecks.at(-1);
 
   return (
@@ -110,17 +125,30 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
         </Button>
       </div>
 
-      <article aria-labelledby="dose-record-title" className="flex flex-col gap-5 rounded-2xl border border-paper-200 bg-white p-6 print:gap-4 print:rounded-none print:border-0 print:p-0 print:text-[11pt]">
+      <article
+        aria-labelledby="dose-record-title"
+        className="flex flex-col gap-5 rounded-2xl border border-paper-200 bg-white p-6 print:gap-4 print:rounded-none print:border-0 print:p-0 print:text-[11pt]"
+      >
         <header>
-          <p className="text-sm font-medium tracking-wide text-paper-700 uppercase">Luxtempo · dose record</p>
-          <h1 id="dose-record-title" tabIndex={-1} data-page-heading className="text-2xl font-semibold text-paper-950">
+          <p className="text-sm font-medium tracking-wide text-paper-700 uppercase">
+            Luxtempo · dose record
+          </p>
+          <h1
+            id="dose-record-title"
+            tabIndex={-1}
+            data-page-heading
+            className="text-2xl font-semibold text-paper-950"
+          >
             {o.patient.familyName}, {o.patient.givenName} · {o.patient.recordNumber}
           </h1>
           <p className="text-paper-800">
             Order {o.id}
-            {o.revision > 1 ? ` (revision ${o.revision})` : ''} · {eyeWords[o.eye]} · {o.protocol.title}, version {o.protocol.version}
+            {o.revision > 1 ? ` (revision ${o.revision})` : ''} · {eyeWords[o.eye]} ·{' '}
+            {o.protocol.title}, version {o.protocol.version}
           </p>
-          {record?.sessionStartedAt && <p className="text-paper-800">Session on {formatUnitDate(record.sessionStartedAt)}</p>}
+          {record?.sessionStartedAt && (
+            <p className="text-paper-800">Session on {formatUnitDate(record.sessionStartedAt)}</p>
+          )}
         </header>
 
         <AcceptedCautionsBanner cautions={o.answeredCautions} />
@@ -131,7 +159,17 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
               <>
                 <dt className="text-paper-700">Measured</dt>
                 <dd>
-                  {[o.inputs.height ? `height ${formatMeasureWithConversion(o.inputs.height)}` : null, o.inputs.weight ? `weight ${formatMeasureWithConversion(o.inputs.weight)}` : null, typeof o.plan?.bmiKgPerM2 === 'number' ? `BMI ${bmiText(o.plan.bmiKgPerM2)}` : null]
+                  {[
+                    o.inputs.height
+                      ? `height ${formatMeasureWithConversion(o.inputs.height)}`
+                      : null,
+                    o.inputs.weight
+                      ? `weight ${formatMeasureWithConversion(o.inputs.weight)}`
+                      : null,
+                    typeof o.plan?.bmiKgPerM2 === 'number'
+                      ? `BMI ${bmiText(o.plan.bmiKgPerM2)}`
+                      : null,
+                  ]
                     .filter(Boolean)
                     .join(', ')}
                 </dd>
@@ -146,7 +184,9 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
               <>
                 <dt className="text-paper-700">Dose check</dt>
                 <dd>
-                  {lastCheck.outcome === 'match' ? 'Figures agreed' : 'Figures differed'}, {lastCheck.pharmacist?.displayName ?? '—'}, {formatUnitDateTime(lastCheck.createdAt)}
+                  {lastCheck.outcome === 'match' ? 'Figures agreed' : 'Figures differed'},{' '}
+                  {lastCheck.pharmacist?.displayName ?? '—'},{' '}
+                  {formatUnitDateTime(lastCheck.createdAt)}
                 </dd>
               </>
             )}
@@ -154,8 +194,11 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
               <>
                 <dt className="text-paper-700">Preparation</dt>
                 <dd>
-                  Lot {o.preparation.vialLot} (expires {o.preparation.vialExpiry}), {formatFigure(o.preparation.volumeDrawnMl, 'mL')} drawn, reconstituted{' '}
-                  {formatUnitDateTime(o.preparation.reconstitutedAt)} by {o.preparation.pharmacist?.displayName ?? '—'}; use before {formatUnitDateTime(o.preparation.beyondUseAt)}
+                  Lot {o.preparation.vialLot} (expires {o.preparation.vialExpiry}),{' '}
+                  {formatFigure(o.preparation.volumeDrawnMl, 'mL')} drawn, reconstituted{' '}
+                  {formatUnitDateTime(o.preparation.reconstitutedAt)} by{' '}
+                  {o.preparation.pharmacist?.displayName ?? '—'}; use before{' '}
+                  {formatUnitDateTime(o.preparation.beyondUseAt)}
                 </dd>
               </>
             )}
@@ -163,14 +206,22 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
         </Part>
 
         <Part id="record-figures" title="Plan and what was given">
-          <PlanAndGiven plan={o.plan} record={record} steps={steps.data} headingId="record-figures" />
+          <PlanAndGiven
+            plan={o.plan}
+            record={record}
+            steps={steps.data}
+            headingId="record-figures"
+          />
         </Part>
 
         <Part id="record-times" title="Times">
           {record === null ? (
             <p>No session was recorded for this order.</p>
           ) : (
-            <table className="w-full max-w-xl border-collapse text-left" aria-labelledby="record-times">
+            <table
+              className="w-full max-w-xl border-collapse text-left"
+              aria-labelledby="record-times"
+            >
               <thead className="text-sm text-paper-700">
                 <tr>
                   <th scope="col" className="py-1 pr-4 font-semibold">
@@ -191,7 +242,9 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
                       {m.label}
                     </th>
                     <td className="numerals-steady py-1 pr-4">{formatUnitClock(m.at)}</td>
-                    <td className="numerals-steady py-1">{startMs === null ? '—' : formatOffset((Date.parse(m.at) - startMs) / 1000)}</td>
+                    <td className="numerals-steady py-1">
+                      {startMs === null ? '—' : formatOffset((Date.parse(m.at) - startMs) / 1000)}
+                    </td>
                   </tr>
                 ))}
               </tbody>
@@ -202,10 +255,15 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
 
         {record && record.withdrawnTaps.length > 0 && (
           <Part id="record-withdrawn" title="Taps withdrawn as mistakes">
-            <p className="mb-2 text-sm text-paper-700">Kept here as tapped; none of the figures and times above counts them.</p>
+            <p className="mb-2 text-sm text-paper-700">
+              Kept here as tapped; none of the figures and times above counts them.
+            </p>
             <ul className="flex flex-col gap-2">
               {record.withdrawnTaps.map((tap) => {
-                const stepTitle = tap.stepId ? (steps.data?.definition.steps.find((s) => s.id === tap.stepId)?.title ?? tap.stepId) : null;
+                const stepTitle = tap.stepId
+                  ? (steps.data?.definition.steps.find((s) => s.id === tap.stepId)?.title ??
+                    tap.stepId)
+                  : null;
                 return (
                   <li key={tap.idempotencyKey}>
                     <span className="font-semibold">
@@ -225,7 +283,9 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
 
         {record && record.lateEntries.length > 0 && (
           <Part id="record-late" title="Late entries">
-            <p className="mb-2 text-sm text-paper-700">Taps entered after the session ended, each with the reason it was late.</p>
+            <p className="mb-2 text-sm text-paper-700">
+              Taps entered after the session ended, each with the reason it was late.
+            </p>
             <ul className="flex flex-col gap-2">
               {record.lateEntries.map((entry) => (
                 <li key={entry.idempotencyKey}>
@@ -243,11 +303,15 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
 
         {record && record.receiptDelays.length > 0 && (
           <Part id="record-delays" title="Taps received late">
-            <p className="mb-2 text-sm text-paper-700">Taps that reached the server more than a minute after they were made (a tablet offline); their own time counts.</p>
+            <p className="mb-2 text-sm text-paper-700">
+              Taps that reached the server more than a minute after they were made (a tablet
+              offline); their own time counts.
+            </p>
             <ul className="flex flex-col gap-1">
               {record.receiptDelays.map((delay) => (
                 <li key={delay.idempotencyKey} className="numerals-steady">
-                  {eventWordsOf(delay.type)} tapped {formatUnitClock(delay.at)}, received {formatUnitClock(delay.receivedAt)}: {delayText(delay.delayS)} later
+                  {eventWordsOf(delay.type)} tapped {formatUnitClock(delay.at)}, received{' '}
+                  {formatUnitClock(delay.receivedAt)}: {delayText(delay.delayS)} later
                 </li>
               ))}
             </ul>
@@ -265,7 +329,8 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
                     {severityWords[d.severity]}: {typeWords(d.type)}
                   </span>{' '}
                   <span className="numerals-steady">
-                    (expected {formatFigure(d.expected, d.unit)}, actual {formatFigure(d.actual, d.unit)})
+                    (expected {formatFigure(d.expected, d.unit)}, actual{' '}
+                    {formatFigure(d.actual, d.unit)})
                   </span>
                   <span className="block text-paper-800">{d.message}</span>
                 </li>
@@ -275,7 +340,8 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
         </Part>
 
         <footer className="border-t border-paper-300 pt-3 text-sm text-paper-700">
-          Times are {unitTimeZoneLabel} ({unitTimeZone}). Printed {printedAt} from Luxtempo; the record in Luxtempo is the reference if this copy differs.
+          Times are {unitTimeZoneLabel} ({unitTimeZone}). Printed {printedAt} from Luxtempo; the
+          record in Luxtempo is the reference if this copy differs.
         </footer>
       </article>
     </div>

@@ -3,7 +3,11 @@ import type { DeviationSeverity, DeviationType } from '../../../../shared/sessio
 export const eyeWords = { right: 'Right eye', left: 'Left eye' } as const;
 export const outcomeWords = { completed: 'Completed', stopped: 'Stopped early' } as const;
 export const kindWords = { pdt: 'PDT', cxl: 'CXL' } as const;
-export const severityWords: Record<DeviationSeverity, string> = { minor: 'Minor', major: 'Major', critical: 'Critical' };
+export const severityWords: Record<DeviationSeverity, string> = {
+  minor: 'Minor',
+  major: 'Major',
+  critical: 'Critical',
+};
 
 const deviationTypeWords: Record<DeviationType, string> = {
   'infusion-duration': 'Infusion time off plan',

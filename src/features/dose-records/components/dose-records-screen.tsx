@@ -17,7 +17,10 @@ export function DoseRecordsScreen() {
   const protocols = useQuery(doseRecordQueries.protocolChoices());
   const fieldErrors = filterProblems(list.error);
   const titles = protocols.data;
-  const protocolTitle = useCallback((key: string) => titles?.find((p) => p.key === key)?.title ?? key, [titles]);
+  const protocolTitle = useCallback(
+    (key: string) => titles?.find((p) => p.key === key)?.title ?? key,
+    [titles],
+  );
 
   return (
     <>
@@ -32,14 +35,38 @@ export function DoseRecordsScreen() {
           </a>
         }
       />
-      <DoseRecordFilters filter={filter} filtered={filtered} fieldErrors={fieldErrors} onChange={update} />
+      <DoseRecordFilters
+        filter={filter}
+        filtered={filtered}
+        fieldErrors={fieldErrors}
+        onChange={update}
+      />
       <FilteredListStates
         list={list}
         refused={Object.keys(fieldErrors).length > 0}
-        words={{ loading: 'Loading dose records…', failed: 'The dose records could not be loaded', stale: 'The list may be out of date' }}
-        empty={{ icon: <RecordLedgerIcon className="size-6" />, title: filtered ? 'No record matches these filters' : 'No finished sessions yet', body: filtered ? 'Widen the dates or clear the filters.' : 'A record appears here when a session is completed or stopped.' }}
+        words={{
+          loading: 'Loading dose records…',
+          failed: 'The dose records could not be loaded',
+          stale: 'The list may be out of date',
+        }}
+        empty={{
+          icon: <RecordLedgerIcon className="size-6" />,
+          title: filtered ? 'No record matches these filters' : 'No finished sessions yet',
+          body: filtered
+            ? 'Widen the dates or clear the filters.'
+            : 'A record appears here when a session is completed or stopped.',
+        }}
       >
-        {(data) => <DoseRecordsTable rows={data.records} total={data.total} filter={filter} protocolTitle={protocolTitle} onChange={update} busy={list.isPlaceholderData} />}
+        {(data) => (
+          <DoseRecordsTable
+            rows={data.records}
+            total={data.total}
+            filter={filter}
+            protocolTitle={protocolTitle}
+            onChange={update}
+            busy={list.isPlaceholderData}
+          />
+        )}
       </FilteredListStates>
     </>
   );

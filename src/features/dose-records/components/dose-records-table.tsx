@@ -8,7 +8,12 @@ import { paths } from '../../../config/paths';
 import type { DoseRecordRow } from '../api/dose-record-schemas';
 import { eyeWords, kindWords } from './dose-record-words';
 import { DeviationCount, OutcomeLabel } from './outcome-label';
-import { formatDurationS, formatFigure, formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
+import {
+  formatDurationS,
+  formatFigure,
+  formatUnitClock,
+  formatUnitDate,
+} from '../../../lib/unit-times';
 
 const helper = createColumnHelper<PagedTableFeatures, DoseRecordRow>();
 const sortKeys: readonly DoseRecordFilter['sort'][] = ['endedAt', 'fluence'];
@@ -30,12 +35,16 @@ function columnsFor(protocolTitle: (key: string) => string) {
       enableSorting: false,
       cell: ({ row }) => (
         <>
-          <Link to={paths.order.getHref(row.original.orderId)} className="font-semibold whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900">
+          <Link
+            to={paths.order.getHref(row.original.orderId)}
+            className="font-semibold whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900"
+          >
             Order {row.original.orderId}
           </Link>
           <span className="block">{protocolTitle(row.original.protocolKey)}</span>
           <span className="block text-sm text-paper-600">
-            {kindWords[row.original.kind]} v{row.original.protocolVersion} · {row.original.recordNumber} · {eyeWords[row.original.eye]}
+            {kindWords[row.original.kind]} v{row.original.protocolVersion} ·{' '}
+            {row.original.recordNumber} · {eyeWords[row.original.eye]}
           </span>
         </>
       ),
@@ -58,7 +67,9 @@ function columnsFor(protocolTitle: (key: string) => string) {
           {row.original.kind === 'pdt' ? (
             <>
               {formatFigure(row.original.doseMg, 'mg')} dose planned
-              <span className="block">{formatFigure(row.original.volumeGivenMl, 'mL')} infused</span>
+              <span className="block">
+                {formatFigure(row.original.volumeGivenMl, 'mL')} infused
+              </span>
               <span className="block">light on {formatDurationS(row.original.onTimeS)}</span>
             </>
           ) : (
@@ -76,7 +87,9 @@ function columnsFor(protocolTitle: (key: string) => string) {
       cell: ({ row }) => (
         <span className="numerals-steady block text-sm whitespace-nowrap">
           {formatFigure(row.original.plannedFluenceJPerCm2, 'J/cm²')} planned
-          <strong className="block text-base font-semibold">{formatFigure(row.original.deliveredFluenceJPerCm2, 'J/cm²')} delivered</strong>
+          <strong className="block text-base font-semibold">
+            {formatFigure(row.original.deliveredFluenceJPerCm2, 'J/cm²')} delivered
+          </strong>
         </span>
       ),
     }),
@@ -84,7 +97,10 @@ function columnsFor(protocolTitle: (key: string) => string) {
       id: 'print',
       header: () => <span className="sr-only">Print</span>,
       cell: ({ row }) => (
-        <Link to={paths.doseRecordPrint.getHref(row.original.orderId)} className="inline-flex min-h-10 items-center gap-1.5 whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900">
+        <Link
+          to={paths.doseRecordPrint.getHref(row.original.orderId)}
+          className="inline-flex min-h-10 items-center gap-1.5 whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900"
+        >
           <PrinterIcon className="size-4" />
           Print<span className="sr-only"> the dose record of order {row.original.orderId}</span>
         </Link>
@@ -103,7 +119,14 @@ type DoseRecordsTableProps = {
 };
 
 /** One page of dose records. Sorting and paging are done by the server. */
-export function DoseRecordsTable({ rows, total, filter, protocolTitle, onChange, busy }: DoseRecordsTableProps) {
+export function DoseRecordsTable({
+  rows,
+  total,
+  filter,
+  protocolTitle,
+  onChange,
+  busy,
+}: DoseRecordsTableProps) {
   const columns = useMemo(() => columnsFor(protocolTitle), [protocolTitle]);
   return (
     <PagedTable
@@ -115,8 +138,15 @@ export function DoseRecordsTable({ rows, total, filter, protocolTitle, onChange,
       sortKeys={sortKeys}
       onChange={onChange}
       busy={busy}
-      caption={({ first, last }) => `Dose records ${first} to ${last} of ${total}. Column headers with a button sort the list.`}
-      pagerWords={{ navLabel: 'Pages of dose records', items: 'Records', none: 'No records', perPage: 'Records per page' }}
+      caption={({ first, last }) =>
+        `Dose records ${first} to ${last} of ${total}. Column headers with a button sort the list.`
+      }
+      pagerWords={{
+        navLabel: 'Pages of dose records',
+        items: 'Records',
+        none: 'No records',
+        perPage: 'Records per page',
+      }}
     />
   );
 }

@@ -1,11 +1,18 @@
-import { AlertIcon, CheckCircleIcon, StatusCompletedIcon, StatusStoppedIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  CheckCircleIcon,
+  StatusCompletedIcon,
+  StatusStoppedIcon,
+} from '../../../components/ui/icons';
 import { outcomeWords } from './dose-record-words';
 
 /** How the session ended, as a word and an icon. */
 export function OutcomeLabel({ outcome }: { outcome: 'completed' | 'stopped' }) {
   const Icon = outcome === 'completed' ? StatusCompletedIcon : StatusStoppedIcon;
   return (
-    <span className={`inline-flex items-center gap-1.5 whitespace-nowrap font-medium ${outcome === 'stopped' ? 'text-alarm-800' : 'text-paper-900'}`}>
+    <span
+      className={`inline-flex items-center gap-1.5 whitespace-nowrap font-medium ${outcome === 'stopped' ? 'text-alarm-800' : 'text-paper-900'}`}
+    >
       <Icon className="size-4" />
       {outcomeWords[outcome]}
     </span>

@@ -2,7 +2,11 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { lightCalculationRequestSchema, type LightCalculationRequest, type LightSolution } from '../../../../shared/schemas/calculation';
+import {
+  lightCalculationRequestSchema,
+  type LightCalculationRequest,
+  type LightSolution,
+} from '../../../../shared/schemas/calculation';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
@@ -35,7 +39,14 @@ const lightFormSchema = z
 
 type LightFormInput = z.input<typeof lightFormSchema>;
 
-const emptyForm: LightFormInput = { powerMw: '', spotDiameterUm: '', irradianceMwPerCm2: '', exposureS: '', fluenceJPerCm2: '', energyJ: '' };
+const emptyForm: LightFormInput = {
+  powerMw: '',
+  spotDiameterUm: '',
+  irradianceMwPerCm2: '',
+  exposureS: '',
+  fluenceJPerCm2: '',
+  energyJ: '',
+};
 
 type LightCalculatorFormProps = {
   onSolved: (solution: LightSolution, request: LightCalculationRequest) => void;
@@ -51,7 +62,10 @@ export function LightCalculatorForm({ onSolved, onCleared }: LightCalculatorForm
     reset,
     watch,
     formState: { errors },
-  } = useForm<LightFormInput, unknown, LightCalculationRequest>({ resolver: zodResolver(lightFormSchema), defaultValues: emptyForm });
+  } = useForm<LightFormInput, unknown, LightCalculationRequest>({
+    resolver: zodResolver(lightFormSchema),
+    defaultValues: emptyForm,
+  });
 
   // A result on screen must always belong to the figures on screen: any edit takes it away.
   useEffect(() => {
@@ -68,25 +82,39 @@ export function LightCalculatorForm({ onSolved, onCleared }: LightCalculatorForm
     calculation.mutate(request, {
       onSuccess: (solution) => onSolved(solution, request),
       onError: (error) => {
-        if (isApiRequestError(error) && error.status === 400) applyServerFieldErrors(error, setError, lightFieldOrder);
+        if (isApiRequestError(error) && error.status === 400)
+          applyServerFieldErrors(error, setError, lightFieldOrder);
       },
     });
   });
 
   const error = calculation.error;
-  const atFields = isApiRequestError(error) && error.status === 400 && error.fields.some((f) => (lightFieldOrder as readonly string[]).includes(f.path));
+  const atFields =
+    isApiRequestError(error) &&
+    error.status === 400 &&
+    error.fields.some((f) => (lightFieldOrder as readonly string[]).includes(f.path));
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-labelledby="light-form-heading" className="rounded-2xl border border-paper-200 bg-white p-6">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-labelledby="light-form-heading"
+      className="rounded-2xl border border-paper-200 bg-white p-6"
+    >
       <h2 id="light-form-heading" className="text-xl font-semibold text-paper-950">
         Your figures
       </h2>
       <p className="mt-1 mb-5 max-w-prose text-paper-700">
-        Fill in any three that do not depend on each other — for example spot diameter, irradiance and exposure time — and leave the
-        rest empty. A fourth or fifth figure is checked against the others. Use a point for decimals (42.4).
+        Fill in any three that do not depend on each other — for example spot diameter, irradiance
+        and exposure time — and leave the rest empty. A fourth or fifth figure is checked against
+        the others. Use a point for decimals (42.4).
       </p>
       {error && (
-        <Alert tone="error" title={atFields ? 'Not calculated: see the fields marked below' : 'Not calculated'} className="mb-5">
+        <Alert
+          tone="error"
+          title={atFields ? 'Not calculated: see the fields marked below' : 'Not calculated'}
+          className="mb-5"
+        >
           {!atFields && describeError(error)}
         </Alert>
       )}

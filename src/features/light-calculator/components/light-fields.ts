@@ -3,7 +3,14 @@ import type { LightCalculationRequest } from '../../../../shared/schemas/calcula
 export type LightField = keyof LightCalculationRequest;
 
 /** The six figures in the order a person thinks of them: the laser, the spot, then the dose. */
-export const lightFieldOrder: readonly LightField[] = ['powerMw', 'spotDiameterUm', 'irradianceMwPerCm2', 'exposureS', 'fluenceJPerCm2', 'energyJ'];
+export const lightFieldOrder: readonly LightField[] = [
+  'powerMw',
+  'spotDiameterUm',
+  'irradianceMwPerCm2',
+  'exposureS',
+  'fluenceJPerCm2',
+  'energyJ',
+];
 
 /** What the calculator shows, including the spot area it works out on the way. */
 export type LightQuantity = LightField | 'spotAreaCm2';
@@ -18,7 +25,9 @@ export const quantityText: Record<LightQuantity, { label: string; unit: string }
   energyJ: { label: 'Energy', unit: 'J' },
 };
 
-const keysLongestFirst = (Object.keys(quantityText) as LightQuantity[]).sort((a, b) => b.length - a.length);
+const keysLongestFirst = (Object.keys(quantityText) as LightQuantity[]).sort(
+  (a, b) => b.length - a.length,
+);
 
 /**
  * The engine words its messages and formulas with field names ("powerMw × exposureS ÷ 1000");
@@ -26,7 +35,8 @@ const keysLongestFirst = (Object.keys(quantityText) as LightQuantity[]).sort((a,
  */
 export function namesInWords(text: string): string {
   let result = text;
-  for (const key of keysLongestFirst) result = result.replaceAll(key, quantityText[key].label.toLowerCase());
+  for (const key of keysLongestFirst)
+    result = result.replaceAll(key, quantityText[key].label.toLowerCase());
   return result;
 }
 

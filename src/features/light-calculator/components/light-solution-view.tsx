@@ -2,9 +2,20 @@ import type { LightSolution } from '../../../../shared/schemas/calculation';
 import { PencilIcon, SigmaIcon } from '../../../components/ui/icons';
 import { namesInWords, quantityText, type LightQuantity } from './light-fields';
 
-const shownOrder: LightQuantity[] = ['powerMw', 'spotDiameterUm', 'spotAreaCm2', 'irradianceMwPerCm2', 'exposureS', 'fluenceJPerCm2', 'energyJ'];
+const shownOrder: LightQuantity[] = [
+  'powerMw',
+  'spotDiameterUm',
+  'spotAreaCm2',
+  'irradianceMwPerCm2',
+  'exposureS',
+  'fluenceJPerCm2',
+  'energyJ',
+];
 
-const headline = new Intl.NumberFormat('en-GB', { maximumSignificantDigits: 4, useGrouping: false });
+const headline = new Intl.NumberFormat('en-GB', {
+  maximumSignificantDigits: 4,
+  useGrouping: false,
+});
 const full = new Intl.NumberFormat('en-GB', { maximumSignificantDigits: 10, useGrouping: false });
 
 /** Worked-out values to four significant figures; given values exactly as typed. */
@@ -16,18 +27,24 @@ export function LightSolutionView({ solution }: { solution: LightSolution }) {
   const given = new Set(solution.given);
   const sources = [...new Set(solution.working.map((entry) => entry.source))];
   return (
-    <section aria-labelledby="light-result-heading" className="space-y-5 rounded-2xl border border-paper-200 bg-white p-6">
+    <section
+      aria-labelledby="light-result-heading"
+      className="space-y-5 rounded-2xl border border-paper-200 bg-white p-6"
+    >
       <div>
         <h2 id="light-result-heading" className="text-xl font-semibold text-paper-950">
           Result
         </h2>
         <p className="mt-1 text-sm text-paper-700">
-          Worked-out values are shown to 4 significant figures; the working below gives them in full.
+          Worked-out values are shown to 4 significant figures; the working below gives them in
+          full.
         </p>
       </div>
       <div className="overflow-x-auto">
         <table className="w-full border-collapse text-left">
-          <caption className="sr-only">The six figures and the spot area, each marked as given by you or worked out</caption>
+          <caption className="sr-only">
+            The six figures and the spot area, each marked as given by you or worked out
+          </caption>
           <thead className="bg-paper-100 text-sm text-paper-700">
             <tr>
               <th scope="col" className="px-3 py-2 font-semibold">
@@ -49,11 +66,16 @@ export function LightSolutionView({ solution }: { solution: LightSolution }) {
               const isGiven = given.has(quantity);
               const { label, unit } = quantityText[quantity];
               return (
-                <tr key={quantity} className={`border-t border-paper-200 ${isGiven ? '' : 'bg-iris-50/40'}`}>
+                <tr
+                  key={quantity}
+                  className={`border-t border-paper-200 ${isGiven ? '' : 'bg-iris-50/40'}`}
+                >
                   <th scope="row" className="px-3 py-2.5 font-medium text-paper-900">
                     {label}
                   </th>
-                  <td className="px-3 py-2.5 text-right text-lg font-semibold text-paper-950 numerals-steady">{shown(solution[quantity], isGiven)}</td>
+                  <td className="px-3 py-2.5 text-right text-lg font-semibold text-paper-950 numerals-steady">
+                    {shown(solution[quantity], isGiven)}
+                  </td>
                   <td className="px-3 py-2.5 text-paper-800">{unit}</td>
                   <td className="px-3 py-2.5">
                     {isGiven ? (
@@ -79,16 +101,26 @@ export function LightSolutionView({ solution }: { solution: LightSolution }) {
         <h3 className="text-lg font-semibold text-paper-950">Working</h3>
         <ol className="mt-2 space-y-3">
           {solution.working.map((entry, index) => {
-            const { label, unit } = quantityText[entry.name as LightQuantity] ?? { label: entry.name, unit: entry.unit };
+            const { label, unit } = quantityText[entry.name as LightQuantity] ?? {
+              label: entry.name,
+              unit: entry.unit,
+            };
             return (
-              <li key={`${entry.name}-${index}`} className="rounded-lg border border-paper-200 bg-paper-50 px-4 py-3">
+              <li
+                key={`${entry.name}-${index}`}
+                className="rounded-lg border border-paper-200 bg-paper-50 px-4 py-3"
+              >
                 <p className="font-medium text-paper-950">
-                  {index + 1}. {label} = <span className="font-mono text-sm">{namesInWords(entry.formula)}</span>
+                  {index + 1}. {label} ={' '}
+                  <span className="font-mono text-sm">{namesInWords(entry.formula)}</span>
                 </p>
                 <p className="mt-1 text-sm text-paper-800">
                   with{' '}
                   {Object.entries(entry.inputs)
-                    .map(([name, quantity]) => `${namesInWords(name)} ${full.format(quantity.value)} ${quantity.unit}`)
+                    .map(
+                      ([name, quantity]) =>
+                        `${namesInWords(name)} ${full.format(quantity.value)} ${quantity.unit}`,
+                    )
                     .join(', ')}
                 </p>
                 <p className="mt-1 font-semibold text-paper-950 numerals-steady">
@@ -104,7 +136,9 @@ export function LightSolutionView({ solution }: { solution: LightSolution }) {
             {sources.join('; ')}.
           </p>
         )}
-        <p className="mt-1 text-sm text-paper-600">Calculated by engine {solution.engineVersion}.</p>
+        <p className="mt-1 text-sm text-paper-600">
+          Calculated by engine {solution.engineVersion}.
+        </p>
       </div>
     </section>
   );

@@ -11,6 +11,9 @@ export function orderListSearch(query: OrderListQuery): string {
 }
 
 /** One page of orders, filtered and sorted by the server. */
-export async function getOrders(query: OrderListQuery, { signal }: { signal?: AbortSignal } = {}): Promise<OrderListResponse> {
+export async function getOrders(
+  query: OrderListQuery,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<OrderListResponse> {
   return api.get(`/orders?${orderListSearch(query)}`, { schema: orderListResponseSchema, signal });
 }

@@ -31,7 +31,8 @@ export const orderQueries = {
     queryOptions({
       queryKey: [...orderQueries.details(), id, 'session'] as const,
       queryFn: ({ signal }) => getOrderSession(id, { signal }),
-      refetchInterval: (query) => (query.state.data && isSessionRunning(query.state.data.status) ? 10_000 : false),
+      refetchInterval: (query) =>
+        query.state.data && isSessionRunning(query.state.data.status) ? 10_000 : false,
     }),
 
   /** What the order form reads from other parts of the API, kept under this feature's keys. */

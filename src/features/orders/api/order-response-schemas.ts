@@ -1,7 +1,15 @@
 import { z } from 'zod';
-import { lateEntrySchema, receiptDelaySchema, withdrawnTapSchema } from '../../../lib/session-record-schemas';
+import {
+  lateEntrySchema,
+  receiptDelaySchema,
+  withdrawnTapSchema,
+} from '../../../lib/session-record-schemas';
 import { protocolKinds, protocolVersionSchema } from '../../../../shared/protocol/protocol-schema';
-import { orderDetailSchema, orderStatuses, orderSummarySchema } from '../../../../shared/schemas/orders';
+import {
+  orderDetailSchema,
+  orderStatuses,
+  orderSummarySchema,
+} from '../../../../shared/schemas/orders';
 import { patientSchema } from '../../../../shared/schemas/patients';
 import { deviationSeverities } from '../../../../shared/session/session-events';
 
@@ -31,14 +39,23 @@ const protocolVersionChoiceSchema = z.object({
 export type ProtocolVersionChoice = z.infer<typeof protocolVersionChoiceSchema>;
 
 export const protocolChoicesResponseSchema = z.object({
-  protocols: z.array(z.object({ key: z.string(), kind: z.enum(protocolKinds), title: z.string(), versions: z.array(protocolVersionChoiceSchema) })),
+  protocols: z.array(
+    z.object({
+      key: z.string(),
+      kind: z.enum(protocolKinds),
+      title: z.string(),
+      versions: z.array(protocolVersionChoiceSchema),
+    }),
+  ),
 });
 export type ProtocolChoices = z.infer<typeof protocolChoicesResponseSchema>['protocols'];
 
 export const protocolDefinitionResponseSchema = z.object({
   version: protocolVersionChoiceSchema.extend({ definition: protocolVersionSchema }),
 });
-export type ProtocolVersionWithDefinition = z.infer<typeof protocolDefinitionResponseSchema>['version'];
+export type ProtocolVersionWithDefinition = z.infer<
+  typeof protocolDefinitionResponseSchema
+>['version'];
 
 export const patientsResponseSchema = z.object({ patients: z.array(patientSchema) });
 export const patientResponseSchema = z.object({ patient: patientSchema });

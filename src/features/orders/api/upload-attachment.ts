@@ -4,11 +4,21 @@ import { attachmentResponseSchema, type Attachment } from './order-response-sche
 export const attachmentMaxBytes = 10 * 1024 * 1024;
 
 /** Sends one report as multipart form data (field `file`). */
-export async function uploadAttachment({ orderId, file }: { orderId: number; file: File }): Promise<Attachment> {
+export async function uploadAttachment({
+  orderId,
+  file,
+}: {
+  orderId: number;
+  file: File;
+}): Promise<Attachment> {
   const body = new FormData();
   body.append('file', file, file.name);
   try {
-    const { attachment } = await api.upload(`/orders/${encodeURIComponent(String(orderId))}/attachments`, body, { schema: attachmentResponseSchema });
+    const { attachment } = await api.upload(
+      `/orders/${encodeURIComponent(String(orderId))}/attachments`,
+      body,
+      { schema: attachmentResponseSchema },
+    );
     return attachment;
   } catch (error) {
     throw withAttachmentWording(error);
@@ -22,6 +32,18 @@ export async function uploadAttachment({ orderId, file }: { orderId: number; fil
 function withAttachmentWording(error: unknown): unknown {
   if (!isApiRequestError(error)) return error;
   const message =
-    error.code === 'http_413' ? 'The file is larger than 10 MB.' : error.code === 'http_415' ? 'Only PDF, PNG and JPEG reports can be attached.' : null;
-  return message ? new ApiRequestError({ status: error.status, code: error.code, message, fields: error.fields, retryAfterS: error.retryAfterS }) : error;
+    error.code === 'http_413'
+      ? 'The file is larger than 10 MB.'
+      : error.code === 'http_415'
+        ? 'Only PDF, PNG and JPEG reports can be attached.'
+        : null;
+  return message
+    ? new ApiRequestError({
+        status: error.status,
+        code: error.code,
+        message,
+        fields: error.fields,
+        retryAfterS: error.retryAfterS,
+      })
+    : error;
 }

@@ -16,7 +16,8 @@ function sizeText(bytes: number): string {
 
 function uploadProblem(error: unknown): string {
   if (!isApiRequestError(error)) return describeError(error);
-  if (error.status === 413) return 'The file is larger than 10 MB. Save the report at a lower resolution, or as a PDF, and try again.';
+  if (error.status === 413)
+    return 'The file is larger than 10 MB. Save the report at a lower resolution, or as a PDF, and try again.';
   if (error.status === 415) return `${error.message} Choose a PDF, PNG or JPEG file.`;
   if (error.status === 409) return `${error.message}`;
   return error.message;
@@ -61,8 +62,14 @@ export function AttachmentsPanel({ order, canUpload }: { order: OrderDetail; can
   };
 
   return (
-    <section aria-labelledby={`${id}-heading`} className="space-y-3 rounded-2xl border border-paper-200 bg-white p-5">
-      <h2 id={`${id}-heading`} className="flex items-center gap-2 text-xl font-semibold text-paper-950">
+    <section
+      aria-labelledby={`${id}-heading`}
+      className="space-y-3 rounded-2xl border border-paper-200 bg-white p-5"
+    >
+      <h2
+        id={`${id}-heading`}
+        className="flex items-center gap-2 text-xl font-semibold text-paper-950"
+      >
         <PaperclipIcon className="size-5" />
         Measurement reports
       </h2>
@@ -73,10 +80,17 @@ export function AttachmentsPanel({ order, canUpload }: { order: OrderDetail; can
           {order.attachments.map((a) => (
             <li key={a.id} className="flex flex-wrap items-center justify-between gap-3 px-3 py-2">
               <span className="min-w-0">
-                <span className="block font-medium text-paper-950 [overflow-wrap:anywhere]">{a.fileName}</span>
+                <span className="block font-medium text-paper-950 [overflow-wrap:anywhere]">
+                  {a.fileName}
+                </span>
                 <span className="text-sm text-paper-600">
-                  {a.mimeType === 'application/pdf' ? 'PDF' : a.mimeType === 'image/png' ? 'PNG image' : 'JPEG image'} · {sizeText(a.sizeBytes)} · added{' '}
-                  {formatUnitDateTime(a.createdAt)} · SHA-256 {a.sha256.slice(0, 12)}…
+                  {a.mimeType === 'application/pdf'
+                    ? 'PDF'
+                    : a.mimeType === 'image/png'
+                      ? 'PNG image'
+                      : 'JPEG image'}{' '}
+                  · {sizeText(a.sizeBytes)} · added {formatUnitDateTime(a.createdAt)} · SHA-256{' '}
+                  {a.sha256.slice(0, 12)}…
                 </span>
               </span>
               <a
@@ -97,8 +111,8 @@ export function AttachmentsPanel({ order, canUpload }: { order: OrderDetail; can
             Attach a report
           </label>
           <p id={`${id}-hint`} className="text-sm text-paper-600">
-            PDF, PNG or JPEG, up to 10 MB: the angiogram or tomography report, or the pachymetry print-out. Reports are attached before
-            signing.
+            PDF, PNG or JPEG, up to 10 MB: the angiogram or tomography report, or the pachymetry
+            print-out. Reports are attached before signing.
           </p>
           <div className="flex flex-wrap items-center gap-3">
             <input

@@ -20,19 +20,25 @@ export function BodyMeasures({ inputs, bmiKgPerM2, className = '' }: BodyMeasure
       {inputs.height && (
         <>
           <dt className="text-paper-600">Height</dt>
-          <dd className="numerals-steady font-semibold whitespace-nowrap text-paper-950">{formatMeasureWithConversion(inputs.height)}</dd>
+          <dd className="numerals-steady font-semibold whitespace-nowrap text-paper-950">
+            {formatMeasureWithConversion(inputs.height)}
+          </dd>
         </>
       )}
       {inputs.weight && (
         <>
           <dt className="text-paper-600">Weight</dt>
-          <dd className="numerals-steady font-semibold whitespace-nowrap text-paper-950">{formatMeasureWithConversion(inputs.weight)}</dd>
+          <dd className="numerals-steady font-semibold whitespace-nowrap text-paper-950">
+            {formatMeasureWithConversion(inputs.weight)}
+          </dd>
         </>
       )}
       {typeof bmiKgPerM2 === 'number' && (
         <>
           <dt className="text-paper-600">BMI</dt>
-          <dd className="numerals-steady font-semibold whitespace-nowrap text-paper-950">{bmiText(bmiKgPerM2)}</dd>
+          <dd className="numerals-steady font-semibold whitespace-nowrap text-paper-950">
+            {bmiText(bmiKgPerM2)}
+          </dd>
         </>
       )}
     </dl>

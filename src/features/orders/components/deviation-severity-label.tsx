@@ -12,7 +12,9 @@ const looks: Record<DeviationSeverity, { Icon: typeof AlertIcon; box: string }> 
 export function DeviationSeverityLabel({ severity }: { severity: DeviationSeverity }) {
   const { Icon, box } = looks[severity];
   return (
-    <span className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2 py-0.5 text-sm font-semibold ${box}`}>
+    <span
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2 py-0.5 text-sm font-semibold ${box}`}
+    >
       <Icon className="size-4" />
       {deviationSeverityWords[severity]}
     </span>

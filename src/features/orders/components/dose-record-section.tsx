@@ -15,46 +15,121 @@ import { deviationSeverityOrder, sessionOutcomeWords } from './session-words';
 type Row = { label: string; planned: ReactNode; given: ReactNode };
 
 const none = <span className="text-paper-700">—</span>;
-const num = (value: number | null | undefined, unit: string) => (value == null ? none : `${formatFigure(value)} ${unit}`);
+const num = (value: number | null | undefined, unit: string) =>
+  value == null ? none : `${formatFigure(value)} ${unit}`;
 const secs = (value: number | null | undefined) => (value == null ? none : formatSeconds(value));
-const span = (from: string | null, to: string | null) => (from ? `${formatUnitClock(from)} to ${to ? formatUnitClock(to) : '(running)'}` : none);
-const everyMin = (min: number | undefined) => (min === undefined ? none : `a drop every ${formatFigure(min)} min`);
+const span = (from: string | null, to: string | null) =>
+  from ? `${formatUnitClock(from)} to ${to ? formatUnitClock(to) : '(running)'}` : none;
+const everyMin = (min: number | undefined) =>
+  min === undefined ? none : `a drop every ${formatFigure(min)} min`;
 const gap = (gapS: number | null) => (gapS == null ? none : `longest gap ${formatSeconds(gapS)}`);
 
 function pdtRows(plan: NonNullable<OrderDetail['plan']>, record: GivenRecord): Row[] {
   const rows: Row[] = [
     { label: 'Infusion', planned: none, given: span(record.infusionStartAt, record.infusionEndAt) },
-    { label: 'Infusion duration', planned: secs(plan.infusionEndAfterStartS), given: secs(record.infusionDurationS) },
+    {
+      label: 'Infusion duration',
+      planned: secs(plan.infusionEndAfterStartS),
+      given: secs(record.infusionDurationS),
+    },
     {
       label: 'Volume infused',
-      planned: plan.drugVolumeMl == null ? none : `${formatFigure(plan.drugVolumeMl)} mL drug + ${formatFigure(plan.diluentVolumeMl ?? 0)} mL diluent`,
+      planned:
+        plan.drugVolumeMl == null
+          ? none
+          : `${formatFigure(plan.drugVolumeMl)} mL drug + ${formatFigure(plan.diluentVolumeMl ?? 0)} mL diluent`,
       given: volumeGivenText(record) ?? none,
     },
-    { label: 'Verteporfin dose', planned: num(plan.doseMg, 'mg'), given: doseGivenText(record) ?? none },
+    {
+      label: 'Verteporfin dose',
+      planned: num(plan.doseMg, 'mg'),
+      given: doseGivenText(record) ?? none,
+    },
   ];
-  if (record.extravasationAt) rows.push({ label: 'Extravasation', planned: none, given: `at ${formatUnitClock(record.extravasationAt)}` });
+  if (record.extravasationAt)
+    rows.push({
+      label: 'Extravasation',
+      planned: none,
+      given: `at ${formatUnitClock(record.extravasationAt)}`,
+    });
   rows.push(
-    { label: 'Light start after infusion start', planned: secs(plan.lightStartAfterInfusionStartS), given: record.lightStartAt ? <>{secs(record.lightStartAfterInfusionStartS)}, at {formatUnitClock(record.lightStartAt)}</> : none },
-    { label: 'Exposure on the laser', planned: secs(plan.exposureS), given: record.deviceExposureS == null ? none : `${formatSeconds(record.deviceExposureS)}${record.deviceEnergyJ == null ? '' : `, ${formatFigure(record.deviceEnergyJ)} J`}` },
+    {
+      label: 'Light start after infusion start',
+      planned: secs(plan.lightStartAfterInfusionStartS),
+      given: record.lightStartAt ? (
+        <>
+          {secs(record.lightStartAfterInfusionStartS)}, at {formatUnitClock(record.lightStartAt)}
+        </>
+      ) : (
+        none
+      ),
+    },
+    {
+      label: 'Exposure on the laser',
+      planned: secs(plan.exposureS),
+      given:
+        record.deviceExposureS == null
+          ? none
+          : `${formatSeconds(record.deviceExposureS)}${record.deviceEnergyJ == null ? '' : `, ${formatFigure(record.deviceEnergyJ)} J`}`,
+    },
     { label: 'Light on-time (taps)', planned: secs(plan.exposureS), given: secs(record.lightOnS) },
-    { label: 'Fluence', planned: num(plan.fluenceJPerCm2, 'J/cm²'), given: num(record.deliveredFluenceJPerCm2, 'J/cm²') },
+    {
+      label: 'Fluence',
+      planned: num(plan.fluenceJPerCm2, 'J/cm²'),
+      given: num(record.deliveredFluenceJPerCm2, 'J/cm²'),
+    },
   );
   return rows;
 }
 
-function cxlRows(plan: NonNullable<OrderDetail['plan']>, record: GivenRecord, cxl: ProtocolVersion['cxl'] | undefined): Row[] {
+function cxlRows(
+  plan: NonNullable<OrderDetail['plan']>,
+  record: GivenRecord,
+  cxl: ProtocolVersion['cxl'] | undefined,
+): Row[] {
   const rows: Row[] = [
-    { label: 'Riboflavin soak', planned: cxl ? `${formatFigure(cxl.soakMin)} min` : none, given: record.soakStartAt ? <>{secs(record.soakDurationS)} ({span(record.soakStartAt, record.soakEndAt)})</> : none },
-    { label: 'Drops during the soak', planned: everyMin(cxl?.dropIntervalSoakMin), given: gap(record.longestDropGapSoakS) },
-    { label: 'Stromal thickness before UV', planned: cxl ? `at least ${formatFigure(cxl.minStromalThicknessUm)} µm` : none, given: num(record.thicknessBeforeUvUm, 'µm') },
+    {
+      label: 'Riboflavin soak',
+      planned: cxl ? `${formatFigure(cxl.soakMin)} min` : none,
+      given: record.soakStartAt ? (
+        <>
+          {secs(record.soakDurationS)} ({span(record.soakStartAt, record.soakEndAt)})
+        </>
+      ) : (
+        none
+      ),
+    },
+    {
+      label: 'Drops during the soak',
+      planned: everyMin(cxl?.dropIntervalSoakMin),
+      given: gap(record.longestDropGapSoakS),
+    },
+    {
+      label: 'Stromal thickness before UV',
+      planned: cxl ? `at least ${formatFigure(cxl.minStromalThicknessUm)} µm` : none,
+      given: num(record.thicknessBeforeUvUm, 'µm'),
+    },
   ];
-  if (record.thicknessOverrideReason) rows.push({ label: 'Thickness minimum overridden', planned: none, given: `Reason: ${record.thicknessOverrideReason}` });
+  if (record.thicknessOverrideReason)
+    rows.push({
+      label: 'Thickness minimum overridden',
+      planned: none,
+      given: `Reason: ${record.thicknessOverrideReason}`,
+    });
   rows.push(
     { label: 'UV', planned: none, given: span(record.uvStartAt, record.uvEndAt) },
     { label: 'UV on-time', planned: secs(plan.uvTimeS), given: secs(record.uvOnS) },
     { label: 'UV elapsed time', planned: secs(plan.uvElapsedS), given: secs(record.uvElapsedS) },
-    { label: 'Drops during UV', planned: everyMin(cxl?.dropIntervalUvMin), given: gap(record.longestDropGapUvS) },
-    { label: 'Fluence', planned: num(plan.fluenceJPerCm2, 'J/cm²'), given: num(record.deliveredFluenceJPerCm2, 'J/cm²') },
+    {
+      label: 'Drops during UV',
+      planned: everyMin(cxl?.dropIntervalUvMin),
+      given: gap(record.longestDropGapUvS),
+    },
+    {
+      label: 'Fluence',
+      planned: num(plan.fluenceJPerCm2, 'J/cm²'),
+      given: num(record.deliveredFluenceJPerCm2, 'J/cm²'),
+    },
   );
   return rows;
 }
@@ -71,11 +146,22 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
   const { record, deviations } = session;
   if (!record || record.outcome === 'not-started') return null;
   const plan = order.plan;
-  const rows = plan ? (order.kind === 'pdt' ? pdtRows(plan, record) : cxlRows(plan, record, definition?.cxl)) : [];
-  const sorted = [...deviations].sort((a, b) => deviationSeverityOrder.indexOf(a.severity) - deviationSeverityOrder.indexOf(b.severity));
+  const rows = plan
+    ? order.kind === 'pdt'
+      ? pdtRows(plan, record)
+      : cxlRows(plan, record, definition?.cxl)
+    : [];
+  const sorted = [...deviations].sort(
+    (a, b) =>
+      deviationSeverityOrder.indexOf(a.severity) - deviationSeverityOrder.indexOf(b.severity),
+  );
 
   return (
-    <section id="dose-record" aria-labelledby="dose-record-heading" className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5 print:border-0 print:p-0">
+    <section
+      id="dose-record"
+      aria-labelledby="dose-record-heading"
+      className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5 print:border-0 print:p-0"
+    >
       <div className="flex flex-wrap items-center justify-between gap-3">
         <h2 id="dose-record-heading" className="text-xl font-semibold text-paper-950">
           Dose record
@@ -91,11 +177,17 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
         </div>
         <div>
           <dt className="text-sm text-paper-600">Started</dt>
-          <dd className="text-paper-950">{record.sessionStartedAt ? formatUnitDateTime(record.sessionStartedAt) : '—'}</dd>
+          <dd className="text-paper-950">
+            {record.sessionStartedAt ? formatUnitDateTime(record.sessionStartedAt) : '—'}
+          </dd>
         </div>
         <div>
-          <dt className="text-sm text-paper-600">{record.outcome === 'stopped' ? 'Stopped' : 'Ended'}</dt>
-          <dd className="text-paper-950">{record.endedAt ? formatUnitDateTime(record.endedAt) : 'Still running'}</dd>
+          <dt className="text-sm text-paper-600">
+            {record.outcome === 'stopped' ? 'Stopped' : 'Ended'}
+          </dt>
+          <dd className="text-paper-950">
+            {record.endedAt ? formatUnitDateTime(record.endedAt) : 'Still running'}
+          </dd>
         </div>
       </dl>
       {record.stopReason && (
@@ -106,12 +198,15 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
       )}
 
       {!plan ? (
-        <p className="text-paper-800">The plan is hidden from you for now, so it cannot be set beside what was given.</p>
+        <p className="text-paper-800">
+          The plan is hidden from you for now, so it cannot be set beside what was given.
+        </p>
       ) : (
         <div className="overflow-x-auto">
           <table className="w-full border-collapse text-left">
             <caption className="mb-2 text-left text-sm text-paper-700">
-              The plan as frozen at signing, and what was given as the step clock recorded it. Times are {unitTimeZoneLabel} ({unitTimeZone}).
+              The plan as frozen at signing, and what was given as the step clock recorded it. Times
+              are {unitTimeZoneLabel} ({unitTimeZone}).
             </caption>
             <thead>
               <tr className="border-b-2 border-paper-400 text-sm text-paper-700">
@@ -133,22 +228,26 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
                     {row.label}
                   </th>
                   <td className="numerals-steady py-1.5 pr-4 text-paper-950">{row.planned}</td>
-                  <td className="numerals-steady py-1.5 font-semibold text-paper-950">{row.given}</td>
+                  <td className="numerals-steady py-1.5 font-semibold text-paper-950">
+                    {row.given}
+                  </td>
                 </tr>
               ))}
             </tbody>
           </table>
           {order.kind === 'pdt' && (
             <p className="mt-2 text-sm text-paper-700">
-              Laser settings from the plan: spot {num(plan.deviceSpotDiameterUm, 'µm')} on the laser, power {num(plan.powerMw, 'mW')}, irradiance{' '}
-              {num(plan.irradianceMwPerCm2, 'mW/cm²')}. The delivered fluence is worked out from the planned irradiance and the recorded light
-              time; the dose given is not measured separately.
+              Laser settings from the plan: spot {num(plan.deviceSpotDiameterUm, 'µm')} on the
+              laser, power {num(plan.powerMw, 'mW')}, irradiance{' '}
+              {num(plan.irradianceMwPerCm2, 'mW/cm²')}. The delivered fluence is worked out from the
+              planned irradiance and the recorded light time; the dose given is not measured
+              separately.
             </p>
           )}
           {order.kind === 'cxl' && (
             <p className="mt-2 text-sm text-paper-700">
-              UV irradiance from the plan: {num(plan.irradianceMwPerCm2, 'mW/cm²')}. The delivered fluence is worked out from it and the recorded UV
-              on-time.
+              UV irradiance from the plan: {num(plan.irradianceMwPerCm2, 'mW/cm²')}. The delivered
+              fluence is worked out from it and the recorded UV on-time.
             </p>
           )}
         </div>
@@ -157,14 +256,19 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
       {record.withdrawnTaps.length > 0 && (
         <div className="space-y-2">
           <h3 className="text-lg font-semibold text-paper-950">Taps withdrawn as mistakes</h3>
-          <p className="text-sm text-paper-700">Kept as tapped; none of the figures above counts them.</p>
+          <p className="text-sm text-paper-700">
+            Kept as tapped; none of the figures above counts them.
+          </p>
           <ul className="space-y-1">
             {record.withdrawnTaps.map((tap) => {
-              const stepTitle = tap.stepId ? (definition?.steps.find((s) => s.id === tap.stepId)?.title ?? tap.stepId) : null;
+              const stepTitle = tap.stepId
+                ? (definition?.steps.find((s) => s.id === tap.stepId)?.title ?? tap.stepId)
+                : null;
               return (
                 <li key={tap.idempotencyKey} className="text-paper-950">
                   <span className="font-semibold">Withdrawn:</span> <s>{eventWordsOf(tap.type)}</s>
-                  {stepTitle ? ` (${stepTitle})` : ''}, tapped {formatUnitClock(tap.at)}, withdrawn {formatUnitClock(tap.withdrawnAt)}
+                  {stepTitle ? ` (${stepTitle})` : ''}, tapped {formatUnitClock(tap.at)}, withdrawn{' '}
+                  {formatUnitClock(tap.withdrawnAt)}
                   <span className="block text-sm text-paper-800">Reason: {tap.reason}</span>
                 </li>
               );
@@ -179,7 +283,8 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
           <ul className="space-y-1">
             {record.lateEntries.map((entry) => (
               <li key={entry.idempotencyKey} className="text-paper-950">
-                <span className="font-semibold">Late entry:</span> {eventWordsOf(entry.type)}, timed {formatUnitClock(entry.at)}
+                <span className="font-semibold">Late entry:</span> {eventWordsOf(entry.type)}, timed{' '}
+                {formatUnitClock(entry.at)}
                 {entry.receivedAt ? `, received ${formatUnitClock(entry.receivedAt)}` : ''}
                 <span className="block text-sm text-paper-800">Reason: {entry.reason}</span>
               </li>
@@ -191,11 +296,14 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
       {record.receiptDelays.length > 0 && (
         <div className="space-y-2">
           <h3 className="text-lg font-semibold text-paper-950">Taps received late</h3>
-          <p className="text-sm text-paper-700">Reached the server more than a minute after they were made; their own time counts.</p>
+          <p className="text-sm text-paper-700">
+            Reached the server more than a minute after they were made; their own time counts.
+          </p>
           <ul className="space-y-1">
             {record.receiptDelays.map((delay) => (
               <li key={delay.idempotencyKey} className="text-paper-950">
-                {eventWordsOf(delay.type)} tapped {formatUnitClock(delay.at)}, received {formatUnitClock(delay.receivedAt)}: {delayText(delay.delayS)} later
+                {eventWordsOf(delay.type)} tapped {formatUnitClock(delay.at)}, received{' '}
+                {formatUnitClock(delay.receivedAt)}: {delayText(delay.delayS)} later
               </li>
             ))}
           </ul>
@@ -205,17 +313,28 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
       <div className="space-y-2">
         <h3 className="text-lg font-semibold text-paper-950">Deviations from protocol</h3>
         {sorted.length === 0 ? (
-          <p className="text-paper-900">{record.outcome === 'in-progress' ? 'None so far.' : 'None.'}</p>
+          <p className="text-paper-900">
+            {record.outcome === 'in-progress' ? 'None so far.' : 'None.'}
+          </p>
         ) : (
           <ul className="space-y-2">
             {sorted.map((d) => (
-              <li key={d.id} className="flex flex-wrap items-start gap-2 border-b border-paper-200 pb-2">
+              <li
+                key={d.id}
+                className="flex flex-wrap items-start gap-2 border-b border-paper-200 pb-2"
+              >
                 <DeviationSeverityLabel severity={d.severity} />
                 <span className="min-w-0 flex-1 text-paper-950">
                   {d.message}
                   <span className="block text-sm text-paper-700">
-                    Expected {d.expected == null ? '—' : `${formatFigure(d.expected)}${d.unit ? ` ${d.unit}` : ''}`}, recorded{' '}
-                    {d.actual == null ? '—' : `${formatFigure(d.actual)}${d.unit ? ` ${d.unit}` : ''}`}
+                    Expected{' '}
+                    {d.expected == null
+                      ? '—'
+                      : `${formatFigure(d.expected)}${d.unit ? ` ${d.unit}` : ''}`}
+                    , recorded{' '}
+                    {d.actual == null
+                      ? '—'
+                      : `${formatFigure(d.actual)}${d.unit ? ` ${d.unit}` : ''}`}
                   </span>
                 </span>
               </li>

@@ -26,10 +26,23 @@ import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { orderQueries } from '../api/order-queries';
 import { AttachmentsPanel } from './attachments-panel';
 import { DoseRecordSection } from './dose-record-section';
-import { ChecklistAnswers, OrderFacts, OrderInputs, OrderReasons, PharmacyRecord } from './order-record-sections';
+import {
+  ChecklistAnswers,
+  OrderFacts,
+  OrderInputs,
+  OrderReasons,
+  PharmacyRecord,
+} from './order-record-sections';
 import { OrderStatusBadge } from '../../../components/ui/order-status-badge';
 import { orderStatusMeaning } from '../../../components/ui/order-status-words';
-import { amendableStatuses, awaitsDoseCheck, hasSessionStarted, isSessionEnded, isSessionRunning, stepClockStatuses } from '../../../../shared/orders/lifecycle';
+import {
+  amendableStatuses,
+  awaitsDoseCheck,
+  hasSessionStarted,
+  isSessionEnded,
+  isSessionRunning,
+  stepClockStatuses,
+} from '../../../../shared/orders/lifecycle';
 import { eyeWords, fieldWords, kindWords } from './order-words';
 import { PlanFigures, PlanWarnings, PlanWorking } from './plan-view';
 import { printCss, PrintFrame } from '../../../components/ui/print-frame';
@@ -61,13 +74,22 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
   const sessionStatus = session.data?.status;
   const orderStatus = order.data?.status;
   useEffect(() => {
-    if (sessionStatus && orderStatus && sessionStatus !== orderStatus) void queryClient.invalidateQueries({ queryKey: orderQueries.detail(orderId).queryKey, exact: true });
+    if (sessionStatus && orderStatus && sessionStatus !== orderStatus)
+      void queryClient.invalidateQueries({
+        queryKey: orderQueries.detail(orderId).queryKey,
+        exact: true,
+      });
   }, [sessionStatus, orderStatus, orderId, queryClient]);
   const location = useLocation();
-  const [outcome, setOutcome] = useState<string>(() => (location.state as { outcome?: string } | null)?.outcome ?? '');
+  const [outcome, setOutcome] = useState<string>(
+    () => (location.state as { outcome?: string } | null)?.outcome ?? '',
+  );
   const [signing, setSigning] = useState(false);
   const protocol = order.data?.protocol;
-  const definitionQuery = useQuery({ ...orderQueries.protocolDefinition(protocol?.key ?? '', protocol?.version ?? 0), enabled: protocol !== undefined });
+  const definitionQuery = useQuery({
+    ...orderQueries.protocolDefinition(protocol?.key ?? '', protocol?.version ?? 0),
+    enabled: protocol !== undefined,
+  });
   const definition = definitionQuery.data?.definition ?? null;
 
   if (order.isPending) {
@@ -82,34 +104,40 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
     const missing = isApiRequestError(order.error) && order.error.status === 404;
     return (
       <>
-      <title>{`Order ${orderId} · Luxtempo`}</title>
-      <StatusPanel
-        role="alert"
-        headingLevel="h1"
-        icon={<AlertIcon className="size-6" />}
-        title={missing ? 'There is no such order' : 'The order could not be loaded'}
-        actions={
-          <>
-            <LinkButton to={paths.orders.getHref()} icon={<ArrowLeftIcon />}>
-              All orders
-            </LinkButton>
-            {!missing && (
-              <Button variant="primary" icon={<ReloadIcon />} busy={order.isFetching} onClick={() => void order.refetch()}>
-                Try again
-              </Button>
-            )}
-          </>
-        }
-      >
-        <p>{describeError(order.error)}</p>
-      </StatusPanel>
+        <title>{`Order ${orderId} · Luxtempo`}</title>
+        <StatusPanel
+          role="alert"
+          headingLevel="h1"
+          icon={<AlertIcon className="size-6" />}
+          title={missing ? 'There is no such order' : 'The order could not be loaded'}
+          actions={
+            <>
+              <LinkButton to={paths.orders.getHref()} icon={<ArrowLeftIcon />}>
+                All orders
+              </LinkButton>
+              {!missing && (
+                <Button
+                  variant="primary"
+                  icon={<ReloadIcon />}
+                  busy={order.isFetching}
+                  onClick={() => void order.refetch()}
+                >
+                  Try again
+                </Button>
+              )}
+            </>
+          }
+        >
+          <p>{describeError(order.error)}</p>
+        </StatusPanel>
       </>
     );
   }
 
   const detail = order.data;
   const isDraft = detail.status === 'draft';
-  const canAmend = canWrite && amendableStatuses.includes(detail.status) && detail.nextRevisionId === null;
+  const canAmend =
+    canWrite && amendableStatuses.includes(detail.status) && detail.nextRevisionId === null;
 
   const retreatment = detail.warnings.find((w) => w.code === 'retreatment-interval');
   // The server compares the weight with the patient's record and says so in the draft's warnings.
@@ -128,7 +156,9 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
             weightChangeReason: detail.weightChangeReason,
             swellingAcknowledged: detail.swellingAcknowledged,
           }).map((p) => p.message),
-          ...(retreatment && !detail.retreatmentReason ? [`${retreatment.message} Give a retreatment reason.`] : []),
+          ...(retreatment && !detail.retreatmentReason
+            ? [`${retreatment.message} Give a retreatment reason.`]
+            : []),
           ...(weightChange && !detail.weightChangeReason ? [weightChange.message] : []),
         ]
       : [];
@@ -142,12 +172,16 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
   const notInDoseRecord = printPart === 'dose-record' ? 'print:hidden' : '';
   const sessionRecord = session.data?.record ?? null;
   // Once the session has ended the patient can be discharged.
-  const showsDischarge = isSessionEnded(detail.status) && sessionRecord !== null && sessionRecord.outcome !== 'not-started';
+  const showsDischarge =
+    isSessionEnded(detail.status) &&
+    sessionRecord !== null &&
+    sessionRecord.outcome !== 'not-started';
 
   const describePath = (path: string) => {
     const [head, ...rest] = path.split('.');
     if (head === 'checklist') return 'Checklist';
-    if (head === 'softLimitReasons') return `Reason for the ${fieldWords[rest.join('.')] ?? rest.join('.')}`;
+    if (head === 'softLimitReasons')
+      return `Reason for the ${fieldWords[rest.join('.')] ?? rest.join('.')}`;
     if (head === 'retreatmentReason') return 'Retreatment reason';
     if (head === 'weightChangeReason') return 'Reason for the change in weight';
     if (head === 'inputs') return 'Measurements';
@@ -167,7 +201,8 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
       <span className="font-bold uppercase">{eyeWords[detail.eye]}</span>
       <span>
         {printPart === 'dose-record' ? 'Dose record' : 'Order'} {detail.id}
-        {detail.revision > 1 ? ` (revision ${detail.revision})` : ''} · {detail.protocol.title}, version {detail.protocol.version}
+        {detail.revision > 1 ? ` (revision ${detail.revision})` : ''} · {detail.protocol.title},
+        version {detail.protocol.version}
       </span>
     </p>
   );
@@ -202,22 +237,42 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
                 </>
               )}
               {canAmend && (
-                <LinkButton variant={canRunSessions && stepClockStatuses.includes(detail.status) ? 'secondary' : 'primary'} to={paths.orderAmend.getHref(detail.id)} icon={<PencilIcon />}>
+                <LinkButton
+                  variant={
+                    canRunSessions && stepClockStatuses.includes(detail.status)
+                      ? 'secondary'
+                      : 'primary'
+                  }
+                  to={paths.orderAmend.getHref(detail.id)}
+                  icon={<PencilIcon />}
+                >
                   Amend
                 </LinkButton>
               )}
               {canRunSessions && stepClockStatuses.includes(detail.status) && (
-                <LinkButton variant="primary" to={paths.stepClock.getHref(detail.id)} icon={<ClockIcon />}>
+                <LinkButton
+                  variant="primary"
+                  to={paths.stepClock.getHref(detail.id)}
+                  icon={<ClockIcon />}
+                >
                   Open step clock
                 </LinkButton>
               )}
               {!canRunSessions && isSessionRunning(detail.status) && (
-                <LinkButton variant="secondary" to={paths.stepClock.getHref(detail.id)} icon={<ClockIcon />}>
+                <LinkButton
+                  variant="secondary"
+                  to={paths.stepClock.getHref(detail.id)}
+                  icon={<ClockIcon />}
+                >
                   Watch session
                 </LinkButton>
               )}
               {showsDischarge && (
-                <LinkButton variant="primary" to={paths.orderDischarge.getHref(detail.id)} icon={<DischargeSheetIcon />}>
+                <LinkButton
+                  variant="primary"
+                  to={paths.orderDischarge.getHref(detail.id)}
+                  icon={<DischargeSheetIcon />}
+                >
                   Discharge sheet
                 </LinkButton>
               )}
@@ -239,7 +294,10 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
         {!isDraft && <AcceptedCautionsBanner cautions={detail.answeredCautions} className="mb-6" />}
 
         {detail.status === 'returned' && (
-          <div role="alert" className={`mb-6 rounded-2xl border-2 border-alarm-700 bg-alarm-50 px-5 py-4 ${notInDoseRecord}`}>
+          <div
+            role="alert"
+            className={`mb-6 rounded-2xl border-2 border-alarm-700 bg-alarm-50 px-5 py-4 ${notInDoseRecord}`}
+          >
             <p className="flex items-center gap-2 text-lg font-semibold text-alarm-800">
               <StatusReturnedIcon className="size-6" />
               Sent back by the pharmacist
@@ -248,23 +306,42 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
               <span className="font-medium">Comment: </span>
               {detail.returnComment ?? 'No comment was given.'}
             </p>
-            {canAmend && <p className="mt-1 text-sm text-paper-800">Amend the order to correct it; the amended revision is checked again from the start.</p>}
+            {canAmend && (
+              <p className="mt-1 text-sm text-paper-800">
+                Amend the order to correct it; the amended revision is checked again from the start.
+              </p>
+            )}
           </div>
         )}
         {detail.nextRevisionId !== null && (
-          <Alert tone="info" title={`Revision ${detail.revision + 1} amends this order`} className={`mb-6 ${notInDoseRecord}`}>
-            <Link to={paths.order.getHref(detail.nextRevisionId)} className="font-medium text-iris-700 underline underline-offset-4">
+          <Alert
+            tone="info"
+            title={`Revision ${detail.revision + 1} amends this order`}
+            className={`mb-6 ${notInDoseRecord}`}
+          >
+            <Link
+              to={paths.order.getHref(detail.nextRevisionId)}
+              className="font-medium text-iris-700 underline underline-offset-4"
+            >
               Open order {detail.nextRevisionId}
             </Link>
-            {detail.status === 'superseded' ? ' — it replaced this revision when it was signed.' : ' — it replaces this one once it is signed.'}
+            {detail.status === 'superseded'
+              ? ' — it replaced this revision when it was signed.'
+              : ' — it replaces this one once it is signed.'}
           </Alert>
         )}
 
-        <section aria-label="Patient and eye" className="mb-6 flex flex-wrap items-center justify-between gap-4 rounded-2xl border-2 border-paper-300 bg-white px-5 py-4">
+        <section
+          aria-label="Patient and eye"
+          className="mb-6 flex flex-wrap items-center justify-between gap-4 rounded-2xl border-2 border-paper-300 bg-white px-5 py-4"
+        >
           <div>
             <p className="text-sm text-paper-600">Patient</p>
             <p className="text-xl font-semibold text-paper-950">
-              <Link to={paths.patient.getHref(detail.patient.id)} className="underline-offset-4 hover:underline">
+              <Link
+                to={paths.patient.getHref(detail.patient.id)}
+                className="underline-offset-4 hover:underline"
+              >
                 {detail.patient.familyName}, {detail.patient.givenName}
               </Link>
             </p>
@@ -272,12 +349,16 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
           </div>
           <div className="text-right">
             <p className="text-sm text-paper-600">Treatment eye</p>
-            <p className="text-3xl font-bold tracking-tight text-paper-950 uppercase">{eyeWords[detail.eye]}</p>
+            <p className="text-3xl font-bold tracking-tight text-paper-950 uppercase">
+              {eyeWords[detail.eye]}
+            </p>
           </div>
           <div className="w-full border-t border-paper-200 pt-3 sm:w-auto sm:border-0 sm:pt-0">
             <p className="text-sm text-paper-600">Status</p>
             <OrderStatusBadge status={detail.status} size="lg" />
-            <p className="mt-1 max-w-xs text-sm text-paper-700">{orderStatusMeaning(detail.status)}</p>
+            <p className="mt-1 max-w-xs text-sm text-paper-700">
+              {orderStatusMeaning(detail.status)}
+            </p>
           </div>
         </section>
 
@@ -289,18 +370,31 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
 
         <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem] print:block">
           <div className="min-w-0 space-y-6">
-            {session.data && <DoseRecordSection order={detail} definition={definition} session={session.data} onPrint={printDoseRecord} />}
+            {session.data && (
+              <DoseRecordSection
+                order={detail}
+                definition={definition}
+                session={session.data}
+                onPrint={printDoseRecord}
+              />
+            )}
 
             {isDraft && canWrite && (
-              <section aria-labelledby="readiness-heading" className="rounded-2xl border border-iris-200 bg-iris-50 px-5 py-4">
+              <section
+                aria-labelledby="readiness-heading"
+                className="rounded-2xl border border-iris-200 bg-iris-50 px-5 py-4"
+              >
                 <h2 id="readiness-heading" className="mb-1 text-lg font-semibold text-paper-950">
                   Before it can be signed
                 </h2>
                 {!definition ? (
-                  <p className="text-paper-700">{definitionQuery.isError ? describeError(definitionQuery.error) : 'Checking…'}</p>
+                  <p className="text-paper-700">
+                    {definitionQuery.isError ? describeError(definitionQuery.error) : 'Checking…'}
+                  </p>
                 ) : knownProblems.length === 0 ? (
                   <p className="flex items-center gap-2 text-paper-900">
-                    <CheckCircleIcon className="size-5" /> Nothing missing. Check the plan below, then sign.
+                    <CheckCircleIcon className="size-5" /> Nothing missing. Check the plan below,
+                    then sign.
                   </p>
                 ) : (
                   <ul className="list-disc space-y-1 pl-5 text-paper-900">
@@ -312,21 +406,32 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
               </section>
             )}
 
-            <section aria-labelledby="plan-heading" className={`space-y-4 rounded-2xl border border-paper-200 bg-white p-5 ${notInDoseRecord}`}>
+            <section
+              aria-labelledby="plan-heading"
+              className={`space-y-4 rounded-2xl border border-paper-200 bg-white p-5 ${notInDoseRecord}`}
+            >
               <h2 id="plan-heading" className="text-xl font-semibold text-paper-950">
-                {isDraft ? 'Dose plan (recomputed and frozen at signing)' : 'Dose plan as frozen at signing'}
+                {isDraft
+                  ? 'Dose plan (recomputed and frozen at signing)'
+                  : 'Dose plan as frozen at signing'}
               </h2>
               {detail.planWithheld || !detail.plan ? (
                 <div className="flex gap-3 rounded-lg border border-paper-300 bg-paper-100 px-4 py-3">
                   <LockIcon className="mt-0.5 size-5 text-paper-700" />
                   <div className="space-y-1">
-                    <p className="font-semibold text-paper-950">The computed figures are hidden from you for now.</p>
+                    <p className="font-semibold text-paper-950">
+                      The computed figures are hidden from you for now.
+                    </p>
                     <p className="text-paper-800">
-                      This is the blind double check: work out the BSA, dose and drug volume yourself from the measurements below, and enter
-                      them on the dose check. The plan appears here once your figures match.
+                      This is the blind double check: work out the BSA, dose and drug volume
+                      yourself from the measurements below, and enter them on the dose check. The
+                      plan appears here once your figures match.
                     </p>
                     <p>
-                      <Link to={paths.doseCheck.getHref(detail.id)} className="font-medium text-iris-700 underline underline-offset-4">
+                      <Link
+                        to={paths.doseCheck.getHref(detail.id)}
+                        className="font-medium text-iris-700 underline underline-offset-4"
+                      >
                         Go to the dose check for order {detail.id}
                       </Link>
                     </p>
@@ -352,7 +457,11 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
           </div>
           <div className="space-y-6 print:mt-6">
             <OrderFacts order={detail} />
-            <TreatmentCautions kind={detail.kind} protocolCautions={definition?.cautions} className={notInDoseRecord} />
+            <TreatmentCautions
+              kind={detail.kind}
+              protocolCautions={definition?.cautions}
+              className={notInDoseRecord}
+            />
           </div>
         </div>
       </PrintFrame>
@@ -366,7 +475,9 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
           onDismiss={() => setSigning(false)}
           onSigned={(signed: OrderDetail) => {
             setSigning(false);
-            setOutcome(`Order ${signed.id} is signed. ${awaitsDoseCheck(signed.status) ? 'It now waits for the pharmacist’s dose check.' : 'It is ready for the session.'}`);
+            setOutcome(
+              `Order ${signed.id} is signed. ${awaitsDoseCheck(signed.status) ? 'It now waits for the pharmacist’s dose check.' : 'It is ready for the session.'}`,
+            );
           }}
         />
       )}

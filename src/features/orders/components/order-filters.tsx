@@ -15,14 +15,23 @@ type OrderFiltersProps = {
 /** Filters act at once; the address keeps them. */
 export function OrderFilters({ query, filtered, onChange }: OrderFiltersProps) {
   const protocols = useQuery(orderQueries.protocolChoices());
-  const rangeError = query.from && query.to && query.from > query.to ? 'The “from” date is after the “to” date, so no order can match.' : undefined;
+  const rangeError =
+    query.from && query.to && query.from > query.to
+      ? 'The “from” date is after the “to” date, so no order can match.'
+      : undefined;
   return (
     <form
       aria-label="Filter the orders"
       onSubmit={(event) => event.preventDefault()}
       className="mb-4 grid gap-4 rounded-2xl border border-paper-200 bg-white p-4 sm:grid-cols-2 lg:grid-cols-[repeat(4,minmax(0,1fr))_auto] lg:items-end"
     >
-      <SelectField label="Status" value={query.status ?? ''} onChange={(e) => onChange({ status: (e.target.value || undefined) as OrderListQuery['status'] })}>
+      <SelectField
+        label="Status"
+        value={query.status ?? ''}
+        onChange={(e) =>
+          onChange({ status: (e.target.value || undefined) as OrderListQuery['status'] })
+        }
+      >
         <option value="">Any status</option>
         {orderStatuses.map((status) => (
           <option key={status} value={status}>
@@ -42,11 +51,32 @@ export function OrderFilters({ query, filtered, onChange }: OrderFiltersProps) {
             {p.title}
           </option>
         ))}
-        {query.protocol && !protocols.data?.some((p) => p.key === query.protocol) && <option value={query.protocol}>{query.protocol}</option>}
+        {query.protocol && !protocols.data?.some((p) => p.key === query.protocol) && (
+          <option value={query.protocol}>{query.protocol}</option>
+        )}
       </SelectField>
-      <TextField label="Created from" type="date" value={query.from ?? ''} max={query.to} onChange={(e) => onChange({ from: e.target.value || undefined })} error={rangeError} />
-      <TextField label="Created to" type="date" value={query.to ?? ''} min={query.from} onChange={(e) => onChange({ to: e.target.value || undefined })} />
-      <Button variant="secondary" disabled={!filtered} onClick={() => onChange({ status: undefined, protocol: undefined, from: undefined, to: undefined })}>
+      <TextField
+        label="Created from"
+        type="date"
+        value={query.from ?? ''}
+        max={query.to}
+        onChange={(e) => onChange({ from: e.target.value || undefined })}
+        error={rangeError}
+      />
+      <TextField
+        label="Created to"
+        type="date"
+        value={query.to ?? ''}
+        min={query.from}
+        onChange={(e) => onChange({ to: e.target.value || undefined })}
+      />
+      <Button
+        variant="secondary"
+        disabled={!filtered}
+        onClick={() =>
+          onChange({ status: undefined, protocol: undefined, from: undefined, to: undefined })
+        }
+      >
         Clear filters
       </Button>
     </form>

@@ -13,7 +13,17 @@ import { amendableStatuses } from '../../../../shared/orders/lifecycle';
 import { eyeWords } from './order-words';
 import { orderStatusWords } from '../../../components/ui/order-status-words';
 
-function Failed({ title, error, onRetry, busy }: { title: string; error: unknown; onRetry: () => void; busy: boolean }) {
+function Failed({
+  title,
+  error,
+  onRetry,
+  busy,
+}: {
+  title: string;
+  error: unknown;
+  onRetry: () => void;
+  busy: boolean;
+}) {
   const missing = isApiRequestError(error) && error.status === 404;
   return (
     <StatusPanel
@@ -45,18 +55,30 @@ export function NewOrderScreen({ patientId }: { patientId: number | null }) {
   const protocols = useQuery(orderQueries.protocolChoices());
   return (
     <>
-      <PageHeader title="New order" lead="Choose the patient, the eye and an approved protocol version; the plan appears as you type." />
+      <PageHeader
+        title="New order"
+        lead="Choose the patient, the eye and an approved protocol version; the plan appears as you type."
+      />
       {protocols.isPending ? (
         <LoadingPanel label="Loading the approved protocol versions…" />
       ) : protocols.isError ? (
-        <Failed title="The protocol versions could not be loaded" error={protocols.error} onRetry={() => void protocols.refetch()} busy={protocols.isFetching} />
+        <Failed
+          title="The protocol versions could not be loaded"
+          error={protocols.error}
+          onRetry={() => void protocols.refetch()}
+          busy={protocols.isFetching}
+        />
       ) : (
         <OrderForm
           mode="new"
           initialValues={emptyOrderForm(patientId ?? undefined)}
           protocolChoices={protocols.data}
           cancelHref={patientId ? paths.patient.getHref(patientId) : paths.orders.getHref()}
-          onSaved={(order) => navigate(paths.order.getHref(order.id), { state: { outcome: `Order ${order.id} was saved as a draft.` } })}
+          onSaved={(order) =>
+            navigate(paths.order.getHref(order.id), {
+              state: { outcome: `Order ${order.id} was saved as a draft.` },
+            })
+          }
         />
       )}
     </>
@@ -64,24 +86,53 @@ export function NewOrderScreen({ patientId }: { patientId: number | null }) {
 }
 
 /** Editing a draft, or amending a signed order into a new revision. */
-export function ChangeOrderScreen({ orderId, mode }: { orderId: number; mode: Exclude<OrderFormMode, 'new'> }) {
+export function ChangeOrderScreen({
+  orderId,
+  mode,
+}: {
+  orderId: number;
+  mode: Exclude<OrderFormMode, 'new'>;
+}) {
   const navigate = useNavigate();
   const order = useQuery(orderQueries.detail(orderId));
   const protocols = useQuery(orderQueries.protocolChoices());
   const title = mode === 'edit' ? `Edit draft order ${orderId}` : `Amend order ${orderId}`;
 
   if (order.isPending || protocols.isPending) return <LoadingPanel label="Loading the order…" />;
-  if (order.isError) return <Failed title="The order could not be loaded" error={order.error} onRetry={() => void order.refetch()} busy={order.isFetching} />;
-  if (protocols.isError) return <Failed title="The protocol versions could not be loaded" error={protocols.error} onRetry={() => void protocols.refetch()} busy={protocols.isFetching} />;
+  if (order.isError)
+    return (
+      <Failed
+        title="The order could not be loaded"
+        error={order.error}
+        onRetry={() => void order.refetch()}
+        busy={order.isFetching}
+      />
+    );
+  if (protocols.isError)
+    return (
+      <Failed
+        title="The protocol versions could not be loaded"
+        error={protocols.error}
+        onRetry={() => void protocols.refetch()}
+        busy={protocols.isFetching}
+      />
+    );
 
   const detail = order.data;
-  const allowed = mode === 'edit' ? detail.status === 'draft' : amendableStatuses.includes(detail.status) && detail.nextRevisionId === null;
+  const allowed =
+    mode === 'edit'
+      ? detail.status === 'draft'
+      : amendableStatuses.includes(detail.status) && detail.nextRevisionId === null;
   if (!allowed) {
     return (
       <StatusPanel
         headingLevel="h1"
         icon={<LockIcon className="size-6" />}
-        title={mode === 'edit' ? `Order ${orderId} can no longer be edited` : `Order ${orderId} cannot be amended`}
+        title={
+          mode === 'edit'
+            ? `Order ${orderId} can no longer be edited`
+            : `Order ${orderId} cannot be amended`
+        }
         actions={<LinkButton to={paths.order.getHref(orderId)}>Open the order</LinkButton>}
       >
         <p>
@@ -102,9 +153,11 @@ export function ChangeOrderScreen({ orderId, mode }: { orderId: number; mode: Ex
         title={title}
         lead={
           <>
-            {detail.patient.familyName}, {detail.patient.givenName} · {detail.patient.recordNumber} ·{' '}
-            <strong className="font-semibold text-paper-950">{eyeWords[detail.eye]}</strong>
-            {mode === 'amend' && <> · the amendment becomes revision {detail.revision + 1}, a draft to sign again</>}
+            {detail.patient.familyName}, {detail.patient.givenName} · {detail.patient.recordNumber}{' '}
+            · <strong className="font-semibold text-paper-950">{eyeWords[detail.eye]}</strong>
+            {mode === 'amend' && (
+              <> · the amendment becomes revision {detail.revision + 1}, a draft to sign again</>
+            )}
           </>
         }
       />
@@ -117,7 +170,12 @@ export function ChangeOrderScreen({ orderId, mode }: { orderId: number; mode: Ex
         cancelHref={paths.order.getHref(orderId)}
         onSaved={(saved) =>
           navigate(paths.order.getHref(saved.id), {
-            state: { outcome: mode === 'edit' ? `The changes to order ${saved.id} were saved.` : `Revision ${saved.revision} was saved as a draft; sign it to replace revision ${detail.revision}.` },
+            state: {
+              outcome:
+                mode === 'edit'
+                  ? `The changes to order ${saved.id} were saved.`
+                  : `Revision ${saved.revision} was saved as a draft; sign it to replace revision ${detail.revision}.`,
+            },
           })
         }
       />

@@ -3,7 +3,13 @@ import type { z } from 'zod';
 import { bsaFormulaNames, type BsaFormulaName } from '../../../../shared/engine/bsa';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { PlanInputs } from '../../../../shared/schemas/calculation';
-import { amendOrderSchema, orderDraftSchema, type AmendOrder, type OrderDetail, type OrderDraft } from '../../../../shared/schemas/orders';
+import {
+  amendOrderSchema,
+  orderDraftSchema,
+  type AmendOrder,
+  type OrderDetail,
+  type OrderDraft,
+} from '../../../../shared/schemas/orders';
 import type { Eye } from '../../../../shared/schemas/patients';
 
 /**
@@ -77,7 +83,11 @@ export function emptyOrderForm(patientId?: number): OrderFormValues {
 const text = (value: number | undefined) => (value === undefined ? '' : String(value));
 
 const asText = (value: unknown): string => (typeof value === 'string' ? value : '');
-const oneOf = <T extends string, F extends string>(value: unknown, allowed: readonly T[], fallback: F): T | F => (allowed.includes(value as T) ? (value as T) : fallback);
+const oneOf = <T extends string, F extends string>(
+  value: unknown,
+  allowed: readonly T[],
+  fallback: F,
+): T | F => (allowed.includes(value as T) ? (value as T) : fallback);
 
 /**
  * The form's values as react-hook-form reports them, made whole. A field that has not been
@@ -87,14 +97,26 @@ const oneOf = <T extends string, F extends string>(value: unknown, allowed: read
  * through here.
  */
 export function settleFormValues(raw: unknown): OrderFormValues {
-  const v = (raw && typeof raw === 'object' ? raw : {}) as Partial<Record<keyof OrderFormValues, unknown>>;
-  const checklistIn = v.checklist && typeof v.checklist === 'object' ? (v.checklist as Record<string, unknown>) : {};
+  const v = (raw && typeof raw === 'object' ? raw : {}) as Partial<
+    Record<keyof OrderFormValues, unknown>
+  >;
+  const checklistIn =
+    v.checklist && typeof v.checklist === 'object' ? (v.checklist as Record<string, unknown>) : {};
   const checklist: OrderFormValues['checklist'] = {};
   for (const [id, entry] of Object.entries(checklistIn)) {
-    const e = (entry && typeof entry === 'object' ? entry : {}) as { answer?: unknown; overrideReason?: unknown };
-    checklist[id] = { answer: oneOf(e.answer, ['yes', 'no'] as const, ''), overrideReason: asText(e.overrideReason) };
+    const e = (entry && typeof entry === 'object' ? entry : {}) as {
+      answer?: unknown;
+      overrideReason?: unknown;
+    };
+    checklist[id] = {
+      answer: oneOf(e.answer, ['yes', 'no'] as const, ''),
+      overrideReason: asText(e.overrideReason),
+    };
   }
-  const reasonsIn = v.softLimitReasons && typeof v.softLimitReasons === 'object' ? (v.softLimitReasons as Record<string, unknown>) : {};
+  const reasonsIn =
+    v.softLimitReasons && typeof v.softLimitReasons === 'object'
+      ? (v.softLimitReasons as Record<string, unknown>)
+      : {};
   return {
     patientId: asText(v.patientId),
     eye: oneOf(v.eye, ['right', 'left'] as const, ''),
@@ -108,7 +130,9 @@ export function settleFormValues(raw: unknown): OrderFormValues {
     lensMagnification: asText(v.lensMagnification),
     stromalThicknessUm: asText(v.stromalThicknessUm),
     checklist,
-    softLimitReasons: Object.fromEntries(Object.entries(reasonsIn).map(([key, reason]) => [key, asText(reason)])),
+    softLimitReasons: Object.fromEntries(
+      Object.entries(reasonsIn).map(([key, reason]) => [key, asText(reason)]),
+    ),
     retreatmentReason: asText(v.retreatmentReason),
     weightChangeReason: asText(v.weightChangeReason),
     note: asText(v.note),
@@ -122,7 +146,11 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
   const { inputs } = order;
   const heightUnit = inputs.height?.unit === 'in' ? 'in' : 'cm';
   // Metres are not offered on the form; a height stored in metres is shown in centimetres.
-  const heightValue = inputs.height ? (inputs.height.unit === 'm' ? String(Number((inputs.height.value * 100).toPrecision(12))) : String(inputs.height.value)) : '';
+  const heightValue = inputs.height
+    ? inputs.height.unit === 'm'
+      ? String(Number((inputs.height.value * 100).toPrecision(12)))
+      : String(inputs.height.value)
+    : '';
   return {
     patientId: String(order.patient.id),
     eye: order.eye,
@@ -135,8 +163,15 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
     lesionGldUm: text(inputs.lesionGldUm),
     lensMagnification: text(inputs.lensMagnification),
     stromalThicknessUm: text(inputs.stromalThicknessUm),
-    checklist: Object.fromEntries(order.checklist.map((a) => [a.id, { answer: a.answer, overrideReason: a.overrideReason ?? '' }])),
-    softLimitReasons: Object.fromEntries(Object.entries(order.softLimitReasons).map(([field, reason]) => [reasonKey(field), reason])),
+    checklist: Object.fromEntries(
+      order.checklist.map((a) => [
+        a.id,
+        { answer: a.answer, overrideReason: a.overrideReason ?? '' },
+      ]),
+    ),
+    softLimitReasons: Object.fromEntries(
+      Object.entries(order.softLimitReasons).map(([field, reason]) => [reasonKey(field), reason]),
+    ),
     retreatmentReason: order.retreatmentReason ?? '',
     weightChangeReason: order.weightChangeReason ?? '',
     note: order.note ?? '',
@@ -165,7 +200,10 @@ const numberFields = {
 type NumberField = keyof typeof numberFields;
 
 /** The measurements the chosen protocol kind takes; the other kind's boxes are left out, not sent. */
-export function formToInputs(raw: OrderFormValues, kind: ProtocolVersion['kind'] | null): { inputs: PlanInputs; invalid: NumberField[] } {
+export function formToInputs(
+  raw: OrderFormValues,
+  kind: ProtocolVersion['kind'] | null,
+): { inputs: PlanInputs; invalid: NumberField[] } {
   const values = settleFormValues(raw);
   const invalid: NumberField[] = [];
   const read = (field: NumberField) => {
@@ -181,7 +219,8 @@ export function formToInputs(raw: OrderFormValues, kind: ProtocolVersion['kind']
   const weight = read('weightValue');
   if (height !== undefined) inputs.height = { value: height, unit: values.heightUnit };
   if (weight !== undefined) inputs.weight = { value: weight, unit: values.weightUnit };
-  if (values.bsaFormula && (kind === 'pdt' || height !== undefined || weight !== undefined)) inputs.bsaFormula = values.bsaFormula;
+  if (values.bsaFormula && (kind === 'pdt' || height !== undefined || weight !== undefined))
+    inputs.bsaFormula = values.bsaFormula;
   if (kind === 'pdt') {
     const gld = read('lesionGldUm');
     const magnification = read('lensMagnification');
@@ -198,23 +237,32 @@ export function formToInputs(raw: OrderFormValues, kind: ProtocolVersion['kind']
 const blankToNull = (value: string) => (value.trim() === '' ? null : value.trim());
 
 /** The draft the API takes, built from the form (not yet checked). */
-export function formToDraft(raw: OrderFormValues, context: OrderFormContext): OrderDraft | AmendOrder {
+export function formToDraft(
+  raw: OrderFormValues,
+  context: OrderFormContext,
+): OrderDraft | AmendOrder {
   const values = settleFormValues(raw);
   const protocol = parseProtocolRef(values.protocolRef);
   const { inputs } = formToInputs(values, context.definition?.kind ?? null);
-  const questionIds = context.definition ? context.definition.contraindications.map((c) => c.id) : Object.keys(values.checklist);
+  const questionIds = context.definition
+    ? context.definition.contraindications.map((c) => c.id)
+    : Object.keys(values.checklist);
   const checklist = questionIds.flatMap((id) => {
     const entry = values.checklist[id];
     // An unanswered radio pair reads as null or ''; either way the question stays open.
     if (!entry || (entry.answer !== 'yes' && entry.answer !== 'no')) return [];
     const severity = context.definition?.contraindications.find((c) => c.id === id)?.severity;
-    const overrideReason = entry.answer === 'yes' && severity !== 'absolute' ? blankToNull(entry.overrideReason) : null;
+    const overrideReason =
+      entry.answer === 'yes' && severity !== 'absolute' ? blankToNull(entry.overrideReason) : null;
     return [{ id, answer: entry.answer, ...(overrideReason ? { overrideReason } : {}) }];
   });
   const softLimitReasons = Object.fromEntries(
     Object.entries(values.softLimitReasons)
       .map(([key, reason]) => [reasonField(key), reason.trim()] as const)
-      .filter(([field, reason]) => reason !== '' && (context.warnedFields === null || context.warnedFields.includes(field))),
+      .filter(
+        ([field, reason]) =>
+          reason !== '' && (context.warnedFields === null || context.warnedFields.includes(field)),
+      ),
   );
   const draft: OrderDraft = {
     patientId: /^\d+$/.test(values.patientId) ? Number(values.patientId) : Number.NaN,
@@ -228,7 +276,9 @@ export function formToDraft(raw: OrderFormValues, context: OrderFormContext): Or
     note: blankToNull(values.note),
     swellingAcknowledged: context.definition?.kind === 'cxl' && values.swellingAcknowledged,
   };
-  return context.mode === 'amend' ? { ...draft, amendmentReason: values.amendmentReason.trim() } : draft;
+  return context.mode === 'amend'
+    ? { ...draft, amendmentReason: values.amendmentReason.trim() }
+    : draft;
 }
 
 /** The form field that shows a problem reported for an API path (from zod, the engine or the server). */
@@ -249,14 +299,22 @@ export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>
     case 'inputs':
       if (second === 'height') return third === 'unit' ? 'heightUnit' : 'heightValue';
       if (second === 'weight') return third === 'unit' ? 'weightUnit' : 'weightValue';
-      if (second === 'bsaFormula' || second === 'lesionGldUm' || second === 'lensMagnification' || second === 'stromalThicknessUm') return second;
+      if (
+        second === 'bsaFormula' ||
+        second === 'lesionGldUm' ||
+        second === 'lensMagnification' ||
+        second === 'stromalThicknessUm'
+      )
+        return second;
       return null;
     case 'checklist': {
       if (second === undefined) return null;
       // zod names a checklist entry by its index; the server names it by the question id.
       const id = /^\d+$/.test(second) && draft ? draft.checklist[Number(second)]?.id : second;
       if (!id) return null;
-      return third === 'overrideReason' ? `checklist.${id}.overrideReason` : `checklist.${id}.answer`;
+      return third === 'overrideReason'
+        ? `checklist.${id}.overrideReason`
+        : `checklist.${id}.answer`;
     }
     case 'softLimitReasons':
       return parts.length > 1 ? `softLimitReasons.${reasonKey(parts.slice(1).join('.'))}` : null;
@@ -298,23 +356,44 @@ function setNested(errors: Record<string, unknown>, name: string, error: FieldEr
 type Problem = { field: string; message: string };
 
 /** Checks the form before it is sent: the shared draft schema plus what the form itself asks for. */
-export function checkOrderForm(raw: OrderFormValues, context: OrderFormContext): { draft: OrderDraft | AmendOrder; problems: Problem[]; unplaced: string[] } {
+export function checkOrderForm(
+  raw: OrderFormValues,
+  context: OrderFormContext,
+): { draft: OrderDraft | AmendOrder; problems: Problem[]; unplaced: string[] } {
   const values = settleFormValues(raw);
   const draft = formToDraft(values, context);
   const problems: Problem[] = [];
   const unplaced: string[] = [];
 
-  if (!/^\d+$/.test(values.patientId)) problems.push({ field: 'patientId', message: 'Choose the patient' });
-  if (values.eye === '') problems.push({ field: 'eye', message: 'Choose the treatment eye: right or left' });
-  if (!parseProtocolRef(values.protocolRef)) problems.push({ field: 'protocolRef', message: 'Choose a protocol version' });
-  else if (!context.definition) problems.push({ field: 'protocolRef', message: 'The protocol version is still loading; try again in a moment' });
+  if (!/^\d+$/.test(values.patientId))
+    problems.push({ field: 'patientId', message: 'Choose the patient' });
+  if (values.eye === '')
+    problems.push({ field: 'eye', message: 'Choose the treatment eye: right or left' });
+  if (!parseProtocolRef(values.protocolRef))
+    problems.push({ field: 'protocolRef', message: 'Choose a protocol version' });
+  else if (!context.definition)
+    problems.push({
+      field: 'protocolRef',
+      message: 'The protocol version is still loading; try again in a moment',
+    });
   const { invalid } = formToInputs(values, context.definition?.kind ?? null);
-  for (const field of invalid) problems.push({ field, message: `${numberFields[field]} must be a number, e.g. ${field === 'lensMagnification' ? '1.05' : '180'}` });
+  for (const field of invalid)
+    problems.push({
+      field,
+      message: `${numberFields[field]} must be a number, e.g. ${field === 'lensMagnification' ? '1.05' : '180'}`,
+    });
   for (const question of context.definition?.contraindications ?? []) {
     const entry = values.checklist[question.id];
     // An absolute contraindication takes no reason (nothing unlocks it); a caution needs one.
-    if (question.severity === 'caution' && entry?.answer === 'yes' && entry.overrideReason.trim() === '') {
-      problems.push({ field: `checklist.${question.id}.overrideReason`, message: 'A yes to a caution needs the reason to go on with treatment' });
+    if (
+      question.severity === 'caution' &&
+      entry?.answer === 'yes' &&
+      entry.overrideReason.trim() === ''
+    ) {
+      problems.push({
+        field: `checklist.${question.id}.overrideReason`,
+        message: 'A yes to a caution needs the reason to go on with treatment',
+      });
     }
   }
 
@@ -325,7 +404,8 @@ export function checkOrderForm(raw: OrderFormValues, context: OrderFormContext):
       const path = issue.path.map(String).join('.');
       const field = formFieldFor(path, draft);
       if (field === null) unplaced.push(issue.message);
-      else if (!problems.some((p) => p.field === field)) problems.push({ field, message: issue.message });
+      else if (!problems.some((p) => p.field === field))
+        problems.push({ field, message: issue.message });
     }
   }
   return { draft, problems, unplaced };
@@ -337,7 +417,9 @@ export const orderFormResolver: Resolver<OrderFormValues, OrderFormContext> = (v
   const { problems, unplaced } = checkOrderForm(values, context);
   if (problems.length === 0 && unplaced.length === 0) return { values, errors: {} };
   const errors: Record<string, unknown> = {};
-  for (const problem of problems) setNested(errors, problem.field, { type: 'validate', message: problem.message });
-  if (unplaced.length > 0) setNested(errors, 'root.form', { type: 'validate', message: unplaced.join('; ') });
+  for (const problem of problems)
+    setNested(errors, problem.field, { type: 'validate', message: problem.message });
+  if (unplaced.length > 0)
+    setNested(errors, 'root.form', { type: 'validate', message: unplaced.join('; ') });
   return { values: {}, errors: errors as FieldErrors<OrderFormValues> };
 };

@@ -57,17 +57,36 @@ type OrderFormProps = {
 const read = (message: string | undefined) => readableMessage(message, messageLabels);
 const sentence = (message: string) => message.charAt(0).toUpperCase() + message.slice(1);
 
-function rangeHint(limit: InputLimit | null | undefined, unit: string, other?: { unit: string; per: number }): string | undefined {
+function rangeHint(
+  limit: InputLimit | null | undefined,
+  unit: string,
+  other?: { unit: string; per: number },
+): string | undefined {
   if (!limit) return undefined;
   const { hard, soft } = limit;
   const unitText = unit ? ` ${unit}` : '';
-  const inOther = other ? ` (${formatFigure(Number((hard.min / other.per).toFixed(1)))}–${formatFigure(Number((hard.max / other.per).toFixed(1)))} ${other.unit})` : '';
+  const inOther = other
+    ? ` (${formatFigure(Number((hard.min / other.per).toFixed(1)))}–${formatFigure(Number((hard.max / other.per).toFixed(1)))} ${other.unit})`
+    : '';
   return `Allowed ${formatFigure(hard.min)}–${formatFigure(hard.max)}${unitText}${inOther}; usual ${formatFigure(soft.min)}–${formatFigure(soft.max)}${unitText}`;
 }
 
-function Section({ id, title, lead, children }: { id: string; title: string; lead?: string; children: React.ReactNode }) {
+function Section({
+  id,
+  title,
+  lead,
+  children,
+}: {
+  id: string;
+  title: string;
+  lead?: string;
+  children: React.ReactNode;
+}) {
   return (
-    <section aria-labelledby={`${id}-heading`} className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5">
+    <section
+      aria-labelledby={`${id}-heading`}
+      className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5"
+    >
       <div>
         <h2 id={`${id}-heading`} className="text-xl font-semibold text-paper-950">
           {title}
@@ -79,7 +98,14 @@ function Section({ id, title, lead, children }: { id: string; title: string; lea
   );
 }
 
-export function OrderForm({ mode, initialValues, source, protocolChoices, cancelHref, onSaved }: OrderFormProps) {
+export function OrderForm({
+  mode,
+  initialValues,
+  source,
+  protocolChoices,
+  cancelHref,
+  onSaved,
+}: OrderFormProps) {
   const save = useSaveOrder();
   const contextRef = useRef<OrderFormContext>({ mode, definition: null, warnedFields: null });
   const {
@@ -109,10 +135,17 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
   const draftKeeper = useFormDraft(
     `order.${mode}.${source?.id ?? 'new'}`,
     { watch, reset, getValues },
-    { settle: settleFormValues, basis: readVersion, onRestore: (basis) => typeof basis === 'number' && basis > 0 && setReadVersion(basis) },
+    {
+      settle: settleFormValues,
+      basis: readVersion,
+      onRestore: (basis) => typeof basis === 'number' && basis > 0 && setReadVersion(basis),
+    },
   );
   const chosenRef = parseProtocolRef(values.protocolRef);
-  const definitionQuery = useQuery({ ...orderQueries.protocolDefinition(chosenRef?.key ?? '', chosenRef?.version ?? 0), enabled: chosenRef !== null });
+  const definitionQuery = useQuery({
+    ...orderQueries.protocolDefinition(chosenRef?.key ?? '', chosenRef?.version ?? 0),
+    enabled: chosenRef !== null,
+  });
   const definition = chosenRef ? (definitionQuery.data?.definition ?? null) : null;
   const kind = definition?.kind ?? null;
 
@@ -121,7 +154,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
   useEffect(() => {
     if (!definition) return;
     const current = getValues('bsaFormula');
-    if (current === '' || current === lastDefault.current) setValue('bsaFormula', definition.bsaFormulaDefault);
+    if (current === '' || current === lastDefault.current)
+      setValue('bsaFormula', definition.bsaFormulaDefault);
     lastDefault.current = definition.bsaFormulaDefault;
   }, [definition, getValues, setValue]);
 
@@ -132,20 +166,39 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
 
   const { inputs } = formToInputs(values, kind);
   const preview = usePlanPreview(definition, inputs);
-  const last = useLastMeasurements(/^\d+$/.test(values.patientId) ? Number(values.patientId) : null, inputs.weight, [source?.id, source?.previousRevisionId]);
+  const last = useLastMeasurements(
+    /^\d+$/.test(values.patientId) ? Number(values.patientId) : null,
+    inputs.weight,
+    [source?.id, source?.previousRevisionId],
+  );
 
-  const retreatmentWarning = source?.status === 'draft' ? source.warnings.find((w) => w.code === 'retreatment-interval') : undefined;
+  const retreatmentWarning =
+    source?.status === 'draft'
+      ? source.warnings.find((w) => w.code === 'retreatment-interval')
+      : undefined;
   const softLimitWarnings = useMemo(() => {
-    const from = preview.state === 'ready' ? preview.plan.warnings : preview.state === 'refused' ? [] : (source?.warnings ?? []);
-    return from.filter((w): w is typeof w & { field: string } => w.code === 'soft-limit' && typeof w.field === 'string');
+    const from =
+      preview.state === 'ready'
+        ? preview.plan.warnings
+        : preview.state === 'refused'
+          ? []
+          : (source?.warnings ?? []);
+    return from.filter(
+      (w): w is typeof w & { field: string } =>
+        w.code === 'soft-limit' && typeof w.field === 'string',
+    );
   }, [preview, source]);
 
   contextRef.current.definition = definition;
-  contextRef.current.warnedFields = preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null;
+  contextRef.current.warnedFields =
+    preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null;
 
   // Problems the engine finds with what is typed: beside the field when something is typed there,
   // otherwise in the preview's list of what is still needed.
-  const typedIn = (field: string | null) => field !== null && field in values && String(values[field as keyof OrderFormValues] ?? '').trim() !== '';
+  const typedIn = (field: string | null) =>
+    field !== null &&
+    field in values &&
+    String(values[field as keyof OrderFormValues] ?? '').trim() !== '';
   const engineProblems = preview.state === 'refused' ? preview.problems : [];
   const besideField = new Map<string, string>();
   const missing = engineProblems.filter((p) => {
@@ -156,7 +209,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
     }
     return true;
   });
-  const fieldError = (name: keyof OrderFormValues) => read(errors[name]?.message as string | undefined) ?? besideField.get(name);
+  const fieldError = (name: keyof OrderFormValues) =>
+    read(errors[name]?.message as string | undefined) ?? besideField.get(name);
 
   const thinStroma = preview.state === 'ready' && preview.plan.thicknessOk === false;
 
@@ -174,7 +228,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
       weightChangeReason: draft.weightChangeReason ?? null,
       swellingAcknowledged: draft.swellingAcknowledged ?? false,
     }).map((p) => p.message);
-    if (retreatmentWarning && !draft.retreatmentReason) problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
+    if (retreatmentWarning && !draft.retreatmentReason)
+      problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
     return problems;
   }, [definition, preview, values, retreatmentWarning, last.weightChange]);
 
@@ -197,7 +252,11 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
         for (const problem of error.fields) {
           const field = formFieldFor(problem.path, draft);
           if (!field) continue;
-          setError(field as keyof OrderFormValues, { type: 'server', message: sentence(problem.message) }, { shouldFocus: !focused });
+          setError(
+            field as keyof OrderFormValues,
+            { type: 'server', message: sentence(problem.message) },
+            { shouldFocus: !focused },
+          );
           focused = true;
         }
       },
@@ -205,20 +264,35 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
   });
 
   const saveError = save.error;
-  const unplacedServer = isApiRequestError(saveError) ? saveError.fields.filter((p) => formFieldFor(p.path) === null).map((p) => sentence(p.message)) : [];
-  const formLevelError = (errors.root as Record<string, { message?: string }> | undefined)?.form?.message;
-  const approved = protocolChoices.flatMap((p) => p.versions.filter((v) => v.status === 'approved'));
-  const currentNotApproved = chosenRef && !approved.some((v) => v.key === chosenRef.key && v.version === chosenRef.version);
+  const unplacedServer = isApiRequestError(saveError)
+    ? saveError.fields.filter((p) => formFieldFor(p.path) === null).map((p) => sentence(p.message))
+    : [];
+  const formLevelError = (errors.root as Record<string, { message?: string }> | undefined)?.form
+    ?.message;
+  const approved = protocolChoices.flatMap((p) =>
+    p.versions.filter((v) => v.status === 'approved'),
+  );
+  const currentNotApproved =
+    chosenRef && !approved.some((v) => v.key === chosenRef.key && v.version === chosenRef.version);
   const limits = definition?.inputLimits;
 
   const saveLabel = mode === 'amend' ? 'Save the amendment as a draft' : 'Save draft';
 
   return (
     <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
-      <form onSubmit={onSubmit} noValidate className="min-w-0 space-y-6" aria-label={mode === 'amend' ? 'Amendment' : 'Order'}>
+      <form
+        onSubmit={onSubmit}
+        noValidate
+        className="min-w-0 space-y-6"
+        aria-label={mode === 'amend' ? 'Amendment' : 'Order'}
+      >
         <KeptDraftOffer draft={draftKeeper} what={mode === 'amend' ? 'amendment' : 'order'} />
         {mode === 'amend' && (
-          <Section id="amendment" title="Why this amendment" lead="The signed revision stays on record; this reason goes with the new revision.">
+          <Section
+            id="amendment"
+            title="Why this amendment"
+            lead="The signed revision stays on record; this reason goes with the new revision."
+          >
             <TextAreaField
               label="Reason for the amendment (required)"
               hint="5 to 500 characters"
@@ -233,12 +307,24 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
           <Controller
             control={control}
             name="patientId"
-            render={({ field }) => <PatientPicker ref={field.ref} value={field.value} onChange={field.onChange} locked={mode === 'amend'} error={fieldError('patientId')} />}
+            render={({ field }) => (
+              <PatientPicker
+                ref={field.ref}
+                value={field.value}
+                onChange={field.onChange}
+                locked={mode === 'amend'}
+                error={fieldError('patientId')}
+              />
+            )}
           />
-          <fieldset aria-describedby={fieldError('eye') ? 'eye-reminder eye-error' : 'eye-reminder'} className="space-y-2">
+          <fieldset
+            aria-describedby={fieldError('eye') ? 'eye-reminder eye-error' : 'eye-reminder'}
+            className="space-y-2"
+          >
             <legend className="font-medium text-paper-900">Treatment eye (required)</legend>
             <p id="eye-reminder" className="text-sm text-paper-700">
-              Confirm the eye with the patient and against the notes and the consent form before choosing.
+              Confirm the eye with the patient and against the notes and the consent form before
+              choosing.
             </p>
             <div className="flex flex-wrap gap-3">
               {(['right', 'left'] as const).map((eye) => (
@@ -246,7 +332,13 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
                   key={eye}
                   className="flex min-h-tap min-w-40 cursor-pointer items-center gap-3 rounded-lg border border-paper-400 bg-white px-4 py-2 text-lg font-semibold has-[:checked]:border-2 has-[:checked]:border-iris-700 has-[:checked]:bg-iris-50"
                 >
-                  <input type="radio" value={eye} className="size-5 accent-iris-700" aria-invalid={errors.eye ? true : undefined} {...register('eye')} />
+                  <input
+                    type="radio"
+                    value={eye}
+                    className="size-5 accent-iris-700"
+                    aria-invalid={errors.eye ? true : undefined}
+                    {...register('eye')}
+                  />
                   {eye === 'right' ? 'Right eye' : 'Left eye'}
                 </label>
               ))}
@@ -259,7 +351,10 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
           <SelectField
             label="Protocol version"
             hint="Approved versions only; the order keeps the exact version chosen."
-            error={fieldError('protocolRef') ?? (definitionQuery.isError ? describeError(definitionQuery.error) : undefined)}
+            error={
+              fieldError('protocolRef') ??
+              (definitionQuery.isError ? describeError(definitionQuery.error) : undefined)
+            }
             {...register('protocolRef')}
           >
             <option value="">Choose a protocol version…</option>
@@ -267,7 +362,10 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
               const versions = protocol.versions.filter((v) => v.status === 'approved');
               if (versions.length === 0) return null;
               return (
-                <optgroup key={protocol.key} label={protocol.kind === 'pdt' ? 'Photodynamic therapy' : 'Corneal cross-linking'}>
+                <optgroup
+                  key={protocol.key}
+                  label={protocol.kind === 'pdt' ? 'Photodynamic therapy' : 'Corneal cross-linking'}
+                >
                   {versions.map((v) => (
                     <option key={`${v.key}-${v.version}`} value={protocolRefOf(v.key, v.version)}>
                       {v.title} — version {v.version}
@@ -278,7 +376,8 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
             })}
             {currentNotApproved && (
               <option value={values.protocolRef}>
-                {source?.protocol.title ?? chosenRef.key} — version {chosenRef.version} (no longer approved)
+                {source?.protocol.title ?? chosenRef.key} — version {chosenRef.version} (no longer
+                approved)
               </option>
             )}
           </SelectField>
@@ -288,7 +387,11 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
         <Section
           id="measurements"
           title="Measurements"
-          lead={kind === 'cxl' ? 'Height and weight are optional for cross-linking; when given, the plan shows the BSA.' : 'Measured today where possible. Values outside the usual range need a reason.'}
+          lead={
+            kind === 'cxl'
+              ? 'Height and weight are optional for cross-linking; when given, the plan shows the BSA.'
+              : 'Measured today where possible. Values outside the usual range need a reason.'
+          }
         >
           <div className="grid gap-5 sm:grid-cols-2">
             <MeasureField
@@ -307,7 +410,11 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
             />
             <SelectField
               label="BSA formula"
-              hint={definition ? `The protocol’s default is ${bsaFormulas[definition.bsaFormulaDefault].label}.` : 'The protocol’s default is chosen for you.'}
+              hint={
+                definition
+                  ? `The protocol’s default is ${bsaFormulas[definition.bsaFormulaDefault].label}.`
+                  : 'The protocol’s default is chosen for you.'
+              }
               error={fieldError('bsaFormula')}
               {...register('bsaFormula')}
             >
@@ -334,7 +441,9 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
               />
               <MeasureField
                 label="Laser-spot magnification of the contact lens"
-                hint={rangeHint(limits?.lensMagnification, '') ?? 'The factor given for the lens in use'}
+                hint={
+                  rangeHint(limits?.lensMagnification, '') ?? 'The factor given for the lens in use'
+                }
                 error={fieldError('lensMagnification')}
                 value={register('lensMagnification')}
                 fixedUnit="×"
@@ -351,9 +460,13 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
                 fixedUnit="µm"
               />
               {thinStroma && definition?.cxl && !definition.cxl.swellingAllowed && (
-                <p role="alert" className="rounded-lg border-2 border-alarm-700 bg-alarm-50 px-3 py-2 font-semibold text-alarm-800 sm:col-span-2">
-                  Do not treat with this protocol: the stroma is below its minimum of {formatFigure(definition.cxl.minStromalThicknessUm)} µm and it has no
-                  swelling step. This order cannot be signed.
+                <p
+                  role="alert"
+                  className="rounded-lg border-2 border-alarm-700 bg-alarm-50 px-3 py-2 font-semibold text-alarm-800 sm:col-span-2"
+                >
+                  Do not treat with this protocol: the stroma is below its minimum of{' '}
+                  {formatFigure(definition.cxl.minStromalThicknessUm)} µm and it has no swelling
+                  step. This order cannot be signed.
                 </p>
               )}
               {definition?.cxl?.swellingAllowed && (thinStroma || values.swellingAcknowledged) && (
@@ -363,42 +476,87 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
                     description={`The swelling step (${definition.cxl.swellingRiboflavin ?? 'hypo-osmolar riboflavin'}) must bring it to ${formatFigure(definition.cxl.minStromalThicknessUm)} µm, re-measured, before UV starts. Required before signing.`}
                     {...register('swellingAcknowledged')}
                   />
-                  {fieldError('swellingAcknowledged') && <p className="mt-1 text-sm text-alarm-800">{fieldError('swellingAcknowledged')}</p>}
+                  {fieldError('swellingAcknowledged') && (
+                    <p className="mt-1 text-sm text-alarm-800">
+                      {fieldError('swellingAcknowledged')}
+                    </p>
+                  )}
                 </div>
               )}
             </div>
           )}
-          {!kind && <p className="text-sm text-paper-700">Choose a protocol version to see the measurements it needs.</p>}
+          {!kind && (
+            <p className="text-sm text-paper-700">
+              Choose a protocol version to see the measurements it needs.
+            </p>
+          )}
         </Section>
 
         {definition && (
-          <Section id="checklist" title="Contraindication checklist" lead="Ask the patient and check the notes. Answer every question yes or no.">
-            <ContraindicationChecklist questions={definition.contraindications} register={register} control={control} errors={errors} readMessage={read} />
+          <Section
+            id="checklist"
+            title="Contraindication checklist"
+            lead="Ask the patient and check the notes. Answer every question yes or no."
+          >
+            <ContraindicationChecklist
+              questions={definition.contraindications}
+              register={register}
+              control={control}
+              errors={errors}
+              readMessage={read}
+            />
           </Section>
         )}
 
-        {(softLimitWarnings.length > 0 || retreatmentWarning || values.retreatmentReason.trim() !== '' || last.weightChange || values.weightChangeReason.trim() !== '') && (
-          <Section id="reasons" title="Reasons to go on" lead="Each warning below needs a reason before the order can be signed.">
+        {(softLimitWarnings.length > 0 ||
+          retreatmentWarning ||
+          values.retreatmentReason.trim() !== '' ||
+          last.weightChange ||
+          values.weightChangeReason.trim() !== '') && (
+          <Section
+            id="reasons"
+            title="Reasons to go on"
+            lead="Each warning below needs a reason before the order can be signed."
+          >
             {softLimitWarnings.map((warning) => (
-              <div key={warning.field} className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
+              <div
+                key={warning.field}
+                className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3"
+              >
                 <p className="text-sm text-paper-900">{sentence(warning.message)}</p>
                 <TextAreaField
                   label={`Reason for the ${fieldWords[warning.field] ?? warning.field} outside the usual range`}
                   hint="5 to 500 characters, e.g. how it was re-measured"
-                  error={read((errors.softLimitReasons?.[reasonKey(warning.field)] as { message?: string } | undefined)?.message)}
+                  error={read(
+                    (
+                      errors.softLimitReasons?.[reasonKey(warning.field)] as
+                        { message?: string } | undefined
+                    )?.message,
+                  )}
                   {...register(`softLimitReasons.${reasonKey(warning.field)}`)}
                 />
               </div>
             ))}
             {(retreatmentWarning || values.retreatmentReason.trim() !== '') && (
               <div className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
-                {retreatmentWarning && <p className="text-sm text-paper-900">{retreatmentWarning.message}</p>}
-                <TextAreaField label="Reason to treat again within the minimum interval" hint="5 to 500 characters" error={fieldError('retreatmentReason')} {...register('retreatmentReason')} />
+                {retreatmentWarning && (
+                  <p className="text-sm text-paper-900">{retreatmentWarning.message}</p>
+                )}
+                <TextAreaField
+                  label="Reason to treat again within the minimum interval"
+                  hint="5 to 500 characters"
+                  error={fieldError('retreatmentReason')}
+                  {...register('retreatmentReason')}
+                />
               </div>
             )}
             {(last.weightChange || values.weightChangeReason.trim() !== '') && (
               <div className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
-                {last.weightChange && <p className="text-sm text-paper-900">{sentence(weightChangeMessage(last.weightChange))}.</p>}
+                {last.weightChange && (
+                  <p className="text-sm text-paper-900">
+                    {sentence(weightChangeMessage(last.weightChange))}.
+                  </p>
+                )}
                 <TextAreaField
                   label="Reason for the change in weight since the last one recorded"
                   hint="5 to 500 characters, e.g. how and when the patient was weighed"
@@ -411,7 +569,13 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
         )}
 
         <Section id="note" title="Note">
-          <TextAreaField label="Note for the team (optional)" hint="Up to 2000 characters" rows={3} error={fieldError('note')} {...register('note')} />
+          <TextAreaField
+            label="Note for the team (optional)"
+            hint="Up to 2000 characters"
+            rows={3}
+            error={fieldError('note')}
+            {...register('note')}
+          />
         </Section>
 
         {formLevelError && (
@@ -423,14 +587,25 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
           <Alert tone="error" title="The draft was not saved: check the fields marked above" />
         )}
         {saveError && (
-          <Alert tone="error" title={isApiRequestError(saveError) && saveError.status === 400 && saveError.fields.length > 0 ? 'The draft was not saved: check the fields marked above' : 'The draft was not saved'}>
+          <Alert
+            tone="error"
+            title={
+              isApiRequestError(saveError) &&
+              saveError.status === 400 &&
+              saveError.fields.length > 0
+                ? 'The draft was not saved: check the fields marked above'
+                : 'The draft was not saved'
+            }
+          >
             {unplacedServer.length > 0 ? (
               <ul className="list-disc pl-5">
                 {unplacedServer.map((m) => (
                   <li key={m}>{m}</li>
                 ))}
               </ul>
-            ) : isApiRequestError(saveError) && saveError.status === 400 && saveError.fields.length > 0 ? null : (
+            ) : isApiRequestError(saveError) &&
+              saveError.status === 400 &&
+              saveError.fields.length > 0 ? null : (
               describeError(saveError)
             )}
           </Alert>
@@ -446,7 +621,13 @@ export function OrderForm({ mode, initialValues, source, protocolChoices, cancel
       </form>
 
       <div className="space-y-6">
-        <PlanPreviewPanel preview={preview} inputs={inputs} protocolChosen={chosenRef !== null} missing={missing} signatureProblems={readiness} />
+        <PlanPreviewPanel
+          preview={preview}
+          inputs={inputs}
+          protocolChosen={chosenRef !== null}
+          missing={missing}
+          signatureProblems={readiness}
+        />
         <TreatmentCautions kind={kind} protocolCautions={definition?.cautions} />
       </div>
     </div>

@@ -1,7 +1,10 @@
 import type { Eye } from '../../../../shared/schemas/patients';
 
 export const eyeWords: Record<Eye, string> = { right: 'Right eye', left: 'Left eye' };
-export const kindWords = { pdt: 'Photodynamic therapy (PDT)', cxl: 'Corneal cross-linking (CXL)' } as const;
+export const kindWords = {
+  pdt: 'Photodynamic therapy (PDT)',
+  cxl: 'Corneal cross-linking (CXL)',
+} as const;
 
 /** Field names of the order API as a person reads them. */
 export const fieldWords: Record<string, string> = {

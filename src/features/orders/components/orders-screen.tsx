@@ -39,7 +39,12 @@ export function OrdersScreen({ canWrite }: { canWrite: boolean }) {
           icon={<AlertIcon className="size-6" />}
           title="The orders could not be loaded"
           actions={
-            <Button variant="secondary" icon={<ReloadIcon />} busy={list.isFetching} onClick={() => void list.refetch()}>
+            <Button
+              variant="secondary"
+              icon={<ReloadIcon />}
+              busy={list.isFetching}
+              onClick={() => void list.refetch()}
+            >
               Try again
             </Button>
           }
@@ -47,8 +52,17 @@ export function OrdersScreen({ canWrite }: { canWrite: boolean }) {
           <p>{describeError(list.error)}</p>
         </StatusPanel>
       ) : list.data.total === 0 ? (
-        <StatusPanel icon={<OrderClipboardIcon className="size-6" />} title={filtered ? 'No order matches these filters' : 'No orders yet'}>
-          <p>{filtered ? 'Widen the dates or clear the filters.' : canWrite ? 'Start one with “New order”, or from a patient’s page.' : 'Orders appear here once a clinician writes them.'}</p>
+        <StatusPanel
+          icon={<OrderClipboardIcon className="size-6" />}
+          title={filtered ? 'No order matches these filters' : 'No orders yet'}
+        >
+          <p>
+            {filtered
+              ? 'Widen the dates or clear the filters.'
+              : canWrite
+                ? 'Start one with “New order”, or from a patient’s page.'
+                : 'Orders appear here once a clinician writes them.'}
+          </p>
         </StatusPanel>
       ) : (
         <>
@@ -57,7 +71,13 @@ export function OrdersScreen({ canWrite }: { canWrite: boolean }) {
               {describeError(list.error)}
             </Alert>
           )}
-          <OrdersTable orders={list.data.orders} total={list.data.total} query={query} onChange={update} busy={list.isPlaceholderData} />
+          <OrdersTable
+            orders={list.data.orders}
+            total={list.data.total}
+            query={query}
+            onChange={update}
+            busy={list.isPlaceholderData}
+          />
         </>
       )}
     </>

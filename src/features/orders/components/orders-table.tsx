@@ -18,7 +18,10 @@ const columns = helper.columns([
     cell: ({ row }) => {
       const o = row.original;
       return (
-        <Link to={paths.order.getHref(o.id)} className="font-semibold whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900">
+        <Link
+          to={paths.order.getHref(o.id)}
+          className="font-semibold whitespace-nowrap text-iris-700 underline underline-offset-4 hover:text-iris-900"
+        >
           Order {o.id}
           {o.revision > 1 && <span className="font-normal"> (rev. {o.revision})</span>}
         </Link>
@@ -37,7 +40,11 @@ const columns = helper.columns([
       </>
     ),
   }),
-  helper.accessor('eye', { header: 'Eye', enableSorting: false, cell: ({ getValue }) => <span className="whitespace-nowrap">{eyeWords[getValue()]}</span> }),
+  helper.accessor('eye', {
+    header: 'Eye',
+    enableSorting: false,
+    cell: ({ getValue }) => <span className="whitespace-nowrap">{eyeWords[getValue()]}</span>,
+  }),
   helper.accessor((o) => o.protocol.title, {
     id: 'protocol',
     header: 'Protocol',
@@ -48,14 +55,21 @@ const columns = helper.columns([
       </>
     ),
   }),
-  helper.accessor('status', { header: 'Status', cell: ({ getValue }) => <OrderStatusBadge status={getValue()} /> }),
+  helper.accessor('status', {
+    header: 'Status',
+    cell: ({ getValue }) => <OrderStatusBadge status={getValue()} />,
+  }),
   helper.accessor('createdAt', {
     header: 'Created',
     sortDescFirst: true,
     cell: ({ row }) => (
       <>
-        <span className="block whitespace-nowrap">{formatUnitDateTime(row.original.createdAt)}</span>
-        {row.original.createdBy && <span className="text-sm text-paper-600">by {row.original.createdBy.displayName}</span>}
+        <span className="block whitespace-nowrap">
+          {formatUnitDateTime(row.original.createdAt)}
+        </span>
+        {row.original.createdBy && (
+          <span className="text-sm text-paper-600">by {row.original.createdBy.displayName}</span>
+        )}
       </>
     ),
   }),
@@ -81,8 +95,15 @@ export function OrdersTable({ orders, total, query, onChange, busy }: OrdersTabl
       sortKeys={sortKeys}
       onChange={onChange}
       busy={busy}
-      caption={({ first, last }) => `Orders ${first} to ${last} of ${total}. Column headers with a button sort the list.`}
-      pagerWords={{ navLabel: 'Pages of orders', items: 'Orders', none: 'No orders', perPage: 'Orders per page' }}
+      caption={({ first, last }) =>
+        `Orders ${first} to ${last} of ${total}. Column headers with a button sort the list.`
+      }
+      pagerWords={{
+        navLabel: 'Pages of orders',
+        items: 'Orders',
+        none: 'No orders',
+        perPage: 'Orders per page',
+      }}
       perPageClassName="w-40"
     />
   );

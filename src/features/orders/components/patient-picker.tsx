@@ -48,7 +48,10 @@ export function PatientPicker({ value, onChange, locked, error, ref }: PatientPi
   const chosen = useQuery({ ...orderQueries.patient(chosenId ?? 0), enabled: chosenId !== null });
   const [text, setText] = useState('');
   const settled = useSettled(text.trim(), 300);
-  const matches = useQuery({ ...orderQueries.patientChoices(settled), enabled: chosenId === null && settled.length > 0 });
+  const matches = useQuery({
+    ...orderQueries.patientChoices(settled),
+    enabled: chosenId === null && settled.length > 0,
+  });
   const errorId = error ? `${id}-error` : undefined;
   // After a choice, focus goes to the chosen patient's card, not back to the top of the page.
   const focusAfterChoice = useRef(false);
@@ -102,7 +105,11 @@ export function PatientPicker({ value, onChange, locked, error, ref }: PatientPi
             </Button>
           )}
         </div>
-        {locked && <p className="text-sm text-paper-600">An amendment stays with the same patient. For another patient, start a new order.</p>}
+        {locked && (
+          <p className="text-sm text-paper-600">
+            An amendment stays with the same patient. For another patient, start a new order.
+          </p>
+        )}
         <FieldError id={errorId} message={error} />
       </section>
     );
@@ -135,7 +142,8 @@ export function PatientPicker({ value, onChange, locked, error, ref }: PatientPi
           ) : (
             <div className="rounded-lg border border-paper-300 bg-white p-2">
               <p id={`${id}-matches`} className="px-1 text-sm font-medium text-paper-800">
-                {results.length} matching {results.length === 1 ? 'patient' : 'patients'}: choose one
+                {results.length} matching {results.length === 1 ? 'patient' : 'patients'}: choose
+                one
               </p>
               <ul aria-labelledby={`${id}-matches`} className="mt-1 max-h-64 overflow-y-auto">
                 {results.map((patient) => (

@@ -11,7 +11,15 @@ export function formatSeconds(seconds: number): string {
   return formatDuration(seconds, 'seconds-and-words', { maxDecimals: 6 });
 }
 
-type Figure = { key: keyof DosePlan; label: string; unit: string; time?: boolean; main?: boolean; estimate?: boolean; signed?: boolean };
+type Figure = {
+  key: keyof DosePlan;
+  label: string;
+  unit: string;
+  time?: boolean;
+  main?: boolean;
+  estimate?: boolean;
+  signed?: boolean;
+};
 
 /** The plan's figures in the order a person works through them; a null figure does not apply. */
 export const planFigures: readonly Figure[] = [
@@ -26,7 +34,13 @@ export const planFigures: readonly Figure[] = [
   { key: 'diluentVolumeMl', label: 'Diluent volume', unit: 'mL' },
   { key: 'infusionRateMlPerMin', label: 'Infusion rate', unit: 'mL/min' },
   { key: 'infusionEndAfterStartS', label: 'Infusion ends after its start', unit: '', time: true },
-  { key: 'lightStartAfterInfusionStartS', label: 'Light starts after infusion start', unit: '', time: true, main: true },
+  {
+    key: 'lightStartAfterInfusionStartS',
+    label: 'Light starts after infusion start',
+    unit: '',
+    time: true,
+    main: true,
+  },
   { key: 'spotDiameterUm', label: 'Spot on the retina', unit: 'µm' },
   { key: 'deviceSpotDiameterUm', label: 'Spot set on the laser', unit: 'µm', main: true },
   { key: 'spotAreaCm2', label: 'Spot area', unit: 'cm²' },
@@ -37,7 +51,17 @@ export const planFigures: readonly Figure[] = [
   { key: 'uvElapsedS', label: 'UV elapsed time', unit: '', time: true },
   { key: 'fluenceJPerCm2', label: 'Fluence', unit: 'J/cm²', main: true },
   { key: 'energyJ', label: 'Energy', unit: 'J' },
-  { key: 'lightEndAfterInfusionStartS', label: 'Light ends after infusion start', unit: '', time: true },
-  { key: 'endothelialIrradianceMwPerCm2', label: 'Endothelial irradiance', unit: 'mW/cm²', estimate: true },
+  {
+    key: 'lightEndAfterInfusionStartS',
+    label: 'Light ends after infusion start',
+    unit: '',
+    time: true,
+  },
+  {
+    key: 'endothelialIrradianceMwPerCm2',
+    label: 'Endothelial irradiance',
+    unit: 'mW/cm²',
+    estimate: true,
+  },
   { key: 'endothelialDoseJPerCm2', label: 'Endothelial dose', unit: 'J/cm²', estimate: true },
 ];

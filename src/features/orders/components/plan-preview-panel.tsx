@@ -18,23 +18,34 @@ type PlanPreviewPanelProps = {
   signatureProblems: readonly string[] | null;
 };
 
-export function PlanPreviewPanel({ preview, inputs, protocolChosen, missing, signatureProblems }: PlanPreviewPanelProps) {
+export function PlanPreviewPanel({
+  preview,
+  inputs,
+  protocolChosen,
+  missing,
+  signatureProblems,
+}: PlanPreviewPanelProps) {
   return (
-    <section aria-labelledby="plan-preview-heading" className="space-y-4 rounded-2xl border border-iris-200 bg-white p-5">
+    <section
+      aria-labelledby="plan-preview-heading"
+      className="space-y-4 rounded-2xl border border-iris-200 bg-white p-5"
+    >
       <div>
         <h2 id="plan-preview-heading" className="text-xl font-semibold text-paper-950">
           Live preview of the plan
         </h2>
         <p className="mt-1 text-sm text-paper-700">
-          Worked out in this browser as you type. The server computes the plan again on saving and at signing; its figures are the ones
-          kept.
+          Worked out in this browser as you type. The server computes the plan again on saving and
+          at signing; its figures are the ones kept.
         </p>
       </div>
 
       {!protocolChosen || preview.state === 'waiting' ? (
         <p className="flex items-start gap-2 text-paper-700">
           <InfoIcon className="mt-0.5 size-5" />
-          {protocolChosen ? 'Loading the protocol version…' : 'Choose a protocol version and enter the measurements to see the plan.'}
+          {protocolChosen
+            ? 'Loading the protocol version…'
+            : 'Choose a protocol version and enter the measurements to see the plan.'}
         </p>
       ) : preview.state === 'working' ? (
         <p className="flex items-center gap-2 text-paper-700">
@@ -43,7 +54,8 @@ export function PlanPreviewPanel({ preview, inputs, protocolChosen, missing, sig
       ) : preview.state === 'failed' ? (
         <p className="flex items-start gap-2 text-alarm-700">
           <AlertIcon className="mt-0.5 size-5" />
-          The preview could not be worked out in this browser. Saving still works: the server computes the plan and shows it on the order.
+          The preview could not be worked out in this browser. Saving still works: the server
+          computes the plan and shows it on the order.
         </p>
       ) : preview.state === 'refused' ? (
         <div className="space-y-2">
@@ -58,11 +70,19 @@ export function PlanPreviewPanel({ preview, inputs, protocolChosen, missing, sig
               </ul>
             </>
           )}
-          {preview.problems.length > missing.length && <p className="text-sm text-alarm-700">Some values are outside the allowed range: see the messages beside the fields.</p>}
+          {preview.problems.length > missing.length && (
+            <p className="text-sm text-alarm-700">
+              Some values are outside the allowed range: see the messages beside the fields.
+            </p>
+          )}
         </div>
       ) : (
         <div className="space-y-4">
-          <BodyMeasures inputs={inputs} bmiKgPerM2={preview.plan.bmiKgPerM2} className="rounded-lg border border-paper-200 px-3 py-2" />
+          <BodyMeasures
+            inputs={inputs}
+            bmiKgPerM2={preview.plan.bmiKgPerM2}
+            className="rounded-lg border border-paper-200 px-3 py-2"
+          />
           <PlanFigures plan={preview.plan} compact />
           <PlanWarnings warnings={preview.plan.warnings} title="The plan warns" />
           <PlanWorking working={preview.plan.working} compact />

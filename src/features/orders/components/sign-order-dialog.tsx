@@ -27,7 +27,14 @@ type SignOrderDialogProps = {
 const sentence = (message: string) => message.charAt(0).toUpperCase() + message.slice(1);
 
 /** Signing: states what the signature means, asks for the password again, and lists what stops it. */
-export function SignOrderDialog({ order, open, knownProblems, describePath, onDismiss, onSigned }: SignOrderDialogProps) {
+export function SignOrderDialog({
+  order,
+  open,
+  knownProblems,
+  describePath,
+  onDismiss,
+  onSigned,
+}: SignOrderDialogProps) {
   const sign = useSignOrder();
   const [password, setPassword] = useState('');
   const [passwordError, setPasswordError] = useState<string | undefined>();
@@ -65,7 +72,8 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
         onError: (error) => {
           if (isApiRequestError(error)) {
             const problem = error.fields.find((f) => f.path === 'password');
-            if (problem) setPasswordError('The password is not right; type your sign-in password again');
+            if (problem)
+              setPasswordError('The password is not right; type your sign-in password again');
           }
           setPassword('');
         },
@@ -74,8 +82,11 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
   };
 
   const error = sign.error;
-  const otherProblems = isApiRequestError(error) ? error.fields.filter((f) => f.path !== 'password') : [];
-  const passwordOnly = isApiRequestError(error) && error.fields.length > 0 && otherProblems.length === 0;
+  const otherProblems = isApiRequestError(error)
+    ? error.fields.filter((f) => f.path !== 'password')
+    : [];
+  const passwordOnly =
+    isApiRequestError(error) && error.fields.length > 0 && otherProblems.length === 0;
 
   return (
     <Dialog
@@ -85,8 +96,12 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
       title={`Sign order ${order.id}`}
       description={
         <p>
-          Your signature means: <strong className="font-semibold text-paper-950">“I order this treatment as shown.”</strong> It is recorded
-          with your name and the time, and the plan is frozen as the server computes it now.
+          Your signature means:{' '}
+          <strong className="font-semibold text-paper-950">
+            “I order this treatment as shown.”
+          </strong>{' '}
+          It is recorded with your name and the time, and the plan is frozen as the server computes
+          it now.
         </p>
       }
     >
@@ -97,7 +112,9 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
             {order.patient.familyName}, {order.patient.givenName} · {order.patient.recordNumber}
           </dd>
           <dt className="text-paper-600">Date of birth</dt>
-          <dd className="font-medium text-paper-950">{formatCalendarDate(order.patient.dateOfBirth)}</dd>
+          <dd className="font-medium text-paper-950">
+            {formatCalendarDate(order.patient.dateOfBirth)}
+          </dd>
           <dt className="text-paper-600">Eye</dt>
           <dd className="text-lg font-semibold text-paper-950">{eyeWords[order.eye]}</dd>
           <dt className="text-paper-600">Protocol</dt>
@@ -106,24 +123,37 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
           </dd>
         </dl>
 
-        <section aria-labelledby="signed-figures-heading" className="rounded-lg border border-iris-200 bg-iris-50 px-4 py-3">
+        <section
+          aria-labelledby="signed-figures-heading"
+          className="rounded-lg border border-iris-200 bg-iris-50 px-4 py-3"
+        >
           <h3 id="signed-figures-heading" className="mb-1 font-semibold text-paper-950">
             What you sign for
           </h3>
           <div className="grid gap-y-1 sm:grid-cols-[max-content_max-content] sm:gap-x-10">
-            <BodyMeasures inputs={order.inputs} bmiKgPerM2={order.plan?.bmiKgPerM2} className="content-start" />
+            <BodyMeasures
+              inputs={order.inputs}
+              bmiKgPerM2={order.plan?.bmiKgPerM2}
+              className="content-start"
+            />
             {order.plan && (
               <dl className="grid content-start grid-cols-[max-content_1fr] gap-x-4 gap-y-1">
                 {order.plan.doseMg !== null && order.plan.drugVolumeMl !== null ? (
                   <>
                     <dt className="text-paper-600">Verteporfin dose</dt>
-                    <dd className="numerals-steady text-lg font-semibold text-paper-950">{formatFigure(order.plan.doseMg)} mg</dd>
+                    <dd className="numerals-steady text-lg font-semibold text-paper-950">
+                      {formatFigure(order.plan.doseMg)} mg
+                    </dd>
                     <dt className="text-paper-600">Drug volume</dt>
-                    <dd className="numerals-steady text-lg font-semibold text-paper-950">{formatFigure(order.plan.drugVolumeMl)} mL</dd>
+                    <dd className="numerals-steady text-lg font-semibold text-paper-950">
+                      {formatFigure(order.plan.drugVolumeMl)} mL
+                    </dd>
                     {order.plan.diluentVolumeMl !== null && (
                       <>
                         <dt className="text-paper-600">Diluent</dt>
-                        <dd className="numerals-steady text-paper-950">{formatFigure(order.plan.diluentVolumeMl)} mL</dd>
+                        <dd className="numerals-steady text-paper-950">
+                          {formatFigure(order.plan.diluentVolumeMl)} mL
+                        </dd>
                       </>
                     )}
                   </>
@@ -136,17 +166,25 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
                 {order.plan.fluenceJPerCm2 !== null && (
                   <>
                     <dt className="text-paper-600">Fluence</dt>
-                    <dd className="numerals-steady font-semibold text-paper-950">{formatFigure(order.plan.fluenceJPerCm2)} J/cm²</dd>
+                    <dd className="numerals-steady font-semibold text-paper-950">
+                      {formatFigure(order.plan.fluenceJPerCm2)} J/cm²
+                    </dd>
                   </>
                 )}
               </dl>
             )}
           </div>
-          <p className="mt-1 text-sm text-paper-700">As saved in the draft; the server works the plan out again as you sign.</p>
+          <p className="mt-1 text-sm text-paper-700">
+            As saved in the draft; the server works the plan out again as you sign.
+          </p>
         </section>
 
         {knownProblems.length > 0 && otherProblems.length === 0 && (
-          <Alert tone="info" title="The server will refuse the signature until these are settled" live="none">
+          <Alert
+            tone="info"
+            title="The server will refuse the signature until these are settled"
+            live="none"
+          >
             <ul className="list-disc space-y-1 pl-5">
               {knownProblems.map((p) => (
                 <li key={p}>{sentence(p)}</li>
@@ -156,7 +194,14 @@ export function SignOrderDialog({ order, open, knownProblems, describePath, onDi
         )}
 
         {error && !passwordOnly && (
-          <Alert tone="error" title={otherProblems.length > 0 ? 'The order was not signed: these must be settled first' : 'The order was not signed'}>
+          <Alert
+            tone="error"
+            title={
+              otherProblems.length > 0
+                ? 'The order was not signed: these must be settled first'
+                : 'The order was not signed'
+            }
+          >
             {otherProblems.length > 0 ? (
               <>
                 <ul className="list-disc space-y-1 pl-5">

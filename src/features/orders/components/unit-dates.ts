@@ -6,4 +6,3 @@ export function formatCalendarDate(date: string): string {
   const day = DateTime.fromISO(date, { zone: unitTimeZone });
   return day.isValid ? day.setLocale('en-GB').toFormat('d LLL yyyy') : date;
 }
-

@@ -1,5 +1,9 @@
 import { useQuery } from '@tanstack/react-query';
-import { lastRecordedWeight, weightChangeNeedingReason, type WeightChange } from '../../../../shared/orders/weight-change';
+import {
+  lastRecordedWeight,
+  weightChangeNeedingReason,
+  type WeightChange,
+} from '../../../../shared/orders/weight-change';
 import type { PlanInputs } from '../../../../shared/schemas/calculation';
 import { orderQueries } from '../api/order-queries';
 
@@ -8,10 +12,21 @@ import { orderQueries } from '../api/order-queries';
  * reason under the unit's rule: the same function the server applies when the order is signed.
  * `excludeOrderIds` leaves out the revision being amended, as the server does.
  */
-export function useLastMeasurements(patientId: number | null, weight: PlanInputs['weight'], excludeOrderIds: readonly (number | null | undefined)[]) {
-  const query = useQuery({ ...orderQueries.patientMeasurements(patientId ?? 0), enabled: patientId !== null });
-  const measurements = (query.data?.measurements ?? []).filter((m) => !excludeOrderIds.includes(m.orderId));
+export function useLastMeasurements(
+  patientId: number | null,
+  weight: PlanInputs['weight'],
+  excludeOrderIds: readonly (number | null | undefined)[],
+) {
+  const query = useQuery({
+    ...orderQueries.patientMeasurements(patientId ?? 0),
+    enabled: patientId !== null,
+  });
+  const measurements = (query.data?.measurements ?? []).filter(
+    (m) => !excludeOrderIds.includes(m.orderId),
+  );
   const rule = query.data?.weightChangeRule ?? null;
-  const weightChange: WeightChange | null = rule ? weightChangeNeedingReason(lastRecordedWeight(measurements), weight, Date.now(), rule) : null;
+  const weightChange: WeightChange | null = rule
+    ? weightChangeNeedingReason(lastRecordedWeight(measurements), weight, Date.now(), rule)
+    : null;
   return { query, measurements, rule, weightChange };
 }

@@ -7,7 +7,10 @@ const defaults = { sort: 'createdAt', direction: 'desc', page: 1, pageSize: 25 }
 const keys = ['status', 'protocol', 'from', 'to', 'sort', 'direction', 'page', 'pageSize'] as const;
 
 /** Reads one parameter with the API's own rule; a value the API would refuse is left out. */
-function readParam<K extends (typeof keys)[number]>(search: URLSearchParams, key: K): OrderListQuery[K] | undefined {
+function readParam<K extends (typeof keys)[number]>(
+  search: URLSearchParams,
+  key: K,
+): OrderListQuery[K] | undefined {
   const raw = search.get(key);
   if (raw === null || raw === '') return undefined;
   const parsed = orderListQuerySchema.shape[key].safeParse(raw);
@@ -29,10 +32,16 @@ export function useOrderListParams() {
   /** Changes some parameters; any change other than the page itself starts again at page 1. */
   const update = useCallback(
     (changes: Partial<OrderListQuery>) =>
-      changeSearch((latest) => writeListParams(changedListParams(readQuery(latest), changes), keys, defaults)),
+      changeSearch((latest) =>
+        writeListParams(changedListParams(readQuery(latest), changes), keys, defaults),
+      ),
     [changeSearch],
   );
 
-  const filtered = query.status !== undefined || query.protocol !== undefined || query.from !== undefined || query.to !== undefined;
+  const filtered =
+    query.status !== undefined ||
+    query.protocol !== undefined ||
+    query.from !== undefined ||
+    query.to !== undefined;
   return { query, update, filtered };
 }

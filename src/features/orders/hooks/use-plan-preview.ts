@@ -24,7 +24,11 @@ function loadEngine() {
  * The dose plan as the shared engine computes it from what is typed so far. A preview only: the
  * server computes the plan again on every save and at signing, and its figures are the ones kept.
  */
-export function usePlanPreview(definition: ProtocolVersion | null, inputs: PlanInputs, delayMs = 250): PlanPreview {
+export function usePlanPreview(
+  definition: ProtocolVersion | null,
+  inputs: PlanInputs,
+  delayMs = 250,
+): PlanPreview {
   const [preview, setPreview] = useState<PlanPreview>({ state: 'waiting' });
   const inputsKey = JSON.stringify(inputs);
 
@@ -40,9 +44,13 @@ export function usePlanPreview(definition: ProtocolVersion | null, inputs: PlanI
         .then(({ computePlan }) => {
           if (cancelled) return;
           try {
-            setPreview({ state: 'ready', plan: computePlan(definition, JSON.parse(inputsKey) as PlanInputs) });
+            setPreview({
+              state: 'ready',
+              plan: computePlan(definition, JSON.parse(inputsKey) as PlanInputs),
+            });
           } catch (error) {
-            if (error instanceof PlanInputError) setPreview({ state: 'refused', problems: error.fields });
+            if (error instanceof PlanInputError)
+              setPreview({ state: 'refused', problems: error.fields });
             else {
               console.warn('The plan preview could not be computed', error);
               setPreview({ state: 'failed' });

@@ -12,14 +12,20 @@ export type SaveOrderRequest =
 
 function save(request: SaveOrderRequest): Promise<OrderDetail> {
   if (request.mode === 'new') return createOrder(request.draft);
-  if (request.mode === 'edit') return updateOrder({ id: request.id, version: request.version, draft: request.draft });
+  if (request.mode === 'edit')
+    return updateOrder({ id: request.id, version: request.version, draft: request.draft });
   return amendOrder({ id: request.id, version: request.version, amendment: request.amendment });
 }
 
 /** After any change to an order: the saved detail is known, every list may have moved. */
-export function refreshAfterOrderChange(queryClient: QueryClient, order: OrderDetail, alsoChanged: number[] = []) {
+export function refreshAfterOrderChange(
+  queryClient: QueryClient,
+  order: OrderDetail,
+  alsoChanged: number[] = [],
+) {
   queryClient.setQueryData(orderQueries.detail(order.id).queryKey, order);
-  for (const id of alsoChanged) void queryClient.invalidateQueries({ queryKey: orderQueries.detail(id).queryKey });
+  for (const id of alsoChanged)
+    void queryClient.invalidateQueries({ queryKey: orderQueries.detail(id).queryKey });
   return queryClient.invalidateQueries({ queryKey: orderQueries.lists() });
 }
 
@@ -28,6 +34,7 @@ export function useSaveOrder() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: save,
-    onSuccess: (order, request) => refreshAfterOrderChange(queryClient, order, request.mode === 'amend' ? [request.id] : []),
+    onSuccess: (order, request) =>
+      refreshAfterOrderChange(queryClient, order, request.mode === 'amend' ? [request.id] : []),
   });
 }

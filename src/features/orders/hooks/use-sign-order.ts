@@ -7,6 +7,11 @@ export function useSignOrder() {
   return useMutation({
     mutationFn: signOrder,
     // Signing an amendment supersedes the revision before it.
-    onSuccess: (order) => refreshAfterOrderChange(queryClient, order, order.previousRevisionId ? [order.previousRevisionId] : []),
+    onSuccess: (order) =>
+      refreshAfterOrderChange(
+        queryClient,
+        order,
+        order.previousRevisionId ? [order.previousRevisionId] : [],
+      ),
   });
 }

@@ -6,6 +6,7 @@ export function useUploadAttachment() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: uploadAttachment,
-    onSuccess: (_attachment, { orderId }) => queryClient.invalidateQueries({ queryKey: orderQueries.detail(orderId).queryKey }),
+    onSuccess: (_attachment, { orderId }) =>
+      queryClient.invalidateQueries({ queryKey: orderQueries.detail(orderId).queryKey }),
   });
 }

@@ -21,7 +21,9 @@ export type OutboxMessage = z.infer<typeof outboxMessageSchema>;
 
 const outboxResponseSchema = z.object({ messages: z.array(outboxMessageSchema) });
 
-export async function getOutboxMessages({ signal }: { signal?: AbortSignal } = {}): Promise<OutboxMessage[]> {
+export async function getOutboxMessages({ signal }: { signal?: AbortSignal } = {}): Promise<
+  OutboxMessage[]
+> {
   const { messages } = await api.get('/outbox', { schema: outboxResponseSchema, signal });
   return messages;
 }

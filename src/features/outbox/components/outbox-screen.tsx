@@ -39,7 +39,12 @@ export function OutboxScreen() {
         title="Outbox"
         lead="E-mail that Luxtempo sends is kept here until the mail server accepts it, so nothing is lost while the server is down. The newest 200 messages are listed; the list refreshes every 30 seconds."
         actions={
-          <Button variant="secondary" icon={<ReloadIcon />} busy={messagesQuery.isFetching && !messagesQuery.isPending} onClick={() => void messagesQuery.refetch()}>
+          <Button
+            variant="secondary"
+            icon={<ReloadIcon />}
+            busy={messagesQuery.isFetching && !messagesQuery.isPending}
+            onClick={() => void messagesQuery.refetch()}
+          >
             Refresh
           </Button>
         }
@@ -52,7 +57,12 @@ export function OutboxScreen() {
           icon={<AlertIcon className="size-6" />}
           title="The outbox could not be loaded"
           actions={
-            <Button variant="secondary" icon={<ReloadIcon />} busy={messagesQuery.isFetching} onClick={() => void messagesQuery.refetch()}>
+            <Button
+              variant="secondary"
+              icon={<ReloadIcon />}
+              busy={messagesQuery.isFetching}
+              onClick={() => void messagesQuery.refetch()}
+            >
               Try again
             </Button>
           }
@@ -61,20 +71,27 @@ export function OutboxScreen() {
         </StatusPanel>
       ) : !messages || messages.length === 0 ? (
         <StatusPanel icon={<OutboxTrayIcon className="size-6" />} title="No messages yet">
-          <p>Messages appear here when an order is signed or sent back, or discharge advice is e-mailed.</p>
+          <p>
+            Messages appear here when an order is signed or sent back, or discharge advice is
+            e-mailed.
+          </p>
         </StatusPanel>
       ) : (
         <div className="space-y-4">
           {messagesQuery.isError && (
-            <p role="alert" className="flex items-center gap-2 rounded-lg border border-alarm-700 bg-alarm-50 px-4 py-3 text-alarm-800">
+            <p
+              role="alert"
+              className="flex items-center gap-2 rounded-lg border border-alarm-700 bg-alarm-50 px-4 py-3 text-alarm-800"
+            >
               <AlertIcon className="size-5" />
               The list may be out of date: {describeError(messagesQuery.error)}
             </p>
           )}
           {counts && (
             <p className="numerals-steady text-paper-800">
-              {counts.waiting} waiting or retrying · {counts.sent} sent · {counts.refused} refused. Loaded {when(new Date(messagesQuery.dataUpdatedAt).toISOString())}; times
-              are {unitTimeZoneLabel}.
+              {counts.waiting} waiting or retrying · {counts.sent} sent · {counts.refused} refused.
+              Loaded {when(new Date(messagesQuery.dataUpdatedAt).toISOString())}; times are{' '}
+              {unitTimeZoneLabel}.
             </p>
           )}
           <OutboxTable messages={messages} />
@@ -87,7 +104,12 @@ export function OutboxScreen() {
 function OutboxTable({ messages }: { messages: OutboxMessage[] }) {
   return (
     // A wide table scrolls on its own; the region can take focus so keyboard users can scroll it.
-    <div role="region" aria-label="Outbox messages" tabIndex={0} className="overflow-x-auto rounded-xl border border-paper-200 bg-white">
+    <div
+      role="region"
+      aria-label="Outbox messages"
+      tabIndex={0}
+      className="overflow-x-auto rounded-xl border border-paper-200 bg-white"
+    >
       <table className="w-full min-w-[60rem] border-collapse text-left">
         <thead>
           <tr className="border-b-2 border-paper-300 bg-paper-100 text-sm text-paper-700">
@@ -120,7 +142,9 @@ function OutboxTable({ messages }: { messages: OutboxMessage[] }) {
             return (
               <tr key={message.id} className="border-b border-paper-200 align-top last:border-b-0">
                 <td className="max-w-80 px-4 py-3">
-                  <span className="block font-medium text-paper-950 [overflow-wrap:anywhere]">{message.subject}</span>
+                  <span className="block font-medium text-paper-950 [overflow-wrap:anywhere]">
+                    {message.subject}
+                  </span>
                   <span className="block text-sm text-paper-700">
                     {kindWords[message.kind] ?? message.kind} · queued {when(message.createdAt)}
                   </span>
@@ -141,12 +165,18 @@ function OutboxTable({ messages }: { messages: OutboxMessage[] }) {
                 <td className="px-4 py-3">
                   <MessageStatus message={message} />
                 </td>
-                <td className="numerals-steady px-4 py-3 text-right text-paper-900">{message.attempts}</td>
+                <td className="numerals-steady px-4 py-3 text-right text-paper-900">
+                  {message.attempts}
+                </td>
                 <td className="numerals-steady px-4 py-3 text-sm whitespace-nowrap text-paper-800">
                   {look === 'waiting' || look === 'retrying' ? when(message.nextAttemptAt) : '—'}
                 </td>
-                <td className="max-w-64 px-4 py-3 text-sm text-paper-800 [overflow-wrap:anywhere]">{message.lastError ?? '—'}</td>
-                <td className="numerals-steady px-4 py-3 text-sm whitespace-nowrap text-paper-800">{when(message.sentAt)}</td>
+                <td className="max-w-64 px-4 py-3 text-sm text-paper-800 [overflow-wrap:anywhere]">
+                  {message.lastError ?? '—'}
+                </td>
+                <td className="numerals-steady px-4 py-3 text-sm whitespace-nowrap text-paper-800">
+                  {when(message.sentAt)}
+                </td>
               </tr>
             );
           })}

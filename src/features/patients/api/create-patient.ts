@@ -1,5 +1,9 @@
 import { z } from 'zod';
-import { patientSchema, type CreatePatient, type Patient } from '../../../../shared/schemas/patients';
+import {
+  patientSchema,
+  type CreatePatient,
+  type Patient,
+} from '../../../../shared/schemas/patients';
 import { api } from '../../../lib/api-client';
 
 const patientResponseSchema = z.object({ patient: patientSchema });

@@ -3,13 +3,21 @@ import { useForm } from 'react-hook-form';
 import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
 import { overDefaults, useFormDraft } from '../../../lib/form-draft';
 import { z } from 'zod';
-import { createPatientSchema, type CreatePatient, type Patient } from '../../../../shared/schemas/patients';
+import {
+  createPatientSchema,
+  type CreatePatient,
+  type Patient,
+} from '../../../../shared/schemas/patients';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { Checkbox } from '../../../components/ui/checkbox';
 import { TextField } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
-import { applyServerFieldErrors, readableMessage, unplacedFieldProblems } from '../../../lib/form-errors';
+import {
+  applyServerFieldErrors,
+  readableMessage,
+  unplacedFieldProblems,
+} from '../../../lib/form-errors';
 import { useCreatePatient } from '../hooks/use-create-patient';
 
 type PatientFormValues = {
@@ -22,13 +30,10 @@ type PatientFormValues = {
 };
 
 // An empty e-mail box means "no address", which the API takes as null.
-const patientFormSchema = z.preprocess(
-  (values) => {
-    const v = values as PatientFormValues;
-    return { ...v, email: (v.email ?? '').trim() === '' ? null : v.email };
-  },
-  createPatientSchema,
-) as unknown as z.ZodType<CreatePatient, PatientFormValues>;
+const patientFormSchema = z.preprocess((values) => {
+  const v = values as PatientFormValues;
+  return { ...v, email: (v.email ?? '').trim() === '' ? null : v.email };
+}, createPatientSchema) as unknown as z.ZodType<CreatePatient, PatientFormValues>;
 
 const labels = {
   recordNumber: 'Record number',
@@ -38,7 +43,14 @@ const labels = {
   email: 'E-mail',
   emailConsent: 'Agreement to e-mail',
 };
-const fieldNames = ['recordNumber', 'givenName', 'familyName', 'dateOfBirth', 'email', 'emailConsent'] as const;
+const fieldNames = [
+  'recordNumber',
+  'givenName',
+  'familyName',
+  'dateOfBirth',
+  'email',
+  'emailConsent',
+] as const;
 
 type AddPatientFormProps = {
   id: string;
@@ -46,7 +58,14 @@ type AddPatientFormProps = {
   onCancel: () => void;
 };
 
-const patientDefaults: PatientFormValues = { recordNumber: '', givenName: '', familyName: '', dateOfBirth: '', email: '', emailConsent: false };
+const patientDefaults: PatientFormValues = {
+  recordNumber: '',
+  givenName: '',
+  familyName: '',
+  dateOfBirth: '',
+  email: '',
+  emailConsent: false,
+};
 
 export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps) {
   const createPatient = useCreatePatient();
@@ -62,7 +81,11 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
     resolver: zodResolver(patientFormSchema),
     defaultValues: patientDefaults,
   });
-  const draftKeeper = useFormDraft('add-patient', { watch, reset, getValues }, { settle: overDefaults(patientDefaults) });
+  const draftKeeper = useFormDraft(
+    'add-patient',
+    { watch, reset, getValues },
+    { settle: overDefaults(patientDefaults) },
+  );
 
   const onSubmit = handleSubmit((input) => {
     createPatient.mutate(input, {
@@ -72,24 +95,37 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
       },
       onError: (error) => {
         if (!isApiRequestError(error)) return;
-        if (error.code === 'record_number_taken') setError('recordNumber', { type: 'server', message: error.message }, { shouldFocus: true });
+        if (error.code === 'record_number_taken')
+          setError(
+            'recordNumber',
+            { type: 'server', message: error.message },
+            { shouldFocus: true },
+          );
         if (error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
       },
     });
   });
 
   const error = createPatient.error;
-  const fieldLevel = isApiRequestError(error) && (error.code === 'record_number_taken' || (error.status === 400 && error.fields.length > 0));
+  const fieldLevel =
+    isApiRequestError(error) &&
+    (error.code === 'record_number_taken' || (error.status === 400 && error.fields.length > 0));
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
   const today = new Date().toISOString().slice(0, 10);
 
   return (
-    <section id={id} aria-labelledby={`${id}-heading`} className="mb-8 rounded-2xl border border-paper-200 bg-white p-6">
+    <section
+      id={id}
+      aria-labelledby={`${id}-heading`}
+      className="mb-8 rounded-2xl border border-paper-200 bg-white p-6"
+    >
       <h2 id={`${id}-heading`} className="mb-1 text-xl font-semibold text-paper-950">
         Add a patient
       </h2>
       <KeptDraftOffer draft={draftKeeper} what="patient details" />
-      <p className="mb-5 text-paper-700">Copy the record number and names exactly as they stand on the hospital record.</p>
+      <p className="mb-5 text-paper-700">
+        Copy the record number and names exactly as they stand on the hospital record.
+      </p>
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">
         {error &&
           (fieldLevel ? (
@@ -125,8 +161,18 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
             error={readableMessage(errors.dateOfBirth?.message, labels)}
             {...register('dateOfBirth')}
           />
-          <TextField label="Given name" autoComplete="off" error={readableMessage(errors.givenName?.message, labels)} {...register('givenName')} />
-          <TextField label="Family name" autoComplete="off" error={readableMessage(errors.familyName?.message, labels)} {...register('familyName')} />
+          <TextField
+            label="Given name"
+            autoComplete="off"
+            error={readableMessage(errors.givenName?.message, labels)}
+            {...register('givenName')}
+          />
+          <TextField
+            label="Family name"
+            autoComplete="off"
+            error={readableMessage(errors.familyName?.message, labels)}
+            {...register('familyName')}
+          />
           <TextField
             label="E-mail (optional)"
             type="email"

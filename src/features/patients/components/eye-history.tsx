@@ -10,7 +10,9 @@ const kindWords = { pdt: 'Photodynamic therapy', cxl: 'Corneal cross-linking' } 
 
 function daysText(treatment: Treatment): string {
   if (treatment.daysSincePreviousSameKind === null) {
-    return isTreatment(treatment.status) ? 'First of its kind on this eye' : 'Not counted (not a treatment)';
+    return isTreatment(treatment.status)
+      ? 'First of its kind on this eye'
+      : 'Not counted (not a treatment)';
   }
   const days = treatment.daysSincePreviousSameKind;
   return `${days} ${days === 1 ? 'day' : 'days'}`;
@@ -22,7 +24,10 @@ export function EyeHistory({ eye, treatments }: { eye: Eye; treatments: Treatmen
   const title = eye === 'right' ? 'Right eye' : 'Left eye';
   return (
     <section aria-labelledby={headingId} className="rounded-2xl border border-paper-200 bg-white">
-      <h2 id={headingId} className="border-b border-paper-200 px-5 py-3 text-xl font-semibold text-paper-950">
+      <h2
+        id={headingId}
+        className="border-b border-paper-200 px-5 py-3 text-xl font-semibold text-paper-950"
+      >
         {title}
         <span className="ml-2 text-base font-normal text-paper-600">
           {treatments.length} {treatments.length === 1 ? 'order' : 'orders'}
@@ -54,7 +59,10 @@ export function EyeHistory({ eye, treatments }: { eye: Eye; treatments: Treatmen
               {treatments.map((t) => (
                 <tr key={t.orderId} className="border-t border-paper-200 align-top">
                   <td className="px-3 py-3 pl-5 whitespace-nowrap">
-                    <Link to={paths.order.getHref(t.orderId)} className="font-medium text-iris-700 underline underline-offset-4 hover:text-iris-900">
+                    <Link
+                      to={paths.order.getHref(t.orderId)}
+                      className="font-medium text-iris-700 underline underline-offset-4 hover:text-iris-900"
+                    >
                       {formatUnitDateTime(t.date)}
                     </Link>
                     <span className="block text-sm text-paper-600">

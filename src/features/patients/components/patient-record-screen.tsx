@@ -11,7 +11,13 @@ import { patientQueries } from '../api/patient-queries';
 import { EyeHistory } from './eye-history';
 import { ageInYears, formatCalendarDate } from './unit-dates';
 
-export function PatientRecordScreen({ patientId, canOrder }: { patientId: number; canOrder: boolean }) {
+export function PatientRecordScreen({
+  patientId,
+  canOrder,
+}: {
+  patientId: number;
+  canOrder: boolean;
+}) {
   const history = useQuery(patientQueries.history(patientId));
 
   if (history.isPending) {
@@ -26,27 +32,32 @@ export function PatientRecordScreen({ patientId, canOrder }: { patientId: number
     const missing = isApiRequestError(history.error) && history.error.status === 404;
     return (
       <>
-      <title>Patient · Luxtempo</title>
-      <StatusPanel
-        role="alert"
-        headingLevel="h1"
-        icon={<AlertIcon className="size-6" />}
-        title={missing ? 'There is no such patient' : 'The patient could not be loaded'}
-        actions={
-          <>
-            <LinkButton to={paths.patients.getHref()} icon={<ArrowLeftIcon />}>
-              All patients
-            </LinkButton>
-            {!missing && (
-              <Button variant="primary" icon={<ReloadIcon />} busy={history.isFetching} onClick={() => void history.refetch()}>
-                Try again
-              </Button>
-            )}
-          </>
-        }
-      >
-        <p>{describeError(history.error)}</p>
-      </StatusPanel>
+        <title>Patient · Luxtempo</title>
+        <StatusPanel
+          role="alert"
+          headingLevel="h1"
+          icon={<AlertIcon className="size-6" />}
+          title={missing ? 'There is no such patient' : 'The patient could not be loaded'}
+          actions={
+            <>
+              <LinkButton to={paths.patients.getHref()} icon={<ArrowLeftIcon />}>
+                All patients
+              </LinkButton>
+              {!missing && (
+                <Button
+                  variant="primary"
+                  icon={<ReloadIcon />}
+                  busy={history.isFetching}
+                  onClick={() => void history.refetch()}
+                >
+                  Try again
+                </Button>
+              )}
+            </>
+          }
+        >
+          <p>{describeError(history.error)}</p>
+        </StatusPanel>
       </>
     );
   }
@@ -60,7 +71,8 @@ export function PatientRecordScreen({ patientId, canOrder }: { patientId: number
         title={`${patient.familyName}, ${patient.givenName}`}
         lead={
           <>
-            Record number <strong className="font-semibold text-paper-900">{patient.recordNumber}</strong>
+            Record number{' '}
+            <strong className="font-semibold text-paper-900">{patient.recordNumber}</strong>
           </>
         }
         actions={
@@ -69,7 +81,11 @@ export function PatientRecordScreen({ patientId, canOrder }: { patientId: number
               All patients
             </LinkButton>
             {canOrder && (
-              <LinkButton variant="primary" to={paths.newOrder.getHref(patient.id)} icon={<PlusIcon />}>
+              <LinkButton
+                variant="primary"
+                to={paths.newOrder.getHref(patient.id)}
+                icon={<PlusIcon />}
+              >
                 New order for this patient
               </LinkButton>
             )}
@@ -77,7 +93,10 @@ export function PatientRecordScreen({ patientId, canOrder }: { patientId: number
         }
       />
 
-      <section aria-labelledby="patient-details-heading" className="mb-8 rounded-2xl border border-paper-200 bg-white px-5 py-4">
+      <section
+        aria-labelledby="patient-details-heading"
+        className="mb-8 rounded-2xl border border-paper-200 bg-white px-5 py-4"
+      >
         <h2 id="patient-details-heading" className="sr-only">
           Details
         </h2>
@@ -95,7 +114,9 @@ export function PatientRecordScreen({ patientId, canOrder }: { patientId: number
           </div>
           <div>
             <dt className="text-sm text-paper-600">E-mail</dt>
-            <dd className="font-medium text-paper-950 [overflow-wrap:anywhere]">{patient.email ?? 'None recorded'}</dd>
+            <dd className="font-medium text-paper-950 [overflow-wrap:anywhere]">
+              {patient.email ?? 'None recorded'}
+            </dd>
           </div>
           <div>
             <dt className="text-sm text-paper-600">Agreed to e-mail</dt>
@@ -105,8 +126,9 @@ export function PatientRecordScreen({ patientId, canOrder }: { patientId: number
       </section>
 
       <p className="mb-4 text-sm text-paper-700">
-        Times are shown in the unit’s time zone ({unitTimeZone}). The gap since the previous treatment counts signed orders of the
-        same kind on the same eye; drafts, orders sent back and replaced revisions are not treatments.
+        Times are shown in the unit’s time zone ({unitTimeZone}). The gap since the previous
+        treatment counts signed orders of the same kind on the same eye; drafts, orders sent back
+        and replaced revisions are not treatments.
       </p>
       <div className="grid gap-6">
         <EyeHistory eye="right" treatments={eyes.right} />

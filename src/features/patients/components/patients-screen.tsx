@@ -3,7 +3,13 @@ import { useEffect, useId, useRef, useState } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
-import { AlertIcon, MagnifierIcon, PatientCardIcon, PlusIcon, ReloadIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  MagnifierIcon,
+  PatientCardIcon,
+  PlusIcon,
+  ReloadIcon,
+} from '../../../components/ui/icons';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { TextField } from '../../../components/ui/text-field';
@@ -52,7 +58,13 @@ export function PatientsScreen({ canAdd }: { canAdd: boolean }) {
         }
       />
 
-      {adding && <AddPatientForm id={formId} onCancel={() => setAdding(false)} onCreated={(patient) => navigate(paths.patient.getHref(patient.id))} />}
+      {adding && (
+        <AddPatientForm
+          id={formId}
+          onCancel={() => setAdding(false)}
+          onCreated={(patient) => navigate(paths.patient.getHref(patient.id))}
+        />
+      )}
 
       <div role="search" aria-label="Patients" className="mb-6 max-w-xl">
         <form onSubmit={(event) => event.preventDefault()}>
@@ -82,7 +94,12 @@ export function PatientsScreen({ canAdd }: { canAdd: boolean }) {
           icon={<AlertIcon className="size-6" />}
           title="Patients could not be looked up"
           actions={
-            <Button variant="secondary" icon={<ReloadIcon />} busy={results.isFetching} onClick={() => void results.refetch()}>
+            <Button
+              variant="secondary"
+              icon={<ReloadIcon />}
+              busy={results.isFetching}
+              onClick={() => void results.refetch()}
+            >
               Try again
             </Button>
           }
@@ -90,8 +107,19 @@ export function PatientsScreen({ canAdd }: { canAdd: boolean }) {
           <p>{describeError(results.error)}</p>
         </StatusPanel>
       ) : results.data.length === 0 ? (
-        <StatusPanel icon={settled ? <MagnifierIcon className="size-6" /> : <PatientCardIcon className="size-6" />} title={settled ? `No patient matches “${settled}”` : 'No patients yet'}>
-          <p>{settled ? 'Check the spelling, or search by the record number.' : canAdd ? 'Add the first patient with “Add a patient”.' : 'Patients are added by clinicians and administrators.'}</p>
+        <StatusPanel
+          icon={
+            settled ? <MagnifierIcon className="size-6" /> : <PatientCardIcon className="size-6" />
+          }
+          title={settled ? `No patient matches “${settled}”` : 'No patients yet'}
+        >
+          <p>
+            {settled
+              ? 'Check the spelling, or search by the record number.'
+              : canAdd
+                ? 'Add the first patient with “Add a patient”.'
+                : 'Patients are added by clinicians and administrators.'}
+          </p>
         </StatusPanel>
       ) : (
         <>
@@ -101,7 +129,9 @@ export function PatientsScreen({ canAdd }: { canAdd: boolean }) {
             </Alert>
           )}
           <p role="status" className="mb-3 text-sm text-paper-700">
-            {results.data.length === 50 ? 'The first 50 matches are shown; type more letters to narrow the list.' : `${results.data.length} ${results.data.length === 1 ? 'patient' : 'patients'} shown.`}
+            {results.data.length === 50
+              ? 'The first 50 matches are shown; type more letters to narrow the list.'
+              : `${results.data.length} ${results.data.length === 1 ? 'patient' : 'patients'} shown.`}
           </p>
           <PatientsTable patients={results.data} searchText={settled} />
         </>

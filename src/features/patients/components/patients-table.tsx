@@ -4,12 +4,19 @@ import { CheckCircleIcon, MinusIcon } from '../../../components/ui/icons';
 import { paths } from '../../../config/paths';
 import { ageInYears, formatCalendarDate } from './unit-dates';
 
-export function PatientsTable({ patients, searchText }: { patients: Patient[]; searchText: string }) {
+export function PatientsTable({
+  patients,
+  searchText,
+}: {
+  patients: Patient[];
+  searchText: string;
+}) {
   return (
     <div className="overflow-x-auto rounded-2xl border border-paper-200 bg-white">
       <table className="w-full border-collapse text-left">
         <caption className="sr-only">
-          {searchText ? `Patients matching “${searchText}”` : 'Patients'}, {patients.length} shown. The record number opens the patient’s page.
+          {searchText ? `Patients matching “${searchText}”` : 'Patients'}, {patients.length} shown.
+          The record number opens the patient’s page.
         </caption>
         <thead className="bg-paper-100 text-sm text-paper-700">
           <tr>
@@ -45,18 +52,27 @@ export function PatientsTable({ patients, searchText }: { patients: Patient[]; s
                   </Link>
                 </td>
                 <td className="px-3 py-3">
-                  <span className="font-medium text-paper-950">{patient.familyName}</span>, {patient.givenName}
+                  <span className="font-medium text-paper-950">{patient.familyName}</span>,{' '}
+                  {patient.givenName}
                 </td>
                 <td className="px-3 py-3 whitespace-nowrap">
                   {formatCalendarDate(patient.dateOfBirth)}
                   {age !== null && <span className="text-paper-600"> · {age} y</span>}
                 </td>
                 <td className="px-3 py-3">
-                  {patient.email ? <span className="[overflow-wrap:anywhere]">{patient.email}</span> : <span className="text-paper-600">None</span>}
+                  {patient.email ? (
+                    <span className="[overflow-wrap:anywhere]">{patient.email}</span>
+                  ) : (
+                    <span className="text-paper-600">None</span>
+                  )}
                 </td>
                 <td className="px-3 py-3 pr-4">
                   <span className="inline-flex items-center gap-1.5 whitespace-nowrap">
-                    {patient.emailConsent ? <CheckCircleIcon className="size-4" /> : <MinusIcon className="size-4" />}
+                    {patient.emailConsent ? (
+                      <CheckCircleIcon className="size-4" />
+                    ) : (
+                      <MinusIcon className="size-4" />
+                    )}
                     {patient.emailConsent ? 'Yes' : 'No'}
                   </span>
                 </td>

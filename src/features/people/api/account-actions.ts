@@ -1,25 +1,53 @@
 import { z } from 'zod';
-import { personSchema, roleRequestSchema, type Person, type RoleRequestView } from '../../../../shared/schemas/people';
+import {
+  personSchema,
+  roleRequestSchema,
+  type Person,
+  type RoleRequestView,
+} from '../../../../shared/schemas/people';
 import { api } from '../../../lib/api-client';
 
 const id = (n: number) => encodeURIComponent(String(n));
 
 /** Asks the server to e-mail the person a one-time link; the admin never sees the link. */
 export async function sendPasswordLink(personId: number): Promise<void> {
-  await api.post(`/people/${id(personId)}/password-link`, {}, { schema: z.object({ passwordLink: z.literal('sent') }) });
+  await api.post(
+    `/people/${id(personId)}/password-link`,
+    {},
+    { schema: z.object({ passwordLink: z.literal('sent') }) },
+  );
 }
 
 /** Signs the person out on every device, at once. */
 export async function endSessions(personId: number): Promise<{ ended: number }> {
-  return api.post(`/people/${id(personId)}/sessions/end`, {}, { schema: z.object({ ended: z.number().int() }) });
+  return api.post(
+    `/people/${id(personId)}/sessions/end`,
+    {},
+    { schema: z.object({ ended: z.number().int() }) },
+  );
 }
 
-export async function getRoleRequests({ signal }: { signal?: AbortSignal } = {}): Promise<RoleRequestView[]> {
-  const { requests } = await api.get('/role-requests', { schema: z.object({ requests: z.array(roleRequestSchema) }), signal });
+export async function getRoleRequests({ signal }: { signal?: AbortSignal } = {}): Promise<
+  RoleRequestView[]
+> {
+  const { requests } = await api.get('/role-requests', {
+    schema: z.object({ requests: z.array(roleRequestSchema) }),
+    signal,
+  });
   return requests;
 }
 
-export async function decideRoleRequest({ requestId, decision }: { requestId: number; decision: 'approval' | 'rejection' }): Promise<Person> {
-  const { person } = await api.post(`/role-requests/${id(requestId)}/${decision}`, {}, { schema: z.object({ person: personSchema }) });
+export async function decideRoleRequest({
+  requestId,
+  decision,
+}: {
+  requestId: number;
+  decision: 'approval' | 'rejection';
+}): Promise<Person> {
+  const { person } = await api.post(
+    `/role-requests/${id(requestId)}/${decision}`,
+    {},
+    { schema: z.object({ person: personSchema }) },
+  );
   return person;
 }

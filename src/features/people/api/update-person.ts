@@ -4,7 +4,15 @@ import { api } from '../../../lib/api-client';
 
 const personResponseSchema = z.object({ person: personSchema });
 
-export async function updatePerson({ id, changes }: { id: number; changes: UpdatePerson }): Promise<Person> {
-  const { person } = await api.patch(`/people/${encodeURIComponent(String(id))}`, changes, { schema: personResponseSchema });
+export async function updatePerson({
+  id,
+  changes,
+}: {
+  id: number;
+  changes: UpdatePerson;
+}): Promise<Person> {
+  const { person } = await api.patch(`/people/${encodeURIComponent(String(id))}`, changes, {
+    schema: personResponseSchema,
+  });
   return person;
 }

@@ -6,7 +6,11 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
-import { applyServerFieldErrors, readableMessage, unplacedFieldProblems } from '../../../lib/form-errors';
+import {
+  applyServerFieldErrors,
+  readableMessage,
+  unplacedFieldProblems,
+} from '../../../lib/form-errors';
 import { useCreatePerson } from '../hooks/use-create-person';
 import { FieldProblemList } from './field-problem-list';
 import { RoleCheckboxes } from './role-checkboxes';
@@ -44,7 +48,8 @@ export function AddPersonForm({ id, onCreated, onCancel }: AddPersonFormProps) {
       },
       onError: (error) => {
         if (!isApiRequestError(error)) return;
-        if (error.code === 'email_taken') setError('email', { type: 'server', message: error.message }, { shouldFocus: true });
+        if (error.code === 'email_taken')
+          setError('email', { type: 'server', message: error.message }, { shouldFocus: true });
         if (error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
       },
     });
@@ -52,17 +57,23 @@ export function AddPersonForm({ id, onCreated, onCancel }: AddPersonFormProps) {
 
   const error = createPerson.error;
   // Problems shown beside their field are only pointed to here, not repeated.
-  const fieldLevel = isApiRequestError(error) && (error.code === 'email_taken' || (error.status === 400 && error.fields.length > 0));
+  const fieldLevel =
+    isApiRequestError(error) &&
+    (error.code === 'email_taken' || (error.status === 400 && error.fields.length > 0));
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
 
   return (
-    <section id={id} aria-labelledby={`${id}-heading`} className="mb-8 rounded-2xl border border-paper-200 bg-white p-6">
+    <section
+      id={id}
+      aria-labelledby={`${id}-heading`}
+      className="mb-8 rounded-2xl border border-paper-200 bg-white p-6"
+    >
       <h2 id={`${id}-heading`} className="mb-1 text-xl font-semibold text-paper-950">
         Add a person
       </h2>
       <p className="mb-5 text-paper-700">
-        The person is e-mailed a one-time link to set their own password. A clinician or pharmacist role waits until another
-        administrator approves it.
+        The person is e-mailed a one-time link to set their own password. A clinician or pharmacist
+        role waits until another administrator approves it.
       </p>
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">
         {error &&
@@ -76,7 +87,12 @@ export function AddPersonForm({ id, onCreated, onCancel }: AddPersonFormProps) {
             </Alert>
           ))}
         <div className="grid gap-5 md:grid-cols-2">
-          <TextField label="Display name" autoComplete="off" error={readableMessage(errors.displayName?.message, labels)} {...register('displayName')} />
+          <TextField
+            label="Display name"
+            autoComplete="off"
+            error={readableMessage(errors.displayName?.message, labels)}
+            {...register('displayName')}
+          />
           <TextField
             label="E-mail"
             type="email"
@@ -87,7 +103,10 @@ export function AddPersonForm({ id, onCreated, onCancel }: AddPersonFormProps) {
             {...register('email')}
           />
         </div>
-        <RoleCheckboxes registration={register('roles')} error={readableMessage(errors.roles?.message, labels)} />
+        <RoleCheckboxes
+          registration={register('roles')}
+          error={readableMessage(errors.roles?.message, labels)}
+        />
         <div className="flex flex-wrap gap-3">
           <Button type="submit" busy={createPerson.isPending}>
             {createPerson.isPending ? 'Adding…' : 'Add person'}

@@ -32,18 +32,23 @@ export function ChangeStatusDialog({ person, onDismiss, onChanged }: ChangeStatu
         person &&
         (deactivating ? (
           <p>
-            {person.displayName} will no longer be able to sign in. Everything they have recorded stays as it is, and you can
-            reactivate the account later.
+            {person.displayName} will no longer be able to sign in. Everything they have recorded
+            stays as it is, and you can reactivate the account later.
           </p>
         ) : (
-          <p>{person.displayName} will be able to sign in again, with the roles shown in the list.</p>
+          <p>
+            {person.displayName} will be able to sign in again, with the roles shown in the list.
+          </p>
         ))
       }
     >
       {person && (
         <>
           {updatePerson.isError && (
-            <Alert tone="error" title={`${person.displayName} was not ${deactivating ? 'deactivated' : 'reactivated'}`}>
+            <Alert
+              tone="error"
+              title={`${person.displayName} was not ${deactivating ? 'deactivated' : 'reactivated'}`}
+            >
               {describeError(updatePerson.error)}
             </Alert>
           )}

@@ -7,7 +7,11 @@ import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
 import { TextField } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
-import { applyServerFieldErrors, readableMessage, unplacedFieldProblems } from '../../../lib/form-errors';
+import {
+  applyServerFieldErrors,
+  readableMessage,
+  unplacedFieldProblems,
+} from '../../../lib/form-errors';
 import { useUpdatePerson } from '../hooks/use-update-person';
 import { FieldProblemList } from './field-problem-list';
 import { RoleCheckboxes } from './role-checkboxes';
@@ -37,7 +41,11 @@ export function EditPersonDialog({ person, onDismiss, onSaved }: EditPersonDialo
       }}
       dismissible={!updatePerson.isPending}
       title={person ? `Edit ${person.displayName}` : 'Edit person'}
-      description={person ? <p>E-mail {person.email}. The e-mail address cannot be changed here.</p> : undefined}
+      description={
+        person ? (
+          <p>E-mail {person.email}. The e-mail address cannot be changed here.</p>
+        ) : undefined
+      }
     >
       {person && (
         <EditPersonForm
@@ -88,7 +96,8 @@ function EditPersonForm({
         onError: (error) => {
           if (!isApiRequestError(error)) return;
           // The server refuses to let an administrator remove their own administrator role.
-          if (error.code === 'own_admin_role' || error.code === 'own_clinical_role') setError('roles', { type: 'server', message: error.message }, { shouldFocus: true });
+          if (error.code === 'own_admin_role' || error.code === 'own_clinical_role')
+            setError('roles', { type: 'server', message: error.message }, { shouldFocus: true });
           if (error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
         },
       },
@@ -96,7 +105,11 @@ function EditPersonForm({
   });
 
   const error = mutation.error;
-  const shownAtField = isApiRequestError(error) && (error.code === 'own_admin_role' || error.code === 'own_clinical_role' || (error.status === 400 && error.fields.length > 0));
+  const shownAtField =
+    isApiRequestError(error) &&
+    (error.code === 'own_admin_role' ||
+      error.code === 'own_clinical_role' ||
+      (error.status === 400 && error.fields.length > 0));
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
 
   return (
@@ -111,8 +124,16 @@ function EditPersonForm({
             {describeError(error)}
           </Alert>
         ))}
-      <TextField label="Display name" autoComplete="off" error={readableMessage(errors.displayName?.message, labels)} {...register('displayName')} />
-      <RoleCheckboxes registration={register('roles')} error={readableMessage(errors.roles?.message, labels)} />
+      <TextField
+        label="Display name"
+        autoComplete="off"
+        error={readableMessage(errors.displayName?.message, labels)}
+        {...register('displayName')}
+      />
+      <RoleCheckboxes
+        registration={register('roles')}
+        error={readableMessage(errors.roles?.message, labels)}
+      />
       <div className="flex flex-wrap justify-end gap-3">
         <Button variant="secondary" onClick={onCancel} disabled={mutation.isPending}>
           Cancel

@@ -3,7 +3,13 @@ import { useCallback, useEffect, useId, useRef, useState } from 'react';
 import type { Person } from '../../../../shared/schemas/people';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
-import { AlertIcon, CheckCircleIcon, PeopleIcon, PlusIcon, ReloadIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  CheckCircleIcon,
+  PeopleIcon,
+  PlusIcon,
+  ReloadIcon,
+} from '../../../components/ui/icons';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { describeError } from '../../../lib/api-client';
@@ -43,7 +49,10 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
       setOutcome('');
       setActionError('');
       mutateSendLink(person.id, {
-        onSuccess: () => setOutcome(`A link to set a password was e-mailed to ${person.displayName}. It works once.`),
+        onSuccess: () =>
+          setOutcome(
+            `A link to set a password was e-mailed to ${person.displayName}. It works once.`,
+          ),
         onError: (error) => setActionError(describeError(error)),
       });
     },
@@ -54,7 +63,10 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
       setOutcome('');
       setActionError('');
       mutateEndSessions(person.id, {
-        onSuccess: ({ ended }) => setOutcome(`${person.displayName} is signed out everywhere (${ended} ${ended === 1 ? 'session' : 'sessions'} ended).`),
+        onSuccess: ({ ended }) =>
+          setOutcome(
+            `${person.displayName} is signed out everywhere (${ended} ${ended === 1 ? 'session' : 'sessions'} ended).`,
+          ),
         onError: (error) => setActionError(describeError(error)),
       });
     },
@@ -130,7 +142,12 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
           icon={<AlertIcon className="size-6" />}
           title="The list of people could not be loaded"
           actions={
-            <Button variant="secondary" icon={<ReloadIcon />} busy={peopleQuery.isFetching} onClick={() => void peopleQuery.refetch()}>
+            <Button
+              variant="secondary"
+              icon={<ReloadIcon />}
+              busy={peopleQuery.isFetching}
+              onClick={() => void peopleQuery.refetch()}
+            >
               Try again
             </Button>
           }
@@ -176,7 +193,9 @@ export function PeopleScreen({ currentUserId }: { currentUserId: number }) {
         onDismiss={() => setStatusTarget(null)}
         onChanged={(person) => {
           setStatusTarget(null);
-          setOutcome(`${person.displayName} is now ${person.active ? 'active and can sign in' : 'deactivated and cannot sign in'}.`);
+          setOutcome(
+            `${person.displayName} is now ${person.active ? 'active and can sign in' : 'deactivated and cannot sign in'}.`,
+          );
         }}
       />
       {/* Administrators keep the records' integrity in view; the same check as `npm run audit:verify`. */}

@@ -32,7 +32,14 @@ type PeopleTableProps = {
   onEndSessions: (person: Person) => void;
 };
 
-export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onSendLink, onEndSessions }: PeopleTableProps) {
+export function PeopleTable({
+  people,
+  currentUserId,
+  onEdit,
+  onChangeStatus,
+  onSendLink,
+  onEndSessions,
+}: PeopleTableProps) {
   // Columns close over the action callbacks; the parent passes state setters, so this stays stable.
   const columns = useMemo(
     () =>
@@ -43,7 +50,9 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
           cell: ({ row }) => (
             <span className="font-medium text-paper-950">
               {row.original.displayName}
-              {row.original.id === currentUserId && <span className="ml-2 text-sm font-normal text-paper-600">(you)</span>}
+              {row.original.id === currentUserId && (
+                <span className="ml-2 text-sm font-normal text-paper-600">(you)</span>
+              )}
             </span>
           ),
         }),
@@ -60,14 +69,18 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
             <>
               <ul className="flex flex-wrap gap-1.5">
                 {row.original.roles.map((role) => (
-                  <li key={role} className="rounded-md bg-paper-100 px-2 py-0.5 text-sm text-paper-800">
+                  <li
+                    key={role}
+                    className="rounded-md bg-paper-100 px-2 py-0.5 text-sm text-paper-800"
+                  >
                     {roleLabels[role]}
                   </li>
                 ))}
               </ul>
               {row.original.pendingRoleRequest && (
                 <p className="mt-1 text-sm text-paper-700">
-                  Waiting for approval: {row.original.pendingRoleRequest.roles.map((role) => roleLabels[role]).join(', ')}
+                  Waiting for approval:{' '}
+                  {row.original.pendingRoleRequest.roles.map((role) => roleLabels[role]).join(', ')}
                 </p>
               )}
             </>
@@ -79,7 +92,9 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
           cell: ({ row }) => (
             <>
               <PersonStatus active={row.original.active} />
-              {!row.original.accountReady && <p className="mt-1 text-sm text-paper-700">Password not set yet</p>}
+              {!row.original.accountReady && (
+                <p className="mt-1 text-sm text-paper-700">Password not set yet</p>
+              )}
             </>
           ),
         }),
@@ -90,7 +105,13 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
             const person = row.original;
             return (
               <div className="grid grid-cols-[auto_auto] justify-end gap-2">
-                <Button variant="secondary" size="sm" icon={<PencilIcon className="size-4" />} aria-label={`Edit ${person.displayName}`} onClick={() => onEdit(person)}>
+                <Button
+                  variant="secondary"
+                  size="sm"
+                  icon={<PencilIcon className="size-4" />}
+                  aria-label={`Edit ${person.displayName}`}
+                  onClick={() => onEdit(person)}
+                >
                   Edit
                 </Button>
                 <Button
@@ -102,11 +123,21 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
                   {person.active ? 'Deactivate' : 'Reactivate'}
                 </Button>
                 {person.active && (
-                  <Button variant="secondary" size="sm" aria-label={`Send password link to ${person.displayName}`} onClick={() => onSendLink(person)}>
+                  <Button
+                    variant="secondary"
+                    size="sm"
+                    aria-label={`Send password link to ${person.displayName}`}
+                    onClick={() => onSendLink(person)}
+                  >
                     Send password link
                   </Button>
                 )}
-                <Button variant="secondary" size="sm" aria-label={`Sign out everywhere: ${person.displayName}`} onClick={() => onEndSessions(person)}>
+                <Button
+                  variant="secondary"
+                  size="sm"
+                  aria-label={`Sign out everywhere: ${person.displayName}`}
+                  onClick={() => onEndSessions(person)}
+                >
                   Sign out everywhere
                 </Button>
               </div>
@@ -129,7 +160,9 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
   return (
     <div className="overflow-x-auto rounded-2xl border border-paper-200 bg-white">
       <table className="w-full border-collapse text-left">
-        <caption className="sr-only">Staff accounts, {people.length} in all. Column headers with a button sort the list.</caption>
+        <caption className="sr-only">
+          Staff accounts, {people.length} in all. Column headers with a button sort the list.
+        </caption>
         <thead className="bg-paper-100 text-sm text-paper-700">
           {table.getHeaderGroups().map((group) => (
             <tr key={group.id}>
@@ -149,9 +182,15 @@ export function PeopleTable({ people, currentUserId, onEdit, onChangeStatus, onS
         </thead>
         <tbody>
           {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} className={`border-t border-paper-200 align-middle ${row.original.active ? '' : 'bg-paper-50 text-paper-700'}`}>
+            <tr
+              key={row.id}
+              className={`border-t border-paper-200 align-middle ${row.original.active ? '' : 'bg-paper-50 text-paper-700'}`}
+            >
               {row.getAllCells().map((cell) => (
-                <td key={cell.id} className={`px-3 py-3 first:pl-4 last:pr-4 ${cell.column.id === 'actions' ? 'print:hidden' : ''}`}>
+                <td
+                  key={cell.id}
+                  className={`px-3 py-3 first:pl-4 last:pr-4 ${cell.column.id === 'actions' ? 'print:hidden' : ''}`}
+                >
                   <table.FlexRender cell={cell} />
                 </td>
               ))}

@@ -17,12 +17,17 @@ export function RoleCheckboxes({ registration, error, legend = 'Roles' }: RoleCh
   const hintId = `${id}-hint`;
   const errorId = error ? `${id}-error` : undefined;
   return (
-    <fieldset aria-describedby={[hintId, errorId].filter(Boolean).join(' ')} className="flex flex-col gap-1">
+    <fieldset
+      aria-describedby={[hintId, errorId].filter(Boolean).join(' ')}
+      className="flex flex-col gap-1"
+    >
       <legend className="font-medium text-paper-900">{legend}</legend>
       <p id={hintId} className="mb-1 text-sm text-paper-600">
         Choose at least one. One person may hold several roles.
       </p>
-      <div className={`grid gap-x-4 gap-y-1 rounded-lg border p-2 sm:grid-cols-2 ${error ? 'border-2 border-alarm-700' : 'border-paper-300'}`}>
+      <div
+        className={`grid gap-x-4 gap-y-1 rounded-lg border p-2 sm:grid-cols-2 ${error ? 'border-2 border-alarm-700' : 'border-paper-300'}`}
+      >
         {roles.map((role) => (
           <Checkbox
             key={role}

@@ -25,8 +25,17 @@ function readStored(): OffsetSample | null {
     const raw = globalThis.localStorage?.getItem(storageKey);
     if (!raw) return null;
     const value = JSON.parse(raw) as Partial<OffsetSample>;
-    if (typeof value.offsetMs !== 'number' || typeof value.roundTripMs !== 'number' || typeof value.measuredAtMs !== 'number') return null;
-    return { offsetMs: value.offsetMs, roundTripMs: value.roundTripMs, measuredAtMs: value.measuredAtMs };
+    if (
+      typeof value.offsetMs !== 'number' ||
+      typeof value.roundTripMs !== 'number' ||
+      typeof value.measuredAtMs !== 'number'
+    )
+      return null;
+    return {
+      offsetMs: value.offsetMs,
+      roundTripMs: value.roundTripMs,
+      measuredAtMs: value.measuredAtMs,
+    };
   } catch {
     return null;
   }
@@ -37,11 +46,24 @@ function readStored(): OffsetSample | null {
  * clock that was corrected is followed at once; a slow answer (its midpoint could be off by half
  * its round trip) gives way to the fastest of the last few.
  */
-export function recordServerTime(serverTimeIso: string, sentAtMs: number, receivedAtMs: number): void {
+export function recordServerTime(
+  serverTimeIso: string,
+  sentAtMs: number,
+  receivedAtMs: number,
+): void {
   const serverMs = Date.parse(serverTimeIso);
   if (!Number.isFinite(serverMs)) return;
-  const sample: OffsetSample = { offsetMs: Math.round(serverMs - (sentAtMs + receivedAtMs) / 2), roundTripMs: Math.max(0, receivedAtMs - sentAtMs), measuredAtMs: receivedAtMs };
-  recent = [...recent.filter((s) => receivedAtMs - s.measuredAtMs <= windowMs && s.measuredAtMs <= receivedAtMs), sample].slice(-windowSize);
+  const sample: OffsetSample = {
+    offsetMs: Math.round(serverMs - (sentAtMs + receivedAtMs) / 2),
+    roundTripMs: Math.max(0, receivedAtMs - sentAtMs),
+    measuredAtMs: receivedAtMs,
+  };
+  recent = [
+    ...recent.filter(
+      (s) => receivedAtMs - s.measuredAtMs <= windowMs && s.measuredAtMs <= receivedAtMs,
+    ),
+    sample,
+  ].slice(-windowSize);
   const fastest = recent.reduce((best, s) => (s.roundTripMs < best.roundTripMs ? s : best));
   const next = sample.roundTripMs <= fastest.roundTripMs * 2 + 20 ? sample : fastest;
   const changed = chosen?.offsetMs !== next.offsetMs;

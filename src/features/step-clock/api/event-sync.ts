@@ -34,13 +34,23 @@ const syncs = new Map<number, EventSync>();
  */
 export function isRetryable(error: unknown): boolean {
   if (!isApiRequestError(error)) return true;
-  return error.status === 0 || error.status === 401 || error.status === 408 || error.status === 429 || error.status >= 500;
+  return (
+    error.status === 0 ||
+    error.status === 401 ||
+    error.status === 408 ||
+    error.status === 429 ||
+    error.status >= 500
+  );
 }
 
 function createEventSync(orderId: number, store: TapStore): EventSync {
   const listeners = new Set<() => void>();
   const handlers = new Set<(response: RecordedEventResponse) => void>();
-  let state: SyncState = { sending: false, offline: globalThis.navigator?.onLine === false, retryAtMs: null };
+  let state: SyncState = {
+    sending: false,
+    offline: globalThis.navigator?.onLine === false,
+    retryAtMs: null,
+  };
   let running = false;
   let failures = 0;
   let retryTimer: ReturnType<typeof setTimeout> | null = null;
@@ -54,7 +64,8 @@ function createEventSync(orderId: number, store: TapStore): EventSync {
   const scheduleRetry = (afterS: number | null) => {
     failures += 1;
     // Doubling back-off with a little spread, so tablets that lost the network together do not return together.
-    const backoffMs = Math.min(longestRetryMs, firstRetryMs * 2 ** (failures - 1)) * (0.8 + Math.random() * 0.4);
+    const backoffMs =
+      Math.min(longestRetryMs, firstRetryMs * 2 ** (failures - 1)) * (0.8 + Math.random() * 0.4);
     const delayMs = Math.max(backoffMs, (afterS ?? 0) * 1000);
     if (retryTimer !== null) clearTimeout(retryTimer);
     retryTimer = setTimeout(() => {
@@ -94,7 +105,11 @@ function createEventSync(orderId: number, store: TapStore): EventSync {
           // Refused: kept and shown with the server's reason, never as stored. Later taps are
           // still sent; the server judges each one on its own.
           const problem = isApiRequestError(error) ? error : null;
-          store.markRefused(next.key, { status: problem?.status ?? 0, message: problem?.message ?? 'The server refused this tap.', fields: problem?.fields ?? [] });
+          store.markRefused(next.key, {
+            status: problem?.status ?? 0,
+            message: problem?.message ?? 'The server refused this tap.',
+            fields: problem?.fields ?? [],
+          });
         }
       }
       set({ sending: false });
@@ -162,7 +177,8 @@ export async function sendQueuedTapsOf(personId: number): Promise<void> {
     orderIds.map(async (orderId) => {
       const store = tapStoreFor(orderId);
       const sync = eventSyncFor(orderId, store);
-      const unsentOfPerson = () => store.taps().some((tap) => tap.state === 'unsent' && tap.by === personId);
+      const unsentOfPerson = () =>
+        store.taps().some((tap) => tap.state === 'unsent' && tap.by === personId);
       // Sends at once if the taps are read already, else as soon as they are (the store tells the sender).
       sync.pump();
       for (;;) {
@@ -170,7 +186,8 @@ export async function sendQueuedTapsOf(personId: number): Promise<void> {
         if (currentPersonId() !== personId) return;
         if (!store.ready()) continue;
         const state = sync.state();
-        if (!unsentOfPerson() || state.offline || (!state.sending && state.retryAtMs !== null)) return;
+        if (!unsentOfPerson() || state.offline || (!state.sending && state.retryAtMs !== null))
+          return;
       }
     }),
   );

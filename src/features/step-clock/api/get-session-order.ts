@@ -11,7 +11,12 @@ const sessionOrderSchema = z.object({
   eye: z.enum(eyes),
   kind: z.enum(['pdt', 'cxl']),
   protocol: z.object({ key: z.string(), version: z.number(), title: z.string() }),
-  patient: z.object({ id: z.number(), recordNumber: z.string(), givenName: z.string(), familyName: z.string() }),
+  patient: z.object({
+    id: z.number(),
+    recordNumber: z.string(),
+    givenName: z.string(),
+    familyName: z.string(),
+  }),
   plan: dosePlanSchema.nullable(),
   beyondUseAt: z.string().nullable(),
   answeredCautions: orderDetailSchema.shape.answeredCautions,
@@ -20,7 +25,13 @@ export type SessionOrder = z.infer<typeof sessionOrderSchema>;
 
 const orderResponseSchema = z.object({ order: sessionOrderSchema });
 
-export async function getSessionOrder(orderId: number, { signal }: { signal?: AbortSignal } = {}): Promise<SessionOrder> {
-  const { order } = await api.get(`/orders/${encodeURIComponent(String(orderId))}`, { schema: orderResponseSchema, signal });
+export async function getSessionOrder(
+  orderId: number,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<SessionOrder> {
+  const { order } = await api.get(`/orders/${encodeURIComponent(String(orderId))}`, {
+    schema: orderResponseSchema,
+    signal,
+  });
   return order;
 }

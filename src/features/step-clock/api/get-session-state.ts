@@ -10,7 +10,10 @@ import { forgetStoredTaps } from './tap-store';
  * offline copy (served by the service worker without network) does neither: its serverTime is
  * as old as the copy, and the offset measured before stays in force.
  */
-export async function getSessionState(orderId: number, { signal }: { signal?: AbortSignal } = {}): Promise<SessionState> {
+export async function getSessionState(
+  orderId: number,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<SessionState> {
   const sentAtMs = Date.now();
   let offlineCopy = false;
   const state = await api.get(`/orders/${encodeURIComponent(String(orderId))}/session`, {

@@ -7,9 +7,16 @@ import { recordedEventResponseSchema, type RecordedEventResponse } from './sessi
  * Sends one tapped event. Its idempotency key makes a resend harmless: the server answers 200
  * with the stored event instead of storing it twice.
  */
-export async function recordSessionEvent(orderId: number, event: SessionEventInput): Promise<RecordedEventResponse> {
+export async function recordSessionEvent(
+  orderId: number,
+  event: SessionEventInput,
+): Promise<RecordedEventResponse> {
   const sentAtMs = Date.now();
-  const response = await api.post(`/orders/${encodeURIComponent(String(orderId))}/session-events`, event, { schema: recordedEventResponseSchema });
+  const response = await api.post(
+    `/orders/${encodeURIComponent(String(orderId))}/session-events`,
+    event,
+    { schema: recordedEventResponseSchema },
+  );
   recordServerTime(response.serverTime, sentAtMs, Date.now());
   return response;
 }

@@ -1,6 +1,10 @@
 import { z } from 'zod';
 import { orderStatuses } from '../../../../shared/schemas/orders';
-import { deviationSeverities, sessionEventSchema, type SessionEvent } from '../../../../shared/session/session-events';
+import {
+  deviationSeverities,
+  sessionEventSchema,
+  type SessionEvent,
+} from '../../../../shared/session/session-events';
 
 /**
  * A stored event: the event contract plus what the server added. The contract's objects are
@@ -12,7 +16,10 @@ const storedEventSchema = z
     const { id, serverTime, recordedBy, authorisedById, authorisedByName, ...input } = raw;
     const parsed = sessionEventSchema.safeParse(input);
     if (!parsed.success) {
-      ctx.addIssue({ code: 'custom', message: `stored event ${id} does not match the event contract` });
+      ctx.addIssue({
+        code: 'custom',
+        message: `stored event ${id} does not match the event contract`,
+      });
       return z.NEVER;
     }
     return {
@@ -59,7 +66,17 @@ const sessionRecordSchema = z.object({
   plannedDoseMg: z.number().nullable().optional().default(null),
   deviceExposureS: z.number().nullable().optional().default(null),
   deviceEnergyJ: z.number().nullable().optional().default(null),
-  lateEntries: z.array(z.object({ idempotencyKey: z.string(), type: z.string(), at: z.string(), reason: z.string() })).optional().default([]),
+  lateEntries: z
+    .array(
+      z.object({
+        idempotencyKey: z.string(),
+        type: z.string(),
+        at: z.string(),
+        reason: z.string(),
+      }),
+    )
+    .optional()
+    .default([]),
 });
 export type SessionRecordSummary = z.infer<typeof sessionRecordSchema>;
 
@@ -86,8 +103,16 @@ export type RecordedEventResponse = z.infer<typeof recordedEventResponseSchema>;
  * Events are only ever added, so of two answers the one with fewer events is the older: an
  * answer that was on its way while a newer one arrived must not take events off the screen.
  */
-export function newerSessionState(current: SessionState | undefined, incoming: SessionState): SessionState {
-  if (current && current.orderId === incoming.orderId && incoming.events.length < current.events.length) return current;
+export function newerSessionState(
+  current: SessionState | undefined,
+  incoming: SessionState,
+): SessionState {
+  if (
+    current &&
+    current.orderId === incoming.orderId &&
+    incoming.events.length < current.events.length
+  )
+    return current;
   return incoming;
 }
 
@@ -98,12 +123,28 @@ export function newerSessionState(current: SessionState | undefined, incoming: S
  * else). `complete` is false when the server holds events this list lacks (another tablet's): the
  * caller then fetches the whole session.
  */
-export function withRecordedEvent(current: SessionState, answer: RecordedEventResponse): { state: SessionState; complete: boolean } {
-  const known = current.events.some((event) => event.idempotencyKey === answer.event.idempotencyKey);
-  const events = known ? current.events : [...current.events, answer.event].sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime) || a.id - b.id);
+export function withRecordedEvent(
+  current: SessionState,
+  answer: RecordedEventResponse,
+): { state: SessionState; complete: boolean } {
+  const known = current.events.some(
+    (event) => event.idempotencyKey === answer.event.idempotencyKey,
+  );
+  const events = known
+    ? current.events
+    : [...current.events, answer.event].sort(
+        (a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime) || a.id - b.id,
+      );
   const newer = answer.eventCount >= events.length;
   const state: SessionState = newer
-    ? { orderId: current.orderId, status: answer.status, events, record: answer.record, deviations: answer.deviations, serverTime: answer.serverTime }
+    ? {
+        orderId: current.orderId,
+        status: answer.status,
+        events,
+        record: answer.record,
+        deviations: answer.deviations,
+        serverTime: answer.serverTime,
+      }
     : { ...current, events };
   return { state, complete: answer.eventCount <= events.length };
 }

@@ -28,6 +28,7 @@ export const stepClockQueries = {
       // Another tablet may record taps too, and each answer re-measures the clock offset.
       refetchInterval: 15_000,
       staleTime: 5_000,
-      structuralSharing: (previous, next) => newerSessionState(previous as SessionState | undefined, next as SessionState),
+      structuralSharing: (previous, next) =>
+        newerSessionState(previous as SessionState | undefined, next as SessionState),
     }),
 };

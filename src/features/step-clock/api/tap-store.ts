@@ -1,5 +1,8 @@
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
-import { sessionEventSchema, type SessionEventInput } from '../../../../shared/session/session-events';
+import {
+  sessionEventSchema,
+  type SessionEventInput,
+} from '../../../../shared/session/session-events';
 import type { FieldProblem } from '../../../lib/api-client';
 import { currentPersonId } from '../../../lib/current-person';
 
@@ -120,12 +123,22 @@ async function moveLegacyQueues(db: IDBPDatabase<TapDb>): Promise<void> {
       // Unreadable: nothing to move, and nothing a person could recover from it either.
     }
     const openSession = currentPersonId();
-    const legacy = Array.isArray(items) ? items.flatMap((item) => legacyTap(item, openSession)) : [];
+    const legacy = Array.isArray(items)
+      ? items.flatMap((item) => legacyTap(item, openSession))
+      : [];
     if (Number.isInteger(orderId) && legacy.length > 0) {
       const tx = db.transaction('taps', 'readwrite');
       for (const [index, { by, event }] of legacy.entries()) {
         if (!(await tx.store.get(event.idempotencyKey))) {
-          await tx.store.put({ key: event.idempotencyKey, orderId, by, event, state: 'unsent', keptAtMs: Date.now() + index, refusal: null });
+          await tx.store.put({
+            key: event.idempotencyKey,
+            orderId,
+            by,
+            event,
+            state: 'unsent',
+            keptAtMs: Date.now() + index,
+            refusal: null,
+          });
         }
       }
       await tx.done;
@@ -139,12 +152,17 @@ async function moveLegacyQueues(db: IDBPDatabase<TapDb>): Promise<void> {
  * One item of an earlier version's queue: a bare event (before taps named their person) or
  * `{ by, event }`. Unreadable items are dropped. `openSession` is who is signed in now, if anyone.
  */
-export function legacyTap(item: unknown, openSession: number | null): { by: number | null; event: SessionEventInput }[] {
+export function legacyTap(
+  item: unknown,
+  openSession: number | null,
+): { by: number | null; event: SessionEventInput }[] {
   const wrapped = typeof item === 'object' && item !== null && 'event' in item;
   const parsed = sessionEventSchema.safeParse(wrapped ? (item as { event: unknown }).event : item);
   if (!parsed.success) return [];
   const by = wrapped ? (item as { by?: unknown }).by : null;
-  return [{ by: typeof by === 'number' && Number.isInteger(by) ? by : openSession, event: parsed.data }];
+  return [
+    { by: typeof by === 'number' && Number.isInteger(by) ? by : openSession, event: parsed.data },
+  ];
 }
 
 /** A stored tap's local copy matters only until the session is fetched again; a day on, the session is long over. */
@@ -153,12 +171,14 @@ const storedCopyKeptMs = 24 * 3_600_000;
 async function forgetOldStoredTaps(db: IDBPDatabase<TapDb>): Promise<void> {
   const tx = db.transaction('taps', 'readwrite');
   for (let cursor = await tx.store.openCursor(); cursor; cursor = await cursor.continue()) {
-    if (cursor.value.state === 'stored' && cursor.value.keptAtMs < Date.now() - storedCopyKeptMs) await cursor.delete();
+    if (cursor.value.state === 'stored' && cursor.value.keptAtMs < Date.now() - storedCopyKeptMs)
+      await cursor.delete();
   }
   await tx.done;
 }
 
-const byTime = (a: KeptTap, b: KeptTap) => Date.parse(a.event.clientTime) - Date.parse(b.event.clientTime) || a.keptAtMs - b.keptAtMs;
+const byTime = (a: KeptTap, b: KeptTap) =>
+  Date.parse(a.event.clientTime) - Date.parse(b.event.clientTime) || a.keptAtMs - b.keptAtMs;
 
 const waiting = (tap: KeptTap) => tap.state !== 'stored';
 
@@ -167,10 +187,19 @@ function createTapStore(orderId: number): TapStore {
   /** Every kept tap of the order, whoever made it. */
   let taps: readonly KeptTap[] = [];
   // The signed-in person's view, rebuilt only when the taps or the person change (useSyncExternalStore needs the same array).
-  let own: { for: number | null; of: readonly KeptTap[]; taps: readonly KeptTap[] } = { for: null, of: [], taps: [] };
+  let own: { for: number | null; of: readonly KeptTap[]; taps: readonly KeptTap[] } = {
+    for: null,
+    of: [],
+    taps: [],
+  };
   const ownTaps = () => {
     const person = currentPersonId();
-    if (own.for !== person || own.of !== taps) own = { for: person, of: taps, taps: taps.filter((tap) => person !== null && tap.by === person) };
+    if (own.for !== person || own.of !== taps)
+      own = {
+        for: person,
+        of: taps,
+        taps: taps.filter((tap) => person !== null && tap.by === person),
+      };
     return own.taps;
   };
   const isOwn = (key: string) => ownTaps().some((tap) => tap.key === key);
@@ -195,7 +224,10 @@ function createTapStore(orderId: number): TapStore {
     }
     try {
       const tx = db.transaction('taps', 'readwrite');
-      await Promise.all([...changed.map((tap) => tx.store.put(tap)), ...deleted.map((key) => tx.store.delete(key))]);
+      await Promise.all([
+        ...changed.map((tap) => tx.store.put(tap)),
+        ...deleted.map((key) => tx.store.delete(key)),
+      ]);
       await tx.done;
       channel?.postMessage(orderId);
     } catch {
@@ -252,7 +284,15 @@ function createTapStore(orderId: number): TapStore {
       const by = currentPersonId();
       if (by === null) throw new Error('Nobody is signed in: a tap cannot be kept.');
       const nowMs = Date.now();
-      const made = events.map((event, index): KeptTap => ({ key: event.idempotencyKey, orderId, by, event, state: 'unsent', keptAtMs: nowMs + index, refusal: null }));
+      const made = events.map((event, index): KeptTap => ({
+        key: event.idempotencyKey,
+        orderId,
+        by,
+        event,
+        state: 'unsent',
+        keptAtMs: nowMs + index,
+        refusal: null,
+      }));
       set([...taps, ...made]);
       void persist(made);
     },
@@ -267,7 +307,9 @@ function createTapStore(orderId: number): TapStore {
       void persist([], [key]);
     },
     forgetStored: (keysOnServer) => {
-      const seen = taps.filter((tap) => tap.state === 'stored' && keysOnServer.has(tap.key)).map((tap) => tap.key);
+      const seen = taps
+        .filter((tap) => tap.state === 'stored' && keysOnServer.has(tap.key))
+        .map((tap) => tap.key);
       if (seen.length === 0) return;
       set(taps.filter((tap) => !seen.includes(tap.key)));
       void persist([], seen);
@@ -308,10 +350,22 @@ export function forgetStoredTaps(orderId: number, keysOnServer: ReadonlySet<stri
 /** The orders for which this tablet keeps unsent taps made by this person (read from IndexedDB, every order). */
 export async function ordersWithUnsentTapsOf(personId: number): Promise<number[]> {
   const db = await database();
-  if (!db) return [...stores.entries()].filter(([, store]) => currentPersonId() === personId && store.taps().some((tap) => tap.state === 'unsent')).map(([orderId]) => orderId);
+  if (!db)
+    return [...stores.entries()]
+      .filter(
+        ([, store]) =>
+          currentPersonId() === personId && store.taps().some((tap) => tap.state === 'unsent'),
+      )
+      .map(([orderId]) => orderId);
   try {
     const all = await db.getAll('taps');
-    return [...new Set(all.filter((tap) => tap.by === personId && tap.state === 'unsent').map((tap) => tap.orderId))];
+    return [
+      ...new Set(
+        all
+          .filter((tap) => tap.by === personId && tap.state === 'unsent')
+          .map((tap) => tap.orderId),
+      ),
+    ];
   } catch {
     return [];
   }

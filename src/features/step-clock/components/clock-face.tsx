@@ -1,9 +1,24 @@
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
 import type { SessionClock } from '../../../../shared/session/session-clock';
-import { AlertIcon, CheckCircleIcon, ClockIcon, DropletIcon, HourglassIcon, LightBeamIcon, PauseCircleIcon, StatusInSessionIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  CheckCircleIcon,
+  ClockIcon,
+  DropletIcon,
+  HourglassIcon,
+  LightBeamIcon,
+  PauseCircleIcon,
+  StatusInSessionIcon,
+} from '../../../components/ui/icons';
 import type { Flash } from '../hooks/use-cues';
-import { formatElapsed, formatFigure, formatRemaining, formatWardTime, stepNames } from './clock-format';
+import {
+  formatElapsed,
+  formatFigure,
+  formatRemaining,
+  formatWardTime,
+  stepNames,
+} from './clock-format';
 import type { SessionFacts } from './session-facts';
 
 interface FaceReading {
@@ -20,16 +35,26 @@ interface FaceReading {
 
 function reading(clock: SessionClock, protocol: ProtocolVersion, plan: DosePlan): FaceReading {
   const current = clock.current;
-  const lightDueAfterS = plan.lightStartAfterInfusionStartS ?? (protocol.timing?.lightStartAfterInfusionStartMin ?? 0) * 60;
+  const lightDueAfterS =
+    plan.lightStartAfterInfusionStartS ??
+    (protocol.timing?.lightStartAfterInfusionStartMin ?? 0) * 60;
   const lightCountdown = (): FaceReading => {
     const inS = clock.lightStartInS ?? 0;
     return {
       timerName: 'Time until the light starts',
       value: formatRemaining(Math.max(0, inS)),
       exactMs: inS * 1000,
-      caption: inS > 0 ? 'until the light starts, timed from the infusion start' : inS > -1 ? 'the light is due now' : `the light is late by ${formatElapsed(-inS)}`,
+      caption:
+        inS > 0
+          ? 'until the light starts, timed from the infusion start'
+          : inS > -1
+            ? 'the light is due now'
+            : `the light is late by ${formatElapsed(-inS)}`,
       progress: lightDueAfterS > 0 ? Math.min(1, Math.max(0, 1 - inS / lightDueAfterS)) : null,
-      status: inS > 0 ? { word: 'Waiting for the light', Icon: HourglassIcon, alarm: false } : { word: inS > -1 ? 'Light due now' : 'Light late', Icon: AlertIcon, alarm: true },
+      status:
+        inS > 0
+          ? { word: 'Waiting for the light', Icon: HourglassIcon, alarm: false }
+          : { word: inS > -1 ? 'Light due now' : 'Light late', Icon: AlertIcon, alarm: true },
     };
   };
 
@@ -42,7 +67,10 @@ function reading(clock: SessionClock, protocol: ProtocolVersion, plan: DosePlan)
         timerName: `Time left for the ${name}`,
         value: formatRemaining(current.remainingS),
         exactMs: current.remainingS * 1000,
-        caption: current.remainingS > 0 ? `left of ${formatElapsed(current.durationS)}` : `time is up · over by ${formatElapsed(over)}`,
+        caption:
+          current.remainingS > 0
+            ? `left of ${formatElapsed(current.durationS)}`
+            : `time is up · over by ${formatElapsed(over)}`,
         progress: Math.min(1, current.elapsedS / current.durationS),
         status: current.paused
           ? { word: 'Paused', Icon: PauseCircleIcon, alarm: false }
@@ -65,10 +93,16 @@ function reading(clock: SessionClock, protocol: ProtocolVersion, plan: DosePlan)
   return {
     timerName: next ? `Length of the ${stepNames[next.kind]}` : 'Session time',
     value: next?.durationS ? formatElapsed(next.durationS) : '--:--',
-    caption: next ? (next.durationS ? `the ${stepNames[next.kind]} lasts this long` : `the ${stepNames[next.kind]} has no set length`) : 'all steps done',
+    caption: next
+      ? next.durationS
+        ? `the ${stepNames[next.kind]} lasts this long`
+        : `the ${stepNames[next.kind]} has no set length`
+      : 'all steps done',
     progress: null,
     exactMs: null,
-    status: next ? { word: 'Between steps', Icon: ClockIcon, alarm: false } : { word: 'All steps done', Icon: CheckCircleIcon, alarm: false },
+    status: next
+      ? { word: 'Between steps', Icon: ClockIcon, alarm: false }
+      : { word: 'All steps done', Icon: CheckCircleIcon, alarm: false },
   };
 }
 
@@ -95,43 +129,85 @@ export function ClockFace({
 }) {
   const face = reading(clock, protocol, plan);
   const current = clock.current;
-  const step = current ? protocol.steps[current.index] : clock.next ? protocol.steps[clock.next.index] : undefined;
+  const step = current
+    ? protocol.steps[current.index]
+    : clock.next
+      ? protocol.steps[clock.next.index]
+      : undefined;
   const cueEveryS = current ? protocol.steps[current.index]?.cueEveryS : undefined;
-  const isDropStep = current !== null && (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') && cueEveryS !== undefined;
-  const dropDue = isDropStep && facts.lastDropOrStartMs !== null && serverNowMs - facts.lastDropOrStartMs >= (cueEveryS ?? 0) * 1000;
-  const infusionStartMs = facts.replay.runs.get(protocol.steps.find((s) => s.kind === 'infusion')?.id ?? '')?.[0]?.startMs ?? null;
+  const isDropStep =
+    current !== null &&
+    (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') &&
+    cueEveryS !== undefined;
+  const dropDue =
+    isDropStep &&
+    facts.lastDropOrStartMs !== null &&
+    serverNowMs - facts.lastDropOrStartMs >= (cueEveryS ?? 0) * 1000;
+  const infusionStartMs =
+    facts.replay.runs.get(protocol.steps.find((s) => s.kind === 'infusion')?.id ?? '')?.[0]
+      ?.startMs ?? null;
 
-  const showVolume = protocol.kind === 'pdt' && clock.infusedVolumeMl !== null && (current === null || current.kind === 'infusion' || current.kind === 'wait');
-  const untimed = current !== null && current.durationS === null && !(current.kind === 'wait' && clock.lightStartInS !== null);
+  const showVolume =
+    protocol.kind === 'pdt' &&
+    clock.infusedVolumeMl !== null &&
+    (current === null || current.kind === 'infusion' || current.kind === 'wait');
+  const untimed =
+    current !== null &&
+    current.durationS === null &&
+    !(current.kind === 'wait' && clock.lightStartInS !== null);
 
   return (
     <div
       className={`flex flex-col gap-1 rounded-2xl border-2 bg-white px-5 py-3 ${
-        flash ? 'border-iris-700 ring-8 ring-iris-300' : face.status.alarm ? 'border-alarm-700' : 'border-paper-300'
+        flash
+          ? 'border-iris-700 ring-8 ring-iris-300'
+          : face.status.alarm
+            ? 'border-alarm-700'
+            : 'border-paper-300'
       }`}
     >
       <div className="flex items-start justify-between gap-4">
         <h2 className="min-w-0 text-xl font-semibold leading-snug text-paper-950">
           <span className="block text-sm font-medium text-paper-700">
-            {current ? `Step ${current.index + 1} of ${protocol.steps.length}` : clock.next ? `Next: step ${clock.next.index + 1} of ${protocol.steps.length}` : 'Steps done'}
+            {current
+              ? `Step ${current.index + 1} of ${protocol.steps.length}`
+              : clock.next
+                ? `Next: step ${clock.next.index + 1} of ${protocol.steps.length}`
+                : 'Steps done'}
           </span>
           {step?.title ?? 'All steps done'}
         </h2>
-        <p className={`flex shrink-0 items-center gap-1.5 text-lg font-semibold ${face.status.alarm ? 'text-alarm-700' : 'text-paper-900'}`}>
+        <p
+          className={`flex shrink-0 items-center gap-1.5 text-lg font-semibold ${face.status.alarm ? 'text-alarm-700' : 'text-paper-900'}`}
+        >
           <face.status.Icon className="size-6" />
           {face.status.word}
         </p>
       </div>
 
       {/* The data- figures let the benchmark compare what the clock worked out with the true schedule. */}
-      <p role="timer" aria-label={face.timerName} data-exact-ms={face.exactMs ?? undefined} data-server-now-ms={serverNowMs} data-device-now-ms={deviceNowMs} className={`numerals-steady font-semibold ${untimed ? 'text-clock-sm' : 'text-clock'} ${face.status.alarm ? 'text-alarm-700' : 'text-paper-950'}`}>
+      <p
+        role="timer"
+        aria-label={face.timerName}
+        data-exact-ms={face.exactMs ?? undefined}
+        data-server-now-ms={serverNowMs}
+        data-device-now-ms={deviceNowMs}
+        className={`numerals-steady font-semibold ${untimed ? 'text-clock-sm' : 'text-clock'} ${face.status.alarm ? 'text-alarm-700' : 'text-paper-950'}`}
+      >
         {face.value}
       </p>
       <div className="flex min-h-9 items-center gap-4">
         {flash ? (
           // The cue's words for a moment, where the eye already is; the screen reader hears them from the live region.
-          <p aria-hidden="true" className="flex shrink-0 items-center gap-2 rounded-lg bg-iris-700 px-3 py-1 text-lg font-bold text-white">
-            {flash.kind === 'drop' ? <DropletIcon className="size-6 shrink-0" /> : <AlertIcon className="size-6 shrink-0" />}
+          <p
+            aria-hidden="true"
+            className="flex shrink-0 items-center gap-2 rounded-lg bg-iris-700 px-3 py-1 text-lg font-bold text-white"
+          >
+            {flash.kind === 'drop' ? (
+              <DropletIcon className="size-6 shrink-0" />
+            ) : (
+              <AlertIcon className="size-6 shrink-0" />
+            )}
             {flash.text}
           </p>
         ) : (
@@ -139,7 +215,10 @@ export function ClockFace({
         )}
         {face.progress !== null && (
           <div aria-hidden="true" className="h-3 flex-1 overflow-hidden rounded-full bg-paper-200">
-            <div className="h-full rounded-full bg-iris-700" style={{ width: `${Math.round(face.progress * 1000) / 10}%` }} />
+            <div
+              className="h-full rounded-full bg-iris-700"
+              style={{ width: `${Math.round(face.progress * 1000) / 10}%` }}
+            />
           </div>
         )}
       </div>
@@ -149,7 +228,10 @@ export function ClockFace({
           <li className="flex items-center gap-2">
             <DropletIcon className="size-5" />
             <span>
-              Given so far <strong className="numerals-steady">{formatFigure(clock.infusedVolumeMl, 1)} mL</strong>
+              Given so far{' '}
+              <strong className="numerals-steady">
+                {formatFigure(clock.infusedVolumeMl, 1)} mL
+              </strong>
               {protocol.drug && ` of ${formatFigure(protocol.drug.finalVolumeMl)} mL`}
               <span className="text-base text-paper-700"> (planned rate × time)</span>
             </span>
@@ -159,8 +241,16 @@ export function ClockFace({
           <li className="flex items-center gap-2">
             <LightBeamIcon className="size-5" />
             <span>
-              Light starts in <strong className="numerals-steady">{formatRemaining(Math.max(0, clock.lightStartInS))}</strong>
-              {infusionStartMs !== null && <span className="text-base text-paper-700"> (from the infusion start, {formatWardTime(infusionStartMs)})</span>}
+              Light starts in{' '}
+              <strong className="numerals-steady">
+                {formatRemaining(Math.max(0, clock.lightStartInS))}
+              </strong>
+              {infusionStartMs !== null && (
+                <span className="text-base text-paper-700">
+                  {' '}
+                  (from the infusion start, {formatWardTime(infusionStartMs)})
+                </span>
+              )}
             </span>
           </li>
         )}
@@ -171,10 +261,13 @@ export function ClockFace({
               <span>Drop due now</span>
             ) : (
               <span>
-                Next drop in <strong className="numerals-steady">{formatRemaining(clock.nextCueInS)}</strong>
+                Next drop in{' '}
+                <strong className="numerals-steady">{formatRemaining(clock.nextCueInS)}</strong>
               </span>
             )}
-            <span className="text-base font-normal text-paper-700">· {facts.dropsInCurrentStep} given in this step</span>
+            <span className="text-base font-normal text-paper-700">
+              · {facts.dropsInCurrentStep} given in this step
+            </span>
           </li>
         )}
         {clock.pulse && (
@@ -182,7 +275,12 @@ export function ClockFace({
             <LightBeamIcon className="size-5" />
             <span>
               Pulsed UV: <strong>{clock.pulse.lightOn ? 'light on' : 'light off'}</strong>
-              {clock.pulse.phaseLeftS !== null && <span className="numerals-steady"> for {formatRemaining(clock.pulse.phaseLeftS)}</span>}
+              {clock.pulse.phaseLeftS !== null && (
+                <span className="numerals-steady">
+                  {' '}
+                  for {formatRemaining(clock.pulse.phaseLeftS)}
+                </span>
+              )}
             </span>
           </li>
         )}

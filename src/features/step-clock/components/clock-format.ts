@@ -31,8 +31,19 @@ let wardClocks: { long: Intl.DateTimeFormat; short: Intl.DateTimeFormat } | null
 /** A moment on the ward clock (the unit's time zone, whatever the tablet's setting). */
 export function formatWardTime(ms: number, withSeconds = true): string {
   wardClocks ??= {
-    long: new Intl.DateTimeFormat('en-GB', { timeZone: unitTimeZone, hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23' }),
-    short: new Intl.DateTimeFormat('en-GB', { timeZone: unitTimeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }),
+    long: new Intl.DateTimeFormat('en-GB', {
+      timeZone: unitTimeZone,
+      hour: '2-digit',
+      minute: '2-digit',
+      second: '2-digit',
+      hourCycle: 'h23',
+    }),
+    short: new Intl.DateTimeFormat('en-GB', {
+      timeZone: unitTimeZone,
+      hour: '2-digit',
+      minute: '2-digit',
+      hourCycle: 'h23',
+    }),
   };
   return (withSeconds ? wardClocks.long : wardClocks.short).format(new Date(ms));
 }
@@ -59,7 +70,12 @@ export function capitalised(text: string): string {
  * Steps whose end time is part of the dose (infusion, soak, light, UV) end with their own tap;
  * the others (a wait, a measurement, the checks) end when the next step starts.
  */
-export const stepsEndedByTheirOwnTap: ReadonlySet<StepKind> = new Set(['infusion', 'soak', 'light', 'uv']);
+export const stepsEndedByTheirOwnTap: ReadonlySet<StepKind> = new Set([
+  'infusion',
+  'soak',
+  'light',
+  'uv',
+]);
 
 /** Milliseconds until a count-down shown rounded up changes its whole second. */
 export function msUntilCountdownTicks(seconds: number): number {

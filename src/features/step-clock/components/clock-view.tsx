@@ -17,7 +17,12 @@ import { capitalised, stepNames } from './clock-format';
 import { ClockFace } from './clock-face';
 import { DeviationList } from './deviation-list';
 import { ExposureDialog } from './exposure-dialog';
-import { ExtravasationDialog, ExtravasationNotice, readVolumeInfused, VolumeInfusedField } from './extravasation';
+import {
+  ExtravasationDialog,
+  ExtravasationNotice,
+  readVolumeInfused,
+  VolumeInfusedField,
+} from './extravasation';
 import { eyeWords } from './eye-badge';
 import { OverrideAuthorisationDialog } from './override-authorisation-dialog';
 import { ReasonDialog } from './reason-dialog';
@@ -69,7 +74,9 @@ export function ClockView({
   watching: boolean;
 }) {
   const [muted, setMuted] = useMutedPreference();
-  const [dialog, setDialog] = useState<null | 'stop' | 'override' | 'extravasation' | 'exposure'>(null);
+  const [dialog, setDialog] = useState<null | 'stop' | 'override' | 'extravasation' | 'exposure'>(
+    null,
+  );
   const [stopVolumeText, setStopVolumeText] = useState('');
   const [stopVolumeError, setStopVolumeError] = useState<string | undefined>();
   const finalVolumeMl = protocol.drug?.finalVolumeMl ?? null;
@@ -77,7 +84,12 @@ export function ClockView({
   // Mirrors the server: a PDT stop after the infusion started records the volume the pump shows
   // (unless an extravasation recorded it already).
   const stopNeedsVolume =
-    finalVolumeMl !== null && infusionStepId !== undefined && volumeInfusedRequired('session-stopped', { infusionStarted: facts.replay.runs.has(infusionStepId), volumeKnown: facts.replay.volumeInfusedMl !== null });
+    finalVolumeMl !== null &&
+    infusionStepId !== undefined &&
+    volumeInfusedRequired('session-stopped', {
+      infusionStarted: facts.replay.runs.has(infusionStepId),
+      volumeKnown: facts.replay.volumeInfusedMl !== null,
+    });
   const lightStep = protocol.steps.find((step) => step.kind === 'light');
   // Stop and extravasation are timed at the press that opened the dialog, not at the confirmation.
   const pressedAtMs = useRef(0);
@@ -89,9 +101,24 @@ export function ClockView({
 
   const current = clock.current;
   const cueEveryS = current ? (protocol.steps[current.index]?.cueEveryS ?? null) : null;
-  const isDropStep = current !== null && (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') && cueEveryS !== null;
-  const cueWords = useMemo(() => ({ stepName: current ? stepNames[current.kind] : 'step' }), [current?.kind]);
-  const flash = useCues({ clock, cueEveryS, dropCount: facts.dropsInCurrentStep, isDropStep, muted, enabled: !watching, words: cueWords, announce });
+  const isDropStep =
+    current !== null &&
+    (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') &&
+    cueEveryS !== null;
+  const cueWords = useMemo(
+    () => ({ stepName: current ? stepNames[current.kind] : 'step' }),
+    [current?.kind],
+  );
+  const flash = useCues({
+    clock,
+    cueEveryS,
+    dropCount: facts.dropsInCurrentStep,
+    isDropStep,
+    muted,
+    enabled: !watching,
+    words: cueWords,
+    announce,
+  });
 
   // Step changes are said once, politely; the clock itself is never read out on its own.
   const currentId = current?.id ?? null;
@@ -107,7 +134,9 @@ export function ClockView({
     if (current) announce(`${capitalised(stepNames[current.kind])} started: ${current.title}.`);
     else if (endedId) {
       const ended = protocol.steps.find((step) => step.id === endedId);
-      announce(`${capitalised(ended ? stepNames[ended.kind] : 'step')} ended.${clock.next ? ` Next: ${clock.next.title}.` : ''}`);
+      announce(
+        `${capitalised(ended ? stepNames[ended.kind] : 'step')} ended.${clock.next ? ` Next: ${clock.next.title}.` : ''}`,
+      );
     }
   }, [announce, clock.next, current, currentId, protocol.steps]);
 
@@ -120,7 +149,10 @@ export function ClockView({
     }
     for (const deviation of deviations) {
       if (seenDeviations.current.has(deviation.id)) continue;
-      announce(`New deviation, ${deviation.severity}: ${deviation.message}`, deviation.severity === 'minor' ? 'polite' : 'assertive');
+      announce(
+        `New deviation, ${deviation.severity}: ${deviation.message}`,
+        deviation.severity === 'minor' ? 'polite' : 'assertive',
+      );
     }
     seenDeviations.current = ids;
   }, [announce, deviations]);
@@ -134,7 +166,15 @@ export function ClockView({
     <div className="grid gap-4 lg:grid-cols-[minmax(0,1.75fr)_minmax(0,1fr)]">
       <div className="flex min-w-0 flex-col gap-3">
         {facts.extravasationMs !== null && <ExtravasationNotice atMs={facts.extravasationMs} />}
-        <ClockFace clock={clock} protocol={protocol} plan={plan} facts={facts} serverNowMs={serverNowMs} deviceNowMs={deviceNowMs} flash={flash} />
+        <ClockFace
+          clock={clock}
+          protocol={protocol}
+          plan={plan}
+          facts={facts}
+          serverNowMs={serverNowMs}
+          deviceNowMs={deviceNowMs}
+          flash={flash}
+        />
         {!watching && (
           <StepActions
             clock={clock}
@@ -155,11 +195,19 @@ export function ClockView({
         {!watching && (
           <>
             <div className="flex flex-wrap gap-2">
-              <Button variant="secondary" icon={<StatusStoppedIcon />} onClick={() => openTimed('stop')}>
+              <Button
+                variant="secondary"
+                icon={<StatusStoppedIcon />}
+                onClick={() => openTimed('stop')}
+              >
                 Stop session…
               </Button>
               {protocol.kind === 'pdt' && (
-                <Button variant="secondary" icon={<LeakIcon />} onClick={() => openTimed('extravasation')}>
+                <Button
+                  variant="secondary"
+                  icon={<LeakIcon />}
+                  onClick={() => openTimed('extravasation')}
+                >
                   Extravasation…
                 </Button>
               )}
@@ -176,10 +224,24 @@ export function ClockView({
           </>
         )}
         <div className="flex min-h-0 flex-1 flex-col gap-4 border-t border-paper-200 pt-2 lg:overflow-y-auto lg:pr-1">
-          {!watching && <RecentTaps orderId={order.id} protocol={protocol} events={events} headingId={recentHeading} onRecord={onRecord} announce={announce} />}
+          {!watching && (
+            <RecentTaps
+              orderId={order.id}
+              protocol={protocol}
+              events={events}
+              headingId={recentHeading}
+              onRecord={onRecord}
+              announce={announce}
+            />
+          )}
           <StepList protocol={protocol} clock={clock} facts={facts} headingId={stepsHeading} />
           <DeviationList deviations={deviations} headingId={deviationsHeading} />
-          <SessionCautions protocol={protocol} eyeWord={eyeWords[order.eye]} compact headingId={cautionsHeading} />
+          <SessionCautions
+            protocol={protocol}
+            eyeWord={eyeWords[order.eye]}
+            compact
+            headingId={cautionsHeading}
+          />
         </div>
       </div>
 
@@ -201,12 +263,31 @@ export function ClockView({
         }}
         onConfirm={(reason) => {
           setDialog(null);
-          const volume = stopNeedsVolume && finalVolumeMl !== null ? readVolumeInfused(stopVolumeText, finalVolumeMl) : null;
+          const volume =
+            stopNeedsVolume && finalVolumeMl !== null
+              ? readVolumeInfused(stopVolumeText, finalVolumeMl)
+              : null;
           setStopVolumeText('');
-          onRecord([{ type: 'session-stopped', reason, ...(volume && 'value' in volume ? { volumeInfusedMl: volume.value } : {}) }], pressedAtMs.current);
+          onRecord(
+            [
+              {
+                type: 'session-stopped',
+                reason,
+                ...(volume && 'value' in volume ? { volumeInfusedMl: volume.value } : {}),
+              },
+            ],
+            pressedAtMs.current,
+          );
         }}
       >
-        {stopNeedsVolume && finalVolumeMl !== null && <VolumeInfusedField text={stopVolumeText} onChange={setStopVolumeText} error={stopVolumeError} finalVolumeMl={finalVolumeMl} />}
+        {stopNeedsVolume && finalVolumeMl !== null && (
+          <VolumeInfusedField
+            text={stopVolumeText}
+            onChange={setStopVolumeText}
+            error={stopVolumeError}
+            finalVolumeMl={finalVolumeMl}
+          />
+        )}
       </ReasonDialog>
       <OverrideAuthorisationDialog
         open={dialog === 'override'}
@@ -237,7 +318,10 @@ export function ClockView({
           onDismiss={() => setDialog(null)}
           onRecord={(note, volumeInfusedMl) => {
             setDialog(null);
-            onRecord([{ type: 'extravasation', volumeInfusedMl, ...(note ? { note } : {}) }], pressedAtMs.current);
+            onRecord(
+              [{ type: 'extravasation', volumeInfusedMl, ...(note ? { note } : {}) }],
+              pressedAtMs.current,
+            );
           }}
         />
       )}

@@ -1,12 +1,24 @@
 import type { DeviationSeverity } from '../../../../shared/session/session-events';
-import { AlertIcon, CheckCircleIcon, InfoIcon, StatusStoppedIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  CheckCircleIcon,
+  InfoIcon,
+  StatusStoppedIcon,
+} from '../../../components/ui/icons';
 import type { SessionDeviation } from '../api/session-state-schema';
 import { formatFigure } from './clock-format';
 
-const severityLooks: Record<DeviationSeverity, { word: string; Icon: typeof AlertIcon; box: string }> = {
+const severityLooks: Record<
+  DeviationSeverity,
+  { word: string; Icon: typeof AlertIcon; box: string }
+> = {
   minor: { word: 'Minor', Icon: InfoIcon, box: 'border-paper-400 bg-white' },
   major: { word: 'Major', Icon: AlertIcon, box: 'border-alarm-600 bg-alarm-50' },
-  critical: { word: 'Critical', Icon: StatusStoppedIcon, box: 'border-alarm-800 border-2 bg-alarm-100' },
+  critical: {
+    word: 'Critical',
+    Icon: StatusStoppedIcon,
+    box: 'border-alarm-800 border-2 bg-alarm-100',
+  },
 };
 
 function figure(value: number | null, unit: string | null): string {
@@ -15,7 +27,13 @@ function figure(value: number | null, unit: string | null): string {
 }
 
 /** Deviations from the protocol as the server finds them, each with its severity in a word and an icon. */
-export function DeviationList({ deviations, headingId }: { deviations: readonly SessionDeviation[]; headingId: string }) {
+export function DeviationList({
+  deviations,
+  headingId,
+}: {
+  deviations: readonly SessionDeviation[];
+  headingId: string;
+}) {
   return (
     <section aria-labelledby={headingId} className="flex flex-col gap-2">
       <h2 id={headingId} className="font-semibold text-paper-950">
@@ -31,7 +49,10 @@ export function DeviationList({ deviations, headingId }: { deviations: readonly 
           {deviations.map((deviation) => {
             const look = severityLooks[deviation.severity];
             return (
-              <li key={deviation.id} className={`rounded-lg border px-3 py-2 text-sm text-paper-950 ${look.box}`}>
+              <li
+                key={deviation.id}
+                className={`rounded-lg border px-3 py-2 text-sm text-paper-950 ${look.box}`}
+              >
                 <p className="flex items-center gap-1.5 font-semibold">
                   <look.Icon className="size-4" />
                   {look.word}
@@ -39,7 +60,8 @@ export function DeviationList({ deviations, headingId }: { deviations: readonly 
                 <p>{deviation.message}</p>
                 {(deviation.expected !== null || deviation.actual !== null) && (
                   <p className="numerals-steady text-paper-800">
-                    Expected {figure(deviation.expected, deviation.unit)} · actual {figure(deviation.actual, deviation.unit)}
+                    Expected {figure(deviation.expected, deviation.unit)} · actual{' '}
+                    {figure(deviation.actual, deviation.unit)}
                   </p>
                 )}
               </li>

@@ -10,15 +10,29 @@ import { readFigure } from './entered-figures';
  * figure the exposure is judged on) and the energy when the device shows it. The taps' own
  * difference stays in the record as information.
  */
-export function ExposureDialog({ open, plannedS, onDismiss, onRecord }: { open: boolean; plannedS: number; onDismiss: () => void; onRecord: (figures: { exposureS: number; energyJ?: number }) => void }) {
+export function ExposureDialog({
+  open,
+  plannedS,
+  onDismiss,
+  onRecord,
+}: {
+  open: boolean;
+  plannedS: number;
+  onDismiss: () => void;
+  onRecord: (figures: { exposureS: number; energyJ?: number }) => void;
+}) {
   const [exposureText, setExposureText] = useState('');
   const [energyText, setEnergyText] = useState('');
   const [errors, setErrors] = useState<{ exposure?: string; energy?: string }>({});
 
   const confirm = () => {
     const exposure = readFigure(exposureText, 'exposureS', 'the exposure time', 's');
-    const energy = energyText.trim() === '' ? null : readFigure(energyText, 'energyJ', 'the energy', 'J');
-    const next = { exposure: 'error' in exposure ? exposure.error : undefined, energy: energy && 'error' in energy ? energy.error : undefined };
+    const energy =
+      energyText.trim() === '' ? null : readFigure(energyText, 'energyJ', 'the energy', 'J');
+    const next = {
+      exposure: 'error' in exposure ? exposure.error : undefined,
+      energy: energy && 'error' in energy ? energy.error : undefined,
+    };
     setErrors(next);
     if ('error' in exposure || (energy && 'error' in energy)) return;
     setExposureText('');
@@ -27,7 +41,12 @@ export function ExposureDialog({ open, plannedS, onDismiss, onRecord }: { open: 
   };
 
   return (
-    <Dialog open={open} onDismiss={onDismiss} title="Exposure the laser displays" description={`Copy the figures from the laser's display. The plan is ${plannedS} s; the record judges the exposure on the laser's figure.`}>
+    <Dialog
+      open={open}
+      onDismiss={onDismiss}
+      title="Exposure the laser displays"
+      description={`Copy the figures from the laser's display. The plan is ${plannedS} s; the record judges the exposure on the laser's figure.`}
+    >
       <form
         className="flex flex-col gap-3"
         onSubmit={(event) => {
@@ -35,8 +54,22 @@ export function ExposureDialog({ open, plannedS, onDismiss, onRecord }: { open: 
           confirm();
         }}
       >
-        <TextField label="Exposure time on the laser (s)" inputMode="decimal" autoComplete="off" value={exposureText} error={errors.exposure} onChange={(event) => setExposureText(event.target.value)} />
-        <TextField label="Energy on the laser (J), if it shows one" inputMode="decimal" autoComplete="off" value={energyText} error={errors.energy} onChange={(event) => setEnergyText(event.target.value)} />
+        <TextField
+          label="Exposure time on the laser (s)"
+          inputMode="decimal"
+          autoComplete="off"
+          value={exposureText}
+          error={errors.exposure}
+          onChange={(event) => setExposureText(event.target.value)}
+        />
+        <TextField
+          label="Energy on the laser (J), if it shows one"
+          inputMode="decimal"
+          autoComplete="off"
+          value={energyText}
+          error={errors.energy}
+          onChange={(event) => setEnergyText(event.target.value)}
+        />
         <div className="flex flex-wrap justify-end gap-3">
           <Button variant="secondary" onClick={onDismiss}>
             Later

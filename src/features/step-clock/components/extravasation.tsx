@@ -8,7 +8,17 @@ import { formatWardTime } from './clock-format';
 import { readFigure } from './entered-figures';
 
 /** The volume the pump shows as infused, bounded by the bag's final volume; the server refuses a stop or extravasation without it. */
-export function VolumeInfusedField({ text, onChange, error, finalVolumeMl }: { text: string; onChange: (text: string) => void; error: string | undefined; finalVolumeMl: number }) {
+export function VolumeInfusedField({
+  text,
+  onChange,
+  error,
+  finalVolumeMl,
+}: {
+  text: string;
+  onChange: (text: string) => void;
+  error: string | undefined;
+  finalVolumeMl: number;
+}) {
   return (
     <TextField
       label="Volume infused, as the pump shows it (mL)"
@@ -27,7 +37,11 @@ export function readVolumeInfused(text: string, finalVolumeMl: number) {
   return readFigure(text, 'volumeInfusedMl', 'the volume infused', 'mL', finalVolumeMl);
 }
 
-const extravasationActions = ['Stop the infusion now.', 'Apply a cool compress.', 'Protect the area from light.'];
+const extravasationActions = [
+  'Stop the infusion now.',
+  'Apply a cool compress.',
+  'Protect the area from light.',
+];
 
 function ActionList() {
   return (
@@ -61,12 +75,22 @@ export function ExtravasationDialog({
   const [volumeError, setVolumeError] = useState<string | undefined>();
   const id = useId();
   return (
-    <Dialog open={open} onDismiss={onDismiss} title="Extravasation" description="The infusion has leaked into the tissue around the cannula.">
+    <Dialog
+      open={open}
+      onDismiss={onDismiss}
+      title="Extravasation"
+      description="The infusion has leaked into the tissue around the cannula."
+    >
       <div className="rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-3 text-paper-950">
         <ActionList />
         <p className="mt-2 text-sm">Local policy and licensed practice prevail.</p>
       </div>
-      <VolumeInfusedField text={volumeText} onChange={setVolumeText} error={volumeError} finalVolumeMl={finalVolumeMl} />
+      <VolumeInfusedField
+        text={volumeText}
+        onChange={setVolumeText}
+        error={volumeError}
+        finalVolumeMl={finalVolumeMl}
+      />
       <div className="flex flex-col gap-1.5">
         <label htmlFor={id} className="font-medium text-paper-900">
           Note (optional)
@@ -110,7 +134,10 @@ export function ExtravasationDialog({
 /** Shown at the top of the clock from the moment extravasation is recorded until the session ends. */
 export function ExtravasationNotice({ atMs }: { atMs: number }) {
   return (
-    <div role="alert" className="flex items-start gap-3 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-2 text-paper-950">
+    <div
+      role="alert"
+      className="flex items-start gap-3 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-2 text-paper-950"
+    >
       <LeakIcon className="mt-0.5 size-7 shrink-0 text-alarm-700" />
       <div>
         <p className="text-lg font-bold">Extravasation recorded at {formatWardTime(atMs)}</p>

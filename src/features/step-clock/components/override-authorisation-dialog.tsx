@@ -19,21 +19,41 @@ const reasonMaxChars = 500;
  * e-mail and password on the tablet. This one tap goes straight to the server and never into the
  * tablet's queue, so the password is never kept on the tablet; without the network it cannot be made.
  */
-export function OverrideAuthorisationDialog({ open, orderId, minimumUm, onDismiss, onRecorded }: { open: boolean; orderId: number; minimumUm: number | null; onDismiss: () => void; onRecorded: () => void }) {
+export function OverrideAuthorisationDialog({
+  open,
+  orderId,
+  minimumUm,
+  onDismiss,
+  onRecorded,
+}: {
+  open: boolean;
+  orderId: number;
+  minimumUm: number | null;
+  onDismiss: () => void;
+  onRecorded: () => void;
+}) {
   const queryClient = useQueryClient();
   const [reason, setReason, clearReason] = useStoredDraft(`override.${orderId}`, '');
   const [email, setEmail] = useState('');
   const [password, setPassword] = useState('');
-  const [errors, setErrors] = useState<{ reason?: string; authoriserEmail?: string; authoriserPassword?: string; other?: string }>({});
+  const [errors, setErrors] = useState<{
+    reason?: string;
+    authoriserEmail?: string;
+    authoriserPassword?: string;
+    other?: string;
+  }>({});
   const [busy, setBusy] = useState(false);
   const reasonId = useId();
 
   const submit = async () => {
     const trimmed = reason.trim();
     const next: typeof errors = {};
-    if (trimmed.length < reasonMinChars || trimmed.length > reasonMaxChars) next.reason = `Give a reason of ${reasonMinChars} to ${reasonMaxChars} characters (now ${trimmed.length}).`;
-    if (email.trim() === '') next.authoriserEmail = 'Enter the e-mail of the clinician who authorises it.';
-    if (password === '') next.authoriserPassword = 'The clinician types their own sign-in password.';
+    if (trimmed.length < reasonMinChars || trimmed.length > reasonMaxChars)
+      next.reason = `Give a reason of ${reasonMinChars} to ${reasonMaxChars} characters (now ${trimmed.length}).`;
+    if (email.trim() === '')
+      next.authoriserEmail = 'Enter the e-mail of the clinician who authorises it.';
+    if (password === '')
+      next.authoriserPassword = 'The clinician types their own sign-in password.';
     setErrors(next);
     if (Object.keys(next).length > 0) return;
     setBusy(true);
@@ -57,9 +77,23 @@ export function OverrideAuthorisationDialog({ open, orderId, minimumUm, onDismis
       // The server's sentence is written for people; it goes beside the field it names.
       const fields = isApiRequestError(error) ? error.fields : [];
       const byField: typeof errors = {};
-      for (const field of fields) if (field.path === 'authoriserEmail' || field.path === 'authoriserPassword' || field.path === 'reason') byField[field.path] = describeError(error);
+      for (const field of fields)
+        if (
+          field.path === 'authoriserEmail' ||
+          field.path === 'authoriserPassword' ||
+          field.path === 'reason'
+        )
+          byField[field.path] = describeError(error);
       const offline = isApiRequestError(error) && error.status === 0;
-      setErrors(Object.keys(byField).length > 0 ? byField : { other: offline ? 'The tablet is offline: an authorisation needs the network. Try again when it is back.' : describeError(error) });
+      setErrors(
+        Object.keys(byField).length > 0
+          ? byField
+          : {
+              other: offline
+                ? 'The tablet is offline: an authorisation needs the network. Try again when it is back.'
+                : describeError(error),
+            },
+      );
     } finally {
       setBusy(false);
     }
@@ -96,8 +130,22 @@ export function OverrideAuthorisationDialog({ open, orderId, minimumUm, onDismis
           />
           <FieldError id={`${reasonId}-error`} message={errors.reason} />
         </div>
-        <TextField label="Authorising clinician’s e-mail" type="email" autoComplete="off" value={email} error={errors.authoriserEmail} onChange={(event) => setEmail(event.target.value)} />
-        <TextField label="Authorising clinician’s password" type="password" autoComplete="off" value={password} error={errors.authoriserPassword} onChange={(event) => setPassword(event.target.value)} />
+        <TextField
+          label="Authorising clinician’s e-mail"
+          type="email"
+          autoComplete="off"
+          value={email}
+          error={errors.authoriserEmail}
+          onChange={(event) => setEmail(event.target.value)}
+        />
+        <TextField
+          label="Authorising clinician’s password"
+          type="password"
+          autoComplete="off"
+          value={password}
+          error={errors.authoriserPassword}
+          onChange={(event) => setPassword(event.target.value)}
+        />
         {errors.other && (
           <p role="alert" className="flex items-start gap-1.5 font-medium text-alarm-700">
             <AlertIcon className="mt-0.5 size-5 shrink-0" />

@@ -2,7 +2,10 @@ import { useId, useRef, useState, type ReactNode } from 'react';
 import { drugTimeVerdict } from '../../../../shared/session/session-rules';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
-import { preTreatmentChecks, type PreTreatmentCheck } from '../../../../shared/session/session-events';
+import {
+  preTreatmentChecks,
+  type PreTreatmentCheck,
+} from '../../../../shared/session/session-events';
 import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
@@ -15,19 +18,43 @@ import { EyeBadge, eyeWords } from './eye-badge';
 import { SessionCautions } from './session-cautions';
 
 type Ticks = Record<PreTreatmentCheck, boolean>;
-const noTicks: Ticks = { patientIdentity: false, treatmentEye: false, consent: false, eyewear: false, deviceSettings: false };
+const noTicks: Ticks = {
+  patientIdentity: false,
+  treatmentEye: false,
+  consent: false,
+  eyewear: false,
+  deviceSettings: false,
+};
 
-function checkWords(order: SessionOrder, protocol: ProtocolVersion): Record<PreTreatmentCheck, { label: string; detail: string }> {
+function checkWords(
+  order: SessionOrder,
+  protocol: ProtocolVersion,
+): Record<PreTreatmentCheck, { label: string; detail: string }> {
   const patient = `${order.patient.givenName} ${order.patient.familyName}`;
   return {
-    patientIdentity: { label: 'Patient identity confirmed', detail: `Asked the patient’s name and date of birth and checked the wristband: ${patient}, record ${order.patient.recordNumber}.` },
-    treatmentEye: { label: `Treatment eye confirmed: ${eyeWords[order.eye]}`, detail: 'The eye on the order, the marked eye and the patient’s own answer agree.' },
-    consent: { label: 'Consent confirmed', detail: 'Signed consent for this treatment is in the record.' },
+    patientIdentity: {
+      label: 'Patient identity confirmed',
+      detail: `Asked the patient’s name and date of birth and checked the wristband: ${patient}, record ${order.patient.recordNumber}.`,
+    },
+    treatmentEye: {
+      label: `Treatment eye confirmed: ${eyeWords[order.eye]}`,
+      detail: 'The eye on the order, the marked eye and the patient’s own answer agree.',
+    },
+    consent: {
+      label: 'Consent confirmed',
+      detail: 'Signed consent for this treatment is in the record.',
+    },
     eyewear: {
       label: 'Protective eyewear on everyone in the room',
-      detail: protocol.kind === 'pdt' ? `Rated for the ${protocol.light.wavelengthNm} nm laser, patient and staff.` : 'UV protection for staff; the other eye is covered.',
+      detail:
+        protocol.kind === 'pdt'
+          ? `Rated for the ${protocol.light.wavelengthNm} nm laser, patient and staff.`
+          : 'UV protection for staff; the other eye is covered.',
     },
-    deviceSettings: { label: 'Device settings match the plan', detail: 'Each figure on the device display was read against the plan’s settings shown here.' },
+    deviceSettings: {
+      label: 'Device settings match the plan',
+      detail: 'Each figure on the device display was read against the plan’s settings shown here.',
+    },
   };
 }
 
@@ -58,7 +85,14 @@ export function PreTreatmentChecks({
 
   const start = () => {
     // The server refuses a session start after the beyond-use time; the screen says why first.
-    if (order.beyondUseAt && !drugTimeVerdict('session', serverNowMs, { reconstitutedAt: null, beyondUseAt: order.beyondUseAt }).allowed) return;
+    if (
+      order.beyondUseAt &&
+      !drugTimeVerdict('session', serverNowMs, {
+        reconstitutedAt: null,
+        beyondUseAt: order.beyondUseAt,
+      }).allowed
+    )
+      return;
     const notYet = preTreatmentChecks.filter((check) => !ticks[check]);
     setMissing(notYet);
     if (notYet.length > 0) {
@@ -99,7 +133,11 @@ export function PreTreatmentChecks({
             Not confirmed: {missing.map((check) => words[check].label.toLowerCase()).join('; ')}.
           </Alert>
         )}
-        <Button className="min-h-16 px-8 text-xl" icon={<StartCircleIcon className="size-7" />} onClick={start}>
+        <Button
+          className="min-h-16 px-8 text-xl"
+          icon={<StartCircleIcon className="size-7" />}
+          onClick={start}
+        >
           Start session
         </Button>
       </section>
@@ -109,14 +147,17 @@ export function PreTreatmentChecks({
           <p className="text-paper-700">Treatment eye</p>
           <EyeBadge eye={order.eye} size="huge" />
           <p className="text-lg font-medium text-paper-950">
-            {order.patient.givenName} {order.patient.familyName} · record {order.patient.recordNumber}
+            {order.patient.givenName} {order.patient.familyName} · record{' '}
+            {order.patient.recordNumber}
           </p>
         </div>
-        {beyondUseMs !== null && (
-          <BeyondUse beyondUseMs={beyondUseMs} serverNowMs={serverNowMs} />
-        )}
+        {beyondUseMs !== null && <BeyondUse beyondUseMs={beyondUseMs} serverNowMs={serverNowMs} />}
         <DeviceSettings protocol={protocol} plan={plan} headingId={settingsHeading} />
-        <SessionCautions protocol={protocol} eyeWord={eyeWords[order.eye]} headingId={cautionsHeading} />
+        <SessionCautions
+          protocol={protocol}
+          eyeWord={eyeWords[order.eye]}
+          headingId={cautionsHeading}
+        />
       </div>
     </div>
   );
@@ -126,15 +167,17 @@ function BeyondUse({ beyondUseMs, serverNowMs }: { beyondUseMs: number; serverNo
   if (serverNowMs >= beyondUseMs) {
     return (
       <Alert tone="error" title="The prepared drug is past its beyond-use time" live="none">
-        It was usable until {formatWardTime(beyondUseMs, false)}. Do not infuse it: it is discarded, and a pharmacist makes it up again (Preparation, on the
-        order). The session starts once the fresh preparation is recorded.
+        It was usable until {formatWardTime(beyondUseMs, false)}. Do not infuse it: it is discarded,
+        and a pharmacist makes it up again (Preparation, on the order). The session starts once the
+        fresh preparation is recorded.
       </Alert>
     );
   }
   return (
     <p className="flex items-center gap-2 text-paper-800">
       <CheckCircleIcon className="size-5" />
-      Prepared drug usable until <strong className="numerals-steady">{formatWardTime(beyondUseMs, false)}</strong>
+      Prepared drug usable until{' '}
+      <strong className="numerals-steady">{formatWardTime(beyondUseMs, false)}</strong>
     </p>
   );
 }
@@ -184,7 +227,10 @@ function CheckToggle({
           {detail}
         </p>
       </div>
-      <span aria-hidden="true" className={`flex shrink-0 items-center gap-1.5 font-medium ${checked ? 'text-iris-800' : 'text-paper-700'}`}>
+      <span
+        aria-hidden="true"
+        className={`flex shrink-0 items-center gap-1.5 font-medium ${checked ? 'text-iris-800' : 'text-paper-700'}`}
+      >
         {state}
       </span>
     </div>

@@ -48,7 +48,9 @@ export function ReasonDialog({
     const trimmed = reason.trim();
     const othersFine = checkOthers ? checkOthers() : true;
     if (trimmed.length < reasonMinChars || trimmed.length > reasonMaxChars) {
-      setError(`Give a reason of ${reasonMinChars} to ${reasonMaxChars} characters (now ${trimmed.length}).`);
+      setError(
+        `Give a reason of ${reasonMinChars} to ${reasonMaxChars} characters (now ${trimmed.length}).`,
+      );
       document.getElementById(id)?.focus();
       return;
     }
@@ -67,7 +69,8 @@ export function ReasonDialog({
           {fieldLabel}
         </label>
         <p id={`${id}-hint`} className="text-sm text-paper-600">
-          {reasonMinChars} to {reasonMaxChars} characters; it goes into the record and to the auditor.
+          {reasonMinChars} to {reasonMaxChars} characters; it goes into the record and to the
+          auditor.
         </p>
         <textarea
           id={id}

@@ -13,7 +13,10 @@ import { ReasonDialog } from './reason-dialog';
 /** Enough to catch a slip just made without crowding the clock; older taps are for the auditor. */
 const recentTapCount = 3;
 
-export function tapWords(event: Pick<SessionEventLike, 'type'> & { stepId?: string | null }, protocol: ProtocolVersion): string {
+export function tapWords(
+  event: Pick<SessionEventLike, 'type'> & { stepId?: string | null },
+  protocol: ProtocolVersion,
+): string {
   const step = event.stepId ? protocol.steps.find((s) => s.id === event.stepId) : undefined;
   return `${capitalised(eventWords[event.type])}${step ? ` (${stepNames[step.kind]})` : ''}`;
 }
@@ -58,13 +61,25 @@ export function RecentTaps({
             const words = tapWords(event, protocol);
             const time = formatWardTime(Date.parse(event.clientTime));
             return (
-              <li key={event.idempotencyKey} className="flex items-center gap-2 text-sm text-paper-950">
+              <li
+                key={event.idempotencyKey}
+                className="flex items-center gap-2 text-sm text-paper-950"
+              >
                 <span className="numerals-steady text-paper-700">{time}</span>
                 <span className="min-w-0 flex-1">{words}</span>
-                <Button variant="secondary" className="min-h-tap px-3 py-1.5 text-sm" onClick={() => setChosen(event)}>
+                <Button
+                  variant="secondary"
+                  className="min-h-tap px-3 py-1.5 text-sm"
+                  onClick={() => setChosen(event)}
+                >
                   {/* One flex item, so the button's gap does not split the visible word from its ellipsis. */}
                   <span>
-                    Withdraw<span className="sr-only"> {words.toLowerCase()} at {time}</span>…
+                    Withdraw
+                    <span className="sr-only">
+                      {' '}
+                      {words.toLowerCase()} at {time}
+                    </span>
+                    …
                   </span>
                 </Button>
               </li>
@@ -76,7 +91,11 @@ export function RecentTaps({
         <ul className="flex flex-col gap-1 text-sm text-paper-800" aria-label="Withdrawn taps">
           {withdrawn.map((tap) => (
             <li key={tap.idempotencyKey}>
-              <span className="font-semibold">Withdrawn:</span> <s>{tapWords(tap, protocol)} at {formatWardTime(Date.parse(tap.at))}</s> — “{tap.reason}”
+              <span className="font-semibold">Withdrawn:</span>{' '}
+              <s>
+                {tapWords(tap, protocol)} at {formatWardTime(Date.parse(tap.at))}
+              </s>{' '}
+              — “{tap.reason}”
             </li>
           ))}
         </ul>
@@ -89,8 +108,10 @@ export function RecentTaps({
         description={
           chosen && (
             <p>
-              {tapWords(chosen, protocol)} at {formatWardTime(Date.parse(chosen.clientTime))} will no longer count in the times, drops or deviations. It stays in the
-              record marked withdrawn, with your reason, for the auditor. If something did happen at another moment, tap it again when it does.
+              {tapWords(chosen, protocol)} at {formatWardTime(Date.parse(chosen.clientTime))} will
+              no longer count in the times, drops or deviations. It stays in the record marked
+              withdrawn, with your reason, for the auditor. If something did happen at another
+              moment, tap it again when it does.
             </p>
           )
         }

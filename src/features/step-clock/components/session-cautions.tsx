@@ -19,9 +19,22 @@ export function sessionCautionLines(protocol: ProtocolVersion, eyeWord: string):
   ];
 }
 
-export function SessionCautions({ protocol, eyeWord, compact = false, headingId }: { protocol: ProtocolVersion; eyeWord: string; compact?: boolean; headingId: string }) {
+export function SessionCautions({
+  protocol,
+  eyeWord,
+  compact = false,
+  headingId,
+}: {
+  protocol: ProtocolVersion;
+  eyeWord: string;
+  compact?: boolean;
+  headingId: string;
+}) {
   return (
-    <aside aria-labelledby={headingId} className={`rounded-2xl border border-paper-300 bg-paper-100 text-paper-900 ${compact ? 'px-4 py-3' : 'px-5 py-4'}`}>
+    <aside
+      aria-labelledby={headingId}
+      className={`rounded-2xl border border-paper-300 bg-paper-100 text-paper-900 ${compact ? 'px-4 py-3' : 'px-5 py-4'}`}
+    >
       <h2 id={headingId} className="flex items-center gap-2 font-semibold">
         <ShieldEyeIcon className="size-5 text-paper-700" />
         Cautions
@@ -32,7 +45,9 @@ export function SessionCautions({ protocol, eyeWord, compact = false, headingId 
         ))}
       </ul>
       <details className="mt-2 text-sm" open={!compact}>
-        <summary className="cursor-pointer font-medium text-iris-800">This protocol version’s own cautions ({protocol.cautions.length})</summary>
+        <summary className="cursor-pointer font-medium text-iris-800">
+          This protocol version’s own cautions ({protocol.cautions.length})
+        </summary>
         <ul className="mt-2 list-disc space-y-1 pl-5 leading-relaxed">
           {protocol.cautions.map((caution) => (
             <li key={caution}>{caution}</li>

@@ -1,5 +1,9 @@
 import type { ProtocolStep, ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
-import { replaySession, type SessionEventLike, type SessionReplay } from '../../../../shared/session/dose-record';
+import {
+  replaySession,
+  type SessionEventLike,
+  type SessionReplay,
+} from '../../../../shared/session/dose-record';
 import type { SessionClock } from '../../../../shared/session/session-clock';
 import { exposureMissing, uvStartVerdict } from '../../../../shared/session/session-rules';
 
@@ -22,7 +26,11 @@ export interface SessionFacts {
 }
 
 /** The facts the buttons depend on, read from the same events the clock uses. */
-export function sessionFacts(protocol: ProtocolVersion, events: readonly SessionEventLike[], clock: SessionClock): SessionFacts {
+export function sessionFacts(
+  protocol: ProtocolVersion,
+  events: readonly SessionEventLike[],
+  clock: SessionClock,
+): SessionFacts {
   const replay = replaySession(protocol, events);
   const doneStepIds = new Set([...replay.runs.keys()].filter((id) => id !== replay.openStepId));
   const lastReading = replay.thicknessReadings[replay.thicknessReadings.length - 1];
@@ -41,28 +49,47 @@ export function sessionFacts(protocol: ProtocolVersion, events: readonly Session
     }
   }
 
-  const lightStepId = protocol.kind === 'pdt' ? protocol.steps.find((step) => step.kind === 'light')?.id : undefined;
+  const lightStepId =
+    protocol.kind === 'pdt' ? protocol.steps.find((step) => step.kind === 'light')?.id : undefined;
   const minimumUm = protocol.cxl?.minStromalThicknessUm ?? null;
   let uvGate: SessionFacts['uvGate'] = { allowed: true, why: null };
   // An override reaches the tablet only once the server has checked its clinician's password.
-  const uv = uvStartVerdict(minimumUm, lastReading?.thicknessUm ?? null, replay.thicknessOverrideReason !== null);
+  const uv = uvStartVerdict(
+    minimumUm,
+    lastReading?.thicknessUm ?? null,
+    replay.thicknessOverrideReason !== null,
+  );
   if (!uv.allowed) {
     uvGate =
       uv.lastReadingUm === null
-        ? { allowed: false, why: `Record the thinnest stromal thickness first: UV needs at least ${uv.minimumUm} µm.` }
-        : { allowed: false, why: `The last reading, ${uv.lastReadingUm} µm, is below the ${uv.minimumUm} µm minimum. UV starts only after a reading of at least ${uv.minimumUm} µm or an override a clinician authorises with their password.` };
+        ? {
+            allowed: false,
+            why: `Record the thinnest stromal thickness first: UV needs at least ${uv.minimumUm} µm.`,
+          }
+        : {
+            allowed: false,
+            why: `The last reading, ${uv.lastReadingUm} µm, is below the ${uv.minimumUm} µm minimum. UV starts only after a reading of at least ${uv.minimumUm} µm or an override a clinician authorises with their password.`,
+          };
   }
 
   return {
     replay,
     doneStepIds,
-    lastThickness: lastReading ? { thicknessUm: lastReading.thicknessUm, ms: lastReading.ms } : null,
+    lastThickness: lastReading
+      ? { thicknessUm: lastReading.thicknessUm, ms: lastReading.ms }
+      : null,
     overrideReason: replay.thicknessOverrideReason,
     extravasationMs: replay.extravasationMs,
     dropsInCurrentStep,
     lastDropOrStartMs,
     uvStep: protocol.steps.find((step) => step.kind === 'uv'),
     uvGate,
-    exposureMissing: lightStepId !== undefined && exposureMissing({ lightStarted: replay.runs.has(lightStepId), lightRunning: replay.openStepId === lightStepId, exposureEntered: replay.deviceExposure !== null }),
+    exposureMissing:
+      lightStepId !== undefined &&
+      exposureMissing({
+        lightStarted: replay.runs.has(lightStepId),
+        lightRunning: replay.openStepId === lightStepId,
+        exposureEntered: replay.deviceExposure !== null,
+      }),
   };
 }

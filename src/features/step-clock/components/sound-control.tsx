@@ -9,7 +9,13 @@ import { turnOnAudioOutput, useAudioOutputState } from '../hooks/use-audio-outpu
  * After a reload the browser keeps the page silent until a tap, so a large control asks for one;
  * a nurse who chose silence ("Sound off") is not asked.
  */
-export function SoundControl({ muted, setMuted }: { muted: boolean; setMuted: (muted: boolean) => void }) {
+export function SoundControl({
+  muted,
+  setMuted,
+}: {
+  muted: boolean;
+  setMuted: (muted: boolean) => void;
+}) {
   const output = useAudioOutputState();
   const hintId = useId();
 
@@ -24,13 +30,17 @@ export function SoundControl({ muted, setMuted }: { muted: boolean; setMuted: (m
 
   if (!muted && output !== 'running') {
     return (
-      <div role="status" className="flex w-full flex-col gap-1.5 rounded-xl border-2 border-paper-900 bg-white p-2.5">
+      <div
+        role="status"
+        className="flex w-full flex-col gap-1.5 rounded-xl border-2 border-paper-900 bg-white p-2.5"
+      >
         <p className="flex items-center gap-2 text-lg font-semibold text-paper-950">
           <SoundOffIcon className="size-6 shrink-0" />
           Sound is off
         </p>
         <p id={hintId} className="text-sm text-paper-800">
-          After a reload this browser plays the cues only once the screen has been tapped. The flash still shows.
+          After a reload this browser plays the cues only once the screen has been tapped. The flash
+          still shows.
         </p>
         <Button
           className="w-full text-lg font-semibold"
@@ -64,7 +74,9 @@ export function SoundControl({ muted, setMuted }: { muted: boolean; setMuted: (m
         {muted ? 'Sound off' : 'Sound on'}
       </Button>
       <span id={hintId} className="sr-only">
-        {muted ? 'Press to turn the sound cues back on; the flash and vibration stay.' : 'Press to mute the sound cues; the flash and vibration stay.'}
+        {muted
+          ? 'Press to turn the sound cues back on; the flash and vibration stay.'
+          : 'Press to mute the sound cues; the flash and vibration stay.'}
       </span>
     </>
   );

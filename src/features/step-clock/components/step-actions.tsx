@@ -4,7 +4,16 @@ import { runsRunningMs } from '../../../../shared/session/dose-record';
 import type { NextStep, SessionClock } from '../../../../shared/session/session-clock';
 import { drugTimeVerdict } from '../../../../shared/session/session-rules';
 import { Button } from '../../../components/ui/button';
-import { AlertIcon, CheckCircleIcon, DropletIcon, EndStepIcon, PauseCircleIcon, StartCircleIcon, StatusCompletedIcon, ThicknessGaugeIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  CheckCircleIcon,
+  DropletIcon,
+  EndStepIcon,
+  PauseCircleIcon,
+  StartCircleIcon,
+  StatusCompletedIcon,
+  ThicknessGaugeIcon,
+} from '../../../components/ui/icons';
 import type { EventBody } from '../hooks/use-session-events';
 import { useStoredDraft } from '../hooks/use-stored-draft';
 import { formatRemaining, stepNames, stepsEndedByTheirOwnTap } from './clock-format';
@@ -17,16 +26,23 @@ type Primary =
   | { kind: 'complete'; endStepId: string | null; label: string }
   | { kind: 'blocked'; why: string };
 
-function primaryAction(clock: SessionClock, facts: SessionFacts, beyondUse: { passed: boolean; why: string }): Primary {
+function primaryAction(
+  clock: SessionClock,
+  facts: SessionFacts,
+  beyondUse: { passed: boolean; why: string },
+): Primary {
   const current = clock.current;
   const start = (next: NextStep, endStepId: string | null): Primary => {
-    if (next.kind === 'uv' && !facts.uvGate.allowed) return { kind: 'blocked', why: facts.uvGate.why ?? 'UV cannot start yet.' };
+    if (next.kind === 'uv' && !facts.uvGate.allowed)
+      return { kind: 'blocked', why: facts.uvGate.why ?? 'UV cannot start yet.' };
     // Mirrors the server: no infusion from a drug past its beyond-use time.
-    if (next.kind === 'infusion' && beyondUse.passed) return { kind: 'blocked', why: beyondUse.why };
+    if (next.kind === 'infusion' && beyondUse.passed)
+      return { kind: 'blocked', why: beyondUse.why };
     return { kind: 'start', stepId: next.id, endStepId, label: `Start ${stepNames[next.kind]}` };
   };
   if (current) {
-    if (stepsEndedByTheirOwnTap.has(current.kind)) return { kind: 'end', stepId: current.id, label: `End ${stepNames[current.kind]}` };
+    if (stepsEndedByTheirOwnTap.has(current.kind))
+      return { kind: 'end', stepId: current.id, label: `End ${stepNames[current.kind]}` };
     if (current.kind !== 'aftercare' && clock.next) return start(clock.next, current.id);
     return complete(current.id);
   }
@@ -35,7 +51,11 @@ function primaryAction(clock: SessionClock, facts: SessionFacts, beyondUse: { pa
 
   function complete(endStepId: string | null): Primary {
     // Mirrors the server: a PDT session with light completes once the laser's exposure is entered.
-    if (facts.exposureMissing) return { kind: 'blocked', why: 'Enter the exposure the laser displays before completing the session.' };
+    if (facts.exposureMissing)
+      return {
+        kind: 'blocked',
+        why: 'Enter the exposure the laser displays before completing the session.',
+      };
     return { kind: 'complete', endStepId, label: 'Complete session' };
   }
 }
@@ -71,7 +91,12 @@ export function StepActions({
 }) {
   const current = clock.current;
   const beyondUse = {
-    passed: beyondUseAtMs !== null && !drugTimeVerdict('infusion', serverNowMs, { reconstitutedAt: null, beyondUseAt: new Date(beyondUseAtMs).toISOString() }).allowed,
+    passed:
+      beyondUseAtMs !== null &&
+      !drugTimeVerdict('infusion', serverNowMs, {
+        reconstitutedAt: null,
+        beyondUseAt: new Date(beyondUseAtMs).toISOString(),
+      }).allowed,
     why: 'The drug is past its beyond-use time: discard it. A pharmacist makes it up again (Preparation, on the order); the infusion starts after that.',
   };
   const primary = primaryAction(clock, facts, beyondUse);
@@ -87,32 +112,79 @@ export function StepActions({
     if (primary.kind === 'end') {
       onRecord([{ type: 'step-ended', stepId: primary.stepId }]);
       if (current?.kind === 'light') onEnterExposure();
-    }
-    else if (primary.kind === 'start')
-      onRecord(primary.endStepId ? [{ type: 'step-ended', stepId: primary.endStepId }, { type: 'step-started', stepId: primary.stepId }] : [{ type: 'step-started', stepId: primary.stepId }]);
-    else if (primary.kind === 'complete') onRecord(primary.endStepId ? [{ type: 'step-ended', stepId: primary.endStepId }, { type: 'session-completed' }] : [{ type: 'session-completed' }]);
+    } else if (primary.kind === 'start')
+      onRecord(
+        primary.endStepId
+          ? [
+              { type: 'step-ended', stepId: primary.endStepId },
+              { type: 'step-started', stepId: primary.stepId },
+            ]
+          : [{ type: 'step-started', stepId: primary.stepId }],
+      );
+    else if (primary.kind === 'complete')
+      onRecord(
+        primary.endStepId
+          ? [{ type: 'step-ended', stepId: primary.endStepId }, { type: 'session-completed' }]
+          : [{ type: 'session-completed' }],
+      );
   };
 
   const canPause = current !== null && (current.kind === 'light' || current.kind === 'uv');
   const cueEveryS = current ? protocol.steps[current.index]?.cueEveryS : undefined;
-  const isDropStep = current !== null && (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') && cueEveryS !== undefined;
-  const measures = current !== null && (current.kind === 'thickness' || current.kind === 'swelling');
+  const isDropStep =
+    current !== null &&
+    (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') &&
+    cueEveryS !== undefined;
+  const measures =
+    current !== null && (current.kind === 'thickness' || current.kind === 'swelling');
   const minimumUm = protocol.cxl?.minStromalThicknessUm ?? null;
-  const thin = minimumUm !== null && facts.lastThickness !== null && facts.lastThickness.thicknessUm < minimumUm;
-  const uvInstead = clock.next?.kind === 'swelling' && facts.overrideReason !== null && facts.uvStep && facts.uvGate.allowed ? facts.uvStep : undefined;
+  const thin =
+    minimumUm !== null &&
+    facts.lastThickness !== null &&
+    facts.lastThickness.thicknessUm < minimumUm;
+  const uvInstead =
+    clock.next?.kind === 'swelling' &&
+    facts.overrideReason !== null &&
+    facts.uvStep &&
+    facts.uvGate.allowed
+      ? facts.uvStep
+      : undefined;
 
   // A timed step ended too early can carry on: its time counts over all of its runs.
   const lastStepId = facts.replay.lastStartedStepId;
   const lastStep = lastStepId ? protocol.steps.find((step) => step.id === lastStepId) : undefined;
   const lastRuns = lastStepId ? facts.replay.runs.get(lastStepId) : undefined;
   const stoppedByExtravasation = lastStep?.kind === 'infusion' && facts.extravasationMs !== null;
-  const leftOfLastS = !current && !stoppedByExtravasation && lastStep && lastStep.durationS !== null && stepsEndedByTheirOwnTap.has(lastStep.kind) && lastRuns ? lastStep.durationS - runsRunningMs(lastRuns, serverNowMs) / 1000 : 0;
+  const leftOfLastS =
+    !current &&
+    !stoppedByExtravasation &&
+    lastStep &&
+    lastStep.durationS !== null &&
+    stepsEndedByTheirOwnTap.has(lastStep.kind) &&
+    lastRuns
+      ? lastStep.durationS - runsRunningMs(lastRuns, serverNowMs) / 1000
+      : 0;
 
-  const primaryIcon = primary.kind === 'end' ? <EndStepIcon className="size-8" /> : primary.kind === 'complete' ? <StatusCompletedIcon className="size-8" /> : <StartCircleIcon className="size-8" />;
+  const primaryIcon =
+    primary.kind === 'end' ? (
+      <EndStepIcon className="size-8" />
+    ) : primary.kind === 'complete' ? (
+      <StatusCompletedIcon className="size-8" />
+    ) : (
+      <StartCircleIcon className="size-8" />
+    );
 
   return (
     <div className="flex flex-col gap-3">
-      {measures && current && minimumUm !== null && <ThicknessEntry orderId={orderId} stepId={current.id} minimumUm={minimumUm} facts={facts} onRecord={onRecord} />}
+      {measures && current && minimumUm !== null && (
+        <ThicknessEntry
+          orderId={orderId}
+          stepId={current.id}
+          minimumUm={minimumUm}
+          facts={facts}
+          onRecord={onRecord}
+        />
+      )}
 
       <div className="flex flex-wrap items-stretch gap-3">
         {primary.kind === 'blocked' ? (
@@ -121,12 +193,21 @@ export function StepActions({
             {primary.why}
           </p>
         ) : (
-          <Button className="min-h-16 min-w-64 flex-1 px-6 text-2xl" icon={primaryIcon} onClick={pressPrimary}>
+          <Button
+            className="min-h-16 min-w-64 flex-1 px-6 text-2xl"
+            icon={primaryIcon}
+            onClick={pressPrimary}
+          >
             {primary.label}
           </Button>
         )}
         {isDropStep && current && (
-          <Button variant="secondary" className="min-h-16 min-w-52 px-6 text-2xl" icon={<DropletIcon className="size-8" />} onClick={() => onRecord([{ type: 'drop-given', stepId: current.id }])}>
+          <Button
+            variant="secondary"
+            className="min-h-16 min-w-52 px-6 text-2xl"
+            icon={<DropletIcon className="size-8" />}
+            onClick={() => onRecord([{ type: 'drop-given', stepId: current.id }])}
+          >
             Drop given
           </Button>
         )}
@@ -134,10 +215,20 @@ export function StepActions({
           <Button
             variant="secondary"
             className="min-h-16 px-6 text-xl"
-            icon={current.paused ? <StartCircleIcon className="size-7" /> : <PauseCircleIcon className="size-7" />}
-            onClick={() => onRecord([{ type: current.paused ? 'resumed' : 'paused', stepId: current.id }])}
+            icon={
+              current.paused ? (
+                <StartCircleIcon className="size-7" />
+              ) : (
+                <PauseCircleIcon className="size-7" />
+              )
+            }
+            onClick={() =>
+              onRecord([{ type: current.paused ? 'resumed' : 'paused', stepId: current.id }])
+            }
           >
-            {current.paused ? `Resume ${stepNames[current.kind]}` : `Pause ${stepNames[current.kind]}`}
+            {current.paused
+              ? `Resume ${stepNames[current.kind]}`
+              : `Pause ${stepNames[current.kind]}`}
           </Button>
         )}
       </div>
@@ -155,12 +246,25 @@ export function StepActions({
             </Button>
           )}
           {uvInstead && (
-            <Button variant="secondary" icon={<StartCircleIcon />} onClick={() => onRecord([...(current ? [{ type: 'step-ended' as const, stepId: current.id }] : []), { type: 'step-started', stepId: uvInstead.id }])}>
+            <Button
+              variant="secondary"
+              icon={<StartCircleIcon />}
+              onClick={() =>
+                onRecord([
+                  ...(current ? [{ type: 'step-ended' as const, stepId: current.id }] : []),
+                  { type: 'step-started', stepId: uvInstead.id },
+                ])
+              }
+            >
               Start UV without swelling (override recorded)
             </Button>
           )}
           {leftOfLastS > 0.5 && lastStep && (
-            <Button variant="secondary" icon={<StartCircleIcon />} onClick={() => onRecord([{ type: 'step-started', stepId: lastStep.id }])}>
+            <Button
+              variant="secondary"
+              icon={<StartCircleIcon />}
+              onClick={() => onRecord([{ type: 'step-started', stepId: lastStep.id }])}
+            >
               Continue {stepNames[lastStep.kind]} ({formatRemaining(leftOfLastS)} left)
             </Button>
           )}
@@ -170,7 +274,19 @@ export function StepActions({
   );
 }
 
-function ThicknessEntry({ orderId, stepId, minimumUm, facts, onRecord }: { orderId: number; stepId: string; minimumUm: number; facts: SessionFacts; onRecord: (bodies: readonly EventBody[]) => void }) {
+function ThicknessEntry({
+  orderId,
+  stepId,
+  minimumUm,
+  facts,
+  onRecord,
+}: {
+  orderId: number;
+  stepId: string;
+  minimumUm: number;
+  facts: SessionFacts;
+  onRecord: (bodies: readonly EventBody[]) => void;
+}) {
   const [text, setText, clearText] = useStoredDraft(`thickness.${orderId}`, '');
   const [error, setError] = useState<string | undefined>();
   const id = useId();
@@ -212,16 +328,29 @@ function ThicknessEntry({ orderId, stepId, minimumUm, facts, onRecord }: { order
             className={`numerals-steady min-h-tap w-36 rounded-lg border bg-white px-3 py-1.5 text-2xl text-paper-950 ${error ? 'border-2 border-alarm-700' : 'border-paper-500'}`}
           />
         </div>
-        <Button type="submit" variant="secondary" className="min-h-12 text-lg" icon={<ThicknessGaugeIcon className="size-6" />}>
+        <Button
+          type="submit"
+          variant="secondary"
+          className="min-h-12 text-lg"
+          icon={<ThicknessGaugeIcon className="size-6" />}
+        >
           Record reading
         </Button>
         <div className="min-w-48 flex-1 pb-1 text-paper-950">
           {last ? (
             <p className="flex items-start gap-1.5 text-lg leading-snug">
-              {last.thicknessUm >= minimumUm ? <CheckCircleIcon className="mt-0.5 size-6" /> : <AlertIcon className="mt-0.5 size-6 text-alarm-700" />}
+              {last.thicknessUm >= minimumUm ? (
+                <CheckCircleIcon className="mt-0.5 size-6" />
+              ) : (
+                <AlertIcon className="mt-0.5 size-6 text-alarm-700" />
+              )}
               <span>
                 Last reading <strong className="numerals-steady">{last.thicknessUm} µm</strong>:{' '}
-                {last.thicknessUm >= minimumUm ? `at or above the ${minimumUm} µm minimum` : <strong>below the {minimumUm} µm minimum</strong>}
+                {last.thicknessUm >= minimumUm ? (
+                  `at or above the ${minimumUm} µm minimum`
+                ) : (
+                  <strong>below the {minimumUm} µm minimum</strong>
+                )}
               </span>
             </p>
           ) : (
@@ -236,7 +365,9 @@ function ThicknessEntry({ orderId, stepId, minimumUm, facts, onRecord }: { order
             {error}
           </p>
         )}
-        {facts.overrideReason !== null && <p className="text-sm text-paper-800">Override recorded: “{facts.overrideReason}”</p>}
+        {facts.overrideReason !== null && (
+          <p className="text-sm text-paper-800">Override recorded: “{facts.overrideReason}”</p>
+        )}
       </div>
     </div>
   );

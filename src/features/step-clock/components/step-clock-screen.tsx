@@ -4,7 +4,13 @@ import { readyForSessionStatuses } from '../../../../shared/orders/lifecycle';
 import { sessionClock, type SessionClock } from '../../../../shared/session/session-clock';
 import { preTreatmentChecks } from '../../../../shared/session/session-events';
 import { Button, LinkButton } from '../../../components/ui/button';
-import { AlertIcon, EyeIcon, HourglassIcon, PlugOffIcon, ReloadIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  EyeIcon,
+  HourglassIcon,
+  PlugOffIcon,
+  ReloadIcon,
+} from '../../../components/ui/icons';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
 import { describeError } from '../../../lib/api-client';
@@ -31,8 +37,23 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
   const order = useQuery(stepClockQueries.order(orderId));
   const protocolKey = order.data?.protocol.key ?? '';
   const protocolVersion = order.data?.protocol.version ?? 0;
-  const protocol = useQuery({ ...stepClockQueries.protocol(protocolKey, protocolVersion), enabled: order.data !== undefined });
-  const { session, events, tapsReady, unsent, refused, held, syncState, storageIsPersistent, record, sendAgain, discard } = useSessionEvents(orderId, { records: canRecord });
+  const protocol = useQuery({
+    ...stepClockQueries.protocol(protocolKey, protocolVersion),
+    enabled: order.data !== undefined,
+  });
+  const {
+    session,
+    events,
+    tapsReady,
+    unsent,
+    refused,
+    held,
+    syncState,
+    storageIsPersistent,
+    record,
+    sendAgain,
+    discard,
+  } = useSessionEvents(orderId, { records: canRecord });
   const [tapListOpen, setTapListOpen] = useState(false);
   const tapListId = useId();
   const { polite, assertive, announce } = useAnnouncer();
@@ -42,14 +63,25 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
 
   const plan = order.data?.plan ?? null;
   const definition = protocol.data ?? null;
-  const clock = useMemo(() => (definition && plan ? sessionClock({ protocol: definition, plan, events, nowMs: serverNowMs }) : null), [definition, plan, events, serverNowMs]);
-  const facts = useMemo(() => (definition && clock ? sessionFacts(definition, events, clock) : null), [definition, events, clock]);
+  const clock = useMemo(
+    () =>
+      definition && plan
+        ? sessionClock({ protocol: definition, plan, events, nowMs: serverNowMs })
+        : null,
+    [definition, plan, events, serverNowMs],
+  );
+  const facts = useMemo(
+    () => (definition && clock ? sessionFacts(definition, events, clock) : null),
+    [definition, events, clock],
+  );
   useEffect(() => {
     const waitMs = clock ? msUntilShownChange(clock) : null;
     wakeAt(waitMs === null ? null : nowMs + waitMs);
   }, [clock, nowMs, wakeAt]);
 
-  const failed = [order, protocol, session].find((query) => query.isError && query.data === undefined);
+  const failed = [order, protocol, session].find(
+    (query) => query.isError && query.data === undefined,
+  );
   if (failed) {
     return (
       <StatusPanel
@@ -58,19 +90,33 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
         icon={<PlugOffIcon className="size-6" />}
         title="The step clock cannot load this order"
         actions={
-          <Button icon={<ReloadIcon />} busy={failed.isFetching} onClick={() => void failed.refetch()}>
+          <Button
+            icon={<ReloadIcon />}
+            busy={failed.isFetching}
+            onClick={() => void failed.refetch()}
+          >
             Try again
           </Button>
         }
       >
         <p>{describeError(failed.error)}</p>
-        {unsent.length > 0 && <p className="mt-2 font-medium">Unsent: {unsent.length}. They are kept on this tablet and go out when the server answers.</p>}
+        {unsent.length > 0 && (
+          <p className="mt-2 font-medium">
+            Unsent: {unsent.length}. They are kept on this tablet and go out when the server
+            answers.
+          </p>
+        )}
       </StatusPanel>
     );
   }
   if (order.data && !plan) {
     return (
-      <StatusPanel headingLevel="h1" icon={<AlertIcon className="size-6" />} title="This order has no dose plan to show" actions={<LinkButton to={paths.order.getHref(orderId)}>Open the order</LinkButton>}>
+      <StatusPanel
+        headingLevel="h1"
+        icon={<AlertIcon className="size-6" />}
+        title="This order has no dose plan to show"
+        actions={<LinkButton to={paths.order.getHref(orderId)}>Open the order</LinkButton>}
+      >
         <p>The plan is not available to you for this order, so the clock cannot time it.</p>
       </StatusPanel>
     );
@@ -93,12 +139,17 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
       <header className="flex flex-wrap items-center gap-x-5 gap-y-1 border-b border-paper-200 pb-2">
         <EyeBadge eye={data.eye} />
         <div className="min-w-0 flex-1">
-          <h1 tabIndex={-1} data-page-heading className="truncate text-xl font-semibold text-paper-950">
+          <h1
+            tabIndex={-1}
+            data-page-heading
+            className="truncate text-xl font-semibold text-paper-950"
+          >
             <span className="sr-only">Step clock: </span>
             {patientName}
           </h1>
           <p className="truncate text-sm text-paper-700">
-            Record {data.patient.recordNumber} · {data.protocol.title} (version {data.protocol.version}) · order {data.id}
+            Record {data.patient.recordNumber} · {data.protocol.title} (version{' '}
+            {data.protocol.version}) · order {data.id}
           </p>
         </div>
         {canRecord ? (
@@ -120,29 +171,54 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
         <p className="flex items-start gap-2 rounded-xl border-2 border-paper-900 bg-white px-4 py-2.5 text-paper-950">
           <EyeIcon className="mt-0.5 size-5 shrink-0" />
           <span>
-            <strong className="font-semibold">Watching only.</strong> A nurse at the bedside records the taps; this page shows what they have stored and looks
-            again every 15 seconds.
+            <strong className="font-semibold">Watching only.</strong> A nurse at the bedside records
+            the taps; this page shows what they have stored and looks again every 15 seconds.
           </span>
         </p>
       )}
       {session.isError && session.data && (
         <p role="status" className="flex items-center gap-2 text-sm font-medium text-paper-900">
           <PlugOffIcon className="size-4" />
-          The server did not answer the last update ({describeError(session.error)}). The clock runs on; deviations may be out of date until it answers.
+          The server did not answer the last update ({describeError(session.error)}). The clock runs
+          on; deviations may be out of date until it answers.
         </p>
       )}
-      {canRecord && tapListOpen && unsent.length + refused.length > 0 && <UnsentTaps id={tapListId} unsent={unsent} refused={refused} protocol={definition} sync={syncState} />}
-      <RefusedTaps refused={refused} protocol={definition} onSendAgain={sendAgain} onDiscard={discard} />
+      {canRecord && tapListOpen && unsent.length + refused.length > 0 && (
+        <UnsentTaps
+          id={tapListId}
+          unsent={unsent}
+          refused={refused}
+          protocol={definition}
+          sync={syncState}
+        />
+      )}
+      <RefusedTaps
+        refused={refused}
+        protocol={definition}
+        onSendAgain={sendAgain}
+        onDiscard={discard}
+      />
 
       {notReady ? (
-        <StatusPanel icon={<AlertIcon className="size-6" />} title="This order is not ready for its session" actions={<LinkButton to={paths.order.getHref(orderId)}>Open the order</LinkButton>}>
+        <StatusPanel
+          icon={<AlertIcon className="size-6" />}
+          title="This order is not ready for its session"
+          actions={<LinkButton to={paths.order.getHref(orderId)}>Open the order</LinkButton>}
+        >
           <p>
-            Its status is “{status}”. A session starts from a prepared PDT order (dose checked and prepared by the pharmacy) or a ready CXL order.
+            Its status is “{status}”. A session starts from a prepared PDT order (dose checked and
+            prepared by the pharmacy) or a ready CXL order.
           </p>
         </StatusPanel>
       ) : clock.phase === 'not-started' && !canRecord ? (
-        <StatusPanel icon={<HourglassIcon className="size-6" />} title="The session has not started yet">
-          <p>The clock appears here once the nurse has confirmed the pre-treatment checks and started the session.</p>
+        <StatusPanel
+          icon={<HourglassIcon className="size-6" />}
+          title="The session has not started yet"
+        >
+          <p>
+            The clock appears here once the nurse has confirmed the pre-treatment checks and started
+            the session.
+          </p>
         </StatusPanel>
       ) : clock.phase === 'not-started' ? (
         <PreTreatmentChecks
@@ -151,19 +227,39 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
           plan={plan}
           serverNowMs={serverNowMs}
           onStart={() => {
-            const checks = Object.fromEntries(preTreatmentChecks.map((check) => [check, true])) as Record<(typeof preTreatmentChecks)[number], true>;
+            const checks = Object.fromEntries(
+              preTreatmentChecks.map((check) => [check, true]),
+            ) as Record<(typeof preTreatmentChecks)[number], true>;
             // The protocol's own first step is the same bedside check: it is done with this tap.
             const first = definition.steps[0];
             const checkStep = first?.kind === 'check' ? first.id : null;
             record([
               { type: 'session-started', checks },
-              ...(checkStep ? [{ type: 'step-started' as const, stepId: checkStep }, { type: 'step-ended' as const, stepId: checkStep }] : []),
+              ...(checkStep
+                ? [
+                    { type: 'step-started' as const, stepId: checkStep },
+                    { type: 'step-ended' as const, stepId: checkStep },
+                  ]
+                : []),
             ]);
             announce('Session started.');
           }}
         />
       ) : clock.phase === 'running' ? (
-        <ClockView order={data} protocol={definition} plan={plan} clock={clock} facts={facts} serverNowMs={serverNowMs} deviceNowMs={nowMs} deviations={deviations} events={events} onRecord={record} announce={announce} watching={!canRecord} />
+        <ClockView
+          order={data}
+          protocol={definition}
+          plan={plan}
+          clock={clock}
+          facts={facts}
+          serverNowMs={serverNowMs}
+          deviceNowMs={nowMs}
+          deviations={deviations}
+          events={events}
+          onRecord={record}
+          announce={announce}
+          watching={!canRecord}
+        />
       ) : (
         <SessionOutcome
           orderId={orderId}
@@ -184,10 +280,16 @@ function msUntilShownChange(clock: SessionClock): number | null {
   const waits: number[] = [];
   const current = clock.current;
   if (current && !current.paused) {
-    if (current.remainingS !== null && current.remainingS > 0) waits.push(msUntilCountdownTicks(current.remainingS));
+    if (current.remainingS !== null && current.remainingS > 0)
+      waits.push(msUntilCountdownTicks(current.remainingS));
     else waits.push(msUntilCountupTicks(current.overrunS ?? current.elapsedS));
   }
-  if (clock.lightStartInS !== null) waits.push(clock.lightStartInS > 0 ? msUntilCountdownTicks(clock.lightStartInS) : msUntilCountupTicks(-clock.lightStartInS));
+  if (clock.lightStartInS !== null)
+    waits.push(
+      clock.lightStartInS > 0
+        ? msUntilCountdownTicks(clock.lightStartInS)
+        : msUntilCountupTicks(-clock.lightStartInS),
+    );
   if (clock.nextCueInS !== null) waits.push(msUntilCountdownTicks(clock.nextCueInS));
   if (clock.pulse?.phaseLeftS) waits.push(msUntilCountdownTicks(clock.pulse.phaseLeftS));
   return waits.length > 0 ? Math.min(...waits) : null;

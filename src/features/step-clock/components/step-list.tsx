@@ -1,6 +1,12 @@
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { SessionClock } from '../../../../shared/session/session-clock';
-import { CheckCircleIcon, ChevronRightIcon, DraftCircleIcon, MinusIcon, StatusInSessionIcon } from '../../../components/ui/icons';
+import {
+  CheckCircleIcon,
+  ChevronRightIcon,
+  DraftCircleIcon,
+  MinusIcon,
+  StatusInSessionIcon,
+} from '../../../components/ui/icons';
 import { formatElapsed } from './clock-format';
 import type { SessionFacts } from './session-facts';
 
@@ -16,7 +22,17 @@ const looks: Record<StepState, { word: string; Icon: typeof CheckCircleIcon; tex
 };
 
 /** The protocol's steps in order, each with where the session stands, in a word and an icon. */
-export function StepList({ protocol, clock, facts, headingId }: { protocol: ProtocolVersion; clock: SessionClock; facts: SessionFacts; headingId: string }) {
+export function StepList({
+  protocol,
+  clock,
+  facts,
+  headingId,
+}: {
+  protocol: ProtocolVersion;
+  clock: SessionClock;
+  facts: SessionFacts;
+  headingId: string;
+}) {
   const currentIndex = clock.current?.index ?? clock.next?.index ?? protocol.steps.length;
   return (
     <section aria-labelledby={headingId}>
@@ -30,16 +46,26 @@ export function StepList({ protocol, clock, facts, headingId }: { protocol: Prot
           else if (clock.next?.id === step.id) state = 'next';
           else if (facts.doneStepIds.has(step.id)) state = 'done';
           else if (step.onlyIf && index < currentIndex) state = 'not-needed';
-          else if (step.onlyIf && facts.lastThickness && clock.next && clock.next.index > index) state = 'not-needed';
+          else if (step.onlyIf && facts.lastThickness && clock.next && clock.next.index > index)
+            state = 'not-needed';
           else if (index < currentIndex) state = 'skipped';
           const look = looks[state];
           return (
-            <li key={step.id} aria-current={state === 'now' ? 'step' : undefined} className={`flex items-start gap-2 border-b border-paper-200 py-1.5 text-sm last:border-b-0 ${look.text}`}>
+            <li
+              key={step.id}
+              aria-current={state === 'now' ? 'step' : undefined}
+              className={`flex items-start gap-2 border-b border-paper-200 py-1.5 text-sm last:border-b-0 ${look.text}`}
+            >
               <look.Icon className="mt-0.5 size-4" />
               <span className="w-20 shrink-0">{look.word}</span>
               <span className="min-w-0 flex-1">
                 {step.title}
-                {step.durationS !== null && <span className="numerals-steady text-paper-700"> · {formatElapsed(step.durationS)}</span>}
+                {step.durationS !== null && (
+                  <span className="numerals-steady text-paper-700">
+                    {' '}
+                    · {formatElapsed(step.durationS)}
+                  </span>
+                )}
               </span>
             </li>
           );

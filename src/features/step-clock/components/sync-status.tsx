@@ -68,18 +68,32 @@ export function SyncMarker({
         )}
         {held.forOthers > 0 && (
           <p className="text-sm font-medium text-paper-900">
-            {held.forOthers === 1 ? '1 tap by another person waits for them to sign in' : `${held.forOthers} taps by another person wait for them to sign in`}; not counted here.
+            {held.forOthers === 1
+              ? '1 tap by another person waits for them to sign in'
+              : `${held.forOthers} taps by another person wait for them to sign in`}
+            ; not counted here.
           </p>
         )}
         {held.unowned > 0 && (
           <p className="text-sm font-medium text-paper-900">
-            {held.unowned === 1 ? '1 tap' : `${held.unowned} taps`} from before taps named their person: held, never sent, not counted here.
+            {held.unowned === 1 ? '1 tap' : `${held.unowned} taps`} from before taps named their
+            person: held, never sent, not counted here.
           </p>
         )}
-        {!persistent && <p className="text-sm font-medium text-alarm-700">This browser cannot keep unsent taps over a reload.</p>}
+        {!persistent && (
+          <p className="text-sm font-medium text-alarm-700">
+            This browser cannot keep unsent taps over a reload.
+          </p>
+        )}
       </div>
       {unsent + refused > 0 && (
-        <Button variant="quiet" size="sm" aria-expanded={listOpen} aria-controls={listId} onClick={onToggleList}>
+        <Button
+          variant="quiet"
+          size="sm"
+          aria-expanded={listOpen}
+          aria-controls={listId}
+          onClick={onToggleList}
+        >
           {listOpen ? 'Hide the list' : 'List unsent and refused taps'}
         </Button>
       )}
@@ -100,9 +114,25 @@ export function WatchedAsOf({ updatedAtMs }: { updatedAtMs: number }) {
 const tappedAt = (tap: KeptTap) => formatWardTime(Date.parse(tap.event.clientTime));
 
 /** Every tap this tablet still holds for the server, oldest first: what it is, when it was tapped, and why it waits. */
-export function UnsentTaps({ id, unsent, refused, protocol, sync }: { id: string; unsent: readonly KeptTap[]; refused: readonly KeptTap[]; protocol: ProtocolVersion; sync: SyncState }) {
+export function UnsentTaps({
+  id,
+  unsent,
+  refused,
+  protocol,
+  sync,
+}: {
+  id: string;
+  unsent: readonly KeptTap[];
+  refused: readonly KeptTap[];
+  protocol: ProtocolVersion;
+  sync: SyncState;
+}) {
   return (
-    <section id={id} aria-label="Unsent and refused taps" className="rounded-xl border-2 border-paper-900 bg-white px-4 py-3">
+    <section
+      id={id}
+      aria-label="Unsent and refused taps"
+      className="rounded-xl border-2 border-paper-900 bg-white px-4 py-3"
+    >
       <h2 className="font-semibold text-paper-950">Taps on this tablet not stored by the server</h2>
       {unsent.length === 0 && refused.length === 0 ? (
         <p className="text-sm text-paper-700">None: every tap is stored.</p>
@@ -112,7 +142,8 @@ export function UnsentTaps({ id, unsent, refused, protocol, sync }: { id: string
             <li key={tap.key} className="flex items-center gap-2 text-paper-950">
               <UnsentIcon className="size-5 shrink-0" />
               <span>
-                <strong className="font-semibold">Unsent:</strong> {tapWords(tap.event, protocol)} at {tappedAt(tap)} —{' '}
+                <strong className="font-semibold">Unsent:</strong> {tapWords(tap.event, protocol)}{' '}
+                at {tappedAt(tap)} —{' '}
                 {sync.offline ? 'waiting for the network' : 'waiting to be sent'}
               </span>
             </li>
@@ -121,7 +152,8 @@ export function UnsentTaps({ id, unsent, refused, protocol, sync }: { id: string
             <li key={tap.key} className="flex items-center gap-2 text-alarm-800">
               <CrossCircleIcon className="size-5 shrink-0" />
               <span>
-                <strong className="font-semibold">Refused, not stored:</strong> {tapWords(tap.event, protocol)} at {tappedAt(tap)} (reason below)
+                <strong className="font-semibold">Refused, not stored:</strong>{' '}
+                {tapWords(tap.event, protocol)} at {tappedAt(tap)} (reason below)
               </span>
             </li>
           ))}
@@ -135,30 +167,61 @@ export function UnsentTaps({ id, unsent, refused, protocol, sync }: { id: string
  * Taps the server refused: never shown as stored and not counted on the clock. Each stays on the
  * tablet, with the server's reason, until the nurse sends it again or discards it.
  */
-export function RefusedTaps({ refused, protocol, onSendAgain, onDiscard }: { refused: readonly KeptTap[]; protocol: ProtocolVersion; onSendAgain: (key: string) => void; onDiscard: (key: string) => void }) {
+export function RefusedTaps({
+  refused,
+  protocol,
+  onSendAgain,
+  onDiscard,
+}: {
+  refused: readonly KeptTap[];
+  protocol: ProtocolVersion;
+  onSendAgain: (key: string) => void;
+  onDiscard: (key: string) => void;
+}) {
   if (refused.length === 0) return null;
   return (
-    <section role="alert" aria-label="Refused taps" className="flex flex-col gap-2 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-3">
+    <section
+      role="alert"
+      aria-label="Refused taps"
+      className="flex flex-col gap-2 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-3"
+    >
       <p className="flex items-center gap-2 font-semibold text-paper-950">
         <CrossCircleIcon className="size-6 shrink-0 text-alarm-700" />
-        {refused.length === 1 ? 'The server refused 1 tap: it is not stored and does not count on the clock.' : `The server refused ${refused.length} taps: they are not stored and do not count on the clock.`}
+        {refused.length === 1
+          ? 'The server refused 1 tap: it is not stored and does not count on the clock.'
+          : `The server refused ${refused.length} taps: they are not stored and do not count on the clock.`}
       </p>
       <ul className="flex flex-col gap-2">
         {refused.map((tap) => {
           const words = `${tapWords(tap.event, protocol)} at ${tappedAt(tap)}`;
           return (
-            <li key={tap.key} className="flex flex-wrap items-center gap-x-3 gap-y-1.5 border-t border-alarm-200 pt-2 first:border-t-0 first:pt-0">
+            <li
+              key={tap.key}
+              className="flex flex-wrap items-center gap-x-3 gap-y-1.5 border-t border-alarm-200 pt-2 first:border-t-0 first:pt-0"
+            >
               <div className="min-w-0 flex-1 text-paper-950">
                 <p className="font-semibold">Refused: {words}</p>
                 <p className="text-sm">
                   Server’s reason: {tap.refusal?.message ?? 'none given'}
-                  {tap.refusal && tap.refusal.fields.length > 0 && ` (${tap.refusal.fields.map((field) => field.message).join('; ')})`}
+                  {tap.refusal &&
+                    tap.refusal.fields.length > 0 &&
+                    ` (${tap.refusal.fields.map((field) => field.message).join('; ')})`}
                 </p>
               </div>
-              <Button variant="secondary" size="sm" aria-label={`Send again: ${words.toLowerCase()}`} onClick={() => onSendAgain(tap.key)}>
+              <Button
+                variant="secondary"
+                size="sm"
+                aria-label={`Send again: ${words.toLowerCase()}`}
+                onClick={() => onSendAgain(tap.key)}
+              >
                 Send again
               </Button>
-              <Button variant="danger" size="sm" aria-label={`Discard this tap: ${words.toLowerCase()}`} onClick={() => onDiscard(tap.key)}>
+              <Button
+                variant="danger"
+                size="sm"
+                aria-label={`Discard this tap: ${words.toLowerCase()}`}
+                onClick={() => onDiscard(tap.key)}
+              >
                 Discard this tap
               </Button>
             </li>

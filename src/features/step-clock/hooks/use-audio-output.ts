@@ -14,12 +14,23 @@ const listeners = new Set<() => void>();
 
 function audioContextClass(): typeof AudioContext | null {
   if (typeof window === 'undefined') return null;
-  return window.AudioContext ?? (window as Window & { webkitAudioContext?: typeof AudioContext }).webkitAudioContext ?? null;
+  return (
+    window.AudioContext ??
+    (window as Window & { webkitAudioContext?: typeof AudioContext }).webkitAudioContext ??
+    null
+  );
 }
 
 function follow(): void {
   // 'interrupted' (a phone call on some tablets) and 'closed' play nothing, like 'suspended'.
-  const next: AudioOutputState = audio === null ? (audioContextClass() ? 'not-started' : 'unsupported') : audio.state === 'running' ? 'running' : 'suspended';
+  const next: AudioOutputState =
+    audio === null
+      ? audioContextClass()
+        ? 'not-started'
+        : 'unsupported'
+      : audio.state === 'running'
+        ? 'running'
+        : 'suspended';
   if (next === state) return;
   state = next;
   for (const listener of listeners) listener();

@@ -28,7 +28,11 @@ const tunes: Record<CueKind, { atS: number; lengthS: number; hz: number }[]> = {
     { atS: 0.2, lengthS: 0.28, hz: 987.8 },
   ],
 };
-const vibrations: Record<CueKind, number[]> = { soon: [120], now: [300, 150, 300, 150, 500], drop: [200, 100, 200] };
+const vibrations: Record<CueKind, number[]> = {
+  soon: [120],
+  now: [300, 150, 300, 150, 500],
+  drop: [200, 100, 200],
+};
 
 /** One cue's tones on the running output; nothing when the browser has not let the page make sound. */
 export function playCue(kind: CueKind): void {
@@ -55,7 +59,8 @@ export function playCue(kind: CueKind): void {
 
 function vibrate(kind: CueKind): void {
   // Chrome refuses (and complains) before the page has been touched; a reloaded page waits for a tap.
-  const activation = (navigator as Navigator & { userActivation?: { hasBeenActive: boolean } }).userActivation;
+  const activation = (navigator as Navigator & { userActivation?: { hasBeenActive: boolean } })
+    .userActivation;
   if (typeof navigator.vibrate !== 'function' || activation?.hasBeenActive === false) return;
   try {
     navigator.vibrate(vibrations[kind]);
@@ -72,7 +77,8 @@ interface Snapshot {
   dropCount: number;
 }
 
-const crossed = (before: number | null, now: number | null, mark: number) => before !== null && now !== null && before > mark && now <= mark;
+const crossed = (before: number | null, now: number | null, mark: number) =>
+  before !== null && now !== null && before > mark && now <= mark;
 
 export interface CueWords {
   /** "laser", "UV", "infusion"… */
@@ -149,7 +155,11 @@ export function useCues({
       if (urgency) announce(text, urgency);
     };
     const nowMs = Date.now();
-    const dropWasDue = before.dropCueInS !== null && snapshot.dropCueInS !== null && snapshot.dropCueInS > before.dropCueInS + 0.5 && snapshot.dropCount === before.dropCount;
+    const dropWasDue =
+      before.dropCueInS !== null &&
+      snapshot.dropCueInS !== null &&
+      snapshot.dropCueInS > before.dropCueInS + 0.5 &&
+      snapshot.dropCount === before.dropCount;
     const leadForDrops = cueEveryS !== null && cueEveryS >= shortestIntervalWithLeadS;
 
     if (crossed(before.remainingS, snapshot.remainingS, 0)) {
@@ -166,10 +176,17 @@ export function useCues({
       cue('soon', `Light due in ${cueLeadS} seconds.`, 'polite');
     } else if (leadForDrops && crossed(before.dropCueInS, snapshot.dropCueInS, cueLeadS)) {
       cue('soon', `Drop due in ${cueLeadS} seconds.`, null);
-    } else if (snapshot.remainingS === 0 && nowMs - lastReminderMs.current >= overrunReminderS * 1000) {
+    } else if (
+      snapshot.remainingS === 0 &&
+      nowMs - lastReminderMs.current >= overrunReminderS * 1000
+    ) {
       lastReminderMs.current = nowMs;
       cue('now', `Time is up for the ${words.stepName}. End it when ready.`, null);
-    } else if (snapshot.lightStartInS !== null && snapshot.lightStartInS <= 0 && nowMs - lastReminderMs.current >= overrunReminderS * 1000) {
+    } else if (
+      snapshot.lightStartInS !== null &&
+      snapshot.lightStartInS <= 0 &&
+      nowMs - lastReminderMs.current >= overrunReminderS * 1000
+    ) {
       lastReminderMs.current = nowMs;
       cue('now', 'The light is late: start the laser.', null);
     }

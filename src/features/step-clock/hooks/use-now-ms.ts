@@ -7,7 +7,10 @@ import { useCallback, useEffect, useRef, useState } from 'react';
  * sleeping tab is right on its first frame back, and a second changes on time, not up to a
  * tick late.
  */
-export function useNowMs(intervalMs = 250): { nowMs: number; wakeAt: (deviceMs: number | null) => void } {
+export function useNowMs(intervalMs = 250): {
+  nowMs: number;
+  wakeAt: (deviceMs: number | null) => void;
+} {
   const [nowMs, setNowMs] = useState(() => Date.now());
   const wakeTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
 
@@ -38,10 +41,13 @@ export function useNowMs(intervalMs = 250): { nowMs: number; wakeAt: (deviceMs: 
       const delayMs = atMs - Date.now();
       // The regular tick comes soon enough for anything further off.
       if (delayMs >= intervalMs) return;
-      wakeTimer.current = setTimeout(() => {
-        wakeTimer.current = null;
-        setNowMs(Date.now());
-      }, Math.max(0, delayMs) + 2);
+      wakeTimer.current = setTimeout(
+        () => {
+          wakeTimer.current = null;
+          setNowMs(Date.now());
+        },
+        Math.max(0, delayMs) + 2,
+      );
     },
     [intervalMs],
   );

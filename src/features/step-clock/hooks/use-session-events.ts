@@ -9,7 +9,11 @@ import { stepClockQueries } from '../api/step-clock-queries';
 import { newIdempotencyKey, tapStoreFor, type KeptTap } from '../api/tap-store';
 
 /** What a tap says, without the key and time the tablet adds. */
-export type EventBody = SessionEventInput extends infer E ? (E extends unknown ? Omit<E, 'idempotencyKey' | 'clientTime'> : never) : never;
+export type EventBody = SessionEventInput extends infer E
+  ? E extends unknown
+    ? Omit<E, 'idempotencyKey' | 'clientTime'>
+    : never
+  : never;
 
 const noTaps: readonly KeptTap[] = [];
 const notSending: SyncState = { sending: false, offline: false, retryAtMs: null };
@@ -31,11 +35,31 @@ export function useSessionEvents(orderId: number, { records }: { records: boolea
   const session = useQuery(stepClockQueries.session(orderId));
   const store = records ? tapStoreFor(orderId) : null;
   const sync = store ? eventSyncFor(orderId, store) : null;
-  const kept = useSyncExternalStore(store?.subscribe ?? unchanging, store?.taps ?? (() => noTaps), store?.taps ?? (() => noTaps));
-  const tapsReady = useSyncExternalStore(store?.subscribe ?? unchanging, store?.ready ?? alwaysReady, store?.ready ?? alwaysReady);
-  const heldForOthers = useSyncExternalStore(store?.subscribe ?? unchanging, store?.heldForOthers ?? none, store?.heldForOthers ?? none);
-  const heldUnowned = useSyncExternalStore(store?.subscribe ?? unchanging, store?.heldUnowned ?? none, store?.heldUnowned ?? none);
-  const syncState = useSyncExternalStore(sync?.subscribe ?? unchanging, sync?.state ?? (() => notSending), sync?.state ?? (() => notSending));
+  const kept = useSyncExternalStore(
+    store?.subscribe ?? unchanging,
+    store?.taps ?? (() => noTaps),
+    store?.taps ?? (() => noTaps),
+  );
+  const tapsReady = useSyncExternalStore(
+    store?.subscribe ?? unchanging,
+    store?.ready ?? alwaysReady,
+    store?.ready ?? alwaysReady,
+  );
+  const heldForOthers = useSyncExternalStore(
+    store?.subscribe ?? unchanging,
+    store?.heldForOthers ?? none,
+    store?.heldForOthers ?? none,
+  );
+  const heldUnowned = useSyncExternalStore(
+    store?.subscribe ?? unchanging,
+    store?.heldUnowned ?? none,
+    store?.heldUnowned ?? none,
+  );
+  const syncState = useSyncExternalStore(
+    sync?.subscribe ?? unchanging,
+    sync?.state ?? (() => notSending),
+    sync?.state ?? (() => notSending),
+  );
 
   useEffect(() => {
     if (!sync) return;
@@ -58,12 +82,17 @@ export function useSessionEvents(orderId: number, { records }: { records: boolea
   const events = useMemo<SessionEventLike[]>(() => {
     const stored = session.data?.events ?? [];
     const storedKeys = new Set(stored.map((event) => event.idempotencyKey));
-    const local = kept.filter((tap) => tap.state !== 'refused' && !storedKeys.has(tap.key)).map((tap) => tap.event);
+    const local = kept
+      .filter((tap) => tap.state !== 'refused' && !storedKeys.has(tap.key))
+      .map((tap) => tap.event);
     return [...stored, ...local];
   }, [session.data, kept]);
 
   const latestEventMs = useRef(0);
-  latestEventMs.current = events.reduce((latest, event) => Math.max(latest, Date.parse(event.clientTime) || 0), 0);
+  latestEventMs.current = events.reduce(
+    (latest, event) => Math.max(latest, Date.parse(event.clientTime) || 0),
+    0,
+  );
 
   /**
    * Records one tap (several events made by one tap get times a millisecond apart, so they sort
@@ -74,7 +103,14 @@ export function useSessionEvents(orderId: number, { records }: { records: boolea
     (bodies: readonly EventBody[], atMs?: number): SessionEventInput[] => {
       // Never before the last event: the replay orders by time, and a tap cannot precede the one before it.
       const firstMs = Math.max(Math.round(atMs ?? serverNowMs()), latestEventMs.current + 1);
-      const made = bodies.map((body, index) => ({ ...body, idempotencyKey: newIdempotencyKey(), clientTime: new Date(firstMs + index).toISOString() }) as SessionEventInput);
+      const made = bodies.map(
+        (body, index) =>
+          ({
+            ...body,
+            idempotencyKey: newIdempotencyKey(),
+            clientTime: new Date(firstMs + index).toISOString(),
+          }) as SessionEventInput,
+      );
       if (!store || !sync) throw new Error('A watcher cannot record taps.');
       latestEventMs.current = firstMs + made.length - 1;
       store.add(made);

@@ -3,7 +3,9 @@ import { orderSummarySchema, type OrderSummary } from '../../../../shared/schema
 import { api } from '../../../lib/api-client';
 
 const todayResponseSchema = z.object({
-  lists: z.array(z.object({ id: z.string(), title: z.string(), orders: z.array(orderSummarySchema) })),
+  lists: z.array(
+    z.object({ id: z.string(), title: z.string(), orders: z.array(orderSummarySchema) }),
+  ),
   serverTime: z.string(),
 });
 
@@ -22,5 +24,8 @@ export async function getToday({ signal }: { signal?: AbortSignal } = {}): Promi
   const receivedAtMs = Date.now();
   // The server read its clock somewhere between sending and receiving; the midpoint is the best guess.
   const serverMs = Date.parse(serverTime);
-  return { lists, clockOffsetMs: Number.isNaN(serverMs) ? 0 : serverMs - (sentAtMs + receivedAtMs) / 2 };
+  return {
+    lists,
+    clockOffsetMs: Number.isNaN(serverMs) ? 0 : serverMs - (sentAtMs + receivedAtMs) / 2,
+  };
 }

@@ -7,9 +7,21 @@ import { useServerNowMs } from '../hooks/use-server-now';
 const closingWindowMs = 30 * 60_000;
 
 const states = {
-  usable: { words: 'Usable', Icon: CheckCircleIcon, chip: 'border-iris-300 bg-iris-50 text-iris-900' },
-  closing: { words: 'Under 30 minutes left', Icon: HourglassIcon, chip: 'border-dashed border-paper-800 bg-paper-100 text-paper-950' },
-  past: { words: 'Past beyond-use time — do not use', Icon: CrossCircleIcon, chip: 'border-alarm-700 bg-alarm-50 text-alarm-800' },
+  usable: {
+    words: 'Usable',
+    Icon: CheckCircleIcon,
+    chip: 'border-iris-300 bg-iris-50 text-iris-900',
+  },
+  closing: {
+    words: 'Under 30 minutes left',
+    Icon: HourglassIcon,
+    chip: 'border-dashed border-paper-800 bg-paper-100 text-paper-950',
+  },
+  past: {
+    words: 'Past beyond-use time — do not use',
+    Icon: CrossCircleIcon,
+    chip: 'border-alarm-700 bg-alarm-50 text-alarm-800',
+  },
 } as const;
 
 function clockText(ms: number): string {
@@ -42,7 +54,9 @@ export function BeyondUseChip({ beyondUseAt, clockOffsetMs, subject }: BeyondUse
   }, [state, subject]);
 
   return (
-    <span className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border px-2.5 py-0.5 text-sm font-medium ${chip}`}>
+    <span
+      className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border px-2.5 py-0.5 text-sm font-medium ${chip}`}
+    >
       <Icon className="size-4" />
       {words}
       {state !== 'past' && <span className="numerals-steady">· {clockText(remainingMs)} left</span>}

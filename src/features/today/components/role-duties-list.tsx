@@ -4,7 +4,11 @@ import { roleDuties } from '../../../config/role-duties';
 /** Each of the person's roles with one line on what that role gets done in Luxtempo. */
 export function RoleDutiesList({ roles }: { roles: readonly Role[] }) {
   if (roles.length === 0) {
-    return <p className="text-paper-700">Your account has no roles yet. Ask an administrator to give you the roles you work in.</p>;
+    return (
+      <p className="text-paper-700">
+        Your account has no roles yet. Ask an administrator to give you the roles you work in.
+      </p>
+    );
   }
   return (
     <dl className="grid gap-3 lg:grid-cols-2">

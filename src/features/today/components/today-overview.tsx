@@ -35,11 +35,20 @@ export function TodayOverview({ displayName, roles }: TodayOverviewProps) {
             <span className="sr-only">Today, </span>
             {dateLine}
           </p>
-          <h1 tabIndex={-1} data-page-heading className="mt-1 text-3xl font-semibold tracking-tight text-paper-950">
+          <h1
+            tabIndex={-1}
+            data-page-heading
+            className="mt-1 text-3xl font-semibold tracking-tight text-paper-950"
+          >
             {greetingFor(now.hour)}, {displayName}
           </h1>
         </div>
-        <Button variant="secondary" icon={<ReloadIcon />} busy={today.isFetching && !today.isPending} onClick={() => void today.refetch()}>
+        <Button
+          variant="secondary"
+          icon={<ReloadIcon />}
+          busy={today.isFetching && !today.isPending}
+          onClick={() => void today.refetch()}
+        >
           Refresh
         </Button>
       </div>
@@ -56,7 +65,12 @@ export function TodayOverview({ displayName, roles }: TodayOverviewProps) {
             icon={<AlertIcon className="size-6" />}
             title="Your worklists could not be loaded"
             actions={
-              <Button variant="secondary" icon={<ReloadIcon />} busy={today.isFetching} onClick={() => void today.refetch()}>
+              <Button
+                variant="secondary"
+                icon={<ReloadIcon />}
+                busy={today.isFetching}
+                onClick={() => void today.refetch()}
+              >
                 Try again
               </Button>
             }
@@ -66,12 +80,17 @@ export function TodayOverview({ displayName, roles }: TodayOverviewProps) {
         ) : today.data.lists.length === 0 ? (
           <div className="flex gap-3 rounded-xl border border-dashed border-paper-400 bg-paper-100 px-5 py-4 text-paper-800">
             <InfoIcon className="mt-0.5 size-5 text-paper-700" />
-            <p>Your roles have no worklist on this page: there are no orders for you to act on here.</p>
+            <p>
+              Your roles have no worklist on this page: there are no orders for you to act on here.
+            </p>
           </div>
         ) : (
           <>
             {today.isError && (
-              <p role="alert" className="flex items-center gap-2 rounded-lg border border-alarm-700 bg-alarm-50 px-4 py-3 text-alarm-800">
+              <p
+                role="alert"
+                className="flex items-center gap-2 rounded-lg border border-alarm-700 bg-alarm-50 px-4 py-3 text-alarm-800"
+              >
                 <AlertIcon className="size-5" />
                 The lists may be out of date: {describeError(today.error)}
               </p>

@@ -5,12 +5,18 @@ import { trendsResponseSchema, type TrendMonth } from './trend-schemas';
 export type TrendFilter = { from?: string; to?: string; protocol?: string };
 
 /** Sessions and sessions with a deviation per unit month and protocol version. */
-export async function getTrends(filter: TrendFilter, { signal }: { signal?: AbortSignal } = {}): Promise<TrendMonth[]> {
+export async function getTrends(
+  filter: TrendFilter,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<TrendMonth[]> {
   const search = new URLSearchParams();
   if (filter.from) search.set('from', `${filter.from}-01`);
   if (filter.to) search.set('to', `${filter.to}-01`);
   if (filter.protocol) search.set('protocol', filter.protocol);
   const query = search.toString();
-  const { months } = await api.get(`/trends${query ? `?${query}` : ''}`, { schema: trendsResponseSchema, signal });
+  const { months } = await api.get(`/trends${query ? `?${query}` : ''}`, {
+    schema: trendsResponseSchema,
+    signal,
+  });
   return months;
 }

@@ -2,7 +2,14 @@ import { useEffect, useState } from 'react';
 import { TextField } from '../../../components/ui/text-field';
 import { monthPattern } from '../hooks/use-trend-params';
 
-type MonthFieldProps = { label: string; value: string | undefined; min?: string; max?: string; error?: string; onChange: (month: string | undefined) => void };
+type MonthFieldProps = {
+  label: string;
+  value: string | undefined;
+  min?: string;
+  max?: string;
+  error?: string;
+  onChange: (month: string | undefined) => void;
+};
 
 /**
  * A month picker (YYYY-MM). Browsers without one show a text box, so what is typed is checked

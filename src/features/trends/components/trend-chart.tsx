@@ -2,7 +2,12 @@ import { useId } from 'react';
 import type { TrendMonth } from '../api/trend-schemas';
 import { formatRate, monthWords } from './trend-words';
 
-export type TrendSeries = { key: string; title: string; version: number; byMonth: Map<string, TrendMonth> };
+export type TrendSeries = {
+  key: string;
+  title: string;
+  version: number;
+  byMonth: Map<string, TrendMonth>;
+};
 
 // Geometry in CSS pixels: the chart keeps its size and scrolls sideways, so labels never shrink.
 const slotPx = 54;
@@ -22,10 +27,15 @@ function TrendPanel({ series, months }: PanelProps) {
   const width = left + months.length * slotPx + 8;
   const height = top + plotPx + bottom;
   const y = (pct: number) => top + plotPx - (pct / 100) * plotPx;
-  const withSessions = months.map((m) => series.byMonth.get(m)).filter((m): m is TrendMonth => m !== undefined && m.sessions > 0);
+  const withSessions = months
+    .map((m) => series.byMonth.get(m))
+    .filter((m): m is TrendMonth => m !== undefined && m.sessions > 0);
   const sessions = withSessions.reduce((n, m) => n + m.sessions, 0);
   const withDeviation = withSessions.reduce((n, m) => n + m.sessionsWithDeviation, 0);
-  const highest = withSessions.reduce<TrendMonth | null>((best, m) => (best === null || m.ratePct > best.ratePct ? m : best), null);
+  const highest = withSessions.reduce<TrendMonth | null>(
+    (best, m) => (best === null || m.ratePct > best.ratePct ? m : best),
+    null,
+  );
 
   return (
     <figure className="min-w-0 rounded-2xl border border-paper-200 bg-white p-4">
@@ -35,11 +45,20 @@ function TrendPanel({ series, months }: PanelProps) {
         </span>
         <span className="text-sm text-paper-700">
           {sessions} {sessions === 1 ? 'session' : 'sessions'}, {withDeviation} with a deviation
-          {sessions > 0 ? ` (${formatRate(Math.round((withDeviation / sessions) * 1000) / 10)} overall)` : ''}
+          {sessions > 0
+            ? ` (${formatRate(Math.round((withDeviation / sessions) * 1000) / 10)} overall)`
+            : ''}
         </span>
       </figcaption>
       <div className="overflow-x-auto">
-        <svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-labelledby={`${titleId} ${descId}`} className="block text-paper-900">
+        <svg
+          width={width}
+          height={height}
+          viewBox={`0 0 ${width} ${height}`}
+          role="img"
+          aria-labelledby={`${titleId} ${descId}`}
+          className="block text-paper-900"
+        >
           <title id={titleId}>
             Sessions with a deviation per month, {series.title}, version {series.version}
           </title>
@@ -50,7 +69,14 @@ function TrendPanel({ series, months }: PanelProps) {
           </desc>
           {ticks.map((t) => (
             <g key={t}>
-              <line x1={left} x2={width - 8} y1={y(t)} y2={y(t)} stroke={t === 0 ? '#837a6d' : '#e6e1d9'} strokeWidth={t === 0 ? 1.5 : 1} />
+              <line
+                x1={left}
+                x2={width - 8}
+                y1={y(t)}
+                y2={y(t)}
+                stroke={t === 0 ? '#837a6d' : '#e6e1d9'}
+                strokeWidth={t === 0 ? 1.5 : 1}
+              />
               <text x={left - 6} y={y(t)} dy="0.32em" textAnchor="end" fontSize="12" fill="#4e473e">
                 {t} %
               </text>
@@ -65,11 +91,31 @@ function TrendPanel({ series, months }: PanelProps) {
               <g key={m}>
                 {cell && cell.sessions > 0 ? (
                   <>
-                    <rect x={cx - barPx / 2} y={y(cell.ratePct)} width={barPx} height={Math.max(0, (cell.ratePct / 100) * plotPx)} rx={3} fill="#6139ad" />
-                    <text x={cx} y={y(cell.ratePct) - 20} textAnchor="middle" fontSize="13" fontWeight="600" fill="#26221d">
+                    <rect
+                      x={cx - barPx / 2}
+                      y={y(cell.ratePct)}
+                      width={barPx}
+                      height={Math.max(0, (cell.ratePct / 100) * plotPx)}
+                      rx={3}
+                      fill="#6139ad"
+                    />
+                    <text
+                      x={cx}
+                      y={y(cell.ratePct) - 20}
+                      textAnchor="middle"
+                      fontSize="13"
+                      fontWeight="600"
+                      fill="#26221d"
+                    >
                       {formatRate(cell.ratePct)}
                     </text>
-                    <text x={cx} y={y(cell.ratePct) - 6} textAnchor="middle" fontSize="11" fill="#4e473e">
+                    <text
+                      x={cx}
+                      y={y(cell.ratePct) - 6}
+                      textAnchor="middle"
+                      fontSize="11"
+                      fill="#4e473e"
+                    >
                       {cell.sessionsWithDeviation} of {cell.sessions}
                     </text>
                   </>
@@ -82,7 +128,13 @@ function TrendPanel({ series, months }: PanelProps) {
                   {monthWords(m).split(' ')[0]}
                 </text>
                 {showYear && (
-                  <text x={cx} y={top + plotPx + 31} textAnchor="middle" fontSize="11" fill="#655d52">
+                  <text
+                    x={cx}
+                    y={top + plotPx + 31}
+                    textAnchor="middle"
+                    fontSize="11"
+                    fill="#655d52"
+                  >
                     {year}
                   </text>
                 )}

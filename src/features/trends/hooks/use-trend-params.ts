@@ -12,7 +12,11 @@ function readFilter(search: URLSearchParams): TrendFilter {
     const value = search.get(key);
     return value && rule.test(value) ? value : undefined;
   };
-  return { from: read('from', month), to: read('to', month), protocol: read('protocol', protocolKey) };
+  return {
+    from: read('from', month),
+    to: read('to', month),
+    protocol: read('protocol', protocolKey),
+  };
 }
 
 /** The chart's months and protocol, kept in the address. A value the API would refuse is left out. */
@@ -21,7 +25,8 @@ export function useTrendParams() {
   const filter = useMemo(() => readFilter(search), [search]);
 
   const update = useCallback(
-    (changes: Partial<TrendFilter>) => changeSearch((latest) => writeListParams({ ...readFilter(latest), ...changes }, keys)),
+    (changes: Partial<TrendFilter>) =>
+      changeSearch((latest) => writeListParams({ ...readFilter(latest), ...changes }, keys)),
     [changeSearch],
   );
 
