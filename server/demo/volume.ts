@@ -6,7 +6,7 @@ import type { DosePlan, PlanInputs } from '../../shared/schemas/calculation';
 import { deriveDoseRecord } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
 import type { SessionEvent } from '../../shared/session/session-events';
-import { ProtocolVersion } from '../db/entities/protocol-version';
+import { type ProtocolVersion } from '../db/entities/protocol-version';
 import { createUserRepository } from '../people/repository';
 import { recordOrderFacts } from '../sessions/repository';
 import { cxlScript, newestApprovedVersion, pdtScript, type Step } from './scenario';

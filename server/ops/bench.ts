@@ -250,7 +250,7 @@ console.log(`client build: ${await buildClient()}`);
 const engine = measureEngine(3);
 mkdirSync(path.join(dataDir, 'bench'), { recursive: true });
 const api = await startApiProcess({ port, env, logFile: path.join(dataDir, 'bench', 'api.log') });
-let results: Record<string, unknown> = {};
+let results: Record<string, unknown>;
 try {
   const base = api.url;
   measured = { apiPid: api.child.pid!, databasePid: database.pid() };

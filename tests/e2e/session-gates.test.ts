@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import type { APIRequestContext, Page } from 'playwright-core';
+import type { APIRequestContext } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
 import { accessibilityViolations, startBrowserTest, type BrowserContext } from '../support/browser';

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import supertest from 'supertest';
+import type supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
   createTestPatient,

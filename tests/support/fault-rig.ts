@@ -97,7 +97,7 @@ export class FaultClient {
       body: body === undefined ? undefined : JSON.stringify(body),
     });
     const text = await res.text();
-    let json: unknown = null;
+    let json: unknown;
     try {
       json = JSON.parse(text);
     } catch {

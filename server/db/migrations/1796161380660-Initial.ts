@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class Initial1796161380660 implements MigrationInterface {
   name = 'Initial1796161380660';

@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class ProtocolVersions1796161598177 implements MigrationInterface {
   name = 'ProtocolVersions1796161598177';

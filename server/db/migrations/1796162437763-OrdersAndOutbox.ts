@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class OrdersAndOutbox1796162437763 implements MigrationInterface {
   name = 'OrdersAndOutbox1796162437763';

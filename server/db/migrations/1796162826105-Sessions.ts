@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class Sessions1796162826105 implements MigrationInterface {
   name = 'Sessions1796162826105';

@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class AuditReview1796163852814 implements MigrationInterface {
   name = 'AuditReview1796163852814';

@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class DoseRecordOrderFacts1796177175796 implements MigrationInterface {
   name = 'DoseRecordOrderFacts1796177175796';

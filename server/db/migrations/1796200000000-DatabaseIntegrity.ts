@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 // Frozen copy of server/audit/chain.ts as it stood when this migration landed: a migration must
 // hash old rows the same way whatever the app's code becomes later.

@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class AccountsAndSessions1796293735643 implements MigrationInterface {
   name = 'AccountsAndSessions1796293735643';

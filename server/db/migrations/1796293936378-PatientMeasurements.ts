@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 import { lengthToCm, massToKg } from '../../../shared/engine/units';
 import type { PlanInputs } from '../../../shared/schemas/calculation';
 

@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class ProtocolVersionGuard1796293943222 implements MigrationInterface {
   name = 'ProtocolVersionGuard1796293943222';

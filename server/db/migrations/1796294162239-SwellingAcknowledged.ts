@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class SwellingAcknowledged1796294162239 implements MigrationInterface {
   name = 'SwellingAcknowledged1796294162239';

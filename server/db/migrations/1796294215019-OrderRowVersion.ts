@@ -1,4 +1,4 @@
-import { MigrationInterface, QueryRunner } from 'typeorm';
+import { type MigrationInterface, type QueryRunner } from 'typeorm';
 
 export class OrderRowVersion1796294215019 implements MigrationInterface {
   name = 'OrderRowVersion1796294215019';
