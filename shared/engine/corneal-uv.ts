@@ -35,3 +35,11 @@ export const reciprocityLimitMwPerCm2 = 45;
 export function irradianceAtDepthMwPerCm2(surfaceMwPerCm2: number, depthUm: number): number {
   return surfaceMwPerCm2 * Math.exp(-stromaAttenuationPerCm * (depthUm / 10_000));
 }
+
+/**
+ * The stroma is too thin for UV when a reading is under the protocol's minimum; a reading exactly
+ * at the minimum is enough (common practice: the minimum is the least thickness allowed).
+ */
+export function belowMinimumThickness(thicknessUm: number, minimumUm: number): boolean {
+  return thicknessUm < minimumUm;
+}

@@ -1,7 +1,8 @@
-import { pulsedElapsedS, type ProtocolVersion } from '../protocol/protocol-schema';
+import type { ProtocolVersion } from '../protocol/protocol-schema';
 import type { DosePlan, PlanInputs } from '../schemas/calculation';
 import {
   attenuationSource,
+  belowMinimumThickness,
   endothelialCytotoxicDoseJPerCm2,
   endothelialEstimateLabel,
   endothelialIrradianceLimitMwPerCm2,
@@ -10,7 +11,12 @@ import {
   stromaAttenuationPerCm,
 } from './corneal-uv';
 import { newInputReport, readBodyMeasures, readLimitedNumber, refuseInputs } from './input-limits';
-import { exposureSForFluence, fluenceJPerCm2, lightArithmeticSource } from './light-arithmetic';
+import {
+  exposureSForFluence,
+  fluenceJPerCm2,
+  lightArithmeticSource,
+  pulsedElapsedS,
+} from './light-arithmetic';
 import { PlanInputError } from './plan-input-error';
 import { emptyPlan, missingProtocolPart, protocolRef, recordBsa } from './plan-parts';
 import { formatNumber } from './rounding';
@@ -106,7 +112,7 @@ export function computeCxlPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
   });
 
   const minUm = cxl.minStromalThicknessUm;
-  const thicknessMarginUm = record(working, {
+  record(working, {
     name: 'thicknessMarginUm',
     value: stromalThicknessUm - minUm,
     unit: 'µm',
@@ -117,7 +123,7 @@ export function computeCxlPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     },
     source: `minimum stromal thickness from ${ref}`,
   });
-  plan.thicknessOk = thicknessMarginUm >= 0;
+  plan.thicknessOk = !belowMinimumThickness(stromalThicknessUm, minUm);
   if (!plan.thicknessOk) {
     plan.warnings.push({
       code: 'thickness-below-minimum',

@@ -1,4 +1,5 @@
 import type { DosePlan, WorkingEntry } from '../schemas/calculation';
+import { drugVolumeMlForDose } from './drawn-volume';
 import { withinPct } from './tolerance';
 
 export const doseCheckFields = ['bsaM2', 'doseMg', 'drugVolumeMl'] as const;
@@ -32,7 +33,7 @@ export function doseCheckReferences(plan: DosePlan): Record<DoseCheckField, numb
   const exactDoseMg = bsa && doseMgPerM2 !== undefined ? bsa.value * doseMgPerM2 : undefined;
   const exactVolumeMl =
     exactDoseMg !== undefined && concentrationMgPerMl
-      ? exactDoseMg / concentrationMgPerMl
+      ? drugVolumeMlForDose(exactDoseMg, concentrationMgPerMl)
       : undefined;
   const known = (...values: (number | null | undefined)[]) => [
     ...new Set(values.filter((v): v is number => typeof v === 'number' && Number.isFinite(v))),

@@ -18,3 +18,13 @@ export function drawnDoseShiftPct(drawnDoseMg: number, doseMg: number): number {
 export function worstDrawnDoseShiftPct(graduationMl: number, smallestVolumeMl: number): number {
   return (graduationMl / 2 / smallestVolumeMl) * 100;
 }
+
+/** Drug volume holding a dose: mg ÷ mg/mL = mL. */
+export function drugVolumeMlForDose(doseMg: number, concentrationMgPerMl: number): number {
+  return doseMg / concentrationMgPerMl;
+}
+
+/** Dose held in a drug volume: mL × mg/mL = mg. */
+export function drugMgInVolume(volumeMl: number, concentrationMgPerMl: number): number {
+  return volumeMl * concentrationMgPerMl;
+}

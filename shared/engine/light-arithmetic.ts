@@ -28,3 +28,16 @@ export function exposureSForFluence(fluenceJPerCm2: number, irradianceMwPerCm2: 
 export function energyJ(powerMw: number, exposureS: number): number {
   return (powerMw * exposureS) / mjPerJ;
 }
+
+/** UV on-time stretched by a pulsed cycle: on-time × (on + off) ÷ on. */
+export function pulsedElapsedS(
+  onTimeS: number,
+  pulse: { onS: number; offS: number } | null,
+): number {
+  return pulse === null ? onTimeS : (onTimeS * (pulse.onS + pulse.offS)) / pulse.onS;
+}
+
+/** Light on-time of a pulsed cycle: elapsed × on ÷ (on + off), the inverse of `pulsedElapsedS`. */
+export function pulsedOnS(elapsedS: number, pulse: { onS: number; offS: number } | null): number {
+  return pulse === null ? elapsedS : (elapsedS * pulse.onS) / (pulse.onS + pulse.offS);
+}

@@ -4,7 +4,12 @@ import { newInputReport, readBodyMeasures, readLimitedNumber, refuseInputs } fro
 import { energyJ, fluenceJPerCm2, lightArithmeticSource, spotAreaCm2 } from './light-arithmetic';
 import { PlanInputError } from './plan-input-error';
 import { emptyPlan, missingProtocolPart, protocolRef, recordBsa } from './plan-parts';
-import { drawnDoseShiftPct, maxDrawnDoseShiftPct } from './drawn-volume';
+import {
+  drawnDoseShiftPct,
+  drugMgInVolume,
+  drugVolumeMlForDose,
+  maxDrawnDoseShiftPct,
+} from './drawn-volume';
 import { formatNumber } from './rounding';
 import { record } from './working';
 
@@ -81,7 +86,7 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
   const graduationMl = drug.syringeGraduationMl ?? rounding.volumesMl;
   plan.drugVolumeMl = record(working, {
     name: 'drugVolumeMl',
-    value: plan.doseMg / drug.concentrationMgPerMl,
+    value: drugVolumeMlForDose(plan.doseMg, drug.concentrationMgPerMl),
     unit: 'mL',
     formula: 'doseMg ÷ concentrationMgPerMl, rounded to the syringe graduation',
     inputs: {
@@ -95,7 +100,7 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     step: graduationMl,
   });
   // The dose the drawn volume really holds, and how far rounding moved it.
-  const drawnDoseExactMg = plan.drugVolumeMl * drug.concentrationMgPerMl;
+  const drawnDoseExactMg = drugMgInVolume(plan.drugVolumeMl, drug.concentrationMgPerMl);
   plan.drawnDoseMg = record(working, {
     name: 'drawnDoseMg',
     value: drawnDoseExactMg,

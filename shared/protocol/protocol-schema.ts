@@ -1,6 +1,11 @@
 import { z } from 'zod';
 import { bsaFormulaNames, bsaFormulas } from '../engine/bsa';
-import { maxDrawnDoseShiftPct, worstDrawnDoseShiftPct } from '../engine/drawn-volume';
+import {
+  drugVolumeMlForDose,
+  maxDrawnDoseShiftPct,
+  worstDrawnDoseShiftPct,
+} from '../engine/drawn-volume';
+import { fluenceJPerCm2, pulsedElapsedS } from '../engine/light-arithmetic';
 import { withinPct } from '../engine/tolerance';
 
 /** Two figures that should agree (e.g. irradiance × exposure and the target fluence) may differ by this much. */
@@ -298,16 +303,8 @@ function duplicates(values: string[]): string[] {
   return [...new Set(values.filter((value, index) => values.indexOf(value) !== index))];
 }
 
-/** UV on-time stretched by a pulsed cycle: on-time × (on + off) ÷ on. */
-export function pulsedElapsedS(
-  onTimeS: number,
-  pulse: { onS: number; offS: number } | null,
-): number {
-  return pulse === null ? onTimeS : (onTimeS * (pulse.onS + pulse.offS)) / pulse.onS;
-}
-
 function checkCommon(p: ProtocolShape, issues: Issue[]): void {
-  const fluenceFromTime = (p.light.irradianceMwPerCm2 * p.light.exposureS) / 1000;
+  const fluenceFromTime = fluenceJPerCm2(p.light.irradianceMwPerCm2, p.light.exposureS);
   if (!withinPct(fluenceFromTime, p.light.targetFluenceJPerCm2, protocolAgreementPct)) {
     issues.push({
       path: ['light', 'exposureS'],
@@ -422,7 +419,10 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
   const largestBsaM2 = Math.max(
     ...bsaFormulaNames.map((name) => bsaFormulas[name].bsaM2(heightCm.hard.max, weightKg.hard.max)),
   );
-  const largestDrugVolumeMl = (drug.doseMgPerM2 * largestBsaM2) / drug.concentrationMgPerMl;
+  const largestDrugVolumeMl = drugVolumeMlForDose(
+    drug.doseMgPerM2 * largestBsaM2,
+    drug.concentrationMgPerMl,
+  );
   if (largestDrugVolumeMl > drug.finalVolumeMl) {
     issues.push({
       path: ['drug', 'finalVolumeMl'],
@@ -437,7 +437,10 @@ function checkPdt(p: ProtocolShape, issues: Issue[]): void {
         bsaFormulas[name].bsaM2(heightCm.hard.min, weightKg.hard.min),
       ),
     );
-    const smallestDrugVolumeMl = (drug.doseMgPerM2 * smallestBsaM2) / drug.concentrationMgPerMl;
+    const smallestDrugVolumeMl = drugVolumeMlForDose(
+      drug.doseMgPerM2 * smallestBsaM2,
+      drug.concentrationMgPerMl,
+    );
     const worstPct = worstDrawnDoseShiftPct(drug.syringeGraduationMl, smallestDrugVolumeMl);
     if (worstPct > maxDrawnDoseShiftPct) {
       issues.push({

@@ -1,4 +1,6 @@
+import { fluenceJPerCm2 } from '../engine/light-arithmetic';
 import { formatNumber, roundToStep } from '../engine/rounding';
+import { exceeds, withinAbs, withinPct } from '../engine/tolerance';
 import { formatDuration } from '../format/figures';
 import type { ProtocolVersion } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
@@ -19,11 +21,8 @@ export interface DeviationInput {
   preparation: PreparationTimes | null;
 }
 
-/** A figure exactly at its tolerance is within it; the slack only absorbs binary noise. */
-const slack = 1e-9;
-
 function outside(actual: number, expected: number, tolerance: number): boolean {
-  return Math.abs(actual - expected) > tolerance + slack;
+  return !withinAbs(actual, expected, tolerance);
 }
 
 /**
@@ -168,7 +167,7 @@ export function findDeviations({
     const maxH = tolerances.reconstitutionToInfusionMaxH;
     if (maxH !== null && reconstitutedMs !== null) {
       const actualS = (infusionStartMs - reconstitutedMs) / 1000;
-      if (actualS > maxH * 3600 + slack) {
+      if (exceeds(actualS, maxH * 3600)) {
         add({
           type: 'reconstitution-to-infusion',
           severity: 'major',
@@ -265,10 +264,10 @@ function judgeLight({
   }
   const targetJPerCm2 = plan.fluenceJPerCm2 ?? protocol.light.targetFluenceJPerCm2;
   const irradianceMwPerCm2 = plan.irradianceMwPerCm2 ?? protocol.light.irradianceMwPerCm2;
-  // fluence = irradiance × time; mW/cm² × s ÷ 1000 = J/cm².
-  const deliveredJPerCm2 = record.deliveredFluenceJPerCm2 ?? (irradianceMwPerCm2 * onS) / 1000;
+  const deliveredJPerCm2 =
+    record.deliveredFluenceJPerCm2 ?? fluenceJPerCm2(irradianceMwPerCm2, onS);
   const offPct = ((deliveredJPerCm2 - targetJPerCm2) / targetJPerCm2) * 100;
-  if (Math.abs(deliveredJPerCm2 - targetJPerCm2) * 100 > fluencePct * targetJPerCm2 + slack) {
+  if (!withinPct(deliveredJPerCm2, targetJPerCm2, fluencePct)) {
     add({
       type: 'delivered-fluence',
       severity: 'major',
@@ -323,7 +322,7 @@ function judgeCxl(
       },
     ];
     const over = phases.flatMap((phase) =>
-      phase.gapS !== null && phase.gapS > phase.intervalS * factor + slack
+      phase.gapS !== null && exceeds(phase.gapS, phase.intervalS * factor)
         ? [{ ...phase, gapS: phase.gapS, ratio: phase.gapS / (phase.intervalS * factor) }]
         : [],
     );

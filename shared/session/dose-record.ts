@@ -1,4 +1,5 @@
 import { doseInInfusedVolumeMg } from '../engine/dose-given';
+import { fluenceJPerCm2, pulsedOnS } from '../engine/light-arithmetic';
 import type { ProtocolStep, ProtocolVersion, StepKind } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
 import { isWithdrawableType, type SessionEventInput } from './session-events';
@@ -366,14 +367,10 @@ export function firstStepOfKind(
   return protocol.steps.find((step) => step.kind === kind);
 }
 
-/** Light on-time of a pulsed cycle: elapsed × on ÷ (on + off), the inverse of the plan's stretch. */
-export function pulsedOnS(elapsedS: number, pulse: { onS: number; offS: number } | null): number {
-  return pulse === null ? elapsedS : (elapsedS * pulse.onS) / (pulse.onS + pulse.offS);
-}
-
-/** mW/cm² × s = mJ/cm²; ÷ 1000 for J/cm² (fluence = irradiance × time). */
 function fluenceFrom(irradianceMwPerCm2: number | null, onS: number | null): number | null {
-  return irradianceMwPerCm2 === null || onS === null ? null : (irradianceMwPerCm2 * onS) / 1000;
+  return irradianceMwPerCm2 === null || onS === null
+    ? null
+    : fluenceJPerCm2(irradianceMwPerCm2, onS);
 }
 
 /**

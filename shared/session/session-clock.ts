@@ -1,3 +1,4 @@
+import { belowMinimumThickness } from '../engine/corneal-uv';
 import type { ProtocolStep, ProtocolVersion, StepKind } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
 import {
@@ -207,7 +208,7 @@ function applies(step: ProtocolStep, protocol: ProtocolVersion, replay: SessionR
   return (
     protocol.cxl !== null &&
     last !== undefined &&
-    last.thicknessUm < protocol.cxl.minStromalThicknessUm
+    belowMinimumThickness(last.thicknessUm, protocol.cxl.minStromalThicknessUm)
   );
 }
 

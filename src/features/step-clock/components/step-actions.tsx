@@ -1,4 +1,5 @@
 import { useId, useRef, useState } from 'react';
+import { belowMinimumThickness } from '../../../../shared/engine/corneal-uv';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import { runsRunningMs } from '../../../../shared/session/dose-record';
 import type { NextStep, SessionClock } from '../../../../shared/session/session-clock';
@@ -141,7 +142,7 @@ export function StepActions({
   const thin =
     minimumUm !== null &&
     facts.lastThickness !== null &&
-    facts.lastThickness.thicknessUm < minimumUm;
+    belowMinimumThickness(facts.lastThickness.thicknessUm, minimumUm);
   const uvInstead =
     clock.next?.kind === 'swelling' &&
     facts.overrideReason !== null &&
