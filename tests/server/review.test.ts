@@ -80,15 +80,13 @@ describe('the deviations queue', () => {
     const nurseAgent = await signedInAgent(ctx, nurse);
     const orderIds = [];
     for (const late of [180, 240, 300]) orderIds.push(await sessionWithLateLight(nurseAgent, late));
-    const page1 = await auditorAgent
-      .get('/api/deviations')
-      .query({
-        staff: nurse.id,
-        type: 'light-start-window',
-        pageSize: 2,
-        sort: 'detectedAt',
-        direction: 'asc',
-      });
+    const page1 = await auditorAgent.get('/api/deviations').query({
+      staff: nurse.id,
+      type: 'light-start-window',
+      pageSize: 2,
+      sort: 'detectedAt',
+      direction: 'asc',
+    });
     expect(page1.status).toBe(200);
     expect(page1.body.total).toBe(3);
     expect(page1.body.deviations).toHaveLength(2);
@@ -105,16 +103,14 @@ describe('the deviations queue', () => {
       reviewStatus: 'open',
     });
     expect(page1.body.deviations[0].detectedAt).toMatch(/[+-]\d{2}:\d{2}$/);
-    const page2 = await auditorAgent
-      .get('/api/deviations')
-      .query({
-        staff: nurse.id,
-        type: 'light-start-window',
-        pageSize: 2,
-        page: 2,
-        sort: 'detectedAt',
-        direction: 'asc',
-      });
+    const page2 = await auditorAgent.get('/api/deviations').query({
+      staff: nurse.id,
+      type: 'light-start-window',
+      pageSize: 2,
+      page: 2,
+      sort: 'detectedAt',
+      direction: 'asc',
+    });
     expect(page2.body.deviations.map((d: { orderId: number }) => d.orderId)).toEqual(
       orderIds.slice(2),
     );
@@ -172,12 +168,10 @@ describe('reviewing a deviation', () => {
     expect((await clinicianAgent.get(`/api/orders/${orderId}`)).body.order.status).toBe(
       'completed',
     );
-    const again = await auditorAgent
-      .post(`/api/deviations/${id}/closure`)
-      .send({
-        classification: 'needs-follow-up',
-        comment: 'Discuss scheduling at the unit meeting.',
-      });
+    const again = await auditorAgent.post(`/api/deviations/${id}/closure`).send({
+      classification: 'needs-follow-up',
+      comment: 'Discuss scheduling at the unit meeting.',
+    });
     expect(
       again.body.history.map((h: { action: string; classification: string | null }) => [
         h.action,
@@ -333,7 +327,7 @@ describe('the CSV export', () => {
       .get('/api/exports/dose-records.csv')
       .query({ staff: nurse.id })
       .buffer(true);
-    expect(records.text.split('\r\n')[0]).toContain('delivered_fluence (J/cm2)');
+    expect(records.text.split('\r\n')[0]).toContain('delivered_fluence (J/cm²)');
     // 6 mg/m² × 1.82 m² = 10.92 mg; 30 mL infused; 83 s at 600 mW/cm² = 49.8 J/cm² planned and
     // delivered (TAP Study Group, Arch Ophthalmol 1999; Mosteller RD, N Engl J Med 1987); one deviation.
     expect(records.text.split('\r\n')[1]).toMatch(/,10\.92,30,83,49\.8,49\.8,1$/);
