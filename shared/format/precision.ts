@@ -198,3 +198,15 @@ export function formatFigurePair(
     actual: `${exportNumber(actual)}${suffix}`,
   };
 }
+
+/** Actual less expected, signed, written as the pair is ("+2 min", "−0.4 s", "+0.04 J/cm²"). */
+export function formatFigureDifference(
+  expected: number | null | undefined,
+  actual: number | null | undefined,
+  unit: string | null | undefined,
+): string {
+  if (expected == null || actual == null) return noFigure;
+  const difference = actual - expected;
+  const sign = difference > 0 ? '+' : difference < 0 ? '−' : '';
+  return sign + formatFigurePair(0, Math.abs(difference), unit).actual;
+}
