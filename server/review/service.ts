@@ -237,6 +237,23 @@ export function createReviewService(deps: {
       });
     },
 
+    /** The deviations behind the trend, split by type and severity, per month and protocol version. */
+    async trendsByType(filter: { from?: string; to?: string; protocol?: string }) {
+      const rows = await reviews.monthlyByType({
+        fromMonth: filter.from?.slice(0, 7),
+        toMonth: filter.to?.slice(0, 7),
+        protocol: filter.protocol,
+      });
+      return rows.map((r) => ({
+        month: r.month,
+        protocolKey: r.protocolKey,
+        protocolVersion: Number(r.protocolVersion),
+        type: r.type,
+        severity: r.severity,
+        deviations: Number(r.deviations),
+      }));
+    },
+
     async auditTrail(query: AuditTrailQuery) {
       const { rows, total } = await reviews.auditTrail(query, rangeOf(query));
       return {

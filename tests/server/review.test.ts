@@ -354,6 +354,35 @@ describe('dose records and trends', () => {
     expect(month.sessions).toBeGreaterThanOrEqual(2);
     expect(month.ratePct).toBeCloseTo((month.sessionsWithDeviation / month.sessions) * 100, 1);
   });
+
+  it('splits the month’s deviations by type and severity, and the split adds up', async () => {
+    const nurse = await createTestPerson(ctx, ['nurse']);
+    const agent = await signedInAgent(ctx, nurse);
+    // Light 5 min late: outside 15 min ± 1 min (TAP Study Group 1999; tolerance common practice).
+    await sessionWithLateLight(agent, 300);
+    const trends = await auditorAgent.get('/api/trends').query({ protocol: 'pdt-standard' });
+    const month = trends.body.months.at(-1).month;
+    const late = trends.body.byType.find(
+      (r: { month: string; type: string }) => r.month === month && r.type === 'light-start-window',
+    );
+    const [stored] = await ctx.dataSource.query(
+      `SELECT COUNT(*) AS n FROM deviation d JOIN dose_record r ON r.order_id = d.order_id
+        JOIN protocol_version pv ON pv.id = r.protocol_version_id
+       WHERE d.withdrawn_at IS NULL AND d.type = 'light-start-window' AND d.severity = 'major'
+         AND r.local_month = ? AND pv.protocol_key = 'pdt-standard' AND r.outcome IN ('completed', 'stopped')`,
+      [month],
+    );
+
+    expect(late).toMatchObject({ severity: 'major', protocolKey: 'pdt-standard' });
+    expect(
+      trends.body.byType
+        .filter(
+          (r: { month: string; type: string; severity: string }) =>
+            r.month === month && r.type === 'light-start-window' && r.severity === 'major',
+        )
+        .reduce((sum: number, r: { deviations: number }) => sum + r.deviations, 0),
+    ).toBe(Number(stored.n));
+  });
 });
 
 describe('the staff list for filters', () => {
