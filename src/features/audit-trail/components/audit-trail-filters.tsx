@@ -1,6 +1,6 @@
 import { auditTrailQuerySchema, type AuditTrailQuery } from '../../../../shared/schemas/reviews';
 import { Button } from '../../../components/ui/button';
-import { TextField } from '../../../components/ui/text-field';
+import { UnitDateField } from '../../../components/ui/unit-date-field';
 import { actionLabel, knownActions, recordTypes } from './audit-words';
 import { CheckedTextField } from './checked-text-field';
 import { SelectField } from '../../../components/ui/select-field';
@@ -35,21 +35,17 @@ export function AuditTrailFilters({
       onSubmit={(e) => e.preventDefault()}
       className="mb-4 grid gap-4 rounded-2xl border border-paper-200 bg-white p-4 sm:grid-cols-2 lg:grid-cols-4"
     >
-      <TextField
+      <UnitDateField
         label="From"
-        type="date"
-        value={query.from ?? ''}
-        max={query.to}
+        value={query.from}
         error={rangeError ?? fieldErrors.from}
-        onChange={(e) => onChange({ from: e.target.value || undefined })}
+        onChange={(from) => onChange({ from })}
       />
-      <TextField
+      <UnitDateField
         label="To"
-        type="date"
-        value={query.to ?? ''}
-        min={query.from}
+        value={query.to}
         error={fieldErrors.to}
-        onChange={(e) => onChange({ to: e.target.value || undefined })}
+        onChange={(to) => onChange({ to })}
       />
       <SelectField
         label="Action"
