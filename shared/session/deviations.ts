@@ -1,5 +1,6 @@
 import { formatNumber, roundToStep } from '../engine/rounding';
 import { formatDuration, formatUnitTime } from '../format/figures';
+import { formatReading } from '../format/precision';
 import type { ProtocolVersion } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
 import type { ChecklistAnswer } from '../schemas/orders';
@@ -210,7 +211,7 @@ export function findDeviations({
       actual: record.volumeGivenMl === null ? null : round(record.volumeGivenMl, 0.01),
       unit: 'mL',
       at: record.extravasationAt,
-      message: `Extravasation recorded at ${timeText(Date.parse(record.extravasationAt))}; the infusion was stopped${record.volumeGivenMl === null ? '' : ` with about ${formatNumber(round(record.volumeGivenMl, 0.1))} mL${finalMl === null ? '' : ` of ${formatNumber(finalMl)} mL`} given (${record.volumeGivenSource === 'entered' ? 'read off the pump by the nurse' : 'worked out from the planned rate, not measured'})`}${record.doseGivenMg === null || record.plannedDoseMg === null ? '' : `, about ${formatNumber(round(record.doseGivenMg, 0.1))} mg of ${formatNumber(record.plannedDoseMg)} mg`}.`,
+      message: `Extravasation recorded at ${timeText(Date.parse(record.extravasationAt))}; the infusion was stopped${record.volumeGivenMl === null ? '' : ` with about ${formatReading('volumeMl', record.volumeGivenMl)}${finalMl === null ? '' : ` of ${formatNumber(finalMl)} mL`} given (${record.volumeGivenSource === 'entered' ? 'read off the pump by the nurse' : 'worked out from the planned rate, not measured'})`}${record.doseGivenMg === null || record.plannedDoseMg === null ? '' : `, about ${formatReading('doseMg', record.doseGivenMg)} of ${formatReading('doseMg', record.plannedDoseMg)}`}.`,
     });
   }
 
@@ -299,7 +300,7 @@ function judgeLight({
       actual: round(deliveredJPerCm2, 0.0001),
       unit: 'J/cm²',
       at: lightJudgedAt,
-      message: `Delivered fluence expected ${formatNumber(targetJPerCm2)} J/cm² (± ${formatNumber(fluencePct)} %); ${formatNumber(irradianceMwPerCm2)} mW/cm² for ${lightTimeText(onS)} gave ${formatNumber(round(deliveredJPerCm2, 0.01))} J/cm², ${formatNumber(round(Math.abs(offPct), 0.1))} % ${offPct > 0 ? 'over' : 'under'}.`,
+      message: `Delivered fluence expected ${formatNumber(targetJPerCm2)} J/cm² (± ${formatNumber(fluencePct)} %); ${formatNumber(irradianceMwPerCm2)} mW/cm² for ${lightTimeText(onS)} gave ${formatReading('fluenceJPerCm2', deliveredJPerCm2)}, ${formatNumber(round(Math.abs(offPct), 0.1))} % ${offPct > 0 ? 'over' : 'under'}.`,
     });
   }
 }

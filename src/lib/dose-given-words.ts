@@ -1,5 +1,4 @@
-import { roundToStep } from '../../shared/engine/rounding';
-import { formatDuration, formatQuantity } from '../../shared/format/figures';
+import { formatDuration } from '../../shared/format/figures';
 import { formatReading } from '../../shared/format/precision';
 
 /** The record's figures for what was given (shared/session/dose-record.ts). */
@@ -13,8 +12,8 @@ export interface GivenFigures {
 /** "about 4.4 mg of 10.92 mg": the milligrams in the volume infused, never "as ordered". */
 export function doseGivenText(record: GivenFigures): string | null {
   if (record.doseGivenMg == null || record.plannedDoseMg == null) return null;
-  // An estimate from the volume, so a tenth of a milligram; the ordered dose at its own precision.
-  return `about ${formatQuantity(roundToStep(record.doseGivenMg, 0.1), 'mg', 1)} of ${formatReading('doseMg', record.plannedDoseMg)}`;
+  // Both at the precision a dose is read at, so the share never reads larger than the whole.
+  return `about ${formatReading('doseMg', record.doseGivenMg)} of ${formatReading('doseMg', record.plannedDoseMg)}`;
 }
 
 /** "12 mL, read off the pump" or "30 mL, worked out from the planned rate and the infusion time". */
