@@ -68,14 +68,12 @@ export function TrendsScreen() {
         <MonthField
           label="First month"
           value={filter.from}
-          max={filter.to}
           error={rangeError ?? fieldErrors.from}
           onChange={(from) => update({ from })}
         />
         <MonthField
           label="Last month"
           value={filter.to}
-          min={filter.from}
           error={fieldErrors.to}
           onChange={(to) => update({ to })}
         />
