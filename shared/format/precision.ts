@@ -210,3 +210,12 @@ export function formatFigureDifference(
   const sign = difference > 0 ? '+' : difference < 0 ? '−' : '';
   return sign + formatFigurePair(0, Math.abs(difference), unit).actual;
 }
+
+/**
+ * A zone in plain words for a patient's sheet: "Lisbon time" for Europe/Lisbon, from the IANA
+ * name's city; the short name (WET, WEST) beside each time says which side of a clock change.
+ */
+export function zonePlainName(zone: string): string {
+  const city = zone.split('/').pop()?.replace(/_/g, ' ');
+  return city && city !== zone ? `${city} time` : zone;
+}

@@ -95,3 +95,12 @@ describe('an expected and an actual figure that would read the same', () => {
     expect(formatFigurePair(null, 3, 'answers')).toEqual({ expected: '—', actual: '3 answers' });
   });
 });
+
+describe('a time zone in plain words', () => {
+  it('names the city of the IANA zone', async () => {
+    const { zonePlainName } = await import('../../shared/format/precision');
+    expect(zonePlainName('Europe/Lisbon')).toBe('Lisbon time');
+    expect(zonePlainName('America/New_York')).toBe('New York time');
+    expect(zonePlainName('UTC')).toBe('UTC');
+  });
+});

@@ -223,8 +223,11 @@ export function DoseRecordSection({ order, definition, session }: DoseRecordSect
         <div className="overflow-x-auto">
           <table className="w-full border-collapse text-left">
             <caption className="mb-2 text-left text-sm text-paper-700">
-              The plan as frozen at signing, and what was given as the step clock recorded it. Times
-              are {unitTimeZoneLabel} ({unitTimeZone}).
+              The plan as frozen at signing, and what was given as the step clock recorded it
+              {record.outcome === 'in-progress'
+                ? `; running figures up to ${formatUnitClock(session.serverTime)}`
+                : ''}
+              . Times are {unitTimeZoneLabel} ({unitTimeZone}).
             </caption>
             <thead>
               <tr className="border-b-2 border-paper-400 text-sm text-paper-700">
