@@ -352,7 +352,7 @@ describe('gate 7: what was given is recorded', () => {
     const main = await page.locator('main').innerText();
     expect(main).toMatch(/Exposure on the laser\s*70 s, 2\.97 J/);
     // A completed infusion: 30 mL at the planned rate, all 10.92 mg.
-    expect(main).toMatch(/Verteporfin given\s*about 10\.9 mg of 10\.92 mg/);
+    expect(main).toMatch(/Verteporfin given\s*about 10\.92 mg of 10\.92 mg/);
     expect(problems).toEqual([]);
     await page.context().close();
   });
