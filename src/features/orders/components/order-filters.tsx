@@ -1,7 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { orderStatuses, type OrderListQuery } from '../../../../shared/schemas/orders';
 import { Button } from '../../../components/ui/button';
-import { TextField } from '../../../components/ui/text-field';
 import { UnitDateField } from '../../../components/ui/unit-date-field';
 import { orderQueries } from '../api/order-queries';
 import { SelectField } from '../../../components/ui/select-field';
