@@ -157,6 +157,7 @@ export function createApp({
     ...healthRoutes(dataSource, {
       name: config.UNIT_NAME,
       timeZone: config.UNIT_TIME_ZONE,
+      locale: config.UNIT_LOCALE,
       phone: config.UNIT_PHONE,
     }),
     ...authRoutes(auth, sessions),

@@ -74,6 +74,20 @@ const envSchema = z.object({
     }, 'UNIT_TIME_ZONE must be an IANA time zone such as Europe/Lisbon')
     .default('Europe/Lisbon'),
   /**
+   * The unit's locale (a BCP 47 tag): how dates are entered and shown on every screen and sheet,
+   * whatever the browser's own setting. en-GB, the demo unit's, reads day/month/year.
+   */
+  UNIT_LOCALE: z
+    .string()
+    .refine((locale) => {
+      try {
+        return Intl.DateTimeFormat.supportedLocalesOf([locale]).length === 1;
+      } catch {
+        return false;
+      }
+    }, 'UNIT_LOCALE must be a locale tag such as en-GB')
+    .default('en-GB'),
+  /**
    * A new order's weight that differs from the patient's last recorded weight by more than this
    * percentage, the last one less than WEIGHT_CHANGE_WITHIN_DAYS old, needs a reason to be signed
    * (demo defaults 10 % and 90 days: common practice, no single source).

@@ -16,7 +16,10 @@ if (!container) throw new Error('index.html must contain <div id="root">');
 async function loadUnitSettings(): Promise<void> {
   try {
     const res = await fetch('/api/unit', { signal: AbortSignal.timeout(3000) });
-    if (res.ok) applyServerTimeZone(((await res.json()) as { timeZone: string }).timeZone);
+    if (res.ok) {
+      const unit = (await res.json()) as { timeZone: string; locale?: string };
+      applyServerTimeZone(unit.timeZone, unit.locale);
+    }
   } catch {
     // The sign-in page will say so if the server is not answering.
   }

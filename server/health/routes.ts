@@ -3,14 +3,14 @@ import type { RouteSpec } from '../http/route-table';
 
 export function healthRoutes(
   dataSource: DataSource,
-  unit: { name: string; timeZone: string; phone: string },
+  unit: { name: string; timeZone: string; locale: string; phone: string },
 ): RouteSpec[] {
   return [
     {
       method: 'get',
       path: '/unit',
       access: 'public',
-      // The unit's name, time zone and telephone: not secret, and the client needs the zone before sign-in.
+      // The unit's name, time zone, locale and telephone: not secret, and the client needs the zone before sign-in.
       handler: (_req, res) => {
         res.json(unit);
       },

@@ -1,16 +1,24 @@
 import { DateTime } from 'luxon';
+import { exportNumber, roundForReading, type ReadingKind } from '../../shared/format/precision';
 
 /**
  * One CSV field (RFC 4180): quoted when it holds a comma, quote or line break, quotes doubled.
  * Text that a spreadsheet would run as a formula (=, +, -, @ at the start) gets a leading
- * apostrophe; numbers are written as numbers.
+ * apostrophe; numbers are written as numbers, without binary noise (0.02, never
+ * 0.020000000000000004: shared/format/precision).
  */
 export function csvField(value: unknown): string {
   if (value === null || value === undefined) return '';
-  if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '';
+  if (typeof value === 'number') return exportNumber(value);
   let text = String(value);
   if (/^[=+\-@\t\r]/.test(text)) text = `'${text}`;
   return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+/** A stored figure (a DECIMAL column comes back as a string) at the precision it is read at. */
+export function csvReading(kind: ReadingKind, value: unknown): number | null {
+  if (value === null || value === undefined || value === '') return null;
+  return roundForReading(kind, Number(value));
 }
 
 export function csvLine(values: unknown[]): string {

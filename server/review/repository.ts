@@ -25,12 +25,10 @@ export function createReviewRepository(dataSource: DataSource) {
     version?: number;
   }): Promise<number[] | null> {
     if (!filter.protocol) return null;
-    const rows = await dataSource
-      .getRepository(ProtocolVersion)
-      .find({
-        where: { key: filter.protocol, ...(filter.version ? { version: filter.version } : {}) },
-        select: { id: true },
-      });
+    const rows = await dataSource.getRepository(ProtocolVersion).find({
+      where: { key: filter.protocol, ...(filter.version ? { version: filter.version } : {}) },
+      select: { id: true },
+    });
     return rows.map((r) => r.id);
   }
 
@@ -214,6 +212,46 @@ export function createReviewRepository(dataSource: DataSource) {
     },
 
     /** Sessions and sessions with a deviation per unit month and protocol version. */
+    /** Standing deviations of finished sessions per unit month, protocol version, type and severity. */
+    async monthlyByType(filter: { fromMonth?: string; toMonth?: string; protocol?: string }) {
+      const ids = await protocolIds(filter);
+      const qb = dataSource
+        .getRepository(DeviationRow)
+        .createQueryBuilder('d')
+        .innerJoin('dose_record', 'r', 'r.order_id = d.order_id')
+        .innerJoin('protocol_version', 'pv', 'pv.id = r.protocol_version_id')
+        .select([
+          'r.local_month AS month',
+          'pv.protocol_key AS protocolKey',
+          'pv.version AS protocolVersion',
+          'd.type AS type',
+          'd.severity AS severity',
+        ])
+        .addSelect('COUNT(*)', 'deviations')
+        .where(
+          "d.withdrawn_at IS NULL AND r.outcome IN ('completed', 'stopped') AND r.local_month IS NOT NULL",
+        )
+        .groupBy('r.local_month')
+        .addGroupBy('pv.id')
+        .addGroupBy('d.type')
+        .addGroupBy('d.severity')
+        .orderBy('r.local_month', 'ASC')
+        .addOrderBy('pv.protocol_key', 'ASC')
+        .addOrderBy('d.type', 'ASC');
+      if (filter.fromMonth)
+        qb.andWhere('r.local_month >= :fromMonth', { fromMonth: filter.fromMonth });
+      if (filter.toMonth) qb.andWhere('r.local_month <= :toMonth', { toMonth: filter.toMonth });
+      if (ids) qb.andWhere(ids.length ? 'r.protocol_version_id IN (:...ids)' : '1 = 0', { ids });
+      return qb.getRawMany<{
+        month: string;
+        protocolKey: string;
+        protocolVersion: number;
+        type: string;
+        severity: string;
+        deviations: string;
+      }>();
+    },
+
     async monthly(filter: { fromMonth?: string; toMonth?: string; protocol?: string }) {
       const ids = await protocolIds(filter);
       const qb = dataSource

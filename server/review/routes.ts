@@ -85,7 +85,12 @@ export function reviewRoutes(reviews: ReviewService): RouteSpec[] {
       path: '/trends',
       access: 'audit.read',
       handler: async (req, res) => {
-        res.json({ months: await reviews.trends(parseInput(trendsQuery, req.query)) });
+        const filter = parseInput(trendsQuery, req.query);
+        const [months, byType] = await Promise.all([
+          reviews.trends(filter),
+          reviews.trendsByType(filter),
+        ]);
+        res.json({ months, byType });
       },
     },
     {

@@ -20,7 +20,7 @@ import { moveOrderStatus } from '../orders/repository';
 import { statusAfterReview } from '../../shared/orders/lifecycle';
 import type { Actor } from '../orders/service';
 import type { SessionService } from '../sessions/service';
-import { csvLine, isoInZone } from './csv';
+import { csvLine, csvReading as reading, isoInZone } from './csv';
 import type { DateRange, ReviewRepository } from './repository';
 
 export function createReviewService(deps: {
@@ -139,15 +139,13 @@ export function createReviewService(deps: {
             reviewedAt: new Date(),
           },
         );
-        await manager
-          .getRepository(DeviationReview)
-          .insert({
-            deviationId: id,
-            reviewerId: actor.id,
-            action: 'closed',
-            classification: input.classification,
-            comment: input.comment,
-          });
+        await manager.getRepository(DeviationReview).insert({
+          deviationId: id,
+          reviewerId: actor.id,
+          action: 'closed',
+          classification: input.classification,
+          comment: input.comment,
+        });
         await settleOrderStatus(manager, deviation.orderId);
       });
       await audit.append({
@@ -181,15 +179,13 @@ export function createReviewService(deps: {
           { id },
           { reviewStatus: 'open', classification: null, reviewedBy: null, reviewedAt: null },
         );
-        await manager
-          .getRepository(DeviationReview)
-          .insert({
-            deviationId: id,
-            reviewerId: actor.id,
-            action: 'reopened',
-            classification: null,
-            comment,
-          });
+        await manager.getRepository(DeviationReview).insert({
+          deviationId: id,
+          reviewerId: actor.id,
+          action: 'reopened',
+          classification: null,
+          comment,
+        });
         await settleOrderStatus(manager, deviation.orderId);
       });
       await audit.append({
@@ -239,6 +235,23 @@ export function createReviewService(deps: {
           ratePct: sessions ? Math.round((withDeviation / sessions) * 1000) / 10 : 0,
         };
       });
+    },
+
+    /** The deviations behind the trend, split by type and severity, per month and protocol version. */
+    async trendsByType(filter: { from?: string; to?: string; protocol?: string }) {
+      const rows = await reviews.monthlyByType({
+        fromMonth: filter.from?.slice(0, 7),
+        toMonth: filter.to?.slice(0, 7),
+        protocol: filter.protocol,
+      });
+      return rows.map((r) => ({
+        month: r.month,
+        protocolKey: r.protocolKey,
+        protocolVersion: Number(r.protocolVersion),
+        type: r.type,
+        severity: r.severity,
+        deviations: Number(r.deviations),
+      }));
     },
 
     async auditTrail(query: AuditTrailQuery) {
@@ -309,14 +322,18 @@ export function createReviewService(deps: {
               ['outcome', (r) => r.outcome],
               ['started_at (ISO 8601)', (r) => iso(r.startedAt as Date | null)],
               ['ended_at (ISO 8601)', (r) => iso(r.endedAt as Date | null)],
-              ['planned_dose (mg)', (r) => (r.doseMg === null ? null : Number(r.doseMg))],
-              ['volume_given (mL)', (r) => r.volumeGivenMl],
-              ['light_on_time (s)', (r) => r.onTimeS],
+              // Figures at the precision they are read at (shared/format/precision).
+              ['planned_dose (mg)', (r) => reading('doseMg', r.doseMg)],
+              ['volume_given (mL)', (r) => reading('volumeMl', r.volumeGivenMl)],
+              ['light_on_time (s)', (r) => reading('durationS', r.onTimeS)],
               [
-                'planned_fluence (J/cm2)',
-                (r) => (r.plannedFluenceJPerCm2 === null ? null : Number(r.plannedFluenceJPerCm2)),
+                'planned_fluence (J/cm²)',
+                (r) => reading('fluenceJPerCm2', r.plannedFluenceJPerCm2),
               ],
-              ['delivered_fluence (J/cm2)', (r) => r.deliveredFluenceJPerCm2],
+              [
+                'delivered_fluence (J/cm²)',
+                (r) => reading('fluenceJPerCm2', r.deliveredFluenceJPerCm2),
+              ],
               ['deviations', (r) => r.deviationCount],
             ];
       const runner = dataSource.createQueryRunner();

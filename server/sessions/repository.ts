@@ -242,6 +242,15 @@ export function createSessionRepository(dataSource: DataSource) {
         ],
       ),
 
+    /** The names of the nurses who ran an order's session (each tap's recorder), first tap first. */
+    nursesOf: async (orderId: number): Promise<string[]> => {
+      const rows: { displayName: string }[] = await dataSource.query(
+        "SELECT u.display_name AS displayName FROM session_participant sp JOIN user u ON u.id = sp.user_id WHERE sp.order_id = ? AND sp.part = 'nursed' ORDER BY sp.user_id",
+        [orderId],
+      );
+      return rows.map((row) => row.displayName);
+    },
+
     recordFor: (orderId: number) => dataSource.getRepository(DoseRecordRow).findOneBy({ orderId }),
 
     deviationsFor: (orderId: number, manager?: EntityManager) =>
@@ -289,8 +298,11 @@ export function createSessionRepository(dataSource: DataSource) {
           message: deviation.message.slice(0, 600),
           withdrawnAt: null,
         };
+        // A deviation is dated by the event that caused it, so a withdrawn tap's time never
+        // stays on it (shared/session/deviations.ts); without such an event, when it was found.
+        const causedAt = deviation.at ? new Date(deviation.at) : null;
         if (!row) {
-          const detectedAt = new Date();
+          const detectedAt = causedAt ?? new Date();
           const result = await repo.insert({
             orderId,
             protocolVersionId,
@@ -306,20 +318,25 @@ export function createSessionRepository(dataSource: DataSource) {
             detectedAt: detectedAt.toISOString(),
           });
         } else {
+          const detectedAt =
+            causedAt && causedAt.getTime() !== new Date(row.detectedAt).getTime()
+              ? causedAt
+              : new Date(row.detectedAt);
           if (
+            detectedAt !== row.detectedAt ||
             row.withdrawnAt ||
             row.severity !== values.severity ||
             row.expected !== values.expected ||
             row.actual !== values.actual ||
             row.message !== values.message
           ) {
-            await repo.update({ id: row.id }, values);
+            await repo.update({ id: row.id }, { ...values, detectedAt });
           }
           standing.push({
             id: row.id,
             type: deviation.type,
             ...values,
-            detectedAt: row.detectedAt.toISOString(),
+            detectedAt: detectedAt.toISOString(),
           });
         }
         stored.delete(deviation.type);

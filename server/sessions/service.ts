@@ -531,6 +531,7 @@ export function createSessionService(deps: {
       record,
       checklist: order.checklist,
       preparation: order.preparation,
+      unitTimeZone: deps.unitTimeZone,
     });
     const { standing } = await sessions.reconcileDeviations(
       manager,
@@ -548,20 +549,37 @@ export function createSessionService(deps: {
   }
 
   async function state(orderId: number) {
-    const [order] = await dataSource.query('SELECT status FROM treatment_order WHERE id = ?', [
-      orderId,
-    ]);
+    const [order] = await dataSource.query(
+      'SELECT status, plan, protocol_version_id AS protocolVersionId, protocol_sha256 AS protocolSha256 FROM treatment_order WHERE id = ?',
+      [orderId],
+    );
     if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
-    const [events, stored, deviations] = await Promise.all([
+    const [events, stored, deviations, nurses] = await Promise.all([
       sessions.eventsFor(orderId),
       sessions.recordFor(orderId),
       sessions.deviationsFor(orderId),
+      sessions.nursesOf(orderId),
     ]);
+    const status = order.status as OrderStatus;
+    // While the session runs, the record's running figures run up to now, not to the last tap;
+    // the stored record (and the deviations, judged on finished facts only) stay as they are.
+    let record = stored?.record ?? null;
+    if (record && status === 'in-session') {
+      const plan = typeof order.plan === 'string' ? JSON.parse(order.plan) : order.plan;
+      const definition = await orderedDefinition(dataSource.manager, {
+        id: orderId,
+        protocolVersionId: Number(order.protocolVersionId),
+        protocolSha256: String(order.protocolSha256),
+      });
+      record = deriveDoseRecord({ protocol: definition, plan, events, nowMs: now() });
+    }
     return {
       orderId,
-      status: order.status as OrderStatus,
+      status,
       events,
-      record: stored?.record ?? null,
+      record,
+      /** Who ran the session at the bedside, for the record and its printed copy. */
+      nurses,
       deviations: deviations
         .filter((d) => !d.withdrawnAt)
         .map((d) => ({

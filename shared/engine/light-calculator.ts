@@ -63,9 +63,11 @@ interface Known {
 }
 
 /**
- * Fills in whichever of power, spot diameter, irradiance, exposure, fluence and energy were not
- * given, from any three independent ones (more are accepted when they agree within 1%).
- * Throws PlanInputError naming the fields when the figures disagree or do not suffice.
+ * Fills in whichever of power, spot diameter, irradiance, exposure, fluence and energy the given
+ * figures fix: two tied by one definition already answer it (spot and irradiance → power; fluence
+ * and irradiance → exposure), three independent ones answer all six, and more are accepted when
+ * they agree within 1%. A figure the given ones do not fix is null.
+ * Throws PlanInputError naming the fields when the figures disagree, or when they fix nothing new.
  */
 export function solveLight(request: LightCalculationRequest): LightSolution {
   const parsed = lightCalculationRequestSchema.safeParse(request);
@@ -151,21 +153,18 @@ export function solveLight(request: LightCalculationRequest): LightSolution {
   }
 
   const missing = lightFields.filter((field) => !known.has(field));
-  if (missing.length > 0) {
+  const answered = lightFields.filter((field) => known.has(field) && !given.includes(field));
+  if (missing.length > 0 && answered.length === 0) {
     const givenText = given.length > 0 ? given.join(', ') : 'nothing';
     throw new PlanInputError(
       missing.map((path) => ({
         path,
-        message: `${path} cannot be worked out from ${givenText}: give three independent values (for example spotDiameterUm, irradianceMwPerCm2 and exposureS)`,
+        message: `${path} cannot be worked out from ${givenText}: give two figures that one definition ties together (spotDiameterUm and irradianceMwPerCm2 give powerMw; fluenceJPerCm2 and irradianceMwPerCm2 give exposureS), or three independent ones for all six`,
       })),
     );
   }
 
-  const final = (name: Quantity): number => {
-    const entry = known.get(name);
-    if (!entry) throw new Error(`solveLight: ${name} unknown after solving`);
-    return entry.value;
-  };
+  const final = (name: Quantity): number | null => known.get(name)?.value ?? null;
   return {
     engineVersion,
     powerMw: final('powerMw'),

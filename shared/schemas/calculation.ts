@@ -151,13 +151,14 @@ export type DosePlan = z.infer<typeof dosePlanSchema>;
 
 export const lightSolutionSchema = z.object({
   engineVersion: z.string(),
-  powerMw: z.number(),
-  spotDiameterUm: z.number(),
-  spotAreaCm2: z.number(),
-  irradianceMwPerCm2: z.number(),
-  exposureS: z.number(),
-  fluenceJPerCm2: z.number(),
-  energyJ: z.number(),
+  /** Each figure, or null when the given ones do not fix it (two figures answer only what they tie). */
+  powerMw: z.number().nullable(),
+  spotDiameterUm: z.number().nullable(),
+  spotAreaCm2: z.number().nullable(),
+  irradianceMwPerCm2: z.number().nullable(),
+  exposureS: z.number().nullable(),
+  fluenceJPerCm2: z.number().nullable(),
+  energyJ: z.number().nullable(),
   /** Which of the six fields were given rather than worked out. */
   given: z.array(z.string()),
   working: z.array(workingEntrySchema),

@@ -1,7 +1,8 @@
 import { fluenceJPerCm2 } from '../engine/light-arithmetic';
 import { formatNumber, roundToStep } from '../engine/rounding';
 import { exceeds, withinAbs, withinPct } from '../engine/tolerance';
-import { formatDuration } from '../format/figures';
+import { formatDuration, formatUnitTime } from '../format/figures';
+import { formatReading } from '../format/precision';
 import type { ProtocolVersion } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
 import type { ChecklistAnswer } from '../schemas/orders';
@@ -19,6 +20,8 @@ export interface DeviationInput {
   record: DoseRecord;
   checklist: readonly ChecklistAnswer[];
   preparation: PreparationTimes | null;
+  /** The unit's IANA zone: times in messages read on the ward clock with its zone's name. */
+  unitTimeZone?: string;
 }
 
 function outside(actual: number, expected: number, tolerance: number): boolean {
@@ -43,7 +46,7 @@ function lightTimeText(seconds: number): string {
     : durationText(seconds);
 }
 
-function timeText(ms: number): string {
+function utcTimeText(ms: number): string {
   return `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
 }
 
@@ -54,6 +57,12 @@ const msOf = (at: string | null): number | null => {
 };
 
 const round = (value: number, step: number) => roundToStep(value, step);
+/**
+ * Stored figures keep a millisecond's precision (the taps' own), so that an actual just past its
+ * limit never reads the same as the limit; screens round them for reading (shared/format/precision).
+ */
+const minuteStep = 0.00001;
+const hourStep = 0.0000001;
 
 /** Free text quoted in a message is shortened; the full text stays in the record or the order. */
 function quoted(text: string): string {
@@ -82,7 +91,12 @@ export function findDeviations({
   record,
   checklist,
   preparation,
+  unitTimeZone,
 }: DeviationInput): Deviation[] {
+  const timeText = (ms: number) =>
+    unitTimeZone
+      ? formatUnitTime(new Date(ms).toISOString(), unitTimeZone, 'sheet')
+      : utcTimeText(ms);
   const found = new Map<Deviation['type'], Deviation>();
   const add = (deviation: Deviation) => found.set(deviation.type, deviation);
   const { tolerances } = protocol;
@@ -104,8 +118,9 @@ export function findDeviations({
         type: 'infusion-duration',
         severity: 'major',
         expected: protocol.drug.infusionMin,
-        actual: round(actualS / 60, 0.01),
+        actual: round(actualS / 60, minuteStep),
         unit: 'min',
+        at: record.infusionEndAt,
         message: `Infusion expected to last ${durationText(expectedS)} (± ${durationText(tolerances.infusionDurationMin * 60)}); it lasted ${durationText(actualS)}${record.extravasationAt ? ', stopped by extravasation' : ''}.`,
       });
     }
@@ -124,9 +139,10 @@ export function findDeviations({
       add({
         type: 'light-start-window',
         severity: 'major',
-        expected: round(expectedS / 60, 0.01),
-        actual: round(actualS / 60, 0.01),
+        expected: round(expectedS / 60, minuteStep),
+        actual: round(actualS / 60, minuteStep),
         unit: 'min',
+        at: record.lightStartAt,
         message: `Light expected ${durationText(expectedS)} after the start of the infusion (± ${durationText(tolerances.lightStartMin * 60)}); it started ${durationText(actualS)} after, ${durationText(Math.abs(actualS - expectedS))} ${actualS > expectedS ? 'late' : 'early'}.`,
       });
     }
@@ -141,6 +157,7 @@ export function findDeviations({
       expected: null,
       actual: null,
       unit: null,
+      at: record.lightStartAt,
       message: `Light expected after a recorded infusion start; the light started at ${timeText(Date.parse(record.lightStartAt))} with no infusion start on record (never tapped, or withdrawn). The light precaution is counted from the latest plausible time.`,
     });
   }
@@ -155,12 +172,13 @@ export function findDeviations({
       add({
         type: 'beyond-use',
         severity: 'critical',
-        expected: limitH === null ? null : round(limitH, 0.01),
+        expected: limitH === null ? null : round(limitH, hourStep),
         actual:
           reconstitutedMs === null
             ? null
-            : round((infusionStartMs - reconstitutedMs) / 3_600_000, 0.01),
+            : round((infusionStartMs - reconstitutedMs) / 3_600_000, hourStep),
         unit: 'h',
+        at: record.infusionStartAt,
         message: `Infusion expected to start by the drug's beyond-use time, ${timeText(beyondUseMs)}${limitH === null ? '' : ` (${durationText(limitH * 3600)} after reconstitution)`}; it started at ${timeText(infusionStartMs)}, ${durationText((infusionStartMs - beyondUseMs) / 1000)} past it.`,
       });
     }
@@ -172,8 +190,9 @@ export function findDeviations({
           type: 'reconstitution-to-infusion',
           severity: 'major',
           expected: maxH,
-          actual: round(actualS / 3600, 0.01),
+          actual: round(actualS / 3600, hourStep),
           unit: 'h',
+          at: record.infusionStartAt,
           message: `Infusion expected to start within ${durationText(maxH * 3600)} of reconstitution (${timeText(reconstitutedMs)}); it started ${durationText(actualS)} after.`,
         });
       }
@@ -188,9 +207,10 @@ export function findDeviations({
       type: 'extravasation',
       severity: 'critical',
       expected: finalMl,
-      actual: record.volumeGivenMl === null ? null : round(record.volumeGivenMl, 0.1),
+      actual: record.volumeGivenMl === null ? null : round(record.volumeGivenMl, 0.01),
       unit: 'mL',
-      message: `Extravasation recorded at ${timeText(Date.parse(record.extravasationAt))}; the infusion was stopped${record.volumeGivenMl === null ? '' : ` with about ${formatNumber(round(record.volumeGivenMl, 0.1))} mL${finalMl === null ? '' : ` of ${formatNumber(finalMl)} mL`} given (${record.volumeGivenSource === 'entered' ? 'read off the pump by the nurse' : 'worked out from the planned rate, not measured'})`}${record.doseGivenMg === null || record.plannedDoseMg === null ? '' : `, about ${formatNumber(round(record.doseGivenMg, 0.1))} mg of ${formatNumber(record.plannedDoseMg)} mg`}.`,
+      at: record.extravasationAt,
+      message: `Extravasation recorded at ${timeText(Date.parse(record.extravasationAt))}; the infusion was stopped${record.volumeGivenMl === null ? '' : ` with about ${formatReading('volumeMl', record.volumeGivenMl)}${finalMl === null ? '' : ` of ${formatNumber(finalMl)} mL`} given (${record.volumeGivenSource === 'entered' ? 'read off the pump by the nurse' : 'worked out from the planned rate, not measured'})`}${record.doseGivenMg === null || record.plannedDoseMg === null ? '' : `, about ${formatReading('doseMg', record.doseGivenMg)} of ${formatReading('doseMg', record.plannedDoseMg)}`}.`,
     });
   }
 
@@ -202,11 +222,12 @@ export function findDeviations({
       expected: null,
       actual: null,
       unit: null,
+      at: record.endedAt,
       message: `Session expected to run to the end of the protocol; it was stopped${record.endedAt ? ` at ${timeText(Date.parse(record.endedAt))}` : ''}${step ? ` during "${step.title}"` : ''}. Reason: ${record.stopReason ? quoted(record.stopReason) : 'not given'}.`,
     });
   }
 
-  judgeChecklist(protocol, checklist, add);
+  judgeChecklist(protocol, checklist, record.sessionStartedAt, add);
 
   return deviationTypes.flatMap((type) => {
     const deviation = found.get(type);
@@ -243,6 +264,8 @@ function judgeLight({
   const deviceS = isPdt ? record.deviceExposureS : null;
   if (isPdt && startAt !== null && deviceS === null && !sessionOver) return;
   const what = isPdt ? 'Laser' : 'UV';
+  // The light step's end, or the session's end when it ended without one.
+  const lightJudgedAt = endAt ?? record.endedAt;
   const onS = deviceS ?? tapsS;
   const plannedS = (isPdt ? plan.exposureS : plan.uvTimeS) ?? protocol.light.exposureS;
   const { exposureS: exposureTolS, fluencePct } = protocol.tolerances;
@@ -257,8 +280,9 @@ function judgeLight({
       type: 'exposure-time',
       severity: 'major',
       expected: plannedS,
-      actual: round(onS, 0.1),
+      actual: round(onS, 0.001),
       unit: 's',
+      at: lightJudgedAt,
       message: `${what} on-time expected ${lightTimeText(plannedS)} (± ${lightTimeText(exposureTolS)}); ${deviceS !== null ? `the laser displayed ${lightTimeText(deviceS)}` : `it was on for ${lightTimeText(onS)}`}${tapsNote}${protocol.light.pulse ? ' (on-share of the pulsed cycle)' : ''}.`,
     });
   }
@@ -272,9 +296,10 @@ function judgeLight({
       type: 'delivered-fluence',
       severity: 'major',
       expected: targetJPerCm2,
-      actual: round(deliveredJPerCm2, 0.01),
+      actual: round(deliveredJPerCm2, 0.0001),
       unit: 'J/cm²',
-      message: `Delivered fluence expected ${formatNumber(targetJPerCm2)} J/cm² (± ${formatNumber(fluencePct)} %); ${formatNumber(irradianceMwPerCm2)} mW/cm² for ${lightTimeText(onS)} gave ${formatNumber(round(deliveredJPerCm2, 0.01))} J/cm², ${formatNumber(round(Math.abs(offPct), 0.1))} % ${offPct > 0 ? 'over' : 'under'}.`,
+      at: lightJudgedAt,
+      message: `Delivered fluence expected ${formatNumber(targetJPerCm2)} J/cm² (± ${formatNumber(fluencePct)} %); ${formatNumber(irradianceMwPerCm2)} mW/cm² for ${lightTimeText(onS)} gave ${formatReading('fluenceJPerCm2', deliveredJPerCm2)}, ${formatNumber(round(Math.abs(offPct), 0.1))} % ${offPct > 0 ? 'over' : 'under'}.`,
     });
   }
 }
@@ -297,8 +322,9 @@ function judgeCxl(
         type: 'soak-short',
         severity: 'major',
         expected: cxl.soakMin,
-        actual: round(actualS / 60, 0.01),
+        actual: round(actualS / 60, minuteStep),
         unit: 'min',
+        at: record.soakEndAt ?? record.uvStartAt,
         message: `Riboflavin soak expected ${durationText(cxl.soakMin * 60)}${tolerances.soakShortfallMin > 0 ? ` (at least ${durationText(shortestS)})` : ''}; ${uvWithoutSoak ? 'UV started with no soak recorded' : `it lasted ${durationText(actualS)}`}.`,
       });
     }
@@ -311,6 +337,7 @@ function judgeCxl(
         name: 'the soak',
         intervalS: cxl.dropIntervalSoakMin * 60,
         gapS: record.soakEndAt !== null ? record.longestDropGapSoakS : null,
+        endedAt: record.soakEndAt,
         severity: 'minor' as DeviationSeverity,
       },
       // During UV the riboflavin film is what shields the deeper cornea, so a gap there weighs more.
@@ -318,6 +345,7 @@ function judgeCxl(
         name: 'UV',
         intervalS: cxl.dropIntervalUvMin * 60,
         gapS: record.uvEndAt !== null ? record.longestDropGapUvS : null,
+        endedAt: record.uvEndAt,
         severity: 'major' as DeviationSeverity,
       },
     ];
@@ -332,8 +360,9 @@ function judgeCxl(
         type: 'drop-gap',
         severity: over.some((phase) => phase.severity === 'major') ? 'major' : 'minor',
         expected: worst.intervalS,
-        actual: round(worst.gapS, 0.1),
+        actual: round(worst.gapS, 0.001),
         unit: 's',
+        at: worst.endedAt,
         message: over
           .map(
             (phase) =>
@@ -355,6 +384,7 @@ function judgeCxl(
         expected: minUm,
         actual: readingUm,
         unit: 'µm',
+        at: record.uvStartAt,
         message:
           readingUm === null
             ? `UV expected to start on a stroma measured at ${formatNumber(minUm)} µm or more; it started with no thickness reading recorded in the session.`
@@ -370,6 +400,7 @@ function judgeCxl(
       expected: cxl.minStromalThicknessUm,
       actual: record.thicknessBeforeUvUm,
       unit: 'µm',
+      at: record.uvStartAt,
       message: `The thickness minimum of ${formatNumber(cxl.minStromalThicknessUm)} µm was overridden${record.thicknessBeforeUvUm === null ? '' : ` at ${formatNumber(record.thicknessBeforeUvUm)} µm`}. Reason: ${quoted(record.thicknessOverrideReason)}.`,
     });
   }
@@ -378,6 +409,7 @@ function judgeCxl(
 function judgeChecklist(
   protocol: ProtocolVersion,
   checklist: readonly ChecklistAnswer[],
+  sessionStartedAt: string | null,
   add: (d: Deviation) => void,
 ): void {
   const questions = new Map(protocol.contraindications.map((item) => [item.id, item]));
@@ -395,6 +427,8 @@ function judgeChecklist(
     expected: 0,
     actual: overridden.length,
     unit: 'answers',
+    // Answered at signing, before any tap: the session's start is when it was acted on.
+    at: sessionStartedAt,
     message: `Expected no contraindication answered yes; ${overridden.length} answered yes and treated anyway: ${lines.join('; ')}.`,
   });
 }

@@ -216,4 +216,10 @@ export interface Deviation {
   actual: number | null;
   unit: string | null;
   message: string;
+  /**
+   * When the event that caused it happened (the infusion's end, the light's start…), from the
+   * taps that still count: a withdrawn tap never lends its time to a deviation that another
+   * event causes. Null when no event of the session caused it.
+   */
+  at: string | null;
 }

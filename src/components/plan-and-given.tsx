@@ -1,7 +1,8 @@
 import type { DosePlan } from '../../shared/schemas/calculation';
 import { doseGivenText } from '../lib/dose-given-words';
 import type { GivenRecord, ProtocolSteps } from '../lib/session-record-schemas';
-import { formatDurationS, formatFigure, formatUnitClock } from '../lib/unit-times';
+import { formatDurationS, formatUnitClock } from '../lib/unit-times';
+import { formatReading } from '../../shared/format/precision';
 
 const bsaFormulaWords: Record<string, string> = {
   mosteller: 'Mosteller',
@@ -27,7 +28,7 @@ function rowsFor(
     return [
       {
         label: 'BSA',
-        planned: formatFigure(plan.bsaM2, 'm²'),
+        planned: formatReading('bsaM2', plan.bsaM2),
         given: '—',
         note: plan.bsaFormula
           ? `${bsaFormulaWords[plan.bsaFormula] ?? plan.bsaFormula} formula`
@@ -35,14 +36,14 @@ function rowsFor(
       },
       {
         label: 'Verteporfin dose',
-        planned: formatFigure(plan.doseMg, 'mg'),
+        planned: formatReading('doseMg', plan.doseMg),
         given: (given && doseGivenText(given)) ?? '—',
         note: 'Given = the share of the dose in the volume infused.',
       },
       {
         label: 'Infusion volume',
-        planned: formatFigure(sum(plan.drugVolumeMl, plan.diluentVolumeMl), 'mL'),
-        given: formatFigure(given?.volumeGivenMl, 'mL'),
+        planned: formatReading('volumeMl', sum(plan.drugVolumeMl, plan.diluentVolumeMl)),
+        given: formatReading('volumeMl', given?.volumeGivenMl),
         note:
           given?.volumeGivenSource === 'entered'
             ? 'Given = read off the pump by the nurse.'
@@ -60,8 +61,8 @@ function rowsFor(
       },
       {
         label: 'Irradiance',
-        planned: formatFigure(plan.irradianceMwPerCm2, 'mW/cm²'),
-        given: formatFigure(given?.irradianceMwPerCm2, 'mW/cm²'),
+        planned: formatReading('irradianceMwPerCm2', plan.irradianceMwPerCm2),
+        given: formatReading('irradianceMwPerCm2', given?.irradianceMwPerCm2),
         note: 'Set on the laser; taken from the plan.',
       },
       {
@@ -70,7 +71,7 @@ function rowsFor(
         given: formatDurationS(given?.deviceExposureS),
         note:
           given?.deviceEnergyJ != null
-            ? `Energy on the laser ${formatFigure(given.deviceEnergyJ, 'J')}.`
+            ? `Energy on the laser ${formatReading('energyJ', given.deviceEnergyJ)}.`
             : 'As the nurse read it off the laser; the exposure is judged on it.',
       },
       {
@@ -81,15 +82,21 @@ function rowsFor(
       },
       {
         label: 'Fluence',
-        planned: formatFigure(plan.fluenceJPerCm2, 'J/cm²'),
-        given: formatFigure(given?.deliveredFluenceJPerCm2, 'J/cm²'),
+        planned: formatReading('fluenceJPerCm2', plan.fluenceJPerCm2),
+        given: formatReading('fluenceJPerCm2', given?.deliveredFluenceJPerCm2),
       },
       {
         label: 'Spot diameter (retina)',
-        planned: formatFigure(plan.spotDiameterUm, 'µm', 0),
+        planned: formatReading('spotUm', plan.spotDiameterUm),
         given: '—',
       },
-      { label: 'Laser power', planned: formatFigure(plan.powerMw, 'mW', 1), given: '—' },
+      {
+        label: 'Spot set on the laser',
+        planned: formatReading('spotUm', plan.deviceSpotDiameterUm),
+        given: '—',
+        note: 'Device setting: retinal spot ÷ the contact lens’s magnification.',
+      },
+      { label: 'Laser power', planned: formatReading('powerMw', plan.powerMw), given: '—' },
     ];
   }
   const soak = stepOfKind('soak');
@@ -108,17 +115,17 @@ function rowsFor(
     {
       label: 'Stromal thickness before UV',
       planned: steps?.definition.cxl
-        ? `at least ${formatFigure(steps.definition.cxl.minStromalThicknessUm, 'µm', 0)}`
+        ? `at least ${formatReading('thicknessUm', steps.definition.cxl.minStromalThicknessUm)}`
         : '—',
-      given: formatFigure(given?.thicknessBeforeUvUm, 'µm', 0),
+      given: formatReading('thicknessUm', given?.thicknessBeforeUvUm),
       note: given?.thicknessOverrideReason
         ? `Minimum overridden: ${given.thicknessOverrideReason}`
         : undefined,
     },
     {
       label: 'Irradiance',
-      planned: formatFigure(plan.irradianceMwPerCm2, 'mW/cm²'),
-      given: formatFigure(given?.irradianceMwPerCm2, 'mW/cm²'),
+      planned: formatReading('irradianceMwPerCm2', plan.irradianceMwPerCm2),
+      given: formatReading('irradianceMwPerCm2', given?.irradianceMwPerCm2),
       note: 'Set on the device; taken from the plan.',
     },
     {
@@ -138,8 +145,8 @@ function rowsFor(
     },
     {
       label: 'Fluence',
-      planned: formatFigure(plan.fluenceJPerCm2, 'J/cm²'),
-      given: formatFigure(given?.deliveredFluenceJPerCm2, 'J/cm²'),
+      planned: formatReading('fluenceJPerCm2', plan.fluenceJPerCm2),
+      given: formatReading('fluenceJPerCm2', given?.deliveredFluenceJPerCm2),
     },
   ];
 }

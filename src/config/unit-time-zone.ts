@@ -9,8 +9,21 @@ export let unitTimeZone = 'Europe/Lisbon';
 /** How the zone is named beside a time on screen, e.g. "09:05 (Lisbon time)". */
 export let unitTimeZoneLabel = 'Lisbon time';
 
+/**
+ * The unit's locale (the server's UNIT_LOCALE): dates are entered and shown in its order
+ * (day/month/year for the demo unit's en-GB), never in the browser's default.
+ */
+export let unitLocale = 'en-GB';
+
 /** Called once at start-up with the server's setting. */
-export function applyServerTimeZone(zone: string): void {
+export function applyServerTimeZone(zone: string, locale?: string): void {
+  if (locale) {
+    try {
+      if (Intl.DateTimeFormat.supportedLocalesOf([locale]).length === 1) unitLocale = locale;
+    } catch {
+      // An unknown tag leaves the built-in default.
+    }
+  }
   try {
     new Intl.DateTimeFormat('en', { timeZone: zone });
   } catch {

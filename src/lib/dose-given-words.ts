@@ -1,5 +1,5 @@
-import { formatNumber, roundToStep } from '../../shared/engine/rounding';
 import { formatDuration } from '../../shared/format/figures';
+import { formatReading } from '../../shared/format/precision';
 
 /** The record's figures for what was given (shared/session/dose-record.ts). */
 export interface GivenFigures {
@@ -12,7 +12,8 @@ export interface GivenFigures {
 /** "about 4.4 mg of 10.92 mg": the milligrams in the volume infused, never "as ordered". */
 export function doseGivenText(record: GivenFigures): string | null {
   if (record.doseGivenMg == null || record.plannedDoseMg == null) return null;
-  return `about ${formatNumber(roundToStep(record.doseGivenMg, 0.1))} mg of ${formatNumber(record.plannedDoseMg)} mg`;
+  // Both at the precision a dose is read at, so the share never reads larger than the whole.
+  return `about ${formatReading('doseMg', record.doseGivenMg)} of ${formatReading('doseMg', record.plannedDoseMg)}`;
 }
 
 /** "12 mL, read off the pump" or "30 mL, worked out from the planned rate and the infusion time". */
@@ -22,7 +23,7 @@ export function volumeGivenText(record: GivenFigures): string | null {
     record.volumeGivenSource === 'entered'
       ? 'read off the pump'
       : 'worked out from the planned rate and the infusion time';
-  return `${formatNumber(roundToStep(record.volumeGivenMl, 0.1))} mL, ${how}`;
+  return `${formatReading('volumeMl', record.volumeGivenMl)}, ${how}`;
 }
 
 /** "4 min 10 s" for a receipt delay: the record's words for a duration. */

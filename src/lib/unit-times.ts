@@ -1,6 +1,6 @@
 import { DateTime } from 'luxon';
 import { formatDuration, formatQuantity } from '../../shared/format/figures';
-import { unitTimeZone } from '../config/unit-time-zone';
+import { unitLocale, unitTimeZone } from '../config/unit-time-zone';
 
 /** A stored instant as the unit's wall clock, e.g. "7 Nov 2026, 10:05". */
 export function formatUnitDateTime(iso: string | null | undefined): string {
@@ -42,4 +42,56 @@ export function formatFigure(
   digits = 2,
 ): string {
   return formatQuantity(value, unit ?? '', digits);
+}
+
+/**
+ * A calendar date (YYYY-MM-DD, such as a date of birth) as the unit writes it: "03/12/1950" in
+ * the demo unit's en-GB (day/month/year), whatever the browser's own locale.
+ */
+export function formatUnitCalendarDate(isoDate: string | null | undefined): string {
+  if (!isoDate) return '—';
+  const at = DateTime.fromISO(isoDate.slice(0, 10), { zone: 'utc' });
+  return at.isValid ? at.setLocale(unitLocale).toLocaleString(DateTime.DATE_SHORT) : isoDate;
+}
+
+/** The pattern a person types a date in for the unit's locale: "DD/MM/YYYY" for en-GB. */
+export function unitDatePattern(): string {
+  const parts = new Intl.DateTimeFormat(unitLocale, {
+    day: '2-digit',
+    month: '2-digit',
+    year: 'numeric',
+  }).formatToParts(new Date(Date.UTC(2001, 10, 22)));
+  return parts
+    .map((part) =>
+      part.type === 'day'
+        ? 'DD'
+        : part.type === 'month'
+          ? 'MM'
+          : part.type === 'year'
+            ? 'YYYY'
+            : part.value,
+    )
+    .join('');
+}
+
+/**
+ * A date typed in the unit's pattern as YYYY-MM-DD, or null when it is not a real date.
+ * Accepts one- or two-digit days and months and any of / . - as the separator.
+ */
+export function parseUnitDate(text: string): string | null {
+  const trimmed = text.trim();
+  if (/^\d{4}-\d{2}-\d{2}$/.test(trimmed)) {
+    return DateTime.fromISO(trimmed).isValid ? trimmed : null;
+  }
+  const numbers = trimmed.split(/[/.\-\s]+/);
+  if (numbers.length !== 3 || numbers.some((n) => !/^\d+$/.test(n))) return null;
+  const order = unitDatePattern()
+    .split(/[^DMY]+/)
+    .filter(Boolean);
+  const byPart: Record<string, number> = {};
+  order.forEach((part, index) => (byPart[part] = Number(numbers[index])));
+  const year = byPart.YYYY ?? NaN;
+  if (String(numbers[order.indexOf('YYYY')]).length !== 4) return null;
+  const date = DateTime.fromObject({ year, month: byPart.MM, day: byPart.DD }, { zone: 'utc' });
+  return date.isValid ? date.toISODate() : null;
 }

@@ -24,7 +24,14 @@ afterAll(async () => {
 });
 
 /** One filter control: its label, the value chosen, and that value's name and form in the address and in the API request. */
-type FilterChange = { label: string; value: string; param: string; inRequest?: string };
+/** `value` is what is typed (dates in the unit's day/month/year); `inUrl` what the address then holds. */
+type FilterChange = {
+  label: string;
+  value: string;
+  param: string;
+  inUrl?: string;
+  inRequest?: string;
+};
 
 type ListUnderTest = {
   screen: string;
@@ -42,7 +49,7 @@ const lists: ListUnderTest[] = [
     form: 'Filter the orders',
     api: '/api/orders',
     first: { label: 'Status', value: 'signed', param: 'status' },
-    second: { label: 'Created from', value: '2024-01-15', param: 'from' },
+    second: { label: 'Created from', value: '15/01/2024', param: 'from', inUrl: '2024-01-15' },
   },
   {
     screen: 'deviations',
@@ -50,7 +57,7 @@ const lists: ListUnderTest[] = [
     form: 'Filter the deviations',
     api: '/api/deviations',
     first: { label: 'Severity', value: 'major', param: 'severity' },
-    second: { label: 'Detected from', value: '2024-02-01', param: 'from' },
+    second: { label: 'Detected from', value: '01/02/2024', param: 'from', inUrl: '2024-02-01' },
   },
   {
     screen: 'dose records',
@@ -58,14 +65,14 @@ const lists: ListUnderTest[] = [
     form: 'Filter the dose records',
     api: '/api/dose-records',
     first: { label: 'Outcome', value: 'stopped', param: 'outcome' },
-    second: { label: 'Ended to', value: '2024-03-31', param: 'to' },
+    second: { label: 'Ended to', value: '31/03/2024', param: 'to', inUrl: '2024-03-31' },
   },
   {
     screen: 'audit trail',
     path: '/audit-trail',
     form: 'Filter the audit trail',
     api: '/api/audit-events',
-    first: { label: 'From', value: '2024-04-01', param: 'from' },
+    first: { label: 'From', value: '01/04/2024', param: 'from', inUrl: '2024-04-01' },
     second: { label: 'Order of events', value: 'asc', param: 'direction' },
   },
   {
@@ -126,8 +133,8 @@ describe('two filter changes made at once are both kept', () => {
       await changeBothAtOnce(page, list.form, list.first, list.second);
 
       const wanted = {
-        [list.first.param]: list.first.value,
-        [list.second.param]: list.second.value,
+        [list.first.param]: list.first.inUrl ?? list.first.value,
+        [list.second.param]: list.second.inUrl ?? list.second.value,
       };
       await expect
         .poll(() => Object.fromEntries(new URL(page.url()).searchParams))
@@ -139,7 +146,7 @@ describe('two filter changes made at once are both kept', () => {
       await expect
         .poll(() => filters.getByLabel(list.second.label, { exact: true }).inputValue())
         .toBe(list.second.value);
-      const sent = (change: FilterChange) => change.inRequest ?? change.value;
+      const sent = (change: FilterChange) => change.inRequest ?? change.inUrl ?? change.value;
       await expect
         .poll(() =>
           listRequests.some(

@@ -352,7 +352,7 @@ describe('gate 7: what was given is recorded', () => {
     const main = await page.locator('main').innerText();
     expect(main).toMatch(/Exposure on the laser\s*70 s, 2\.97 J/);
     // A completed infusion: 30 mL at the planned rate, all 10.92 mg.
-    expect(main).toMatch(/Verteporfin given\s*about 10\.9 mg of 10\.92 mg/);
+    expect(main).toMatch(/Verteporfin given\s*about 10\.92 mg of 10\.92 mg/);
     expect(problems).toEqual([]);
     await page.context().close();
   });
@@ -374,9 +374,9 @@ describe('gate 7: what was given is recorded', () => {
     await stop.getByRole('button', { name: 'Stop session' }).click();
     await page.getByText('Session stopped').waitFor();
     await allStored(page);
-    // 6 of 30 mL carry 6/30 of 10.92 mg = 2.184 mg (proportion).
+    // 6 of 30 mL carry 6/30 of 10.92 mg = 2.184 mg (proportion), read to 0.01 mg (common practice).
     expect(await page.locator('main').innerText()).toMatch(
-      /Verteporfin given\s*about 2\.2 mg of 10\.92 mg/,
+      /Verteporfin given\s*about 2\.18 mg of 10\.92 mg/,
     );
     expect(problems).toEqual([]);
     await page.context().close();
@@ -384,14 +384,14 @@ describe('gate 7: what was given is recorded', () => {
     const print = await signedInPage('auditor@demo.luxtempo.example', `/dose-records/${id}/print`);
     await print.page.getByRole('heading', { name: 'Plan and what was given' }).waitFor();
     const printed = await print.page.locator('main').innerText();
-    expect(printed).toContain('about 2.2 mg of 10.92 mg');
+    expect(printed).toContain('about 2.18 mg of 10.92 mg');
     expect(printed).toContain('read off the pump by the nurse');
     expect(print.problems).toEqual([]);
     await print.page.context().close();
 
     const sheet = await signedInPage('nurse@demo.luxtempo.example', `/orders/${id}/discharge`);
     const drip = sheet.page.getByRole('row', { name: /Medicine by drip into a vein/ });
-    expect(await drip.innerText()).toContain('verteporfin, about 2.2 mg of 10.92 mg');
+    expect(await drip.innerText()).toContain('verteporfin, about 2.18 mg of 10.92 mg');
     expect(await sheet.page.getByRole('article').innerText()).not.toContain('as ordered');
     await sheet.page.getByRole('region', { name: 'Light precaution after verteporfin' }).waitFor();
     expect(sheet.problems).toEqual([]);

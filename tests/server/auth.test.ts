@@ -258,12 +258,13 @@ describe('the API as a whole', () => {
     expect(res.body).toMatchObject({ status: 'ok', database: { status: 'up' } });
   });
 
-  it('tells anyone the unit’s name, time zone and telephone, which the client formats times with', async () => {
+  it('tells anyone the unit’s name, time zone, locale and telephone, which the client formats times and dates with', async () => {
     const res = await supertest(ctx.app).get('/api/unit');
     expect(res.status).toBe(200);
     expect(res.body).toEqual({
       name: ctx.config.UNIT_NAME,
       timeZone: ctx.config.UNIT_TIME_ZONE,
+      locale: ctx.config.UNIT_LOCALE,
       phone: ctx.config.UNIT_PHONE,
     });
   });

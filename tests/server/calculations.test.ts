@@ -110,19 +110,15 @@ describe('POST /api/calculations', () => {
   });
 
   it('an unknown protocol or version is 404', async () => {
-    const unknown = await agent
-      .post('/api/calculations')
-      .send({
-        protocol: { key: 'pdt-unknown' },
-        inputs: { ...adult, lesionGldUm: 2500, lensMagnification: 1 },
-      });
+    const unknown = await agent.post('/api/calculations').send({
+      protocol: { key: 'pdt-unknown' },
+      inputs: { ...adult, lesionGldUm: 2500, lensMagnification: 1 },
+    });
     expect(unknown.status).toBe(404);
-    const version = await agent
-      .post('/api/calculations')
-      .send({
-        protocol: { key: 'pdt-standard', version: 42 },
-        inputs: { ...adult, lesionGldUm: 2500, lensMagnification: 1 },
-      });
+    const version = await agent.post('/api/calculations').send({
+      protocol: { key: 'pdt-standard', version: 42 },
+      inputs: { ...adult, lesionGldUm: 2500, lensMagnification: 1 },
+    });
     expect(version.status).toBe(404);
   });
 
@@ -143,6 +139,17 @@ describe('POST /api/light-calculations', () => {
     expect(solution.irradianceMwPerCm2).toBeCloseTo(42.4 / 0.070686, 0);
     expect(solution.fluenceJPerCm2).toBeCloseTo(((42.4 / 0.070686) * 83) / 1000, 1);
     expect(solution.energyJ).toBeCloseTo(0.0424 * 83, 3);
+  });
+
+  it('answers the time from fluence and irradiance alone, and leaves what they do not fix empty', async () => {
+    // Definition: exposure = fluence ÷ irradiance; 50 J/cm² at 600 mW/cm² (TAP Study Group 1999) → 83.3 s.
+    const res = await agent
+      .post('/api/light-calculations')
+      .send({ fluenceJPerCm2: 50, irradianceMwPerCm2: 600 });
+    expect(res.status).toBe(200);
+    expect(res.body.solution.exposureS).toBeCloseTo(83.33, 2);
+    expect(res.body.solution.powerMw).toBeNull();
+    expect(res.body.solution.spotDiameterUm).toBeNull();
   });
 
   it('refuses too little to work with, naming the fields', async () => {

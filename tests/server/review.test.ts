@@ -80,15 +80,13 @@ describe('the deviations queue', () => {
     const nurseAgent = await signedInAgent(ctx, nurse);
     const orderIds = [];
     for (const late of [180, 240, 300]) orderIds.push(await sessionWithLateLight(nurseAgent, late));
-    const page1 = await auditorAgent
-      .get('/api/deviations')
-      .query({
-        staff: nurse.id,
-        type: 'light-start-window',
-        pageSize: 2,
-        sort: 'detectedAt',
-        direction: 'asc',
-      });
+    const page1 = await auditorAgent.get('/api/deviations').query({
+      staff: nurse.id,
+      type: 'light-start-window',
+      pageSize: 2,
+      sort: 'detectedAt',
+      direction: 'asc',
+    });
     expect(page1.status).toBe(200);
     expect(page1.body.total).toBe(3);
     expect(page1.body.deviations).toHaveLength(2);
@@ -105,16 +103,14 @@ describe('the deviations queue', () => {
       reviewStatus: 'open',
     });
     expect(page1.body.deviations[0].detectedAt).toMatch(/[+-]\d{2}:\d{2}$/);
-    const page2 = await auditorAgent
-      .get('/api/deviations')
-      .query({
-        staff: nurse.id,
-        type: 'light-start-window',
-        pageSize: 2,
-        page: 2,
-        sort: 'detectedAt',
-        direction: 'asc',
-      });
+    const page2 = await auditorAgent.get('/api/deviations').query({
+      staff: nurse.id,
+      type: 'light-start-window',
+      pageSize: 2,
+      page: 2,
+      sort: 'detectedAt',
+      direction: 'asc',
+    });
     expect(page2.body.deviations.map((d: { orderId: number }) => d.orderId)).toEqual(
       orderIds.slice(2),
     );
@@ -172,12 +168,10 @@ describe('reviewing a deviation', () => {
     expect((await clinicianAgent.get(`/api/orders/${orderId}`)).body.order.status).toBe(
       'completed',
     );
-    const again = await auditorAgent
-      .post(`/api/deviations/${id}/closure`)
-      .send({
-        classification: 'needs-follow-up',
-        comment: 'Discuss scheduling at the unit meeting.',
-      });
+    const again = await auditorAgent.post(`/api/deviations/${id}/closure`).send({
+      classification: 'needs-follow-up',
+      comment: 'Discuss scheduling at the unit meeting.',
+    });
     expect(
       again.body.history.map((h: { action: string; classification: string | null }) => [
         h.action,
@@ -333,7 +327,7 @@ describe('the CSV export', () => {
       .get('/api/exports/dose-records.csv')
       .query({ staff: nurse.id })
       .buffer(true);
-    expect(records.text.split('\r\n')[0]).toContain('delivered_fluence (J/cm2)');
+    expect(records.text.split('\r\n')[0]).toContain('delivered_fluence (J/cm²)');
     // 6 mg/m² × 1.82 m² = 10.92 mg; 30 mL infused; 83 s at 600 mW/cm² = 49.8 J/cm² planned and
     // delivered (TAP Study Group, Arch Ophthalmol 1999; Mosteller RD, N Engl J Med 1987); one deviation.
     expect(records.text.split('\r\n')[1]).toMatch(/,10\.92,30,83,49\.8,49\.8,1$/);
@@ -359,6 +353,35 @@ describe('dose records and trends', () => {
     const month = trends.body.months.at(-1);
     expect(month.sessions).toBeGreaterThanOrEqual(2);
     expect(month.ratePct).toBeCloseTo((month.sessionsWithDeviation / month.sessions) * 100, 1);
+  });
+
+  it('splits the month’s deviations by type and severity, and the split adds up', async () => {
+    const nurse = await createTestPerson(ctx, ['nurse']);
+    const agent = await signedInAgent(ctx, nurse);
+    // Light 5 min late: outside 15 min ± 1 min (TAP Study Group 1999; tolerance common practice).
+    await sessionWithLateLight(agent, 300);
+    const trends = await auditorAgent.get('/api/trends').query({ protocol: 'pdt-standard' });
+    const month = trends.body.months.at(-1).month;
+    const late = trends.body.byType.find(
+      (r: { month: string; type: string }) => r.month === month && r.type === 'light-start-window',
+    );
+    const [stored] = await ctx.dataSource.query(
+      `SELECT COUNT(*) AS n FROM deviation d JOIN dose_record r ON r.order_id = d.order_id
+        JOIN protocol_version pv ON pv.id = r.protocol_version_id
+       WHERE d.withdrawn_at IS NULL AND d.type = 'light-start-window' AND d.severity = 'major'
+         AND r.local_month = ? AND pv.protocol_key = 'pdt-standard' AND r.outcome IN ('completed', 'stopped')`,
+      [month],
+    );
+
+    expect(late).toMatchObject({ severity: 'major', protocolKey: 'pdt-standard' });
+    expect(
+      trends.body.byType
+        .filter(
+          (r: { month: string; type: string; severity: string }) =>
+            r.month === month && r.type === 'light-start-window' && r.severity === 'major',
+        )
+        .reduce((sum: number, r: { deviations: number }) => sum + r.deviations, 0),
+    ).toBe(Number(stored.n));
   });
 });
 

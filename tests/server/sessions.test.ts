@@ -285,6 +285,67 @@ describe('deviations', () => {
   });
 });
 
+describe('the record while the session runs', () => {
+  it('shows the running infusion up to now, not up to the last tap, and names the nurse', async () => {
+    const order = await preparedPdtOrder(ctx, await team(), 60);
+    const t0 = Date.now() - 60_000;
+    const at = (seconds: number, event: Record<string, unknown>) => ({
+      idempotencyKey: randomUUID(),
+      clientTime: new Date(t0 + seconds * 1000).toISOString(),
+      ...event,
+    });
+    await post(order.id, at(0, { type: 'session-started', checks: allChecks }));
+    // The infusion starts now (a 10 min infusion: TAP Study Group 1999); no tap follows.
+    await post(order.id, at(60, { type: 'step-started', stepId: 'infusion' }));
+    await new Promise((resolve) => setTimeout(resolve, 2500));
+
+    const state = await nurseAgent.get(`/api/orders/${order.id}/session`);
+    const stored = await ctx.dataSource.query('SELECT record FROM dose_record WHERE order_id = ?', [
+      order.id,
+    ]);
+    const storedRecord =
+      typeof stored[0].record === 'string' ? JSON.parse(stored[0].record) : stored[0].record;
+
+    expect(state.status).toBe(200);
+    expect(state.body.record.outcome).toBe('in-progress');
+    // The stored record stopped at the tap; the answer runs to the moment it was asked.
+    expect(storedRecord.infusionDurationS).toBeLessThan(1.5);
+    expect(state.body.record.infusionDurationS).toBeGreaterThanOrEqual(2.4);
+    expect(state.body.nurses).toHaveLength(1);
+  });
+});
+
+describe('a deviation and the tap that caused it', () => {
+  it('is dated by the light start when the infusion start is withdrawn, not by the withdrawal', async () => {
+    const order = await preparedPdtOrder(ctx, await team(), 60);
+    const at = timeline(30);
+    const infusionStart = at(60, { type: 'step-started', stepId: 'infusion' });
+    for (const event of [
+      at(0, { type: 'session-started', checks: allChecks }),
+      infusionStart,
+      at(660, { type: 'step-ended', stepId: 'infusion' }),
+      at(660, { type: 'step-started', stepId: 'wait-for-light' }),
+      at(960, { type: 'step-ended', stepId: 'wait-for-light' }),
+    ])
+      expect((await post(order.id, event)).status).toBe(201);
+    const lightStart = at(960, { type: 'step-started', stepId: 'laser' });
+    expect((await post(order.id, lightStart)).status).toBe(201);
+    const withdrawal = at(1000, {
+      type: 'tap-withdrawn',
+      withdrawnKey: infusionStart.idempotencyKey,
+      reason: 'Tapped on the wrong order.',
+    });
+    const res = await post(order.id, withdrawal);
+
+    expect(res.status).toBe(201);
+    const [row] = await ctx.dataSource.query(
+      "SELECT detected_at AS detectedAt FROM deviation WHERE order_id = ? AND type = 'light-without-infusion' AND withdrawn_at IS NULL",
+      [order.id],
+    );
+    expect((row.detectedAt as Date).toISOString()).toBe(lightStart.clientTime);
+  });
+});
+
 describe('withdrawing a mistaken tap', () => {
   const withdrawnKeyRefusal = (res: {
     status: number;

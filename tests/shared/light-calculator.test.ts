@@ -15,10 +15,10 @@ function inputErrorOf(run: () => unknown): PlanInputError {
 }
 
 function pick(
-  source: Record<LightField, number>,
+  source: Record<LightField, number | null>,
   fields: readonly LightField[],
 ): LightCalculationRequest {
-  return Object.fromEntries(fields.map((field) => [field, source[field]]));
+  return Object.fromEntries(fields.map((field) => [field, source[field] ?? undefined]));
 }
 
 function triples(): LightField[][] {
@@ -75,7 +75,7 @@ describe('the light calculator', () => {
       const solution = solveLight(pick(reference, fields));
 
       for (const field of lightFields)
-        expect(solution[field], field).toBeCloseTo(reference[field], 8);
+        expect(solution[field], field).toBeCloseTo(reference[field]!, 8);
     },
   );
 
@@ -88,7 +88,63 @@ describe('the light calculator', () => {
     expect(error.fields.map((field) => field.path).sort()).toEqual(
       lightFields.filter((field) => !fields.includes(field)).sort(),
     );
-    expect(error.fields[0]?.message).toContain('give three independent values');
+    expect(error.fields[0]?.message).toContain('cannot be worked out from');
+    expect(error.fields[0]?.message).toContain('give two figures that one definition ties');
+  });
+
+  describe('answers what two figures tie together, and leaves the rest empty', () => {
+    it('spot diameter and irradiance give the power: 6400 µm at 600 mW/cm² → 193.0 mW', () => {
+      // Definitions (area = π d²/4 = 0.3217 cm²; power = irradiance × area); 600 mW/cm² and the
+      // 6400 µm largest spot: TAP Study Group, Arch Ophthalmol 1999.
+      const solution = solveLight({ spotDiameterUm: 6400, irradianceMwPerCm2: 600 });
+
+      expect(solution.spotAreaCm2).toBeCloseTo(0.3217, 4);
+      expect(solution.powerMw).toBeCloseTo(193.0, 1);
+      expect(solution.exposureS).toBeNull();
+      expect(solution.fluenceJPerCm2).toBeNull();
+      expect(solution.energyJ).toBeNull();
+    });
+
+    it('fluence and irradiance give the time: 50 J/cm² at 600 mW/cm² → 83.3 s', () => {
+      // Definition: exposure = fluence ÷ irradiance; 50 J/cm², 600 mW/cm²: TAP Study Group 1999.
+      const solution = solveLight({ fluenceJPerCm2: 50, irradianceMwPerCm2: 600 });
+
+      expect(solution.exposureS).toBeCloseTo(83.33, 2);
+      expect(solution.powerMw).toBeNull();
+      expect(solution.spotDiameterUm).toBeNull();
+    });
+
+    it('power and spot give the irradiance: 42.4 mW on a 3000 µm spot → 600 mW/cm²', () => {
+      // Definition: irradiance = power ÷ area; 3000 µm → 0.070686 cm² (arithmetic of π d²/4).
+      const solution = solveLight({ powerMw: 42.4115, spotDiameterUm: 3000 });
+
+      expect(solution.irradianceMwPerCm2).toBeCloseTo(600, 2);
+      expect(solution.fluenceJPerCm2).toBeNull();
+    });
+
+    it('time and irradiance give the fluence: 1800 s at 3 mW/cm² → 5.4 J/cm²', () => {
+      // Caporossi A et al., J Cataract Refract Surg 2006: 3 mW/cm² × 30 min = 5.4 J/cm².
+      const solution = solveLight({ exposureS: 1800, irradianceMwPerCm2: 3 });
+
+      expect(solution.fluenceJPerCm2).toBeCloseTo(5.4, 10);
+      expect(solution.powerMw).toBeNull();
+    });
+
+    it('power and time give the energy: 42.4 mW for 83 s → 3.52 J', () => {
+      // Definition: energy = power × time (mW × s ÷ 1000 = J); 83 s: TAP Study Group 1999.
+      const solution = solveLight({ powerMw: 42.4, exposureS: 83 });
+
+      expect(solution.energyJ).toBeCloseTo(3.519, 3);
+      expect(solution.irradianceMwPerCm2).toBeNull();
+    });
+
+    it('two figures no definition ties answer nothing, and say so for each missing field', () => {
+      const error = inputErrorOf(() => solveLight({ powerMw: 42.4, fluenceJPerCm2: 50 }));
+
+      expect(error.fields.map((field) => field.path).sort()).toEqual(
+        ['spotDiameterUm', 'irradianceMwPerCm2', 'exposureS', 'energyJ'].sort(),
+      );
+    });
   });
 
   it('refuses figures that disagree, naming each of them', () => {
@@ -147,13 +203,13 @@ describe('the light calculator', () => {
 
           const back = solveLight({
             irradianceMwPerCm2,
-            fluenceJPerCm2: forward.fluenceJPerCm2,
+            fluenceJPerCm2: forward.fluenceJPerCm2!,
             spotDiameterUm,
           });
 
           expect(forward.fluenceJPerCm2).toBeCloseTo((irradianceMwPerCm2 * exposureS) / 1000, 6);
-          expect(back.exposureS / exposureS).toBeCloseTo(1, 10);
-          expect(back.energyJ / forward.energyJ).toBeCloseTo(1, 10);
+          expect(back.exposureS! / exposureS).toBeCloseTo(1, 10);
+          expect(back.energyJ! / forward.energyJ!).toBeCloseTo(1, 10);
         },
       ),
     );

@@ -153,13 +153,11 @@ function cxlSession(protocol: ProtocolVersion, options: CxlSessionOptions = {}):
     taps.tap(soakStartS + s, { type: 'drop-given', stepId: 'riboflavin-soak' });
   const thicknessStartS = soakStartS + soakS;
   taps.tap(thicknessStartS, { type: 'step-ended', stepId: 'riboflavin-soak' });
-  taps
-    .step('thickness-check', thicknessStartS, null)
-    .tap(thicknessStartS + 30, {
-      type: 'thickness-measured',
-      stepId: 'thickness-check',
-      thicknessUm,
-    });
+  taps.step('thickness-check', thicknessStartS, null).tap(thicknessStartS + 30, {
+    type: 'thickness-measured',
+    stepId: 'thickness-check',
+    thicknessUm,
+  });
   const uvStartS = thicknessStartS + 60;
   taps
     .tap(uvStartS, { type: 'step-ended', stepId: 'thickness-check' })
@@ -781,7 +779,8 @@ describe('deviations of a PDT session', () => {
     expect(deviationOf(past, 'beyond-use')).toMatchObject({
       severity: 'critical',
       expected: 4,
-      actual: 4,
+      // Kept to the millisecond, so it never reads the same as the limit ("4 h → 4 h").
+      actual: 4.0002778,
       unit: 'h',
     });
     expect(deviationOf(past, 'beyond-use')?.message).toContain('1 s past it');
@@ -1194,6 +1193,35 @@ describe('a tap withdrawn as a mistake', () => {
       actual: 240,
       unit: 's',
     });
+  });
+
+  it('dates a deviation by the event that caused it, not by the withdrawal that revealed it', () => {
+    // Light 15 min after the infusion start (TAP Study Group, Arch Ophthalmol 1999).
+    const lightStartS = infusionStartS + 900;
+    const taps = pdtSession({ ending: 'none' });
+    const withdrawnAtS = lightStartS + 200;
+    withdraw(taps, withdrawnAtS, keyOf(taps, 'step-started', 'infusion'), 'wrong order tapped');
+
+    const deviation = deviationOf(pdtDeviations(taps), 'light-without-infusion');
+
+    expect(deviation?.at).toBe(atIso(lightStartS));
+    expect(deviation?.at).not.toBe(atIso(withdrawnAtS));
+  });
+
+  it('dates a drop-gap brought back by a withdrawn drop at the end of the phase it was in', () => {
+    // Soak drops every 2 min, gap at most 180 s (common practice, demo site policy).
+    const soakDropsAtS = [
+      0, 120, 240, 360, 480, 600, 720, 840, 960, 1080, 1200, 1320, 1440, 1560, 1680,
+    ];
+    const taps = cxlSession(cxlStandard, { soakDropsAtS });
+    withdraw(taps, soakStartS + 1790, keyOf(taps, 'drop-given', 'riboflavin-soak', 3), 'not given');
+    const record = deriveDoseRecord({
+      protocol: cxlStandard,
+      plan: cxlStandardPlan,
+      events: taps.events,
+    });
+
+    expect(deviationOf(cxlDeviations(cxlStandard, taps), 'drop-gap')?.at).toBe(record.soakEndAt);
   });
 
   it('takes away the short-soak deviation that a mistaken early end of the soak had made', () => {

@@ -113,7 +113,12 @@ export async function accessibilityViolations(page: Page) {
             ctx: Document,
             opts: object,
           ) => Promise<{
-            violations: { id: string; help: string; nodes: { target: string[] }[] }[];
+            violations: {
+              id: string;
+              help: string;
+              impact: string | null;
+              nodes: { target: string[] }[];
+            }[];
           }>;
         };
       }
@@ -124,6 +129,7 @@ export async function accessibilityViolations(page: Page) {
     return result.violations.map((v) => ({
       id: v.id,
       help: v.help,
+      impact: v.impact,
       targets: v.nodes.map((n) => n.target.join(' ')),
     }));
   });

@@ -12,7 +12,7 @@ export function AppHeader({ user }: { user: SessionUser }) {
   const roleLine = user.roles.map((role) => roleLabels[role]).join(' · ');
 
   return (
-    <header className="border-b border-paper-200 bg-paper-100 print:border-none print:bg-white">
+    <header className="border-b border-paper-200 bg-paper-100 print:hidden">
       <div className="flex flex-wrap items-center justify-between gap-x-6 gap-y-2 px-5 py-3">
         <Link to={paths.today.getHref()} className="flex items-center gap-3 rounded-lg pr-2">
           <MarkIcon className="size-9" />

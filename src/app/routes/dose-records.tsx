@@ -8,15 +8,22 @@ import { DoseRecordPrintScreen } from '../../features/dose-records/components/do
 import { DoseRecordsScreen } from '../../features/dose-records/components/dose-records-screen';
 import { useSignedInUser } from '../layout/signed-in-user';
 
-function Locked() {
+function Locked({ what }: { what: 'list' | 'record' }) {
   return (
     <StatusPanel
       headingLevel="h1"
       icon={<LockIcon className="size-6" />}
-      title="Dose records are for auditors"
+      title={
+        what === 'list'
+          ? 'The list of every dose record is not open to your roles'
+          : 'Dose records are not open to your roles'
+      }
       actions={<LinkButton to={paths.today.getHref()}>Go to Today</LinkButton>}
     >
-      <p>Ask an administrator if your roles need to change.</p>
+      <p>
+        {what === 'list' ? 'Each order’s page links to its own printable dose record. ' : ''}
+        Ask an administrator if your roles need to change.
+      </p>
     </StatusPanel>
   );
 }
@@ -26,12 +33,12 @@ export function DoseRecordsRoute() {
   return (
     <>
       <title>Dose records · Luxtempo</title>
-      {hasCapability(user, 'audit.read') ? <DoseRecordsScreen /> : <Locked />}
+      {hasCapability(user, 'audit.read') ? <DoseRecordsScreen /> : <Locked what="list" />}
     </>
   );
 }
 
-/** One record for the chart; it reads the order and its session, which auditors may see. */
+/** One record for the chart; everyone who may read the order and its session may print it. */
 export function DoseRecordPrintRoute() {
   const user = useSignedInUser();
   const { orderId } = useParams();
@@ -39,8 +46,8 @@ export function DoseRecordPrintRoute() {
   return (
     <>
       <title>{id ? `Dose record, order ${id} · Luxtempo` : 'Dose record · Luxtempo'}</title>
-      {!hasCapability(user, 'audit.read') ? (
-        <Locked />
+      {!hasCapability(user, 'orders.read') ? (
+        <Locked what="record" />
       ) : id === null ? (
         <StatusPanel
           headingLevel="h1"
@@ -51,7 +58,7 @@ export function DoseRecordPrintRoute() {
           <p>“{orderId ?? ''}” is not an order number; order numbers are whole numbers from 1.</p>
         </StatusPanel>
       ) : (
-        <DoseRecordPrintScreen orderId={id} />
+        <DoseRecordPrintScreen orderId={id} canListRecords={hasCapability(user, 'audit.read')} />
       )}
     </>
   );

@@ -1,4 +1,4 @@
-import { TextField } from './text-field';
+import { UnitDateField } from './unit-date-field';
 
 type DateRange = { from?: string; to?: string };
 
@@ -31,21 +31,17 @@ export function DateRangeFields({
       : undefined;
   return (
     <>
-      <TextField
+      <UnitDateField
         label={fromLabel}
-        type="date"
-        value={from ?? ''}
-        max={to}
+        value={from}
         error={rangeError ?? errors.from}
-        onChange={(e) => onChange({ from: e.target.value || undefined })}
+        onChange={(date) => onChange({ from: date })}
       />
-      <TextField
+      <UnitDateField
         label={toLabel}
-        type="date"
-        value={to ?? ''}
-        min={from}
+        value={to}
         error={errors.to}
-        onChange={(e) => onChange({ to: e.target.value || undefined })}
+        onChange={(date) => onChange({ to: date })}
       />
     </>
   );

@@ -16,6 +16,9 @@ const staffSchema = z.object({
 });
 
 type StaffFieldProps = {
+  /** "Staff member" and the sessions hint unless said. */
+  label?: string;
+  hint?: string;
   value: number | undefined;
   error?: string;
   onChange: (staff: number | undefined) => void;
@@ -25,7 +28,13 @@ type StaffFieldProps = {
  * The auditor's staff filter: a person chosen by name (from `GET /api/staff`, which auditors may
  * read). Used by the deviations queue and the dose records, so it lives with the shared controls.
  */
-export function StaffField({ value, error, onChange }: StaffFieldProps) {
+export function StaffField({
+  label = 'Staff member',
+  hint = 'Sessions this person ordered, checked, prepared or ran.',
+  value,
+  error,
+  onChange,
+}: StaffFieldProps) {
   const staff = useQuery({
     queryKey: ['staff'],
     queryFn: ({ signal }) => api.get('/staff', { schema: staffSchema, signal }),
@@ -35,10 +44,10 @@ export function StaffField({ value, error, onChange }: StaffFieldProps) {
   return (
     <div className="flex flex-col gap-1.5">
       <label htmlFor={id} className="font-medium text-paper-900">
-        Staff member
+        {label}
       </label>
       <p id={`${id}-hint`} className="text-sm text-paper-600">
-        Sessions this person ordered, checked, prepared or ran.
+        {hint}
       </p>
       <select
         id={id}

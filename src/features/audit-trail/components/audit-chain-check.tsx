@@ -40,7 +40,7 @@ export function AuditChainCheck() {
         )}
         {report?.ok && (
           <Alert tone="info" title="Intact">
-            All {report.checked.toLocaleString('en-GB')} events match their hashes, and the chain
+            All {report.checked} events match their hashes, and the chain
             ends at the newest event.
           </Alert>
         )}
@@ -53,7 +53,7 @@ export function AuditChainCheck() {
                 : 'The end of the chain does not match'
             }
           >
-            {report.reason} {report.checked.toLocaleString('en-GB')} events before it are intact.
+            {report.reason} {report.checked} events before it are intact.
             Tell the unit’s information governance lead and keep the latest backup.
           </Alert>
         )}

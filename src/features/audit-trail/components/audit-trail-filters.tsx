@@ -1,10 +1,10 @@
-import { useId } from 'react';
 import { auditTrailQuerySchema, type AuditTrailQuery } from '../../../../shared/schemas/reviews';
 import { Button } from '../../../components/ui/button';
-import { TextField } from '../../../components/ui/text-field';
+import { UnitDateField } from '../../../components/ui/unit-date-field';
 import { actionLabel, knownActions, recordTypes } from './audit-words';
 import { CheckedTextField } from './checked-text-field';
 import { SelectField } from '../../../components/ui/select-field';
+import { StaffField } from '../../../components/ui/staff-field';
 
 type AuditTrailFiltersProps = {
   query: AuditTrailQuery;
@@ -14,12 +14,9 @@ type AuditTrailFiltersProps = {
 };
 
 /** Checks typed text by the API's own schema, in words a person can act on. */
-function checker(key: 'action' | 'entityId' | 'actor', message: string) {
+function checker(key: 'entityId', message: string) {
   return (text: string) =>
-    auditTrailQuerySchema.shape[key].safeParse(text).success &&
-    (key === 'action' || /^\d+$/.test(text))
-      ? null
-      : message;
+    auditTrailQuerySchema.shape[key].safeParse(text).success && /^\d+$/.test(text) ? null : message;
 }
 
 export function AuditTrailFilters({
@@ -28,7 +25,6 @@ export function AuditTrailFilters({
   fieldErrors,
   onChange,
 }: AuditTrailFiltersProps) {
-  const actionsListId = useId();
   const rangeError =
     query.from && query.to && query.from > query.to
       ? 'The “from” date is after the “to” date, so nothing can match.'
@@ -39,54 +35,43 @@ export function AuditTrailFilters({
       onSubmit={(e) => e.preventDefault()}
       className="mb-4 grid gap-4 rounded-2xl border border-paper-200 bg-white p-4 sm:grid-cols-2 lg:grid-cols-4"
     >
-      <TextField
+      <UnitDateField
         label="From"
-        type="date"
-        value={query.from ?? ''}
-        max={query.to}
+        value={query.from}
         error={rangeError ?? fieldErrors.from}
-        onChange={(e) => onChange({ from: e.target.value || undefined })}
+        onChange={(from) => onChange({ from })}
       />
-      <TextField
+      <UnitDateField
         label="To"
-        type="date"
-        value={query.to ?? ''}
-        min={query.from}
+        value={query.to}
         error={fieldErrors.to}
-        onChange={(e) => onChange({ to: e.target.value || undefined })}
+        onChange={(to) => onChange({ to })}
       />
-      <div>
-        <CheckedTextField
-          label="Action"
-          hint="Its name, e.g. order.signed; the list suggests the known ones."
-          list={actionsListId}
-          autoComplete="off"
-          spellCheck={false}
-          value={query.action}
-          check={checker(
-            'action',
-            'An action name is lower-case letters, digits, dots and hyphens, e.g. order.signed.',
-          )}
-          error={fieldErrors.action}
-          onChange={(action) => onChange({ action })}
-        />
-        <datalist id={actionsListId}>
-          {knownActions.map((action) => (
+      <SelectField
+        label="Action"
+        value={query.action ?? ''}
+        error={fieldErrors.action}
+        onChange={(e) => onChange({ action: e.target.value || undefined })}
+      >
+        <option value="">Any action</option>
+        {knownActions
+          .map((action) => [action, actionLabel(action)] as const)
+          .sort((a, b) => a[1].localeCompare(b[1]))
+          .map(([action, label]) => (
             <option key={action} value={action}>
-              {actionLabel(action)}
+              {label}
             </option>
           ))}
-        </datalist>
-      </div>
-      <CheckedTextField
-        label="Done by (person id)"
-        hint="The person’s id, as shown in this list."
-        inputMode="numeric"
-        autoComplete="off"
-        value={query.actor === undefined ? undefined : String(query.actor)}
-        check={checker('actor', 'A person id is a whole number from 1.')}
+        {query.action && !knownActions.includes(query.action) && (
+          <option value={query.action}>{query.action}</option>
+        )}
+      </SelectField>
+      <StaffField
+        label="Done by"
+        hint="What this person did, by name."
+        value={query.actor}
         error={fieldErrors.actor}
-        onChange={(actor) => onChange({ actor: actor === undefined ? undefined : Number(actor) })}
+        onChange={(actor) => onChange({ actor })}
       />
       <SelectField
         label="Record type"

@@ -3,8 +3,14 @@ import type { AuditTrailQuery } from '../../../../shared/schemas/reviews';
 import { pageRange, TablePager } from '../../../components/ui/table-pager';
 import { paths } from '../../../config/paths';
 import type { AuditEvent } from '../api/audit-event-schemas';
-import { actionLabel, recordTypeLabel, summariseDetails } from './audit-words';
-import { formatUnitClock, formatUnitDate } from '../../../lib/unit-times';
+import {
+  actionLabel,
+  detailEntries,
+  recordTypeLabel,
+  summariseDetails,
+  type DetailEntry,
+} from './audit-words';
+import { formatUnitClock, formatUnitDate, formatUnitDateTime } from '../../../lib/unit-times';
 
 /** A link to the record where a screen for it exists. */
 function recordHref(type: string | null, id: string | null): string | null {
@@ -33,15 +39,31 @@ function RecordCell({ event }: { event: AuditEvent }) {
   );
 }
 
+function DetailList({ entries }: { entries: DetailEntry[] }) {
+  return (
+    <dl className="grid grid-cols-[max-content_1fr] gap-x-3 gap-y-0.5 text-sm">
+      {entries.map((entry, index) => (
+        <div key={`${entry.label}-${index}`} className="contents">
+          <dt className="text-paper-700">{entry.label}</dt>
+          <dd className="wrap-anywhere text-paper-900">
+            {entry.entries ? <DetailList entries={entry.entries} /> : entry.value}
+          </dd>
+        </div>
+      ))}
+    </dl>
+  );
+}
+
+/** Details as labelled values: a one-line summary, the full list one click away. */
 function Details({ details }: { details: unknown }) {
-  const summary = summariseDetails(details);
+  const summary = summariseDetails(details, formatUnitDateTime);
   if (!summary) return <span className="text-paper-600">—</span>;
   return (
     <details className="max-w-md min-w-48">
       <summary className="cursor-pointer text-sm wrap-anywhere text-paper-900">{summary}</summary>
-      <pre className="mt-1 overflow-x-auto rounded-md bg-paper-100 p-2 text-xs whitespace-pre-wrap wrap-anywhere text-paper-900">
-        {JSON.stringify(details, null, 2)}
-      </pre>
+      <div className="mt-1 rounded-md bg-paper-100 p-2">
+        <DetailList entries={detailEntries(details, formatUnitDateTime)} />
+      </div>
     </details>
   );
 }
@@ -98,10 +120,7 @@ export function AuditTrailTable({ events, total, query, onChange, busy }: AuditT
                       .join(' · ')}
                   </span>
                 </td>
-                <td className="px-3 py-2.5">
-                  {actionLabel(event.action)}
-                  <code className="block text-xs text-paper-600">{event.action}</code>
-                </td>
+                <td className="px-3 py-2.5">{actionLabel(event.action)}</td>
                 <td className="px-3 py-2.5">
                   <RecordCell event={event} />
                 </td>

@@ -64,16 +64,121 @@ export function recordTypeLabel(type: string | null): string {
   return type === null ? '—' : (recordTypes[type] ?? type);
 }
 
-/** Details in one line, "key: value; key: value", so a row stays readable; the full JSON is one click away. */
-export function summariseDetails(details: unknown, limit = 140): string {
+/** Words for detail keys that a plain split of the name would read badly. */
+const detailWords: Record<string, string> = {
+  bsaM2: 'BSA (m²)',
+  bsaFormula: 'BSA formula',
+  lesionGldUm: 'Lesion GLD (µm)',
+  sha256: 'Fingerprint (SHA-256)',
+  previousSha256: 'Earlier fingerprint (SHA-256)',
+  ipAddress: 'IP address',
+  recordNumber: 'Record number',
+  idempotencyKey: 'Tap key',
+  withdrawnKey: 'Withdrawn tap key',
+  otherSessionsEnded: 'Other sign-ins ended',
+  sessionsEnded: 'Sign-ins ended',
+  email: 'E-mail',
+  export: 'Export file',
+  approvedAs: 'Approved as',
+  by: 'By',
+};
+
+/** Unit endings of field names (shared/STYLE.md: units in numeric names) and how they are written. */
+const unitEndings: [RegExp, string][] = [
+  [/MwPerCm2$/, 'mW/cm²'],
+  [/JPerCm2$/, 'J/cm²'],
+  [/MgPerM2$/, 'mg/m²'],
+  [/MlPerMin$/, 'mL/min'],
+  [/MgPerMl$/, 'mg/mL'],
+  [/Cm2$/, 'cm²'],
+  [/M2$/, 'm²'],
+  [/Mg$/, 'mg'],
+  [/Ml$/, 'mL'],
+  [/Mw$/, 'mW'],
+  [/Um$/, 'µm'],
+  [/Kg$/, 'kg'],
+  [/Cm$/, 'cm'],
+  [/Pct$/, '%'],
+  [/Min$/, 'min'],
+  [/Bytes$/, 'bytes'],
+  [/([a-z])S$/, 's'],
+  [/([a-z])H$/, 'h'],
+  [/([a-z])J$/, 'J'],
+];
+
+/** A detail's key as a label: "drugVolumeMl" → "Drug volume (mL)", "patientId" → "Patient id". */
+export function detailLabel(key: string): string {
+  const known = detailWords[key];
+  if (known) return known;
+  let name = key;
+  let unit = '';
+  for (const [ending, written] of unitEndings) {
+    if (ending.test(name) && name.replace(ending, '$1').length > 0) {
+      name = name.replace(ending, '$1');
+      unit = written;
+      break;
+    }
+  }
+  const words = name
+    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
+    .replace(/[_-]+/g, ' ')
+    .toLowerCase()
+    .replace(/\bid\b/g, 'id')
+    .replace(/\bbsa\b/g, 'BSA')
+    .replace(/\bgld\b/g, 'GLD')
+    .replace(/\buv\b/g, 'UV');
+  const label = words.charAt(0).toUpperCase() + words.slice(1);
+  return unit ? `${label} (${unit})` : label;
+}
+
+/** A detail value in words: yes/no, lists joined, a time on the unit's clock, nothing as "—". */
+export function detailValue(value: unknown, formatTime: (iso: string) => string): string {
+  if (value === null || value === undefined || value === '') return '—';
+  if (typeof value === 'boolean') return value ? 'Yes' : 'No';
+  if (typeof value === 'number') return String(Number(value.toPrecision(12)));
+  if (typeof value === 'string')
+    return /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/.test(value) ? formatTime(value) : value;
+  if (Array.isArray(value))
+    return value.length === 0
+      ? 'none'
+      : value.map((item) => detailValue(item, formatTime)).join(', ');
+  return Object.entries(value as Record<string, unknown>)
+    .map(([key, inner]) => `${detailLabel(key)}: ${detailValue(inner, formatTime)}`)
+    .join('; ');
+}
+
+/** A detail list: labelled values, nested objects as their own lists. */
+export type DetailEntry = { label: string; value: string; entries?: DetailEntry[] };
+
+export function detailEntries(
+  details: unknown,
+  formatTime: (iso: string) => string,
+): DetailEntry[] {
+  if (details === null || details === undefined) return [];
+  if (typeof details !== 'object' || Array.isArray(details))
+    return [{ label: 'Detail', value: detailValue(details, formatTime) }];
+  return Object.entries(details as Record<string, unknown>).map(([key, value]) =>
+    value !== null && typeof value === 'object' && !Array.isArray(value)
+      ? {
+          label: detailLabel(key),
+          value: '',
+          entries: detailEntries(value, formatTime),
+        }
+      : { label: detailLabel(key), value: detailValue(value, formatTime) },
+  );
+}
+
+/** Details in one line, "Label: value; Label: value", so a row stays readable; the full list is one click away. */
+export function summariseDetails(
+  details: unknown,
+  formatTime: (iso: string) => string = (iso) => iso,
+  limit = 140,
+): string {
   if (details === null || details === undefined) return '';
   if (typeof details !== 'object') return String(details);
   const parts = Object.entries(details as Record<string, unknown>)
     .filter(([key]) => key !== 'idempotencyKey')
-    .map(
-      ([key, value]) =>
-        `${key}: ${typeof value === 'object' && value !== null ? JSON.stringify(value) : String(value)}`,
-    );
+    .map(([key, value]) => `${detailLabel(key)}: ${detailValue(value, formatTime)}`);
   const text = parts.join('; ');
   return text.length > limit ? `${text.slice(0, limit - 1)}…` : text;
 }

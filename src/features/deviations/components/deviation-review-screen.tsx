@@ -22,7 +22,8 @@ import { classificationWords, eyeWords, participantPart, typeWords } from './dev
 import { PlanAndGiven, SessionTimes } from '../../../components/plan-and-given';
 import { CloseDeviationForm, ReopenDeviationForm } from './review-forms';
 import { SessionTimeline } from './session-timeline';
-import { formatFigure, formatUnitDateTime } from '../../../lib/unit-times';
+import { formatUnitDateTime } from '../../../lib/unit-times';
+import { formatFigureDifference, formatFigurePair } from '../../../../shared/format/precision';
 
 function Section({
   id,
@@ -114,9 +115,10 @@ export function DeviationReviewScreen({
   const myParts = participants
     .filter((p) => p.userId === userId)
     .map((p) => participantPart(p.part).toLowerCase());
+  const figures = formatFigurePair(deviation.expected, deviation.actual, deviation.unit);
   const difference =
     deviation.expected !== null && deviation.actual !== null
-      ? deviation.actual - deviation.expected
+      ? formatFigureDifference(deviation.expected, deviation.actual, deviation.unit)
       : null;
   const o = order.data;
   // One line per person, with every part they had (a pharmacist checks and prepares).
@@ -174,23 +176,16 @@ export function DeviationReviewScreen({
             <p className="mb-4 max-w-prose text-paper-900">{deviation.message}</p>
             <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1.5">
               <dt className="text-paper-700">Expected</dt>
-              <dd className="numerals-steady font-medium">
-                {formatFigure(deviation.expected, deviation.unit)}
-              </dd>
+              <dd className="numerals-steady font-medium">{figures.expected}</dd>
               <dt className="text-paper-700">Actual</dt>
-              <dd className="numerals-steady font-semibold">
-                {formatFigure(deviation.actual, deviation.unit)}
-              </dd>
+              <dd className="numerals-steady font-semibold">{figures.actual}</dd>
               {difference !== null && (
                 <>
                   <dt className="text-paper-700">Difference</dt>
-                  <dd className="numerals-steady">
-                    {difference > 0 ? '+' : difference < 0 ? '−' : ''}
-                    {formatFigure(Math.abs(difference), deviation.unit)}
-                  </dd>
+                  <dd className="numerals-steady">{difference}</dd>
                 </>
               )}
-              <dt className="text-paper-700">Detected</dt>
+              <dt className="text-paper-700">When it happened</dt>
               <dd>{formatUnitDateTime(deviation.detectedAt)}</dd>
             </dl>
           </Section>
@@ -288,8 +283,8 @@ export function DeviationReviewScreen({
                     )}
                   </span>
                   <span className="numerals-steady text-sm text-paper-700">
-                    Expected {formatFigure(d.expected, d.unit)}, actual{' '}
-                    {formatFigure(d.actual, d.unit)}
+                    Expected {formatFigurePair(d.expected, d.actual, d.unit).expected}, actual{' '}
+                    {formatFigurePair(d.expected, d.actual, d.unit).actual}
                   </span>
                 </li>
               ))}

@@ -8,7 +8,8 @@ import type { DeviationRow } from '../api/deviation-schemas';
 import type { DeviationListParams } from '../hooks/use-deviation-list-params';
 import { ClassificationLabel, ReviewStatusBadge, SeverityBadge } from './deviation-badges';
 import { eyeWords, typeWords } from './deviation-words';
-import { formatFigure, formatUnitDateTime } from '../../../lib/unit-times';
+import { formatUnitDateTime } from '../../../lib/unit-times';
+import { formatFigurePair } from '../../../../shared/format/precision';
 
 const helper = createColumnHelper<PagedTableFeatures, DeviationRow>();
 const sortKeys: readonly AuditFilter['sort'][] = ['detectedAt', 'severity', 'type', 'status'];
@@ -53,11 +54,17 @@ function columnsFor(queueSearch: string) {
         ) : (
           <span className="whitespace-nowrap">
             <span className="sr-only">expected </span>
-            {formatFigure(row.original.expected, row.original.unit)}{' '}
+            {
+              formatFigurePair(row.original.expected, row.original.actual, row.original.unit)
+                .expected
+            }{' '}
             <span aria-hidden="true">→</span>
             <span className="sr-only">, actual</span>{' '}
             <strong className="font-semibold">
-              {formatFigure(row.original.actual, row.original.unit)}
+              {
+                formatFigurePair(row.original.expected, row.original.actual, row.original.unit)
+                  .actual
+              }
             </strong>
           </span>
         ),

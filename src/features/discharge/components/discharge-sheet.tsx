@@ -1,5 +1,6 @@
 import { DateTime } from 'luxon';
 import { zoneAbbreviation } from '../../../../shared/format/figures';
+import { zonePlainName } from '../../../../shared/format/precision';
 import type { Discharge } from '../api/discharge-schemas';
 import { CxlAftercare } from './cxl-aftercare';
 import { LightPrecaution, PdtEyeAdvice } from './light-precaution';
@@ -145,6 +146,11 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
               Order {order.id}
               {order.revision > 1 ? ` (revision ${order.revision})` : ''} · {protocol.title},
               version {protocol.version} · printed {printedAt}
+            </p>
+            <p>
+              Every time on this sheet is {zonePlainName(zone)}, the clock at {unitName}; the short
+              zone name beside each time (such as {zoneAbbreviation(now)}) tells winter time from
+              summer time.
             </p>
           </footer>
         </div>

@@ -20,6 +20,7 @@ import {
 import type { ProtocolDrugParameters } from '../api/get-protocol-drug';
 import { useRecordPreparation } from '../hooks/use-record-preparation';
 import { quantity } from './display-format';
+import { parseUnitDate, unitDatePattern } from '../../../lib/unit-times';
 
 const localMinuteFormat = "yyyy-LL-dd'T'HH:mm";
 
@@ -202,11 +203,15 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
         />
         <TextField
           label="Vial expiry"
-          type="date"
-          hint="Today or later."
-          min={serverNow().toISODate()!}
+          placeholder={unitDatePattern()}
+          inputMode="numeric"
+          autoComplete="off"
+          hint={`${unitDatePattern()}, today or later.`}
           error={readableMessage(errors.vialExpiry?.message, labels)}
-          {...register('vialExpiry')}
+          {...register('vialExpiry', {
+            // Typed in the unit's order; sent as YYYY-MM-DD (unreadable text goes on for the schema to refuse).
+            setValueAs: (text: string) => parseUnitDate(text) ?? text,
+          })}
         />
         <div className="flex flex-col gap-2">
           <TextField

@@ -43,9 +43,20 @@ export type DoseRecordPage = z.infer<typeof doseRecordPageSchema>;
 
 export const orderResponseSchema = z.object({ order: orderDetailSchema });
 
+/** A tap as the printed record reads it: only pauses and resumes are drawn from the list. */
+const sessionEventSchema = z.object({
+  idempotencyKey: z.string(),
+  type: z.string(),
+  stepId: z.string().nullable().optional(),
+  clientTime: z.string(),
+});
+
 export const sessionStateSchema = z.object({
   status: z.string(),
   record: givenRecordSchema.nullable(),
+  events: z.array(sessionEventSchema).optional().default([]),
+  /** Who ran the session at the bedside. */
+  nurses: z.array(z.string()).optional().default([]),
   deviations: z.array(
     z.object({
       id: z.number().int(),

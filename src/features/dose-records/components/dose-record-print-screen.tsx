@@ -10,6 +10,10 @@ import { describeError, isApiRequestError } from '../../../lib/api-client';
 import type { GivenRecord } from '../api/dose-record-schemas';
 import { doseRecordQueries } from '../api/dose-record-queries';
 import { eyeWords, severityWords, typeWords } from './dose-record-words';
+import { formatDuration } from '../../../../shared/format/figures';
+import { formatFigurePair, formatReading } from '../../../../shared/format/precision';
+import type { SessionState } from '../api/dose-record-schemas';
+import type { DosePlan } from '../../../../shared/schemas/calculation';
 import { PlanAndGiven } from '../../../components/plan-and-given';
 import { bmiText } from '../../../../shared/engine/body-mass-index';
 import { formatMeasureWithConversion } from '../../../../shared/engine/units';
@@ -20,6 +24,7 @@ import {
   formatFigure,
   formatOffset,
   formatUnitClock,
+  formatUnitCalendarDate,
   formatUnitDate,
   formatUnitDateTime,
 } from '../../../lib/unit-times';
@@ -55,8 +60,55 @@ function moments(record: GivenRecord): { label: string; at: string }[] {
     .map(([label, at]) => ({ label, at }));
 }
 
+/** The light's pauses, from the taps that still count: each pause with its resume, if any. */
+function pausesOf(
+  session: SessionState,
+): { stepId: string | null; from: string; to: string | null }[] {
+  const withdrawn = new Set(session.record?.withdrawnTaps.map((tap) => tap.idempotencyKey) ?? []);
+  const pauses: { stepId: string | null; from: string; to: string | null }[] = [];
+  const taps = session.events
+    .filter((event) => !withdrawn.has(event.idempotencyKey))
+    .sort((a, b) => Date.parse(a.clientTime) - Date.parse(b.clientTime));
+  for (const event of taps) {
+    if (event.type === 'paused')
+      pauses.push({ stepId: event.stepId ?? null, from: event.clientTime, to: null });
+    if (event.type === 'resumed') {
+      const open = pauses.find((p) => p.to === null && p.stepId === (event.stepId ?? null));
+      if (open) open.to = event.clientTime;
+    }
+  }
+  return pauses;
+}
+
+/** What was set on the laser or the UV device, from the plan. */
+function deviceSettings(plan: DosePlan | null, kind: 'pdt' | 'cxl'): [string, string][] {
+  if (!plan) return [];
+  const time = (s: number | null) => formatDuration(s, 'seconds-and-words', { maxDecimals: 0 });
+  return kind === 'pdt'
+    ? [
+        ['Spot set on the laser', formatReading('spotUm', plan.deviceSpotDiameterUm)],
+        ['Power', formatReading('powerMw', plan.powerMw)],
+        ['Irradiance', formatReading('irradianceMwPerCm2', plan.irradianceMwPerCm2)],
+        ['Exposure', time(plan.exposureS)],
+        ['Fluence', formatReading('fluenceJPerCm2', plan.fluenceJPerCm2)],
+      ]
+    : [
+        ['Irradiance', formatReading('irradianceMwPerCm2', plan.irradianceMwPerCm2)],
+        ['UV on-time', time(plan.uvTimeS)],
+        ['UV elapsed time', time(plan.uvElapsedS)],
+        ['Fluence', formatReading('fluenceJPerCm2', plan.fluenceJPerCm2)],
+      ];
+}
+
 /** One order's dose record laid out for A4: plan against what was given, the times, the deviations. */
-export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
+export function DoseRecordPrintScreen({
+  orderId,
+  canListRecords,
+}: {
+  orderId: number;
+  /** Reviewers also get the way back to the list of every dose record. */
+  canListRecords: boolean;
+}) {
   const order = useQuery(doseRecordQueries.order(orderId));
   const session = useQuery(doseRecordQueries.session(orderId));
   const protocol = order.data?.protocol;
@@ -66,9 +118,16 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
   });
 
   const back = (
-    <LinkButton to={paths.doseRecords.getHref()} icon={<ArrowLeftIcon />}>
-      All dose records
-    </LinkButton>
+    <>
+      <LinkButton to={paths.order.getHref(orderId)} icon={<ArrowLeftIcon />}>
+        Order {orderId}
+      </LinkButton>
+      {canListRecords && (
+        <LinkButton variant="secondary" to={paths.doseRecords.getHref()}>
+          All dose records
+        </LinkButton>
+      )}
+    </>
   );
 
   if (order.isPending || session.isPending)
@@ -106,8 +165,16 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
   }
 
   const o = order.data;
-  const { record, deviations } = session.data;
-  const startMs = record?.sessionStartedAt ? Date.parse(record.sessionStartedAt) : null;
+  const { record, deviations, nurses } = session.data;
+  // Light times read from the infusion start, as the protocol states them (TAP Study Group
+  // 1999: light 15 min after the START of the infusion); without an infusion, from the session start.
+  const fromInfusion = record?.infusionStartAt ?? null;
+  const startAt = fromInfusion ?? record?.sessionStartedAt ?? null;
+  const startMs = startAt ? Date.parse(startAt) : null;
+  const pauses = pausesOf(session.data);
+  const settings = deviceSettings(order.data.plan, order.data.kind);
+  const stepTitle = (stepId: string | null) =>
+    stepId ? (steps.data?.definition.steps.find((s) => s.id === stepId)?.title ?? stepId) : null;
   const printedAt = DateTime.now()
     .setZone(unitTimeZone)
     .setLocale('en-GB')
@@ -141,6 +208,7 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
           >
             {o.patient.familyName}, {o.patient.givenName} · {o.patient.recordNumber}
           </h1>
+          <p className="text-paper-800">Born {formatUnitCalendarDate(o.patient.dateOfBirth)}</p>
           <p className="text-paper-800">
             Order {o.id}
             {o.revision > 1 ? ` (revision ${o.revision})` : ''} · {eyeWords[o.eye]} ·{' '}
@@ -175,6 +243,8 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
                 </dd>
               </>
             )}
+            <dt className="text-paper-700">Session run by</dt>
+            <dd>{nurses.length > 0 ? nurses.join(', ') : '—'}</dd>
             <dt className="text-paper-700">Signed</dt>
             <dd>
               {o.signedBy?.displayName ?? '—'}
@@ -214,6 +284,23 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
           />
         </Part>
 
+        {settings.length > 0 && (
+          <Part id="record-device" title="Device settings">
+            <p className="mb-2 text-sm text-paper-700">
+              As planned and set on the {o.kind === 'pdt' ? 'laser' : 'UV device'}; the checks
+              before the light confirmed them.
+            </p>
+            <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1">
+              {settings.map(([label, value]) => (
+                <div key={label} className="contents">
+                  <dt className="text-paper-700">{label}</dt>
+                  <dd className="numerals-steady">{value}</dd>
+                </div>
+              ))}
+            </dl>
+          </Part>
+        )}
+
         <Part id="record-times" title="Times">
           {record === null ? (
             <p>No session was recorded for this order.</p>
@@ -231,7 +318,7 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
                     Clock ({unitTimeZoneLabel})
                   </th>
                   <th scope="col" className="py-1 font-semibold">
-                    From session start
+                    {fromInfusion ? 'From infusion start' : 'From session start'}
                   </th>
                 </tr>
               </thead>
@@ -251,6 +338,23 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
             </table>
           )}
           {record?.stopReason && <p className="mt-2">Stopped because: {record.stopReason}</p>}
+        </Part>
+
+        <Part id="record-pauses" title="Pauses">
+          {pauses.length === 0 ? (
+            <p>No pause was tapped.</p>
+          ) : (
+            <ul className="flex flex-col gap-1">
+              {pauses.map((pause) => (
+                <li key={pause.from} className="numerals-steady">
+                  {stepTitle(pause.stepId) ?? 'Paused'}: paused {formatUnitClock(pause.from)},{' '}
+                  {pause.to
+                    ? `resumed ${formatUnitClock(pause.to)} (${formatDuration((Date.parse(pause.to) - Date.parse(pause.from)) / 1000, 'words')})`
+                    : 'not resumed'}
+                </li>
+              ))}
+            </ul>
+          )}
         </Part>
 
         {record && record.withdrawnTaps.length > 0 && (
@@ -329,14 +433,30 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
                     {severityWords[d.severity]}: {typeWords(d.type)}
                   </span>{' '}
                   <span className="numerals-steady">
-                    (expected {formatFigure(d.expected, d.unit)}, actual{' '}
-                    {formatFigure(d.actual, d.unit)})
+                    (expected {formatFigurePair(d.expected, d.actual, d.unit).expected}, actual{' '}
+                    {formatFigurePair(d.expected, d.actual, d.unit).actual})
                   </span>
                   <span className="block text-paper-800">{d.message}</span>
                 </li>
               ))}
             </ul>
           )}
+        </Part>
+
+        <Part id="record-verification" title="Verification">
+          <p className="mb-4 text-sm text-paper-700">
+            Checked against the session and filed by the person who signs below.
+          </p>
+          <dl className="grid grid-cols-[max-content_1fr] items-end gap-x-4 gap-y-6">
+            {['Name', 'Signature', 'Date'].map((label) => (
+              <div key={label} className="contents">
+                <dt className="text-paper-700">{label}</dt>
+                <dd className="h-7 border-b border-paper-950">
+                  <span className="sr-only">left blank for a handwritten entry</span>
+                </dd>
+              </div>
+            ))}
+          </dl>
         </Part>
 
         <footer className="border-t border-paper-300 pt-3 text-sm text-paper-700">

@@ -12,18 +12,22 @@ import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
+import { parseTypedNumber } from '../../../lib/typed-number';
 import { useLightCalculation } from '../hooks/use-light-calculation';
 import { lightFieldOrder, messageInWords, quantityText, type LightField } from './light-fields';
 
 /**
- * The form holds text; an empty field means "work this out". Text is turned into a number (or
- * left undefined) and then checked by the same schema the server uses, so the rule and its
- * wording live in one place.
+ * The form holds text; an empty field means "work this out". Text is read as the order form
+ * reads it (a decimal comma is accepted: src/lib/typed-number), then checked by the same schema
+ * the server uses, so the rule and its wording live in one place. Unreadable text becomes NaN,
+ * which that schema refuses naming the field.
  */
 const numberText = z
   .string()
-  .trim()
-  .transform((text) => (text === '' ? undefined : Number(text)))
+  .transform((text) => {
+    const parsed = parseTypedNumber(text);
+    return parsed === 'invalid' ? Number.NaN : parsed;
+  })
   .optional();
 
 const lightFormSchema = z
@@ -105,9 +109,10 @@ export function LightCalculatorForm({ onSolved, onCleared }: LightCalculatorForm
         Your figures
       </h2>
       <p className="mt-1 mb-5 max-w-prose text-paper-700">
-        Fill in any three that do not depend on each other — for example spot diameter, irradiance
-        and exposure time — and leave the rest empty. A fourth or fifth figure is checked against
-        the others. Use a point for decimals (42.4).
+        Fill in what you know and leave the rest empty. Two figures answer what they fix together —
+        spot diameter and irradiance give the power; fluence and irradiance give the time — and
+        three that do not depend on each other give all six. A further figure is checked against the
+        others. A decimal comma or point both work (42,4 or 42.4).
       </p>
       {error && (
         <Alert

@@ -19,7 +19,8 @@ const headline = new Intl.NumberFormat('en-GB', {
 const full = new Intl.NumberFormat('en-GB', { maximumSignificantDigits: 10, useGrouping: false });
 
 /** Worked-out values to four significant figures; given values exactly as typed. */
-function shown(value: number, given: boolean): string {
+function shown(value: number | null, given: boolean): string {
+  if (value === null) return '—';
   return given ? full.format(value) : headline.format(value);
 }
 
@@ -78,7 +79,9 @@ export function LightSolutionView({ solution }: { solution: LightSolution }) {
                   </td>
                   <td className="px-3 py-2.5 text-paper-800">{unit}</td>
                   <td className="px-3 py-2.5">
-                    {isGiven ? (
+                    {solution[quantity] === null ? (
+                      <span className="text-paper-700">Not fixed by your figures</span>
+                    ) : isGiven ? (
                       <span className="inline-flex items-center gap-1.5 text-paper-800">
                         <PencilIcon className="size-4" />
                         Given by you

@@ -2,21 +2,31 @@ import type { ReactNode } from 'react';
 import { formatUnitClock, formatUnitDateTime } from '../../../lib/unit-times';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
-import { Button } from '../../../components/ui/button';
+import { LinkButton } from '../../../components/ui/button';
+import { paths } from '../../../config/paths';
+import { formatDuration } from '../../../../shared/format/figures';
+import {
+  formatFigurePair,
+  formatReading,
+  type ReadingKind,
+} from '../../../../shared/format/precision';
 import { delayText, doseGivenText, volumeGivenText } from '../../../lib/dose-given-words';
 import { eventWordsOf } from '../../../lib/session-event-words';
 import { PrinterIcon } from '../../../components/ui/icons';
 import { unitTimeZone, unitTimeZoneLabel } from '../../../config/unit-time-zone';
 import type { GivenRecord, OrderSession } from '../api/order-response-schemas';
 import { DeviationSeverityLabel } from './deviation-severity-label';
-import { formatFigure, formatSeconds } from './plan-numbers';
+import { formatFigure } from './plan-numbers';
 import { deviationSeverityOrder, sessionOutcomeWords } from './session-words';
 
 type Row = { label: string; planned: ReactNode; given: ReactNode };
 
 const none = <span className="text-paper-700">—</span>;
-const num = (value: number | null | undefined, unit: string) =>
-  value == null ? none : `${formatFigure(value)} ${unit}`;
+// Figures at the precision they are read at (shared/format/precision), the same as on paper.
+const num = (value: number | null | undefined, kind: ReadingKind, graduationMl?: number) =>
+  value == null ? none : formatReading(kind, value, { graduationMl });
+const formatSeconds = (seconds: number) =>
+  formatDuration(seconds, 'seconds-and-words', { maxDecimals: 0 });
 const secs = (value: number | null | undefined) => (value == null ? none : formatSeconds(value));
 const span = (from: string | null, to: string | null) =>
   from ? `${formatUnitClock(from)} to ${to ? formatUnitClock(to) : '(running)'}` : none;
@@ -24,7 +34,11 @@ const everyMin = (min: number | undefined) =>
   min === undefined ? none : `a drop every ${formatFigure(min)} min`;
 const gap = (gapS: number | null) => (gapS == null ? none : `longest gap ${formatSeconds(gapS)}`);
 
-function pdtRows(plan: NonNullable<OrderDetail['plan']>, record: GivenRecord): Row[] {
+function pdtRows(
+  plan: NonNullable<OrderDetail['plan']>,
+  record: GivenRecord,
+  graduationMl: number | undefined,
+): Row[] {
   const rows: Row[] = [
     { label: 'Infusion', planned: none, given: span(record.infusionStartAt, record.infusionEndAt) },
     {
@@ -37,12 +51,12 @@ function pdtRows(plan: NonNullable<OrderDetail['plan']>, record: GivenRecord): R
       planned:
         plan.drugVolumeMl == null
           ? none
-          : `${formatFigure(plan.drugVolumeMl)} mL drug + ${formatFigure(plan.diluentVolumeMl ?? 0)} mL diluent`,
+          : `${formatReading('volumeMl', plan.drugVolumeMl, { graduationMl })} drug + ${formatReading('volumeMl', plan.diluentVolumeMl ?? 0)} diluent`,
       given: volumeGivenText(record) ?? none,
     },
     {
       label: 'Verteporfin dose',
-      planned: num(plan.doseMg, 'mg'),
+      planned: num(plan.doseMg, 'doseMg'),
       given: doseGivenText(record) ?? none,
     },
   ];
@@ -70,13 +84,13 @@ function pdtRows(plan: NonNullable<OrderDetail['plan']>, record: GivenRecord): R
       given:
         record.deviceExposureS == null
           ? none
-          : `${formatSeconds(record.deviceExposureS)}${record.deviceEnergyJ == null ? '' : `, ${formatFigure(record.deviceEnergyJ)} J`}`,
+          : `${formatSeconds(record.deviceExposureS)}${record.deviceEnergyJ == null ? '' : `, ${formatReading('energyJ', record.deviceEnergyJ)}`}`,
     },
     { label: 'Light on-time (taps)', planned: secs(plan.exposureS), given: secs(record.lightOnS) },
     {
       label: 'Fluence',
-      planned: num(plan.fluenceJPerCm2, 'J/cm²'),
-      given: num(record.deliveredFluenceJPerCm2, 'J/cm²'),
+      planned: num(plan.fluenceJPerCm2, 'fluenceJPerCm2'),
+      given: num(record.deliveredFluenceJPerCm2, 'fluenceJPerCm2'),
     },
   );
   return rows;
@@ -106,8 +120,8 @@ function cxlRows(
     },
     {
       label: 'Stromal thickness before UV',
-      planned: cxl ? `at least ${formatFigure(cxl.minStromalThicknessUm)} µm` : none,
-      given: num(record.thicknessBeforeUvUm, 'µm'),
+      planned: cxl ? `at least ${formatReading('thicknessUm', cxl.minStromalThicknessUm)}` : none,
+      given: num(record.thicknessBeforeUvUm, 'thicknessUm'),
     },
   ];
   if (record.thicknessOverrideReason)
@@ -127,8 +141,8 @@ function cxlRows(
     },
     {
       label: 'Fluence',
-      planned: num(plan.fluenceJPerCm2, 'J/cm²'),
-      given: num(record.deliveredFluenceJPerCm2, 'J/cm²'),
+      planned: num(plan.fluenceJPerCm2, 'fluenceJPerCm2'),
+      given: num(record.deliveredFluenceJPerCm2, 'fluenceJPerCm2'),
     },
   );
   return rows;
@@ -138,17 +152,16 @@ type DoseRecordSectionProps = {
   order: OrderDetail;
   definition: ProtocolVersion | null;
   session: OrderSession;
-  onPrint: () => void;
 };
 
 /** The chart's record of one session: the frozen plan against what the step clock recorded, and the deviations. */
-export function DoseRecordSection({ order, definition, session, onPrint }: DoseRecordSectionProps) {
+export function DoseRecordSection({ order, definition, session }: DoseRecordSectionProps) {
   const { record, deviations } = session;
   if (!record || record.outcome === 'not-started') return null;
   const plan = order.plan;
   const rows = plan
     ? order.kind === 'pdt'
-      ? pdtRows(plan, record)
+      ? pdtRows(plan, record, definition?.drug?.syringeGraduationMl)
       : cxlRows(plan, record, definition?.cxl)
     : [];
   const sorted = [...deviations].sort(
@@ -166,9 +179,14 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
         <h2 id="dose-record-heading" className="text-xl font-semibold text-paper-950">
           Dose record
         </h2>
-        <Button variant="secondary" icon={<PrinterIcon />} onClick={onPrint}>
+        {/* The record's own print layout: the dose record alone, not the whole order page. */}
+        <LinkButton
+          variant="secondary"
+          icon={<PrinterIcon />}
+          to={paths.doseRecordPrint.getHref(order.id)}
+        >
           Print dose record
-        </Button>
+        </LinkButton>
       </div>
       <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-3 print:grid-cols-3">
         <div>
@@ -205,8 +223,11 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
         <div className="overflow-x-auto">
           <table className="w-full border-collapse text-left">
             <caption className="mb-2 text-left text-sm text-paper-700">
-              The plan as frozen at signing, and what was given as the step clock recorded it. Times
-              are {unitTimeZoneLabel} ({unitTimeZone}).
+              The plan as frozen at signing, and what was given as the step clock recorded it
+              {record.outcome === 'in-progress'
+                ? `; running figures up to ${formatUnitClock(session.serverTime)}`
+                : ''}
+              . Times are {unitTimeZoneLabel} ({unitTimeZone}).
             </caption>
             <thead>
               <tr className="border-b-2 border-paper-400 text-sm text-paper-700">
@@ -237,17 +258,17 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
           </table>
           {order.kind === 'pdt' && (
             <p className="mt-2 text-sm text-paper-700">
-              Laser settings from the plan: spot {num(plan.deviceSpotDiameterUm, 'µm')} on the
-              laser, power {num(plan.powerMw, 'mW')}, irradiance{' '}
-              {num(plan.irradianceMwPerCm2, 'mW/cm²')}. The delivered fluence is worked out from the
-              planned irradiance and the recorded light time; the dose given is not measured
-              separately.
+              Laser settings from the plan: spot {num(plan.deviceSpotDiameterUm, 'spotUm')} on the
+              laser, power {num(plan.powerMw, 'powerMw')}, irradiance{' '}
+              {num(plan.irradianceMwPerCm2, 'irradianceMwPerCm2')}. The delivered fluence is worked
+              out from the planned irradiance and the recorded light time; the dose given is not
+              measured separately.
             </p>
           )}
           {order.kind === 'cxl' && (
             <p className="mt-2 text-sm text-paper-700">
-              UV irradiance from the plan: {num(plan.irradianceMwPerCm2, 'mW/cm²')}. The delivered
-              fluence is worked out from it and the recorded UV on-time.
+              UV irradiance from the plan: {num(plan.irradianceMwPerCm2, 'irradianceMwPerCm2')}. The
+              delivered fluence is worked out from it and the recorded UV on-time.
             </p>
           )}
         </div>
@@ -327,14 +348,8 @@ export function DoseRecordSection({ order, definition, session, onPrint }: DoseR
                 <span className="min-w-0 flex-1 text-paper-950">
                   {d.message}
                   <span className="block text-sm text-paper-700">
-                    Expected{' '}
-                    {d.expected == null
-                      ? '—'
-                      : `${formatFigure(d.expected)}${d.unit ? ` ${d.unit}` : ''}`}
-                    , recorded{' '}
-                    {d.actual == null
-                      ? '—'
-                      : `${formatFigure(d.actual)}${d.unit ? ` ${d.unit}` : ''}`}
+                    Expected {formatFigurePair(d.expected, d.actual, d.unit).expected}, recorded{' '}
+                    {formatFigurePair(d.expected, d.actual, d.unit).actual}
                   </span>
                 </span>
               </li>

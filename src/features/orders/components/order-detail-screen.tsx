@@ -1,6 +1,5 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
-import { flushSync } from 'react-dom';
 import { Link, useLocation } from 'react-router-dom';
 import { signatureProblems } from '../../../../shared/orders/readiness';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
@@ -163,11 +162,6 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
         ]
       : [];
 
-  const printDoseRecord = () => {
-    // The page must carry the print-only layout before the print dialog takes its snapshot.
-    flushSync(() => setPrintPart('dose-record'));
-    window.print();
-  };
   /** Parts that stay off paper when only the dose record is printed. */
   const notInDoseRecord = printPart === 'dose-record' ? 'print:hidden' : '';
   const sessionRecord = session.data?.record ?? null;
@@ -371,12 +365,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
         <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem] print:block">
           <div className="min-w-0 space-y-6">
             {session.data && (
-              <DoseRecordSection
-                order={detail}
-                definition={definition}
-                session={session.data}
-                onPrint={printDoseRecord}
-              />
+              <DoseRecordSection order={detail} definition={definition} session={session.data} />
             )}
 
             {isDraft && canWrite && (

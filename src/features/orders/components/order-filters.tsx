@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { orderStatuses, type OrderListQuery } from '../../../../shared/schemas/orders';
 import { Button } from '../../../components/ui/button';
-import { TextField } from '../../../components/ui/text-field';
+import { UnitDateField } from '../../../components/ui/unit-date-field';
 import { orderQueries } from '../api/order-queries';
 import { SelectField } from '../../../components/ui/select-field';
 import { orderStatusWords } from '../../../components/ui/order-status-words';
@@ -55,21 +55,13 @@ export function OrderFilters({ query, filtered, onChange }: OrderFiltersProps) {
           <option value={query.protocol}>{query.protocol}</option>
         )}
       </SelectField>
-      <TextField
+      <UnitDateField
         label="Created from"
-        type="date"
-        value={query.from ?? ''}
-        max={query.to}
-        onChange={(e) => onChange({ from: e.target.value || undefined })}
+        value={query.from}
+        onChange={(from) => onChange({ from })}
         error={rangeError}
       />
-      <TextField
-        label="Created to"
-        type="date"
-        value={query.to ?? ''}
-        min={query.from}
-        onChange={(e) => onChange({ to: e.target.value || undefined })}
-      />
+      <UnitDateField label="Created to" value={query.to} onChange={(to) => onChange({ to })} />
       <Button
         variant="secondary"
         disabled={!filtered}

@@ -11,6 +11,7 @@ import {
   type OrderDraft,
 } from '../../../../shared/schemas/orders';
 import type { Eye } from '../../../../shared/schemas/patients';
+import { parseTypedNumber } from '../../../lib/typed-number';
 
 /**
  * What the order form holds: text as typed (so nothing is lost or reformatted on an error), the
@@ -180,15 +181,8 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
   };
 }
 
-type Parsed = number | undefined | 'invalid';
-
 /** A typed measurement: blank is "not given"; a decimal comma is accepted; anything else is refused. */
-export function parseMeasure(raw: string): Parsed {
-  const trimmed = raw.trim().replace(',', '.');
-  if (trimmed === '') return undefined;
-  if (!/^[+]?(\d+\.?\d*|\.\d+)$/.test(trimmed)) return 'invalid';
-  return Number(trimmed);
-}
+export const parseMeasure = parseTypedNumber;
 
 const numberFields = {
   heightValue: 'Height',

@@ -19,6 +19,7 @@ import {
   unplacedFieldProblems,
 } from '../../../lib/form-errors';
 import { useCreatePatient } from '../hooks/use-create-patient';
+import { parseUnitDate, unitDatePattern } from '../../../lib/unit-times';
 
 type PatientFormValues = {
   recordNumber: string;
@@ -111,7 +112,6 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
     isApiRequestError(error) &&
     (error.code === 'record_number_taken' || (error.status === 400 && error.fields.length > 0));
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
-  const today = new Date().toISOString().slice(0, 10);
 
   return (
     <section
@@ -154,12 +154,16 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
           />
           <TextField
             label="Date of birth"
-            type="date"
-            min="1900-01-01"
-            max={today}
-            hint="Between 1 Jan 1900 and today"
+            placeholder={unitDatePattern()}
+            inputMode="numeric"
+            autoComplete="off"
+            hint={`${unitDatePattern()}, between 01/01/1900 and today`}
             error={readableMessage(errors.dateOfBirth?.message, labels)}
-            {...register('dateOfBirth')}
+            {...register('dateOfBirth', {
+              // Typed in the unit's order; sent as YYYY-MM-DD. Unreadable text goes on as typed,
+              // for the schema to refuse.
+              setValueAs: (text: string) => parseUnitDate(text) ?? text,
+            })}
           />
           <TextField
             label="Given name"

@@ -6,7 +6,7 @@ import {
   StatusStoppedIcon,
 } from '../../../components/ui/icons';
 import type { SessionDeviation } from '../api/session-state-schema';
-import { formatFigure } from './clock-format';
+import { formatFigurePair } from '../../../../shared/format/precision';
 
 const severityLooks: Record<
   DeviationSeverity,
@@ -20,11 +20,6 @@ const severityLooks: Record<
     box: 'border-alarm-800 border-2 bg-alarm-100',
   },
 };
-
-function figure(value: number | null, unit: string | null): string {
-  if (value === null) return '—';
-  return unit ? `${formatFigure(value, 2)} ${unit}` : formatFigure(value, 2);
-}
 
 /** Deviations from the protocol as the server finds them, each with its severity in a word and an icon. */
 export function DeviationList({
@@ -60,8 +55,13 @@ export function DeviationList({
                 <p>{deviation.message}</p>
                 {(deviation.expected !== null || deviation.actual !== null) && (
                   <p className="numerals-steady text-paper-800">
-                    Expected {figure(deviation.expected, deviation.unit)} · actual{' '}
-                    {figure(deviation.actual, deviation.unit)}
+                    Expected{' '}
+                    {
+                      formatFigurePair(deviation.expected, deviation.actual, deviation.unit)
+                        .expected
+                    }{' '}
+                    · actual{' '}
+                    {formatFigurePair(deviation.expected, deviation.actual, deviation.unit).actual}
                   </p>
                 )}
               </li>

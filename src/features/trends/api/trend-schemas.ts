@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { deviationSeverities } from '../../../../shared/session/session-events';
 
 export const trendMonthSchema = z.object({
   month: z.string().regex(/^\d{4}-\d{2}$/),
@@ -11,7 +12,22 @@ export const trendMonthSchema = z.object({
 });
 export type TrendMonth = z.infer<typeof trendMonthSchema>;
 
-export const trendsResponseSchema = z.object({ months: z.array(trendMonthSchema) });
+/** Deviations of finished sessions in one month and protocol version, of one type and severity. */
+export const trendByTypeSchema = z.object({
+  month: z.string().regex(/^\d{4}-\d{2}$/),
+  protocolKey: z.string(),
+  protocolVersion: z.number().int(),
+  type: z.string(),
+  severity: z.enum(deviationSeverities),
+  deviations: z.number().int(),
+});
+export type TrendByType = z.infer<typeof trendByTypeSchema>;
+
+export const trendsResponseSchema = z.object({
+  months: z.array(trendMonthSchema),
+  byType: z.array(trendByTypeSchema).optional().default([]),
+});
+export type TrendsAnswer = z.infer<typeof trendsResponseSchema>;
 
 export const protocolChoicesSchema = z.object({
   protocols: z.array(

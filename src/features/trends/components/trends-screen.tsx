@@ -13,7 +13,7 @@ import { MonthField } from './month-field';
 import { SelectField } from '../../../components/ui/select-field';
 import { TrendCharts, type TrendSeries } from './trend-chart';
 import { monthsBetween } from './trend-words';
-import { TrendTable } from './trend-table';
+import { DeviationTypeTable, TrendTable } from './trend-table';
 
 function seriesOf(rows: TrendMonth[]): TrendSeries[] {
   const byKey = new Map<string, TrendSeries>();
@@ -49,7 +49,8 @@ export function TrendsScreen() {
       ? 'The first month is after the last, so nothing can match.'
       : undefined;
 
-  const rows = trends.data ?? [];
+  const rows = trends.data?.months ?? [];
+  const byType = trends.data?.byType ?? [];
   const present = rows.map((r) => r.month).sort();
   const months = monthsBetween(filter.from ?? present[0] ?? '', filter.to ?? present.at(-1) ?? '');
 
@@ -67,14 +68,12 @@ export function TrendsScreen() {
         <MonthField
           label="First month"
           value={filter.from}
-          max={filter.to}
           error={rangeError ?? fieldErrors.from}
           onChange={(from) => update({ from })}
         />
         <MonthField
           label="Last month"
           value={filter.to}
-          min={filter.from}
           error={fieldErrors.to}
           onChange={(to) => update({ to })}
         />
@@ -168,6 +167,16 @@ export function TrendsScreen() {
               <TrendTable rows={rows} />
             </section>
           </div>
+          <section aria-labelledby="trend-types-heading" className="mt-6 min-w-0">
+            <h2 id="trend-types-heading" className="mb-1 text-xl font-semibold text-paper-950">
+              Deviations by type and severity
+            </h2>
+            <p className="mb-3 text-sm text-paper-700">
+              Every standing deviation of the finished sessions above, counted by what departed and
+              how much it weighs; a session can have several.
+            </p>
+            <DeviationTypeTable rows={byType} months={rows} />
+          </section>
         </>
       )}
     </>
