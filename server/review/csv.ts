@@ -1,4 +1,4 @@
-import { DateTime } from 'luxon';
+import { formatUnitTime } from '../../shared/format/figures';
 
 /**
  * One CSV field (RFC 4180): quoted when it holds a comma, quote or line break, quotes doubled.
@@ -26,7 +26,5 @@ export function isoInZone(value: Date | string | null, zone: string): string | n
       : new Date(
           value.includes('T') || value.endsWith('Z') ? value : `${value.replace(' ', 'T')}Z`,
         );
-  return DateTime.fromJSDate(date)
-    .setZone(zone)
-    .toISO({ suppressMilliseconds: false, includeOffset: true });
+  return Number.isNaN(date.getTime()) ? null : formatUnitTime(date.toISOString(), zone, 'iso');
 }

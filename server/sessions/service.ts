@@ -531,6 +531,7 @@ export function createSessionService(deps: {
       record,
       checklist: order.checklist,
       preparation: order.preparation,
+      unitTimeZone: deps.unitTimeZone,
     });
     const { standing } = await sessions.reconcileDeviations(
       manager,

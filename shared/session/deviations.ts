@@ -1,5 +1,5 @@
 import { formatNumber, roundToStep } from '../engine/rounding';
-import { formatDuration } from '../format/figures';
+import { formatDuration, formatUnitTime } from '../format/figures';
 import type { ProtocolVersion } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
 import type { ChecklistAnswer } from '../schemas/orders';
@@ -17,6 +17,8 @@ export interface DeviationInput {
   record: DoseRecord;
   checklist: readonly ChecklistAnswer[];
   preparation: PreparationTimes | null;
+  /** The unit's IANA zone: times in the messages read on its clock, with its short name (UTC if not given). */
+  unitTimeZone?: string;
 }
 
 /** A figure exactly at its tolerance is within it; the slack only absorbs binary noise. */
@@ -44,8 +46,9 @@ function lightTimeText(seconds: number): string {
     : durationText(seconds);
 }
 
-function timeText(ms: number): string {
-  return `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
+/** A moment in a message, on the unit's clock: "3 Dec 2026, 14:05 WET". */
+function timeTextIn(zone: string) {
+  return (ms: number) => formatUnitTime(new Date(ms).toISOString(), zone, 'record');
 }
 
 const msOf = (at: string | null): number | null => {
@@ -83,7 +86,9 @@ export function findDeviations({
   record,
   checklist,
   preparation,
+  unitTimeZone = 'UTC',
 }: DeviationInput): Deviation[] {
+  const timeText = timeTextIn(unitTimeZone);
   const found = new Map<Deviation['type'], Deviation>();
   const add = (deviation: Deviation) => found.set(deviation.type, deviation);
   const { tolerances } = protocol;

@@ -1,5 +1,4 @@
-import { DateTime } from 'luxon';
-import { zoneAbbreviation } from '../../../../shared/format/figures';
+import { formatUnitTime } from '../../../../shared/format/figures';
 import type { Discharge } from '../api/discharge-schemas';
 import { CxlAftercare } from './cxl-aftercare';
 import { LightPrecaution, PdtEyeAdvice } from './light-precaution';
@@ -19,8 +18,7 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
   const { unitName, unitTimeZone: zone, patient, order, protocol, record } = discharge;
   const fullName = `${patient.givenName} ${patient.familyName}`;
   const treatedOn = record.sessionStartedAt ? dayText(record.sessionStartedAt, zone) : null;
-  const now = DateTime.now().setZone(zone).setLocale('en-GB');
-  const printedAt = `${now.toFormat('d LLL yyyy, HH:mm')} ${zoneAbbreviation(now)}`;
+  const printedAt = formatUnitTime(new Date().toISOString(), zone, 'record');
 
   const runningHead = (
     <p className="flex flex-wrap justify-between gap-x-4 border-b border-paper-950 pb-1 text-[9pt]">

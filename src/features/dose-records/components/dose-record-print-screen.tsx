@@ -1,5 +1,4 @@
 import { useQuery } from '@tanstack/react-query';
-import { DateTime } from 'luxon';
 import type { ReactNode } from 'react';
 import { Button, LinkButton } from '../../../components/ui/button';
 import { AlertIcon, ArrowLeftIcon, PrinterIcon, ReloadIcon } from '../../../components/ui/icons';
@@ -108,10 +107,7 @@ export function DoseRecordPrintScreen({ orderId }: { orderId: number }) {
   const o = order.data;
   const { record, deviations } = session.data;
   const startMs = record?.sessionStartedAt ? Date.parse(record.sessionStartedAt) : null;
-  const printedAt = DateTime.now()
-    .setZone(unitTimeZone)
-    .setLocale('en-GB')
-    .toFormat('d LLL yyyy, HH:mm');
+  const printedAt = formatUnitDateTime(new Date().toISOString());
   const lastCheck = o.doseChecks.at(-1);
 
   return (
