@@ -106,11 +106,20 @@ export function formatDuration(
  * such as "GMT+9".
  */
 export function zoneAbbreviation(at: DateTime): string {
-  const british = at.setLocale('en-GB').toFormat('ZZZZ');
-  if (!/^(GMT|UTC)[+−-]/.test(british)) return british;
-  const american = at.setLocale('en-US').toFormat('ZZZZ');
-  return /^(GMT|UTC)[+−-]/.test(american) ? british : american;
+  // Asking Intl for a zone's name is slow (milliseconds), and lists and records print many
+  // times: the name is kept per zone, year and offset, which fix it.
+  const key = `${at.zoneName}|${at.year}|${at.offset}`;
+  let name = zoneNames.get(key);
+  if (name === undefined) {
+    const british = at.setLocale('en-GB').toFormat('ZZZZ');
+    const american = /^(GMT|UTC)[+−-]/.test(british) ? at.setLocale('en-US').toFormat('ZZZZ') : '';
+    name = american === '' || /^(GMT|UTC)[+−-]/.test(american) ? british : american;
+    if (zoneNames.size > 1000) zoneNames.clear();
+    zoneNames.set(key, name);
+  }
+  return name;
 }
+const zoneNames = new Map<string, string>();
 
 /**
  * How a moment on the unit's clock reads; every style but 'day' and 'date' carries the zone's
