@@ -412,6 +412,7 @@ export async function seedDemoScenario(
         record,
         checklist: noAnswers(pv.definition),
         preparation,
+        unitTimeZone,
       });
       await sessions.reconcileDeviations(manager, order.id, pv.id, found);
       // Deviations belong to the session's day, for the monthly figures; dated before the record

@@ -186,6 +186,7 @@ export async function seedVolume(
         record,
         checklist: [],
         preparation,
+        unitTimeZone: options.unitTimeZone,
       });
       const signedAt = new Date(startMs - 2 * 3_600_000);
       const patientId = firstPatient + Math.floor(rand() * patientCount);

@@ -35,7 +35,9 @@ function ensureNpmPackages() {
   const stamp = path.join(root, 'node_modules', '.luxtempo-lock-sha256');
   if (existsSync(stamp) && readFileSync(stamp, 'utf8').trim() === wanted) return;
   console.log('• Installing npm packages (npm ci) …');
-  run('npm', ['ci', '--no-audit', '--no-fund']);
+  // The mail catcher, the client build and the test tools are development dependencies that
+  // `npm start` needs too: install them even where NODE_ENV=production would leave them out.
+  run('npm', ['ci', '--include=dev', '--no-audit', '--no-fund']);
   writeFileSync(stamp, wanted);
 }
 

@@ -1,4 +1,4 @@
-import { DateTime } from 'luxon';
+import { formatUnitTime } from '../../shared/format/figures';
 import { exportNumber, roundForReading, type ReadingKind } from '../../shared/format/precision';
 
 /**
@@ -34,7 +34,5 @@ export function isoInZone(value: Date | string | null, zone: string): string | n
       : new Date(
           value.includes('T') || value.endsWith('Z') ? value : `${value.replace(' ', 'T')}Z`,
         );
-  return DateTime.fromJSDate(date)
-    .setZone(zone)
-    .toISO({ suppressMilliseconds: false, includeOffset: true });
+  return Number.isNaN(date.getTime()) ? null : formatUnitTime(date.toISOString(), zone, 'iso');
 }

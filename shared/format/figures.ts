@@ -106,24 +106,42 @@ export function formatDuration(
  * such as "GMT+9".
  */
 export function zoneAbbreviation(at: DateTime): string {
-  const british = at.setLocale('en-GB').toFormat('ZZZZ');
-  if (!/^(GMT|UTC)[+−-]/.test(british)) return british;
-  const american = at.setLocale('en-US').toFormat('ZZZZ');
-  return /^(GMT|UTC)[+−-]/.test(american) ? british : american;
+  // Asking Intl for a zone's name is slow (milliseconds), and lists and records print many
+  // times: the name is kept per zone, year and offset, which fix it.
+  const key = `${at.zoneName}|${at.year}|${at.offset}`;
+  let name = zoneNames.get(key);
+  if (name === undefined) {
+    const british = at.setLocale('en-GB').toFormat('ZZZZ');
+    const american = /^(GMT|UTC)[+−-]/.test(british) ? at.setLocale('en-US').toFormat('ZZZZ') : '';
+    name = american === '' || /^(GMT|UTC)[+−-]/.test(american) ? british : american;
+    if (zoneNames.size > 1000) zoneNames.clear();
+    zoneNames.set(key, name);
+  }
+  return name;
 }
+const zoneNames = new Map<string, string>();
 
 /**
- * How a moment on the unit's clock reads; every style but 'day' carries the zone's short name,
- * because a patient may read the sheet after the clocks have changed:
- * - 'sheet': "Thursday 3 December 2026, 14:05 WET" (discharge sheet, e-mails);
+ * How a moment on the unit's clock reads; every style but 'day' and 'date' carries the zone's
+ * short name, because a patient may read the sheet, and a colleague the record, after the clocks
+ * have changed:
+ * - 'sheet': "Thursday 3 December 2026, 14:05 WET" (discharge sheet, e-mails, refusals);
+ * - 'record': "3 Dec 2026, 14:05 WET" (screens, lists and the printed dose record);
  * - 'short': "14:05 WET";
- * - 'day': "Thursday 3 December 2026".
+ * - 'clock': "14:05:09 WET", to the second (taps and events in a record);
+ * - 'day': "Thursday 3 December 2026";
+ * - 'date': "3 Dec 2026";
+ * - 'iso': "2026-12-03T14:05:09.000+00:00", ISO 8601 with the zone's offset (CSV exports).
  */
-export type UnitTimeStyle = 'sheet' | 'short' | 'day';
+export type UnitTimeStyle = 'sheet' | 'record' | 'short' | 'clock' | 'day' | 'date' | 'iso';
 
-const unitTimeFormats: Record<Exclude<UnitTimeStyle, 'day'>, string> = {
+const unitTimeFormats: Record<Exclude<UnitTimeStyle, 'iso'>, string> = {
   sheet: 'cccc d LLLL yyyy, HH:mm',
+  record: 'd LLL yyyy, HH:mm',
   short: 'HH:mm',
+  clock: 'HH:mm:ss',
+  day: 'cccc d LLLL yyyy',
+  date: 'd LLL yyyy',
 };
 
 /** A stored instant (ISO 8601) on the clock of the unit's IANA zone; an unreadable instant prints as given. */
@@ -135,6 +153,7 @@ export function formatUnitTime(
   if (!iso) return noFigure;
   const at = DateTime.fromISO(iso, { zone: 'utc' }).setZone(zone).setLocale('en-GB');
   if (!at.isValid) return iso;
-  if (style === 'day') return at.toFormat('cccc d LLLL yyyy');
-  return `${at.toFormat(unitTimeFormats[style])} ${zoneAbbreviation(at)}`;
+  if (style === 'iso') return at.toISO({ suppressMilliseconds: false, includeOffset: true });
+  const text = at.toFormat(unitTimeFormats[style]);
+  return style === 'day' || style === 'date' ? text : `${text} ${zoneAbbreviation(at)}`;
 }

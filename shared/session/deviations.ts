@@ -20,7 +20,7 @@ export interface DeviationInput {
   record: DoseRecord;
   checklist: readonly ChecklistAnswer[];
   preparation: PreparationTimes | null;
-  /** The unit's IANA zone: times in messages read on the ward clock with its zone's name. */
+  /** The unit's IANA zone: times in the messages read on its clock, with its short name (UTC if not given). */
   unitTimeZone?: string;
 }
 
@@ -46,8 +46,9 @@ function lightTimeText(seconds: number): string {
     : durationText(seconds);
 }
 
-function utcTimeText(ms: number): string {
-  return `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
+/** A moment in a message, on the unit's clock: "3 Dec 2026, 14:05 WET". */
+function timeTextIn(zone: string) {
+  return (ms: number) => formatUnitTime(new Date(ms).toISOString(), zone, 'record');
 }
 
 const msOf = (at: string | null): number | null => {
@@ -91,12 +92,9 @@ export function findDeviations({
   record,
   checklist,
   preparation,
-  unitTimeZone,
+  unitTimeZone = 'UTC',
 }: DeviationInput): Deviation[] {
-  const timeText = (ms: number) =>
-    unitTimeZone
-      ? formatUnitTime(new Date(ms).toISOString(), unitTimeZone, 'sheet')
-      : utcTimeText(ms);
+  const timeText = timeTextIn(unitTimeZone);
   const found = new Map<Deviation['type'], Deviation>();
   const add = (deviation: Deviation) => found.set(deviation.type, deviation);
   const { tolerances } = protocol;

@@ -1,28 +1,20 @@
 import { DateTime } from 'luxon';
-import { formatDuration, formatQuantity } from '../../shared/format/figures';
+import { formatDuration, formatQuantity, formatUnitTime } from '../../shared/format/figures';
 import { unitLocale, unitTimeZone } from '../config/unit-time-zone';
 
-/** A stored instant as the unit's wall clock, e.g. "7 Nov 2026, 10:05". */
+/** A stored instant as the unit's wall clock with the zone's short name, e.g. "7 Nov 2026, 10:05 WET". */
 export function formatUnitDateTime(iso: string | null | undefined): string {
-  if (!iso) return '—';
-  const at = DateTime.fromISO(iso, { setZone: true });
-  return at.isValid
-    ? at.setZone(unitTimeZone).setLocale('en-GB').toFormat('d LLL yyyy, HH:mm')
-    : iso;
+  return formatUnitTime(iso, unitTimeZone, 'record');
 }
 
 /** The unit's calendar date of an instant, e.g. "7 Nov 2026". */
 export function formatUnitDate(iso: string | null | undefined): string {
-  if (!iso) return '—';
-  const at = DateTime.fromISO(iso, { setZone: true });
-  return at.isValid ? at.setZone(unitTimeZone).setLocale('en-GB').toFormat('d LLL yyyy') : iso;
+  return formatUnitTime(iso, unitTimeZone, 'date');
 }
 
-/** The unit's wall-clock time to the second, e.g. "10:24:00". */
+/** The unit's wall-clock time to the second with the zone's short name, e.g. "10:24:00 WET". */
 export function formatUnitClock(iso: string | null | undefined): string {
-  if (!iso) return '—';
-  const at = DateTime.fromISO(iso, { setZone: true });
-  return at.isValid ? at.setZone(unitTimeZone).toFormat('HH:mm:ss') : iso;
+  return formatUnitTime(iso, unitTimeZone, 'clock');
 }
 
 /** Seconds after a start as "+15:00", or "+1:02:05" past an hour. */

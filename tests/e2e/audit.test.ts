@@ -92,7 +92,7 @@ describe('the auditor reviews a deviation from the queue', () => {
     const timeline = page.getByRole('region', { name: 'Session timeline' });
     await expect
       .poll(async () => (await timeline.innerText()).replace(/\s+/g, ' '))
-      .toContain('At 10:24:00 , session time +19:00 Started: Laser 600 mW/cm² for 83 s');
+      .toMatch(/At 10:24:00 WES?T , session time \+19:00 Started: Laser 600 mW\/cm² for 83 s/);
     expect(await page.getByRole('region', { name: 'Who took part' }).innerText()).toContain(
       'Ran the session (nurse)',
     );

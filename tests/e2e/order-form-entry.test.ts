@@ -139,7 +139,7 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
 
     const offer = keptDraft(page);
     await expect.poll(() => offer.count()).toBe(1);
-    expect(await offer.innerText()).toMatch(/A draft from \d{2}:\d{2} was kept/);
+    expect(await offer.innerText()).toMatch(/A draft from \d{2}:\d{2} WES?T was kept/);
     expect(await accessibilityViolations(page)).toEqual([]);
     expect(await page.getByLabel('Height', { exact: true }).inputValue()).toBe(''); // nothing typed shows until restored
     await offer.getByRole('button', { name: 'Restore' }).click();

@@ -691,7 +691,7 @@ describe('the bedside step clock', () => {
 
     // Newest first: the second tap of the drop is the first Withdraw button; opened from the keyboard.
     const withdrawButtons = page.getByRole('button', {
-      name: /^Withdraw drop \(soak\) at \d\d:\d\d:\d\d\s*…$/i,
+      name: /^Withdraw drop \(soak\) at \d\d:\d\d:\d\d WES?T\s*…$/i,
     });
     expect(await withdrawButtons.count()).toBe(2);
     const firstBox = await withdrawButtons.first().boundingBox();
@@ -711,7 +711,7 @@ describe('the bedside step clock', () => {
     await page.getByText('1 given in this step').waitFor();
     await page
       .getByText(
-        /Withdrawn:\s*Drop \(soak\) at \d\d:\d\d:\d\d\s*— “The same drop was tapped twice\.”/,
+        /Withdrawn:\s*Drop \(soak\) at \d\d:\d\d:\d\d WES?T\s*— “The same drop was tapped twice\.”/,
       )
       .waitFor();
     expect(await withdrawButtons.count()).toBe(1);
@@ -946,7 +946,9 @@ describe('the bedside step clock', () => {
     await dialog.getByRole('button', { name: 'Withdraw tap' }).click();
 
     const refusedPanel = page.getByRole('alert', { name: 'Refused taps' });
-    await refusedPanel.getByText(/^Refused: Withdrawal of a tap at \d\d:\d\d:\d\d$/).waitFor();
+    await refusedPanel
+      .getByText(/^Refused: Withdrawal of a tap at \d\d:\d\d:\d\d WES?T$/)
+      .waitFor();
     await refusedPanel
       .getByText(
         `Server’s reason: The session for order ${id} is stopped; a tap can be withdrawn only while the session runs.`,

@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoData } from '../../server/demo/seed';
+import { formatDuration, formatUnitTime } from '../../shared/format/figures';
 import { seedVolume } from '../../server/demo/volume';
 import { createReviewRepository } from '../../server/review/repository';
 import { auditFilterSchema } from '../../shared/schemas/reviews';
@@ -322,6 +323,18 @@ describe('the CSV export', () => {
         'm',
       ),
     );
+
+    // The export writes times and durations through the shared formatters: the stored instant
+    // as ISO 8601 with the unit zone's offset, and the message's durations in words.
+    const [stored] = await ctx.dataSource.query('SELECT detected_at FROM deviation WHERE id = ?', [
+      id,
+    ]);
+    const row = text.split('\r\n').find((line) => line.startsWith(`${id},`))!;
+    expect(row.split(',')[2]).toBe(
+      formatUnitTime(new Date(stored.detected_at).toISOString(), ctx.config.UNIT_TIME_ZONE, 'iso'),
+    );
+    // Light due 15 min after the infusion start (TAP Study Group, Arch Ophthalmol 1999), 240 s late.
+    expect(row).toContain(formatDuration(900 + 240, 'words'));
 
     const records = await auditorAgent
       .get('/api/exports/dose-records.csv')

@@ -256,6 +256,11 @@ describe('gate 4: the order of events', () => {
       [String(order.id)],
     );
     expect(mail.body).toContain(`until ${precaution.endLocalText}`);
+    // The e-mail writes the end through the shared unit-time formatter, with the zone's short name.
+    expect(mail.body).toContain(
+      `until ${formatUnitTime(precaution.endUtc, ctx.config.UNIT_TIME_ZONE, 'sheet')}.`,
+    );
+    expect(mail.body).toMatch(/until \w+day \d{1,2} \w+ \d{4}, \d{2}:\d{2} [A-Z]{3,4}\b/);
     expect(mail.body).toMatch(/No infusion start is on record/);
   });
 

@@ -143,3 +143,56 @@ describe('a moment on the unit clock, with the zone’s short name', () => {
     expect(formatUnitTime('not a date', 'Europe/Lisbon', 'short')).toBe('not a date');
   });
 });
+
+// Europe/London: GMT (UTC+0) in winter, BST (UTC+1) from the last Sunday of March at 01:00 UTC.
+describe('a unit time in each style, in a zone the config may name', () => {
+  it('names BST after the spring change in London and GMT before it, in every style that shows a time', () => {
+    expect(formatUnitTime('2026-03-29T00:30:00Z', 'Europe/London', 'record')).toBe(
+      '29 Mar 2026, 00:30 GMT',
+    );
+    expect(formatUnitTime('2026-03-29T01:30:00Z', 'Europe/London', 'record')).toBe(
+      '29 Mar 2026, 02:30 BST',
+    );
+    expect(formatUnitTime('2026-03-29T01:30:09Z', 'Europe/London', 'clock')).toBe('02:30:09 BST');
+    expect(formatUnitTime('2026-03-29T01:30:09Z', 'Europe/London', 'short')).toBe('02:30 BST');
+    expect(formatUnitTime('2026-03-29T01:30:09Z', 'Europe/London', 'sheet')).toBe(
+      'Sunday 29 March 2026, 02:30 BST',
+    );
+  });
+
+  it('prints a calendar date without a zone, on the unit’s day rather than UTC’s', () => {
+    // 23:30 UTC on 3 December is already 4 December in Tokyo (UTC+9).
+    expect(formatUnitTime('2026-12-03T23:30:00Z', 'Asia/Tokyo', 'date')).toBe('4 Dec 2026');
+    expect(formatUnitTime('2026-12-03T23:30:00Z', 'Europe/Lisbon', 'date')).toBe('3 Dec 2026');
+  });
+
+  it('writes ISO 8601 with the zone’s offset for an export, the same instant as stored', () => {
+    const iso = formatUnitTime('2026-07-03T09:05:00.250Z', 'Europe/London', 'iso');
+    expect(iso).toBe('2026-07-03T10:05:00.250+01:00');
+    expect(Date.parse(iso)).toBe(Date.parse('2026-07-03T09:05:00.250Z'));
+    expect(formatUnitTime('2026-12-03T09:05:00Z', 'Europe/London', 'iso')).toBe(
+      '2026-12-03T09:05:00.000+00:00',
+    );
+  });
+
+  it('names a zone with no English abbreviation by its offset, never by a wrong name', () => {
+    expect(formatUnitTime('2026-12-03T09:05:00Z', 'Asia/Tokyo', 'short')).toBe('18:05 GMT+9');
+  });
+
+  it('prints a missing instant as a dash in every style', () => {
+    for (const style of ['sheet', 'record', 'short', 'clock', 'day', 'date', 'iso'] as const)
+      expect(formatUnitTime(undefined, 'Europe/London', style)).toBe('—');
+  });
+});
+
+describe('UV time read the same way wherever it is printed', () => {
+  // 3 mW/cm² × 1800 s = 5.4 J/cm² (Wollensak G, Spoerl E, Seiler T. Am J Ophthalmol 2003).
+  it('1800 s is "1800 s (30 min)" as a planned time and "30 min" in words, never "1,800 s"', () => {
+    expect(formatDuration(1800, 'seconds-and-words', { maxDecimals: 0 })).toBe('1800 s (30 min)');
+    expect(formatDuration(1800, 'words')).toBe('30 min');
+    expect(formatQuantity(1800, 's')).toBe('1800 s');
+    expect(formatDuration(1800.3, 'seconds-and-words', { maxDecimals: 1 })).toBe(
+      '1800.3 s (30 min)',
+    );
+  });
+});

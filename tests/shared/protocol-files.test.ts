@@ -88,12 +88,19 @@ const checkValues: Record<string, { source: string; expected: Partial<DosePlan> 
 describe('the shipped protocol files', () => {
   const files = shippedProtocolFiles();
 
-  it('include every protocol the unit needs, each at version 1 and at version 2', () => {
-    expect(files).toEqual(
-      Object.keys(checkValues)
-        .flatMap((key) => [`${key}.v1.json`, `${key}.v2.json`])
-        .sort(),
-    );
+  it('include every protocol the unit needs, each at versions 1 and 2 and any later version without a gap', () => {
+    const versionsByKey = new Map<string, number[]>();
+    for (const file of files) {
+      const [, key = file, version] = /^(.+)\.v(\d+)\.json$/.exec(file) ?? [];
+      versionsByKey.set(key, [...(versionsByKey.get(key) ?? []), Number(version)]);
+    }
+    expect([...versionsByKey.keys()].sort()).toEqual(Object.keys(checkValues).sort());
+    for (const [key, versions] of versionsByKey) {
+      const sorted = versions.sort((a, b) => a - b);
+      expect(sorted, key).toEqual(
+        Array.from({ length: Math.max(2, sorted.length) }, (_, i) => i + 1),
+      );
+    }
   });
 
   it('version 2 of each differs from version 1 only by the BMI range, the drawn-volume and thin-stroma fields, their sources and the approval date', () => {
@@ -185,7 +192,14 @@ describe('the shipped protocol files', () => {
       for (const source of sources)
         expect(source.citation).toMatch(/\[(published|from memory|common practice)[^\]]*\]/);
       for (const name of approval.approvedBy) expect(name).toMatch(/\(demo\)$/);
-      expect(approval.approvedOn).toBe(parsed.data.version === 1 ? '2026-11-20' : '2026-12-03');
+      const { key, version } = parsed.data;
+      if (version <= 2) {
+        expect(approval.approvedOn).toBe(version === 1 ? '2026-11-20' : '2026-12-03');
+      } else {
+        // A later version is approved no earlier than the one before it.
+        const before = protocolVersionSchema.parse(readProtocolJson(`${key}.v${version - 1}.json`));
+        expect(approval.approvedOn >= (before.approval?.approvedOn ?? '')).toBe(true);
+      }
       expect(approval.note).toMatch(/demo/i);
       expect(approval.note).toMatch(/labelling and local policy/);
     });

@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { formatUnitTime } from '../../shared/format/figures';
 import { computePlan } from '../../shared/engine/compute-plan';
 import type { ProtocolVersion } from '../../shared/protocol/protocol-schema';
 import type { PlanInputs } from '../../shared/schemas/calculation';
@@ -814,6 +815,27 @@ describe('deviations of a PDT session', () => {
       unit: 'mL',
     });
     expect(deviationOf(deviations, 'infusion-duration')).toMatchObject({ actual: 4 });
+  });
+
+  it("names the moment of an extravasation on the unit's clock with its zone's short name, or in UTC when no zone is given", () => {
+    const taps = pdtSession({ extravasationAtS: infusionStartS + 240 });
+    const record = deriveDoseRecord({ protocol: pdtStandard, plan: pdtPlan, events: taps.events });
+    const input = {
+      protocol: pdtStandard,
+      plan: pdtPlan,
+      record,
+      checklist: [],
+      preparation: null,
+    };
+    const at = record.extravasationAt!;
+    const inLondon = findDeviations({ ...input, unitTimeZone: 'Europe/London' });
+    expect(deviationOf(inLondon, 'extravasation')?.message).toContain(
+      `Extravasation recorded at ${formatUnitTime(at, 'Europe/London', 'record')};`,
+    );
+    expect(deviationOf(inLondon, 'extravasation')?.message).toMatch(/ GMT;/);
+    expect(deviationOf(findDeviations(input), 'extravasation')?.message).toMatch(
+      /recorded at \d{1,2} \w{3} \d{4}, \d{2}:\d{2} UTC;/,
+    );
   });
 
   it('does not check a figure whose tolerance the protocol leaves null', () => {

@@ -1,16 +1,14 @@
-import { DateTime } from 'luxon';
+import { formatUnitTime } from '../../../shared/format/figures';
 import { unitTimeZone } from '../../config/unit-time-zone';
 import { useDraftsKeptInThisPage, type FormDraftControl } from '../../lib/form-draft';
 import { Button } from './button';
 import { InfoIcon } from './icons';
 
-/** "10:42" for a draft kept today (the unit's day), "2 Dec, 10:42" for an older one. */
+/** "10:42 WET" for a draft kept today (the unit's day), "2 Dec 2026, 10:42 WET" for an older one. */
 function keptAt(iso: string): string {
-  const at = DateTime.fromISO(iso).setZone(unitTimeZone).setLocale('en-GB');
-  if (!at.isValid) return iso;
-  return at.hasSame(DateTime.now().setZone(unitTimeZone), 'day')
-    ? at.toFormat('HH:mm')
-    : at.toFormat('d LLL, HH:mm');
+  const today = formatUnitTime(new Date().toISOString(), unitTimeZone, 'date');
+  const sameDay = formatUnitTime(iso, unitTimeZone, 'date') === today;
+  return formatUnitTime(iso, unitTimeZone, sameDay ? 'short' : 'record');
 }
 
 /** Offers back what a form held when it was last left unsaved (a crash, a reload, a closed tab). */

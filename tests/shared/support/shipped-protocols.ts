@@ -1,11 +1,18 @@
 import { readFileSync, readdirSync } from 'node:fs';
+import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import {
   protocolVersionSchema,
   type ProtocolVersion,
 } from '../../../shared/protocol/protocol-schema';
 
-export const protocolsDir = fileURLToPath(new URL('../../../protocols/', import.meta.url));
+/**
+ * protocols/, or the directory in LUXTEMPO_PROTOCOLS_DIR: the test of DEVELOPERS.md's guide runs
+ * these checks on a copy of protocols/ with a new version in it.
+ */
+export const protocolsDir = process.env.LUXTEMPO_PROTOCOLS_DIR
+  ? `${path.resolve(process.env.LUXTEMPO_PROTOCOLS_DIR)}${path.sep}`
+  : fileURLToPath(new URL('../../../protocols/', import.meta.url));
 
 export function shippedProtocolFiles(): string[] {
   return readdirSync(protocolsDir)

@@ -1,5 +1,5 @@
 import { DateTime } from 'luxon';
-import { zoneAbbreviation } from '../../../../shared/format/figures';
+import { formatUnitTime, zoneAbbreviation } from '../../../../shared/format/figures';
 import { zonePlainName } from '../../../../shared/format/precision';
 import type { Discharge } from '../api/discharge-schemas';
 import { CxlAftercare } from './cxl-aftercare';
@@ -20,8 +20,8 @@ export function DischargeSheet({ discharge }: { discharge: Discharge }) {
   const { unitName, unitTimeZone: zone, patient, order, protocol, record } = discharge;
   const fullName = `${patient.givenName} ${patient.familyName}`;
   const treatedOn = record.sessionStartedAt ? dayText(record.sessionStartedAt, zone) : null;
-  const now = DateTime.now().setZone(zone).setLocale('en-GB');
-  const printedAt = `${now.toFormat('d LLL yyyy, HH:mm')} ${zoneAbbreviation(now)}`;
+  const now = DateTime.now().setZone(zone);
+  const printedAt = formatUnitTime(now.toISO(), zone, 'record');
 
   const runningHead = (
     <p className="flex flex-wrap justify-between gap-x-4 border-b border-paper-950 pb-1 text-[9pt]">

@@ -1,4 +1,8 @@
-import { DateTime } from 'luxon';
+import {
+  formatPlainNumber,
+  formatQuantity,
+  formatUnitTime,
+} from '../../../../shared/format/figures';
 import type { Eye } from '../../../../shared/schemas/patients';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 
@@ -10,29 +14,26 @@ export function patientName(patient: { givenName: string; familyName: string }):
 
 /** A number as the plan would print it: no trailing zeros, a point for decimals. */
 export function numberText(value: number, maxDecimals = 6): string {
-  return new Intl.NumberFormat('en-GB', {
-    maximumFractionDigits: maxDecimals,
-    useGrouping: false,
-  }).format(value);
+  return formatPlainNumber(value, maxDecimals);
 }
 
 export function quantity(value: number | null | undefined, unit: string, maxDecimals = 6): string {
-  if (value === null || value === undefined) return '—';
-  return unit === '' ? numberText(value, maxDecimals) : `${numberText(value, maxDecimals)} ${unit}`;
+  return formatQuantity(value, unit, maxDecimals);
 }
 
-/** A date and time on the unit's clock, e.g. "1 Dec 2026, 14:05". */
+/** A date and time on the unit's clock, e.g. "1 Dec 2026, 14:05 WET". */
 export function unitDateTime(iso: string): string {
-  return DateTime.fromISO(iso, { zone: 'utc' }).setZone(unitTimeZone).toFormat('d LLL yyyy, HH:mm');
+  return formatUnitTime(iso, unitTimeZone, 'record');
 }
 
 export function unitTime(iso: string): string {
-  return DateTime.fromISO(iso, { zone: 'utc' }).setZone(unitTimeZone).toFormat('HH:mm');
+  return formatUnitTime(iso, unitTimeZone, 'short');
 }
 
-/** "HH:mm" when the time falls on the same day on the unit's clock as `nowMs`, else with its date. */
+/** "14:05 WET" when the time falls on the same day on the unit's clock as `nowMs`, else with its date. */
 export function unitTimeNear(iso: string, nowMs: number): string {
-  const at = DateTime.fromISO(iso, { zone: 'utc' }).setZone(unitTimeZone);
-  const now = DateTime.fromMillis(nowMs, { zone: unitTimeZone });
-  return at.hasSame(now, 'day') ? at.toFormat('HH:mm') : at.toFormat('HH:mm, d LLL');
+  const sameDay =
+    formatUnitTime(iso, unitTimeZone, 'date') ===
+    formatUnitTime(new Date(nowMs).toISOString(), unitTimeZone, 'date');
+  return formatUnitTime(iso, unitTimeZone, sameDay ? 'short' : 'record');
 }

@@ -1,5 +1,4 @@
 import { useQuery } from '@tanstack/react-query';
-import { DateTime } from 'luxon';
 import type { ReactNode } from 'react';
 import { Button, LinkButton } from '../../../components/ui/button';
 import { AlertIcon, ArrowLeftIcon, PrinterIcon, ReloadIcon } from '../../../components/ui/icons';
@@ -175,10 +174,7 @@ export function DoseRecordPrintScreen({
   const settings = deviceSettings(order.data.plan, order.data.kind);
   const stepTitle = (stepId: string | null) =>
     stepId ? (steps.data?.definition.steps.find((s) => s.id === stepId)?.title ?? stepId) : null;
-  const printedAt = DateTime.now()
-    .setZone(unitTimeZone)
-    .setLocale('en-GB')
-    .toFormat('d LLL yyyy, HH:mm');
+  const printedAt = formatUnitDateTime(new Date().toISOString());
   const lastCheck = o.doseChecks.at(-1);
 
   return (

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { DateTime } from 'luxon';
+import { formatUnitTime } from '../../../../shared/format/figures';
 import { Button } from '../../../components/ui/button';
 import { AlertIcon, OutboxTrayIcon, ReloadIcon } from '../../../components/ui/icons';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -18,8 +18,7 @@ const kindWords: Record<string, string> = {
 };
 
 function when(iso: string | null): string {
-  if (!iso) return '—';
-  return DateTime.fromISO(iso, { zone: 'utc' }).setZone(unitTimeZone).toFormat('d LLL, HH:mm:ss');
+  return formatUnitTime(iso, unitTimeZone, 'record');
 }
 
 export function OutboxScreen() {

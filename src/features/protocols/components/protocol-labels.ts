@@ -1,5 +1,5 @@
 import type { ProtocolKind } from '../../../../shared/protocol/protocol-schema';
-import { formatDuration, formatPlainNumber } from '../../../../shared/format/figures';
+import { formatDuration, formatPlainNumber, formatUnitTime } from '../../../../shared/format/figures';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 import type { VersionOrigin } from '../api/protocol-response-schemas';
 
@@ -15,27 +15,15 @@ export const originLabels: Record<VersionOrigin, string> = {
   cloned: 'Drafted from an earlier version',
 };
 
-const dateTime = new Intl.DateTimeFormat('en-GB', {
-  day: 'numeric',
-  month: 'short',
-  year: 'numeric',
-  hour: '2-digit',
-  minute: '2-digit',
-  timeZone: unitTimeZone,
-  timeZoneName: 'short',
-});
-const dateOnly = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
-
-/** A stored UTC instant shown on the unit's clock, with the zone named. */
+/** A stored UTC instant shown on the unit's clock, with the zone's short name. */
 export function formatDateTime(iso: string): string {
-  const date = new Date(iso);
-  return Number.isNaN(date.getTime()) ? iso : dateTime.format(date);
+  return formatUnitTime(iso, unitTimeZone, 'record');
 }
 
 /** A calendar date (YYYY-MM-DD) with no time of day. */
 export function formatDate(isoDate: string): string {
-  const date = new Date(`${isoDate}T00:00:00Z`);
-  return Number.isNaN(date.getTime()) ? isoDate : dateOnly.format(date);
+  const text = formatUnitTime(`${isoDate}T00:00:00Z`, 'UTC', 'date');
+  return text.includes('T00:00:00Z') ? isoDate : text;
 }
 
 /** Protocol figures are shown exactly as stored: no rounding, no grouping. */

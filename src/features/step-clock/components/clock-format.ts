@@ -1,5 +1,9 @@
 import type { StepKind } from '../../../../shared/protocol/protocol-schema';
-import { formatDuration, formatPlainNumber } from '../../../../shared/format/figures';
+import {
+  formatDuration,
+  formatPlainNumber,
+  formatUnitTime,
+} from '../../../../shared/format/figures';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 
 /**
@@ -25,27 +29,9 @@ export function formatFigure(value: number, digits = 2): string {
   return formatPlainNumber(value, digits);
 }
 
-// Made on first use, after the app has learnt the unit's zone from the server.
-let wardClocks: { long: Intl.DateTimeFormat; short: Intl.DateTimeFormat } | null = null;
-
-/** A moment on the ward clock (the unit's time zone, whatever the tablet's setting). */
+/** A moment on the ward clock (the unit's time zone, whatever the tablet's setting), with its zone's short name. */
 export function formatWardTime(ms: number, withSeconds = true): string {
-  wardClocks ??= {
-    long: new Intl.DateTimeFormat('en-GB', {
-      timeZone: unitTimeZone,
-      hour: '2-digit',
-      minute: '2-digit',
-      second: '2-digit',
-      hourCycle: 'h23',
-    }),
-    short: new Intl.DateTimeFormat('en-GB', {
-      timeZone: unitTimeZone,
-      hour: '2-digit',
-      minute: '2-digit',
-      hourCycle: 'h23',
-    }),
-  };
-  return (withSeconds ? wardClocks.long : wardClocks.short).format(new Date(ms));
+  return formatUnitTime(new Date(ms).toISOString(), unitTimeZone, withSeconds ? 'clock' : 'short');
 }
 
 /** The short name of a step in buttons and spoken lines: "Start laser", "End UV". */

@@ -1,6 +1,7 @@
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { DosePlan } from '../../../../shared/schemas/calculation';
-import { formatElapsed, formatFigure } from './clock-format';
+import { formatDuration } from '../../../../shared/format/figures';
+import { formatFigure } from './clock-format';
 
 interface Setting {
   label: string;
@@ -36,7 +37,7 @@ function settingsFor(protocol: ProtocolVersion, plan: DosePlan): Setting[] {
       value:
         plan.uvTimeS === null
           ? 'not in the plan'
-          : `${formatElapsed(plan.uvTimeS)} (${formatFigure(plan.uvTimeS, 0)} s)`,
+          : formatDuration(plan.uvTimeS, 'seconds-and-words', { maxDecimals: 0 }),
     },
     {
       label: 'Pulsing',
@@ -48,7 +49,7 @@ function settingsFor(protocol: ProtocolVersion, plan: DosePlan): Setting[] {
       ? [
           {
             label: 'Elapsed time with pulsing',
-            value: `${formatElapsed(plan.uvElapsedS)} (${formatFigure(plan.uvElapsedS, 0)} s)`,
+            value: formatDuration(plan.uvElapsedS, 'seconds-and-words', { maxDecimals: 0 }),
           },
         ]
       : []),

@@ -4,6 +4,7 @@ import { Dialog } from '../../../components/ui/dialog';
 import { CheckCircleIcon } from '../../../components/ui/icons';
 import { TextField } from '../../../components/ui/text-field';
 import { readFigure } from './entered-figures';
+import { formatQuantity } from '../../../../shared/format/figures';
 
 /**
  * At the end of the light step the nurse copies what the laser displays: the exposure time (the
@@ -45,7 +46,7 @@ export function ExposureDialog({
       open={open}
       onDismiss={onDismiss}
       title="Exposure the laser displays"
-      description={`Copy the figures from the laser's display. The plan is ${plannedS} s; the record judges the exposure on the laser's figure.`}
+      description={`Copy the figures from the laser's display. The plan is ${formatQuantity(plannedS, 's')}; the record judges the exposure on the laser's figure.`}
     >
       <form
         className="flex flex-col gap-3"

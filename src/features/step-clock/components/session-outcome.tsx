@@ -10,7 +10,8 @@ import { paths } from '../../../config/paths';
 import { doseGivenText, volumeGivenText } from '../../../lib/dose-given-words';
 import { eventWordsOf } from '../../../lib/session-event-words';
 import type { SessionDeviation, SessionRecordSummary } from '../api/session-state-schema';
-import { formatElapsed, formatFigure } from './clock-format';
+import { formatDuration } from '../../../../shared/format/figures';
+import { formatFigure } from './clock-format';
 import { DeviationList } from './deviation-list';
 
 function recordLines(
@@ -18,7 +19,9 @@ function recordLines(
   record: SessionRecordSummary,
 ): { label: string; value: string }[] {
   const duration = (seconds: number | null) =>
-    seconds === null ? 'not recorded' : `${formatElapsed(seconds)} (${formatFigure(seconds, 1)} s)`;
+    seconds === null
+      ? 'not recorded'
+      : formatDuration(seconds, 'seconds-and-words', { maxDecimals: 1 });
   const lines =
     protocol.kind === 'pdt'
       ? [

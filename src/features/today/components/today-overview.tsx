@@ -1,5 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { DateTime } from 'luxon';
+import { formatUnitTime } from '../../../../shared/format/figures';
 import type { Role } from '../../../../shared/roles';
 import { Button } from '../../../components/ui/button';
 import { AlertIcon, InfoIcon, ReloadIcon } from '../../../components/ui/icons';
@@ -24,7 +25,7 @@ function greetingFor(hour: number): string {
 export function TodayOverview({ displayName, roles }: TodayOverviewProps) {
   // The unit's clock, not the device's: a tablet set to another zone still greets the ward's day.
   const now = DateTime.now().setZone(unitTimeZone);
-  const dateLine = now.setLocale('en-GB').toFormat('cccc d LLLL yyyy');
+  const dateLine = formatUnitTime(now.toISO(), unitTimeZone, 'day');
   const today = useQuery(todayQueries.worklists());
 
   return (

@@ -1,4 +1,4 @@
-import { DateTime } from 'luxon';
+import { formatUnitTime } from '../../../../shared/format/figures';
 import { Link } from 'react-router-dom';
 import type { OrderSummary } from '../../../../shared/schemas/orders';
 import { LinkButton } from '../../../components/ui/button';
@@ -38,9 +38,8 @@ function rowHref(listId: string, order: OrderSummary): string {
 
 function signedText(order: OrderSummary): string | null {
   const at = order.signedAt ?? null;
-  if (!at)
-    return `Started ${DateTime.fromISO(order.createdAt, { zone: 'utc' }).setZone(unitTimeZone).toFormat('d LLL, HH:mm')}`;
-  return `Signed ${DateTime.fromISO(at, { zone: 'utc' }).setZone(unitTimeZone).toFormat('d LLL, HH:mm')}${order.signedBy ? ` by ${order.signedBy.displayName}` : ''}`;
+  if (!at) return `Started ${formatUnitTime(order.createdAt, unitTimeZone, 'record')}`;
+  return `Signed ${formatUnitTime(at, unitTimeZone, 'record')}${order.signedBy ? ` by ${order.signedBy.displayName}` : ''}`;
 }
 
 export function WorklistSection({
