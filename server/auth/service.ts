@@ -1,4 +1,3 @@
-import type { DataSource } from 'typeorm';
 import type {
   ChangePassword,
   LoginRequest,
@@ -6,6 +5,7 @@ import type {
   SetPassword,
 } from '../../shared/schemas/auth';
 import type { AuditRepository } from '../audit/repository';
+import type { UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
 import type { UserRepository } from '../people/repository';
 import type { PasswordLinkRepository } from './password-link-repository';
@@ -31,7 +31,7 @@ const linkGone = () =>
   );
 
 interface Deps {
-  dataSource: DataSource;
+  unitOfWork: UnitOfWork;
   users: UserRepository;
   sessions: SignInSessionRepository;
   links: PasswordLinkRepository;
@@ -39,7 +39,7 @@ interface Deps {
   audit: AuditRepository;
 }
 
-export function createAuthService({ dataSource, users, sessions, links, throttle, audit }: Deps) {
+export function createAuthService({ unitOfWork, users, sessions, links, throttle, audit }: Deps) {
   /**
    * Checks a person's own password, for signing in and at every signature prompt: the same
    * throttle, the same verification, and an older hash upgraded once the password is known.
@@ -190,10 +190,10 @@ export function createAuthService({ dataSource, users, sessions, links, throttle
       if (!user || !user.active) throw linkGone();
       checkNewPassword(input.password, 'password', user);
       const passwordHash = await hashPassword(input.password);
-      await dataSource.transaction(async (manager) => {
+      await unitOfWork(async (tx) => {
         // Two tabs racing with one link: only one gets past this line.
-        if (!(await links.consume(manager, link.id))) throw linkGone();
-        await users.setPassword(user.id, passwordHash, manager);
+        if (!(await links.consume(tx, link.id))) throw linkGone();
+        await users.setPassword(user.id, passwordHash, tx);
       });
       const ended = await sessions.revokeAllOf(user.id, 'password-set');
       await throttle.recordSuccess({ email: user.email, ipAddress });

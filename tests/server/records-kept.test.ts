@@ -411,7 +411,7 @@ describe("a session's dose record and deviations, as the app's database user", (
       config: ctx.config,
       dataSource: ctx.dataSource,
       mailer: { send: async () => undefined, close: () => undefined },
-      now: () => Date.now() + fourteenHoursMs,
+      clock: { now: () => new Date(Date.now() + fourteenHoursMs) },
     });
     const nurseLater = supertest.agent(later);
     expect(
