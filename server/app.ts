@@ -11,8 +11,8 @@ import { authRoutes } from './auth/routes';
 import { createAuthService } from './auth/service';
 import { createPasswordLinkRepository } from './auth/password-link-repository';
 import { createPasswordLinks } from './auth/password-links';
-import { createSessions } from './auth/session';
-import { createSignInSessionRepository } from './auth/session-repository';
+import { createSignInSessions } from './auth/sign-in-session';
+import { createSignInSessionRepository } from './auth/sign-in-session-repository';
 import { createThrottle } from './auth/throttle';
 import { createThrottleRepository } from './auth/throttle-repository';
 import { calculationRoutes } from './calculations/routes';
@@ -101,12 +101,12 @@ export function createApp({
   const reads = createReadAudit(audit, clock);
   const users = createUserRepository(dataSource);
   const signInSessions = createSignInSessionRepository(dataSource);
-  const sessions = createSessions(config, signInSessions);
+  const signIn = createSignInSessions(config, signInSessions);
   const passwordLinkRows = createPasswordLinkRepository(dataSource);
   const auth = createAuthService({
     unitOfWork,
     users,
-    sessions: signInSessions,
+    signInSessions,
     links: passwordLinkRows,
     throttle: createThrottle(createThrottleRepository(dataSource), config),
     audit,
@@ -169,7 +169,7 @@ export function createApp({
     unitOfWork,
     users,
     roleRequests: createRoleRequestRepository(dataSource),
-    sessions: signInSessions,
+    signInSessions,
     passwordLinks,
     audit,
   });
@@ -180,7 +180,7 @@ export function createApp({
       timeZone: config.UNIT_TIME_ZONE,
       phone: config.UNIT_PHONE,
     }),
-    ...authRoutes(auth, sessions),
+    ...authRoutes(auth, signIn),
     ...peopleRoutes(people),
     ...protocolRoutes(protocols),
     ...calculationRoutes(createCalculationService(protocols)),
@@ -223,8 +223,8 @@ export function createApp({
     next();
   });
   mountRoutes(api, routes, {
-    session: sessions.requireSession,
-    capability: sessions.requireCapability,
+    signIn: signIn.requireSignIn,
+    capability: signIn.requireCapability,
   });
   api.use((req, _res, next) =>
     next(AppError.notFound(`There is no API route ${req.method} ${req.baseUrl}${req.path}.`)),

@@ -5,7 +5,7 @@ import {
   signOrderSchema,
   updateOrderSchema,
 } from '../../shared/schemas/orders';
-import { signedInUser } from '../auth/session';
+import { signedInUser } from '../auth/sign-in-session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
 import type { Actor, OrderService } from './service';

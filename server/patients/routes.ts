@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { createPatientSchema } from '../../shared/schemas/patients';
-import { signedInUser } from '../auth/session';
+import { signedInUser } from '../auth/sign-in-session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
 import type { PatientService } from './service';

@@ -9,7 +9,7 @@ import {
 import type { AuditRepository } from '../audit/repository';
 import { noPasswordYet } from '../auth/passwords';
 import type { PasswordLinks } from '../auth/password-links';
-import type { SignInSessionRepository } from '../auth/session-repository';
+import type { SignInSessionRepository } from '../auth/sign-in-session-repository';
 import type { RoleRequest } from '../db/entities/role-request';
 import type { User } from '../db/entities/user';
 import { isDuplicateKey } from '../db/errors';
@@ -44,7 +44,7 @@ interface Deps {
   unitOfWork: UnitOfWork;
   users: UserRepository;
   roleRequests: RoleRequestRepository;
-  sessions: SignInSessionRepository;
+  signInSessions: SignInSessionRepository;
   passwordLinks: PasswordLinks;
   audit: AuditRepository;
 }
@@ -57,7 +57,7 @@ export function createPeopleService({
   unitOfWork,
   users,
   roleRequests,
-  sessions,
+  signInSessions,
   passwordLinks,
   audit,
 }: Deps) {
@@ -204,7 +204,7 @@ export function createPeopleService({
           details: { changed },
         });
       }
-      if (changed.active && !after.active) await sessions.revokeAllOf(id, 'deactivated');
+      if (changed.active && !after.active) await signInSessions.revokeAllOf(id, 'deactivated');
       const pending = split?.request
         ? await requestRoles(actor, after, split.request)
         : await roleRequests.pendingFor(id);
@@ -306,7 +306,7 @@ export function createPeopleService({
     /** Signs the person out everywhere, at once. */
     async endSessions(actor: Actor, id: number): Promise<{ ended: number }> {
       await mustFind(id);
-      const ended = await sessions.revokeAllOf(id, 'ended-by-admin');
+      const ended = await signInSessions.revokeAllOf(id, 'ended-by-admin');
       await audit.append({
         actorUserId: actor.id,
         action: 'person.sessions-ended',
