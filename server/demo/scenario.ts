@@ -414,7 +414,13 @@ export async function seedDemoScenario(
         checklist: noAnswers(pv.definition),
         preparation,
       });
-      await sessions.reconcileDeviations(asTransaction(manager), order.id, pv.id, found);
+      await sessions.reconcileDeviations(
+        asTransaction(manager),
+        order.id,
+        pv.id,
+        found,
+        new Date(startMs + 3600_000),
+      );
       // Deviations belong to the session's day, for the monthly figures; dated before the record
       // exists, because an ended session's deviations are closed to change (migration DatabaseIntegrity).
       await manager.query('UPDATE deviation SET detected_at = ? WHERE order_id = ?', [

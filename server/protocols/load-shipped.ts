@@ -1,6 +1,7 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { createAuditRepository } from '../audit/repository';
+import { systemClock, type Clock } from '../clock';
 import type { Database } from '../db/unit-of-work';
 import { createProtocolRepository } from './repository';
 import { createProtocolService } from './service';
@@ -8,6 +9,6 @@ import { createProtocolService } from './service';
 export const shippedProtocolsDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../protocols');
 
 /** Validates and stores the files in protocols/; throws, naming the file, on anything wrong. */
-export function loadShippedProtocols(dataSource: Database, directory = shippedProtocolsDir) {
-  return createProtocolService(createProtocolRepository(dataSource), createAuditRepository(dataSource)).loadShippedFiles(directory);
+export function loadShippedProtocols(dataSource: Database, directory = shippedProtocolsDir, clock: Clock = systemClock) {
+  return createProtocolService(createProtocolRepository(dataSource), createAuditRepository(dataSource), clock).loadShippedFiles(directory);
 }

@@ -233,6 +233,10 @@ export function createReviewService(deps: {
       };
     },
 
+    /** The export's file name, dated by the server's clock (UTC day). */
+    exportFileName: (kind: 'deviations' | 'dose-records') =>
+      `luxtempo-${kind}-${clock.now().toISOString().slice(0, 10)}.csv`,
+
     /**
      * Streams a CSV of the filtered rows straight from a database cursor: memory stays flat
      * however many rows there are.

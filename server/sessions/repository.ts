@@ -278,6 +278,8 @@ export function createSessionRepository(dataSource: DataSource) {
       orderId: number,
       protocolVersionId: number,
       found: Deviation[],
+      /** The server's time: when a new deviation is detected or a gone one withdrawn. */
+      at: Date,
     ): Promise<{ added: string[]; standing: StandingDeviation[] }> {
       const repo = managerOf(tx).getRepository(DeviationRow);
       // Read on every event, so plain SQL rather than the ORM's query builder.
@@ -309,7 +311,7 @@ export function createSessionRepository(dataSource: DataSource) {
           withdrawnAt: null,
         };
         if (!row) {
-          const detectedAt = new Date();
+          const detectedAt = at;
           const result = await repo.insert({
             orderId,
             protocolVersionId,
@@ -344,7 +346,7 @@ export function createSessionRepository(dataSource: DataSource) {
         stored.delete(deviation.type);
       }
       for (const gone of stored.values())
-        if (!gone.withdrawnAt) await repo.update({ id: gone.id }, { withdrawnAt: new Date() });
+        if (!gone.withdrawnAt) await repo.update({ id: gone.id }, { withdrawnAt: at });
       return { added, standing };
     },
   };

@@ -522,11 +522,12 @@ export function createSessionService(deps: {
    */
   async function recompute(tx: Transaction, order: SessionOrder, events?: SessionEvent[]) {
     const all = events ?? (await sessions.eventsFor(order.id, tx));
+    const nowMs = now();
     const record = deriveDoseRecord({
       protocol: order.definition,
       plan: order.plan,
       events: all,
-      nowMs: now(),
+      nowMs,
     });
     const deviations = findDeviations({
       protocol: order.definition,
@@ -540,6 +541,7 @@ export function createSessionService(deps: {
       order.id,
       order.protocolVersionId,
       deviations,
+      new Date(nowMs),
     );
     await sessions.saveRecord(tx, order.id, record, {
       protocolVersionId: order.protocolVersionId,
