@@ -4,7 +4,6 @@ import path from 'node:path';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
-import type { DataSource } from 'typeorm';
 import { createAuditRepository } from './audit/repository';
 import { auditRoutes } from './audit/routes';
 import { createAuditService, createReadAudit } from './audit/service';
@@ -12,20 +11,29 @@ import { authRoutes } from './auth/routes';
 import { createAuthService } from './auth/service';
 import { createPasswordLinkRepository } from './auth/password-link-repository';
 import { createPasswordLinks } from './auth/password-links';
-import { createSessions } from './auth/session';
-import { createSignInSessionRepository } from './auth/session-repository';
+import { createSignInSessions } from './auth/sign-in-session';
+import { createSignInSessionRepository } from './auth/sign-in-session-repository';
 import { createThrottle } from './auth/throttle';
+import { createThrottleRepository } from './auth/throttle-repository';
 import { calculationRoutes } from './calculations/routes';
+import { createCalculationService } from './calculations/service';
+import { systemClock, type Clock } from './clock';
 import type { Config } from './config';
+import { createUnitOfWork, type Database } from './db/unit-of-work';
+import { createHealthRepository } from './health/repository';
 import { healthRoutes } from './health/routes';
+import { createHealthService } from './health/service';
 import { AppError } from './http/app-error';
 import { errorHandler } from './http/error-handler';
 import { mountRoutes, type RouteSpec } from './http/route-table';
 import { sameOriginOnly } from './http/same-origin';
 import type { Mailer } from './mail/mailer';
+import { createAttachmentRepository } from './attachments/repository';
 import { attachmentRoutes } from './attachments/routes';
 import { createAttachmentService } from './attachments/service';
+import { createOutboxRepository } from './mail/outbox-repository';
 import { outboxRoutes } from './mail/outbox-routes';
+import { createOutboxService } from './mail/service';
 import { createOrderRepository } from './orders/repository';
 import { orderRoutes } from './orders/routes';
 import { createOrderService } from './orders/service';
@@ -48,15 +56,17 @@ import { createPeopleService } from './people/service';
 import { createProtocolRepository } from './protocols/repository';
 import { protocolRoutes } from './protocols/routes';
 import { createProtocolService } from './protocols/service';
+import { todayRoutes } from './today/routes';
+import { createTodayService } from './today/service';
 
 export interface AppDependencies {
   config: Config;
-  dataSource: DataSource;
+  dataSource: Database;
   mailer: Mailer;
   /** The built client to serve; left out, the app serves the API only. */
   clientDir?: string;
-  /** The server's clock in ms since the epoch; tests that run sessions in accelerated time replace it. */
-  now?: () => number;
+  /** The server's one clock, handed to every service; tests that run sessions in accelerated time replace it. */
+  clock?: Clock;
 }
 
 /** Builds the Express app; `server/index.ts` decides where it listens. */
@@ -64,7 +74,7 @@ export function createApp({
   config,
   dataSource,
   clientDir,
-  now = Date.now,
+  clock = systemClock,
 }: AppDependencies): Express {
   const app = express();
   app.disable('x-powered-by');
@@ -86,22 +96,23 @@ export function createApp({
     }),
   );
 
+  const unitOfWork = createUnitOfWork(dataSource);
   const audit = createAuditRepository(dataSource);
-  const reads = createReadAudit(audit, now);
+  const reads = createReadAudit(audit, clock);
   const users = createUserRepository(dataSource);
   const signInSessions = createSignInSessionRepository(dataSource);
-  const sessions = createSessions(config, signInSessions);
+  const signIn = createSignInSessions(config, signInSessions);
   const passwordLinkRows = createPasswordLinkRepository(dataSource);
   const auth = createAuthService({
-    dataSource,
+    unitOfWork,
     users,
-    sessions: signInSessions,
+    signInSessions,
     links: passwordLinkRows,
-    throttle: createThrottle(dataSource, config),
+    throttle: createThrottle(createThrottleRepository(dataSource), config),
     audit,
   });
-  const passwordLinks = createPasswordLinks(dataSource, passwordLinkRows, config);
-  const protocols = createProtocolService(createProtocolRepository(dataSource), audit);
+  const passwordLinks = createPasswordLinks(unitOfWork, passwordLinkRows, config);
+  const protocols = createProtocolService(createProtocolRepository(dataSource), audit, clock);
   const patients = createPatientRepository(dataSource);
   const orders = createOrderRepository(dataSource);
   const unitTimeZone = config.UNIT_TIME_ZONE;
@@ -110,7 +121,8 @@ export function createApp({
     withinDays: config.WEIGHT_CHANGE_WITHIN_DAYS,
   };
   const orderService = createOrderService({
-    dataSource,
+    unitOfWork,
+    clock,
     orders,
     patients,
     users,
@@ -122,29 +134,30 @@ export function createApp({
     confirmSignature: auth.confirmSignature,
   });
   const pharmacy = createPharmacyService({
-    dataSource,
+    unitOfWork,
     orders,
     orderService,
     users,
     audit,
     unitTimeZone,
-    now,
+    clock,
   });
   const sessionRows = createSessionRepository(dataSource);
   const sessionService = createSessionService({
-    dataSource,
+    unitOfWork,
     orders,
     sessions: sessionRows,
     users,
     audit,
     unitTimeZone,
-    now,
+    clock,
     tapClockSkewS: config.TAP_CLOCK_SKEW_S,
     tapOfflineWindowH: config.TAP_OFFLINE_WINDOW_H,
     confirmSignature: auth.confirmSignature,
   });
   const discharge = createDischargeService({
-    dataSource,
+    unitOfWork,
+    clock,
     orders,
     sessions: sessionRows,
     audit,
@@ -152,40 +165,46 @@ export function createApp({
     unitPhone: config.UNIT_PHONE,
     unitTimeZone,
   });
+  const people = createPeopleService({
+    unitOfWork,
+    users,
+    roleRequests: createRoleRequestRepository(dataSource),
+    signInSessions,
+    passwordLinks,
+    audit,
+  });
 
   const routes: RouteSpec[] = [
-    ...healthRoutes(dataSource, {
+    ...healthRoutes(createHealthService(createHealthRepository(dataSource)), {
       name: config.UNIT_NAME,
       timeZone: config.UNIT_TIME_ZONE,
       locale: config.UNIT_LOCALE,
       phone: config.UNIT_PHONE,
     }),
-    ...authRoutes(auth, sessions),
-    ...peopleRoutes(
-      createPeopleService({
-        dataSource,
-        users,
-        roleRequests: createRoleRequestRepository(dataSource),
-        sessions: signInSessions,
-        passwordLinks,
-        audit,
-      }),
-    ),
+    ...authRoutes(auth, signIn),
+    ...peopleRoutes(people),
     ...protocolRoutes(protocols),
-    ...calculationRoutes(protocols),
+    ...calculationRoutes(createCalculationService(protocols)),
     ...patientRoutes(createPatientService(patients, orders, audit, reads, weightChangeRule)),
-    ...orderRoutes(orderService, orders, now),
+    ...todayRoutes(createTodayService({ orders, clock })),
+    ...orderRoutes(orderService),
     ...pharmacyRoutes(pharmacy),
     ...attachmentRoutes(
-      createAttachmentService(dataSource, audit, reads, path.resolve(config.UPLOAD_DIR)),
+      createAttachmentService(
+        createAttachmentRepository(dataSource),
+        audit,
+        reads,
+        path.resolve(config.UPLOAD_DIR),
+      ),
     ),
-    ...outboxRoutes(dataSource),
+    ...outboxRoutes(createOutboxService(createOutboxRepository(dataSource))),
     ...sessionRoutes(sessionService, discharge),
-    ...staffRoutes(dataSource),
+    ...staffRoutes(people),
     ...auditRoutes(createAuditService(audit)),
     ...reviewRoutes(
       createReviewService({
-        dataSource,
+        unitOfWork,
+        clock,
         reviews: createReviewRepository(dataSource),
         sessions: sessionService,
         audit,
@@ -205,8 +224,8 @@ export function createApp({
     next();
   });
   mountRoutes(api, routes, {
-    session: sessions.requireSession,
-    capability: sessions.requireCapability,
+    signIn: signIn.requireSignIn,
+    capability: signIn.requireCapability,
   });
   api.use((req, _res, next) =>
     next(AppError.notFound(`There is no API route ${req.method} ${req.baseUrl}${req.path}.`)),

@@ -3,19 +3,21 @@ import cluster from 'node:cluster';
 import type { Server } from 'node:http';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { DataSource } from 'typeorm';
 import { createApp } from './app';
+import { systemClock, type Clock } from './clock';
 import { loadConfig, type Config } from './config';
 import { appDataSource } from './db/options';
+import type { Database } from './db/unit-of-work';
 import { createSmtpMailer, type Mailer } from './mail/mailer';
 import { createOutboxWorker, type OutboxWorker } from './mail/outbox';
+import { createOutboxRepository } from './mail/outbox-repository';
 import { loadShippedProtocols } from './protocols/load-shipped';
 import { recomputeRunningSessions } from './sessions/recover';
 
 export interface RunningWebServer {
   url: string;
   server: Server;
-  dataSource: DataSource;
+  dataSource: Database;
   mailer: Mailer;
   outbox: OutboxWorker;
   config: Config;
@@ -26,15 +28,16 @@ export interface RunningWebServer {
  * if one differs from its stored version) and listens. Migrations are not run here.
  */
 export async function startWebServer(
-  options: { config?: Config; clientDir?: string; port?: number; now?: () => number } = {},
+  options: { config?: Config; clientDir?: string; port?: number; clock?: Clock } = {},
 ): Promise<RunningWebServer> {
   const config = options.config ?? loadConfig();
+  const clock = options.clock ?? systemClock;
   const dataSource = appDataSource(config);
   await dataSource.initialize();
   try {
     const { added } = await loadShippedProtocols(dataSource);
     if (added.length) console.log(`• Protocol versions loaded: ${added.join(', ')}`);
-    const resumed = await recomputeRunningSessions(dataSource, config.UNIT_TIME_ZONE);
+    const resumed = await recomputeRunningSessions(dataSource, config.UNIT_TIME_ZONE, clock);
     if (resumed) console.log(`• Sessions in progress brought up to date: ${resumed}`);
   } catch (error) {
     await dataSource.destroy();
@@ -46,9 +49,9 @@ export async function startWebServer(
     dataSource,
     mailer,
     clientDir: options.clientDir,
-    now: options.now,
+    clock,
   });
-  const outbox = createOutboxWorker(dataSource, mailer);
+  const outbox = createOutboxWorker(createOutboxRepository(dataSource), mailer, clock);
   outbox.start();
   const port = options.port ?? config.PORT;
   const server = await new Promise<Server>((resolve, reject) => {

@@ -1,35 +1,32 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { chmod, mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import type { DataSource } from 'typeorm';
 import type { AuditRepository } from '../audit/repository';
 import type { Reader, ReadAudit } from '../audit/service';
-import { Attachment } from '../db/entities/attachment';
-import { TreatmentOrder } from '../db/entities/treatment-order';
 import { AppError } from '../http/app-error';
 import { detectFileType, extensionOf } from './file-type';
+import type { AttachmentRepository } from './repository';
 
 export const attachmentMaxBytes = 10 * 1024 * 1024;
 
 export function createAttachmentService(
-  dataSource: DataSource,
+  attachments: AttachmentRepository,
   audit: AuditRepository,
   reads: ReadAudit,
   uploadDir: string,
 ) {
-  const attachments = dataSource.getRepository(Attachment);
   return {
     async add(
       actor: { id: number; ipAddress?: string | null },
       orderId: number,
       file: { originalname: string; buffer: Buffer },
     ) {
-      const order = await dataSource.getRepository(TreatmentOrder).findOneBy({ id: orderId });
-      if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
-      if (order.status !== 'draft')
+      const status = await attachments.orderStatus(orderId);
+      if (!status) throw AppError.notFound(`There is no order ${orderId}.`);
+      if (status !== 'draft')
         throw AppError.conflict(
           'order_signed',
-          `Order ${orderId} is ${order.status}; reports are attached before signing.`,
+          `Order ${orderId} is ${status}; reports are attached before signing.`,
         );
       const type = detectFileType(file.buffer);
       if (!type) {
@@ -52,17 +49,15 @@ export function createAttachmentService(
           .basename(file.originalname)
           .replace(/[^\w.\- ()]/g, '_')
           .slice(0, 200) || `report.${type.extension}`;
-      const saved = await attachments.save(
-        attachments.create({
-          orderId,
-          fileName,
-          mimeType: type.mimeType,
-          sizeBytes: file.buffer.length,
-          sha256,
-          storageName,
-          uploadedBy: actor.id,
-        }),
-      );
+      const saved = await attachments.add({
+        orderId,
+        fileName,
+        mimeType: type.mimeType,
+        sizeBytes: file.buffer.length,
+        sha256,
+        storageName,
+        uploadedBy: actor.id,
+      });
       await audit.append({
         actorUserId: actor.id,
         action: 'attachment.added',
@@ -87,7 +82,7 @@ export function createAttachmentService(
      * "report.html.pdf", so it never opens as a web page).
      */
     async read(id: number, reader: Reader) {
-      const row = await attachments.findOneBy({ id });
+      const row = await attachments.findById(id);
       if (!row) throw AppError.notFound(`There is no attachment ${id}.`);
       await reads.note(reader, {
         action: 'attachment.viewed',

@@ -1,3 +1,4 @@
+import type { Clock } from '../clock';
 import type { AuditRepository } from './repository';
 
 /** Repeated reads of one record by one person within this window make one audit row (the first). */
@@ -18,7 +19,7 @@ export interface Reader {
  * minute (per API process). Exports are never batched: each one is a copy leaving the system.
  * The row is written before the data is sent; if it cannot be written, nothing is read.
  */
-export function createReadAudit(audit: AuditRepository, now: () => number = Date.now) {
+export function createReadAudit(audit: AuditRepository, clock: Clock) {
   const lastNoted = new Map<string, number>();
   return {
     async note(
@@ -31,7 +32,7 @@ export function createReadAudit(audit: AuditRepository, now: () => number = Date
       },
     ) {
       const key = `${reader.id}|${read.action}|${read.entityType}|${read.entityId}`;
-      const at = now();
+      const at = clock.now().getTime();
       if (read.action !== 'export.downloaded') {
         const last = lastNoted.get(key);
         if (last !== undefined && at - last < readAuditWindowMs) return;

@@ -1,4 +1,5 @@
-import type { DataSource, EntityManager } from 'typeorm';
+import type { DataSource } from 'typeorm';
+import { managerOf, type Transaction } from '../db/unit-of-work';
 import type { PasswordLinkPurpose } from '../db/entities/password-link';
 
 export interface PasswordLinkRow {
@@ -14,7 +15,7 @@ export function createPasswordLinkRepository(dataSource: DataSource) {
   return {
     /** A new link replaces any the person still had. */
     async insert(
-      manager: EntityManager,
+      tx: Transaction,
       link: {
         tokenHash: string;
         userId: number;
@@ -23,11 +24,11 @@ export function createPasswordLinkRepository(dataSource: DataSource) {
         lifetimeS: number;
       },
     ): Promise<void> {
-      await manager.query(
+      await managerOf(tx).query(
         'UPDATE password_link SET used_at = NOW(3) WHERE user_id = ? AND used_at IS NULL',
         [link.userId],
       );
-      await manager.query(
+      await managerOf(tx).query(
         'INSERT INTO password_link (token_hash, user_id, purpose, created_by, expires_at) VALUES (?, ?, ?, ?, NOW(3) + INTERVAL ? SECOND)',
         [link.tokenHash, link.userId, link.purpose, link.createdBy, Math.round(link.lifetimeS)],
       );
@@ -50,8 +51,8 @@ export function createPasswordLinkRepository(dataSource: DataSource) {
     },
 
     /** Marks the link used if it still works; false when another request used it first or it ran out. */
-    async consume(manager: EntityManager, id: number): Promise<boolean> {
-      const result = await manager.query(
+    async consume(tx: Transaction, id: number): Promise<boolean> {
+      const result = await managerOf(tx).query(
         'UPDATE password_link SET used_at = NOW(3) WHERE id = ? AND used_at IS NULL AND expires_at > NOW(3)',
         [id],
       );

@@ -1,8 +1,8 @@
 import { createHash, randomBytes } from 'node:crypto';
-import type { DataSource, EntityManager } from 'typeorm';
 import type { Config } from '../config';
 import type { PasswordLinkPurpose } from '../db/entities/password-link';
-import { enqueueMessage } from '../mail/outbox';
+import type { Transaction, UnitOfWork } from '../db/unit-of-work';
+import { enqueueMessage } from '../mail/outbox-repository';
 import type { PasswordLinkRepository } from './password-link-repository';
 
 export const hashLinkToken = (token: string) => createHash('sha256').update(token).digest('hex');
@@ -16,7 +16,7 @@ export function publicUrl(config: Pick<Config, 'PUBLIC_URL' | 'HOST' | 'PORT'>):
 
 /** Makes one-time links to set a password and e-mails them through the outbox. */
 export function createPasswordLinks(
-  dataSource: DataSource,
+  unitOfWork: UnitOfWork,
   links: PasswordLinkRepository,
   config: Config,
 ) {
@@ -26,13 +26,13 @@ export function createPasswordLinks(
     : `${Math.round(lifetimeS / 60)} minutes`;
 
   async function issue(
-    manager: EntityManager,
+    tx: Transaction,
     person: { id: number },
     purpose: PasswordLinkPurpose,
     createdBy: number | null,
   ): Promise<string> {
     const token = randomBytes(32).toString('base64url');
-    await links.insert(manager, {
+    await links.insert(tx, {
       tokenHash: hashLinkToken(token),
       userId: person.id,
       purpose,
@@ -49,9 +49,7 @@ export function createPasswordLinks(
     urlOf,
     /** For the command that creates the first admin: the link is printed, not mailed. */
     async issueForPrinting(person: { id: number }): Promise<string> {
-      return urlOf(
-        await dataSource.transaction((manager) => issue(manager, person, 'new-account', null)),
-      );
+      return urlOf(await unitOfWork((tx) => issue(tx, person, 'new-account', null)));
     },
     /** Writes the link and its e-mail in one transaction: both or neither. */
     async send(
@@ -59,13 +57,13 @@ export function createPasswordLinks(
       purpose: PasswordLinkPurpose,
       createdBy: number,
     ): Promise<void> {
-      await dataSource.transaction(async (manager) => {
-        const token = await issue(manager, person, purpose, createdBy);
+      await unitOfWork(async (tx) => {
+        const token = await issue(tx, person, purpose, createdBy);
         const opening =
           purpose === 'new-account'
             ? `An account has been made for you on Luxtempo (${config.UNIT_NAME}).`
             : `An administrator has asked for you to set a new Luxtempo password (${config.UNIT_NAME}).`;
-        await enqueueMessage(manager, {
+        await enqueueMessage(tx, {
           kind: 'password-link',
           recipients: [person.email],
           subject:

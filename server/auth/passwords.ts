@@ -51,7 +51,7 @@ export async function verifyPassword(
   return { matches: false, needsUpgrade: false };
 }
 
-export const passwordMinLength = 12;
+export const minimumPasswordLength = 12;
 export const passwordMaxLength = 200;
 
 const require = createRequire(import.meta.url);
@@ -73,8 +73,8 @@ export function checkNewPassword(
   person?: { email: string },
 ): void {
   const problem =
-    [...password].length < passwordMinLength
-      ? `${field} must be at least ${passwordMinLength} characters`
+    [...password].length < minimumPasswordLength
+      ? `${field} must be at least ${minimumPasswordLength} characters`
       : [...password].length > passwordMaxLength
         ? `${field} must be at most ${passwordMaxLength} characters`
         : isCommonPassword(password)

@@ -8,14 +8,14 @@ import type { RouteSpec } from '../http/route-table';
 import { parseInput } from '../http/validation';
 import type { AuthService } from './service';
 import {
-  sessionCookieName,
-  sessionHintCookieName,
+  signInCookieName,
+  signInHintCookieName,
   signedInSessionId,
   signedInUser,
-  type Sessions,
-} from './session';
+  type SignInSessions,
+} from './sign-in-session';
 
-export function authRoutes(auth: AuthService, sessions: Sessions): RouteSpec[] {
+export function authRoutes(auth: AuthService, signIn: SignInSessions): RouteSpec[] {
   return [
     {
       method: 'post',
@@ -24,10 +24,10 @@ export function authRoutes(auth: AuthService, sessions: Sessions): RouteSpec[] {
       handler: async (req, res) => {
         const input = parseInput(loginRequestSchema, req.body);
         const user = await auth.login(input, req.ip);
-        const { token, maxAgeMs } = await sessions.issue(user.id, req.ip);
-        res.cookie(sessionCookieName, token, { ...sessions.cookieOptions, maxAge: maxAgeMs });
-        res.cookie(sessionHintCookieName, '1', {
-          ...sessions.cookieOptions,
+        const { token, maxAgeMs } = await signIn.issue(user.id, req.ip);
+        res.cookie(signInCookieName, token, { ...signIn.cookieOptions, maxAge: maxAgeMs });
+        res.cookie(signInHintCookieName, '1', {
+          ...signIn.cookieOptions,
           httpOnly: false,
           maxAge: maxAgeMs,
         });
@@ -40,9 +40,9 @@ export function authRoutes(auth: AuthService, sessions: Sessions): RouteSpec[] {
       access: 'public',
       handler: async (req, res) => {
         // Signing out always succeeds, even with an ended session; the session row is ended here.
-        await auth.logout(sessions.tokenOf(req.cookies), req.ip);
-        res.clearCookie(sessionCookieName, sessions.cookieOptions);
-        res.clearCookie(sessionHintCookieName, { ...sessions.cookieOptions, httpOnly: false });
+        await auth.logout(signIn.tokenOf(req.cookies), req.ip);
+        res.clearCookie(signInCookieName, signIn.cookieOptions);
+        res.clearCookie(signInHintCookieName, { ...signIn.cookieOptions, httpOnly: false });
         res.status(204).end();
       },
     },
@@ -61,7 +61,7 @@ export function authRoutes(auth: AuthService, sessions: Sessions): RouteSpec[] {
       handler: async (req, res) => {
         const input = parseInput(changePasswordSchema, req.body);
         await auth.changePassword(
-          { id: signedInUser(res).id, sessionId: signedInSessionId(res), ipAddress: req.ip },
+          { id: signedInUser(res).id, signInSessionId: signedInSessionId(res), ipAddress: req.ip },
           input,
         );
         res.status(204).end();

@@ -1,4 +1,3 @@
-import type { DataSource } from 'typeorm';
 import type {
   ChangePassword,
   LoginRequest,
@@ -6,14 +5,15 @@ import type {
   SetPassword,
 } from '../../shared/schemas/auth';
 import type { AuditRepository } from '../audit/repository';
+import type { UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
 import type { UserRepository } from '../people/repository';
 import type { PasswordLinkRepository } from './password-link-repository';
 import { hashLinkToken } from './password-links';
 import { checkNewPassword, hashPassword, verifyPassword } from './passwords';
 import { capabilitiesOf } from './permissions';
-import type { SignedInUser } from './session';
-import type { SignInSessionRepository } from './session-repository';
+import type { SignedInUser } from './sign-in-session';
+import type { SignInSessionRepository } from './sign-in-session-repository';
 import type { Throttle } from './throttle';
 
 const invalidCredentials = () =>
@@ -31,15 +31,22 @@ const linkGone = () =>
   );
 
 interface Deps {
-  dataSource: DataSource;
+  unitOfWork: UnitOfWork;
   users: UserRepository;
-  sessions: SignInSessionRepository;
+  signInSessions: SignInSessionRepository;
   links: PasswordLinkRepository;
   throttle: Throttle;
   audit: AuditRepository;
 }
 
-export function createAuthService({ dataSource, users, sessions, links, throttle, audit }: Deps) {
+export function createAuthService({
+  unitOfWork,
+  users,
+  signInSessions,
+  links,
+  throttle,
+  audit,
+}: Deps) {
   /**
    * Checks a person's own password, for signing in and at every signature prompt: the same
    * throttle, the same verification, and an older hash upgraded once the password is known.
@@ -112,23 +119,23 @@ export function createAuthService({ dataSource, users, sessions, links, throttle
     },
 
     async logout(
-      session: { userId: number; tokenHash: string } | null,
+      signInSession: { userId: number; tokenHash: string } | null,
       ipAddress: string | undefined,
     ): Promise<void> {
-      if (!session) return;
-      await sessions.revoke({ tokenHash: session.tokenHash }, 'signed-out');
+      if (!signInSession) return;
+      await signInSessions.revoke({ tokenHash: signInSession.tokenHash }, 'signed-out');
       await audit.append({
-        actorUserId: session.userId,
+        actorUserId: signInSession.userId,
         action: 'sign-out',
         entityType: 'user',
-        entityId: session.userId,
+        entityId: signInSession.userId,
         ipAddress,
       });
     },
 
     /** A person changes their own password; every other session of theirs ends. */
     async changePassword(
-      actor: { id: number; sessionId: string; ipAddress?: string },
+      actor: { id: number; signInSessionId: string; ipAddress?: string },
       input: ChangePassword,
     ): Promise<void> {
       const user = await users.findById(actor.id);
@@ -162,7 +169,11 @@ export function createAuthService({ dataSource, users, sessions, links, throttle
       }
       await users.setPassword(user.id, await hashPassword(input.newPassword));
       await throttle.recordSuccess({ email: user.email, ipAddress: actor.ipAddress });
-      const ended = await sessions.revokeAllOf(user.id, 'password-changed', actor.sessionId);
+      const ended = await signInSessions.revokeAllOf(
+        user.id,
+        'password-changed',
+        actor.signInSessionId,
+      );
       await audit.append({
         actorUserId: user.id,
         action: 'password.changed',
@@ -190,12 +201,12 @@ export function createAuthService({ dataSource, users, sessions, links, throttle
       if (!user || !user.active) throw linkGone();
       checkNewPassword(input.password, 'password', user);
       const passwordHash = await hashPassword(input.password);
-      await dataSource.transaction(async (manager) => {
+      await unitOfWork(async (tx) => {
         // Two tabs racing with one link: only one gets past this line.
-        if (!(await links.consume(manager, link.id))) throw linkGone();
-        await users.setPassword(user.id, passwordHash, manager);
+        if (!(await links.consume(tx, link.id))) throw linkGone();
+        await users.setPassword(user.id, passwordHash, tx);
       });
-      const ended = await sessions.revokeAllOf(user.id, 'password-set');
+      const ended = await signInSessions.revokeAllOf(user.id, 'password-set');
       await throttle.recordSuccess({ email: user.email, ipAddress });
       await audit.append({
         actorUserId: user.id,

@@ -1,6 +1,6 @@
-import type { DataSource } from 'typeorm';
 import type { Config } from '../config';
 import { AppError } from '../http/app-error';
+import type { ThrottleRepository } from './throttle-repository';
 
 /**
  * Failed password checks, counted in MariaDB per account and per network address, so every API
@@ -39,7 +39,7 @@ export function tooManyAttempts(retryAfterS: number, what = 'sign-ins'): AppErro
 }
 
 export function createThrottle(
-  dataSource: DataSource,
+  rows: ThrottleRepository,
   config: Pick<Config, 'LOGIN_FAILURE_LIMIT' | 'LOGIN_FAILURE_WINDOW_MIN'>,
 ) {
   const windowS = config.LOGIN_FAILURE_WINDOW_MIN * 60;
@@ -47,13 +47,7 @@ export function createThrottle(
 
   return {
     /** Seconds still to wait before a password may be tried for these keys; 0 when none. */
-    async waitS(keys: ThrottleKeys): Promise<number> {
-      const rows: { waitS: number | string | null }[] = await dataSource.query(
-        'SELECT CEIL(TIMESTAMPDIFF(MICROSECOND, NOW(3), wait_until) / 1000000) AS waitS FROM sign_in_throttle WHERE throttle_key IN (?) AND wait_until > NOW(3)',
-        [keysOf(keys)],
-      );
-      return rows.reduce((longest, row) => Math.max(longest, Number(row.waitS ?? 0)), 0);
-    },
+    waitS: (keys: ThrottleKeys): Promise<number> => rows.longestWaitS(keysOf(keys)),
 
     /** Refuses with 429 and the wait when one is running. */
     async assertMayTry(keys: ThrottleKeys, what?: string): Promise<void> {
@@ -63,26 +57,15 @@ export function createThrottle(
 
     /**
      * Counts one failure on each key. Failures older than the window are forgotten first; past the
-     * limit the wait doubles with each failure. One statement per key, so processes never race.
+     * limit the wait doubles with each failure.
      */
     async recordFailure(keys: ThrottleKeys): Promise<void> {
-      for (const key of keysOf(keys)) {
-        await dataSource.query(
-          `INSERT INTO sign_in_throttle (throttle_key, failures, last_failure_at, wait_until) VALUES (?, 1, NOW(3), IF(1 >= ?, NOW(3) + INTERVAL ? SECOND, NULL))
-           ON DUPLICATE KEY UPDATE
-             failures = IF(last_failure_at < NOW(3) - INTERVAL ? SECOND, 1, failures + 1),
-             last_failure_at = NOW(3),
-             wait_until = IF(failures >= ?, NOW(3) + INTERVAL LEAST(?, ? * POW(2, LEAST(CAST(failures AS SIGNED) - ?, 20))) SECOND, NULL)`,
-          [key, limit, firstWaitS, windowS, limit, windowS, firstWaitS, limit],
-        );
-      }
+      for (const key of keysOf(keys)) await rows.countFailure(key, { limit, windowS, firstWaitS });
     },
 
     /** The right password for an account clears that account's count (an address keeps its own). */
     async recordSuccess(keys: ThrottleKeys): Promise<void> {
-      await dataSource.query('DELETE FROM sign_in_throttle WHERE throttle_key = ?', [
-        keysOf(keys)[0],
-      ]);
+      await rows.clear(keysOf(keys)[0]!);
     },
   };
 }

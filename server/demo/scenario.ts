@@ -10,6 +10,7 @@ import { createAuditRepository } from '../audit/repository';
 import { ProtocolVersion } from '../db/entities/protocol-version';
 import { SessionEventRow } from '../db/entities/session-event';
 import { TreatmentOrder } from '../db/entities/treatment-order';
+import { asTransaction } from '../db/unit-of-work';
 import { createPatientRepository } from '../patients/repository';
 import { createUserRepository } from '../people/repository';
 import { addParticipant, createSessionRepository, recordOrderFacts } from '../sessions/repository';
@@ -345,7 +346,7 @@ export async function seedDemoScenario(
         order.id,
       ]);
       await patients.recordMeasurement(
-        manager,
+        asTransaction(manager),
         { patientId: who.id, orderId: order.id, measuredAt: signedAt },
         item.inputs,
       );
@@ -404,7 +405,7 @@ export async function seedDemoScenario(
       for (const row of rows)
         (row.payload as { idempotencyKey: string }).idempotencyKey = row.idempotencyKey;
       await manager.getRepository(SessionEventRow).insert(rows);
-      const events = await sessions.eventsFor(order.id, manager);
+      const events = await sessions.eventsFor(order.id, asTransaction(manager));
       const record = deriveDoseRecord({ protocol: pv.definition, plan, events });
       const found = findDeviations({
         protocol: pv.definition,
@@ -414,24 +415,30 @@ export async function seedDemoScenario(
         preparation,
         unitTimeZone,
       });
-      await sessions.reconcileDeviations(manager, order.id, pv.id, found);
+      await sessions.reconcileDeviations(
+        asTransaction(manager),
+        order.id,
+        pv.id,
+        found,
+        new Date(startMs + 3600_000),
+      );
       // Deviations belong to the session's day, for the monthly figures; dated before the record
       // exists, because an ended session's deviations are closed to change (migration DatabaseIntegrity).
       await manager.query('UPDATE deviation SET detected_at = ? WHERE order_id = ?', [
         new Date(startMs + 3600_000),
         order.id,
       ]);
-      await sessions.saveRecord(manager, order.id, record, {
+      await sessions.saveRecord(asTransaction(manager), order.id, record, {
         protocolVersionId: pv.id,
         unitTimeZone,
         deviationCount: found.length,
         order: recordOrderFacts({ eye: item.eye, patientId: who.id, plan }),
       });
-      await addParticipant(manager, order.id, clinician.id, 'ordered');
-      await addParticipant(manager, order.id, nurse.id, 'nursed');
+      await addParticipant(asTransaction(manager), order.id, clinician.id, 'ordered');
+      await addParticipant(asTransaction(manager), order.id, nurse.id, 'nursed');
       if (preparation) {
-        await addParticipant(manager, order.id, pharmacist.id, 'checked');
-        await addParticipant(manager, order.id, pharmacist.id, 'prepared');
+        await addParticipant(asTransaction(manager), order.id, pharmacist.id, 'checked');
+        await addParticipant(asTransaction(manager), order.id, pharmacist.id, 'prepared');
       }
     });
     added++;
@@ -500,7 +507,7 @@ export async function seedDemoScenario(
     });
     if (signed)
       await patients.recordMeasurement(
-        dataSource.manager,
+        asTransaction(dataSource.manager),
         { patientId: who.id, orderId: saved.id, measuredAt: signedAt },
         item.inputs,
       );

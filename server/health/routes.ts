@@ -1,8 +1,8 @@
-import type { DataSource } from 'typeorm';
 import type { RouteSpec } from '../http/route-table';
+import type { HealthService } from './service';
 
 export function healthRoutes(
-  dataSource: DataSource,
+  health: HealthService,
   unit: { name: string; timeZone: string; locale: string; phone: string },
 ): RouteSpec[] {
   return [
@@ -23,19 +23,8 @@ export function healthRoutes(
         // Which process answered: lets operators and the fault tests tell instances apart.
         res.set('X-Luxtempo-Pid', String(process.pid));
         res.set('X-Luxtempo-Parent-Pid', String(process.ppid));
-        const started = performance.now();
-        try {
-          await dataSource.query('SELECT 1');
-          res.json({
-            status: 'ok',
-            database: {
-              status: 'up',
-              latencyMs: Math.round((performance.now() - started) * 10) / 10,
-            },
-          });
-        } catch {
-          res.status(503).json({ status: 'degraded', database: { status: 'down' } });
-        }
+        const result = await health.check();
+        res.status(result.status === 'ok' ? 200 : 503).json(result);
       },
     },
   ];

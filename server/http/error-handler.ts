@@ -19,24 +19,20 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   if (err instanceof AppError) {
     if (err.retryAfterS !== undefined)
       res.setHeader('Retry-After', String(Math.max(1, Math.ceil(err.retryAfterS))));
-    res
-      .status(err.status)
-      .json({
-        error: {
-          code: err.code,
-          message: err.message,
-          ...(err.fields ? { fields: err.fields } : {}),
-        },
-      });
+    res.status(err.status).json({
+      error: {
+        code: err.code,
+        message: err.message,
+        ...(err.fields ? { fields: err.fields } : {}),
+      },
+    });
     return;
   }
   if (err instanceof ZodError) {
     const fields = fieldProblemsFromZod(err);
-    res
-      .status(400)
-      .json({
-        error: { code: 'invalid_input', message: fields.map((f) => f.message).join('; '), fields },
-      });
+    res.status(400).json({
+      error: { code: 'invalid_input', message: fields.map((f) => f.message).join('; '), fields },
+    });
     return;
   }
   // Body parser failures: unreadable JSON or a body over the size limit.
@@ -47,15 +43,13 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
         ? err.statusCode
         : 0;
   if (err?.type === 'entity.parse.failed') {
-    res
-      .status(400)
-      .json({
-        error: {
-          code: 'invalid_json',
-          message: 'The request body is not valid JSON.',
-          fields: [{ path: 'body', message: 'body must be valid JSON' }],
-        },
-      });
+    res.status(400).json({
+      error: {
+        code: 'invalid_json',
+        message: 'The request body is not valid JSON.',
+        fields: [{ path: 'body', message: 'body must be valid JSON' }],
+      },
+    });
     return;
   }
   if (err?.type === 'entity.too.large') {
@@ -83,14 +77,12 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   }
   const code = err?.code ?? err?.driverError?.code;
   if (databaseDownCodes.has(code)) {
-    res
-      .status(503)
-      .json({
-        error: {
-          code: 'database_unavailable',
-          message: 'The database is not answering. Nothing was saved; try again in a moment.',
-        },
-      });
+    res.status(503).json({
+      error: {
+        code: 'database_unavailable',
+        message: 'The database is not answering. Nothing was saved; try again in a moment.',
+      },
+    });
     return;
   }
   // A database trigger kept a signed or closed record as it was (SIGNAL SQLSTATE '45000'): the
@@ -100,23 +92,19 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
       'A database rule refused a change:',
       err?.sqlMessage ?? err?.driverError?.sqlMessage,
     );
-    res
-      .status(409)
-      .json({
-        error: {
-          code: 'record_kept',
-          message: `${err?.sqlMessage ?? err?.driverError?.sqlMessage ?? 'The record cannot be changed.'} Nothing was saved.`,
-        },
-      });
+    res.status(409).json({
+      error: {
+        code: 'record_kept',
+        message: `${err?.sqlMessage ?? err?.driverError?.sqlMessage ?? 'The record cannot be changed.'} Nothing was saved.`,
+      },
+    });
     return;
   }
   console.error('Unexpected error:', err);
-  res
-    .status(500)
-    .json({
-      error: {
-        code: 'internal',
-        message: 'Something went wrong on the server. Nothing more was saved; please try again.',
-      },
-    });
+  res.status(500).json({
+    error: {
+      code: 'internal',
+      message: 'Something went wrong on the server. Nothing more was saved; please try again.',
+    },
+  });
 };

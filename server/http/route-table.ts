@@ -15,7 +15,7 @@ export interface RouteSpec {
 }
 
 export interface AccessGuards {
-  session: RequestHandler;
+  signIn: RequestHandler;
   capability: (capability: Capability) => RequestHandler;
 }
 
@@ -26,7 +26,7 @@ export interface AccessGuards {
 export function mountRoutes(router: Router, specs: RouteSpec[], guards: AccessGuards): void {
   for (const spec of specs) {
     const checks: RequestHandler[] = [];
-    if (spec.access !== 'public') checks.push(guards.session);
+    if (spec.access !== 'public') checks.push(guards.signIn);
     if (spec.access !== 'public' && spec.access !== 'signed-in')
       checks.push(guards.capability(spec.access));
     // Express 5 passes a rejected promise from a handler on to the error middleware.

@@ -1,27 +1,6 @@
-import { In, type DataSource, type EntityManager } from 'typeorm';
-import { OutboxMessage } from '../db/entities/outbox-message';
+import type { Clock } from '../clock';
 import type { Mailer } from './mailer';
-
-export interface NewMessage {
-  kind: string;
-  recipients: string[];
-  subject: string;
-  body: string;
-  related?: { type: string; id: string | number };
-}
-
-/** Writes a message to the outbox; pass the transaction's manager so mail and change commit together. */
-export async function enqueueMessage(manager: EntityManager, message: NewMessage): Promise<void> {
-  if (message.recipients.length === 0) return;
-  await manager.getRepository(OutboxMessage).insert({
-    kind: message.kind,
-    recipients: message.recipients,
-    subject: message.subject,
-    body: message.body,
-    relatedType: message.related?.type ?? null,
-    relatedId: message.related ? String(message.related.id) : null,
-  });
-}
+import type { OutboxRepository } from './outbox-repository';
 
 /** Seconds before attempt n+1: 5, 10, 20, … up to 15 minutes. The outbox never gives up on a dead server. */
 export function retryDelayS(attempts: number): number {
@@ -39,64 +18,42 @@ const secretKinds = new Set(['password-link']);
  * a message twice, and a worker that dies mid-send only delays its batch by the lease.
  */
 export function createOutboxWorker(
-  dataSource: DataSource,
+  outbox: OutboxRepository,
   mailer: Mailer,
+  clock: Clock,
   options: { intervalMs?: number; batchSize?: number } = {},
 ) {
-  const repo = dataSource.getRepository(OutboxMessage);
   let timer: NodeJS.Timeout | undefined;
   let running: Promise<number> | undefined;
 
-  async function claimBatch(): Promise<OutboxMessage[]> {
-    return dataSource.transaction(async (manager) => {
-      const rows: { id: number }[] = await manager.query(
-        `SELECT id FROM outbox_message WHERE status = 'pending' AND next_attempt_at <= NOW(3) ORDER BY id LIMIT ? FOR UPDATE SKIP LOCKED`,
-        [options.batchSize ?? 20],
-      );
-      if (rows.length === 0) return [];
-      const ids = rows.map((r) => r.id);
-      await manager.query(
-        `UPDATE outbox_message SET next_attempt_at = NOW(3) + INTERVAL ? SECOND WHERE id IN (?)`,
-        [leaseS, ids],
-      );
-      return manager.getRepository(OutboxMessage).findBy({ id: In(ids) });
-    });
-  }
-
   async function runOnce(): Promise<number> {
-    const batch = await claimBatch();
+    const batch = await outbox.claimDue(options.batchSize ?? 20, leaseS);
     let sent = 0;
     for (const message of batch) {
       const attempts = message.attempts + 1;
       try {
         await mailer.send({ to: message.recipients, subject: message.subject, text: message.body });
-        await repo.update(
-          { id: message.id },
-          {
-            status: 'sent',
-            attempts,
-            sentAt: new Date(),
-            lastError: null,
-            ...(secretKinds.has(message.kind)
-              ? { body: '(removed once delivered: it held a one-time link)' }
-              : {}),
-          },
-        );
+        await outbox.update(message.id, {
+          status: 'sent',
+          attempts,
+          sentAt: clock.now(),
+          lastError: null,
+          ...(secretKinds.has(message.kind)
+            ? { body: '(removed once delivered: it held a one-time link)' }
+            : {}),
+        });
         sent++;
       } catch (error) {
         const responseCode = (error as { responseCode?: number }).responseCode;
         // A 5xx answer means the server refused this message for good; anything else is retried.
         const permanent =
           typeof responseCode === 'number' && responseCode >= 500 && responseCode < 600;
-        await repo.update(
-          { id: message.id },
-          {
-            status: permanent ? 'failed' : 'pending',
-            attempts,
-            lastError: String((error as Error).message ?? error).slice(0, 500),
-            nextAttemptAt: new Date(Date.now() + retryDelayS(attempts) * 1000),
-          },
-        );
+        await outbox.update(message.id, {
+          status: permanent ? 'failed' : 'pending',
+          attempts,
+          lastError: String((error as Error).message ?? error).slice(0, 500),
+          nextAttemptAt: new Date(clock.now().getTime() + retryDelayS(attempts) * 1000),
+        });
       }
     }
     return sent;

@@ -1,4 +1,4 @@
-import { In, type DataSource, type EntityManager } from 'typeorm';
+import { In, type DataSource } from 'typeorm';
 import { canMoveOrder } from '../../shared/orders/lifecycle';
 import type { OrderListQuery, OrderStatus } from '../../shared/schemas/orders';
 import { AppError } from '../http/app-error';
@@ -7,6 +7,7 @@ import { Attachment } from '../db/entities/attachment';
 import { DoseCheck } from '../db/entities/dose-check';
 import { Preparation } from '../db/entities/preparation';
 import { TreatmentOrder } from '../db/entities/treatment-order';
+import { managerOf, type Transaction } from '../db/unit-of-work';
 
 const withParts = {
   patient: true,
@@ -27,7 +28,7 @@ const sortColumns: Record<OrderListQuery['sort'], string> = {
  * must still be in the status the caller read (compare and set), so two writers cannot both win.
  */
 export async function moveOrderStatus(
-  manager: EntityManager,
+  tx: Transaction,
   id: number,
   from: OrderStatus,
   to: OrderStatus,
@@ -36,7 +37,7 @@ export async function moveOrderStatus(
   if (from === to) return;
   if (!canMoveOrder(from, to))
     throw AppError.conflict('status_move_refused', `Order ${id} cannot go from ${from} to ${to}.`);
-  const result = await manager
+  const result = await managerOf(tx)
     .getRepository(TreatmentOrder)
     .update({ id, status: from }, { ...changes, status: to });
   if (result.affected !== 1)
@@ -50,8 +51,8 @@ export function createOrderRepository(dataSource: DataSource) {
   const orders = dataSource.getRepository(TreatmentOrder);
   return {
     /** One order with its parts; its protocol definition is checked against the fingerprint it was planned on. */
-    async findById(id: number, manager?: EntityManager) {
-      const order = await (manager?.getRepository(TreatmentOrder) ?? orders).findOne({
+    async findById(id: number, tx?: Transaction) {
+      const order = await (managerOf(tx)?.getRepository(TreatmentOrder) ?? orders).findOne({
         where: { id },
         relations: withParts,
       });
@@ -63,8 +64,8 @@ export function createOrderRepository(dataSource: DataSource) {
      * What a session event needs of its order, read and locked in one statement: events of one
      * order are handled one at a time, and the definition comes from the protocol cache.
      */
-    async lockForSession(manager: EntityManager, id: number) {
-      const [row] = await manager.query(
+    async lockForSession(tx: Transaction, id: number) {
+      const [row] = await managerOf(tx).query(
         // The order's row and its own preparation row, nothing shared: a join to the protocol
         // version would lock that row too, and every session on one protocol would then wait for
         // every other.
@@ -96,23 +97,20 @@ export function createOrderRepository(dataSource: DataSource) {
     },
 
     /** Locks the order row for the rest of the transaction: status changes never race. */
-    lockById: (manager: EntityManager, id: number) =>
-      manager
+    lockById: (tx: Transaction, id: number) =>
+      managerOf(tx)
         .getRepository(TreatmentOrder)
         .findOne({ where: { id }, lock: { mode: 'pessimistic_write' } }),
 
-    save: (manager: EntityManager, order: Partial<TreatmentOrder>) =>
-      manager.getRepository(TreatmentOrder).save(order),
+    save: (tx: Transaction, order: Partial<TreatmentOrder>) =>
+      managerOf(tx).getRepository(TreatmentOrder).save(order),
 
     /** Changes other than the status; a status moves only through `moveOrderStatus`. */
-    update: (
-      manager: EntityManager,
-      id: number,
-      changes: Omit<Partial<TreatmentOrder>, 'status'>,
-    ) => manager.getRepository(TreatmentOrder).update({ id }, changes),
+    update: (tx: Transaction, id: number, changes: Omit<Partial<TreatmentOrder>, 'status'>) =>
+      managerOf(tx).getRepository(TreatmentOrder).update({ id }, changes),
 
-    nextRevisionOf: (id: number, manager?: EntityManager) =>
-      (manager?.getRepository(TreatmentOrder) ?? orders).findOne({
+    nextRevisionOf: (id: number, tx?: Transaction) =>
+      (managerOf(tx)?.getRepository(TreatmentOrder) ?? orders).findOne({
         where: { previousRevisionId: id },
         select: { id: true, status: true },
       }),
@@ -184,21 +182,24 @@ export function createOrderRepository(dataSource: DataSource) {
         take: 200,
       }),
 
-    doseChecksFor: (orderId: number, manager?: EntityManager) =>
-      (manager?.getRepository(DoseCheck) ?? dataSource.getRepository(DoseCheck)).find({
+    doseChecksFor: (orderId: number, tx?: Transaction) =>
+      (managerOf(tx)?.getRepository(DoseCheck) ?? dataSource.getRepository(DoseCheck)).find({
         where: { orderId },
         relations: { pharmacist: true },
         order: { id: 'ASC' },
       }),
 
     addDoseCheck: (
-      manager: EntityManager,
+      tx: Transaction,
       check: Omit<DoseCheck, 'id' | 'createdAt' | 'order' | 'pharmacist'>,
-    ) => manager.getRepository(DoseCheck).save(manager.getRepository(DoseCheck).create(check)),
+    ) =>
+      managerOf(tx)
+        .getRepository(DoseCheck)
+        .save(managerOf(tx).getRepository(DoseCheck).create(check)),
 
-    preparationFor: (orderId: number, manager?: EntityManager) =>
+    preparationFor: (orderId: number, tx?: Transaction) =>
       // The latest counts: a drug past its beyond-use time is made up again.
-      (manager?.getRepository(Preparation) ?? dataSource.getRepository(Preparation)).findOne({
+      (managerOf(tx)?.getRepository(Preparation) ?? dataSource.getRepository(Preparation)).findOne({
         where: { orderId },
         relations: { pharmacist: true },
         order: { id: 'DESC' },
@@ -211,12 +212,12 @@ export function createOrderRepository(dataSource: DataSource) {
         .find({ where: { orderId }, relations: { pharmacist: true }, order: { id: 'ASC' } }),
 
     addPreparation: (
-      manager: EntityManager,
+      tx: Transaction,
       preparation: Omit<Preparation, 'id' | 'createdAt' | 'order' | 'pharmacist'>,
     ) =>
-      manager
+      managerOf(tx)
         .getRepository(Preparation)
-        .save(manager.getRepository(Preparation).create(preparation)),
+        .save(managerOf(tx).getRepository(Preparation).create(preparation)),
 
     attachmentsFor: (orderId: number) =>
       dataSource.getRepository(Attachment).find({ where: { orderId }, order: { id: 'ASC' } }),

@@ -5,35 +5,18 @@ import {
   signOrderSchema,
   updateOrderSchema,
 } from '../../shared/schemas/orders';
-import { signedInUser } from '../auth/session';
+import { signedInUser } from '../auth/sign-in-session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
-import type { OrderRepository } from './repository';
 import type { Actor, OrderService } from './service';
-import { todayLists } from './today';
 
 export function actorOf(req: { ip?: string }, res: Parameters<typeof signedInUser>[0]): Actor {
   const user = signedInUser(res);
   return { id: user.id, roles: user.roles, ipAddress: req.ip };
 }
 
-export function orderRoutes(
-  orders: OrderService,
-  repository: OrderRepository,
-  now: () => number = Date.now,
-): RouteSpec[] {
+export function orderRoutes(orders: OrderService): RouteSpec[] {
   return [
-    {
-      method: 'get',
-      path: '/today',
-      access: 'today.view',
-      handler: async (req, res) => {
-        res.json({
-          lists: await todayLists(repository, actorOf(req, res)),
-          serverTime: new Date(now()).toISOString(),
-        });
-      },
-    },
     {
       method: 'get',
       path: '/orders',

@@ -1,7 +1,4 @@
 import { DateTime } from 'luxon';
-import type { DataSource, EntityManager } from 'typeorm';
-import { computePlan } from '../../shared/engine/compute-plan';
-import { PlanInputError } from '../../shared/engine/plan-input-error';
 import { amendableStatuses, treatmentStatuses } from '../../shared/orders/lifecycle';
 import { answeredCautions, signatureProblems } from '../../shared/orders/readiness';
 import {
@@ -22,13 +19,16 @@ import type {
 } from '../../shared/schemas/orders';
 import type { Role } from '../../shared/roles';
 import type { AuditRepository } from '../audit/repository';
+import type { Clock } from '../clock';
 import type { ReadAudit } from '../audit/service';
+import { planFromEngine } from '../calculations/service';
 import type { ProtocolForUse } from '../protocols/repository';
 import type { TreatmentOrder } from '../db/entities/treatment-order';
 import type { User } from '../db/entities/user';
 import { isDuplicateKey } from '../db/errors';
+import type { Transaction, UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
-import { enqueueMessage } from '../mail/outbox';
+import { enqueueMessage } from '../mail/outbox-repository';
 import type { UserRepository } from '../people/repository';
 import type { PatientRepository } from '../patients/repository';
 import type { ProtocolService } from '../protocols/service';
@@ -98,7 +98,8 @@ export function planIsWithheldFrom(order: TreatmentOrder, viewer: Actor): boolea
 }
 
 export function createOrderService(deps: {
-  dataSource: DataSource;
+  unitOfWork: UnitOfWork;
+  clock: Clock;
   orders: OrderRepository;
   patients: PatientRepository;
   users: UserRepository;
@@ -115,7 +116,8 @@ export function createOrderService(deps: {
   ) => Promise<boolean>;
 }) {
   const {
-    dataSource,
+    unitOfWork,
+    clock,
     orders,
     patients,
     users,
@@ -127,12 +129,7 @@ export function createOrderService(deps: {
   } = deps;
 
   function plan(row: ProtocolForUse, inputs: OrderDraft['inputs']): DosePlan {
-    try {
-      return computePlan(row.definition, inputs);
-    } catch (error) {
-      if (error instanceof PlanInputError) throw AppError.badRequest(error.message, error.fields);
-      throw error;
-    }
+    return planFromEngine(row.definition, inputs);
   }
 
   /**
@@ -191,7 +188,7 @@ export function createOrderService(deps: {
   ): Promise<number | null> {
     const minDays = row.definition.retreatmentMinDays;
     if (!minDays) return null;
-    const since = new Date(Date.now() - minDays * 86_400_000);
+    const since = new Date(clock.now().getTime() - minDays * 86_400_000);
     // An amendment replaces its earlier revision; that one is not a previous treatment.
     const excluded = [order.id, order.previousRevisionId].filter(
       (id): id is number => typeof id === 'number',
@@ -206,7 +203,7 @@ export function createOrderService(deps: {
     );
     if (recent.length === 0) return null;
     const last = recent.map((o) => (o.signedAt ?? o.createdAt).getTime()).sort((a, b) => b - a)[0]!;
-    return Math.floor((Date.now() - last) / 86_400_000);
+    return Math.floor((clock.now().getTime() - last) / 86_400_000);
   }
 
   /** The change from the patient's last recorded weight, when it needs a reason under the unit's rule. */
@@ -228,7 +225,12 @@ export function createOrderService(deps: {
         withWeight: true,
       }),
     );
-    return weightChangeNeedingReason(last, order.inputs.weight, Date.now(), weightChangeRule);
+    return weightChangeNeedingReason(
+      last,
+      order.inputs.weight,
+      clock.now().getTime(),
+      weightChangeRule,
+    );
   }
 
   async function mustFind(id: number): Promise<TreatmentOrder> {
@@ -319,7 +321,7 @@ export function createOrderService(deps: {
     input: OrderDraft,
     base: Partial<TreatmentOrder>,
     action: string,
-    guard?: (manager: EntityManager) => Promise<void>,
+    guard?: (tx: Transaction) => Promise<void>,
   ) {
     const patient = await patients.findById(input.patientId);
     if (!patient)
@@ -328,7 +330,7 @@ export function createOrderService(deps: {
       ]);
     const row = await approvedProtocol(input.protocol.key, input.protocol.version);
     const computed = await planOrRefuse(actor, row, input.inputs, base.id ?? null);
-    const save = async (m: EntityManager) => {
+    const save = async (m: Transaction) => {
       await guard?.(m);
       const saved = await orders.save(m, {
         ...base,
@@ -350,7 +352,7 @@ export function createOrderService(deps: {
       });
       return saved;
     };
-    const saved = await dataSource.transaction(save);
+    const saved = await unitOfWork(save);
     await audit.append({
       actorUserId: actor.id,
       action,
@@ -404,9 +406,9 @@ export function createOrderService(deps: {
         amendmentReason: order.amendmentReason,
         createdById: order.createdById,
       };
-      await writeDraft(actor, input, base, 'order.draft-edited', async (manager) => {
+      await writeDraft(actor, input, base, 'order.draft-edited', async (tx) => {
         // Locked until the edit commits: a signature waits for it, then finds a newer version.
-        const locked = await orders.lockById(manager, id);
+        const locked = await orders.lockById(tx, id);
         if (!locked) throw AppError.notFound(`There is no order ${id}.`);
         stillDraft(locked);
         assertReadVersion(locked, readVersion);
@@ -443,13 +445,13 @@ export function createOrderService(deps: {
         draft,
         { revision: order.revision + 1, previousRevisionId: id, amendmentReason },
         'order.amended',
-        async (manager) => {
+        async (tx) => {
           // Two amendments of one revision queue here; the second finds the first (and the unique
           // key on the previous revision stops it even if it did not).
-          const locked = await orders.lockById(manager, id);
+          const locked = await orders.lockById(tx, id);
           if (!locked) throw AppError.notFound(`There is no order ${id}.`);
           assertReadVersion(locked, readVersion);
-          if (await orders.nextRevisionOf(id, manager)) throw alreadyAmended();
+          if (await orders.nextRevisionOf(id, tx)) throw alreadyAmended();
         },
       ).catch((error: unknown) => {
         throw isDuplicateKey(error) ? alreadyAmended() : error;
@@ -519,13 +521,13 @@ export function createOrderService(deps: {
               (u) => u.active && u.roles.includes('pharmacist') && u.id !== actor.id,
             )
           : [];
-      await dataSource.transaction(async (manager) => {
-        const locked = await orders.lockById(manager, id);
+      await unitOfWork(async (tx) => {
+        const locked = await orders.lockById(tx, id);
         if (locked?.status !== 'draft')
           throw AppError.conflict('order_signed', `Order ${id} was signed meanwhile.`);
         assertReadVersion(locked, readVersion);
-        const signedAt = new Date();
-        await moveOrderStatus(manager, id, 'draft', status, {
+        const signedAt = clock.now();
+        await moveOrderStatus(tx, id, 'draft', status, {
           plan: frozen,
           engineVersion: frozen.engineVersion,
           protocolSha256: row.sha256,
@@ -535,17 +537,17 @@ export function createOrderService(deps: {
         });
         // The patient's measurement history: what was signed, when.
         await patients.recordMeasurement(
-          manager,
+          tx,
           { patientId: order.patientId, orderId: id, measuredAt: signedAt },
           order.inputs,
         );
         if (order.previousRevisionId) {
-          const previous = await orders.lockById(manager, order.previousRevisionId);
-          if (previous) await moveOrderStatus(manager, previous.id, previous.status, 'superseded');
+          const previous = await orders.lockById(tx, order.previousRevisionId);
+          if (previous) await moveOrderStatus(tx, previous.id, previous.status, 'superseded');
         }
-        await addParticipant(manager, id, actor.id, 'ordered');
+        await addParticipant(tx, id, actor.id, 'ordered');
         if (status === 'signed') {
-          await enqueueMessage(manager, {
+          await enqueueMessage(tx, {
             kind: 'order-signed',
             recipients: pharmacists.map((u) => u.email),
             subject: `Luxtempo: order ${id} waits for a dose check`,

@@ -1,4 +1,5 @@
-import { Like, type DataSource, type EntityManager } from 'typeorm';
+import { Like, type DataSource } from 'typeorm';
+import { managerOf, type Transaction } from '../db/unit-of-work';
 import { lengthToCm, massToKg } from '../../shared/engine/units';
 import type { PlanInputs } from '../../shared/schemas/calculation';
 import type { RecordedMeasurement } from '../../shared/schemas/patients';
@@ -80,12 +81,15 @@ export function createPatientRepository(dataSource: DataSource) {
 
     /** Written once, in the signing transaction. */
     async recordMeasurement(
-      manager: EntityManager,
+      tx: Transaction,
       at: { patientId: number; orderId: number; measuredAt: Date },
       inputs: PlanInputs,
     ): Promise<void> {
       const measured = measuredFrom(inputs);
-      if (measured) await manager.getRepository(PatientMeasurement).insert({ ...at, ...measured });
+      if (measured)
+        await managerOf(tx)
+          .getRepository(PatientMeasurement)
+          .insert({ ...at, ...measured });
     },
   };
 }

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { createPatientSchema } from '../../shared/schemas/patients';
-import { signedInUser } from '../auth/session';
+import { signedInUser } from '../auth/sign-in-session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
 import type { PatientService } from './service';
@@ -26,11 +26,9 @@ export function patientRoutes(patients: PatientService): RouteSpec[] {
       access: 'patients.manage',
       handler: async (req, res) => {
         const input = parseInput(createPatientSchema, req.body);
-        res
-          .status(201)
-          .json({
-            patient: await patients.create({ id: signedInUser(res).id, ipAddress: req.ip }, input),
-          });
+        res.status(201).json({
+          patient: await patients.create({ id: signedInUser(res).id, ipAddress: req.ip }, input),
+        });
       },
     },
     {

@@ -1,9 +1,9 @@
-import type { DataSource } from 'typeorm';
 import { createAuditRepository } from '../audit/repository';
 import { createPasswordLinkRepository } from '../auth/password-link-repository';
 import { createPasswordLinks } from '../auth/password-links';
 import { noPasswordYet } from '../auth/passwords';
 import type { Config } from '../config';
+import { createUnitOfWork, type Database } from '../db/unit-of-work';
 import { createUserRepository } from './repository';
 
 /**
@@ -14,13 +14,17 @@ import { createUserRepository } from './repository';
  * (the way back in when the only administrator has lost their password).
  */
 export async function createFirstAdmin(
-  dataSource: DataSource,
+  dataSource: Database,
   config: Config,
   person: { email: string; displayName: string },
 ): Promise<{ url: string; created: boolean; expiresInHours: number }> {
   const users = createUserRepository(dataSource);
   const audit = createAuditRepository(dataSource);
-  const links = createPasswordLinks(dataSource, createPasswordLinkRepository(dataSource), config);
+  const links = createPasswordLinks(
+    createUnitOfWork(dataSource),
+    createPasswordLinkRepository(dataSource),
+    config,
+  );
   const existing = await users.findByEmail(person.email);
   if (existing && !existing.roles.includes('admin')) {
     throw new Error(

@@ -1,7 +1,8 @@
-import type { DataSource, EntityManager } from 'typeorm';
+import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/roles';
 import { RoleRequest } from '../db/entities/role-request';
 import { User } from '../db/entities/user';
+import { managerOf, type Transaction } from '../db/unit-of-work';
 
 export function createUserRepository(dataSource: DataSource) {
   const repo = dataSource.getRepository(User);
@@ -30,15 +31,20 @@ export function createUserRepository(dataSource: DataSource) {
       return repo.findOneBy({ id });
     },
     /** A password the person has just set (or one rehashed in the current format). */
-    async setPassword(
-      id: number,
-      passwordHash: string,
-      manager: EntityManager = dataSource.manager,
-    ): Promise<void> {
-      await manager.query(
+    async setPassword(id: number, passwordHash: string, tx?: Transaction): Promise<void> {
+      await (managerOf(tx) ?? dataSource.manager).query(
         'UPDATE user SET password_hash = ?, password_changed_at = NOW(3) WHERE id = ?',
         [passwordHash, id],
       );
+    },
+    /** Everyone's id, name, roles and whether they are active; nothing else (no e-mail). */
+    staff: (): Promise<{ id: number; displayName: string; roles: string; active: number }[]> =>
+      dataSource.query(
+        'SELECT id, display_name AS displayName, roles, active FROM user ORDER BY display_name',
+      ),
+    /** Roles a second administrator approved, written in the deciding transaction. */
+    async setRoles(tx: Transaction, id: number, roles: readonly Role[]): Promise<void> {
+      await managerOf(tx).query('UPDATE user SET roles = ? WHERE id = ?', [roles.join(','), id]);
     },
     async rehashPassword(id: number, previousHash: string, passwordHash: string): Promise<void> {
       // Only if nobody changed it meanwhile.
@@ -73,12 +79,12 @@ export function createRoleRequestRepository(dataSource: DataSource) {
     },
     /** Decides a request still pending; false when someone else decided it first. */
     async decide(
-      manager: EntityManager,
+      tx: Transaction,
       id: number,
       status: 'approved' | 'rejected',
       decidedBy: number,
     ): Promise<boolean> {
-      const result = await manager.query(
+      const result = await managerOf(tx).query(
         "UPDATE role_request SET status = ?, decided_by = ?, decided_at = NOW(3) WHERE id = ? AND status = 'pending'",
         [status, decidedBy, id],
       );

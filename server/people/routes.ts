@@ -1,5 +1,5 @@
 import { createPersonSchema, updatePersonSchema } from '../../shared/schemas/people';
-import { signedInUser } from '../auth/session';
+import { signedInUser } from '../auth/sign-in-session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
 import type { PeopleService } from './service';

@@ -1,4 +1,3 @@
-import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/roles';
 import {
   clinicalRoles,
@@ -10,9 +9,11 @@ import {
 import type { AuditRepository } from '../audit/repository';
 import { noPasswordYet } from '../auth/passwords';
 import type { PasswordLinks } from '../auth/password-links';
-import type { SignInSessionRepository } from '../auth/session-repository';
+import type { SignInSessionRepository } from '../auth/sign-in-session-repository';
 import type { RoleRequest } from '../db/entities/role-request';
 import type { User } from '../db/entities/user';
+import { isDuplicateKey } from '../db/errors';
+import type { UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
 import type { RoleRequestRepository, UserRepository } from './repository';
 
@@ -40,10 +41,10 @@ interface Actor {
 const isClinical = (role: Role) => (clinicalRoles as readonly Role[]).includes(role);
 
 interface Deps {
-  dataSource: DataSource;
+  unitOfWork: UnitOfWork;
   users: UserRepository;
   roleRequests: RoleRequestRepository;
-  sessions: SignInSessionRepository;
+  signInSessions: SignInSessionRepository;
   passwordLinks: PasswordLinks;
   audit: AuditRepository;
 }
@@ -53,10 +54,10 @@ interface Deps {
  * a second administrator approves; nobody can ask for one for themselves or approve their own.
  */
 export function createPeopleService({
-  dataSource,
+  unitOfWork,
   users,
   roleRequests,
-  sessions,
+  signInSessions,
   passwordLinks,
   audit,
 }: Deps) {
@@ -91,6 +92,20 @@ export function createPeopleService({
   }
 
   return {
+    /**
+     * Names and roles of the unit's staff for the auditor's filters. Only what a filter needs: no
+     * e-mail addresses.
+     */
+    async staff() {
+      const rows = await users.staff();
+      return rows.map((r) => ({
+        id: r.id,
+        displayName: r.displayName,
+        roles: r.roles ? r.roles.split(',') : [],
+        active: Boolean(r.active),
+      }));
+    },
+
     async list(): Promise<Person[]> {
       const pending = new Map((await roleRequests.pending()).map((r) => [r.userId, r]));
       return (await users.list()).map((user) => toPerson(user, pending.get(user.id) ?? null));
@@ -111,7 +126,7 @@ export function createPeopleService({
           passwordHash: noPasswordYet,
         });
       } catch (error) {
-        if ((error as { code?: string }).code === 'ER_DUP_ENTRY') {
+        if (isDuplicateKey(error)) {
           throw AppError.conflict('email_taken', `Someone already has the e-mail ${input.email}.`);
         }
         throw error;
@@ -189,7 +204,7 @@ export function createPeopleService({
           details: { changed },
         });
       }
-      if (changed.active && !after.active) await sessions.revokeAllOf(id, 'deactivated');
+      if (changed.active && !after.active) await signInSessions.revokeAllOf(id, 'deactivated');
       const pending = split?.request
         ? await requestRoles(actor, after, split.request)
         : await roleRequests.pendingFor(id);
@@ -239,18 +254,14 @@ export function createPeopleService({
         );
       }
       const before = await mustFind(request.userId);
-      await dataSource.transaction(async (manager) => {
-        if (!(await roleRequests.decide(manager, requestId, decision, actor.id))) {
+      await unitOfWork(async (tx) => {
+        if (!(await roleRequests.decide(tx, requestId, decision, actor.id))) {
           throw AppError.conflict(
             'request_decided',
             `Role request ${requestId} was decided by someone else just now.`,
           );
         }
-        if (decision === 'approved')
-          await manager.query('UPDATE user SET roles = ? WHERE id = ?', [
-            request.roles.join(','),
-            request.userId,
-          ]);
+        if (decision === 'approved') await users.setRoles(tx, request.userId, request.roles);
       });
       await audit.append({
         actorUserId: actor.id,
@@ -295,7 +306,7 @@ export function createPeopleService({
     /** Signs the person out everywhere, at once. */
     async endSessions(actor: Actor, id: number): Promise<{ ended: number }> {
       await mustFind(id);
-      const ended = await sessions.revokeAllOf(id, 'ended-by-admin');
+      const ended = await signInSessions.revokeAllOf(id, 'ended-by-admin');
       await audit.append({
         actorUserId: actor.id,
         action: 'person.sessions-ended',

@@ -12,15 +12,9 @@ export function pharmacyRoutes(pharmacy: PharmacyService): RouteSpec[] {
       access: 'dose-checks.perform',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        res
-          .status(201)
-          .json({
-            order: await pharmacy.check(
-              actorOf(req, res),
-              id,
-              parseInput(doseCheckSchema, req.body),
-            ),
-          });
+        res.status(201).json({
+          order: await pharmacy.check(actorOf(req, res), id, parseInput(doseCheckSchema, req.body)),
+        });
       },
     },
     {
@@ -29,15 +23,13 @@ export function pharmacyRoutes(pharmacy: PharmacyService): RouteSpec[] {
       access: 'preparations.record',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        res
-          .status(201)
-          .json({
-            order: await pharmacy.prepare(
-              actorOf(req, res),
-              id,
-              parseInput(preparationSchema, req.body),
-            ),
-          });
+        res.status(201).json({
+          order: await pharmacy.prepare(
+            actorOf(req, res),
+            id,
+            parseInput(preparationSchema, req.body),
+          ),
+        });
       },
     },
   ];

@@ -1,13 +1,14 @@
 import { DateTime } from 'luxon';
-import type { DataSource } from 'typeorm';
 import { doseCheckDiffering } from '../../shared/engine/dose-check';
 import { withinPct } from '../../shared/engine/tolerance';
 import { canReprepare } from '../../shared/orders/lifecycle';
 import { withdrawalsApplied } from '../../shared/session/dose-record';
 import type { DoseCheckEntry, PreparationEntry } from '../../shared/schemas/orders';
 import type { AuditRepository } from '../audit/repository';
+import type { Clock } from '../clock';
+import type { UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
-import { enqueueMessage } from '../mail/outbox';
+import { enqueueMessage } from '../mail/outbox-repository';
 import { moveOrderStatus, type OrderRepository } from '../orders/repository';
 import type { Actor, OrderService } from '../orders/service';
 import type { UserRepository } from '../people/repository';
@@ -19,16 +20,16 @@ export const refusalsBeforeReturn = 2;
 const clockSkewS = 60;
 
 export function createPharmacyService(deps: {
-  dataSource: DataSource;
+  unitOfWork: UnitOfWork;
   orders: OrderRepository;
   orderService: OrderService;
   users: UserRepository;
   audit: AuditRepository;
   unitTimeZone: string;
-  /** The server's clock (tests move it); beyond-use times are judged by it. */
-  now?: () => number;
+  /** The server's clock (tests move it); expiry and beyond-use times are judged by it. */
+  clock: Clock;
 }) {
-  const { dataSource, orders, orderService, users, audit } = deps;
+  const { unitOfWork, clock, orders, orderService, users, audit } = deps;
 
   async function loadForPharmacy(id: number) {
     const order = await orders.findById(id);
@@ -67,14 +68,14 @@ export function createPharmacyService(deps: {
 
       // Read before the transaction, which must not wait for a second pooled connection.
       const clinician = order.signedById ? await users.findById(order.signedById) : null;
-      const result = await dataSource.transaction(async (manager) => {
-        const locked = await orders.lockById(manager, id);
+      const result = await unitOfWork(async (tx) => {
+        const locked = await orders.lockById(tx, id);
         if (locked?.status !== 'signed')
           throw AppError.conflict(
             'not_waiting_for_check',
             `Order ${id} is ${locked?.status ?? 'gone'}, not waiting for a dose check.`,
           );
-        await orders.addDoseCheck(manager, {
+        await orders.addDoseCheck(tx, {
           orderId: id,
           pharmacistId: actor.id,
           bsaM2: entry.bsaM2,
@@ -85,19 +86,19 @@ export function createPharmacyService(deps: {
           comment: entry.comment ?? null,
         });
         if (outcome === 'match') {
-          await moveOrderStatus(manager, id, 'signed', 'checked');
-          await addParticipant(manager, id, actor.id, 'checked');
+          await moveOrderStatus(tx, id, 'signed', 'checked');
+          await addParticipant(tx, id, actor.id, 'checked');
           return { returned: false, refusals: 0 };
         }
-        const refusals = (await orders.doseChecksFor(id, manager)).filter(
+        const refusals = (await orders.doseChecksFor(id, tx)).filter(
           (c) => c.outcome === 'mismatch',
         ).length;
         if (refusals < refusalsBeforeReturn) return { returned: false, refusals };
         const comment =
           entry.comment?.trim() ||
           `The dose check was refused ${refusals} times (figures differing: ${differing.join(', ')}).`;
-        await moveOrderStatus(manager, id, 'signed', 'returned', { returnComment: comment });
-        await enqueueMessage(manager, {
+        await moveOrderStatus(tx, id, 'signed', 'returned', { returnComment: comment });
+        await enqueueMessage(tx, {
           kind: 'order-returned',
           recipients: clinician?.active ? [clinician.email] : [],
           subject: `Luxtempo: order ${id} was sent back after the dose check`,
@@ -150,13 +151,13 @@ export function createPharmacyService(deps: {
     async prepare(actor: Actor, id: number, entry: PreparationEntry) {
       const { order, drug } = await loadForPharmacy(id);
       const zone = deps.unitTimeZone;
-      const today = DateTime.now().setZone(zone).toISODate()!;
+      const today = DateTime.fromJSDate(clock.now()).setZone(zone).toISODate()!;
       if (entry.vialExpiry < today) {
         throw AppError.badRequest(`The vial expired on ${entry.vialExpiry}; use an in-date vial.`, [
           { path: 'vialExpiry', message: `vialExpiry must be today (${today}) or later` },
         ]);
       }
-      const now = deps.now?.() ?? Date.now();
+      const now = clock.now().getTime();
       const reconstitutedAt = entry.reconstitutedAt
         ? new Date(entry.reconstitutedAt)
         : new Date(now);
@@ -191,14 +192,14 @@ export function createPharmacyService(deps: {
       }
       const infusionStepId =
         order.protocolVersion.definition.steps.find((step) => step.kind === 'infusion')?.id ?? null;
-      const discarded = await dataSource.transaction(async (manager) => {
-        const locked = await orders.lockById(manager, id);
+      const discarded = await unitOfWork(async (tx) => {
+        const locked = await orders.lockById(tx, id);
         let previous: { beyondUseAt: string } | null = null;
         if (locked && locked.status !== 'checked') {
           // Made up again: the drug made up before is past its beyond-use time and was discarded
           // (shared/orders/lifecycle.ts canReprepare). The status stays; the new preparation counts.
-          const current = await orders.preparationFor(id, manager);
-          const { kept } = withdrawalsApplied(await readSessionEvents(manager, id));
+          const current = await orders.preparationFor(id, tx);
+          const { kept } = withdrawalsApplied(await readSessionEvents(tx, id));
           const verdict = canReprepare(locked.status, {
             beyondUsePassed: current !== null && current.beyondUseAt.getTime() <= now,
             infusionStarted: kept.some(
@@ -217,7 +218,7 @@ export function createPharmacyService(deps: {
             `Order ${id} is gone; preparation follows a matching dose check.`,
           );
         }
-        await orders.addPreparation(manager, {
+        await orders.addPreparation(tx, {
           orderId: id,
           pharmacistId: actor.id,
           vialLot: entry.vialLot,
@@ -226,9 +227,9 @@ export function createPharmacyService(deps: {
           volumeDrawnMl: entry.volumeDrawnMl,
           beyondUseAt,
         });
-        if (!previous) await moveOrderStatus(manager, id, 'checked', 'prepared', { beyondUseAt });
-        else await orders.update(manager, id, { beyondUseAt });
-        await addParticipant(manager, id, actor.id, 'prepared');
+        if (!previous) await moveOrderStatus(tx, id, 'checked', 'prepared', { beyondUseAt });
+        else await orders.update(tx, id, { beyondUseAt });
+        await addParticipant(tx, id, actor.id, 'prepared');
         return previous;
       });
       await audit.append({

@@ -1,8 +1,9 @@
 import { AppError } from '../http/app-error';
 import { checkOrderedDefinition, definitionSha256 } from './definition-hash';
-import type { DataSource, EntityManager } from 'typeorm';
+import type { DataSource } from 'typeorm';
 import { ProtocolApproval } from '../db/entities/protocol-approval';
 import { ProtocolVersion } from '../db/entities/protocol-version';
+import { createUnitOfWork, managerOf, type Transaction } from '../db/unit-of-work';
 
 /** The parts of a version that ordering and calculating need. */
 export type ProtocolForUse = Pick<ProtocolVersion, 'id' | 'key' | 'version' | 'kind' | 'title' | 'status' | 'sha256' | 'definition'>;
@@ -17,10 +18,10 @@ const definitionCache = new Map<number, { sha256: string; definition: ProtocolVe
  * The definition of a version an order points at. Orders only ever use approved versions, and
  * an approved definition never changes (the database refuses it), so it is read once per process.
  */
-export async function orderedDefinition(manager: EntityManager, order: { id: number; protocolVersionId: number; protocolSha256: string }): Promise<ProtocolVersion['definition']> {
+export async function orderedDefinition(tx: Transaction, order: { id: number; protocolVersionId: number; protocolSha256: string }): Promise<ProtocolVersion['definition']> {
   let cached = definitionCache.get(order.protocolVersionId);
   if (!cached) {
-    const [stored] = await manager.query('SELECT definition, sha256, status FROM protocol_version WHERE id = ?', [order.protocolVersionId]);
+    const [stored] = await managerOf(tx).query('SELECT definition, sha256, status FROM protocol_version WHERE id = ?', [order.protocolVersionId]);
     const definition = typeof stored.definition === 'string' ? JSON.parse(stored.definition) : stored.definition;
     // The fingerprint is computed from what was read, never taken from the row's own column.
     cached = { sha256: definitionSha256(definition), definition };
@@ -69,18 +70,18 @@ export function createProtocolRepository(dataSource: DataSource) {
     updateDraft: (id: number, changes: Pick<ProtocolVersion, 'definition' | 'sha256' | 'title'>) =>
       versions.update({ id, status: 'draft' }, changes),
     /** Runs work in one transaction with the version row locked, so two approvals can't race. */
-    async withLockedVersion<T>(id: number, work: (manager: EntityManager, row: ProtocolVersion) => Promise<T>): Promise<T> {
-      return dataSource.transaction(async (manager) => {
-        const row = await manager.getRepository(ProtocolVersion).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+    async withLockedVersion<T>(id: number, work: (tx: Transaction, row: ProtocolVersion) => Promise<T>): Promise<T> {
+      return createUnitOfWork(dataSource)(async (tx) => {
+        const row = await managerOf(tx).getRepository(ProtocolVersion).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
         if (!row) throw new Error(`protocol version ${id} vanished`);
-        return work(manager, row);
+        return work(tx, row);
       });
     },
-    approvalsOf: (manager: EntityManager, protocolVersionId: number) => manager.getRepository(ProtocolApproval).find({ where: { protocolVersionId } }),
-    addApproval: (manager: EntityManager, approval: Pick<ProtocolApproval, 'protocolVersionId' | 'userId' | 'approvedAs' | 'definitionSha256'>) =>
-      manager.getRepository(ProtocolApproval).insert(approval),
-    setStatus: (manager: EntityManager, id: number, changes: Partial<Pick<ProtocolVersion, 'status' | 'approvedAt' | 'retiredAt' | 'retiredBy'>>) =>
-      manager.getRepository(ProtocolVersion).update({ id }, changes),
+    approvalsOf: (tx: Transaction, protocolVersionId: number) => managerOf(tx).getRepository(ProtocolApproval).find({ where: { protocolVersionId } }),
+    addApproval: (tx: Transaction, approval: Pick<ProtocolApproval, 'protocolVersionId' | 'userId' | 'approvedAs' | 'definitionSha256'>) =>
+      managerOf(tx).getRepository(ProtocolApproval).insert(approval),
+    setStatus: (tx: Transaction, id: number, changes: Partial<Pick<ProtocolVersion, 'status' | 'approvedAt' | 'retiredAt' | 'retiredBy'>>) =>
+      managerOf(tx).getRepository(ProtocolVersion).update({ id }, changes),
     approvalCount: () => approvals.count(),
   };
 }

@@ -1,6 +1,6 @@
 import multer from 'multer';
 import { z } from 'zod';
-import { signedInUser } from '../auth/session';
+import { signedInUser } from '../auth/sign-in-session';
 import { AppError } from '../http/app-error';
 import type { RouteSpec } from '../http/route-table';
 import { parseInput } from '../http/validation';

@@ -2,6 +2,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { protocolFileName, protocolVersionSchema, type ProtocolVersion as ProtocolDefinition } from '../../shared/protocol/protocol-schema';
 import type { Role } from '../../shared/roles';
+import type { Clock } from '../clock';
 import type { AuditRepository } from '../audit/repository';
 import type { ProtocolVersion } from '../db/entities/protocol-version';
 import { AppError } from '../http/app-error';
@@ -54,7 +55,7 @@ export function parseDefinition(input: unknown, prefix: string): ProtocolDefinit
 
 export class ProtocolFileError extends Error {}
 
-export function createProtocolService(repo: ProtocolRepository, audit: AuditRepository) {
+export function createProtocolService(repo: ProtocolRepository, audit: AuditRepository, clock: Clock) {
   async function mustFind(key: string, version: number): Promise<ProtocolVersion> {
     const row = await repo.find(key, version);
     if (!row) throw AppError.notFound(`There is no protocol ${key} version ${version}.`);
@@ -265,7 +266,7 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
         }
         await repo.addApproval(manager, { protocolVersionId: row.id, userId: actor.id, approvedAs, definitionSha256: row.sha256 });
         const becomesApproved = current.length + 1 >= approvalsNeeded;
-        if (becomesApproved) await repo.setStatus(manager, row.id, { status: 'approved', approvedAt: new Date() });
+        if (becomesApproved) await repo.setStatus(manager, row.id, { status: 'approved', approvedAt: clock.now() });
         return { id: row.id, sha256: row.sha256, becomesApproved, approvals: current.length + 1 };
       });
       // Audited after the commit: a transaction must not wait for a second pooled connection.
@@ -285,7 +286,7 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
       const found = await mustFind(key, version);
       await repo.withLockedVersion(found.id, async (manager, row) => {
         if (row.status !== 'approved') throw AppError.conflict('not_approved', `Only an approved version can be retired; ${key} version ${version} is ${row.status}.`);
-        await repo.setStatus(manager, row.id, { status: 'retired', retiredAt: new Date(), retiredBy: actor.id });
+        await repo.setStatus(manager, row.id, { status: 'retired', retiredAt: clock.now(), retiredBy: actor.id });
       });
       await audit.append({ actorUserId: actor.id, action: 'protocol.retired', entityType: 'protocol_version', entityId: found.id, ipAddress: actor.ipAddress, details: { key, version, reason } });
       return this.get(key, version);

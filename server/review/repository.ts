@@ -1,10 +1,13 @@
-import type { DataSource, SelectQueryBuilder } from 'typeorm';
+import type { Readable } from 'node:stream';
+import { IsNull, type DataSource, type SelectQueryBuilder } from 'typeorm';
 import type { AuditFilter, AuditTrailQuery, DoseRecordFilter } from '../../shared/schemas/reviews';
 import { AuditEvent } from '../db/entities/audit-event';
 import { DeviationRow } from '../db/entities/deviation';
 import { DeviationReview } from '../db/entities/deviation-review';
 import { DoseRecordRow } from '../db/entities/dose-record';
 import { ProtocolVersion } from '../db/entities/protocol-version';
+import { TreatmentOrder } from '../db/entities/treatment-order';
+import { managerOf, type Transaction } from '../db/unit-of-work';
 
 export interface DateRange {
   from?: Date;
@@ -286,6 +289,55 @@ export function createReviewRepository(dataSource: DataSource) {
     },
 
     findDeviation: (id: number) => dataSource.getRepository(DeviationRow).findOneBy({ id }),
+
+    /** Locks a deviation for the rest of the transaction, so two reviewers cannot both decide it. */
+    lockDeviation: (tx: Transaction, id: number) =>
+      managerOf(tx)
+        .getRepository(DeviationRow)
+        .findOne({ where: { id }, lock: { mode: 'pessimistic_write' } }),
+
+    /** The deviation's current judgement, and the line in its history that records the change. */
+    async judge(
+      tx: Transaction,
+      id: number,
+      judgement: Pick<
+        DeviationRow,
+        'reviewStatus' | 'classification' | 'reviewedBy' | 'reviewedAt'
+      >,
+      history: Pick<DeviationReview, 'reviewerId' | 'action' | 'classification' | 'comment'>,
+    ): Promise<void> {
+      await managerOf(tx).update(DeviationRow, { id }, judgement);
+      await managerOf(tx)
+        .getRepository(DeviationReview)
+        .insert({ deviationId: id, ...history });
+    },
+
+    /** What an order's status after review depends on, with the order row locked; null before a record exists. */
+    async reviewStateOf(tx: Transaction, orderId: number) {
+      const manager = managerOf(tx);
+      const order = await manager
+        .getRepository(TreatmentOrder)
+        .findOne({ where: { id: orderId }, lock: { mode: 'pessimistic_write' } });
+      const record = await manager.getRepository(DoseRecordRow).findOneBy({ orderId });
+      if (!order || !record) return null;
+      const openDeviations = await manager
+        .getRepository(DeviationRow)
+        .count({ where: { orderId, reviewStatus: 'open', withdrawnAt: IsNull() } });
+      return { status: order.status, outcome: record.outcome, openDeviations };
+    },
+
+    /** Hands `consume` a cursor over the rows of an export query; the connection is released after. */
+    async streamRows(
+      [sql, params]: [string, unknown[]],
+      consume: (rows: Readable) => Promise<void>,
+    ): Promise<void> {
+      const runner = dataSource.createQueryRunner();
+      try {
+        await consume(await runner.stream(sql, params));
+      } finally {
+        await runner.release();
+      }
+    },
     reviewsOf: (deviationId: number) =>
       dataSource
         .getRepository(DeviationReview)

@@ -20,11 +20,10 @@ const trendsQuery = z.strictObject({
     .optional(),
 });
 
-function csvHeaders(res: Parameters<RouteSpec['handler']>[1], name: string) {
-  const stamp = new Date().toISOString().slice(0, 10);
+function csvHeaders(res: Parameters<RouteSpec['handler']>[1], fileName: string) {
   res.status(200).set({
     'Content-Type': 'text/csv; charset=utf-8',
-    'Content-Disposition': `attachment; filename="luxtempo-${name}-${stamp}.csv"`,
+    'Content-Disposition': `attachment; filename="${fileName}"`,
   });
 }
 
@@ -99,7 +98,7 @@ export function reviewRoutes(reviews: ReviewService): RouteSpec[] {
       access: 'audit.read',
       handler: async (req, res) => {
         const filter = parseInput(auditFilterSchema, req.query);
-        csvHeaders(res, 'deviations');
+        csvHeaders(res, reviews.exportFileName('deviations'));
         await reviews.exportCsv('deviations', filter, res, actorOf(req, res));
       },
     },
@@ -109,7 +108,7 @@ export function reviewRoutes(reviews: ReviewService): RouteSpec[] {
       access: 'audit.read',
       handler: async (req, res) => {
         const filter = parseInput(doseRecordFilterSchema, req.query);
-        csvHeaders(res, 'dose-records');
+        csvHeaders(res, reviews.exportFileName('dose-records'));
         await reviews.exportCsv('dose-records', filter, res, actorOf(req, res));
       },
     },

@@ -2,7 +2,6 @@ import { Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import type { Writable } from 'node:stream';
 import { DateTime } from 'luxon';
-import { IsNull, type DataSource, type EntityManager } from 'typeorm';
 import type {
   AuditFilter,
   AuditTrailQuery,
@@ -11,10 +10,8 @@ import type {
 } from '../../shared/schemas/reviews';
 import type { AuditRepository } from '../audit/repository';
 import type { Reader, ReadAudit } from '../audit/service';
-import { DeviationRow } from '../db/entities/deviation';
-import { DeviationReview } from '../db/entities/deviation-review';
-import { DoseRecordRow } from '../db/entities/dose-record';
-import { TreatmentOrder } from '../db/entities/treatment-order';
+import type { Clock } from '../clock';
+import type { Transaction, UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
 import { moveOrderStatus } from '../orders/repository';
 import { statusAfterReview } from '../../shared/orders/lifecycle';
@@ -24,14 +21,15 @@ import { csvLine, csvReading as reading, isoInZone } from './csv';
 import type { DateRange, ReviewRepository } from './repository';
 
 export function createReviewService(deps: {
-  dataSource: DataSource;
+  unitOfWork: UnitOfWork;
+  clock: Clock;
   reviews: ReviewRepository;
   sessions: SessionService;
   audit: AuditRepository;
   reads: ReadAudit;
   unitTimeZone: string;
 }) {
-  const { dataSource, reviews, audit } = deps;
+  const { unitOfWork, clock, reviews, audit } = deps;
   const zone = deps.unitTimeZone;
 
   /** Calendar days of the unit to a half-open UTC range. */
@@ -60,20 +58,14 @@ export function createReviewService(deps: {
   }
 
   /** Brings the order's status in line with its deviations' review (shared/orders/lifecycle). */
-  async function settleOrderStatus(manager: EntityManager, orderId: number) {
-    const order = await manager
-      .getRepository(TreatmentOrder)
-      .findOne({ where: { id: orderId }, lock: { mode: 'pessimistic_write' } });
-    const record = await manager.getRepository(DoseRecordRow).findOneBy({ orderId });
-    if (!order || !record) return;
-    const openDeviations = await manager
-      .getRepository(DeviationRow)
-      .count({ where: { orderId, reviewStatus: 'open', withdrawnAt: IsNull() } });
-    const next = statusAfterReview(order.status, {
-      sessionOutcome: record.outcome === 'stopped' ? 'stopped' : 'completed',
-      openDeviations,
+  async function settleOrderStatus(tx: Transaction, orderId: number) {
+    const state = await reviews.reviewStateOf(tx, orderId);
+    if (!state) return;
+    const next = statusAfterReview(state.status, {
+      sessionOutcome: state.outcome === 'stopped' ? 'stopped' : 'completed',
+      openDeviations: state.openDeviations,
     });
-    await moveOrderStatus(manager, orderId, order.status, next);
+    await moveOrderStatus(tx, orderId, state.status, next);
   }
 
   return {
@@ -120,33 +112,30 @@ export function createReviewService(deps: {
       const deviation = await mustFindDeviation(id);
       if (await tookPart(actor.id, deviation.orderId))
         throw AppError.forbidden('You took part in this session, so someone else must review it.');
-      await dataSource.transaction(async (manager) => {
-        const locked = await manager
-          .getRepository(DeviationRow)
-          .findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+      await unitOfWork(async (tx) => {
+        const locked = await reviews.lockDeviation(tx, id);
         if (locked?.reviewStatus !== 'open')
           throw AppError.conflict(
             'already_closed',
             'This deviation is closed already; reopen it to change the judgement.',
           );
-        await manager.update(
-          DeviationRow,
-          { id },
+        await reviews.judge(
+          tx,
+          id,
           {
             reviewStatus: 'closed',
             classification: input.classification,
             reviewedBy: actor.id,
-            reviewedAt: new Date(),
+            reviewedAt: clock.now(),
+          },
+          {
+            reviewerId: actor.id,
+            action: 'closed',
+            classification: input.classification,
+            comment: input.comment,
           },
         );
-        await manager.getRepository(DeviationReview).insert({
-          deviationId: id,
-          reviewerId: actor.id,
-          action: 'closed',
-          classification: input.classification,
-          comment: input.comment,
-        });
-        await settleOrderStatus(manager, deviation.orderId);
+        await settleOrderStatus(tx, deviation.orderId);
       });
       await audit.append({
         actorUserId: actor.id,
@@ -167,26 +156,18 @@ export function createReviewService(deps: {
       const deviation = await mustFindDeviation(id);
       if (await tookPart(actor.id, deviation.orderId))
         throw AppError.forbidden('You took part in this session, so someone else must review it.');
-      await dataSource.transaction(async (manager) => {
-        const locked = await manager
-          .getRepository(DeviationRow)
-          .findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+      await unitOfWork(async (tx) => {
+        const locked = await reviews.lockDeviation(tx, id);
         if (locked?.reviewStatus !== 'closed')
           throw AppError.conflict('not_closed', 'Only a closed deviation can be reopened.');
         // The earlier judgement stays in the history; the row shows the current state.
-        await manager.update(
-          DeviationRow,
-          { id },
+        await reviews.judge(
+          tx,
+          id,
           { reviewStatus: 'open', classification: null, reviewedBy: null, reviewedAt: null },
+          { reviewerId: actor.id, action: 'reopened', classification: null, comment },
         );
-        await manager.getRepository(DeviationReview).insert({
-          deviationId: id,
-          reviewerId: actor.id,
-          action: 'reopened',
-          classification: null,
-          comment,
-        });
-        await settleOrderStatus(manager, deviation.orderId);
+        await settleOrderStatus(tx, deviation.orderId);
       });
       await audit.append({
         actorUserId: actor.id,
@@ -269,6 +250,10 @@ export function createReviewService(deps: {
       };
     },
 
+    /** The export's file name, dated by the server's clock (UTC day). */
+    exportFileName: (kind: 'deviations' | 'dose-records') =>
+      `luxtempo-${kind}-${clock.now().toISOString().slice(0, 10)}.csv`,
+
     /**
      * Streams a CSV of the filtered rows straight from a database cursor: memory stays flat
      * however many rows there are.
@@ -286,7 +271,7 @@ export function createReviewService(deps: {
         entityId: kind,
         details: { export: `${kind}.csv`, filter },
       });
-      const [sql, params] =
+      const query =
         kind === 'deviations'
           ? await reviews.deviationsForExport(filter as AuditFilter, rangeOf(filter))
           : await reviews.recordsForExport(filter as DoseRecordFilter, rangeOf(filter));
@@ -336,20 +321,16 @@ export function createReviewService(deps: {
               ],
               ['deviations', (r) => r.deviationCount],
             ];
-      const runner = dataSource.createQueryRunner();
-      try {
-        out.write(csvLine(columns.map(([name]) => name)));
-        const stream = await runner.stream(sql, params);
+      out.write(csvLine(columns.map(([name]) => name)));
+      await reviews.streamRows(query, async (rows) => {
         const toCsv = new Transform({
           objectMode: true,
           transform(row: Record<string, unknown>, _enc, done) {
             done(null, csvLine(columns.map(([, get]) => get(row))));
           },
         });
-        await pipeline(stream, toCsv, out);
-      } finally {
-        await runner.release();
-      }
+        await pipeline(rows, toCsv, out);
+      });
     },
   };
 }

@@ -1,16 +1,18 @@
-import type { DataSource } from 'typeorm';
 import { formatUnitTime } from '../../shared/format/figures';
 import { answeredCautions } from '../../shared/orders/readiness';
 import { lightPrecautionEnd, precautionStartFor } from '../../shared/session/light-precaution';
 import type { AuditRepository } from '../audit/repository';
+import type { Clock } from '../clock';
+import type { UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
-import { enqueueMessage } from '../mail/outbox';
+import { enqueueMessage } from '../mail/outbox-repository';
 import type { OrderRepository } from '../orders/repository';
 import type { Actor } from '../orders/service';
 import type { SessionRepository } from './repository';
 
 export function createDischargeService(deps: {
-  dataSource: DataSource;
+  unitOfWork: UnitOfWork;
+  clock: Clock;
   orders: OrderRepository;
   sessions: SessionRepository;
   audit: AuditRepository;
@@ -36,7 +38,7 @@ export function createDischargeService(deps: {
     // record from the latest plausible time, with a note saying so.
     const start =
       definition.drug && record.kind === 'pdt'
-        ? precautionStartFor(record, new Date().toISOString())
+        ? precautionStartFor(record, deps.clock.now().toISOString())
         : null;
     const precaution =
       definition.drug && start
@@ -120,8 +122,8 @@ export function createDischargeService(deps: {
         '',
         `${data.unitName}`,
       );
-      await deps.dataSource.transaction((manager) =>
-        enqueueMessage(manager, {
+      await deps.unitOfWork((tx) =>
+        enqueueMessage(tx, {
           kind: 'discharge-advice',
           recipients: [order.patient.email!],
           subject: `Your treatment at ${data.unitName}: advice for the coming days`,

@@ -1,5 +1,6 @@
-import type { DataSource } from 'typeorm';
 import { createAuditRepository } from '../audit/repository';
+import type { Clock } from '../clock';
+import { createUnitOfWork, type Database } from '../db/unit-of-work';
 import { createOrderRepository } from '../orders/repository';
 import { createUserRepository } from '../people/repository';
 import { createSessionRepository } from './repository';
@@ -11,15 +12,17 @@ import { createSessionService } from './service';
  * (a manual insert, an older version's crash) may have left behind; it is cheap and idempotent.
  */
 export function recomputeRunningSessions(
-  dataSource: DataSource,
+  dataSource: Database,
   unitTimeZone: string,
+  clock: Clock,
 ): Promise<number> {
   return createSessionService({
-    dataSource,
+    unitOfWork: createUnitOfWork(dataSource),
     orders: createOrderRepository(dataSource),
     sessions: createSessionRepository(dataSource),
     users: createUserRepository(dataSource),
     audit: createAuditRepository(dataSource),
     unitTimeZone,
+    clock,
   }).recomputeRunning();
 }

@@ -9,6 +9,7 @@ import type {
 import { DeviationRow } from '../db/entities/deviation';
 import { DoseRecordRow } from '../db/entities/dose-record';
 import type { SessionParticipant } from '../db/entities/session-participant';
+import { managerOf, type Transaction } from '../db/unit-of-work';
 
 export interface StandingDeviation {
   id: number;
@@ -23,12 +24,12 @@ export interface StandingDeviation {
 
 /** Records that a person took part in a treatment; harmless when said twice. */
 export function addParticipant(
-  manager: EntityManager,
+  tx: Transaction,
   orderId: number,
   userId: number,
   part: SessionParticipant['part'],
 ) {
-  return manager.query(
+  return managerOf(tx).query(
     'INSERT IGNORE INTO session_participant (order_id, user_id, part) VALUES (?, ?, ?)',
     [orderId, userId, part],
   );
@@ -88,10 +89,11 @@ interface KnownEvents {
 const knownEventsMax = 2_000;
 
 /** Every stored event of an order in the order they happened (by the tablet's time, then as stored). */
-export async function readSessionEvents(
-  manager: EntityManager,
-  orderId: number,
-): Promise<SessionEvent[]> {
+export function readSessionEvents(tx: Transaction, orderId: number): Promise<SessionEvent[]> {
+  return readEventsWith(managerOf(tx), orderId);
+}
+
+async function readEventsWith(manager: EntityManager, orderId: number): Promise<SessionEvent[]> {
   const rows: StoredEventRow[] = await manager.query(
     'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? ORDER BY client_time, id',
     [orderId],
@@ -113,17 +115,17 @@ export function createSessionRepository(dataSource: DataSource) {
 
   return {
     /** Every event of an order in the order they happened. */
-    eventsFor: (orderId: number, manager?: EntityManager): Promise<SessionEvent[]> =>
-      readSessionEvents(manager ?? dataSource.manager, orderId),
+    eventsFor: (orderId: number, tx?: Transaction): Promise<SessionEvent[]> =>
+      readEventsWith(managerOf(tx) ?? dataSource.manager, orderId),
 
     /**
      * Every event of an order, for a writer that holds the order's lock: what this process knew
      * plus whatever was stored since. Hand the result to `rememberEvents` once the transaction
      * has committed (never before: a rolled-back event must not be remembered).
      */
-    async eventsUnderLock(manager: EntityManager, orderId: number): Promise<KnownEvents> {
+    async eventsUnderLock(tx: Transaction, orderId: number): Promise<KnownEvents> {
       const known = knownEvents.get(orderId);
-      const rows: StoredEventRow[] = await manager.query(
+      const rows: StoredEventRow[] = await managerOf(tx).query(
         'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? AND id > ? ORDER BY id',
         [orderId, known?.lastId ?? 0],
       );
@@ -157,9 +159,9 @@ export function createSessionRepository(dataSource: DataSource) {
     },
 
     /** Records that a person nursed the session; asks the database only the first time this process sees them. */
-    async addNurse(manager: EntityManager, orderId: number, userId: number): Promise<() => void> {
+    async addNurse(tx: Transaction, orderId: number, userId: number): Promise<() => void> {
       const key = `${orderId}:${userId}`;
-      if (!knownNurses.has(key)) await addParticipant(manager, orderId, userId, 'nursed');
+      if (!knownNurses.has(key)) await addParticipant(tx, orderId, userId, 'nursed');
       return () => {
         if (knownNurses.size >= knownEventsMax * 4) knownNurses.clear();
         knownNurses.add(key);
@@ -180,14 +182,14 @@ export function createSessionRepository(dataSource: DataSource) {
     /** Stores one event; a key already stored fails with ER_DUP_ENTRY. */
     /** `payload` is what is kept of the input (a password never is); `receivedAt` the server's receipt time by the app's clock. */
     insertEvent: (
-      manager: EntityManager,
+      tx: Transaction,
       orderId: number,
       recordedBy: number,
       input: SessionEventInput,
       payload: Record<string, unknown>,
       receivedAt: Date,
     ) =>
-      manager.query(
+      managerOf(tx).query(
         'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, server_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
         [
           orderId,
@@ -203,7 +205,7 @@ export function createSessionRepository(dataSource: DataSource) {
 
     /** One statement whether the record exists or not: this runs on every event. */
     saveRecord: (
-      manager: EntityManager,
+      tx: Transaction,
       orderId: number,
       record: DoseRecord,
       extra: {
@@ -213,7 +215,7 @@ export function createSessionRepository(dataSource: DataSource) {
         order: RecordOrderFacts;
       },
     ) =>
-      manager.query(
+      managerOf(tx).query(
         `INSERT INTO dose_record (order_id, outcome, started_at, ended_at, on_time_s, delivered_fluence_j_per_cm2, volume_given_ml, record, protocol_version_id, local_month, deviation_count,
                                   eye, patient_id, planned_dose_mg, planned_fluence_j_per_cm2)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
@@ -251,10 +253,44 @@ export function createSessionRepository(dataSource: DataSource) {
       return rows.map((row) => row.displayName);
     },
 
+    /** The order's status, or null when there is no such order. */
+    async orderStatus(orderId: number): Promise<string | null> {
+      return (await this.orderFacts(orderId))?.status ?? null;
+    },
+
+    /** What the session's state needs of its order: status, plan and the protocol it was signed on. */
+    async orderFacts(orderId: number): Promise<{
+      status: string;
+      plan: unknown;
+      protocolVersionId: number;
+      protocolSha256: string;
+    } | null> {
+      const [order] = await dataSource.query(
+        'SELECT status, plan, protocol_version_id AS protocolVersionId, protocol_sha256 AS protocolSha256 FROM treatment_order WHERE id = ?',
+        [orderId],
+      );
+      if (!order) return null;
+      return {
+        status: String(order.status),
+        plan: typeof order.plan === 'string' ? JSON.parse(order.plan) : order.plan,
+        protocolVersionId: Number(order.protocolVersionId),
+        protocolSha256: String(order.protocolSha256),
+      };
+    },
+
+    /** Deviations of the order still waiting for review (withdrawn ones do not count). */
+    async openDeviationCount(tx: Transaction, orderId: number): Promise<number> {
+      const [{ open }] = await managerOf(tx).query(
+        "SELECT COUNT(*) AS open FROM deviation WHERE order_id = ? AND review_status = 'open' AND withdrawn_at IS NULL",
+        [orderId],
+      );
+      return Number(open);
+    },
+
     recordFor: (orderId: number) => dataSource.getRepository(DoseRecordRow).findOneBy({ orderId }),
 
-    deviationsFor: (orderId: number, manager?: EntityManager) =>
-      (manager ?? dataSource.manager)
+    deviationsFor: (orderId: number, tx?: Transaction) =>
+      (managerOf(tx) ?? dataSource.manager)
         .getRepository(DeviationRow)
         .find({ where: { orderId }, order: { detectedAt: 'ASC', id: 'ASC' } }),
 
@@ -264,12 +300,14 @@ export function createSessionRepository(dataSource: DataSource) {
      * Returns the types that are new.
      */
     async reconcileDeviations(
-      manager: EntityManager,
+      tx: Transaction,
       orderId: number,
       protocolVersionId: number,
       found: Deviation[],
+      /** The server's time: when a new deviation is detected or a gone one withdrawn. */
+      at: Date,
     ): Promise<{ added: string[]; standing: StandingDeviation[] }> {
-      const repo = manager.getRepository(DeviationRow);
+      const repo = managerOf(tx).getRepository(DeviationRow);
       // Read on every event, so plain SQL rather than the ORM's query builder.
       const rows: Pick<
         DeviationRow,
@@ -281,7 +319,7 @@ export function createSessionRepository(dataSource: DataSource) {
         | 'message'
         | 'detectedAt'
         | 'withdrawnAt'
-      >[] = await manager.query(
+      >[] = await managerOf(tx).query(
         'SELECT id, type, severity, expected, actual, message, detected_at AS detectedAt, withdrawn_at AS withdrawnAt FROM deviation WHERE order_id = ?',
         [orderId],
       );
@@ -302,7 +340,7 @@ export function createSessionRepository(dataSource: DataSource) {
         // stays on it (shared/session/deviations.ts); without such an event, when it was found.
         const causedAt = deviation.at ? new Date(deviation.at) : null;
         if (!row) {
-          const detectedAt = causedAt ?? new Date();
+          const detectedAt = causedAt ?? at;
           const result = await repo.insert({
             orderId,
             protocolVersionId,
@@ -342,7 +380,7 @@ export function createSessionRepository(dataSource: DataSource) {
         stored.delete(deviation.type);
       }
       for (const gone of stored.values())
-        if (!gone.withdrawnAt) await repo.update({ id: gone.id }, { withdrawnAt: new Date() });
+        if (!gone.withdrawnAt) await repo.update({ id: gone.id }, { withdrawnAt: at });
       return { added, standing };
     },
   };

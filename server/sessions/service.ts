@@ -1,4 +1,3 @@
-import type { DataSource, EntityManager } from 'typeorm';
 import { formatUnitTime } from '../../shared/format/figures';
 import {
   isSessionEnded,
@@ -23,8 +22,11 @@ import {
   volumeInfusedRequired,
 } from '../../shared/session/session-rules';
 import type { AuditRepository } from '../audit/repository';
+import type { Clock } from '../clock';
+import { isDuplicateKey } from '../db/errors';
+import type { Transaction, UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
-import { enqueueMessage } from '../mail/outbox';
+import { enqueueMessage } from '../mail/outbox-repository';
 import { moveOrderStatus, type OrderRepository } from '../orders/repository';
 import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
@@ -69,13 +71,14 @@ type SessionOrder = NonNullable<Awaited<ReturnType<OrderRepository['lockForSessi
 };
 
 export function createSessionService(deps: {
-  dataSource: DataSource;
+  unitOfWork: UnitOfWork;
   orders: OrderRepository;
   sessions: SessionRepository;
   users: UserRepository;
   audit: AuditRepository;
   unitTimeZone: string;
-  now?: () => number;
+  /** The server's clock (tests move it): the record's "now" and every tap's time bounds. */
+  clock: Clock;
   /** Gate 5's bounds, from the unit's configuration (TAP_CLOCK_SKEW_S, TAP_OFFLINE_WINDOW_H). */
   tapClockSkewS?: number;
   tapOfflineWindowH?: number;
@@ -86,17 +89,17 @@ export function createSessionService(deps: {
     ipAddress: string | undefined,
   ) => Promise<boolean>;
 }) {
-  const { dataSource, orders, sessions, users, audit } = deps;
-  const now = deps.now ?? Date.now;
+  const { unitOfWork, orders, sessions, users, audit } = deps;
+  const now = () => deps.clock.now().getTime();
   // Refusals name times as the ward clock shows them, with the zone's short name ("…, 14:05 WET").
   const wardTime = (ms: number) =>
     formatUnitTime(new Date(ms).toISOString(), deps.unitTimeZone, 'sheet');
 
   /** What the session code needs of an order: its row (locked when in a transaction) and its protocol. */
-  async function sessionOrder(manager: EntityManager, orderId: number): Promise<SessionOrder> {
-    const row = await orders.lockForSession(manager, orderId);
+  async function sessionOrder(tx: Transaction, orderId: number): Promise<SessionOrder> {
+    const row = await orders.lockForSession(tx, orderId);
     if (!row) throw AppError.notFound(`There is no order ${orderId}.`);
-    return { ...row, definition: await orderedDefinition(manager, row) };
+    return { ...row, definition: await orderedDefinition(tx, row) };
   }
 
   function checkEventFits(order: SessionOrder, input: SessionEventInput, nowMs: number) {
@@ -517,13 +520,14 @@ export function createSessionService(deps: {
    * Re-derives the record and deviations from every event, inside the caller's transaction.
    * `events` are the order's events as read under its lock; by default they are read here.
    */
-  async function recompute(manager: EntityManager, order: SessionOrder, events?: SessionEvent[]) {
-    const all = events ?? (await sessions.eventsFor(order.id, manager));
+  async function recompute(tx: Transaction, order: SessionOrder, events?: SessionEvent[]) {
+    const all = events ?? (await sessions.eventsFor(order.id, tx));
+    const nowMs = now();
     const record = deriveDoseRecord({
       protocol: order.definition,
       plan: order.plan,
       events: all,
-      nowMs: now(),
+      nowMs,
     });
     const deviations = findDeviations({
       protocol: order.definition,
@@ -534,12 +538,13 @@ export function createSessionService(deps: {
       unitTimeZone: deps.unitTimeZone,
     });
     const { standing } = await sessions.reconcileDeviations(
-      manager,
+      tx,
       order.id,
       order.protocolVersionId,
       deviations,
+      new Date(nowMs),
     );
-    await sessions.saveRecord(manager, order.id, record, {
+    await sessions.saveRecord(tx, order.id, record, {
       protocolVersionId: order.protocolVersionId,
       unitTimeZone: deps.unitTimeZone,
       deviationCount: deviations.length,
@@ -549,10 +554,7 @@ export function createSessionService(deps: {
   }
 
   async function state(orderId: number) {
-    const [order] = await dataSource.query(
-      'SELECT status, plan, protocol_version_id AS protocolVersionId, protocol_sha256 AS protocolSha256 FROM treatment_order WHERE id = ?',
-      [orderId],
-    );
+    const order = await sessions.orderFacts(orderId);
     if (!order) throw AppError.notFound(`There is no order ${orderId}.`);
     const [events, stored, deviations, nurses] = await Promise.all([
       sessions.eventsFor(orderId),
@@ -565,13 +567,13 @@ export function createSessionService(deps: {
     // the stored record (and the deviations, judged on finished facts only) stay as they are.
     let record = stored?.record ?? null;
     if (record && status === 'in-session') {
-      const plan = typeof order.plan === 'string' ? JSON.parse(order.plan) : order.plan;
-      const definition = await orderedDefinition(dataSource.manager, {
-        id: orderId,
-        protocolVersionId: Number(order.protocolVersionId),
-        protocolSha256: String(order.protocolSha256),
+      const definition = await unitOfWork((tx) => orderedDefinition(tx, { id: orderId, ...order }));
+      record = deriveDoseRecord({
+        protocol: definition,
+        plan: order.plan as Parameters<typeof deriveDoseRecord>[0]['plan'],
+        events,
+        nowMs: now(),
       });
-      record = deriveDoseRecord({ protocol: definition, plan, events, nowMs: now() });
     }
     return {
       orderId,
@@ -632,10 +634,6 @@ export function createSessionService(deps: {
     });
   }
 
-  const isDuplicateKey = (error: unknown) =>
-    (error as { code?: string }).code === 'ER_DUP_ENTRY' ||
-    (error as { driverError?: { code?: string } }).driverError?.code === 'ER_DUP_ENTRY';
-
   return {
     state,
 
@@ -684,24 +682,24 @@ export function createSessionService(deps: {
       };
       let afterCommit: (() => void)[] = [];
       try {
-        outcome = await dataSource.transaction(async (manager) => {
+        outcome = await unitOfWork(async (tx) => {
           afterCommit = [];
           // One event at a time per order: the derived record always sees a settled list.
-          const order = await sessionOrder(manager, orderId);
+          const order = await sessionOrder(tx, orderId);
           // The key goes in first: a resend (the key is unique) fails here and is answered below
           // as the original was, whatever the session has done since.
           const nowMs = now();
-          await sessions.insertEvent(manager, orderId, actor.id, input, payload, new Date(nowMs));
+          await sessions.insertEvent(tx, orderId, actor.id, input, payload, new Date(nowMs));
           checkEventFits(order, input, nowMs);
-          afterCommit.push(await sessions.addNurse(manager, orderId, actor.id));
+          afterCommit.push(await sessions.addNurse(tx, orderId, actor.id));
           let status = order.status;
           if (input.type === 'session-started') status = 'in-session';
           const ends =
             (input.type === 'session-completed' || input.type === 'session-stopped') &&
             order.status === 'in-session';
           if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
-          await moveOrderStatus(manager, orderId, order.status, status);
-          const read = await sessions.eventsUnderLock(manager, orderId);
+          await moveOrderStatus(tx, orderId, order.status, status);
+          const read = await sessions.eventsUnderLock(tx, orderId);
           afterCommit.push(() =>
             ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read),
           );
@@ -717,21 +715,18 @@ export function createSessionService(deps: {
             actor.id,
             authoriser,
           );
-          const result = await recompute(manager, order, read.events);
+          const result = await recompute(tx, order, read.events);
           if (status === 'reviewed') {
-            const [{ open }] = await manager.query(
-              "SELECT COUNT(*) AS open FROM deviation WHERE order_id = ? AND review_status = 'open' AND withdrawn_at IS NULL",
-              [orderId],
-            );
+            const open = await sessions.openDeviationCount(tx, orderId);
             const next = statusAfterLateEvent(status, {
               sessionOutcome: result.record.outcome === 'stopped' ? 'stopped' : 'completed',
-              openDeviations: Number(open),
+              openDeviations: open,
             });
-            await moveOrderStatus(manager, orderId, status, next);
+            await moveOrderStatus(tx, orderId, status, next);
             status = next;
           }
           if (ends && result.deviations.length > 0) {
-            await enqueueMessage(manager, {
+            await enqueueMessage(tx, {
               kind: 'session-deviations',
               recipients: auditors.map((u) => u.email),
               subject: `Luxtempo: session for order ${orderId} ended with ${result.deviations.length} deviation${result.deviations.length === 1 ? '' : 's'}`,
@@ -830,9 +825,7 @@ export function createSessionService(deps: {
     async recomputeRunning(): Promise<number> {
       const running = await orders.listByStatus(['in-session']);
       for (const { id } of running)
-        await dataSource.transaction(async (manager) =>
-          recompute(manager, await sessionOrder(manager, id)),
-        );
+        await unitOfWork(async (tx) => recompute(tx, await sessionOrder(tx, id)));
       return running.length;
     },
   };

@@ -3,8 +3,8 @@
  * signed order can act on. At least this many characters and this many different words, not the
  * question said back, and not filler such as "n/a", "ok" or "...".
  */
-export const substantialReasonMinChars = 15;
-export const substantialReasonMinWords = 3;
+export const minimumSubstantialReasonChars = 15;
+export const minimumSubstantialReasonWords = 3;
 
 /** Words that carry nothing on their own; a reason made only of them is a placeholder. */
 const fillerWords = new Set([
@@ -69,11 +69,14 @@ export function reasonOfSubstanceProblem(
 ): string | null {
   const text = (reason ?? '').trim();
   if (text === '')
-    return `give a reason (at least ${substantialReasonMinChars} characters and ${substantialReasonMinWords} words) saying why treatment is still right`;
+    return `give a reason (at least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} words) saying why treatment is still right`;
   const words = wordsOf(text);
   const distinct = new Set(words);
-  if (text.length < substantialReasonMinChars || distinct.size < substantialReasonMinWords) {
-    return `the reason must be at least ${substantialReasonMinChars} characters and ${substantialReasonMinWords} different words, saying why treatment is still right (got "${text}")`;
+  if (
+    text.length < minimumSubstantialReasonChars ||
+    distinct.size < minimumSubstantialReasonWords
+  ) {
+    return `the reason must be at least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} different words, saying why treatment is still right (got "${text}")`;
   }
   if ([...distinct].every((word) => fillerWords.has(word))) {
     return `"${text}" is a placeholder, not a reason: say why treatment is still right`;

@@ -4,7 +4,7 @@ import path from 'node:path';
 import bcrypt from 'bcryptjs';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { sessionCookieName } from '../../server/auth/session';
+import { signInCookieName } from '../../server/auth/sign-in-session';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../../server/demo/seed';
 import { createFirstAdmin } from '../../server/people/first-admin';
 import { startApiProcess, type ApiProcess } from '../../server/ops/api-process';
@@ -502,7 +502,7 @@ describe('sessions are kept on the server', () => {
       .post('/api/auth/login')
       .send({ email: person.email, password: person.password });
     const cookie = (login.headers['set-cookie'] as unknown as string[])
-      .find((c) => c.startsWith(`${sessionCookieName}=`))!
+      .find((c) => c.startsWith(`${signInCookieName}=`))!
       .split(';')[0]!;
     expect((await supertest(ctx.app).get('/api/auth/me').set('Cookie', cookie)).status).toBe(200);
     expect((await supertest(ctx.app).post('/api/auth/logout').set('Cookie', cookie)).status).toBe(
@@ -517,7 +517,7 @@ describe('sessions are kept on the server', () => {
       .post('/api/auth/login')
       .send({ email: person.email, password: person.password });
     const token = (login.headers['set-cookie'] as unknown as string[])
-      .find((c) => c.startsWith(`${sessionCookieName}=`))!
+      .find((c) => c.startsWith(`${signInCookieName}=`))!
       .split(';')[0]!
       .split('=')[1]!;
     const { jti } = JSON.parse(Buffer.from(token.split('.')[1]!, 'base64url').toString());
@@ -623,7 +623,7 @@ describe('sessions are kept on the server', () => {
       jwtid: randomUUID() + randomUUID(),
     });
     expect(
-      (await supertest(ctx.app).get('/api/auth/me').set('Cookie', `${sessionCookieName}=${token}`))
+      (await supertest(ctx.app).get('/api/auth/me').set('Cookie', `${signInCookieName}=${token}`))
         .status,
     ).toBe(401);
   });
@@ -741,7 +741,7 @@ describe('two API processes on one database', () => {
     const onB = await login(b.url, person.email, person.password, ownAddress());
     expect(onB.status).toBe(429);
     expect(Number(onB.retryAfter)).toBeGreaterThan(0);
-    expect(onB.cookie).not.toContain(sessionCookieName);
+    expect(onB.cookie).not.toContain(signInCookieName);
     expect(
       await ctx.dataSource.query('SELECT id FROM sign_in_session WHERE user_id = ?', [person.id]),
     ).toEqual([]);
@@ -803,13 +803,11 @@ describe('the signature password prompt', () => {
         ).status,
       ).toBe(400);
     }
-    const res = await agent
-      .post(`/api/orders/${id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: draft.body.order.version,
-      });
+    const res = await agent.post(`/api/orders/${id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: draft.body.order.version,
+    });
     expect(res.status).toBe(429);
     expect(Number(res.headers['retry-after'])).toBeGreaterThan(0);
     const [order] = await ctx.dataSource.query('SELECT status FROM treatment_order WHERE id = ?', [

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import jwt from 'jsonwebtoken';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { sessionCookieName } from '../../server/auth/session';
+import { signInCookieName } from '../../server/auth/sign-in-session';
 import { createTestPerson, signedInAgent, startTestApp, type TestContext } from '../support/api';
 
 let ctx: TestContext;
@@ -15,7 +15,7 @@ afterAll(async () => {
 
 function sessionCookie(setCookie: string[] | string | undefined): string | undefined {
   const list = Array.isArray(setCookie) ? setCookie : setCookie ? [setCookie] : [];
-  return list.find((c) => c.startsWith(`${sessionCookieName}=`));
+  return list.find((c) => c.startsWith(`${signInCookieName}=`));
 }
 
 async function auditRows(where: string, params: unknown[]) {
@@ -202,7 +202,7 @@ describe('the session', () => {
     ).toString('base64url');
     const res = await supertest(ctx.app)
       .get('/api/auth/me')
-      .set('Cookie', `${sessionCookieName}=${header}.${forgedPayload}.${signature}`);
+      .set('Cookie', `${signInCookieName}=${header}.${forgedPayload}.${signature}`);
     expect(res.status).toBe(401);
   });
 
@@ -215,7 +215,7 @@ describe('the session', () => {
     });
     const res = await supertest(ctx.app)
       .get('/api/auth/me')
-      .set('Cookie', `${sessionCookieName}=${token}`);
+      .set('Cookie', `${signInCookieName}=${token}`);
     expect(res.status).toBe(401);
   });
 
@@ -227,7 +227,7 @@ describe('the session', () => {
     });
     const res = await supertest(ctx.app)
       .get('/api/auth/me')
-      .set('Cookie', `${sessionCookieName}=${token}`);
+      .set('Cookie', `${signInCookieName}=${token}`);
     expect(res.status).toBe(401);
   });
 

@@ -106,13 +106,11 @@ describe('a body-mass index outside the usual range', () => {
     const patient = await createTestPatient(ctx);
     const slip = body(patient.id, { value: 92, unit: 'lb' });
     const draft = await agent.post('/api/orders').send(slip);
-    const short = await agent
-      .put(`/api/orders/${draft.body.order.id}`)
-      .send({
-        ...slip,
-        softLimitReasons: { bmiKgPerM2: ' ok ' },
-        version: draft.body.order.version,
-      });
+    const short = await agent.put(`/api/orders/${draft.body.order.id}`).send({
+      ...slip,
+      softLimitReasons: { bmiKgPerM2: ' ok ' },
+      version: draft.body.order.version,
+    });
     expect(short.status).toBe(400);
     expect(short.body.error.fields).toEqual([
       expect.objectContaining({

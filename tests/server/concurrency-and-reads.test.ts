@@ -112,12 +112,10 @@ describe('editing a draft and signing it cannot interleave', () => {
     const patient = await createTestPatient(ctx);
     const draft = (await firstAgent.post('/api/orders').send(pdtOrder(patient.id))).body.order;
     expect(draft.version).toBe(1);
-    const edited = await secondAgent
-      .put(`/api/orders/${draft.id}`)
-      .send({
-        ...pdtOrder(patient.id, { inputs: { ...draft.inputs, lesionGldUm: 3000 } }),
-        version: draft.version,
-      });
+    const edited = await secondAgent.put(`/api/orders/${draft.id}`).send({
+      ...pdtOrder(patient.id, { inputs: { ...draft.inputs, lesionGldUm: 3000 } }),
+      version: draft.version,
+    });
     expect(edited.status).toBe(200);
     expect(edited.body.order.version).toBe(2);
 

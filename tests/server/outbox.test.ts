@@ -1,7 +1,10 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createSmtpMailer } from '../../server/mail/mailer';
-import { createOutboxWorker, enqueueMessage, retryDelayS } from '../../server/mail/outbox';
+import { systemClock } from '../../server/clock';
+import { asTransaction } from '../../server/db/unit-of-work';
+import { createOutboxWorker, retryDelayS } from '../../server/mail/outbox';
+import { createOutboxRepository, enqueueMessage } from '../../server/mail/outbox-repository';
 import { ensureMailCatcher, type MailCatcher } from '../../server/ops/mail-catcher';
 import { startTestApp, testConfig, type TestContext } from '../support/api';
 
@@ -22,7 +25,7 @@ afterAll(async () => {
 describe('the outbox', () => {
   it('keeps a message while the mail server is down, retries with growing waits, and delivers it once the server is back', async () => {
     const subject = `Luxtempo test message ${randomUUID()}`;
-    await enqueueMessage(ctx.dataSource.manager, {
+    await enqueueMessage(asTransaction(ctx.dataSource.manager), {
       kind: 'test',
       recipients: ['ward@test.luxtempo.example'],
       subject,
@@ -30,7 +33,9 @@ describe('the outbox', () => {
     });
     const mailer = createSmtpMailer(testConfig({ SMTP_PORT: String(smtpPort) }));
     // Other tests leave messages waiting too; one batch large enough takes them all in.
-    const worker = createOutboxWorker(ctx.dataSource, mailer, { batchSize: 5000 });
+    const worker = createOutboxWorker(createOutboxRepository(ctx.dataSource), mailer, systemClock, {
+      batchSize: 5000,
+    });
 
     await worker.runOnce();
     const [waiting] = await ctx.dataSource.query(

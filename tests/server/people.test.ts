@@ -44,14 +44,12 @@ describe('people administration', () => {
     const admin = await createTestPerson(ctx, ['admin']);
     const agent = await signedInAgent(ctx, admin);
     const email = newEmail();
-    const res = await agent
-      .post('/api/people')
-      .send({
-        email,
-        displayName: 'Ada Testperson',
-        roles: ['nurse', 'auditor'],
-        password: 'a-first-password-1',
-      });
+    const res = await agent.post('/api/people').send({
+      email,
+      displayName: 'Ada Testperson',
+      roles: ['nurse', 'auditor'],
+      password: 'a-first-password-1',
+    });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ passwordLink: 'sent' });
     expect(res.body.person).toMatchObject({

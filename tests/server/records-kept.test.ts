@@ -205,13 +205,11 @@ describe("a signed order, as the app's database user", () => {
     const patient = await createTestPatient(ctx);
     const order = await signOrder(clinicianAgent, clinician, pdtOrder(patient.id));
     const before = await row('treatment_order', 'id', order.id);
-    const amended = await clinicianAgent
-      .post(`/api/orders/${order.id}/amendments`)
-      .send({
-        ...pdtOrder(patient.id),
-        amendmentReason: 'Weight re-measured on the ward.',
-        version: (await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.version,
-      });
+    const amended = await clinicianAgent.post(`/api/orders/${order.id}/amendments`).send({
+      ...pdtOrder(patient.id),
+      amendmentReason: 'Weight re-measured on the ward.',
+      version: (await clinicianAgent.get(`/api/orders/${order.id}`)).body.order.version,
+    });
     expect(amended.status, JSON.stringify(amended.body)).toBe(201);
     const signed = await clinicianAgent
       .post(`/api/orders/${amended.body.order.id}/signature`)
@@ -411,7 +409,7 @@ describe("a session's dose record and deviations, as the app's database user", (
       config: ctx.config,
       dataSource: ctx.dataSource,
       mailer: { send: async () => undefined, close: () => undefined },
-      now: () => Date.now() + fourteenHoursMs,
+      clock: { now: () => new Date(Date.now() + fourteenHoursMs) },
     });
     const nurseLater = supertest.agent(later);
     expect(
@@ -422,14 +420,12 @@ describe("a session's dose record and deviations, as the app's database user", (
       ).status,
     ).toBe(200);
     const eventsBefore = await row('dose_record', 'order_id', orderId);
-    const late = await nurseLater
-      .post(`/api/orders/${orderId}/session-events`)
-      .send({
-        idempotencyKey: randomUUID(),
-        clientTime: new Date(Date.now() + fourteenHoursMs).toISOString(),
-        type: 'extravasation',
-        volumeInfusedMl: 30,
-      });
+    const late = await nurseLater.post(`/api/orders/${orderId}/session-events`).send({
+      idempotencyKey: randomUUID(),
+      clientTime: new Date(Date.now() + fourteenHoursMs).toISOString(),
+      type: 'extravasation',
+      volumeInfusedMl: 30,
+    });
     expect(late.status, JSON.stringify(late.body)).toBe(409);
     expect(late.body.error).toMatchObject({ code: 'record_closed' });
     const [counted] = await app.query(
@@ -441,12 +437,10 @@ describe("a session's dose record and deviations, as the app's database user", (
     expect(await row('dose_record', 'order_id', orderId)).toEqual(eventsBefore);
 
     const auditor = await signedInAgent(ctx, await createTestPerson(ctx, ['auditor']));
-    const closed = await auditor
-      .post(`/api/deviations/${deviation!.id}/closure`)
-      .send({
-        classification: 'acceptable',
-        comment: 'Infusion pump checked; short by a timing slip.',
-      });
+    const closed = await auditor.post(`/api/deviations/${deviation!.id}/closure`).send({
+      classification: 'acceptable',
+      comment: 'Infusion pump checked; short by a timing slip.',
+    });
     expect(closed.status, JSON.stringify(closed.body)).toBe(200);
     expect(await row('deviation', 'id', deviation!.id)).toMatchObject({
       review_status: 'closed',
@@ -459,15 +453,13 @@ describe("a session's dose record and deviations, as the app's database user", (
     const orderId = await finishedSession();
     const before = await row('dose_record', 'order_id', orderId);
     // A tap queued offline during the session, delivered after its end.
-    const late = await nurseAgent
-      .post(`/api/orders/${orderId}/session-events`)
-      .send({
-        idempotencyKey: randomUUID(),
-        clientTime: new Date(Date.now() - 30 * 60_000).toISOString(),
-        type: 'extravasation',
-        note: 'Noticed at the cannula.',
-        volumeInfusedMl: 30,
-      });
+    const late = await nurseAgent.post(`/api/orders/${orderId}/session-events`).send({
+      idempotencyKey: randomUUID(),
+      clientTime: new Date(Date.now() - 30 * 60_000).toISOString(),
+      type: 'extravasation',
+      note: 'Noticed at the cannula.',
+      volumeInfusedMl: 30,
+    });
     expect(late.status, JSON.stringify(late.body)).toBe(201);
     const after = await row('dose_record', 'order_id', orderId);
     expect(after!.record).not.toEqual(before!.record);

@@ -37,7 +37,7 @@ export async function startTestApp(
     config,
     dataSource,
     mailer,
-    ...(options.now ? { now: options.now } : {}),
+    ...(options.now ? { clock: { now: () => new Date(options.now!()) } } : {}),
   });
   return { app, config, dataSource, sentMail, close: () => dataSource.destroy() };
 }

@@ -26,7 +26,7 @@ export async function startBrowserTest(
     config,
     clientDir: clientDistDir,
     port: 0,
-    now: () => Date.now() + serverClock.offsetMs,
+    clock: { now: () => new Date(Date.now() + serverClock.offsetMs) },
   });
   await seedDemoData(server.dataSource);
   const browser = await chromium.launch({

@@ -4,8 +4,8 @@ import { FieldError } from '../../../components/ui/text-field';
 import type { OrderFormContext, OrderFormValues } from './order-form-values';
 import { TextAreaField } from '../../../components/ui/text-area-field';
 import {
-  substantialReasonMinChars,
-  substantialReasonMinWords,
+  minimumSubstantialReasonChars,
+  minimumSubstantialReasonWords,
 } from '../../../../shared/orders/reason-of-substance';
 
 type Question = ProtocolVersion['contraindications'][number];
@@ -80,7 +80,7 @@ function QuestionBlock({
         <TextAreaField
           className="mt-3"
           label="Reason to go on despite the yes (required)"
-          hint={`At least ${substantialReasonMinChars} characters and ${substantialReasonMinWords} words saying why treatment is still right — not the question again, not “n/a” or “ok”. It is shown as a banner on every later screen.`}
+          hint={`At least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} words saying why treatment is still right — not the question again, not “n/a” or “ok”. It is shown as a banner on every later screen.`}
           error={reasonError}
           {...register(`checklist.${question.id}.overrideReason`)}
         />

@@ -1,7 +1,11 @@
 import { stepClockStatuses } from '../../shared/orders/lifecycle';
 import type { OrderSummary } from '../../shared/schemas/orders';
-import type { OrderRepository } from './repository';
-import { toOrderSummary, type Actor } from './service';
+import type { Clock } from '../clock';
+import type { OrderRepository } from '../orders/repository';
+import { toOrderSummary, type Actor } from '../orders/service';
+
+/** Today reads orders by status through the orders' repository: one query, not a copy of it. */
+type TodayRepository = Pick<OrderRepository, 'listByStatus'>;
 
 export interface TodayList {
   id: string;
@@ -10,9 +14,9 @@ export interface TodayList {
 }
 
 /** Each role's worklist, built for the roles the person holds. */
-export async function todayLists(orders: OrderRepository, actor: Actor): Promise<TodayList[]> {
+async function todayLists(orders: TodayRepository, actor: Actor): Promise<TodayList[]> {
   const lists: TodayList[] = [];
-  const summaries = (rows: Awaited<ReturnType<OrderRepository['listByStatus']>>) =>
+  const summaries = (rows: Awaited<ReturnType<TodayRepository['listByStatus']>>) =>
     rows.map(toOrderSummary);
   if (actor.roles.includes('clinician')) {
     lists.push({
@@ -56,3 +60,17 @@ export async function todayLists(orders: OrderRepository, actor: Actor): Promise
   }
   return lists;
 }
+
+export function createTodayService(deps: { orders: TodayRepository; clock: Clock }) {
+  return {
+    /** The person's worklists, with the server's time so the client can measure its offset. */
+    async forPerson(actor: Actor) {
+      return {
+        lists: await todayLists(deps.orders, actor),
+        serverTime: deps.clock.now().toISOString(),
+      };
+    },
+  };
+}
+
+export type TodayService = ReturnType<typeof createTodayService>;

@@ -5,15 +5,15 @@ import type { Capability, Role } from '../../shared/roles';
 import type { Config } from '../config';
 import { AppError } from '../http/app-error';
 import { capabilitiesOf } from './permissions';
-import type { SignInSessionRepository } from './session-repository';
+import type { SignInSessionRepository } from './sign-in-session-repository';
 
-export const sessionCookieName = 'luxtempo_session';
+export const signInCookieName = 'luxtempo_session';
 /**
- * A readable companion to the httpOnly session cookie. It holds no secret, only "a session was
+ * A readable companion to the httpOnly session cookie. It holds no secret, only "a sign-in session was
  * started here", so the client can skip asking `/api/auth/me` (and logging a 401) when nobody
  * has signed in. The server never trusts it.
  */
-export const sessionHintCookieName = 'luxtempo_signed_in';
+export const signInHintCookieName = 'luxtempo_signed_in';
 
 export interface SignedInUser {
   id: number;
@@ -29,7 +29,7 @@ declare global {
     interface Locals {
       user?: SignedInUser;
       /** The sign_in_session row this call came with. */
-      sessionId?: string;
+      signInSessionId?: string;
     }
   }
 }
@@ -40,18 +40,18 @@ export function signedInUser(res: { locals: { user?: SignedInUser } }): SignedIn
   return user;
 }
 
-export function signedInSessionId(res: { locals: { sessionId?: string } }): string {
-  const id = res.locals.sessionId;
+export function signedInSessionId(res: { locals: { signInSessionId?: string } }): string {
+  const id = res.locals.signInSessionId;
   if (!id) throw AppError.unauthorised();
   return id;
 }
 
 const sha256Hex = (text: string) => createHash('sha256').update(text).digest('hex');
 
-/** Seconds between writes of a session's last-seen time: the idle limit is that coarse, and reads stay reads. */
+/** Seconds between writes of a sign-in session's last-seen time: the idle limit is that coarse, and reads stay reads. */
 export const touchEveryS = 60;
 
-export function createSessions(config: Config, rows: SignInSessionRepository) {
+export function createSignInSessions(config: Config, rows: SignInSessionRepository) {
   const cookieOptions: CookieOptions = {
     httpOnly: true,
     sameSite: 'strict',
@@ -61,7 +61,7 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
   const lifetimeS = Math.round(config.SESSION_HOURS * 3600);
   const idleLimitS = config.SESSION_IDLE_MIN * 60;
 
-  /** Starts a session: a row keyed by the hash of a random id, and a signed cookie carrying the id. */
+  /** Starts a sign-in session: a row keyed by the hash of a random id, and a signed cookie carrying the id. */
   async function issue(
     userId: number,
     ipAddress: string | undefined,
@@ -126,44 +126,49 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
     }
   }
 
-  /** The session a request's cookie names, if its token is genuine (for sign-out). */
+  /** The sign-in session a request's cookie names, if its token is genuine (for sign-out). */
   function tokenOf(
     cookies: Record<string, unknown> | undefined,
   ): { userId: number; tokenHash: string } | null {
-    const token = cookies?.[sessionCookieName];
+    const token = cookies?.[signInCookieName];
     return typeof token === 'string' && token.length > 0 ? verifiedToken(token) : null;
   }
 
-  const requireSession: RequestHandler = async (req, res, next) => {
-    const token: unknown = req.cookies?.[sessionCookieName];
+  const requireSignIn: RequestHandler = async (req, res, next) => {
+    const token: unknown = req.cookies?.[signInCookieName];
     if (typeof token !== 'string' || token.length === 0) return next(AppError.unauthorised());
     const checked = verifiedToken(token);
     if (checked === null)
       return next(
         AppError.unauthorised('Your session has ended or is not valid. Please sign in again.'),
       );
-    const session = await rows.find(checked.tokenHash);
-    if (!session || session.userId !== checked.userId || session.revoked || session.ended) {
+    const signInSession = await rows.find(checked.tokenHash);
+    if (
+      !signInSession ||
+      signInSession.userId !== checked.userId ||
+      signInSession.revoked ||
+      signInSession.ended
+    ) {
       return next(AppError.unauthorised('Your session has ended. Please sign in again.'));
     }
-    if (session.idleS >= idleLimitS) {
-      await rows.revoke({ sessionId: session.sessionId }, 'idle');
+    if (signInSession.idleS >= idleLimitS) {
+      await rows.revoke({ signInSessionId: signInSession.signInSessionId }, 'idle');
       return next(
         AppError.unauthorised(
           `You were signed out after ${config.SESSION_IDLE_MIN} minutes without activity. Please sign in again.`,
         ),
       );
     }
-    if (!session.active)
+    if (!signInSession.active)
       return next(AppError.unauthorised('This account cannot sign in. Ask an administrator.'));
-    if (session.idleS >= touchEveryS) await rows.touch(session.sessionId);
-    res.locals.sessionId = session.sessionId;
+    if (signInSession.idleS >= touchEveryS) await rows.touch(signInSession.signInSessionId);
+    res.locals.signInSessionId = signInSession.signInSessionId;
     res.locals.user = {
-      id: session.userId,
-      email: session.email,
-      displayName: session.displayName,
-      roles: session.roles,
-      capabilities: capabilitiesOf(session.roles),
+      id: signInSession.userId,
+      email: signInSession.email,
+      displayName: signInSession.displayName,
+      roles: signInSession.roles,
+      capabilities: capabilitiesOf(signInSession.roles),
     };
     next();
   };
@@ -179,7 +184,7 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
     cookieOptions,
     issue,
     tokenOf,
-    requireSession,
+    requireSignIn,
     requireCapability,
     revoke: rows.revoke,
     revokeAllOf: rows.revokeAllOf,
@@ -187,4 +192,4 @@ export function createSessions(config: Config, rows: SignInSessionRepository) {
   };
 }
 
-export type Sessions = ReturnType<typeof createSessions>;
+export type SignInSessions = ReturnType<typeof createSignInSessions>;

@@ -1,8 +1,8 @@
 import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/roles';
 
-export interface SessionRow {
-  sessionId: string;
+export interface SignInSessionRow {
+  signInSessionId: string;
   userId: number;
   email: string;
   displayName: string;
@@ -38,16 +38,16 @@ export function createSignInSessionRepository(dataSource: DataSource) {
      * The one read every signed-in call makes: the session and its person, by the unique token
      * hash, in one indexed query.
      */
-    async find(tokenHash: string): Promise<SessionRow | null> {
+    async find(tokenHash: string): Promise<SignInSessionRow | null> {
       const [row] = await dataSource.query(
-        `SELECT s.id AS sessionId, u.id AS userId, u.email, u.display_name AS displayName, u.roles, u.active,
+        `SELECT s.id AS signInSessionId, u.id AS userId, u.email, u.display_name AS displayName, u.roles, u.active,
                 TIMESTAMPDIFF(SECOND, s.last_seen_at, NOW(3)) AS idleS, s.expires_at <= NOW(3) AS ended, s.revoked_at IS NOT NULL AS revoked
            FROM sign_in_session s JOIN user u ON u.id = s.user_id WHERE s.token_hash = ?`,
         [tokenHash],
       );
       if (!row) return null;
       return {
-        sessionId: String(row.sessionId),
+        signInSessionId: String(row.signInSessionId),
         userId: Number(row.userId),
         email: row.email,
         displayName: row.displayName,
@@ -59,18 +59,20 @@ export function createSignInSessionRepository(dataSource: DataSource) {
       };
     },
 
-    async touch(sessionId: string): Promise<void> {
+    async touch(signInSessionId: string): Promise<void> {
       await dataSource.query('UPDATE sign_in_session SET last_seen_at = NOW(3) WHERE id = ?', [
-        sessionId,
+        signInSessionId,
       ]);
     },
 
     async revoke(
-      where: { sessionId: string } | { tokenHash: string },
+      where: { signInSessionId: string } | { tokenHash: string },
       reason: string,
     ): Promise<number> {
       const [column, value] =
-        'sessionId' in where ? ['id', where.sessionId] : ['token_hash', where.tokenHash];
+        'signInSessionId' in where
+          ? ['id', where.signInSessionId]
+          : ['token_hash', where.tokenHash];
       const result = await dataSource.query(
         `UPDATE sign_in_session SET revoked_at = NOW(3), revoked_reason = ? WHERE ${column} = ? AND revoked_at IS NULL`,
         [reason, value],
@@ -79,10 +81,14 @@ export function createSignInSessionRepository(dataSource: DataSource) {
     },
 
     /** Ends every session of a person (or all but one); returns how many were open. */
-    async revokeAllOf(userId: number, reason: string, exceptSessionId?: string): Promise<number> {
+    async revokeAllOf(
+      userId: number,
+      reason: string,
+      exceptSignInSessionId?: string,
+    ): Promise<number> {
       const result = await dataSource.query(
-        `UPDATE sign_in_session SET revoked_at = NOW(3), revoked_reason = ? WHERE user_id = ? AND revoked_at IS NULL AND expires_at > NOW(3)${exceptSessionId ? ' AND id <> ?' : ''}`,
-        exceptSessionId ? [reason, userId, exceptSessionId] : [reason, userId],
+        `UPDATE sign_in_session SET revoked_at = NOW(3), revoked_reason = ? WHERE user_id = ? AND revoked_at IS NULL AND expires_at > NOW(3)${exceptSignInSessionId ? ' AND id <> ?' : ''}`,
+        exceptSignInSessionId ? [reason, userId, exceptSignInSessionId] : [reason, userId],
       );
       return Number(result?.affectedRows ?? 0);
     },
