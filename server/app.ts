@@ -101,7 +101,11 @@ export function createApp({
     audit,
   });
   const passwordLinks = createPasswordLinks(dataSource, passwordLinkRows, config);
-  const protocols = createProtocolService(createProtocolRepository(dataSource), audit);
+  const protocols = createProtocolService(
+    createProtocolRepository(dataSource),
+    audit,
+    auth.confirmSignature,
+  );
   const patients = createPatientRepository(dataSource);
   const orders = createOrderRepository(dataSource);
   const unitTimeZone = config.UNIT_TIME_ZONE;

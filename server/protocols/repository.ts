@@ -65,7 +65,12 @@ export function createProtocolRepository(dataSource: DataSource) {
       const row = await versions.createQueryBuilder('v').select('MAX(v.version)', 'max').where('v.key = :key', { key }).getRawOne<{ max: number | null }>();
       return Number(row?.max ?? 0);
     },
-    insert: (row: Omit<ProtocolVersion, 'id' | 'createdAt' | 'approvals'>) => versions.save(versions.create(row)),
+    insert: (
+      row: Omit<
+        ProtocolVersion,
+        'id' | 'createdAt' | 'approvals' | 'discardedAt' | 'discardedBy' | 'discardReason'
+      >,
+    ) => versions.save(versions.create(row)),
     updateDraft: (id: number, changes: Pick<ProtocolVersion, 'definition' | 'sha256' | 'title'>) =>
       versions.update({ id, status: 'draft' }, changes),
     /** Runs work in one transaction with the version row locked, so two approvals can't race. */
@@ -77,9 +82,30 @@ export function createProtocolRepository(dataSource: DataSource) {
       });
     },
     approvalsOf: (manager: EntityManager, protocolVersionId: number) => manager.getRepository(ProtocolApproval).find({ where: { protocolVersionId } }),
-    addApproval: (manager: EntityManager, approval: Pick<ProtocolApproval, 'protocolVersionId' | 'userId' | 'approvedAs' | 'definitionSha256'>) =>
+    addApproval: (
+      manager: EntityManager,
+      approval: Pick<
+        ProtocolApproval,
+        'protocolVersionId' | 'userId' | 'approvedAs' | 'meaning' | 'definitionSha256'
+      >,
+    ) =>
       manager.getRepository(ProtocolApproval).insert(approval),
-    setStatus: (manager: EntityManager, id: number, changes: Partial<Pick<ProtocolVersion, 'status' | 'approvedAt' | 'retiredAt' | 'retiredBy'>>) =>
+    setStatus: (
+      manager: EntityManager,
+      id: number,
+      changes: Partial<
+        Pick<
+          ProtocolVersion,
+          | 'status'
+          | 'approvedAt'
+          | 'retiredAt'
+          | 'retiredBy'
+          | 'discardedAt'
+          | 'discardedBy'
+          | 'discardReason'
+        >
+      >,
+    ) =>
       manager.getRepository(ProtocolVersion).update({ id }, changes),
     approvalCount: () => approvals.count(),
   };

@@ -4,6 +4,7 @@ import { signedInUser } from '../auth/session';
 import { AppError } from '../http/app-error';
 import type { RouteSpec } from '../http/route-table';
 import { parseInput } from '../http/validation';
+import { protocolApprovalMeaning } from '../../shared/protocol/approval-signature';
 import type { Actor, ProtocolService } from './service';
 
 const versionParams = z.object({
@@ -13,6 +14,18 @@ const versionParams = z.object({
 
 const draftRequest = z.object({ from: versionParams }).strict();
 const retireRequest = z.object({ reason: z.string({ error: 'reason is required' }).trim().min(5, 'reason must be 5 to 500 characters').max(500, 'reason must be 5 to 500 characters') }).strict();
+const discardRequest = retireRequest;
+const approveRequest = z
+  .object({
+    password: z
+      .string({ error: 'password is required' })
+      .min(1, 'password is required')
+      .max(200, 'password must be at most 200 characters'),
+    meaning: z.literal(protocolApprovalMeaning, {
+      error: `meaning must be "${protocolApprovalMeaning}"`,
+    }),
+  })
+  .strict();
 const updateDraftRequest = z.object({ definition: z.unknown() }).strict();
 
 // Protocol files are small JSON documents; a megabyte is generous.
@@ -84,7 +97,10 @@ export function protocolRoutes(protocols: ProtocolService): RouteSpec[] {
       access: 'protocols.approve',
       handler: async (req, res) => {
         const { key, version } = parseInput(versionParams, req.params);
-        res.status(201).json({ version: await protocols.approve(actor(req, res), key, version) });
+        const signature = parseInput(approveRequest, req.body);
+        res
+          .status(201)
+          .json({ version: await protocols.approve(actor(req, res), key, version, signature) });
       },
     },
     {
@@ -95,6 +111,16 @@ export function protocolRoutes(protocols: ProtocolService): RouteSpec[] {
         const { key, version } = parseInput(versionParams, req.params);
         const { reason } = parseInput(retireRequest, req.body);
         res.json({ version: await protocols.retire(actor(req, res), key, version, reason) });
+      },
+    },
+    {
+      method: 'post',
+      path: '/protocols/:key/versions/:version/discard',
+      access: 'protocols.import',
+      handler: async (req, res) => {
+        const { key, version } = parseInput(versionParams, req.params);
+        const { reason } = parseInput(discardRequest, req.body);
+        res.json({ version: await protocols.discard(actor(req, res), key, version, reason) });
       },
     },
   ];

@@ -6,6 +6,7 @@ import type { AuditRepository } from '../audit/repository';
 import type { ProtocolVersion } from '../db/entities/protocol-version';
 import { AppError } from '../http/app-error';
 import { fieldProblemsFromZod } from '../http/validation';
+import type { protocolApprovalMeaning } from '../../shared/protocol/approval-signature';
 import type { ProtocolForUse, ProtocolRepository } from './repository';
 
 import { definitionSha256 } from './definition-hash';
@@ -22,7 +23,16 @@ export interface Actor {
   ipAddress?: string | null;
 }
 
-export function toVersionSummary(row: ProtocolVersion) {
+/**
+ * Superseded is derived, never stored: an approved version is superseded while a newer version
+ * of the same protocol is approved. Stored, it would need a second row written at each approval
+ * and undone when the newer version is retired; derived, it is right whatever happens later.
+ */
+export function toVersionSummary(row: ProtocolVersion, newestApproved: number | null = null) {
+  const supersededBy =
+    row.status === 'approved' && newestApproved !== null && newestApproved > row.version
+      ? newestApproved
+      : null;
   return {
     key: row.key,
     version: row.version,
@@ -34,14 +44,37 @@ export function toVersionSummary(row: ProtocolVersion) {
     createdAt: row.createdAt.toISOString(),
     approvedAt: row.approvedAt?.toISOString() ?? null,
     retiredAt: row.retiredAt?.toISOString() ?? null,
+    discardedAt: row.discardedAt?.toISOString() ?? null,
+    discardReason: row.discardReason,
+    supersededBy,
     approvals: (row.approvals ?? [])
       .filter((a) => a.definitionSha256 === row.sha256)
-      .map((a) => ({ userId: a.userId, displayName: a.user?.displayName ?? null, approvedAs: a.approvedAs, approvedAt: a.approvedAt.toISOString() })),
+      .map((a) => ({
+        userId: a.userId,
+        displayName: a.user?.displayName ?? null,
+        approvedAs: a.approvedAs,
+        approvedAt: a.approvedAt.toISOString(),
+        meaning: a.meaning,
+      })),
   };
 }
 
-export function toVersionDetail(row: ProtocolVersion) {
-  return { ...toVersionSummary(row), sourceFile: row.sourceFile, definition: row.definition };
+export function toVersionDetail(row: ProtocolVersion, newestApproved: number | null = null) {
+  return {
+    ...toVersionSummary(row, newestApproved),
+    sourceFile: row.sourceFile,
+    definition: row.definition,
+  };
+}
+
+/** The newest approved version number of each protocol key. */
+function newestApprovedByKey(rows: ProtocolVersion[]): Map<string, number> {
+  const newest = new Map<string, number>();
+  for (const row of rows) {
+    if (row.status === 'approved' && row.version > (newest.get(row.key) ?? 0))
+      newest.set(row.key, row.version);
+  }
+  return newest;
 }
 
 /** Validates a definition; failures become a 400 whose fields carry the JSON path. */
@@ -54,7 +87,18 @@ export function parseDefinition(input: unknown, prefix: string): ProtocolDefinit
 
 export class ProtocolFileError extends Error {}
 
-export function createProtocolService(repo: ProtocolRepository, audit: AuditRepository) {
+/** Checks a person's own password, throttled like a sign-in (server/auth/service.ts). */
+export type ConfirmSignature = (
+  userId: number,
+  password: string,
+  ipAddress: string | undefined,
+) => Promise<boolean>;
+
+export function createProtocolService(
+  repo: ProtocolRepository,
+  audit: AuditRepository,
+  confirmSignature: ConfirmSignature,
+) {
   async function mustFind(key: string, version: number): Promise<ProtocolVersion> {
     const row = await repo.find(key, version);
     if (!row) throw AppError.notFound(`There is no protocol ${key} version ${version}.`);
@@ -147,13 +191,25 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
 
     async list() {
       const rows = await repo.listAll();
+      const newest = newestApprovedByKey(rows);
       const byKey = new Map<string, ReturnType<typeof toVersionSummary>[]>();
-      for (const row of rows) byKey.set(row.key, [...(byKey.get(row.key) ?? []), toVersionSummary(row)]);
+      for (const row of rows)
+        byKey.set(row.key, [
+          ...(byKey.get(row.key) ?? []),
+          toVersionSummary(row, newest.get(row.key) ?? null),
+        ]);
       return [...byKey.entries()].map(([key, versions]) => ({ key, kind: versions[0]!.kind, title: versions.at(-1)!.title, versions }));
     },
 
     async get(key: string, version: number) {
-      return toVersionDetail(await mustFind(key, version));
+      const row = await mustFind(key, version);
+      return toVersionDetail(row, (await repo.latestApproved(key))?.version ?? null);
+    },
+
+    /** The newer approved version that supersedes this one, or null when it is the newest. */
+    async supersededBy(key: string, version: number): Promise<number | null> {
+      const newest = (await repo.latestApproved(key))?.version ?? null;
+      return newest !== null && newest > version ? newest : null;
     },
 
     resolveForUse,
@@ -252,18 +308,47 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
       return this.get(key, version);
     },
 
-    async approve(actor: Actor, key: string, version: number) {
+    /**
+     * An approval is an electronic signature: the approver's own password, checked and throttled
+     * as at sign-in, and the meaning they were shown, stored with it. A wrong password records
+     * nothing but the refusal in the audit trail.
+     */
+    async approve(
+      actor: Actor,
+      key: string,
+      version: number,
+      signature: { password: string; meaning: typeof protocolApprovalMeaning },
+    ) {
       previews.clear();
       const found = await mustFind(key, version);
       const approvedAs = approvingRoles.find((role) => actor.roles.includes(role));
       if (!approvedAs) throw AppError.forbidden('Only a clinician or a pharmacist can approve a protocol version.');
+      if (!(await confirmSignature(actor.id, signature.password, actor.ipAddress ?? undefined))) {
+        await audit.append({
+          actorUserId: actor.id,
+          action: 'protocol.approval-refused',
+          entityType: 'protocol_version',
+          entityId: found.id,
+          ipAddress: actor.ipAddress,
+          details: { key, version, reason: 'wrong-password' },
+        });
+        throw AppError.badRequest('The password is not right; the version was not approved.', [
+          { path: 'password', message: 'password must be your sign-in password' },
+        ]);
+      }
       const outcome = await repo.withLockedVersion(found.id, async (manager, row) => {
         if (row.status !== 'draft') throw AppError.conflict('not_a_draft', `Protocol ${key} version ${version} is already ${row.status}.`);
         const current = (await repo.approvalsOf(manager, row.id)).filter((a) => a.definitionSha256 === row.sha256);
         if (current.some((a) => a.userId === actor.id)) {
           throw AppError.conflict('already_approved', 'You have approved this version already; a second, different person must approve it.');
         }
-        await repo.addApproval(manager, { protocolVersionId: row.id, userId: actor.id, approvedAs, definitionSha256: row.sha256 });
+        await repo.addApproval(manager, {
+          protocolVersionId: row.id,
+          userId: actor.id,
+          approvedAs,
+          meaning: signature.meaning,
+          definitionSha256: row.sha256,
+        });
         const becomesApproved = current.length + 1 >= approvalsNeeded;
         if (becomesApproved) await repo.setStatus(manager, row.id, { status: 'approved', approvedAt: new Date() });
         return { id: row.id, sha256: row.sha256, becomesApproved, approvals: current.length + 1 };
@@ -275,7 +360,14 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
         entityType: 'protocol_version',
         entityId: outcome.id,
         ipAddress: actor.ipAddress,
-        details: { key, version, sha256: outcome.sha256, approvedAs, approvals: outcome.approvals },
+        details: {
+          key,
+          version,
+          sha256: outcome.sha256,
+          approvedAs,
+          meaning: signature.meaning,
+          approvals: outcome.approvals,
+        },
       });
       return this.get(key, version);
     },
@@ -288,6 +380,37 @@ export function createProtocolService(repo: ProtocolRepository, audit: AuditRepo
         await repo.setStatus(manager, row.id, { status: 'retired', retiredAt: new Date(), retiredBy: actor.id });
       });
       await audit.append({ actorUserId: actor.id, action: 'protocol.retired', entityType: 'protocol_version', entityId: found.id, ipAddress: actor.ipAddress, details: { key, version, reason } });
+      return this.get(key, version);
+    },
+
+    /**
+     * Sets an unapproved draft aside, with a reason; it stays on record (its number is not given
+     * again) and can never be edited or approved. An approved or retired version is never discarded.
+     */
+    async discard(actor: Actor, key: string, version: number, reason: string) {
+      previews.clear();
+      const found = await mustFind(key, version);
+      await repo.withLockedVersion(found.id, async (manager, row) => {
+        if (row.status !== 'draft')
+          throw AppError.conflict(
+            'not_a_draft',
+            `Only an unapproved draft can be discarded; ${key} version ${version} is ${row.status}.`,
+          );
+        await repo.setStatus(manager, row.id, {
+          status: 'discarded',
+          discardedAt: new Date(),
+          discardedBy: actor.id,
+          discardReason: reason,
+        });
+      });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'protocol.draft-discarded',
+        entityType: 'protocol_version',
+        entityId: found.id,
+        ipAddress: actor.ipAddress,
+        details: { key, version, sha256: found.sha256, reason },
+      });
       return this.get(key, version);
     },
   };
