@@ -7,7 +7,7 @@ import { paths } from '../../../config/paths';
 import { describeError } from '../../../lib/api-client';
 import { protocolQueries } from '../api/protocol-queries';
 
-const statusWords = { draft: 'draft', approved: 'approved', retired: 'retired' } as const;
+const statusWords = { draft: 'draft', approved: 'approved', retired: 'retired', discarded: 'discarded' } as const;
 
 /** Chooses another version of the same protocol and opens the two side by side. */
 export function ComparePicker({ protocolKey, version }: { protocolKey: string; version: number }) {

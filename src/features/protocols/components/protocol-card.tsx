@@ -64,7 +64,7 @@ export function ProtocolCard({ protocol, canDraft, draftingFrom, onStartDraft }:
                   v{version.version}
                 </th>
                 <td className="px-3 py-3">
-                  <VersionStatusBadge status={version.status} />
+                  <VersionStatusBadge status={version.status} supersededBy={version.supersededBy} />
                 </td>
                 <td className="px-3 py-3 text-paper-800">{approvalsText(version)}</td>
                 <td className="px-3 py-3 text-sm text-paper-700">
@@ -88,7 +88,8 @@ export function ProtocolCard({ protocol, canDraft, draftingFrom, onStartDraft }:
                         icon={<CopyDraftIcon className="size-4" />}
                         busy={draftingFrom?.key === version.key && draftingFrom.version === version.version}
                         disabled={draftingFrom !== null}
-                        aria-label={`Start a new draft from ${protocol.title}, version ${version.version}`}
+                        // The accessible name starts with the visible words, so speech input finds the button by them.
+                        aria-label={`Start a new draft from this: ${protocol.title}, version ${version.version}`}
                         onClick={() => onStartDraft(version)}
                       >
                         Start a new draft from this

@@ -12,6 +12,7 @@ import { describeError } from '../../../lib/api-client';
 import type { VersionDetail, VersionSummary } from '../api/protocol-response-schemas';
 import { protocolQueries } from '../api/protocol-queries';
 import { useCreateDraft } from '../hooks/use-create-draft';
+import { ConfirmDraftDialog } from './confirm-draft-dialog';
 import { ImportVersionForm } from './import-version-form';
 import { ProtocolCard } from './protocol-card';
 import { ProtocolCaution } from './protocol-caution';
@@ -30,14 +31,20 @@ export function ProtocolsScreen({ canManage }: ProtocolsScreenProps) {
   const [draftingFrom, setDraftingFrom] = useState<VersionSummary | null>(null);
   const [outcome, setOutcome] = useState<Outcome | null>(null);
 
-  const startDraft = (from: VersionSummary) => {
+  // Asked first: a draft takes the next version number for good.
+  const askDraft = (from: VersionSummary) => {
     setOutcome(null);
+    createDraft.reset();
     setDraftingFrom(from);
+  };
+  const startDraft = (from: VersionSummary) => {
     createDraft.mutate(
       { key: from.key, version: from.version },
       {
-        onSuccess: (draft) => setOutcome({ text: `Draft version ${draft.version} of ${draft.title} was made from version ${from.version}.`, version: draft }),
-        onSettled: () => setDraftingFrom(null),
+        onSuccess: (draft) => {
+          setOutcome({ text: `Draft version ${draft.version} of ${draft.title} was made from version ${from.version}.`, version: draft });
+          setDraftingFrom(null);
+        },
       },
     );
   };
@@ -62,11 +69,16 @@ export function ProtocolsScreen({ canManage }: ProtocolsScreenProps) {
           </p>
         )}
       </div>
-      {createDraft.isError && (
-        <Alert tone="error" title="No draft was made" className="mb-6">
-          {describeError(createDraft.error)}
-        </Alert>
-      )}
+      <ConfirmDraftDialog
+        from={draftingFrom}
+        busy={createDraft.isPending}
+        error={createDraft.error}
+        onConfirm={() => draftingFrom && startDraft(draftingFrom)}
+        onDismiss={() => {
+          createDraft.reset();
+          setDraftingFrom(null);
+        }}
+      />
 
       {protocolsQuery.isPending ? (
         <LoadingPanel label="Loading protocols…" />
@@ -103,7 +115,7 @@ export function ProtocolsScreen({ canManage }: ProtocolsScreenProps) {
                   {kindLabels[kind].short} <span className="font-normal text-paper-700">— {kindLabels[kind].long}</span>
                 </h2>
                 {ofKind.map((protocol) => (
-                  <ProtocolCard key={protocol.key} protocol={protocol} canDraft={canManage} draftingFrom={draftingFrom} onStartDraft={startDraft} />
+                  <ProtocolCard key={protocol.key} protocol={protocol} canDraft={canManage} draftingFrom={createDraft.isPending ? draftingFrom : null} onStartDraft={askDraft} />
                 ))}
               </section>
             );

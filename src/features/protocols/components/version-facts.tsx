@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { protocolApprovalMeaning, protocolApprovalMeaningWords } from '../../../../shared/protocol/approval-signature';
 import { roleLabels } from '../../../../shared/roles';
 import { SignatureIcon } from '../../../components/ui/icons';
 import type { VersionDetail } from '../api/protocol-response-schemas';
@@ -12,7 +13,19 @@ export function VersionFacts({ version }: { version: VersionDetail }) {
     { label: 'Protocol key', value: <code className="font-mono">{version.key}</code> },
     { label: 'Version', value: version.version },
     { label: 'Kind', value: `${kindLabels[version.kind].short} — ${kindLabels[version.kind].long}` },
-    { label: 'Status', value: <VersionStatusBadge status={version.status} /> },
+    {
+      label: 'Status',
+      value: (
+        <span className="flex flex-col items-start gap-1">
+          <VersionStatusBadge status={version.status} supersededBy={version.supersededBy} />
+          {version.supersededBy !== null && (
+            <span className="text-sm text-paper-700">
+              Version {version.supersededBy} is approved too and is offered first; ordering with this one asks for a reason.
+            </span>
+          )}
+        </span>
+      ),
+    },
     { label: 'Origin', value: version.sourceFile ? `${originLabels[version.origin]} (${version.sourceFile})` : originLabels[version.origin] },
     {
       label: 'SHA-256 of the definition',
@@ -36,6 +49,9 @@ export function VersionFacts({ version }: { version: VersionDetail }) {
         ]
       : []),
     ...(version.retiredAt ? [{ label: 'Retired', value: formatDateTime(version.retiredAt) }] : []),
+    ...(version.discardedAt
+      ? [{ label: 'Discarded', value: `${formatDateTime(version.discardedAt)}${version.discardReason ? ` — ${version.discardReason}` : ''}` }]
+      : []),
   ];
   return (
     <dl className="grid gap-x-6 gap-y-3 rounded-2xl border border-paper-200 bg-white p-5 sm:grid-cols-2 lg:grid-cols-3">
@@ -65,6 +81,9 @@ export function ApprovalRecord({ version }: { version: VersionDetail }) {
               <span>
                 <span className="font-medium">{approval.displayName ?? `Person #${approval.userId}`}</span>, as{' '}
                 {roleLabels[approval.approvedAs].toLowerCase()}, on {formatDateTime(approval.approvedAt)}
+                {approval.meaning === protocolApprovalMeaning && (
+                  <span className="block text-sm text-paper-700">Signed with password: “{protocolApprovalMeaningWords}”</span>
+                )}
               </span>
             </li>
           ))}

@@ -4,7 +4,16 @@ import { Link } from 'react-router-dom';
 import type { SessionUser } from '../../../../shared/schemas/auth';
 import { Alert } from '../../../components/ui/alert';
 import { Button, LinkButton } from '../../../components/ui/button';
-import { AlertIcon, ArchiveBoxIcon, ArrowLeftIcon, CheckCircleIcon, CopyDraftIcon, ReloadIcon, SignatureIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  ArchiveBoxIcon,
+  ArrowLeftIcon,
+  CheckCircleIcon,
+  CopyDraftIcon,
+  MinusIcon,
+  ReloadIcon,
+  SignatureIcon,
+} from '../../../components/ui/icons';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
@@ -13,6 +22,7 @@ import type { VersionDetail } from '../api/protocol-response-schemas';
 import { protocolQueries } from '../api/protocol-queries';
 import { useCreateDraft } from '../hooks/use-create-draft';
 import { ApproveDialog } from './approve-dialog';
+import { ConfirmDraftDialog } from './confirm-draft-dialog';
 import { approvalsNeeded } from './approvals-text';
 import { ComparePicker } from './compare-picker';
 import { DefinitionSections } from './definition-sections';
@@ -104,7 +114,7 @@ export function VersionScreen({ protocolKey, version, user, can }: VersionScreen
 }
 
 function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user: SessionUser; can: Permissions }) {
-  const [dialog, setDialog] = useState<'approve' | 'retire' | null>(null);
+  const [dialog, setDialog] = useState<'approve' | 'retire' | 'discard' | 'draft' | null>(null);
   const [outcome, setOutcome] = useState<{ text: string; link?: { to: string; label: string } } | null>(null);
   const createDraft = useCreateDraft();
   const { definition } = detail;
@@ -169,32 +179,28 @@ function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user:
               </Button>
             </div>
           )}
-          {can.manage && (
+          {isDraft && can.manage && (
             <div className="space-y-2">
-              {createDraft.isError && (
-                <Alert tone="error" title="No draft was made">
-                  {describeError(createDraft.error)}
-                </Alert>
-              )}
+              <p className="max-w-prose text-paper-800">
+                A draft made by mistake or no longer wanted can be discarded, with a reason. It stays on record and can never be approved.
+              </p>
+              <Button variant="secondary" icon={<MinusIcon />} onClick={() => setDialog('discard')}>
+                Discard draft {detail.version}…
+              </Button>
+            </div>
+          )}
+          {can.manage && detail.status !== 'discarded' && (
+            <div className="space-y-2">
               <Button
                 variant="secondary"
                 icon={<CopyDraftIcon />}
-                busy={createDraft.isPending}
                 onClick={() => {
                   setOutcome(null);
-                  createDraft.mutate(
-                    { key: detail.key, version: detail.version },
-                    {
-                      onSuccess: (draft) =>
-                        setOutcome({
-                          text: `Draft version ${draft.version} was made from version ${detail.version}.`,
-                          link: { to: paths.protocolVersion.getHref(draft.key, draft.version), label: `Open draft version ${draft.version}` },
-                        }),
-                    },
-                  );
+                  createDraft.reset();
+                  setDialog('draft');
                 }}
               >
-                Start a new draft from this
+                Start a new draft from this…
               </Button>
             </div>
           )}
@@ -232,6 +238,36 @@ function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user:
                 ? `Your approval was recorded. Version ${saved.version} is now approved and can be used for orders.`
                 : `Your approval was recorded (${saved.approvals.length} of ${approvalsNeeded}). A second, different person must approve too.`,
           });
+        }}
+      />
+      <ConfirmDraftDialog
+        from={dialog === 'draft' ? { key: detail.key, version: detail.version, title: definition.title } : null}
+        busy={createDraft.isPending}
+        error={createDraft.error}
+        onDismiss={() => setDialog(null)}
+        onConfirm={() =>
+          createDraft.mutate(
+            { key: detail.key, version: detail.version },
+            {
+              onSuccess: (draft) => {
+                setDialog(null);
+                setOutcome({
+                  text: `Draft version ${draft.version} was made from version ${detail.version}.`,
+                  link: { to: paths.protocolVersion.getHref(draft.key, draft.version), label: `Open draft version ${draft.version}` },
+                });
+              },
+            },
+          )
+        }
+      />
+      <RetireDialog
+        kind="discard"
+        version={detail}
+        open={dialog === 'discard'}
+        onDismiss={() => setDialog(null)}
+        onRetired={(saved) => {
+          setDialog(null);
+          setOutcome({ text: `Draft ${saved.version} was discarded. It stays on record and can never be approved.` });
         }}
       />
       <RetireDialog
