@@ -25,7 +25,7 @@ export function StaffNotes({ discharge }: { discharge: Discharge }) {
         {protocol.kind === 'pdt' && precaution && (
           <li>
             The precaution period of {precaution.hours} h is set by the protocol version and counted
-            from the start of the infusion. {precaution.source}
+            from the start of the infusion; the protocol page names its source.
           </li>
         )}
       </ul>
