@@ -27,6 +27,10 @@ async function openNewOrder(page: Page) {
   await page.getByRole('button', { name: /Choose .*MP-100203/ }).click();
   await page.getByLabel('Right eye').check();
   await page.getByLabel('Protocol version').selectOption('pdt-standard@1');
+  // Version 1 is superseded by version 2; the figures checked here are version 1's.
+  await page
+    .getByLabel('Reason for using the superseded version (required)')
+    .fill('Figures of this check were worked out on version 1 of the protocol');
 }
 
 // The measurements of the slip as met: height 178 cm, weight 84 kg, GLD 2400 µm, lens factor 1.6

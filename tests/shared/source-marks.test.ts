@@ -14,7 +14,11 @@ describe('source marks', () => {
     ).toBe('5% dextrose (glucose); not sodium chloride 0.9%, in which the drug precipitates');
     expect(withoutSourceMarks('Soak 30 min [from memory / common practice]')).toBe('Soak 30 min');
     expect(withoutSourceMarks('A [common practice; no source] figure')).toBe('A figure');
+    expect(
+      withoutSourceMarks('Keep the spot edge at least 200 µm from the optic disc (from memory).'),
+    ).toBe('Keep the spot edge at least 200 µm from the optic disc.');
     expect(withoutSourceMarks('Riboflavin 0.1% [isotonic]')).toBe('Riboflavin 0.1% [isotonic]');
+    expect(withoutSourceMarks('Drops (every 2 min)')).toBe('Drops (every 2 min)');
   });
 
   it('no text of a shipped version that reaches a form or a preparation keeps one once cleaned', () => {
@@ -26,6 +30,7 @@ describe('source marks', () => {
         definition.drug?.reconstitutionFluid,
         definition.cxl?.riboflavin,
         ...definition.contraindications.map((c: { question: string }) => c.question),
+        ...definition.cautions,
         ...definition.steps.map((s: { title: string }) => s.title),
       ].filter((t): t is string => typeof t === 'string');
       for (const text of texts) expect(withoutSourceMarks(text)).not.toMatch(sourceMarkPattern);
