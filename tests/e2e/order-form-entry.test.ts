@@ -9,6 +9,7 @@ import {
   watchPage,
   type BrowserContext,
 } from '../support/browser';
+import { supersededVersionReason } from '../support/api';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -289,6 +290,8 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
         patientId: patient.id,
         eye: 'right',
         protocol: { key: 'pdt-standard', version: 1 },
+        // Version 1 is superseded by version 2; the figures here are version 1's.
+        supersededVersionReason,
         inputs: {
           height: { value: 170, unit: 'cm' },
           weight: { value: 70, unit: 'kg' },
@@ -378,6 +381,8 @@ describe('an order changed by someone else while it is open', () => {
       patientId: patient.id,
       eye: 'left',
       protocol: { key: 'pdt-standard', version: 1 },
+      // Version 1 is superseded by version 2; the figures here are version 1's.
+      supersededVersionReason,
       inputs: {
         height: { value: 170, unit: 'cm' },
         weight: { value: 70, unit: 'kg' },
