@@ -174,6 +174,9 @@ describe('protocol drafts', () => {
     const ordering = await signedInPage('clinician');
     await ordering.page.goto(`${ctx.baseUrl}/orders/new`);
     const select = ordering.page.getByLabel('Protocol version');
+    await select
+      .locator('option', { hasText: `${protocolTitle} — version ${draft}` })
+      .waitFor({ state: 'attached' });
     const options = await select.locator('option').allInnerTexts();
     const halfTime = options.filter((o) => o.startsWith(protocolTitle));
     expect(halfTime[0]).toBe(`${protocolTitle} — version ${draft}`);
