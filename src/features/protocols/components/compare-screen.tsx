@@ -136,7 +136,7 @@ function SideFact({ label, version }: { label: string; version: VersionDetail })
         <Link className="text-iris-700 underline underline-offset-4" to={paths.protocolVersion.getHref(version.key, version.version)}>
           Version {version.version}
         </Link>
-        <VersionStatusBadge status={version.status} />
+        <VersionStatusBadge status={version.status} supersededBy={version.supersededBy} />
       </dd>
     </div>
   );
