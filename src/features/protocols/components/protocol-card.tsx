@@ -33,7 +33,7 @@ export function ProtocolCard({ protocol, canDraft, draftingFrom, onStartDraft }:
           <caption className="sr-only">Versions of {protocol.title}</caption>
           <colgroup>
             <col className="w-24" />
-            <col className="w-36" />
+            <col className="w-44" />
             <col className="w-44" />
             <col />
             <col className={canDraft ? 'w-[22rem]' : 'w-28'} />
