@@ -112,7 +112,12 @@ export function createApp({
     audit,
   });
   const passwordLinks = createPasswordLinks(unitOfWork, passwordLinkRows, config);
-  const protocols = createProtocolService(createProtocolRepository(dataSource), audit, clock);
+  const protocols = createProtocolService(
+    createProtocolRepository(dataSource),
+    audit,
+    auth.confirmSignature,
+    clock,
+  );
   const patients = createPatientRepository(dataSource);
   const orders = createOrderRepository(dataSource);
   const unitTimeZone = config.UNIT_TIME_ZONE;

@@ -1,6 +1,7 @@
 import { DateTime } from 'luxon';
 import { amendableStatuses, treatmentStatuses } from '../../shared/orders/lifecycle';
 import { answeredCautions, signatureProblems } from '../../shared/orders/readiness';
+import { supersededVersionProblem } from '../../shared/orders/superseded-version';
 import {
   lastRecordedWeight,
   weightChangeMessage,
@@ -275,6 +276,7 @@ export function createOrderService(deps: {
       softLimitReasons: order.softLimitReasons,
       retreatmentReason: order.retreatmentReason,
       weightChangeReason: order.weightChangeReason,
+      supersededVersionReason: order.supersededVersionReason,
       note: order.note,
       swellingAcknowledged: order.swellingAcknowledged,
       answeredCautions: answeredCautions(order.protocolVersion.definition, order.checklist),
@@ -329,6 +331,15 @@ export function createOrderService(deps: {
         { path: 'patientId', message: 'patientId must name an existing patient' },
       ]);
     const row = await approvedProtocol(input.protocol.key, input.protocol.version);
+    const supersededBy = await protocols.supersededBy(row.key, row.version);
+    const supersededProblem = supersededVersionProblem(
+      { key: row.key, version: row.version, supersededBy },
+      input.supersededVersionReason,
+    );
+    if (supersededProblem)
+      throw AppError.badRequest(`The order was not saved: ${supersededProblem}.`, [
+        { path: 'supersededVersionReason', message: supersededProblem },
+      ]);
     const computed = await planOrRefuse(actor, row, input.inputs, base.id ?? null);
     const save = async (m: Transaction) => {
       await guard?.(m);
@@ -346,6 +357,8 @@ export function createOrderService(deps: {
         softLimitReasons: input.softLimitReasons,
         retreatmentReason: input.retreatmentReason ?? null,
         weightChangeReason: input.weightChangeReason ?? null,
+        // Kept only while it is needed: a reason for a version that is the newest means nothing.
+        supersededVersionReason: supersededBy === null ? null : input.supersededVersionReason!,
         note: input.note ?? null,
         swellingAcknowledged: input.swellingAcknowledged ?? false,
         createdById: base.createdById ?? actor.id,
@@ -495,6 +508,17 @@ export function createOrderService(deps: {
         weightChangeReason: order.weightChangeReason,
         swellingAcknowledged: order.swellingAcknowledged,
       });
+      // A newer version approved since the draft was saved needs its reason before signing too.
+      const supersededProblem = supersededVersionProblem(
+        {
+          key: row.key,
+          version: row.version,
+          supersededBy: await protocols.supersededBy(row.key, row.version),
+        },
+        order.supersededVersionReason,
+      );
+      if (supersededProblem)
+        problems.push({ path: 'supersededVersionReason', message: supersededProblem });
       if (problems.length > 0) {
         await audit.append({
           actorUserId: actor.id,
@@ -579,6 +603,7 @@ export function createOrderService(deps: {
           softLimitReasons: order.softLimitReasons,
           retreatmentReason: order.retreatmentReason,
           weightChangeReason: order.weightChangeReason,
+          supersededVersionReason: order.supersededVersionReason,
         },
       });
       return detail(await mustFind(id), actor);

@@ -13,7 +13,10 @@ export function definitionSha256(definition: ProtocolDefinition): string {
  * planned on. The database refuses such a change; this catches one made around it (a restore gone
  * wrong, a hand edit as the owner), before a dose or a light setting is read from it.
  */
-export function checkOrderedDefinition(order: { id: number; protocolSha256: string }, actualSha256: string): void {
+export function checkOrderedDefinition(
+  order: { id: number; protocolSha256: string },
+  actualSha256: string,
+): void {
   if (actualSha256 !== order.protocolSha256) {
     throw AppError.conflict(
       'protocol_fingerprint_mismatch',

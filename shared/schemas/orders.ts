@@ -55,6 +55,8 @@ export const orderDraftSchema = z.strictObject({
   retreatmentReason: reason('retreatmentReason').nullable().optional(),
   /** Needed when the weight differs from the patient's last recorded weight beyond the unit's rule. */
   weightChangeReason: reason('weightChangeReason').nullable().optional(),
+  /** Needed when the protocol version chosen has been superseded by a newer approved version. */
+  supersededVersionReason: reason('supersededVersionReason').nullable().optional(),
   note: z.string().trim().max(2000, 'note must be at most 2000 characters').nullable().optional(),
   /** CXL with a swelling step: the clinician acknowledges that a stroma below the minimum is swollen before UV. */
   swellingAcknowledged: z
@@ -197,6 +199,7 @@ export const orderDetailSchema = orderSummarySchema.extend({
   softLimitReasons: z.record(z.string(), z.string()),
   retreatmentReason: z.string().nullable(),
   weightChangeReason: z.string().nullable(),
+  supersededVersionReason: z.string().nullable().default(null),
   note: z.string().nullable(),
   swellingAcknowledged: z.boolean().default(false),
   /** Cautions answered yes, with the clinician's reason: the standing banner on every later screen. */

@@ -9,6 +9,7 @@ import {
   watchPage,
   type BrowserContext,
 } from '../support/browser';
+import { supersededVersionReason } from '../support/api';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -27,6 +28,10 @@ async function openNewOrder(page: Page) {
   await page.getByRole('button', { name: /Choose .*MP-100203/ }).click();
   await page.getByLabel('Right eye').check();
   await page.getByLabel('Protocol version').selectOption('pdt-standard@1');
+  // Version 1 is superseded by version 2; the figures checked here are version 1's.
+  await page
+    .getByLabel('Reason for using the superseded version (required)')
+    .fill('Figures of this check were worked out on version 1 of the protocol');
 }
 
 // The measurements of the slip as met: height 178 cm, weight 84 kg, GLD 2400 µm, lens factor 1.6
@@ -285,6 +290,8 @@ describe('what is typed in a form is kept in the browser until it is saved', () 
         patientId: patient.id,
         eye: 'right',
         protocol: { key: 'pdt-standard', version: 1 },
+        // Version 1 is superseded by version 2; the figures here are version 1's.
+        supersededVersionReason,
         inputs: {
           height: { value: 170, unit: 'cm' },
           weight: { value: 70, unit: 'kg' },
@@ -374,6 +381,8 @@ describe('an order changed by someone else while it is open', () => {
       patientId: patient.id,
       eye: 'left',
       protocol: { key: 'pdt-standard', version: 1 },
+      // Version 1 is superseded by version 2; the figures here are version 1's.
+      supersededVersionReason,
       inputs: {
         height: { value: 170, unit: 'cm' },
         weight: { value: 70, unit: 'kg' },

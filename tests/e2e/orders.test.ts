@@ -42,6 +42,10 @@ describe('ordering PDT through the browser', () => {
     await expect.poll(() => page.getByText('Brightwater, Casimir').first().isVisible()).toBe(true);
 
     await page.getByLabel('Protocol version').selectOption('pdt-standard@1');
+    // Version 1 is superseded by version 2; the figures checked here are version 1's.
+    await page
+      .getByLabel('Reason for using the superseded version (required)')
+      .fill('Figures of this check were worked out on version 1 of the protocol');
     await page.getByLabel('Right eye').check();
     await page.getByLabel('Height', { exact: true }).fill('183');
     await page.getByLabel('Weight', { exact: true }).fill('92');

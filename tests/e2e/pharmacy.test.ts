@@ -10,6 +10,7 @@ import {
   watchPage,
   type BrowserContext,
 } from '../support/browser';
+import { supersededVersionReason } from '../support/api';
 
 let ctx: BrowserContext;
 let clinician: APIRequestContext;
@@ -62,6 +63,8 @@ async function signedPdtOrder() {
       patientId: patient.id,
       eye: 'left',
       protocol: { key: 'pdt-standard', version: 1 },
+      // Version 1 is superseded by version 2; the figures here are version 1's.
+      supersededVersionReason,
       inputs: {
         height: { value: 170, unit: 'cm' },
         weight: { value: 70, unit: 'kg' },

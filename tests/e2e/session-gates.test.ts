@@ -3,6 +3,7 @@ import type { APIRequestContext } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
 import { accessibilityViolations, startBrowserTest, type BrowserContext } from '../support/browser';
+import { supersededVersionReason } from '../support/api';
 import { allChecks, clockKit } from '../support/clock-kit';
 
 /*
@@ -90,6 +91,8 @@ async function preparedPdtOrder(reconstitutedMinutesAgo: number) {
     patientId: await newPatientId(),
     eye: 'right',
     protocol: { key: 'pdt-standard', version: 1 },
+    // Version 1 is superseded by version 2; the figures here are version 1's.
+    supersededVersionReason,
     inputs: {
       height: { value: 170, unit: 'cm' },
       weight: { value: 70, unit: 'kg' },
@@ -249,6 +252,8 @@ describe('gate 6: UV below the minimum thickness', () => {
       patientId: await newPatientId(),
       eye: 'left',
       protocol: { key: 'cxl-standard', version: 1 },
+      // Version 1 is superseded by version 2; the figures here are version 1's.
+      supersededVersionReason,
       inputs: { stromalThicknessUm: 460 },
       checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({
         id: q,

@@ -8,6 +8,7 @@ import {
   startBrowserTest,
   type BrowserContext,
 } from '../support/browser';
+import { supersededVersionReason } from '../support/api';
 import { allChecks, clockKit } from '../support/clock-kit';
 
 /*
@@ -91,6 +92,8 @@ async function preparedPdtOrder() {
     patientId: patient.id,
     eye: 'right',
     protocol: { key: 'pdt-standard', version: 1 },
+    // Version 1 is superseded by version 2; the figures here are version 1's.
+    supersededVersionReason,
     inputs: {
       height: { value: 170, unit: 'cm' },
       weight: { value: 70, unit: 'kg' },
@@ -129,6 +132,8 @@ async function readyCxlOrder(key = 'cxl-standard') {
     patientId: patient.id,
     eye: 'left',
     protocol: { key, version: 1 },
+    // Version 1 is superseded by version 2; the figures here are version 1's.
+    supersededVersionReason,
     inputs: { stromalThicknessUm: 460 },
     checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({
       id: q,

@@ -34,6 +34,7 @@ const expected: Record<string, 'public' | Role[]> = {
   'PUT /api/protocols/:key/versions/:version': ['admin'],
   'POST /api/protocols/:key/versions/:version/approvals': ['clinician', 'pharmacist'],
   'POST /api/protocols/:key/versions/:version/retirement': ['admin'],
+  'POST /api/protocols/:key/versions/:version/discard': ['admin'],
   // The dose plan is for order writers only: a pharmacist with a blind check open must not get it here.
   'POST /api/calculations': ['clinician'],
   'POST /api/light-calculations': all,

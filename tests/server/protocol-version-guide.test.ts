@@ -225,12 +225,22 @@ describe('the guide to adding a protocol version (DEVELOPERS.md)', () => {
 
     // Step 4: two different people, each a clinician or a pharmacist.
     expect(step(4)).toMatch(/two different people, each a clinician or a pharmacist/);
-    const clinician = await signedInAgent(ctx, await createTestPerson(ctx, ['clinician']));
-    const pharmacist = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
-    const first = await clinician.post(`${url}/approvals`);
+    // Each approval is an electronic signature: the approver's password and its meaning.
+    expect(step(4)).toMatch(/password/);
+    const clinicianPerson = await createTestPerson(ctx, ['clinician']);
+    const pharmacistPerson = await createTestPerson(ctx, ['pharmacist']);
+    const clinician = await signedInAgent(ctx, clinicianPerson);
+    const pharmacist = await signedInAgent(ctx, pharmacistPerson);
+    const signature = (person: { password: string }) => ({
+      password: person.password,
+      meaning: 'approved-for-use',
+    });
+    const first = await clinician.post(`${url}/approvals`).send(signature(clinicianPerson));
     expect(first.body.version).toMatchObject({ status: 'draft', sha256 });
-    expect((await clinician.post(`${url}/approvals`)).status).toBe(409);
-    const second = await pharmacist.post(`${url}/approvals`);
+    expect((await clinician.post(`${url}/approvals`).send(signature(clinicianPerson))).status).toBe(
+      409,
+    );
+    const second = await pharmacist.post(`${url}/approvals`).send(signature(pharmacistPerson));
     expect(second.status).toBe(201);
     expect(second.body.version).toMatchObject({ status: 'approved', sha256 });
   });

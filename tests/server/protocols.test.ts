@@ -14,6 +14,7 @@ import {
   signedInAgent,
   startTestApp,
   type TestContext,
+  type TestPerson,
 } from '../support/api';
 
 let ctx: TestContext;
@@ -48,6 +49,11 @@ function importable(overrides: Record<string, unknown> = {}) {
     approval: null,
     ...overrides,
   };
+}
+
+/** An approval is an electronic signature: the approver's password and its meaning. */
+function approvalBy(person: TestPerson) {
+  return { password: person.password, meaning: 'approved-for-use' };
 }
 
 async function importAs(
@@ -304,16 +310,20 @@ describe('importing and approving a protocol version', () => {
     const url = `/api/protocols/${definition.key}/versions/1/approvals`;
     const clinicianAgent = await signedInAgent(ctx, clinician);
 
-    const first = await clinicianAgent.post(url);
+    const first = await clinicianAgent.post(url).send(approvalBy(clinician));
     expect(first.status).toBe(201);
     expect(first.body.version.status).toBe('draft');
     expect(first.body.version.approvals).toHaveLength(1);
 
-    const again = await clinicianAgent.post(url);
+    const again = await clinicianAgent.post(url).send(approvalBy(clinician));
     expect(again.status).toBe(409);
     expect(again.body.error.code).toBe('already_approved');
 
-    const second = await (await signedInAgent(ctx, pharmacist)).post(url);
+    const second = await (
+      await signedInAgent(ctx, pharmacist)
+    )
+      .post(url)
+      .send(approvalBy(pharmacist));
     expect(second.status).toBe(201);
     expect(second.body.version.status).toBe('approved');
     expect(
@@ -345,7 +355,9 @@ describe('importing and approving a protocol version', () => {
       for (const approver of approvers)
         await (
           await signedInAgent(ctx, approver)
-        ).post(`/api/protocols/${v1.key}/versions/${definition.version}/approvals`);
+        )
+          .post(`/api/protocols/${v1.key}/versions/${definition.version}/approvals`)
+          .send(approvalBy(approver));
     }
     const clinicianAgent = await signedInAgent(ctx, approvers[0]!);
     const calculate = () =>
@@ -425,11 +437,15 @@ describe('importing and approving a protocol version', () => {
     const definition = importable();
     await importAs(adminAgent, definition);
     const url = `/api/protocols/${definition.key}/versions/1/approvals`;
-    await (await signedInAgent(ctx, clinician)).post(url);
+    await (await signedInAgent(ctx, clinician)).post(url).send(approvalBy(clinician));
     await adminAgent
       .put(`/api/protocols/${definition.key}/versions/1`)
       .send({ definition: { ...definition, summary: 'Changed after one approval.' } });
-    const second = await (await signedInAgent(ctx, pharmacist)).post(url);
+    const second = await (
+      await signedInAgent(ctx, pharmacist)
+    )
+      .post(url)
+      .send(approvalBy(pharmacist));
     expect(second.status).toBe(201);
     expect(second.body.version.status).toBe('draft');
     expect(second.body.version.approvals).toHaveLength(1);

@@ -110,6 +110,13 @@ const pdtChecklist = [
 ];
 const cxlChecklist = ['thin-stroma', 'active-infection', 'herpetic-keratitis'];
 
+/**
+ * Version 1 of each shipped protocol is superseded by version 2; orders on it need a reason of
+ * substance. The tests' expected figures were worked out on version 1, so they keep it.
+ */
+export const supersededVersionReason =
+  'Test orders keep version 1, on which their expected figures were worked out';
+
 /** A complete, signable order body for the standard PDT protocol (170 cm, 70 kg, GLD 2500 µm). */
 export function pdtOrder(patientId: number, overrides: Record<string, unknown> = {}) {
   return {
@@ -124,6 +131,7 @@ export function pdtOrder(patientId: number, overrides: Record<string, unknown> =
       lensMagnification: 1,
     },
     checklist: pdtChecklist.map((id) => ({ id, answer: 'no' })),
+    supersededVersionReason,
     ...overrides,
   };
 }
@@ -135,6 +143,7 @@ export function cxlOrder(patientId: number, overrides: Record<string, unknown> =
     protocol: { key: 'cxl-standard', version: 1 },
     inputs: { stromalThicknessUm: 460 },
     checklist: cxlChecklist.map((id) => ({ id, answer: 'no' })),
+    supersededVersionReason,
     ...overrides,
   };
 }

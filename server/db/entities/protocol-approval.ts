@@ -36,6 +36,13 @@ export class ProtocolApproval {
   @Column({ name: 'approved_as', type: 'varchar', length: 16 })
   approvedAs!: string;
 
+  /**
+   * What the approver's electronic signature means (shared/protocol/approval-signature.ts), stated
+   * on screen as they typed their password. Null on approvals given before it was asked.
+   */
+  @Column({ type: 'varchar', length: 32, nullable: true })
+  meaning!: string | null;
+
   /** The SHA-256 of the definition the person saw, so an approval can't carry over to other content. */
   @Column({ name: 'definition_sha256', type: 'char', length: 64 })
   definitionSha256!: string;

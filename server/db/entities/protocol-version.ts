@@ -10,7 +10,7 @@ import {
 import type { ProtocolVersion as ProtocolDefinition } from '../../../shared/protocol/protocol-schema';
 import { ProtocolApproval } from './protocol-approval';
 
-export const protocolStatuses = ['draft', 'approved', 'retired'] as const;
+export const protocolStatuses = ['draft', 'approved', 'retired', 'discarded'] as const;
 export type ProtocolStatus = (typeof protocolStatuses)[number];
 
 export const protocolOrigins = ['shipped', 'imported', 'cloned'] as const;
@@ -72,6 +72,16 @@ export class ProtocolVersion {
 
   @Column({ name: 'retired_by', type: 'int', unsigned: true, nullable: true })
   retiredBy!: number | null;
+
+  /** A draft set aside before approval: kept (its number is used), never approvable again. */
+  @Column({ name: 'discarded_at', type: 'datetime', precision: 3, nullable: true })
+  discardedAt!: Date | null;
+
+  @Column({ name: 'discarded_by', type: 'int', unsigned: true, nullable: true })
+  discardedBy!: number | null;
+
+  @Column({ name: 'discard_reason', type: 'varchar', length: 500, nullable: true })
+  discardReason!: string | null;
 
   @OneToMany(() => ProtocolApproval, (approval) => approval.protocolVersion)
   approvals!: Relation<ProtocolApproval[]>;

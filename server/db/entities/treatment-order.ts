@@ -90,6 +90,10 @@ export class TreatmentOrder {
   @Column({ name: 'weight_change_reason', type: 'varchar', length: 500, nullable: true })
   weightChangeReason!: string | null;
 
+  /** Needed when the order uses a protocol version that a newer approved version has superseded. */
+  @Column({ name: 'superseded_version_reason', type: 'varchar', length: 500, nullable: true })
+  supersededVersionReason!: string | null;
+
   @Column({ type: 'text', nullable: true })
   note!: string | null;
 

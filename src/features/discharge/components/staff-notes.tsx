@@ -1,4 +1,5 @@
 import { ShieldEyeIcon } from '../../../components/ui/icons';
+import { withoutSourceMarks } from '../../../../shared/protocol/source-marks';
 import type { Discharge } from '../api/discharge-schemas';
 
 /** For the nurse on screen only: the protocol version's cautions and where the precaution period comes from. */
@@ -25,7 +26,7 @@ export function StaffNotes({ discharge }: { discharge: Discharge }) {
         {protocol.kind === 'pdt' && precaution && (
           <li>
             The precaution period of {precaution.hours} h is set by the protocol version and counted
-            from the start of the infusion. {precaution.source}
+            from the start of the infusion; the protocol page names its source.
           </li>
         )}
       </ul>
@@ -36,7 +37,7 @@ export function StaffNotes({ discharge }: { discharge: Discharge }) {
           </h3>
           <ul className="list-disc space-y-1 pl-5 text-sm leading-relaxed">
             {cautions.map((caution) => (
-              <li key={caution}>{caution}</li>
+              <li key={caution}>{withoutSourceMarks(caution)}</li>
             ))}
           </ul>
         </>

@@ -1,4 +1,5 @@
 import type { Ref } from 'react';
+import { withoutSourceMarks } from '../../../../shared/protocol/source-marks';
 import type { DosePlan, WorkingEntry } from '../../../../shared/schemas/calculation';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
 import { CheckCircleIcon } from '../../../components/ui/icons';
@@ -114,7 +115,9 @@ export function CheckOutcome({ order, plan, protocol, headingRef }: CheckOutcome
                 {quantity(plan.diluentVolumeMl, 'mL')}
               </td>
               <td className="py-2.5 text-paper-800">
-                {protocol?.definition.drug ? protocol.definition.drug.diluent : ''}
+                {protocol?.definition.drug
+                  ? withoutSourceMarks(protocol.definition.drug.diluent)
+                  : ''}
               </td>
             </tr>
             <tr className="border-b border-paper-200">

@@ -1,4 +1,5 @@
 import type { ProtocolDrugParameters } from '../api/get-protocol-drug';
+import { withoutSourceMarks } from '../../../../shared/protocol/source-marks';
 import { quantity } from './display-format';
 
 /** The protocol version's drug figures, rounding steps and check tolerances: the rest of the sum. */
@@ -16,7 +17,7 @@ export function DrugParameters({ protocol }: { protocol: ProtocolDrugParameters 
       `${quantity(drug.reconstitutionVolumeMl, 'mL')} ${drug.reconstitutionFluid}, giving ${quantity(drug.reconstitutedVolumeMl, 'mL')}`,
     ],
     ['Final infusion volume', quantity(drug.finalVolumeMl, 'mL')],
-    ['Diluent', drug.diluent],
+    ['Diluent', withoutSourceMarks(drug.diluent)],
     ['Infusion time', quantity(drug.infusionMin, 'min')],
     ['Use within', `${quantity(drug.beyondUseH, 'h')} of reconstitution`],
   ];

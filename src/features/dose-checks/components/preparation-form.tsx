@@ -1,4 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
+import { withoutSourceMarks } from '../../../../shared/protocol/source-marks';
 import { DateTime } from 'luxon';
 import { useForm } from 'react-hook-form';
 import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
@@ -167,7 +168,8 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
             ).
           </li>
           <li>
-            Add {quantity(plan.diluentVolumeMl, 'mL')} {drug ? drug.diluent : 'diluent'}
+            Add {quantity(plan.diluentVolumeMl, 'mL')}{' '}
+            {drug ? withoutSourceMarks(drug.diluent) : 'diluent'}
             {drug ? ` to make ${quantity(drug.finalVolumeMl, 'mL')}` : ''}; infuse at{' '}
             {quantity(plan.infusionRateMlPerMin, 'mL/min')}.
           </li>

@@ -35,6 +35,8 @@ const protocolVersionChoiceSchema = z.object({
   kind: z.enum(protocolKinds),
   title: z.string(),
   status: z.string(),
+  /** The newer approved version that supersedes this one (derived by the server); null when newest. */
+  supersededBy: z.number().int().nullable().optional().default(null),
 });
 export type ProtocolVersionChoice = z.infer<typeof protocolVersionChoiceSchema>;
 

@@ -46,7 +46,7 @@ function QuestionBlock({
           {question.question}
         </legend>
         <p id={`${legendId}-severity`} className="mt-0.5 text-sm text-paper-700">
-          {severityWords[question.severity]}. Source: {question.source}.
+          {severityWords[question.severity]}.
         </p>
         <div className="mt-2 flex flex-wrap gap-2">
           {(['no', 'yes'] as const).map((value) => (

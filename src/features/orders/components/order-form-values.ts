@@ -11,7 +11,10 @@ import {
   type OrderDraft,
 } from '../../../../shared/schemas/orders';
 import type { Eye } from '../../../../shared/schemas/patients';
+import { supersededVersionProblem } from '../../../../shared/orders/superseded-version';
 import { parseTypedNumber } from '../../../lib/typed-number';
+
+const sentence = (message: string) => message.charAt(0).toUpperCase() + message.slice(1);
 
 /**
  * What the order form holds: text as typed (so nothing is lost or reformatted on an error), the
@@ -35,6 +38,8 @@ export type OrderFormValues = {
   weightChangeReason: string;
   note: string;
   amendmentReason: string;
+  /** Why this order uses a version that a newer approved version supersedes. */
+  supersededVersionReason: string;
   /** CXL with a swelling step and a stroma below the minimum: the clinician's acknowledgement. */
   swellingAcknowledged: boolean;
 };
@@ -46,6 +51,8 @@ export type OrderFormContext = {
   definition: ProtocolVersion | null;
   /** Fields the preview or the server warned about; only their reasons are sent. */
   warnedFields: readonly string[] | null;
+  /** The newer approved version that supersedes the chosen one, if any. */
+  supersededBy?: number | null;
 };
 
 /** Soft-limit reasons are keyed by API paths with dots, which a form path would read as nesting. */
@@ -77,6 +84,7 @@ export function emptyOrderForm(patientId?: number): OrderFormValues {
     weightChangeReason: '',
     note: '',
     amendmentReason: '',
+    supersededVersionReason: '',
     swellingAcknowledged: false,
   };
 }
@@ -138,6 +146,7 @@ export function settleFormValues(raw: unknown): OrderFormValues {
     weightChangeReason: asText(v.weightChangeReason),
     note: asText(v.note),
     amendmentReason: asText(v.amendmentReason),
+    supersededVersionReason: asText(v.supersededVersionReason),
     swellingAcknowledged: v.swellingAcknowledged === true,
   };
 }
@@ -177,6 +186,7 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
     weightChangeReason: order.weightChangeReason ?? '',
     note: order.note ?? '',
     amendmentReason: '',
+    supersededVersionReason: order.supersededVersionReason ?? '',
     swellingAcknowledged: order.swellingAcknowledged,
   };
 }
@@ -267,6 +277,7 @@ export function formToDraft(
     softLimitReasons,
     retreatmentReason: blankToNull(values.retreatmentReason),
     weightChangeReason: blankToNull(values.weightChangeReason),
+    supersededVersionReason: blankToNull(values.supersededVersionReason),
     note: blankToNull(values.note),
     swellingAcknowledged: context.definition?.kind === 'cxl' && values.swellingAcknowledged,
   };
@@ -286,6 +297,7 @@ export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>
     case 'weightChangeReason':
     case 'note':
     case 'amendmentReason':
+    case 'supersededVersionReason':
     case 'swellingAcknowledged':
       return head;
     case 'protocol':
@@ -334,6 +346,7 @@ export const messageLabels: Record<string, string> = {
   weightChangeReason: 'The reason for the change in weight',
   note: 'The note',
   amendmentReason: 'The amendment reason',
+  supersededVersionReason: 'The reason for the superseded version',
 };
 
 function setNested(errors: Record<string, unknown>, name: string, error: FieldError) {
@@ -363,13 +376,20 @@ export function checkOrderForm(
     problems.push({ field: 'patientId', message: 'Choose the patient' });
   if (values.eye === '')
     problems.push({ field: 'eye', message: 'Choose the treatment eye: right or left' });
-  if (!parseProtocolRef(values.protocolRef))
-    problems.push({ field: 'protocolRef', message: 'Choose a protocol version' });
+  const protocol = parseProtocolRef(values.protocolRef);
+  if (!protocol) problems.push({ field: 'protocolRef', message: 'Choose a protocol version' });
   else if (!context.definition)
     problems.push({
       field: 'protocolRef',
       message: 'The protocol version is still loading; try again in a moment',
     });
+  if (protocol && context.supersededBy) {
+    const problem = supersededVersionProblem(
+      { ...protocol, version: protocol.version ?? 0, supersededBy: context.supersededBy },
+      values.supersededVersionReason,
+    );
+    if (problem) problems.push({ field: 'supersededVersionReason', message: sentence(problem) });
+  }
   const { invalid } = formToInputs(values, context.definition?.kind ?? null);
   for (const field of invalid)
     problems.push({

@@ -8,6 +8,7 @@ import type { InputLimit } from '../../../../shared/protocol/protocol-schema';
 import type { AmendOrder, OrderDetail, OrderDraft } from '../../../../shared/schemas/orders';
 import { Alert } from '../../../components/ui/alert';
 import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
+import { Link } from 'react-router-dom';
 import { Button, LinkButton } from '../../../components/ui/button';
 import { FieldError } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
@@ -41,6 +42,7 @@ import { PlanPreviewPanel } from './plan-preview-panel';
 import { formatFigure } from './plan-numbers';
 import { SelectField } from '../../../components/ui/select-field';
 import { TextAreaField } from '../../../components/ui/text-area-field';
+import { paths } from '../../../config/paths';
 import { Checkbox } from '../../../components/ui/checkbox';
 import { TreatmentCautions } from './treatment-cautions';
 
@@ -189,6 +191,12 @@ export function OrderForm({
     );
   }, [preview, source]);
 
+  const chosenChoice = chosenRef
+    ? protocolChoices
+        .flatMap((p) => p.versions)
+        .find((v) => v.key === chosenRef.key && v.version === chosenRef.version)
+    : undefined;
+  contextRef.current.supersededBy = chosenChoice?.supersededBy ?? null;
   contextRef.current.definition = definition;
   contextRef.current.warnedFields =
     preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null;
@@ -359,7 +367,10 @@ export function OrderForm({
           >
             <option value="">Choose a protocol version…</option>
             {protocolChoices.map((protocol) => {
-              const versions = protocol.versions.filter((v) => v.status === 'approved');
+              // The newest approved version first; a superseded one says so, and asks a reason.
+              const versions = protocol.versions
+                .filter((v) => v.status === 'approved')
+                .sort((a, b) => b.version - a.version);
               if (versions.length === 0) return null;
               return (
                 <optgroup
@@ -369,6 +380,9 @@ export function OrderForm({
                   {versions.map((v) => (
                     <option key={`${v.key}-${v.version}`} value={protocolRefOf(v.key, v.version)}>
                       {v.title} — version {v.version}
+                      {v.supersededBy !== null
+                        ? ` (superseded by version ${v.supersededBy}; needs a reason)`
+                        : ''}
                     </option>
                   ))}
                 </optgroup>
@@ -382,6 +396,49 @@ export function OrderForm({
             )}
           </SelectField>
           {definition && <p className="text-sm text-paper-700">{definition.summary}</p>}
+          {chosenChoice && chosenChoice.supersededBy !== null && (
+            <div className="space-y-3 rounded-lg border border-paper-400 bg-paper-50 px-4 py-3">
+              <p className="text-paper-900">
+                Version {chosenChoice.version} is superseded: version {chosenChoice.supersededBy} of
+                this protocol is approved and is the one to use unless this patient needs the older
+                one.
+              </p>
+              <div className="flex flex-wrap gap-3">
+                <Button
+                  variant="secondary"
+                  size="sm"
+                  onClick={() =>
+                    setValue(
+                      'protocolRef',
+                      protocolRefOf(chosenChoice.key, chosenChoice.supersededBy!),
+                      { shouldValidate: isSubmitted },
+                    )
+                  }
+                >
+                  Use version {chosenChoice.supersededBy} instead
+                </Button>
+                <Link
+                  target="_blank"
+                  rel="noreferrer"
+                  className="self-center text-iris-700 underline underline-offset-4"
+                  to={paths.protocolCompare.getHref(
+                    chosenChoice.key,
+                    chosenChoice.version,
+                    chosenChoice.supersededBy,
+                  )}
+                >
+                  What changed in version {chosenChoice.supersededBy} (opens in a new tab)
+                </Link>
+              </div>
+              <TextAreaField
+                label="Reason for using the superseded version (required)"
+                hint="At least 15 characters and 3 words: why the older version is right for this patient. Kept with the order."
+                rows={2}
+                error={fieldError('supersededVersionReason')}
+                {...register('supersededVersionReason')}
+              />
+            </div>
+          )}
         </Section>
 
         <Section

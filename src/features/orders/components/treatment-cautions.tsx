@@ -1,4 +1,5 @@
 import type { ProtocolKind } from '../../../../shared/protocol/protocol-schema';
+import { withoutSourceMarks } from '../../../../shared/protocol/source-marks';
 import { ShieldEyeIcon } from '../../../components/ui/icons';
 
 type TreatmentCautionsProps = {
@@ -54,7 +55,7 @@ export function TreatmentCautions({
           <h3 className="mt-3 mb-1 text-sm font-semibold">From this protocol version</h3>
           <ul className="list-disc space-y-1 pl-5 text-sm leading-relaxed">
             {protocolCautions.map((caution) => (
-              <li key={caution}>{caution}</li>
+              <li key={caution}>{withoutSourceMarks(caution)}</li>
             ))}
           </ul>
         </>

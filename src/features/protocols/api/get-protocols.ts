@@ -4,7 +4,9 @@ import { protocolSummarySchema, type ProtocolSummary } from './protocol-response
 
 const protocolsResponseSchema = z.object({ protocols: z.array(protocolSummarySchema) });
 
-export async function getProtocols({ signal }: { signal?: AbortSignal } = {}): Promise<ProtocolSummary[]> {
+export async function getProtocols({ signal }: { signal?: AbortSignal } = {}): Promise<
+  ProtocolSummary[]
+> {
   const { protocols } = await api.get('/protocols', { schema: protocolsResponseSchema, signal });
   return protocols;
 }

@@ -4,7 +4,7 @@ import { roles } from '../../../../shared/roles';
 
 /** The shapes the protocol API answers with; the server builds them in server/protocols/service.ts. */
 
-export const versionStatuses = ['draft', 'approved', 'retired'] as const;
+export const versionStatuses = ['draft', 'approved', 'retired', 'discarded'] as const;
 export type VersionStatus = (typeof versionStatuses)[number];
 
 export const versionOrigins = ['shipped', 'imported', 'cloned'] as const;
@@ -15,6 +15,8 @@ export const approvalSchema = z.object({
   displayName: z.string().nullable(),
   approvedAs: z.enum(roles),
   approvedAt: z.string(),
+  /** What the approver's signature meant (shared/protocol/approval-signature.ts); null on older approvals. */
+  meaning: z.string().nullable().default(null),
 });
 export type VersionApproval = z.infer<typeof approvalSchema>;
 
@@ -29,6 +31,10 @@ export const versionSummarySchema = z.object({
   createdAt: z.string(),
   approvedAt: z.string().nullable(),
   retiredAt: z.string().nullable(),
+  discardedAt: z.string().nullable().default(null),
+  discardReason: z.string().nullable().default(null),
+  /** The newer approved version that supersedes this approved one; null when it is the newest. */
+  supersededBy: z.number().int().nullable().default(null),
   approvals: z.array(approvalSchema),
 });
 export type VersionSummary = z.infer<typeof versionSummarySchema>;

@@ -3,7 +3,15 @@ import { versionResponseSchema, type VersionDetail } from './protocol-response-s
 import { versionAddress, type VersionRef } from './version-address';
 
 /** Replaces a draft's definition; the server validates it and refuses anything but a draft. */
-export async function updateDraft({ key, version, definition }: VersionRef & { definition: unknown }): Promise<VersionDetail> {
-  const response = await api.put(versionAddress(key, version), { definition }, { schema: versionResponseSchema });
+export async function updateDraft({
+  key,
+  version,
+  definition,
+}: VersionRef & { definition: unknown }): Promise<VersionDetail> {
+  const response = await api.put(
+    versionAddress(key, version),
+    { definition },
+    { schema: versionResponseSchema },
+  );
   return response.version;
 }

@@ -1,7 +1,12 @@
 import type { ReactNode } from 'react';
 import { bsaFormulas } from '../../../../shared/engine/bsa';
-import type { InputLimit, ProtocolVersion, StepKind } from '../../../../shared/protocol/protocol-schema';
+import type {
+  InputLimit,
+  ProtocolVersion,
+  StepKind,
+} from '../../../../shared/protocol/protocol-schema';
 import { AlertIcon, InfoIcon } from '../../../components/ui/icons';
+import { fieldLabel } from './protocol-field-labels';
 import { formatDurationS, formatFigure, kindLabels } from './protocol-labels';
 import { NotUsed, ParameterList, ParameterSection, type Parameter } from './parameter-list';
 
@@ -42,11 +47,20 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
       <ParameterSection id="params-general" title="General">
         <ParameterList
           parameters={[
-            { label: 'Title', value: definition.title },
-            { label: 'Kind', value: `${kindLabels[definition.kind].short} — ${kindLabels[definition.kind].long}` },
-            { label: 'Summary', value: definition.summary },
-            { label: 'Default BSA formula', value: bsaFormulas[definition.bsaFormulaDefault].label },
-            { label: 'Shortest interval before re-treatment (days)', value: figure(definition.retreatmentMinDays) },
+            { label: fieldLabel('title'), value: definition.title },
+            {
+              label: fieldLabel('kind'),
+              value: `${kindLabels[definition.kind].short} — ${kindLabels[definition.kind].long}`,
+            },
+            { label: fieldLabel('summary'), value: definition.summary },
+            {
+              label: fieldLabel('bsaFormulaDefault'),
+              value: bsaFormulas[definition.bsaFormulaDefault].label,
+            },
+            {
+              label: fieldLabel('retreatmentMinDays'),
+              value: figure(definition.retreatmentMinDays),
+            },
           ]}
         />
       </ParameterSection>
@@ -59,22 +73,48 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
         ) : (
           <ParameterList
             parameters={[
-              { label: 'Drug', value: drug.name },
-              { label: 'Route', value: drug.route },
-              { label: 'Dose (mg/m² of body surface area)', value: figure(drug.doseMgPerM2) },
-              { label: 'Concentration after reconstitution (mg/mL)', value: figure(drug.concentrationMgPerMl) },
-              { label: 'Content of one vial (mg)', value: figure(drug.vialContentMg) },
-              { label: 'Fluid added to one vial (mL)', value: figure(drug.reconstitutionVolumeMl) },
-              { label: 'Reconstitution fluid', value: drug.reconstitutionFluid },
-              { label: 'Volume in the vial after reconstitution (mL)', value: figure(drug.reconstitutedVolumeMl) },
-              { label: 'Final volume to infuse (mL)', value: figure(drug.finalVolumeMl) },
-              { label: 'Diluent', value: drug.diluent },
-              { label: 'Infusion time (min)', value: figure(drug.infusionMin) },
-              { label: 'Use within, after reconstitution (h)', value: figure(drug.beyondUseH) },
-              { label: 'Light precautions after the infusion (h)', value: figure(drug.lightPrecautionH) },
-              { label: 'Light precaution period: source', value: drug.lightPrecautionSource },
-              ...(drug.syringeGraduationMl !== undefined ? [{ label: 'Syringe graduation the drug volume is rounded to (mL)', value: figure(drug.syringeGraduationMl) }] : []),
-              ...(drug.withdrawableVolumeMlPerVial !== undefined ? [{ label: 'Volume that can be drawn from one vial (mL)', value: figure(drug.withdrawableVolumeMlPerVial) }] : []),
+              { label: fieldLabel('drug.name'), value: drug.name },
+              { label: fieldLabel('drug.route'), value: drug.route },
+              { label: fieldLabel('drug.doseMgPerM2'), value: figure(drug.doseMgPerM2) },
+              {
+                label: fieldLabel('drug.concentrationMgPerMl'),
+                value: figure(drug.concentrationMgPerMl),
+              },
+              { label: fieldLabel('drug.vialContentMg'), value: figure(drug.vialContentMg) },
+              {
+                label: fieldLabel('drug.reconstitutionVolumeMl'),
+                value: figure(drug.reconstitutionVolumeMl),
+              },
+              { label: fieldLabel('drug.reconstitutionFluid'), value: drug.reconstitutionFluid },
+              {
+                label: fieldLabel('drug.reconstitutedVolumeMl'),
+                value: figure(drug.reconstitutedVolumeMl),
+              },
+              { label: fieldLabel('drug.finalVolumeMl'), value: figure(drug.finalVolumeMl) },
+              { label: fieldLabel('drug.diluent'), value: drug.diluent },
+              { label: fieldLabel('drug.infusionMin'), value: figure(drug.infusionMin) },
+              { label: fieldLabel('drug.beyondUseH'), value: figure(drug.beyondUseH) },
+              { label: fieldLabel('drug.lightPrecautionH'), value: figure(drug.lightPrecautionH) },
+              {
+                label: fieldLabel('drug.lightPrecautionSource'),
+                value: drug.lightPrecautionSource,
+              },
+              ...(drug.syringeGraduationMl !== undefined
+                ? [
+                    {
+                      label: fieldLabel('drug.syringeGraduationMl'),
+                      value: figure(drug.syringeGraduationMl),
+                    },
+                  ]
+                : []),
+              ...(drug.withdrawableVolumeMlPerVial !== undefined
+                ? [
+                    {
+                      label: fieldLabel('drug.withdrawableVolumeMlPerVial'),
+                      value: figure(drug.withdrawableVolumeMlPerVial),
+                    },
+                  ]
+                : []),
             ]}
           />
         )}
@@ -83,15 +123,26 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
       <ParameterSection id="params-light" title="Light">
         <ParameterList
           parameters={[
-            { label: 'Wavelength (nm)', value: figure(light.wavelengthNm) },
-            { label: 'Irradiance (mW/cm²)', value: figure(light.irradianceMwPerCm2) },
-            { label: 'Target fluence (J/cm²)', value: figure(light.targetFluenceJPerCm2) },
-            { label: 'Light-on time (s)', value: formatDurationS(light.exposureS) },
-            { label: 'Margin added to the lesion GLD (µm)', value: figure(light.spotMarginUm) },
-            { label: 'Largest spot allowed (µm)', value: figure(light.maxSpotUm) },
+            { label: fieldLabel('light.wavelengthNm'), value: figure(light.wavelengthNm) },
             {
-              label: 'Pulsed cycle, on / off (s)',
-              value: light.pulse === null ? <NotUsed>Continuous light (not pulsed)</NotUsed> : `${formatFigure(light.pulse.onS)} s on / ${formatFigure(light.pulse.offS)} s off`,
+              label: fieldLabel('light.irradianceMwPerCm2'),
+              value: figure(light.irradianceMwPerCm2),
+            },
+            {
+              label: fieldLabel('light.targetFluenceJPerCm2'),
+              value: figure(light.targetFluenceJPerCm2),
+            },
+            { label: fieldLabel('light.exposureS'), value: formatDurationS(light.exposureS) },
+            { label: fieldLabel('light.spotMarginUm'), value: figure(light.spotMarginUm) },
+            { label: fieldLabel('light.maxSpotUm'), value: figure(light.maxSpotUm) },
+            {
+              label: fieldLabel('light.pulse'),
+              value:
+                light.pulse === null ? (
+                  <NotUsed>Continuous light (not pulsed)</NotUsed>
+                ) : (
+                  `${formatFigure(light.pulse.onS)} s on / ${formatFigure(light.pulse.offS)} s off`
+                ),
             },
           ]}
         />
@@ -99,7 +150,12 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
 
       <ParameterSection id="params-timing" title="Timing">
         <ParameterList
-          parameters={[{ label: 'Light starts after the start of the infusion (min)', value: figure(timing?.lightStartAfterInfusionStartMin) }]}
+          parameters={[
+            {
+              label: fieldLabel('timing.lightStartAfterInfusionStartMin'),
+              value: figure(timing?.lightStartAfterInfusionStartMin),
+            },
+          ]}
         />
       </ParameterSection>
 
@@ -111,35 +167,60 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
         ) : (
           <ParameterList
             parameters={[
-              { label: 'Epithelium removed', value: yesNo(cxl.epitheliumOff) },
-              { label: 'Riboflavin', value: cxl.riboflavin },
-              { label: 'Soak time (min)', value: figure(cxl.soakMin) },
-              { label: 'Drop every, during the soak (min)', value: figure(cxl.dropIntervalSoakMin) },
-              { label: 'Drop every, during UV (min)', value: figure(cxl.dropIntervalUvMin) },
-              { label: 'Minimum stromal thickness (µm)', value: figure(cxl.minStromalThicknessUm) },
-              { label: 'Swelling of a thin cornea allowed', value: yesNo(cxl.swellingAllowed) },
-              { label: 'Swelling drop every (s)', value: figure(cxl.swellingDropIntervalS) },
-              { label: 'Swelling riboflavin', value: textOrNotUsed(cxl.swellingRiboflavin) },
+              { label: fieldLabel('cxl.epitheliumOff'), value: yesNo(cxl.epitheliumOff) },
+              { label: fieldLabel('cxl.riboflavin'), value: cxl.riboflavin },
+              { label: fieldLabel('cxl.soakMin'), value: figure(cxl.soakMin) },
+              {
+                label: fieldLabel('cxl.dropIntervalSoakMin'),
+                value: figure(cxl.dropIntervalSoakMin),
+              },
+              { label: fieldLabel('cxl.dropIntervalUvMin'), value: figure(cxl.dropIntervalUvMin) },
+              {
+                label: fieldLabel('cxl.minStromalThicknessUm'),
+                value: figure(cxl.minStromalThicknessUm),
+              },
+              { label: fieldLabel('cxl.swellingAllowed'), value: yesNo(cxl.swellingAllowed) },
+              {
+                label: fieldLabel('cxl.swellingDropIntervalS'),
+                value: figure(cxl.swellingDropIntervalS),
+              },
+              {
+                label: fieldLabel('cxl.swellingRiboflavin'),
+                value: textOrNotUsed(cxl.swellingRiboflavin),
+              },
             ]}
           />
         )}
       </ParameterSection>
 
-      <ParameterSection id="params-rounding" title="Rounding" lead="Each figure of a plan is rounded to a multiple of these steps.">
+      <ParameterSection
+        id="params-rounding"
+        title="Rounding"
+        lead="Each figure of a plan is rounded to a multiple of these steps."
+      >
         <ParameterList
           parameters={[
-            { label: 'BSA (m²)', value: figure(rounding.bsaM2) },
-            { label: 'Dose (mg)', value: figure(rounding.doseMg) },
-            { label: 'Volumes (mL)', value: figure(rounding.volumesMl) },
-            { label: 'Infusion rate (mL/min)', value: figure(rounding.rateMlPerMin) },
-            { label: 'Spot diameter (µm)', value: figure(rounding.spotUm) },
-            { label: 'Spot area (cm²)', value: figure(rounding.spotAreaCm2) },
-            { label: 'Power (mW)', value: figure(rounding.powerMw) },
-            { label: 'Fluence (J/cm²)', value: figure(rounding.fluenceJPerCm2) },
-            { label: 'Energy (J)', value: figure(rounding.energyJ) },
-            { label: 'Times (s)', value: figure(rounding.timeS) },
-            { label: 'Endothelial irradiance (mW/cm²)', value: figure(rounding.endothelialIrradianceMwPerCm2) },
-            { label: 'Endothelial dose (J/cm²)', value: figure(rounding.endothelialDoseJPerCm2) },
+            { label: fieldLabel('rounding.bsaM2'), value: figure(rounding.bsaM2) },
+            { label: fieldLabel('rounding.doseMg'), value: figure(rounding.doseMg) },
+            { label: fieldLabel('rounding.volumesMl'), value: figure(rounding.volumesMl) },
+            { label: fieldLabel('rounding.rateMlPerMin'), value: figure(rounding.rateMlPerMin) },
+            { label: fieldLabel('rounding.spotUm'), value: figure(rounding.spotUm) },
+            { label: fieldLabel('rounding.spotAreaCm2'), value: figure(rounding.spotAreaCm2) },
+            { label: fieldLabel('rounding.powerMw'), value: figure(rounding.powerMw) },
+            {
+              label: fieldLabel('rounding.fluenceJPerCm2'),
+              value: figure(rounding.fluenceJPerCm2),
+            },
+            { label: fieldLabel('rounding.energyJ'), value: figure(rounding.energyJ) },
+            { label: fieldLabel('rounding.timeS'), value: figure(rounding.timeS) },
+            {
+              label: fieldLabel('rounding.endothelialIrradianceMwPerCm2'),
+              value: figure(rounding.endothelialIrradianceMwPerCm2),
+            },
+            {
+              label: fieldLabel('rounding.endothelialDoseJPerCm2'),
+              value: figure(rounding.endothelialDoseJPerCm2),
+            },
           ]}
         />
       </ParameterSection>
@@ -151,32 +232,64 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
       >
         <LimitsTable
           rows={[
-            ['Height (cm)', inputLimits.heightCm],
-            ['Weight (kg)', inputLimits.weightKg],
-            ['Lesion greatest linear dimension, GLD (µm)', inputLimits.lesionGldUm],
-            ['Contact lens spot magnification (×)', inputLimits.lensMagnification],
-            ['Stromal thickness (µm)', inputLimits.stromalThicknessUm],
+            [fieldLabel('inputLimits.heightCm'), inputLimits.heightCm],
+            [fieldLabel('inputLimits.weightKg'), inputLimits.weightKg],
+            [fieldLabel('inputLimits.lesionGldUm'), inputLimits.lesionGldUm],
+            [fieldLabel('inputLimits.lensMagnification'), inputLimits.lensMagnification],
+            [fieldLabel('inputLimits.stromalThicknessUm'), inputLimits.stromalThicknessUm],
           ]}
         />
       </ParameterSection>
 
-      <ParameterSection id="params-tolerances" title="Tolerances" lead="A recorded figure further from the plan than this is a deviation, queued for review.">
+      <ParameterSection
+        id="params-tolerances"
+        title="Tolerances"
+        lead="A recorded figure further from the plan than this is a deviation, queued for review."
+      >
         <ParameterList
           parameters={[
-            { label: 'Light-on time (± s)', value: plusMinus(tolerances.exposureS, 's') },
-            { label: 'Delivered fluence (± %)', value: plusMinus(tolerances.fluencePct, '%') },
-            { label: 'Infusion duration (± min)', value: plusMinus(tolerances.infusionDurationMin, 'min') },
-            { label: 'Light start (± min)', value: plusMinus(tolerances.lightStartMin, 'min') },
-            { label: 'Drug volume prepared (± %)', value: plusMinus(tolerances.drugVolumePct, '%') },
-            { label: 'Reconstitution to infusion, at most (h)', value: figure(tolerances.reconstitutionToInfusionMaxH, 'h') },
+            {
+              label: fieldLabel('tolerances.exposureS'),
+              value: plusMinus(tolerances.exposureS, 's'),
+            },
+            {
+              label: fieldLabel('tolerances.fluencePct'),
+              value: plusMinus(tolerances.fluencePct, '%'),
+            },
+            {
+              label: fieldLabel('tolerances.infusionDurationMin'),
+              value: plusMinus(tolerances.infusionDurationMin, 'min'),
+            },
+            {
+              label: fieldLabel('tolerances.lightStartMin'),
+              value: plusMinus(tolerances.lightStartMin, 'min'),
+            },
+            {
+              label: fieldLabel('tolerances.drugVolumePct'),
+              value: plusMinus(tolerances.drugVolumePct, '%'),
+            },
+            {
+              label: fieldLabel('tolerances.reconstitutionToInfusionMaxH'),
+              value: figure(tolerances.reconstitutionToInfusionMaxH, 'h'),
+            },
             ...doseCheckRows(tolerances.doseCheck),
-            { label: 'Soak may fall short by (min)', value: figure(tolerances.soakShortfallMin, 'min') },
-            { label: 'Gap between drops beyond the interval (%)', value: figure(tolerances.dropGapPct, '%') },
+            {
+              label: fieldLabel('tolerances.soakShortfallMin'),
+              value: figure(tolerances.soakShortfallMin, 'min'),
+            },
+            {
+              label: fieldLabel('tolerances.dropGapPct'),
+              value: figure(tolerances.dropGapPct, '%'),
+            },
           ]}
         />
       </ParameterSection>
 
-      <ParameterSection id="params-steps" title="Steps of the step clock" lead="In the order the nurse runs them.">
+      <ParameterSection
+        id="params-steps"
+        title="Steps of the step clock"
+        lead="In the order the nurse runs them."
+      >
         <StepsTable steps={definition.steps} />
       </ParameterSection>
 
@@ -188,7 +301,10 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
         ) : (
           <ul className="divide-y divide-paper-200">
             {definition.contraindications.map((item) => (
-              <li key={item.id} className="flex flex-col gap-1 py-3 first:pt-0 last:pb-0 sm:flex-row sm:items-start sm:gap-4">
+              <li
+                key={item.id}
+                className="flex flex-col gap-1 py-3 first:pt-0 last:pb-0 sm:flex-row sm:items-start sm:gap-4"
+              >
                 <span className="sm:w-48 sm:shrink-0">
                   {item.severity === 'absolute' ? (
                     <span className="inline-flex items-center gap-1.5 font-semibold text-paper-950">
@@ -206,7 +322,9 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
                   <span className="block text-paper-950">{item.question}</span>
                   <span className="block text-sm text-paper-700">Source: {item.source}</span>
                   {item.measurement === 'stromal-thickness-below-minimum' && (
-                    <span className="block text-sm text-paper-700">Checked against the stromal thickness entered in the order.</span>
+                    <span className="block text-sm text-paper-700">
+                      Checked against the stromal thickness entered in the order.
+                    </span>
                   )}
                 </span>
               </li>
@@ -227,11 +345,15 @@ export function DefinitionSections({ definition }: { definition: ProtocolVersion
 }
 
 function doseCheckRows(doseCheck: ProtocolVersion['tolerances']['doseCheck']): Parameter[] {
-  if (doseCheck === null) return [{ label: 'Pharmacist’s blind dose check', value: <NotUsed /> }];
+  if (doseCheck === null)
+    return [{ label: fieldLabel('tolerances.doseCheck'), value: <NotUsed /> }];
   return [
-    { label: 'Blind dose check: BSA (± %)', value: plusMinus(doseCheck.bsaPct, '%') },
-    { label: 'Blind dose check: dose (± %)', value: plusMinus(doseCheck.dosePct, '%') },
-    { label: 'Blind dose check: drug volume (± %)', value: plusMinus(doseCheck.drugVolumePct, '%') },
+    { label: fieldLabel('tolerances.doseCheck.bsaPct'), value: plusMinus(doseCheck.bsaPct, '%') },
+    { label: fieldLabel('tolerances.doseCheck.dosePct'), value: plusMinus(doseCheck.dosePct, '%') },
+    {
+      label: fieldLabel('tolerances.doseCheck.drugVolumePct'),
+      value: plusMinus(doseCheck.drugVolumePct, '%'),
+    },
   ];
 }
 
@@ -299,10 +421,10 @@ function StepsTable({ steps }: { steps: ProtocolVersion['steps'] }) {
               Kind
             </th>
             <th scope="col" className="px-3 py-2 font-semibold">
-              Duration (s)
+              {fieldLabel('steps[].durationS')}
             </th>
             <th scope="col" className="px-3 py-2 font-semibold">
-              Cue every (s)
+              {fieldLabel('steps[].cueEveryS')}
             </th>
           </tr>
         </thead>
@@ -314,20 +436,39 @@ function StepsTable({ steps }: { steps: ProtocolVersion['steps'] }) {
                 <span className="block font-medium text-paper-950">{step.title}</span>
                 <span className="block text-sm text-paper-600">
                   id <code className="font-mono">{step.id}</code>
-                  {step.onlyIf === 'thickness-below-minimum' && ' · only when the cornea is thinner than the minimum'}
+                  {step.onlyIf === 'thickness-below-minimum' &&
+                    ' · only when the cornea is thinner than the minimum'}
                 </span>
               </th>
               <td className="px-3 py-2">{stepKindLabels[step.kind]}</td>
-              <td className="px-3 py-2 numerals-steady">{step.durationS === null ? <NotUsed>Ends when confirmed</NotUsed> : formatDurationS(step.durationS)}</td>
-              <td className="px-3 py-2 numerals-steady">{step.cueEveryS === undefined ? <NotUsed>No cue</NotUsed> : formatDurationS(step.cueEveryS)}</td>
+              <td className="px-3 py-2 numerals-steady">
+                {step.durationS === null ? (
+                  <NotUsed>Ends when confirmed</NotUsed>
+                ) : (
+                  formatDurationS(step.durationS)
+                )}
+              </td>
+              <td className="px-3 py-2 numerals-steady">
+                {step.cueEveryS === undefined ? (
+                  <NotUsed>No cue</NotUsed>
+                ) : (
+                  formatDurationS(step.cueEveryS)
+                )}
+              </td>
             </tr>
           ))}
         </tbody>
         <tfoot>
           <tr className="border-t-2 border-paper-300 text-sm">
             <td />
-            <th scope="row" className="px-3 py-2 text-left font-semibold text-paper-800" colSpan={2}>
-              {anyConditional ? 'Timed steps together, not counting conditional ones' : 'Timed steps together'}
+            <th
+              scope="row"
+              className="px-3 py-2 text-left font-semibold text-paper-800"
+              colSpan={2}
+            >
+              {anyConditional
+                ? 'Timed steps together, not counting conditional ones'
+                : 'Timed steps together'}
             </th>
             <td className="px-3 py-2 font-semibold numerals-steady" colSpan={2}>
               {formatDurationS(timedS)}

@@ -46,8 +46,16 @@ export function DraftEditor({ draft }: { draft: VersionDetail }) {
   const savedText = asText(draft.definition);
   // Until the saved version comes back from the server, the text just saved is not a change either.
   const justSaved = useRef<string | null>(null);
-  const differs = useCallback((kept: string) => kept !== savedText && kept !== justSaved.current, [savedText]);
-  const kept = useStateDraft(`protocol-draft.${draft.key}.${draft.version}`, text, setText, differs);
+  const differs = useCallback(
+    (kept: string) => kept !== savedText && kept !== justSaved.current,
+    [savedText],
+  );
+  const kept = useStateDraft(
+    `protocol-draft.${draft.key}.${draft.version}`,
+    text,
+    setText,
+    differs,
+  );
   const keptOffer = { ...kept, restore: () => (kept.restore(), setOpen(true)) };
 
   const onSubmit = (event: FormEvent) => {
@@ -83,15 +91,27 @@ export function DraftEditor({ draft }: { draft: VersionDetail }) {
   const changed = text !== asText(draft.definition);
 
   return (
-    <section aria-labelledby={`${regionId}-heading`} className="rounded-2xl border border-paper-200 bg-white p-5">
+    <section
+      aria-labelledby={`${regionId}-heading`}
+      className="rounded-2xl border border-paper-200 bg-white p-5"
+    >
       <div className="flex flex-wrap items-center justify-between gap-3">
         <div>
           <h2 id={`${regionId}-heading`} className="text-lg font-semibold text-paper-950">
             Edit this draft
           </h2>
-          <p className="text-sm text-paper-700">The whole definition as JSON. Saving replaces the draft and clears approvals given so far.</p>
+          <p className="text-sm text-paper-700">
+            The whole definition as JSON. Saving replaces the draft and clears approvals given so
+            far.
+          </p>
         </div>
-        <Button variant="secondary" icon={<PencilIcon />} aria-expanded={open} aria-controls={regionId} onClick={() => setOpen((o) => !o)}>
+        <Button
+          variant="secondary"
+          icon={<PencilIcon />}
+          aria-expanded={open}
+          aria-controls={regionId}
+          onClick={() => setOpen((o) => !o)}
+        >
           {open ? 'Close the editor' : 'Open the editor'}
         </Button>
       </div>
@@ -111,7 +131,10 @@ export function DraftEditor({ draft }: { draft: VersionDetail }) {
       {open && (
         <form id={regionId} onSubmit={onSubmit} noValidate className="mt-4 flex flex-col gap-4">
           {error && (
-            <Alert tone="error" title={problems.length > 0 ? 'Not saved: the definition is not valid' : 'Not saved'}>
+            <Alert
+              tone="error"
+              title={problems.length > 0 ? 'Not saved: the definition is not valid' : 'Not saved'}
+            >
               {problems.length > 0 ? (
                 <>
                   <p>Each problem names the place in the definition (its JSON path).</p>

@@ -31,7 +31,9 @@ export function ImportVersionForm({ onImported }: ImportVersionFormProps) {
       return;
     }
     if (file.size > 1024 * 1024) {
-      setFileError(`The file is ${(file.size / 1024 / 1024).toFixed(1)} MB; a protocol file may be at most 1 MB.`);
+      setFileError(
+        `The file is ${(file.size / 1024 / 1024).toFixed(1)} MB; a protocol file may be at most 1 MB.`,
+      );
       inputRef.current?.focus();
       return;
     }
@@ -47,21 +49,35 @@ export function ImportVersionForm({ onImported }: ImportVersionFormProps) {
 
   const error = importVersion.error;
   const problems = isApiRequestError(error) ? error.fields.filter((f) => f.path !== 'file') : [];
-  const fileProblem = isApiRequestError(error) ? error.fields.find((f) => f.path === 'file')?.message : undefined;
+  const fileProblem = isApiRequestError(error)
+    ? error.fields.find((f) => f.path === 'file')?.message
+    : undefined;
   const shownError = fileError ?? fileProblem;
 
   return (
-    <section aria-labelledby={`${id}-heading`} className="rounded-2xl border border-paper-200 bg-white p-6">
+    <section
+      aria-labelledby={`${id}-heading`}
+      className="rounded-2xl border border-paper-200 bg-white p-6"
+    >
       <h2 id={`${id}-heading`} className="text-xl font-semibold text-paper-950">
         Import a version
       </h2>
       <p className="mt-1 mb-4 max-w-prose text-paper-700">
-        A JSON file holding one protocol version, with <code className="font-mono text-sm">"approval": null</code>. It arrives as a
-        draft; two different people, each a clinician or a pharmacist, must approve it before anyone can order with it.
+        A JSON file holding one protocol version, with{' '}
+        <code className="font-mono text-sm">"approval": null</code>. It arrives as a draft; two
+        different people, each a clinician or a pharmacist, must approve it before anyone can order
+        with it.
       </p>
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
         {error && (
-          <Alert tone="error" title={problems.length > 0 ? 'The file was not imported: the version is not valid' : 'The file was not imported'}>
+          <Alert
+            tone="error"
+            title={
+              problems.length > 0
+                ? 'The file was not imported: the version is not valid'
+                : 'The file was not imported'
+            }
+          >
             {problems.length > 0 ? (
               <>
                 <p>Each problem below names the place in the file (its JSON path).</p>

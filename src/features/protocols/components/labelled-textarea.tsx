@@ -9,7 +9,14 @@ type LabelledTextareaProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, '
 };
 
 /** A multi-line field with its label, hint and error tied to it, like the shared text field. */
-export function LabelledTextarea({ label, hint, error, className = '', ref, ...rest }: LabelledTextareaProps) {
+export function LabelledTextarea({
+  label,
+  hint,
+  error,
+  className = '',
+  ref,
+  ...rest
+}: LabelledTextareaProps) {
   const id = useId();
   const hintId = hint ? `${id}-hint` : undefined;
   const errorId = error ? `${id}-error` : undefined;

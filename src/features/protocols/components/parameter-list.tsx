@@ -3,7 +3,17 @@ import type { ReactNode } from 'react';
 export type Parameter = { label: string; value: ReactNode };
 
 /** A labelled group of a version's figures; the unit sits in each label. */
-export function ParameterSection({ id, title, lead, children }: { id: string; title: string; lead?: ReactNode; children: ReactNode }) {
+export function ParameterSection({
+  id,
+  title,
+  lead,
+  children,
+}: {
+  id: string;
+  title: string;
+  lead?: ReactNode;
+  children: ReactNode;
+}) {
   return (
     <section aria-labelledby={id} className="rounded-2xl border border-paper-200 bg-white p-5">
       <h2 id={id} className="text-lg font-semibold text-paper-950">

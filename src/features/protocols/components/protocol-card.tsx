@@ -15,10 +15,18 @@ type ProtocolCardProps = {
 };
 
 /** One protocol and every version of it, oldest first. */
-export function ProtocolCard({ protocol, canDraft, draftingFrom, onStartDraft }: ProtocolCardProps) {
+export function ProtocolCard({
+  protocol,
+  canDraft,
+  draftingFrom,
+  onStartDraft,
+}: ProtocolCardProps) {
   const headingId = `protocol-${protocol.key}`;
   return (
-    <section aria-labelledby={headingId} className="overflow-hidden rounded-2xl border border-paper-200 bg-white">
+    <section
+      aria-labelledby={headingId}
+      className="overflow-hidden rounded-2xl border border-paper-200 bg-white"
+    >
       <div className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 px-5 pt-4 pb-3">
         <h3 id={headingId} className="text-lg font-semibold text-paper-950">
           {protocol.title}
@@ -33,7 +41,7 @@ export function ProtocolCard({ protocol, canDraft, draftingFrom, onStartDraft }:
           <caption className="sr-only">Versions of {protocol.title}</caption>
           <colgroup>
             <col className="w-24" />
-            <col className="w-36" />
+            <col className="w-44" />
             <col className="w-44" />
             <col />
             <col className={canDraft ? 'w-[22rem]' : 'w-28'} />
@@ -64,7 +72,7 @@ export function ProtocolCard({ protocol, canDraft, draftingFrom, onStartDraft }:
                   v{version.version}
                 </th>
                 <td className="px-3 py-3">
-                  <VersionStatusBadge status={version.status} />
+                  <VersionStatusBadge status={version.status} supersededBy={version.supersededBy} />
                 </td>
                 <td className="px-3 py-3 text-paper-800">{approvalsText(version)}</td>
                 <td className="px-3 py-3 text-sm text-paper-700">
@@ -86,9 +94,13 @@ export function ProtocolCard({ protocol, canDraft, draftingFrom, onStartDraft }:
                         variant="secondary"
                         size="sm"
                         icon={<CopyDraftIcon className="size-4" />}
-                        busy={draftingFrom?.key === version.key && draftingFrom.version === version.version}
+                        busy={
+                          draftingFrom?.key === version.key &&
+                          draftingFrom.version === version.version
+                        }
                         disabled={draftingFrom !== null}
-                        aria-label={`Start a new draft from ${protocol.title}, version ${version.version}`}
+                        // The accessible name starts with the visible words, so speech input finds the button by them.
+                        aria-label={`Start a new draft from this: ${protocol.title}, version ${version.version}`}
                         onClick={() => onStartDraft(version)}
                       >
                         Start a new draft from this

@@ -1,5 +1,9 @@
 import type { ProtocolKind } from '../../../../shared/protocol/protocol-schema';
-import { formatDuration, formatPlainNumber, formatUnitTime } from '../../../../shared/format/figures';
+import {
+  formatDuration,
+  formatPlainNumber,
+  formatUnitTime,
+} from '../../../../shared/format/figures';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 import type { VersionOrigin } from '../api/protocol-response-schemas';
 

@@ -4,7 +4,10 @@ import { ParameterSection } from './parameter-list';
 
 type SourceStatus = ProtocolVersion['sources'][number]['status'];
 
-const standing: Record<SourceStatus, { word: string; explain: string; Icon: typeof CheckCircleIcon; box: string }> = {
+const standing: Record<
+  SourceStatus,
+  { word: string; explain: string; Icon: typeof CheckCircleIcon; box: string }
+> = {
   published: {
     word: 'Published',
     explain: 'read in the publication',
@@ -27,7 +30,10 @@ const standing: Record<SourceStatus, { word: string; explain: string; Icon: type
 
 /** Each citation with how firmly it stands, so a reviewer knows which figures still need checking. */
 export function SourcesList({ sources }: { sources: ProtocolVersion['sources'] }) {
-  const counts = sources.reduce<Record<SourceStatus, number>>((acc, s) => ({ ...acc, [s.status]: acc[s.status] + 1 }), { published: 0, memory: 0, practice: 0 });
+  const counts = sources.reduce<Record<SourceStatus, number>>(
+    (acc, s) => ({ ...acc, [s.status]: acc[s.status] + 1 }),
+    { published: 0, memory: 0, practice: 0 },
+  );
   return (
     <ParameterSection
       id="params-sources"
@@ -40,7 +46,9 @@ export function SourcesList({ sources }: { sources: ProtocolVersion['sources'] }
           return (
             <li key={source.id} className="flex flex-col gap-2 py-4 first:pt-1 last:pb-0">
               <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
-                <span className={`inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-medium ${box}`}>
+                <span
+                  className={`inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-medium ${box}`}
+                >
                   <Icon className="size-4" />
                   {word}
                   <span className="sr-only">: {explain}</span>

@@ -4,7 +4,16 @@ import { Link } from 'react-router-dom';
 import type { SessionUser } from '../../../../shared/schemas/auth';
 import { Alert } from '../../../components/ui/alert';
 import { Button, LinkButton } from '../../../components/ui/button';
-import { AlertIcon, ArchiveBoxIcon, ArrowLeftIcon, CheckCircleIcon, CopyDraftIcon, ReloadIcon, SignatureIcon } from '../../../components/ui/icons';
+import {
+  AlertIcon,
+  ArchiveBoxIcon,
+  ArrowLeftIcon,
+  CheckCircleIcon,
+  CopyDraftIcon,
+  MinusIcon,
+  ReloadIcon,
+  SignatureIcon,
+} from '../../../components/ui/icons';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
@@ -13,6 +22,7 @@ import type { VersionDetail } from '../api/protocol-response-schemas';
 import { protocolQueries } from '../api/protocol-queries';
 import { useCreateDraft } from '../hooks/use-create-draft';
 import { ApproveDialog } from './approve-dialog';
+import { ConfirmDraftDialog } from './confirm-draft-dialog';
 import { approvalsNeeded } from './approvals-text';
 import { ComparePicker } from './compare-picker';
 import { DefinitionSections } from './definition-sections';
@@ -50,7 +60,10 @@ export function VersionScreen({ protocolKey, version, user, can }: VersionScreen
   const versionQuery = useQuery(protocolQueries.version({ key: protocolKey, version }));
 
   const back = (
-    <Link to={paths.protocols.getHref()} className="mb-4 inline-flex items-center gap-2 rounded font-medium text-iris-700 underline-offset-4 hover:underline">
+    <Link
+      to={paths.protocols.getHref()}
+      className="mb-4 inline-flex items-center gap-2 rounded font-medium text-iris-700 underline-offset-4 hover:underline"
+    >
       <ArrowLeftIcon className="size-4" />
       All protocols
     </Link>
@@ -73,12 +86,21 @@ export function VersionScreen({ protocolKey, version, user, can }: VersionScreen
           role="alert"
           headingLevel="h1"
           icon={<AlertIcon className="size-6" />}
-          title={missing ? `There is no ${protocolKey} version ${version}` : 'This protocol version could not be loaded'}
+          title={
+            missing
+              ? `There is no ${protocolKey} version ${version}`
+              : 'This protocol version could not be loaded'
+          }
           actions={
             missing ? (
               <LinkButton to={paths.protocols.getHref()}>See all protocols</LinkButton>
             ) : (
-              <Button variant="secondary" icon={<ReloadIcon />} busy={versionQuery.isFetching} onClick={() => void versionQuery.refetch()}>
+              <Button
+                variant="secondary"
+                icon={<ReloadIcon />}
+                busy={versionQuery.isFetching}
+                onClick={() => void versionQuery.refetch()}
+              >
                 Try again
               </Button>
             )
@@ -103,9 +125,20 @@ export function VersionScreen({ protocolKey, version, user, can }: VersionScreen
   );
 }
 
-function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user: SessionUser; can: Permissions }) {
-  const [dialog, setDialog] = useState<'approve' | 'retire' | null>(null);
-  const [outcome, setOutcome] = useState<{ text: string; link?: { to: string; label: string } } | null>(null);
+function VersionDetailView({
+  detail,
+  user,
+  can,
+}: {
+  detail: VersionDetail;
+  user: SessionUser;
+  can: Permissions;
+}) {
+  const [dialog, setDialog] = useState<'approve' | 'retire' | 'discard' | 'draft' | null>(null);
+  const [outcome, setOutcome] = useState<{
+    text: string;
+    link?: { to: string; label: string };
+  } | null>(null);
   const createDraft = useCreateDraft();
   const { definition } = detail;
   const myApproval = detail.approvals.find((a) => a.userId === user.id);
@@ -113,7 +146,10 @@ function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user:
 
   return (
     <>
-      <PageHeader title={`${definition.title} · version ${detail.version}`} lead={definition.summary} />
+      <PageHeader
+        title={`${definition.title} · version ${detail.version}`}
+        lead={definition.summary}
+      />
       <ProtocolCaution className="mb-5" />
 
       <div role="status" className={outcome ? 'mb-5' : 'sr-only'}>
@@ -134,7 +170,10 @@ function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user:
         <VersionFacts version={detail} />
         <ApprovalRecord version={detail} />
 
-        <section aria-labelledby="version-actions" className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5">
+        <section
+          aria-labelledby="version-actions"
+          className="space-y-4 rounded-2xl border border-paper-200 bg-white p-5"
+        >
           <h2 id="version-actions" className="text-lg font-semibold text-paper-950">
             What you can do
           </h2>
@@ -143,13 +182,14 @@ function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user:
               {myApproval ? (
                 <p className="flex items-start gap-2 text-paper-900">
                   <SignatureIcon className="mt-0.5 size-5" />
-                  You approved this draft; a second, different clinician or pharmacist must approve it too.
+                  You approved this draft; a second, different clinician or pharmacist must approve
+                  it too.
                 </p>
               ) : (
                 <>
                   <p className="max-w-prose text-paper-800">
-                    A draft needs approval by two different people, each a clinician or a pharmacist. Approve only after checking every
-                    figure and source below.
+                    A draft needs approval by two different people, each a clinician or a
+                    pharmacist. Approve only after checking every figure and source below.
                   </p>
                   <Button icon={<SignatureIcon />} onClick={() => setDialog('approve')}>
                     Approve version {detail.version}
@@ -159,42 +199,48 @@ function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user:
             </div>
           )}
           {isDraft && !can.approve && (
-            <p className="max-w-prose text-paper-800">This is a draft. Two different people, each a clinician or a pharmacist, approve it before it can be used.</p>
+            <p className="max-w-prose text-paper-800">
+              This is a draft. Two different people, each a clinician or a pharmacist, approve it
+              before it can be used.
+            </p>
           )}
           {detail.status === 'approved' && can.retire && (
             <div className="space-y-2">
-              <p className="max-w-prose text-paper-800">Retire this version when the unit stops using it; new orders then cannot choose it.</p>
-              <Button variant="secondary" icon={<ArchiveBoxIcon />} onClick={() => setDialog('retire')}>
+              <p className="max-w-prose text-paper-800">
+                Retire this version when the unit stops using it; new orders then cannot choose it.
+              </p>
+              <Button
+                variant="secondary"
+                icon={<ArchiveBoxIcon />}
+                onClick={() => setDialog('retire')}
+              >
                 Retire version {detail.version}…
               </Button>
             </div>
           )}
-          {can.manage && (
+          {isDraft && can.manage && (
             <div className="space-y-2">
-              {createDraft.isError && (
-                <Alert tone="error" title="No draft was made">
-                  {describeError(createDraft.error)}
-                </Alert>
-              )}
+              <p className="max-w-prose text-paper-800">
+                A draft made by mistake or no longer wanted can be discarded, with a reason. It
+                stays on record and can never be approved.
+              </p>
+              <Button variant="secondary" icon={<MinusIcon />} onClick={() => setDialog('discard')}>
+                Discard draft {detail.version}…
+              </Button>
+            </div>
+          )}
+          {can.manage && detail.status !== 'discarded' && (
+            <div className="space-y-2">
               <Button
                 variant="secondary"
                 icon={<CopyDraftIcon />}
-                busy={createDraft.isPending}
                 onClick={() => {
                   setOutcome(null);
-                  createDraft.mutate(
-                    { key: detail.key, version: detail.version },
-                    {
-                      onSuccess: (draft) =>
-                        setOutcome({
-                          text: `Draft version ${draft.version} was made from version ${detail.version}.`,
-                          link: { to: paths.protocolVersion.getHref(draft.key, draft.version), label: `Open draft version ${draft.version}` },
-                        }),
-                    },
-                  );
+                  createDraft.reset();
+                  setDialog('draft');
                 }}
               >
-                Start a new draft from this
+                Start a new draft from this…
               </Button>
             </div>
           )}
@@ -203,12 +249,18 @@ function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user:
 
         {isDraft && can.manage && <DraftEditor draft={detail} />}
 
-        <nav aria-label="Parts of this version" className="rounded-2xl border border-paper-200 bg-paper-100 px-5 py-3">
+        <nav
+          aria-label="Parts of this version"
+          className="rounded-2xl border border-paper-200 bg-paper-100 px-5 py-3"
+        >
           <p className="mb-1 text-sm font-medium text-paper-700">Jump to</p>
           <ul className="flex flex-wrap gap-x-1 gap-y-1">
             {sectionLinks.map(([id, label]) => (
               <li key={id}>
-                <a href={`#${id}`} className="inline-flex min-h-10 items-center rounded-md px-2 font-medium text-iris-700 underline underline-offset-4 hover:bg-paper-200">
+                <a
+                  href={`#${id}`}
+                  className="inline-flex min-h-10 items-center rounded-md px-2 font-medium text-iris-700 underline underline-offset-4 hover:bg-paper-200"
+                >
                   {label}
                 </a>
               </li>
@@ -234,13 +286,54 @@ function VersionDetailView({ detail, user, can }: { detail: VersionDetail; user:
           });
         }}
       />
+      <ConfirmDraftDialog
+        from={
+          dialog === 'draft'
+            ? { key: detail.key, version: detail.version, title: definition.title }
+            : null
+        }
+        busy={createDraft.isPending}
+        error={createDraft.error}
+        onDismiss={() => setDialog(null)}
+        onConfirm={() =>
+          createDraft.mutate(
+            { key: detail.key, version: detail.version },
+            {
+              onSuccess: (draft) => {
+                setDialog(null);
+                setOutcome({
+                  text: `Draft version ${draft.version} was made from version ${detail.version}.`,
+                  link: {
+                    to: paths.protocolVersion.getHref(draft.key, draft.version),
+                    label: `Open draft version ${draft.version}`,
+                  },
+                });
+              },
+            },
+          )
+        }
+      />
+      <RetireDialog
+        kind="discard"
+        version={detail}
+        open={dialog === 'discard'}
+        onDismiss={() => setDialog(null)}
+        onRetired={(saved) => {
+          setDialog(null);
+          setOutcome({
+            text: `Draft ${saved.version} was discarded. It stays on record and can never be approved.`,
+          });
+        }}
+      />
       <RetireDialog
         version={detail}
         open={dialog === 'retire'}
         onDismiss={() => setDialog(null)}
         onRetired={(saved) => {
           setDialog(null);
-          setOutcome({ text: `Version ${saved.version} is retired. New orders can no longer choose it.` });
+          setOutcome({
+            text: `Version ${saved.version} is retired. New orders can no longer choose it.`,
+          });
         }}
       />
     </>

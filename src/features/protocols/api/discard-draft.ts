@@ -1,0 +1,16 @@
+import { api } from '../../../lib/api-client';
+import { versionResponseSchema, type VersionDetail } from './protocol-response-schemas';
+import { versionAddress, type VersionRef } from './version-address';
+
+export async function discardDraft({
+  key,
+  version,
+  reason,
+}: VersionRef & { reason: string }): Promise<VersionDetail> {
+  const response = await api.post(
+    `${versionAddress(key, version)}/discard`,
+    { reason },
+    { schema: versionResponseSchema },
+  );
+  return response.version;
+}
