@@ -1,7 +1,9 @@
 import {
   amendOrderRequestSchema,
+  cancelOrderSchema,
   orderDraftSchema,
   orderListQuerySchema,
+  signingFactsQuerySchema,
   signOrderSchema,
   updateOrderSchema,
 } from '../../shared/schemas/orders';
@@ -52,6 +54,15 @@ export function orderRoutes(
       },
     },
     {
+      // Before /orders/:id, which would take "signing-facts" for an id.
+      method: 'get',
+      path: '/orders/signing-facts',
+      access: 'orders.write',
+      handler: async (req, res) => {
+        res.json(await orders.signingFacts(parseInput(signingFactsQuerySchema, req.query)));
+      },
+    },
+    {
       method: 'get',
       path: '/orders/:id',
       access: 'orders.read',
@@ -91,6 +102,16 @@ export function orderRoutes(
         res
           .status(201)
           .json({ order: await orders.amend(actorOf(req, res), id, amendment, version) });
+      },
+    },
+    {
+      method: 'post',
+      path: '/orders/:id/cancellation',
+      access: 'orders.cancel',
+      handler: async (req, res) => {
+        const id = parseInput(idParam, req.params.id, 'id');
+        const { reason, version } = parseInput(cancelOrderSchema, req.body);
+        res.json({ order: await orders.cancel(actorOf(req, res), id, reason, version) });
       },
     },
   ];

@@ -2,8 +2,18 @@ import { DateTime } from 'luxon';
 import type { DataSource, EntityManager } from 'typeorm';
 import { computePlan } from '../../shared/engine/compute-plan';
 import { PlanInputError } from '../../shared/engine/plan-input-error';
-import { amendableStatuses, treatmentStatuses } from '../../shared/orders/lifecycle';
-import { answeredCautions, signatureProblems } from '../../shared/orders/readiness';
+import {
+  amendableStatuses,
+  cancellableStatuses,
+  openOrderStatuses,
+  treatmentStatuses,
+} from '../../shared/orders/lifecycle';
+import {
+  answeredCautions,
+  duplicateOrderProblem,
+  signatureProblems,
+} from '../../shared/orders/readiness';
+import { reasonOfSubstanceProblem } from '../../shared/orders/reason-of-substance';
 import {
   lastRecordedWeight,
   weightChangeMessage,
@@ -14,11 +24,14 @@ import {
 import type { DosePlan } from '../../shared/schemas/calculation';
 import type {
   AmendOrder,
+  OpenOrderFact,
   OrderDetail,
   OrderDraft,
   OrderListQuery,
   OrderStatus,
   OrderSummary,
+  SigningFacts,
+  SigningFactsQuery,
 } from '../../shared/schemas/orders';
 import type { Role } from '../../shared/roles';
 import type { AuditRepository } from '../audit/repository';
@@ -27,6 +40,7 @@ import type { ProtocolForUse } from '../protocols/repository';
 import type { TreatmentOrder } from '../db/entities/treatment-order';
 import type { User } from '../db/entities/user';
 import { isDuplicateKey } from '../db/errors';
+import { mayCancelOrder } from '../auth/permissions';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox';
 import type { UserRepository } from '../people/repository';
@@ -209,6 +223,35 @@ export function createOrderService(deps: {
     return Math.floor((Date.now() - last) / 86_400_000);
   }
 
+  /** The patient's other open orders of this kind on this eye (not this one, nor the revision it amends). */
+  async function openOrdersOf(
+    order: {
+      patientId: number;
+      eye: 'right' | 'left';
+      id?: number;
+      previousRevisionId?: number | null;
+    },
+    kind: 'pdt' | 'cxl',
+  ): Promise<OpenOrderFact[]> {
+    const excluded = [order.id, order.previousRevisionId].filter(
+      (id): id is number => typeof id === 'number',
+    );
+    const rows = await orders.openOrdersFor(
+      order.patientId,
+      order.eye,
+      kind,
+      openOrderStatuses,
+      excluded,
+    );
+    return rows.map((o) => ({
+      id: o.id,
+      revision: o.revision,
+      status: o.status,
+      protocolTitle: o.protocolVersion.title,
+      createdAt: o.createdAt.toISOString(),
+    }));
+  }
+
   /** The change from the patient's last recorded weight, when it needs a reason under the unit's rule. */
   async function weightChangeOf(order: {
     id: number;
@@ -239,16 +282,20 @@ export function createOrderService(deps: {
 
   async function detail(order: TreatmentOrder, viewer: Actor): Promise<OrderDetail> {
     const withheld = planIsWithheldFrom(order, viewer);
-    const [checks, preparation, attachments, next, recentDays, weightChange] = await Promise.all([
-      orders.doseChecksFor(order.id),
-      orders.preparationFor(order.id),
-      orders.attachmentsFor(order.id),
-      orders.nextRevisionOf(order.id),
-      order.status === 'draft'
-        ? recentTreatmentDays(order, order.protocolVersion)
-        : Promise.resolve(null),
-      order.status === 'draft' ? weightChangeOf(order) : Promise.resolve(null),
-    ]);
+    const [checks, preparation, attachments, next, recentDays, weightChange, openOrders] =
+      await Promise.all([
+        orders.doseChecksFor(order.id),
+        orders.preparationFor(order.id),
+        orders.attachmentsFor(order.id),
+        orders.nextRevisionOf(order.id),
+        order.status === 'draft'
+          ? recentTreatmentDays(order, order.protocolVersion)
+          : Promise.resolve(null),
+        order.status === 'draft' ? weightChangeOf(order) : Promise.resolve(null),
+        order.status === 'draft'
+          ? openOrdersOf(order, order.protocolVersion.kind)
+          : Promise.resolve([]),
+      ]);
     const warnings = withheld ? [] : [...order.plan.warnings];
     if (recentDays !== null) {
       warnings.push({
@@ -263,6 +310,29 @@ export function createOrderService(deps: {
         field: 'weightChangeReason',
         message: weightChangeMessage(weightChange),
       });
+    const duplicate = duplicateOrderProblem(openOrders, null);
+    if (duplicate)
+      warnings.push({
+        code: 'duplicate-order',
+        field: 'duplicateOrderReason',
+        message: duplicate.message,
+      });
+    const beforeSigning =
+      order.status === 'draft'
+        ? signatureProblems({
+            definition: order.protocolVersion.definition,
+            plan: order.plan,
+            checklist: order.checklist,
+            softLimitReasons: order.softLimitReasons,
+            retreatmentReason: order.retreatmentReason,
+            recentTreatmentDays: recentDays,
+            weightChange,
+            weightChangeReason: order.weightChangeReason,
+            swellingAcknowledged: order.swellingAcknowledged,
+            openOrders,
+            duplicateOrderReason: order.duplicateOrderReason,
+          })
+        : null;
     const summary = toOrderSummary(order);
     return {
       ...summary,
@@ -273,8 +343,17 @@ export function createOrderService(deps: {
       softLimitReasons: order.softLimitReasons,
       retreatmentReason: order.retreatmentReason,
       weightChangeReason: order.weightChangeReason,
+      duplicateOrderReason: order.duplicateOrderReason,
       note: order.note,
       swellingAcknowledged: order.swellingAcknowledged,
+      cancellation:
+        order.cancelledAt && order.cancelReason
+          ? {
+              at: order.cancelledAt.toISOString(),
+              by: person(order.cancelledBy),
+              reason: order.cancelReason,
+            }
+          : null,
       answeredCautions: answeredCautions(order.protocolVersion.definition, order.checklist),
       plan: withheld ? null : order.plan,
       planWithheld: withheld,
@@ -310,6 +389,7 @@ export function createOrderService(deps: {
           }
         : null,
       warnings,
+      beforeSigning,
     };
   }
 
@@ -328,6 +408,20 @@ export function createOrderService(deps: {
       ]);
     const row = await approvedProtocol(input.protocol.key, input.protocol.version);
     const computed = await planOrRefuse(actor, row, input.inputs, base.id ?? null);
+    const duplicateOrderReason = input.duplicateOrderReason?.trim() || null;
+    const openOrders = await openOrdersOf(
+      {
+        patientId: input.patientId,
+        eye: input.eye,
+        id: base.id,
+        previousRevisionId: base.previousRevisionId,
+      },
+      row.kind,
+    );
+    const duplicate = duplicateOrderProblem(openOrders, duplicateOrderReason);
+    if (duplicate) {
+      throw AppError.badRequest(`The order was not saved: ${duplicate.message}`, [duplicate]);
+    }
     const save = async (m: EntityManager) => {
       await guard?.(m);
       const saved = await orders.save(m, {
@@ -344,6 +438,8 @@ export function createOrderService(deps: {
         softLimitReasons: input.softLimitReasons,
         retreatmentReason: input.retreatmentReason ?? null,
         weightChangeReason: input.weightChangeReason ?? null,
+        // Kept only while it answers something: a reason for a duplicate that is gone says nothing.
+        duplicateOrderReason: openOrders.length > 0 ? duplicateOrderReason : null,
         note: input.note ?? null,
         swellingAcknowledged: input.swellingAcknowledged ?? false,
         createdById: base.createdById ?? actor.id,
@@ -362,6 +458,9 @@ export function createOrderService(deps: {
         eye: input.eye,
         patientId: input.patientId,
         revision: saved.revision,
+        ...(openOrders.length > 0
+          ? { otherOpenOrders: openOrders.map((o) => o.id), duplicateOrderReason }
+          : {}),
       },
     });
     return saved.id;
@@ -492,6 +591,8 @@ export function createOrderService(deps: {
         weightChange: await weightChangeOf(order),
         weightChangeReason: order.weightChangeReason,
         swellingAcknowledged: order.swellingAcknowledged,
+        openOrders: await openOrdersOf(order, row.kind),
+        duplicateOrderReason: order.duplicateOrderReason,
       });
       if (problems.length > 0) {
         await audit.append({
@@ -577,9 +678,79 @@ export function createOrderService(deps: {
           softLimitReasons: order.softLimitReasons,
           retreatmentReason: order.retreatmentReason,
           weightChangeReason: order.weightChangeReason,
+          duplicateOrderReason: order.duplicateOrderReason,
         },
       });
       return detail(await mustFind(id), actor);
+    },
+
+    /**
+     * Cancels an order that has not reached its session: by its signer (or, unsigned, its
+     * author) or an administrator, with a reason of substance. It leaves every worklist, because
+     * no worklist reads the cancelled status.
+     */
+    async cancel(actor: Actor, id: number, reason: string, readVersion: number) {
+      const order = await mustFind(id);
+      if (!mayCancelOrder(actor, order)) {
+        throw AppError.forbidden(
+          order.signedById === null
+            ? `Only the clinician who drafted order ${id}, or an administrator, may cancel it.`
+            : `Only the clinician who signed order ${id}, or an administrator, may cancel it.`,
+        );
+      }
+      const notCancellable = (status: OrderStatus) =>
+        AppError.conflict(
+          'not_cancellable',
+          status === 'cancelled'
+            ? `Order ${id} is cancelled already.`
+            : `Order ${id} cannot be cancelled: its session has started (it is ${status}). Stop the session on the step clock instead; its record stays.`,
+        );
+      if (!cancellableStatuses.includes(order.status)) throw notCancellable(order.status);
+      assertReadVersion(order, readVersion);
+      const weak = reasonOfSubstanceProblem(reason, undefined, 'why the order is cancelled');
+      if (weak)
+        throw AppError.badRequest(`The order was not cancelled: ${weak}.`, [
+          { path: 'reason', message: weak },
+        ]);
+      const cancelledAt = new Date();
+      await dataSource.transaction(async (manager) => {
+        // Locked: a session start or a dose check waits, then finds the order cancelled.
+        const locked = await orders.lockById(manager, id);
+        if (!locked) throw AppError.notFound(`There is no order ${id}.`);
+        if (!cancellableStatuses.includes(locked.status)) throw notCancellable(locked.status);
+        assertReadVersion(locked, readVersion);
+        await moveOrderStatus(manager, id, locked.status, 'cancelled', {
+          cancelledAt,
+          cancelledById: actor.id,
+          cancelReason: reason.trim(),
+        });
+      });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'order.cancelled',
+        entityType: 'order',
+        entityId: id,
+        ipAddress: actor.ipAddress,
+        details: { from: order.status, reason: reason.trim(), patientId: order.patientId },
+      });
+      return detail(await mustFind(id), actor);
+    },
+
+    /** What a signature of an order for this patient, eye and protocol would be held to beyond the form. */
+    async signingFacts(query: SigningFactsQuery): Promise<SigningFacts> {
+      const row = await protocols.resolveForUse(query.protocol, query.version);
+      const current = query.orderId ? await orders.findById(query.orderId) : null;
+      const order = {
+        patientId: query.patientId,
+        eye: query.eye,
+        id: current?.id,
+        previousRevisionId: current?.previousRevisionId ?? null,
+      };
+      const [recentTreatmentDaysFound, openOrders] = await Promise.all([
+        recentTreatmentDays(order, row),
+        openOrdersOf(order, row.kind),
+      ]);
+      return { recentTreatmentDays: recentTreatmentDaysFound, openOrders };
     },
 
     async list(query: OrderListQuery) {

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { createPatientSchema } from '../../shared/schemas/patients';
+import { createPatientSchema, possibleDuplicatesQuerySchema } from '../../shared/schemas/patients';
 import { signedInUser } from '../auth/session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
@@ -26,11 +26,19 @@ export function patientRoutes(patients: PatientService): RouteSpec[] {
       access: 'patients.manage',
       handler: async (req, res) => {
         const input = parseInput(createPatientSchema, req.body);
-        res
-          .status(201)
-          .json({
-            patient: await patients.create({ id: signedInUser(res).id, ipAddress: req.ip }, input),
-          });
+        res.status(201).json({
+          patient: await patients.create({ id: signedInUser(res).id, ipAddress: req.ip }, input),
+        });
+      },
+    },
+    {
+      // Before /patients/:id, which would take "possible-duplicates" for an id.
+      method: 'get',
+      path: '/patients/possible-duplicates',
+      access: 'patients.manage',
+      handler: async (req, res) => {
+        const query = parseInput(possibleDuplicatesQuerySchema, req.query);
+        res.json({ patients: await patients.possibleDuplicates(query) });
       },
     },
     {

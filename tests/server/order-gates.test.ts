@@ -128,16 +128,14 @@ describe('gate 1: absolute contraindications stop the order; cautions need a rea
       'checklist.hepatic-impairment.overrideReason',
     ]);
 
-    await clinicianAgent
-      .put(`/api/orders/${order.id}`)
-      .send({
-        ...withAnswer(base, {
-          id: 'hepatic-impairment',
-          answer: 'yes',
-          overrideReason: 'moderate or severe hepatic impairment',
-        }),
-        version: await versionOf(order.id),
-      });
+    await clinicianAgent.put(`/api/orders/${order.id}`).send({
+      ...withAnswer(base, {
+        id: 'hepatic-impairment',
+        answer: 'yes',
+        overrideReason: 'moderate or severe hepatic impairment',
+      }),
+      version: await versionOf(order.id),
+    });
     const repeated = await sign(order.id);
     expect(repeated.status).toBe(400);
     expect(repeated.body.error.fields[0].message).toMatch(/repeats the question/);
@@ -145,12 +143,10 @@ describe('gate 1: absolute contraindications stop the order; cautions need a rea
     expect(await refusalAudit(order.id)).toHaveLength(2);
 
     const reason = 'Mild, stable on review; hepatology agrees with treatment.';
-    await clinicianAgent
-      .put(`/api/orders/${order.id}`)
-      .send({
-        ...withAnswer(base, { id: 'hepatic-impairment', answer: 'yes', overrideReason: reason }),
-        version: await versionOf(order.id),
-      });
+    await clinicianAgent.put(`/api/orders/${order.id}`).send({
+      ...withAnswer(base, { id: 'hepatic-impairment', answer: 'yes', overrideReason: reason }),
+      version: await versionOf(order.id),
+    });
     const signed = await sign(order.id);
     expect(signed.status).toBe(200);
     expect(signed.body.order.answeredCautions).toEqual([
@@ -322,13 +318,11 @@ describe('gate 3: the drawn volume delivers the dose', () => {
       drugLeftOverMg: 4.08,
     });
 
-    const prepared = await pharmacistAgent
-      .post(`/api/orders/${order.id}/preparation`)
-      .send({
-        vialLot: 'DEMO-LOT 7',
-        vialExpiry: DateTime.now().plus({ months: 3 }).toISODate(),
-        volumeDrawnMl: 5.46,
-      });
+    const prepared = await pharmacistAgent.post(`/api/orders/${order.id}/preparation`).send({
+      vialLot: 'DEMO-LOT 7',
+      vialExpiry: DateTime.now().plus({ months: 3 }).toISODate(),
+      volumeDrawnMl: 5.46,
+    });
     expect(prepared.status).toBe(201);
   });
 
@@ -336,20 +330,18 @@ describe('gate 3: the drawn volume delivers the dose', () => {
     // 195 cm / 102 kg: Mosteller √(195 × 102 ÷ 3600) = 2.3505 → 2.35 m²; × 6 mg/m² = 14.1 mg (under
     // the 15 mg in one vial) → 7.05 mL, more than the 7 mL withdrawable: 2 vials, 7.95 mL left over.
     const patient = await createTestPatient(ctx);
-    const res = await clinicianAgent
-      .post('/api/orders')
-      .send(
-        pdtOrder(patient.id, {
-          protocol: pdtV2,
-          inputs: {
-            height: { value: 195, unit: 'cm' },
-            weight: { value: 102, unit: 'kg' },
-            bsaFormula: 'mosteller',
-            lesionGldUm: 2500,
-            lensMagnification: 1,
-          },
-        }),
-      );
+    const res = await clinicianAgent.post('/api/orders').send(
+      pdtOrder(patient.id, {
+        protocol: pdtV2,
+        inputs: {
+          height: { value: 195, unit: 'cm' },
+          weight: { value: 102, unit: 'kg' },
+          bsaFormula: 'mosteller',
+          lesionGldUm: 2500,
+          lensMagnification: 1,
+        },
+      }),
+    );
 
     expect(res.status).toBe(201);
     expect(res.body.order.plan).toMatchObject({
@@ -405,6 +397,8 @@ describe('the demo scenario under the gates', () => {
           swellingAcknowledged: row.swelling_acknowledged === 1,
           weightChange: null,
           weightChangeReason: null,
+          openOrders: [],
+          duplicateOrderReason: null,
         });
         expect({ note: row.note, problems }).toEqual({ note: row.note, problems: [] });
       }
@@ -419,13 +413,11 @@ describe('the demo scenario under the gates', () => {
               .send({ email: 'clinician@demo.luxtempo.example', password: 'luxtempo-demo' })
           ).status,
         ).toBe(200);
-        const signed = await demoClinician
-          .post(`/api/orders/${draftRow.id}/signature`)
-          .send({
-            password: 'luxtempo-demo',
-            meaning: 'ordered',
-            version: (await demoClinician.get(`/api/orders/${draftRow.id}`)).body.order.version,
-          });
+        const signed = await demoClinician.post(`/api/orders/${draftRow.id}/signature`).send({
+          password: 'luxtempo-demo',
+          meaning: 'ordered',
+          version: (await demoClinician.get(`/api/orders/${draftRow.id}`)).body.order.version,
+        });
         expect(signed.status, JSON.stringify(signed.body)).toBe(200);
       }
     },

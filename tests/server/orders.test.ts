@@ -64,13 +64,11 @@ describe('the PDT path: order, blind dose check, preparation', () => {
     });
     expect(draft.body.order.plan.doseMg).toBeCloseTo(10.92, 2);
 
-    const signed = await clinicianAgent
-      .post(`/api/orders/${draft.body.order.id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: draft.body.order.version,
-      });
+    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: draft.body.order.version,
+    });
     expect(signed.status).toBe(200);
     expect(signed.body.order).toMatchObject({ status: 'signed', signedBy: { id: clinician.id } });
     const id = signed.body.order.id;
@@ -188,13 +186,11 @@ describe('the PDT path: order, blind dose check, preparation', () => {
     const draft = await drafter.post('/api/orders').send(pdtOrder(patient.id));
     expect(
       (
-        await clinicianAgent
-          .post(`/api/orders/${draft.body.order.id}/signature`)
-          .send({
-            password: clinician.password,
-            meaning: 'ordered',
-            version: draft.body.order.version,
-          })
+        await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({
+          password: clinician.password,
+          meaning: 'ordered',
+          version: draft.body.order.version,
+        })
       ).status,
     ).toBe(200);
     const res = await drafter.post(`/api/orders/${draft.body.order.id}/dose-checks`).send(matching);
@@ -216,12 +212,10 @@ describe('the PDT path: order, blind dose check, preparation', () => {
     expect(read.body.order.planWithheld).toBe(true);
     expect(read.body.order.plan).toBeNull();
     // The inputs are on the screen; sending them to the dose calculation must not give the plan back.
-    const computed = await pharmacistAgent
-      .post('/api/calculations')
-      .send({
-        protocol: { key: order.protocol.key, version: order.protocol.version },
-        inputs: read.body.order.inputs,
-      });
+    const computed = await pharmacistAgent.post('/api/calculations').send({
+      protocol: { key: order.protocol.key, version: order.protocol.version },
+      inputs: read.body.order.inputs,
+    });
     expect(computed.status).toBe(403);
     expect(JSON.stringify(computed.body)).not.toMatch(/doseMg|10\.92/);
     const session = await pharmacistAgent.get(`/api/orders/${order.id}/session`);
@@ -243,14 +237,12 @@ describe('the PDT path: order, blind dose check, preparation', () => {
     expect(expired.status).toBe(400);
     expect(expired.body.error.fields[0].path).toBe('vialExpiry');
     const expiry = DateTime.now().plus({ months: 3 }).toISODate();
-    const future = await pharmacistAgent
-      .post(`/api/orders/${order.id}/preparation`)
-      .send({
-        vialLot: 'L1',
-        vialExpiry: expiry,
-        volumeDrawnMl: 5.5,
-        reconstitutedAt: new Date(Date.now() + 10 * 60_000).toISOString(),
-      });
+    const future = await pharmacistAgent.post(`/api/orders/${order.id}/preparation`).send({
+      vialLot: 'L1',
+      vialExpiry: expiry,
+      volumeDrawnMl: 5.5,
+      reconstitutedAt: new Date(Date.now() + 10 * 60_000).toISOString(),
+    });
     expect(future.status).toBe(400);
     expect(future.body.error.fields[0].path).toBe('reconstitutedAt');
     const volume = await pharmacistAgent
@@ -279,13 +271,11 @@ describe('the CXL path', () => {
     expect(draft.status).toBe(201);
     // Wollensak G, Spoerl E, Seiler T. Am J Ophthalmol 2003 — 3 mW/cm² for 30 min.
     expect(draft.body.order.plan.uvTimeS).toBe(1800);
-    const signed = await clinicianAgent
-      .post(`/api/orders/${draft.body.order.id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: draft.body.order.version,
-      });
+    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: draft.body.order.version,
+    });
     expect(signed.body.order.status).toBe('ready');
     const check = await pharmacistAgent
       .post(`/api/orders/${draft.body.order.id}/dose-checks`)
@@ -301,18 +291,16 @@ describe('the CXL path', () => {
 describe('what stops an order', () => {
   it('a measurement beyond the hard limit is refused at once, naming the field and range', async () => {
     const patient = await createTestPatient(ctx);
-    const res = await clinicianAgent
-      .post('/api/orders')
-      .send(
-        pdtOrder(patient.id, {
-          inputs: {
-            height: { value: 170, unit: 'cm' },
-            weight: { value: 70, unit: 'kg' },
-            lesionGldUm: 6000,
-            lensMagnification: 1,
-          },
-        }),
-      );
+    const res = await clinicianAgent.post('/api/orders').send(
+      pdtOrder(patient.id, {
+        inputs: {
+          height: { value: 170, unit: 'cm' },
+          weight: { value: 70, unit: 'kg' },
+          lesionGldUm: 6000,
+          lensMagnification: 1,
+        },
+      }),
+    );
     expect(res.status).toBe(400);
     expect(res.body.error.fields.map((f: { path: string }) => f.path)).toContain(
       'inputs.lesionGldUm',
@@ -326,13 +314,11 @@ describe('what stops an order', () => {
       (a) => a.id !== 'porphyria',
     );
     const draft = await clinicianAgent.post('/api/orders').send(body);
-    const res = await clinicianAgent
-      .post(`/api/orders/${draft.body.order.id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: draft.body.order.version,
-      });
+    const res = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: draft.body.order.version,
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.fields.map((f: { path: string }) => f.path)).toEqual([
       'checklist.porphyria',
@@ -345,13 +331,11 @@ describe('what stops an order', () => {
     const answers = body.checklist as { id: string; answer: string; overrideReason?: string }[];
     answers.find((a) => a.id === 'hepatic-impairment')!.answer = 'yes';
     const draft = await clinicianAgent.post('/api/orders').send(body);
-    const blocked = await clinicianAgent
-      .post(`/api/orders/${draft.body.order.id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: draft.body.order.version,
-      });
+    const blocked = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: draft.body.order.version,
+    });
     expect(blocked.status).toBe(400);
     expect(blocked.body.error.fields[0].path).toBe('checklist.hepatic-impairment.overrideReason');
     answers.find((a) => a.id === 'hepatic-impairment')!.overrideReason =
@@ -360,13 +344,11 @@ describe('what stops an order', () => {
       .put(`/api/orders/${draft.body.order.id}`)
       .send({ ...body, version: draft.body.order.version });
     expect(edited.status).toBe(200);
-    const signed = await clinicianAgent
-      .post(`/api/orders/${draft.body.order.id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: edited.body.order.version,
-      });
+    const signed = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: edited.body.order.version,
+    });
     expect(signed.status).toBe(200);
     const audit = await ctx.dataSource.query(
       "SELECT details FROM audit_event WHERE action = 'order.signed' AND entity_id = ?",
@@ -389,13 +371,11 @@ describe('what stops an order', () => {
     });
     const draft = await clinicianAgent.post('/api/orders').send(body);
     expect(draft.body.order.warnings.map((w: { code: string }) => w.code)).toContain('soft-limit');
-    const blocked = await clinicianAgent
-      .post(`/api/orders/${draft.body.order.id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: draft.body.order.version,
-      });
+    const blocked = await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: draft.body.order.version,
+    });
     expect(blocked.status).toBe(400);
     expect(blocked.body.error.fields[0].path).toBe('softLimitReasons.inputs.weight.value');
     // 160 kg at 170 cm is also a BMI of 55.4 kg/m², above the default usual range of 45 (common practice).
@@ -403,26 +383,22 @@ describe('what stops an order', () => {
       'softLimitReasons.inputs.weight.value',
       'softLimitReasons.bmiKgPerM2',
     ]);
-    const edited = await clinicianAgent
-      .put(`/api/orders/${draft.body.order.id}`)
-      .send({
-        ...body,
-        softLimitReasons: {
-          'inputs.weight.value': 'Weighed today on the ward scale: 160 kg.',
-          bmiKgPerM2: 'Height and weight both measured today.',
-        },
-        version: draft.body.order.version,
-      });
+    const edited = await clinicianAgent.put(`/api/orders/${draft.body.order.id}`).send({
+      ...body,
+      softLimitReasons: {
+        'inputs.weight.value': 'Weighed today on the ward scale: 160 kg.',
+        bmiKgPerM2: 'Height and weight both measured today.',
+      },
+      version: draft.body.order.version,
+    });
     expect(edited.status).toBe(200);
     expect(
       (
-        await clinicianAgent
-          .post(`/api/orders/${draft.body.order.id}/signature`)
-          .send({
-            password: clinician.password,
-            meaning: 'ordered',
-            version: edited.body.order.version,
-          })
+        await clinicianAgent.post(`/api/orders/${draft.body.order.id}/signature`).send({
+          password: clinician.password,
+          meaning: 'ordered',
+          version: edited.body.order.version,
+        })
       ).status,
     ).toBe(200);
   });
@@ -430,17 +406,20 @@ describe('what stops an order', () => {
   it('treating the same eye again inside the minimum interval warns and needs a reason', async () => {
     const patient = await createTestPatient(ctx);
     await signedPdtOrder(pdtOrder(patient.id));
-    const again = await clinicianAgent.post('/api/orders').send(pdtOrder(patient.id));
+    // The first is still open (signed), so the second also says why it is a second order.
+    const again = await clinicianAgent.post('/api/orders').send(
+      pdtOrder(patient.id, {
+        duplicateOrderReason: 'Lesion grew since the first order was signed; replanning now.',
+      }),
+    );
     expect(again.body.order.warnings.map((w: { code: string }) => w.code)).toContain(
       'retreatment-interval',
     );
-    const blocked = await clinicianAgent
-      .post(`/api/orders/${again.body.order.id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: again.body.order.version,
-      });
+    const blocked = await clinicianAgent.post(`/api/orders/${again.body.order.id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: again.body.order.version,
+    });
     expect(blocked.body.error.fields.map((f: { path: string }) => f.path)).toEqual([
       'retreatmentReason',
     ]);
@@ -482,13 +461,11 @@ describe('signed orders and amendments', () => {
     expect(noReason.status).toBe(400);
     expect(noReason.body.error.fields[0].path).toBe('amendmentReason');
 
-    const amended = await clinicianAgent
-      .post(`/api/orders/${order.id}/amendments`)
-      .send({
-        ...body,
-        amendmentReason: 'New angiogram: lesion measured 3000 µm.',
-        version: order.version,
-      });
+    const amended = await clinicianAgent.post(`/api/orders/${order.id}/amendments`).send({
+      ...body,
+      amendmentReason: 'New angiogram: lesion measured 3000 µm.',
+      version: order.version,
+    });
     expect(amended.status).toBe(201);
     expect(amended.body.order).toMatchObject({
       revision: 2,
@@ -497,13 +474,11 @@ describe('signed orders and amendments', () => {
     });
     expect(amended.body.order.plan.spotDiameterUm).toBe(4000);
 
-    await clinicianAgent
-      .post(`/api/orders/${amended.body.order.id}/signature`)
-      .send({
-        password: clinician.password,
-        meaning: 'ordered',
-        version: amended.body.order.version,
-      });
+    await clinicianAgent.post(`/api/orders/${amended.body.order.id}/signature`).send({
+      password: clinician.password,
+      meaning: 'ordered',
+      version: amended.body.order.version,
+    });
     const old = await clinicianAgent.get(`/api/orders/${order.id}`);
     expect(old.body.order).toMatchObject({
       status: 'superseded',
@@ -578,18 +553,18 @@ describe('attachments', () => {
 describe('the orders list', () => {
   it('pages, filters by status and protocol, and sorts on the server', async () => {
     const patient = await createTestPatient(ctx);
-    for (let i = 0; i < 3; i++) await clinicianAgent.post('/api/orders').send(cxlOrder(patient.id));
-    const filtered = await nurseAgent
-      .get('/api/orders')
-      .query({
-        patientId: patient.id,
-        protocol: 'cxl-standard',
-        status: 'draft',
-        pageSize: 2,
-        page: 1,
-        sort: 'createdAt',
-        direction: 'asc',
-      });
+    const duplicateOrderReason = 'Three drafts on purpose: this test pages through them.';
+    for (let i = 0; i < 3; i++)
+      await clinicianAgent.post('/api/orders').send(cxlOrder(patient.id, { duplicateOrderReason }));
+    const filtered = await nurseAgent.get('/api/orders').query({
+      patientId: patient.id,
+      protocol: 'cxl-standard',
+      status: 'draft',
+      pageSize: 2,
+      page: 1,
+      sort: 'createdAt',
+      direction: 'asc',
+    });
     expect(filtered.status).toBe(200);
     expect(filtered.body.total).toBe(3);
     expect(filtered.body.orders).toHaveLength(2);

@@ -1,12 +1,14 @@
 import type { FieldError, FieldErrors, Resolver } from 'react-hook-form';
 import type { z } from 'zod';
 import { bsaFormulaNames, type BsaFormulaName } from '../../../../shared/engine/bsa';
+import { duplicateOrderProblem } from '../../../../shared/orders/readiness';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { PlanInputs } from '../../../../shared/schemas/calculation';
 import {
   amendOrderSchema,
   orderDraftSchema,
   type AmendOrder,
+  type OpenOrderFact,
   type OrderDetail,
   type OrderDraft,
 } from '../../../../shared/schemas/orders';
@@ -32,6 +34,8 @@ export type OrderFormValues = {
   softLimitReasons: Record<string, string>;
   retreatmentReason: string;
   weightChangeReason: string;
+  /** Why a second open order for the same eye and kind is right. */
+  duplicateOrderReason: string;
   note: string;
   amendmentReason: string;
   /** CXL with a swelling step and a stroma below the minimum: the clinician's acknowledgement. */
@@ -45,6 +49,8 @@ export type OrderFormContext = {
   definition: ProtocolVersion | null;
   /** Fields the preview or the server warned about; only their reasons are sent. */
   warnedFields: readonly string[] | null;
+  /** The patient's other open orders for this eye and kind, as the server reported them. */
+  openOrders?: readonly OpenOrderFact[];
 };
 
 /** Soft-limit reasons are keyed by API paths with dots, which a form path would read as nesting. */
@@ -74,6 +80,7 @@ export function emptyOrderForm(patientId?: number): OrderFormValues {
     softLimitReasons: {},
     retreatmentReason: '',
     weightChangeReason: '',
+    duplicateOrderReason: '',
     note: '',
     amendmentReason: '',
     swellingAcknowledged: false,
@@ -135,6 +142,7 @@ export function settleFormValues(raw: unknown): OrderFormValues {
     ),
     retreatmentReason: asText(v.retreatmentReason),
     weightChangeReason: asText(v.weightChangeReason),
+    duplicateOrderReason: asText(v.duplicateOrderReason),
     note: asText(v.note),
     amendmentReason: asText(v.amendmentReason),
     swellingAcknowledged: v.swellingAcknowledged === true,
@@ -174,6 +182,7 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
     ),
     retreatmentReason: order.retreatmentReason ?? '',
     weightChangeReason: order.weightChangeReason ?? '',
+    duplicateOrderReason: order.duplicateOrderReason ?? '',
     note: order.note ?? '',
     amendmentReason: '',
     swellingAcknowledged: order.swellingAcknowledged,
@@ -273,6 +282,7 @@ export function formToDraft(
     softLimitReasons,
     retreatmentReason: blankToNull(values.retreatmentReason),
     weightChangeReason: blankToNull(values.weightChangeReason),
+    duplicateOrderReason: blankToNull(values.duplicateOrderReason),
     note: blankToNull(values.note),
     swellingAcknowledged: context.definition?.kind === 'cxl' && values.swellingAcknowledged,
   };
@@ -290,6 +300,7 @@ export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>
     case 'eye':
     case 'retreatmentReason':
     case 'weightChangeReason':
+    case 'duplicateOrderReason':
     case 'note':
     case 'amendmentReason':
     case 'swellingAcknowledged':
@@ -396,6 +407,10 @@ export function checkOrderForm(
       });
     }
   }
+
+  // The server refuses to save a second open order without a reason of substance; ask first.
+  const duplicate = duplicateOrderProblem(context.openOrders ?? [], draft.duplicateOrderReason);
+  if (duplicate) problems.push({ field: 'duplicateOrderReason', message: duplicate.message });
 
   const schema: z.ZodType = context.mode === 'amend' ? amendOrderSchema : orderDraftSchema;
   const parsed = schema.safeParse(draft);
