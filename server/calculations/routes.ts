@@ -5,14 +5,13 @@ import {
   calculationRequestSchema,
   lightCalculationRequestSchema,
 } from '../../shared/schemas/calculation';
-import { AppError } from '../http/app-error';
 import type { RouteSpec } from '../http/route-table';
-import { parseInput } from '../http/validation';
+import { badInput, parseInput } from '../http/validation';
 import type { ProtocolService } from '../protocols/service';
 
 /** The engine refuses out-of-range input by throwing; here that becomes a 400 naming each field. */
 function asBadRequest(error: unknown): never {
-  if (error instanceof PlanInputError) throw AppError.badRequest(error.message, error.fields);
+  if (error instanceof PlanInputError) throw badInput(error.fields);
   throw error;
 }
 

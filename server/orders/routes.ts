@@ -9,7 +9,8 @@ import {
 } from '../../shared/schemas/orders';
 import { signedInUser } from '../auth/session';
 import type { RouteSpec } from '../http/route-table';
-import { idParam, parseInput } from '../http/validation';
+import type { ZodType } from 'zod';
+import { badInput, fieldProblemsFromZod, idParam, parseInput } from '../http/validation';
 import type { OrderRepository } from './repository';
 import type { Actor, OrderService } from './service';
 import { todayLists } from './today';
@@ -17,6 +18,21 @@ import { todayLists } from './today';
 export function actorOf(req: { ip?: string }, res: Parameters<typeof signedInUser>[0]): Actor {
   const user = signedInUser(res);
   return { id: user.id, roles: user.roles, ipAddress: req.ip };
+}
+
+/**
+ * An order body parsed with its schema; when refused, the answer also carries what the engine
+ * finds wrong with the other inputs, so the clinician sees every bad input of the form at once.
+ */
+async function parseOrderBody<T>(schema: ZodType<T>, body: unknown, orders: OrderService) {
+  const parsed = schema.safeParse(body);
+  if (parsed.success) return parsed.data;
+  const fields = fieldProblemsFromZod(parsed.error);
+  const engine = await orders.engineProblemsOf(
+    body,
+    fields.map((f) => f.path),
+  );
+  throw badInput([...fields, ...engine]);
 }
 
 export function orderRoutes(
@@ -49,7 +65,7 @@ export function orderRoutes(
       path: '/orders',
       access: 'orders.write',
       handler: async (req, res) => {
-        const input = parseInput(orderDraftSchema, req.body);
+        const input = await parseOrderBody(orderDraftSchema, req.body, orders);
         res.status(201).json({ order: await orders.createDraft(actorOf(req, res), input) });
       },
     },
@@ -78,7 +94,7 @@ export function orderRoutes(
       access: 'orders.write',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        const { version, ...draft } = parseInput(updateOrderSchema, req.body);
+        const { version, ...draft } = await parseOrderBody(updateOrderSchema, req.body, orders);
         res.json({ order: await orders.updateDraft(actorOf(req, res), id, draft, version) });
       },
     },
@@ -98,7 +114,11 @@ export function orderRoutes(
       access: 'orders.write',
       handler: async (req, res) => {
         const id = parseInput(idParam, req.params.id, 'id');
-        const { version, ...amendment } = parseInput(amendOrderRequestSchema, req.body);
+        const { version, ...amendment } = await parseOrderBody(
+          amendOrderRequestSchema,
+          req.body,
+          orders,
+        );
         res
           .status(201)
           .json({ order: await orders.amend(actorOf(req, res), id, amendment, version) });

@@ -42,6 +42,7 @@ import type { User } from '../db/entities/user';
 import { isDuplicateKey } from '../db/errors';
 import { mayCancelOrder } from '../auth/permissions';
 import { AppError } from '../http/app-error';
+import { badInput } from '../http/validation';
 import { enqueueMessage } from '../mail/outbox';
 import type { UserRepository } from '../people/repository';
 import type { PatientRepository } from '../patients/repository';
@@ -144,7 +145,7 @@ export function createOrderService(deps: {
     try {
       return computePlan(row.definition, inputs);
     } catch (error) {
-      if (error instanceof PlanInputError) throw AppError.badRequest(error.message, error.fields);
+      if (error instanceof PlanInputError) throw badInput(error.fields);
       throw error;
     }
   }
@@ -734,6 +735,41 @@ export function createOrderService(deps: {
         details: { from: order.status, reason: reason.trim(), patientId: order.patientId },
       });
       return detail(await mustFind(id), actor);
+    },
+
+    /**
+     * What the engine says of a request the schema refused, so one answer names every bad input
+     * of the form: the inputs zod refused are left out, the rest are checked against the
+     * protocol's limits. Empty when the protocol cannot be told.
+     */
+    async engineProblemsOf(body: unknown, refusedPaths: readonly string[]) {
+      const raw = (body && typeof body === 'object' ? body : {}) as {
+        protocol?: { key?: unknown; version?: unknown };
+        inputs?: unknown;
+      };
+      const key = raw.protocol?.key;
+      const version = raw.protocol?.version;
+      if (typeof key !== 'string' || !/^[a-z0-9-]{1,64}$/.test(key)) return [];
+      if (version !== undefined && (typeof version !== 'number' || !Number.isInteger(version)))
+        return [];
+      if (!raw.inputs || typeof raw.inputs !== 'object') return [];
+      const inputs: Record<string, unknown> = { ...(raw.inputs as Record<string, unknown>) };
+      for (const path of refusedPaths) {
+        const [head, field] = path.split('.');
+        if (head === 'inputs' && field) delete inputs[field];
+      }
+      const row = await protocols.resolveForUse(key, version).catch(() => null);
+      if (!row) return [];
+      try {
+        computePlan(row.definition, inputs as OrderDraft['inputs']);
+        return [];
+      } catch (error) {
+        if (!(error instanceof PlanInputError)) return [];
+        // A field zod refused is named once, by zod, not again as "required" by the engine.
+        const covered = (p: string) =>
+          refusedPaths.some((r) => r === p || r.startsWith(`${p}.`) || p.startsWith(`${r}.`));
+        return error.fields.filter((f) => !covered(f.path));
+      }
     },
 
     /** What a signature of an order for this patient, eye and protocol would be held to beyond the form. */

@@ -198,12 +198,10 @@ describe('cancelling an order before its session', () => {
       .post(`/api/orders/${other.id}/cancellation`)
       .send({ reason: goodCancelReason, version: other.version });
     expect(first.status).toBe(200);
-    const again = await clinicianAgent
-      .post(`/api/orders/${other.id}/cancellation`)
-      .send({
-        reason: 'Cancelled twice by mistake from two tabs.',
-        version: first.body.order.version,
-      });
+    const again = await clinicianAgent.post(`/api/orders/${other.id}/cancellation`).send({
+      reason: 'Cancelled twice by mistake from two tabs.',
+      version: first.body.order.version,
+    });
     expect(again.status).toBe(409);
     expect((await stored(other.id)).cancelReason).toBe(goodCancelReason);
   });
@@ -322,12 +320,10 @@ describe('a second open order for the same patient, eye and kind', () => {
     expect((await stored(early.id)).status).toBe('draft');
 
     // With the reason, the list is empty and the signature goes through.
-    const edited = await clinicianAgent
-      .put(`/api/orders/${early.id}`)
-      .send({
-        ...pdtOrder(patient.id, { duplicateOrderReason: goodReason }),
-        version: read.version,
-      });
+    const edited = await clinicianAgent.put(`/api/orders/${early.id}`).send({
+      ...pdtOrder(patient.id, { duplicateOrderReason: goodReason }),
+      version: read.version,
+    });
     expect(edited.status, JSON.stringify(edited.body)).toBe(200);
     expect(edited.body.order.beforeSigning).toEqual([]);
     const signed = await sign(edited.body.order);

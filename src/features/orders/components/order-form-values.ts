@@ -334,25 +334,6 @@ export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>
   }
 }
 
-/** Words for the key names the shared schema puts at the start of its messages. */
-export const messageLabels: Record<string, string> = {
-  patientId: 'Patient',
-  eye: 'Eye',
-  'protocol.key': 'Protocol',
-  'protocol.version': 'Protocol version',
-  'height.value': 'Height',
-  'weight.value': 'Weight',
-  lesionGldUm: 'Lesion GLD',
-  lensMagnification: 'Lens magnification',
-  stromalThicknessUm: 'Stromal thickness',
-  'checklist[].overrideReason': 'The reason',
-  'softLimitReasons[field]': 'The reason',
-  retreatmentReason: 'The retreatment reason',
-  weightChangeReason: 'The reason for the change in weight',
-  note: 'The note',
-  amendmentReason: 'The amendment reason',
-};
-
 function setNested(errors: Record<string, unknown>, name: string, error: FieldError) {
   const parts = name.split('.');
   let node = errors;

@@ -24,7 +24,6 @@ import {
   checkOrderForm,
   formFieldFor,
   formToInputs,
-  messageLabels,
   orderFormResolver,
   parseProtocolRef,
   protocolRefOf,
@@ -63,7 +62,7 @@ type OrderFormProps = {
   onSaved: (order: OrderDetail) => void;
 };
 
-const read = (message: string | undefined) => readableMessage(message, messageLabels);
+const read = (message: string | undefined) => readableMessage(message);
 const sentence = (message: string) => message.charAt(0).toUpperCase() + message.slice(1);
 
 function rangeHint(

@@ -54,16 +54,8 @@ const patientFormSchema = z.preprocess((values) => {
   };
 }, createPatientSchema) as unknown as z.ZodType<CreatePatient, PatientFormValues>;
 
-const labels = {
-  recordNumber: 'Record number',
-  givenName: 'Given name',
-  familyName: 'Family name',
-  dateOfBirth: 'Date of birth',
-  email: 'E-mail',
-  emailConsent: 'Agreement to e-mail',
-  duplicateConfirmed: 'The confirmation',
-  duplicateReason: 'The reason',
-};
+// Field names come from the shared table (shared/format/field-labels.ts).
+const labels = {};
 const fieldNames = [
   'recordNumber',
   'givenName',
