@@ -142,7 +142,13 @@ export function ChecklistAnswers({
 /** Reasons recorded for soft-limit warnings and for a retreatment inside the interval, and the note. */
 export function OrderReasons({ order }: { order: OrderDetail }) {
   const reasons = Object.entries(order.softLimitReasons);
-  if (reasons.length === 0 && !order.retreatmentReason && !order.weightChangeReason && !order.note)
+  if (
+    reasons.length === 0 &&
+    !order.retreatmentReason &&
+    !order.weightChangeReason &&
+    !order.duplicateOrderReason &&
+    !order.note
+  )
     return null;
   return (
     <Card id="order-reasons" title="Reasons and note">
@@ -169,6 +175,12 @@ export function OrderReasons({ order }: { order: OrderDetail }) {
               Reason for the change in weight since the last one recorded
             </dt>
             <dd className="text-paper-950">{order.weightChangeReason}</dd>
+          </div>
+        )}
+        {order.duplicateOrderReason && (
+          <div>
+            <dt className="text-sm text-paper-600">Reason for a second open order</dt>
+            <dd className="text-paper-950">{order.duplicateOrderReason}</dd>
           </div>
         )}
         {order.note && (
