@@ -123,11 +123,28 @@ describe('the order form tells the truth before signing', () => {
     const dialog = page.getByRole('dialog', { name: `Sign order ${orderId}` });
     await dialog.getByLabel('Your password').fill(demoPassword);
     await dialog.getByRole('button', { name: 'Sign: I order this treatment' }).click();
-    await expect.poll(() => page.getByRole('status').first().innerText()).toMatch(/is signed/);
+    const storedStatus = async () =>
+      (
+        (await (await page.request.get(`${ctx.baseUrl}/api/orders/${orderId}`)).json()) as {
+          order: { status: string };
+        }
+      ).order.status;
+    await expect
+      .poll(
+        async () => ({
+          status: await storedStatus(),
+          page: await page.locator('main').innerText(),
+        }),
+        {
+          timeout: 15_000,
+        },
+      )
+      .toMatchObject({ status: 'signed' });
+    expect(await page.locator('main').innerText()).toContain(`Order ${orderId} is signed`);
     expect(problems).toEqual([]);
   });
 
-  it('the signer cancels an order with a reason; a placeholder is refused on the dialog first', async () => {
+  it('the author cancels a draft with a reason; a too-short reason is refused on the dialog first', async () => {
     const { page, problems } = await clinicianPage({ width: 1024, height: 768 });
     const patient = await newPatient(page, 'Teasdale');
     const created = await page.request.post(`${ctx.baseUrl}/api/orders`, {
@@ -139,13 +156,16 @@ describe('the order form tells the truth before signing', () => {
     const dialog = page.getByRole('dialog', { name: `Cancel order ${draft.id}` });
     await dialog.getByLabel('Reason for cancelling (required)').fill('n/a');
     await dialog.getByRole('button', { name: 'Cancel this order' }).click();
-    await expect.poll(() => dialog.innerText()).toMatch(/placeholder, not a reason/);
+    await expect
+      .poll(() => dialog.innerText())
+      .toMatch(/at least 15 characters and 3 different words/);
     expect(await accessibilityViolations(page)).toEqual([]);
     await dialog
       .getByLabel('Reason for cancelling (required)')
       .fill('Patient chose to wait for the next clinic after counselling.');
     await dialog.getByRole('button', { name: 'Cancel this order' }).click();
-    await expect.poll(() => page.getByRole('status').first().innerText()).toMatch(/is cancelled/);
+    const outcome = page.getByRole('status').filter({ hasText: `Order ${draft.id} is cancelled` });
+    await expect.poll(() => outcome.count()).toBe(1);
     await expect.poll(() => page.getByRole('note').innerText()).toMatch(/Reason: Patient chose/);
     expect(await page.getByRole('button', { name: 'Cancel order' }).count()).toBe(0);
     const stored = await page.request.get(`${ctx.baseUrl}/api/orders/${draft.id}`);
