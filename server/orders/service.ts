@@ -11,6 +11,7 @@ import {
 import {
   answeredCautions,
   duplicateOrderProblem,
+  otherOpenOrdersSentence,
   signatureProblems,
 } from '../../shared/orders/readiness';
 import { reasonOfSubstanceProblem } from '../../shared/orders/reason-of-substance';
@@ -311,13 +312,14 @@ export function createOrderService(deps: {
         field: 'weightChangeReason',
         message: weightChangeMessage(weightChange),
       });
-    const duplicate = duplicateOrderProblem(openOrders, null);
-    if (duplicate)
+    if (openOrders.length > 0) {
+      const sentence = otherOpenOrdersSentence(openOrders);
       warnings.push({
         code: 'duplicate-order',
         field: 'duplicateOrderReason',
-        message: duplicate.message,
+        message: `${sentence.charAt(0).toUpperCase()}${sentence.slice(1)}.`,
       });
+    }
     const beforeSigning =
       order.status === 'draft'
         ? signatureProblems({

@@ -36,15 +36,18 @@ export function duplicateOrderProblem(
   if (openOrders.length === 0) return null;
   const weak = reasonOfSubstanceProblem(reason, undefined, 'why a second order is right');
   if (!weak) return null;
-  const others = openOrders.map((o) => `order ${o.id} (${o.protocolTitle}, ${o.status})`);
-  const which =
-    others.length === 1
-      ? `another open order of the same kind for this eye: ${others[0]}`
-      : `${others.length} other open orders of the same kind for this eye: ${others.join(', ')}`;
   return {
     path: 'duplicateOrderReason',
-    message: `the patient has ${which}. Cancel or amend that one, or ${weak}`,
+    message: `${otherOpenOrdersSentence(openOrders)}. Cancel or amend that one, or ${weak}`,
   };
+}
+
+/** "the patient has another open order of the same kind for this eye: order 41 (…, signed)". */
+export function otherOpenOrdersSentence(openOrders: readonly OpenOrderFact[]): string {
+  const others = openOrders.map((o) => `order ${o.id} (${o.protocolTitle}, ${o.status})`);
+  return others.length === 1
+    ? `the patient has another open order of the same kind for this eye: ${others[0]}`
+    : `the patient has ${others.length} other open orders of the same kind for this eye: ${others.join(', ')}`;
 }
 
 type Question = ProtocolDefinition['contraindications'][number];

@@ -438,7 +438,9 @@ export function OrderDetailScreen({
               <h2 id="plan-heading" className="text-xl font-semibold text-paper-950">
                 {isDraft
                   ? 'Dose plan (recomputed and frozen at signing)'
-                  : 'Dose plan as frozen at signing'}
+                  : detail.signedAt === null
+                    ? 'Dose plan of the draft (never signed)'
+                    : 'Dose plan as frozen at signing'}
               </h2>
               {detail.planWithheld || !detail.plan ? (
                 <div className="flex gap-3 rounded-lg border border-paper-300 bg-paper-100 px-4 py-3">
