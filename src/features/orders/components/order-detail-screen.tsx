@@ -493,7 +493,7 @@ export function OrderDetailScreen({
         </div>
       </PrintFrame>
 
-      {mayCancel && (
+      {mayCancel && cancelling && (
         <CancelOrderDialog
           order={detail}
           open={cancelling}
