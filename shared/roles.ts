@@ -22,6 +22,7 @@ export const capabilities = [
   'patients.manage',
   'orders.read',
   'orders.write',
+  'orders.cancel',
   'dose-checks.perform',
   'preparations.record',
   'outbox.read',

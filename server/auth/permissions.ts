@@ -14,6 +14,7 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'patients.manage',
     'orders.read',
     'orders.write',
+    'orders.cancel',
   ],
   pharmacist: [
     'today.view',
@@ -52,10 +53,23 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'calculations.run',
     'patients.manage',
     'patients.read',
+    'orders.cancel',
     'outbox.read',
     'audit.verify',
   ],
 };
+
+/**
+ * Who may cancel a given order (the route asks for `orders.cancel` first): an administrator any
+ * order; anyone else only an order they signed, or, before it is signed, one they drafted.
+ */
+export function mayCancelOrder(
+  actor: { id: number; roles: readonly Role[] },
+  order: { signedById: number | null; createdById: number },
+): boolean {
+  if (actor.roles.includes('admin')) return true;
+  return order.signedById === null ? order.createdById === actor.id : order.signedById === actor.id;
+}
 
 export function capabilitiesOf(roles: readonly Role[]): Capability[] {
   const held = new Set(roles.flatMap((role) => roleCapabilities[role]));

@@ -7,7 +7,7 @@ import type {
   DosePlan,
   LightCalculationRequest,
 } from '../../shared/schemas/calculation';
-import { AppError } from '../http/app-error';
+import { badInput } from '../http/validation';
 import type { ProtocolService } from '../protocols/service';
 
 /** Runs the engine; its refusal of out-of-range input becomes a 400 naming each field. */
@@ -15,7 +15,7 @@ function engine<T>(run: () => T): T {
   try {
     return run();
   } catch (error) {
-    if (error instanceof PlanInputError) throw AppError.badRequest(error.message, error.fields);
+    if (error instanceof PlanInputError) throw badInput(error.fields);
     throw error;
   }
 }

@@ -14,6 +14,7 @@ import { SwellingAcknowledged1796294162239 } from './migrations/1796294162239-Sw
 import { OrderRowVersion1796294215019 } from './migrations/1796294215019-OrderRowVersion';
 import { PreparationHistory1796294636289 } from './migrations/1796294636289-PreparationHistory';
 import { SignedOrderFactsKept1796297991104 } from './migrations/1796297991104-SignedOrderFactsKept';
+import { OrderCancellation1796303351497 } from './migrations/1796303351497-OrderCancellation';
 import { ProtocolSignaturesDiscardsAndSuperseded1796303358061 } from './migrations/1796303358061-ProtocolSignaturesDiscardsAndSuperseded';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
@@ -32,5 +33,6 @@ export const migrations = [
   OrderRowVersion1796294215019,
   PreparationHistory1796294636289,
   SignedOrderFactsKept1796297991104,
+  OrderCancellation1796303351497,
   ProtocolSignaturesDiscardsAndSuperseded1796303358061,
 ];

@@ -14,6 +14,7 @@ const withParts = {
   protocolVersion: true,
   createdBy: true,
   signedBy: true,
+  cancelledBy: true,
 } as const;
 
 const sortColumns: Record<OrderListQuery['sort'], string> = {
@@ -142,6 +143,28 @@ export function createOrderRepository(dataSource: DataSource) {
         .andWhere('o.status IN (:...statuses)', { statuses })
         .andWhere('COALESCE(o.signedAt, o.createdAt) >= :since', { since })
         .orderBy('o.signedAt', 'DESC');
+      if (excludeIds.length) qb.andWhere('o.id NOT IN (:...excludeIds)', { excludeIds });
+      return qb.getMany();
+    },
+
+    /** Open orders of one kind on one eye, oldest first, for the duplicate-order rule. */
+    openOrdersFor(
+      patientId: number,
+      eye: 'right' | 'left',
+      kind: 'pdt' | 'cxl',
+      statuses: readonly OrderStatus[],
+      excludeIds: number[] = [],
+    ) {
+      const qb = orders
+        .createQueryBuilder('o')
+        .innerJoinAndSelect('o.protocolVersion', 'pv')
+        .where('o.patientId = :patientId AND o.eye = :eye AND pv.kind = :kind', {
+          patientId,
+          eye,
+          kind,
+        })
+        .andWhere('o.status IN (:...statuses)', { statuses })
+        .orderBy('o.id', 'ASC');
       if (excludeIds.length) qb.andWhere('o.id NOT IN (:...excludeIds)', { excludeIds });
       return qb.getMany();
     },

@@ -1,6 +1,19 @@
 import { DateTime } from 'luxon';
-import { amendableStatuses, treatmentStatuses } from '../../shared/orders/lifecycle';
-import { answeredCautions, signatureProblems } from '../../shared/orders/readiness';
+import { computePlan } from '../../shared/engine/compute-plan';
+import { PlanInputError } from '../../shared/engine/plan-input-error';
+import {
+  amendableStatuses,
+  cancellableStatuses,
+  openOrderStatuses,
+  treatmentStatuses,
+} from '../../shared/orders/lifecycle';
+import {
+  answeredCautions,
+  duplicateOrderProblem,
+  otherOpenOrdersSentence,
+  signatureProblems,
+} from '../../shared/orders/readiness';
+import { reasonOfSubstanceProblem } from '../../shared/orders/reason-of-substance';
 import { supersededVersionProblem } from '../../shared/orders/superseded-version';
 import {
   lastRecordedWeight,
@@ -12,11 +25,14 @@ import {
 import type { DosePlan } from '../../shared/schemas/calculation';
 import type {
   AmendOrder,
+  OpenOrderFact,
   OrderDetail,
   OrderDraft,
   OrderListQuery,
   OrderStatus,
   OrderSummary,
+  SigningFacts,
+  SigningFactsQuery,
 } from '../../shared/schemas/orders';
 import type { Role } from '../../shared/roles';
 import type { AuditRepository } from '../audit/repository';
@@ -27,6 +43,7 @@ import type { ProtocolForUse } from '../protocols/repository';
 import type { TreatmentOrder } from '../db/entities/treatment-order';
 import type { User } from '../db/entities/user';
 import { isDuplicateKey } from '../db/errors';
+import { mayCancelOrder } from '../auth/permissions';
 import type { Transaction, UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox-repository';
@@ -207,6 +224,35 @@ export function createOrderService(deps: {
     return Math.floor((clock.now().getTime() - last) / 86_400_000);
   }
 
+  /** The patient's other open orders of this kind on this eye (not this one, nor the revision it amends). */
+  async function openOrdersOf(
+    order: {
+      patientId: number;
+      eye: 'right' | 'left';
+      id?: number;
+      previousRevisionId?: number | null;
+    },
+    kind: 'pdt' | 'cxl',
+  ): Promise<OpenOrderFact[]> {
+    const excluded = [order.id, order.previousRevisionId].filter(
+      (id): id is number => typeof id === 'number',
+    );
+    const rows = await orders.openOrdersFor(
+      order.patientId,
+      order.eye,
+      kind,
+      openOrderStatuses,
+      excluded,
+    );
+    return rows.map((o) => ({
+      id: o.id,
+      revision: o.revision,
+      status: o.status,
+      protocolTitle: o.protocolVersion.title,
+      createdAt: o.createdAt.toISOString(),
+    }));
+  }
+
   /** The change from the patient's last recorded weight, when it needs a reason under the unit's rule. */
   async function weightChangeOf(order: {
     id: number;
@@ -242,16 +288,20 @@ export function createOrderService(deps: {
 
   async function detail(order: TreatmentOrder, viewer: Actor): Promise<OrderDetail> {
     const withheld = planIsWithheldFrom(order, viewer);
-    const [checks, preparation, attachments, next, recentDays, weightChange] = await Promise.all([
-      orders.doseChecksFor(order.id),
-      orders.preparationFor(order.id),
-      orders.attachmentsFor(order.id),
-      orders.nextRevisionOf(order.id),
-      order.status === 'draft'
-        ? recentTreatmentDays(order, order.protocolVersion)
-        : Promise.resolve(null),
-      order.status === 'draft' ? weightChangeOf(order) : Promise.resolve(null),
-    ]);
+    const [checks, preparation, attachments, next, recentDays, weightChange, openOrders] =
+      await Promise.all([
+        orders.doseChecksFor(order.id),
+        orders.preparationFor(order.id),
+        orders.attachmentsFor(order.id),
+        orders.nextRevisionOf(order.id),
+        order.status === 'draft'
+          ? recentTreatmentDays(order, order.protocolVersion)
+          : Promise.resolve(null),
+        order.status === 'draft' ? weightChangeOf(order) : Promise.resolve(null),
+        order.status === 'draft'
+          ? openOrdersOf(order, order.protocolVersion.kind)
+          : Promise.resolve([]),
+      ]);
     const warnings = withheld ? [] : [...order.plan.warnings];
     if (recentDays !== null) {
       warnings.push({
@@ -266,6 +316,30 @@ export function createOrderService(deps: {
         field: 'weightChangeReason',
         message: weightChangeMessage(weightChange),
       });
+    if (openOrders.length > 0) {
+      const sentence = otherOpenOrdersSentence(openOrders);
+      warnings.push({
+        code: 'duplicate-order',
+        field: 'duplicateOrderReason',
+        message: `${sentence.charAt(0).toUpperCase()}${sentence.slice(1)}.`,
+      });
+    }
+    const beforeSigning =
+      order.status === 'draft'
+        ? signatureProblems({
+            definition: order.protocolVersion.definition,
+            plan: order.plan,
+            checklist: order.checklist,
+            softLimitReasons: order.softLimitReasons,
+            retreatmentReason: order.retreatmentReason,
+            recentTreatmentDays: recentDays,
+            weightChange,
+            weightChangeReason: order.weightChangeReason,
+            swellingAcknowledged: order.swellingAcknowledged,
+            openOrders,
+            duplicateOrderReason: order.duplicateOrderReason,
+          })
+        : null;
     const summary = toOrderSummary(order);
     return {
       ...summary,
@@ -277,8 +351,17 @@ export function createOrderService(deps: {
       retreatmentReason: order.retreatmentReason,
       weightChangeReason: order.weightChangeReason,
       supersededVersionReason: order.supersededVersionReason,
+      duplicateOrderReason: order.duplicateOrderReason,
       note: order.note,
       swellingAcknowledged: order.swellingAcknowledged,
+      cancellation:
+        order.cancelledAt && order.cancelReason
+          ? {
+              at: order.cancelledAt.toISOString(),
+              by: person(order.cancelledBy),
+              reason: order.cancelReason,
+            }
+          : null,
       answeredCautions: answeredCautions(order.protocolVersion.definition, order.checklist),
       plan: withheld ? null : order.plan,
       planWithheld: withheld,
@@ -314,6 +397,7 @@ export function createOrderService(deps: {
           }
         : null,
       warnings,
+      beforeSigning,
     };
   }
 
@@ -341,6 +425,20 @@ export function createOrderService(deps: {
         { path: 'supersededVersionReason', message: supersededProblem },
       ]);
     const computed = await planOrRefuse(actor, row, input.inputs, base.id ?? null);
+    const duplicateOrderReason = input.duplicateOrderReason?.trim() || null;
+    const openOrders = await openOrdersOf(
+      {
+        patientId: input.patientId,
+        eye: input.eye,
+        id: base.id,
+        previousRevisionId: base.previousRevisionId,
+      },
+      row.kind,
+    );
+    const duplicate = duplicateOrderProblem(openOrders, duplicateOrderReason);
+    if (duplicate) {
+      throw AppError.badRequest(`The order was not saved: ${duplicate.message}`, [duplicate]);
+    }
     const save = async (m: Transaction) => {
       await guard?.(m);
       const saved = await orders.save(m, {
@@ -359,6 +457,8 @@ export function createOrderService(deps: {
         weightChangeReason: input.weightChangeReason ?? null,
         // Kept only while it is needed: a reason for a version that is the newest means nothing.
         supersededVersionReason: supersededBy === null ? null : input.supersededVersionReason!,
+        // Kept only while it answers something: a reason for a duplicate that is gone says nothing.
+        duplicateOrderReason: openOrders.length > 0 ? duplicateOrderReason : null,
         note: input.note ?? null,
         swellingAcknowledged: input.swellingAcknowledged ?? false,
         createdById: base.createdById ?? actor.id,
@@ -377,6 +477,9 @@ export function createOrderService(deps: {
         eye: input.eye,
         patientId: input.patientId,
         revision: saved.revision,
+        ...(openOrders.length > 0
+          ? { otherOpenOrders: openOrders.map((o) => o.id), duplicateOrderReason }
+          : {}),
       },
     });
     return saved.id;
@@ -507,6 +610,8 @@ export function createOrderService(deps: {
         weightChange: await weightChangeOf(order),
         weightChangeReason: order.weightChangeReason,
         swellingAcknowledged: order.swellingAcknowledged,
+        openOrders: await openOrdersOf(order, row.kind),
+        duplicateOrderReason: order.duplicateOrderReason,
       });
       // A newer version approved since the draft was saved needs its reason before signing too.
       const supersededProblem = supersededVersionProblem(
@@ -604,9 +709,114 @@ export function createOrderService(deps: {
           retreatmentReason: order.retreatmentReason,
           weightChangeReason: order.weightChangeReason,
           supersededVersionReason: order.supersededVersionReason,
+          duplicateOrderReason: order.duplicateOrderReason,
         },
       });
       return detail(await mustFind(id), actor);
+    },
+
+    /**
+     * Cancels an order that has not reached its session: by its signer (or, unsigned, its
+     * author) or an administrator, with a reason of substance. It leaves every worklist, because
+     * no worklist reads the cancelled status.
+     */
+    async cancel(actor: Actor, id: number, reason: string, readVersion: number) {
+      const order = await mustFind(id);
+      if (!mayCancelOrder(actor, order)) {
+        throw AppError.forbidden(
+          order.signedById === null
+            ? `Only the clinician who drafted order ${id}, or an administrator, may cancel it.`
+            : `Only the clinician who signed order ${id}, or an administrator, may cancel it.`,
+        );
+      }
+      const notCancellable = (status: OrderStatus) =>
+        AppError.conflict(
+          'not_cancellable',
+          status === 'cancelled'
+            ? `Order ${id} is cancelled already.`
+            : `Order ${id} cannot be cancelled: its session has started (it is ${status}). Stop the session on the step clock instead; its record stays.`,
+        );
+      if (!cancellableStatuses.includes(order.status)) throw notCancellable(order.status);
+      assertReadVersion(order, readVersion);
+      const weak = reasonOfSubstanceProblem(reason, undefined, 'why the order is cancelled');
+      if (weak)
+        throw AppError.badRequest(`The order was not cancelled: ${weak}.`, [
+          { path: 'reason', message: weak },
+        ]);
+      const cancelledAt = clock.now();
+      await unitOfWork(async (tx) => {
+        // Locked: a session start or a dose check waits, then finds the order cancelled.
+        const locked = await orders.lockById(tx, id);
+        if (!locked) throw AppError.notFound(`There is no order ${id}.`);
+        if (!cancellableStatuses.includes(locked.status)) throw notCancellable(locked.status);
+        assertReadVersion(locked, readVersion);
+        await moveOrderStatus(tx, id, locked.status, 'cancelled', {
+          cancelledAt,
+          cancelledById: actor.id,
+          cancelReason: reason.trim(),
+        });
+      });
+      await audit.append({
+        actorUserId: actor.id,
+        action: 'order.cancelled',
+        entityType: 'order',
+        entityId: id,
+        ipAddress: actor.ipAddress,
+        details: { from: order.status, reason: reason.trim(), patientId: order.patientId },
+      });
+      return detail(await mustFind(id), actor);
+    },
+
+    /**
+     * What the engine says of a request the schema refused, so one answer names every bad input
+     * of the form: the inputs zod refused are left out, the rest are checked against the
+     * protocol's limits. Empty when the protocol cannot be told.
+     */
+    async engineProblemsOf(body: unknown, refusedPaths: readonly string[]) {
+      const raw = (body && typeof body === 'object' ? body : {}) as {
+        protocol?: { key?: unknown; version?: unknown };
+        inputs?: unknown;
+      };
+      const key = raw.protocol?.key;
+      const version = raw.protocol?.version;
+      if (typeof key !== 'string' || !/^[a-z0-9-]{1,64}$/.test(key)) return [];
+      if (version !== undefined && (typeof version !== 'number' || !Number.isInteger(version)))
+        return [];
+      if (!raw.inputs || typeof raw.inputs !== 'object') return [];
+      const inputs: Record<string, unknown> = { ...(raw.inputs as Record<string, unknown>) };
+      for (const path of refusedPaths) {
+        const [head, field] = path.split('.');
+        if (head === 'inputs' && field) delete inputs[field];
+      }
+      const row = await protocols.resolveForUse(key, version).catch(() => null);
+      if (!row) return [];
+      try {
+        computePlan(row.definition, inputs as OrderDraft['inputs']);
+        return [];
+      } catch (error) {
+        if (!(error instanceof PlanInputError)) return [];
+        // A field zod refused is named once, by zod, not again as "required" by the engine.
+        const covered = (p: string) =>
+          refusedPaths.some((r) => r === p || r.startsWith(`${p}.`) || p.startsWith(`${r}.`));
+        return error.fields.filter((f) => !covered(f.path));
+      }
+    },
+
+    /** What a signature of an order for this patient, eye and protocol would be held to beyond the form. */
+    async signingFacts(query: SigningFactsQuery): Promise<SigningFacts> {
+      const row = await protocols.resolveForUse(query.protocol, query.version);
+      const current = query.orderId ? await orders.findById(query.orderId) : null;
+      const order = {
+        patientId: query.patientId,
+        eye: query.eye,
+        id: current?.id,
+        previousRevisionId: current?.previousRevisionId ?? null,
+      };
+      const [recentTreatmentDaysFound, openOrders] = await Promise.all([
+        recentTreatmentDays(order, row),
+        openOrdersOf(order, row.kind),
+      ]);
+      return { recentTreatmentDays: recentTreatmentDaysFound, openOrders };
     },
 
     async list(query: OrderListQuery) {

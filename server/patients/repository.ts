@@ -54,6 +54,13 @@ export function createPatientRepository(dataSource: DataSource) {
         order: { familyName: 'ASC', givenName: 'ASC' },
         take: limit,
       }),
+    /** Patients with this name and date of birth (the column collation ignores letter case). */
+    findByNameAndBirth: (givenName: string, familyName: string, dateOfBirth: string) =>
+      repo.find({
+        where: { givenName, familyName, dateOfBirth },
+        order: { id: 'ASC' },
+        take: 20,
+      }),
     create: (patient: Omit<Patient, 'id' | 'createdAt'>) => repo.save(repo.create(patient)),
 
     /**

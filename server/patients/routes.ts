@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { createPatientSchema } from '../../shared/schemas/patients';
+import { createPatientSchema, possibleDuplicatesQuerySchema } from '../../shared/schemas/patients';
 import { signedInUser } from '../auth/sign-in-session';
 import type { RouteSpec } from '../http/route-table';
 import { idParam, parseInput } from '../http/validation';
@@ -29,6 +29,16 @@ export function patientRoutes(patients: PatientService): RouteSpec[] {
         res.status(201).json({
           patient: await patients.create({ id: signedInUser(res).id, ipAddress: req.ip }, input),
         });
+      },
+    },
+    {
+      // Before /patients/:id, which would take "possible-duplicates" for an id.
+      method: 'get',
+      path: '/patients/possible-duplicates',
+      access: 'patients.manage',
+      handler: async (req, res) => {
+        const query = parseInput(possibleDuplicatesQuerySchema, req.query);
+        res.json({ patients: await patients.possibleDuplicates(query) });
       },
     },
     {

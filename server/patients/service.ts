@@ -1,7 +1,9 @@
 import { treatmentStatuses } from '../../shared/orders/lifecycle';
 import type { WeightChangeRule } from '../../shared/orders/weight-change';
+import { reasonOfSubstanceProblem } from '../../shared/orders/reason-of-substance';
 import type {
   CreatePatient,
+  PossibleDuplicatesQuery,
   PatientMeasurements,
   Patient as PatientDto,
 } from '../../shared/schemas/patients';
@@ -50,6 +52,13 @@ export function createPatientService(
       return (await patients.search(text?.trim() || undefined, 50)).map(toPatientDto);
     },
 
+    /** Patients who already have this name and date of birth: a new one may be the same person. */
+    async possibleDuplicates(query: PossibleDuplicatesQuery) {
+      return (
+        await patients.findByNameAndBirth(query.givenName, query.familyName, query.dateOfBirth)
+      ).map(toPatientDto);
+    },
+
     async create(actor: { id: number; ipAddress?: string | null }, input: CreatePatient) {
       const taken = () =>
         AppError.conflict(
@@ -57,9 +66,41 @@ export function createPatientService(
           `A patient with record number ${input.recordNumber} exists already; search for it instead of adding it again.`,
         );
       if (await patients.findByRecordNumber(input.recordNumber)) throw taken();
+      // A second record for one person splits their history (and the retreatment interval and
+      // duplicate-order checks with it): the same name and date of birth needs a confirmation.
+      const sameness = await patients.findByNameAndBirth(
+        input.givenName,
+        input.familyName,
+        input.dateOfBirth,
+      );
+      const duplicateReason = input.duplicateReason?.trim() || null;
+      if (sameness.length > 0) {
+        const records = sameness.map((p) => p.recordNumber).join(', ');
+        const weak = input.duplicateConfirmed
+          ? reasonOfSubstanceProblem(
+              duplicateReason,
+              undefined,
+              'how you know this is another person',
+            )
+          : 'confirm that this is another person, and say how you know';
+        if (weak) {
+          throw new AppError(
+            409,
+            'possible_duplicate_patient',
+            `A patient with the same name and date of birth exists already (record ${records}). Nothing was saved: open that record, or ${weak}.`,
+            [
+              {
+                path: input.duplicateConfirmed ? 'duplicateReason' : 'duplicateConfirmed',
+                message: `a patient named ${input.givenName} ${input.familyName}, born ${input.dateOfBirth}, exists already (record ${records}): ${weak}`,
+              },
+            ],
+          );
+        }
+      }
       // Two people adding the same record at once: both pass the look-up, the unique key stops one.
+      const { duplicateConfirmed: _confirmed, duplicateReason: _reason, ...fields } = input;
       const patient = await patients
-        .create({ ...input, email: input.email ?? null })
+        .create({ ...fields, email: input.email ?? null })
         .catch((error: unknown) => {
           throw isDuplicateKey(error) ? taken() : error;
         });
@@ -69,7 +110,12 @@ export function createPatientService(
         entityType: 'patient',
         entityId: patient.id,
         ipAddress: actor.ipAddress,
-        details: { recordNumber: patient.recordNumber },
+        details: {
+          recordNumber: patient.recordNumber,
+          ...(sameness.length > 0
+            ? { possibleDuplicateOf: sameness.map((p) => p.id), duplicateReason }
+            : {}),
+        },
       });
       return toPatientDto(patient);
     },

@@ -1,3 +1,4 @@
+import { fieldLabel, fieldWord } from '../../shared/format/field-labels';
 import { DateTime } from 'luxon';
 import { doseCheckDiffering } from '../../shared/engine/dose-check';
 import { withinPct } from '../../shared/engine/tolerance';
@@ -96,7 +97,7 @@ export function createPharmacyService(deps: {
         if (refusals < refusalsBeforeReturn) return { returned: false, refusals };
         const comment =
           entry.comment?.trim() ||
-          `The dose check was refused ${refusals} times (figures differing: ${differing.join(', ')}).`;
+          `The dose check was refused ${refusals} times (figures differing: ${differing.map(fieldWord).join(', ')}).`;
         await moveOrderStatus(tx, id, 'signed', 'returned', { returnComment: comment });
         await enqueueMessage(tx, {
           kind: 'order-returned',
@@ -133,15 +134,15 @@ export function createPharmacyService(deps: {
       });
       if (outcome === 'mismatch') {
         const message = result.returned
-          ? `Your figures differ from the plan again (${differing.join(', ')}): the order goes back to the clinician with your comment.`
-          : `Your figures differ from the plan: ${differing.join(', ')}. Recalculate and enter them again; one more refusal sends the order back to the clinician.`;
+          ? `Your figures differ from the plan again (${differing.map(fieldWord).join(', ')}): the order goes back to the clinician with your comment.`
+          : `Your figures differ from the plan: ${differing.map(fieldWord).join(', ')}. Recalculate and enter them again; one more refusal sends the order back to the clinician.`;
         throw new AppError(
           422,
           result.returned ? 'dose_check_returned' : 'dose_check_mismatch',
           message,
           differing.map((path) => ({
             path,
-            message: `${path} is outside the protocol's tolerance`,
+            message: `${fieldLabel(path)} is outside the protocol's tolerance`,
           })),
         );
       }

@@ -92,15 +92,13 @@ export function protocolRoutes(protocols: ProtocolService): RouteSpec[] {
             { path: 'file', message: 'file must be a JSON protocol version' },
           ]);
         }
-        res
-          .status(201)
-          .json({
-            version: await protocols.importVersion(
-              actor(req, res),
-              json,
-              file.originalname.slice(0, 200),
-            ),
-          });
+        res.status(201).json({
+          version: await protocols.importVersion(
+            actor(req, res),
+            json,
+            file.originalname.slice(0, 200),
+          ),
+        });
       },
     },
     {

@@ -49,6 +49,15 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     lensLimit,
     'pdt',
   );
+  // A lesion whose spot would pass the largest spot is refused with that reason, beside the other
+  // problems of the form: the range alone ("at most 5400 µm") does not say why.
+  const typedGldUm = inputs.lesionGldUm;
+  if (typeof typedGldUm === 'number' && typedGldUm + spotMarginUm > maxSpotUm) {
+    const ranged = report.problems.find((p) => p.path === 'inputs.lesionGldUm');
+    if (ranged)
+      ranged.message = `${ranged.message}: ${spotWouldPass(typedGldUm, spotMarginUm, maxSpotUm)}`;
+    else report.problems.push(spotTooLarge(protocol, typedGldUm, spotMarginUm, maxSpotUm));
+  }
   if (
     report.problems.length > 0 ||
     body === undefined ||
@@ -215,12 +224,7 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
   // Light.
   const spotDiameterUm = lesionGldUm + spotMarginUm;
   if (spotDiameterUm > maxSpotUm) {
-    throw new PlanInputError([
-      {
-        path: 'inputs.lesionGldUm',
-        message: `lesion GLD must be at most ${formatNumber(maxSpotUm - spotMarginUm)} µm for ${ref}: the spot (GLD + ${formatNumber(spotMarginUm)} µm) may not exceed ${formatNumber(maxSpotUm)} µm (got ${formatNumber(lesionGldUm)} µm)`,
-      },
-    ]);
+    throw new PlanInputError([spotTooLarge(protocol, lesionGldUm, spotMarginUm, maxSpotUm)]);
   }
   plan.spotDiameterUm = record(working, {
     name: 'spotDiameterUm',
@@ -343,4 +347,21 @@ export function computePdtPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
     source: ref,
   });
   return plan;
+}
+
+/** Why a lesion is too large: its spot (GLD + margin) would pass the largest spot the protocol allows. */
+function spotWouldPass(lesionGldUm: number, spotMarginUm: number, maxSpotUm: number): string {
+  return `its spot (GLD + ${formatNumber(spotMarginUm)} µm margin = ${formatNumber(lesionGldUm + spotMarginUm)} µm) would pass the largest spot of ${formatNumber(maxSpotUm)} µm`;
+}
+
+function spotTooLarge(
+  protocol: ProtocolVersion,
+  lesionGldUm: number,
+  spotMarginUm: number,
+  maxSpotUm: number,
+) {
+  return {
+    path: 'inputs.lesionGldUm',
+    message: `lesion GLD must be at most ${formatNumber(maxSpotUm - spotMarginUm)} µm for ${protocolRef(protocol)} (got ${formatNumber(lesionGldUm)} µm): ${spotWouldPass(lesionGldUm, spotMarginUm, maxSpotUm)}`,
+  };
 }

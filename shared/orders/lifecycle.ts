@@ -5,18 +5,20 @@ import type { OrderStatus } from '../schemas/orders';
  * these transitions, checked here first; the screens read the same groups.
  */
 export const orderTransitions: Readonly<Record<OrderStatus, readonly OrderStatus[]>> = {
-  draft: ['signed', 'ready'],
-  signed: ['checked', 'returned', 'superseded'],
-  returned: ['superseded'],
-  checked: ['prepared', 'superseded'],
-  prepared: ['in-session', 'superseded'],
-  ready: ['in-session', 'superseded'],
+  // Any order not yet in a session may be cancelled, with a reason.
+  draft: ['signed', 'ready', 'cancelled'],
+  signed: ['checked', 'returned', 'superseded', 'cancelled'],
+  returned: ['superseded', 'cancelled'],
+  checked: ['prepared', 'superseded', 'cancelled'],
+  prepared: ['in-session', 'superseded', 'cancelled'],
+  ready: ['in-session', 'superseded', 'cancelled'],
   'in-session': ['completed', 'stopped'],
   completed: ['reviewed'],
   stopped: ['reviewed'],
   // A deviation reopened, or one found by a late tap, takes a reviewed session back.
   reviewed: ['completed', 'stopped'],
   superseded: [],
+  cancelled: [],
 };
 
 export function canMoveOrder(from: OrderStatus, to: OrderStatus): boolean {
@@ -38,6 +40,9 @@ export const doseCheckStatuses: readonly OrderStatus[] = statusesMovingTo('check
 export const preparationStatuses: readonly OrderStatus[] = statusesMovingTo('prepared');
 /** Statuses in which the nurse may start the session. */
 export const readyForSessionStatuses: readonly OrderStatus[] = statusesMovingTo('in-session');
+
+/** Statuses an order may be cancelled from: any before its session starts. */
+export const cancellableStatuses: readonly OrderStatus[] = statusesMovingTo('cancelled');
 
 /** Statuses in which a session is running. */
 export const sessionRunningStatuses: readonly OrderStatus[] = ['in-session'];
@@ -73,6 +78,16 @@ export const treatmentStatuses = [
   'stopped',
   'reviewed',
 ] as const satisfies readonly OrderStatus[];
+
+/**
+ * Statuses of an open order: one that may still lead to a treatment or is in one. A second open
+ * order for the same patient, eye and kind needs a reason. Finished, replaced and cancelled
+ * orders are not open.
+ */
+export const openOrderStatuses: readonly OrderStatus[] = [
+  ...cancellableStatuses,
+  ...sessionRunningStatuses,
+];
 
 export const awaitsDoseCheck = (status: OrderStatus) => doseCheckStatuses.includes(status);
 export const awaitsPreparation = (status: OrderStatus) => preparationStatuses.includes(status);

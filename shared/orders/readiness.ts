@@ -1,7 +1,7 @@
 import type { FieldProblem } from '../engine/plan-input-error';
 import type { ProtocolVersion as ProtocolDefinition } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
-import type { ChecklistAnswer } from '../schemas/orders';
+import type { ChecklistAnswer, OpenOrderFact } from '../schemas/orders';
 import { weightChangeMessage, type WeightChange } from './weight-change';
 import { formatNumber } from '../engine/rounding';
 import { reasonOfSubstanceProblem } from './reason-of-substance';
@@ -19,6 +19,35 @@ export interface ReadinessInput {
   weightChangeReason: string | null;
   /** The clinician's explicit acknowledgement that a too-thin stroma must first be swollen (CXL). */
   swellingAcknowledged: boolean;
+  /** The patient's other open orders for the same eye and kind of treatment. */
+  openOrders: readonly OpenOrderFact[];
+  duplicateOrderReason: string | null;
+}
+
+/**
+ * A second open order for the same patient, eye and kind of treatment is more often a slip (the
+ * same order entered twice, or the other eye meant) than a plan: it needs a reason of substance.
+ * Null when there is no other open order or the reason given is one.
+ */
+export function duplicateOrderProblem(
+  openOrders: readonly OpenOrderFact[],
+  reason: string | null | undefined,
+): FieldProblem | null {
+  if (openOrders.length === 0) return null;
+  const weak = reasonOfSubstanceProblem(reason, undefined, 'why a second order is right');
+  if (!weak) return null;
+  return {
+    path: 'duplicateOrderReason',
+    message: `${otherOpenOrdersSentence(openOrders)}. Cancel or amend that one, or ${weak}`,
+  };
+}
+
+/** "the patient has another open order of the same kind for this eye: order 41 (…, signed)". */
+export function otherOpenOrdersSentence(openOrders: readonly OpenOrderFact[]): string {
+  const others = openOrders.map((o) => `order ${o.id} (${o.protocolTitle}, ${o.status})`);
+  return others.length === 1
+    ? `the patient has another open order of the same kind for this eye: ${others[0]}`
+    : `the patient has ${others.length} other open orders of the same kind for this eye: ${others.join(', ')}`;
 }
 
 type Question = ProtocolDefinition['contraindications'][number];
@@ -64,7 +93,8 @@ export function answeredCautions(
  * contraindication (nothing unlocks it); a "yes" to a caution without a reason of substance; a
  * stroma below the minimum on a protocol without a swelling step, or with one but not
  * acknowledged; a soft-limit warning without a reason; a retreatment inside the protocol's
- * minimum interval without a reason. Pure, so the client can show the same list before the
+ * minimum interval without a reason; a second open order of the same kind for the eye without a
+ * reason of substance. Pure, so the client can show the same list before the
  * clinician tries to sign.
  */
 export function signatureProblems(input: ReadinessInput): FieldProblem[] {
@@ -144,5 +174,7 @@ export function signatureProblems(input: ReadinessInput): FieldProblem[] {
   if (input.weightChange !== null && !input.weightChangeReason) {
     problems.push({ path: 'weightChangeReason', message: weightChangeMessage(input.weightChange) });
   }
+  const duplicate = duplicateOrderProblem(input.openOrders, input.duplicateOrderReason);
+  if (duplicate) problems.push(duplicate);
   return problems;
 }

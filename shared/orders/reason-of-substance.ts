@@ -66,25 +66,27 @@ function wordsOf(text: string): string[] {
 export function reasonOfSubstanceProblem(
   reason: string | null | undefined,
   question?: string,
+  /** What the reason must say; a caution's reason says why treatment is still right. */
+  sayWhat = 'why treatment is still right',
 ): string | null {
   const text = (reason ?? '').trim();
   if (text === '')
-    return `give a reason (at least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} words) saying why treatment is still right`;
+    return `give a reason (at least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} words) saying ${sayWhat}`;
   const words = wordsOf(text);
   const distinct = new Set(words);
   if (
     text.length < minimumSubstantialReasonChars ||
     distinct.size < minimumSubstantialReasonWords
   ) {
-    return `the reason must be at least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} different words, saying why treatment is still right (got "${text}")`;
+    return `the reason must be at least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} different words, saying ${sayWhat} (got "${text}")`;
   }
   if ([...distinct].every((word) => fillerWords.has(word))) {
-    return `"${text}" is a placeholder, not a reason: say why treatment is still right`;
+    return `"${text}" is a placeholder, not a reason: say ${sayWhat}`;
   }
   if (question !== undefined) {
     const asked = new Set(wordsOf(question));
     if ([...distinct].every((word) => asked.has(word))) {
-      return 'the reason only repeats the question: say why treatment is still right (what was weighed, who agreed, what is done about it)';
+      return `the reason only repeats the question: say ${sayWhat} (what was weighed, who agreed, what is done about it)`;
     }
   }
   return null;

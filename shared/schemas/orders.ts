@@ -6,6 +6,7 @@ import { eyes, patientSchema } from './patients';
  * An order's life. PDT: draft → signed → checked → prepared → in-session → completed | stopped
  * → reviewed. A protocol with no drug (CXL) goes from draft straight to ready. A twice-refused
  * dose check sends the order back (returned); an amendment supersedes the revision it replaces.
+ * An order not yet in a session may be cancelled, with a reason.
  */
 export const orderStatuses = [
   'draft',
@@ -19,6 +20,7 @@ export const orderStatuses = [
   'stopped',
   'reviewed',
   'superseded',
+  'cancelled',
 ] as const;
 export type OrderStatus = (typeof orderStatuses)[number];
 
@@ -57,6 +59,16 @@ export const orderDraftSchema = z.strictObject({
   weightChangeReason: reason('weightChangeReason').nullable().optional(),
   /** Needed when the protocol version chosen has been superseded by a newer approved version. */
   supersededVersionReason: reason('supersededVersionReason').nullable().optional(),
+  /**
+   * Needed when the patient has another open order for the same eye and kind of treatment: why a
+   * second one is right (a reason of substance, shared/orders/reason-of-substance.ts).
+   */
+  duplicateOrderReason: z
+    .string()
+    .trim()
+    .max(500, 'duplicateOrderReason must be at most 500 characters')
+    .nullable()
+    .optional(),
   note: z.string().trim().max(2000, 'note must be at most 2000 characters').nullable().optional(),
   /** CXL with a swelling step: the clinician acknowledges that a stroma below the minimum is swollen before UV. */
   swellingAcknowledged: z
@@ -88,6 +100,35 @@ export const signOrderSchema = z.strictObject({
   meaning: z.literal('ordered', { error: 'meaning must be "ordered"' }),
   version: orderVersionSchema,
 });
+
+/** POST /orders/:id/cancellation: why, and the version of the order read. */
+export const cancelOrderSchema = z.strictObject({
+  reason: z
+    .string({ error: 'reason is required' })
+    .trim()
+    .max(500, 'reason must be at most 500 characters'),
+  version: orderVersionSchema,
+});
+
+/**
+ * GET /orders/signing-facts: what the server knows about the patient's other orders that a
+ * signature of a new order would be held to, so the form can show it before saving.
+ */
+export const signingFactsQuerySchema = z.strictObject({
+  patientId: z.coerce
+    .number({ error: 'patientId must be a whole number' })
+    .int('patientId must be a whole number')
+    .positive('patientId must be 1 or more'),
+  eye: z.enum(eyes, { error: 'eye must be right or left' }),
+  protocol: z.string().regex(/^[a-z0-9-]{1,64}$/, 'protocol must be a protocol key'),
+  version: z.coerce
+    .number({ error: 'version must be a whole number' })
+    .int('version must be a whole number')
+    .positive('version must be 1 or more'),
+  /** The order being edited or amended: it and the revision it replaces are not "other" orders. */
+  orderId: z.coerce.number().int().positive('orderId must be 1 or more').optional(),
+});
+export type SigningFactsQuery = z.infer<typeof signingFactsQuerySchema>;
 
 export const amendOrderSchema = orderDraftSchema.safeExtend({
   amendmentReason: reason('amendmentReason'),
@@ -200,8 +241,14 @@ export const orderDetailSchema = orderSummarySchema.extend({
   retreatmentReason: z.string().nullable(),
   weightChangeReason: z.string().nullable(),
   supersededVersionReason: z.string().nullable().default(null),
+  duplicateOrderReason: z.string().nullable().default(null),
   note: z.string().nullable(),
   swellingAcknowledged: z.boolean().default(false),
+  /** Who cancelled the order, when and why; null while it is not cancelled. */
+  cancellation: z
+    .object({ at: z.string(), by: person, reason: z.string() })
+    .nullable()
+    .default(null),
   /** Cautions answered yes, with the clinician's reason: the standing banner on every later screen. */
   answeredCautions: z
     .array(z.object({ id: z.string(), question: z.string(), reason: z.string() }))
@@ -247,5 +294,30 @@ export const orderDetailSchema = orderSummarySchema.extend({
   warnings: z.array(
     z.object({ code: z.string(), message: z.string(), field: z.string().optional() }),
   ),
+  /**
+   * A draft's: what its signature would refuse now (shared/orders/readiness.ts, with the
+   * server's facts about the patient's other orders and weights); null for a signed order.
+   */
+  beforeSigning: z
+    .array(z.object({ path: z.string(), message: z.string() }))
+    .nullable()
+    .default(null),
 });
 export type OrderDetail = z.infer<typeof orderDetailSchema>;
+
+/** Another open order of the same patient, eye and kind: what a second order must give a reason for. */
+export const openOrderFactSchema = z.object({
+  id: z.number(),
+  revision: z.number(),
+  status: z.enum(orderStatuses),
+  protocolTitle: z.string(),
+  createdAt: z.string(),
+});
+export type OpenOrderFact = z.infer<typeof openOrderFactSchema>;
+
+export const signingFactsSchema = z.object({
+  /** Days since this eye's last treatment of the same kind, when inside the protocol's interval. */
+  recentTreatmentDays: z.number().nullable(),
+  openOrders: z.array(openOrderFactSchema),
+});
+export type SigningFacts = z.infer<typeof signingFactsSchema>;

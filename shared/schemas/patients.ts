@@ -34,12 +34,33 @@ export const createPatientSchema = z
       .nullable()
       .optional(),
     emailConsent: z.boolean({ error: 'emailConsent must be true or false' }).default(false),
+    /**
+     * A patient with the same name and date of birth exists: adding this one anyway needs the
+     * explicit confirmation that it is another person, and why (a reason of substance).
+     */
+    duplicateConfirmed: z
+      .boolean({ error: 'duplicateConfirmed must be true or false' })
+      .default(false),
+    duplicateReason: z
+      .string()
+      .trim()
+      .max(500, 'duplicateReason must be at most 500 characters')
+      .nullable()
+      .optional(),
   })
   .refine((p) => !p.emailConsent || !!p.email, {
     message: 'email is required when the patient agrees to e-mail',
     path: ['email'],
   });
 export type CreatePatient = z.infer<typeof createPatientSchema>;
+
+/** GET /patients/possible-duplicates: who already has this name and date of birth. */
+export const possibleDuplicatesQuerySchema = z.strictObject({
+  givenName: createPatientSchema.shape.givenName,
+  familyName: createPatientSchema.shape.familyName,
+  dateOfBirth: z.iso.date({ error: 'dateOfBirth must be a date (YYYY-MM-DD)' }),
+});
+export type PossibleDuplicatesQuery = z.infer<typeof possibleDuplicatesQuerySchema>;
 
 export const patientSchema = z.object({
   id: z.number().int(),

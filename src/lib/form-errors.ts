@@ -1,20 +1,18 @@
 import type { FieldValues, Path, UseFormSetError } from 'react-hook-form';
+import { speakFieldMessage } from '../../shared/format/field-labels';
 import type { ApiRequestError } from './api-client';
 
 /**
  * Shared schemas word their messages with the field's key ("displayName must be …") because
- * the API returns them too. Screens swap the key for the label the person sees.
+ * the API returns them too. Screens swap the key for the label the person sees: the shared field
+ * table (shared/format/field-labels.ts) first, then the screen's own `labels`.
  */
 export function readableMessage(
   message: string | undefined,
-  labels: Record<string, string>,
+  labels: Record<string, string> = {},
 ): string | undefined {
   if (!message) return message;
-  for (const [key, label] of Object.entries(labels)) {
-    if (message === key || message.startsWith(`${key} `))
-      return `${label}${message.slice(key.length)}`;
-  }
-  return message.charAt(0).toUpperCase() + message.slice(1);
+  return speakFieldMessage(message, labels);
 }
 
 /**

@@ -46,7 +46,11 @@ describe('the order status table', () => {
     expect(orderStatusMeaning('in-session')).toBe('The session is running on the step clock.');
   });
 
-  it('draws only an unsigned draft and a replaced revision with a dashed outline', () => {
-    expect(orderStatuses.filter(hasDashedOutline).sort()).toEqual(['draft', 'superseded']);
+  it('draws only an unsigned draft, a replaced revision and a cancelled order with a dashed outline', () => {
+    expect(orderStatuses.filter(hasDashedOutline).sort()).toEqual([
+      'cancelled',
+      'draft',
+      'superseded',
+    ]);
   });
 });

@@ -61,7 +61,16 @@ describe('ordering PDT through the browser', () => {
     const preview = page.getByRole('region', { name: 'Live preview of the plan' });
     await expect.poll(() => preview.innerText()).toContain('12.96');
     expect(await preview.innerText()).toContain('2.16');
-    expect(await preview.innerText()).toMatch(/Nothing missing/);
+    // An earlier test of this run may have left an open order for this eye: the form asks why a
+    // second one, and the list says so until it is given.
+    await expect
+      .poll(() => preview.innerText())
+      .toMatch(/Nothing missing|another open order of the same kind/);
+    if (/another open order/.test(await preview.innerText()))
+      await page
+        .getByLabel('Reason for a second open order (required)')
+        .fill('The earlier draft was for the wrong lesion and is cancelled today.');
+    await expect.poll(() => preview.innerText()).toMatch(/Nothing missing/);
     expect(await accessibilityViolations(page)).toEqual([]);
 
     await page.getByRole('button', { name: 'Save draft' }).click();

@@ -397,6 +397,8 @@ describe('the demo scenario under the gates', () => {
           swellingAcknowledged: row.swelling_acknowledged === 1,
           weightChange: null,
           weightChangeReason: null,
+          openOrders: [],
+          duplicateOrderReason: null,
         });
         expect({ note: row.note, problems }).toEqual({ note: row.note, problems: [] });
       }

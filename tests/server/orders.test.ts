@@ -406,7 +406,12 @@ describe('what stops an order', () => {
   it('treating the same eye again inside the minimum interval warns and needs a reason', async () => {
     const patient = await createTestPatient(ctx);
     await signedPdtOrder(pdtOrder(patient.id));
-    const again = await clinicianAgent.post('/api/orders').send(pdtOrder(patient.id));
+    // The first is still open (signed), so the second also says why it is a second order.
+    const again = await clinicianAgent.post('/api/orders').send(
+      pdtOrder(patient.id, {
+        duplicateOrderReason: 'Lesion grew since the first order was signed; replanning now.',
+      }),
+    );
     expect(again.body.order.warnings.map((w: { code: string }) => w.code)).toContain(
       'retreatment-interval',
     );
@@ -548,7 +553,9 @@ describe('attachments', () => {
 describe('the orders list', () => {
   it('pages, filters by status and protocol, and sorts on the server', async () => {
     const patient = await createTestPatient(ctx);
-    for (let i = 0; i < 3; i++) await clinicianAgent.post('/api/orders').send(cxlOrder(patient.id));
+    const duplicateOrderReason = 'Three drafts on purpose: this test pages through them.';
+    for (let i = 0; i < 3; i++)
+      await clinicianAgent.post('/api/orders').send(cxlOrder(patient.id, { duplicateOrderReason }));
     const filtered = await nurseAgent.get('/api/orders').query({
       patientId: patient.id,
       protocol: 'cxl-standard',

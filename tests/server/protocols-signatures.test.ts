@@ -129,7 +129,7 @@ describe('approving a protocol version is an electronic signature', () => {
     expect(noMeaning.status).toBe(400);
     expect(noMeaning.body.error.fields[0]).toEqual({
       path: 'meaning',
-      message: 'meaning must be "approved-for-use"',
+      message: 'The meaning of the signature must be "approved-for-use"',
     });
     const otherMeaning = await agent
       .post(url)

@@ -137,6 +137,8 @@ describe('body-mass index', () => {
       weightChange: null,
       weightChangeReason: null,
       swellingAcknowledged: false,
+      openOrders: [],
+      duplicateOrderReason: null,
     };
     expect(signatureProblems({ ...base, softLimitReasons: {} }).map((p) => p.path)).toEqual([
       'softLimitReasons.bmiKgPerM2',

@@ -4,15 +4,18 @@ import {
   awaitsDoseCheck,
   awaitsPreparation,
   canMoveOrder,
+  cancellableStatuses,
   doseCheckStatuses,
   hasSessionStarted,
   isSessionEnded,
   isSessionRunning,
   isTreatment,
+  openOrderStatuses,
   orderTransitions,
   preparationStatuses,
   readyForSessionStatuses,
   sessionEventStatuses,
+  sessionStartedStatuses,
   statusAfterLateEvent,
   statusAfterReview,
   stepClockStatuses,
@@ -105,12 +108,26 @@ describe('the order lifecycle', () => {
     expect(orderStatuses.filter((s) => isSessionRunning(s) && isSessionEnded(s))).toEqual([]);
   });
 
-  it('a draft, an order sent back and a replaced revision are not treatments of the eye; every other status is', () => {
+  it('a draft, an order sent back, a replaced revision and a cancelled order are not treatments of the eye; every other status is', () => {
     expect(orderStatuses.filter((s) => !isTreatment(s)).sort()).toEqual([
+      'cancelled',
       'draft',
       'returned',
       'superseded',
     ]);
     expect([...treatmentStatuses].sort()).toEqual(orderStatuses.filter(isTreatment).sort());
+  });
+
+  it('an order may be cancelled until its session starts, never after, and a cancelled order goes nowhere', () => {
+    expect([...cancellableStatuses].sort()).toEqual(
+      ['checked', 'draft', 'prepared', 'ready', 'returned', 'signed'].sort(),
+    );
+    for (const started of sessionStartedStatuses)
+      expect(canMoveOrder(started, 'cancelled')).toBe(false);
+    expect(orderTransitions.cancelled).toEqual([]);
+    // Open orders (for the duplicate-order rule): everything not finished, replaced or cancelled.
+    expect([...openOrderStatuses].sort()).toEqual(
+      ['checked', 'draft', 'in-session', 'prepared', 'ready', 'returned', 'signed'].sort(),
+    );
   });
 });

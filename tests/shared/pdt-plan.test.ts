@@ -119,7 +119,8 @@ describe('verteporfin PDT, standard regimen', () => {
     expect(error.fields).toEqual([
       {
         path: 'inputs.lesionGldUm',
-        message: 'lesion GLD must be between 100 and 5400 µm (got 5600 µm)',
+        message:
+          'lesion GLD must be between 100 and 5400 µm (got 5600 µm): its spot (GLD + 1000 µm margin = 6600 µm) would pass the largest spot of 6400 µm',
       },
     ]);
   });
@@ -135,8 +136,22 @@ describe('verteporfin PDT, standard regimen', () => {
 
     expect(error.fields[0]?.path).toBe('inputs.lesionGldUm');
     expect(error.fields[0]?.message).toMatch(
-      /at most 5400 µm .* may not exceed 6400 µm \(got 5600 µm\)/,
+      /at most 5400 µm .*\(got 5600 µm\): its spot \(GLD \+ 1000 µm margin = 6600 µm\) would pass the largest spot of 6400 µm/,
     );
+  });
+
+  it('says why a lesion above the range is refused: its spot would pass the largest spot, with both figures', () => {
+    // pdt-standard v1: spot = GLD + 1000 µm, largest spot 6400 µm (protocol file; margin common practice).
+    const error = inputErrorOf(() =>
+      computePlan(standard, pdtInputs({ lesionGldUm: 6000, lensMagnification: 99 })),
+    );
+    const gld = error.fields.filter((f) => f.path === 'inputs.lesionGldUm');
+    expect(gld).toHaveLength(1);
+    expect(gld[0]?.message).toMatch(
+      /between 100 and 5400 µm \(got 6000 µm\): its spot \(GLD \+ 1000 µm margin = 7000 µm\) would pass the largest spot of 6400 µm/,
+    );
+    // The other bad input of the same form is reported with it, not after it.
+    expect(error.fields.map((f) => f.path)).toContain('inputs.lensMagnification');
   });
 
   it('sets the laser to the retinal spot divided by the lens magnification', () => {

@@ -34,6 +34,8 @@ function input(overrides: Partial<ReadinessInput>): ReadinessInput {
     swellingAcknowledged: false,
     weightChange: null,
     weightChangeReason: null,
+    openOrders: [],
+    duplicateOrderReason: null,
     ...overrides,
   };
 }
@@ -176,5 +178,38 @@ describe('gate 2: do-not-treat CXL plans', () => {
       }),
     );
     expect(yes.map((p) => p.path)).toEqual(['checklist.thin-stroma.answer']);
+  });
+
+  it('a second open order for the same eye and kind needs a reason of substance, not a placeholder', () => {
+    const other = {
+      id: 41,
+      revision: 1,
+      status: 'signed' as const,
+      protocolTitle: 'Standard PDT',
+      createdAt: '2026-12-01T09:00:00.000Z',
+    };
+    const without = signatureProblems(input({ openOrders: [other] }));
+    expect(without).toEqual([
+      expect.objectContaining({
+        path: 'duplicateOrderReason',
+        message: expect.stringMatching(/order 41 \(Standard PDT, signed\)/),
+      }),
+    ]);
+    expect(
+      signatureProblems(input({ openOrders: [other], duplicateOrderReason: 'ok ok' })).map(
+        (p) => p.path,
+      ),
+    ).toEqual(['duplicateOrderReason']);
+    expect(
+      signatureProblems(
+        input({
+          openOrders: [other],
+          duplicateOrderReason:
+            'Order 41 was for the fellow eye by mistake; it is being cancelled.',
+        }),
+      ),
+    ).toEqual([]);
+    // No other open order: nothing is asked.
+    expect(signatureProblems(input({ openOrders: [] }))).toEqual([]);
   });
 });

@@ -94,6 +94,10 @@ export class TreatmentOrder {
   @Column({ name: 'superseded_version_reason', type: 'varchar', length: 500, nullable: true })
   supersededVersionReason!: string | null;
 
+  /** Needed when the patient had another open order for the same eye and kind at saving or signing. */
+  @Column({ name: 'duplicate_order_reason', type: 'varchar', length: 500, nullable: true })
+  duplicateOrderReason!: string | null;
+
   @Column({ type: 'text', nullable: true })
   note!: string | null;
 
@@ -126,6 +130,20 @@ export class TreatmentOrder {
 
   @Column({ name: 'beyond_use_at', type: 'datetime', precision: 3, nullable: true })
   beyondUseAt!: Date | null;
+
+  /** Set once, with the status move to cancelled. */
+  @Column({ name: 'cancelled_at', type: 'datetime', precision: 3, nullable: true })
+  cancelledAt!: Date | null;
+
+  @Column({ name: 'cancelled_by', type: 'int', unsigned: true, nullable: true })
+  cancelledById!: number | null;
+
+  @ManyToOne(() => User, { onDelete: 'RESTRICT', nullable: true })
+  @JoinColumn({ name: 'cancelled_by' })
+  cancelledBy!: Relation<User> | null;
+
+  @Column({ name: 'cancel_reason', type: 'varchar', length: 500, nullable: true })
+  cancelReason!: string | null;
 
   @CreateDateColumn({
     name: 'created_at',

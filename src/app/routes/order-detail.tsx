@@ -27,6 +27,8 @@ export function OrderDetailRoute() {
           orderId={orderId}
           canWrite={hasCapability(user, 'orders.write')}
           canRunSessions={hasCapability(user, 'sessions.run')}
+          canCancel={hasCapability(user, 'orders.cancel')}
+          viewer={{ id: user.id, admin: user.roles.includes('admin') }}
         />
       )}
     </>

@@ -2,6 +2,7 @@ import type { OrderStatus } from '../../../shared/schemas/orders';
 import {
   ArchiveBoxIcon,
   CheckCircleIcon,
+  CrossCircleIcon,
   DraftCircleIcon,
   SignatureIcon,
   StatusCheckedIcon,
@@ -120,6 +121,14 @@ export const orderStatusTable: Readonly<Record<OrderStatus, OrderStatusEntry>> =
     long: 'Replaced by an amendment',
     meaning: 'A later revision replaced this one; it is kept for the record.',
     Icon: SwapIcon,
+    tone: 'replaced',
+  },
+  cancelled: {
+    short: 'Cancelled',
+    long: 'Cancelled before the session',
+    meaning:
+      'Cancelled before its session, with a reason; it is kept for the record and on no worklist.',
+    Icon: CrossCircleIcon,
     tone: 'replaced',
   },
 };

@@ -1,11 +1,14 @@
+import { fieldLabel } from '../../../../shared/format/field-labels';
+
 /** The three figures the pharmacist works out, in the order they are worked out. */
 export const checkedFigures = ['bsaM2', 'doseMg', 'drugVolumeMl'] as const;
 export type CheckedFigure = (typeof checkedFigures)[number];
 
+/** Their names, from the one field table the server's messages use too. */
 export const figureLabels: Record<CheckedFigure, string> = {
-  bsaM2: 'BSA',
-  doseMg: 'Dose',
-  drugVolumeMl: 'Drug volume',
+  bsaM2: fieldLabel('bsaM2'),
+  doseMg: fieldLabel('doseMg'),
+  drugVolumeMl: fieldLabel('drugVolumeMl'),
 };
 
 /** The same names inside a sentence. */

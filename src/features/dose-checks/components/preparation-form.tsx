@@ -72,12 +72,8 @@ const preparationFormSchema = z.object({
 type PreparationFormInput = z.input<typeof preparationFormSchema>;
 
 const fieldNames = ['vialLot', 'vialExpiry', 'reconstitutedAt', 'volumeDrawnMl'] as const;
-const labels = {
-  vialLot: 'Vial lot',
-  vialExpiry: 'Vial expiry',
-  reconstitutedAt: 'Reconstitution time',
-  volumeDrawnMl: 'Volume drawn',
-};
+// Field names come from the shared table (shared/format/field-labels.ts).
+const labels = {};
 
 type PreparationFormProps = {
   order: OrderDetail;

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { isSessionRunning } from '../../../../shared/orders/lifecycle';
-import type { OrderListQuery } from '../../../../shared/schemas/orders';
+import type { OrderListQuery, SigningFactsQuery } from '../../../../shared/schemas/orders';
 import { findPatients, getPatient } from './find-patients';
 import { getOrder } from './get-order';
 import { getOrderSession } from './get-order-session';
@@ -8,6 +8,7 @@ import { getOrders } from './get-orders';
 import { getPatientMeasurements } from './get-patient-measurements';
 import { getProtocolChoices } from './get-protocol-choices';
 import { getProtocolDefinition } from './get-protocol-definition';
+import { getSigningFacts } from './get-signing-facts';
 
 /** The orders feature's query keys and options, general → specific. */
 export const orderQueries = {
@@ -58,6 +59,18 @@ export const orderQueries = {
     queryOptions({
       queryKey: [...orderQueries.all(), 'patient', id] as const,
       queryFn: ({ signal }) => getPatient(id, { signal }),
+    }),
+  /** The patient's other open orders and recent treatments a signature would be held to. */
+  signingFacts: (query: SigningFactsQuery) =>
+    queryOptions({
+      queryKey: [
+        ...orderQueries.all(),
+        'patient',
+        query.patientId,
+        'signing-facts',
+        query,
+      ] as const,
+      queryFn: ({ signal }) => getSigningFacts(query, { signal }),
     }),
   patientMeasurements: (patientId: number) =>
     queryOptions({

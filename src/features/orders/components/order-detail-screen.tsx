@@ -1,7 +1,6 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { Link, useLocation } from 'react-router-dom';
-import { signatureProblems } from '../../../../shared/orders/readiness';
 import type { OrderDetail } from '../../../../shared/schemas/orders';
 import { Alert } from '../../../components/ui/alert';
 import { Button, LinkButton } from '../../../components/ui/button';
@@ -10,6 +9,7 @@ import {
   ArrowLeftIcon,
   CheckCircleIcon,
   ClockIcon,
+  CrossCircleIcon,
   DischargeSheetIcon,
   LockIcon,
   PencilIcon,
@@ -37,6 +37,7 @@ import { orderStatusMeaning } from '../../../components/ui/order-status-words';
 import {
   amendableStatuses,
   awaitsDoseCheck,
+  cancellableStatuses,
   hasSessionStarted,
   isSessionEnded,
   isSessionRunning,
@@ -47,6 +48,8 @@ import { PlanFigures, PlanWarnings, PlanWorking } from './plan-view';
 import { printCss, PrintFrame } from '../../../components/ui/print-frame';
 import { SessionPanel } from './session-panel';
 import { SignOrderDialog } from './sign-order-dialog';
+import { CancelOrderDialog } from './cancel-order-dialog';
+import { formatUnitTime } from '../../../../shared/format/figures';
 import { TreatmentCautions } from './treatment-cautions';
 import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions-banner';
 
@@ -55,9 +58,18 @@ type OrderDetailScreenProps = {
   canWrite: boolean;
   /** Nurses (sessions.run) get the way to the step clock. */
   canRunSessions: boolean;
+  /** orders.cancel: the signer of an order (or a draft's author) and administrators. */
+  canCancel?: boolean;
+  viewer?: { id: number; admin: boolean };
 };
 
-export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDetailScreenProps) {
+export function OrderDetailScreen({
+  orderId,
+  canWrite,
+  canRunSessions,
+  canCancel = false,
+  viewer,
+}: OrderDetailScreenProps) {
   const queryClient = useQueryClient();
   const order = useQuery(orderQueries.detail(orderId));
   const hasSession = order.data !== undefined && hasSessionStarted(order.data.status);
@@ -84,6 +96,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
     () => (location.state as { outcome?: string } | null)?.outcome ?? '',
   );
   const [signing, setSigning] = useState(false);
+  const [cancelling, setCancelling] = useState(false);
   const protocol = order.data?.protocol;
   const definitionQuery = useQuery({
     ...orderQueries.protocolDefinition(protocol?.key ?? '', protocol?.version ?? 0),
@@ -138,29 +151,15 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
   const canAmend =
     canWrite && amendableStatuses.includes(detail.status) && detail.nextRevisionId === null;
 
-  const retreatment = detail.warnings.find((w) => w.code === 'retreatment-interval');
-  // The server compares the weight with the patient's record and says so in the draft's warnings.
-  const weightChange = detail.warnings.find((w) => w.code === 'weight-change');
-  const knownProblems =
-    isDraft && definition && detail.plan
-      ? [
-          ...signatureProblems({
-            definition,
-            plan: detail.plan,
-            checklist: detail.checklist,
-            softLimitReasons: detail.softLimitReasons,
-            retreatmentReason: detail.retreatmentReason,
-            recentTreatmentDays: null,
-            weightChange: null,
-            weightChangeReason: detail.weightChangeReason,
-            swellingAcknowledged: detail.swellingAcknowledged,
-          }).map((p) => p.message),
-          ...(retreatment && !detail.retreatmentReason
-            ? [`${retreatment.message} Give a retreatment reason.`]
-            : []),
-          ...(weightChange && !detail.weightChangeReason ? [weightChange.message] : []),
-        ]
-      : [];
+  // The server decides; the button is offered to the signer (or a draft's author) and admins.
+  const responsible = detail.signedBy?.id ?? detail.createdBy?.id;
+  const mayCancel =
+    canCancel &&
+    cancellableStatuses.includes(detail.status) &&
+    viewer !== undefined &&
+    (viewer.admin || responsible === viewer.id);
+  // The server works out what the signature would refuse with the same function it signs by.
+  const knownProblems = isDraft ? (detail.beforeSigning ?? []).map((p) => p.message) : [];
 
   /** Parts that stay off paper when only the dose record is printed. */
   const notInDoseRecord = printPart === 'dose-record' ? 'print:hidden' : '';
@@ -261,6 +260,18 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
                   Watch session
                 </LinkButton>
               )}
+              {mayCancel && (
+                <Button
+                  variant="secondary"
+                  icon={<CrossCircleIcon />}
+                  onClick={() => {
+                    setOutcome('');
+                    setCancelling(true);
+                  }}
+                >
+                  Cancel order
+                </Button>
+              )}
               {showsDischarge && (
                 <LinkButton
                   variant="primary"
@@ -305,6 +316,24 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
                 Amend the order to correct it; the amended revision is checked again from the start.
               </p>
             )}
+          </div>
+        )}
+        {detail.cancellation && (
+          <div
+            role="note"
+            className={`mb-6 rounded-2xl border-2 border-paper-400 bg-paper-100 px-5 py-4 ${notInDoseRecord}`}
+          >
+            <p className="flex items-center gap-2 text-lg font-semibold text-paper-950">
+              <CrossCircleIcon className="size-6" />
+              Cancelled{detail.cancellation.by
+                ? ` by ${detail.cancellation.by.displayName}`
+                : ''}{' '}
+              on {formatUnitTime(detail.cancellation.at, unitTimeZone, 'sheet')}
+            </p>
+            <p className="mt-1 text-paper-950">
+              <span className="font-medium">Reason: </span>
+              {detail.cancellation.reason}
+            </p>
           </div>
         )}
         {detail.nextRevisionId !== null && (
@@ -376,11 +405,7 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
                 <h2 id="readiness-heading" className="mb-1 text-lg font-semibold text-paper-950">
                   Before it can be signed
                 </h2>
-                {!definition ? (
-                  <p className="text-paper-700">
-                    {definitionQuery.isError ? describeError(definitionQuery.error) : 'Checking…'}
-                  </p>
-                ) : knownProblems.length === 0 ? (
+                {knownProblems.length === 0 ? (
                   <p className="flex items-center gap-2 text-paper-900">
                     <CheckCircleIcon className="size-5" /> Nothing missing. Check the plan below,
                     then sign.
@@ -402,7 +427,9 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
               <h2 id="plan-heading" className="text-xl font-semibold text-paper-950">
                 {isDraft
                   ? 'Dose plan (recomputed and frozen at signing)'
-                  : 'Dose plan as frozen at signing'}
+                  : detail.signedAt === null
+                    ? 'Dose plan of the draft (never signed)'
+                    : 'Dose plan as frozen at signing'}
               </h2>
               {detail.planWithheld || !detail.plan ? (
                 <div className="flex gap-3 rounded-lg border border-paper-300 bg-paper-100 px-4 py-3">
@@ -455,6 +482,17 @@ export function OrderDetailScreen({ orderId, canWrite, canRunSessions }: OrderDe
         </div>
       </PrintFrame>
 
+      {mayCancel && cancelling && (
+        <CancelOrderDialog
+          order={detail}
+          open={cancelling}
+          onDismiss={() => setCancelling(false)}
+          onCancelled={(cancelled) => {
+            setCancelling(false);
+            setOutcome(`Order ${cancelled.id} is cancelled. It is on no worklist any more.`);
+          }}
+        />
+      )}
       {canWrite && isDraft && (
         <SignOrderDialog
           order={detail}

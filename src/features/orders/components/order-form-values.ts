@@ -1,12 +1,14 @@
 import type { FieldError, FieldErrors, Resolver } from 'react-hook-form';
 import type { z } from 'zod';
 import { bsaFormulaNames, type BsaFormulaName } from '../../../../shared/engine/bsa';
+import { duplicateOrderProblem } from '../../../../shared/orders/readiness';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import type { PlanInputs } from '../../../../shared/schemas/calculation';
 import {
   amendOrderSchema,
   orderDraftSchema,
   type AmendOrder,
+  type OpenOrderFact,
   type OrderDetail,
   type OrderDraft,
 } from '../../../../shared/schemas/orders';
@@ -36,6 +38,8 @@ export type OrderFormValues = {
   softLimitReasons: Record<string, string>;
   retreatmentReason: string;
   weightChangeReason: string;
+  /** Why a second open order for the same eye and kind is right. */
+  duplicateOrderReason: string;
   note: string;
   amendmentReason: string;
   /** Why this order uses a version that a newer approved version supersedes. */
@@ -53,6 +57,8 @@ export type OrderFormContext = {
   warnedFields: readonly string[] | null;
   /** The newer approved version that supersedes the chosen one, if any. */
   supersededBy?: number | null;
+  /** The patient's other open orders for this eye and kind, as the server reported them. */
+  openOrders?: readonly OpenOrderFact[];
 };
 
 /** Soft-limit reasons are keyed by API paths with dots, which a form path would read as nesting. */
@@ -82,6 +88,7 @@ export function emptyOrderForm(patientId?: number): OrderFormValues {
     softLimitReasons: {},
     retreatmentReason: '',
     weightChangeReason: '',
+    duplicateOrderReason: '',
     note: '',
     amendmentReason: '',
     supersededVersionReason: '',
@@ -144,6 +151,7 @@ export function settleFormValues(raw: unknown): OrderFormValues {
     ),
     retreatmentReason: asText(v.retreatmentReason),
     weightChangeReason: asText(v.weightChangeReason),
+    duplicateOrderReason: asText(v.duplicateOrderReason),
     note: asText(v.note),
     amendmentReason: asText(v.amendmentReason),
     supersededVersionReason: asText(v.supersededVersionReason),
@@ -184,6 +192,7 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
     ),
     retreatmentReason: order.retreatmentReason ?? '',
     weightChangeReason: order.weightChangeReason ?? '',
+    duplicateOrderReason: order.duplicateOrderReason ?? '',
     note: order.note ?? '',
     amendmentReason: '',
     supersededVersionReason: order.supersededVersionReason ?? '',
@@ -278,6 +287,7 @@ export function formToDraft(
     retreatmentReason: blankToNull(values.retreatmentReason),
     weightChangeReason: blankToNull(values.weightChangeReason),
     supersededVersionReason: blankToNull(values.supersededVersionReason),
+    duplicateOrderReason: blankToNull(values.duplicateOrderReason),
     note: blankToNull(values.note),
     swellingAcknowledged: context.definition?.kind === 'cxl' && values.swellingAcknowledged,
   };
@@ -295,6 +305,7 @@ export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>
     case 'eye':
     case 'retreatmentReason':
     case 'weightChangeReason':
+    case 'duplicateOrderReason':
     case 'note':
     case 'amendmentReason':
     case 'supersededVersionReason':
@@ -328,26 +339,6 @@ export function formFieldFor(path: string, draft?: Pick<OrderDraft, 'checklist'>
       return null;
   }
 }
-
-/** Words for the key names the shared schema puts at the start of its messages. */
-export const messageLabels: Record<string, string> = {
-  patientId: 'Patient',
-  eye: 'Eye',
-  'protocol.key': 'Protocol',
-  'protocol.version': 'Protocol version',
-  'height.value': 'Height',
-  'weight.value': 'Weight',
-  lesionGldUm: 'Lesion GLD',
-  lensMagnification: 'Lens magnification',
-  stromalThicknessUm: 'Stromal thickness',
-  'checklist[].overrideReason': 'The reason',
-  'softLimitReasons[field]': 'The reason',
-  retreatmentReason: 'The retreatment reason',
-  weightChangeReason: 'The reason for the change in weight',
-  note: 'The note',
-  amendmentReason: 'The amendment reason',
-  supersededVersionReason: 'The reason for the superseded version',
-};
 
 function setNested(errors: Record<string, unknown>, name: string, error: FieldError) {
   const parts = name.split('.');
@@ -410,6 +401,10 @@ export function checkOrderForm(
       });
     }
   }
+
+  // The server refuses to save a second open order without a reason of substance; ask first.
+  const duplicate = duplicateOrderProblem(context.openOrders ?? [], draft.duplicateOrderReason);
+  if (duplicate) problems.push({ field: 'duplicateOrderReason', message: duplicate.message });
 
   const schema: z.ZodType = context.mode === 'amend' ? amendOrderSchema : orderDraftSchema;
   const parsed = schema.safeParse(draft);

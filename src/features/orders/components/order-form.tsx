@@ -19,12 +19,12 @@ import type { ProtocolChoices } from '../api/order-response-schemas';
 import { usePlanPreview } from '../hooks/use-plan-preview';
 import { useLastMeasurements } from '../hooks/use-last-measurements';
 import { useSaveOrder } from '../hooks/use-save-order';
+import { useSigningFacts } from '../hooks/use-signing-facts';
 import { ContraindicationChecklist } from './contraindication-checklist';
 import {
   checkOrderForm,
   formFieldFor,
   formToInputs,
-  messageLabels,
   orderFormResolver,
   parseProtocolRef,
   protocolRefOf,
@@ -45,6 +45,12 @@ import { TextAreaField } from '../../../components/ui/text-area-field';
 import { paths } from '../../../config/paths';
 import { Checkbox } from '../../../components/ui/checkbox';
 import { TreatmentCautions } from './treatment-cautions';
+import { formatCalendarDate } from './unit-dates';
+import { orderStatusWords } from '../../../components/ui/order-status-words';
+import {
+  minimumSubstantialReasonChars,
+  minimumSubstantialReasonWords,
+} from '../../../../shared/orders/reason-of-substance';
 
 type OrderFormProps = {
   mode: OrderFormMode;
@@ -56,7 +62,7 @@ type OrderFormProps = {
   onSaved: (order: OrderDetail) => void;
 };
 
-const read = (message: string | undefined) => readableMessage(message, messageLabels);
+const read = (message: string | undefined) => readableMessage(message);
 const sentence = (message: string) => message.charAt(0).toUpperCase() + message.slice(1);
 
 function rangeHint(
@@ -109,7 +115,12 @@ export function OrderForm({
   onSaved,
 }: OrderFormProps) {
   const save = useSaveOrder();
-  const contextRef = useRef<OrderFormContext>({ mode, definition: null, warnedFields: null });
+  const contextRef = useRef<OrderFormContext>({
+    mode,
+    definition: null,
+    warnedFields: null,
+    openOrders: [],
+  });
   const {
     register,
     control,
@@ -174,10 +185,13 @@ export function OrderForm({
     [source?.id, source?.previousRevisionId],
   );
 
-  const retreatmentWarning =
-    source?.status === 'draft'
-      ? source.warnings.find((w) => w.code === 'retreatment-interval')
-      : undefined;
+  const patientIdChosen = /^\d+$/.test(values.patientId) ? Number(values.patientId) : null;
+  const facts = useSigningFacts(patientIdChosen, values.eye, chosenRef, source?.id);
+  const retreatmentMessage =
+    facts && facts.recentTreatmentDays !== null && definition
+      ? `This eye had the same kind of treatment ${facts.recentTreatmentDays} days ago; the protocol's minimum interval is ${definition.retreatmentMinDays} days.`
+      : null;
+  const openOrders = facts?.openOrders ?? [];
   const softLimitWarnings = useMemo(() => {
     const from =
       preview.state === 'ready'
@@ -198,6 +212,7 @@ export function OrderForm({
     : undefined;
   contextRef.current.supersededBy = chosenChoice?.supersededBy ?? null;
   contextRef.current.definition = definition;
+  contextRef.current.openOrders = openOrders;
   contextRef.current.warnedFields =
     preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null;
 
@@ -222,8 +237,9 @@ export function OrderForm({
 
   const thinStroma = preview.state === 'ready' && preview.plan.thicknessOk === false;
 
+  // The same function the server signs by, fed with the server's facts about this patient.
   const readiness = useMemo(() => {
-    if (!definition || preview.state !== 'ready') return null;
+    if (!definition || preview.state !== 'ready' || !facts) return null;
     const draft = checkOrderForm(values, { ...contextRef.current, warnedFields: null }).draft;
     const problems = signatureProblems({
       definition,
@@ -231,15 +247,15 @@ export function OrderForm({
       checklist: draft.checklist,
       softLimitReasons: draft.softLimitReasons,
       retreatmentReason: draft.retreatmentReason ?? null,
-      recentTreatmentDays: null,
+      recentTreatmentDays: facts.recentTreatmentDays,
       weightChange: last.weightChange,
       weightChangeReason: draft.weightChangeReason ?? null,
       swellingAcknowledged: draft.swellingAcknowledged ?? false,
+      openOrders: facts.openOrders,
+      duplicateOrderReason: draft.duplicateOrderReason ?? null,
     }).map((p) => p.message);
-    if (retreatmentWarning && !draft.retreatmentReason)
-      problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
     return problems;
-  }, [definition, preview, values, retreatmentWarning, last.weightChange]);
+  }, [definition, preview, values, facts, last.weightChange]);
 
   const onSubmit = handleSubmit((formValues) => {
     const { draft } = checkOrderForm(formValues, contextRef.current);
@@ -565,8 +581,41 @@ export function OrderForm({
           </Section>
         )}
 
+        {(openOrders.length > 0 || values.duplicateOrderReason.trim() !== '') && (
+          <Section
+            id="duplicate"
+            title="Another open order for this eye"
+            lead="A second order for the same patient, eye and kind of treatment is usually a slip. Cancel or amend the other order, or say why both are right."
+          >
+            {openOrders.length > 0 && (
+              <ul className="space-y-1 rounded-lg border border-alarm-700 bg-alarm-50 p-3 text-paper-900">
+                {openOrders.map((o) => (
+                  <li key={o.id}>
+                    <Link
+                      to={paths.order.getHref(o.id)}
+                      className="font-medium text-iris-700 underline underline-offset-4"
+                      target="_blank"
+                    >
+                      Order {o.id}
+                    </Link>{' '}
+                    — {o.protocolTitle}, {orderStatusWords(o.status)}, started{' '}
+                    {formatCalendarDate(o.createdAt)}
+                  </li>
+                ))}
+              </ul>
+            )}
+            <TextAreaField
+              label="Reason for a second open order (required)"
+              hint={`At least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} words: why both orders are right`}
+              rows={2}
+              error={fieldError('duplicateOrderReason')}
+              {...register('duplicateOrderReason')}
+            />
+          </Section>
+        )}
+
         {(softLimitWarnings.length > 0 ||
-          retreatmentWarning ||
+          retreatmentMessage ||
           values.retreatmentReason.trim() !== '' ||
           last.weightChange ||
           values.weightChangeReason.trim() !== '') && (
@@ -594,10 +643,10 @@ export function OrderForm({
                 />
               </div>
             ))}
-            {(retreatmentWarning || values.retreatmentReason.trim() !== '') && (
+            {(retreatmentMessage || values.retreatmentReason.trim() !== '') && (
               <div className="space-y-2 rounded-lg border border-alarm-700 bg-alarm-50 p-3">
-                {retreatmentWarning && (
-                  <p className="text-sm text-paper-900">{retreatmentWarning.message}</p>
+                {retreatmentMessage && (
+                  <p className="text-sm text-paper-900">{retreatmentMessage}</p>
                 )}
                 <TextAreaField
                   label="Reason to treat again within the minimum interval"

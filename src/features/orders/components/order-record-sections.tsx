@@ -147,6 +147,7 @@ export function OrderReasons({ order }: { order: OrderDetail }) {
     !order.retreatmentReason &&
     !order.weightChangeReason &&
     !order.supersededVersionReason &&
+    !order.duplicateOrderReason &&
     !order.note
   )
     return null;
@@ -183,6 +184,12 @@ export function OrderReasons({ order }: { order: OrderDetail }) {
               Reason for using version {order.protocol.version}, superseded by a newer version
             </dt>
             <dd className="text-paper-950">{order.supersededVersionReason}</dd>
+          </div>
+        )}
+        {order.duplicateOrderReason && (
+          <div>
+            <dt className="text-sm text-paper-600">Reason for a second open order</dt>
+            <dd className="text-paper-950">{order.duplicateOrderReason}</dd>
           </div>
         )}
         {order.note && (

@@ -26,6 +26,10 @@ export function refreshAfterOrderChange(
   queryClient.setQueryData(orderQueries.detail(order.id).queryKey, order);
   for (const id of alsoChanged)
     void queryClient.invalidateQueries({ queryKey: orderQueries.detail(id).queryKey });
+  // The patient's other open orders and recent treatments, which the next order is held to.
+  void queryClient.invalidateQueries({
+    queryKey: [...orderQueries.all(), 'patient', order.patient.id, 'signing-facts'],
+  });
   return queryClient.invalidateQueries({ queryKey: orderQueries.lists() });
 }
 

@@ -1,4 +1,6 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import type { PossibleDuplicatesQuery } from '../../../../shared/schemas/patients';
+import { findPossibleDuplicates } from './find-possible-duplicates';
 import { getPatientHistory } from './get-patient-history';
 import { searchPatients } from './search-patients';
 
@@ -12,6 +14,12 @@ export const patientQueries = {
       queryFn: ({ signal }) => searchPatients(text, { signal }),
       // The previous results stay on screen while the next letters are looked up.
       placeholderData: keepPreviousData,
+    }),
+  /** Who already has the name and date of birth typed into the new-patient form. */
+  possibleDuplicates: (query: PossibleDuplicatesQuery) =>
+    queryOptions({
+      queryKey: [...patientQueries.all(), 'possible-duplicates', query] as const,
+      queryFn: ({ signal }) => findPossibleDuplicates(query, { signal }),
     }),
   histories: () => [...patientQueries.all(), 'history'] as const,
   history: (id: number) =>

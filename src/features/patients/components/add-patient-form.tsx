@@ -1,5 +1,17 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useForm } from 'react-hook-form';
+import { useQuery } from '@tanstack/react-query';
+import { useForm, useWatch } from 'react-hook-form';
+import { Link } from 'react-router-dom';
+import {
+  reasonOfSubstanceProblem,
+  minimumSubstantialReasonChars,
+  minimumSubstantialReasonWords,
+} from '../../../../shared/orders/reason-of-substance';
+import { TextAreaField } from '../../../components/ui/text-area-field';
+import { paths } from '../../../config/paths';
+import { patientQueries } from '../api/patient-queries';
+import { useDebouncedValue } from '../hooks/use-debounced-value';
+import { formatCalendarDate } from './unit-dates';
 import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
 import { overDefaults, useFormDraft } from '../../../lib/form-draft';
 import { z } from 'zod';
@@ -11,7 +23,7 @@ import {
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { Checkbox } from '../../../components/ui/checkbox';
-import { TextField } from '../../../components/ui/text-field';
+import { FieldError, TextField } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import {
   applyServerFieldErrors,
@@ -28,22 +40,23 @@ type PatientFormValues = {
   dateOfBirth: string;
   email: string;
   emailConsent: boolean;
+  /** Another patient has this name and date of birth: this is a different person, and why. */
+  duplicateConfirmed: boolean;
+  duplicateReason: string;
 };
 
 // An empty e-mail box means "no address", which the API takes as null.
 const patientFormSchema = z.preprocess((values) => {
   const v = values as PatientFormValues;
-  return { ...v, email: (v.email ?? '').trim() === '' ? null : v.email };
+  return {
+    ...v,
+    email: (v.email ?? '').trim() === '' ? null : v.email,
+    duplicateReason: (v.duplicateReason ?? '').trim() === '' ? null : v.duplicateReason,
+  };
 }, createPatientSchema) as unknown as z.ZodType<CreatePatient, PatientFormValues>;
 
-const labels = {
-  recordNumber: 'Record number',
-  givenName: 'Given name',
-  familyName: 'Family name',
-  dateOfBirth: 'Date of birth',
-  email: 'E-mail',
-  emailConsent: 'Agreement to e-mail',
-};
+// Field names come from the shared table (shared/format/field-labels.ts).
+const labels = {};
 const fieldNames = [
   'recordNumber',
   'givenName',
@@ -51,6 +64,8 @@ const fieldNames = [
   'dateOfBirth',
   'email',
   'emailConsent',
+  'duplicateConfirmed',
+  'duplicateReason',
 ] as const;
 
 type AddPatientFormProps = {
@@ -66,7 +81,11 @@ const patientDefaults: PatientFormValues = {
   dateOfBirth: '',
   email: '',
   emailConsent: false,
+  duplicateConfirmed: false,
+  duplicateReason: '',
 };
+
+const sameWhy = 'how you know this is another person';
 
 export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps) {
   const createPatient = useCreatePatient();
@@ -77,6 +96,7 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
     watch,
     reset,
     getValues,
+    control,
     formState: { errors },
   } = useForm<PatientFormValues, unknown, CreatePatient>({
     resolver: zodResolver(patientFormSchema),
@@ -88,7 +108,52 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
     { settle: overDefaults(patientDefaults) },
   );
 
+  // Who already has this name and date of birth, looked up as the three are typed.
+  const [givenName, familyName, dateOfBirth] = useWatch({
+    control,
+    name: ['givenName', 'familyName', 'dateOfBirth'],
+  });
+  // Debounced as one string: a new object on every render would never settle.
+  const typedKey = useDebouncedValue(
+    JSON.stringify([givenName.trim(), familyName.trim(), dateOfBirth]),
+    400,
+  );
+  const [typedGiven, typedFamily, typedBirth] = JSON.parse(typedKey) as [string, string, string];
+  const typed = { givenName: typedGiven, familyName: typedFamily, dateOfBirth: typedBirth };
+  const lookUp =
+    typed.givenName !== '' &&
+    typed.familyName !== '' &&
+    /^\d{4}-\d{2}-\d{2}$/.test(typed.dateOfBirth);
+  const duplicatesQuery = useQuery({
+    ...patientQueries.possibleDuplicates(typed),
+    enabled: lookUp,
+  });
+  const sameness = lookUp ? (duplicatesQuery.data ?? []) : [];
+
   const onSubmit = handleSubmit((input) => {
+    // The server refuses a possible duplicate without confirmation and reason; ask first.
+    if (sameness.length > 0) {
+      if (!input.duplicateConfirmed) {
+        setError(
+          'duplicateConfirmed',
+          {
+            type: 'validate',
+            message: 'Confirm that this is another person, or open the existing record',
+          },
+          { shouldFocus: true },
+        );
+        return;
+      }
+      const weak = reasonOfSubstanceProblem(input.duplicateReason, undefined, sameWhy);
+      if (weak) {
+        setError(
+          'duplicateReason',
+          { type: 'validate', message: weak.charAt(0).toUpperCase() + weak.slice(1) },
+          { shouldFocus: true },
+        );
+        return;
+      }
+    }
     createPatient.mutate(input, {
       onSuccess: (patient) => {
         draftKeeper.clear();
@@ -102,7 +167,8 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
             { type: 'server', message: error.message },
             { shouldFocus: true },
           );
-        if (error.status === 400) applyServerFieldErrors(error, setError, fieldNames);
+        if (error.status === 400 || error.code === 'possible_duplicate_patient')
+          applyServerFieldErrors(error, setError, fieldNames);
       },
     });
   });
@@ -110,7 +176,9 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
   const error = createPatient.error;
   const fieldLevel =
     isApiRequestError(error) &&
-    (error.code === 'record_number_taken' || (error.status === 400 && error.fields.length > 0));
+    (error.code === 'record_number_taken' ||
+      error.code === 'possible_duplicate_patient' ||
+      (error.status === 400 && error.fields.length > 0));
   const unplaced = isApiRequestError(error) ? unplacedFieldProblems(error, fieldNames) : [];
 
   return (
@@ -195,6 +263,50 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
             />
           </div>
         </div>
+        {sameness.length > 0 && (
+          <div
+            role="alert"
+            className="space-y-3 rounded-lg border-2 border-alarm-700 bg-alarm-50 p-4 text-paper-950"
+          >
+            <p className="font-semibold">
+              Possible duplicate:{' '}
+              {sameness.length === 1 ? 'a patient' : `${sameness.length} patients`} with this name
+              and date of birth {sameness.length === 1 ? 'is' : 'are'} on record already.
+            </p>
+            <ul className="list-disc space-y-1 pl-5">
+              {sameness.map((p) => (
+                <li key={p.id}>
+                  <Link
+                    to={paths.patient.getHref(p.id)}
+                    className="font-medium text-iris-700 underline underline-offset-4"
+                  >
+                    {p.familyName}, {p.givenName} · record {p.recordNumber}
+                  </Link>{' '}
+                  · born {formatCalendarDate(p.dateOfBirth)}
+                </li>
+              ))}
+            </ul>
+            <p className="text-sm text-paper-800">
+              Open that record if it is the same person. Add a new one only for another person.
+            </p>
+            <Checkbox
+              label="This is another person with the same name and date of birth"
+              aria-invalid={errors.duplicateConfirmed ? true : undefined}
+              {...register('duplicateConfirmed')}
+            />
+            <FieldError
+              id={`${id}-duplicate-confirmed-error`}
+              message={readableMessage(errors.duplicateConfirmed?.message, labels)}
+            />
+            <TextAreaField
+              label="How you know it is another person (required)"
+              hint={`At least ${minimumSubstantialReasonChars} characters and ${minimumSubstantialReasonWords} words, e.g. what was checked and with whom`}
+              rows={2}
+              error={readableMessage(errors.duplicateReason?.message, labels)}
+              {...register('duplicateReason')}
+            />
+          </div>
+        )}
         <div className="flex flex-wrap gap-3">
           <Button type="submit" busy={createPatient.isPending}>
             {createPatient.isPending ? 'Adding…' : 'Add patient'}

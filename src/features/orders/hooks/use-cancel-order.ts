@@ -1,0 +1,11 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { cancelOrder } from '../api/cancel-order';
+import { refreshAfterOrderChange } from './use-save-order';
+
+export function useCancelOrder() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: cancelOrder,
+    onSuccess: (order) => refreshAfterOrderChange(queryClient, order),
+  });
+}
