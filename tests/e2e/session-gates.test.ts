@@ -3,7 +3,7 @@ import type { APIRequestContext } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
 import { accessibilityViolations, startBrowserTest, type BrowserContext } from '../support/browser';
-import { allChecks, clockKit } from '../support/clock-kit';
+import { allChecks, clockKit, identityConfirmed } from '../support/clock-kit';
 
 /*
  * The session gates (issue 11, gates 4, 6 and 7) as the nurse and the clinician meet them on the
@@ -25,6 +25,7 @@ const {
   seedEvents,
   sessionOf: readSession,
   allStored,
+  confirmIdentity,
 } = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
 
 beforeAll(async () => {
@@ -216,6 +217,7 @@ describe('gate 4: light with no infusion start on record', () => {
           reason: 'Tapped on the wrong patient’s tablet.',
         },
       ],
+      [100, identityConfirmed('laser')],
       [100, { type: 'step-started', stepId: 'laser' }],
       [17, { type: 'step-ended', stepId: 'laser' }],
       [15, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }],
@@ -294,6 +296,7 @@ describe('gate 6: UV below the minimum thickness', () => {
     await page
       .getByRole('button', { name: 'Start UV without swelling (override recorded)' })
       .click();
+    await confirmIdentity(page);
     await page.getByRole('timer', { name: 'Time left for the UV' }).waitFor();
     await allStored(page);
 
@@ -321,6 +324,7 @@ describe('gate 7: what was given is recorded', () => {
       [380, { type: 'step-ended', stepId: 'infusion' }],
       [380, { type: 'step-started', stepId: 'wait-for-light' }],
       [80, { type: 'step-ended', stepId: 'wait-for-light' }],
+      [80, identityConfirmed('laser')],
       [80, { type: 'step-started', stepId: 'laser' }],
     ]);
     const { page, problems } = await nursePage(id);
