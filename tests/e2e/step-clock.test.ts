@@ -764,8 +764,10 @@ describe('the bedside step clock', () => {
     await offersNoTaps(page);
     expect(await accessibilityViolations(page)).toEqual([]);
 
-    // The nurse ends the infusion on her tablet; the watching clock moves on at its next fetch.
-    await seedEvents(id, [[0, { type: 'step-ended', stepId: 'infusion' }]]);
+    // The nurse ends the infusion on her tablet (early, so with its reason); the watching clock moves on at its next fetch.
+    await seedEvents(id, [
+      [0, { type: 'step-ended', stepId: 'infusion', reason: 'Cannula came out; ended early.' }],
+    ]);
     await advance(page, 16_000);
     await page
       .getByRole('timer', { name: 'Time until the light starts' })

@@ -190,7 +190,7 @@ export function ClockFace({
         data-exact-ms={face.exactMs ?? undefined}
         data-server-now-ms={serverNowMs}
         data-device-now-ms={deviceNowMs}
-        className={`numerals-steady font-semibold ${untimed ? 'text-clock-sm' : 'text-clock'} ${face.status.alarm ? 'text-alarm-700' : 'text-paper-950'}`}
+        className={`numerals-steady font-semibold ${untimed ? 'text-clock-sm [@media(max-height:820px)]:text-6xl' : 'text-clock'} ${face.status.alarm ? 'text-alarm-700' : 'text-paper-950'}`}
       >
         {face.value}
       </p>
@@ -205,11 +205,11 @@ export function ClockFace({
             aria-hidden="true"
             className="pointer-events-none absolute -inset-1.5 rounded-2xl border-4 border-alarm-700 motion-safe:animate-pulse"
           />
-          <DropletIcon className="size-12 shrink-0" />
-          <span className="text-5xl leading-none font-bold tracking-wide whitespace-nowrap uppercase">
+          <DropletIcon className="size-10 shrink-0" />
+          <span className="text-[2.75rem] leading-none font-bold tracking-wide whitespace-nowrap uppercase">
             Drop due
           </span>
-          <span className="text-xl leading-snug font-semibold">
+          <span className="text-base leading-snug font-semibold">
             {lastDropText(facts, serverNowMs, cueEveryS ?? 0)} · {facts.dropsInCurrentStep} given in
             this step
           </span>

@@ -78,7 +78,7 @@ export function sessionFacts(
           }
         : {
             allowed: false,
-            why: `The last reading, ${uv.lastReadingUm} µm, is below the ${uv.minimumUm} µm minimum. UV starts only after a reading of at least ${uv.minimumUm} µm or an override a clinician authorises with their password.`,
+            why: `Last reading ${uv.lastReadingUm} µm. UV starts only after a reading of at least ${uv.minimumUm} µm, or a clinician’s authorised override.`,
           };
   }
 

@@ -208,6 +208,9 @@ export function StepActions({
       ? lastStep.durationS - runsRunningMs(lastRuns, serverNowMs) / 1000
       : 0;
 
+  // The override is offered inside the box that says why UV waits, when that box shows.
+  const overrideHere = thin && facts.overrideReason === null && primary.kind === 'blocked';
+
   const primaryIcon =
     primary.kind === 'end' ? (
       <EndStepIcon className="size-8" />
@@ -243,7 +246,7 @@ export function StepActions({
             button, and the step's own end or next start stands beside it, smaller. */}
         {isDropStep && current && (
           <Button
-            className="min-h-20 min-w-56 flex-[2] px-5"
+            className="min-h-16 min-w-56 flex-[2] px-5"
             icon={<DropletIcon className="size-10" />}
             onClick={() => onRecord([{ type: 'drop-given', stepId: current.id }])}
           >
@@ -252,16 +255,27 @@ export function StepActions({
           </Button>
         )}
         {primary.kind === 'blocked' ? (
-          <p className="flex min-h-16 flex-1 items-center gap-2 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-2 font-medium text-paper-950">
-            <AlertIcon className="size-6 shrink-0 text-alarm-700" />
-            {primary.why}
-          </p>
+          // Beside a drop it takes a row of its own, so it reads in one or two lines, with the
+          // way past it (a clinician's override) in the same box.
+          <div
+            className={`flex min-h-16 flex-1 flex-wrap items-center gap-x-3 gap-y-2 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-2 ${isDropStep ? 'basis-full' : ''}`}
+          >
+            <p className="flex min-w-48 flex-1 items-center gap-2 font-medium text-paper-950">
+              <AlertIcon className="size-6 shrink-0 text-alarm-700" />
+              {primary.why}
+            </p>
+            {overrideHere && (
+              <Button variant="secondary" icon={<AlertIcon />} onClick={onOverride}>
+                Authorise UV below the minimum…
+              </Button>
+            )}
+          </div>
         ) : (
           <Button
             variant={isDropStep ? 'secondary' : 'primary'}
             className={
               isDropStep
-                ? 'min-h-20 min-w-36 flex-1 px-4'
+                ? 'min-h-16 min-w-36 flex-1 px-4'
                 : 'min-h-16 min-w-64 flex-1 px-6 text-2xl'
             }
             icon={primaryIcon}
@@ -292,14 +306,14 @@ export function StepActions({
         )}
       </div>
 
-      {(thin || uvInstead || leftOfLastS > 0.5 || facts.exposureMissing) && (
+      {((thin && !overrideHere) || uvInstead || leftOfLastS > 0.5 || facts.exposureMissing) && (
         <div className="flex flex-wrap gap-3">
           {facts.exposureMissing && (
             <Button icon={<AlertIcon />} onClick={onEnterExposure}>
               Enter the laser’s exposure…
             </Button>
           )}
-          {thin && facts.overrideReason === null && (
+          {thin && facts.overrideReason === null && !overrideHere && (
             <Button variant="secondary" icon={<AlertIcon />} onClick={onOverride}>
               Authorise UV below the minimum…
             </Button>
@@ -415,7 +429,7 @@ function ThicknessEntry({
         }}
       >
         <div className="flex flex-col gap-1">
-          <label htmlFor={id} className="font-medium text-paper-900">
+          <label htmlFor={id} className="text-sm font-medium text-paper-900">
             Thinnest stromal thickness (µm)
           </label>
           <input
@@ -437,7 +451,7 @@ function ThicknessEntry({
         >
           Record reading
         </Button>
-        <div className="min-w-40 flex-1 pb-1 text-paper-950">
+        <div className="min-w-0 flex-1 basis-28 pb-1 text-paper-950">
           {last ? (
             <p className="flex items-start gap-1.5 text-lg leading-snug">
               {last.thicknessUm >= minimumUm ? (
