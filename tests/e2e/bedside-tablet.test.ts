@@ -219,7 +219,7 @@ const stepKinds: {
       [480, { type: 'thickness-measured', stepId: 'thickness-check', thicknessUm: 380 }],
       [470, { type: 'step-started', stepId: 'stromal-swelling' }],
     ],
-    buttons: ['Drop given', 'Record reading', 'Authorise UV below the minimum…'],
+    buttons: ['Drop given', 'Record reading', 'Authorise UV override…'],
     blocking: /UV starts only after a reading of at least 400 µm/,
   },
   {

@@ -271,7 +271,9 @@ describe('gate 6: UV below the minimum thickness', () => {
     await page.getByRole('button', { name: 'Record reading' }).click();
     await page.getByText('below the 400 µm minimum').first().waitFor();
 
-    await page.getByRole('button', { name: 'Authorise UV below the minimum…' }).click();
+    await page
+      .getByRole('button', { name: /^Authorise UV (below the minimum|override)…$/ })
+      .click();
     const dialog = page.getByRole('dialog', { name: 'Authorise UV below the thickness minimum' });
     await dialog
       .getByLabel('Reason for going on to UV')

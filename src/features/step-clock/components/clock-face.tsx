@@ -206,7 +206,7 @@ export function ClockFace({
             className="pointer-events-none absolute -inset-1.5 rounded-2xl border-4 border-alarm-700 motion-safe:animate-pulse"
           />
           <DropletIcon className="size-10 shrink-0" />
-          <span className="text-[2.75rem] leading-none font-bold tracking-wide whitespace-nowrap uppercase">
+          <span className="text-4xl leading-none font-bold tracking-wide whitespace-nowrap uppercase">
             Drop due
           </span>
           <span className="text-base leading-snug font-semibold">

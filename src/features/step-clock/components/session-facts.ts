@@ -78,7 +78,7 @@ export function sessionFacts(
           }
         : {
             allowed: false,
-            why: `Last reading ${uv.lastReadingUm} µm. UV starts only after a reading of at least ${uv.minimumUm} µm, or a clinician’s authorised override.`,
+            why: `UV starts only after a reading of at least ${uv.minimumUm} µm (last: ${uv.lastReadingUm} µm), or a clinician’s authorised override.`,
           };
   }
 

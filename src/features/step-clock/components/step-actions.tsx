@@ -266,7 +266,7 @@ export function StepActions({
             </p>
             {overrideHere && (
               <Button variant="secondary" icon={<AlertIcon />} onClick={onOverride}>
-                Authorise UV below the minimum…
+                Authorise UV override…
               </Button>
             )}
           </div>
@@ -422,14 +422,15 @@ function ThicknessEntry({
   return (
     <div className="flex flex-col gap-1 rounded-xl border border-paper-300 bg-paper-100 px-4 py-2">
       <form
-        className="flex flex-wrap items-end gap-3"
+        className="flex flex-wrap items-center gap-x-3 gap-y-1"
         onSubmit={(event) => {
           event.preventDefault();
           submit();
         }}
       >
-        <div className="flex flex-col gap-1">
-          <label htmlFor={id} className="text-sm font-medium text-paper-900">
+        {/* Label beside the field and the last reading on one line below: one short block on a tablet. */}
+        <div className="flex items-center gap-2">
+          <label htmlFor={id} className="max-w-36 text-sm leading-tight font-medium text-paper-900">
             Thinnest stromal thickness (µm)
           </label>
           <input
@@ -451,9 +452,9 @@ function ThicknessEntry({
         >
           Record reading
         </Button>
-        <div className="min-w-0 flex-1 basis-28 pb-1 text-paper-950">
+        <div className="min-w-0 basis-full text-paper-950">
           {last ? (
-            <p className="flex items-start gap-1.5 text-lg leading-snug">
+            <p className="flex items-start gap-1.5 text-base leading-snug">
               {last.thicknessUm >= minimumUm ? (
                 <CheckCircleIcon className="mt-0.5 size-6" />
               ) : (
