@@ -198,7 +198,7 @@ export function ClockFace({
         // Read from across the room: a block of colour, a drop, the words, and the count since.
         <p
           data-drop-due
-          className="relative flex items-center gap-4 rounded-xl bg-alarm-700 px-5 py-2 text-white"
+          className="relative flex h-16 items-center gap-4 rounded-xl bg-alarm-700 px-5 text-white"
         >
           {/* Only the frame around it beats (and not at all with reduced motion): the words keep full contrast. */}
           <span
@@ -215,7 +215,8 @@ export function ClockFace({
           </span>
         </p>
       ) : (
-        <div className="flex min-h-9 items-center gap-4">
+        // In a drop step the row keeps the banner's height, so nothing moves under a finger reaching for Drop given when a drop falls due.
+        <div className={`flex items-center gap-4 ${isDropStep ? 'h-16' : 'min-h-9'}`}>
           {flash ? (
             // The cue's words for a moment, where the eye already is; the screen reader hears them from the live region.
             <p
@@ -228,6 +229,17 @@ export function ClockFace({
                 <AlertIcon className="size-6 shrink-0" />
               )}
               {flash.text}
+            </p>
+          ) : isDropStep && clock.nextCueInS !== null ? (
+            <p className="flex shrink-0 items-center gap-2 text-lg text-paper-900">
+              <DropletIcon className="size-5" />
+              <span>
+                Next drop in{' '}
+                <strong className="numerals-steady">{formatRemaining(clock.nextCueInS)}</strong>
+              </span>
+              <span className="text-base text-paper-700">
+                · {facts.dropsInCurrentStep} given in this step
+              </span>
             </p>
           ) : (
             <p className="shrink-0 text-lg text-paper-800">{face.caption}</p>
@@ -274,22 +286,6 @@ export function ClockFace({
                   (from the infusion start, {formatWardTime(infusionStartMs)})
                 </span>
               )}
-            </span>
-          </li>
-        )}
-        {isDropStep && clock.nextCueInS !== null && !dropDue && (
-          <li className={`flex items-center gap-2 ${dropDue ? 'font-bold text-alarm-700' : ''}`}>
-            <DropletIcon className="size-5" />
-            {dropDue ? (
-              <span>Drop due now</span>
-            ) : (
-              <span>
-                Next drop in{' '}
-                <strong className="numerals-steady">{formatRemaining(clock.nextCueInS)}</strong>
-              </span>
-            )}
-            <span className="text-base font-normal text-paper-700">
-              · {facts.dropsInCurrentStep} given in this step
             </span>
           </li>
         )}
