@@ -39,6 +39,8 @@ type ScriptEvent = {
   checks?: Record<string, true>;
   thicknessUm?: number;
   exposureS?: number;
+  item?: string;
+  reason?: string;
 };
 export type Step = [offsetS: number, event: ScriptEvent];
 const checks = {
@@ -49,6 +51,17 @@ const checks = {
   deviceSettings: true,
 } as const;
 
+const identityChecked = { patientName: true, dateOfBirth: true, treatmentEye: true } as const;
+
+/** The after-care checklist ticked in the minutes after the step starts. */
+function aftercareDone(stepId: string, fromS: number): Step[] {
+  return [
+    [fromS + 60, { type: 'aftercare-checked', stepId, item: 'advice' }],
+    [fromS + 120, { type: 'aftercare-checked', stepId, item: 'sheet-printed' }],
+    [fromS + 150, { type: 'aftercare-checked', stepId, item: 'contact-number' }],
+  ];
+}
+
 /** A standard PDT session; `lightLateS` moves the laser later, as when the laser room was busy. */
 export function pdtScript(lightLateS = 0): Step[] {
   const light = 60 + 900 + lightLateS;
@@ -57,12 +70,14 @@ export function pdtScript(lightLateS = 0): Step[] {
     [60, { type: 'step-started', stepId: 'infusion' }],
     [660, { type: 'step-ended', stepId: 'infusion' }],
     [660, { type: 'step-started', stepId: 'wait-for-light' }],
+    [light - 30, { type: 'identity-confirmed', stepId: 'laser', checks: identityChecked }],
     [light, { type: 'step-ended', stepId: 'wait-for-light' }],
     [light, { type: 'step-started', stepId: 'laser' }],
     [light + 83, { type: 'step-ended', stepId: 'laser' }],
     // What the laser displayed, entered by the nurse at the end of the light step.
     [light + 88, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }],
     [light + 90, { type: 'step-started', stepId: 'aftercare' }],
+    ...aftercareDone('aftercare', light + 90),
     [light + 400, { type: 'step-ended', stepId: 'aftercare' }],
     [light + 410, { type: 'session-completed' }],
   ];
@@ -89,12 +104,21 @@ export function cxlScript(opts: {
   }
   const soakEnd = 330 + opts.soakS;
   steps.push(
-    [soakEnd, { type: 'step-ended', stepId: 'riboflavin-soak' }],
+    [
+      soakEnd,
+      {
+        type: 'step-ended',
+        stepId: 'riboflavin-soak',
+        // The demo's short soak (the protocols soak 30 min) is ended with the reason it was cut short.
+        ...(opts.soakS < 1800 ? { reason: 'Patient could not keep still any longer.' } : {}),
+      },
+    ],
     [soakEnd, { type: 'step-started', stepId: 'thickness-check' }],
     [
       soakEnd + 40,
       { type: 'thickness-measured', stepId: 'thickness-check', thicknessUm: opts.thicknessUm },
     ],
+    [soakEnd + 50, { type: 'identity-confirmed', stepId: 'uv-exposure', checks: identityChecked }],
     [soakEnd + 60, { type: 'step-ended', stepId: 'thickness-check' }],
     [soakEnd + 60, { type: 'step-started', stepId: 'uv-exposure' }],
   );
@@ -104,6 +128,7 @@ export function cxlScript(opts: {
   steps.push(
     [uvEnd, { type: 'step-ended', stepId: 'uv-exposure' }],
     [uvEnd + 10, { type: 'step-started', stepId: 'aftercare' }],
+    ...aftercareDone('aftercare', uvEnd + 10),
     [uvEnd + 300, { type: 'step-ended', stepId: 'aftercare' }],
     [uvEnd + 310, { type: 'session-completed' }],
   );

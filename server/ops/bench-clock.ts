@@ -88,6 +88,12 @@ export async function measureClockError(base: string) {
       thicknessUm: 452,
       clientTime: at(60_000),
     },
+    {
+      type: 'identity-confirmed',
+      stepId: 'uv-exposure',
+      checks: { patientName: true, dateOfBirth: true, treatmentEye: true },
+      clientTime: at(10_000),
+    },
     { type: 'step-ended', stepId: 'thickness-check', clientTime: at(1) },
     { type: 'step-started', stepId: 'uv-exposure', clientTime: new Date(uvStartMs).toISOString() },
   ];

@@ -11,6 +11,7 @@ import type { ProtocolVersion as ProtocolDefinition } from '../../shared/protoco
 import { deriveDoseRecord, withdrawalsApplied } from '../../shared/session/dose-record';
 import { findDeviations } from '../../shared/session/deviations';
 import {
+  isLateEntryType,
   isWithdrawableType,
   type SessionEvent,
   type SessionEventInput,
@@ -31,6 +32,7 @@ import { moveOrderStatus, type OrderRepository } from '../orders/repository';
 import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
+import { bedsideRefusal } from './bedside-rules';
 import { recordOrderFacts, type SessionRepository } from './repository';
 
 const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
@@ -39,6 +41,8 @@ const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
   'drop-given': ['soak', 'uv', 'swelling'],
   'thickness-measured': ['thickness', 'swelling'],
   'exposure-recorded': ['light'],
+  'identity-confirmed': ['light', 'uv'],
+  'aftercare-checked': ['aftercare'],
 };
 
 /**
@@ -205,7 +209,11 @@ export function createSessionService(deps: {
       });
     }
     const stepId = 'stepId' in input ? input.stepId : null;
-    if (stepId !== null) {
+    // A missed drop or reading entered late falls between taps already stored (bedside rules place it).
+    const lateBetween =
+      input.lateEntryReason !== undefined &&
+      (input.type === 'drop-given' || input.type === 'thickness-measured');
+    if (stepId !== null && !lateBetween) {
       const later = kept
         .filter((e) => stepIdOf(e) === stepId && Date.parse(e.clientTime) > at)
         .sort((a, b) => Date.parse(b.clientTime) - Date.parse(a.clientTime))[0];
@@ -226,6 +234,7 @@ export function createSessionService(deps: {
       endedMs: end ? Date.parse(end.clientTime) : null,
       lateEntry: input.lateEntryReason !== undefined,
       endsOrWithdraws: !isWithdrawableType(input.type),
+      lateKind: isLateEntryType(input.type),
     });
     if (!verdict.take)
       throw new SessionRuleRefusal(
@@ -233,6 +242,10 @@ export function createSessionService(deps: {
         `The session for order ${order.id} ended${end ? ` at ${wardTime(Date.parse(end.clientTime))}` : ''}.`,
         { path: verdict.field, message: verdict.why },
       );
+
+    const bedside = bedsideRefusal(definition, input, kept);
+    if (bedside)
+      throw new SessionRuleRefusal(bedside.rule, bedside.message, bedside.field, bedside.status);
 
     // Gate 4: the order of events against the preparation.
     const preparation = order.preparation;
@@ -781,6 +794,8 @@ export function createSessionService(deps: {
         input.type === 'tap-withdrawn' ||
         input.type === 'exposure-recorded' ||
         input.type === 'session-stopped' ||
+        input.type === 'identity-confirmed' ||
+        (input.type === 'step-ended' && input.reason !== undefined) ||
         input.lateEntryReason !== undefined
       ) {
         await audit.append({

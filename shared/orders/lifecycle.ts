@@ -152,22 +152,29 @@ export function canReprepare(
  * made before the end after it: a tap timed at or before the stored end is such a queued tap and is
  * taken. A tap timed after the end is taken only as a late entry with its reason, and never one
  * that would start, end or withdraw (those change nothing once the session is over). While the
- * session runs, no tap is a late entry.
+ * session runs, a late entry is a missed tap entered at its real time, of the kinds that may be
+ * (`lateKind`: a step start or end, a drop, a thickness reading).
  */
 export type LateTapVerdict =
   { take: true } | { take: false; field: 'lateEntryReason'; why: string };
 
 export function lateTapVerdict(
   status: OrderStatus,
-  facts: { tapMs: number; endedMs: number | null; lateEntry: boolean; endsOrWithdraws: boolean },
+  facts: {
+    tapMs: number;
+    endedMs: number | null;
+    lateEntry: boolean;
+    endsOrWithdraws: boolean;
+    lateKind?: boolean;
+  },
 ): LateTapVerdict {
   const ended = isSessionEnded(status) && facts.endedMs !== null;
   if (!ended) {
-    return facts.lateEntry
+    return facts.lateEntry && !facts.lateKind
       ? {
           take: false,
           field: 'lateEntryReason',
-          why: 'lateEntryReason is only for a tap entered after the session ended; the session is running',
+          why: 'lateEntryReason during the session is only for a missed step start or end, drop or thickness reading',
         }
       : { take: true };
   }

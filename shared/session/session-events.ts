@@ -19,6 +19,8 @@ export const sessionEventTypes = [
   'session-stopped',
   'session-completed',
   'tap-withdrawn',
+  'identity-confirmed',
+  'aftercare-checked',
 ] as const;
 export type SessionEventType = (typeof sessionEventTypes)[number];
 
@@ -44,6 +46,35 @@ export const preTreatmentChecks = [
   'deviceSettings',
 ] as const;
 export type PreTreatmentCheck = (typeof preTreatmentChecks)[number];
+
+/**
+ * Said again at the bedside just before the light or UV starts (the protocol's "identity and eye
+ * again before the light"): the server refuses that start without them.
+ */
+export const identityChecks = ['patientName', 'dateOfBirth', 'treatmentEye'] as const;
+export type IdentityCheck = (typeof identityChecks)[number];
+
+/** The after-care step's checklist; the discharge sheet is either printed or e-mailed. */
+export const aftercareItems = [
+  'advice',
+  'sheet-printed',
+  'sheet-emailed',
+  'contact-number',
+] as const;
+export type AftercareItem = (typeof aftercareItems)[number];
+
+/**
+ * A tap the nurse missed can be entered afterwards at its real time, with the reason it is late:
+ * these kinds only (a pause, a stop or a withdrawal is recorded when it happens).
+ */
+export const lateEntryTypes = [
+  'step-started',
+  'step-ended',
+  'drop-given',
+  'thickness-measured',
+] as const satisfies readonly SessionEventType[];
+export const isLateEntryType = (type: SessionEventType): boolean =>
+  (lateEntryTypes as readonly SessionEventType[]).includes(type);
 
 const stepId = z
   .string({ error: 'stepId is required' })
@@ -103,7 +134,13 @@ export const sessionEventSchema = z.discriminatedUnion(
       ),
     }),
     z.strictObject({ ...common, type: z.literal('step-started'), stepId }),
-    z.strictObject({ ...common, type: z.literal('step-ended'), stepId }),
+    z.strictObject({
+      ...common,
+      type: z.literal('step-ended'),
+      stepId,
+      /** Why a timed dose step ends far short of its time (required by the server then, see shortEndVerdict). */
+      reason: reason('reason').optional(),
+    }),
     z.strictObject({ ...common, type: z.literal('paused'), stepId }),
     z.strictObject({ ...common, type: z.literal('resumed'), stepId }),
     z.strictObject({ ...common, type: z.literal('drop-given'), stepId }),
@@ -167,6 +204,31 @@ export const sessionEventSchema = z.discriminatedUnion(
       /** The idempotency key of the mistaken tap; that tap stays stored, and every replay skips it. */
       withdrawnKey: z.uuid({ error: 'withdrawnKey must be a UUID' }),
       reason: reason('reason'),
+    }),
+    /** Patient identity (name and date of birth) and eye said again before the light or UV step `stepId` starts. */
+    z.strictObject({
+      ...common,
+      type: z.literal('identity-confirmed'),
+      stepId,
+      checks: z.strictObject(
+        Object.fromEntries(
+          identityChecks.map((c) => [
+            c,
+            z.literal(true, {
+              error: `checks.${c} must be confirmed (true) before the light starts`,
+            }),
+          ]),
+        ) as Record<IdentityCheck, z.ZodLiteral<true>>,
+        { error: `checks must confirm ${identityChecks.join(', ')}` },
+      ),
+    }),
+    z.strictObject({
+      ...common,
+      type: z.literal('aftercare-checked'),
+      stepId,
+      item: z.enum(aftercareItems, {
+        error: `item must be one of ${aftercareItems.join(', ')}`,
+      }),
     }),
   ],
   { error: `type must be one of ${sessionEventTypes.join(', ')}` },

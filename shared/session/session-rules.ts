@@ -1,3 +1,6 @@
+import type { ProtocolStep, ProtocolVersion, StepKind } from '../protocol/protocol-schema';
+import type { SessionEventLike, StepRun } from './dose-record';
+
 /**
  * The session's safety rules that both sides read: the server refuses a tap by them, the clock
  * shows the same rule before the tap is made. One function per rule; no I/O.
@@ -49,4 +52,99 @@ export function exposureMissing(facts: {
   exposureEntered: boolean;
 }): boolean {
   return facts.lightStarted && !facts.lightRunning && !facts.exposureEntered;
+}
+
+/** Steps that start only once patient identity (name, date of birth) and eye were confirmed again. */
+export const identityConfirmedBefore: ReadonlySet<StepKind> = new Set(['light', 'uv']);
+
+/** True when `step` is a light or UV step and no identity confirmation for it is timed at or before `atMs`. */
+export function identityConfirmationMissing(
+  step: Pick<ProtocolStep, 'id' | 'kind'>,
+  atMs: number,
+  kept: readonly SessionEventLike[],
+): boolean {
+  if (!identityConfirmedBefore.has(step.kind)) return false;
+  return !kept.some(
+    (e) =>
+      e.type === 'identity-confirmed' && e.stepId === step.id && Date.parse(e.clientTime) <= atMs,
+  );
+}
+
+/**
+ * How far short of its time a timed dose step may end without a reason: the protocol's own
+ * tolerance for what that step gives (soak and infusion in minutes, light and UV in seconds). Steps
+ * that give no dose (a wait, a check) have none.
+ */
+function shortfallAllowedS(
+  kind: StepKind,
+  tolerances: ProtocolVersion['tolerances'],
+): number | null {
+  switch (kind) {
+    case 'soak':
+      return (tolerances.soakShortfallMin ?? 0) * 60;
+    case 'infusion':
+      return (tolerances.infusionDurationMin ?? 0) * 60;
+    case 'light':
+    case 'uv':
+      return tolerances.exposureS;
+    default:
+      return null;
+  }
+}
+
+/** A timed dose step ended after `ranS` of running time: short when below its time less the tolerance (to the whole second, as the clock shows it). */
+export function shortEndVerdict(
+  step: Pick<ProtocolStep, 'kind' | 'durationS'>,
+  tolerances: ProtocolVersion['tolerances'],
+  ranS: number,
+): { short: false } | { short: true; shortestS: number; durationS: number } {
+  const allowedS = shortfallAllowedS(step.kind, tolerances);
+  if (step.durationS === null || allowedS === null) return { short: false };
+  const shortestS = step.durationS - allowedS;
+  return Math.round(ranS) < shortestS
+    ? { short: true, shortestS, durationS: step.durationS }
+    : { short: false };
+}
+
+/**
+ * Where a late entry (a missed tap entered afterwards at its real time) may fall in its step:
+ * a drop or reading inside a run of the step; an end after the start of a step still running; a
+ * start after every start or end of any step already on record, while the step is not running.
+ */
+export function lateEntryPlaceVerdict(
+  entry: { type: string; atMs: number },
+  facts: {
+    runs: readonly StepRun[];
+    /** The latest start or end of any step on record, in ms. */
+    lastBoundaryMs: number | null;
+  },
+): { allowed: true } | { allowed: false; why: string } {
+  const last = facts.runs[facts.runs.length - 1];
+  const open = last !== undefined && last.endMs === null;
+  switch (entry.type) {
+    case 'drop-given':
+    case 'thickness-measured':
+      return facts.runs.some(
+        (run) => run.startMs <= entry.atMs && (run.endMs === null || entry.atMs <= run.endMs),
+      )
+        ? { allowed: true }
+        : { allowed: false, why: 'must lie while its step ran (after its start, before its end)' };
+    case 'step-ended':
+      return open && last.startMs < entry.atMs
+        ? { allowed: true }
+        : { allowed: false, why: 'must be after the start of a step that is still running' };
+    case 'step-started':
+      if (open) return { allowed: false, why: 'must name a step that is not running' };
+      return facts.lastBoundaryMs === null || entry.atMs > facts.lastBoundaryMs
+        ? { allowed: true }
+        : {
+            allowed: false,
+            why: `must be after the last step start or end on record (${new Date(facts.lastBoundaryMs).toISOString()})`,
+          };
+    default:
+      return {
+        allowed: false,
+        why: 'is entered late only as a step start or end, a drop or a thickness reading',
+      };
+  }
 }

@@ -15,6 +15,8 @@ export const eventWords: Record<SessionEventType, string> = {
   'session-stopped': 'stop',
   'session-completed': 'completion',
   'tap-withdrawn': 'withdrawal of a tap',
+  'identity-confirmed': 'identity and eye confirmed before the light',
+  'aftercare-checked': 'after-care item done',
 };
 
 /** Words for a type read from the server as text; a type this client does not know shows as its key. */

@@ -12,6 +12,19 @@ export function formatUnitDate(iso: string | null | undefined): string {
   return formatUnitTime(iso, unitTimeZone, 'date');
 }
 
+/**
+ * The unit's way of writing a calendar date in figures (the demo unit writes day/month/year), for
+ * a date that is not an instant: a date of birth is read against a wristband exactly as written.
+ */
+export const unitDateFigures = 'dd/MM/yyyy';
+
+/** A calendar date (YYYY-MM-DD) in the unit's figures, e.g. "14/03/1956". */
+export function formatCalendarFigures(date: string | null | undefined): string {
+  if (!date) return '—';
+  const day = DateTime.fromISO(date, { zone: 'utc' });
+  return day.isValid ? day.toFormat(unitDateFigures) : date;
+}
+
 /** The unit's wall-clock time to the second with the zone's short name, e.g. "10:24:00 WET". */
 export function formatUnitClock(iso: string | null | undefined): string {
   return formatUnitTime(iso, unitTimeZone, 'clock');

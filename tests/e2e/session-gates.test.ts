@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
 import { accessibilityViolations, startBrowserTest, type BrowserContext } from '../support/browser';
 import { supersededVersionReason } from '../support/api';
-import { allChecks, clockKit } from '../support/clock-kit';
+import { allChecks, clockKit, identityConfirmed } from '../support/clock-kit';
 
 /*
  * The session gates (issue 11, gates 4, 6 and 7) as the nurse and the clinician meet them on the
@@ -26,6 +26,7 @@ const {
   seedEvents,
   sessionOf: readSession,
   allStored,
+  confirmIdentity,
 } = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
 
 beforeAll(async () => {
@@ -219,6 +220,7 @@ describe('gate 4: light with no infusion start on record', () => {
           reason: 'Tapped on the wrong patient’s tablet.',
         },
       ],
+      [100, identityConfirmed('laser')],
       [100, { type: 'step-started', stepId: 'laser' }],
       [17, { type: 'step-ended', stepId: 'laser' }],
       [15, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }],
@@ -274,7 +276,9 @@ describe('gate 6: UV below the minimum thickness', () => {
     await page.getByRole('button', { name: 'Record reading' }).click();
     await page.getByText('below the 400 µm minimum').first().waitFor();
 
-    await page.getByRole('button', { name: 'Authorise UV below the minimum…' }).click();
+    await page
+      .getByRole('button', { name: /^Authorise UV (below the minimum|override)…$/ })
+      .click();
     const dialog = page.getByRole('dialog', { name: 'Authorise UV below the thickness minimum' });
     await dialog
       .getByLabel('Reason for going on to UV')
@@ -299,6 +303,7 @@ describe('gate 6: UV below the minimum thickness', () => {
     await page
       .getByRole('button', { name: 'Start UV without swelling (override recorded)' })
       .click();
+    await confirmIdentity(page);
     await page.getByRole('timer', { name: 'Time left for the UV' }).waitFor();
     await allStored(page);
 
@@ -326,6 +331,7 @@ describe('gate 7: what was given is recorded', () => {
       [380, { type: 'step-ended', stepId: 'infusion' }],
       [380, { type: 'step-started', stepId: 'wait-for-light' }],
       [80, { type: 'step-ended', stepId: 'wait-for-light' }],
+      [80, identityConfirmed('laser')],
       [80, { type: 'step-started', stepId: 'laser' }],
     ]);
     const { page, problems } = await nursePage(id);

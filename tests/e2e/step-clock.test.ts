@@ -8,8 +8,7 @@ import {
   startBrowserTest,
   type BrowserContext,
 } from '../support/browser';
-import { supersededVersionReason } from '../support/api';
-import { allChecks, clockKit } from '../support/clock-kit';
+import { allChecks, clockKit, clockOrders } from '../support/clock-kit';
 
 /*
  * The bedside step clock in a real browser, in accelerated time: the page runs on Playwright's
@@ -31,7 +30,12 @@ const {
   seedEvents,
   sessionOf: readSession,
   allStored,
+  confirmIdentity,
 } = clockKit(() => ({ ctx, nurseApi, reader: clinician }));
+const { preparedPdtOrder, readyCxlOrder } = clockOrders(
+  () => ({ clinician, pharmacist }),
+  serverNowMs,
+);
 
 beforeAll(async () => {
   ctx = await startBrowserTest();
@@ -58,90 +62,6 @@ async function advanceTo(page: Page, targetServerMs: number) {
 }
 
 /* ---------- orders through the API, as the order and pharmacy screens would make them ---------- */
-
-async function newPatient() {
-  const suffix = randomUUID().slice(0, 6).toUpperCase();
-  const res = await clinician.post('/api/patients', {
-    data: {
-      recordNumber: `SC-${suffix}`,
-      givenName: 'Perpetua',
-      familyName: `Lanternwick ${suffix}`,
-      dateOfBirth: '1957-09-02',
-      emailConsent: false,
-    },
-  });
-  expect(res.status()).toBe(201);
-  return (await res.json()).patient as { id: number; familyName: string };
-}
-
-async function signedOrder(body: Record<string, unknown>) {
-  const draft = await clinician.post('/api/orders', { data: body });
-  expect(draft.status(), await draft.text()).toBe(201);
-  const { id, version } = (await draft.json()).order as { id: number; version: number };
-  const signed = await clinician.post(`/api/orders/${id}/signature`, {
-    data: { password: demoPassword, meaning: 'ordered', version },
-  });
-  expect(signed.status()).toBe(200);
-  return id;
-}
-
-/** Standard PDT, 170 cm / 70 kg, GLD 2500 µm: checked blind and prepared, ready for the nurse. */
-async function preparedPdtOrder() {
-  const patient = await newPatient();
-  const id = await signedOrder({
-    patientId: patient.id,
-    eye: 'right',
-    protocol: { key: 'pdt-standard', version: 1 },
-    // Version 1 is superseded by version 2; the figures here are version 1's.
-    supersededVersionReason,
-    inputs: {
-      height: { value: 170, unit: 'cm' },
-      weight: { value: 70, unit: 'kg' },
-      bsaFormula: 'mosteller',
-      lesionGldUm: 2500,
-      lensMagnification: 1,
-    },
-    checklist: [
-      'porphyria',
-      'hypersensitivity',
-      'hepatic-impairment',
-      'pregnancy-breastfeeding',
-      'other-photosensitisers',
-    ].map((q) => ({ id: q, answer: 'no' })),
-  });
-  // Mosteller 1.82 m² (Mosteller RD, N Engl J Med 1987) × 6 mg/m² = 10.92 mg; 2 mg/mL → 5.46 mL (TAP Study Group, Arch Ophthalmol 1999).
-  const check = await pharmacist.post(`/api/orders/${id}/dose-checks`, {
-    data: { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 },
-  });
-  expect(check.status(), await check.text()).toBe(201);
-  const vialExpiry = new Date(Date.now() + 90 * 86_400_000).toISOString().slice(0, 10);
-  // Made up 20 min before: the seeded infusion starts below lie up to 15 min back, and an infusion
-  // before the reconstitution is refused.
-  const reconstitutedAt = new Date(serverNowMs() - 20 * 60_000).toISOString();
-  const prepared = await pharmacist.post(`/api/orders/${id}/preparation`, {
-    data: { vialLot: 'SC-LOT-1', vialExpiry, reconstitutedAt, volumeDrawnMl: 5.5 },
-  });
-  expect(prepared.status(), await prepared.text()).toBe(201);
-  return { id, patient };
-}
-
-/** A signed CXL order: ready for the session at once (no drug step to check). */
-async function readyCxlOrder(key = 'cxl-standard') {
-  const patient = await newPatient();
-  const id = await signedOrder({
-    patientId: patient.id,
-    eye: 'left',
-    protocol: { key, version: 1 },
-    // Version 1 is superseded by version 2; the figures here are version 1's.
-    supersededVersionReason,
-    inputs: { stromalThicknessUm: 460 },
-    checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({
-      id: q,
-      answer: 'no',
-    })),
-  });
-  return { id, patient };
-}
 
 interface StoredEvent {
   idempotencyKey: string;
@@ -332,7 +252,9 @@ describe('the bedside step clock', () => {
     expect(Math.abs(wait.errorS)).toBeLessThan(1.1);
 
     // The light starts 15 min after the START of the infusion (TAP Study Group, Arch Ophthalmol 1999).
-    await pressAt(page, 'Start laser', infusionStartMs + 900_000);
+    // The press opens the identity and eye confirmation; the light starts with its confirmation.
+    await pressAt(page, 'Start laser', infusionStartMs + 899_000);
+    await confirmIdentity(page, infusionStartMs + 900_000);
     await page.getByRole('timer', { name: 'Time left for the laser' }).waitFor();
     await allStored(page);
     const lightStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'laser');
@@ -414,6 +336,7 @@ describe('the bedside step clock', () => {
     await page.getByText('at or above the 400 µm minimum').waitFor();
 
     await press(page, 'Start UV');
+    await confirmIdentity(page);
     await allStored(page);
     const uvStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'uv-exposure');
     // UVA 3 mW/cm² for 30 min with a drop every 5 min (Wollensak G, Spoerl E, Seiler T, Am J Ophthalmol 2003).
@@ -466,6 +389,7 @@ describe('the bedside step clock', () => {
     await page.getByRole('timer', { name: 'Time until the light starts' }).waitFor();
     await advance(page, 3_000);
     await press(page, 'Start laser');
+    await confirmIdentity(page);
     await allStored(page);
     const lightStartMs = eventTimeMs(await sessionOf(id), 'step-started', 'laser');
     const left = (ms: number) => 83 - (ms - lightStartMs) / 1000;
@@ -840,8 +764,10 @@ describe('the bedside step clock', () => {
     await offersNoTaps(page);
     expect(await accessibilityViolations(page)).toEqual([]);
 
-    // The nurse ends the infusion on her tablet; the watching clock moves on at its next fetch.
-    await seedEvents(id, [[0, { type: 'step-ended', stepId: 'infusion' }]]);
+    // The nurse ends the infusion on her tablet (early, so with its reason); the watching clock moves on at its next fetch.
+    await seedEvents(id, [
+      [0, { type: 'step-ended', stepId: 'infusion', reason: 'Cannula came out; ended early.' }],
+    ]);
     await advance(page, 16_000);
     await page
       .getByRole('timer', { name: 'Time until the light starts' })
@@ -1047,18 +973,20 @@ describe('the bedside step clock', () => {
     expect(Math.abs(offline.errorS)).toBeLessThan(1.1);
     await page.getByText('no network; new taps are kept on this tablet').waitFor();
 
-    // The light starts on time with no network: the tap (the wait's end and the light's start) is kept and counts.
-    await pressAt(page, 'Start laser', infusionStartMs + 900_000);
-    await page.getByText('Unsent: 2', { exact: true }).waitFor();
+    // The light starts on time with no network: the taps (identity and eye confirmed, the wait's end and the light's start) are kept and counts.
+    // The press opens the identity and eye confirmation; the light starts with its confirmation.
+    await pressAt(page, 'Start laser', infusionStartMs + 899_000);
+    await confirmIdentity(page, infusionStartMs + 900_000);
+    await page.getByText('Unsent: 3', { exact: true }).waitFor();
     const lightStartMs = infusionStartMs + 900_000;
     await advance(page, 10_000);
     await press(page, 'Pause laser');
-    await page.getByText('Unsent: 3', { exact: true }).waitFor();
+    await page.getByText('Unsent: 4', { exact: true }).waitFor();
 
     // A second reload, still offline: the kept taps come back with the clock at the right second.
     await advance(page, 5_000);
     await page.reload();
-    await page.getByText('Unsent: 3', { exact: true }).waitFor();
+    await page.getByText('Unsent: 4', { exact: true }).waitFor();
     const paused = await readClock(
       page,
       'Time left for the laser',
@@ -1071,7 +999,7 @@ describe('the bedside step clock', () => {
     const queued = (await keptTaps(page, id))
       .filter((tap) => tap.state === 'unsent')
       .map((tap) => tap.key);
-    expect(queued).toHaveLength(3);
+    expect(queued).toHaveLength(4);
 
     await page.context().setOffline(false);
     await allStored(page);

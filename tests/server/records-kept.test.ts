@@ -14,6 +14,7 @@ import {
   startTestApp,
   type TestContext,
   type TestPerson,
+  identityConfirmed,
 } from '../support/api';
 import { appConnection, ownerConnection } from '../support/database';
 
@@ -91,7 +92,8 @@ async function finishedSession(): Promise<number> {
     at(0, { type: 'session-started', checks: allChecks }),
     at(60, { type: 'step-started', stepId: 'infusion' }),
     // A short infusion (8 of 10 minutes), so the session has a deviation.
-    at(540, { type: 'step-ended', stepId: 'infusion' }),
+    at(540, { type: 'step-ended', stepId: 'infusion', reason: 'Line came out; ended early.' }),
+    at(960, identityConfirmed('laser')),
     at(960, { type: 'step-started', stepId: 'laser' }),
     at(1043, { type: 'step-ended', stepId: 'laser' }),
     at(1050, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }),
@@ -433,7 +435,7 @@ describe("a session's dose record and deviations, as the app's database user", (
       [orderId],
     );
     const { n } = (counted as { n: number }[])[0]!;
-    expect(Number(n)).toBe(7); // the seven taps of finishedSession, no more
+    expect(Number(n)).toBe(8); // the eight taps of finishedSession, no more
     expect(await row('dose_record', 'order_id', orderId)).toEqual(eventsBefore);
 
     const auditor = await signedInAgent(ctx, await createTestPerson(ctx, ['auditor']));

@@ -13,6 +13,7 @@ import {
   startTestApp,
   type TestContext,
   type TestPerson,
+  identityConfirmed,
 } from '../support/api';
 
 type Agent = ReturnType<typeof supertest.agent>;
@@ -63,6 +64,7 @@ async function sessionWithLateLight(nurse: Agent, lightLateS: number): Promise<n
     at(0, { type: 'session-started', checks: allChecks }),
     at(60, { type: 'step-started', stepId: 'infusion' }),
     at(660, { type: 'step-ended', stepId: 'infusion' }),
+    at(light, identityConfirmed('laser')),
     at(light, { type: 'step-started', stepId: 'laser' }),
     at(light + 83, { type: 'step-ended', stepId: 'laser' }),
     // The laser's displayed exposure, which a PDT session with light needs before it completes.
@@ -222,6 +224,7 @@ describe('reviewing during a running session', () => {
       at(0, { type: 'session-started', checks: allChecks }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
       at(660, { type: 'step-ended', stepId: 'infusion' }),
+      at(light, identityConfirmed('laser')),
       at(light, { type: 'step-started', stepId: 'laser' }),
     ])
       expect((await send(event)).status).toBe(201);

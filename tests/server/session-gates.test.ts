@@ -12,6 +12,7 @@ import {
   startTestApp,
   type TestContext,
   type TestPerson,
+  identityConfirmed,
 } from '../support/api';
 
 // The session's safety gates (issue 11, gates 4–7), each tried as a hurried colleague would:
@@ -231,6 +232,7 @@ describe('gate 4: the order of events', () => {
         withdrawnKey: infusion.idempotencyKey,
         reason: 'Tapped on the wrong patient’s tablet.',
       }),
+      at(960, identityConfirmed('laser')),
       at(960, { type: 'step-started', stepId: 'laser' }),
       at(1043, { type: 'step-ended', stepId: 'laser' }),
       at(1050, { type: 'exposure-recorded', stepId: 'laser', exposureS: 83 }),
@@ -422,23 +424,22 @@ describe('gate 5: tap times are bounded', () => {
     ).toMatch(/cannot start, end or withdraw/);
   });
 
-  it('a late-entry reason on a tap of a running session is refused', async () => {
+  it('in a running session a late-entry reason is refused on anything but a missed step start or end, drop or reading', async () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(10);
-    await postAll(order.id, [at(0, { type: 'session-started', checks: allChecks })]);
-    expect(
-      refusedNaming(
-        await post(
-          order.id,
-          at(60, {
-            type: 'step-started',
-            stepId: 'infusion',
-            lateEntryReason: 'Entered afterwards.',
-          }),
-        ),
-        'lateEntryReason',
-      ),
-    ).toMatch(/session is running/);
+    await postAll(order.id, [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(60, { type: 'step-started', stepId: 'infusion' }),
+    ]);
+    const leak = at(120, {
+      type: 'extravasation',
+      volumeInfusedMl: 5,
+      lateEntryReason: 'Entered afterwards.',
+    });
+    expect(refusedNaming(await post(order.id, leak), 'lateEntryReason')).toMatch(
+      /missed step start or end, drop or thickness reading/,
+    );
+    expect(await storedKeys(order.id)).not.toContain(leak.idempotencyKey);
   });
 });
 
@@ -464,6 +465,7 @@ describe('gate 6: UV below the minimum thickness needs a second person', () => {
                 thicknessUm: readingUm,
               }),
             ]),
+        at(1940, identityConfirmed('uv-exposure')),
       ],
       agent,
     );
@@ -647,6 +649,7 @@ describe('gate 7: what was given is recorded', () => {
     const { order, at } = await infusing(30);
     await postAll(order.id, [
       at(660, { type: 'step-ended', stepId: 'infusion' }),
+      at(960, identityConfirmed('laser')),
       at(960, { type: 'step-started', stepId: 'laser' }),
       // The taps put the light at 90 s, 7 s over; the laser itself displayed 83 s.
       at(1050, { type: 'step-ended', stepId: 'laser' }),
@@ -678,6 +681,7 @@ describe('gate 7: what was given is recorded', () => {
     const { order, at } = await infusing(30);
     await postAll(order.id, [
       at(660, { type: 'step-ended', stepId: 'infusion' }),
+      at(960, identityConfirmed('laser')),
       at(960, { type: 'step-started', stepId: 'laser' }),
       at(1043, { type: 'step-ended', stepId: 'laser' }),
     ]);

@@ -11,6 +11,7 @@ import {
   startTestApp,
   type TestContext,
   type TestPerson,
+  identityConfirmed,
 } from '../support/api';
 import { formatUnitTime } from '../../shared/format/figures';
 
@@ -135,6 +136,7 @@ describe('session events', () => {
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(660, { type: 'step-started', stepId: 'wait-for-light' }),
       at(960, { type: 'step-ended', stepId: 'wait-for-light' }),
+      at(960, identityConfirmed('laser')),
       at(960, { type: 'step-started', stepId: 'laser' }),
       at(1043, { type: 'step-ended', stepId: 'laser' }),
     ];
@@ -142,7 +144,7 @@ describe('session events', () => {
     // Each step's own taps keep their order: a tap timed before a stored tap of its own step is
     // refused (the tablet clock went back), which two tablets' queues cannot cause for one step.
     await post(order.id, events[0]!);
-    for (const index of [3, 1, 5, 2, 6, 4])
+    for (const index of [3, 1, 5, 6, 2, 7, 4])
       expect((await post(order.id, events[index]!)).status).toBe(201);
     const state = await nurseAgent.get(`/api/orders/${order.id}/session`);
     const record = state.body.record;
@@ -165,7 +167,11 @@ describe('deviations', () => {
     await post(order.id, at(60, { type: 'step-started', stepId: 'infusion' }));
     const infusionEnd = await post(
       order.id,
-      at(60 + 7 * 60, { type: 'step-ended', stepId: 'infusion' }),
+      at(60 + 7 * 60, {
+        type: 'step-ended',
+        stepId: 'infusion',
+        reason: 'Pump alarm; infusion ended early.',
+      }),
     );
     // Demo tolerance: infusion 10 min ± 1 min (site policy; common practice, no single source).
     expect(infusionEnd.body.deviations.map((d: { type: string }) => d.type)).toEqual([
@@ -174,6 +180,7 @@ describe('deviations', () => {
     expect(infusionEnd.body.deviations[0]).toMatchObject({ expected: 10, actual: 7, unit: 'min' });
     await post(order.id, at(60 + 7 * 60, { type: 'step-started', stepId: 'wait-for-light' }));
     await post(order.id, at(60 + 17 * 60, { type: 'step-ended', stepId: 'wait-for-light' }));
+    await post(order.id, at(60 + 17 * 60, identityConfirmed('laser')));
     const late = await post(order.id, at(60 + 17 * 60, { type: 'step-started', stepId: 'laser' }));
     // Light starts 15 min ± 1 min after infusion start (TAP 1999; tolerance common practice).
     const window = late.body.deviations.find(
@@ -199,10 +206,11 @@ describe('deviations', () => {
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(660, { type: 'step-started', stepId: 'wait-for-light' }),
       at(960, { type: 'step-ended', stepId: 'wait-for-light' }),
+      at(960, identityConfirmed('laser')),
       at(960, { type: 'step-started', stepId: 'laser' }),
       at(990, { type: 'paused', stepId: 'laser' }),
       at(1000, { type: 'resumed', stepId: 'laser' }),
-      at(1043, { type: 'step-ended', stepId: 'laser' }),
+      at(1043, { type: 'step-ended', stepId: 'laser', reason: 'Laser display showed its end.' }),
       // The laser's own display, entered by the nurse: a PDT session with light completes only with it.
       at(1050, { type: 'exposure-recorded', stepId: 'laser', exposureS: 73, energyJ: 3.1 }),
       at(1100, { type: 'session-completed' }),
@@ -271,6 +279,7 @@ describe('deviations', () => {
         authoriserPassword: clinician.password,
       }),
       at(1930, { type: 'step-ended', stepId: 'thickness-check' }),
+      at(1930, identityConfirmed('uv-exposure')),
       at(1930, { type: 'step-started', stepId: 'uv-exposure' }),
     ]) {
       expect((await post(order.id, event)).status).toBe(201);
@@ -326,6 +335,7 @@ describe('a deviation and the tap that caused it', () => {
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(660, { type: 'step-started', stepId: 'wait-for-light' }),
       at(960, { type: 'step-ended', stepId: 'wait-for-light' }),
+      at(960, identityConfirmed('laser')),
     ])
       expect((await post(order.id, event)).status).toBe(201);
     const lightStart = at(960, { type: 'step-started', stepId: 'laser' });
@@ -377,7 +387,11 @@ describe('withdrawing a mistaken tap', () => {
     const { order, at, drops } = await soakingSession([0, 120, 240, 360, 480]);
     const before = await post(
       order.id,
-      at(60 + 500, { type: 'step-ended', stepId: 'riboflavin-soak' }),
+      at(60 + 500, {
+        type: 'step-ended',
+        stepId: 'riboflavin-soak',
+        reason: 'Patient could not keep still.',
+      }),
     );
     expect(before.body.deviations.map((d: { type: string }) => d.type)).not.toContain('drop-gap');
     expect(before.body.record.drops).toHaveLength(5);
@@ -435,7 +449,11 @@ describe('withdrawing a mistaken tap', () => {
 
   it('a withdrawn early step end leaves the step running', async () => {
     const { order, at } = await soakingSession([0]);
-    const end = at(60 + 100, { type: 'step-ended', stepId: 'riboflavin-soak' }) as {
+    const end = at(60 + 100, {
+      type: 'step-ended',
+      stepId: 'riboflavin-soak',
+      reason: 'Ended by a slip of the finger.',
+    }) as {
       idempotencyKey: string;
     };
     expect((await post(order.id, end)).body.record.soakEndAt).not.toBeNull();

@@ -118,6 +118,15 @@ export const supersededVersionReason =
   'Test orders keep version 1, on which their expected figures were worked out';
 
 /** A complete, signable order body for the standard PDT protocol (170 cm, 70 kg, GLD 2500 µm). */
+/** The bedside's identity and eye said again, which a light or UV start needs before it (`stepId`: that step). */
+export function identityConfirmed(stepId: string) {
+  return {
+    type: 'identity-confirmed',
+    stepId,
+    checks: { patientName: true, dateOfBirth: true, treatmentEye: true },
+  };
+}
+
 export function pdtOrder(patientId: number, overrides: Record<string, unknown> = {}) {
   return {
     patientId,

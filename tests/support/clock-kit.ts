@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { request, type APIRequestContext, type Page } from 'playwright-core';
 import { expect } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
+import { supersededVersionReason } from './api';
 import { signInThroughForm, watchPage, type BrowserContext } from './browser';
 
 /**
@@ -82,9 +83,30 @@ export function clockKit(
     await page.getByText('All taps stored').waitFor({ timeout: 15_000 });
   }
 
+  /**
+   * Name, date of birth and eye confirmed again in the dialog a light or UV start opens. With
+   * `atMs` the confirmation (and so the start) is timed to the millisecond: the confirm button
+   * takes keyboard focus, the clocks move to the moment, and Enter presses it.
+   */
+  async function confirmIdentity(page: Page, atMs?: number) {
+    const dialog = page.getByRole('dialog', { name: /identity and eye again/ });
+    await dialog.waitFor();
+    for (const box of await dialog.getByRole('checkbox').all()) await box.check();
+    const confirm = dialog.getByRole('button', { name: /^Confirmed: start/ });
+    if (atMs === undefined) {
+      await confirm.click();
+    } else {
+      await confirm.focus();
+      await advance(page, atMs - serverNowMs());
+      await page.keyboard.press('Enter');
+    }
+    await dialog.waitFor({ state: 'hidden' });
+  }
+
   return {
     serverNowMs,
     advance,
+    confirmIdentity,
     signedInApi,
     signedInPage,
     nursePage,
@@ -94,6 +116,13 @@ export function clockKit(
   };
 }
 
+/** Identity and eye said again before a light or UV step (`stepId`) starts, as a seeded tap. */
+export const identityConfirmed = (stepId: string) => ({
+  type: 'identity-confirmed',
+  stepId,
+  checks: { patientName: true, dateOfBirth: true, treatmentEye: true },
+});
+
 /** The five pre-treatment checks, all confirmed. */
 export const allChecks = {
   patientIdentity: true,
@@ -102,3 +131,98 @@ export const allChecks = {
   eyewear: true,
   deviceSettings: true,
 };
+
+/**
+ * Orders made through the API as the order and pharmacy screens would make them, for clock tests:
+ * a standard PDT order checked blind and prepared, or a signed CXL order (ready at once).
+ */
+export function clockOrders(
+  current: () => { clinician: APIRequestContext; pharmacist: APIRequestContext },
+  serverNowMs: () => number,
+) {
+  async function newPatient() {
+    const suffix = randomUUID().slice(0, 6).toUpperCase();
+    const res = await current().clinician.post('/api/patients', {
+      data: {
+        recordNumber: `SC-${suffix}`,
+        givenName: 'Perpetua',
+        familyName: `Lanternwick ${suffix}`,
+        dateOfBirth: '1957-09-02',
+        emailConsent: false,
+      },
+    });
+    expect(res.status()).toBe(201);
+    return (await res.json()).patient as { id: number; familyName: string };
+  }
+
+  async function signedOrder(body: Record<string, unknown>) {
+    const draft = await current().clinician.post('/api/orders', { data: body });
+    expect(draft.status(), await draft.text()).toBe(201);
+    const { id, version } = (await draft.json()).order as { id: number; version: number };
+    const signed = await current().clinician.post(`/api/orders/${id}/signature`, {
+      data: { password: demoPassword, meaning: 'ordered', version },
+    });
+    expect(signed.status()).toBe(200);
+    return id;
+  }
+
+  /** Standard PDT, 170 cm / 70 kg, GLD 2500 µm: checked blind and prepared, ready for the nurse. */
+  async function preparedPdtOrder() {
+    const patient = await newPatient();
+    const id = await signedOrder({
+      patientId: patient.id,
+      eye: 'right',
+      protocol: { key: 'pdt-standard', version: 1 },
+      // Version 1 is superseded by version 2; the figures here are version 1's.
+      supersededVersionReason,
+      inputs: {
+        height: { value: 170, unit: 'cm' },
+        weight: { value: 70, unit: 'kg' },
+        bsaFormula: 'mosteller',
+        lesionGldUm: 2500,
+        lensMagnification: 1,
+      },
+      checklist: [
+        'porphyria',
+        'hypersensitivity',
+        'hepatic-impairment',
+        'pregnancy-breastfeeding',
+        'other-photosensitisers',
+      ].map((q) => ({ id: q, answer: 'no' })),
+    });
+    // Mosteller 1.82 m² (Mosteller RD, N Engl J Med 1987) × 6 mg/m² = 10.92 mg; 2 mg/mL → 5.46 mL (TAP Study Group, Arch Ophthalmol 1999).
+    const check = await current().pharmacist.post(`/api/orders/${id}/dose-checks`, {
+      data: { bsaM2: 1.82, doseMg: 10.92, drugVolumeMl: 5.46 },
+    });
+    expect(check.status(), await check.text()).toBe(201);
+    const vialExpiry = new Date(Date.now() + 90 * 86_400_000).toISOString().slice(0, 10);
+    // Made up 20 min before: the seeded infusion starts below lie up to 15 min back, and an infusion
+    // before the reconstitution is refused.
+    const reconstitutedAt = new Date(serverNowMs() - 20 * 60_000).toISOString();
+    const prepared = await current().pharmacist.post(`/api/orders/${id}/preparation`, {
+      data: { vialLot: 'SC-LOT-1', vialExpiry, reconstitutedAt, volumeDrawnMl: 5.5 },
+    });
+    expect(prepared.status(), await prepared.text()).toBe(201);
+    return { id, patient };
+  }
+
+  /** A signed CXL order: ready for the session at once (no drug step to check). */
+  async function readyCxlOrder(key = 'cxl-standard') {
+    const patient = await newPatient();
+    const id = await signedOrder({
+      patientId: patient.id,
+      eye: 'left',
+      protocol: { key, version: 1 },
+      // Version 1 is superseded by version 2; the figures here are version 1's.
+      supersededVersionReason,
+      inputs: { stromalThicknessUm: 460 },
+      checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((q) => ({
+        id: q,
+        answer: 'no',
+      })),
+    });
+    return { id, patient };
+  }
+
+  return { newPatient, preparedPdtOrder, readyCxlOrder };
+}

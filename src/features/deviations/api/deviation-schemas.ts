@@ -57,6 +57,8 @@ const sessionEventSchema = z.object({
   idempotencyKey: z.string(),
   type: z.string(),
   clientTime: z.string(),
+  /** When the server received it: for a late entry, when it was entered. */
+  serverTime: z.string().optional(),
   stepId: z.string().optional(),
   thicknessUm: z.number().optional(),
   reason: z.string().optional(),
@@ -67,6 +69,8 @@ const sessionEventSchema = z.object({
   exposureS: z.number().optional(),
   energyJ: z.number().optional(),
   authorisedByName: z.string().optional(),
+  /** identity-confirmed: what was said again before the light; aftercare-checked: the item. */
+  item: z.string().optional(),
 });
 export type StoredSessionEvent = z.infer<typeof sessionEventSchema>;
 

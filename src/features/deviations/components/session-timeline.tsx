@@ -9,6 +9,13 @@ import {
   formatUnitDate,
 } from '../../../lib/unit-times';
 
+const aftercareWords: Record<string, string> = {
+  advice: 'advice given',
+  'sheet-printed': 'discharge sheet printed',
+  'sheet-emailed': 'discharge sheet e-mailed',
+  'contact-number': 'contact number given',
+};
+
 function describe(
   event: StoredSessionEvent,
   stepTitle: (id: string | undefined) => string,
@@ -20,7 +27,7 @@ function describe(
     case 'step-started':
       return `Started: ${stepTitle(event.stepId)}`;
     case 'step-ended':
-      return `Ended: ${stepTitle(event.stepId)}`;
+      return `Ended: ${stepTitle(event.stepId)}${event.reason ? ` (early: ${event.reason})` : ''}`;
     case 'paused':
       return `Paused: ${stepTitle(event.stepId)}`;
     case 'resumed':
@@ -39,6 +46,10 @@ function describe(
       return `Session stopped${event.volumeInfusedMl !== undefined ? ` (${formatFigure(event.volumeInfusedMl, 'mL')} infused, read off the pump)` : ''}: ${event.reason ?? 'no reason recorded'}`;
     case 'session-completed':
       return 'Session completed';
+    case 'identity-confirmed':
+      return `Patient name, date of birth and eye confirmed again before: ${stepTitle(event.stepId)}`;
+    case 'aftercare-checked':
+      return `After-care: ${aftercareWords[event.item ?? ''] ?? event.item ?? 'item'} done`;
     case 'tap-withdrawn': {
       const target = event.withdrawnKey ? byKey.get(event.withdrawnKey) : undefined;
       const what = target
@@ -116,7 +127,10 @@ export function SessionTimeline({ events, steps, withdrawnTaps }: SessionTimelin
                   <span className="mr-1.5 rounded border border-paper-500 px-1 text-xs font-semibold tracking-wide uppercase">
                     Late entry
                   </span>
-                  Entered after the session ended: {event.lateEntryReason}
+                  {/* A missed tap entered at its real time, during the session or after it. */}
+                  Entered late
+                  {event.serverTime ? `, at ${formatUnitClock(event.serverTime)}` : ''}:{' '}
+                  {event.lateEntryReason}
                 </p>
               )}
               {withdrawal ? (

@@ -4,7 +4,7 @@ import { orderDetailSchema, orderStatuses } from '../../../../shared/schemas/ord
 import { eyes } from '../../../../shared/schemas/patients';
 import { api } from '../../../lib/api-client';
 
-/** The parts of an order the bedside needs: who, which eye, which protocol version, the plan. */
+/** The parts of an order the bedside needs: who (with the date of birth), which eye, which protocol version, the plan. */
 const sessionOrderSchema = z.object({
   id: z.number(),
   status: z.enum(orderStatuses),
@@ -16,6 +16,8 @@ const sessionOrderSchema = z.object({
     recordNumber: z.string(),
     givenName: z.string(),
     familyName: z.string(),
+    /** YYYY-MM-DD: the identity checks ask for it. */
+    dateOfBirth: z.string(),
   }),
   plan: dosePlanSchema.nullable(),
   beyondUseAt: z.string().nullable(),

@@ -19,7 +19,7 @@ import {
   formatWardTime,
   stepNames,
 } from './clock-format';
-import type { SessionFacts } from './session-facts';
+import { dropDueNow, type SessionFacts } from './session-facts';
 
 interface FaceReading {
   /** The timer's accessible name, e.g. "Time left for the laser". */
@@ -139,10 +139,7 @@ export function ClockFace({
     current !== null &&
     (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') &&
     cueEveryS !== undefined;
-  const dropDue =
-    isDropStep &&
-    facts.lastDropOrStartMs !== null &&
-    serverNowMs - facts.lastDropOrStartMs >= (cueEveryS ?? 0) * 1000;
+  const dropDue = dropDueNow(clock, protocol, facts, serverNowMs);
   const infusionStartMs =
     facts.replay.runs.get(protocol.steps.find((s) => s.kind === 'infusion')?.id ?? '')?.[0]
       ?.startMs ?? null;
@@ -161,13 +158,20 @@ export function ClockFace({
       className={`flex flex-col gap-1 rounded-2xl border-2 bg-white px-5 py-3 ${
         flash
           ? 'border-iris-700 ring-8 ring-iris-300'
-          : face.status.alarm
+          : face.status.alarm || dropDue
             ? 'border-alarm-700'
             : 'border-paper-300'
       }`}
     >
-      <div className="flex items-start justify-between gap-4">
-        <h2 className="min-w-0 text-xl font-semibold leading-snug text-paper-950">
+      {/* The state floats beside the step's number, so a long title takes the whole width below it. */}
+      <div className="flow-root">
+        <p
+          className={`float-right ml-4 flex items-center gap-1.5 text-lg leading-6 font-semibold ${face.status.alarm ? 'text-alarm-700' : 'text-paper-900'}`}
+        >
+          <face.status.Icon className="size-6" />
+          {face.status.word}
+        </p>
+        <h2 className="min-w-0 text-xl leading-snug font-semibold text-paper-950">
           <span className="block text-sm font-medium text-paper-700">
             {current
               ? `Step ${current.index + 1} of ${protocol.steps.length}`
@@ -177,12 +181,6 @@ export function ClockFace({
           </span>
           {step?.title ?? 'All steps done'}
         </h2>
-        <p
-          className={`flex shrink-0 items-center gap-1.5 text-lg font-semibold ${face.status.alarm ? 'text-alarm-700' : 'text-paper-900'}`}
-        >
-          <face.status.Icon className="size-6" />
-          {face.status.word}
-        </p>
       </div>
 
       {/* The data- figures let the benchmark compare what the clock worked out with the true schedule. */}
@@ -192,36 +190,73 @@ export function ClockFace({
         data-exact-ms={face.exactMs ?? undefined}
         data-server-now-ms={serverNowMs}
         data-device-now-ms={deviceNowMs}
-        className={`numerals-steady font-semibold ${untimed ? 'text-clock-sm' : 'text-clock'} ${face.status.alarm ? 'text-alarm-700' : 'text-paper-950'}`}
+        className={`numerals-steady font-semibold ${untimed ? 'text-clock-sm [@media(max-height:820px)]:text-6xl' : 'text-clock'} ${face.status.alarm ? 'text-alarm-700' : 'text-paper-950'}`}
       >
         {face.value}
       </p>
-      <div className="flex min-h-9 items-center gap-4">
-        {flash ? (
-          // The cue's words for a moment, where the eye already is; the screen reader hears them from the live region.
-          <p
+      {dropDue ? (
+        // Read from across the room: a block of colour, a drop, the words, and the count since.
+        <p
+          data-drop-due
+          className="relative flex h-16 items-center gap-4 rounded-xl bg-alarm-700 px-5 text-white"
+        >
+          {/* Only the frame around it beats (and not at all with reduced motion): the words keep full contrast. */}
+          <span
             aria-hidden="true"
-            className="flex shrink-0 items-center gap-2 rounded-lg bg-iris-700 px-3 py-1 text-lg font-bold text-white"
-          >
-            {flash.kind === 'drop' ? (
-              <DropletIcon className="size-6 shrink-0" />
-            ) : (
-              <AlertIcon className="size-6 shrink-0" />
-            )}
-            {flash.text}
-          </p>
-        ) : (
-          <p className="shrink-0 text-lg text-paper-800">{face.caption}</p>
-        )}
-        {face.progress !== null && (
-          <div aria-hidden="true" className="h-3 flex-1 overflow-hidden rounded-full bg-paper-200">
+            className="pointer-events-none absolute -inset-1.5 rounded-2xl border-4 border-alarm-700 motion-safe:animate-pulse"
+          />
+          <DropletIcon className="size-10 shrink-0" />
+          <span className="text-4xl leading-none font-bold tracking-wide whitespace-nowrap uppercase">
+            Drop due
+          </span>
+          <span className="text-base leading-snug font-semibold">
+            {lastDropText(facts, serverNowMs, cueEveryS ?? 0)} · {facts.dropsInCurrentStep} given in
+            this step
+          </span>
+        </p>
+      ) : (
+        // In a drop step the row keeps the banner's height, so nothing moves under a finger reaching for Drop given when a drop falls due.
+        <div className={`flex items-center gap-4 ${isDropStep ? 'h-16' : 'min-h-9'}`}>
+          {flash ? (
+            // The cue's words for a moment, where the eye already is; the screen reader hears them from the live region.
+            <p
+              aria-hidden="true"
+              className="flex shrink-0 items-center gap-2 rounded-lg bg-iris-700 px-3 py-1 text-lg font-bold text-white"
+            >
+              {flash.kind === 'drop' ? (
+                <DropletIcon className="size-6 shrink-0" />
+              ) : (
+                <AlertIcon className="size-6 shrink-0" />
+              )}
+              {flash.text}
+            </p>
+          ) : isDropStep && clock.nextCueInS !== null ? (
+            <p className="flex shrink-0 items-center gap-2 text-lg text-paper-900">
+              <DropletIcon className="size-5" />
+              <span>
+                Next drop in{' '}
+                <strong className="numerals-steady">{formatRemaining(clock.nextCueInS)}</strong>
+              </span>
+              <span className="text-base text-paper-700">
+                · {facts.dropsInCurrentStep} given in this step
+              </span>
+            </p>
+          ) : (
+            <p className="shrink-0 text-lg text-paper-800">{face.caption}</p>
+          )}
+          {face.progress !== null && (
             <div
-              className="h-full rounded-full bg-iris-700"
-              style={{ width: `${Math.round(face.progress * 1000) / 10}%` }}
-            />
-          </div>
-        )}
-      </div>
+              aria-hidden="true"
+              className="h-3 flex-1 overflow-hidden rounded-full bg-paper-200"
+            >
+              <div
+                className="h-full rounded-full bg-iris-700"
+                style={{ width: `${Math.round(face.progress * 1000) / 10}%` }}
+              />
+            </div>
+          )}
+        </div>
+      )}
 
       <ul className="flex flex-wrap gap-x-6 gap-y-0.5 text-lg text-paper-900 empty:hidden">
         {showVolume && clock.infusedVolumeMl !== null && (
@@ -254,22 +289,6 @@ export function ClockFace({
             </span>
           </li>
         )}
-        {isDropStep && clock.nextCueInS !== null && (
-          <li className={`flex items-center gap-2 ${dropDue ? 'font-bold text-alarm-700' : ''}`}>
-            <DropletIcon className="size-5" />
-            {dropDue ? (
-              <span>Drop due now</span>
-            ) : (
-              <span>
-                Next drop in{' '}
-                <strong className="numerals-steady">{formatRemaining(clock.nextCueInS)}</strong>
-              </span>
-            )}
-            <span className="text-base font-normal text-paper-700">
-              · {facts.dropsInCurrentStep} given in this step
-            </span>
-          </li>
-        )}
         {clock.pulse && (
           <li className="flex items-center gap-2">
             <LightBeamIcon className="size-5" />
@@ -287,4 +306,12 @@ export function ClockFace({
       </ul>
     </div>
   );
+}
+
+/** "2 min since the last drop" (or since the step started), to the whole minute past the first. */
+function lastDropText(facts: SessionFacts, serverNowMs: number, cueEveryS: number): string {
+  const sinceS =
+    facts.lastDropOrStartMs === null ? cueEveryS : (serverNowMs - facts.lastDropOrStartMs) / 1000;
+  const since = sinceS < 60 ? `${Math.floor(sinceS)} s` : `${Math.floor(sinceS / 60)} min`;
+  return `${since} since the ${facts.dropsInCurrentStep > 0 ? 'last drop' : 'step started'}`;
 }

@@ -10,6 +10,7 @@ import type { SessionOrder } from '../api/get-session-order';
 import type { SessionDeviation } from '../api/session-state-schema';
 import type { Urgency } from '../hooks/use-announcer';
 import { useCues } from '../hooks/use-cues';
+import { useDropReminder } from '../hooks/use-drop-reminder';
 import type { EventBody } from '../hooks/use-session-events';
 import { useMutedPreference } from '../hooks/use-stored-draft';
 import { useWakeLock, type WakeLockStatus } from '../hooks/use-wake-lock';
@@ -24,12 +25,14 @@ import {
   VolumeInfusedField,
 } from './extravasation';
 import { eyeWords } from './eye-badge';
+import { LateEntryDialog } from './late-entry-dialog';
+import { LateEntryIcon } from './late-entry-icon';
 import { OverrideAuthorisationDialog } from './override-authorisation-dialog';
 import { ReasonDialog } from './reason-dialog';
 import { RecentTaps } from './recent-taps';
 import { SessionCautions } from './session-cautions';
 import { SoundControl } from './sound-control';
-import type { SessionFacts } from './session-facts';
+import { dropDueNow, type SessionFacts } from './session-facts';
 import { StepActions } from './step-actions';
 import { StepList } from './step-list';
 
@@ -74,9 +77,9 @@ export function ClockView({
   watching: boolean;
 }) {
   const [muted, setMuted] = useMutedPreference();
-  const [dialog, setDialog] = useState<null | 'stop' | 'override' | 'extravasation' | 'exposure'>(
-    null,
-  );
+  const [dialog, setDialog] = useState<
+    null | 'stop' | 'override' | 'extravasation' | 'exposure' | 'late'
+  >(null);
   const [stopVolumeText, setStopVolumeText] = useState('');
   const [stopVolumeError, setStopVolumeError] = useState<string | undefined>();
   const finalVolumeMl = protocol.drug?.finalVolumeMl ?? null;
@@ -118,6 +121,11 @@ export function ClockView({
     enabled: !watching,
     words: cueWords,
     announce,
+  });
+
+  useDropReminder({
+    due: dropDueNow(clock, protocol, facts, serverNowMs),
+    sound: !watching && !muted,
   });
 
   // Step changes are said once, politely; the clock itself is never read out on its own.
@@ -181,7 +189,7 @@ export function ClockView({
             protocol={protocol}
             facts={facts}
             serverNowMs={serverNowMs}
-            orderId={order.id}
+            order={order}
             onRecord={onRecord}
             onOverride={() => setDialog('override')}
             onEnterExposure={() => setDialog('exposure')}
@@ -211,6 +219,13 @@ export function ClockView({
                   Extravasation…
                 </Button>
               )}
+              <Button
+                variant="secondary"
+                icon={<LateEntryIcon />}
+                onClick={() => setDialog('late')}
+              >
+                Missed tap…
+              </Button>
             </div>
             <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
               <SoundControl muted={muted} setMuted={setMuted} />
@@ -289,6 +304,21 @@ export function ClockView({
           />
         )}
       </ReasonDialog>
+      {!watching && (
+        <LateEntryDialog
+          open={dialog === 'late'}
+          orderId={order.id}
+          protocol={protocol}
+          clock={clock}
+          facts={facts}
+          serverNowMs={serverNowMs}
+          onDismiss={() => setDialog(null)}
+          onRecorded={(text) => {
+            setDialog(null);
+            announce(text);
+          }}
+        />
+      )}
       <OverrideAuthorisationDialog
         open={dialog === 'override'}
         orderId={order.id}

@@ -8,6 +8,7 @@ export function EyeBadge({ eye, size = 'large' }: { eye: Eye; size?: 'huge' | 'l
   const huge = size === 'huge';
   return (
     <p
+      data-eye-badge
       className={`inline-flex max-w-full items-center gap-3 rounded-2xl border-4 border-paper-900 bg-white font-bold tracking-wide text-paper-950 ${huge ? 'px-6 py-3' : 'px-3 py-0.5'}`}
     >
       <EyeIcon className={huge ? 'size-14' : 'size-7'} />

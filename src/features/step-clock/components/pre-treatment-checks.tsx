@@ -10,6 +10,7 @@ import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { CheckCircleIcon, DraftCircleIcon, StartCircleIcon } from '../../../components/ui/icons';
+import { formatCalendarFigures } from '../../../lib/unit-times';
 import type { SessionOrder } from '../api/get-session-order';
 import { useStoredDraft } from '../hooks/use-stored-draft';
 import { formatWardTime } from './clock-format';
@@ -34,7 +35,7 @@ function checkWords(
   return {
     patientIdentity: {
       label: 'Patient identity confirmed',
-      detail: `Asked the patient’s name and date of birth and checked the wristband: ${patient}, record ${order.patient.recordNumber}.`,
+      detail: `Asked the patient’s name and date of birth and checked the wristband: ${patient}, born ${formatCalendarFigures(order.patient.dateOfBirth)}, record ${order.patient.recordNumber}.`,
     },
     treatmentEye: {
       label: `Treatment eye confirmed: ${eyeWords[order.eye]}`,
@@ -147,8 +148,8 @@ export function PreTreatmentChecks({
           <p className="text-paper-700">Treatment eye</p>
           <EyeBadge eye={order.eye} size="huge" />
           <p className="text-lg font-medium text-paper-950">
-            {order.patient.givenName} {order.patient.familyName} · record{' '}
-            {order.patient.recordNumber}
+            {order.patient.givenName} {order.patient.familyName} · born{' '}
+            {formatCalendarFigures(order.patient.dateOfBirth)} · record {order.patient.recordNumber}
           </p>
         </div>
         {beyondUseMs !== null && <BeyondUse beyondUseMs={beyondUseMs} serverNowMs={serverNowMs} />}
@@ -182,7 +183,7 @@ function BeyondUse({ beyondUseMs, serverNowMs }: { beyondUseMs: number; serverNo
   );
 }
 
-function CheckToggle({
+export function CheckToggle({
   label,
   detail,
   checked,

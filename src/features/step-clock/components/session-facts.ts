@@ -1,11 +1,17 @@
 import type { ProtocolStep, ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import {
   replaySession,
+  withdrawalsApplied,
   type SessionEventLike,
   type SessionReplay,
 } from '../../../../shared/session/dose-record';
 import type { SessionClock } from '../../../../shared/session/session-clock';
-import { exposureMissing, uvStartVerdict } from '../../../../shared/session/session-rules';
+import type { AftercareItem } from '../../../../shared/session/session-events';
+import {
+  exposureMissing,
+  identityConfirmationMissing,
+  uvStartVerdict,
+} from '../../../../shared/session/session-rules';
 
 export interface SessionFacts {
   replay: SessionReplay;
@@ -23,6 +29,10 @@ export interface SessionFacts {
   uvGate: { allowed: boolean; why: string | null };
   /** PDT: the light step has run and ended, and the laser's displayed exposure is not entered yet. */
   exposureMissing: boolean;
+  /** Mirrors the server: whether a start of this step at `atMs` still needs identity and eye confirmed. */
+  needsIdentity: (step: Pick<ProtocolStep, 'id' | 'kind'>, atMs: number) => boolean;
+  /** After-care items recorded (withdrawn ones left out). */
+  aftercareDone: ReadonlySet<AftercareItem>;
 }
 
 /** The facts the buttons depend on, read from the same events the clock uses. */
@@ -68,12 +78,18 @@ export function sessionFacts(
           }
         : {
             allowed: false,
-            why: `The last reading, ${uv.lastReadingUm} µm, is below the ${uv.minimumUm} µm minimum. UV starts only after a reading of at least ${uv.minimumUm} µm or an override a clinician authorises with their password.`,
+            why: `UV starts only after a reading of at least ${uv.minimumUm} µm (last: ${uv.lastReadingUm} µm), or a clinician’s authorised override.`,
           };
   }
 
+  const { kept } = withdrawalsApplied(events);
+  const aftercareDone = new Set<AftercareItem>();
+  for (const event of kept) if (event.type === 'aftercare-checked') aftercareDone.add(event.item);
+
   return {
     replay,
+    needsIdentity: (step, atMs) => identityConfirmationMissing(step, atMs, kept),
+    aftercareDone,
     doneStepIds,
     lastThickness: lastReading
       ? { thicknessUm: lastReading.thicknessUm, ms: lastReading.ms }
@@ -92,4 +108,22 @@ export function sessionFacts(
         exposureEntered: replay.deviceExposure !== null,
       }),
   };
+}
+
+/** A drop step whose interval has passed since its last drop (or its start): the drop is due. */
+export function dropDueNow(
+  clock: SessionClock,
+  protocol: ProtocolVersion,
+  facts: SessionFacts,
+  serverNowMs: number,
+): boolean {
+  const current = clock.current;
+  const cueEveryS = current ? protocol.steps[current.index]?.cueEveryS : undefined;
+  return (
+    current !== null &&
+    (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') &&
+    cueEveryS !== undefined &&
+    facts.lastDropOrStartMs !== null &&
+    serverNowMs - facts.lastDropOrStartMs >= cueEveryS * 1000
+  );
 }

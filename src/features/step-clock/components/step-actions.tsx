@@ -3,7 +3,8 @@ import { belowMinimumThickness } from '../../../../shared/engine/corneal-uv';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import { runsRunningMs } from '../../../../shared/session/dose-record';
 import type { NextStep, SessionClock } from '../../../../shared/session/session-clock';
-import { drugTimeVerdict } from '../../../../shared/session/session-rules';
+import { drugTimeVerdict, shortEndVerdict } from '../../../../shared/session/session-rules';
+import type { SessionOrder } from '../api/get-session-order';
 import { Button } from '../../../components/ui/button';
 import {
   AlertIcon,
@@ -17,7 +18,10 @@ import {
 } from '../../../components/ui/icons';
 import type { EventBody } from '../hooks/use-session-events';
 import { useStoredDraft } from '../hooks/use-stored-draft';
-import { formatRemaining, stepNames, stepsEndedByTheirOwnTap } from './clock-format';
+import { AftercareChecklist } from './aftercare-checklist';
+import { formatElapsed, formatRemaining, stepNames, stepsEndedByTheirOwnTap } from './clock-format';
+import { IdentityConfirmationDialog } from './identity-confirmation-dialog';
+import { ReasonDialog } from './reason-dialog';
 import type { SessionFacts } from './session-facts';
 
 /** What the big button does now. */
@@ -77,20 +81,44 @@ export function StepActions({
   onOverride,
   onEnterExposure,
   beyondUseAtMs,
-  orderId,
+  order,
 }: {
   clock: SessionClock;
   protocol: ProtocolVersion;
   facts: SessionFacts;
   serverNowMs: number;
-  onRecord: (bodies: readonly EventBody[]) => void;
+  /** `atMs`: the moment of the press on the server's clock, when a confirmation came between. */
+  onRecord: (bodies: readonly EventBody[], atMs?: number) => void;
   onOverride: () => void;
   /** Opens the dialog for the laser's displayed exposure (after the light step ends). */
   onEnterExposure: () => void;
   beyondUseAtMs: number | null;
-  orderId: number;
+  order: SessionOrder;
 }) {
+  const orderId = order.id;
   const current = clock.current;
+  // A light or UV start waits for identity and eye confirmed again; an early end for its reason.
+  const [identityFor, setIdentityFor] = useState<{
+    stepId: string;
+    what: string;
+    bodies: readonly EventBody[];
+  } | null>(null);
+  const [shortEnd, setShortEnd] = useState<{
+    stepId: string;
+    name: string;
+    ranS: number;
+    durationS: number;
+    atMs: number;
+    isLight: boolean;
+  } | null>(null);
+  const startStep = (stepId: string, bodies: readonly EventBody[]) => {
+    const step = protocol.steps.find((s) => s.id === stepId);
+    if (step && facts.needsIdentity(step, serverNowMs)) {
+      setIdentityFor({ stepId, what: stepNames[step.kind], bodies });
+      return;
+    }
+    onRecord(bodies);
+  };
   const beyondUse = {
     passed:
       beyondUseAtMs !== null &&
@@ -111,10 +139,25 @@ export function StepActions({
     lastPressMs.current = nowMs;
     if (doubleTap) return;
     if (primary.kind === 'end') {
+      const step = current ? protocol.steps[current.index] : undefined;
+      const verdict =
+        current && step ? shortEndVerdict(step, protocol.tolerances, current.elapsedS) : null;
+      if (current && verdict?.short) {
+        setShortEnd({
+          stepId: primary.stepId,
+          name: stepNames[current.kind],
+          ranS: current.elapsedS,
+          durationS: verdict.durationS,
+          atMs: serverNowMs,
+          isLight: current.kind === 'light',
+        });
+        return;
+      }
       onRecord([{ type: 'step-ended', stepId: primary.stepId }]);
       if (current?.kind === 'light') onEnterExposure();
     } else if (primary.kind === 'start')
-      onRecord(
+      startStep(
+        primary.stepId,
         primary.endStepId
           ? [
               { type: 'step-ended', stepId: primary.endStepId },
@@ -166,6 +209,9 @@ export function StepActions({
       ? lastStep.durationS - runsRunningMs(lastRuns, serverNowMs) / 1000
       : 0;
 
+  // The override is offered inside the box that says why UV waits, when that box shows.
+  const overrideHere = thin && facts.overrideReason === null && primary.kind === 'blocked';
+
   const primaryIcon =
     primary.kind === 'end' ? (
       <EndStepIcon className="size-8" />
@@ -187,35 +233,62 @@ export function StepActions({
         />
       )}
 
+      {current?.kind === 'aftercare' && (
+        <AftercareChecklist
+          orderId={orderId}
+          stepId={current.id}
+          done={facts.aftercareDone}
+          onRecord={onRecord}
+        />
+      )}
+
       <div className="flex flex-wrap items-stretch gap-3">
+        {/* In a drop step the drop is what the nurse taps every few minutes: it is the large
+            button, and the step's own end or next start stands beside it, smaller. */}
+        {isDropStep && current && (
+          <Button
+            className="min-h-16 min-w-56 flex-[2] px-5"
+            icon={<DropletIcon className="size-10" />}
+            onClick={() => onRecord([{ type: 'drop-given', stepId: current.id }])}
+          >
+            {/* The label carries its own size: the button's base size would win over a class on it. */}
+            <span className="text-3xl font-semibold">Drop given</span>
+          </Button>
+        )}
         {primary.kind === 'blocked' ? (
-          <p className="flex min-h-16 flex-1 items-center gap-2 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-2 font-medium text-paper-950">
-            <AlertIcon className="size-6 shrink-0 text-alarm-700" />
-            {primary.why}
-          </p>
+          // Beside a drop it takes a row of its own, so it reads in one or two lines, with the
+          // way past it (a clinician's override) in the same box.
+          <div
+            className={`flex min-h-16 flex-1 flex-wrap items-center gap-x-3 gap-y-2 rounded-xl border-2 border-alarm-700 bg-alarm-50 px-4 py-2 ${isDropStep ? 'basis-full' : ''}`}
+          >
+            <p className="flex min-w-48 flex-1 items-center gap-2 font-medium text-paper-950">
+              <AlertIcon className="size-6 shrink-0 text-alarm-700" />
+              {primary.why}
+            </p>
+            {overrideHere && (
+              <Button variant="secondary" icon={<AlertIcon />} onClick={onOverride}>
+                Authorise UV override…
+              </Button>
+            )}
+          </div>
         ) : (
           <Button
-            className="min-h-16 min-w-64 flex-1 px-6 text-2xl"
+            variant={isDropStep ? 'secondary' : 'primary'}
+            className={
+              isDropStep
+                ? 'min-h-16 min-w-36 flex-1 px-4'
+                : 'min-h-16 min-w-64 flex-1 px-6 text-2xl'
+            }
             icon={primaryIcon}
             onClick={pressPrimary}
           >
-            {primary.label}
-          </Button>
-        )}
-        {isDropStep && current && (
-          <Button
-            variant="secondary"
-            className="min-h-16 min-w-52 px-6 text-2xl"
-            icon={<DropletIcon className="size-8" />}
-            onClick={() => onRecord([{ type: 'drop-given', stepId: current.id }])}
-          >
-            Drop given
+            <span className={isDropStep ? 'text-xl' : 'text-2xl'}>{primary.label}</span>
           </Button>
         )}
         {canPause && current && (
           <Button
             variant="secondary"
-            className="min-h-16 px-6 text-xl"
+            className="min-h-16 px-4 text-xl"
             icon={
               current.paused ? (
                 <StartCircleIcon className="size-7" />
@@ -234,14 +307,14 @@ export function StepActions({
         )}
       </div>
 
-      {(thin || uvInstead || leftOfLastS > 0.5 || facts.exposureMissing) && (
+      {((thin && !overrideHere) || uvInstead || leftOfLastS > 0.5 || facts.exposureMissing) && (
         <div className="flex flex-wrap gap-3">
           {facts.exposureMissing && (
             <Button icon={<AlertIcon />} onClick={onEnterExposure}>
               Enter the laser’s exposure…
             </Button>
           )}
-          {thin && facts.overrideReason === null && (
+          {thin && facts.overrideReason === null && !overrideHere && (
             <Button variant="secondary" icon={<AlertIcon />} onClick={onOverride}>
               Authorise UV below the minimum…
             </Button>
@@ -251,7 +324,7 @@ export function StepActions({
               variant="secondary"
               icon={<StartCircleIcon />}
               onClick={() =>
-                onRecord([
+                startStep(uvInstead.id, [
                   ...(current ? [{ type: 'step-ended' as const, stepId: current.id }] : []),
                   { type: 'step-started', stepId: uvInstead.id },
                 ])
@@ -271,6 +344,48 @@ export function StepActions({
           )}
         </div>
       )}
+
+      {identityFor && (
+        <IdentityConfirmationDialog
+          open
+          order={order}
+          what={identityFor.what}
+          onDismiss={() => setIdentityFor(null)}
+          onConfirm={() => {
+            const { stepId, bodies } = identityFor;
+            setIdentityFor(null);
+            onRecord([
+              {
+                type: 'identity-confirmed',
+                stepId,
+                checks: { patientName: true, dateOfBirth: true, treatmentEye: true },
+              },
+              ...bodies,
+            ]);
+          }}
+        />
+      )}
+      <ReasonDialog
+        open={shortEnd !== null}
+        onDismiss={() => setShortEnd(null)}
+        title={`End the ${shortEnd?.name ?? 'step'} early?`}
+        description={
+          shortEnd
+            ? `The ${shortEnd.name} has run ${formatElapsed(shortEnd.ranS)} of ${formatElapsed(shortEnd.durationS)}. Ending it now is recorded as short, with your reason, for the auditor. To carry on instead, go back.`
+            : ''
+        }
+        fieldLabel={`Why does the ${shortEnd?.name ?? 'step'} end early?`}
+        confirmLabel={`End ${shortEnd?.name ?? 'step'} early`}
+        confirmIcon={<EndStepIcon />}
+        draftKey={`short-end.${orderId}`}
+        danger
+        onConfirm={(reason) => {
+          if (!shortEnd) return;
+          setShortEnd(null);
+          onRecord([{ type: 'step-ended', stepId: shortEnd.stepId, reason }], shortEnd.atMs);
+          if (shortEnd.isLight) onEnterExposure();
+        }}
+      />
     </div>
   );
 }
@@ -308,14 +423,15 @@ function ThicknessEntry({
   return (
     <div className="flex flex-col gap-1 rounded-xl border border-paper-300 bg-paper-100 px-4 py-2">
       <form
-        className="flex flex-wrap items-end gap-3"
+        className="flex flex-wrap items-center gap-x-3 gap-y-1"
         onSubmit={(event) => {
           event.preventDefault();
           submit();
         }}
       >
-        <div className="flex flex-col gap-1">
-          <label htmlFor={id} className="font-medium text-paper-900">
+        {/* Label beside the field and the last reading on one line below: one short block on a tablet. */}
+        <div className="flex items-center gap-2">
+          <label htmlFor={id} className="max-w-36 text-sm leading-tight font-medium text-paper-900">
             Thinnest stromal thickness (µm)
           </label>
           <input
@@ -326,7 +442,7 @@ function ThicknessEntry({
             aria-invalid={error ? true : undefined}
             aria-describedby={error ? `${id}-error` : undefined}
             onChange={(event) => setText(event.target.value)}
-            className={`numerals-steady min-h-tap w-36 rounded-lg border bg-white px-3 py-1.5 text-2xl text-paper-950 ${error ? 'border-2 border-alarm-700' : 'border-paper-500'}`}
+            className={`numerals-steady min-h-tap w-28 rounded-lg border bg-white px-3 py-1.5 text-2xl text-paper-950 ${error ? 'border-2 border-alarm-700' : 'border-paper-500'}`}
           />
         </div>
         <Button
@@ -337,9 +453,9 @@ function ThicknessEntry({
         >
           Record reading
         </Button>
-        <div className="min-w-48 flex-1 pb-1 text-paper-950">
+        <div className="min-w-0 basis-full text-paper-950">
           {last ? (
-            <p className="flex items-start gap-1.5 text-lg leading-snug">
+            <p className="flex items-start gap-1.5 text-base leading-snug">
               {last.thicknessUm >= minimumUm ? (
                 <CheckCircleIcon className="mt-0.5 size-6" />
               ) : (

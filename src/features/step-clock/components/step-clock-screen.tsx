@@ -14,6 +14,7 @@ import {
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
 import { describeError } from '../../../lib/api-client';
+import { formatCalendarFigures } from '../../../lib/unit-times';
 import { stepClockQueries } from '../api/step-clock-queries';
 import { useAnnouncer } from '../hooks/use-announcer';
 import { useNowMs } from '../hooks/use-now-ms';
@@ -139,14 +140,23 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
       <header className="flex flex-wrap items-center gap-x-5 gap-y-1 border-b border-paper-200 pb-2">
         <EyeBadge eye={data.eye} />
         <div className="min-w-0 flex-1">
-          <h1
-            tabIndex={-1}
-            data-page-heading
-            className="truncate text-xl font-semibold text-paper-950"
-          >
-            <span className="sr-only">Step clock: </span>
-            {patientName}
-          </h1>
+          <div className="flex min-w-0 flex-wrap items-baseline gap-x-3">
+            <h1
+              tabIndex={-1}
+              data-page-heading
+              className="truncate text-xl font-semibold text-paper-950"
+            >
+              <span className="sr-only">Step clock: </span>
+              {patientName}
+            </h1>
+            {/* The identity checks ask for it, so it is read here as the wristband writes it. */}
+            <p className="shrink-0 text-lg text-paper-950">
+              Date of birth{' '}
+              <strong className="numerals-steady font-semibold">
+                {formatCalendarFigures(data.patient.dateOfBirth)}
+              </strong>
+            </p>
+          </div>
           <p className="truncate text-sm text-paper-700">
             Record {data.patient.recordNumber} · {data.protocol.title} (version{' '}
             {data.protocol.version}) · order {data.id}
