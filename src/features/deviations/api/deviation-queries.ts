@@ -1,10 +1,9 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { AuditFilter } from '../../../../shared/schemas/reviews';
-import { getProtocolChoices } from '../../../lib/get-protocol-choices';
+import { orderQuery } from '../../../lib/queries/orders';
+import { protocolListQuery, protocolVersionQuery } from '../../../lib/queries/protocols';
 import { getDeviation } from './get-deviation';
 import { getDeviations } from './get-deviations';
-import { getProtocolSteps } from './get-protocol-steps';
-import { getTreatmentOrder } from './get-treatment-order';
 
 /** The deviations feature's query keys and options, general → specific. */
 export const deviationQueries = {
@@ -24,22 +23,12 @@ export const deviationQueries = {
       queryFn: ({ signal }) => getDeviation(id, { signal }),
     }),
 
-  /** What the review screens read from other parts of the API, kept under this feature's keys. */
-  order: (orderId: number) =>
-    queryOptions({
-      queryKey: [...deviationQueries.all(), 'order', orderId] as const,
-      queryFn: ({ signal }) => getTreatmentOrder(orderId, { signal }),
-    }),
-  protocolChoices: () =>
-    queryOptions({
-      queryKey: [...deviationQueries.all(), 'protocol-choices'] as const,
-      queryFn: ({ signal }) => getProtocolChoices({ signal }),
-      staleTime: 5 * 60_000,
-    }),
+  /** What the review screens read from other resources: their one cache in src/lib/queries. */
+  order: orderQuery,
+  protocolChoices: () => queryOptions({ ...protocolListQuery(), staleTime: 5 * 60_000 }),
   protocolSteps: (key: string, version: number) =>
     queryOptions({
-      queryKey: [...deviationQueries.all(), 'protocol-steps', key, version] as const,
-      queryFn: ({ signal }) => getProtocolSteps(key, version, { signal }),
+      ...protocolVersionQuery({ key, version }),
       // An approved version never changes.
       staleTime: Infinity,
     }),

@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import { orderDetailSchema } from '../../../../shared/schemas/orders';
 import { eyes } from '../../../../shared/schemas/patients';
 import { reviewClassifications, reviewStatuses } from '../../../../shared/schemas/reviews';
 import { deviationSeverities } from '../../../../shared/session/session-events';
@@ -120,7 +119,5 @@ export const deviationDetailSchema = z.object({
   canReview: z.boolean(),
 });
 export type DeviationDetail = z.infer<typeof deviationDetailSchema>;
-
-export const orderResponseSchema = z.object({ order: orderDetailSchema });
 
 /** Only what the review reads from a protocol version: its steps (names, durations) and the CXL thickness minimum. */

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { signOrder } from '../api/sign-order';
-import { refreshAfterOrderChange } from './use-save-order';
+import { refreshAfterOrderChange } from '../../../lib/queries/orders';
 
 export function useSignOrder() {
   const queryClient = useQueryClient();

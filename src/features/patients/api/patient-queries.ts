@@ -1,22 +1,10 @@
-import { keepPreviousData, queryOptions } from '@tanstack/react-query';
-import { getPatientHistory } from './get-patient-history';
-import { searchPatients } from './search-patients';
+import { patientKeys, patientQuery, patientSearchQuery } from '../../../lib/queries/patients';
 
-/** The patients feature's query keys and options, general → specific. */
+/** The patients feature's queries: the one patient cache (src/lib/queries/patients.ts). */
 export const patientQueries = {
-  all: () => ['patients'] as const,
-  searches: () => [...patientQueries.all(), 'search'] as const,
-  search: (text: string) =>
-    queryOptions({
-      queryKey: [...patientQueries.searches(), text.trim()] as const,
-      queryFn: ({ signal }) => searchPatients(text, { signal }),
-      // The previous results stay on screen while the next letters are looked up.
-      placeholderData: keepPreviousData,
-    }),
-  histories: () => [...patientQueries.all(), 'history'] as const,
-  history: (id: number) =>
-    queryOptions({
-      queryKey: [...patientQueries.histories(), id] as const,
-      queryFn: ({ signal }) => getPatientHistory(id, { signal }),
-    }),
+  all: patientKeys.all,
+  searches: patientKeys.searches,
+  search: patientSearchQuery,
+  histories: patientKeys.details,
+  history: patientQuery,
 };

@@ -12,10 +12,3 @@ export const trendMonthSchema = z.object({
 export type TrendMonth = z.infer<typeof trendMonthSchema>;
 
 export const trendsResponseSchema = z.object({ months: z.array(trendMonthSchema) });
-
-export const protocolChoicesSchema = z.object({
-  protocols: z.array(
-    z.object({ key: z.string(), kind: z.enum(['pdt', 'cxl']), title: z.string() }),
-  ),
-});
-export type ProtocolChoice = z.infer<typeof protocolChoicesSchema>['protocols'][number];
