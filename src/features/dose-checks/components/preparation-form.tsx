@@ -1,3 +1,4 @@
+import { useServerNowMs } from '../../../lib/server-now';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { DateTime } from 'luxon';
 import { useForm } from 'react-hook-form';
@@ -87,8 +88,10 @@ type PreparationFormProps = {
 
 export function PreparationForm({ order, plan, protocol, clockOffsetMs }: PreparationFormProps) {
   const record = useRecordPreparation();
-  const serverNow = () => DateTime.fromMillis(Date.now() + clockOffsetMs, { zone: unitTimeZone });
-  const nowText = () => serverNow().toFormat(localMinuteFormat);
+  // The server's time, read each second for what is shown; a press reads the clock again.
+  const serverNowMs = useServerNowMs(clockOffsetMs);
+  const serverTime = (atMs: number) => DateTime.fromMillis(atMs, { zone: unitTimeZone });
+  const nowText = (atMs: number) => serverTime(atMs).toFormat(localMinuteFormat);
   const {
     register,
     handleSubmit,
@@ -100,7 +103,12 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
     formState: { errors },
   } = useForm<PreparationFormInput, unknown, PreparationEntry>({
     resolver: zodResolver(preparationFormSchema),
-    defaultValues: { vialLot: '', vialExpiry: '', reconstitutedAt: nowText(), volumeDrawnMl: '' },
+    defaultValues: {
+      vialLot: '',
+      vialExpiry: '',
+      reconstitutedAt: nowText(serverNowMs),
+      volumeDrawnMl: '',
+    },
   });
   const draftKeeper = useFormDraft(
     `preparation.${order.id}`,
@@ -204,7 +212,7 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
           label="Vial expiry"
           type="date"
           hint="Today or later."
-          min={serverNow().toISODate()!}
+          min={serverTime(serverNowMs).toISODate()!}
           error={readableMessage(errors.vialExpiry?.message, labels)}
           {...register('vialExpiry')}
         />
@@ -221,7 +229,11 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
             size="sm"
             className="self-start"
             icon={<ClockIcon className="size-4" />}
-            onClick={() => setValue('reconstitutedAt', nowText(), { shouldDirty: true })}
+            onClick={() =>
+              setValue('reconstitutedAt', nowText(Date.now() + clockOffsetMs), {
+                shouldDirty: true,
+              })
+            }
           >
             Set to now
           </Button>
