@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
-import { useEffect, useMemo, useRef, useState } from 'react';
-import { Controller, useForm, useWatch } from 'react-hook-form';
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
+import { Controller, useForm, useWatch, type Resolver } from 'react-hook-form';
 import { bsaFormulaNames, bsaFormulas } from '../../../../shared/engine/bsa';
 import { signatureProblems } from '../../../../shared/orders/readiness';
 import { weightChangeMessage } from '../../../../shared/orders/weight-change';
@@ -107,7 +107,13 @@ export function OrderForm({
   onSaved,
 }: OrderFormProps) {
   const save = useSaveOrder();
+  // The resolver reads the protocol and warnings as they are now, not as they were at mount: they
+  // are worked out below from the values, after the form exists, and kept here once rendered.
   const contextRef = useRef<OrderFormContext>({ mode, definition: null, warnedFields: null });
+  const resolver = useCallback<Resolver<OrderFormValues, OrderFormContext>>(
+    (formValues, _context, options) => orderFormResolver(formValues, contextRef.current, options),
+    [],
+  );
   const {
     register,
     control,
@@ -121,9 +127,7 @@ export function OrderForm({
     formState: { errors, isSubmitted },
   } = useForm<OrderFormValues, OrderFormContext>({
     defaultValues: initialValues,
-    resolver: orderFormResolver,
-    // The resolver reads the protocol and warnings as they are now, not as they were at mount.
-    context: contextRef.current,
+    resolver,
     reValidateMode: 'onChange',
     shouldFocusError: true,
   });
@@ -189,9 +193,17 @@ export function OrderForm({
     );
   }, [preview, source]);
 
-  contextRef.current.definition = definition;
-  contextRef.current.warnedFields =
-    preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null;
+  const warnedFields = useMemo(
+    () => (preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null),
+    [preview.state, source, softLimitWarnings],
+  );
+  const formContext = useMemo<OrderFormContext>(
+    () => ({ mode, definition, warnedFields }),
+    [mode, definition, warnedFields],
+  );
+  useLayoutEffect(() => {
+    contextRef.current = formContext;
+  }, [formContext]);
 
   // Problems the engine finds with what is typed: beside the field when something is typed there,
   // otherwise in the preview's list of what is still needed.
@@ -216,7 +228,7 @@ export function OrderForm({
 
   const readiness = useMemo(() => {
     if (!definition || preview.state !== 'ready') return null;
-    const draft = checkOrderForm(values, { ...contextRef.current, warnedFields: null }).draft;
+    const draft = checkOrderForm(values, { ...formContext, warnedFields: null }).draft;
     const problems = signatureProblems({
       definition,
       plan: preview.plan,
@@ -231,10 +243,10 @@ export function OrderForm({
     if (retreatmentWarning && !draft.retreatmentReason)
       problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
     return problems;
-  }, [definition, preview, values, retreatmentWarning, last.weightChange]);
+  }, [definition, formContext, preview, values, retreatmentWarning, last.weightChange]);
 
   const onSubmit = handleSubmit((formValues) => {
-    const { draft } = checkOrderForm(formValues, contextRef.current);
+    const { draft } = checkOrderForm(formValues, formContext);
     const request =
       mode === 'new'
         ? { mode, draft: draft as OrderDraft }

@@ -1,5 +1,12 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { useCallback, useEffect, useMemo, useRef, useSyncExternalStore } from 'react';
+import {
+  useCallback,
+  useEffect,
+  useLayoutEffect,
+  useMemo,
+  useRef,
+  useSyncExternalStore,
+} from 'react';
 import type { SessionEventLike } from '../../../../shared/session/dose-record';
 import type { SessionEventInput } from '../../../../shared/session/session-events';
 import { refreshAfterOrderChange } from '../../../lib/queries/orders';
@@ -92,11 +99,15 @@ export function useSessionEvents(orderId: number, { records }: { records: boolea
     return [...stored, ...local];
   }, [session.data, kept]);
 
-  const latestEventMs = useRef(0);
-  latestEventMs.current = events.reduce(
-    (latest, event) => Math.max(latest, Date.parse(event.clientTime) || 0),
-    0,
+  const latestOfEvents = useMemo(
+    () => events.reduce((latest, event) => Math.max(latest, Date.parse(event.clientTime) || 0), 0),
+    [events],
   );
+  // Read when a tap is recorded (outside render); kept in step with the events once rendered.
+  const latestEventMs = useRef(0);
+  useLayoutEffect(() => {
+    latestEventMs.current = latestOfEvents;
+  }, [latestOfEvents]);
 
   /**
    * Records one tap (several events made by one tap get times a millisecond apart, so they sort

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { TextField } from '../../../components/ui/text-field';
 import { monthPattern } from '../hooks/use-trend-params';
 
@@ -19,10 +19,13 @@ export function MonthField({ label, value, min, max, error, onChange }: MonthFie
   const [text, setText] = useState(value ?? '');
   const [problem, setProblem] = useState<string | undefined>();
 
-  useEffect(() => {
+  // A new value from outside (a reset filter, a link) replaces what is typed.
+  const [shownValue, setShownValue] = useState(value);
+  if (shownValue !== value) {
+    setShownValue(value);
     setText(value ?? '');
     setProblem(undefined);
-  }, [value]);
+  }
 
   return (
     <TextField
