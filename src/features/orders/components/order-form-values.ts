@@ -2,7 +2,9 @@ import type { FieldError, FieldErrors, Resolver } from 'react-hook-form';
 import type { z } from 'zod';
 import { bsaFormulaNames, type BsaFormulaName } from '../../../../shared/engine/bsa';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
-import type { PlanInputs } from '../../../../shared/schemas/calculation';
+import { signatureProblems } from '../../../../shared/orders/readiness';
+import type { WeightChange } from '../../../../shared/orders/weight-change';
+import type { DosePlan, PlanInputs } from '../../../../shared/schemas/calculation';
 import {
   amendOrderSchema,
   orderDraftSchema,
@@ -409,6 +411,38 @@ export function checkOrderForm(
     }
   }
   return { draft, problems, unplaced };
+}
+
+/**
+ * What still stands between the form and a signature, in words, once the plan is worked out: the
+ * shared readiness rules (shared/orders/readiness.ts) over what is typed, reasons not yet tied to
+ * a warning included, plus a retreatment reason when the server warned of a recent treatment.
+ */
+export function formReadiness(
+  values: OrderFormValues,
+  context: OrderFormContext,
+  plan: DosePlan,
+  {
+    weightChange,
+    retreatmentWarning,
+  }: { weightChange: WeightChange | null; retreatmentWarning?: { message: string } },
+): string[] {
+  if (!context.definition) return [];
+  const { draft } = checkOrderForm(values, { ...context, warnedFields: null });
+  const problems = signatureProblems({
+    definition: context.definition,
+    plan,
+    checklist: draft.checklist,
+    softLimitReasons: draft.softLimitReasons,
+    retreatmentReason: draft.retreatmentReason ?? null,
+    recentTreatmentDays: null,
+    weightChange,
+    weightChangeReason: draft.weightChangeReason ?? null,
+    swellingAcknowledged: draft.swellingAcknowledged ?? false,
+  }).map((p) => p.message);
+  if (retreatmentWarning && !draft.retreatmentReason)
+    problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
+  return problems;
 }
 
 /** react-hook-form resolver: the same checks, with each problem beside its own field. */

@@ -2,7 +2,6 @@ import { useQuery } from '@tanstack/react-query';
 import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import { Controller, useForm, useWatch, type Resolver } from 'react-hook-form';
 import { bsaFormulaNames, bsaFormulas } from '../../../../shared/engine/bsa';
-import { signatureProblems } from '../../../../shared/orders/readiness';
 import { weightChangeMessage } from '../../../../shared/orders/weight-change';
 import type { InputLimit } from '../../../../shared/protocol/protocol-schema';
 import type { AmendOrder, OrderDetail, OrderDraft } from '../../../../shared/schemas/orders';
@@ -24,6 +23,7 @@ import {
   formFieldFor,
   formToInputs,
   messageLabels,
+  formReadiness,
   orderFormResolver,
   parseProtocolRef,
   protocolRefOf,
@@ -228,21 +228,10 @@ export function OrderForm({
 
   const readiness = useMemo(() => {
     if (!definition || preview.state !== 'ready') return null;
-    const draft = checkOrderForm(values, { ...formContext, warnedFields: null }).draft;
-    const problems = signatureProblems({
-      definition,
-      plan: preview.plan,
-      checklist: draft.checklist,
-      softLimitReasons: draft.softLimitReasons,
-      retreatmentReason: draft.retreatmentReason ?? null,
-      recentTreatmentDays: null,
+    return formReadiness(values, formContext, preview.plan, {
       weightChange: last.weightChange,
-      weightChangeReason: draft.weightChangeReason ?? null,
-      swellingAcknowledged: draft.swellingAcknowledged ?? false,
-    }).map((p) => p.message);
-    if (retreatmentWarning && !draft.retreatmentReason)
-      problems.push(`${retreatmentWarning.message} Give a retreatment reason.`);
-    return problems;
+      retreatmentWarning,
+    });
   }, [definition, formContext, preview, values, retreatmentWarning, last.weightChange]);
 
   const onSubmit = handleSubmit((formValues) => {
