@@ -78,13 +78,14 @@ export const orderQuery = (id: number) =>
  * After any change to an order: the saved copy is known (when the answer carries it), and
  * everything that shows its status may have moved: the order lists, Today (and the pharmacist's
  * part of it), the patient's history and the session. `alsoChanged` are orders the change touched
- * too (the revision an amendment supersedes).
+ * too (the revision an amendment supersedes). Nothing here is waited for: a mutation's own
+ * callbacks run at once, before the screen that started it re-renders without it.
  */
 export function refreshAfterOrderChange(
   queryClient: QueryClient,
   order: OrderDetail | { id: number },
   alsoChanged: number[] = [],
-) {
+): void {
   if ('status' in order) queryClient.setQueryData(orderKeys.detail(order.id), order);
   else void queryClient.invalidateQueries({ queryKey: orderKeys.detail(order.id) });
   for (const id of alsoChanged) {
@@ -92,12 +93,10 @@ export function refreshAfterOrderChange(
     void queryClient.invalidateQueries({ queryKey: sessionKeys.detail(id) });
   }
   const patientId = 'patient' in order ? order.patient.id : null;
-  return Promise.all([
-    queryClient.invalidateQueries({ queryKey: orderKeys.lists() }),
-    queryClient.invalidateQueries({ queryKey: todayKeys.all() }),
-    queryClient.invalidateQueries({ queryKey: sessionKeys.detail(order.id) }),
-    queryClient.invalidateQueries({
-      queryKey: patientId === null ? patientKeys.details() : patientKeys.detail(patientId),
-    }),
-  ]);
+  void queryClient.invalidateQueries({ queryKey: orderKeys.lists() });
+  void queryClient.invalidateQueries({ queryKey: todayKeys.all() });
+  void queryClient.invalidateQueries({ queryKey: sessionKeys.detail(order.id) });
+  void queryClient.invalidateQueries({
+    queryKey: patientId === null ? patientKeys.details() : patientKeys.detail(patientId),
+  });
 }

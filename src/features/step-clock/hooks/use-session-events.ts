@@ -78,7 +78,7 @@ export function useSessionEvents(orderId: number, { records }: { records: boolea
       if (merged) queryClient.setQueryData(queryKey, merged.state);
       // A tap that moved the order (started, ended, stopped) changes what the order's screens show.
       if (current && answer.status !== current.status)
-        void refreshAfterOrderChange(queryClient, { id: orderId });
+        refreshAfterOrderChange(queryClient, { id: orderId });
       // Nothing loaded yet, or another tablet stored events this one has not seen: fetch them all.
       if (!merged?.complete) void queryClient.invalidateQueries({ queryKey });
     });
