@@ -1,13 +1,13 @@
 import { z } from 'zod';
-import { eyes } from '../../../../shared/schemas/patients';
-import { reviewClassifications, reviewStatuses } from '../../../../shared/schemas/reviews';
-import { deviationSeverities } from '../../../../shared/session/session-events';
+import { eyes } from '../../../shared/schemas/patients';
+import { reviewClassifications, reviewStatuses } from '../../../shared/schemas/reviews';
+import { deviationSeverities } from '../../../shared/session/session-events';
 import {
   givenRecordSchema,
   protocolStepsSchema,
   type GivenRecord,
   type ProtocolSteps,
-} from '../../../lib/session-record-schemas';
+} from '../session-record-schemas';
 
 export { protocolStepsSchema };
 export type { GivenRecord, ProtocolSteps };
