@@ -1,5 +1,8 @@
+import { queryOptions } from '@tanstack/react-query';
 import { z } from 'zod';
-import { api } from '../../../lib/api-client';
+import { api } from '../api-client';
+
+/** One cache for the outbox: the e-mails waiting, sent or failed (the admin's screen). */
 
 export const outboxStatuses = ['pending', 'sent', 'failed'] as const;
 export type OutboxStatus = (typeof outboxStatuses)[number];
@@ -27,3 +30,14 @@ export async function getOutboxMessages({ signal }: { signal?: AbortSignal } = {
   const { messages } = await api.get('/outbox', { schema: outboxResponseSchema, signal });
   return messages;
 }
+
+export const outboxKeys = {
+  all: () => ['outbox'] as const,
+  lists: () => [...outboxKeys.all(), 'list'] as const,
+};
+
+export const outboxListQuery = () =>
+  queryOptions({
+    queryKey: outboxKeys.lists(),
+    queryFn: ({ signal }) => getOutboxMessages({ signal }),
+  });
