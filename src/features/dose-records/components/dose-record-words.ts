@@ -1,31 +1,4 @@
-import type { DeviationSeverity, DeviationType } from '../../../../shared/session/session-events';
-
 export const eyeWords = { right: 'Right eye', left: 'Left eye' } as const;
 export const outcomeWords = { completed: 'Completed', stopped: 'Stopped early' } as const;
 export const kindWords = { pdt: 'PDT', cxl: 'CXL' } as const;
-export const severityWords: Record<DeviationSeverity, string> = {
-  minor: 'Minor',
-  major: 'Major',
-  critical: 'Critical',
-};
-
-const deviationTypeWords: Record<DeviationType, string> = {
-  'infusion-duration': 'Infusion time off plan',
-  'light-start-window': 'Light started outside its window',
-  'exposure-time': 'Light exposure time off plan',
-  'delivered-fluence': 'Delivered fluence off plan',
-  'beyond-use': 'Drug used after its beyond-use time',
-  'reconstitution-to-infusion': 'Too long from reconstitution to infusion',
-  'light-without-infusion': 'Light with no infusion start on record',
-  'soak-short': 'Riboflavin soak too short',
-  'drop-gap': 'Too long between drops',
-  'uv-below-thickness': 'UV given below the minimum thickness',
-  'thickness-override': 'Thickness minimum overridden',
-  extravasation: 'Extravasation',
-  'stopped-early': 'Session stopped early',
-  'contraindication-override': 'Contraindication overridden',
-};
-
-export function typeWords(type: string): string {
-  return (deviationTypeWords as Record<string, string>)[type] ?? type;
-}
+export { severityWords, typeWords } from '../../../lib/deviation-words';
