@@ -9,7 +9,7 @@ import {
 } from './deviation-schemas';
 import { refreshAfterOrderChange } from './orders';
 import type { Fetching } from './request';
-import { segment } from './request';
+import { searchOf, segment } from './request';
 
 /*
  * One cache for deviations under review: the queue (filtered pages) and each deviation with its
@@ -25,13 +25,7 @@ export const deviationKeys = {
 };
 
 /** The filter as URL search parameters; empty values are left out. */
-export function deviationSearch(filter: Partial<AuditFilter>): string {
-  const search = new URLSearchParams();
-  for (const [key, value] of Object.entries(filter)) {
-    if (value !== undefined && value !== '') search.set(key, String(value));
-  }
-  return search.toString();
-}
+export const deviationSearch = (filter: Partial<AuditFilter>): string => searchOf(filter);
 
 /** One page of the queue, filtered, sorted and paged by the server. */
 export async function getDeviations(

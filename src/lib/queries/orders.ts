@@ -9,7 +9,7 @@ import {
 import { api } from '../api-client';
 import { patientKeys } from './patients';
 import type { Fetching } from './request';
-import { segment } from './request';
+import { searchOf, segment } from './request';
 import { sessionKeys } from './sessions';
 import { todayKeys } from './today';
 
@@ -38,13 +38,7 @@ export const orderKeys = {
   detail: (id: number) => [...orderKeys.details(), id] as const,
 };
 
-export function orderListSearch(query: OrderListQuery): string {
-  const search = new URLSearchParams();
-  for (const [key, value] of Object.entries(query)) {
-    if (value !== undefined && value !== '') search.set(key, String(value));
-  }
-  return search.toString();
-}
+export const orderListSearch = (query: OrderListQuery): string => searchOf(query);
 
 /** One page of orders, filtered and sorted by the server. */
 export function getOrders(query: OrderListQuery, { signal }: Fetching = {}) {
