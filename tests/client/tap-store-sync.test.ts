@@ -28,7 +28,7 @@ async function loadPage() {
 }
 
 const untilReady = async (store: { ready: () => boolean }) => {
-  await vi.waitFor(() => expect(store.ready()).toBe(true));
+  await vi.waitFor(() => expect(store.ready()).toBe(true), { timeout: 5_000 });
 };
 const settle = () => new Promise((resolve) => setTimeout(resolve, 60));
 
@@ -90,8 +90,9 @@ describe('kept taps and their sender', () => {
     store.add([tap(3)]);
     sync.pump();
     sync.pump();
-    await vi.waitFor(() =>
-      expect(store.taps().every((kept) => kept.state === 'stored')).toBe(true),
+    await vi.waitFor(
+      () => expect(store.taps().every((kept) => kept.state === 'stored')).toBe(true),
+      { timeout: 5_000 },
     );
     expect(sent).toEqual([keyOf(1), keyOf(2), keyOf(3)]);
   });
@@ -114,8 +115,9 @@ describe('kept taps and their sender', () => {
     await untilReady(store);
     expect(store.taps().map((kept) => kept.key)).toEqual([keyOf(4), keyOf(5), keyOf(6)]);
     page.eventSyncFor(5102, store).pump();
-    await vi.waitFor(() =>
-      expect(store.taps().every((kept) => kept.state === 'stored')).toBe(true),
+    await vi.waitFor(
+      () => expect(store.taps().every((kept) => kept.state === 'stored')).toBe(true),
+      { timeout: 5_000 },
     );
     expect(sent).toEqual([keyOf(4), keyOf(5), keyOf(6)]);
   });
@@ -129,8 +131,9 @@ describe('kept taps and their sender', () => {
     const sync = page.eventSyncFor(5103, store);
     store.add([tap(7), tap(8)]);
     sync.pump();
-    await vi.waitFor(() =>
-      expect(store.taps().map((kept) => kept.state)).toEqual(['stored', 'stored']),
+    await vi.waitFor(
+      () => expect(store.taps().map((kept) => kept.state)).toEqual(['stored', 'stored']),
+      { timeout: 5_000 },
     );
     // The order's screen (not the step clock) reads the session through the one session query.
     await page.getSession(5103);
