@@ -2,12 +2,14 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { ErrorBoundary } from '../components/ui/error-boundary';
 import { authQueries } from '../features/auth/api/auth-queries';
-import { stepClockQueries } from '../features/step-clock/api/step-clock-queries';
 import { setUnauthorizedHandler } from '../lib/api-client';
 import { setCurrentPersonId } from '../lib/current-person';
 import { clearOfflineCopies } from '../lib/offline-cache';
 import { rememberWhySessionEnded } from '../lib/session-ended';
 import { queryClient } from '../lib/query-client';
+import { orderKeys, orderQuery } from '../lib/queries/orders';
+import { protocolKeys } from '../lib/queries/protocols';
+import { sessionKeys } from '../lib/queries/sessions';
 import { CrashScreen } from './crash-screen';
 import { registerSignOutSteps } from './sign-out-steps';
 
@@ -24,11 +26,24 @@ setUnauthorizedHandler((error) => {
   void clearOfflineCopies();
 });
 
-// Answers fetched before the service worker took over were not kept by it. The step clock's (and
-// who is signed in) are asked for again through it, so a first visit is enough to reopen the
+// Answers fetched before the service worker took over were not kept by it. The step clock's (the
+// sessions, their orders and protocol versions, and who is signed in) are asked for again through it, so a first visit is enough to reopen the
 // clock without network. Only these: refetching a screen with a half-typed form could reset it.
 globalThis.navigator?.serviceWorker?.addEventListener('controllerchange', () => {
-  void queryClient.invalidateQueries({ queryKey: stepClockQueries.all() });
+  const sessionOrders = queryClient
+    .getQueriesData({ queryKey: sessionKeys.all() })
+    .map(([queryKey]) => queryKey[1]);
+  void queryClient.invalidateQueries({ queryKey: sessionKeys.all() });
+  for (const orderId of sessionOrders) {
+    if (typeof orderId !== 'number') continue;
+    void queryClient.invalidateQueries({ queryKey: orderKeys.detail(orderId), exact: true });
+    const order = queryClient.getQueryData(orderQuery(orderId).queryKey);
+    if (order)
+      void queryClient.invalidateQueries({
+        queryKey: protocolKeys.version(order.protocol),
+        exact: true,
+      });
+  }
   void queryClient.invalidateQueries({ queryKey: authQueries.session().queryKey });
 });
 

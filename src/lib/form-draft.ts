@@ -1,4 +1,5 @@
-import { createContext, useCallback, useContext, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useLayoutEffect, useRef, useState } from 'react';
+import { useCurrentPersonId } from './current-person';
 
 /**
  * What a person has typed and not yet saved, kept in this browser so that a crash, a reload or a
@@ -23,9 +24,6 @@ export const draftLifetimeMs = 12 * 60 * 60 * 1000;
 const prefix = 'luxtempo.draft.';
 /** Where earlier releases kept drafts (this tab only); dropped with the rest on sign-out. */
 const legacyPrefixes = ['luxtempo.form-draft.', 'luxtempo.step-clock.draft.'];
-
-/** The signed-in person's id, provided by the authenticated layout. */
-export const DraftOwnerContext = createContext<number | null>(null);
 
 function browserStore(): Storage | null {
   try {
@@ -158,7 +156,9 @@ export function dropExpiredDrafts(nowMs = Date.now()): void {
  */
 function useDraftWriter<T>(key: string, ownerId: number | null, delayMs: number, basis?: unknown) {
   const basisRef = useRef(basis);
-  basisRef.current = basis;
+  useLayoutEffect(() => {
+    basisRef.current = basis;
+  }, [basis]);
   const pending = useRef<{ values: T } | null>(null);
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   const settled = useRef<string | null>(null);
@@ -226,8 +226,11 @@ function useOffer<T>(
     }
     return null;
   });
+  // Read by the form's watcher, which runs outside render; kept in step once each render commits.
   const offeredRef = useRef(offered);
-  offeredRef.current = offered;
+  useLayoutEffect(() => {
+    offeredRef.current = offered;
+  }, [offered]);
   return { offered, offeredRef, setOffered };
 }
 
@@ -246,11 +249,14 @@ export function useFormDraft<T>(
     onRestore?: (basis: unknown) => void;
   } = {},
 ): FormDraftControl<T> {
-  const ownerId = useContext(DraftOwnerContext);
+  const ownerId = useCurrentPersonId();
   const { offered, offeredRef, setOffered } = useOffer<T>(key, ownerId);
-  const settle = useRef(options.settle ?? ((raw: unknown) => raw as T)).current;
+  // The first settle function given is the one used, as the watcher subscribes once.
+  const [settle] = useState(() => options.settle ?? ((raw: unknown) => raw as T));
   const onRestore = useRef(options.onRestore);
-  onRestore.current = options.onRestore;
+  useLayoutEffect(() => {
+    onRestore.current = options.onRestore;
+  }, [options.onRestore]);
   const { schedule, clear: clearWriter } = useDraftWriter<T>(key, ownerId, 200, options.basis);
   const { watch, reset, getValues } = form;
 
@@ -286,11 +292,13 @@ export function useStateDraft<T>(
   setCurrent: (values: T) => void,
   differs: (values: T) => boolean,
 ): FormDraftControl<T> {
-  const ownerId = useContext(DraftOwnerContext);
+  const ownerId = useCurrentPersonId();
   const { offered, setOffered } = useOffer<T>(key, ownerId, differs);
   const { schedule, clear: clearWriter } = useDraftWriter<T>(key, ownerId, 200);
   const latest = useRef(current);
-  latest.current = current;
+  useLayoutEffect(() => {
+    latest.current = current;
+  }, [current]);
 
   useEffect(() => {
     if (offered) return;
@@ -318,8 +326,9 @@ export function useStateDraft<T>(
  * reasons on the way to a tap. A kept value of another shape than `initial` is not trusted.
  */
 export function useKeptState<T>(key: string, initial: T): [T, (next: T) => void, () => void] {
-  const ownerId = useContext(DraftOwnerContext);
-  const initialValue = useRef(initial).current;
+  const ownerId = useCurrentPersonId();
+  // The first `initial` given is the one a kept value is judged by and cleared back to.
+  const [initialValue] = useState(initial);
   const [value, setValue] = useState<T>(() => {
     const kept = readKeptDraft<unknown>(key, ownerId)?.values;
     if (

@@ -42,7 +42,7 @@ export type ReceiptDelay = z.infer<typeof receiptDelaySchema>;
 /** What was given, derived by the server from the session's events. */
 export const givenRecordSchema = z.object({
   kind: z.enum(['pdt', 'cxl']),
-  outcome: z.string(),
+  outcome: z.enum(['not-started', 'in-progress', 'completed', 'stopped']),
   sessionStartedAt: maybeTime,
   endedAt: maybeTime,
   stopReason: z.string().nullable().optional().default(null),

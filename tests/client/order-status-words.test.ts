@@ -5,6 +5,7 @@ import {
   orderStatusTable,
   orderStatusWords,
 } from '../../src/components/ui/order-status-words';
+import * as lifecycle from '../../shared/orders/lifecycle';
 import { orderStatuses } from '../../shared/schemas/orders';
 
 // The one table of what each order status is called and means, read by every status label and badge.
@@ -52,5 +53,20 @@ describe('the order status table', () => {
       'draft',
       'superseded',
     ]);
+  });
+
+  it('has words for every status the lifecycle names: each one moved from or to, and each group the screens read', () => {
+    const named = new Set<string>();
+    for (const [from, targets] of Object.entries(lifecycle.orderTransitions)) {
+      named.add(from);
+      for (const to of targets) named.add(to);
+    }
+    for (const group of Object.values(lifecycle))
+      if (Array.isArray(group)) for (const status of group) named.add(String(status));
+    for (const status of named) {
+      expect(Object.hasOwn(orderStatusTable, status), status).toBe(true);
+      expect(orderStatusWords(status as never).trim(), status).not.toBe('');
+    }
+    expect(named.size).toBe(orderStatuses.length);
   });
 });

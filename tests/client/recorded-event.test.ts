@@ -3,7 +3,8 @@ import {
   withRecordedEvent,
   type RecordedEventResponse,
   type SessionState,
-} from '../../src/features/step-clock/api/session-state-schema';
+} from '../../src/lib/queries/session-schema';
+import type { GivenRecord } from '../../src/lib/session-record-schemas';
 import type { SessionEvent } from '../../shared/session/session-events';
 
 // How the step clock folds one recorded event's answer into what the tablet shows. The figures
@@ -24,9 +25,26 @@ const stored = (
   stepId: 'riboflavin-soak',
 });
 
-const record = (soakDurationS: number) => ({
+const record = (soakDurationS: number): GivenRecord => ({
+  kind: 'cxl',
   outcome: 'in-progress',
+  sessionStartedAt: null,
+  endedAt: null,
   stopReason: null,
+  infusionStartAt: null,
+  infusionEndAt: null,
+  extravasationAt: null,
+  lightStartAt: null,
+  lightEndAt: null,
+  soakStartAt: null,
+  soakEndAt: null,
+  longestDropGapSoakS: null,
+  longestDropGapUvS: null,
+  thicknessOverrideReason: null,
+  uvStartAt: null,
+  uvEndAt: null,
+  withdrawnTaps: [],
+  receiptDelays: [],
   infusionDurationS: null,
   volumeGivenMl: null,
   lightStartAfterInfusionStartS: null,
@@ -52,6 +70,7 @@ const state = (events: SessionEvent[], soakS: number): SessionState => ({
   record: record(soakS),
   deviations: [],
   serverTime: new Date(startMs).toISOString(),
+  nurses: [],
 });
 const answer = (event: SessionEvent, eventCount: number, soakS: number): RecordedEventResponse => ({
   orderId: 4,

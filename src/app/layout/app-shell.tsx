@@ -2,7 +2,6 @@ import { useEffect, useRef } from 'react';
 import { Outlet, ScrollRestoration, useLocation } from 'react-router-dom';
 import type { SessionUser } from '../../../shared/schemas/auth';
 import { setCurrentPersonId } from '../../lib/current-person';
-import { DraftOwnerContext } from '../../lib/form-draft';
 import { AppHeader } from './app-header';
 import { MainNav } from './main-nav';
 import type { ShellContext } from './signed-in-user';
@@ -23,12 +22,13 @@ export function AppShell({ user }: { user: SessionUser }) {
     (heading ?? mainRef.current)?.focus();
   }, [pathname]);
 
-  // Set while rendering, before any screen's effect could queue or send work for the person.
+  // Set while rendering, before any screen's effect could queue or send work for the person, and
+  // before any form looks for the person's kept drafts (src/lib/current-person.ts).
   setCurrentPersonId(user.id);
   const context: ShellContext = { user };
 
   return (
-    <DraftOwnerContext value={user.id}>
+    <>
       <div className="flex min-h-dvh flex-col bg-paper-50">
         <a
           href="#main-content"
@@ -56,6 +56,6 @@ export function AppShell({ user }: { user: SessionUser }) {
         </div>
         <ScrollRestoration />
       </div>
-    </DraftOwnerContext>
+    </>
   );
 }

@@ -1,19 +1,7 @@
 import { useId } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { z } from 'zod';
-import { api } from '../../lib/api-client';
-import { roleLabels, roles } from '../../../shared/roles';
-
-const staffSchema = z.object({
-  staff: z.array(
-    z.object({
-      id: z.number(),
-      displayName: z.string(),
-      roles: z.array(z.enum(roles)),
-      active: z.boolean(),
-    }),
-  ),
-});
+import { staffQuery } from '../../lib/queries/people';
+import { roleLabels } from '../../../shared/roles';
 
 type StaffFieldProps = {
   /** "Staff member" and the sessions hint unless said. */
@@ -35,11 +23,7 @@ export function StaffField({
   error,
   onChange,
 }: StaffFieldProps) {
-  const staff = useQuery({
-    queryKey: ['staff'],
-    queryFn: ({ signal }) => api.get('/staff', { schema: staffSchema, signal }),
-    staleTime: 5 * 60_000,
-  });
+  const staff = useQuery(staffQuery());
   const id = useId();
   return (
     <div className="flex flex-col gap-1.5">

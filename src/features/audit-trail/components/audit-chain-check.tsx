@@ -40,8 +40,7 @@ export function AuditChainCheck() {
         )}
         {report?.ok && (
           <Alert tone="info" title="Intact">
-            All {report.checked} events match their hashes, and the chain
-            ends at the newest event.
+            All {report.checked} events match their hashes, and the chain ends at the newest event.
           </Alert>
         )}
         {report && !report.ok && (
@@ -53,8 +52,8 @@ export function AuditChainCheck() {
                 : 'The end of the chain does not match'
             }
           >
-            {report.reason} {report.checked} events before it are intact.
-            Tell the unit’s information governance lead and keep the latest backup.
+            {report.reason} {report.checked} events before it are intact. Tell the unit’s
+            information governance lead and keep the latest backup.
           </Alert>
         )}
       </div>

@@ -1,4 +1,4 @@
-import { useEffect, useState, type InputHTMLAttributes } from 'react';
+import { useState, type InputHTMLAttributes } from 'react';
 import { TextField } from '../../../components/ui/text-field';
 
 type CheckedTextFieldProps = Omit<
@@ -25,10 +25,13 @@ export function CheckedTextField({
   const [text, setText] = useState(value ?? '');
   const [problem, setProblem] = useState<string | null>(null);
 
-  useEffect(() => {
+  // A new value from outside (a reset filter, a link) replaces what is typed.
+  const [shownValue, setShownValue] = useState(value);
+  if (shownValue !== value) {
+    setShownValue(value);
     setText(value ?? '');
     setProblem(null);
-  }, [value]);
+  }
 
   return (
     <TextField

@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { isApiRequestError } from '../../../lib/api-client';
+import { refreshAfterReview } from '../../../lib/queries/deviations';
 import { deviationQueries } from '../api/deviation-queries';
 import { reopenDeviation } from '../api/reopen-deviation';
 
@@ -7,10 +8,8 @@ export function useReopenDeviation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: reopenDeviation,
-    onSuccess: (detail) => {
-      queryClient.setQueryData(deviationQueries.detail(detail.deviation.id).queryKey, detail);
-      return queryClient.invalidateQueries({ queryKey: deviationQueries.all() });
-    },
+    // The queue, the session's other deviations and the order's status all moved.
+    onSuccess: (detail) => refreshAfterReview(queryClient, detail),
     // Someone else changed it meanwhile (409): show it as it now stands.
     onError: (error, { id }) => {
       if (isApiRequestError(error) && error.status === 409)

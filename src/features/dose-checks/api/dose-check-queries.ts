@@ -1,28 +1,46 @@
 import { queryOptions } from '@tanstack/react-query';
-import { getOrder } from './get-order';
-import { getPharmacyWorklists } from './get-pharmacy-worklists';
-import { getProtocolDrug } from './get-protocol-drug';
+import { orderKeys, orderQuery } from '../../../lib/queries/orders';
+import { protocolVersionQuery } from '../../../lib/queries/protocols';
+import { todayQuery, type Today } from '../../../lib/queries/today';
+import { drugParameters } from './get-protocol-drug';
 
-/** The dose-checks feature's query keys and options, general → specific. */
+/** The pharmacist's part of Today: orders to check, to prepare, and already prepared. */
+export type PharmacyWorklists = {
+  waitingForCheck: Today['lists'][number]['orders'];
+  waitingForPreparation: Today['lists'][number]['orders'];
+  prepared: Today['lists'][number]['orders'];
+  /** Server clock minus this device's clock, in ms; countdowns add it to Date.now(). */
+  clockOffsetMs: number;
+};
+
+function pharmacyWorklists({ lists, clockOffsetMs }: Today): PharmacyWorklists {
+  const pick = (id: string) => lists.find((list) => list.id === id)?.orders ?? [];
+  return {
+    waitingForCheck: pick('pharmacist-checks'),
+    waitingForPreparation: pick('pharmacist-preparation'),
+    prepared: pick('pharmacist-prepared'),
+    clockOffsetMs,
+  };
+}
+
+/**
+ * The dose-checks feature's queries, composed from the one cache per resource in src/lib/queries:
+ * the worklists are the pharmacist's part of Today, the order is the one cached order.
+ */
 export const doseCheckQueries = {
-  all: () => ['dose-checks'] as const,
   worklists: () =>
     queryOptions({
-      queryKey: [...doseCheckQueries.all(), 'worklists'] as const,
-      queryFn: ({ signal }) => getPharmacyWorklists({ signal }),
+      ...todayQuery(),
+      select: pharmacyWorklists,
       // Orders arrive as clinicians sign them; the list keeps up without a reload.
       refetchInterval: 60_000,
     }),
-  orders: () => [...doseCheckQueries.all(), 'order'] as const,
-  order: (id: number) =>
-    queryOptions({
-      queryKey: [...doseCheckQueries.orders(), id] as const,
-      queryFn: ({ signal }) => getOrder(id, { signal }),
-    }),
+  orders: orderKeys.details,
+  order: orderQuery,
   protocolDrug: (key: string, version: number) =>
     queryOptions({
-      queryKey: [...doseCheckQueries.all(), 'protocol', key, version] as const,
-      queryFn: ({ signal }) => getProtocolDrug(key, version, { signal }),
+      ...protocolVersionQuery({ key, version }),
+      select: drugParameters,
       // An approved protocol version never changes.
       staleTime: Number.POSITIVE_INFINITY,
     }),

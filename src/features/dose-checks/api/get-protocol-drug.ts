@@ -1,10 +1,9 @@
 import { z } from 'zod';
 import { bsaFormulaNames } from '../../../../shared/engine/bsa';
-import { api } from '../../../lib/api-client';
 
 /**
- * The parts of a protocol version the pharmacist works from. Read loosely (unknown keys are
- * dropped) so this screen keeps working when the protocol file gains fields it does not show.
+ * The parts of a protocol version the pharmacist works from; unknown keys are dropped, so the
+ * screen sees only what it shows.
  */
 const drugParametersSchema = z.object({
   key: z.string(),
@@ -47,14 +46,7 @@ const drugParametersSchema = z.object({
 });
 export type ProtocolDrugParameters = z.infer<typeof drugParametersSchema>;
 
-const versionResponseSchema = z.object({ version: drugParametersSchema });
-
-export async function getProtocolDrug(
-  key: string,
-  version: number,
-  { signal }: { signal?: AbortSignal } = {},
-): Promise<ProtocolDrugParameters> {
-  const address = `/protocols/${encodeURIComponent(key)}/versions/${encodeURIComponent(String(version))}`;
-  const response = await api.get(address, { schema: versionResponseSchema, signal });
-  return response.version;
+/** The pharmacist's reading of a cached protocol version (src/lib/queries/protocols.ts). */
+export function drugParameters(version: unknown): ProtocolDrugParameters {
+  return drugParametersSchema.parse(version);
 }

@@ -1,12 +1,6 @@
-import { z } from 'zod';
-import {
-  orderDetailSchema,
-  type OrderDetail,
-  type PreparationEntry,
-} from '../../../../shared/schemas/orders';
+import { type OrderDetail, type PreparationEntry } from '../../../../shared/schemas/orders';
 import { api } from '../../../lib/api-client';
-
-const orderResponseSchema = z.object({ order: orderDetailSchema });
+import { orderResponseSchema } from '../../../lib/queries/orders';
 
 export async function recordPreparation({
   orderId,

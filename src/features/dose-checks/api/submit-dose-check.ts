@@ -1,12 +1,6 @@
-import { z } from 'zod';
-import {
-  orderDetailSchema,
-  type DoseCheckEntry,
-  type OrderDetail,
-} from '../../../../shared/schemas/orders';
+import { type DoseCheckEntry, type OrderDetail } from '../../../../shared/schemas/orders';
 import { api } from '../../../lib/api-client';
-
-const orderResponseSchema = z.object({ order: orderDetailSchema });
+import { orderResponseSchema } from '../../../lib/queries/orders';
 
 /**
  * Sends the pharmacist's own figures. A match answers with the order, plan revealed; a mismatch

@@ -9,7 +9,7 @@ import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
 import { describeError } from '../../../lib/api-client';
 import { doseCheckQueries } from '../api/dose-check-queries';
-import { useServerNowMs } from '../hooks/use-server-now';
+import { usePharmacyNowMs } from '../hooks/use-server-now';
 import { BeyondUseChip } from './beyond-use-countdown';
 import { eyeWords, patientName, unitDateTime } from './display-format';
 
@@ -160,7 +160,7 @@ function OrderList({ id, title, empty, orders, when, countdown = false }: OrderL
 
 /** The chip with its own once-a-second clock, so only it re-renders as time passes. */
 function ListCountdown({ order }: { order: OrderSummary & { beyondUseAt: string } }) {
-  const nowMs = useServerNowMs();
+  const nowMs = usePharmacyNowMs();
   return (
     <BeyondUseChip
       beyondUseAt={order.beyondUseAt}

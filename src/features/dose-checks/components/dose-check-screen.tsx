@@ -1,3 +1,4 @@
+import { useServerNowMs } from '../../../lib/server-now';
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, type RefObject } from 'react';
 import {
@@ -179,6 +180,7 @@ function ScreenBody({
   clockOffsetMs,
   movedToRef,
 }: ScreenBodyProps) {
+  const serverNowMs = useServerNowMs(clockOffsetMs);
   if (order.kind !== 'pdt') {
     return (
       <StatusPanel icon={<InfoIcon className="size-6" />} title="No drug to check">
@@ -313,7 +315,7 @@ function ScreenBody({
     const remake =
       canPrepare &&
       canReprepare(order.status, {
-        beyondUsePassed: Date.parse(order.preparation.beyondUseAt) <= Date.now() + clockOffsetMs,
+        beyondUsePassed: Date.parse(order.preparation.beyondUseAt) <= serverNowMs,
         infusionStarted: false,
       }).allowed;
     return (

@@ -1,3 +1,4 @@
+import { useServerNowMs } from '../../../lib/server-now';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { withoutSourceMarks } from '../../../../shared/protocol/source-marks';
 import { DateTime } from 'luxon';
@@ -85,8 +86,10 @@ type PreparationFormProps = {
 
 export function PreparationForm({ order, plan, protocol, clockOffsetMs }: PreparationFormProps) {
   const record = useRecordPreparation();
-  const serverNow = () => DateTime.fromMillis(Date.now() + clockOffsetMs, { zone: unitTimeZone });
-  const nowText = () => serverNow().toFormat(localMinuteFormat);
+  // The server's time, read each second for what is shown; a press reads the clock again.
+  const serverNowMs = useServerNowMs(clockOffsetMs);
+  const serverTime = (atMs: number) => DateTime.fromMillis(atMs, { zone: unitTimeZone });
+  const nowText = (atMs: number) => serverTime(atMs).toFormat(localMinuteFormat);
   const {
     register,
     handleSubmit,
@@ -98,7 +101,12 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
     formState: { errors },
   } = useForm<PreparationFormInput, unknown, PreparationEntry>({
     resolver: zodResolver(preparationFormSchema),
-    defaultValues: { vialLot: '', vialExpiry: '', reconstitutedAt: nowText(), volumeDrawnMl: '' },
+    defaultValues: {
+      vialLot: '',
+      vialExpiry: '',
+      reconstitutedAt: nowText(serverNowMs),
+      volumeDrawnMl: '',
+    },
   });
   const draftKeeper = useFormDraft(
     `preparation.${order.id}`,
@@ -224,7 +232,11 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
             size="sm"
             className="self-start"
             icon={<ClockIcon className="size-4" />}
-            onClick={() => setValue('reconstitutedAt', nowText(), { shouldDirty: true })}
+            onClick={() =>
+              setValue('reconstitutedAt', nowText(Date.now() + clockOffsetMs), {
+                shouldDirty: true,
+              })
+            }
           >
             Set to now
           </Button>

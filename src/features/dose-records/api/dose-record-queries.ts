@@ -1,10 +1,9 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { DoseRecordFilter } from '../../../../shared/schemas/reviews';
-import { getProtocolChoices } from '../../../lib/get-protocol-choices';
+import { orderQuery } from '../../../lib/queries/orders';
+import { protocolListQuery, protocolVersionQuery } from '../../../lib/queries/protocols';
+import { sessionQuery } from '../../../lib/queries/sessions';
 import { getDoseRecords } from './get-dose-records';
-import { getProtocolSteps } from './get-protocol-steps';
-import { getSession } from './get-session';
-import { getTreatmentOrder } from './get-treatment-order';
 
 /** The dose-records feature's query keys and options, general → specific. */
 export const doseRecordQueries = {
@@ -17,27 +16,10 @@ export const doseRecordQueries = {
       placeholderData: keepPreviousData,
     }),
 
-  /** What the printed record reads from other parts of the API, kept under this feature's keys. */
-  order: (orderId: number) =>
-    queryOptions({
-      queryKey: [...doseRecordQueries.all(), 'order', orderId] as const,
-      queryFn: ({ signal }) => getTreatmentOrder(orderId, { signal }),
-    }),
-  session: (orderId: number) =>
-    queryOptions({
-      queryKey: [...doseRecordQueries.all(), 'session', orderId] as const,
-      queryFn: ({ signal }) => getSession(orderId, { signal }),
-    }),
-  protocolChoices: () =>
-    queryOptions({
-      queryKey: [...doseRecordQueries.all(), 'protocol-choices'] as const,
-      queryFn: ({ signal }) => getProtocolChoices({ signal }),
-      staleTime: 5 * 60_000,
-    }),
+  /** What the printed record reads from other resources: their one cache in src/lib/queries. */
+  order: orderQuery,
+  session: sessionQuery,
+  protocolChoices: () => queryOptions({ ...protocolListQuery(), staleTime: 5 * 60_000 }),
   protocolSteps: (key: string, version: number) =>
-    queryOptions({
-      queryKey: [...doseRecordQueries.all(), 'protocol-steps', key, version] as const,
-      queryFn: ({ signal }) => getProtocolSteps(key, version, { signal }),
-      staleTime: Infinity,
-    }),
+    queryOptions({ ...protocolVersionQuery({ key, version }), staleTime: Infinity }),
 };

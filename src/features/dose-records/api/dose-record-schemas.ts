@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import { orderDetailSchema } from '../../../../shared/schemas/orders';
 import { eyes } from '../../../../shared/schemas/patients';
 import { deviationSeverities } from '../../../../shared/session/session-events';
 import {
@@ -40,8 +39,6 @@ export const doseRecordPageSchema = z.object({
   total: z.number().int(),
 });
 export type DoseRecordPage = z.infer<typeof doseRecordPageSchema>;
-
-export const orderResponseSchema = z.object({ order: orderDetailSchema });
 
 /** A tap as the printed record reads it: only pauses and resumes are drawn from the list. */
 const sessionEventSchema = z.object({

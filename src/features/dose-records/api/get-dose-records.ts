@@ -1,15 +1,10 @@
 import type { DoseRecordFilter } from '../../../../shared/schemas/reviews';
 import { api } from '../../../lib/api-client';
+import { searchOf } from '../../../lib/queries/request';
 import { doseRecordPageSchema, type DoseRecordPage } from './dose-record-schemas';
 
 /** The filter as URL search parameters; empty values are left out. */
-export function doseRecordSearch(filter: Partial<DoseRecordFilter>): string {
-  const search = new URLSearchParams();
-  for (const [key, value] of Object.entries(filter)) {
-    if (value !== undefined && value !== '') search.set(key, String(value));
-  }
-  return search.toString();
-}
+export const doseRecordSearch = (filter: Partial<DoseRecordFilter>): string => searchOf(filter);
 
 /** One page of finished sessions' dose records, filtered, sorted and paged by the server. */
 export async function getDoseRecords(

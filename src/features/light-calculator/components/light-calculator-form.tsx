@@ -72,15 +72,16 @@ export function LightCalculatorForm({ onSolved, onCleared }: LightCalculatorForm
   });
 
   // A result on screen must always belong to the figures on screen: any edit takes it away.
+  const resetCalculation = calculation.reset;
   useEffect(() => {
     const subscription = watch((_values, { type }) => {
       if (type !== 'change') return;
       // An answer still on its way was asked for with the old figures; it must not arrive either.
-      calculation.reset();
+      resetCalculation();
       onCleared();
     });
     return () => subscription.unsubscribe();
-  }, [watch, onCleared, calculation.reset]);
+  }, [watch, onCleared, resetCalculation]);
 
   const onSubmit = handleSubmit((request) => {
     calculation.mutate(request, {

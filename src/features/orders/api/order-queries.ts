@@ -1,80 +1,49 @@
-import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { isSessionRunning } from '../../../../shared/orders/lifecycle';
-import type { OrderListQuery, SigningFactsQuery } from '../../../../shared/schemas/orders';
-import { findPatients, getPatient } from './find-patients';
-import { getOrder } from './get-order';
-import { getOrderSession } from './get-order-session';
-import { getOrders } from './get-orders';
-import { getPatientMeasurements } from './get-patient-measurements';
-import { getProtocolChoices } from './get-protocol-choices';
-import { getProtocolDefinition } from './get-protocol-definition';
+import type { SigningFactsQuery } from '../../../../shared/schemas/orders';
+import { orderKeys, orderListQuery, orderQuery } from '../../../lib/queries/orders';
+import {
+  patientMeasurementsQuery,
+  patientQuery,
+  patientSearchQuery,
+} from '../../../lib/queries/patients';
+import { protocolListQuery, protocolVersionQuery } from '../../../lib/queries/protocols';
+import { sessionQuery } from '../../../lib/queries/sessions';
 import { getSigningFacts } from './get-signing-facts';
 
-/** The orders feature's query keys and options, general → specific. */
+/**
+ * The orders feature's queries, composed from the one cache per resource in src/lib/queries:
+ * an order here is the same cached order the pharmacist, the step clock and the reviews read.
+ */
 export const orderQueries = {
-  all: () => ['orders'] as const,
-  lists: () => [...orderQueries.all(), 'list'] as const,
-  list: (query: OrderListQuery) =>
-    queryOptions({
-      queryKey: [...orderQueries.lists(), query] as const,
-      queryFn: ({ signal }) => getOrders(query, { signal }),
-      // The current page stays visible while the next one loads, so the table does not jump.
-      placeholderData: keepPreviousData,
-    }),
-  details: () => [...orderQueries.all(), 'detail'] as const,
-  detail: (id: number) =>
-    queryOptions({
-      queryKey: [...orderQueries.details(), id] as const,
-      queryFn: ({ signal }) => getOrder(id, { signal }),
-    }),
+  all: orderKeys.all,
+  lists: orderKeys.lists,
+  list: orderListQuery,
+  details: orderKeys.details,
+  detail: orderQuery,
   /** The session's dose record and live deviations; polled while the session runs. */
   session: (id: number) =>
     queryOptions({
-      queryKey: [...orderQueries.details(), id, 'session'] as const,
-      queryFn: ({ signal }) => getOrderSession(id, { signal }),
+      ...sessionQuery(id),
       refetchInterval: (query) =>
         query.state.data && isSessionRunning(query.state.data.status) ? 10_000 : false,
     }),
 
-  /** What the order form reads from other parts of the API, kept under this feature's keys. */
-  protocolChoices: () =>
-    queryOptions({
-      queryKey: [...orderQueries.all(), 'protocol-choices'] as const,
-      queryFn: ({ signal }) => getProtocolChoices({ signal }),
-    }),
+  protocolChoices: protocolListQuery,
   protocolDefinition: (key: string, version: number) =>
     queryOptions({
-      queryKey: [...orderQueries.all(), 'protocol-definition', key, version] as const,
-      queryFn: ({ signal }) => getProtocolDefinition(key, version, { signal }),
+      ...protocolVersionQuery({ key, version }),
       // An approved version never changes.
       staleTime: Infinity,
     }),
-  patientChoices: (text: string) =>
-    queryOptions({
-      queryKey: [...orderQueries.all(), 'patient-choices', text.trim()] as const,
-      queryFn: ({ signal }) => findPatients(text, { signal }),
-      placeholderData: keepPreviousData,
-    }),
+  patientChoices: patientSearchQuery,
   patient: (id: number) =>
-    queryOptions({
-      queryKey: [...orderQueries.all(), 'patient', id] as const,
-      queryFn: ({ signal }) => getPatient(id, { signal }),
-    }),
+    queryOptions({ ...patientQuery(id), select: (history) => history.patient }),
   /** The patient's other open orders and recent treatments a signature would be held to. */
   signingFacts: (query: SigningFactsQuery) =>
     queryOptions({
-      queryKey: [
-        ...orderQueries.all(),
-        'patient',
-        query.patientId,
-        'signing-facts',
-        query,
-      ] as const,
+      queryKey: [...orderKeys.signingFacts(query.patientId), query] as const,
       queryFn: ({ signal }) => getSigningFacts(query, { signal }),
     }),
-  patientMeasurements: (patientId: number) =>
-    queryOptions({
-      queryKey: [...orderQueries.all(), 'patient', patientId, 'measurements'] as const,
-      queryFn: ({ signal }) => getPatientMeasurements(patientId, { signal }),
-    }),
+  patientMeasurements: patientMeasurementsQuery,
 };

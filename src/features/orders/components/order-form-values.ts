@@ -3,7 +3,9 @@ import type { z } from 'zod';
 import { bsaFormulaNames, type BsaFormulaName } from '../../../../shared/engine/bsa';
 import { duplicateOrderProblem } from '../../../../shared/orders/readiness';
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
-import type { PlanInputs } from '../../../../shared/schemas/calculation';
+import { signatureProblems } from '../../../../shared/orders/readiness';
+import type { WeightChange } from '../../../../shared/orders/weight-change';
+import type { DosePlan, PlanInputs } from '../../../../shared/schemas/calculation';
 import {
   amendOrderSchema,
   orderDraftSchema,
@@ -418,6 +420,42 @@ export function checkOrderForm(
     }
   }
   return { draft, problems, unplaced };
+}
+
+/**
+ * What still stands between the form and a signature, in words, once the plan is worked out: the
+ * shared readiness rules (shared/orders/readiness.ts) over what is typed, reasons not yet tied to
+ * a warning included, plus a retreatment reason when the server warned of a recent treatment.
+ */
+export function formReadiness(
+  values: OrderFormValues,
+  context: OrderFormContext,
+  plan: DosePlan,
+  {
+    weightChange,
+    facts,
+  }: {
+    weightChange: WeightChange | null;
+    /** What the server knows of this patient that a signature is held to (GET /orders/signing-facts). */
+    facts: { recentTreatmentDays: number | null; openOrders: readonly OpenOrderFact[] };
+  },
+): string[] {
+  if (!context.definition) return [];
+  // The same function the server signs by, fed with the server's facts about this patient.
+  const { draft } = checkOrderForm(values, { ...context, warnedFields: null });
+  return signatureProblems({
+    definition: context.definition,
+    plan,
+    checklist: draft.checklist,
+    softLimitReasons: draft.softLimitReasons,
+    retreatmentReason: draft.retreatmentReason ?? null,
+    recentTreatmentDays: facts.recentTreatmentDays,
+    weightChange,
+    weightChangeReason: draft.weightChangeReason ?? null,
+    swellingAcknowledged: draft.swellingAcknowledged ?? false,
+    openOrders: [...facts.openOrders],
+    duplicateOrderReason: draft.duplicateOrderReason ?? null,
+  }).map((p) => p.message);
 }
 
 /** react-hook-form resolver: the same checks, with each problem beside its own field. */

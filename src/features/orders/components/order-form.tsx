@@ -1,8 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
-import { useEffect, useMemo, useRef, useState } from 'react';
-import { Controller, useForm, useWatch } from 'react-hook-form';
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
+import { Controller, useForm, useWatch, type Resolver } from 'react-hook-form';
 import { bsaFormulaNames, bsaFormulas } from '../../../../shared/engine/bsa';
-import { signatureProblems } from '../../../../shared/orders/readiness';
 import { weightChangeMessage } from '../../../../shared/orders/weight-change';
 import type { InputLimit } from '../../../../shared/protocol/protocol-schema';
 import type { AmendOrder, OrderDetail, OrderDraft } from '../../../../shared/schemas/orders';
@@ -25,6 +24,7 @@ import {
   checkOrderForm,
   formFieldFor,
   formToInputs,
+  formReadiness,
   orderFormResolver,
   parseProtocolRef,
   protocolRefOf,
@@ -115,12 +115,18 @@ export function OrderForm({
   onSaved,
 }: OrderFormProps) {
   const save = useSaveOrder();
+  // The resolver reads the protocol and warnings as they are now, not as they were at mount: they
+  // are worked out below from the values, after the form exists, and kept here once rendered.
   const contextRef = useRef<OrderFormContext>({
     mode,
     definition: null,
     warnedFields: null,
     openOrders: [],
   });
+  const resolver = useCallback<Resolver<OrderFormValues, OrderFormContext>>(
+    (formValues, _context, options) => orderFormResolver(formValues, contextRef.current, options),
+    [],
+  );
   const {
     register,
     control,
@@ -134,9 +140,7 @@ export function OrderForm({
     formState: { errors, isSubmitted },
   } = useForm<OrderFormValues, OrderFormContext>({
     defaultValues: initialValues,
-    resolver: orderFormResolver,
-    // The resolver reads the protocol and warnings as they are now, not as they were at mount.
-    context: contextRef.current,
+    resolver,
     reValidateMode: 'onChange',
     shouldFocusError: true,
   });
@@ -191,7 +195,7 @@ export function OrderForm({
     facts && facts.recentTreatmentDays !== null && definition
       ? `This eye had the same kind of treatment ${facts.recentTreatmentDays} days ago; the protocol's minimum interval is ${definition.retreatmentMinDays} days.`
       : null;
-  const openOrders = facts?.openOrders ?? [];
+  const openOrders = useMemo(() => facts?.openOrders ?? [], [facts]);
   const softLimitWarnings = useMemo(() => {
     const from =
       preview.state === 'ready'
@@ -210,11 +214,18 @@ export function OrderForm({
         .flatMap((p) => p.versions)
         .find((v) => v.key === chosenRef.key && v.version === chosenRef.version)
     : undefined;
-  contextRef.current.supersededBy = chosenChoice?.supersededBy ?? null;
-  contextRef.current.definition = definition;
-  contextRef.current.openOrders = openOrders;
-  contextRef.current.warnedFields =
-    preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null;
+  const supersededBy = chosenChoice?.supersededBy ?? null;
+  const warnedFields = useMemo(
+    () => (preview.state === 'ready' || source ? softLimitWarnings.map((w) => w.field) : null),
+    [preview.state, source, softLimitWarnings],
+  );
+  const formContext = useMemo<OrderFormContext>(
+    () => ({ mode, definition, warnedFields, supersededBy, openOrders }),
+    [mode, definition, warnedFields, supersededBy, openOrders],
+  );
+  useLayoutEffect(() => {
+    contextRef.current = formContext;
+  }, [formContext]);
 
   // Problems the engine finds with what is typed: beside the field when something is typed there,
   // otherwise in the preview's list of what is still needed.
@@ -240,25 +251,14 @@ export function OrderForm({
   // The same function the server signs by, fed with the server's facts about this patient.
   const readiness = useMemo(() => {
     if (!definition || preview.state !== 'ready' || !facts) return null;
-    const draft = checkOrderForm(values, { ...contextRef.current, warnedFields: null }).draft;
-    const problems = signatureProblems({
-      definition,
-      plan: preview.plan,
-      checklist: draft.checklist,
-      softLimitReasons: draft.softLimitReasons,
-      retreatmentReason: draft.retreatmentReason ?? null,
-      recentTreatmentDays: facts.recentTreatmentDays,
+    return formReadiness(values, formContext, preview.plan, {
       weightChange: last.weightChange,
-      weightChangeReason: draft.weightChangeReason ?? null,
-      swellingAcknowledged: draft.swellingAcknowledged ?? false,
-      openOrders: facts.openOrders,
-      duplicateOrderReason: draft.duplicateOrderReason ?? null,
-    }).map((p) => p.message);
-    return problems;
-  }, [definition, preview, values, facts, last.weightChange]);
+      facts,
+    });
+  }, [definition, formContext, preview, values, facts, last.weightChange]);
 
   const onSubmit = handleSubmit((formValues) => {
-    const { draft } = checkOrderForm(formValues, contextRef.current);
+    const { draft } = checkOrderForm(formValues, formContext);
     const request =
       mode === 'new'
         ? { mode, draft: draft as OrderDraft }

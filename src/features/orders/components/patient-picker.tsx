@@ -5,6 +5,7 @@ import { Button } from '../../../components/ui/button';
 import { PatientCardIcon, SpinnerIcon } from '../../../components/ui/icons';
 import { FieldError, TextField } from '../../../components/ui/text-field';
 import { describeError } from '../../../lib/api-client';
+import { useDebouncedValue } from '../../../lib/use-debounced-value';
 import { orderQueries } from '../api/order-queries';
 import { formatCalendarDate } from './unit-dates';
 
@@ -32,22 +33,13 @@ function PatientLine({ patient }: { patient: Patient }) {
   );
 }
 
-function useSettled(text: string, delayMs: number) {
-  const [settled, setSettled] = useState(text);
-  useEffect(() => {
-    const timer = setTimeout(() => setSettled(text), delayMs);
-    return () => clearTimeout(timer);
-  }, [text, delayMs]);
-  return settled;
-}
-
 /** The chosen patient, or a search that lists matching patients to choose from. */
 export function PatientPicker({ value, onChange, locked, error, ref }: PatientPickerProps) {
   const id = useId();
   const chosenId = /^\d+$/.test(value) ? Number(value) : null;
   const chosen = useQuery({ ...orderQueries.patient(chosenId ?? 0), enabled: chosenId !== null });
   const [text, setText] = useState('');
-  const settled = useSettled(text.trim(), 300);
+  const settled = useDebouncedValue(text.trim(), 300);
   const matches = useQuery({
     ...orderQueries.patientChoices(settled),
     enabled: chosenId === null && settled.length > 0,

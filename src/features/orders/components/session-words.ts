@@ -8,11 +8,7 @@ export const sessionOutcomeWords: Record<GivenRecord['outcome'], string> = {
   stopped: 'Stopped early',
 };
 
-export const deviationSeverityWords: Record<DeviationSeverity, string> = {
-  critical: 'Critical',
-  major: 'Major',
-  minor: 'Minor',
-};
+export { severityWords as deviationSeverityWords } from '../../../lib/deviation-words';
 
 /** Most severe first, so the worst departure is read first. */
 export const deviationSeverityOrder: readonly DeviationSeverity[] = ['critical', 'major', 'minor'];

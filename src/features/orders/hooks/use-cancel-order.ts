@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { cancelOrder } from '../api/cancel-order';
-import { refreshAfterOrderChange } from './use-save-order';
+import { refreshAfterOrderChange } from '../../../lib/queries/orders';
 
 export function useCancelOrder() {
   const queryClient = useQueryClient();

@@ -26,7 +26,8 @@ export function useLastMeasurements(
   );
   const rule = query.data?.weightChangeRule ?? null;
   const weightChange: WeightChange | null = rule
-    ? weightChangeNeedingReason(lastRecordedWeight(measurements), weight, Date.now(), rule)
+    ? // Judged at the time the measurements were read, so a render never reads the clock.
+      weightChangeNeedingReason(lastRecordedWeight(measurements), weight, query.dataUpdatedAt, rule)
     : null;
   return { query, measurements, rule, weightChange };
 }

@@ -31,12 +31,16 @@ export function usePlanPreview(
 ): PlanPreview {
   const [preview, setPreview] = useState<PlanPreview>({ state: 'waiting' });
   const inputsKey = JSON.stringify(inputs);
+  // Without a protocol version there is nothing to preview: back to waiting, decided while
+  // rendering (not in an effect) so the stale plan never shows for a frame.
+  const [previewedFor, setPreviewedFor] = useState(definition);
+  if (previewedFor !== definition) {
+    setPreviewedFor(definition);
+    if (!definition) setPreview({ state: 'waiting' });
+  }
 
   useEffect(() => {
-    if (!definition) {
-      setPreview({ state: 'waiting' });
-      return;
-    }
+    if (!definition) return;
     let cancelled = false;
     const timer = setTimeout(() => {
       setPreview((current) => (current.state === 'waiting' ? { state: 'working' } : current));

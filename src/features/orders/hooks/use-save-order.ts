@@ -1,9 +1,9 @@
-import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AmendOrder, OrderDetail, OrderDraft } from '../../../../shared/schemas/orders';
 import { amendOrder } from '../api/amend-order';
 import { createOrder } from '../api/create-order';
-import { orderQueries } from '../api/order-queries';
 import { updateOrder } from '../api/update-order';
+import { refreshAfterOrderChange } from '../../../lib/queries/orders';
 
 export type SaveOrderRequest =
   | { mode: 'new'; draft: OrderDraft }
@@ -15,22 +15,6 @@ function save(request: SaveOrderRequest): Promise<OrderDetail> {
   if (request.mode === 'edit')
     return updateOrder({ id: request.id, version: request.version, draft: request.draft });
   return amendOrder({ id: request.id, version: request.version, amendment: request.amendment });
-}
-
-/** After any change to an order: the saved detail is known, every list may have moved. */
-export function refreshAfterOrderChange(
-  queryClient: QueryClient,
-  order: OrderDetail,
-  alsoChanged: number[] = [],
-) {
-  queryClient.setQueryData(orderQueries.detail(order.id).queryKey, order);
-  for (const id of alsoChanged)
-    void queryClient.invalidateQueries({ queryKey: orderQueries.detail(id).queryKey });
-  // The patient's other open orders and recent treatments, which the next order is held to.
-  void queryClient.invalidateQueries({
-    queryKey: [...orderQueries.all(), 'patient', order.patient.id, 'signing-facts'],
-  });
-  return queryClient.invalidateQueries({ queryKey: orderQueries.lists() });
 }
 
 /** Saves a new draft, an edited draft, or an amendment (a new revision of a signed order). */

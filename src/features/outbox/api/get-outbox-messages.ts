@@ -1,29 +1,7 @@
-import { z } from 'zod';
-import { api } from '../../../lib/api-client';
-
-export const outboxStatuses = ['pending', 'sent', 'failed'] as const;
-export type OutboxStatus = (typeof outboxStatuses)[number];
-
-/** The shape server/mail/outbox-routes.ts answers with. */
-const outboxMessageSchema = z.object({
-  id: z.number(),
-  kind: z.string(),
-  recipients: z.array(z.string()),
-  subject: z.string(),
-  status: z.enum(outboxStatuses),
-  attempts: z.number(),
-  nextAttemptAt: z.string(),
-  lastError: z.string().nullable(),
-  sentAt: z.string().nullable(),
-  createdAt: z.string(),
-});
-export type OutboxMessage = z.infer<typeof outboxMessageSchema>;
-
-const outboxResponseSchema = z.object({ messages: z.array(outboxMessageSchema) });
-
-export async function getOutboxMessages({ signal }: { signal?: AbortSignal } = {}): Promise<
-  OutboxMessage[]
-> {
-  const { messages } = await api.get('/outbox', { schema: outboxResponseSchema, signal });
-  return messages;
-}
+// The outbox's shapes and fetcher: src/lib/queries/outbox.ts.
+export {
+  getOutboxMessages,
+  outboxStatuses,
+  type OutboxMessage,
+  type OutboxStatus,
+} from '../../../lib/queries/outbox';

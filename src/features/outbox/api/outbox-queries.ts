@@ -1,13 +1,8 @@
-import { queryOptions } from '@tanstack/react-query';
-import { getOutboxMessages } from './get-outbox-messages';
+import { outboxKeys, outboxListQuery } from '../../../lib/queries/outbox';
 
-/** The outbox feature's query keys and options, general → specific. */
+/** The outbox feature's queries: the one outbox cache (src/lib/queries/outbox.ts). */
 export const outboxQueries = {
-  all: () => ['outbox'] as const,
-  lists: () => [...outboxQueries.all(), 'list'] as const,
-  list: () =>
-    queryOptions({
-      queryKey: [...outboxQueries.lists()] as const,
-      queryFn: ({ signal }) => getOutboxMessages({ signal }),
-    }),
+  all: outboxKeys.all,
+  lists: outboxKeys.lists,
+  list: outboxListQuery,
 };

@@ -1,11 +1,2 @@
-import { useEffect, useState } from 'react';
-
-/** The value as it was `delayMs` after it last changed, so a search waits for a pause in typing. */
-export function useDebouncedValue<T>(value: T, delayMs: number): T {
-  const [settled, setSettled] = useState(value);
-  useEffect(() => {
-    const timer = setTimeout(() => setSettled(value), delayMs);
-    return () => clearTimeout(timer);
-  }, [value, delayMs]);
-  return settled;
-}
+// One debounce for every search box: src/lib/use-debounced-value.ts.
+export { useDebouncedValue } from '../../../lib/use-debounced-value';

@@ -1,10 +1,5 @@
 import { z } from 'zod';
-import {
-  personSchema,
-  roleRequestSchema,
-  type Person,
-  type RoleRequestView,
-} from '../../../../shared/schemas/people';
+import { personSchema, type Person } from '../../../../shared/schemas/people';
 import { api } from '../../../lib/api-client';
 
 const id = (n: number) => encodeURIComponent(String(n));
@@ -27,15 +22,7 @@ export async function endSessions(personId: number): Promise<{ ended: number }> 
   );
 }
 
-export async function getRoleRequests({ signal }: { signal?: AbortSignal } = {}): Promise<
-  RoleRequestView[]
-> {
-  const { requests } = await api.get('/role-requests', {
-    schema: z.object({ requests: z.array(roleRequestSchema) }),
-    signal,
-  });
-  return requests;
-}
+export { getRoleRequests } from '../../../lib/queries/people';
 
 export async function decideRoleRequest({
   requestId,

@@ -1,10 +1,2 @@
-import { z } from 'zod';
-import { personSchema, type Person } from '../../../../shared/schemas/people';
-import { api } from '../../../lib/api-client';
-
-const peopleResponseSchema = z.object({ people: z.array(personSchema) });
-
-export async function getPeople({ signal }: { signal?: AbortSignal } = {}): Promise<Person[]> {
-  const { people } = await api.get('/people', { schema: peopleResponseSchema, signal });
-  return people;
-}
+// The people list's fetcher: src/lib/queries/people.ts.
+export { getPeople } from '../../../lib/queries/people';

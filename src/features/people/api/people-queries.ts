@@ -1,19 +1,9 @@
-import { queryOptions } from '@tanstack/react-query';
-import { getRoleRequests } from './account-actions';
-import { getPeople } from './get-people';
+import { peopleKeys, peopleListQuery, roleRequestsQuery } from '../../../lib/queries/people';
 
-/** The people feature's query keys and options, general → specific. */
+/** The people feature's queries: the one people cache (src/lib/queries/people.ts). */
 export const peopleQueries = {
-  all: () => ['people'] as const,
-  lists: () => [...peopleQueries.all(), 'list'] as const,
-  list: () =>
-    queryOptions({
-      queryKey: [...peopleQueries.lists()] as const,
-      queryFn: ({ signal }) => getPeople({ signal }),
-    }),
-  roleRequests: () =>
-    queryOptions({
-      queryKey: [...peopleQueries.all(), 'role-requests'] as const,
-      queryFn: ({ signal }) => getRoleRequests({ signal }),
-    }),
+  all: peopleKeys.all,
+  lists: peopleKeys.lists,
+  list: peopleListQuery,
+  roleRequests: roleRequestsQuery,
 };

@@ -1,34 +1,28 @@
 import { queryOptions } from '@tanstack/react-query';
-import { getSessionOrder } from './get-session-order';
-import { getSessionProtocol } from './get-session-protocol';
-import { getSessionState } from './get-session-state';
-import { newerSessionState, type SessionState } from './session-state-schema';
+import { orderKeys, orderQuery } from '../../../lib/queries/orders';
+import { protocolVersionQuery } from '../../../lib/queries/protocols';
+import { sessionKeys, sessionQuery } from '../../../lib/queries/sessions';
 
-/** The step clock's query keys and options, general → specific. */
+/**
+ * The step clock's queries, composed from the one cache per resource in src/lib/queries: the
+ * order and the session here are the ones the order's screen and the printed record show.
+ */
 export const stepClockQueries = {
-  all: () => ['step-clock'] as const,
-  orders: () => [...stepClockQueries.all(), 'order'] as const,
-  order: (orderId: number) =>
-    queryOptions({
-      queryKey: [...stepClockQueries.orders(), orderId] as const,
-      queryFn: ({ signal }) => getSessionOrder(orderId, { signal }),
-    }),
+  orders: orderKeys.details,
+  order: orderQuery,
   protocol: (key: string, version: number) =>
     queryOptions({
-      queryKey: [...stepClockQueries.all(), 'protocol', key, version] as const,
-      queryFn: ({ signal }) => getSessionProtocol(key, version, { signal }),
+      ...protocolVersionQuery({ key, version }),
+      select: (found) => found.definition,
       // An approved protocol version never changes.
       staleTime: Number.POSITIVE_INFINITY,
     }),
-  sessions: () => [...stepClockQueries.all(), 'session'] as const,
+  sessions: sessionKeys.all,
   session: (orderId: number) =>
     queryOptions({
-      queryKey: [...stepClockQueries.sessions(), orderId] as const,
-      queryFn: ({ signal }) => getSessionState(orderId, { signal }),
+      ...sessionQuery(orderId),
       // Another tablet may record taps too, and each answer re-measures the clock offset.
       refetchInterval: 15_000,
       staleTime: 5_000,
-      structuralSharing: (previous, next) =>
-        newerSessionState(previous as SessionState | undefined, next as SessionState),
     }),
 };

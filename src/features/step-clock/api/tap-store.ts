@@ -5,6 +5,7 @@ import {
 } from '../../../../shared/session/session-events';
 import type { FieldProblem } from '../../../lib/api-client';
 import { currentPersonId } from '../../../lib/current-person';
+import { onFreshSession } from '../../../lib/queries/sessions';
 
 /**
  * The taps this tablet has made, kept in IndexedDB per order. A tap is written here before it
@@ -346,6 +347,11 @@ export function newIdempotencyKey(): string {
 export function forgetStoredTaps(orderId: number, keysOnServer: ReadonlySet<string>): void {
   stores.get(orderId)?.forgetStored(keysOnServer);
 }
+
+// Whichever screen fetched the session, a fresh copy lets this page's stores drop what it holds.
+onFreshSession((orderId, state) =>
+  forgetStoredTaps(orderId, new Set(state.events.map((event) => event.idempotencyKey))),
+);
 
 /** The orders for which this tablet keeps unsent taps made by this person (read from IndexedDB, every order). */
 export async function ordersWithUnsentTapsOf(personId: number): Promise<number[]> {

@@ -108,9 +108,10 @@ export function ClockView({
     current !== null &&
     (current.kind === 'soak' || current.kind === 'uv' || current.kind === 'swelling') &&
     cueEveryS !== null;
+  const currentKind = current?.kind ?? null;
   const cueWords = useMemo(
-    () => ({ stepName: current ? stepNames[current.kind] : 'step' }),
-    [current?.kind],
+    () => ({ stepName: currentKind ? stepNames[currentKind] : 'step' }),
+    [currentKind],
   );
   const flash = useCues({
     clock,

@@ -192,5 +192,12 @@ export function useCues({
     }
   }, [announce, clock, cueEveryS, dropCount, enabled, isDropStep, muted, words.stepName]);
 
-  return flash !== null && Date.now() < flash.untilMs ? flash : null;
+  // A flash shows for its time, then goes by itself.
+  useEffect(() => {
+    if (flash === null) return;
+    const timer = setTimeout(() => setFlash(null), Math.max(0, flash.untilMs - Date.now()));
+    return () => clearTimeout(timer);
+  }, [flash]);
+
+  return flash;
 }

@@ -1,10 +1,18 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { useCallback, useEffect, useMemo, useRef, useSyncExternalStore } from 'react';
+import {
+  useCallback,
+  useEffect,
+  useLayoutEffect,
+  useMemo,
+  useRef,
+  useSyncExternalStore,
+} from 'react';
 import type { SessionEventLike } from '../../../../shared/session/dose-record';
 import type { SessionEventInput } from '../../../../shared/session/session-events';
-import { serverNowMs } from '../api/clock-offset';
+import { refreshAfterOrderChange } from '../../../lib/queries/orders';
+import { serverNowMs } from '../../../lib/server-clock';
 import { eventSyncFor, type SyncState } from '../api/event-sync';
-import { withRecordedEvent } from '../api/session-state-schema';
+import { withRecordedEvent } from '../../../lib/queries/session-schema';
 import { stepClockQueries } from '../api/step-clock-queries';
 import { newIdempotencyKey, tapStoreFor, type KeptTap } from '../api/tap-store';
 
@@ -68,6 +76,9 @@ export function useSessionEvents(orderId: number, { records }: { records: boolea
       const current = queryClient.getQueryData(queryKey);
       const merged = current ? withRecordedEvent(current, answer) : null;
       if (merged) queryClient.setQueryData(queryKey, merged.state);
+      // A tap that moved the order (started, ended, stopped) changes what the order's screens show.
+      if (current && answer.status !== current.status)
+        refreshAfterOrderChange(queryClient, { id: orderId });
       // Nothing loaded yet, or another tablet stored events this one has not seen: fetch them all.
       if (!merged?.complete) void queryClient.invalidateQueries({ queryKey });
     });
@@ -88,11 +99,15 @@ export function useSessionEvents(orderId: number, { records }: { records: boolea
     return [...stored, ...local];
   }, [session.data, kept]);
 
-  const latestEventMs = useRef(0);
-  latestEventMs.current = events.reduce(
-    (latest, event) => Math.max(latest, Date.parse(event.clientTime) || 0),
-    0,
+  const latestOfEvents = useMemo(
+    () => events.reduce((latest, event) => Math.max(latest, Date.parse(event.clientTime) || 0), 0),
+    [events],
   );
+  // Read when a tap is recorded (outside render); kept in step with the events once rendered.
+  const latestEventMs = useRef(0);
+  useLayoutEffect(() => {
+    latestEventMs.current = latestOfEvents;
+  }, [latestOfEvents]);
 
   /**
    * Records one tap (several events made by one tap get times a millisecond apart, so they sort

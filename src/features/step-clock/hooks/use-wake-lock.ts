@@ -18,17 +18,17 @@ interface ScreenWakeLock {
  */
 export function useWakeLock(active: boolean): WakeLockStatus {
   const [status, setStatus] = useState<WakeLockStatus>('off');
+  // Off again as soon as the session stops needing it, decided while rendering.
+  const [wasActive, setWasActive] = useState(active);
+  if (wasActive !== active) {
+    setWasActive(active);
+    if (!active) setStatus('off');
+  }
+  const supported = Boolean((navigator as Navigator & { wakeLock?: ScreenWakeLock }).wakeLock);
 
   useEffect(() => {
     const wakeLock = (navigator as Navigator & { wakeLock?: ScreenWakeLock }).wakeLock;
-    if (!active) {
-      setStatus('off');
-      return;
-    }
-    if (!wakeLock) {
-      setStatus('unsupported');
-      return;
-    }
+    if (!active || !wakeLock) return;
     let sentinel: ScreenWakeLockSentinel | null = null;
     let cancelled = false;
 
@@ -60,5 +60,6 @@ export function useWakeLock(active: boolean): WakeLockStatus {
     };
   }, [active]);
 
-  return status;
+  if (!active) return 'off';
+  return supported ? status : 'unsupported';
 }

@@ -1,15 +1,13 @@
 import { queryOptions } from '@tanstack/react-query';
-import { getToday } from './get-today';
+import { todayKeys, todayQuery } from '../../../lib/queries/today';
 
-/** The today feature's query keys and options, general → specific. */
+/** The today feature's queries: the one Today cache (src/lib/queries/today.ts). */
 export const todayQueries = {
-  all: () => ['today'] as const,
+  all: todayKeys.all,
   worklists: () =>
     queryOptions({
-      queryKey: [...todayQueries.all(), 'worklists'] as const,
-      queryFn: ({ signal }) => getToday({ signal }),
-      // Other people's work fills these lists: keep up without a reload, and never open on an old copy.
-      refetchInterval: 30_000,
+      ...todayQuery(),
+      // Never open on an old copy.
       refetchOnMount: 'always',
     }),
 };

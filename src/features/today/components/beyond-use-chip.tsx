@@ -1,7 +1,7 @@
 import { formatDuration } from '../../../../shared/format/figures';
 import { useEffect, useRef, useState } from 'react';
 import { CheckCircleIcon, CrossCircleIcon, HourglassIcon } from '../../../components/ui/icons';
-import { useServerNowMs } from '../hooks/use-server-now';
+import { useServerNowMs } from '../../../lib/server-now';
 
 /** Below this much time left the chip warns: the dose should be on its way to the patient. */
 const closingWindowMs = 30 * 60_000;

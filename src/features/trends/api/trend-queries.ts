@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
-import { getProtocolChoices } from './get-protocol-choices';
+import { protocolListQuery } from '../../../lib/queries/protocols';
 import { getTrends, type TrendFilter } from './get-trends';
 
 /** The trends feature's query keys and options, general → specific. */
@@ -11,10 +11,6 @@ export const trendQueries = {
       queryFn: ({ signal }) => getTrends(filter, { signal }),
       placeholderData: keepPreviousData,
     }),
-  protocolChoices: () =>
-    queryOptions({
-      queryKey: [...trendQueries.all(), 'protocol-choices'] as const,
-      queryFn: ({ signal }) => getProtocolChoices({ signal }),
-      staleTime: 5 * 60_000,
-    }),
+  /** The protocol filter reads the one protocol list (src/lib/queries/protocols.ts). */
+  protocolChoices: () => queryOptions({ ...protocolListQuery(), staleTime: 5 * 60_000 }),
 };

@@ -28,10 +28,3 @@ export const trendsResponseSchema = z.object({
   byType: z.array(trendByTypeSchema).optional().default([]),
 });
 export type TrendsAnswer = z.infer<typeof trendsResponseSchema>;
-
-export const protocolChoicesSchema = z.object({
-  protocols: z.array(
-    z.object({ key: z.string(), kind: z.enum(['pdt', 'cxl']), title: z.string() }),
-  ),
-});
-export type ProtocolChoice = z.infer<typeof protocolChoicesSchema>['protocols'][number];

@@ -21,7 +21,9 @@ function unitMonthPattern(): string {
 function shownMonth(value: string | undefined): string {
   if (!value) return '';
   const [year, month] = value.split('-');
-  return unitMonthPattern().replace('YYYY', year ?? '').replace('MM', month ?? '');
+  return unitMonthPattern()
+    .replace('YYYY', year ?? '')
+    .replace('MM', month ?? '');
 }
 
 /** What was typed as YYYY-MM, in the unit's order (or as YYYY-MM), or null. */
