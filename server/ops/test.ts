@@ -1,10 +1,27 @@
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { buildClient } from './build-client';
 import { repoRoot } from './paths';
 import { prepareTestEnvironment } from './test-environment';
 
 const startedAt = performance.now();
+const filesNamed = process.argv.slice(2).some((arg) => !arg.startsWith('-'));
+if (!filesNamed) {
+  // The whole suite starts with the checks that keep the code as DEVELOPERS.md describes it:
+  // types, lint (with the import boundaries) and one format. A run of named files skips them.
+  console.log('• Checks: tsc, ESLint, Prettier (npm run check) …');
+  const checks = spawnSync('npm', ['run', '--silent', 'check'], {
+    cwd: repoRoot,
+    stdio: 'inherit',
+  });
+  if (checks.status !== 0) {
+    console.error(
+      '\n✗ npm run check failed: fix the types, lint or format above, then run npm test again.',
+    );
+    process.exit(1);
+  }
+  console.log(`• Checks passed in ${((performance.now() - startedAt) / 1000).toFixed(1)} s`);
+}
 const { database } = await prepareTestEnvironment();
 console.log(`• Test database ready; client build: ${await buildClient()}`);
 
