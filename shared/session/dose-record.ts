@@ -222,14 +222,7 @@ export function replaySession(
     // or the laser's figures entered late still count.
     if (replay.endedMs !== null) {
       if (event.lateEntryReason === undefined) continue;
-      replay.lateEntries.push({
-        idempotencyKey: event.idempotencyKey,
-        type: event.type,
-        stepId: 'stepId' in event ? event.stepId : null,
-        at: event.clientTime,
-        receivedAt: event.serverTime ?? null,
-        reason: event.lateEntryReason,
-      });
+      replay.lateEntries.push(lateEntryOf(event, event.lateEntryReason));
       if (event.type === 'extravasation') {
         replay.extravasationMs ??= ms;
         if (event.volumeInfusedMl !== undefined) replay.volumeInfusedMl = event.volumeInfusedMl;
@@ -245,14 +238,7 @@ export function replaySession(
     replay.lastEventMs = ms;
     if (event.lateEntryReason !== undefined) {
       // A late entry timed inside the session (the server refuses none) still says so.
-      replay.lateEntries.push({
-        idempotencyKey: event.idempotencyKey,
-        type: event.type,
-        stepId: 'stepId' in event ? event.stepId : null,
-        at: event.clientTime,
-        receivedAt: event.serverTime ?? null,
-        reason: event.lateEntryReason,
-      });
+      replay.lateEntries.push(lateEntryOf(event, event.lateEntryReason));
     }
     switch (event.type) {
       case 'session-started':
@@ -615,5 +601,20 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
     withdrawnTaps: replay.withdrawnTaps,
     lateEntries: replay.lateEntries,
     receiptDelays: receiptDelaysOf(events),
+  };
+}
+
+/** A late entry as the record lists it: what, when it happened, when it was entered, and why. */
+function lateEntryOf(
+  event: SessionEventInput & { idempotencyKey: string; clientTime: string; serverTime?: string },
+  reason: string,
+): LateEntry {
+  return {
+    idempotencyKey: event.idempotencyKey,
+    type: event.type,
+    stepId: 'stepId' in event ? event.stepId : null,
+    at: event.clientTime,
+    receivedAt: event.serverTime ?? null,
+    reason,
   };
 }

@@ -1,13 +1,12 @@
 import { formatDuration } from '../../../../shared/format/figures';
-import { useEffect, useRef, useState } from 'react';
+import { useCallback } from 'react';
+import { beyondUseState, type BeyondUseState } from '../../../../shared/orders/beyond-use';
+import { useStateAnnouncement } from '../../../lib/use-state-announcement';
 import { CheckCircleIcon, CrossCircleIcon, HourglassIcon } from '../../../components/ui/icons';
 import { unitTimeZoneLabel } from '../../../config/unit-time-zone';
 import { unitTimeNear } from './display-format';
 
-/** Below this much time left the countdown warns: the dose should be on its way to the patient. */
-const closingWindowMs = 30 * 60_000;
-
-type UseState = 'usable' | 'closing' | 'past';
+type UseState = BeyondUseState;
 
 const states: Record<UseState, { words: string; Icon: typeof CheckCircleIcon; box: string }> = {
   usable: {
@@ -27,11 +26,6 @@ const states: Record<UseState, { words: string; Icon: typeof CheckCircleIcon; bo
   },
 };
 
-function stateOf(remainingMs: number): UseState {
-  if (remainingMs <= 0) return 'past';
-  return remainingMs <= closingWindowMs ? 'closing' : 'usable';
-}
-
 /** hh:mm:ss from whole seconds, so 4 h reads 04:00:00; past the time, how long past. */
 export function clockText(totalMs: number): string {
   return formatDuration(Math.abs(totalMs) / 1000, 'hours-clock', { rounding: 'down' });
@@ -44,14 +38,11 @@ export function clockText(totalMs: number): string {
  */
 function useBeyondUse(beyondUseAt: string, nowMs: number, subject: string) {
   const remainingMs = Date.parse(beyondUseAt) - nowMs;
-  const state = stateOf(remainingMs);
-  const [announcement, setAnnouncement] = useState('');
-  const shownState = useRef(state);
-  useEffect(() => {
-    if (shownState.current === state) return;
-    shownState.current = state;
-    setAnnouncement(`${subject}: ${states[state].words}.`);
-  }, [state, subject]);
+  const state = beyondUseState(remainingMs);
+  const announcement = useStateAnnouncement(
+    state,
+    useCallback((s: UseState) => `${subject}: ${states[s].words}.`, [subject]),
+  );
   return { remainingMs, state, announcement, ...states[state] };
 }
 

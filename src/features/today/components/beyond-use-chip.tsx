@@ -1,10 +1,9 @@
 import { formatDuration } from '../../../../shared/format/figures';
-import { useEffect, useRef, useState } from 'react';
+import { useCallback } from 'react';
+import { beyondUseState, type BeyondUseState } from '../../../../shared/orders/beyond-use';
+import { useStateAnnouncement } from '../../../lib/use-state-announcement';
 import { CheckCircleIcon, CrossCircleIcon, HourglassIcon } from '../../../components/ui/icons';
 import { useServerNowMs } from '../../../lib/server-now';
-
-/** Below this much time left the chip warns: the dose should be on its way to the patient. */
-const closingWindowMs = 30 * 60_000;
 
 const states = {
   usable: {
@@ -42,16 +41,12 @@ type BeyondUseChipProps = {
 export function BeyondUseChip({ beyondUseAt, clockOffsetMs, subject }: BeyondUseChipProps) {
   const nowMs = useServerNowMs(clockOffsetMs);
   const remainingMs = Date.parse(beyondUseAt) - nowMs;
-  const state = remainingMs <= 0 ? 'past' : remainingMs <= closingWindowMs ? 'closing' : 'usable';
+  const state = beyondUseState(remainingMs);
   const { words, Icon, chip } = states[state];
-
-  const [announcement, setAnnouncement] = useState('');
-  const shownState = useRef(state);
-  useEffect(() => {
-    if (shownState.current === state) return;
-    shownState.current = state;
-    setAnnouncement(`${subject}: ${states[state].words}.`);
-  }, [state, subject]);
+  const announcement = useStateAnnouncement(
+    state,
+    useCallback((s: BeyondUseState) => `${subject}: ${states[s].words}.`, [subject]),
+  );
 
   return (
     <span
