@@ -16,6 +16,7 @@ import { PreparationHistory1796294636289 } from './migrations/1796294636289-Prep
 import { SignedOrderFactsKept1796297991104 } from './migrations/1796297991104-SignedOrderFactsKept';
 import { OrderCancellation1796303351497 } from './migrations/1796303351497-OrderCancellation';
 import { ProtocolSignaturesDiscardsAndSuperseded1796303358061 } from './migrations/1796303358061-ProtocolSignaturesDiscardsAndSuperseded';
+import { SupersededReasonSigned1796309618215 } from './migrations/1796309618215-SupersededReasonSigned';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
 export const migrations = [
@@ -35,4 +36,5 @@ export const migrations = [
   SignedOrderFactsKept1796297991104,
   OrderCancellation1796303351497,
   ProtocolSignaturesDiscardsAndSuperseded1796303358061,
+  SupersededReasonSigned1796309618215,
 ];

@@ -64,9 +64,10 @@ async function expectNothingSigned(orderId: number) {
     ),
   ).toHaveLength(0);
   expect(
-    await ctx.dataSource.query('SELECT id FROM outbox_message WHERE related_id = ?', [
-      String(orderId),
-    ]),
+    await ctx.dataSource.query(
+      "SELECT id FROM outbox_message WHERE related_type = 'order' AND related_id = ?",
+      [String(orderId)],
+    ),
   ).toHaveLength(0);
 }
 

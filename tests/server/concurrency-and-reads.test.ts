@@ -204,16 +204,18 @@ describe('one record number, one patient', () => {
   it('four people adding the same record number at once: one 201, the others 409 naming the record number, one row stored', async () => {
     for (let round = 0; round < 5; round += 1) {
       const recordNumber = `RACE-${randomUUID().slice(0, 6).toUpperCase()}`;
-      const body = {
+      // Four different people typed the same record number: only the number clashes (the same
+      // name and date of birth would be a possible duplicate patient, another refusal).
+      const body = (i: number) => ({
         recordNumber,
-        givenName: 'Morwenna',
-        familyName: 'Trevail',
+        givenName: ['Morwenna', 'Tamsin', 'Jory', 'Demelza'][i],
+        familyName: `Trevail ${recordNumber}`,
         dateOfBirth: '1949-11-30',
         emailConsent: false,
-      };
+      });
       const answers = await Promise.all(
-        [firstAgent, secondAgent, firstAgent, secondAgent].map((agent) =>
-          agent.post('/api/patients').send(body),
+        [firstAgent, secondAgent, firstAgent, secondAgent].map((agent, i) =>
+          agent.post('/api/patients').send(body(i)),
         ),
       );
       expect(answers.map((r) => r.status).sort(), `round ${round}`).toEqual([201, 409, 409, 409]);

@@ -12,6 +12,7 @@ import {
   stopFaultDatabase,
   type ApiProcess,
 } from '../support/fault-rig';
+import { supersededVersionReason } from '../support/api';
 
 // Ports of these tests' own API processes.
 const portA = 3391;
@@ -51,16 +52,20 @@ async function readyCxlOrder(base: string): Promise<number> {
     'clinician@demo.luxtempo.example',
     demoPassword,
   );
+  // A new person each time: the same name and date of birth would be a possible duplicate.
+  const suffix = randomUUID().slice(0, 8);
   const patient = await clinician.call('POST', '/patients', {
-    recordNumber: `F-${randomUUID().slice(0, 8)}`,
+    recordNumber: `F-${suffix}`,
     givenName: 'Fault',
-    familyName: 'Testcase',
+    familyName: `Testcase ${suffix}`,
     dateOfBirth: '1970-01-01',
   });
   const draft = await clinician.call('POST', '/orders', {
     patientId: patient.body.patient.id,
     eye: 'right',
     protocol: { key: 'cxl-standard', version: 1 },
+    // Version 1 is superseded by version 2; the figures here are version 1's.
+    supersededVersionReason,
     inputs: { stromalThicknessUm: 470 },
     checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({
       id,

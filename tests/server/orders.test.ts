@@ -281,9 +281,10 @@ describe('the CXL path', () => {
       .post(`/api/orders/${draft.body.order.id}/dose-checks`)
       .send(matching);
     expect(check.status).toBe(409);
-    const mail = await ctx.dataSource.query('SELECT id FROM outbox_message WHERE related_id = ?', [
-      String(draft.body.order.id),
-    ]);
+    const mail = await ctx.dataSource.query(
+      "SELECT id FROM outbox_message WHERE related_type = 'order' AND related_id = ?",
+      [String(draft.body.order.id)],
+    );
     expect(mail).toHaveLength(0);
   });
 });

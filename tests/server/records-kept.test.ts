@@ -186,6 +186,14 @@ describe("a signed order, as the app's database user", () => {
       signedKept,
     );
     await refused(
+      "UPDATE treatment_order SET superseded_version_reason = 'changed afterwards' WHERE id = ?",
+      [order.id],
+      'treatment_order',
+      'id',
+      order.id,
+      signedKept,
+    );
+    await refused(
       "UPDATE treatment_order SET weight_change_reason = 'changed afterwards' WHERE id = ?",
       [order.id],
       'treatment_order',
