@@ -265,6 +265,27 @@ describe('on a 1024×768 tablet', () => {
   }
 });
 
+describe('before the session on a 1024×768 tablet', () => {
+  it('the start and what still blocks it stay in view without scrolling, however long the checks run', async () => {
+    const { id } = await readyCxlOrder();
+    const { page, problems } = await nursePage(id);
+    const start = button(page, 'Start session');
+    await expectInViewport(page, start, 'Start session');
+    await start.click();
+    await expectInViewport(
+      page,
+      page.getByRole('main').getByText('The session cannot start yet'),
+      'the check that blocks the start',
+    );
+    await expectInViewport(page, start, 'Start session, with the refusal above it');
+    expect(await page.evaluate(() => window.scrollY)).toBe(0);
+    await expectEyeBadgeWhole(page);
+    expect(await accessibilityViolations(page)).toEqual([]);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+});
+
 describe('the bedside moments', () => {
   it('the laser starts only after name, date of birth and eye are confirmed again, stored with who and when', async () => {
     const { id } = await preparedPdtOrder();

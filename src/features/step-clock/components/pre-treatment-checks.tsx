@@ -129,18 +129,25 @@ export function PreTreatmentChecks({
             </li>
           ))}
         </ul>
-        {missing.length > 0 && (
-          <Alert tone="error" title="The session cannot start yet">
-            Not confirmed: {missing.map((check) => words[check].label.toLowerCase()).join('; ')}.
-          </Alert>
-        )}
-        <Button
-          className="min-h-16 px-8 text-xl"
-          icon={<StartCircleIcon className="size-7" />}
-          onClick={start}
+        {/* Kept in view at the bottom of the screen: on a 1024×768 tablet the five checks run
+            past the fold, and the start, with what still blocks it, must never need a scroll. */}
+        <div
+          data-testid="session-start-bar"
+          className="sticky bottom-0 z-10 -mx-2 flex flex-col gap-3 border-t border-paper-200 bg-paper-50 px-2 py-3"
         >
-          Start session
-        </Button>
+          {missing.length > 0 && (
+            <Alert tone="error" title="The session cannot start yet">
+              Not confirmed: {missing.map((check) => words[check].label.toLowerCase()).join('; ')}.
+            </Alert>
+          )}
+          <Button
+            className="min-h-16 px-8 text-xl"
+            icon={<StartCircleIcon className="size-7" />}
+            onClick={start}
+          >
+            Start session
+          </Button>
+        </div>
       </section>
 
       <div className="flex flex-col gap-4">
