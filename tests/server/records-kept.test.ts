@@ -177,38 +177,21 @@ describe("a signed order, as the app's database user", () => {
       /A signed order cannot be deleted/,
     );
     // Columns added after the first trigger are part of what was signed too.
-    await refused(
-      "UPDATE treatment_order SET protocol_sha256 = REPEAT('0', 64) WHERE id = ?",
-      [order.id],
-      'treatment_order',
-      'id',
-      order.id,
-      signedKept,
-    );
-    await refused(
-      "UPDATE treatment_order SET superseded_version_reason = 'changed afterwards' WHERE id = ?",
-      [order.id],
-      'treatment_order',
-      'id',
-      order.id,
-      signedKept,
-    );
-    await refused(
-      "UPDATE treatment_order SET weight_change_reason = 'changed afterwards' WHERE id = ?",
-      [order.id],
-      'treatment_order',
-      'id',
-      order.id,
-      signedKept,
-    );
-    await refused(
-      'UPDATE treatment_order SET swelling_acknowledged = NOT swelling_acknowledged WHERE id = ?',
-      [order.id],
-      'treatment_order',
-      'id',
-      order.id,
-      signedKept,
-    );
+    for (const change of [
+      "protocol_sha256 = REPEAT('0', 64)",
+      "superseded_version_reason = 'changed afterwards'",
+      "duplicate_order_reason = 'changed afterwards'",
+      "weight_change_reason = 'changed afterwards'",
+      'swelling_acknowledged = NOT swelling_acknowledged',
+    ])
+      await refused(
+        `UPDATE treatment_order SET ${change} WHERE id = ?`,
+        [order.id],
+        'treatment_order',
+        'id',
+        order.id,
+        signedKept,
+      );
   });
 
   it('is still changed by an amendment: the new revision is signed and the old one only moves to superseded', async () => {

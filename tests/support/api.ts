@@ -117,7 +117,6 @@ const cxlChecklist = ['thin-stroma', 'active-infection', 'herpetic-keratitis'];
 export const supersededVersionReason =
   'Test orders keep version 1, on which their expected figures were worked out';
 
-/** A complete, signable order body for the standard PDT protocol (170 cm, 70 kg, GLD 2500 µm). */
 /** The bedside's identity and eye said again, which a light or UV start needs before it (`stepId`: that step). */
 export function identityConfirmed(stepId: string) {
   return {
@@ -127,6 +126,7 @@ export function identityConfirmed(stepId: string) {
   };
 }
 
+/** A complete, signable order body for the standard PDT protocol (170 cm, 70 kg, GLD 2500 µm). */
 export function pdtOrder(patientId: number, overrides: Record<string, unknown> = {}) {
   return {
     patientId,
