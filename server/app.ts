@@ -211,7 +211,7 @@ export function createApp({
         audit,
         reads,
         weightChangeRule,
-        fhir.sourceForNewPatient,
+        config.FHIR_BASE_URL ? fhir.sourceForNewPatient : undefined,
       ),
     ),
     ...fhirRoutes(fhir),
