@@ -161,6 +161,8 @@ export function createFhirRepository(dataSource: DataSource) {
       }),
 
     patientById: (id: number) => dataSource.getRepository(Patient).findOneBy({ id }),
+    patientByRecordNumber: (recordNumber: string) =>
+      dataSource.getRepository(Patient).findOneBy({ recordNumber }),
     /** Another patient already linked to this FHIR Patient, if any. */
     patientLinkedTo: (fhirSource: string, fhirId: string, exceptId?: number) =>
       dataSource.getRepository(Patient).findOneBy({

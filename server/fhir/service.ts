@@ -65,7 +65,10 @@ export function createFhirService(deps: {
   return {
     status: () => ({ enabled: gateway !== null, baseUrl: gateway?.baseUrl ?? null }),
 
-    /** Hospital patients by record number or by name, each marked with the Luxtempo patient already linked to it. */
+    /**
+     * Hospital patients by record number or by name, each marked with the Luxtempo patient it
+     * already is (linked to it, or holding its record number).
+     */
     async searchPatients(query: { recordNumber?: string; name?: string }) {
       if (!gateway) throw notConfigured();
       let found: FhirPatientCandidate[];
@@ -83,7 +86,10 @@ export function createFhirService(deps: {
         patients: await Promise.all(
           found.slice(0, 50).map(async (p) => ({
             ...p,
-            luxtempoPatientId: (await fhir.patientLinkedTo(gateway.baseUrl, p.fhirId))?.id ?? null,
+            luxtempoPatientId:
+              (await fhir.patientLinkedTo(gateway.baseUrl, p.fhirId))?.id ??
+              (p.recordNumber ? (await fhir.patientByRecordNumber(p.recordNumber))?.id : null) ??
+              null,
           })),
         ),
       };
