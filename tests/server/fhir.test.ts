@@ -55,6 +55,23 @@ beforeAll(async () => {
   // The file names itself with draft-04's "id"; ajv wants "$id".
   const { id, ...schema } = JSON.parse(readFileSync(schemaPath, 'utf8'));
   schema.$id = id;
+  // Every definition as published; only the list of resources a Bundle entry may hold is narrowed
+  // to the types Luxtempo writes (stricter, and it compiles in about 3 s instead of 16 s).
+  const written = [
+    'Bundle',
+    'Patient',
+    'BodyStructure',
+    'Procedure',
+    'MedicationAdministration',
+    'Medication',
+    'Observation',
+  ];
+  const refs = written.map((type) => ({ $ref: `#/definitions/${type}` }));
+  schema.oneOf = refs;
+  schema.definitions.ResourceList = { oneOf: refs };
+  schema.discriminator.mapping = Object.fromEntries(
+    written.map((type) => [type, `#/definitions/${type}`]),
+  );
   const ajv = new Ajv({ strict: false, allErrors: false });
   ajv.addMetaSchema((await import('ajv/dist/refs/json-schema-draft-06.json')).default);
   validateFhir = ajv.compile(schema);
@@ -167,6 +184,13 @@ describe('treatment records out as FHIR R4 bundles', () => {
     const bundle = JSON.parse(res.text);
     expectValidR4(bundle);
     expect(bundle).toMatchObject({ resourceType: 'Bundle', type: 'transaction' });
+    // The validator does refuse: a status that is not a code, a resource type FHIR lacks.
+    const broken = structuredClone(bundle);
+    broken.entry[2].resource.status = 42;
+    expect(validateFhir(broken)).toBe(false);
+    expect(validateFhir({ ...bundle, entry: [{ resource: { resourceType: 'Treatment' } }] })).toBe(
+      false,
+    );
 
     const procedure = resources(bundle, 'Procedure')[0]!;
     expect(procedure.status).toBe('completed');
@@ -304,7 +328,7 @@ describe('treatment records out as FHIR R4 bundles', () => {
     expect(none.body.error.message).toMatch(/no treatment record yet/);
   });
 
-  it('the outbox retries while the FHIR server is down and delivers each version once when it is back', async () => {
+  it('the outbox retries while the FHIR server is down and delivers it once when it is back', async () => {
     const orderId = await workedPdtSession();
     const port = Number(new URL(fake.url).port);
     const worker = createFhirDeliveryWorker(
