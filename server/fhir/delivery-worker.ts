@@ -1,7 +1,7 @@
 import type { FhirBundle } from '../../shared/fhir/treatment-bundle';
 import { FhirAnswerError } from '../../shared/fhir/patient-from-fhir';
 import type { Clock } from '../clock';
-import { retryDelayS } from '../mail/outbox';
+import { pollingWorker, retryDelayS } from '../mail/outbox';
 import type { FhirGateway } from './client';
 import type { FhirRepository } from './repository';
 
@@ -19,9 +19,6 @@ export function createFhirDeliveryWorker(
   clock: Clock,
   options: { intervalMs?: number; batchSize?: number } = {},
 ) {
-  let timer: NodeJS.Timeout | undefined;
-  let running: Promise<number> | undefined;
-
   async function runOnce(): Promise<number> {
     const batch = await fhir.claimDue(options.batchSize ?? 10, leaseS);
     let sent = 0;
@@ -57,28 +54,7 @@ export function createFhirDeliveryWorker(
     return sent;
   }
 
-  return {
-    runOnce: () => {
-      running ??= runOnce().finally(() => (running = undefined));
-      return running;
-    },
-    start() {
-      const tick = () => {
-        void this.runOnce()
-          .catch((error) => console.error('FHIR outbox worker:', (error as Error).message))
-          .finally(() => {
-            if (timer) timer = setTimeout(tick, options.intervalMs ?? 3000);
-          });
-      };
-      timer = setTimeout(tick, 0);
-    },
-    async stop() {
-      const t = timer;
-      timer = undefined;
-      if (t) clearTimeout(t);
-      await running;
-    },
-  };
+  return pollingWorker(runOnce, 'FHIR outbox worker', options.intervalMs ?? 3000);
 }
 
 export type FhirDeliveryWorker = ReturnType<typeof createFhirDeliveryWorker>;
