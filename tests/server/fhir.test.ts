@@ -508,7 +508,7 @@ describe('patients in from the hospital FHIR server', () => {
     }
   });
 
-  it('a bad search query names the field', async () => {
+  it('a bad search query or FHIR id names the field, and a nurse may not search', async () => {
     const both = await clinicianAgent
       .get('/api/fhir/patients')
       .query({ recordNumber: 'MP-100301', name: 'Otto' });
@@ -516,6 +516,22 @@ describe('patients in from the hospital FHIR server', () => {
     expect(both.body.error.fields[0].path).toBe('recordNumber');
     const nurse = await nurseAgent.get('/api/fhir/patients').query({ name: 'Otto' });
     expect(nurse.status).toBe(403);
+    // A FHIR id that would walk the server's paths is refused before any request, nothing stored.
+    const recordNumber = `PT-${randomUUID().slice(0, 6)}`;
+    const walk = await clinicianAgent.post('/api/patients').send({
+      recordNumber,
+      givenName: 'Path',
+      familyName: 'Walker',
+      dateOfBirth: '1980-02-02',
+      fhirId: '../metadata',
+    });
+    expect(walk.status).toBe(400);
+    expect(walk.body.error.fields[0].path).toBe('fhirId');
+    const [{ n }] = await ctx.dataSource.query(
+      'SELECT COUNT(*) AS n FROM patient WHERE record_number = ?',
+      [recordNumber],
+    );
+    expect(Number(n)).toBe(0);
   });
 
   it('with FHIR_BASE_URL unset the routes say FHIR is not set up, and a link to a FHIR Patient is refused', async () => {
