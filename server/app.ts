@@ -23,6 +23,10 @@ import { createUnitOfWork, type Database } from './db/unit-of-work';
 import { createHealthRepository } from './health/repository';
 import { healthRoutes } from './health/routes';
 import { createHealthService } from './health/service';
+import { createFhirGateway } from './fhir/client';
+import { createFhirRepository } from './fhir/repository';
+import { fhirRoutes } from './fhir/routes';
+import { createFhirService } from './fhir/service';
 import { AppError } from './http/app-error';
 import { errorHandler } from './http/error-handler';
 import { mountRoutes, type RouteSpec } from './http/route-table';
@@ -147,6 +151,15 @@ export function createApp({
     unitTimeZone,
     clock,
   });
+  const fhir = createFhirService({
+    gateway: config.FHIR_BASE_URL
+      ? createFhirGateway(config.FHIR_BASE_URL, config.FHIR_TIMEOUT_MS)
+      : null,
+    fhir: createFhirRepository(dataSource),
+    audit,
+    reads,
+    clock,
+  });
   const sessionRows = createSessionRepository(dataSource);
   const sessionService = createSessionService({
     unitOfWork,
@@ -159,6 +172,7 @@ export function createApp({
     tapClockSkewS: config.TAP_CLOCK_SKEW_S,
     tapOfflineWindowH: config.TAP_OFFLINE_WINDOW_H,
     confirmSignature: auth.confirmSignature,
+    treatmentRecords: fhir,
   });
   const discharge = createDischargeService({
     unitOfWork,
@@ -190,7 +204,17 @@ export function createApp({
     ...peopleRoutes(people),
     ...protocolRoutes(protocols),
     ...calculationRoutes(createCalculationService(protocols)),
-    ...patientRoutes(createPatientService(patients, orders, audit, reads, weightChangeRule)),
+    ...patientRoutes(
+      createPatientService(
+        patients,
+        orders,
+        audit,
+        reads,
+        weightChangeRule,
+        config.FHIR_BASE_URL ? fhir.sourceForNewPatient : undefined,
+      ),
+    ),
+    ...fhirRoutes(fhir),
     ...todayRoutes(createTodayService({ orders, clock })),
     ...orderRoutes(orderService),
     ...pharmacyRoutes(pharmacy),

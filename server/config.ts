@@ -103,6 +103,18 @@ const envSchema = z.object({
     .min(1, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650')
     .max(3650, 'WEIGHT_CHANGE_WITHIN_DAYS must be 1 to 3650')
     .default(90),
+  /**
+   * The hospital's FHIR R4 server (base URL, e.g. http://127.0.0.1:3090). Unset: no patient look-up
+   * and no treatment records sent; the screens hide both.
+   */
+  FHIR_BASE_URL: z
+    .string()
+    .url('FHIR_BASE_URL must be a full address such as https://fhir.hospital.example/r4')
+    .transform((v) => v.replace(/\/+$/, ''))
+    .optional()
+    .or(z.literal('').transform(() => undefined)),
+  /** How long one request to the FHIR server may take before it counts as down. */
+  FHIR_TIMEOUT_MS: z.coerce.number().int().min(500).max(60000).default(5000),
   /** Fictitious demo people (with a published password) and patients; never wanted in production. */
   DEMO_DATA: bool.optional(),
   LOGIN_FAILURE_LIMIT: z.coerce.number().int().min(1).max(1000).default(10),

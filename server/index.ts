@@ -11,6 +11,9 @@ import type { Database } from './db/unit-of-work';
 import { createSmtpMailer, type Mailer } from './mail/mailer';
 import { createOutboxWorker, type OutboxWorker } from './mail/outbox';
 import { createOutboxRepository } from './mail/outbox-repository';
+import { createFhirGateway } from './fhir/client';
+import { createFhirDeliveryWorker, type FhirDeliveryWorker } from './fhir/delivery-worker';
+import { createFhirRepository } from './fhir/repository';
 import { loadShippedProtocols } from './protocols/load-shipped';
 import { recomputeRunningSessions } from './sessions/recover';
 
@@ -20,6 +23,8 @@ export interface RunningWebServer {
   dataSource: Database;
   mailer: Mailer;
   outbox: OutboxWorker;
+  /** Sends treatment bundles to the FHIR server; null when FHIR_BASE_URL is unset. */
+  fhirOutbox: FhirDeliveryWorker | null;
   config: Config;
 }
 
@@ -53,6 +58,14 @@ export async function startWebServer(
   });
   const outbox = createOutboxWorker(createOutboxRepository(dataSource), mailer, clock);
   outbox.start();
+  const fhirOutbox = config.FHIR_BASE_URL
+    ? createFhirDeliveryWorker(
+        createFhirRepository(dataSource),
+        createFhirGateway(config.FHIR_BASE_URL, config.FHIR_TIMEOUT_MS),
+        clock,
+      )
+    : null;
+  fhirOutbox?.start();
   const port = options.port ?? config.PORT;
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(port, config.HOST, () => resolve(s));
@@ -60,7 +73,15 @@ export async function startWebServer(
   });
   const address = server.address();
   const actualPort = typeof address === 'object' && address ? address.port : port;
-  return { url: `http://${config.HOST}:${actualPort}`, server, dataSource, mailer, outbox, config };
+  return {
+    url: `http://${config.HOST}:${actualPort}`,
+    server,
+    dataSource,
+    mailer,
+    outbox,
+    fhirOutbox,
+    config,
+  };
 }
 
 export async function stopWebServer(running: RunningWebServer): Promise<void> {
@@ -69,6 +90,7 @@ export async function stopWebServer(running: RunningWebServer): Promise<void> {
     running.server.closeAllConnections();
   });
   await running.outbox.stop();
+  await running.fhirOutbox?.stop();
   running.mailer.close();
   if (running.dataSource.isInitialized) await running.dataSource.destroy();
 }

@@ -5,7 +5,7 @@ import type { AuditRepository } from './repository';
 export const readAuditWindowMs = 60_000;
 
 export type ReadAction =
-  'patient.viewed' | 'order.viewed' | 'attachment.viewed' | 'export.downloaded';
+  'patient.viewed' | 'order.viewed' | 'order.fhir-read' | 'attachment.viewed' | 'export.downloaded';
 
 export interface Reader {
   id: number;

@@ -7,6 +7,7 @@ import { DeviationRow } from './entities/deviation';
 import { DeviationReview } from './entities/deviation-review';
 import { DoseCheck } from './entities/dose-check';
 import { DoseRecordRow } from './entities/dose-record';
+import { FhirDelivery } from './entities/fhir-delivery';
 import { OutboxMessage } from './entities/outbox-message';
 import { PasswordLink } from './entities/password-link';
 import { Patient } from './entities/patient';
@@ -45,6 +46,7 @@ export const entities = [
   SignInThrottle,
   RoleRequest,
   AuditChainHead,
+  FhirDelivery,
 ];
 
 export interface DatabaseConnection {

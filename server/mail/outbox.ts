@@ -23,9 +23,6 @@ export function createOutboxWorker(
   clock: Clock,
   options: { intervalMs?: number; batchSize?: number } = {},
 ) {
-  let timer: NodeJS.Timeout | undefined;
-  let running: Promise<number> | undefined;
-
   async function runOnce(): Promise<number> {
     const batch = await outbox.claimDue(options.batchSize ?? 20, leaseS);
     let sent = 0;
@@ -59,18 +56,29 @@ export function createOutboxWorker(
     return sent;
   }
 
+  return pollingWorker(runOnce, 'Outbox worker', options.intervalMs ?? 2000);
+}
+
+/**
+ * Runs `pass` now and then every `intervalMs` after the previous pass ended; one pass at a time
+ * (a `runOnce` during a pass joins it), and `stop` waits for the pass under way.
+ */
+export function pollingWorker(pass: () => Promise<number>, label: string, intervalMs: number) {
+  let timer: NodeJS.Timeout | undefined;
+  let running: Promise<number> | undefined;
+  const runOnce = () => {
+    running ??= pass().finally(() => (running = undefined));
+    return running;
+  };
   return {
-    /** One pass over due messages; returns how many were sent. */
-    runOnce: () => {
-      running ??= runOnce().finally(() => (running = undefined));
-      return running;
-    },
+    /** One pass over what is due; returns how many were sent. */
+    runOnce,
     start() {
       const tick = () => {
-        void this.runOnce()
-          .catch((error) => console.error('Outbox worker:', (error as Error).message))
+        void runOnce()
+          .catch((error) => console.error(`${label}:`, (error as Error).message))
           .finally(() => {
-            if (timer) timer = setTimeout(tick, options.intervalMs ?? 2000);
+            if (timer) timer = setTimeout(tick, intervalMs);
           });
       };
       timer = setTimeout(tick, 0);

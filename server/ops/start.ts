@@ -3,6 +3,8 @@ import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
 import { seedDemoScenario } from '../demo/scenario';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
+import { demoFhirPatients } from '../fhir-fake/demo-patients';
+import { startFakeFhirServer, type FakeFhirServer } from '../fhir-fake/fake-server';
 import { loadShippedProtocols } from '../protocols/load-shipped';
 import { startApiProcess, type ApiProcess } from './api-process';
 import { buildClient } from './build-client';
@@ -20,6 +22,7 @@ const config = loadConfig(env);
 
 let database: DatabaseServer | undefined;
 let mail: MailCatcher | undefined;
+let fakeFhir: FakeFhirServer | undefined;
 let web: ApiProcess | undefined;
 let stopping = false;
 
@@ -37,6 +40,7 @@ async function shutdown(reason: string, exitCode: number) {
     await web.kill();
   }
   mail?.stop();
+  await fakeFhir?.stop();
   if (database) {
     await database.stop();
     console.log(
@@ -95,8 +99,31 @@ try {
   mail = await ensureMailCatcher(config.SMTP_PORT, Number(process.env.MAIL_WEB_PORT ?? 1080));
   console.log(`• Mail catcher: SMTP 127.0.0.1:${config.SMTP_PORT}, inbox ${mail.webUrl}`);
 
+  // The hospital's FHIR server: the one configured, or the local fake with the demo patients.
+  let fhirBaseUrl = config.FHIR_BASE_URL;
+  if (!fhirBaseUrl && process.env.FHIR_FAKE !== 'false') {
+    const port = Number(process.env.FHIR_FAKE_PORT ?? 3090);
+    const url = `http://127.0.0.1:${port}`;
+    const running = await fetch(`${url}/metadata`, { signal: AbortSignal.timeout(1000) })
+      .then((r) => r.ok)
+      .catch(() => false);
+    if (!running) fakeFhir = await startFakeFhirServer({ port, patients: demoFhirPatients() });
+    fhirBaseUrl = url;
+    console.log(
+      `• Fake FHIR server (fictitious demo patients): ${url}${running ? ' (already running)' : ''}`,
+    );
+  } else if (fhirBaseUrl) console.log(`• FHIR server: ${fhirBaseUrl}`);
+  else console.log('• FHIR: off (FHIR_FAKE=false and no FHIR_BASE_URL)');
+
   console.log(`• Client build: ${await buildClient()}`);
-  web = await startApiProcess({ port: config.PORT, env: { ...env, CLIENT_DIR: clientDistDir } });
+  web = await startApiProcess({
+    port: config.PORT,
+    env: {
+      ...env,
+      CLIENT_DIR: clientDistDir,
+      ...(fhirBaseUrl ? { FHIR_BASE_URL: fhirBaseUrl } : {}),
+    },
+  });
   web.child.once(
     'exit',
     (code, signal) => void shutdown(`The web server ended (${code ?? signal})`, code ? 1 : 0),

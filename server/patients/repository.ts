@@ -61,7 +61,10 @@ export function createPatientRepository(dataSource: DataSource) {
         order: { id: 'ASC' },
         take: 20,
       }),
-    create: (patient: Omit<Patient, 'id' | 'createdAt'>) => repo.save(repo.create(patient)),
+    create: (
+      patient: Omit<Patient, 'id' | 'createdAt' | 'fhirSource' | 'fhirId' | 'fhirReadAt'> &
+        Partial<Pick<Patient, 'fhirSource' | 'fhirId' | 'fhirReadAt'>>,
+    ) => repo.save(repo.create(patient)),
 
     /**
      * The patient's recorded measurements, newest first. Rows of revisions an amendment replaced

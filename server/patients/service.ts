@@ -24,6 +24,10 @@ export function toPatientDto(p: Patient): PatientDto {
     dateOfBirth: p.dateOfBirth,
     email: p.email,
     emailConsent: p.emailConsent,
+    fhirSource:
+      p.fhirSource && p.fhirId
+        ? { baseUrl: p.fhirSource, id: p.fhirId, readAt: p.fhirReadAt?.toISOString() ?? null }
+        : null,
   };
 }
 
@@ -36,6 +40,11 @@ export function createPatientService(
   audit: AuditRepository,
   reads: ReadAudit,
   weightChangeRule: WeightChangeRule,
+  /** Reads the hospital's Patient again and checks it (server/fhir); absent, a FHIR link is refused. */
+  fhirSourceFor?: (
+    fhirId: string,
+    recordNumber: string,
+  ) => Promise<{ fhirSource: string; fhirId: string; fhirReadAt: Date }>,
 ) {
   return {
     /** The last heights and weights recorded on signed orders, newest first, with the rule a new weight is held to. */
@@ -66,6 +75,15 @@ export function createPatientService(
           `A patient with record number ${input.recordNumber} exists already; search for it instead of adding it again.`,
         );
       if (await patients.findByRecordNumber(input.recordNumber)) throw taken();
+      const source = input.fhirId
+        ? fhirSourceFor
+          ? await fhirSourceFor(input.fhirId, input.recordNumber)
+          : (() => {
+              throw AppError.badRequest('This unit has no FHIR server set up.', [
+                { path: 'fhirId', message: 'fhirId is accepted only when FHIR_BASE_URL is set' },
+              ]);
+            })()
+        : { fhirSource: null, fhirId: null, fhirReadAt: null };
       // A second record for one person splits their history (and the retreatment interval and
       // duplicate-order checks with it): the same name and date of birth needs a confirmation.
       const sameness = await patients.findByNameAndBirth(
@@ -98,9 +116,14 @@ export function createPatientService(
         }
       }
       // Two people adding the same record at once: both pass the look-up, the unique key stops one.
-      const { duplicateConfirmed: _confirmed, duplicateReason: _reason, ...fields } = input;
+      const {
+        duplicateConfirmed: _confirmed,
+        duplicateReason: _reason,
+        fhirId: _fhirId,
+        ...fields
+      } = input;
       const patient = await patients
-        .create({ ...fields, email: input.email ?? null })
+        .create({ ...fields, email: input.email ?? null, ...source })
         .catch((error: unknown) => {
           throw isDuplicateKey(error) ? taken() : error;
         });
@@ -112,6 +135,7 @@ export function createPatientService(
         ipAddress: actor.ipAddress,
         details: {
           recordNumber: patient.recordNumber,
+          ...(source.fhirId ? { fhirSource: source.fhirSource, fhirId: source.fhirId } : {}),
           ...(sameness.length > 0
             ? { possibleDuplicateOf: sameness.map((p) => p.id), duplicateReason }
             : {}),

@@ -92,6 +92,10 @@ export function createSessionService(deps: {
     password: string,
     ipAddress: string | undefined,
   ) => Promise<boolean>;
+  /** Stores the next version of the treatment's FHIR bundle in the session's transaction (server/fhir). */
+  treatmentRecords?: {
+    enqueueTreatment(tx: Transaction, orderId: number, reason: string): Promise<void>;
+  };
 }) {
   const { unitOfWork, orders, sessions, users, audit } = deps;
   const now = () => deps.clock.now().getTime();
@@ -738,6 +742,15 @@ export function createSessionService(deps: {
             await moveOrderStatus(tx, orderId, status, next);
             status = next;
           }
+          // The hospital's record: version 1 when the session ends, one more for each later
+          // change to the record (a late entry or a withdrawn tap), stored with the change itself.
+          if (ends) await deps.treatmentRecords?.enqueueTreatment(tx, orderId, 'session-ended');
+          else if (isSessionEnded(order.status))
+            await deps.treatmentRecords?.enqueueTreatment(
+              tx,
+              orderId,
+              `record-changed:${input.type}`,
+            );
           if (ends && result.deviations.length > 0) {
             await enqueueMessage(tx, {
               kind: 'session-deviations',

@@ -47,6 +47,11 @@ export const createPatientSchema = z
       .max(500, 'duplicateReason must be at most 500 characters')
       .nullable()
       .optional(),
+    /** The hospital FHIR server's Patient id the form was filled from; the server reads it again. */
+    fhirId: z
+      .string()
+      .regex(/^[A-Za-z0-9\-.]{1,64}$/, 'fhirId must be a FHIR id (1 to 64 letters, digits, - or .)')
+      .optional(),
   })
   .refine((p) => !p.emailConsent || !!p.email, {
     message: 'email is required when the patient agrees to e-mail',
@@ -70,6 +75,11 @@ export const patientSchema = z.object({
   dateOfBirth: z.string(),
   email: z.string().nullable(),
   emailConsent: z.boolean(),
+  /** Where the patient was taken from, when from the hospital's FHIR server. */
+  fhirSource: z
+    .object({ baseUrl: z.string(), id: z.string(), readAt: z.string().nullable() })
+    .nullable()
+    .optional(),
 });
 export type Patient = z.infer<typeof patientSchema>;
 

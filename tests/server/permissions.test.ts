@@ -72,6 +72,11 @@ const expected: Record<string, 'public' | Role[]> = {
   'GET /api/audit-events': ['auditor'],
   'GET /api/audit-chain': ['auditor', 'admin'],
   'GET /api/staff': ['auditor'],
+  'GET /api/fhir/status': all,
+  'GET /api/fhir/patients': ['clinician', 'admin'],
+  'POST /api/patients/:id/fhir-refresh': ['clinician', 'admin'],
+  'GET /api/orders/:id/fhir': ['clinician', 'nurse', 'pharmacist', 'auditor'],
+  'GET /api/outbox/fhir': ['admin'],
 };
 
 let ctx: TestContext;

@@ -26,6 +26,17 @@ export class Patient {
   @Column({ name: 'email_consent', type: 'boolean', default: false })
   emailConsent!: boolean;
 
+  /** The hospital FHIR server's Patient this record was taken from (its base URL and id); null when typed in. */
+  @Column({ name: 'fhir_source', type: 'varchar', length: 300, nullable: true })
+  fhirSource!: string | null;
+
+  @Column({ name: 'fhir_id', type: 'varchar', length: 64, nullable: true })
+  fhirId!: string | null;
+
+  /** When the names and date of birth were last read from the FHIR server. */
+  @Column({ name: 'fhir_read_at', type: 'datetime', precision: 3, nullable: true })
+  fhirReadAt!: Date | null;
+
   @CreateDateColumn({
     name: 'created_at',
     type: 'datetime',

@@ -10,6 +10,8 @@ const actionWords: Record<string, string> = {
   'patient.created': 'Patient added',
   'patient.viewed': 'Patient record opened',
   'order.viewed': 'Order opened',
+  'order.fhir-read': 'Treatment record read as FHIR',
+  'patient.fhir-refreshed': 'Patient read again from the hospital record',
   'attachment.viewed': 'Report opened (downloaded)',
   'export.downloaded': 'Export downloaded (CSV)',
   'order.drafted': 'Order drafted',

@@ -8,6 +8,7 @@ import { unitTimeZone, unitTimeZoneLabel } from '../../../config/unit-time-zone'
 import { describeError } from '../../../lib/api-client';
 import { outboxQueries } from '../api/outbox-queries';
 import type { OutboxMessage } from '../api/get-outbox-messages';
+import { FhirDeliveries } from './fhir-deliveries';
 import { messageLook, MessageStatus } from './message-status';
 
 const kindWords: Record<string, string> = {
@@ -96,6 +97,7 @@ export function OutboxScreen() {
           <OutboxTable messages={messages} />
         </div>
       )}
+      <FhirDeliveries />
     </>
   );
 }

@@ -1,5 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import {
@@ -9,7 +10,9 @@ import {
 } from '../../../../shared/orders/reason-of-substance';
 import { TextAreaField } from '../../../components/ui/text-area-field';
 import { paths } from '../../../config/paths';
+import { fhirStatusQuery, type FhirCandidate } from '../api/fhir-patients';
 import { patientQueries } from '../api/patient-queries';
+import { FhirPatientSearch } from './fhir-patient-search';
 import { useDebouncedValue } from '../hooks/use-debounced-value';
 import { formatCalendarDate } from './unit-dates';
 import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
@@ -31,7 +34,7 @@ import {
   unplacedFieldProblems,
 } from '../../../lib/form-errors';
 import { useCreatePatient } from '../hooks/use-create-patient';
-import { parseUnitDate, unitDatePattern } from '../../../lib/unit-times';
+import { formatUnitCalendarDate, parseUnitDate, unitDatePattern } from '../../../lib/unit-times';
 
 type PatientFormValues = {
   recordNumber: string;
@@ -89,7 +92,11 @@ const sameWhy = 'how you know this is another person';
 
 export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps) {
   const createPatient = useCreatePatient();
+  const fhirStatus = useQuery(fhirStatusQuery());
+  /** The hospital record the form was filled from: sent along, and read again by the server. */
+  const [fromFhir, setFromFhir] = useState<FhirCandidate | null>(null);
   const {
+    setValue,
     register,
     handleSubmit,
     setError,
@@ -154,7 +161,7 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
         return;
       }
     }
-    createPatient.mutate(input, {
+    createPatient.mutate(fromFhir ? { ...input, fhirId: fromFhir.fhirId } : input, {
       onSuccess: (patient) => {
         draftKeeper.clear();
         onCreated(patient);
@@ -194,7 +201,34 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
       <p className="mb-5 text-paper-700">
         Copy the record number and names exactly as they stand on the hospital record.
       </p>
+      {fhirStatus.data?.enabled && (
+        <FhirPatientSearch
+          onPick={(c) => {
+            const fill = { shouldDirty: true, shouldValidate: false } as const;
+            setValue('recordNumber', c.recordNumber ?? '', fill);
+            setValue('givenName', c.givenName, fill);
+            setValue('familyName', c.familyName, fill);
+            setValue(
+              'dateOfBirth',
+              c.dateOfBirth ? formatUnitCalendarDate(c.dateOfBirth) : '',
+              fill,
+            );
+            setFromFhir(c);
+          }}
+        />
+      )}
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">
+        {fromFhir && (
+          <div className="flex flex-wrap items-center gap-3 rounded-lg border border-iris-700 bg-iris-50 px-4 py-3 text-paper-950">
+            <p className="flex-1">
+              Filled from the hospital record (FHIR Patient/{fromFhir.fhirId}). Check it against the
+              patient in front of you; the record number must stay the hospital&apos;s.
+            </p>
+            <Button variant="secondary" onClick={() => setFromFhir(null)}>
+              Do not link to the hospital record
+            </Button>
+          </div>
+        )}
         {error &&
           (fieldLevel ? (
             <Alert tone="error" title="The patient was not added: check the fields marked below">

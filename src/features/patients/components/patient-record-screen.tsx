@@ -1,4 +1,8 @@
-import { useQuery } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { Patient } from '../../../../shared/schemas/patients';
+import { Alert } from '../../../components/ui/alert';
+import { formatUnitDateTime } from '../../../lib/unit-times';
+import { invalidatePatient, refreshFromFhir } from '../api/fhir-patients';
 import { LinkButton } from '../../../components/ui/button';
 import { AlertIcon, ArrowLeftIcon, PlusIcon, ReloadIcon } from '../../../components/ui/icons';
 import { Button } from '../../../components/ui/button';
@@ -10,6 +14,49 @@ import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { patientQueries } from '../api/patient-queries';
 import { EyeHistory } from './eye-history';
 import { ageInYears, formatCalendarDate } from './unit-dates';
+
+/** Where the patient came from: typed in, or the hospital's FHIR record (which can be read again). */
+function HospitalRecordSource({ patient }: { patient: Patient }) {
+  const queryClient = useQueryClient();
+  const refresh = useMutation({
+    mutationFn: () => refreshFromFhir(patient.id),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: invalidatePatient() }),
+  });
+  const source = patient.fhirSource;
+  return (
+    <div className="mt-4 flex flex-wrap items-center gap-3 border-t border-paper-200 pt-3 text-sm">
+      <p className="flex-1 text-paper-800">
+        {source ? (
+          <>
+            Source: hospital record, FHIR Patient/{source.id} at {source.baseUrl}
+            {source.readAt ? `, last read ${formatUnitDateTime(source.readAt)}` : ''}.
+          </>
+        ) : (
+          'Source: entered by hand in Luxtempo.'
+        )}
+      </p>
+      {source && (
+        <Button variant="secondary" busy={refresh.isPending} onClick={() => refresh.mutate()}>
+          {refresh.isPending ? 'Reading…' : 'Read again from the hospital record'}
+        </Button>
+      )}
+      {refresh.isSuccess && (
+        <p role="status" className="w-full text-paper-800">
+          {refresh.data.changed.length
+            ? `Updated from the hospital record: ${refresh.data.changed.join(', ')}.`
+            : 'The hospital record says the same: nothing changed.'}
+        </p>
+      )}
+      {refresh.isError && (
+        <div className="w-full">
+          <Alert tone="error" title="The hospital record could not be read">
+            {describeError(refresh.error)}
+          </Alert>
+        </div>
+      )}
+    </div>
+  );
+}
 
 export function PatientRecordScreen({
   patientId,
@@ -123,6 +170,7 @@ export function PatientRecordScreen({
             <dd className="font-medium text-paper-950">{patient.emailConsent ? 'Yes' : 'No'}</dd>
           </div>
         </dl>
+        <HospitalRecordSource patient={patient} />
       </section>
 
       <p className="mb-4 text-sm text-paper-700">
