@@ -32,6 +32,7 @@ const apiUrl = (i: number) => `http://127.0.0.1:${settings.apiPorts[i]}`;
 async function expectEachTapOnceOnEveryNode(tablets: Tablet[]) {
   for (const tablet of tablets) {
     expect(tablet.refused).toEqual([]);
+    expect(tablet.miscounted).toEqual([]);
     const made = tablet.made.map((t) => t.idempotencyKey).sort();
     for (const node of settings.nodes)
       expect(await storedKeys(node, settings.database, tablet.orderId)).toEqual(made);

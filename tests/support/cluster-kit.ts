@@ -33,6 +33,9 @@ export class Tablet {
   private t0 = Date.now() - 30 * 60_000;
   private nextS = 180;
   refused: string[] = [];
+  /** Answers whose event count was not the number of this order's taps stored so far. */
+  readonly miscounted: string[] = [];
+  private stored = 0;
 
   constructor(
     readonly nurse: FaultClient,
