@@ -145,4 +145,3 @@ export async function readyCxlOrder(base: string): Promise<number> {
   expect(signed.body.order.status).toBe('ready');
   return draft.body.order.id;
 }
-
