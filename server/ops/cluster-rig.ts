@@ -109,7 +109,13 @@ export interface RunningCluster {
  */
 export async function startCluster(
   settings: ClusterSettings,
-  options: { clientDir?: string; env?: NodeJS.ProcessEnv; log?: (line: string) => void } = {},
+  options: {
+    clientDir?: string;
+    env?: NodeJS.ProcessEnv;
+    log?: (line: string) => void;
+    /** The fault tests send no mail: they start no catcher (the outbox keeps its messages). */
+    mailCatcher?: boolean;
+  } = {},
 ): Promise<RunningCluster> {
   const log = options.log ?? (() => undefined);
   const { nodes } = settings;
@@ -212,7 +218,8 @@ export async function startCluster(
     );
     await waitForWriter(config);
     await prepareAppDatabase(config, owner);
-    mail = await ensureMailCatcher(settings.smtpPort, settings.mailWebPort);
+    if (options.mailCatcher !== false)
+      mail = await ensureMailCatcher(settings.smtpPort, settings.mailWebPort);
     for (let i = 0; i < settings.apiPorts.length; i++) {
       await startApi(i);
       log(`• API process ${i + 1} on 127.0.0.1:${settings.apiPorts[i]}`);
@@ -226,7 +233,7 @@ export async function startCluster(
     settings,
     config,
     url: `http://127.0.0.1:${settings.webPort}`,
-    mailWebUrl: mail.webUrl,
+    mailWebUrl: mail?.webUrl ?? '(no mail catcher)',
     apis,
     startApi,
     killApi: (index) => stopApi(index, 'SIGKILL'),

@@ -19,7 +19,7 @@ let cluster: RunningCluster;
 
 beforeAll(async () => {
   rmSync(settings.dir, { recursive: true, force: true });
-  cluster = await startCluster(settings);
+  cluster = await startCluster(settings, { mailCatcher: false });
 }, 300_000);
 
 afterAll(async () => {
