@@ -7,7 +7,16 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './app';
 import { applyServerTimeZone } from './config/unit-time-zone';
+import { ordersWithUnsentTapsOf } from './features/step-clock/api/tap-store';
+import { takeUpdatesWhenIdle } from './lib/app-update';
+import { currentPersonId } from './lib/current-person';
 import { dropExpiredDrafts } from './lib/form-draft';
+
+/** Whether this tablet still holds taps of the person signed in (a new version waits for them). */
+async function unsentTapsOfPersonSignedIn(): Promise<number> {
+  const person = currentPersonId();
+  return person === null ? 0 : (await ordersWithUnsentTapsOf(person)).length;
+}
 
 const container = document.getElementById('root');
 if (!container) throw new Error('index.html must contain <div id="root">');
@@ -30,7 +39,10 @@ dropExpiredDrafts();
 
 // The service worker (src/sw.ts) lets the clock open without network; the dev server has none.
 if (import.meta.env.PROD && 'serviceWorker' in navigator) {
-  void navigator.serviceWorker.register('/sw.js', { scope: '/' }).catch(() => undefined);
+  void navigator.serviceWorker
+    .register('/sw.js', { scope: '/' })
+    .then((registration) => takeUpdatesWhenIdle(registration, unsentTapsOfPersonSignedIn))
+    .catch(() => undefined);
   // Fetched before the worker took over, the unit's settings were not kept: ask again through it
   // (the provider does the same for the step clock's own answers).
   navigator.serviceWorker.addEventListener('controllerchange', () => {

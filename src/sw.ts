@@ -18,6 +18,7 @@ import {
 } from 'workbox-precaching';
 import { NavigationRoute, registerRoute } from 'workbox-routing';
 import { NetworkFirst } from 'workbox-strategies';
+import { takeOverMessage } from './lib/sw-messages';
 import { apiCacheName, offlineApiPaths, offlineCopyHeader } from './lib/offline-cache';
 
 /* The DOM typings are the project's; only the few service-worker members used here are named. */
@@ -27,9 +28,10 @@ interface WorkerScope {
   skipWaiting(): Promise<void>;
   clients: { claim(): Promise<void> };
   addEventListener(
-    type: 'install' | 'activate',
+    type: 'activate',
     listener: (event: Event & { waitUntil(promise: Promise<unknown>): void }) => void,
   ): void;
+  addEventListener(type: 'message', listener: (event: { data: unknown }) => void): void;
 }
 const worker = self as unknown as WorkerScope;
 
@@ -68,6 +70,12 @@ registerRoute(
   'GET',
 );
 
-// A new version takes over at once: the shell is precached whole, so no page mixes two versions' files after its next load.
-worker.addEventListener('install', () => void worker.skipWaiting());
+// A new version waits: taking over at once would drop the running version's files from the
+// precache under a page still using them (a step clock mid-session, offline perhaps). The page
+// asks it to take over when it is idle (lib/app-update.ts), then reloads into it. The first
+// version has nothing to wait for and takes the open pages at once.
+worker.addEventListener('message', (event) => {
+  const data = event.data as { type?: unknown } | null;
+  if (data?.type === takeOverMessage.type) void worker.skipWaiting();
+});
 worker.addEventListener('activate', (event) => event.waitUntil(worker.clients.claim()));

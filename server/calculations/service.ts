@@ -35,7 +35,7 @@ export function createCalculationService(protocols: ProtocolService) {
      * that it is for review only.
      */
     async plan(request: CalculationRequest) {
-      const row = await protocols.resolveForPreview(request.protocol.key, request.protocol.version);
+      const row = await protocols.resolveForUse(request.protocol.key, request.protocol.version);
       const plan: DosePlan = planFromEngine(row.definition, request.inputs);
       if (row.status !== 'approved') {
         plan.warnings.push({

@@ -9,6 +9,14 @@ const databaseDownCodes = new Set([
   'ETIMEDOUT',
   'ECONNRESET',
   'ER_CON_COUNT_ERROR',
+  'EPIPE',
+  'ER_SERVER_SHUTDOWN',
+  'ER_CONNECTION_KILLED',
+  // A Galera node cut off from the others, or still joining, refuses every query (1047) until it
+  // is a synced member of the primary component again; HAProxy moves to another node meanwhile.
+  'ER_UNKNOWN_COM_ERROR',
+  // Two Galera nodes wrote the same rows at once: the later commit is refused and rolled back.
+  'ER_LOCK_DEADLOCK',
 ]);
 
 /**

@@ -44,8 +44,11 @@ export async function ensureMailCatcher(smtpPort: number, webPort: number): Prom
   while (!(await answers(`${webUrl}/api/healthz`))) {
     if (child.exitCode !== null)
       throw new Error(`The mail catcher stopped at start; see .data/maildev.log`);
-    if (Date.now() > until)
+    if (Date.now() > until) {
+      // Not left running behind a start that failed.
+      child.kill('SIGTERM');
       throw new Error('The mail catcher did not answer within 15 s; see .data/maildev.log');
+    }
     await new Promise((r) => setTimeout(r, 150));
   }
   return { webUrl, startedHere: true, stop: () => child.kill('SIGTERM') };

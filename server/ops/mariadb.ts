@@ -251,7 +251,9 @@ function sqlString(value: string): string {
 }
 
 /** The administrator's connection: through the socket, by unix_socket; an earlier version's root had an empty password. */
-async function adminConnection({ socketPath }: InstancePaths): Promise<mysql.Connection> {
+async function adminConnection({
+  socketPath,
+}: Pick<InstancePaths, 'socketPath'>): Promise<mysql.Connection> {
   try {
     return await mysql.createConnection({
       socketPath,
@@ -322,7 +324,7 @@ export function hasEmptyPassword(account: AccountRow): boolean {
   );
 }
 
-async function hardenAccounts(paths: InstancePaths): Promise<void> {
+async function hardenAccounts(paths: Pick<InstancePaths, 'socketPath'>): Promise<void> {
   const db = await adminConnection(paths);
   try {
     const me = adminUser();
@@ -352,8 +354,8 @@ async function hardenAccounts(paths: InstancePaths): Promise<void> {
 }
 
 async function createDatabasesAndUsers(
-  paths: InstancePaths,
-  options: DatabaseServerOptions,
+  paths: Pick<InstancePaths, 'socketPath'>,
+  options: Omit<DatabaseServerOptions, 'port' | 'instanceDir'>,
 ): Promise<void> {
   const root = await adminConnection(paths);
   try {
@@ -383,6 +385,18 @@ async function createDatabasesAndUsers(
   } finally {
     await root.end();
   }
+}
+
+/**
+ * The same accounts and databases as a private instance's, on a server reached through its socket
+ * (a Galera node: the statements replicate to the others).
+ */
+export async function prepareAccounts(
+  socketPath: string,
+  options: Omit<DatabaseServerOptions, 'port' | 'instanceDir'>,
+): Promise<void> {
+  await hardenAccounts({ socketPath });
+  await createDatabasesAndUsers({ socketPath }, options);
 }
 
 export async function ensureDatabaseServer(

@@ -13,6 +13,8 @@ const entries = {
   start: 'server/ops/start.ts',
   test: 'server/ops/test.ts',
   bench: 'server/ops/bench.ts',
+  cluster: 'server/ops/cluster.ts',
+  'test-cluster': 'server/ops/test-cluster.ts',
 };
 if (!entries[command]) {
   console.error(`usage: node server/ops/prepare.mjs <${Object.keys(entries).join('|')}>`);
@@ -56,6 +58,15 @@ function ensureDebianPackages(packages) {
 const debian = [{ name: 'mariadb-server', binary: '/usr/sbin/mariadbd' }];
 if (command === 'test' || command === 'bench')
   debian.push({ name: 'chromium', binary: '/usr/bin/chromium' });
+// The cluster: Galera (a dependency of mariadb-server, named in case it was left out), HAProxy,
+// rsync for a joining node's full copy (SST), and iproute2 for the partition test's namespaces.
+if (command === 'cluster' || command === 'test-cluster')
+  debian.push(
+    { name: 'galera-4', binary: '/usr/lib/galera/libgalera_smm.so' },
+    { name: 'haproxy', binary: '/usr/sbin/haproxy' },
+    { name: 'rsync', binary: '/usr/bin/rsync' },
+    { name: 'iproute2', binary: '/usr/sbin/ip' },
+  );
 
 ensureNpmPackages();
 ensureDebianPackages(debian);

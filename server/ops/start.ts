@@ -1,11 +1,7 @@
 import { loadConfig } from '../config';
-import { migrateDatabase } from '../db/migrate';
-import { appDataSource } from '../db/options';
-import { seedDemoScenario } from '../demo/scenario';
-import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { demoFhirPatients } from '../fhir-fake/demo-patients';
 import { startFakeFhirServer, type FakeFhirServer } from '../fhir-fake/fake-server';
-import { loadShippedProtocols } from '../protocols/load-shipped';
+import { demoSignIns, prepareAppDatabase } from './app-database';
 import { startApiProcess, type ApiProcess } from './api-process';
 import { buildClient } from './build-client';
 import { ensureDatabaseFor } from './database-setup';
@@ -57,44 +53,7 @@ process.on('SIGTERM', () => void shutdown('SIGTERM', 0));
 try {
   const owner = localOwnerCredentials();
   database = await ensureDatabaseFor(config, owner, [config.DB_NAME, testDatabase]);
-  const ran = await migrateDatabase(config, owner);
-  console.log(
-    ran.length ? `• Migrations run: ${ran.join(', ')}` : '• Database schema is up to date',
-  );
-
-  if (config.DEMO_DATA) {
-    const seedSource = appDataSource(config);
-    await seedSource.initialize();
-    try {
-      const { created } = await seedDemoData(seedSource);
-      await loadShippedProtocols(seedSource);
-      const sessions = await seedDemoScenario(seedSource, config.UNIT_TIME_ZONE);
-      console.log(
-        created.length || sessions
-          ? `• Demo data added (${created.length} people and patients, ${sessions} orders)`
-          : '• Demo data already present',
-      );
-    } finally {
-      await seedSource.destroy();
-    }
-  } else {
-    // Demo people have a published password: with demo data off, none of them may sign in.
-    const source = appDataSource(config);
-    await source.initialize();
-    try {
-      const retired = await retireDemoPeople(source);
-      if (retired) console.log(`• Demo data is off: ${retired} demo people deactivated`);
-      const [{ admins }] = await source.query(
-        "SELECT COUNT(*) AS admins FROM user WHERE active = 1 AND FIND_IN_SET('admin', roles)",
-      );
-      if (Number(admins) === 0)
-        console.log(
-          '• Nobody can sign in yet: create the first administrator with\n    npm run admin:create -- --email you@hospital.example --name "Your Name"',
-        );
-    } finally {
-      await source.destroy();
-    }
-  }
+  await prepareAppDatabase(config, owner);
 
   mail = await ensureMailCatcher(config.SMTP_PORT, Number(process.env.MAIL_WEB_PORT ?? 1080));
   console.log(`• Mail catcher: SMTP 127.0.0.1:${config.SMTP_PORT}, inbox ${mail.webUrl}`);
@@ -136,9 +95,7 @@ try {
 }
 
 const seconds = ((performance.now() - startedAt) / 1000).toFixed(1);
-const signIns = config.DEMO_DATA
-  ? `\nDemo sign-ins (password for all: ${demoPassword}):\n${demoPeople.map((p) => `  ${p.email.padEnd(40)} ${p.roles.join(' + ')}`).join('\n')}\n`
-  : '';
+const signIns = demoSignIns(config);
 console.log(
   `\nLuxtempo is ready (${seconds} s): http://${config.HOST}:${config.PORT}\n${signIns}\nStop with Ctrl-C.`,
 );

@@ -128,21 +128,12 @@ export function createProtocolService(
     );
   }
 
-  /**
-   * Versions as a calculation last found them. A calculation only previews a plan, so it may use
-   * what was read up to a second ago; an order resolves its version afresh in its own transaction.
-   * Any change made through this process empties it at once.
-   */
-  const previews = new Map<string, { row: ProtocolForUse; readAtMs: number }>();
-  const previewMaxAgeMs = 1_000;
-
   return {
     /**
      * Stores every shipped file as an approved version of the demo unit. A stored version whose
      * content differs from its file stops the start: approved versions never change.
      */
     async loadShippedFiles(directory: string): Promise<{ added: string[]; unchanged: number }> {
-      previews.clear();
       const files = readdirSync(directory)
         .filter((f) => f.endsWith('.json'))
         .sort();
@@ -249,19 +240,7 @@ export function createProtocolService(
 
     resolveForUse,
 
-    /** The version a calculation previews, read at most once a second (see `previews`). */
-    async resolveForPreview(key: string, version?: number): Promise<ProtocolForUse> {
-      const cacheKey = `${key}@${version ?? 'newest'}`;
-      const known = previews.get(cacheKey);
-      if (known && Date.now() - known.readAtMs < previewMaxAgeMs) return known.row;
-      const row = await resolveForUse(key, version);
-      if (previews.size > 200) previews.clear();
-      previews.set(cacheKey, { row, readAtMs: Date.now() });
-      return row;
-    },
-
     async importVersion(actor: Actor, json: unknown, fileName: string) {
-      previews.clear();
       if (
         json &&
         typeof json === 'object' &&
@@ -284,7 +263,6 @@ export function createProtocolService(
     },
 
     async createDraftFrom(actor: Actor, from: { key: string; version: number }) {
-      previews.clear();
       const source = await mustFind(from.key, from.version);
       const version = (await repo.highestVersion(from.key)) + 1;
       const definition = parseDefinition({ ...source.definition, version, approval: null }, '');
@@ -300,7 +278,6 @@ export function createProtocolService(
       fileName: string | null,
       extra: Record<string, unknown> = {},
     ) {
-      previews.clear();
       const sha256 = definitionSha256(definition);
       let row: ProtocolVersion;
       try {
@@ -346,7 +323,6 @@ export function createProtocolService(
     },
 
     async updateDraft(actor: Actor, key: string, version: number, input: unknown) {
-      previews.clear();
       const row = await mustFind(key, version);
       if (row.status !== 'draft')
         throw AppError.conflict(
@@ -388,7 +364,6 @@ export function createProtocolService(
       version: number,
       signature: { password: string; meaning: typeof protocolApprovalMeaning },
     ) {
-      previews.clear();
       const found = await mustFind(key, version);
       const approvedAs = approvingRoles.find((role) => actor.roles.includes(role));
       if (!approvedAs)
@@ -455,7 +430,6 @@ export function createProtocolService(
     },
 
     async retire(actor: Actor, key: string, version: number, reason: string) {
-      previews.clear();
       const found = await mustFind(key, version);
       await repo.withLockedVersion(found.id, async (manager, row) => {
         if (row.status !== 'approved')
@@ -485,7 +459,6 @@ export function createProtocolService(
      * again) and can never be edited or approved. An approved or retired version is never discarded.
      */
     async discard(actor: Actor, key: string, version: number, reason: string) {
-      previews.clear();
       const found = await mustFind(key, version);
       await repo.withLockedVersion(found.id, async (manager, row) => {
         if (row.status !== 'draft')

@@ -1,7 +1,10 @@
 import { randomUUID } from 'node:crypto';
+import { readFileSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
 import type { APIRequestContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
+import { clientDistDir } from '../../server/ops/paths';
 import {
   accessibilityViolations,
   signInThroughForm,
@@ -1081,6 +1084,51 @@ describe('the bedside step clock', () => {
         ).recordedBy,
       ).toBe(nurse);
     expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it('a new app version waits while the clock is open, and takes over once the page is idle elsewhere', async () => {
+    const { id } = await readyCxlOrder('cxl-accelerated');
+    const { page } = await nursePage(id);
+    await confirmChecksAndStart(page, 'left');
+    await allStored(page);
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+    const waiting = () =>
+      page.evaluate(async () => (await navigator.serviceWorker.getRegistration())?.waiting != null);
+    const workerFile = path.join(clientDistDir, 'sw.js');
+    const built = readFileSync(workerFile, 'utf8');
+    try {
+      // A new build is deployed while the session runs; the browser finds it.
+      writeFileSync(workerFile, `${built}\n// the next version\n`);
+      await page.evaluate(async () => {
+        await (await navigator.serviceWorker.getRegistration())?.update();
+      });
+      await page.waitForFunction(
+        async () => (await navigator.serviceWorker.getRegistration())?.waiting != null,
+        undefined,
+        { polling: 200 },
+      );
+      // Five untouched minutes on the clock: the running version stays.
+      await advance(page, 5 * 60_000);
+      expect(await waiting()).toBe(true);
+      await page.getByRole('timer').first().waitFor();
+      // Back on Today (the nurse's session is over there), nobody touching the screen: it takes over.
+      await page.evaluate(() => {
+        history.pushState({}, '', '/');
+        dispatchEvent(new PopStateEvent('popstate'));
+      });
+      await advance(page, 2 * 60_000);
+      await page.waitForFunction(
+        async () => {
+          const registration = await navigator.serviceWorker.getRegistration();
+          return registration?.waiting == null && registration?.active?.state === 'activated';
+        },
+        undefined,
+        { polling: 200 },
+      );
+    } finally {
+      writeFileSync(workerFile, built);
+    }
     await page.context().close();
   });
 });

@@ -5,6 +5,7 @@ import { demoPassword } from '../../server/demo/seed';
 import {
   FaultClient,
   faultConfig,
+  readyCxlOrder,
   faultDbPort,
   resetFaultDatabase,
   startApiProcess,
@@ -12,7 +13,6 @@ import {
   stopFaultDatabase,
   type ApiProcess,
 } from '../support/fault-rig';
-import { supersededVersionReason } from '../support/api';
 
 // Ports of these tests' own API processes.
 const portA = 3391;
@@ -45,41 +45,6 @@ const at = (s: number, e: object) => ({
   clientTime: new Date(t0 + s * 1000).toISOString(),
   ...e,
 });
-
-/** A ready CXL order for a new patient, made through the API by the demo clinician. */
-async function readyCxlOrder(base: string): Promise<number> {
-  const clinician = await new FaultClient(base).signIn(
-    'clinician@demo.luxtempo.example',
-    demoPassword,
-  );
-  // A new person each time: the same name and date of birth would be a possible duplicate.
-  const suffix = randomUUID().slice(0, 8);
-  const patient = await clinician.call('POST', '/patients', {
-    recordNumber: `F-${suffix}`,
-    givenName: 'Fault',
-    familyName: `Testcase ${suffix}`,
-    dateOfBirth: '1970-01-01',
-  });
-  const draft = await clinician.call('POST', '/orders', {
-    patientId: patient.body.patient.id,
-    eye: 'right',
-    protocol: { key: 'cxl-standard', version: 1 },
-    // Version 1 is superseded by version 2; the figures here are version 1's.
-    supersededVersionReason,
-    inputs: { stromalThicknessUm: 470 },
-    checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({
-      id,
-      answer: 'no',
-    })),
-  });
-  const signed = await clinician.call('POST', `/orders/${draft.body.order.id}/signature`, {
-    password: demoPassword,
-    meaning: 'ordered',
-    version: draft.body.order.version,
-  });
-  expect(signed.body.order.status).toBe('ready');
-  return draft.body.order.id;
-}
 
 async function eventCount(orderId: number): Promise<number> {
   const config = faultConfig();

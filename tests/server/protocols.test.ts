@@ -370,7 +370,7 @@ describe('importing and approving a protocol version', () => {
           lensMagnification: 1,
         },
       });
-    // Calculations remember the version they found for a second; a retirement must not wait for that.
+    // A retirement counts for the very next calculation (no process keeps an older answer).
     expect((await calculate()).body.protocol.version).toBe(2);
     const noReason = await adminAgent
       .post(`/api/protocols/${v1.key}/versions/2/retirement`)

@@ -10,6 +10,10 @@ import { dataDir } from '../../server/ops/paths';
 
 export type { ApiProcess };
 import { loadShippedProtocols } from '../../server/protocols/load-shipped';
+import { randomUUID } from 'node:crypto';
+import { expect } from 'vitest';
+import { demoPassword } from '../../server/demo/seed';
+import { supersededVersionReason } from './api';
 
 /**
  * A MariaDB instance and API processes of the fault tests' own, so stopping the database or
@@ -105,4 +109,39 @@ export class FaultClient {
     }
     return { status: res.status, body: json as Record<string, any> };
   }
+}
+
+/** A ready CXL order for a new patient, made through the API by the demo clinician. */
+export async function readyCxlOrder(base: string): Promise<number> {
+  const clinician = await new FaultClient(base).signIn(
+    'clinician@demo.luxtempo.example',
+    demoPassword,
+  );
+  // A new person each time: the same name and date of birth would be a possible duplicate.
+  const suffix = randomUUID().slice(0, 8);
+  const patient = await clinician.call('POST', '/patients', {
+    recordNumber: `F-${suffix}`,
+    givenName: 'Fault',
+    familyName: `Testcase ${suffix}`,
+    dateOfBirth: '1970-01-01',
+  });
+  const draft = await clinician.call('POST', '/orders', {
+    patientId: patient.body.patient.id,
+    eye: 'right',
+    protocol: { key: 'cxl-standard', version: 1 },
+    // Version 1 is superseded by version 2; the figures here are version 1's.
+    supersededVersionReason,
+    inputs: { stromalThicknessUm: 470 },
+    checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({
+      id,
+      answer: 'no',
+    })),
+  });
+  const signed = await clinician.call('POST', `/orders/${draft.body.order.id}/signature`, {
+    password: demoPassword,
+    meaning: 'ordered',
+    version: draft.body.order.version,
+  });
+  expect(signed.body.order.status).toBe('ready');
+  return draft.body.order.id;
 }
