@@ -162,7 +162,7 @@ export function createDeviceRepository(dataSource: DataSource) {
       { key: string; version: number; kind: string; deviceChecks: DeviceChecks | undefined }[]
     > {
       const rows: { key: string; version: number; definition: unknown }[] = await dataSource.query(
-        "SELECT `key`, version, definition FROM protocol_version WHERE status = 'approved'",
+        "SELECT protocol_key AS `key`, version, definition FROM protocol_version WHERE status = 'approved'",
       );
       return rows.map((row) => {
         const definition = parseJson<ProtocolDefinition>(row.definition);
@@ -178,7 +178,7 @@ export function createDeviceRepository(dataSource: DataSource) {
     /** An order's protocol (key, version, definition) and its inputs, for a check or a session start. */
     async orderProtocol(orderId: number) {
       const [row] = await dataSource.query(
-        'SELECT o.id, o.status, o.inputs, v.`key`, v.version, v.definition FROM treatment_order o JOIN protocol_version v ON v.id = o.protocol_version_id WHERE o.id = ?',
+        'SELECT o.id, o.status, o.inputs, v.protocol_key AS `key`, v.version, v.definition FROM treatment_order o JOIN protocol_version v ON v.id = o.protocol_version_id WHERE o.id = ?',
         [orderId],
       );
       if (!row) return null;
