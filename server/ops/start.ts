@@ -1,6 +1,7 @@
 import { loadConfig } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
+import { seedDemoDevices } from '../demo/devices';
 import { seedDemoScenario } from '../demo/scenario';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
@@ -64,6 +65,9 @@ try {
     try {
       const { created } = await seedDemoData(seedSource);
       await loadShippedProtocols(seedSource);
+      const deviceRows = await seedDemoDevices(seedSource, config.UNIT_TIME_ZONE);
+      if (deviceRows)
+        console.log(`• Demo devices, lenses and output checks: ${deviceRows} rows added`);
       const sessions = await seedDemoScenario(seedSource, config.UNIT_TIME_ZONE);
       console.log(
         created.length || sessions
