@@ -192,7 +192,16 @@ export function PreTreatmentChecks({
           </p>
         </div>
         {beyondUseMs !== null && <BeyondUse beyondUseMs={beyondUseMs} serverNowMs={serverNowMs} />}
-        <DeviceSettings protocol={protocol} plan={plan} headingId={settingsHeading} />
+        <DeviceSettings
+          protocol={protocol}
+          plan={plan}
+          headingId={settingsHeading}
+          lensText={
+            order.inputs.lensMagnification === undefined
+              ? null
+              : `${order.inputs.lensId !== undefined ? `lens ${order.inputs.lensId} of the register, ` : ''}× ${order.inputs.lensMagnification}`
+          }
+        />
         <SessionCautions
           protocol={protocol}
           eyeWord={eyeWords[order.eye]}
