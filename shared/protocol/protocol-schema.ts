@@ -264,7 +264,9 @@ const deviceChecksSchema = z.strictObject({
     }),
   ),
   /** The ids in `sources` that stand behind these values. */
-  sources: z.array(kebabId('deviceChecks.sources[]')).min(1, 'deviceChecks.sources must name a source'),
+  sources: z
+    .array(kebabId('deviceChecks.sources[]'))
+    .min(1, 'deviceChecks.sources must name a source'),
 });
 export type DeviceChecks = z.infer<typeof deviceChecksSchema>;
 

@@ -31,7 +31,12 @@ beforeAll(async () => {
   admin = await signedInApi('admin@demo.luxtempo.example');
 });
 afterAll(async () => {
-  await Promise.all([clinician?.dispose(), pharmacist?.dispose(), nurseApi?.dispose(), admin?.dispose()]);
+  await Promise.all([
+    clinician?.dispose(),
+    pharmacist?.dispose(),
+    nurseApi?.dispose(),
+    admin?.dispose(),
+  ]);
   await ctx?.close();
 });
 
@@ -69,13 +74,14 @@ async function recordCheck(page: Page, setMwPerCm2: string, readMwPerCm2: string
 
 describe('the output check before a session, on a tablet', () => {
   it('a failing check blocks the start; after a passing one the nurse starts the session', async () => {
-    const device = (
-      await (await admin.post('/api/devices', { data: deviceBody('uv') })).json()
-    ).device as { id: number; name: string };
+    const device = (await (await admin.post('/api/devices', { data: deviceBody('uv') })).json())
+      .device as { id: number; name: string };
     const orderId = await readyCxlV3Order();
     const { page, problems } = await nursePage(orderId);
 
-    await page.getByLabel('UV source used').selectOption({ label: `${device.name} — cannot start yet` });
+    await page
+      .getByLabel('UV source used')
+      .selectOption({ label: `${device.name} — cannot start yet` });
     // 2.5 read against 3 mW/cm² set: 16.7 % under, outside ±10 % (common practice).
     await recordCheck(page, '3', '2.5');
     await page.getByText(/^Failed: 2\.5 mW\/cm² read against 3 mW\/cm² set/).waitFor();
