@@ -41,6 +41,9 @@ import { createOutboxService } from './mail/service';
 import { createOrderRepository } from './orders/repository';
 import { orderRoutes } from './orders/routes';
 import { createOrderService } from './orders/service';
+import { createDeviceRepository } from './devices/repository';
+import { deviceRoutes } from './devices/routes';
+import { createDeviceService } from './devices/service';
 import { createPatientRepository } from './patients/repository';
 import { patientRoutes } from './patients/routes';
 import { createPatientService } from './patients/service';
@@ -124,6 +127,7 @@ export function createApp({
   );
   const patients = createPatientRepository(dataSource);
   const orders = createOrderRepository(dataSource);
+  const deviceRows = createDeviceRepository(dataSource);
   const unitTimeZone = config.UNIT_TIME_ZONE;
   const weightChangeRule = {
     maxPct: config.WEIGHT_CHANGE_MAX_PCT,
@@ -140,6 +144,7 @@ export function createApp({
     reads,
     unitTimeZone,
     weightChangeRule,
+    lenses: deviceRows,
     confirmSignature: auth.confirmSignature,
   });
   const pharmacy = createPharmacyService({
@@ -161,7 +166,13 @@ export function createApp({
     clock,
   });
   const sessionRows = createSessionRepository(dataSource);
+  const checkValidity =
+    config.OUTPUT_CHECK_VALID_H === undefined
+      ? ({ kind: 'unit-day' } as const)
+      : ({ kind: 'hours', hours: config.OUTPUT_CHECK_VALID_H } as const);
   const sessionService = createSessionService({
+    devices: deviceRows,
+    checkValidity,
     unitOfWork,
     orders,
     sessions: sessionRows,
@@ -228,6 +239,16 @@ export function createApp({
     ),
     ...outboxRoutes(createOutboxService(createOutboxRepository(dataSource))),
     ...sessionRoutes(sessionService, discharge),
+    ...deviceRoutes(
+      createDeviceService({
+        unitOfWork,
+        devices: deviceRows,
+        audit,
+        clock,
+        unitTimeZone,
+        checkValidity,
+      }),
+    ),
     ...staffRoutes(people),
     ...auditRoutes(createAuditService(audit)),
     ...reviewRoutes(

@@ -124,6 +124,15 @@ const envSchema = z.object({
   TAP_CLOCK_SKEW_S: z.coerce.number().int().min(0).max(300).default(10),
   /** The oldest tap the unit accepts from a tablet's offline queue, in hours; older is refused. */
   TAP_OFFLINE_WINDOW_H: z.coerce.number().min(0.25).max(24).default(4),
+  /**
+   * How long a device's output check lets it start sessions: unset, the unit's calendar day it was
+   * made on; a number, that many hours.
+   */
+  OUTPUT_CHECK_VALID_H: z.coerce
+    .number()
+    .min(1, 'OUTPUT_CHECK_VALID_H must be 1 to 168 hours')
+    .max(168, 'OUTPUT_CHECK_VALID_H must be 1 to 168 hours')
+    .optional(),
 });
 
 export type Config = Omit<z.infer<typeof envSchema>, 'DEMO_DATA'> & { DEMO_DATA: boolean };

@@ -27,6 +27,9 @@ export const capabilities = [
   'preparations.record',
   'outbox.read',
   'sessions.run',
+  'devices.read',
+  'devices.check',
+  'devices.manage',
 ] as const;
 export type Capability = (typeof capabilities)[number];
 

@@ -15,6 +15,7 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.read',
     'orders.write',
     'orders.cancel',
+    'devices.read',
   ],
   pharmacist: [
     'today.view',
@@ -25,6 +26,7 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.read',
     'dose-checks.perform',
     'preparations.record',
+    'devices.read',
   ],
   nurse: [
     'today.view',
@@ -33,6 +35,9 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'patients.read',
     'orders.read',
     'sessions.run',
+    'devices.read',
+    // The nurse checks the device's output before a session (step clock pre-checks).
+    'devices.check',
   ],
   auditor: [
     'today.view',
@@ -43,6 +48,7 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'audit.verify',
     'patients.read',
     'orders.read',
+    'devices.read',
   ],
   admin: [
     'today.view',
@@ -56,6 +62,10 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.cancel',
     'outbox.read',
     'audit.verify',
+    // The device lead's duty sits with the administrator: the register, lenses and checks.
+    'devices.read',
+    'devices.check',
+    'devices.manage',
   ],
 };
 

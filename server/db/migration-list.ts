@@ -18,6 +18,7 @@ import { OrderCancellation1796303351497 } from './migrations/1796303351497-Order
 import { ProtocolSignaturesDiscardsAndSuperseded1796303358061 } from './migrations/1796303358061-ProtocolSignaturesDiscardsAndSuperseded';
 import { SupersededReasonSigned1796309618215 } from './migrations/1796309618215-SupersededReasonSigned';
 import { FhirInterop1796313422761 } from './migrations/1796313422761-FhirInterop';
+import { DevicesAndLenses1796313454504 } from './migrations/1796313454504-DevicesAndLenses';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
 export const migrations = [
@@ -39,4 +40,5 @@ export const migrations = [
   ProtocolSignaturesDiscardsAndSuperseded1796303358061,
   SupersededReasonSigned1796309618215,
   FhirInterop1796313422761,
+  DevicesAndLenses1796313454504,
 ];

@@ -3,6 +3,7 @@ import type { Config } from '../config';
 import { Attachment } from './entities/attachment';
 import { AuditChainHead } from './entities/audit-chain-head';
 import { AuditEvent } from './entities/audit-event';
+import { Device, DeviceVersion, Lens, OutputCheck } from './entities/device';
 import { DeviationRow } from './entities/deviation';
 import { DeviationReview } from './entities/deviation-review';
 import { DoseCheck } from './entities/dose-check';
@@ -47,6 +48,10 @@ export const entities = [
   RoleRequest,
   AuditChainHead,
   FhirDelivery,
+  Device,
+  DeviceVersion,
+  Lens,
+  OutputCheck,
 ];
 
 export interface DatabaseConnection {

@@ -14,6 +14,7 @@ import { asTransaction } from '../db/unit-of-work';
 import { createPatientRepository } from '../patients/repository';
 import { createUserRepository } from '../people/repository';
 import { addParticipant, createSessionRepository, recordOrderFacts } from '../sessions/repository';
+import { demoDeviceStart } from './devices';
 import { demoDomain, demoPatients } from './seed';
 
 /**
@@ -413,6 +414,13 @@ export async function seedDemoScenario(
           beyondUseAt: beyondUseAt.toISOString(),
         };
       }
+      // The session names its device (server/demo/devices.ts), as a start on the app would.
+      const deviceStart = await demoDeviceStart(
+        dataSource,
+        pv.definition,
+        plan,
+        (item.inputs as { lensMagnification?: number }).lensMagnification,
+      );
       const rows = item.script.map(([offsetS, event]) => ({
         orderId: order.id,
         idempotencyKey: randomUUID(),
@@ -423,6 +431,7 @@ export async function seedDemoScenario(
         recordedBy: nurse.id,
         payload: {
           ...event,
+          ...(event.type === 'session-started' && deviceStart ? deviceStart : {}),
           idempotencyKey: '',
           clientTime: new Date(startMs + offsetS * 1000).toISOString(),
         } as unknown as SessionEventRow['payload'] & object,

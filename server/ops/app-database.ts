@@ -1,6 +1,7 @@
 import type { Config } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource, type OwnerCredentials } from '../db/options';
+import { seedDemoDevices } from '../demo/devices';
 import { seedDemoScenario } from '../demo/scenario';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
@@ -21,6 +22,9 @@ export async function prepareAppDatabase(config: Config, owner: OwnerCredentials
     if (config.DEMO_DATA) {
       const { created } = await seedDemoData(source);
       await loadShippedProtocols(source);
+      const deviceRows = await seedDemoDevices(source, config.UNIT_TIME_ZONE);
+      if (deviceRows)
+        console.log(`• Demo devices, lenses and output checks: ${deviceRows} rows added`);
       const sessions = await seedDemoScenario(source, config.UNIT_TIME_ZONE);
       console.log(
         created.length || sessions

@@ -126,6 +126,10 @@ export function createOrderService(deps: {
   reads: ReadAudit;
   unitTimeZone: string;
   weightChangeRule: WeightChangeRule;
+  /** The lens register: an order that picks a lens takes its laser-spot factor from it. */
+  lenses?: {
+    findLens(id: number): Promise<{ id: number; laserSpotFactor: number; active: boolean } | null>;
+  };
   /** Checks the signer's own password, throttled like a sign-in (server/auth/service.ts). */
   confirmSignature: (
     userId: number,
@@ -401,6 +405,28 @@ export function createOrderService(deps: {
     };
   }
 
+  /**
+   * An order that picks a lens (`inputs.lensId`) takes the lens's laser-spot factor as its
+   * `lensMagnification`, so nobody types a factor (or the lens's image magnification) by hand. A
+   * factor typed beside the lens must be the lens's own.
+   */
+  async function withLensFactor(inputs: OrderDraft['inputs']): Promise<OrderDraft['inputs']> {
+    if (inputs.lensId === undefined) return inputs;
+    const lens = await deps.lenses?.findLens(inputs.lensId);
+    if (!lens || !lens.active)
+      throw AppError.badRequest(`There is no lens ${inputs.lensId} in use on the register.`, [
+        { path: 'inputs.lensId', message: 'inputs.lensId must name a lens in use (Lenses page)' },
+      ]);
+    if (inputs.lensMagnification !== undefined && inputs.lensMagnification !== lens.laserSpotFactor)
+      throw AppError.badRequest('The factor typed is not the chosen lens’s laser-spot factor.', [
+        {
+          path: 'inputs.lensMagnification',
+          message: `inputs.lensMagnification must be left out (or be ${lens.laserSpotFactor}, the lens's laser-spot factor) when a lens is chosen`,
+        },
+      ]);
+    return { ...inputs, lensMagnification: lens.laserSpotFactor };
+  }
+
   /** `guard` runs in the saving transaction first: it locks and re-checks what the save depends on. */
   async function writeDraft(
     actor: Actor,
@@ -409,6 +435,7 @@ export function createOrderService(deps: {
     action: string,
     guard?: (tx: Transaction) => Promise<void>,
   ) {
+    input = { ...input, inputs: await withLensFactor(input.inputs) };
     const patient = await patients.findById(input.patientId);
     if (!patient)
       throw AppError.badRequest(`There is no patient with id ${input.patientId}.`, [

@@ -20,6 +20,10 @@ import type { SessionService } from '../sessions/service';
 import { csvLine, csvReading as reading, isoInZone } from './csv';
 import type { DateRange, ReviewRepository } from './repository';
 
+/** A figure read out of the record's JSON: null stays empty. */
+const jsonNumber = (value: unknown) =>
+  value === null || value === undefined || value === 'null' ? null : Number(value);
+
 export function createReviewService(deps: {
   unitOfWork: UnitOfWork;
   clock: Clock;
@@ -319,6 +323,15 @@ export function createReviewService(deps: {
                 'delivered_fluence (J/cm²)',
                 (r) => reading('fluenceJPerCm2', r.deliveredFluenceJPerCm2),
               ],
+              ['fluence_basis', (r) => r.fluenceBasis ?? 'planned'],
+              ['device', (r) => r.deviceName],
+              ['device_serial', (r) => r.deviceSerial],
+              ['lens', (r) => r.lensName],
+              ['lens_laser_spot_factor', (r) => jsonNumber(r.lensFactor)],
+              ['power_set (mW)', (r) => jsonNumber(r.powerSetMw)],
+              ['spot_set (µm)', (r) => jsonNumber(r.spotSetUm)],
+              ['irradiance_set (mW/cm²)', (r) => jsonNumber(r.irradianceSetMwPerCm2)],
+              ['irradiance_measured (mW/cm²)', (r) => jsonNumber(r.measuredIrradianceMwPerCm2)],
               ['deviations', (r) => r.deviationCount],
             ];
       out.write(csvLine(columns.map(([name]) => name)));

@@ -32,7 +32,10 @@ import { moveOrderStatus, type OrderRepository } from '../orders/repository';
 import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
+import type { CheckValidity } from '../../shared/session/device-readiness';
+import type { DeviceRepository } from '../devices/repository';
 import { bedsideRefusal } from './bedside-rules';
+import { deviceStartVerdict } from './device-start';
 import { recordOrderFacts, type SessionRepository } from './repository';
 
 const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
@@ -86,6 +89,10 @@ export function createSessionService(deps: {
   /** Gate 5's bounds, from the unit's configuration (TAP_CLOCK_SKEW_S, TAP_OFFLINE_WINDOW_H). */
   tapClockSkewS?: number;
   tapOfflineWindowH?: number;
+  /** The device register, for the device rules of a session start (server/sessions/device-start.ts). */
+  devices?: DeviceRepository;
+  /** How long an output check counts (OUTPUT_CHECK_VALID_H; the unit's day when unset). */
+  checkValidity?: CheckValidity;
   /** Checks a person's own password, throttled like a sign-in (server/auth/service.ts); the recovery at start-up needs none. */
   confirmSignature?: (
     userId: number,
@@ -679,8 +686,31 @@ export function createSessionService(deps: {
         await auditRefusal(actor, orderId, input, error);
         throw error;
       }
+      // A session start names its device; the device rules are read and judged before the
+      // transaction (a resend of a stored start is answered as stored, whatever the device is now).
+      let deviceRecord = null;
+      if (
+        input.type === 'session-started' &&
+        !(await sessions.findEventByKey(input.idempotencyKey))
+      ) {
+        if (!deps.devices)
+          throw new Error('the session service starts sessions only with the device register');
+        const verdict = await deviceStartVerdict(deps.devices, orderId, input, {
+          nowMs: now(),
+          unitTimeZone: deps.unitTimeZone,
+          validity: deps.checkValidity ?? { kind: 'unit-day' },
+        });
+        if ('refusal' in verdict) {
+          const { rule, message, field, status } = verdict.refusal;
+          const error = new SessionRuleRefusal(rule, message, field, status);
+          await auditRefusal(actor, orderId, input, error);
+          throw error;
+        }
+        deviceRecord = verdict.record;
+      }
       // The password is checked, never stored: the event keeps who authorised.
       const payload: Record<string, unknown> = { ...input };
+      if (deviceRecord) payload.deviceRecord = deviceRecord;
       if (input.type === 'thickness-override') {
         delete payload.authoriserPassword;
         if (authoriser)
@@ -832,6 +862,9 @@ export function createSessionService(deps: {
               ? { exposureS: input.exposureS, energyJ: input.energyJ ?? null }
               : {}),
             ...(authoriser ? { authorisedById: authoriser.id } : {}),
+            ...(deviceRecord
+              ? { deviceId: deviceRecord.deviceId, outputCheckId: deviceRecord.outputCheckId }
+              : {}),
           },
         });
       }

@@ -33,7 +33,7 @@ export function computeCxlPlan(protocol: ProtocolVersion, inputs: PlanInputs): D
   if (thicknessLimit === null) throw missingProtocolPart(protocol, 'a stromalThicknessUm limit');
 
   const report = newInputReport();
-  refuseInputs(report, inputs, ['lesionGldUm', 'lensMagnification'], 'cxl');
+  refuseInputs(report, inputs, ['lesionGldUm', 'lensMagnification', 'lensId'], 'cxl');
   // Height and weight are optional here; when given they are checked and a BSA is recorded.
   const body = readBodyMeasures(report, protocol, inputs, false);
   const stromalThicknessUm = readLimitedNumber(

@@ -234,6 +234,42 @@ const tolerancesSchema = z.strictObject({
   dropGapPct: nonNegative('tolerances.dropGapPct', '%').nullable(),
 });
 
+/** Where the laser's spot setting is read: the retinal spot, or the spot corrected by the lens factor. */
+export const laserSpotSettings = ['retinal-spot', 'device-spot'] as const;
+export type LaserSpotSetting = (typeof laserSpotSettings)[number];
+
+/**
+ * The treatment device's checks (versions 3 and later; absent in older versions): the output
+ * check's tolerance, how far a setting may stray from the plan, what the laser's spot setting
+ * means, and the contact lenses the protocol's factors come from.
+ */
+const deviceChecksSchema = z.strictObject({
+  /** ± percent of the meter's reading against the value set; outside it the output check fails. */
+  outputCheckTolerancePct: positive('deviceChecks.outputCheckTolerancePct', '%'),
+  /** ± percent a power, irradiance or spot set on the device may differ from the plan before it is a deviation. */
+  settingTolerancePct: positive('deviceChecks.settingTolerancePct', '%'),
+  /** PDT: does the laser take the retinal spot, or the device spot (retinal ÷ lens factor)? Null for CXL. */
+  laserSpotSetting: z
+    .enum(laserSpotSettings, {
+      error: `deviceChecks.laserSpotSetting must be one of ${laserSpotSettings.join(', ')}`,
+    })
+    .nullable(),
+  /** The contact lenses whose laser-spot factors this version cites (the register holds the site's own). */
+  lenses: z.array(
+    z.strictObject({
+      name: text('deviceChecks.lenses[].name'),
+      laserSpotFactor: positive('deviceChecks.lenses[].laserSpotFactor', '(a factor)'),
+      imageMagnification: positive('deviceChecks.lenses[].imageMagnification', '(a factor)'),
+      source: kebabId('deviceChecks.lenses[].source'),
+    }),
+  ),
+  /** The ids in `sources` that stand behind these values. */
+  sources: z
+    .array(kebabId('deviceChecks.sources[]'))
+    .min(1, 'deviceChecks.sources must name a source'),
+});
+export type DeviceChecks = z.infer<typeof deviceChecksSchema>;
+
 const stepSchema = z.strictObject({
   id: kebabId('steps[].id'),
   kind: z.enum(stepKinds, { error: `steps[].kind must be one of ${stepKinds.join(', ')}` }),
@@ -295,6 +331,8 @@ const protocolVersionObject = z.strictObject({
   contraindications: z.array(contraindicationSchema),
   cautions: z.array(text('cautions[]')).min(1, 'cautions must hold at least one caution'),
   sources: z.array(sourceSchema).min(1, 'sources must name at least one source'),
+  /** Added in version 3: the device's output check and settings (absent in older versions). */
+  deviceChecks: deviceChecksSchema.optional(),
 });
 type ProtocolShape = z.infer<typeof protocolVersionObject>;
 type Issue = { message: string; path: (string | number)[] };
@@ -327,6 +365,7 @@ function checkCommon(p: ProtocolShape, issues: Issue[]): void {
       });
     }
   });
+  checkDeviceChecks(p, issues);
   const allowedKinds = stepKindsByProtocolKind[p.kind];
   p.steps.forEach((step, index) => {
     if (!allowedKinds.includes(step.kind)) {
@@ -336,6 +375,36 @@ function checkCommon(p: ProtocolShape, issues: Issue[]): void {
       });
     }
   });
+}
+
+/** The device checks name sources the file holds; a PDT laser says how its spot is set, a UV source does not. */
+function checkDeviceChecks(p: ProtocolShape, issues: Issue[]): void {
+  const checks = p.deviceChecks;
+  if (checks === undefined) return;
+  const ids = new Set(p.sources.map((source) => source.id));
+  const named = [
+    ...checks.sources.map((id, index) => ({ id, path: ['deviceChecks', 'sources', index] })),
+    ...checks.lenses.map((lens, index) => ({
+      id: lens.source,
+      path: ['deviceChecks', 'lenses', index, 'source'],
+    })),
+  ];
+  for (const { id, path } of named)
+    if (!ids.has(id))
+      issues.push({ path, message: `${path.join('.')} names ${id}, which is not in sources` });
+  if ((checks.laserSpotSetting === null) !== (p.kind === 'cxl'))
+    issues.push({
+      path: ['deviceChecks', 'laserSpotSetting'],
+      message:
+        p.kind === 'cxl'
+          ? 'deviceChecks.laserSpotSetting must be null for a cxl protocol'
+          : 'deviceChecks.laserSpotSetting is required for a pdt protocol (retinal-spot or device-spot)',
+    });
+  if (p.kind === 'cxl' && checks.lenses.length > 0)
+    issues.push({
+      path: ['deviceChecks', 'lenses'],
+      message: 'deviceChecks.lenses must be empty for a cxl protocol',
+    });
 }
 
 /** Fields that must be present for one kind and absent for the other. */

@@ -45,6 +45,12 @@ export const planInputsSchema = z.strictObject(
       .optional(),
     lesionGldUm: positiveNumber('lesionGldUm', 'µm').optional(),
     lensMagnification: positiveNumber('lensMagnification', '(a factor)').optional(),
+    /** An order's lens from the register: the server puts its laser-spot factor in lensMagnification. */
+    lensId: z
+      .number({ error: 'lensId must be the id of a lens on the register' })
+      .int('lensId must be the id of a lens on the register')
+      .positive('lensId must be the id of a lens on the register')
+      .optional(),
     stromalThicknessUm: positiveNumber('stromalThicknessUm', 'µm').optional(),
   },
   { error: 'inputs must be an object of measurements' },

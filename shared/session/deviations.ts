@@ -161,6 +161,7 @@ export function findDeviations({
   }
 
   judgeLight({ protocol, plan, record, sessionOver, add });
+  judgeDeviceSettings(protocol, plan, record, add);
 
   if (preparation && infusionStartMs !== null) {
     const reconstitutedMs = msOf(preparation.reconstitutedAt);
@@ -285,7 +286,14 @@ function judgeLight({
     });
   }
   const targetJPerCm2 = plan.fluenceJPerCm2 ?? protocol.light.targetFluenceJPerCm2;
-  const irradianceMwPerCm2 = plan.irradianceMwPerCm2 ?? protocol.light.irradianceMwPerCm2;
+  // The irradiance the record worked the fluence from: measured (CXL), nominal from the device's
+  // settings (PDT), or the plan's when the session named no device.
+  const irradianceMwPerCm2 =
+    record.deviceUsed?.fluenceIrradianceMwPerCm2 ??
+    plan.irradianceMwPerCm2 ??
+    protocol.light.irradianceMwPerCm2;
+  const basis = record.deviceUsed?.fluenceBasis ?? 'planned';
+  const basisText = basis === 'planned' ? '' : ` ${basis}`;
   const deliveredJPerCm2 =
     record.deliveredFluenceJPerCm2 ?? fluenceJPerCm2(irradianceMwPerCm2, onS);
   const offPct = ((deliveredJPerCm2 - targetJPerCm2) / targetJPerCm2) * 100;
@@ -297,9 +305,55 @@ function judgeLight({
       actual: round(deliveredJPerCm2, 0.0001),
       unit: 'J/cm²',
       at: lightJudgedAt,
-      message: `Delivered fluence expected ${formatNumber(targetJPerCm2)} J/cm² (± ${formatNumber(fluencePct)} %); ${formatNumber(irradianceMwPerCm2)} mW/cm² for ${lightTimeText(onS)} gave ${formatReading('fluenceJPerCm2', deliveredJPerCm2)}, ${formatNumber(round(Math.abs(offPct), 0.1))} % ${offPct > 0 ? 'over' : 'under'}.`,
+      message: `Delivered fluence expected ${formatNumber(targetJPerCm2)} J/cm² (± ${formatNumber(fluencePct)} %); ${formatNumber(round(irradianceMwPerCm2, 0.01))} mW/cm²${basisText} for ${lightTimeText(onS)} gave ${formatReading('fluenceJPerCm2', deliveredJPerCm2)}, ${formatNumber(round(Math.abs(offPct), 0.1))} % ${offPct > 0 ? 'over' : 'under'}.`,
     });
   }
+}
+
+/**
+ * What was set on the device against the plan: the laser's power and spot (the spot as the
+ * protocol says the laser takes it), or the UV irradiance. Judged once the session has started
+ * with a device; the tolerance is the protocol's deviceChecks.settingTolerancePct, or, in
+ * versions without it, its fluence tolerance (a setting that far off moves the fluence as far).
+ */
+function judgeDeviceSettings(
+  protocol: ProtocolVersion,
+  plan: DosePlan,
+  record: DoseRecord,
+  add: (d: Deviation) => void,
+): void {
+  const used = record.deviceUsed;
+  if (!used?.device) return;
+  const tolerancePct = protocol.deviceChecks?.settingTolerancePct ?? protocol.tolerances.fluencePct;
+  const spotPlanned =
+    (protocol.deviceChecks?.laserSpotSetting ?? 'device-spot') === 'device-spot'
+      ? plan.deviceSpotDiameterUm
+      : plan.spotDiameterUm;
+  const settings: [string, number | null, number | null, string][] = [
+    ['power', used.powerSetMw, plan.powerMw, 'mW'],
+    ['spot', used.spotSetUm, spotPlanned, 'µm'],
+    ['irradiance', used.irradianceSetMwPerCm2, plan.irradianceMwPerCm2, 'mW/cm²'],
+  ];
+  const off = settings.filter(
+    (entry): entry is [string, number, number, string] =>
+      entry[1] !== null && entry[2] !== null && !withinPct(entry[1], entry[2], tolerancePct),
+  );
+  const first = off[0];
+  if (!first) return;
+  add({
+    type: 'device-setting',
+    severity: 'major',
+    expected: first[2],
+    actual: first[1],
+    unit: first[3],
+    at: record.sessionStartedAt,
+    message: `${used.device.name} was set off plan (± ${formatNumber(tolerancePct)} %): ${off
+      .map(
+        ([what, actual, expected, unit]) =>
+          `${what} ${formatNumber(actual)} ${unit} set, ${formatNumber(round(expected, 0.1))} ${unit} planned`,
+      )
+      .join('; ')}.`,
+  });
 }
 
 function judgeCxl(

@@ -2,13 +2,18 @@ import { doseInInfusedVolumeMg } from '../engine/dose-given';
 import { fluenceJPerCm2, pulsedOnS } from '../engine/light-arithmetic';
 import type { ProtocolStep, ProtocolVersion, StepKind } from '../protocol/protocol-schema';
 import type { DosePlan } from '../schemas/calculation';
-import { isWithdrawableType, type SessionEventInput } from './session-events';
+import { deviceUsedOf, type DeviceUsed } from './device-used';
+import { isWithdrawableType, type DeviceRecord, type SessionEventInput } from './session-events';
 
 /**
  * An event as the session functions read it: stored events carry the server's `id`; events
  * still queued on a tablet have none yet and sort after stored ones at the same instant.
  */
-export type SessionEventLike = SessionEventInput & { id?: number; serverTime?: string };
+export type SessionEventLike = SessionEventInput & {
+  id?: number;
+  serverTime?: string;
+  deviceRecord?: DeviceRecord;
+};
 
 /**
  * A tap that reached the server more than this long after it was made is listed with its delay
@@ -86,6 +91,8 @@ export interface SessionReplay {
   /** What the laser displayed at the end of the light step (the latest reading counts). */
   deviceExposure: { stepId: string; exposureS: number; energyJ: number | null } | null;
   lateEntries: LateEntry[];
+  /** The session's start as stored: the device chosen and set, and what the server found about it. */
+  start: Extract<SessionEventLike, { type: 'session-started' }> | null;
 }
 
 function compareIds(a: number | undefined, b: number | undefined): number {
@@ -204,6 +211,7 @@ export function replaySession(
     volumeInfusedMl: null,
     deviceExposure: null,
     lateEntries: [],
+    start: null,
   };
   const openRun = (): StepRun | undefined => {
     if (replay.openStepId === null) return undefined;
@@ -243,6 +251,7 @@ export function replaySession(
     switch (event.type) {
       case 'session-started':
         replay.sessionStartedMs ??= ms;
+        replay.start ??= event;
         break;
       case 'step-started': {
         if (!stepIds.has(event.stepId) || replay.openStepId === event.stepId) break;
@@ -456,8 +465,14 @@ export interface DoseRecord {
   /** UV on-time: the elapsed time, or its on-share when the light is pulsed. */
   uvOnS: number | null;
 
-  /** Irradiance × on-time ÷ 1000 (mW/cm² × s = mJ/cm²); the on-time is the device's figure when entered. */
+  /**
+   * Irradiance × on-time ÷ 1000 (mW/cm² × s = mJ/cm²); the on-time is the device's figure when
+   * entered, the irradiance is `deviceUsed.fluenceIrradianceMwPerCm2` (its basis says measured,
+   * nominal or planned).
+   */
   deliveredFluenceJPerCm2: number | null;
+  /** The device and lens used, what was set and measured (absent in records stored before devices). */
+  deviceUsed?: DeviceUsed;
 
   /** Taps withdrawn as mistakes, with the reason: none of the figures above counts them. */
   withdrawnTaps: WithdrawnTap[];
@@ -535,6 +550,7 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
   const uvOnS = uvElapsedS === null ? null : pulsedOnS(uvElapsedS, protocol.light.pulse);
 
   const uvStartMs = uv.span?.startMs ?? null;
+  const deviceUsed = deviceUsedOf(protocol, plan, replay.start);
   const readingsBeforeUv = replay.thicknessReadings.filter(
     (reading) => uvStartMs === null || reading.ms <= uvStartMs,
   );
@@ -594,9 +610,10 @@ export function deriveDoseRecord({ protocol, plan, events, nowMs }: DoseRecordIn
     uvOnS,
 
     deliveredFluenceJPerCm2: fluenceFrom(
-      plan.irradianceMwPerCm2,
+      deviceUsed.fluenceIrradianceMwPerCm2,
       isPdt ? (deviceExposure?.exposureS ?? lightOnS) : uvOnS,
     ),
+    deviceUsed,
 
     withdrawnTaps: replay.withdrawnTaps,
     lateEntries: replay.lateEntries,

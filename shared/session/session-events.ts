@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { deviceSettingSchema } from '../schemas/devices';
 
 /**
  * Everything a nurse taps during a session is one of these events. Each is stored once (its
@@ -132,6 +133,11 @@ export const sessionEventSchema = z.discriminatedUnion(
         ) as Record<PreTreatmentCheck, z.ZodLiteral<true>>,
         { error: `checks must confirm ${preTreatmentChecks.join(', ')}` },
       ),
+      /**
+       * The device chosen and what was set on it (required by the server for protocol versions
+       * with deviceChecks; optional in the shape so that starts stored before it still read).
+       */
+      device: deviceSettingSchema.optional(),
     }),
     z.strictObject({ ...common, type: z.literal('step-started'), stepId }),
     z.strictObject({
@@ -244,10 +250,38 @@ export type SessionEvent = SessionEventInput & {
   /** A thickness override: the clinician whose password authorised it (the password is never stored). */
   authorisedById?: number;
   authorisedByName?: string;
+  /** A session start: the device, its output check and the lens, as the server found them. */
+  deviceRecord?: DeviceRecord;
 };
 
+/**
+ * What the server adds to a session start about the device: which one, the output check that let
+ * it start, the irradiance measured (CXL) and the lens whose factor turned the retinal spot into
+ * the laser's setting (PDT).
+ */
+export interface DeviceRecord {
+  deviceId: number;
+  name: string;
+  kind: 'laser' | 'uv';
+  serialNumber: string;
+  outputCheckId: number;
+  outputCheckedAt: string;
+  /** CXL: the irradiance measured at the treatment distance, and where the figure comes from. */
+  measuredIrradianceMwPerCm2: number | null;
+  measuredFrom: 'entered' | 'output-check' | null;
+  lensId: number | null;
+  lensName: string | null;
+  laserSpotFactor: number | null;
+  /** What the laser's spot setting means (the protocol's deviceChecks.laserSpotSetting). */
+  laserSpotSetting: 'retinal-spot' | 'device-spot' | null;
+}
+
 /** Fields the server adds to a stored event's payload; a client takes them off before checking it against the contract. */
-export const serverAddedEventFields = ['authorisedById', 'authorisedByName'] as const;
+export const serverAddedEventFields = [
+  'authorisedById',
+  'authorisedByName',
+  'deviceRecord',
+] as const;
 
 export const deviationSeverities = ['minor', 'major', 'critical'] as const;
 export type DeviationSeverity = (typeof deviationSeverities)[number];
@@ -267,6 +301,7 @@ export const deviationTypes = [
   'extravasation',
   'stopped-early',
   'contraindication-override',
+  'device-setting',
 ] as const;
 export type DeviationType = (typeof deviationTypes)[number];
 

@@ -244,6 +244,22 @@ export const router = createBrowserRouter([
             ),
           },
           {
+            path: paths.devices.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/devices'),
+              (m) => m.DevicesRoute,
+            ),
+          },
+          {
+            path: paths.device.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/devices'),
+              (m) => m.DeviceRoute,
+            ),
+          },
+          {
             path: paths.auditTrail.path,
             errorElement: <RouteErrorScreen framed={false} />,
             lazy: screen(

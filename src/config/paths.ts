@@ -125,6 +125,14 @@ export const paths = {
     path: '/trends',
     getHref: (search?: string) => (search ? `/trends?${search}` : '/trends'),
   },
+  devices: {
+    path: '/devices',
+    getHref: () => '/devices',
+  },
+  device: {
+    path: '/devices/:deviceId',
+    getHref: (deviceId: number | string) => `/devices/${encodeURIComponent(String(deviceId))}`,
+  },
   auditTrail: {
     path: '/audit-trail',
     getHref: (search?: string) => (search ? `/audit-trail?${search}` : '/audit-trail'),

@@ -6,6 +6,7 @@ export const deviationTypeWords: Record<DeviationType, string> = {
   'light-start-window': 'Light started outside its window',
   'exposure-time': 'Light exposure time off plan',
   'delivered-fluence': 'Delivered fluence off plan',
+  'device-setting': 'Device set off plan',
   'beyond-use': 'Drug used after its beyond-use time',
   'reconstitution-to-infusion': 'Too long from reconstitution to infusion',
   'light-without-infusion': 'Light with no infusion start on record',

@@ -78,6 +78,28 @@ export const givenRecordSchema = z.object({
   deviceEnergyJ: maybeFigure,
   lateEntries: z.array(lateEntrySchema).optional().default([]),
   receiptDelays: z.array(receiptDelaySchema).optional().default([]),
+  // Records stored before the device register have none.
+  deviceUsed: z
+    .object({
+      device: z
+        .object({ id: z.number(), name: z.string(), kind: z.string(), serialNumber: z.string() })
+        .nullable(),
+      lens: z
+        .object({
+          id: z.number().nullable(),
+          name: z.string().nullable(),
+          laserSpotFactor: z.number(),
+        })
+        .nullable(),
+      powerSetMw: z.number().nullable(),
+      spotSetUm: z.number().nullable(),
+      retinalSpotFromSettingUm: z.number().nullable(),
+      irradianceSetMwPerCm2: z.number().nullable(),
+      measuredIrradianceMwPerCm2: z.number().nullable(),
+      fluenceIrradianceMwPerCm2: z.number().nullable(),
+      fluenceBasis: z.enum(['measured', 'nominal', 'planned']),
+    })
+    .optional(),
 });
 export type GivenRecord = z.infer<typeof givenRecordSchema>;
 

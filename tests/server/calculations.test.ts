@@ -59,8 +59,8 @@ describe('POST /api/calculations', () => {
       },
     });
     expect(res.status).toBe(200);
-    // Version 2 (the BMI range, syringe graduation and withdrawable volume) is the newest shipped version.
-    expect(res.body.protocol.version).toBe(2);
+    // Version 3 (the device checks) is the newest shipped version.
+    expect(res.body.protocol.version).toBe(3);
     // 66.93 in ≈ 170 cm and 154.32 lb ≈ 70 kg (1 in = 2.54 cm, 1 lb = 0.45359237 kg, exact by definition);
     // half-dose 3 mg/m² — Altinel MG et al. (half-dose vs half-fluence vs standard PDT in chronic CSC).
     expect(res.body.plan.bsaM2).toBe(1.82);

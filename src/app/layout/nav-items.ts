@@ -15,6 +15,7 @@ import {
   TrailLogIcon,
   TrendBarsIcon,
 } from '../../components/ui/icons';
+import { DeviceGaugeIcon } from '../../components/ui/icons';
 import { paths } from '../../config/paths';
 
 export type NavItem = {
@@ -77,6 +78,12 @@ export const navItems: readonly NavItem[] = [
     to: paths.auditTrail.getHref(),
     capability: 'audit.read',
     icon: TrailLogIcon,
+  },
+  {
+    label: 'Devices',
+    to: paths.devices.getHref(),
+    capability: 'devices.read',
+    icon: DeviceGaugeIcon,
   },
   {
     label: 'Light calculator',

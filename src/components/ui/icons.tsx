@@ -5,6 +5,7 @@ import {
   ArrowRightLeft,
   BookText,
   ChartColumn,
+  Gauge,
   CheckCheck,
   ChevronDown,
   ChevronLeft,
@@ -171,6 +172,7 @@ export const FlagIcon = fromPackage(FlagTriangleRight);
 export const RecordLedgerIcon = fromPackage(FileText);
 /** Columns of a chart: figures month by month. */
 export const TrendBarsIcon = fromPackage(ChartColumn);
+export const DeviceGaugeIcon = fromPackage(Gauge);
 /** A clock turning back: who did what, and when. */
 export const TrailLogIcon = fromPackage(History);
 /** A closed envelope: a message to the patient. */

@@ -34,6 +34,75 @@ const everyMin = (min: number | undefined) =>
   min === undefined ? none : `a drop every ${formatFigure(min)} min`;
 const gap = (gapS: number | null) => (gapS == null ? none : `longest gap ${formatSeconds(gapS)}`);
 
+const basisWords = {
+  measured: 'measured',
+  nominal: 'nominal, from the settings',
+  planned: 'from the plan (no device named)',
+} as const;
+
+/** The device and lens used, what was set and measured, beside the plan's settings. */
+function deviceRows(
+  plan: NonNullable<OrderDetail['plan']>,
+  record: GivenRecord,
+  isPdt: boolean,
+): Row[] {
+  const used = record.deviceUsed;
+  if (!used?.device)
+    return [
+      { label: 'Device', planned: none, given: 'not named (recorded before the device register)' },
+    ];
+  const rows: Row[] = [
+    {
+      label: 'Device',
+      planned: none,
+      given: `${used.device.name} (serial ${used.device.serialNumber})`,
+    },
+  ];
+  if (isPdt) {
+    rows.push(
+      {
+        label: 'Lens and laser-spot factor',
+        planned: none,
+        given: used.lens
+          ? `${used.lens.name ?? 'factor typed on the order'}, × ${formatFigure(used.lens.laserSpotFactor)}`
+          : none,
+      },
+      {
+        label: 'Spot set on the laser',
+        planned: num(plan.deviceSpotDiameterUm, 'spotUm'),
+        given: num(used.spotSetUm, 'spotUm'),
+      },
+      {
+        label: 'Power set on the laser',
+        planned: num(plan.powerMw, 'powerMw'),
+        given: num(used.powerSetMw, 'powerMw'),
+      },
+    );
+  } else {
+    rows.push(
+      {
+        label: 'Irradiance set',
+        planned: num(plan.irradianceMwPerCm2, 'irradianceMwPerCm2'),
+        given: num(used.irradianceSetMwPerCm2, 'irradianceMwPerCm2'),
+      },
+      {
+        label: 'Irradiance measured',
+        planned: none,
+        given: num(used.measuredIrradianceMwPerCm2, 'irradianceMwPerCm2'),
+      },
+    );
+  }
+  rows.push({
+    label: 'Fluence worked from',
+    planned: none,
+    given:
+      used.fluenceIrradianceMwPerCm2 === null
+        ? none
+        : `${formatReading('irradianceMwPerCm2', used.fluenceIrradianceMwPerCm2)} (${basisWords[used.fluenceBasis]})`,
+  });
+  return rows;
+}
+
 function pdtRows(
   plan: NonNullable<OrderDetail['plan']>,
   record: GivenRecord,
@@ -160,9 +229,12 @@ export function DoseRecordSection({ order, definition, session }: DoseRecordSect
   if (!record || record.outcome === 'not-started') return null;
   const plan = order.plan;
   const rows = plan
-    ? order.kind === 'pdt'
-      ? pdtRows(plan, record, definition?.drug?.syringeGraduationMl)
-      : cxlRows(plan, record, definition?.cxl)
+    ? [
+        ...deviceRows(plan, record, order.kind === 'pdt'),
+        ...(order.kind === 'pdt'
+          ? pdtRows(plan, record, definition?.drug?.syringeGraduationMl)
+          : cxlRows(plan, record, definition?.cxl)),
+      ]
     : [];
   const sorted = [...deviations].sort(
     (a, b) =>

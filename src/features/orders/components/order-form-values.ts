@@ -35,6 +35,8 @@ export type OrderFormValues = {
   bsaFormula: BsaFormulaName | '';
   lesionGldUm: string;
   lensMagnification: string;
+  /** The lens picked from the register (its id), or '' when the factor is typed. */
+  lensId: string;
   stromalThicknessUm: string;
   checklist: Record<string, { answer: '' | 'yes' | 'no'; overrideReason: string }>;
   softLimitReasons: Record<string, string>;
@@ -85,6 +87,7 @@ export function emptyOrderForm(patientId?: number): OrderFormValues {
     bsaFormula: '',
     lesionGldUm: '',
     lensMagnification: '',
+    lensId: '',
     stromalThicknessUm: '',
     checklist: {},
     softLimitReasons: {},
@@ -146,6 +149,7 @@ export function settleFormValues(raw: unknown): OrderFormValues {
     bsaFormula: oneOf(v.bsaFormula, bsaFormulaNames, ''),
     lesionGldUm: asText(v.lesionGldUm),
     lensMagnification: asText(v.lensMagnification),
+    lensId: asText(v.lensId),
     stromalThicknessUm: asText(v.stromalThicknessUm),
     checklist,
     softLimitReasons: Object.fromEntries(
@@ -182,6 +186,7 @@ export function orderToForm(order: OrderDetail): OrderFormValues {
     bsaFormula: inputs.bsaFormula ?? '',
     lesionGldUm: text(inputs.lesionGldUm),
     lensMagnification: text(inputs.lensMagnification),
+    lensId: text(inputs.lensId),
     stromalThicknessUm: text(inputs.stromalThicknessUm),
     checklist: Object.fromEntries(
       order.checklist.map((a) => [
@@ -241,6 +246,7 @@ export function formToInputs(
     const magnification = read('lensMagnification');
     if (gld !== undefined) inputs.lesionGldUm = gld;
     if (magnification !== undefined) inputs.lensMagnification = magnification;
+    if (/^[1-9]\d*$/.test(values.lensId)) inputs.lensId = Number(values.lensId);
   }
   if (kind === 'cxl') {
     const thickness = read('stromalThicknessUm');

@@ -13,6 +13,7 @@ import { FieldError } from '../../../components/ui/text-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { useFormDraft } from '../../../lib/form-draft';
 import { readableMessage } from '../../../lib/form-errors';
+import { lensesQuery } from '../../../lib/queries/devices';
 import { orderQueries } from '../api/order-queries';
 import type { ProtocolChoices } from '../api/order-response-schemas';
 import { usePlanPreview } from '../hooks/use-plan-preview';
@@ -159,6 +160,7 @@ export function OrderForm({
     },
   );
   const chosenRef = parseProtocolRef(values.protocolRef);
+  const lenses = useQuery(lensesQuery());
   const definitionQuery = useQuery({
     ...orderQueries.protocolDefinition(chosenRef?.key ?? '', chosenRef?.version ?? 0),
     enabled: chosenRef !== null,
@@ -512,6 +514,28 @@ export function OrderForm({
                 value={register('lesionGldUm')}
                 fixedUnit="µm"
               />
+              <SelectField
+                label="Contact lens"
+                hint="From the lens register: its laser-spot factor fills the field beside (device spot = retinal spot ÷ factor)"
+                value={values.lensId}
+                onChange={(event) => {
+                  const lens = lenses.data?.find((l) => String(l.id) === event.target.value);
+                  setValue('lensId', event.target.value, { shouldDirty: true });
+                  if (lens)
+                    setValue('lensMagnification', String(lens.laserSpotFactor), {
+                      shouldDirty: true,
+                      shouldValidate: true,
+                    });
+                }}
+              >
+                <option value="">None picked: type the factor</option>
+                {(lenses.data ?? []).map((l) => (
+                  <option key={l.id} value={l.id}>
+                    {l.name} — laser-spot factor × {l.laserSpotFactor} (image ×{' '}
+                    {l.imageMagnification}, not for the spot)
+                  </option>
+                ))}
+              </SelectField>
               <MeasureField
                 label="Laser-spot magnification of the contact lens"
                 hint={

@@ -1,3 +1,5 @@
+import { useQuery } from '@tanstack/react-query';
+import { lensesQuery } from '../../../lib/queries/devices';
 import { Link } from 'react-router-dom';
 import { bmiText } from '../../../../shared/engine/body-mass-index';
 import { bsaFormulas } from '../../../../shared/engine/bsa';
@@ -29,6 +31,7 @@ function Card({ id, title, children }: { id: string; title: string; children: Re
 /** The measurements as entered, with their units. */
 export function OrderInputs({ order }: { order: OrderDetail }) {
   const { inputs } = order;
+  const lenses = useQuery({ ...lensesQuery(), enabled: inputs.lensId !== undefined });
   const rows: [string, string][] = [];
   if (inputs.height) rows.push(['Height', formatMeasureWithConversion(inputs.height)]);
   if (inputs.weight) rows.push(['Weight', formatMeasureWithConversion(inputs.weight)]);
@@ -38,6 +41,9 @@ export function OrderInputs({ order }: { order: OrderDetail }) {
   else if (order.kind === 'pdt') rows.push(['BSA formula', 'Protocol default']);
   if (inputs.lesionGldUm !== undefined)
     rows.push(['Lesion greatest linear dimension', `${formatFigure(inputs.lesionGldUm)} µm`]);
+  const lensName = lenses.data?.find((l) => l.id === inputs.lensId)?.name;
+  if (inputs.lensId !== undefined)
+    rows.push(['Contact lens', lensName ?? `lens ${inputs.lensId} of the register`]);
   if (inputs.lensMagnification !== undefined)
     rows.push(['Lens laser-spot magnification', `× ${formatFigure(inputs.lensMagnification)}`]);
   if (inputs.stromalThicknessUm !== undefined)

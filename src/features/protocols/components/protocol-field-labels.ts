@@ -21,6 +21,7 @@ const steps = 'Steps of the step clock';
 const contraindications = 'Contraindication checklist';
 const cautions = 'Cautions';
 const sources = 'Sources';
+const deviceChecks = 'Device checks';
 
 export const protocolFieldLabels = {
   key: { label: 'Protocol key', section: general },
@@ -142,6 +143,32 @@ export const protocolFieldLabels = {
     label: 'Gap between drops beyond the interval (%)',
     section: tolerances,
   },
+
+  deviceChecks: { label: 'Device checks', section: deviceChecks },
+  'deviceChecks.outputCheckTolerancePct': {
+    label: 'Output check: meter reading against the value set (± %)',
+    section: deviceChecks,
+  },
+  'deviceChecks.settingTolerancePct': {
+    label: 'Device setting against the plan (± %)',
+    section: deviceChecks,
+  },
+  'deviceChecks.laserSpotSetting': {
+    label: 'The laser is set to (retinal spot or device spot)',
+    section: deviceChecks,
+  },
+  'deviceChecks.lenses': { label: 'Contact lenses cited', section: deviceChecks },
+  'deviceChecks.lenses[].name': { label: 'Contact lens', section: deviceChecks },
+  'deviceChecks.lenses[].laserSpotFactor': {
+    label: 'Contact lens: laser-spot factor (×)',
+    section: deviceChecks,
+  },
+  'deviceChecks.lenses[].imageMagnification': {
+    label: 'Contact lens: image magnification (×, not for the spot)',
+    section: deviceChecks,
+  },
+  'deviceChecks.lenses[].source': { label: 'Contact lens: source', section: deviceChecks },
+  'deviceChecks.sources[]': { label: 'Sources of the device checks', section: deviceChecks },
 
   'steps[].id': { label: 'id', section: steps },
   'steps[].kind': { label: 'Kind', section: steps },

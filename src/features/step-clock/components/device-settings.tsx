@@ -8,13 +8,24 @@ interface Setting {
   value: string;
 }
 
-function settingsFor(protocol: ProtocolVersion, plan: DosePlan): Setting[] {
+function settingsFor(
+  protocol: ProtocolVersion,
+  plan: DosePlan,
+  lensText: string | null,
+): Setting[] {
   const figure = (value: number | null, unit: string, digits = 2) =>
     value === null ? 'not in the plan' : `${formatFigure(value, digits)} ${unit}`;
   if (protocol.kind === 'pdt') {
     return [
       { label: 'Wavelength', value: `${formatFigure(protocol.light.wavelengthNm)} nm` },
-      { label: 'Device spot', value: figure(plan.deviceSpotDiameterUm, 'µm', 0) },
+      {
+        label: 'Spot set on the laser',
+        value:
+          (protocol.deviceChecks?.laserSpotSetting ?? 'device-spot') === 'device-spot'
+            ? figure(plan.deviceSpotDiameterUm, 'µm', 0)
+            : figure(plan.spotDiameterUm, 'µm', 0),
+      },
+      ...(lensText ? [{ label: 'Lens and laser-spot factor', value: lensText }] : []),
       { label: 'Power', value: figure(plan.powerMw, 'mW', 1) },
       { label: 'Irradiance', value: figure(plan.irradianceMwPerCm2, 'mW/cm²', 1) },
       { label: 'Exposure', value: figure(plan.exposureS, 's', 0) },
@@ -62,10 +73,13 @@ export function DeviceSettings({
   protocol,
   plan,
   headingId,
+  lensText = null,
 }: {
   protocol: ProtocolVersion;
   plan: DosePlan;
   headingId: string;
+  /** The order's lens and its laser-spot factor, shown beside the spot set on the laser. */
+  lensText?: string | null;
 }) {
   return (
     <section
@@ -78,7 +92,7 @@ export function DeviceSettings({
           : 'UV device settings in the plan'}
       </h2>
       <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-6 gap-y-1.5">
-        {settingsFor(protocol, plan).map((setting) => (
+        {settingsFor(protocol, plan, lensText).map((setting) => (
           <div key={setting.label} className="contents">
             <dt className="text-paper-700">{setting.label}</dt>
             <dd className="numerals-steady text-lg font-semibold text-paper-950">

@@ -14,7 +14,9 @@ import { formatCalendarFigures } from '../../../lib/unit-times';
 import type { SessionOrder } from '../api/get-session-order';
 import { useStoredDraft } from '../hooks/use-stored-draft';
 import { formatWardTime } from './clock-format';
+import { DevicePreCheck, type DeviceChoice } from './device-pre-check';
 import { DeviceSettings } from './device-settings';
+import type { DeviceSetting } from '../../../../shared/schemas/devices';
 import { EyeBadge, eyeWords } from './eye-badge';
 import { SessionCautions } from './session-cautions';
 
@@ -74,7 +76,8 @@ export function PreTreatmentChecks({
   protocol: ProtocolVersion;
   plan: DosePlan;
   serverNowMs: number;
-  onStart: () => void;
+  /** Starts the session with the device chosen and set (none only on versions without device checks). */
+  onStart: (device: DeviceSetting | undefined) => void;
 }) {
   const [ticks, setTicks, clearTicks] = useStoredDraft<Ticks>(`checks.${order.id}`, noTicks);
   const [missing, setMissing] = useState<PreTreatmentCheck[]>([]);
@@ -83,6 +86,10 @@ export function PreTreatmentChecks({
   const settingsHeading = useId();
   const cautionsHeading = useId();
   const beyondUseMs = order.beyondUseAt ? Date.parse(order.beyondUseAt) : null;
+  const [device, setDevice] = useState<DeviceChoice>({ setting: null, ready: false });
+  const [deviceProblem, setDeviceProblem] = useState<string | null>(null);
+  // Versions with deviceChecks need the device; older ones take it if chosen.
+  const deviceRequired = protocol.deviceChecks !== undefined;
 
   const start = () => {
     // The server refuses a session start after the beyond-use time; the screen says why first.
@@ -96,12 +103,22 @@ export function PreTreatmentChecks({
       return;
     const notYet = preTreatmentChecks.filter((check) => !ticks[check]);
     setMissing(notYet);
+    const deviceNotReady =
+      device.setting === null
+        ? deviceRequired
+          ? `choose the ${protocol.kind === 'pdt' ? 'laser' : 'UV source'} and type what is set on it`
+          : null
+        : !device.ready
+          ? 'the device has no passing output check today (record one above)'
+          : null;
+    setDeviceProblem(deviceNotReady);
     if (notYet.length > 0) {
       inputs.current[notYet[0]!]?.focus();
       return;
     }
+    if (deviceNotReady) return;
     clearTicks();
-    onStart();
+    onStart(device.setting ?? undefined);
   };
 
   return (
@@ -111,6 +128,19 @@ export function PreTreatmentChecks({
           Confirm each check aloud, then tick it
         </h2>
         <AcceptedCautionsBanner cautions={order.answeredCautions} />
+        <DevicePreCheck
+          orderId={order.id}
+          protocol={protocol}
+          plan={plan}
+          lens={{
+            name: null,
+            laserSpotFactor: order.inputs.lensMagnification ?? null,
+          }}
+          onChange={(choice) => {
+            setDevice(choice);
+            setDeviceProblem(null);
+          }}
+        />
         <ul className="flex flex-col gap-3">
           {preTreatmentChecks.map((check) => (
             <li key={check}>
@@ -135,9 +165,11 @@ export function PreTreatmentChecks({
           data-testid="session-start-bar"
           className="sticky bottom-0 z-10 -mx-2 flex flex-col gap-3 border-t border-paper-200 bg-paper-50 px-2 py-3"
         >
-          {missing.length > 0 && (
+          {(missing.length > 0 || deviceProblem) && (
             <Alert tone="error" title="The session cannot start yet">
-              Not confirmed: {missing.map((check) => words[check].label.toLowerCase()).join('; ')}.
+              {missing.length > 0 &&
+                `Not confirmed: ${missing.map((check) => words[check].label.toLowerCase()).join('; ')}. `}
+              {deviceProblem && `Device: ${deviceProblem}.`}
             </Alert>
           )}
           <Button
@@ -160,7 +192,16 @@ export function PreTreatmentChecks({
           </p>
         </div>
         {beyondUseMs !== null && <BeyondUse beyondUseMs={beyondUseMs} serverNowMs={serverNowMs} />}
-        <DeviceSettings protocol={protocol} plan={plan} headingId={settingsHeading} />
+        <DeviceSettings
+          protocol={protocol}
+          plan={plan}
+          headingId={settingsHeading}
+          lensText={
+            order.inputs.lensMagnification === undefined
+              ? null
+              : `${order.inputs.lensId !== undefined ? `lens ${order.inputs.lensId} of the register, ` : ''}× ${order.inputs.lensMagnification}`
+          }
+        />
         <SessionCautions
           protocol={protocol}
           eyeWord={eyeWords[order.eye]}

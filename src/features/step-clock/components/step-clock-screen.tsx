@@ -236,7 +236,7 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
           protocol={definition}
           plan={plan}
           serverNowMs={serverNowMs}
-          onStart={() => {
+          onStart={(device) => {
             const checks = Object.fromEntries(
               preTreatmentChecks.map((check) => [check, true]),
             ) as Record<(typeof preTreatmentChecks)[number], true>;
@@ -244,7 +244,7 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
             const first = definition.steps[0];
             const checkStep = first?.kind === 'check' ? first.id : null;
             record([
-              { type: 'session-started', checks },
+              { type: 'session-started', checks, ...(device ? { device } : {}) },
               ...(checkStep
                 ? [
                     { type: 'step-started' as const, stepId: checkStep },
