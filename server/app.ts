@@ -20,6 +20,10 @@ import { createCalculationService } from './calculations/service';
 import { systemClock, type Clock } from './clock';
 import type { Config } from './config';
 import { createUnitOfWork, type Database } from './db/unit-of-work';
+import { createEndedTreatmentQueries, createFollowUpRepository } from './follow-up/repository';
+import { createOutcomeService } from './follow-up/outcomes';
+import { followUpRoutes } from './follow-up/routes';
+import { createFollowUpService } from './follow-up/service';
 import { createHealthRepository } from './health/repository';
 import { healthRoutes } from './health/routes';
 import { createHealthService } from './health/service';
@@ -125,6 +129,17 @@ export function createApp({
     maxPct: config.WEIGHT_CHANGE_MAX_PCT,
     withinDays: config.WEIGHT_CHANGE_WITHIN_DAYS,
   };
+  const followUpRows = createFollowUpRepository(dataSource);
+  const followUp = createFollowUpService({
+    unitOfWork,
+    clock,
+    followUps: followUpRows,
+    treatments: createEndedTreatmentQueries(dataSource),
+    audit,
+    unitTimeZone,
+    unitName: config.UNIT_NAME,
+    uploadDir: path.resolve(config.UPLOAD_DIR),
+  });
   const orderService = createOrderService({
     unitOfWork,
     clock,
@@ -137,6 +152,7 @@ export function createApp({
     unitTimeZone,
     weightChangeRule,
     confirmSignature: auth.confirmSignature,
+    latestRetreatmentDecision: followUp.latestDecision,
   });
   const pharmacy = createPharmacyService({
     unitOfWork,
@@ -159,6 +175,7 @@ export function createApp({
     tapClockSkewS: config.TAP_CLOCK_SKEW_S,
     tapOfflineWindowH: config.TAP_OFFLINE_WINDOW_H,
     confirmSignature: auth.confirmSignature,
+    afterSessionCompleted: () => followUp.sweep(),
   });
   const discharge = createDischargeService({
     unitOfWork,
@@ -204,6 +221,15 @@ export function createApp({
     ),
     ...outboxRoutes(createOutboxService(createOutboxRepository(dataSource))),
     ...sessionRoutes(sessionService, discharge),
+    ...followUpRoutes(
+      followUp,
+      createOutcomeService({
+        clock,
+        followUps: followUpRows,
+        planMissing: () => followUp.planMissing(),
+        unitTimeZone,
+      }),
+    ),
     ...staffRoutes(people),
     ...auditRoutes(createAuditService(audit)),
     ...reviewRoutes(

@@ -27,6 +27,8 @@ export const capabilities = [
   'preparations.record',
   'outbox.read',
   'sessions.run',
+  'follow-up.record',
+  'outcomes.read',
 ] as const;
 export type Capability = (typeof capabilities)[number];
 

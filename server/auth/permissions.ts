@@ -15,6 +15,8 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.read',
     'orders.write',
     'orders.cancel',
+    'follow-up.record',
+    'outcomes.read',
   ],
   pharmacist: [
     'today.view',
@@ -43,6 +45,7 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'audit.verify',
     'patients.read',
     'orders.read',
+    'outcomes.read',
   ],
   admin: [
     'today.view',

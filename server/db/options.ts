@@ -7,6 +7,8 @@ import { DeviationRow } from './entities/deviation';
 import { DeviationReview } from './entities/deviation-review';
 import { DoseCheck } from './entities/dose-check';
 import { DoseRecordRow } from './entities/dose-record';
+import { Complication } from './entities/complication';
+import { FollowUpVisit } from './entities/follow-up-visit';
 import { OutboxMessage } from './entities/outbox-message';
 import { PasswordLink } from './entities/password-link';
 import { Patient } from './entities/patient';
@@ -38,6 +40,8 @@ export const entities = [
   DeviationRow,
   DoseRecordRow,
   DeviationReview,
+  FollowUpVisit,
+  Complication,
   SessionParticipant,
   PatientMeasurement,
   SignInSession,
