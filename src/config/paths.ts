@@ -125,6 +125,10 @@ export const paths = {
     path: '/trends',
     getHref: (search?: string) => (search ? `/trends?${search}` : '/trends'),
   },
+  outcomes: {
+    path: '/outcomes',
+    getHref: (search?: string) => (search ? `/outcomes?${search}` : '/outcomes'),
+  },
   auditTrail: {
     path: '/audit-trail',
     getHref: (search?: string) => (search ? `/audit-trail?${search}` : '/audit-trail'),
