@@ -1,6 +1,7 @@
 import { loadConfig } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
+import { seedDemoFollowUp } from '../demo/follow-up';
 import { seedDemoScenario } from '../demo/scenario';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
@@ -65,6 +66,8 @@ try {
       const { created } = await seedDemoData(seedSource);
       await loadShippedProtocols(seedSource);
       const sessions = await seedDemoScenario(seedSource, config.UNIT_TIME_ZONE);
+      const visits = await seedDemoFollowUp(seedSource, config.UNIT_TIME_ZONE);
+      if (visits) console.log(`• Demo follow-up visits recorded: ${visits}`);
       console.log(
         created.length || sessions
           ? `• Demo data added (${created.length} people and patients, ${sessions} orders)`
