@@ -55,7 +55,7 @@ function findingsText(visit: FollowUpVisit): string {
   }
   if (visit.cxl) {
     const c = visit.cxl;
-    return `Kmax ${c.kmaxD} D · thinnest ${c.thinnestPachymetryUm} µm · ECC ${c.endothelialCellsPerMm2 ?? 'not measured'}${c.endothelialCellsPerMm2 ? ' cells/mm²' : ''} · haze grade ${c.hazeGrade}`;
+    return `Kmax ${c.kmaxD?.toFixed(1)} D · thinnest ${c.thinnestPachymetryUm} µm · ECC ${c.endothelialCellsPerMm2 ?? 'not measured'}${c.endothelialCellsPerMm2 ? ' cells/mm²' : ''} · haze grade ${c.hazeGrade}`;
   }
   return '';
 }
@@ -475,7 +475,7 @@ function TreatmentFollowUp({
                   <th scope="row" className="px-5 py-3 font-medium text-paper-950">
                     {v.label}
                   </th>
-                  <td className="px-3 py-3">{v.dueOn}</td>
+                  <td className="whitespace-nowrap px-3 py-3">{v.dueOn}</td>
                   <td className="px-3 py-3">
                     <span aria-hidden="true">{stateMarks[v.state]} </span>
                     {stateWords[v.state]}
@@ -510,7 +510,12 @@ function TreatmentFollowUp({
                   </td>
                   <td className="px-5 py-3">
                     {canRecord && v.state !== 'recorded' && (
-                      <Button size="sm" variant="secondary" onClick={() => setRecording(v.id)}>
+                      <Button
+                        size="sm"
+                        variant="secondary"
+                        className="whitespace-nowrap"
+                        onClick={() => setRecording(v.id)}
+                      >
                         Record {v.label}
                       </Button>
                     )}

@@ -43,7 +43,7 @@ function PChartFigure({
 }) {
   const width = 560;
   const height = 200;
-  const pad = { left: 44, right: 12, top: 12, bottom: 36 };
+  const pad = { left: 44, right: 36, top: 12, bottom: 36 };
   const shown = points.filter((p) => p.share !== null);
   const top = Math.min(
     1,
