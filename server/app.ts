@@ -245,6 +245,8 @@ export function createApp({
     ),
   ];
   app.locals.routeTable = routes;
+  // The web server runs this now and then: plans missed follow-up and queues due reminders.
+  app.locals.followUpSweep = () => followUp.sweep();
 
   const api = express.Router();
   api.use(express.json({ limit: '200kb' }));

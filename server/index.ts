@@ -14,6 +14,8 @@ import { createOutboxRepository } from './mail/outbox-repository';
 import { loadShippedProtocols } from './protocols/load-shipped';
 import { recomputeRunningSessions } from './sessions/recover';
 
+const followUpSweepMs = 15 * 60_000;
+
 export interface RunningWebServer {
   url: string;
   server: Server;
@@ -21,6 +23,8 @@ export interface RunningWebServer {
   mailer: Mailer;
   outbox: OutboxWorker;
   config: Config;
+  /** Plans follow-up visits and queues reminders every quarter of an hour. */
+  followUpTimer?: NodeJS.Timeout;
 }
 
 /**
@@ -60,10 +64,24 @@ export async function startWebServer(
   });
   const address = server.address();
   const actualPort = typeof address === 'object' && address ? address.port : port;
-  return { url: `http://${config.HOST}:${actualPort}`, server, dataSource, mailer, outbox, config };
+  const sweep = app.locals.followUpSweep as () => Promise<void>;
+  const followUpTimer = setInterval(() => {
+    sweep().catch((error: unknown) => console.error('Follow-up sweep failed:', error));
+  }, followUpSweepMs);
+  followUpTimer.unref();
+  return {
+    url: `http://${config.HOST}:${actualPort}`,
+    server,
+    dataSource,
+    mailer,
+    outbox,
+    config,
+    followUpTimer,
+  };
 }
 
 export async function stopWebServer(running: RunningWebServer): Promise<void> {
+  clearInterval(running.followUpTimer);
   await new Promise<void>((resolve) => {
     running.server.close(() => resolve());
     running.server.closeAllConnections();
