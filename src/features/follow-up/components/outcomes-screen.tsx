@@ -19,8 +19,8 @@ import {
 
 const pct = (value: number | null) => (value === null ? '—' : `${(value * 100).toFixed(1)} %`);
 
-function shareText(s: ShareWithInterval): string {
-  if (s.share === null) return 'no eyes';
+function shareText(s: ShareWithInterval, none = 'no eyes'): string {
+  if (s.share === null) return none;
   return `${pct(s.share)} (${s.count} of ${s.total}; 95 % CI ${pct(s.lower)} to ${pct(s.upper)})`;
 }
 
@@ -247,7 +247,7 @@ function OutcomesTable({ answer }: { answer: OutcomesAnswer }) {
                 </span>
               </td>
               <td className="px-3 py-3">
-                {shareText(p.share)}
+                {shareText(p.share, 'none assessed yet')}
                 <span className="block text-sm text-paper-700">
                   Counting the lost as not reached: {pct(p.shareIfLostFailed.share)}
                 </span>
