@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { wilsonInterval } from '../../shared/engine/proportions';
+import { pChart, wilsonInterval } from '../../shared/engine/proportions';
 import {
   createTestPerson,
   identityConfirmed,
@@ -356,5 +356,37 @@ describe('outcomes for the auditor', () => {
     const res = await auditorAgent.get('/api/outcomes').query({ from: '2026-13' });
     expect(res.status).toBe(400);
     expect(res.body.error.fields[0]).toMatchObject({ path: 'from' });
+  });
+});
+
+describe('the deviation trend as a p-chart', () => {
+  it('gives each month of a protocol version its own 3-sigma limits and a reading in words', async () => {
+    await completedPdtSession();
+    const res = await auditorAgent.get('/api/trends');
+    expect(res.status).toBe(200);
+    const months = res.body.months as {
+      protocolKey: string;
+      protocolVersion: number;
+      month: string;
+      sessions: number;
+      sessionsWithDeviation: number;
+      upperLimitPct: number | null;
+      lowerLimitPct: number | null;
+      reading: string;
+    }[];
+    const series = months.filter(
+      (m) => m.protocolKey === 'pdt-standard' && m.protocolVersion === 1,
+    );
+    expect(series.length).toBeGreaterThan(0);
+    // p̄ ± 3√(p̄(1−p̄)/n) per month (Benneyan JC, Lloyd RC, Plsek PE, Qual Saf Health Care 2003).
+    const chart = pChart(
+      series.map((m) => ({ label: m.month, count: m.sessionsWithDeviation, total: m.sessions })),
+    );
+    series.forEach((m, i) => {
+      const point = chart.points[i]!;
+      expect(m.upperLimitPct).toBeCloseTo((point.upperLimit ?? 0) * 100, 1);
+      expect(m.lowerLimitPct).toBeCloseTo((point.lowerLimit ?? 0) * 100, 1);
+      expect(m.reading).toMatch(/within limits|special-cause variation/);
+    });
   });
 });
