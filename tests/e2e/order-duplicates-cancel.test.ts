@@ -47,7 +47,7 @@ async function newPatient(page: Page, familyName: string) {
 const order = (patientId: number) => ({
   patientId,
   eye: 'right',
-  protocol: { key: 'pdt-standard', version: 2 },
+  protocol: { key: 'pdt-standard', version: 3 },
   inputs: {
     height: { value: 170, unit: 'cm' },
     weight: { value: 70, unit: 'kg' },

@@ -55,7 +55,7 @@ describe('a weight typed in the wrong unit', () => {
         const { order } = await post('/api/orders', {
           patientId: patient.id,
           eye: 'left',
-          protocol: { key: 'pdt-standard', version: 2 },
+          protocol: { key: 'pdt-standard', version: 3 },
           inputs: {
             height: { value: 183, unit: 'cm' },
             weight: { value: 92, unit: 'kg' },
