@@ -20,6 +20,10 @@ import { createCalculationService } from './calculations/service';
 import { systemClock, type Clock } from './clock';
 import type { Config } from './config';
 import { createUnitOfWork, type Database } from './db/unit-of-work';
+import { createEndedTreatmentQueries, createFollowUpRepository } from './follow-up/repository';
+import { createOutcomeService } from './follow-up/outcomes';
+import { followUpRoutes } from './follow-up/routes';
+import { createFollowUpService } from './follow-up/service';
 import { createHealthRepository } from './health/repository';
 import { healthRoutes } from './health/routes';
 import { createHealthService } from './health/service';
@@ -133,6 +137,17 @@ export function createApp({
     maxPct: config.WEIGHT_CHANGE_MAX_PCT,
     withinDays: config.WEIGHT_CHANGE_WITHIN_DAYS,
   };
+  const followUpRows = createFollowUpRepository(dataSource);
+  const followUp = createFollowUpService({
+    unitOfWork,
+    clock,
+    followUps: followUpRows,
+    treatments: createEndedTreatmentQueries(dataSource),
+    audit,
+    unitTimeZone,
+    unitName: config.UNIT_NAME,
+    uploadDir: path.resolve(config.UPLOAD_DIR),
+  });
   const orderService = createOrderService({
     unitOfWork,
     clock,
@@ -146,6 +161,7 @@ export function createApp({
     weightChangeRule,
     lenses: deviceRows,
     confirmSignature: auth.confirmSignature,
+    latestRetreatmentDecision: followUp.latestDecision,
   });
   const pharmacy = createPharmacyService({
     unitOfWork,
@@ -184,6 +200,7 @@ export function createApp({
     tapOfflineWindowH: config.TAP_OFFLINE_WINDOW_H,
     confirmSignature: auth.confirmSignature,
     treatmentRecords: fhir,
+    afterSessionCompleted: () => followUp.sweep(),
   });
   const discharge = createDischargeService({
     unitOfWork,
@@ -249,6 +266,15 @@ export function createApp({
         checkValidity,
       }),
     ),
+    ...followUpRoutes(
+      followUp,
+      createOutcomeService({
+        clock,
+        followUps: followUpRows,
+        planMissing: () => followUp.planMissing(),
+        unitTimeZone,
+      }),
+    ),
     ...staffRoutes(people),
     ...auditRoutes(createAuditService(audit)),
     ...reviewRoutes(
@@ -264,6 +290,8 @@ export function createApp({
     ),
   ];
   app.locals.routeTable = routes;
+  // The web server runs this now and then: plans missed follow-up and queues due reminders.
+  app.locals.followUpSweep = () => followUp.sweep();
 
   const api = express.Router();
   api.use(express.json({ limit: '200kb' }));

@@ -17,6 +17,8 @@ import { createFhirRepository } from './fhir/repository';
 import { loadShippedProtocols } from './protocols/load-shipped';
 import { recomputeRunningSessions } from './sessions/recover';
 
+const followUpSweepMs = 15 * 60_000;
+
 export interface RunningWebServer {
   url: string;
   server: Server;
@@ -26,6 +28,8 @@ export interface RunningWebServer {
   /** Sends treatment bundles to the FHIR server; null when FHIR_BASE_URL is unset. */
   fhirOutbox: FhirDeliveryWorker | null;
   config: Config;
+  /** Plans follow-up visits and queues reminders every quarter of an hour. */
+  followUpTimer?: NodeJS.Timeout;
 }
 
 /**
@@ -73,6 +77,11 @@ export async function startWebServer(
   });
   const address = server.address();
   const actualPort = typeof address === 'object' && address ? address.port : port;
+  const sweep = app.locals.followUpSweep as () => Promise<void>;
+  const followUpTimer = setInterval(() => {
+    sweep().catch((error: unknown) => console.error('Follow-up sweep failed:', error));
+  }, followUpSweepMs);
+  followUpTimer.unref();
   return {
     url: `http://${config.HOST}:${actualPort}`,
     server,
@@ -81,10 +90,12 @@ export async function startWebServer(
     outbox,
     fhirOutbox,
     config,
+    followUpTimer,
   };
 }
 
 export async function stopWebServer(running: RunningWebServer): Promise<void> {
+  clearInterval(running.followUpTimer);
   await new Promise<void>((resolve) => {
     running.server.close(() => resolve());
     running.server.closeAllConnections();

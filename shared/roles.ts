@@ -30,6 +30,8 @@ export const capabilities = [
   'devices.read',
   'devices.check',
   'devices.manage',
+  'follow-up.record',
+  'outcomes.read',
 ] as const;
 export type Capability = (typeof capabilities)[number];
 

@@ -9,6 +9,41 @@ import type { AttachmentRepository } from './repository';
 
 export const attachmentMaxBytes = 10 * 1024 * 1024;
 
+/** A report checked by its content (PDF, PNG or JPEG), stored readable by the server only. */
+export async function storeReport(
+  uploadDir: string,
+  file: { originalname: string; buffer: Buffer },
+): Promise<{
+  fileName: string;
+  mimeType: string;
+  sizeBytes: number;
+  sha256: string;
+  storageName: string;
+}> {
+  const type = detectFileType(file.buffer);
+  if (!type) {
+    throw new AppError(
+      415,
+      'unsupported_type',
+      'Only PDF, PNG and JPEG reports can be attached; this file is none of them, whatever its name says.',
+      [{ path: 'file', message: 'file must be a PDF, PNG or JPEG (checked by its content)' }],
+    );
+  }
+  const sha256 = createHash('sha256').update(file.buffer).digest('hex');
+  const storageName = `${randomUUID()}.${type.extension}`;
+  // Health data: readable by the server's own user only, whatever the umask.
+  await mkdir(uploadDir, { recursive: true, mode: 0o700 });
+  const stored = path.join(uploadDir, storageName);
+  await writeFile(stored, file.buffer, { flag: 'wx', mode: 0o600 });
+  await chmod(stored, 0o600);
+  const fileName =
+    path
+      .basename(file.originalname)
+      .replace(/[^\w.\- ()]/g, '_')
+      .slice(0, 200) || `report.${type.extension}`;
+  return { fileName, mimeType: type.mimeType, sizeBytes: file.buffer.length, sha256, storageName };
+}
+
 export function createAttachmentService(
   attachments: AttachmentRepository,
   audit: AuditRepository,
@@ -28,36 +63,14 @@ export function createAttachmentService(
           'order_signed',
           `Order ${orderId} is ${status}; reports are attached before signing.`,
         );
-      const type = detectFileType(file.buffer);
-      if (!type) {
-        throw new AppError(
-          415,
-          'unsupported_type',
-          'Only PDF, PNG and JPEG reports can be attached; this file is none of them, whatever its name says.',
-          [{ path: 'file', message: 'file must be a PDF, PNG or JPEG (checked by its content)' }],
-        );
-      }
-      const sha256 = createHash('sha256').update(file.buffer).digest('hex');
-      const storageName = `${randomUUID()}.${type.extension}`;
-      // Health data: readable by the server's own user only, whatever the umask.
-      await mkdir(uploadDir, { recursive: true, mode: 0o700 });
-      const stored = path.join(uploadDir, storageName);
-      await writeFile(stored, file.buffer, { flag: 'wx', mode: 0o600 });
-      await chmod(stored, 0o600);
-      const fileName =
-        path
-          .basename(file.originalname)
-          .replace(/[^\w.\- ()]/g, '_')
-          .slice(0, 200) || `report.${type.extension}`;
+      const stored = await storeReport(uploadDir, file);
       const saved = await attachments.add({
         orderId,
-        fileName,
-        mimeType: type.mimeType,
-        sizeBytes: file.buffer.length,
-        sha256,
-        storageName,
+        followUpVisitId: null,
+        ...stored,
         uploadedBy: actor.id,
       });
+      const { fileName, sha256 } = stored;
       await audit.append({
         actorUserId: actor.id,
         action: 'attachment.added',

@@ -16,6 +16,8 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.write',
     'orders.cancel',
     'devices.read',
+    'follow-up.record',
+    'outcomes.read',
   ],
   pharmacist: [
     'today.view',
@@ -49,6 +51,7 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'patients.read',
     'orders.read',
     'devices.read',
+    'outcomes.read',
   ],
   admin: [
     'today.view',

@@ -19,6 +19,7 @@ import { ProtocolSignaturesDiscardsAndSuperseded1796303358061 } from './migratio
 import { SupersededReasonSigned1796309618215 } from './migrations/1796309618215-SupersededReasonSigned';
 import { FhirInterop1796313422761 } from './migrations/1796313422761-FhirInterop';
 import { DevicesAndLenses1796313454504 } from './migrations/1796313454504-DevicesAndLenses';
+import { FollowUpAndOutcomes1796313495700 } from './migrations/1796313495700-FollowUpAndOutcomes';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
 export const migrations = [
@@ -41,4 +42,5 @@ export const migrations = [
   SupersededReasonSigned1796309618215,
   FhirInterop1796313422761,
   DevicesAndLenses1796313454504,
+  FollowUpAndOutcomes1796313495700,
 ];

@@ -9,6 +9,8 @@ import { DeviationReview } from './entities/deviation-review';
 import { DoseCheck } from './entities/dose-check';
 import { DoseRecordRow } from './entities/dose-record';
 import { FhirDelivery } from './entities/fhir-delivery';
+import { Complication } from './entities/complication';
+import { FollowUpVisit } from './entities/follow-up-visit';
 import { OutboxMessage } from './entities/outbox-message';
 import { PasswordLink } from './entities/password-link';
 import { Patient } from './entities/patient';
@@ -40,6 +42,8 @@ export const entities = [
   DeviationRow,
   DoseRecordRow,
   DeviationReview,
+  FollowUpVisit,
+  Complication,
   SessionParticipant,
   PatientMeasurement,
   SignInSession,

@@ -2,6 +2,7 @@ import type { Config } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource, type OwnerCredentials } from '../db/options';
 import { seedDemoDevices } from '../demo/devices';
+import { seedDemoFollowUp } from '../demo/follow-up';
 import { seedDemoScenario } from '../demo/scenario';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
@@ -26,6 +27,8 @@ export async function prepareAppDatabase(config: Config, owner: OwnerCredentials
       if (deviceRows)
         console.log(`• Demo devices, lenses and output checks: ${deviceRows} rows added`);
       const sessions = await seedDemoScenario(source, config.UNIT_TIME_ZONE);
+      const visits = await seedDemoFollowUp(source, config.UNIT_TIME_ZONE);
+      if (visits) console.log(`• Demo follow-up visits recorded: ${visits}`);
       console.log(
         created.length || sessions
           ? `• Demo data added (${created.length} people and patients, ${sessions} orders)`

@@ -1,4 +1,4 @@
-import { In, type DataSource } from 'typeorm';
+import { In, IsNull, type DataSource } from 'typeorm';
 import { canMoveOrder } from '../../shared/orders/lifecycle';
 import type { OrderListQuery, OrderStatus } from '../../shared/schemas/orders';
 import { AppError } from '../http/app-error';
@@ -243,7 +243,10 @@ export function createOrderRepository(dataSource: DataSource) {
         .save(managerOf(tx).getRepository(Preparation).create(preparation)),
 
     attachmentsFor: (orderId: number) =>
-      dataSource.getRepository(Attachment).find({ where: { orderId }, order: { id: 'ASC' } }),
+      // A follow-up visit's reports belong to the visit, not to the signed order.
+      dataSource
+        .getRepository(Attachment)
+        .find({ where: { orderId, followUpVisitId: IsNull() }, order: { id: 'ASC' } }),
   };
 }
 

@@ -136,6 +136,12 @@ export function createOrderService(deps: {
     password: string,
     ipAddress: string | undefined,
   ) => Promise<boolean>;
+  /** The latest follow-up decision on re-treatment for an eye, named in the retreatment-interval warning. */
+  latestRetreatmentDecision?: (
+    patientId: number,
+    eye: 'right' | 'left',
+    kind: 'pdt' | 'cxl',
+  ) => Promise<{ decision: string; seenOn: string; visitLabel: string } | null>;
 }) {
   const {
     unitOfWork,
@@ -308,10 +314,20 @@ export function createOrderService(deps: {
       ]);
     const warnings = withheld ? [] : [...order.plan.warnings];
     if (recentDays !== null) {
+      const decision = deps.latestRetreatmentDecision
+        ? await deps.latestRetreatmentDecision(
+            order.patientId,
+            order.eye,
+            order.protocolVersion.kind,
+          )
+        : null;
+      const followUpWords = decision
+        ? ` The follow-up visit (${decision.visitLabel}) on ${decision.seenOn} decided: ${decision.decision}.`
+        : ' No follow-up visit has recorded a decision to re-treat.';
       warnings.push({
         code: 'retreatment-interval',
         field: 'retreatmentReason',
-        message: `This eye had the same kind of treatment ${recentDays} days ago; the protocol's minimum interval is ${order.protocolVersion.definition.retreatmentMinDays} days.`,
+        message: `This eye had the same kind of treatment ${recentDays} days ago; the protocol's minimum interval is ${order.protocolVersion.definition.retreatmentMinDays} days.${followUpWords}`,
       });
     }
     if (weightChange !== null)

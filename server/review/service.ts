@@ -1,3 +1,4 @@
+import { pChart, pChartSignalWords, type PChartPoint } from '../../shared/engine/proportions';
 import { Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import type { Writable } from 'node:stream';
@@ -207,7 +208,7 @@ export function createReviewService(deps: {
         toMonth: filter.to?.slice(0, 7),
         protocol: filter.protocol,
       });
-      return rows.map((r) => {
+      const months = rows.map((r) => {
         const sessions = Number(r.sessions);
         const withDeviation = Number(r.sessionsWithDeviation);
         return {
@@ -218,6 +219,26 @@ export function createReviewService(deps: {
           sessions,
           sessionsWithDeviation: withDeviation,
           ratePct: sessions ? Math.round((withDeviation / sessions) * 1000) / 10 : 0,
+        };
+      });
+      // Each protocol version's months as a p-chart: 3-sigma limits from each month's own count.
+      const limits = new Map<(typeof months)[number], PChartPoint>();
+      for (const series of new Set(months.map((m) => `${m.protocolKey}@${m.protocolVersion}`))) {
+        const of = months.filter((m) => `${m.protocolKey}@${m.protocolVersion}` === series);
+        const chart = pChart(
+          of.map((m) => ({ label: m.month, count: m.sessionsWithDeviation, total: m.sessions })),
+        );
+        of.forEach((m, i) => limits.set(m, chart.points[i]!));
+      }
+      const pct = (v: number | null) => (v === null ? null : Math.round(v * 1000) / 10);
+      return months.map((m) => {
+        const point = limits.get(m)!;
+        return {
+          ...m,
+          lowerLimitPct: pct(point.lowerLimit),
+          upperLimitPct: pct(point.upperLimit),
+          signal: point.signal,
+          reading: pChartSignalWords(point),
         };
       });
     },

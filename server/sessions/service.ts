@@ -103,6 +103,8 @@ export function createSessionService(deps: {
   treatmentRecords?: {
     enqueueTreatment(tx: Transaction, orderId: number, reason: string): Promise<void>;
   };
+  /** Runs after a session completes (follow-up visits are planned then); a failure there never fails the tap. */
+  afterSessionCompleted?: () => Promise<void>;
 }) {
   const { unitOfWork, orders, sessions, users, audit } = deps;
   const now = () => deps.clock.now().getTime();
@@ -814,6 +816,12 @@ export function createSessionService(deps: {
         throw error;
       }
       for (const done of afterCommit) done();
+      if (outcome.ended && outcome.status === 'completed' && deps.afterSessionCompleted) {
+        // Planning is repeated on every follow-up read, so a failure here loses nothing.
+        await deps.afterSessionCompleted().catch((error: unknown) => {
+          console.error('Follow-up planning after a session failed:', error);
+        });
+      }
       if (authoriser) {
         // The authorisation is the clinician's act, in their name.
         await audit.append({

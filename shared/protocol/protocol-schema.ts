@@ -308,6 +308,49 @@ const contraindicationSchema = z.strictObject({
     .optional(),
 });
 
+/** What a follow-up counts as success, measured at one planned visit. */
+export const outcomeMeasures = ['subretinal-fluid-resolved', 'kmax-increase-below'] as const;
+export type OutcomeMeasure = (typeof outcomeMeasures)[number];
+
+const followUpVisitSchema = z.strictObject({
+  id: kebabId('followUp.visits[].id'),
+  label: text('followUp.visits[].label'),
+  /** Days after the treatment the visit is due; 0 is the baseline on the day of treatment. */
+  offsetDays: z
+    .number({ error: 'followUp.visits[].offsetDays must be a whole number from 0 to 730 days' })
+    .int('followUp.visits[].offsetDays must be a whole number from 0 to 730 days')
+    .min(0, 'followUp.visits[].offsetDays must be a whole number from 0 to 730 days')
+    .max(730, 'followUp.visits[].offsetDays must be a whole number from 0 to 730 days'),
+});
+
+const followUpSchema = z.strictObject({
+  visits: z.array(followUpVisitSchema).min(1, 'followUp.visits must hold at least one visit'),
+  /** A visit not recorded this many days after its due date is missed (lost to follow-up). */
+  visitWindowDays: wholePositive('followUp.visitWindowDays', 'days'),
+  /** Patients who consent to e-mail are reminded this many days before a visit. */
+  reminderDaysBefore: wholePositive('followUp.reminderDaysBefore', 'days'),
+  complicationKinds: z
+    .array(
+      z.strictObject({
+        id: kebabId('followUp.complicationKinds[].id'),
+        label: text('followUp.complicationKinds[].label'),
+      }),
+    )
+    .min(1, 'followUp.complicationKinds must hold at least one kind'),
+  outcome: z.strictObject({
+    measure: z.enum(outcomeMeasures, {
+      error: `followUp.outcome.measure must be one of ${outcomeMeasures.join(', ')}`,
+    }),
+    label: text('followUp.outcome.label'),
+    /** The visit the outcome is read at. */
+    visitId: kebabId('followUp.outcome.visitId'),
+    /** kmax-increase-below: the visit the increase is measured from, and the limit in dioptres. */
+    baselineVisitId: kebabId('followUp.outcome.baselineVisitId').nullable(),
+    maxIncreaseD: positive('followUp.outcome.maxIncreaseD', 'D').nullable(),
+  }),
+});
+export type FollowUpPlan = z.infer<typeof followUpSchema>;
+
 const protocolVersionObject = z.strictObject({
   key: kebabId('key'),
   version: wholePositive('version', ''),
@@ -333,6 +376,8 @@ const protocolVersionObject = z.strictObject({
   sources: z.array(sourceSchema).min(1, 'sources must name at least one source'),
   /** Added in version 3: the device's output check and settings (absent in older versions). */
   deviceChecks: deviceChecksSchema.optional(),
+  /** Follow-up visits, complication kinds and the outcome (absent in versions before 3). */
+  followUp: followUpSchema.optional(),
 });
 type ProtocolShape = z.infer<typeof protocolVersionObject>;
 type Issue = { message: string; path: (string | number)[] };
@@ -341,7 +386,58 @@ function duplicates(values: string[]): string[] {
   return [...new Set(values.filter((value, index) => values.indexOf(value) !== index))];
 }
 
+function checkFollowUp(p: ProtocolShape, issues: Issue[]): void {
+  const plan = p.followUp;
+  if (!plan) return;
+  const ids = plan.visits.map((visit) => visit.id);
+  for (const id of duplicates(ids))
+    issues.push({
+      path: ['followUp', 'visits'],
+      message: `followUp.visits ids must be unique (${id} repeats)`,
+    });
+  for (const id of duplicates(plan.complicationKinds.map((kind) => kind.id)))
+    issues.push({
+      path: ['followUp', 'complicationKinds'],
+      message: `followUp.complicationKinds ids must be unique (${id} repeats)`,
+    });
+  const offsets = plan.visits.map((visit) => visit.offsetDays);
+  if (offsets.some((offset, i) => i > 0 && offset <= offsets[i - 1]!))
+    issues.push({
+      path: ['followUp', 'visits'],
+      message: 'followUp.visits must be in order of offsetDays, each later than the one before',
+    });
+  const { outcome } = plan;
+  if (!ids.includes(outcome.visitId))
+    issues.push({
+      path: ['followUp', 'outcome', 'visitId'],
+      message: `followUp.outcome.visitId must name one of followUp.visits (${ids.join(', ')})`,
+    });
+  const expected = p.kind === 'pdt' ? 'subretinal-fluid-resolved' : 'kmax-increase-below';
+  if (outcome.measure !== expected)
+    issues.push({
+      path: ['followUp', 'outcome', 'measure'],
+      message: `followUp.outcome.measure must be ${expected} for a ${p.kind} protocol`,
+    });
+  const needsBaseline = outcome.measure === 'kmax-increase-below';
+  if (needsBaseline && (outcome.baselineVisitId === null || outcome.maxIncreaseD === null))
+    issues.push({
+      path: ['followUp', 'outcome'],
+      message: 'kmax-increase-below needs followUp.outcome.baselineVisitId and maxIncreaseD',
+    });
+  if (!needsBaseline && (outcome.baselineVisitId !== null || outcome.maxIncreaseD !== null))
+    issues.push({
+      path: ['followUp', 'outcome'],
+      message: `followUp.outcome.baselineVisitId and maxIncreaseD must be null for ${outcome.measure}`,
+    });
+  if (outcome.baselineVisitId !== null && !ids.includes(outcome.baselineVisitId))
+    issues.push({
+      path: ['followUp', 'outcome', 'baselineVisitId'],
+      message: `followUp.outcome.baselineVisitId must name one of followUp.visits (${ids.join(', ')})`,
+    });
+}
+
 function checkCommon(p: ProtocolShape, issues: Issue[]): void {
+  checkFollowUp(p, issues);
   const fluenceFromTime = fluenceJPerCm2(p.light.irradianceMwPerCm2, p.light.exposureS);
   if (!withinPct(fluenceFromTime, p.light.targetFluenceJPerCm2, protocolAgreementPct)) {
     issues.push({

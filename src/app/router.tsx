@@ -260,6 +260,14 @@ export const router = createBrowserRouter([
             ),
           },
           {
+            path: paths.outcomes.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/outcomes'),
+              (m) => m.OutcomesRoute,
+            ),
+          },
+          {
             path: paths.auditTrail.path,
             errorElement: <RouteErrorScreen framed={false} />,
             lazy: screen(

@@ -133,6 +133,10 @@ export const paths = {
     path: '/devices/:deviceId',
     getHref: (deviceId: number | string) => `/devices/${encodeURIComponent(String(deviceId))}`,
   },
+  outcomes: {
+    path: '/outcomes',
+    getHref: (search?: string) => (search ? `/outcomes?${search}` : '/outcomes'),
+  },
   auditTrail: {
     path: '/audit-trail',
     getHref: (search?: string) => (search ? `/audit-trail?${search}` : '/audit-trail'),

@@ -80,6 +80,7 @@ const screens: { name: string; path: () => string; roles: Role[] }[] = [
   { name: 'Deviation review', path: () => `/deviations/${ids.deviation}`, roles: ['auditor'] },
   { name: 'Dose records', path: () => '/dose-records', roles: ['auditor'] },
   { name: 'Trends', path: () => '/trends', roles: ['auditor'] },
+  { name: 'Outcomes', path: () => '/outcomes', roles: ['auditor', 'clinician'] },
   { name: 'Audit trail', path: () => '/audit-trail', roles: ['auditor'] },
   { name: 'People', path: () => '/people', roles: ['admin'] },
   { name: 'Outbox', path: () => '/outbox', roles: ['admin'] },

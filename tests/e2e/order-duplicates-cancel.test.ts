@@ -66,7 +66,7 @@ const order = (patientId: number) => ({
 
 async function fillPdtForm(page: Page, patientId: number) {
   await page.goto(`${ctx.baseUrl}/orders/new?patientId=${patientId}`);
-  await page.getByLabel('Protocol version').selectOption('pdt-standard@2');
+  await page.getByLabel('Protocol version').selectOption('pdt-standard@3');
   await page.getByLabel('Right eye').check();
   await page.getByLabel('Height', { exact: true }).fill('170');
   await page.getByLabel('Weight', { exact: true }).fill('70');

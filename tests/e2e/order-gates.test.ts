@@ -53,7 +53,7 @@ describe('gate 1 as the clinician and the pharmacist meet it', () => {
     await page.goto(`${ctx.baseUrl}/orders/new?patientId=${patientId}`);
     await expect.poll(() => headingText(page)).toBe('New order');
 
-    await page.getByLabel('Protocol version').selectOption('pdt-standard@2');
+    await page.getByLabel('Protocol version').selectOption('pdt-standard@3');
     await page.getByLabel('Right eye').check();
     await page.getByLabel('Height', { exact: true }).fill('170');
     await page.getByLabel('Weight', { exact: true }).fill('70');

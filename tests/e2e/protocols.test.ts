@@ -44,10 +44,13 @@ describe('the protocol pages', () => {
       .click();
     await page.getByRole('heading', { level: 1, name: 'Protocols' }).waitFor();
     const standard = page.getByRole('region', { name: 'Verteporfin PDT — standard' });
-    // Version 3 (the device checks) is approved too, so version 1 reads as superseded by it.
+    // Version 3 (follow-up fields added) is approved too, so versions 1 and 2 read as superseded by it.
     await expect
       .poll(() => standard.getByRole('row', { name: /v1/ }).innerText())
       .toMatch(/Superseded\s*by v3/);
+    expect(await standard.getByRole('row', { name: /^v2/ }).innerText()).toMatch(
+      /Superseded\s*by v3/,
+    );
     expect(await standard.getByRole('row', { name: /^v3/ }).innerText()).toMatch(/Approved/);
     // A clinician may approve but not import or draft: those controls belong to administrators.
     expect(await page.getByRole('button', { name: /Start a new draft/ }).count()).toBe(0);

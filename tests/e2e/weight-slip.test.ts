@@ -80,7 +80,7 @@ describe('a weight typed in the wrong unit', () => {
     await page.getByLabel('Find the patient').fill(recordNumber);
     await page.getByRole('button', { name: new RegExp(`Choose .*${recordNumber}`) }).click();
     await page.getByLabel('Right eye').check();
-    await page.getByLabel('Protocol version').selectOption('pdt-standard@2');
+    await page.getByLabel('Protocol version').selectOption('pdt-standard@3');
 
     // Beside the inputs: the last recorded measurement, in both units.
     const lastRecorded = page.getByRole('region', { name: 'Last recorded for this patient' });
@@ -142,7 +142,7 @@ describe('a weight typed in the wrong unit', () => {
     expect(dialogText).toContain('92 lb (41.7 kg)');
     expect(dialogText).toContain('12.5 kg/m²');
     expect(dialogText).toMatch(/Verteporfin dose\s*8\.76 mg/);
-    // 8.76 mg ÷ 2 mg/mL (review table, Drug Discov Today 2008) = 4.38 mL, drawn at the 0.01 mL syringe graduation of version 2 (common practice).
+    // 8.76 mg ÷ 2 mg/mL (review table, Drug Discov Today 2008) = 4.38 mL, drawn at the 0.01 mL syringe graduation of versions 2 and 3 (common practice).
     expect(dialogText).toMatch(/Drug volume\s*4\.38 mL/);
     expect(dialogText).not.toContain('The server will refuse the signature');
     expect(await accessibilityViolations(page)).toEqual([]);

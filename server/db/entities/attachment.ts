@@ -24,6 +24,10 @@ export class Attachment {
   @JoinColumn({ name: 'order_id' })
   order!: Relation<TreatmentOrder>;
 
+  /** Set when the report belongs to a follow-up visit of the order rather than to the order itself. */
+  @Column({ name: 'follow_up_visit_id', type: 'int', unsigned: true, nullable: true })
+  followUpVisitId!: number | null;
+
   @Column({ name: 'file_name', type: 'varchar', length: 200 })
   fileName!: string;
 

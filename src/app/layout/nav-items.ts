@@ -74,6 +74,12 @@ export const navItems: readonly NavItem[] = [
   },
   { label: 'Trends', to: paths.trends.getHref(), capability: 'audit.read', icon: TrendBarsIcon },
   {
+    label: 'Outcomes',
+    to: paths.outcomes.getHref(),
+    capability: 'outcomes.read',
+    icon: TrendBarsIcon,
+  },
+  {
     label: 'Audit trail',
     to: paths.auditTrail.getHref(),
     capability: 'audit.read',

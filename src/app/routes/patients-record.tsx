@@ -4,6 +4,7 @@ import { AlertIcon } from '../../components/ui/icons';
 import { StatusPanel } from '../../components/ui/status-panel';
 import { paths } from '../../config/paths';
 import { hasCapability } from '../../features/auth/hooks/use-session';
+import { FollowUpPanel } from '../../features/follow-up/components/follow-up-panel';
 import { PatientRecordScreen } from '../../features/patients/components/patient-record-screen';
 import { useSignedInUser } from '../layout/signed-in-user';
 import { PatientsLocked } from './patients';
@@ -41,6 +42,11 @@ export function PatientRecordRoute() {
         key={patientId}
         patientId={patientId}
         canOrder={hasCapability(user, 'orders.write')}
+      />
+      <FollowUpPanel
+        key={`follow-up-${patientId}`}
+        patientId={patientId}
+        canRecord={hasCapability(user, 'follow-up.record')}
       />
     </>
   );

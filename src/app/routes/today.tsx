@@ -1,3 +1,5 @@
+import { hasCapability } from '../../features/auth/hooks/use-session';
+import { OverdueVisits } from '../../features/follow-up/components/overdue-visits';
 import { TodayOverview } from '../../features/today/components/today-overview';
 import { useSignedInUser } from '../layout/signed-in-user';
 
@@ -7,6 +9,7 @@ export function TodayRoute() {
     <>
       <title>Today · Luxtempo</title>
       <TodayOverview displayName={user.displayName} roles={user.roles} />
+      {hasCapability(user, 'follow-up.record') && <OverdueVisits />}
     </>
   );
 }

@@ -22,6 +22,7 @@ const contraindications = 'Contraindication checklist';
 const cautions = 'Cautions';
 const sources = 'Sources';
 const deviceChecks = 'Device checks';
+const followUp = 'Follow-up and outcome';
 
 export const protocolFieldLabels = {
   key: { label: 'Protocol key', section: general },
@@ -192,6 +193,31 @@ export const protocolFieldLabels = {
   'sources[].citation': { label: 'Citation', section: sources },
   'sources[].supports': { label: 'Supports', section: sources },
   'sources[].status': { label: 'Standing', section: sources },
+
+  'followUp.visits[].id': { label: 'Visit id', section: followUp },
+  'followUp.visits[].label': { label: 'Visit', section: followUp },
+  'followUp.visits[].offsetDays': {
+    label: 'Visit due after the treatment (days)',
+    section: followUp,
+  },
+  'followUp.visitWindowDays': {
+    label: 'A visit not recorded this long after its due date is missed (days)',
+    section: followUp,
+  },
+  'followUp.reminderDaysBefore': {
+    label: 'E-mail reminder before a visit (days)',
+    section: followUp,
+  },
+  'followUp.complicationKinds[].id': { label: 'Complication id', section: followUp },
+  'followUp.complicationKinds[].label': { label: 'Complication', section: followUp },
+  'followUp.outcome.measure': { label: 'Outcome measured', section: followUp },
+  'followUp.outcome.label': { label: 'Outcome', section: followUp },
+  'followUp.outcome.visitId': { label: 'Outcome read at visit', section: followUp },
+  'followUp.outcome.baselineVisitId': { label: 'Outcome compared with visit', section: followUp },
+  'followUp.outcome.maxIncreaseD': {
+    label: 'Largest Kmax increase still a success (D)',
+    section: followUp,
+  },
 } as const satisfies Record<string, FieldWords>;
 
 export type ProtocolField = keyof typeof protocolFieldLabels;

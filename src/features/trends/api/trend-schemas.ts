@@ -9,6 +9,11 @@ export const trendMonthSchema = z.object({
   sessions: z.number().int(),
   sessionsWithDeviation: z.number().int(),
   ratePct: z.number(),
+  /** The month's 3-sigma p-chart limits (per protocol version, from its own count) and its reading. */
+  lowerLimitPct: z.number().nullable().optional(),
+  upperLimitPct: z.number().nullable().optional(),
+  signal: z.enum(['above-upper-limit', 'below-lower-limit']).nullable().optional(),
+  reading: z.string().optional(),
 });
 export type TrendMonth = z.infer<typeof trendMonthSchema>;
 

@@ -32,6 +32,7 @@ function TrendPanel({ series, months }: PanelProps) {
     .filter((m): m is TrendMonth => m !== undefined && m.sessions > 0);
   const sessions = withSessions.reduce((n, m) => n + m.sessions, 0);
   const withDeviation = withSessions.reduce((n, m) => n + m.sessionsWithDeviation, 0);
+  const signals = withSessions.filter((m) => m.signal);
   const highest = withSessions.reduce<TrendMonth | null>(
     (best, m) => (best === null || m.ratePct > best.ratePct ? m : best),
     null,
@@ -48,6 +49,10 @@ function TrendPanel({ series, months }: PanelProps) {
           {sessions > 0
             ? ` (${formatRate(Math.round((withDeviation / sessions) * 1000) / 10)} overall)`
             : ''}
+          .{' '}
+          {signals.length === 0
+            ? 'No month outside its 3-sigma limits (dashed): common-cause variation.'
+            : `Special-cause variation (◆): ${signals.map((m) => `${monthWords(m.month, 'long')} ${m.signal === 'below-lower-limit' ? 'below' : 'above'} its 3-sigma limit`).join('; ')}.`}
         </span>
       </figcaption>
       <div className="overflow-x-auto">
@@ -97,8 +102,32 @@ function TrendPanel({ series, months }: PanelProps) {
                       width={barPx}
                       height={Math.max(0, (cell.ratePct / 100) * plotPx)}
                       rx={3}
-                      fill="#6139ad"
+                      fill={cell.signal ? '#a3140c' : '#6139ad'}
                     />
+                    {cell.upperLimitPct !== null && cell.upperLimitPct !== undefined && (
+                      // The month's upper 3-sigma limit (p-chart; Benneyan JC et al. 2003).
+                      <line
+                        x1={cx - barPx / 2 - 4}
+                        x2={cx + barPx / 2 + 4}
+                        y1={y(cell.upperLimitPct)}
+                        y2={y(cell.upperLimitPct)}
+                        stroke="#a3470c"
+                        strokeWidth={2}
+                        strokeDasharray="4 2"
+                      />
+                    )}
+                    {cell.signal && (
+                      <text
+                        x={cx}
+                        y={y(0) + 1}
+                        dy="-0.4em"
+                        textAnchor="middle"
+                        fontSize="14"
+                        fill="#ffffff"
+                      >
+                        ◆
+                      </text>
+                    )}
                     <text
                       x={cx}
                       y={y(cell.ratePct) - 20}

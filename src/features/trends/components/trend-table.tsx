@@ -25,8 +25,11 @@ export function TrendTable({ rows }: { rows: TrendMonth[] }) {
             <th scope="col" className="px-3 py-2 text-right font-semibold">
               With a deviation
             </th>
-            <th scope="col" className="px-3 py-2 pr-4 text-right font-semibold">
+            <th scope="col" className="px-3 py-2 text-right font-semibold">
               Rate
+            </th>
+            <th scope="col" className="px-3 py-2 pr-4 font-semibold">
+              3-sigma limits and reading
             </th>
           </tr>
         </thead>
@@ -45,8 +48,19 @@ export function TrendTable({ rows }: { rows: TrendMonth[] }) {
               </td>
               <td className="numerals-steady px-3 py-2 text-right">{r.sessions}</td>
               <td className="numerals-steady px-3 py-2 text-right">{r.sessionsWithDeviation}</td>
-              <td className="numerals-steady px-3 py-2 pr-4 text-right font-semibold whitespace-nowrap">
+              <td className="numerals-steady px-3 py-2 text-right font-semibold whitespace-nowrap">
                 {formatRate(r.ratePct)}
+              </td>
+              <td
+                className={`px-3 py-2 pr-4 text-sm ${r.signal ? 'font-semibold text-alarm-800' : ''}`}
+              >
+                {r.upperLimitPct !== null && r.upperLimitPct !== undefined && (
+                  <span className="block whitespace-nowrap">
+                    {formatRate(r.lowerLimitPct ?? 0)} to {formatRate(r.upperLimitPct)}
+                  </span>
+                )}
+                {r.signal && <span aria-hidden="true">◆ </span>}
+                {r.reading}
               </td>
             </tr>
           ))}
