@@ -57,6 +57,12 @@ import { createProtocolRepository } from './protocols/repository';
 import { protocolRoutes } from './protocols/routes';
 import { createProtocolService } from './protocols/service';
 import { todayRoutes } from './today/routes';
+import { createListRepository } from './lists/repository';
+import { listRoutes } from './lists/routes';
+import { createListService } from './lists/service';
+import { createStockRepository } from './stock/repository';
+import { stockRoutes } from './stock/routes';
+import { createStockService } from './stock/service';
 import { createTodayService } from './today/service';
 
 export interface AppDependencies {
@@ -138,6 +144,22 @@ export function createApp({
     weightChangeRule,
     confirmSignature: auth.confirmSignature,
   });
+  const stock = createStockService({
+    unitOfWork,
+    stock: createStockRepository(dataSource),
+    audit,
+    clock,
+    unitTimeZone,
+  });
+  const lists = createListService({
+    unitOfWork,
+    lists: createListRepository(dataSource),
+    orders,
+    audit,
+    clock,
+    unitTimeZone,
+    vialSharingAllowed: config.VIAL_SHARING_ALLOWED,
+  });
   const pharmacy = createPharmacyService({
     unitOfWork,
     orders,
@@ -146,6 +168,8 @@ export function createApp({
     audit,
     unitTimeZone,
     clock,
+    stock,
+    vialSharingAllowed: config.VIAL_SHARING_ALLOWED,
   });
   const sessionRows = createSessionRepository(dataSource);
   const sessionService = createSessionService({
@@ -191,9 +215,11 @@ export function createApp({
     ...protocolRoutes(protocols),
     ...calculationRoutes(createCalculationService(protocols)),
     ...patientRoutes(createPatientService(patients, orders, audit, reads, weightChangeRule)),
-    ...todayRoutes(createTodayService({ orders, clock })),
+    ...todayRoutes(createTodayService({ orders, clock, lists })),
     ...orderRoutes(orderService),
     ...pharmacyRoutes(pharmacy),
+    ...listRoutes(lists),
+    ...stockRoutes(stock),
     ...attachmentRoutes(
       createAttachmentService(
         createAttachmentRepository(dataSource),

@@ -27,6 +27,11 @@ export const capabilities = [
   'preparations.record',
   'outbox.read',
   'sessions.run',
+  'lists.read',
+  'lists.manage',
+  'stock.read',
+  'stock.manage',
+  'stock.recall',
 ] as const;
 export type Capability = (typeof capabilities)[number];
 

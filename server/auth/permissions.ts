@@ -15,6 +15,8 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.read',
     'orders.write',
     'orders.cancel',
+    'lists.read',
+    'lists.manage',
   ],
   pharmacist: [
     'today.view',
@@ -25,6 +27,10 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.read',
     'dose-checks.perform',
     'preparations.record',
+    'lists.read',
+    'stock.read',
+    'stock.manage',
+    'stock.recall',
   ],
   nurse: [
     'today.view',
@@ -33,6 +39,7 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'patients.read',
     'orders.read',
     'sessions.run',
+    'lists.read',
   ],
   auditor: [
     'today.view',
@@ -43,6 +50,9 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'audit.verify',
     'patients.read',
     'orders.read',
+    'lists.read',
+    'stock.read',
+    'stock.recall',
   ],
   admin: [
     'today.view',
@@ -56,6 +66,8 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.cancel',
     'outbox.read',
     'audit.verify',
+    'lists.read',
+    'lists.manage',
   ],
 };
 

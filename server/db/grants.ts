@@ -9,6 +9,8 @@ export const appendOnlyTables = new Set([
   'preparation',
   'protocol_approval',
   'patient_measurement',
+  'stock_movement',
+  'preparation_stock',
 ]);
 
 /** Tables the app may read and change but never add to or delete from (a single row kept up to date). */

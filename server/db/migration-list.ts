@@ -17,6 +17,7 @@ import { SignedOrderFactsKept1796297991104 } from './migrations/1796297991104-Si
 import { OrderCancellation1796303351497 } from './migrations/1796303351497-OrderCancellation';
 import { ProtocolSignaturesDiscardsAndSuperseded1796303358061 } from './migrations/1796303358061-ProtocolSignaturesDiscardsAndSuperseded';
 import { SupersededReasonSigned1796309618215 } from './migrations/1796309618215-SupersededReasonSigned';
+import { TreatmentListsAndStock1796313382388 } from './migrations/1796313382388-TreatmentListsAndStock';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
 export const migrations = [
@@ -37,4 +38,5 @@ export const migrations = [
   OrderCancellation1796303351497,
   ProtocolSignaturesDiscardsAndSuperseded1796303358061,
   SupersededReasonSigned1796309618215,
+  TreatmentListsAndStock1796313382388,
 ];

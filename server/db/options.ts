@@ -21,6 +21,11 @@ import { SignInSession } from './entities/sign-in-session';
 import { SignInThrottle } from './entities/sign-in-throttle';
 import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
+import { ListBookingRow } from './entities/list-booking';
+import { PreparationStockRow } from './entities/preparation-stock';
+import { StockLotRow } from './entities/stock-lot';
+import { StockMovementRow } from './entities/stock-movement';
+import { TreatmentListRow } from './entities/treatment-list';
 import { migrations } from './migration-list';
 
 export const entities = [
@@ -45,6 +50,11 @@ export const entities = [
   SignInThrottle,
   RoleRequest,
   AuditChainHead,
+  TreatmentListRow,
+  ListBookingRow,
+  StockLotRow,
+  StockMovementRow,
+  PreparationStockRow,
 ];
 
 export interface DatabaseConnection {
