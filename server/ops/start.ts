@@ -2,6 +2,7 @@ import { loadConfig } from '../config';
 import { migrateDatabase } from '../db/migrate';
 import { appDataSource } from '../db/options';
 import { seedDemoScenario } from '../demo/scenario';
+import { seedDemoListsAndStock } from '../demo/lists-and-stock';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
 import { startApiProcess, type ApiProcess } from './api-process';
@@ -65,6 +66,8 @@ try {
       const { created } = await seedDemoData(seedSource);
       await loadShippedProtocols(seedSource);
       const sessions = await seedDemoScenario(seedSource, config.UNIT_TIME_ZONE);
+      const listed = await seedDemoListsAndStock(seedSource, config.UNIT_TIME_ZONE);
+      if (listed) console.log(`• Demo lists and stock added (${listed} rows)`);
       console.log(
         created.length || sessions
           ? `• Demo data added (${created.length} people and patients, ${sessions} orders)`

@@ -307,7 +307,10 @@ function ListCard({
             const booking = list.bookings.find((b) => b.slotIndex === slot.index);
             return (
               <tr key={slot.index} className="border-b border-paper-200 align-middle">
-                <th scope="row" className="numerals-steady py-2 pr-3 font-semibold text-paper-900">
+                <th
+                  scope="row"
+                  className="numerals-steady whitespace-nowrap py-2 pr-3 font-semibold text-paper-900"
+                >
                   {slotTime(slot.startsAt)}
                 </th>
                 {booking ? (
