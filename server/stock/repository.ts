@@ -4,6 +4,19 @@ import { StockLotRow } from '../db/entities/stock-lot';
 import { StockMovementRow } from '../db/entities/stock-movement';
 import { managerOf, type Transaction } from '../db/unit-of-work';
 
+/** Every preparation made with a lot (by its text), through the index on preparation.vial_lot. */
+export const recallSql = `SELECT o.id AS orderId, pt.id AS patientId, pt.record_number AS recordNumber,
+                pt.given_name AS givenName, pt.family_name AS familyName, o.eye, o.status,
+                p.reconstituted_at AS reconstitutedAt, p.volume_drawn_ml AS volumeDrawnMl,
+                JSON_VALUE(o.plan, '$.doseMg') AS doseMg,
+                u.display_name AS clinicianName, u.email AS clinicianEmail, u.active AS clinicianActive
+           FROM preparation p
+           JOIN treatment_order o ON o.id = p.order_id
+           JOIN patient pt ON pt.id = o.patient_id
+           LEFT JOIN user u ON u.id = o.signed_by
+          WHERE p.vial_lot = ?
+          ORDER BY p.reconstituted_at, p.id`;
+
 export interface RecallDbRow {
   orderId: number;
   patientId: number;
@@ -99,20 +112,7 @@ export function createStockRepository(dataSource: DataSource) {
      * by hand alike), through the index on preparation.vial_lot.
      */
     async recall(lot: string): Promise<RecallDbRow[]> {
-      const rows: Record<string, unknown>[] = await dataSource.query(
-        `SELECT o.id AS orderId, pt.id AS patientId, pt.record_number AS recordNumber,
-                pt.given_name AS givenName, pt.family_name AS familyName, o.eye, o.status,
-                p.reconstituted_at AS reconstitutedAt, p.volume_drawn_ml AS volumeDrawnMl,
-                JSON_VALUE(o.plan, '$.doseMg') AS doseMg,
-                u.display_name AS clinicianName, u.email AS clinicianEmail, u.active AS clinicianActive
-           FROM preparation p
-           JOIN treatment_order o ON o.id = p.order_id
-           JOIN patient pt ON pt.id = o.patient_id
-           LEFT JOIN user u ON u.id = o.signed_by
-          WHERE p.vial_lot = ?
-          ORDER BY p.reconstituted_at, p.id`,
-        [lot],
-      );
+      const rows: Record<string, unknown>[] = await dataSource.query(recallSql, [lot]);
       return rows.map((r) => ({
         orderId: Number(r.orderId),
         patientId: Number(r.patientId),

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { recallSql } from '../../server/stock/repository';
 import {
   createTestPatient,
   createTestPerson,
@@ -510,6 +511,14 @@ describe('recall', () => {
       .post('/api/recall/notifications')
       .send({ lot: `NONE-${unique()}` });
     expect(nobody.status).toBe(409);
+  });
+
+  it('searches preparations through the index on the lot', async () => {
+    const plan: { table: string; key: string | null }[] = await ctx.dataSource.query(
+      `EXPLAIN ${recallSql}`,
+      ['ANY-LOT'],
+    );
+    expect(plan.find((row) => row.table === 'p')?.key).toBe('ix_preparation_vial_lot');
   });
 
   it('the monthly report counts the vials issued and the drug given and discarded', async () => {
