@@ -66,8 +66,9 @@ export async function seedDemoListsAndStock(
     added++;
   }
 
-  // The week's lists: PDT every weekday, cross-linking on Thursday.
+  // The week's lists: PDT every weekday, cross-linking on Thursday and today.
   const monday = now.startOf('week');
+  const todayIndex = Math.min(4, Math.max(0, now.weekday - 1));
   const listIds = new Map<string, { id: number; date: string; room: string }>();
   for (let day = 0; day < 5; day++) {
     const date = monday.plus({ days: day }).toISODate()!;
@@ -79,7 +80,7 @@ export async function seedDemoListsAndStock(
         length: 240,
         slot: 30,
       },
-      ...(day === 3
+      ...(day === 3 || day === todayIndex
         ? [
             {
               room: cxlRoom,
@@ -110,7 +111,6 @@ export async function seedDemoListsAndStock(
 
   // Half-dose PDT orders booked into this week's PDT lists (two a day from today on), signed.
   // Today's first two are made up from the lot that expires first.
-  const todayIndex = Math.min(4, Math.max(0, now.weekday - 1));
   const orderRepo = dataSource.getRepository(TreatmentOrder);
   const pv = await newestApprovedVersion(dataSource, 'pdt-half-dose');
   const patients = demoPatients.filter((p) => p.recordNumber >= 'MP-100203');
@@ -227,6 +227,39 @@ export async function seedDemoListsAndStock(
       });
       added++;
     }
+  }
+  // Today's open orders of the demo scenario join today's lists: the ready cross-linking in its
+  // room, the PDT waiting for its check in the last PDT slot.
+  for (const [note, room, slotIndex] of [
+    ['Demo today: ready CXL', cxlRoom, 1],
+    ['Demo today: PDT for check', pdtRoom, 7],
+  ] as const) {
+    const list = listIds.get(`${todayIndex}:${room}`);
+    const [order] = await dataSource.query(
+      'SELECT o.id, o.patient_id AS patientId, o.eye FROM treatment_order o WHERE o.note = ? AND NOT EXISTS (SELECT 1 FROM list_booking b WHERE b.order_id = o.id)',
+      [note],
+    );
+    if (!list || !order) continue;
+    const shape =
+      room === cxlRoom
+        ? { listDate: list.date, startTime: '09:00', sessionLengthMin: 240, slotMin: 60 }
+        : { listDate: list.date, startTime: '08:30', sessionLengthMin: 240, slotMin: 30 };
+    const slot = listSlots(shape, unitTimeZone)[slotIndex]!;
+    await dataSource.query(
+      'INSERT IGNORE INTO list_booking (list_id, slot_index, order_id, patient_id, eye, booking_date, starts_at, ends_at, booked_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)',
+      [
+        list.id,
+        slotIndex,
+        order.id,
+        order.patientId,
+        order.eye,
+        list.date,
+        slot.startsAt,
+        slot.endsAt,
+        clinicianId,
+      ],
+    );
+    added++;
   }
   if (added > 0)
     await createAuditRepository(dataSource).append({
