@@ -348,26 +348,22 @@ export function createStockService(deps: {
       const months = Array.from({ length: 12 }, (_, i) =>
         start.plus({ months: i }).toFormat('yyyy-MM'),
       );
-      return {
-        months: months.map((month) =>
-          monthUse(
-            month,
-            rows
-              .filter(
-                (r) =>
-                  DateTime.fromJSDate(r.reconstitutedAt)
-                    .setZone(unitTimeZone)
-                    .toFormat('yyyy-MM') === month,
-              )
-              .map((r) => ({
-                use: preparationUse({ isLatest: r.isLatest, orderStatus: r.orderStatus }),
-                doseMg: r.doseMg,
-                discardedMg: r.discardedMg,
-                vialsIssued: r.vialsOpened,
-              })),
-          ),
-        ),
-      };
+      // Each preparation's month worked out once, in the unit's zone.
+      const byMonth = new Map<string, Parameters<typeof monthUse>[1][number][]>(
+        months.map((m) => [m, []]),
+      );
+      for (const r of rows) {
+        const month = DateTime.fromJSDate(r.reconstitutedAt)
+          .setZone(unitTimeZone)
+          .toFormat('yyyy-MM');
+        byMonth.get(month)?.push({
+          use: preparationUse({ isLatest: r.isLatest, orderStatus: r.orderStatus }),
+          doseMg: r.doseMg,
+          discardedMg: r.discardedMg,
+          vialsIssued: r.vialsOpened,
+        });
+      }
+      return { months: months.map((month) => monthUse(month, byMonth.get(month)!)) };
     },
   };
 }
