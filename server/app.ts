@@ -68,6 +68,12 @@ import { createProtocolRepository } from './protocols/repository';
 import { protocolRoutes } from './protocols/routes';
 import { createProtocolService } from './protocols/service';
 import { todayRoutes } from './today/routes';
+import { createListRepository } from './lists/repository';
+import { listRoutes } from './lists/routes';
+import { createListService } from './lists/service';
+import { createStockRepository } from './stock/repository';
+import { stockRoutes } from './stock/routes';
+import { createStockService } from './stock/service';
 import { createTodayService } from './today/service';
 
 export interface AppDependencies {
@@ -163,6 +169,22 @@ export function createApp({
     confirmSignature: auth.confirmSignature,
     latestRetreatmentDecision: followUp.latestDecision,
   });
+  const stock = createStockService({
+    unitOfWork,
+    stock: createStockRepository(dataSource),
+    audit,
+    clock,
+    unitTimeZone,
+  });
+  const lists = createListService({
+    unitOfWork,
+    lists: createListRepository(dataSource),
+    orders,
+    audit,
+    clock,
+    unitTimeZone,
+    vialSharingAllowed: config.VIAL_SHARING_ALLOWED,
+  });
   const pharmacy = createPharmacyService({
     unitOfWork,
     orders,
@@ -171,6 +193,8 @@ export function createApp({
     audit,
     unitTimeZone,
     clock,
+    stock,
+    vialSharingAllowed: config.VIAL_SHARING_ALLOWED,
   });
   const fhir = createFhirService({
     gateway: config.FHIR_BASE_URL
@@ -243,9 +267,11 @@ export function createApp({
       ),
     ),
     ...fhirRoutes(fhir),
-    ...todayRoutes(createTodayService({ orders, clock })),
+    ...todayRoutes(createTodayService({ orders, clock, lists })),
     ...orderRoutes(orderService),
     ...pharmacyRoutes(pharmacy),
+    ...listRoutes(lists),
+    ...stockRoutes(stock),
     ...attachmentRoutes(
       createAttachmentService(
         createAttachmentRepository(dataSource),

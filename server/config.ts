@@ -56,6 +56,11 @@ const envSchema = z.object({
           ? Number(v.trim())
           : v.trim(),
     ),
+  /**
+   * Whether one verteporfin vial may serve more than one patient on a list (aseptic preparation,
+   * every dose within the vial's beyond-use time). Off unless the unit's written policy allows it.
+   */
+  VIAL_SHARING_ALLOWED: bool.default(false),
   SMTP_HOST: z.string().min(1).default('127.0.0.1'),
   SMTP_PORT: port.default(1025),
   MAIL_FROM: z.string().min(3).default('Luxtempo <luxtempo@demo.luxtempo.example>'),

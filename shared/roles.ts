@@ -32,6 +32,11 @@ export const capabilities = [
   'devices.manage',
   'follow-up.record',
   'outcomes.read',
+  'lists.read',
+  'lists.manage',
+  'stock.read',
+  'stock.manage',
+  'stock.recall',
 ] as const;
 export type Capability = (typeof capabilities)[number];
 

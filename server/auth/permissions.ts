@@ -18,6 +18,8 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'devices.read',
     'follow-up.record',
     'outcomes.read',
+    'lists.read',
+    'lists.manage',
   ],
   pharmacist: [
     'today.view',
@@ -29,6 +31,10 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'dose-checks.perform',
     'preparations.record',
     'devices.read',
+    'lists.read',
+    'stock.read',
+    'stock.manage',
+    'stock.recall',
   ],
   nurse: [
     'today.view',
@@ -40,6 +46,7 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'devices.read',
     // The nurse checks the device's output before a session (step clock pre-checks).
     'devices.check',
+    'lists.read',
   ],
   auditor: [
     'today.view',
@@ -52,6 +59,9 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'orders.read',
     'devices.read',
     'outcomes.read',
+    'lists.read',
+    'stock.read',
+    'stock.recall',
   ],
   admin: [
     'today.view',
@@ -69,6 +79,8 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'devices.read',
     'devices.check',
     'devices.manage',
+    'lists.read',
+    'lists.manage',
   ],
 };
 

@@ -11,6 +11,8 @@ export const appendOnlyTables = new Set([
   'patient_measurement',
   'device_version',
   'output_check',
+  'stock_movement',
+  'preparation_stock',
 ]);
 
 /** Tables the app may read and change but never add to or delete from (a single row kept up to date). */

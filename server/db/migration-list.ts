@@ -20,6 +20,7 @@ import { SupersededReasonSigned1796309618215 } from './migrations/1796309618215-
 import { FhirInterop1796313422761 } from './migrations/1796313422761-FhirInterop';
 import { DevicesAndLenses1796313454504 } from './migrations/1796313454504-DevicesAndLenses';
 import { FollowUpAndOutcomes1796313495700 } from './migrations/1796313495700-FollowUpAndOutcomes';
+import { TreatmentListsAndStock1796313382388 } from './migrations/1796313382388-TreatmentListsAndStock';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
 export const migrations = [
@@ -43,4 +44,5 @@ export const migrations = [
   FhirInterop1796313422761,
   DevicesAndLenses1796313454504,
   FollowUpAndOutcomes1796313495700,
+  TreatmentListsAndStock1796313382388,
 ];

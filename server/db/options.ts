@@ -25,6 +25,11 @@ import { SignInSession } from './entities/sign-in-session';
 import { SignInThrottle } from './entities/sign-in-throttle';
 import { TreatmentOrder } from './entities/treatment-order';
 import { User } from './entities/user';
+import { ListBookingRow } from './entities/list-booking';
+import { PreparationStockRow } from './entities/preparation-stock';
+import { StockLotRow } from './entities/stock-lot';
+import { StockMovementRow } from './entities/stock-movement';
+import { TreatmentListRow } from './entities/treatment-list';
 import { migrations } from './migration-list';
 
 export const entities = [
@@ -56,6 +61,11 @@ export const entities = [
   DeviceVersion,
   Lens,
   OutputCheck,
+  TreatmentListRow,
+  ListBookingRow,
+  StockLotRow,
+  StockMovementRow,
+  PreparationStockRow,
 ];
 
 export interface DatabaseConnection {

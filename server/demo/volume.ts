@@ -268,7 +268,8 @@ export async function seedVolume(
         preparations.push([
           id,
           pharmacist.id,
-          `VOL-${id}`,
+          // About forty orders in a row share a lot, as vials of one delivery would.
+          `VOL-L${Math.floor(id / 40)}`,
           '2030-01-01',
           reconstitutedAt,
           plan.drugVolumeMl,
@@ -396,6 +397,24 @@ export async function seedVolume(
           'beyond_use_at',
         ],
         preparations,
+      );
+      // The lots in stock and what each preparation took from them, for recall and drug use.
+      await m.query(
+        `INSERT INTO stock_lot (product, lot, expiry, quantity_on_hand, received_quantity)
+         SELECT 'verteporfin', p.vial_lot, '2030-01-01', 0, SUM(JSON_VALUE(o.plan, '$.vials'))
+           FROM preparation p JOIN treatment_order o ON o.id = p.order_id
+          WHERE p.order_id BETWEEN ? AND ? GROUP BY p.vial_lot
+         ON DUPLICATE KEY UPDATE received_quantity = received_quantity + VALUES(received_quantity)`,
+        [firstOrder, firstOrder + size - 1],
+      );
+      await m.query(
+        `INSERT INTO preparation_stock (preparation_id, order_id, stock_lot_id, vials_opened, dose_mg, discarded_mg, discard_reason, created_at)
+         SELECT p.id, p.order_id, l.id, JSON_VALUE(o.plan, '$.vials'), JSON_VALUE(o.plan, '$.doseMg'),
+                COALESCE(JSON_VALUE(o.plan, '$.drugLeftOverMg'), 0), 'Vial remainder (volume seed)', p.reconstituted_at
+           FROM preparation p JOIN treatment_order o ON o.id = p.order_id
+           JOIN stock_lot l ON l.product = 'verteporfin' AND l.lot = p.vial_lot
+          WHERE p.order_id BETWEEN ? AND ?`,
+        [firstOrder, firstOrder + size - 1],
       );
     });
     options.onProgress?.(done + size);

@@ -3,6 +3,7 @@ import { migrateDatabase } from '../db/migrate';
 import { appDataSource, type OwnerCredentials } from '../db/options';
 import { seedDemoDevices } from '../demo/devices';
 import { seedDemoFollowUp } from '../demo/follow-up';
+import { seedDemoListsAndStock } from '../demo/lists-and-stock';
 import { seedDemoScenario } from '../demo/scenario';
 import { demoPassword, demoPeople, retireDemoPeople, seedDemoData } from '../demo/seed';
 import { loadShippedProtocols } from '../protocols/load-shipped';
@@ -28,6 +29,8 @@ export async function prepareAppDatabase(config: Config, owner: OwnerCredentials
         console.log(`• Demo devices, lenses and output checks: ${deviceRows} rows added`);
       const sessions = await seedDemoScenario(source, config.UNIT_TIME_ZONE);
       const visits = await seedDemoFollowUp(source, config.UNIT_TIME_ZONE);
+      const listed = await seedDemoListsAndStock(source, config.UNIT_TIME_ZONE);
+      if (listed) console.log(`• Demo lists and stock added (${listed} rows)`);
       if (visits) console.log(`• Demo follow-up visits recorded: ${visits}`);
       console.log(
         created.length || sessions

@@ -14,6 +14,7 @@ import { moveOrderStatus, type OrderRepository } from '../orders/repository';
 import type { Actor, OrderService } from '../orders/service';
 import type { UserRepository } from '../people/repository';
 import { addParticipant, readSessionEvents } from '../sessions/repository';
+import type { StockService } from '../stock/service';
 
 /** A second refused check sends the order back to the clinician. */
 export const refusalsBeforeReturn = 2;
@@ -29,6 +30,10 @@ export function createPharmacyService(deps: {
   unitTimeZone: string;
   /** The server's clock (tests move it); expiry and beyond-use times are judged by it. */
   clock: Clock;
+  /** The pharmacy's stock: a preparation issues its vials from a lot in the same transaction. */
+  stock: StockService;
+  /** The unit's policy: may one vial serve more than one patient (config VIAL_SHARING_ALLOWED)? */
+  vialSharingAllowed: boolean;
 }) {
   const { unitOfWork, clock, orders, orderService, users, audit } = deps;
 
@@ -42,6 +47,78 @@ export function createPharmacyService(deps: {
         `Order ${id} uses ${order.protocolVersion.key}, which has no drug to check or prepare.`,
       );
     return { order, drug };
+  }
+
+  /**
+   * Where the vials come from: a stock lot named by id or by its text, the lot that expires
+   * first when none is named, or — for a typed lot the pharmacy does not hold — outside stock
+   * (null; then its expiry must be typed too).
+   */
+  async function stockSource(
+    product: string,
+    entry: PreparationEntry,
+  ): Promise<{ lotId: number | null } | null> {
+    if (entry.stockLotId !== undefined) return { lotId: entry.stockLotId };
+    if (entry.vialLot === undefined) return { lotId: null };
+    const held = await deps.stock.findLotByProduct(product, entry.vialLot);
+    if (held) {
+      if (entry.vialExpiry !== undefined && entry.vialExpiry !== held.expiry)
+        throw AppError.badRequest(`Lot ${held.lot} is held in stock with expiry ${held.expiry}.`, [
+          { path: 'vialExpiry', message: `vialExpiry must be ${held.expiry}, as the lot in stock` },
+        ]);
+      return { lotId: held.id };
+    }
+    if (entry.vialExpiry === undefined)
+      throw AppError.badRequest(`Lot ${entry.vialLot} is not in stock: type its expiry too.`, [
+        { path: 'vialExpiry', message: 'vialExpiry is required for a lot not held in stock' },
+      ]);
+    return null;
+  }
+
+  /** Vials opened and drug discarded: the plan's vials unless a shared vial (policy permitting) serves. */
+  function issueFigures(
+    plan: { vials: number | null; doseMg: number | null },
+    drug: { vialContentMg: number },
+    entry: PreparationEntry,
+  ) {
+    const planned = plan.vials ?? 1;
+    const vialsOpened = entry.vialsOpened ?? planned;
+    const fewest = deps.vialSharingAllowed ? 0 : planned;
+    if (vialsOpened < fewest || vialsOpened > planned)
+      throw AppError.badRequest(
+        deps.vialSharingAllowed
+          ? `This dose needs at most ${planned} new vials.`
+          : `The unit does not allow vial sharing: this dose opens the plan's ${planned} ${planned === 1 ? 'vial' : 'vials'}.`,
+        [
+          {
+            path: 'vialsOpened',
+            message:
+              fewest === planned
+                ? `vialsOpened must be ${planned}`
+                : `vialsOpened must be ${fewest} to ${planned}`,
+          },
+        ],
+      );
+    const heldMg = Math.max(vialsOpened, 1) * drug.vialContentMg;
+    const remainderMg = Math.max(
+      0,
+      Number((vialsOpened * drug.vialContentMg - (plan.doseMg ?? 0)).toFixed(2)),
+    );
+    const discardedMg = entry.discardedMg ?? remainderMg;
+    if (discardedMg > heldMg)
+      throw AppError.badRequest(`More drug discarded than the opened vials held.`, [
+        { path: 'discardedMg', message: `discardedMg must be 0 to ${heldMg} mg` },
+      ]);
+    if (entry.discardedMg !== undefined && discardedMg > 0 && !entry.discardReason)
+      throw AppError.badRequest('Say why the drug was discarded.', [
+        { path: 'discardReason', message: 'discardReason is required when discardedMg is above 0' },
+      ]);
+    const discardReason =
+      discardedMg > 0
+        ? (entry.discardReason ??
+          'What the opened vials held beyond the dose (not kept for another patient)')
+        : null;
+    return { vialsOpened, discardedMg, discardReason };
   }
 
   return {
@@ -153,7 +230,8 @@ export function createPharmacyService(deps: {
       const { order, drug } = await loadForPharmacy(id);
       const zone = deps.unitTimeZone;
       const today = DateTime.fromJSDate(clock.now()).setZone(zone).toISODate()!;
-      if (entry.vialExpiry < today) {
+      const fromStock = await stockSource(drug.name, entry);
+      if (fromStock === null && entry.vialExpiry && entry.vialExpiry < today) {
         throw AppError.badRequest(`The vial expired on ${entry.vialExpiry}; use an in-date vial.`, [
           { path: 'vialExpiry', message: `vialExpiry must be today (${today}) or later` },
         ]);
@@ -191,8 +269,10 @@ export function createPharmacyService(deps: {
           },
         ]);
       }
+      const stockFigures = issueFigures(order.plan, drug, entry);
       const infusionStepId =
         order.protocolVersion.definition.steps.find((step) => step.kind === 'infusion')?.id ?? null;
+      let issued = { stockLotId: null as number | null, vialLot: '', vialExpiry: '' };
       const discarded = await unitOfWork(async (tx) => {
         const locked = await orders.lockById(tx, id);
         let previous: { beyondUseAt: string } | null = null;
@@ -219,14 +299,38 @@ export function createPharmacyService(deps: {
             `Order ${id} is gone; preparation follows a matching dose check.`,
           );
         }
-        await orders.addPreparation(tx, {
+        const lot =
+          fromStock === null
+            ? null
+            : await deps.stock.issue(tx, {
+                product: drug.name,
+                lotId: fromStock.lotId,
+                vials: stockFigures.vialsOpened,
+                actorId: actor.id,
+                orderId: id,
+              });
+        const saved = await orders.addPreparation(tx, {
           orderId: id,
           pharmacistId: actor.id,
-          vialLot: entry.vialLot,
-          vialExpiry: entry.vialExpiry,
+          vialLot: lot?.lot ?? entry.vialLot!,
+          vialExpiry: lot?.expiry ?? entry.vialExpiry!,
           reconstitutedAt,
           volumeDrawnMl: entry.volumeDrawnMl,
           beyondUseAt,
+        });
+        issued = {
+          stockLotId: lot?.id ?? null,
+          vialLot: saved.vialLot,
+          vialExpiry: saved.vialExpiry,
+        };
+        await deps.stock.recordPreparationStock(tx, {
+          preparationId: saved.id,
+          orderId: id,
+          stockLotId: lot?.id ?? null,
+          vialsOpened: stockFigures.vialsOpened,
+          doseMg: order.plan.doseMg ?? 0,
+          discardedMg: stockFigures.discardedMg,
+          discardReason: stockFigures.discardReason,
         });
         if (!previous) await moveOrderStatus(tx, id, 'checked', 'prepared', { beyondUseAt });
         else await orders.update(tx, id, { beyondUseAt });
@@ -240,8 +344,10 @@ export function createPharmacyService(deps: {
         entityId: id,
         ipAddress: actor.ipAddress,
         details: {
-          vialLot: entry.vialLot,
-          vialExpiry: entry.vialExpiry,
+          ...issued,
+          vialsOpened: stockFigures.vialsOpened,
+          discardedMg: stockFigures.discardedMg,
+          discardReason: stockFigures.discardReason,
           reconstitutedAt: reconstitutedAt.toISOString(),
           volumeDrawnMl: entry.volumeDrawnMl,
           beyondUseAt: beyondUseAt.toISOString(),

@@ -1,6 +1,7 @@
 import { stepClockStatuses } from '../../shared/orders/lifecycle';
 import type { OrderSummary } from '../../shared/schemas/orders';
 import type { Clock } from '../clock';
+import type { ListService } from '../lists/service';
 import type { OrderRepository } from '../orders/repository';
 import { toOrderSummary, type Actor } from '../orders/service';
 
@@ -61,12 +62,20 @@ async function todayLists(orders: TodayRepository, actor: Actor): Promise<TodayL
   return lists;
 }
 
-export function createTodayService(deps: { orders: TodayRepository; clock: Clock }) {
+export function createTodayService(deps: {
+  orders: TodayRepository;
+  clock: Clock;
+  lists: Pick<ListService, 'today'>;
+}) {
   return {
-    /** The person's worklists, with the server's time so the client can measure its offset. */
+    /**
+     * The person's worklists and today's treatment lists (the nurse's room in slot order, the
+     * pharmacist's ready-by times), with the server's time so the client can measure its offset.
+     */
     async forPerson(actor: Actor) {
       return {
         lists: await todayLists(deps.orders, actor),
+        treatmentLists: await deps.lists.today(),
         serverTime: deps.clock.now().toISOString(),
       };
     },

@@ -158,14 +158,41 @@ export const doseCheckSchema = z.strictObject({
 export type DoseCheckEntry = z.infer<typeof doseCheckSchema>;
 
 export const preparationSchema = z.strictObject({
+  /** The stock lot to issue from; left out with no vialLot, the lot that expires first is picked. */
+  stockLotId: z
+    .number({ error: 'stockLotId must be a stock lot number' })
+    .int('stockLotId must be a stock lot number')
+    .positive('stockLotId must be a stock lot number')
+    .optional(),
+  /** A lot typed by hand: issued from stock when the unit holds it, else recorded as outside stock. */
   vialLot: z
-    .string({ error: 'vialLot is required' })
+    .string({ error: 'vialLot must be text' })
     .trim()
     .regex(
       /^[A-Za-z0-9][A-Za-z0-9 ./-]{1,39}$/,
       'vialLot must be 2 to 40 letters, digits, spaces, dots, slashes or hyphens',
-    ),
-  vialExpiry: z.iso.date({ error: 'vialExpiry must be a date (YYYY-MM-DD)' }),
+    )
+    .optional(),
+  vialExpiry: z.iso.date({ error: 'vialExpiry must be a date (YYYY-MM-DD)' }).optional(),
+  /** Vials opened for this dose; fewer than the plan's only where vial sharing is allowed. */
+  vialsOpened: z
+    .number({ error: 'vialsOpened must be a whole number from 0 to 10' })
+    .int('vialsOpened must be a whole number from 0 to 10')
+    .min(0, 'vialsOpened must be a whole number from 0 to 10')
+    .max(10, 'vialsOpened must be a whole number from 0 to 10')
+    .optional(),
+  /** Drug discarded after drawing; left out, what the opened vials hold beyond the dose. */
+  discardedMg: z
+    .number({ error: 'discardedMg must be a number of mg from 0 to 150' })
+    .min(0, 'discardedMg must be a number of mg from 0 to 150')
+    .max(150, 'discardedMg must be a number of mg from 0 to 150')
+    .optional(),
+  discardReason: z
+    .string({ error: 'discardReason must be text' })
+    .trim()
+    .min(3, 'discardReason must be 3 to 500 characters')
+    .max(500, 'discardReason must be 3 to 500 characters')
+    .optional(),
   /** When the powder was reconstituted; left out, now. */
   reconstitutedAt: z.iso
     .datetime({ offset: true, error: 'reconstitutedAt must be an ISO 8601 date-time with offset' })

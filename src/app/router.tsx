@@ -236,6 +236,46 @@ export const router = createBrowserRouter([
             ),
           },
           {
+            path: paths.lists.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/lists'),
+              (m) => m.ListsRoute,
+            ),
+          },
+          {
+            path: paths.vialPlan.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/lists'),
+              (m) => m.VialPlanRoute,
+            ),
+          },
+          {
+            path: paths.stock.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/stock'),
+              (m) => m.StockRoute,
+            ),
+          },
+          {
+            path: paths.recall.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/stock'),
+              (m) => m.RecallRoute,
+            ),
+          },
+          {
+            path: paths.drugUse.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/stock'),
+              (m) => m.DrugUseRoute,
+            ),
+          },
+          {
             path: paths.trends.path,
             errorElement: <RouteErrorScreen framed={false} />,
             lazy: screen(

@@ -20,6 +20,26 @@ export const paths = {
     path: '/account/password',
     getHref: () => '/account/password',
   },
+  lists: {
+    path: '/lists',
+    getHref: () => '/lists',
+  },
+  vialPlan: {
+    path: '/lists/:id/vial-plan',
+    getHref: (id: number | string) => `/lists/${encodeURIComponent(String(id))}/vial-plan`,
+  },
+  stock: {
+    path: '/stock',
+    getHref: () => '/stock',
+  },
+  recall: {
+    path: '/recall',
+    getHref: (lot?: string) => (lot ? `/recall?lot=${encodeURIComponent(lot)}` : '/recall'),
+  },
+  drugUse: {
+    path: '/reports/drug-use',
+    getHref: () => '/reports/drug-use',
+  },
   today: {
     path: '/',
     getHref: () => '/',

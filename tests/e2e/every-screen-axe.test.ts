@@ -84,6 +84,10 @@ const screens: { name: string; path: () => string; roles: Role[] }[] = [
   { name: 'Audit trail', path: () => '/audit-trail', roles: ['auditor'] },
   { name: 'People', path: () => '/people', roles: ['admin'] },
   { name: 'Outbox', path: () => '/outbox', roles: ['admin'] },
+  { name: 'Treatment lists', path: () => '/lists', roles: ['clinician', 'nurse'] },
+  { name: 'Stock', path: () => '/stock', roles: ['pharmacist'] },
+  { name: 'Recall', path: () => '/recall', roles: ['pharmacist'] },
+  { name: 'Drug use', path: () => '/reports/drug-use', roles: ['pharmacist'] },
 ];
 
 /**

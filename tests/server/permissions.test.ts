@@ -94,6 +94,20 @@ const expected: Record<string, 'public' | Role[]> = {
   'POST /api/patients/:id/fhir-refresh': ['clinician', 'admin'],
   'GET /api/orders/:id/fhir': ['clinician', 'nurse', 'pharmacist', 'auditor'],
   'GET /api/outbox/fhir': ['admin'],
+  'GET /api/lists': ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'],
+  'POST /api/lists': ['clinician', 'admin'],
+  'GET /api/lists/:id': ['clinician', 'nurse', 'pharmacist', 'auditor', 'admin'],
+  'POST /api/lists/:id/bookings': ['clinician', 'admin'],
+  'DELETE /api/bookings/:id': ['clinician', 'admin'],
+  'GET /api/lists/:id/vial-plan': ['pharmacist', 'auditor'],
+  'GET /api/stock': ['pharmacist', 'auditor'],
+  'POST /api/stock': ['pharmacist'],
+  'GET /api/stock/:id/movements': ['pharmacist', 'auditor'],
+  'POST /api/stock/:id/adjustments': ['pharmacist'],
+  'GET /api/recall': ['pharmacist', 'auditor'],
+  'GET /api/recall.csv': ['pharmacist', 'auditor'],
+  'POST /api/recall/notifications': ['pharmacist', 'auditor'],
+  'GET /api/reports/drug-use': ['pharmacist', 'auditor'],
 };
 
 let ctx: TestContext;

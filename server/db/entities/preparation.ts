@@ -17,6 +17,8 @@ import { User } from './user';
  */
 @Entity({ name: 'preparation' })
 @Index('ix_preparation_order', ['orderId', 'id'])
+// A recall searches preparations by the lot's text.
+@Index('ix_preparation_vial_lot', ['vialLot'])
 export class Preparation {
   @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
   id!: number;

@@ -15,7 +15,13 @@ import {
   TrailLogIcon,
   TrendBarsIcon,
 } from '../../components/ui/icons';
-import { DeviceGaugeIcon } from '../../components/ui/icons';
+import {
+  DeviceGaugeIcon,
+  DrugUseBarsIcon,
+  ListCalendarIcon,
+  RecallSearchIcon,
+  StockBoxIcon,
+} from '../../components/ui/icons';
 import { paths } from '../../config/paths';
 
 export type NavItem = {
@@ -41,6 +47,25 @@ export const navItems: readonly NavItem[] = [
     to: paths.doseChecks.getHref(),
     capability: 'dose-checks.perform',
     icon: VialCheckIcon,
+  },
+  {
+    label: 'Lists',
+    to: paths.lists.getHref(),
+    capability: 'lists.read',
+    icon: ListCalendarIcon,
+  },
+  { label: 'Stock', to: paths.stock.getHref(), capability: 'stock.read', icon: StockBoxIcon },
+  {
+    label: 'Recall',
+    to: paths.recall.getHref(),
+    capability: 'stock.recall',
+    icon: RecallSearchIcon,
+  },
+  {
+    label: 'Drug use',
+    to: paths.drugUse.getHref(),
+    capability: 'stock.read',
+    icon: DrugUseBarsIcon,
   },
   {
     label: 'Orders',

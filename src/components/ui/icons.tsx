@@ -62,6 +62,10 @@ import {
   Volume2,
   VolumeX,
   type LucideIcon,
+  CalendarDays,
+  ChartBarStacked,
+  Package,
+  PackageSearch,
 } from 'lucide-react';
 
 /**
@@ -362,3 +366,9 @@ export function SunShieldIcon(props: IconProps) {
     </Icon>
   );
 }
+
+/** Treatment lists, the pharmacy's stock, a lot's recall and the monthly drug use. */
+export const ListCalendarIcon = fromPackage(CalendarDays);
+export const StockBoxIcon = fromPackage(Package);
+export const RecallSearchIcon = fromPackage(PackageSearch);
+export const DrugUseBarsIcon = fromPackage(ChartBarStacked);

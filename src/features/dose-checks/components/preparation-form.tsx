@@ -2,7 +2,10 @@ import { useServerNowMs } from '../../../lib/server-now';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { withoutSourceMarks } from '../../../../shared/protocol/source-marks';
 import { DateTime } from 'luxon';
+import { useQuery } from '@tanstack/react-query';
 import { useForm } from 'react-hook-form';
+import { stockLotsQuery } from '../../../lib/queries/stock';
+import { SelectField } from '../../../components/ui/select-field';
 import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
 import { overDefaults, useFormDraft } from '../../../lib/form-draft';
 import { z } from 'zod';
@@ -32,14 +35,25 @@ const localMinuteFormat = "yyyy-LL-dd'T'HH:mm";
  * beside the field, naming the allowed range.
  */
 const preparationFormSchema = z.object({
+  /** A stock lot's id, or '' for the lot that expires first (or for a lot typed below). */
+  stockLotId: z
+    .string()
+    .transform((v) => (v === '' ? undefined : Number(v)))
+    .optional(),
   vialLot: z
     .string()
     .trim()
     .regex(
-      /^[A-Za-z0-9][A-Za-z0-9 ./-]{1,39}$/,
+      /^([A-Za-z0-9][A-Za-z0-9 ./-]{1,39})?$/,
       'Vial lot must be 2 to 40 letters, digits, spaces, dots, slashes or hyphens, starting with a letter or digit',
-    ),
-  vialExpiry: z.iso.date({ error: 'Enter the expiry date printed on the vial (today or later)' }),
+    )
+    .transform((v) => (v === '' ? undefined : v)),
+  vialExpiry: z
+    .union([
+      z.literal('').transform(() => undefined),
+      z.iso.date({ error: 'Enter the expiry date printed on the vial (today or later)' }),
+    ])
+    .optional(),
   reconstitutedAt: z
     .string()
     .trim()
@@ -72,7 +86,13 @@ const preparationFormSchema = z.object({
 });
 type PreparationFormInput = z.input<typeof preparationFormSchema>;
 
-const fieldNames = ['vialLot', 'vialExpiry', 'reconstitutedAt', 'volumeDrawnMl'] as const;
+const fieldNames = [
+  'stockLotId',
+  'vialLot',
+  'vialExpiry',
+  'reconstitutedAt',
+  'volumeDrawnMl',
+] as const;
 // Field names come from the shared table (shared/format/field-labels.ts).
 const labels = {};
 
@@ -102,6 +122,7 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
   } = useForm<PreparationFormInput, unknown, PreparationEntry>({
     resolver: zodResolver(preparationFormSchema),
     defaultValues: {
+      stockLotId: '',
       vialLot: '',
       vialExpiry: '',
       reconstitutedAt: nowText(serverNowMs),
@@ -112,11 +133,22 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
     `preparation.${order.id}`,
     { watch, reset, getValues },
     {
-      settle: overDefaults({ vialLot: '', vialExpiry: '', reconstitutedAt: '', volumeDrawnMl: '' }),
+      settle: overDefaults({
+        stockLotId: '',
+        vialLot: '',
+        vialExpiry: '',
+        reconstitutedAt: '',
+        volumeDrawnMl: '',
+      }),
     },
   );
 
-  const onSubmit = handleSubmit((entry) => {
+  const onSubmit = handleSubmit((typed) => {
+    // A typed lot is the pharmacist's choice; otherwise the lot picked from stock (or, left on
+    // the first option, the lot that expires first: the server picks it).
+    const entry: PreparationEntry = typed.vialLot
+      ? { ...typed, stockLotId: undefined }
+      : { ...typed, vialLot: undefined, vialExpiry: undefined };
     record.mutate(
       { orderId: order.id, entry },
       {
@@ -130,6 +162,10 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
   });
 
   const drug = protocol?.definition.drug ?? null;
+  const lots = useQuery(stockLotsQuery());
+  const usable = (lots.data?.lots ?? []).filter(
+    (l) => l.product === 'verteporfin' && !l.expired && l.quantityOnHand >= (plan.vials ?? 1),
+  );
   const pct = protocol?.definition.tolerances.drugVolumePct ?? null;
   const planned = plan.drugVolumeMl;
   const range =
@@ -199,9 +235,27 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
       )}
 
       <div className="grid gap-5 sm:grid-cols-2">
+        <SelectField
+          label="Lot from stock"
+          hint="First-expiry-first unless you pick another; expired and empty lots are not offered."
+          className="sm:col-span-2"
+          error={readableMessage(errors.stockLotId?.message, labels)}
+          {...register('stockLotId')}
+        >
+          <option value="">
+            {usable.length > 0
+              ? `The lot that expires first (${usable[0]!.lot}, expires ${usable[0]!.expiry})`
+              : 'No lot in stock holds enough: type the lot below'}
+          </option>
+          {usable.map((l) => (
+            <option key={l.id} value={l.id}>
+              Lot {l.lot}, expires {l.expiry}, {l.quantityOnHand} on hand
+            </option>
+          ))}
+        </SelectField>
         <TextField
           label="Vial lot"
-          hint="As printed on the vial."
+          hint="Only for a lot typed by hand: as printed on the vial."
           autoComplete="off"
           spellCheck={false}
           error={readableMessage(errors.vialLot?.message, labels)}
@@ -212,7 +266,7 @@ export function PreparationForm({ order, plan, protocol, clockOffsetMs }: Prepar
           placeholder={unitDatePattern()}
           inputMode="numeric"
           autoComplete="off"
-          hint={`${unitDatePattern()}, today or later.`}
+          hint={`Only with a typed lot: ${unitDatePattern()}, today or later.`}
           error={readableMessage(errors.vialExpiry?.message, labels)}
           {...register('vialExpiry', {
             // Typed in the unit's order; sent as YYYY-MM-DD (unreadable text goes on for the schema to refuse).

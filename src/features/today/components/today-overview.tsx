@@ -9,6 +9,7 @@ import { unitTimeZone } from '../../../config/unit-time-zone';
 import { describeError } from '../../../lib/api-client';
 import { todayQueries } from '../api/today-queries';
 import { RoleDutiesList } from './role-duties-list';
+import { TodayTreatmentLists } from './today-treatment-lists';
 import { WorklistSection } from './worklist-section';
 
 type TodayOverviewProps = {
@@ -53,6 +54,15 @@ export function TodayOverview({ displayName, roles }: TodayOverviewProps) {
           Refresh
         </Button>
       </div>
+
+      {today.data && (roles.includes('nurse') || roles.includes('pharmacist')) && (
+        <TodayTreatmentLists
+          lists={today.data.treatmentLists}
+          clockOffsetMs={today.data.clockOffsetMs}
+          pharmacist={roles.includes('pharmacist')}
+          nurse={roles.includes('nurse')}
+        />
+      )}
 
       <section aria-labelledby="today-worklist-heading" className="space-y-5">
         <h2 id="today-worklist-heading" className="text-xl font-semibold text-paper-900">
