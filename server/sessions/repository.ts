@@ -101,6 +101,43 @@ async function readEventsWith(manager: EntityManager, orderId: number): Promise<
   return rows.map(toSessionEvent);
 }
 
+/** A deviation as stored, what `reconcileDeviations` compares the newly found ones with. */
+export type StoredDeviation = Pick<
+  DeviationRow,
+  'id' | 'type' | 'severity' | 'expected' | 'actual' | 'message' | 'detectedAt' | 'withdrawnAt'
+>;
+
+type UnderLockRow = {
+  id: string | number;
+  payload: string | Record<string, unknown> | null;
+  at: Date;
+  recordedBy: number | null;
+  type: string | null;
+  severity: DeviationRow['severity'] | null;
+  expected: number | null;
+  actual: number | null;
+  message: string | null;
+  withdrawnAt: Date | null;
+};
+
+/** What this process knew of a session, with the events stored since (in id order) added. */
+function withAdded(known: KnownEvents | undefined, added: SessionEvent[]): KnownEvents {
+  if (added.length === 0 && known) return known;
+  const events = [...(known?.events ?? []), ...added];
+  // New taps nearly always come last; sort only when one arrived late.
+  const from = Math.max(1, events.length - added.length);
+  for (let i = from; i < events.length; i++) {
+    if (byClientTime(events[i - 1]!, events[i]!) > 0) {
+      events.sort(byClientTime);
+      break;
+    }
+  }
+  return {
+    events,
+    lastId: added.length > 0 ? added[added.length - 1]!.id : (known?.lastId ?? 0),
+  };
+}
+
 export function createSessionRepository(dataSource: DataSource) {
   /**
    * Running sessions' events, kept between writes so that each new event reads only what is newer
@@ -119,31 +156,51 @@ export function createSessionRepository(dataSource: DataSource) {
       readEventsWith(managerOf(tx) ?? dataSource.manager, orderId),
 
     /**
-     * Every event of an order, for a writer that holds the order's lock: what this process knew
-     * plus whatever was stored since. Hand the result to `rememberEvents` once the transaction
-     * has committed (never before: a rolled-back event must not be remembered).
+     * Every event of an order and its stored deviations, for a writer that holds the order's
+     * lock: what this process knew plus whatever was stored since, and the deviations as they
+     * stand, read in one statement (both plain reads: nothing more is locked). Hand `events` to
+     * `rememberEvents` once the transaction has committed (never before: a rolled-back event must
+     * not be remembered), and `deviations` to `reconcileDeviations`.
      */
-    async eventsUnderLock(tx: Transaction, orderId: number): Promise<KnownEvents> {
+    async readUnderLock(
+      tx: Transaction,
+      orderId: number,
+    ): Promise<{ events: KnownEvents; deviations: StoredDeviation[] }> {
       const known = knownEvents.get(orderId);
-      const rows: StoredEventRow[] = await managerOf(tx).query(
-        'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? AND id > ? ORDER BY id',
-        [orderId, known?.lastId ?? 0],
+      const rows: (UnderLockRow & { kind: 'event' | 'deviation' })[] = await managerOf(tx).query(
+        `SELECT 'event' AS kind, id, payload, server_time AS at, recorded_by AS recordedBy, NULL AS type, NULL AS severity, NULL AS expected, NULL AS actual, NULL AS message, NULL AS withdrawnAt
+           FROM session_event WHERE order_id = ? AND id > ?
+         UNION ALL
+         SELECT 'deviation', id, NULL, detected_at, NULL, type, severity, expected, actual, message, withdrawn_at
+           FROM deviation WHERE order_id = ?
+         ORDER BY kind DESC, id`,
+        [orderId, known?.lastId ?? 0, orderId],
       );
-      if (rows.length === 0 && known) return known;
-      const added = rows.map(toSessionEvent);
-      const events = [...(known?.events ?? []), ...added];
-      // New taps nearly always come last; sort only when one arrived late.
-      const from = Math.max(1, events.length - added.length);
-      for (let i = from; i < events.length; i++) {
-        if (byClientTime(events[i - 1]!, events[i]!) > 0) {
-          events.sort(byClientTime);
-          break;
-        }
+      const deviations: StoredDeviation[] = [];
+      const added: SessionEvent[] = [];
+      for (const row of rows) {
+        if (row.kind === 'event')
+          added.push(
+            toSessionEvent({
+              id: row.id,
+              payload: row.payload!,
+              serverTime: row.at,
+              recordedBy: Number(row.recordedBy),
+            }),
+          );
+        else
+          deviations.push({
+            id: Number(row.id),
+            type: row.type!,
+            severity: row.severity!,
+            expected: row.expected,
+            actual: row.actual,
+            message: row.message!,
+            detectedAt: row.at,
+            withdrawnAt: row.withdrawnAt,
+          });
       }
-      return {
-        events,
-        lastId: added.length > 0 ? added[added.length - 1]!.id : (known?.lastId ?? 0),
-      };
+      return { events: withAdded(known, added), deviations };
     },
 
     rememberEvents(orderId: number, read: KnownEvents): void {
@@ -306,23 +363,17 @@ export function createSessionRepository(dataSource: DataSource) {
       found: Deviation[],
       /** The server's time: when a new deviation is detected or a gone one withdrawn. */
       at: Date,
+      /** The order's deviations as already read under its lock (`readUnderLock`); read here when not given. */
+      storedAlready?: StoredDeviation[],
     ): Promise<{ added: string[]; standing: StandingDeviation[] }> {
       const repo = managerOf(tx).getRepository(DeviationRow);
       // Read on every event, so plain SQL rather than the ORM's query builder.
-      const rows: Pick<
-        DeviationRow,
-        | 'id'
-        | 'type'
-        | 'severity'
-        | 'expected'
-        | 'actual'
-        | 'message'
-        | 'detectedAt'
-        | 'withdrawnAt'
-      >[] = await managerOf(tx).query(
-        'SELECT id, type, severity, expected, actual, message, detected_at AS detectedAt, withdrawn_at AS withdrawnAt FROM deviation WHERE order_id = ?',
-        [orderId],
-      );
+      const rows: StoredDeviation[] =
+        storedAlready ??
+        (await managerOf(tx).query(
+          'SELECT id, type, severity, expected, actual, message, detected_at AS detectedAt, withdrawn_at AS withdrawnAt FROM deviation WHERE order_id = ?',
+          [orderId],
+        ));
       const stored = new Map(rows.map((row) => [row.type, row]));
       const added: string[] = [];
       const standing: StandingDeviation[] = [];

@@ -33,7 +33,7 @@ import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
 import { bedsideRefusal } from './bedside-rules';
-import { recordOrderFacts, type SessionRepository } from './repository';
+import { recordOrderFacts, type SessionRepository, type StoredDeviation } from './repository';
 
 const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
   paused: ['light', 'uv'],
@@ -533,8 +533,12 @@ export function createSessionService(deps: {
    * Re-derives the record and deviations from every event, inside the caller's transaction.
    * `events` are the order's events as read under its lock; by default they are read here.
    */
-  async function recompute(tx: Transaction, order: SessionOrder, events?: SessionEvent[]) {
-    const all = events ?? (await sessions.eventsFor(order.id, tx));
+  async function recompute(
+    tx: Transaction,
+    order: SessionOrder,
+    read?: { events: SessionEvent[]; deviations: StoredDeviation[] },
+  ) {
+    const all = read?.events ?? (await sessions.eventsFor(order.id, tx));
     const nowMs = now();
     const record = deriveDoseRecord({
       protocol: order.definition,
@@ -556,6 +560,7 @@ export function createSessionService(deps: {
       order.protocolVersionId,
       deviations,
       new Date(nowMs),
+      read?.deviations,
     );
     await sessions.saveRecord(tx, order.id, record, {
       protocolVersionId: order.protocolVersionId,
@@ -712,7 +717,10 @@ export function createSessionService(deps: {
             order.status === 'in-session';
           if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
           await moveOrderStatus(tx, orderId, order.status, status);
-          const read = await sessions.eventsUnderLock(tx, orderId);
+          const { events: read, deviations: storedDeviations } = await sessions.readUnderLock(
+            tx,
+            orderId,
+          );
           afterCommit.push(() =>
             ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read),
           );
@@ -728,7 +736,10 @@ export function createSessionService(deps: {
             actor.id,
             authoriser,
           );
-          const result = await recompute(tx, order, read.events);
+          const result = await recompute(tx, order, {
+            events: read.events,
+            deviations: storedDeviations,
+          });
           if (status === 'reviewed') {
             const open = await sessions.openDeviationCount(tx, orderId);
             const next = statusAfterLateEvent(status, {

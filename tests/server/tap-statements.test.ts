@@ -1,0 +1,77 @@
+import { randomUUID } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import {
+  createTestPatient,
+  createTestPerson,
+  cxlOrder,
+  signOrder,
+  signedInAgent,
+  startTestApp,
+  type TestContext,
+} from '../support/api';
+
+// What a tap costs the database, counted rather than timed (the benchmark times it: README,
+// Performance): every statement the app sends for one ordinary tap in a running session.
+let ctx: TestContext;
+beforeAll(async () => {
+  ctx = await startTestApp();
+});
+afterAll(async () => {
+  await ctx.close();
+});
+
+/** Runs `work` and returns the statements the app sent meanwhile, whitespace folded. */
+async function statementsDuring(work: () => Promise<void>): Promise<string[]> {
+  const seen: string[] = [];
+  const logger = ctx.dataSource.logger;
+  const original = logger.logQuery;
+  logger.logQuery = (query, parameters, runner) => {
+    seen.push(query.replace(/\s+/g, ' ').trim());
+    return original.call(logger, query, parameters, runner);
+  };
+  try {
+    await work();
+  } finally {
+    logger.logQuery = original;
+  }
+  return seen;
+}
+
+describe('statements per tap', () => {
+  it('an ordinary tap in a running session is seven statements, one transaction', async () => {
+    const clinician = await createTestPerson(ctx, ['clinician']);
+    const clinicianAgent = await signedInAgent(ctx, clinician);
+    const nurseAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
+    const patient = await createTestPatient(ctx);
+    const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
+    const t0 = Date.now() - 60_000;
+    const post = (seconds: number, event: object) =>
+      nurseAgent.post(`/api/orders/${order.id}/session-events`).send({
+        idempotencyKey: randomUUID(),
+        clientTime: new Date(t0 + seconds * 1000).toISOString(),
+        ...event,
+      });
+    const checks = {
+      patientIdentity: true,
+      treatmentEye: true,
+      consent: true,
+      eyewear: true,
+      deviceSettings: true,
+    };
+    expect((await post(0, { type: 'session-started', checks })).status).toBe(201);
+    expect((await post(1, { type: 'step-started', stepId: 'riboflavin-soak' })).status).toBe(201);
+    expect((await post(2, { type: 'drop-given', stepId: 'riboflavin-soak' })).status).toBe(201);
+
+    let status = 0;
+    const statements = await statementsDuring(async () => {
+      status = (await post(3, { type: 'drop-given', stepId: 'riboflavin-soak' })).status;
+    });
+    expect(status).toBe(201);
+    // Eight before (the person's row; begin; the order locked; the event inserted; new events
+    // read; deviations read; the record saved; commit): the two reads are one statement now.
+    expect(statements, statements.join('\n')).toHaveLength(7);
+    expect(statements.filter((q) => q === 'START TRANSACTION')).toHaveLength(1);
+    expect(statements.filter((q) => q === 'COMMIT')).toHaveLength(1);
+    expect(statements.filter((q) => /FOR UPDATE/.test(q))).toHaveLength(1);
+  });
+});
