@@ -107,18 +107,27 @@ export type StoredDeviation = Pick<
   'id' | 'type' | 'severity' | 'expected' | 'actual' | 'message' | 'detectedAt' | 'withdrawnAt'
 >;
 
-type UnderLockRow = {
-  id: string | number;
-  payload: string | Record<string, unknown> | null;
-  at: Date;
-  recordedBy: number | null;
-  type: string | null;
-  severity: DeviationRow['severity'] | null;
-  expected: number | null;
-  actual: number | null;
-  message: string | null;
-  withdrawnAt: Date | null;
-};
+/** The deviations the order's lock read as JSON (`lockForSession`), as `reconcileDeviations` takes them. */
+export function storedDeviationsFrom(json: string | unknown[] | null): StoredDeviation[] {
+  const list = (typeof json === 'string' ? JSON.parse(json) : (json ?? [])) as {
+    id: number;
+    type: string;
+    severity: StoredDeviation['severity'];
+    expected: number | null;
+    actual: number | null;
+    message: string;
+    detectedAt: string;
+    withdrawnAt: string | null;
+  }[];
+  // JSON carries DATETIME(3) as "2026-12-03 09:05:00.250": stored in UTC (the driver's timezone 'Z').
+  const utc = (text: string) => new Date(`${text.replace(' ', 'T')}Z`);
+  return list.map((d) => ({
+    ...d,
+    id: Number(d.id),
+    detectedAt: utc(d.detectedAt),
+    withdrawnAt: d.withdrawnAt === null ? null : utc(d.withdrawnAt),
+  }));
+}
 
 /** What this process knew of a session, with the events stored since (in id order) added. */
 function withAdded(known: KnownEvents | undefined, added: SessionEvent[]): KnownEvents {
@@ -156,51 +165,28 @@ export function createSessionRepository(dataSource: DataSource) {
       readEventsWith(managerOf(tx) ?? dataSource.manager, orderId),
 
     /**
-     * Every event of an order and its stored deviations, for a writer that holds the order's
-     * lock: what this process knew plus whatever was stored since, and the deviations as they
-     * stand, read in one statement (both plain reads: nothing more is locked). Hand `events` to
-     * `rememberEvents` once the transaction has committed (never before: a rolled-back event must
-     * not be remembered), and `deviations` to `reconcileDeviations`.
+     * Every event of an order, for a writer that holds the order's lock and has just stored
+     * `inserted`: when this process already knew every event up to `lastIdAtLock` (the newest id
+     * as read with the lock), that list plus the new one, with no statement; otherwise what it
+     * knew plus whatever was stored since. Ids only grow within an order (its events are written
+     * one at a time under its lock), so "the newest id is the one I know" means nothing is
+     * missing, even when another API process wrote before. Hand the result to `rememberEvents`
+     * once the transaction has committed (never before: a rolled-back event must not be
+     * remembered).
      */
-    async readUnderLock(
+    async eventsAfterInsert(
       tx: Transaction,
       orderId: number,
-    ): Promise<{ events: KnownEvents; deviations: StoredDeviation[] }> {
+      lastIdAtLock: number | null,
+      inserted: SessionEvent,
+    ): Promise<KnownEvents> {
       const known = knownEvents.get(orderId);
-      const rows: (UnderLockRow & { kind: 'event' | 'deviation' })[] = await managerOf(tx).query(
-        `SELECT 'event' AS kind, id, payload, server_time AS at, recorded_by AS recordedBy, NULL AS type, NULL AS severity, NULL AS expected, NULL AS actual, NULL AS message, NULL AS withdrawnAt
-           FROM session_event WHERE order_id = ? AND id > ?
-         UNION ALL
-         SELECT 'deviation', id, NULL, detected_at, NULL, type, severity, expected, actual, message, withdrawn_at
-           FROM deviation WHERE order_id = ?
-         ORDER BY kind DESC, id`,
-        [orderId, known?.lastId ?? 0, orderId],
+      if ((known?.lastId ?? 0) === (lastIdAtLock ?? 0)) return withAdded(known, [inserted]);
+      const rows: StoredEventRow[] = await managerOf(tx).query(
+        'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? AND id > ? ORDER BY id',
+        [orderId, known?.lastId ?? 0],
       );
-      const deviations: StoredDeviation[] = [];
-      const added: SessionEvent[] = [];
-      for (const row of rows) {
-        if (row.kind === 'event')
-          added.push(
-            toSessionEvent({
-              id: row.id,
-              payload: row.payload!,
-              serverTime: row.at,
-              recordedBy: Number(row.recordedBy),
-            }),
-          );
-        else
-          deviations.push({
-            id: Number(row.id),
-            type: row.type!,
-            severity: row.severity!,
-            expected: row.expected,
-            actual: row.actual,
-            message: row.message!,
-            detectedAt: row.at,
-            withdrawnAt: row.withdrawnAt,
-          });
-      }
-      return { events: withAdded(known, added), deviations };
+      return withAdded(known, rows.map(toSessionEvent));
     },
 
     rememberEvents(orderId: number, read: KnownEvents): void {
@@ -236,17 +222,22 @@ export function createSessionRepository(dataSource: DataSource) {
       return row ? { ...toSessionEvent(row), orderId: Number(row.orderId) } : null;
     },
 
-    /** Stores one event; a key already stored fails with ER_DUP_ENTRY. */
-    /** `payload` is what is kept of the input (a password never is); `receivedAt` the server's receipt time by the app's clock. */
-    insertEvent: (
+    /**
+     * Stores one event; a key already stored fails with ER_DUP_ENTRY. Returns the event as it
+     * would be read back (the payload's stored text parsed, the receipt time to the ms).
+     * `payload` is what is kept of the input (a password never is); `receivedAt` the server's
+     * receipt time by the app's clock.
+     */
+    async insertEvent(
       tx: Transaction,
       orderId: number,
       recordedBy: number,
       input: SessionEventInput,
       payload: Record<string, unknown>,
       receivedAt: Date,
-    ) =>
-      managerOf(tx).query(
+    ): Promise<SessionEvent> {
+      const stored = JSON.stringify(payload);
+      const result: { insertId: number | string } = await managerOf(tx).query(
         'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, server_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
         [
           orderId,
@@ -256,9 +247,16 @@ export function createSessionRepository(dataSource: DataSource) {
           new Date(input.clientTime),
           receivedAt,
           recordedBy,
-          JSON.stringify(payload),
+          stored,
         ],
-      ),
+      );
+      return toSessionEvent({
+        id: result.insertId,
+        payload: stored,
+        serverTime: receivedAt,
+        recordedBy,
+      });
+    },
 
     /** One statement whether the record exists or not: this runs on every event. */
     saveRecord: (

@@ -33,7 +33,12 @@ import { orderedDefinition } from '../protocols/repository';
 import type { Actor } from '../orders/service';
 import type { UserRepository } from '../people/repository';
 import { bedsideRefusal } from './bedside-rules';
-import { recordOrderFacts, type SessionRepository, type StoredDeviation } from './repository';
+import {
+  recordOrderFacts,
+  storedDeviationsFrom,
+  type SessionRepository,
+  type StoredDeviation,
+} from './repository';
 
 const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
   paused: ['light', 'uv'],
@@ -707,7 +712,14 @@ export function createSessionService(deps: {
           // The key goes in first: a resend (the key is unique) fails here and is answered below
           // as the original was, whatever the session has done since.
           const nowMs = now();
-          await sessions.insertEvent(tx, orderId, actor.id, input, payload, new Date(nowMs));
+          const inserted = await sessions.insertEvent(
+            tx,
+            orderId,
+            actor.id,
+            input,
+            payload,
+            new Date(nowMs),
+          );
           checkEventFits(order, input, nowMs);
           afterCommit.push(await sessions.addNurse(tx, orderId, actor.id));
           let status = order.status;
@@ -717,10 +729,7 @@ export function createSessionService(deps: {
             order.status === 'in-session';
           if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
           await moveOrderStatus(tx, orderId, order.status, status);
-          const { events: read, deviations: storedDeviations } = await sessions.readUnderLock(
-            tx,
-            orderId,
-          );
+          const read = await sessions.eventsAfterInsert(tx, orderId, order.lastEventId, inserted);
           afterCommit.push(() =>
             ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read),
           );
@@ -738,7 +747,7 @@ export function createSessionService(deps: {
           );
           const result = await recompute(tx, order, {
             events: read.events,
-            deviations: storedDeviations,
+            deviations: storedDeviationsFrom(order.storedDeviationsJson),
           });
           if (status === 'reviewed') {
             const open = await sessions.openDeviationCount(tx, orderId);
