@@ -25,6 +25,7 @@ import {
   startCxlSessions,
   type MeasuredProcesses,
 } from './bench-open-loop';
+import { measureBundle } from './measure-bundle';
 import { cpuTimeMs } from './process-cpu';
 import { ensureDatabaseFor, recreateDatabase } from './database-setup';
 import { localEnvironment, localOwnerCredentials } from './environment';
@@ -312,6 +313,8 @@ console.log(
 );
 const database = await prepareDatabase();
 console.log(`client build: ${await buildClient()}`);
+// Before the API starts, so that its start-up does not share the core.
+const engine = openLoopOnly ? null : measureEngine(3);
 const api = await startApiProcess({ port, env, logFile: path.join(dataDir, 'bench', 'api.log') });
 let results: Record<string, unknown>;
 try {
@@ -321,7 +324,6 @@ try {
   if (openLoopOnly) {
     results = { openLoop: await openLoopRun(base, processes) };
   } else {
-    const engine = measureEngine(3);
     const nurse = await signIn(base, 'nurse');
     const clinician = await signIn(base, 'clinician');
 
@@ -386,6 +388,8 @@ try {
       eventWrites,
       openLoop: openLoopResult,
       firstLoadJs: js,
+      // The same from the build's manifest, the service worker counted (npm run measure:bundle).
+      firstLoadJsFromManifest: measureBundle(),
       clock,
     };
   }
@@ -420,10 +424,11 @@ type OpenLoopRuns = {
   }[];
 };
 const runAt200 = (results.openLoop as OpenLoopRuns).runs.find((r) => r.ratePerS === 200);
+const bundle = results.firstLoadJsFromManifest as ReturnType<typeof measureBundle>;
 const verdict = {
   calculationP95: `${(results.calculation as { latencyMs: { p95: number } }).latencyMs.p95} ms (target ≤ ${targets.calculationP95Ms})`,
   eventWriteP95: `${(results.eventWrites as { latencyMs: { p95: number } }).latencyMs.p95} ms (target ≤ ${targets.eventWriteP95Ms})`,
-  firstLoadJs: `sign-in ${(results.firstLoadJs as { signIn: { gzipKb: number } }).signIn.gzipKb} kB, Today ${(results.firstLoadJs as { today: { gzipKb: number } }).today.gzipKb} kB (target ≤ ${targets.firstLoadJsGzipKb})`,
+  firstLoadJs: `loaded by the browser: sign-in ${(results.firstLoadJs as { signIn: { gzipKb: number } }).signIn.gzipKb} kB, Today ${(results.firstLoadJs as { today: { gzipKb: number } }).today.gzipKb} kB; with the service worker: sign-in ${bundle.screens['sign-in']!.gzipKb} kB, Today ${bundle.screens.today!.gzipKb} kB (target ≤ ${targets.firstLoadJsGzipKb})`,
   openLoopP99At200: runAt200
     ? `${runAt200.latencyMs.p99} ms (target ≤ ${targets.openLoopP99At200PerSMs})`
     : 'not run at 200 taps/s',
