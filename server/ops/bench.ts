@@ -315,7 +315,15 @@ const database = await prepareDatabase();
 console.log(`client build: ${await buildClient()}`);
 // Before the API starts, so that its start-up does not share the core.
 const engine = openLoopOnly ? null : measureEngine(3);
-const api = await startApiProcess({ port, env, logFile: path.join(dataDir, 'bench', 'api.log') });
+const api = await startApiProcess({
+  port,
+  env,
+  logFile: path.join(dataDir, 'bench', 'api.log'),
+  startTimeoutMs: 300_000,
+}).catch(async (error: unknown) => {
+  await database.stop();
+  throw error;
+});
 let results: Record<string, unknown>;
 try {
   const base = api.url;

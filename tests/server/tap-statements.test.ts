@@ -37,6 +37,14 @@ async function statementsDuring(work: () => Promise<void>): Promise<string[]> {
   return seen;
 }
 
+const checks = {
+  patientIdentity: true,
+  treatmentEye: true,
+  consent: true,
+  eyewear: true,
+  deviceSettings: true,
+};
+
 describe('statements per tap', () => {
   it('an ordinary tap in a running session is six statements, one transaction', async () => {
     const clinician = await createTestPerson(ctx, ['clinician']);
@@ -51,13 +59,6 @@ describe('statements per tap', () => {
         clientTime: new Date(t0 + seconds * 1000).toISOString(),
         ...event,
       });
-    const checks = {
-      patientIdentity: true,
-      treatmentEye: true,
-      consent: true,
-      eyewear: true,
-      deviceSettings: true,
-    };
     expect((await post(0, { type: 'session-started', checks })).status).toBe(201);
     expect((await post(1, { type: 'step-started', stepId: 'riboflavin-soak' })).status).toBe(201);
     expect((await post(2, { type: 'drop-given', stepId: 'riboflavin-soak' })).status).toBe(201);
@@ -75,5 +76,53 @@ describe('statements per tap', () => {
     expect(statements.filter((q) => q === 'START TRANSACTION')).toHaveLength(1);
     expect(statements.filter((q) => q === 'COMMIT')).toHaveLength(1);
     expect(statements.filter((q) => /FOR UPDATE/.test(q))).toHaveLength(1);
+  });
+
+  it('two API processes taking turns on one session each count every event; the one that did not write the previous tap reads what it lacks', async () => {
+    // A second app on the same database: its own repositories, so its own memory of sessions.
+    const other = await startTestApp();
+    try {
+      const clinician = await createTestPerson(ctx, ['clinician']);
+      const clinicianAgent = await signedInAgent(ctx, clinician);
+      const nurse = await createTestPerson(ctx, ['nurse']);
+      const here = await signedInAgent(ctx, nurse);
+      const there = await signedInAgent(other, nurse);
+      const patient = await createTestPatient(ctx);
+      const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
+      const t0 = Date.now() - 60_000;
+      const post = (agent: typeof here, seconds: number, event: object) =>
+        agent.post(`/api/orders/${order.id}/session-events`).send({
+          idempotencyKey: randomUUID(),
+          clientTime: new Date(t0 + seconds * 1000).toISOString(),
+          ...event,
+        });
+      const drop = { type: 'drop-given', stepId: 'riboflavin-soak' };
+      expect((await post(here, 0, { type: 'session-started', checks })).body.eventCount).toBe(1);
+      expect(
+        (await post(there, 1, { type: 'step-started', stepId: 'riboflavin-soak' })).body.eventCount,
+      ).toBe(2);
+      let sent = 2;
+      for (let i = 0; i < 3; i++) {
+        let res = await post(here, 2 + 2 * i, drop);
+        expect(res.status).toBe(201);
+        expect(res.body.eventCount).toBe(++sent);
+        res = await post(there, 3 + 2 * i, drop);
+        expect(res.status).toBe(201);
+        expect(res.body.eventCount).toBe(++sent);
+      }
+      let eventCount = 0;
+      const afterOther = await statementsDuring(async () => {
+        eventCount = (await post(here, 20, drop)).body.eventCount;
+      });
+      expect(eventCount).toBe(++sent);
+      expect(afterOther, afterOther.join('\n')).toHaveLength(7);
+      const state = await here.get(`/api/orders/${order.id}/session`);
+      expect(state.body.events).toHaveLength(sent);
+      expect(
+        state.body.events.filter((e: { type: string }) => e.type === 'drop-given'),
+      ).toHaveLength(7);
+    } finally {
+      await other.close();
+    }
   });
 });
