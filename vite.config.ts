@@ -29,12 +29,6 @@ export default defineConfig({
     emptyOutDir: true,
     sourcemap: false,
     manifest: true,
-    rolldownOptions: {
-      // Code shared by screens loaded on demand stays in chunks of its own instead of being
-      // merged into the entry chunk: the sign-in page and Today would otherwise download the
-      // forms, schemas and tables of every screen (`npm run measure:bundle` checks the sizes).
-      experimental: { chunkOptimization: { mergeCommonChunks: false } },
-    },
   },
   server: { host: '127.0.0.1', port: 5173, proxy: { '/api': 'http://127.0.0.1:3000' } },
   test: {
