@@ -125,4 +125,41 @@ describe('statements per tap', () => {
       await other.close();
     }
   });
+
+  it('taps sent at once through two API processes queue on the order lock, and each sees every tap committed before it', async () => {
+    const other = await startTestApp();
+    try {
+      const clinician = await createTestPerson(ctx, ['clinician']);
+      const clinicianAgent = await signedInAgent(ctx, clinician);
+      const nurse = await createTestPerson(ctx, ['nurse']);
+      const agents = [await signedInAgent(ctx, nurse), await signedInAgent(other, nurse)];
+      const patient = await createTestPatient(ctx);
+      const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
+      const at = new Date(Date.now() - 60_000).toISOString();
+      const post = (agent: (typeof agents)[number], event: object) =>
+        agent
+          .post(`/api/orders/${order.id}/session-events`)
+          .send({ idempotencyKey: randomUUID(), clientTime: at, ...event });
+      expect((await post(agents[0]!, { type: 'session-started', checks })).status).toBe(201);
+      expect(
+        (await post(agents[1]!, { type: 'step-started', stepId: 'riboflavin-soak' })).status,
+      ).toBe(201);
+      // Both processes have the session in memory; then ten drops at once, alternating.
+      const answers = await Promise.all(
+        Array.from({ length: 10 }, (_, i) =>
+          post(agents[i % 2]!, { type: 'drop-given', stepId: 'riboflavin-soak' }),
+        ),
+      );
+      expect(answers.map((a) => a.status)).toEqual(Array(10).fill(201));
+      // One at a time under the lock: the answers count 3, 4, … 12 events, each once. A tap that
+      // missed one committed before it would count too few and repeat a number.
+      expect(answers.map((a) => a.body.eventCount).sort((a, b) => a - b)).toEqual(
+        Array.from({ length: 10 }, (_, i) => i + 3),
+      );
+      const state = await agents[0]!.get(`/api/orders/${order.id}/session`);
+      expect(state.body.events).toHaveLength(12);
+    } finally {
+      await other.close();
+    }
+  });
 });
