@@ -361,7 +361,7 @@ export function createSessionRepository(dataSource: DataSource) {
       found: Deviation[],
       /** The server's time: when a new deviation is detected or a gone one withdrawn. */
       at: Date,
-      /** The order's deviations as already read under its lock (`readUnderLock`); read here when not given. */
+      /** The order's deviations as already read with its lock (`lockForSession`); read here when not given. */
       storedAlready?: StoredDeviation[],
     ): Promise<{ added: string[]; standing: StandingDeviation[] }> {
       const repo = managerOf(tx).getRepository(DeviationRow);
