@@ -19,6 +19,8 @@ export async function startApiProcess(options: {
   port: number;
   env: NodeJS.ProcessEnv;
   logFile?: string;
+  /** How long to wait for its first answer (a machine busy with other work compiles slowly). */
+  startTimeoutMs?: number;
 }): Promise<ApiProcess> {
   const log = options.logFile ? openSync(options.logFile, 'a') : 'inherit';
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
@@ -31,7 +33,8 @@ export async function startApiProcess(options: {
   let exited = false;
   child.once('exit', () => (exited = true));
   // tsx compiles the server on start: a minute, for a machine busy with other work.
-  const until = Date.now() + 60_000;
+  const startTimeoutMs = options.startTimeoutMs ?? 60_000;
+  const until = Date.now() + startTimeoutMs;
   for (;;) {
     if (exited)
       throw new Error(
@@ -52,7 +55,7 @@ export async function startApiProcess(options: {
       // Not left behind holding the port (and the database) for the next run.
       child.kill('SIGKILL');
       throw new Error(
-        `the API process on port ${options.port} did not answer within 60 s; see ${options.logFile ?? 'its output above'}`,
+        `the API process on port ${options.port} did not answer within ${startTimeoutMs / 1000} s; see ${options.logFile ?? 'its output above'}`,
       );
     }
     await new Promise((r) => setTimeout(r, 200));

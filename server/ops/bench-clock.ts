@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { chromium } from 'playwright-core';
 import { demoPassword } from '../demo/seed';
+import { benchVersionReason } from './bench-open-loop';
 
 const uvDurationS = 1800; // cxl-standard: 3 mW/cm² for 30 min (Wollensak G, Spoerl E, Seiler T, Am J Ophthalmol 2003)
 
@@ -53,6 +54,7 @@ export async function measureClockError(base: string) {
       id,
       answer: 'no',
     })),
+    supersededVersionReason: benchVersionReason,
   });
   const orderId = draft.order.id;
   await api(base, clinician, 'POST', `/orders/${orderId}/signature`, {

@@ -18,6 +18,14 @@ import { startApiProcess } from './api-process';
 import { measureEngine } from './bench-engine';
 import { buildClient } from './build-client';
 import { measureClockError } from './bench-clock';
+import {
+  measureOpenLoop,
+  percentile,
+  signIn,
+  startCxlSessions,
+  type MeasuredProcesses,
+} from './bench-open-loop';
+import { measureBundle } from './measure-bundle';
 import { cpuTimeMs } from './process-cpu';
 import { ensureDatabaseFor, recreateDatabase } from './database-setup';
 import { localEnvironment, localOwnerCredentials } from './environment';
@@ -32,7 +40,9 @@ const sessionCount = Number(process.env.BENCH_SESSIONS ?? 300);
 const targets = {
   calculationP95Ms: 20,
   eventWriteP95Ms: 40,
-  firstLoadJsGzipKb: 200,
+  firstLoadJsGzipKb: 120,
+  openLoopP99At200PerSMs: 20,
+  cpuPerTapMs: 1,
   clockErrorMs: 250,
 };
 
@@ -42,7 +52,7 @@ const env = {
   ...localEnvironment(benchDatabase),
   NODE_ENV: 'production',
   DEMO_DATA: 'false',
-  SMTP_PORT: '1126',
+  SMTP_PORT: process.env.SMTP_PORT ?? '1126',
   LOGIN_FAILURE_LIMIT: '1000',
   CLIENT_DIR: clientDistDir,
   WEB_CONCURRENCY: webConcurrency,
@@ -80,36 +90,6 @@ async function eventsPerSession(orderIds: number[]): Promise<{ min: number; max:
   } finally {
     await db.end();
   }
-}
-
-async function signIn(base: string, role: string): Promise<string> {
-  const res = await fetch(`${base}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email: `${role}@demo.luxtempo.example`, password: demoPassword }),
-  });
-  if (!res.ok) throw new Error(`sign-in as ${role}: ${res.status}`);
-  return res.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0])
-    .join('; ');
-}
-
-async function call(base: string, cookie: string, method: string, url: string, body?: unknown) {
-  const res = await fetch(`${base}/api${url}`, {
-    method,
-    headers: { Cookie: cookie, 'Content-Type': 'application/json' },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  const json = (await res.json()) as Record<string, any>;
-  if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${JSON.stringify(json)}`);
-  return json;
-}
-
-function percentile(sorted: number[], p: number): number {
-  if (sorted.length === 0) return NaN;
-  const index = Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1);
-  return Math.round(sorted[index]! * 100) / 100;
 }
 
 /** Processes whose CPU time each load run reports: the API (with its workers) and MariaDB. */
@@ -241,138 +221,229 @@ async function measureJs(base: string) {
   }
 }
 
+/** `npm run bench -- [--open-loop] [--target URL] [--rates 50,200,500] [--api-pids …] [--db-pids …]` */
+function option(name: string): string | undefined {
+  const args = process.argv.slice(2);
+  const at = args.findIndex((a) => a === `--${name}` || a.startsWith(`--${name}=`));
+  if (at < 0) return undefined;
+  const arg = args[at]!;
+  return arg.includes('=') ? arg.slice(arg.indexOf('=') + 1) : (args[at + 1] ?? '');
+}
+const pidList = (value: string | undefined) =>
+  (value ?? '')
+    .split(',')
+    .filter(Boolean)
+    .map((p) => {
+      const pid = Number(p);
+      if (!Number.isInteger(pid) || pid <= 0) throw new Error(`not a process id: ${p}`);
+      return pid;
+    });
+const target = option('target')?.replace(/\/+$/, '');
+const openLoopOnly = process.argv.includes('--open-loop') || target !== undefined;
+const openLoop = {
+  ratesPerS: (option('rates') ?? '50,200,500').split(',').map(Number),
+  seconds: Number(option('seconds') ?? durationS),
+  // A tablet runs one session at a time; 20 tablets are a ward. The sessions are many more, so
+  // that each gathers the 20–40 events of a real session over the whole run rather than hundreds.
+  sessions: Number(option('sessions') ?? process.env.BENCH_SESSIONS ?? 400),
+  tablets: Number(option('tablets') ?? 40),
+};
+if (openLoop.ratesPerS.some((r) => !(r > 0)) || !(openLoop.seconds > 0))
+  throw new Error(
+    '--rates must be positive numbers (taps per second) and --seconds a positive number',
+  );
+
+/** Signs in the tablets, starts the sessions and sends taps at each rate. */
+async function openLoopRun(base: string, processes: MeasuredProcesses | null) {
+  const clinician = await signIn(base, 'clinician');
+  const tablets: string[] = [];
+  for (let i = 0; i < openLoop.tablets; i++) tablets.push(await signIn(base, 'nurse'));
+  const orderIds = await startCxlSessions(
+    base,
+    { clinician, nurse: tablets[0]! },
+    openLoop.sessions,
+  );
+  const result = await measureOpenLoop({
+    base,
+    ratesPerS: openLoop.ratesPerS,
+    seconds: openLoop.seconds,
+    orderIds,
+    tablets,
+    measured: processes,
+  });
+  console.log(
+    `${''.padEnd(24)} ${orderIds.length} sessions on ${tablets.length} tablets, taps sent round them in turn`,
+  );
+  return result;
+}
+
 const started = new Date();
+const resultsFile = path.join(
+  dataDir,
+  'bench',
+  `bench-${started.toISOString().replace(/[:.]/g, '-')}.json`,
+);
+mkdirSync(path.join(dataDir, 'bench'), { recursive: true });
+
+if (target !== undefined) {
+  // Someone else's servers (the cluster behind HAProxy, say): nothing is started or seeded here;
+  // the demo people must exist there. CPU is counted only for the processes named.
+  if (!/^https?:\/\//.test(target)) throw new Error(`--target must be an http(s) URL: ${target}`);
+  const apiPids = pidList(option('api-pids'));
+  const databasePids = pidList(option('db-pids'));
+  const processes = apiPids.length > 0 ? { apiPids, databasePids } : null;
+  console.log(
+    `Luxtempo benchmark, open loop — ${started.toISOString()} — Node ${process.version} — target ${target}${processes ? '' : ' (CPU not counted: give --api-pids and --db-pids)'}\n`,
+  );
+  const result = await openLoopRun(target, processes);
+  writeFileSync(
+    resultsFile,
+    JSON.stringify(
+      { startedAt: started.toISOString(), node: process.version, openLoop: result },
+      null,
+      2,
+    ),
+  );
+  console.log(`\nwritten to ${path.relative(process.cwd(), resultsFile)}`);
+  process.exit(0);
+}
+
 console.log(
   `Luxtempo benchmark — ${started.toISOString()} — Node ${process.version} — API processes: ${webConcurrency}\n`,
 );
 const database = await prepareDatabase();
 console.log(`client build: ${await buildClient()}`);
-const engine = measureEngine(3);
-mkdirSync(path.join(dataDir, 'bench'), { recursive: true });
-const api = await startApiProcess({ port, env, logFile: path.join(dataDir, 'bench', 'api.log') });
+// Before the API starts, so that its start-up does not share the core.
+const engine = openLoopOnly ? null : measureEngine(3);
+const api = await startApiProcess({
+  port,
+  env,
+  logFile: path.join(dataDir, 'bench', 'api.log'),
+  startTimeoutMs: 300_000,
+}).catch(async (error: unknown) => {
+  await database.stop();
+  throw error;
+});
 let results: Record<string, unknown>;
 try {
   const base = api.url;
   measured = { apiPid: api.child.pid!, databasePid: database.pid() };
-  const nurse = await signIn(base, 'nurse');
-  const clinician = await signIn(base, 'clinician');
+  const processes = { apiPids: [api.child.pid!], databasePids: [database.pid()] };
+  if (openLoopOnly) {
+    results = { openLoop: await openLoopRun(base, processes) };
+  } else {
+    const nurse = await signIn(base, 'nurse');
+    const clinician = await signIn(base, 'clinician');
 
-  // The smallest answer the API gives (public, no database, a few bytes): what the HTTP stack
-  // and the middleware every request passes through cost before any work of Luxtempo's own.
-  const floor = await load('GET /api/unit (floor)', { url: `${base}/api/unit`, method: 'GET' });
+    // The smallest answer the API gives (public, no database, a few bytes): what the HTTP stack
+    // and the middleware every request passes through cost before any work of Luxtempo's own.
+    const floor = await load('GET /api/unit (floor)', { url: `${base}/api/unit`, method: 'GET' });
 
-  const calculation = await load('POST /api/calculations', {
-    url: `${base}/api/calculations`,
-    method: 'POST',
-    headers: { 'content-type': 'application/json', cookie: clinician },
-    body: JSON.stringify({
-      protocol: { key: 'pdt-standard', version: 1 },
-      inputs: {
-        height: { value: 170, unit: 'cm' },
-        weight: { value: 70, unit: 'kg' },
-        lesionGldUm: 2500,
-        lensMagnification: 1,
-      },
-    }),
-  });
+    const calculation = await load('POST /api/calculations', {
+      url: `${base}/api/calculations`,
+      method: 'POST',
+      headers: { 'content-type': 'application/json', cookie: clinician },
+      body: JSON.stringify({
+        protocol: { key: 'pdt-standard', version: 1 },
+        inputs: {
+          height: { value: 170, unit: 'cm' },
+          weight: { value: 70, unit: 'kg' },
+          lesionGldUm: 2500,
+          lensMagnification: 1,
+        },
+      }),
+    });
 
-  // Running CXL sessions to write to, taken in turn. A real session gathers some 20–40 events
-  // (drops every few minutes through the soak and the UV); this many sessions keep every one of
-  // them within that over the whole run, instead of piling hundreds of drops onto 50 sessions.
-  const orderIds: number[] = [];
-  const startSession = async (i: number) => {
-    const patient = await call(base, clinician, 'POST', '/patients', {
-      recordNumber: `B-${randomUUID().slice(0, 8)}`,
-      givenName: 'Bench',
-      familyName: `Session ${i}`,
-      dateOfBirth: '1970-01-01',
-    });
-    const draft = await call(base, clinician, 'POST', '/orders', {
-      patientId: patient.patient.id,
-      eye: 'right',
-      protocol: { key: 'cxl-standard', version: 1 },
-      inputs: { stromalThicknessUm: 470 },
-      checklist: ['thin-stroma', 'active-infection', 'herpetic-keratitis'].map((id) => ({
-        id,
-        answer: 'no',
-      })),
-    });
-    await call(base, clinician, 'POST', `/orders/${draft.order.id}/signature`, {
-      password: demoPassword,
-      meaning: 'ordered',
-      version: draft.order.version,
-    });
-    const now = new Date().toISOString();
-    await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, {
-      idempotencyKey: randomUUID(),
-      clientTime: now,
-      type: 'session-started',
-      checks: {
-        patientIdentity: true,
-        treatmentEye: true,
-        consent: true,
-        eyewear: true,
-        deviceSettings: true,
-      },
-    });
-    await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, {
-      idempotencyKey: randomUUID(),
-      clientTime: now,
-      type: 'step-started',
-      stepId: 'riboflavin-soak',
-    });
-    orderIds.push(draft.order.id);
-  };
-  for (let i = 0; i < sessionCount; i += 10)
-    await Promise.all(
-      Array.from({ length: Math.min(10, sessionCount - i) }, (_, j) => startSession(i + j)),
-    );
-  let next = 0;
-  const eventWrites = await load('POST session-events', {
-    url: base,
-    requests: [
-      {
-        method: 'POST',
-        headers: { 'content-type': 'application/json', cookie: nurse },
-        setupRequest: (request) => ({
-          ...request,
-          path: `/api/orders/${orderIds[next++ % orderIds.length]}/session-events`,
-          body: JSON.stringify({
-            idempotencyKey: randomUUID(),
-            clientTime: new Date().toISOString(),
-            type: 'drop-given',
-            stepId: 'riboflavin-soak',
+    // Running CXL sessions to write to, taken in turn. A real session gathers some 20–40 events
+    // (drops every few minutes through the soak and the UV); this many sessions keep every one of
+    // them within that over the whole run, instead of piling hundreds of drops onto 50 sessions.
+    const orderIds = await startCxlSessions(base, { clinician, nurse }, sessionCount);
+    let next = 0;
+    const eventWrites = await load('POST session-events', {
+      url: base,
+      requests: [
+        {
+          method: 'POST',
+          headers: { 'content-type': 'application/json', cookie: nurse },
+          setupRequest: (request) => ({
+            ...request,
+            path: `/api/orders/${orderIds[next++ % orderIds.length]}/session-events`,
+            body: JSON.stringify({
+              idempotencyKey: randomUUID(),
+              clientTime: new Date().toISOString(),
+              type: 'drop-given',
+              stepId: 'riboflavin-soak',
+            }),
           }),
-        }),
-      },
-    ],
-  });
+        },
+      ],
+    });
 
-  const perSession = await eventsPerSession(orderIds);
-  console.log(
-    `${''.padEnd(24)} ${orderIds.length} sessions written to in turn; events per session at the end: ${perSession.min}–${perSession.max}`,
-  );
-  Object.assign(eventWrites, { sessions: orderIds.length, eventsPerSession: perSession });
+    const perSession = await eventsPerSession(orderIds);
+    console.log(
+      `${''.padEnd(24)} ${orderIds.length} sessions written to in turn; events per session at the end: ${perSession.min}–${perSession.max}`,
+    );
+    Object.assign(eventWrites, { sessions: orderIds.length, eventsPerSession: perSession });
 
-  const js = await measureJs(base);
-  const clock = await measureClockError(base);
-  results = { engine, floor, calculation, eventWrites, firstLoadJs: js, clock };
+    // Taps at a ward's pace: a fixed arrival rate, latency from each tap's intended send time.
+    const openLoopResult = await openLoopRun(base, processes);
+    const js = await measureJs(base);
+    const clock = await measureClockError(base);
+    results = {
+      engine,
+      floor,
+      calculation,
+      eventWrites,
+      openLoop: openLoopResult,
+      firstLoadJs: js,
+      // The same from the build's manifest, the service worker counted (npm run measure:bundle).
+      firstLoadJsFromManifest: measureBundle(),
+      clock,
+    };
+  }
 } finally {
   await api.kill();
   await database.stop();
 }
 
+if (openLoopOnly) {
+  writeFileSync(
+    resultsFile,
+    JSON.stringify(
+      {
+        startedAt: started.toISOString(),
+        node: process.version,
+        webConcurrency: Number(webConcurrency),
+        results,
+      },
+      null,
+      2,
+    ),
+  );
+  console.log(`\nwritten to ${path.relative(process.cwd(), resultsFile)}`);
+  process.exit(0);
+}
+
+type OpenLoopRuns = {
+  runs: {
+    ratePerS: number;
+    latencyMs: { p99: number };
+    cpuMsPerTap: { apiPlusDatabase: number } | null;
+  }[];
+};
+const runAt200 = (results.openLoop as OpenLoopRuns).runs.find((r) => r.ratePerS === 200);
+const bundle = results.firstLoadJsFromManifest as ReturnType<typeof measureBundle>;
 const verdict = {
   calculationP95: `${(results.calculation as { latencyMs: { p95: number } }).latencyMs.p95} ms (target ≤ ${targets.calculationP95Ms})`,
   eventWriteP95: `${(results.eventWrites as { latencyMs: { p95: number } }).latencyMs.p95} ms (target ≤ ${targets.eventWriteP95Ms})`,
-  firstLoadJs: `sign-in ${(results.firstLoadJs as { signIn: { gzipKb: number } }).signIn.gzipKb} kB, Today ${(results.firstLoadJs as { today: { gzipKb: number } }).today.gzipKb} kB (target ≤ ${targets.firstLoadJsGzipKb})`,
+  firstLoadJs: `loaded by the browser: sign-in ${(results.firstLoadJs as { signIn: { gzipKb: number } }).signIn.gzipKb} kB, Today ${(results.firstLoadJs as { today: { gzipKb: number } }).today.gzipKb} kB; with the service worker: sign-in ${bundle.screens['sign-in']!.gzipKb} kB, Today ${bundle.screens.today!.gzipKb} kB (target ≤ ${targets.firstLoadJsGzipKb})`,
+  openLoopP99At200: runAt200
+    ? `${runAt200.latencyMs.p99} ms (target ≤ ${targets.openLoopP99At200PerSMs})`
+    : 'not run at 200 taps/s',
+  cpuPerTap: `${(results.openLoop as OpenLoopRuns).runs.map((r) => `${r.cpuMsPerTap?.apiPlusDatabase} ms at ${r.ratePerS}/s`).join(', ')} (API + MariaDB; target ≤ ${targets.cpuPerTapMs})`,
   clockError: `${(results.clock as { maxErrorMs: number }).maxErrorMs} ms (target ≤ ${targets.clockErrorMs})`,
 };
-const file = path.join(
-  dataDir,
-  'bench',
-  `bench-${started.toISOString().replace(/[:.]/g, '-')}.json`,
-);
+const file = resultsFile;
 writeFileSync(
   file,
   JSON.stringify(

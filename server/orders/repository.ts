@@ -70,8 +70,16 @@ export function createOrderRepository(dataSource: DataSource) {
         // The order's row and its own preparation row, nothing shared: a join to the protocol
         // version would lock that row too, and every session on one protocol would then wait for
         // every other.
+        // The two subqueries are plain reads (MariaDB locks only the order's row and its
+        // preparation's here), made after the lock is granted, so they see every event and
+        // deviation committed by the lock's previous holder: the session service's tap needs
+        // no further read when its process already knows the session's events.
         `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.protocol_sha256 AS protocolSha256, o.plan, o.checklist,
-                p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt
+                p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt,
+                (SELECT MAX(e.id) FROM session_event e WHERE e.order_id = o.id) AS lastEventId,
+                (SELECT JSON_ARRAYAGG(JSON_OBJECT('id', d.id, 'type', d.type, 'severity', d.severity, 'expected', d.expected, 'actual', d.actual,
+                                                  'message', d.message, 'detectedAt', d.detected_at, 'withdrawnAt', d.withdrawn_at))
+                   FROM deviation d WHERE d.order_id = o.id) AS deviations
            FROM treatment_order o LEFT JOIN preparation p ON p.id = (SELECT MAX(latest.id) FROM preparation latest WHERE latest.order_id = o.id)
           WHERE o.id = ? FOR UPDATE`,
         [id],
@@ -94,6 +102,10 @@ export function createOrderRepository(dataSource: DataSource) {
               beyondUseAt: (row.beyondUseAt as Date).toISOString(),
             }
           : null,
+        /** The id of the order's newest stored event (null before the first). */
+        lastEventId: row.lastEventId === null ? null : Number(row.lastEventId),
+        /** The order's stored deviations as JSON (server/sessions/repository.ts reads it). */
+        storedDeviationsJson: row.deviations as string | unknown[] | null,
       };
     },
 

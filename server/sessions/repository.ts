@@ -101,6 +101,52 @@ async function readEventsWith(manager: EntityManager, orderId: number): Promise<
   return rows.map(toSessionEvent);
 }
 
+/** A deviation as stored, what `reconcileDeviations` compares the newly found ones with. */
+export type StoredDeviation = Pick<
+  DeviationRow,
+  'id' | 'type' | 'severity' | 'expected' | 'actual' | 'message' | 'detectedAt' | 'withdrawnAt'
+>;
+
+/** The deviations the order's lock read as JSON (`lockForSession`), as `reconcileDeviations` takes them. */
+export function storedDeviationsFrom(json: string | unknown[] | null): StoredDeviation[] {
+  const list = (typeof json === 'string' ? JSON.parse(json) : (json ?? [])) as {
+    id: number;
+    type: string;
+    severity: StoredDeviation['severity'];
+    expected: number | null;
+    actual: number | null;
+    message: string;
+    detectedAt: string;
+    withdrawnAt: string | null;
+  }[];
+  // JSON carries DATETIME(3) as "2026-12-03 09:05:00.250": stored in UTC (the driver's timezone 'Z').
+  const utc = (text: string) => new Date(`${text.replace(' ', 'T')}Z`);
+  return list.map((d) => ({
+    ...d,
+    id: Number(d.id),
+    detectedAt: utc(d.detectedAt),
+    withdrawnAt: d.withdrawnAt === null ? null : utc(d.withdrawnAt),
+  }));
+}
+
+/** What this process knew of a session, with the events stored since (in id order) added. */
+function withAdded(known: KnownEvents | undefined, added: SessionEvent[]): KnownEvents {
+  if (added.length === 0 && known) return known;
+  const events = [...(known?.events ?? []), ...added];
+  // New taps nearly always come last; sort only when one arrived late.
+  const from = Math.max(1, events.length - added.length);
+  for (let i = from; i < events.length; i++) {
+    if (byClientTime(events[i - 1]!, events[i]!) > 0) {
+      events.sort(byClientTime);
+      break;
+    }
+  }
+  return {
+    events,
+    lastId: added.length > 0 ? added[added.length - 1]!.id : (known?.lastId ?? 0),
+  };
+}
+
 export function createSessionRepository(dataSource: DataSource) {
   /**
    * Running sessions' events, kept between writes so that each new event reads only what is newer
@@ -119,31 +165,28 @@ export function createSessionRepository(dataSource: DataSource) {
       readEventsWith(managerOf(tx) ?? dataSource.manager, orderId),
 
     /**
-     * Every event of an order, for a writer that holds the order's lock: what this process knew
-     * plus whatever was stored since. Hand the result to `rememberEvents` once the transaction
-     * has committed (never before: a rolled-back event must not be remembered).
+     * Every event of an order, for a writer that holds the order's lock and has just stored
+     * `inserted`: when this process already knew every event up to `lastIdAtLock` (the newest id
+     * as read with the lock), that list plus the new one, with no statement; otherwise what it
+     * knew plus whatever was stored since. Ids only grow within an order (its events are written
+     * one at a time under its lock), so "the newest id is the one I know" means nothing is
+     * missing, even when another API process wrote before. Hand the result to `rememberEvents`
+     * once the transaction has committed (never before: a rolled-back event must not be
+     * remembered).
      */
-    async eventsUnderLock(tx: Transaction, orderId: number): Promise<KnownEvents> {
+    async eventsAfterInsert(
+      tx: Transaction,
+      orderId: number,
+      lastIdAtLock: number | null,
+      inserted: SessionEvent,
+    ): Promise<KnownEvents> {
       const known = knownEvents.get(orderId);
+      if ((known?.lastId ?? 0) === (lastIdAtLock ?? 0)) return withAdded(known, [inserted]);
       const rows: StoredEventRow[] = await managerOf(tx).query(
         'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? AND id > ? ORDER BY id',
         [orderId, known?.lastId ?? 0],
       );
-      if (rows.length === 0 && known) return known;
-      const added = rows.map(toSessionEvent);
-      const events = [...(known?.events ?? []), ...added];
-      // New taps nearly always come last; sort only when one arrived late.
-      const from = Math.max(1, events.length - added.length);
-      for (let i = from; i < events.length; i++) {
-        if (byClientTime(events[i - 1]!, events[i]!) > 0) {
-          events.sort(byClientTime);
-          break;
-        }
-      }
-      return {
-        events,
-        lastId: added.length > 0 ? added[added.length - 1]!.id : (known?.lastId ?? 0),
-      };
+      return withAdded(known, rows.map(toSessionEvent));
     },
 
     rememberEvents(orderId: number, read: KnownEvents): void {
@@ -179,17 +222,22 @@ export function createSessionRepository(dataSource: DataSource) {
       return row ? { ...toSessionEvent(row), orderId: Number(row.orderId) } : null;
     },
 
-    /** Stores one event; a key already stored fails with ER_DUP_ENTRY. */
-    /** `payload` is what is kept of the input (a password never is); `receivedAt` the server's receipt time by the app's clock. */
-    insertEvent: (
+    /**
+     * Stores one event; a key already stored fails with ER_DUP_ENTRY. Returns the event as it
+     * would be read back (the payload's stored text parsed, the receipt time to the ms).
+     * `payload` is what is kept of the input (a password never is); `receivedAt` the server's
+     * receipt time by the app's clock.
+     */
+    async insertEvent(
       tx: Transaction,
       orderId: number,
       recordedBy: number,
       input: SessionEventInput,
       payload: Record<string, unknown>,
       receivedAt: Date,
-    ) =>
-      managerOf(tx).query(
+    ): Promise<SessionEvent> {
+      const stored = JSON.stringify(payload);
+      const result: { insertId: number | string } = await managerOf(tx).query(
         'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, server_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
         [
           orderId,
@@ -199,9 +247,16 @@ export function createSessionRepository(dataSource: DataSource) {
           new Date(input.clientTime),
           receivedAt,
           recordedBy,
-          JSON.stringify(payload),
+          stored,
         ],
-      ),
+      );
+      return toSessionEvent({
+        id: result.insertId,
+        payload: stored,
+        serverTime: receivedAt,
+        recordedBy,
+      });
+    },
 
     /** One statement whether the record exists or not: this runs on every event. */
     saveRecord: (
@@ -306,23 +361,17 @@ export function createSessionRepository(dataSource: DataSource) {
       found: Deviation[],
       /** The server's time: when a new deviation is detected or a gone one withdrawn. */
       at: Date,
+      /** The order's deviations as already read with its lock (`lockForSession`); read here when not given. */
+      storedAlready?: StoredDeviation[],
     ): Promise<{ added: string[]; standing: StandingDeviation[] }> {
       const repo = managerOf(tx).getRepository(DeviationRow);
       // Read on every event, so plain SQL rather than the ORM's query builder.
-      const rows: Pick<
-        DeviationRow,
-        | 'id'
-        | 'type'
-        | 'severity'
-        | 'expected'
-        | 'actual'
-        | 'message'
-        | 'detectedAt'
-        | 'withdrawnAt'
-      >[] = await managerOf(tx).query(
-        'SELECT id, type, severity, expected, actual, message, detected_at AS detectedAt, withdrawn_at AS withdrawnAt FROM deviation WHERE order_id = ?',
-        [orderId],
-      );
+      const rows: StoredDeviation[] =
+        storedAlready ??
+        (await managerOf(tx).query(
+          'SELECT id, type, severity, expected, actual, message, detected_at AS detectedAt, withdrawn_at AS withdrawnAt FROM deviation WHERE order_id = ?',
+          [orderId],
+        ));
       const stored = new Map(rows.map((row) => [row.type, row]));
       const added: string[] = [];
       const standing: StandingDeviation[] = [];

@@ -36,7 +36,12 @@ import type { CheckValidity } from '../../shared/session/device-readiness';
 import type { DeviceRepository } from '../devices/repository';
 import { bedsideRefusal } from './bedside-rules';
 import { deviceStartVerdict } from './device-start';
-import { recordOrderFacts, type SessionRepository } from './repository';
+import {
+  recordOrderFacts,
+  storedDeviationsFrom,
+  type SessionRepository,
+  type StoredDeviation,
+} from './repository';
 
 const stepKindsFor: Partial<Record<SessionEventInput['type'], string[]>> = {
   paused: ['light', 'uv'],
@@ -546,8 +551,12 @@ export function createSessionService(deps: {
    * Re-derives the record and deviations from every event, inside the caller's transaction.
    * `events` are the order's events as read under its lock; by default they are read here.
    */
-  async function recompute(tx: Transaction, order: SessionOrder, events?: SessionEvent[]) {
-    const all = events ?? (await sessions.eventsFor(order.id, tx));
+  async function recompute(
+    tx: Transaction,
+    order: SessionOrder,
+    read?: { events: SessionEvent[]; deviations: StoredDeviation[] },
+  ) {
+    const all = read?.events ?? (await sessions.eventsFor(order.id, tx));
     const nowMs = now();
     const record = deriveDoseRecord({
       protocol: order.definition,
@@ -569,6 +578,7 @@ export function createSessionService(deps: {
       order.protocolVersionId,
       deviations,
       new Date(nowMs),
+      read?.deviations,
     );
     await sessions.saveRecord(tx, order.id, record, {
       protocolVersionId: order.protocolVersionId,
@@ -738,7 +748,14 @@ export function createSessionService(deps: {
           // The key goes in first: a resend (the key is unique) fails here and is answered below
           // as the original was, whatever the session has done since.
           const nowMs = now();
-          await sessions.insertEvent(tx, orderId, actor.id, input, payload, new Date(nowMs));
+          const inserted = await sessions.insertEvent(
+            tx,
+            orderId,
+            actor.id,
+            input,
+            payload,
+            new Date(nowMs),
+          );
           checkEventFits(order, input, nowMs);
           afterCommit.push(await sessions.addNurse(tx, orderId, actor.id));
           let status = order.status;
@@ -748,7 +765,7 @@ export function createSessionService(deps: {
             order.status === 'in-session';
           if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
           await moveOrderStatus(tx, orderId, order.status, status);
-          const read = await sessions.eventsUnderLock(tx, orderId);
+          const read = await sessions.eventsAfterInsert(tx, orderId, order.lastEventId, inserted);
           afterCommit.push(() =>
             ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read),
           );
@@ -764,7 +781,10 @@ export function createSessionService(deps: {
             actor.id,
             authoriser,
           );
-          const result = await recompute(tx, order, read.events);
+          const result = await recompute(tx, order, {
+            events: read.events,
+            deviations: storedDeviationsFrom(order.storedDeviationsJson),
+          });
           if (status === 'reviewed') {
             const open = await sessions.openDeviationCount(tx, orderId);
             const next = statusAfterLateEvent(status, {

@@ -1,6 +1,6 @@
 import { AlertIcon, ReloadIcon } from '../components/ui/icons';
 import { buttonClasses } from '../components/ui/button';
-import { KeptDraftNotice } from '../components/ui/kept-draft-offer';
+import { KeptDraftNotice } from '../components/ui/kept-draft-notice';
 import { StatusPanel } from '../components/ui/status-panel';
 import { paths } from '../config/paths';
 import { PlainPage } from './layout/plain-page';

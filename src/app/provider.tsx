@@ -7,9 +7,6 @@ import { setCurrentPersonId } from '../lib/current-person';
 import { clearOfflineCopies } from '../lib/offline-cache';
 import { rememberWhySessionEnded } from '../lib/session-ended';
 import { queryClient } from '../lib/query-client';
-import { orderKeys, orderQuery } from '../lib/queries/orders';
-import { protocolKeys } from '../lib/queries/protocols';
-import { sessionKeys } from '../lib/queries/sessions';
 import { CrashScreen } from './crash-screen';
 import { registerSignOutSteps } from './sign-out-steps';
 
@@ -29,7 +26,13 @@ setUnauthorizedHandler((error) => {
 // Answers fetched before the service worker took over were not kept by it. The step clock's (the
 // sessions, their orders and protocol versions, and who is signed in) are asked for again through it, so a first visit is enough to reopen the
 // clock without network. Only these: refetching a screen with a half-typed form could reset it.
-globalThis.navigator?.serviceWorker?.addEventListener('controllerchange', () => {
+// The query modules (and the schemas they parse with) load only then, not with the sign-in page.
+async function askAgainThroughServiceWorker() {
+  const [{ orderKeys, orderQuery }, { protocolKeys }, { sessionKeys }] = await Promise.all([
+    import('../lib/queries/orders'),
+    import('../lib/queries/protocols'),
+    import('../lib/queries/sessions'),
+  ]);
   const sessionOrders = queryClient
     .getQueriesData({ queryKey: sessionKeys.all() })
     .map(([queryKey]) => queryKey[1]);
@@ -44,7 +47,10 @@ globalThis.navigator?.serviceWorker?.addEventListener('controllerchange', () => 
         exact: true,
       });
   }
+}
+globalThis.navigator?.serviceWorker?.addEventListener('controllerchange', () => {
   void queryClient.invalidateQueries({ queryKey: authQueries.session().queryKey });
+  void askAgainThroughServiceWorker().catch(() => undefined);
 });
 
 export function AppProvider({ children }: { children: ReactNode }) {

@@ -1,7 +1,7 @@
 import { isRouteErrorResponse, useRouteError } from 'react-router-dom';
 import { Button, LinkButton } from '../../components/ui/button';
 import { AlertIcon, ArrowLeftIcon, ReloadIcon } from '../../components/ui/icons';
-import { KeptDraftNotice } from '../../components/ui/kept-draft-offer';
+import { KeptDraftNotice } from '../../components/ui/kept-draft-notice';
 import { StatusPanel } from '../../components/ui/status-panel';
 import { paths } from '../../config/paths';
 import { PlainPage } from '../layout/plain-page';

@@ -1,6 +1,6 @@
 import { formatUnitTime } from '../../../shared/format/figures';
 import { unitTimeZone } from '../../config/unit-time-zone';
-import { useDraftsKeptInThisPage, type FormDraftControl } from '../../lib/form-draft';
+import type { FormDraftControl } from '../../lib/form-draft';
 import { Button } from './button';
 import { InfoIcon } from './icons';
 
@@ -34,17 +34,5 @@ export function KeptDraftOffer<T>({ draft, what }: { draft: FormDraftControl<T>;
         </Button>
       </div>
     </div>
-  );
-}
-
-/** For the crash screens: says, only when it is true, that what was typed waits after a reload. */
-export function KeptDraftNotice() {
-  const kept = useDraftsKeptInThisPage();
-  if (!kept) return null;
-  return (
-    <p className="mt-2 font-medium">
-      What you had typed and not saved was kept as a draft in this browser: reload, open the same
-      form, and choose Restore.
-    </p>
   );
 }
