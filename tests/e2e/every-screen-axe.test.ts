@@ -83,6 +83,7 @@ const screens: { name: string; path: () => string; roles: Role[] }[] = [
   { name: 'Audit trail', path: () => '/audit-trail', roles: ['auditor'] },
   { name: 'People', path: () => '/people', roles: ['admin'] },
   { name: 'Outbox', path: () => '/outbox', roles: ['admin'] },
+  { name: 'Cancel orders', path: () => '/order-cancelling', roles: ['admin'] },
 ];
 
 /**
