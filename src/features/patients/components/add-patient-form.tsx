@@ -11,7 +11,6 @@ import { TextAreaField } from '../../../components/ui/text-area-field';
 import { paths } from '../../../config/paths';
 import { patientQueries } from '../api/patient-queries';
 import { useDebouncedValue } from '../hooks/use-debounced-value';
-import { formatCalendarDate } from './unit-dates';
 import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
 import { overDefaults, useFormDraft } from '../../../lib/form-draft';
 import { z } from 'zod';
@@ -31,7 +30,7 @@ import {
   unplacedFieldProblems,
 } from '../../../lib/form-errors';
 import { useCreatePatient } from '../hooks/use-create-patient';
-import { parseUnitDate, unitDatePattern } from '../../../lib/unit-times';
+import { formatCalendarDate, parseUnitDate, unitDatePattern } from '../../../lib/unit-times';
 
 type PatientFormValues = {
   recordNumber: string;

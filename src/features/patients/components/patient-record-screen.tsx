@@ -9,7 +9,8 @@ import { unitTimeZone } from '../../../config/unit-time-zone';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { patientQueries } from '../api/patient-queries';
 import { EyeHistory } from './eye-history';
-import { ageInYears, formatCalendarDate } from './unit-dates';
+import { formatCalendarDate } from '../../../lib/unit-times';
+import { ageInYears } from './unit-dates';
 
 export function PatientRecordScreen({
   patientId,
