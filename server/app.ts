@@ -2,6 +2,7 @@ import 'reflect-metadata';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import cookieParser from 'cookie-parser';
+import { setUnitLocale } from '../shared/format/figures';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { createAuditRepository } from './audit/repository';
@@ -93,6 +94,8 @@ export function createApp({
   clientDir,
   clock = systemClock,
 }: AppDependencies): Express {
+  // Every date the server writes (sheets, e-mails, refusals) is in the unit's locale.
+  setUnitLocale(config.UNIT_LOCALE);
   const app = express();
   app.disable('x-powered-by');
   // API answers are never cached (Cache-Control: no-store), so hashing each body for an ETag is

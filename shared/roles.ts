@@ -23,6 +23,8 @@ export const capabilities = [
   'orders.read',
   'orders.write',
   'orders.cancel',
+  /** The list of orders that may still be cancelled, with only what identifies each. */
+  'orders.list-cancellable',
   'dose-checks.perform',
   'preparations.record',
   'outbox.read',

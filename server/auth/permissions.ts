@@ -73,6 +73,8 @@ export const roleCapabilities: Record<Role, readonly Capability[]> = {
     'patients.manage',
     'patients.read',
     'orders.cancel',
+    // Not orders.read: the cancelling screen lists open orders by identity, never their figures.
+    'orders.list-cancellable',
     'outbox.read',
     'audit.verify',
     // The device lead's duty sits with the administrator: the register, lenses and checks.
@@ -94,6 +96,11 @@ export function mayCancelOrder(
 ): boolean {
   if (actor.roles.includes('admin')) return true;
   return order.signedById === null ? order.createdById === actor.id : order.signedById === actor.id;
+}
+
+/** Whether these roles may read an order's clinical page (its inputs, plan and answers). */
+export function mayReadOrders(roles: readonly Role[]): boolean {
+  return roles.some((role) => roleCapabilities[role].includes('orders.read'));
 }
 
 export function capabilitiesOf(roles: readonly Role[]): Capability[] {

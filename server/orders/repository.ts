@@ -217,6 +217,15 @@ export function createOrderRepository(dataSource: DataSource) {
         take: 200,
       }),
 
+    /** The newest orders in these statuses (the administrator's cancelling list). */
+    newestByStatus: (statuses: readonly OrderStatus[], take: number) =>
+      orders.find({
+        where: { status: In(statuses) },
+        relations: withParts,
+        order: { createdAt: 'DESC', id: 'DESC' },
+        take,
+      }),
+
     doseChecksFor: (orderId: number, tx?: Transaction) =>
       (managerOf(tx)?.getRepository(DoseCheck) ?? dataSource.getRepository(DoseCheck)).find({
         where: { orderId },

@@ -62,6 +62,15 @@ export function orderRoutes(orders: OrderService): RouteSpec[] {
       },
     },
     {
+      // Before /orders/:id too. Identity only: an administrator holds this but not orders.read.
+      method: 'get',
+      path: '/orders/cancellable',
+      access: 'orders.list-cancellable',
+      handler: async (_req, res) => {
+        res.json(await orders.listCancellable());
+      },
+    },
+    {
       method: 'get',
       path: '/orders/:id',
       access: 'orders.read',

@@ -24,6 +24,7 @@ import {
 } from '../../shared/orders/weight-change';
 import type { DosePlan } from '../../shared/schemas/calculation';
 import type {
+  CancellableOrder,
   AmendOrder,
   OpenOrderFact,
   OrderDetail,
@@ -43,7 +44,7 @@ import type { ProtocolForUse } from '../protocols/repository';
 import type { TreatmentOrder } from '../db/entities/treatment-order';
 import type { User } from '../db/entities/user';
 import { isDuplicateKey } from '../db/errors';
-import { mayCancelOrder } from '../auth/permissions';
+import { mayCancelOrder, mayReadOrders } from '../auth/permissions';
 import type { Transaction, UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox-repository';
@@ -807,7 +808,36 @@ export function createOrderService(deps: {
         ipAddress: actor.ipAddress,
         details: { from: order.status, reason: reason.trim(), patientId: order.patientId },
       });
-      return detail(await mustFind(id), actor);
+      const cancelled = await mustFind(id);
+      // An administrator may cancel but not read orders: the answer stays as narrow as the list.
+      if (!mayReadOrders(actor.roles))
+        return { id, status: 'cancelled' as const, version: cancelled.version };
+      return detail(cancelled, actor);
+    },
+
+    /**
+     * The orders that may still be cancelled, newest first, with only what identifies each (for
+     * the administrator's cancelling screen: no inputs, figures or answers).
+     */
+    async listCancellable(): Promise<{ orders: CancellableOrder[] }> {
+      const rows = await orders.newestByStatus(cancellableStatuses, 200);
+      return {
+        orders: rows.map((o) => ({
+          id: o.id,
+          version: o.version,
+          eye: o.eye,
+          kind: o.protocolVersion.kind,
+          patient: {
+            recordNumber: o.patient.recordNumber,
+            givenName: o.patient.givenName,
+            familyName: o.patient.familyName,
+          },
+          createdAt: o.createdAt.toISOString(),
+          signedAt: o.signedAt?.toISOString() ?? null,
+          createdBy: person(o.createdBy),
+          signedBy: person(o.signedBy),
+        })),
+      };
     },
 
     /**

@@ -1,5 +1,6 @@
 import { treatmentStatuses } from '../../shared/orders/lifecycle';
 import type { WeightChangeRule } from '../../shared/orders/weight-change';
+import { formatCalendarDate } from '../../shared/format/figures';
 import { reasonOfSubstanceProblem } from '../../shared/orders/reason-of-substance';
 import type {
   CreatePatient,
@@ -109,7 +110,7 @@ export function createPatientService(
             [
               {
                 path: input.duplicateConfirmed ? 'duplicateReason' : 'duplicateConfirmed',
-                message: `a patient named ${input.givenName} ${input.familyName}, born ${input.dateOfBirth}, exists already (record ${records}): ${weak}`,
+                message: `a patient named ${input.givenName} ${input.familyName}, born ${formatCalendarDate(input.dateOfBirth)}, exists already (record ${records}): ${weak}`,
               },
             ],
           );

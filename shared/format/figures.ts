@@ -122,27 +122,51 @@ export function zoneAbbreviation(at: DateTime): string {
 const zoneNames = new Map<string, string>();
 
 /**
- * How a moment on the unit's clock reads; every style but 'day' and 'date' carries the zone's
- * short name, because a patient may read the sheet, and a colleague the record, after the clocks
- * have changed:
+ * The unit's locale (UNIT_LOCALE; en-GB, day/month/year, for the demo unit): the one setting
+ * every date on a screen, sheet, e-mail or refusal is written in, never the browser's default.
+ * The server sets it from its config at start; the client from `GET /api/unit` before it renders.
+ */
+let unitLocale = 'en-GB';
+
+/** Sets the unit's locale; an unknown tag leaves the one in use. */
+export function setUnitLocale(locale: string): void {
+  try {
+    if (Intl.DateTimeFormat.supportedLocalesOf([locale]).length === 1) unitLocale = locale;
+  } catch {
+    // An invalid tag leaves the locale as it was.
+  }
+}
+
+/** The unit's locale, e.g. "en-GB". */
+export function currentUnitLocale(): string {
+  return unitLocale;
+}
+
+/**
+ * How a moment on the unit's clock reads, in the unit's locale; every style but 'day' and
+ * 'date' carries the zone's short name, because a patient may read the sheet, and a colleague
+ * the record, after the clocks have changed. In the demo unit's en-GB:
  * - 'sheet': "Thursday 3 December 2026, 14:05 WET" (discharge sheet, e-mails, refusals);
- * - 'record': "3 Dec 2026, 14:05 WET" (screens, lists and the printed dose record);
+ * - 'record': "03/12/2026, 14:05 WET" (screens, lists and the printed dose record);
  * - 'short': "14:05 WET";
  * - 'clock': "14:05:09 WET", to the second (taps and events in a record);
  * - 'day': "Thursday 3 December 2026";
- * - 'date': "3 Dec 2026";
+ * - 'date': "03/12/2026";
  * - 'iso': "2026-12-03T14:05:09.000+00:00", ISO 8601 with the zone's offset (CSV exports).
  */
 export type UnitTimeStyle = 'sheet' | 'record' | 'short' | 'clock' | 'day' | 'date' | 'iso';
 
-const unitTimeFormats: Record<Exclude<UnitTimeStyle, 'iso'>, string> = {
-  sheet: 'cccc d LLLL yyyy, HH:mm',
-  record: 'd LLL yyyy, HH:mm',
-  short: 'HH:mm',
-  clock: 'HH:mm:ss',
-  day: 'cccc d LLLL yyyy',
-  date: 'd LLL yyyy',
-};
+/**
+ * How a calendar day is written: in the locale's figures ('date', "03/12/2026" in en-GB), or in
+ * words ('day', "Thursday 3 December 2026": day before month whatever the locale, so no reader
+ * mistakes it, with the locale's names; a fixed pattern, so every ICU writes it alike).
+ */
+function dayText(at: DateTime, style: 'date' | 'day'): string {
+  const local = at.setLocale(unitLocale);
+  return style === 'date'
+    ? local.toLocaleString(DateTime.DATE_SHORT)
+    : local.toFormat('cccc d LLLL yyyy');
+}
 
 /** A stored instant (ISO 8601) on the clock of the unit's IANA zone; an unreadable instant prints as given. */
 export function formatUnitTime(
@@ -151,9 +175,35 @@ export function formatUnitTime(
   style: UnitTimeStyle,
 ): string {
   if (!iso) return noFigure;
-  const at = DateTime.fromISO(iso, { zone: 'utc' }).setZone(zone).setLocale('en-GB');
+  const at = DateTime.fromISO(iso, { zone: 'utc' }).setZone(zone);
   if (!at.isValid) return iso;
   if (style === 'iso') return at.toISO({ suppressMilliseconds: false, includeOffset: true });
-  const text = at.toFormat(unitTimeFormats[style]);
-  return style === 'day' || style === 'date' ? text : `${text} ${zoneAbbreviation(at)}`;
+  if (style === 'day' || style === 'date') return dayText(at, style);
+  const time = `${at.toFormat(style === 'clock' ? 'HH:mm:ss' : 'HH:mm')} ${zoneAbbreviation(at)}`;
+  if (style === 'short' || style === 'clock') return time;
+  return `${dayText(at, style === 'sheet' ? 'day' : 'date')}, ${time}`;
+}
+
+/**
+ * A calendar date that is not an instant (YYYY-MM-DD, such as a date of birth) in the unit's
+ * locale, read against a wristband exactly as written: "14/03/1956" ('date') or
+ * "Wednesday 14 March 1956" ('day'). An unreadable date prints as given.
+ */
+export function formatCalendarDate(
+  isoDate: string | null | undefined,
+  style: 'date' | 'day' = 'date',
+): string {
+  if (!isoDate) return noFigure;
+  const at = DateTime.fromISO(isoDate.slice(0, 10), { zone: 'utc' });
+  return at.isValid ? dayText(at, style) : isoDate;
+}
+
+/** A calendar month (YYYY-MM) in the unit's locale: "Nov 2026" ('short') or "November 2026". */
+export function formatUnitMonth(month: string, style: 'short' | 'long' = 'short'): string {
+  const at = DateTime.fromFormat(month, 'yyyy-MM', { zone: 'utc' });
+  return at.isValid
+    ? at
+        .setLocale(unitLocale)
+        .toLocaleString({ month: style === 'short' ? 'short' : 'long', year: 'numeric' })
+    : month;
 }

@@ -251,6 +251,34 @@ export const orderSummarySchema = z.object({
 });
 export type OrderSummary = z.infer<typeof orderSummarySchema>;
 
+/**
+ * GET /orders/cancellable: an order not yet in its session, with only what identifies it. It is
+ * what an administrator (who may cancel but not read orders) is shown: no figures, no answers.
+ */
+export const cancellableOrderSchema = z.object({
+  id: z.number(),
+  /** The row version: send it back with the cancellation. */
+  version: z.number(),
+  eye: z.enum(eyes),
+  kind: z.enum(['pdt', 'cxl']),
+  patient: patientSchema.pick({ recordNumber: true, givenName: true, familyName: true }),
+  createdAt: z.string(),
+  signedAt: z.string().nullable(),
+  createdBy: person,
+  signedBy: person,
+});
+export type CancellableOrder = z.infer<typeof cancellableOrderSchema>;
+export const cancellableOrdersResponseSchema = z.object({
+  orders: z.array(cancellableOrderSchema),
+});
+
+/** What a cancellation answers to someone who may cancel orders but not read them. */
+export const cancelledOrderNoticeSchema = z.object({
+  id: z.number(),
+  status: z.literal('cancelled'),
+  version: z.number(),
+});
+
 export const orderDetailSchema = orderSummarySchema.extend({
   /** The row version: send it back with an edit, a signature or an amendment. */
   version: z.number(),

@@ -204,6 +204,14 @@ export const router = createBrowserRouter([
             ),
           },
           {
+            path: paths.orderCancelling.path,
+            errorElement: <RouteErrorScreen framed={false} />,
+            lazy: screen(
+              () => import('./routes/order-cancelling'),
+              (m) => m.OrderCancellingRoute,
+            ),
+          },
+          {
             path: paths.deviations.path,
             errorElement: <RouteErrorScreen framed={false} />,
             lazy: screen(

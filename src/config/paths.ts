@@ -101,6 +101,11 @@ export const paths = {
     /** The printable discharge sheet of one order's session (and the e-mail to the patient). */
     getHref: (id: number | string) => `/orders/${encodeURIComponent(String(id))}/discharge`,
   },
+  orderCancelling: {
+    path: '/order-cancelling',
+    /** The administrator's list of orders that may still be cancelled (identity only). */
+    getHref: () => '/order-cancelling',
+  },
   lightCalculator: {
     path: '/light-calculator',
     getHref: () => '/light-calculator',

@@ -1,3 +1,5 @@
+import { setUnitLocale } from '../../shared/format/figures';
+
 /**
  * The unit's IANA time zone. The server stores times in UTC; screens show them in this zone, so
  * a time on the screen is the time on the ward clock whatever the device's own setting.
@@ -9,21 +11,11 @@ export let unitTimeZone = 'Europe/Lisbon';
 /** How the zone is named beside a time on screen, e.g. "09:05 (Lisbon time)". */
 export let unitTimeZoneLabel = 'Lisbon time';
 
-/**
- * The unit's locale (the server's UNIT_LOCALE): dates are entered and shown in its order
- * (day/month/year for the demo unit's en-GB), never in the browser's default.
- */
-export let unitLocale = 'en-GB';
-
 /** Called once at start-up with the server's setting. */
 export function applyServerTimeZone(zone: string, locale?: string): void {
-  if (locale) {
-    try {
-      if (Intl.DateTimeFormat.supportedLocalesOf([locale]).length === 1) unitLocale = locale;
-    } catch {
-      // An unknown tag leaves the built-in default.
-    }
-  }
+  // The unit's locale (UNIT_LOCALE): dates are entered and shown in its order (day/month/year
+  // for the demo unit's en-GB), never in the browser's default. One home: shared/format/figures.ts.
+  if (locale) setUnitLocale(locale);
   try {
     new Intl.DateTimeFormat('en', { timeZone: zone });
   } catch {

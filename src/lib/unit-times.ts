@@ -1,6 +1,17 @@
 import { DateTime } from 'luxon';
-import { formatDuration, formatQuantity, formatUnitTime } from '../../shared/format/figures';
-import { unitLocale, unitTimeZone } from '../config/unit-time-zone';
+import {
+  currentUnitLocale,
+  formatDuration,
+  formatQuantity,
+  formatUnitTime,
+} from '../../shared/format/figures';
+import { unitTimeZone } from '../config/unit-time-zone';
+
+/**
+ * A calendar date that is not an instant (a date of birth, a vial's expiry) in the unit's locale:
+ * "14/03/1956" for the demo unit. The one formatter is shared/format/figures.ts's.
+ */
+export { formatCalendarDate } from '../../shared/format/figures';
 
 /** A stored instant as the unit's wall clock with the zone's short name, e.g. "7 Nov 2026, 10:05 WET". */
 export function formatUnitDateTime(iso: string | null | undefined): string {
@@ -10,19 +21,6 @@ export function formatUnitDateTime(iso: string | null | undefined): string {
 /** The unit's calendar date of an instant, e.g. "7 Nov 2026". */
 export function formatUnitDate(iso: string | null | undefined): string {
   return formatUnitTime(iso, unitTimeZone, 'date');
-}
-
-/**
- * The unit's way of writing a calendar date in figures (the demo unit writes day/month/year), for
- * a date that is not an instant: a date of birth is read against a wristband exactly as written.
- */
-export const unitDateFigures = 'dd/MM/yyyy';
-
-/** A calendar date (YYYY-MM-DD) in the unit's figures, e.g. "14/03/1956". */
-export function formatCalendarFigures(date: string | null | undefined): string {
-  if (!date) return '—';
-  const day = DateTime.fromISO(date, { zone: 'utc' });
-  return day.isValid ? day.toFormat(unitDateFigures) : date;
 }
 
 /** The unit's wall-clock time to the second with the zone's short name, e.g. "10:24:00 WET". */
@@ -49,19 +47,9 @@ export function formatFigure(
   return formatQuantity(value, unit ?? '', digits);
 }
 
-/**
- * A calendar date (YYYY-MM-DD, such as a date of birth) as the unit writes it: "03/12/1950" in
- * the demo unit's en-GB (day/month/year), whatever the browser's own locale.
- */
-export function formatUnitCalendarDate(isoDate: string | null | undefined): string {
-  if (!isoDate) return '—';
-  const at = DateTime.fromISO(isoDate.slice(0, 10), { zone: 'utc' });
-  return at.isValid ? at.setLocale(unitLocale).toLocaleString(DateTime.DATE_SHORT) : isoDate;
-}
-
 /** The pattern a person types a date in for the unit's locale: "DD/MM/YYYY" for en-GB. */
 export function unitDatePattern(): string {
-  const parts = new Intl.DateTimeFormat(unitLocale, {
+  const parts = new Intl.DateTimeFormat(currentUnitLocale(), {
     day: '2-digit',
     month: '2-digit',
     year: 'numeric',

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { formatUnitCalendarDate, parseUnitDate, unitDatePattern } from '../../src/lib/unit-times';
+import { formatCalendarDate, parseUnitDate, unitDatePattern } from '../../src/lib/unit-times';
 
 // The demo unit's locale is en-GB: day/month/year. No clinical figures here.
 
 describe('a date in the unit’s locale', () => {
   it('is written day/month/year for en-GB, whatever the browser’s own locale', () => {
     expect(unitDatePattern()).toBe('DD/MM/YYYY');
-    expect(formatUnitCalendarDate('1961-07-21')).toBe('21/07/1961');
+    expect(formatCalendarDate('1961-07-21')).toBe('21/07/1961');
   });
 
   it('is read day first, with / . or - between the parts, and as YYYY-MM-DD', () => {

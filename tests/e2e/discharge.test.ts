@@ -141,7 +141,7 @@ describe('the nurse gives the discharge sheet after a PDT session', () => {
     const sheet = page.getByRole('article');
     const sheetText = await sheet.innerText();
     expect(sheetText).toContain('Casimir Brightwater');
-    expect(sheetText).toContain('21 July 1961');
+    expect(sheetText).toContain('21/07/1961');
     expect(sheetText).toContain('LEFT EYE');
     expect(sheetText).toContain('Marram Point Eye Unit');
     const drip = page.getByRole('row', { name: /Medicine by drip into a vein/ });

@@ -88,6 +88,7 @@ const screens: { name: string; path: () => string; roles: Role[] }[] = [
   { name: 'Stock', path: () => '/stock', roles: ['pharmacist'] },
   { name: 'Recall', path: () => '/recall', roles: ['pharmacist'] },
   { name: 'Drug use', path: () => '/reports/drug-use', roles: ['pharmacist'] },
+  { name: 'Cancel orders', path: () => '/order-cancelling', roles: ['admin'] },
 ];
 
 /**

@@ -174,6 +174,74 @@ describe('the order form tells the truth before signing', () => {
   });
 });
 
+describe('an administrator cancels an order without reading it', () => {
+  it('lists the open order by identity on a tablet, asks a reason of substance, and the order leaves the list', async () => {
+    const { page: clinician } = await clinicianPage();
+    const patient = await newPatient(clinician, 'Harrowgate');
+    const created = await clinician.request.post(`${ctx.baseUrl}/api/orders`, {
+      data: order(patient.id),
+    });
+    const draft = (await created.json()).order;
+    const signed = await clinician.request.post(`${ctx.baseUrl}/api/orders/${draft.id}/signature`, {
+      data: { password: demoPassword, meaning: 'ordered', version: draft.version },
+    });
+    expect(signed.status()).toBe(200);
+
+    const context = await ctx.browser.newContext({ viewport: { width: 1024, height: 768 } });
+    const page = await context.newPage();
+    const problems = watchPage(page, ctx.baseUrl);
+    await signInThroughForm(page, ctx.baseUrl, 'admin@demo.luxtempo.example', demoPassword);
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Cancel orders' })
+      .click();
+    const row = page
+      .getByRole('list', { name: 'Open orders' })
+      .getByRole('listitem')
+      .filter({ hasText: `Order ${draft.id} ·` });
+    await expect.poll(() => row.count()).toBe(1);
+    const text = await row.innerText();
+    expect(text).toContain(patient.recordNumber);
+    expect(text).toContain('Right eye');
+    expect(text).toContain('Photodynamic therapy (PDT)');
+    // Signed today, written in the unit's figures (day/month/year), not the browser's words.
+    expect(text).toMatch(/Signed by .+, \d{2}\/\d{2}\/\d{4}, \d{2}:\d{2}/);
+    // Identity only: no figures of the plan and no way to the order's clinical page.
+    expect(text).not.toMatch(/mg|mL|kg|BSA/);
+    expect(await row.getByRole('link').count()).toBe(0);
+    const cancel = row.getByRole('button', { name: `Cancel order ${draft.id}` });
+    const box = await cancel.boundingBox();
+    expect(box && box.x + box.width <= 1024 && box.x >= 0).toBe(true);
+    expect(await accessibilityViolations(page)).toEqual([]);
+
+    await cancel.click();
+    const dialog = page.getByRole('dialog', { name: `Cancel order ${draft.id}` });
+    await dialog.getByLabel('Reason for cancelling (required)').fill('admin cancel');
+    await dialog.getByRole('button', { name: 'Cancel this order' }).click();
+    await expect
+      .poll(() => dialog.innerText())
+      .toMatch(/at least 15 characters and 3 different words/);
+    await dialog
+      .getByLabel('Reason for cancelling (required)')
+      .fill('Clinic closed by the fire alarm; the consultant asked for a new date.');
+    await dialog.getByRole('button', { name: 'Cancel this order' }).click();
+    const outcome = page.getByRole('status').filter({ hasText: `Order ${draft.id} is cancelled` });
+    await expect.poll(() => outcome.count()).toBe(1);
+    await expect.poll(() => row.count()).toBe(0);
+    // The server holds the line: the cancelled order is stored, and still not readable to the admin.
+    expect((await page.request.get(`${ctx.baseUrl}/api/orders/${draft.id}`)).status()).toBe(403);
+    const stored = await clinician.request.get(`${ctx.baseUrl}/api/orders/${draft.id}`);
+    expect((await stored.json()).order).toMatchObject({
+      status: 'cancelled',
+      cancellation: {
+        reason: 'Clinic closed by the fire alarm; the consultant asked for a new date.',
+      },
+    });
+    expect(problems).toEqual([]);
+    await context.close();
+  });
+});
+
 describe('a possible duplicate patient', () => {
   it('is shown with a link before saving, and saved only with the confirmation and a reason', async () => {
     const { page, problems } = await clinicianPage();

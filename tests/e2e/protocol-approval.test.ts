@@ -181,6 +181,17 @@ describe('protocol drafts', () => {
     const halfTime = options.filter((o) => o.startsWith(protocolTitle));
     expect(halfTime[0]).toBe(`${protocolTitle} — version ${draft}`);
     expect(halfTime.at(-1)).toMatch(/version 1 \(superseded by version \d+; needs a reason\)/);
+    // Choosing the protocol chooses its newest version: the protocol's one entry among the
+    // treatments is the new version; every older one waits apart, marked as needing a reason.
+    const offered = select.locator('optgroup[label="Photodynamic therapy"] option', {
+      hasText: protocolTitle,
+    });
+    expect(await offered.allInnerTexts()).toEqual([`${protocolTitle} — version ${draft}`]);
+    const apart = await select
+      .locator('optgroup[label^="Superseded versions"] option', { hasText: protocolTitle })
+      .allInnerTexts();
+    expect(apart.length).toBeGreaterThan(0);
+    for (const text of apart) expect(text).toMatch(/needs a reason/);
     await select.selectOption('pdt-half-time@1');
     const reason = ordering.page.getByLabel('Reason for using the superseded version (required)');
     await reason.waitFor();

@@ -33,7 +33,15 @@ const expectedNavigation: Record<string, string[]> = {
     'Trends',
     'Audit trail',
   ],
-  admin: ['Today', 'Patients', 'Protocols', 'Light calculator', 'People', 'Outbox'],
+  admin: [
+    'Today',
+    'Patients',
+    'Protocols',
+    'Light calculator',
+    'People',
+    'Cancel orders',
+    'Outbox',
+  ],
   'charge-nurse': [
     'Today',
     'Orders',
@@ -41,6 +49,7 @@ const expectedNavigation: Record<string, string[]> = {
     'Protocols',
     'Light calculator',
     'People',
+    'Cancel orders',
     'Outbox',
   ],
 };

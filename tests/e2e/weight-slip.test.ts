@@ -137,7 +137,7 @@ describe('a weight typed in the wrong unit', () => {
 
     await page.getByRole('button', { name: 'Sign', exact: true }).click();
     const dialog = page.getByRole('dialog', { name: `Sign order ${orderId}` });
-    await expect.poll(() => dialog.innerText()).toContain('21 Jul 1961');
+    await expect.poll(() => dialog.innerText()).toContain('21/07/1961');
     const dialogText = await dialog.innerText();
     expect(dialogText).toContain('92 lb (41.7 kg)');
     expect(dialogText).toContain('12.5 kg/m²');

@@ -166,6 +166,88 @@ describe('cancelling an order before its session', () => {
     expect((await stored(signed.id)).status).toBe('cancelled');
   });
 
+  it('an administrator lists open orders by identity only, cancels one, and still cannot read it', async () => {
+    const patient = await createTestPatient(ctx);
+    const signed = (await sign(await draft(pdtOrder(patient.id)))).body.order;
+    const list = await adminAgent.get('/api/orders/cancellable');
+    expect(list.status).toBe(200);
+    const row = (list.body.orders as { id: number }[]).find((o) => o.id === signed.id);
+    // Only what identifies the order: no inputs, plan, answers or reasons.
+    expect(row).toEqual({
+      id: signed.id,
+      version: signed.version,
+      eye: 'right',
+      kind: 'pdt',
+      patient: {
+        recordNumber: patient.recordNumber,
+        givenName: expect.any(String),
+        familyName: expect.any(String),
+      },
+      createdAt: expect.any(String),
+      signedAt: expect.any(String),
+      createdBy: { id: clinician.id, displayName: expect.any(String) },
+      signedBy: { id: clinician.id, displayName: expect.any(String) },
+    });
+    // The list is not a way in to the clinical page, before or after the cancellation.
+    expect((await adminAgent.get(`/api/orders/${signed.id}`)).status).toBe(403);
+    expect((await adminAgent.get(`/api/orders/${signed.id}/session`)).status).toBe(403);
+    expect((await adminAgent.get('/api/orders')).status).toBe(403);
+
+    // The same rule of substance as the signer's cancel; nothing stored when refused.
+    const weak = await adminAgent
+      .post(`/api/orders/${signed.id}/cancellation`)
+      .send({ reason: 'admin', version: signed.version });
+    expect(weak.status).toBe(400);
+    expect(weak.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['reason']);
+    expect((await stored(signed.id)).status).toBe('signed');
+
+    const res = await adminAgent
+      .post(`/api/orders/${signed.id}/cancellation`)
+      .send({ reason: goodCancelReason, version: signed.version });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.order).toEqual({
+      id: signed.id,
+      status: 'cancelled',
+      version: expect.any(Number),
+    });
+    expect(await stored(signed.id)).toMatchObject({
+      status: 'cancelled',
+      cancelReason: goodCancelReason,
+    });
+    expect(await auditActions(signed.id, 'order.cancelled')).toBe(1);
+    expect((await adminAgent.get(`/api/orders/${signed.id}`)).status).toBe(403);
+    const after = (await adminAgent.get('/api/orders/cancellable')).body.orders as {
+      id: number;
+    }[];
+    expect(after.map((o) => o.id)).not.toContain(signed.id);
+  });
+
+  it('the administrator’s list leaves out an order whose session has started', async () => {
+    const order = await preparedPdtOrder(ctx, {
+      clinician: [clinicianAgent, clinician],
+      pharmacist: pharmacistAgent,
+    });
+    const listed = async () =>
+      ((await adminAgent.get('/api/orders/cancellable')).body.orders as { id: number }[]).map(
+        (o) => o.id,
+      );
+    expect(await listed()).toContain(order.id);
+    const start = await nurseAgent.post(`/api/orders/${order.id}/session-events`).send({
+      idempotencyKey: randomUUID(),
+      clientTime: new Date().toISOString(),
+      type: 'session-started',
+      checks: {
+        patientIdentity: true,
+        treatmentEye: true,
+        consent: true,
+        eyewear: true,
+        deviceSettings: true,
+      },
+    });
+    expect(start.status, JSON.stringify(start.body)).toBeLessThan(300);
+    expect(await listed()).not.toContain(order.id);
+  });
+
   it('a running session’s order cannot be cancelled, nor a cancelled one again', async () => {
     const order = await preparedPdtOrder(ctx, {
       clinician: [clinicianAgent, clinician],

@@ -47,6 +47,7 @@ const expected: Record<string, 'public' | Role[]> = {
   'GET /api/orders': ['clinician', 'nurse', 'pharmacist', 'auditor'],
   'POST /api/orders': ['clinician'],
   'GET /api/orders/signing-facts': ['clinician'],
+  'GET /api/orders/cancellable': ['admin'],
   'GET /api/orders/:id': ['clinician', 'nurse', 'pharmacist', 'auditor'],
   'PUT /api/orders/:id': ['clinician'],
   'POST /api/orders/:id/signature': ['clinician'],

@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import { DateTime } from 'luxon';
 import type supertest from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { formatUnitTime } from '../../shared/format/figures';
@@ -422,6 +423,43 @@ describe('gate 5: tap times are bounded', () => {
         'lateEntryReason',
       ),
     ).toMatch(/cannot start, end or withdraw/);
+  });
+
+  it('a session that crossed midnight takes a missed drop timed before midnight as a late entry, and refuses one before its start', async () => {
+    // The server's clock at 00:10 on the unit's clock (the test app's zone, Europe/Lisbon).
+    const midnightMs = DateTime.fromMillis(Date.now(), { zone: 'Europe/Lisbon' })
+      .plus({ days: 1 })
+      .startOf('day')
+      .toMillis();
+    serverClock.offsetMs = midnightMs + 10 * 60_000 - Date.now();
+    const patient = await createTestPatient(ctx);
+    const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
+    const at = timeline(30); // 23:40, the evening before
+    await postAll(order.id, [
+      at(0, { type: 'session-started', checks: allChecks }),
+      at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
+    ]);
+    const reason = 'Drop given at the bedside; the tablet was out of reach.';
+    const beforeMidnight = at(900, {
+      type: 'drop-given',
+      stepId: 'riboflavin-soak',
+      lateEntryReason: reason,
+    });
+    expect(new Date(beforeMidnight.clientTime as string).getTime()).toBeLessThan(midnightMs);
+    const taken = await post(order.id, beforeMidnight);
+    expect(taken.status, JSON.stringify(taken.body)).toBe(201);
+    expect(taken.body.record.lateEntries).toEqual([
+      expect.objectContaining({ type: 'drop-given', reason }),
+    ]);
+    // The evening before, but before the session started: refused, and nothing stored.
+    const beforeStart = at(-600, {
+      type: 'drop-given',
+      stepId: 'riboflavin-soak',
+      lateEntryReason: reason,
+    });
+    refusedNaming(await post(order.id, beforeStart), 'clientTime', 400);
+    expect(await storedKeys(order.id)).toContain(beforeMidnight.idempotencyKey);
+    expect(await storedKeys(order.id)).not.toContain(beforeStart.idempotencyKey);
   });
 
   it('in a running session a late-entry reason is refused on anything but a missed step start or end, drop or reading', async () => {

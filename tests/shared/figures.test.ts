@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { formatDuration, formatQuantity, formatUnitTime } from '../../shared/format/figures';
+import {
+  formatCalendarDate,
+  formatDuration,
+  formatQuantity,
+  formatUnitMonth,
+  formatUnitTime,
+  setUnitLocale,
+} from '../../shared/format/figures';
 import { durationText } from '../../shared/session/deviations';
 
 // No clinical figures here: the cases are plain arithmetic on seconds and the tz database's clock
@@ -148,10 +155,10 @@ describe('a moment on the unit clock, with the zone’s short name', () => {
 describe('a unit time in each style, in a zone the config may name', () => {
   it('names BST after the spring change in London and GMT before it, in every style that shows a time', () => {
     expect(formatUnitTime('2026-03-29T00:30:00Z', 'Europe/London', 'record')).toBe(
-      '29 Mar 2026, 00:30 GMT',
+      '29/03/2026, 00:30 GMT',
     );
     expect(formatUnitTime('2026-03-29T01:30:00Z', 'Europe/London', 'record')).toBe(
-      '29 Mar 2026, 02:30 BST',
+      '29/03/2026, 02:30 BST',
     );
     expect(formatUnitTime('2026-03-29T01:30:09Z', 'Europe/London', 'clock')).toBe('02:30:09 BST');
     expect(formatUnitTime('2026-03-29T01:30:09Z', 'Europe/London', 'short')).toBe('02:30 BST');
@@ -162,8 +169,30 @@ describe('a unit time in each style, in a zone the config may name', () => {
 
   it('prints a calendar date without a zone, on the unit’s day rather than UTC’s', () => {
     // 23:30 UTC on 3 December is already 4 December in Tokyo (UTC+9).
-    expect(formatUnitTime('2026-12-03T23:30:00Z', 'Asia/Tokyo', 'date')).toBe('4 Dec 2026');
-    expect(formatUnitTime('2026-12-03T23:30:00Z', 'Europe/Lisbon', 'date')).toBe('3 Dec 2026');
+    expect(formatUnitTime('2026-12-03T23:30:00Z', 'Asia/Tokyo', 'date')).toBe('04/12/2026');
+    expect(formatUnitTime('2026-12-03T23:30:00Z', 'Europe/Lisbon', 'date')).toBe('03/12/2026');
+  });
+
+  it('writes dates in the unit’s locale, whatever the machine’s: day/month/year for en-GB, month first for en-US', () => {
+    try {
+      setUnitLocale('en-US');
+      expect(formatUnitTime('2026-12-03T14:05:00Z', 'Europe/Lisbon', 'record')).toBe(
+        '12/3/2026, 14:05 WET',
+      );
+      expect(formatCalendarDate('1956-03-14')).toBe('3/14/1956');
+      setUnitLocale('not a locale');
+      expect(formatCalendarDate('1956-03-14')).toBe('3/14/1956');
+    } finally {
+      setUnitLocale('en-GB');
+    }
+    expect(formatUnitTime('2026-12-03T14:05:00Z', 'Europe/Lisbon', 'record')).toBe(
+      '03/12/2026, 14:05 WET',
+    );
+    expect(formatCalendarDate('1956-03-14')).toBe('14/03/1956');
+    expect(formatCalendarDate('1956-03-14', 'day')).toBe('Wednesday 14 March 1956');
+    expect(formatCalendarDate(null)).toBe('—');
+    expect(formatUnitMonth('2026-11')).toBe('Nov 2026');
+    expect(formatUnitMonth('2026-11', 'long')).toBe('November 2026');
   });
 
   it('writes ISO 8601 with the zone’s offset for an export, the same instant as stored', () => {

@@ -1,6 +1,7 @@
 import type { ComponentType, SVGProps } from 'react';
 import type { Capability } from '../../../shared/roles';
 import {
+  CrossCircleIcon,
   LightBeamIcon,
   OutboxTrayIcon,
   PeopleIcon,
@@ -123,5 +124,11 @@ export const navItems: readonly NavItem[] = [
     icon: LightBeamIcon,
   },
   { label: 'People', to: paths.people.getHref(), capability: 'people.manage', icon: PeopleIcon },
+  {
+    label: 'Cancel orders',
+    to: paths.orderCancelling.getHref(),
+    capability: 'orders.list-cancellable',
+    icon: CrossCircleIcon,
+  },
   { label: 'Outbox', to: paths.outbox.getHref(), capability: 'outbox.read', icon: OutboxTrayIcon },
 ];

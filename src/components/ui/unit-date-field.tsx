@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { unitDatePattern, formatUnitCalendarDate, parseUnitDate } from '../../lib/unit-times';
+import { unitDatePattern, formatCalendarDate, parseUnitDate } from '../../lib/unit-times';
 import { TextField } from './text-field';
 
 type UnitDateFieldProps = {
@@ -18,14 +18,14 @@ type UnitDateFieldProps = {
  */
 export function UnitDateField({ label, hint, value, error, onChange }: UnitDateFieldProps) {
   const pattern = unitDatePattern();
-  const [text, setText] = useState(value ? formatUnitCalendarDate(value) : '');
+  const [text, setText] = useState(value ? formatCalendarDate(value) : '');
   const [shown, setShown] = useState(value);
   const [unreadable, setUnreadable] = useState(false);
   const [left, setLeft] = useState(false);
   // A value changed from outside (a cleared filter, a link) replaces what is typed.
   if (value !== shown) {
     setShown(value);
-    setText(value ? formatUnitCalendarDate(value) : '');
+    setText(value ? formatCalendarDate(value) : '');
     setUnreadable(false);
   }
   return (

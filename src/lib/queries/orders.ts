@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, type QueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import {
+  cancellableOrdersResponseSchema,
   orderDetailSchema,
   orderSummarySchema,
   type OrderDetail,
@@ -36,6 +37,8 @@ export const orderKeys = {
   list: (query: OrderListQuery) => [...orderKeys.lists(), query] as const,
   details: () => [...orderKeys.all(), 'detail'] as const,
   detail: (id: number) => [...orderKeys.details(), id] as const,
+  /** Orders that may still be cancelled, by identity only (the administrator's list). */
+  cancellable: () => [...orderKeys.lists(), 'cancellable'] as const,
   /** The patient's other open orders and recent treatments that a signature is held to. */
   signingFacts: (patientId: number) => [...orderKeys.all(), 'signing-facts', patientId] as const,
 };
@@ -64,6 +67,14 @@ export const orderListQuery = (query: OrderListQuery) =>
     placeholderData: keepPreviousData,
   });
 
+/** Orders not yet in their session, with only what identifies each (no figures, no answers). */
+export const cancellableOrdersQuery = () =>
+  queryOptions({
+    queryKey: orderKeys.cancellable(),
+    queryFn: ({ signal }) =>
+      api.get('/orders/cancellable', { schema: cancellableOrdersResponseSchema, signal }),
+  });
+
 export const orderQuery = (id: number) =>
   queryOptions({
     queryKey: orderKeys.detail(id),
@@ -82,7 +93,7 @@ export function refreshAfterOrderChange(
   order: OrderDetail | { id: number },
   alsoChanged: number[] = [],
 ): void {
-  if ('status' in order) queryClient.setQueryData(orderKeys.detail(order.id), order);
+  if ('patient' in order) queryClient.setQueryData(orderKeys.detail(order.id), order);
   else void queryClient.invalidateQueries({ queryKey: orderKeys.detail(order.id) });
   for (const id of alsoChanged) {
     void queryClient.invalidateQueries({ queryKey: orderKeys.detail(id) });

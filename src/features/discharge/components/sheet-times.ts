@@ -1,5 +1,6 @@
 import { DateTime } from 'luxon';
 import {
+  formatCalendarDate,
   formatDuration,
   formatQuantity,
   formatUnitTime,
@@ -8,10 +9,11 @@ import {
 
 /**
  * Times on the sheet are the unit's wall clock in the zone the server named, with the zone's
- * short name (WET, WEST…) because a patient may read it after the clocks have changed.
+ * short name (WET, WEST…) because a patient may read it after the clocks have changed; dates are
+ * in the unit's locale (shared/format/figures.ts).
  */
 function inZone(iso: string, zone: string): DateTime | null {
-  const at = DateTime.fromISO(iso, { zone: 'utc' }).setZone(zone).setLocale('en-GB');
+  const at = DateTime.fromISO(iso, { zone: 'utc' }).setZone(zone);
   return at.isValid ? at : null;
 }
 
@@ -38,16 +40,15 @@ export function spanText(fromIso: string, toIso: string | null, zone: string): s
   const zoned = (at: DateTime, format: string) => `${at.toFormat(format)} ${zoneAbbreviation(at)}`;
   if (!to) return `from ${zoned(from, 'HH:mm')}`;
   if (!from.hasSame(to, 'day'))
-    return `${zoned(from, 'd LLL HH:mm')} to ${zoned(to, 'd LLL HH:mm')}`;
+    return `${formatUnitTime(fromIso, zone, 'record')} to ${formatUnitTime(toIso, zone, 'record')}`;
   return zoneAbbreviation(from) === zoneAbbreviation(to)
     ? `${from.toFormat('HH:mm')} to ${zoned(to, 'HH:mm')}`
     : `${zoned(from, 'HH:mm')} to ${zoned(to, 'HH:mm')}`;
 }
 
-/** A calendar date (YYYY-MM-DD), e.g. "21 July 1961". */
+/** A calendar date (YYYY-MM-DD) in the unit's figures, e.g. "21/07/1961", as on the wristband. */
 export function birthDateText(date: string): string {
-  const day = DateTime.fromISO(date, { zone: 'utc' }).setLocale('en-GB');
-  return day.isValid ? day.toFormat('d LLLL yyyy') : date;
+  return formatCalendarDate(date);
 }
 
 /** "10 min", "59 s", "1 min 23 s": a duration as a patient reads it. */

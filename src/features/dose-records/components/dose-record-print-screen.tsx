@@ -23,7 +23,7 @@ import {
   formatFigure,
   formatOffset,
   formatUnitClock,
-  formatUnitCalendarDate,
+  formatCalendarDate,
   formatUnitDate,
   formatUnitDateTime,
 } from '../../../lib/unit-times';
@@ -204,7 +204,7 @@ export function DoseRecordPrintScreen({
           >
             {o.patient.familyName}, {o.patient.givenName} · {o.patient.recordNumber}
           </h1>
-          <p className="text-paper-800">Born {formatUnitCalendarDate(o.patient.dateOfBirth)}</p>
+          <p className="text-paper-800">Born {formatCalendarDate(o.patient.dateOfBirth)}</p>
           <p className="text-paper-800">
             Order {o.id}
             {o.revision > 1 ? ` (revision ${o.revision})` : ''} · {eyeWords[o.eye]} ·{' '}

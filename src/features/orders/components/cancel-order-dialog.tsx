@@ -4,28 +4,45 @@ import {
   minimumSubstantialReasonChars,
   minimumSubstantialReasonWords,
 } from '../../../../shared/orders/reason-of-substance';
-import type { OrderDetail } from '../../../../shared/schemas/orders';
+import type { Eye } from '../../../../shared/schemas/patients';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
 import { CrossCircleIcon } from '../../../components/ui/icons';
 import { TextAreaField } from '../../../components/ui/text-area-field';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
+import type { CancelledOrder } from '../api/cancel-order';
 import { useCancelOrder } from '../hooks/use-cancel-order';
 import { eyeWords } from './order-words';
 
+/** What identifies the order in the dialog: the detail page's order or the administrator's row. */
+export type CancelTarget = {
+  id: number;
+  version: number;
+  eye: Eye;
+  patient: { familyName: string; givenName: string; recordNumber: string };
+};
+
 type CancelOrderDialogProps = {
-  order: OrderDetail;
+  order: CancelTarget;
+  /** The treatment, as the screen names it (the protocol's title, or the kind of treatment). */
+  treatment: string;
   open: boolean;
   onDismiss: () => void;
-  onCancelled: (order: OrderDetail) => void;
+  onCancelled: (order: CancelledOrder) => void;
 };
 
 const sentence = (message: string) => message.charAt(0).toUpperCase() + message.slice(1);
 const cancelWhy = 'why the order is cancelled';
 
 /** Cancelling before the session: the reason is checked here as the server checks it. */
-export function CancelOrderDialog({ order, open, onDismiss, onCancelled }: CancelOrderDialogProps) {
+export function CancelOrderDialog({
+  order,
+  treatment,
+  open,
+  onDismiss,
+  onCancelled,
+}: CancelOrderDialogProps) {
   const cancel = useCancelOrder();
   const [reason, setReason] = useState('');
   const [reasonError, setReasonError] = useState<string | undefined>();
@@ -82,7 +99,7 @@ export function CancelOrderDialog({ order, open, onDismiss, onCancelled }: Cance
       <form onSubmit={submit} noValidate className="flex flex-col gap-4">
         <p className="rounded-lg border border-paper-200 bg-white px-4 py-3 text-paper-950">
           {order.patient.familyName}, {order.patient.givenName} · {order.patient.recordNumber} ·{' '}
-          <strong>{eyeWords[order.eye]}</strong> · {order.protocol.title}
+          <strong>{eyeWords[order.eye]}</strong> · {treatment}
         </p>
         {error && !shownBeside && (
           <Alert tone="error" title="The order was not cancelled">

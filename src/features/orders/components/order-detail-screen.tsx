@@ -485,6 +485,7 @@ export function OrderDetailScreen({
       {mayCancel && cancelling && (
         <CancelOrderDialog
           order={detail}
+          treatment={detail.protocol.title}
           open={cancelling}
           onDismiss={() => setCancelling(false)}
           onCancelled={(cancelled) => {

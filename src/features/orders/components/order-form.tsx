@@ -46,7 +46,7 @@ import { TextAreaField } from '../../../components/ui/text-area-field';
 import { paths } from '../../../config/paths';
 import { Checkbox } from '../../../components/ui/checkbox';
 import { TreatmentCautions } from './treatment-cautions';
-import { formatCalendarDate } from './unit-dates';
+import { formatUnitDate } from '../../../lib/unit-times';
 import { orderStatusWords } from '../../../components/ui/order-status-words';
 import {
   minimumSubstantialReasonChars,
@@ -105,6 +105,13 @@ function Section({
       {children}
     </section>
   );
+}
+
+/** A protocol's newest approved version: the one a new order takes unless a reason says otherwise. */
+function newestApproved<V extends { status: string; version: number }>(versions: readonly V[]) {
+  return versions
+    .filter((v) => v.status === 'approved')
+    .reduce<V | undefined>((best, v) => (best && best.version >= v.version ? best : v), undefined);
 }
 
 export function OrderForm({
@@ -298,6 +305,10 @@ export function OrderForm({
   const approved = protocolChoices.flatMap((p) =>
     p.versions.filter((v) => v.status === 'approved'),
   );
+  // Older approved versions, listed apart from the newest of each protocol (newest first).
+  const superseded = approved
+    .filter((v) => v.supersededBy !== null)
+    .sort((a, b) => a.title.localeCompare(b.title) || b.version - a.version);
   const currentNotApproved =
     chosenRef && !approved.some((v) => v.key === chosenRef.key && v.version === chosenRef.version);
   const limits = definition?.inputLimits;
@@ -384,28 +395,37 @@ export function OrderForm({
             {...register('protocolRef')}
           >
             <option value="">Choose a protocol version…</option>
-            {protocolChoices.map((protocol) => {
-              // The newest approved version first; a superseded one says so, and asks a reason.
-              const versions = protocol.versions
-                .filter((v) => v.status === 'approved')
-                .sort((a, b) => b.version - a.version);
-              if (versions.length === 0) return null;
+            {(['pdt', 'cxl'] as const).map((kind) => {
+              // Each protocol offers its newest approved version: choosing the protocol chooses
+              // that version by default. Older ones wait apart, each needing a reason.
+              const newest = protocolChoices
+                .filter((protocol) => protocol.kind === kind)
+                .map((protocol) => newestApproved(protocol.versions))
+                .filter((v) => v !== undefined);
+              if (newest.length === 0) return null;
               return (
                 <optgroup
-                  key={protocol.key}
-                  label={protocol.kind === 'pdt' ? 'Photodynamic therapy' : 'Corneal cross-linking'}
+                  key={kind}
+                  label={kind === 'pdt' ? 'Photodynamic therapy' : 'Corneal cross-linking'}
                 >
-                  {versions.map((v) => (
+                  {newest.map((v) => (
                     <option key={`${v.key}-${v.version}`} value={protocolRefOf(v.key, v.version)}>
                       {v.title} — version {v.version}
-                      {v.supersededBy !== null
-                        ? ` (superseded by version ${v.supersededBy}; needs a reason)`
-                        : ''}
                     </option>
                   ))}
                 </optgroup>
               );
             })}
+            {superseded.length > 0 && (
+              <optgroup label="Superseded versions (each needs a reason)">
+                {superseded.map((v) => (
+                  <option key={`${v.key}-${v.version}`} value={protocolRefOf(v.key, v.version)}>
+                    {v.title} — version {v.version} (superseded by version {v.supersededBy}; needs a
+                    reason)
+                  </option>
+                ))}
+              </optgroup>
+            )}
             {currentNotApproved && (
               <option value={values.protocolRef}>
                 {source?.protocol.title ?? chosenRef.key} — version {chosenRef.version} (no longer
@@ -623,7 +643,7 @@ export function OrderForm({
                       Order {o.id}
                     </Link>{' '}
                     — {o.protocolTitle}, {orderStatusWords(o.status)}, started{' '}
-                    {formatCalendarDate(o.createdAt)}
+                    {formatUnitDate(o.createdAt)}
                   </li>
                 ))}
               </ul>

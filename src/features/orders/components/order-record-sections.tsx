@@ -11,8 +11,7 @@ import { paths } from '../../../config/paths';
 import { severityWords } from './contraindication-checklist';
 import { formatFigure } from './plan-numbers';
 import { fieldWords } from './order-words';
-import { formatCalendarDate } from './unit-dates';
-import { formatUnitDateTime } from '../../../lib/unit-times';
+import { formatCalendarDate, formatUnitDateTime } from '../../../lib/unit-times';
 
 function Card({ id, title, children }: { id: string; title: string; children: React.ReactNode }) {
   return (

@@ -7,7 +7,7 @@ import { FieldError, TextField } from '../../../components/ui/text-field';
 import { describeError } from '../../../lib/api-client';
 import { useDebouncedValue } from '../../../lib/use-debounced-value';
 import { orderQueries } from '../api/order-queries';
-import { formatCalendarDate } from './unit-dates';
+import { formatCalendarDate } from '../../../lib/unit-times';
 
 type PatientPickerProps = {
   /** The chosen patient's id as text, or '' for none. */

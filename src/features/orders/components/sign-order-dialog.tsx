@@ -11,7 +11,7 @@ import { useSignOrder } from '../hooks/use-sign-order';
 import { BodyMeasures } from './body-measures';
 import { eyeWords } from './order-words';
 import { formatFigure } from './plan-numbers';
-import { formatCalendarDate } from './unit-dates';
+import { formatCalendarDate } from '../../../lib/unit-times';
 
 type SignOrderDialogProps = {
   order: OrderDetail;

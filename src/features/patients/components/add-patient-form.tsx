@@ -14,7 +14,6 @@ import { fhirStatusQuery, type FhirCandidate } from '../api/fhir-patients';
 import { patientQueries } from '../api/patient-queries';
 import { FhirPatientSearch } from './fhir-patient-search';
 import { useDebouncedValue } from '../hooks/use-debounced-value';
-import { formatCalendarDate } from './unit-dates';
 import { KeptDraftOffer } from '../../../components/ui/kept-draft-offer';
 import { overDefaults, useFormDraft } from '../../../lib/form-draft';
 import { z } from 'zod';
@@ -34,7 +33,7 @@ import {
   unplacedFieldProblems,
 } from '../../../lib/form-errors';
 import { useCreatePatient } from '../hooks/use-create-patient';
-import { formatUnitCalendarDate, parseUnitDate, unitDatePattern } from '../../../lib/unit-times';
+import { formatCalendarDate, parseUnitDate, unitDatePattern } from '../../../lib/unit-times';
 
 type PatientFormValues = {
   recordNumber: string;
@@ -208,11 +207,7 @@ export function AddPatientForm({ id, onCreated, onCancel }: AddPatientFormProps)
             setValue('recordNumber', c.recordNumber ?? '', fill);
             setValue('givenName', c.givenName, fill);
             setValue('familyName', c.familyName, fill);
-            setValue(
-              'dateOfBirth',
-              c.dateOfBirth ? formatUnitCalendarDate(c.dateOfBirth) : '',
-              fill,
-            );
+            setValue('dateOfBirth', c.dateOfBirth ? formatCalendarDate(c.dateOfBirth) : '', fill);
             setFromFhir(c);
           }}
         />

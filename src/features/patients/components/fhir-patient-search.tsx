@@ -5,7 +5,7 @@ import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { describeError } from '../../../lib/api-client';
 import { searchFhirPatients, type FhirCandidate } from '../api/fhir-patients';
-import { formatCalendarDate } from './unit-dates';
+import { formatCalendarDate } from '../../../lib/unit-times';
 
 type Props = {
   /** Fills the add-patient form from the chosen hospital record. */

@@ -13,7 +13,8 @@ import { unitTimeZone } from '../../../config/unit-time-zone';
 import { describeError, isApiRequestError } from '../../../lib/api-client';
 import { patientQueries } from '../api/patient-queries';
 import { EyeHistory } from './eye-history';
-import { ageInYears, formatCalendarDate } from './unit-dates';
+import { formatCalendarDate } from '../../../lib/unit-times';
+import { ageInYears } from './unit-dates';
 
 /** Where the patient came from: typed in, or the hospital's FHIR record (which can be read again). */
 function HospitalRecordSource({ patient }: { patient: Patient }) {

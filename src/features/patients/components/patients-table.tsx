@@ -2,7 +2,8 @@ import { Link } from 'react-router-dom';
 import type { Patient } from '../../../../shared/schemas/patients';
 import { CheckCircleIcon, MinusIcon } from '../../../components/ui/icons';
 import { paths } from '../../../config/paths';
-import { ageInYears, formatCalendarDate } from './unit-dates';
+import { formatCalendarDate } from '../../../lib/unit-times';
+import { ageInYears } from './unit-dates';
 
 export function PatientsTable({
   patients,

@@ -286,3 +286,27 @@ export function formatProtocolValue(value: JsonLeaf, shown?: DescribedPath['show
   if (typeof value === 'string') return value;
   return Array.isArray(value) ? 'None' : 'Empty';
 }
+
+/** Names in the sources' texts that are not fields of the version page. */
+const otherNames: Record<string, string> = {
+  inputLimits: 'input limits',
+  'inputs.stromalThicknessUm': 'the stromal thickness entered on the order',
+};
+
+/**
+ * A source's "supports" text with the definition's field names in the version page's words:
+ * "inputLimits.bmiKgPerM2: a BMI outside 16–45…" reads "Input limits › Body-mass index…: a BMI
+ * outside 16–45…". The shipped files are never edited; only how they read changes. A name the
+ * table does not know stays as written.
+ */
+export function supportsInPlainWords(text: string): string {
+  // Not after a hyphen: "thin-stroma.measurement" is a question's id, not a field.
+  return text.replace(/(?<![\w-])[a-z][A-Za-z0-9]*(?:\.[a-z][A-Za-z0-9]*)*\b/g, (name) => {
+    if (!/[A-Z.]/.test(name)) return name;
+    if (name in otherNames) return otherNames[name]!;
+    const known = (protocolFieldLabels as Record<string, FieldWords>)[name];
+    if (known) return known.label;
+    const described = describeProtocolPath(name);
+    return described.section === 'Other' ? name : `${described.section} › ${described.label}`;
+  });
+}

@@ -1,6 +1,7 @@
 import type { ProtocolVersion } from '../../../../shared/protocol/protocol-schema';
 import { CheckCircleIcon, InfoIcon, PeopleIcon } from '../../../components/ui/icons';
 import { ParameterSection } from './parameter-list';
+import { supportsInPlainWords } from './protocol-field-labels';
 
 type SourceStatus = ProtocolVersion['sources'][number]['status'];
 
@@ -58,7 +59,7 @@ export function SourcesList({ sources }: { sources: ProtocolVersion['sources'] }
               <p className="text-paper-950">{source.citation}</p>
               <p className="text-sm text-paper-700">
                 <span className="font-medium text-paper-800">Supports: </span>
-                {source.supports}
+                {supportsInPlainWords(source.supports)}
               </p>
             </li>
           );

@@ -4,7 +4,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
 import { StartCircleIcon } from '../../../components/ui/icons';
-import { formatCalendarFigures } from '../../../lib/unit-times';
+import { formatCalendarDate } from '../../../lib/unit-times';
 import type { SessionOrder } from '../api/get-session-order';
 import { EyeBadge, eyeWords } from './eye-badge';
 import { CheckToggle } from './pre-treatment-checks';
@@ -34,7 +34,7 @@ export function IdentityConfirmationDialog({
   const [ticks, setTicks] = useState<Ticks>(noTicks);
   const [missing, setMissing] = useState(false);
   const patient = `${order.patient.givenName} ${order.patient.familyName}`;
-  const born = formatCalendarFigures(order.patient.dateOfBirth);
+  const born = formatCalendarDate(order.patient.dateOfBirth);
   const words: Record<IdentityCheck, { label: string; detail: string }> = {
     patientName: {
       label: `Name: ${patient}`,

@@ -1,4 +1,3 @@
-import { DateTime } from 'luxon';
 import { useState } from 'react';
 import type { ProtocolVersion, StepKind } from '../../../../shared/protocol/protocol-schema';
 import type { SessionClock } from '../../../../shared/session/session-clock';
@@ -12,6 +11,8 @@ import { describeError } from '../../../lib/api-client';
 import { useLateEntry } from '../hooks/use-late-entry';
 import type { EventBody } from '../hooks/use-session-events';
 import { formatWardTime, stepNames } from './clock-format';
+import { lateEntryInstant } from './late-entry-time';
+import { formatUnitTime } from '../../../../shared/format/figures';
 import type { SessionFacts } from './session-facts';
 
 const dropKinds: ReadonlySet<StepKind> = new Set(['soak', 'uv', 'swelling']);
@@ -61,21 +62,6 @@ function choicesFor(protocol: ProtocolVersion, clock: SessionClock, facts: Sessi
   return choices;
 }
 
-/** "10:05" or "10:05:30" on the ward clock, today, as an instant; null when unreadable. */
-function wardTimeToday(text: string, serverNowMs: number): number | null {
-  const match = /^(\d{1,2}):(\d{2})(?::(\d{2}))?$/.exec(text.trim());
-  if (!match) return null;
-  const [hour, minute, second] = [Number(match[1]), Number(match[2]), Number(match[3] ?? 0)];
-  if (hour > 23 || minute > 59 || second > 59) return null;
-  const at = DateTime.fromMillis(serverNowMs, { zone: unitTimeZone }).set({
-    hour,
-    minute,
-    second,
-    millisecond: 0,
-  });
-  return at.isValid ? at.toMillis() : null;
-}
-
 type Errors = Partial<Record<'what' | 'time' | 'thickness' | 'reason', string>>;
 
 /**
@@ -111,6 +97,12 @@ export function LateEntryDialog({
   const send = useLateEntry(orderId);
   const chosen = choices.find((choice) => choice.value === what);
   const startedMs = facts.replay.sessionStartedMs;
+  // A session that crossed midnight: say which day a typed time is read on, before it is sent.
+  const crossedMidnight =
+    startedMs !== null &&
+    formatUnitTime(new Date(startedMs).toISOString(), unitTimeZone, 'date') !==
+      formatUnitTime(new Date(serverNowMs).toISOString(), unitTimeZone, 'date');
+  const typed = lateEntryInstant(time, { nowMs: serverNowMs, startedMs, zone: unitTimeZone });
 
   const close = () => {
     setWhat('');
@@ -125,11 +117,15 @@ export function LateEntryDialog({
   const submit = () => {
     const found: Errors = {};
     if (!chosen) found.what = 'Choose what was missed.';
-    const atMs = wardTimeToday(time, serverNowMs);
-    if (atMs === null) found.time = 'Enter the time it happened as HH:MM or HH:MM:SS (ward clock).';
-    else if (atMs > serverNowMs) found.time = 'The time is in the future: enter when it happened.';
-    else if (startedMs !== null && atMs < startedMs)
-      found.time = `The time is before the session started (${formatWardTime(startedMs)}).`;
+    const read = lateEntryInstant(time, { nowMs: serverNowMs, startedMs, zone: unitTimeZone });
+    const atMs = read.ok ? read.atMs : null;
+    if (!read.ok)
+      found.time =
+        read.problem === 'unreadable'
+          ? 'Enter the time it happened as HH:MM or HH:MM:SS (ward clock).'
+          : read.problem === 'future'
+            ? 'The time is in the future: enter when it happened.'
+            : `The time is before the session started (${startedMs !== null ? formatUnitTime(new Date(startedMs).toISOString(), unitTimeZone, 'record') : ''}).`;
     let thicknessUm: number | null = null;
     if (chosen?.body.type === 'thickness-measured') {
       thicknessUm = Number(thickness.trim().replace(',', '.'));
@@ -185,13 +181,18 @@ export function LateEntryDialog({
       </SelectField>
       <TextField
         label="When it happened (ward clock)"
-        hint={`HH:MM or HH:MM:SS, today; not before the session started${startedMs !== null ? ` (${formatWardTime(startedMs)})` : ''} and not in the future.`}
+        hint={`HH:MM or HH:MM:SS; not before the session started${startedMs !== null ? ` (${formatUnitTime(new Date(startedMs).toISOString(), unitTimeZone, 'record')})` : ''} and not in the future.${crossedMidnight ? ' The session crossed midnight: a time after now is read as the evening before.' : ''}`}
         inputMode="numeric"
         autoComplete="off"
         value={time}
         error={errors.time}
         onChange={(event) => setTime(event.target.value)}
       />
+      {crossedMidnight && typed.ok && (
+        <p className="numerals-steady -mt-2 text-paper-800" aria-live="polite">
+          Read as {formatUnitTime(new Date(typed.atMs).toISOString(), unitTimeZone, 'sheet')}.
+        </p>
+      )}
       {chosen?.body.type === 'thickness-measured' && (
         <TextField
           label="Thinnest stromal thickness (µm)"

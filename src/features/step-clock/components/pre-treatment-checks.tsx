@@ -10,7 +10,7 @@ import { AcceptedCautionsBanner } from '../../../components/ui/accepted-cautions
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { CheckCircleIcon, DraftCircleIcon, StartCircleIcon } from '../../../components/ui/icons';
-import { formatCalendarFigures } from '../../../lib/unit-times';
+import { formatCalendarDate } from '../../../lib/unit-times';
 import type { SessionOrder } from '../api/get-session-order';
 import { useStoredDraft } from '../hooks/use-stored-draft';
 import { formatWardTime } from './clock-format';
@@ -37,7 +37,7 @@ function checkWords(
   return {
     patientIdentity: {
       label: 'Patient identity confirmed',
-      detail: `Asked the patient’s name and date of birth and checked the wristband: ${patient}, born ${formatCalendarFigures(order.patient.dateOfBirth)}, record ${order.patient.recordNumber}.`,
+      detail: `Asked the patient’s name and date of birth and checked the wristband: ${patient}, born ${formatCalendarDate(order.patient.dateOfBirth)}, record ${order.patient.recordNumber}.`,
     },
     treatmentEye: {
       label: `Treatment eye confirmed: ${eyeWords[order.eye]}`,
@@ -188,7 +188,7 @@ export function PreTreatmentChecks({
           <EyeBadge eye={order.eye} size="huge" />
           <p className="text-lg font-medium text-paper-950">
             {order.patient.givenName} {order.patient.familyName} · born{' '}
-            {formatCalendarFigures(order.patient.dateOfBirth)} · record {order.patient.recordNumber}
+            {formatCalendarDate(order.patient.dateOfBirth)} · record {order.patient.recordNumber}
           </p>
         </div>
         {beyondUseMs !== null && <BeyondUse beyondUseMs={beyondUseMs} serverNowMs={serverNowMs} />}

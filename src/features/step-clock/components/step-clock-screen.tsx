@@ -14,7 +14,7 @@ import {
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { paths } from '../../../config/paths';
 import { describeError } from '../../../lib/api-client';
-import { formatCalendarFigures } from '../../../lib/unit-times';
+import { formatCalendarDate } from '../../../lib/unit-times';
 import { stepClockQueries } from '../api/step-clock-queries';
 import { useAnnouncer } from '../hooks/use-announcer';
 import { useNowMs } from '../hooks/use-now-ms';
@@ -153,7 +153,7 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
             <p className="shrink-0 text-lg text-paper-950">
               Date of birth{' '}
               <strong className="numerals-steady font-semibold">
-                {formatCalendarFigures(data.patient.dateOfBirth)}
+                {formatCalendarDate(data.patient.dateOfBirth)}
               </strong>
             </p>
           </div>

@@ -1,11 +1,9 @@
 import { DateTime } from 'luxon';
+import { formatUnitMonth } from '../../../../shared/format/figures';
 
-/** "2026-11" as "Nov 2026". */
+/** "2026-11" as "Nov 2026", in the unit's locale. */
 export function monthWords(month: string, style: 'short' | 'long' = 'short'): string {
-  const at = DateTime.fromFormat(month, 'yyyy-MM');
-  return at.isValid
-    ? at.setLocale('en-GB').toFormat(style === 'short' ? 'LLL yyyy' : 'LLLL yyyy')
-    : month;
+  return formatUnitMonth(month, style);
 }
 
 /** Every month from `first` to `last` inclusive, as YYYY-MM (at most 120, so a typo cannot hang the page). */
