@@ -2,7 +2,7 @@ import { useMutation, useQueries, useQuery, useQueryClient } from '@tanstack/rea
 import { DateTime } from 'luxon';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { formatUnitTime } from '../../../../shared/format/figures';
+import { formatCalendarDate, formatUnitTime } from '../../../../shared/format/figures';
 import { bookableStatuses } from '../../../../shared/lists/slots';
 import type { TreatmentList } from '../../../../shared/schemas/lists';
 import type { OrderSummary } from '../../../../shared/schemas/orders';
@@ -64,7 +64,7 @@ export function ListsScreen({ canManage, canSeeVialPlan }: Props) {
     (lists.data?.lists ?? []).flatMap((l) => l.bookings.map((b) => b.order.id)),
   );
   const candidates = bookable.flatMap((q) => q.data?.orders ?? []).filter((o) => !booked.has(o.id));
-  const weekWords = `${DateTime.fromISO(from).setLocale('en-GB').toFormat('d LLL')} – ${DateTime.fromISO(to).setLocale('en-GB').toFormat('d LLL yyyy')}`;
+  const weekWords = `${formatCalendarDate(from)} – ${formatCalendarDate(to)}`;
 
   return (
     <div className="space-y-6">
@@ -248,7 +248,7 @@ function ListCard({
     onError: (error) => setProblem(describeError(error)),
   });
   const headingId = `list-${list.id}`;
-  const day = DateTime.fromISO(list.listDate).setLocale('en-GB').toFormat('cccc d LLLL');
+  const day = formatCalendarDate(list.listDate, 'day');
   return (
     <section
       aria-labelledby={headingId}

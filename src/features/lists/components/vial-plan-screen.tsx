@@ -1,6 +1,9 @@
 import { useQuery } from '@tanstack/react-query';
-import { DateTime } from 'luxon';
-import { formatUnitTime } from '../../../../shared/format/figures';
+import {
+  formatCalendarDate,
+  formatQuantity,
+  formatUnitTime,
+} from '../../../../shared/format/figures';
 import { Alert } from '../../../components/ui/alert';
 import { LinkButton } from '../../../components/ui/button';
 import { ArrowLeftIcon } from '../../../components/ui/icons';
@@ -12,7 +15,7 @@ import { describeError } from '../../../lib/api-client';
 import { vialPlanQuery } from '../../../lib/queries/lists';
 
 const at = (iso: string) => formatUnitTime(iso, unitTimeZone, 'short');
-const mg = (value: number) => `${value.toLocaleString('en-GB', { maximumFractionDigits: 2 })} mg`;
+const mg = (value: number) => formatQuantity(value, 'mg', 2);
 
 /** The vials a list's doses need and the order to prepare them in. */
 export function VialPlanScreen({ listId }: { listId: number }) {
@@ -25,7 +28,7 @@ export function VialPlanScreen({ listId }: { listId: number }) {
       </Alert>
     );
   const p = plan.data;
-  const day = DateTime.fromISO(p.list.listDate).setLocale('en-GB').toFormat('cccc d LLLL yyyy');
+  const day = formatCalendarDate(p.list.listDate, 'day');
   return (
     <div className="space-y-6">
       <PageHeader

@@ -194,6 +194,10 @@ export const protocolFieldLabels = {
   'sources[].supports': { label: 'Supports', section: sources },
   'sources[].status': { label: 'Standing', section: sources },
 
+  followUp: { label: 'Follow-up and outcome', section: followUp },
+  'followUp.visits': { label: 'Follow-up visits', section: followUp },
+  'followUp.complicationKinds': { label: 'Complications recorded', section: followUp },
+  'followUp.outcome': { label: "The treatment's outcome", section: followUp },
   'followUp.visits[].id': { label: 'Visit id', section: followUp },
   'followUp.visits[].label': { label: 'Visit', section: followUp },
   'followUp.visits[].offsetDays': {

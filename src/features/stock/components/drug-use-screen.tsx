@@ -1,15 +1,14 @@
 import { useQuery } from '@tanstack/react-query';
-import { DateTime } from 'luxon';
+import { formatPlainNumber, formatUnitMonth, noFigure } from '../../../../shared/format/figures';
 import { Alert } from '../../../components/ui/alert';
 import { PageHeader } from '../../../components/ui/page-header';
 import { LoadingPanel } from '../../../components/ui/status-panel';
 import { describeError } from '../../../lib/api-client';
 import { drugUseReportQuery, type MonthUse } from '../../../lib/queries/stock';
 
-const monthWords = (month: string) =>
-  DateTime.fromISO(`${month}-01`).setLocale('en-GB').toFormat('LLL yyyy');
+const monthWords = (month: string) => formatUnitMonth(month);
 const figure = (n: number | null, unit = '') =>
-  n === null ? '—' : `${n.toLocaleString('en-GB', { maximumFractionDigits: 2 })}${unit}`;
+  n === null ? noFigure : `${formatPlainNumber(n, 2)}${unit}`;
 
 /** Per month: vials issued, drug given versus discarded (mg and %), doses prepared and never infused. */
 export function DrugUseScreen() {
