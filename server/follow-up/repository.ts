@@ -258,16 +258,17 @@ export function createFollowUpRepository(dataSource: DataSource) {
       }));
     },
 
-    /** Planned visits past their due date and not recorded, oldest first. */
-    overdue: (today: string, limit: number): Promise<OverdueVisitRow[]> =>
+    /** Planned visits past their due date and not recorded: the signer's own patients first, then oldest first. */
+    overdue: (today: string, limit: number, signerId: number): Promise<OverdueVisitRow[]> =>
       dataSource.query(
         `SELECT v.id, v.order_id AS orderId, v.patient_id AS patientId, p.record_number AS recordNumber,
                 p.given_name AS givenName, p.family_name AS familyName, v.eye, v.visit_label AS visitLabel,
                 v.due_on AS dueOn
            FROM follow_up_visit v JOIN patient p ON p.id = v.patient_id
+           JOIN treatment_order o ON o.id = v.order_id
           WHERE v.recorded_at IS NULL AND v.due_on < ?
-          ORDER BY v.due_on, v.id LIMIT ${Number(limit)}`,
-        [today],
+          ORDER BY o.signed_by <=> ? DESC, v.due_on, v.id LIMIT ${Number(limit)}`,
+        [today, signerId],
       ),
 
     /** Unrecorded, unreminded visits due between two dates, of patients who consent to e-mail. */

@@ -57,8 +57,8 @@ export function followUpRoutes(followUp: FollowUpService, outcomes: OutcomeServi
       method: 'get',
       path: '/follow-up/overdue',
       access: 'follow-up.record',
-      handler: async (_req, res) => {
-        res.json({ visits: await followUp.overdue() });
+      handler: async (req, res) => {
+        res.json({ visits: await followUp.overdue(actorOf(req, res).id) });
       },
     },
     {

@@ -454,12 +454,12 @@ export function createFollowUpService(deps: {
       return toComplicationDto((await followUps.findComplication(id))!);
     },
 
-    /** Planned visits past their due date and not recorded, for the clinician's Today. */
-    async overdue() {
+    /** Planned visits past their due date and not recorded, for the clinician's Today: theirs first. */
+    async overdue(clinicianId: number) {
       await planMissing();
       await queueReminders();
       const day = today();
-      return (await followUps.overdue(day, 100)).map((v) => ({
+      return (await followUps.overdue(day, 100, clinicianId)).map((v) => ({
         ...v,
         daysOverdue: Math.round(DateTime.fromISO(day).diff(DateTime.fromISO(v.dueOn), 'days').days),
       }));

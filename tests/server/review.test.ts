@@ -345,8 +345,10 @@ describe('the CSV export', () => {
       .buffer(true);
     expect(records.text.split('\r\n')[0]).toContain('delivered_fluence (J/cm²)');
     // 6 mg/m² × 1.82 m² = 10.92 mg; 30 mL infused; 83 s at 600 mW/cm² = 49.8 J/cm² planned and
-    // delivered (TAP Study Group, Arch Ophthalmol 1999; Mosteller RD, N Engl J Med 1987); one deviation.
-    expect(records.text.split('\r\n')[1]).toMatch(/,10\.92,30,83,49\.8,49\.8,1$/);
+    // delivered (TAP Study Group, Arch Ophthalmol 1999; Mosteller RD, N Engl J Med 1987); no device
+    // named on this version-1 order, so the fluence's basis is the plan and the device columns are
+    // empty; one deviation.
+    expect(records.text.split('\r\n')[1]).toMatch(/,10\.92,30,83,49\.8,49\.8,planned,,,,,,,,,1$/);
   });
 });
 
