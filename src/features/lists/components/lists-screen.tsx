@@ -24,6 +24,7 @@ import {
   listKeys,
   listsBetweenQuery,
 } from '../../../lib/queries/lists';
+import { devicesQuery } from '../../../lib/queries/devices';
 import { getOrders, orderKeys } from '../../../lib/queries/orders';
 import { todayKeys } from '../../../lib/queries/today';
 
@@ -129,6 +130,9 @@ type NewListValues = {
 function NewListForm({ defaultDate }: { defaultDate: string }) {
   const queryClient = useQueryClient();
   const [open, setOpen] = useState(false);
+  // The device register's in-service lasers and UV sources are offered; a plain room label still works.
+  const devices = useQuery(devicesQuery());
+  const registered = (devices.data ?? []).filter((d) => d.status === 'in-use');
   const form = useForm<NewListValues>({
     defaultValues: {
       listDate: defaultDate,
@@ -177,10 +181,18 @@ function NewListForm({ defaultDate }: { defaultDate: string }) {
         <TextField label="Room" required error={fieldError('room')} {...form.register('room')} />
         <TextField
           label="Device (optional)"
-          hint="The laser or UV device's label"
+          hint="Pick a device from the register, or type its label"
+          list="list-registered-devices"
           error={fieldError('deviceLabel')}
           {...form.register('deviceLabel')}
         />
+        <datalist id="list-registered-devices">
+          {registered.map((d) => (
+            <option key={d.id} value={d.name}>
+              {d.location}
+            </option>
+          ))}
+        </datalist>
         <TextField
           label="First slot at"
           type="time"
