@@ -17,10 +17,10 @@ import { SignedOrderFactsKept1796297991104 } from './migrations/1796297991104-Si
 import { OrderCancellation1796303351497 } from './migrations/1796303351497-OrderCancellation';
 import { ProtocolSignaturesDiscardsAndSuperseded1796303358061 } from './migrations/1796303358061-ProtocolSignaturesDiscardsAndSuperseded';
 import { SupersededReasonSigned1796309618215 } from './migrations/1796309618215-SupersededReasonSigned';
+import { TreatmentListsAndStock1796313382388 } from './migrations/1796313382388-TreatmentListsAndStock';
 import { FhirInterop1796313422761 } from './migrations/1796313422761-FhirInterop';
 import { DevicesAndLenses1796313454504 } from './migrations/1796313454504-DevicesAndLenses';
 import { FollowUpAndOutcomes1796313495700 } from './migrations/1796313495700-FollowUpAndOutcomes';
-import { TreatmentListsAndStock1796313382388 } from './migrations/1796313382388-TreatmentListsAndStock';
 
 // One a line, oldest first, so that branches adding migrations merge line by line.
 export const migrations = [
@@ -41,8 +41,8 @@ export const migrations = [
   OrderCancellation1796303351497,
   ProtocolSignaturesDiscardsAndSuperseded1796303358061,
   SupersededReasonSigned1796309618215,
+  TreatmentListsAndStock1796313382388,
   FhirInterop1796313422761,
   DevicesAndLenses1796313454504,
   FollowUpAndOutcomes1796313495700,
-  TreatmentListsAndStock1796313382388,
 ];
