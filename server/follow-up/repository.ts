@@ -271,16 +271,25 @@ export function createFollowUpRepository(dataSource: DataSource) {
         [today, signerId],
       ),
 
-    /** Unrecorded, unreminded visits due between two dates, of patients who consent to e-mail. */
-    reminderCandidates: (fromDay: string, toDay: string): Promise<ReminderCandidate[]> =>
+    /**
+     * Unrecorded, unreminded visits due between two dates, of patients who consent to e-mail: a
+     * page of `limit` after the visit id `afterId` (callers page on until a short page).
+     */
+    reminderCandidates: (
+      fromDay: string,
+      toDay: string,
+      afterId: number,
+      limit: number,
+    ): Promise<ReminderCandidate[]> =>
       dataSource.query(
         `SELECT v.id, v.order_id AS orderId, v.plan_protocol_version_id AS planProtocolVersionId,
                 v.visit_label AS visitLabel, v.due_on AS dueOn, v.eye, p.email, p.given_name AS givenName
            FROM follow_up_visit v JOIN patient p ON p.id = v.patient_id
           WHERE v.recorded_at IS NULL AND v.reminder_queued_at IS NULL AND v.offset_days > 0
             AND v.due_on BETWEEN ? AND ? AND p.email_consent = 1 AND p.email IS NOT NULL
-          ORDER BY v.due_on, v.id LIMIT 200`,
-        [fromDay, toDay],
+            AND v.id > ?
+          ORDER BY v.id LIMIT ${Number(limit)}`,
+        [fromDay, toDay, afterId],
       ),
 
     /** Marks a reminder queued, once: false when another instance queued it first. */

@@ -1,6 +1,7 @@
 import { DateTime } from 'luxon';
 import { PlanInputError } from '../../shared/engine/plan-input-error';
 import { acuityFromEntry, lettersFromLogMar } from '../../shared/engine/visual-acuity';
+import { formatCalendarDate } from '../../shared/format/figures';
 import type { FollowUpPlan } from '../../shared/protocol/protocol-schema';
 import type { RecordComplication, RecordVisit } from '../../shared/schemas/follow-up';
 import type { AuditRepository } from '../audit/repository';
@@ -12,7 +13,12 @@ import type { UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox-repository';
 import type { Actor } from '../orders/service';
-import type { EndedTreatmentQueries, FollowUpRepository, VisitFindings } from './repository';
+import type {
+  EndedTreatmentQueries,
+  FollowUpRepository,
+  ReminderCandidate,
+  VisitFindings,
+} from './repository';
 
 type VersionRow = Awaited<ReturnType<FollowUpRepository['protocolVersions']>>[number];
 
@@ -176,16 +182,27 @@ export function createFollowUpService(deps: {
       versions.map((v) => [v.id, v.definition.followUp?.reminderDaysBefore ?? null]),
     );
     const longestLead = Math.max(0, ...[...leadOf.values()].map((lead) => lead ?? 0));
-    const candidates = await followUps.reminderCandidates(day, addDays(day, longestLead));
+    // Every due reminder is queued, however many: page through the candidates by id.
+    const candidates: ReminderCandidate[] = [];
+    const pageSize = 200;
+    for (let afterId = 0; ;) {
+      const page = await followUps.reminderCandidates(
+        day,
+        addDays(day, longestLead),
+        afterId,
+        pageSize,
+      );
+      candidates.push(...page);
+      if (page.length < pageSize) break;
+      afterId = page[page.length - 1]!.id;
+    }
     let queued = 0;
     for (const visit of candidates) {
       const lead = leadOf.get(Number(visit.planProtocolVersionId));
       if (lead === null || lead === undefined || visit.dueOn > addDays(day, lead)) continue;
       const sent = await unitOfWork(async (tx) => {
         if (!(await followUps.markReminderQueued(tx, visit.id, clock.now()))) return false;
-        const dueText = DateTime.fromISO(visit.dueOn, { zone: unitTimeZone }).toFormat(
-          'cccc d LLLL yyyy',
-        );
+        const dueText = formatCalendarDate(visit.dueOn, 'day');
         await enqueueMessage(tx, {
           kind: 'follow-up-reminder',
           recipients: [visit.email],

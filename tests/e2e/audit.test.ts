@@ -143,8 +143,8 @@ describe('the auditor reviews a deviation from the queue', () => {
     expect(lines[0]).toBe(csvHeader);
     const row = lines.find((line) => line.startsWith(`${deviationId},`));
     expect(row).toBeDefined();
-    // The demo orders use the newest shipped version of pdt-standard (2, with the syringe graduation).
-    expect(row).toMatch(/,pdt-standard,2,MP-100201,right,light-start-window,major,15,18,min,/);
+    // The demo orders use the newest shipped version of pdt-standard (3, with the device checks).
+    expect(row).toMatch(/,pdt-standard,3,MP-100201,right,light-start-window,major,15,18,min,/);
     expect(row).toContain(`,closed,needs-follow-up,Marisol Quenby (demo),`);
     expect(row!.endsWith(`,${comment}`) || row!.endsWith(`,"${comment}"`)).toBe(true);
     expect(lines.slice(1).every((line) => line.includes(',pdt-standard,'))).toBe(true);

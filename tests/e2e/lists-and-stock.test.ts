@@ -63,7 +63,7 @@ async function signedOrder() {
     data: {
       patientId: patient.id,
       eye: 'right',
-      protocol: { key: 'pdt-half-dose', version: 2 },
+      protocol: { key: 'pdt-half-dose', version: 3 },
       inputs: {
         height: { value: 168, unit: 'cm' },
         weight: { value: 66, unit: 'kg' },

@@ -167,13 +167,14 @@ export function OrderForm({
     },
   );
   const chosenRef = parseProtocolRef(values.protocolRef);
-  const lenses = useQuery(lensesQuery());
   const definitionQuery = useQuery({
     ...orderQueries.protocolDefinition(chosenRef?.key ?? '', chosenRef?.version ?? 0),
     enabled: chosenRef !== null,
   });
   const definition = chosenRef ? (definitionQuery.data?.definition ?? null) : null;
   const kind = definition?.kind ?? null;
+  // Lenses matter only to a laser treatment: asked for once a PDT protocol is chosen.
+  const lenses = useQuery({ ...lensesQuery(), enabled: kind === 'pdt' });
 
   // A new protocol brings its own default BSA formula, unless the clinician chose another.
   const lastDefault = useRef<string | null>(null);
