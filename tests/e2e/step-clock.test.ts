@@ -1093,8 +1093,6 @@ describe('the bedside step clock', () => {
     await confirmChecksAndStart(page, 'left');
     await allStored(page);
     await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
-    const waiting = () =>
-      page.evaluate(async () => (await navigator.serviceWorker.getRegistration())?.waiting != null);
     const workerFile = path.join(clientDistDir, 'sw.js');
     const built = readFileSync(workerFile, 'utf8');
     try {
@@ -1108,9 +1106,28 @@ describe('the bedside step clock', () => {
         undefined,
         { polling: 200 },
       );
-      // Five untouched minutes on the clock: the running version stays.
+      // Five untouched minutes on the clock: the running version stays — the page is not reloaded
+      // and its controller does not change, while the new version waits (or, if the browser
+      // checked for it again meanwhile, installs anew to wait).
+      await page.evaluate(() => {
+        const marked = window as unknown as { runningVersionKept: boolean };
+        marked.runningVersionKept = true;
+        navigator.serviceWorker.addEventListener('controllerchange', () => {
+          marked.runningVersionKept = false;
+        });
+      });
       await advance(page, 5 * 60_000);
-      expect(await waiting()).toBe(true);
+      expect(
+        await page.evaluate(
+          () => (window as unknown as { runningVersionKept?: boolean }).runningVersionKept,
+        ),
+      ).toBe(true);
+      expect(
+        await page.evaluate(async () => {
+          const registration = await navigator.serviceWorker.getRegistration();
+          return registration?.waiting != null || registration?.installing != null;
+        }),
+      ).toBe(true);
       await page.getByRole('timer').first().waitFor();
       // Back on Today (the nurse's session is over there), nobody touching the screen: it takes over.
       await page.evaluate(() => {
