@@ -73,7 +73,11 @@ export function createFollowUpRepository(dataSource: DataSource) {
   const complications = dataSource.getRepository(Complication);
   return {
     /** Completed sessions without planned visits (optionally of one patient), oldest first. */
-    async unplanned(patientId?: number, limit = 500): Promise<UnplannedTreatment[]> {
+    async unplanned(
+      patientId?: number,
+      afterOrderId = 0,
+      limit = 500,
+    ): Promise<UnplannedTreatment[]> {
       const rows: {
         orderId: number;
         patientId: number;
@@ -88,8 +92,9 @@ export function createFollowUpRepository(dataSource: DataSource) {
             AND o.status IN ('completed', 'reviewed')
             ${patientId === undefined ? '' : 'AND o.patient_id = ?'}
             AND NOT EXISTS (SELECT 1 FROM follow_up_visit v WHERE v.order_id = d.order_id)
-          ORDER BY d.ended_at LIMIT ${Number(limit)}`,
-        patientId === undefined ? [] : [patientId],
+            AND d.order_id > ?
+          ORDER BY d.order_id LIMIT ${Number(limit)}`,
+        patientId === undefined ? [afterOrderId] : [patientId, afterOrderId],
       );
       return rows.map((r) => ({ ...r, endedAt: new Date(r.endedAt) }));
     },

@@ -149,7 +149,16 @@ export function createFollowUpService(deps: {
 
   /** Plans the visits of every completed session that has none yet (of one patient, if given). */
   async function planMissing(patientId?: number): Promise<number> {
-    const unplanned = await followUps.unplanned(patientId);
+    // Page through by order id: a treatment with no follow-up block to plan from stays unplanned,
+    // and must never hold the ones after it back.
+    const unplanned: Awaited<ReturnType<typeof followUps.unplanned>> = [];
+    const pageSize = 500;
+    for (let afterOrderId = 0; ;) {
+      const page = await followUps.unplanned(patientId, afterOrderId, pageSize);
+      unplanned.push(...page);
+      if (page.length < pageSize) break;
+      afterOrderId = page[page.length - 1]!.orderId;
+    }
     if (unplanned.length === 0) return 0;
     const versions = await followUps.protocolVersions();
     const kindOf = new Map(versions.map((v) => [v.id, v.definition.kind]));
