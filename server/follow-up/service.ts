@@ -13,12 +13,7 @@ import type { UnitOfWork } from '../db/unit-of-work';
 import { AppError } from '../http/app-error';
 import { enqueueMessage } from '../mail/outbox-repository';
 import type { Actor } from '../orders/service';
-import type {
-  EndedTreatmentQueries,
-  FollowUpRepository,
-  ReminderCandidate,
-  VisitFindings,
-} from './repository';
+import type { EndedTreatmentQueries, FollowUpRepository, VisitFindings } from './repository';
 
 type VersionRow = Awaited<ReturnType<FollowUpRepository['protocolVersions']>>[number];
 
@@ -34,6 +29,21 @@ export function visitState(
   if (visit.dueOn === today) return 'due';
   const lastDay = DateTime.fromISO(visit.dueOn).plus({ days: visit.windowDays }).toISODate()!;
   return today > lastDay ? 'missed' : 'overdue';
+}
+
+/** Reads a keyset-paged query to its end: pages of `size` after the last key, until a short page. */
+async function everyPage<T>(
+  page: (afterKey: number, size: number) => Promise<T[]>,
+  keyOf: (row: T) => number,
+  size: number,
+): Promise<T[]> {
+  const rows: T[] = [];
+  for (let afterKey = 0; ;) {
+    const next = await page(afterKey, size);
+    rows.push(...next);
+    if (next.length < size) return rows;
+    afterKey = keyOf(next[next.length - 1]!);
+  }
 }
 
 /**
@@ -151,14 +161,11 @@ export function createFollowUpService(deps: {
   async function planMissing(patientId?: number): Promise<number> {
     // Page through by order id: a treatment with no follow-up block to plan from stays unplanned,
     // and must never hold the ones after it back.
-    const unplanned: Awaited<ReturnType<typeof followUps.unplanned>> = [];
-    const pageSize = 500;
-    for (let afterOrderId = 0; ;) {
-      const page = await followUps.unplanned(patientId, afterOrderId, pageSize);
-      unplanned.push(...page);
-      if (page.length < pageSize) break;
-      afterOrderId = page[page.length - 1]!.orderId;
-    }
+    const unplanned = await everyPage(
+      (afterOrderId, size) => followUps.unplanned(patientId, afterOrderId, size),
+      (t) => t.orderId,
+      500,
+    );
     if (unplanned.length === 0) return 0;
     const versions = await followUps.protocolVersions();
     const kindOf = new Map(versions.map((v) => [v.id, v.definition.kind]));
@@ -192,19 +199,12 @@ export function createFollowUpService(deps: {
     );
     const longestLead = Math.max(0, ...[...leadOf.values()].map((lead) => lead ?? 0));
     // Every due reminder is queued, however many: page through the candidates by id.
-    const candidates: ReminderCandidate[] = [];
-    const pageSize = 200;
-    for (let afterId = 0; ;) {
-      const page = await followUps.reminderCandidates(
-        day,
-        addDays(day, longestLead),
-        afterId,
-        pageSize,
-      );
-      candidates.push(...page);
-      if (page.length < pageSize) break;
-      afterId = page[page.length - 1]!.id;
-    }
+    const candidates = await everyPage(
+      (afterId, size) =>
+        followUps.reminderCandidates(day, addDays(day, longestLead), afterId, size),
+      (visit) => visit.id,
+      200,
+    );
     let queued = 0;
     for (const visit of candidates) {
       const lead = leadOf.get(Number(visit.planProtocolVersionId));
