@@ -172,8 +172,23 @@ export async function seedDemoDevices(
 }
 
 /**
+ * The demo unit's lens of a laser-spot factor (the lenses the protocol file cites are on the
+ * register), or null when none has it.
+ */
+export async function demoLensWithFactor(dataSource: DataSource, laserSpotFactor: number) {
+  const [row] = await dataSource.query(
+    'SELECT id, name, laser_spot_factor AS factor FROM lens WHERE active = 1 AND laser_spot_factor = ? ORDER BY id LIMIT 1',
+    [laserSpotFactor],
+  );
+  return row
+    ? { id: Number(row.id), name: String(row.name), laserSpotFactor: Number(row.factor) }
+    : null;
+}
+
+/**
  * What a demo history session's start records about its device: the first demo device of the
- * kind, set to the plan's figures, with its latest check. Null when the demo has no devices.
+ * kind, set to the plan's figures, with its latest check, and for a laser the demo lens of the
+ * order's laser-spot factor. Null when the demo has no devices.
  */
 export async function demoDeviceStart(
   dataSource: DataSource,
@@ -189,9 +204,18 @@ export async function demoDeviceStart(
   const check = await createDeviceRepository(dataSource).lastCheck(device.id);
   if (!check) return null;
   const pdt = kind === 'laser';
+  const lens =
+    pdt && lensMagnification !== undefined
+      ? await demoLensWithFactor(dataSource, lensMagnification)
+      : null;
   return {
     device: pdt
-      ? { deviceId: device.id, powerSetMw: plan.powerMw, spotSetUm: plan.deviceSpotDiameterUm }
+      ? {
+          deviceId: device.id,
+          powerSetMw: plan.powerMw,
+          spotSetUm: plan.deviceSpotDiameterUm,
+          ...(lens ? { lensId: lens.id } : {}),
+        }
       : { deviceId: device.id, irradianceSetMwPerCm2: plan.irradianceMwPerCm2 },
     deviceRecord: {
       deviceId: device.id,
@@ -202,9 +226,9 @@ export async function demoDeviceStart(
       outputCheckedAt: check.checkedAt.toISOString(),
       measuredIrradianceMwPerCm2: null,
       measuredFrom: null,
-      lensId: null,
-      lensName: null,
-      laserSpotFactor: pdt ? (lensMagnification ?? null) : null,
+      lensId: lens?.id ?? null,
+      lensName: lens?.name ?? null,
+      laserSpotFactor: pdt ? (lens?.laserSpotFactor ?? lensMagnification ?? null) : null,
       laserSpotSetting: pdt ? (definition.deviceChecks?.laserSpotSetting ?? 'device-spot') : null,
     },
   };

@@ -4,6 +4,7 @@ import { listSlots } from '../../shared/lists/slots';
 import type { PlanInputs } from '../../shared/schemas/calculation';
 import { createAuditRepository } from '../audit/repository';
 import { TreatmentOrder } from '../db/entities/treatment-order';
+import { demoLensWithFactor } from './devices';
 import { newestApprovedVersion } from './scenario';
 import { demoDomain, demoPatients } from './seed';
 
@@ -115,6 +116,7 @@ export async function seedDemoListsAndStock(
   const pv = await newestApprovedVersion(dataSource, 'pdt-half-dose');
   const patients = demoPatients.filter((p) => p.recordNumber >= 'MP-100203');
   let pick = 0;
+  const lens = await demoLensWithFactor(dataSource, 1.05);
   for (let day = todayIndex; day < 5; day++) {
     const list = listIds.get(`${day}:${pdtRoom}`)!;
     for (let n = 0; n < 2; n++) {
@@ -130,7 +132,10 @@ export async function seedDemoListsAndStock(
         weight: { value: p.weightKg, unit: 'kg' },
         bsaFormula: 'mosteller',
         lesionGldUm: 1800 + 200 * n,
-        lensMagnification: 1,
+        // The order picks the unit's standard-field lens from the register.
+        ...(lens
+          ? { lensId: lens.id, lensMagnification: lens.laserSpotFactor }
+          : { lensMagnification: 1 }),
       };
       const plan = computePlan(pv.definition, inputs);
       const madeUp = day === todayIndex;

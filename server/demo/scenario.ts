@@ -14,7 +14,7 @@ import { asTransaction } from '../db/unit-of-work';
 import { createPatientRepository } from '../patients/repository';
 import { createUserRepository } from '../people/repository';
 import { addParticipant, createSessionRepository, recordOrderFacts } from '../sessions/repository';
-import { demoDeviceStart } from './devices';
+import { demoDeviceStart, demoLensWithFactor } from './devices';
 import { demoDomain, demoPatients } from './seed';
 
 /**
@@ -190,7 +190,7 @@ export const demoHistory: HistoryItem[] = [
     protocol: 'pdt-half-dose',
     daysAgo: 75,
     hour: 11,
-    inputs: { ...adult(patient('MP-100202'), true), lesionGldUm: 1800, lensMagnification: 1.0 },
+    inputs: { ...adult(patient('MP-100202'), true), lesionGldUm: 1800, lensMagnification: 0.94 },
     script: pdtScript(),
   },
   {
@@ -210,7 +210,7 @@ export const demoHistory: HistoryItem[] = [
     protocol: 'pdt-standard',
     daysAgo: 33,
     hour: 14,
-    inputs: { ...adult(patient('MP-100211'), true), lesionGldUm: 4000, lensMagnification: 1.0 },
+    inputs: { ...adult(patient('MP-100211'), true), lesionGldUm: 4000, lensMagnification: 0.94 },
     script: pdtScript(150),
   },
   {
@@ -301,7 +301,7 @@ export const demoHistory: HistoryItem[] = [
     protocol: 'pdt-standard',
     daysAgo: 5,
     hour: 10,
-    inputs: { ...adult(patient('MP-100203')), lesionGldUm: 2900, lensMagnification: 1.0 },
+    inputs: { ...adult(patient('MP-100203')), lesionGldUm: 2900, lensMagnification: 0.94 },
     script: pdtScript(),
   },
 ];
@@ -508,7 +508,7 @@ export async function seedDemoScenario(
       recordNumber: 'MP-100210',
       eye: 'left',
       protocol: 'pdt-half-fluence',
-      inputs: { ...adult(patient('MP-100210'), true), lesionGldUm: 1900, lensMagnification: 1.0 },
+      inputs: { ...adult(patient('MP-100210'), true), lesionGldUm: 1900, lensMagnification: 1.05 },
       status: 'draft',
     },
   ];
@@ -517,7 +517,11 @@ export async function seedDemoScenario(
     const pv = await newestApprovedVersion(dataSource, item.protocol);
     const who = await patients.findByRecordNumber(item.recordNumber);
     if (!who) continue;
-    const plan = computePlan(pv.definition, item.inputs);
+    // Today's PDT orders pick their lens from the register, as the order form does.
+    const factor = item.inputs.lensMagnification;
+    const lens = factor === undefined ? null : await demoLensWithFactor(dataSource, factor);
+    const inputs: PlanInputs = lens ? { ...item.inputs, lensId: lens.id } : item.inputs;
+    const plan = computePlan(pv.definition, inputs);
     const signed = item.status !== 'draft';
     const signedAt = new Date();
     const saved = await orderRepo.save({
@@ -527,7 +531,7 @@ export async function seedDemoScenario(
       protocolSha256: pv.sha256,
       status: item.status,
       revision: 1,
-      inputs: item.inputs,
+      inputs,
       plan,
       engineVersion: plan.engineVersion,
       checklist: noAnswers(pv.definition),
@@ -543,7 +547,7 @@ export async function seedDemoScenario(
       await patients.recordMeasurement(
         asTransaction(dataSource.manager),
         { patientId: who.id, orderId: saved.id, measuredAt: signedAt },
-        item.inputs,
+        inputs,
       );
     added++;
   }

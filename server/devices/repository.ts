@@ -185,7 +185,7 @@ export function createDeviceRepository(dataSource: DataSource) {
       return {
         orderId: Number(row.id),
         status: String(row.status),
-        inputs: parseJson<{ lensId?: number }>(row.inputs),
+        inputs: parseJson<{ lensId?: number; lensMagnification?: number }>(row.inputs),
         key: String(row.key),
         version: Number(row.version),
         definition: parseJson<ProtocolDefinition>(row.definition),

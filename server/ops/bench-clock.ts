@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { chromium } from 'playwright-core';
 import { demoPassword } from '../demo/seed';
-import { benchVersionReason } from './bench-open-loop';
+import { benchUvSource, benchVersionReason } from './bench-open-loop';
 
 const uvDurationS = 1800; // cxl-standard: 3 mW/cm² for 30 min (Wollensak G, Spoerl E, Seiler T, Am J Ophthalmol 2003)
 
@@ -75,6 +75,7 @@ export async function measureClockError(base: string) {
         eyewear: true,
         deviceSettings: true,
       },
+      device: await benchUvSource(base),
     },
     { type: 'step-started', stepId: 'riboflavin-soak', clientTime: at(1_900_000) },
     ...Array.from({ length: 15 }, (_, i) => ({

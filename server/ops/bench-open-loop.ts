@@ -43,6 +43,36 @@ async function call(base: string, cookie: string, method: string, url: string, b
 }
 
 /**
+ * A UV source of the bench's own on the device register, added by the demo administrator with a
+ * passing output check now (3 mW/cm² set and read: the irradiance of cxl-standard v1), since every
+ * session start names a checked device. Returns the `device` the bench's session starts send.
+ */
+export async function benchUvSource(base: string) {
+  const admin = await signIn(base, 'admin');
+  const { device } = await call(base, admin, 'POST', '/devices', {
+    name: `Bench UV source ${randomUUID().slice(0, 8)}`,
+    kind: 'uv',
+    wavelengthNm: 370,
+    serialNumber: 'BENCH-UV-1',
+    location: 'Benchmark',
+    powerRangeMw: null,
+    spotRangeUm: null,
+    irradianceRangeMwPerCm2: { min: 1, max: 45 },
+    pulsedAvailable: true,
+    serviceDueOn: '2099-12-31',
+    status: 'in-use',
+    outOfServiceReason: null,
+  });
+  await call(base, admin, 'POST', `/devices/${device.id}/output-checks`, {
+    irradianceSetMwPerCm2: 3,
+    irradianceMeasuredMwPerCm2: 3,
+    meterIdentity: 'Bench meter',
+    meterCalibrationDueOn: '2099-06-30',
+  });
+  return { deviceId: device.id as number, irradianceSetMwPerCm2: 3 };
+}
+
+/**
  * Running CXL sessions, in their riboflavin soak (the step where drops are given every few
  * minutes), made through the API as a clinician and a nurse would: patient, order, signature,
  * session start, step start. Ten at a time. Returns the orders' ids.
@@ -53,6 +83,7 @@ export async function startCxlSessions(
   count: number,
 ): Promise<number[]> {
   const { clinician, nurse } = people;
+  const device = await benchUvSource(base);
   const orderIds: number[] = [];
   const startSession = async (i: number) => {
     const patient = await call(base, clinician, 'POST', '/patients', {
@@ -89,6 +120,7 @@ export async function startCxlSessions(
         eyewear: true,
         deviceSettings: true,
       },
+      device,
     });
     await call(base, nurse, 'POST', `/orders/${draft.order.id}/session-events`, {
       idempotencyKey: randomUUID(),

@@ -31,9 +31,10 @@ const refusal = (
  * The device rules of a session start, read before the start is stored: the device exists, is of
  * the kind the treatment needs, is in service, within its service date, and its last output
  * check is from today (or the configured hours) and passes the order's protocol; the settings
- * given are the kind's and lie inside the device's ranges. A protocol version with deviceChecks
- * requires the device; an older version takes one if given and then holds it to the same rules.
- * Returns what the stored start records about the device, or the refusal.
+ * given are the kind's and lie inside the device's ranges. Every start names its device, whatever
+ * the protocol version (an older version without deviceChecks holds the check to the default
+ * tolerance), and a laser start names its contact lens: the order's, or one chosen at the start
+ * whose laser-spot factor is the plan's. Returns what the stored start records, or the refusal.
  */
 export async function deviceStartVerdict(
   devices: DeviceRepository,
@@ -47,15 +48,13 @@ export async function deviceStartVerdict(
   const { definition } = order;
   const checks = definition.deviceChecks;
   const setting: DeviceSetting | undefined = input.device;
-  if (!setting) {
-    if (checks === undefined) return { record: null };
+  if (!setting)
     return refusal(
       'device_required',
       `The session cannot start without its device: choose the ${definition.kind === 'pdt' ? 'laser' : 'UV source'} and enter what is set on it.`,
       'device',
       `device is required for ${order.key} v${order.version} (deviceId and the settings)`,
     );
-  }
   const row = await devices.findById(setting.deviceId);
   if (!row)
     return refusal(
@@ -108,12 +107,9 @@ export async function deviceStartVerdict(
       'device.deviceId must name a device that can pulse',
     );
 
-  let lens: { id: number; name: string; laserSpotFactor: number } | null = null;
-  if (kind === 'laser' && order.inputs.lensId !== undefined) {
-    const found = await devices.findLens(order.inputs.lensId);
-    if (found) lens = { id: found.id, name: found.name, laserSpotFactor: found.laserSpotFactor };
-  }
-  const typedFactor = (order.inputs as { lensMagnification?: number }).lensMagnification;
+  const lensVerdict = await startLens(devices, order.inputs, setting, kind);
+  if ('refusal' in lensVerdict) return lensVerdict;
+  const { lens } = lensVerdict;
   const fromCheck =
     lastCheck?.quantity === 'irradiance' && lastCheck.setValue === setting.irradianceSetMwPerCm2
       ? lastCheck.measuredValue
@@ -136,9 +132,84 @@ export async function deviceStartVerdict(
             : 'output-check',
       lensId: lens?.id ?? null,
       lensName: lens?.name ?? null,
-      laserSpotFactor: kind === 'laser' ? (lens?.laserSpotFactor ?? typedFactor ?? null) : null,
+      laserSpotFactor: lens?.laserSpotFactor ?? null,
       // Versions before deviceChecks plan the laser's spot as the device spot (retinal ÷ factor).
       laserSpotSetting: kind === 'laser' ? (checks?.laserSpotSetting ?? 'device-spot') : null,
     },
   };
 }
+
+type StartLens = { id: number; name: string; laserSpotFactor: number } | null;
+
+/**
+ * The contact lens of a laser start. The order's lens (picked from the register when it was
+ * signed) is the one; an order whose factor was typed needs the lens named at the start, in use on
+ * the register and with the plan's laser-spot factor, since the spot set on the laser was worked
+ * out with that factor. A UV source takes no lens.
+ */
+async function startLens(
+  devices: DeviceRepository,
+  inputs: { lensId?: number; lensMagnification?: number },
+  setting: DeviceSetting,
+  kind: 'laser' | 'uv',
+): Promise<{ refusal: DeviceStartRefusal } | { lens: StartLens }> {
+  if (kind === 'uv') {
+    if (setting.lensId === undefined) return { lens: null };
+    return refusal(
+      'device_lens_not_laser',
+      'A UV source takes no contact lens from the lens register.',
+      'device.lensId',
+      'device.lensId must be left out for a UV source',
+      400,
+    );
+  }
+  if (inputs.lensId !== undefined) {
+    if (setting.lensId !== undefined && setting.lensId !== inputs.lensId)
+      return refusal(
+        'device_lens_mismatch',
+        `The order's plan was worked out with lens ${inputs.lensId}; use that lens, or correct the order.`,
+        'device.lensId',
+        `device.lensId must be ${inputs.lensId}, the order's lens (or be left out)`,
+      );
+    const ordered = await devices.findLens(inputs.lensId);
+    if (!ordered)
+      return refusal(
+        'device_lens_unknown',
+        `There is no lens ${inputs.lensId} on the register.`,
+        'device.lensId',
+        'device.lensId must name a lens on the register',
+      );
+    return { lens: lensFacts(ordered) };
+  }
+  const factor = inputs.lensMagnification;
+  if (setting.lensId === undefined)
+    return refusal(
+      'device_lens_required',
+      'Name the contact lens on the eye: the order gives only its factor.',
+      'device.lensId',
+      `device.lensId is required: a lens in use whose laser-spot factor is ${factor ?? "the order's"}`,
+      400,
+    );
+  const chosen = await devices.findLens(setting.lensId);
+  if (!chosen || !chosen.active)
+    return refusal(
+      'device_lens_unknown',
+      `There is no lens ${setting.lensId} in use on the register.`,
+      'device.lensId',
+      'device.lensId must name a lens in use (Lenses page)',
+    );
+  if (factor !== undefined && chosen.laserSpotFactor !== factor)
+    return refusal(
+      'device_lens_factor',
+      `${chosen.name} has a laser-spot factor of ${chosen.laserSpotFactor}; the plan's spot was worked out with ${factor}. Use a lens with that factor, or correct the order.`,
+      'device.lensId',
+      `device.lensId must name a lens whose laser-spot factor is ${factor} (${chosen.name}: ${chosen.laserSpotFactor})`,
+    );
+  return { lens: lensFacts(chosen) };
+}
+
+const lensFacts = (row: { id: number; name: string; laserSpotFactor: number }) => ({
+  id: row.id,
+  name: row.name,
+  laserSpotFactor: row.laserSpotFactor,
+});

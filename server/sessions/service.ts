@@ -707,8 +707,10 @@ export function createSessionService(deps: {
       ) {
         if (!deps.devices)
           throw new Error('the session service starts sessions only with the device register');
+        // Judged at the start's own time: a start queued offline at 23:40 counts that day's check
+        // (the clock rules, judged in the transaction, bound how far that time may lie from now).
         const verdict = await deviceStartVerdict(deps.devices, orderId, input, {
-          nowMs: now(),
+          nowMs: Math.min(Date.parse(input.clientTime), now()),
           unitTimeZone: deps.unitTimeZone,
           validity: deps.checkValidity ?? { kind: 'unit-day' },
         });

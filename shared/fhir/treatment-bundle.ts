@@ -275,10 +275,14 @@ export function buildTreatmentBundle(facts: TreatmentFacts): FhirBundle {
         code: concept(localCodes.exposure),
         valueQuantity: quantity(exposureS, 's'),
       });
-    if (record.irradianceMwPerCm2 !== null)
+    // The irradiance the delivered fluence was worked out from: measured (UV), from the power set
+    // (laser), or the plan's when no device figure exists.
+    const irradianceMwPerCm2 =
+      record.deviceUsed?.fluenceIrradianceMwPerCm2 ?? record.irradianceMwPerCm2;
+    if (irradianceMwPerCm2 !== null)
       component.push({
         code: concept(localCodes.irradiance),
-        valueQuantity: quantity(record.irradianceMwPerCm2, 'mW/cm2'),
+        valueQuantity: quantity(irradianceMwPerCm2, 'mW/cm2'),
       });
     if (facts.kind === 'cxl' && record.thicknessBeforeUvUm !== null)
       component.push({

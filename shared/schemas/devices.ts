@@ -155,6 +155,15 @@ export const deviceSettingSchema = z.strictObject({
     'irradianceMwPerCm2',
     'mW/cm²',
   ).optional(),
+  /**
+   * PDT: the contact lens on the eye, from the lens register. Needed when the order names no lens
+   * (its factor was typed); its laser-spot factor must be the one the plan was worked out with.
+   */
+  lensId: z
+    .number({ error: 'device.lensId must be the id of a lens on the register' })
+    .int('device.lensId must be the id of a lens on the register')
+    .positive('device.lensId must be the id of a lens on the register')
+    .optional(),
 });
 export type DeviceSetting = z.infer<typeof deviceSettingSchema>;
 

@@ -106,6 +106,10 @@ describe('the output check before a session, on a tablet', () => {
     await expect
       .poll(async () => (await sessionOf<{ status: string }>(orderId)).status)
       .toBe('in-session');
+    // The clock reads back the start with the server's device record and goes on.
+    await page.getByRole('button', { name: 'Start preparation' }).waitFor();
+    await page.reload();
+    await page.getByRole('button', { name: 'Start preparation' }).waitFor();
     const session = await sessionOf<{
       events: { type: string; device?: object }[];
       record: { deviceUsed: { device: { name: string }; irradianceSetMwPerCm2: number } };

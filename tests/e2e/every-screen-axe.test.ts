@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { seedDemoDevices } from '../../server/demo/devices';
 import { seedDemoScenario } from '../../server/demo/scenario';
 import { demoPassword } from '../../server/demo/seed';
 import type { Role } from '../../shared/roles';
@@ -16,10 +17,11 @@ import {
  */
 
 let ctx: BrowserContext;
-const ids = { order: 0, patient: 0, deviation: 0, protocolKey: '', protocolVersion: 0 };
+const ids = { device: 0, order: 0, patient: 0, deviation: 0, protocolKey: '', protocolVersion: 0 };
 
 beforeAll(async () => {
   ctx = await startBrowserTest();
+  await seedDemoDevices(ctx.server.dataSource, 'Europe/Lisbon');
   await seedDemoScenario(ctx.server.dataSource, 'Europe/Lisbon');
   const db = ctx.server.dataSource;
   const [deviation] = await db.query(
@@ -32,7 +34,9 @@ beforeAll(async () => {
   const [protocol] = await db.query(
     "SELECT protocol_key AS protocolKey, version FROM protocol_version WHERE status = 'approved' ORDER BY id LIMIT 1",
   );
+  const [device] = await db.query("SELECT id FROM device WHERE kind = 'laser' ORDER BY id LIMIT 1");
   Object.assign(ids, {
+    device: Number(device.id),
     order: Number(deviation.orderId),
     patient: Number(order.patientId),
     deviation: Number(deviation.id),
@@ -89,6 +93,8 @@ const screens: { name: string; path: () => string; roles: Role[] }[] = [
   { name: 'Recall', path: () => '/recall', roles: ['pharmacist'] },
   { name: 'Drug use', path: () => '/reports/drug-use', roles: ['pharmacist'] },
   { name: 'Cancel orders', path: () => '/order-cancelling', roles: ['admin'] },
+  { name: 'Devices and lenses', path: () => '/devices', roles: everyone },
+  { name: 'Device', path: () => `/devices/${ids.device}`, roles: everyone },
 ];
 
 /**

@@ -14,6 +14,7 @@ import {
   type TestContext,
   type TestPerson,
 } from '../support/api';
+import { readyBench } from '../support/devices';
 
 type Agent = ReturnType<typeof supertest.agent>;
 let ctx: TestContext;
@@ -41,10 +42,14 @@ beforeAll(async () => {
       pharmacist: pharmacistAgent,
     })
   ).id;
-  readyId = (
-    await signOrder(clinicianAgent, clinician, cxlOrder((await createTestPatient(ctx)).id))
-  ).id;
-  await nurseAgent.post(`/api/orders/${readyId}/session-events`).send({
+  const ready = await signOrder(
+    clinicianAgent,
+    clinician,
+    cxlOrder((await createTestPatient(ctx)).id),
+  );
+  readyId = ready.id;
+  const bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
+  const started = await nurseAgent.post(`/api/orders/${readyId}/session-events`).send({
     idempotencyKey: randomUUID(),
     clientTime: new Date().toISOString(),
     type: 'session-started',
@@ -55,7 +60,10 @@ beforeAll(async () => {
       eyewear: true,
       deviceSettings: true,
     },
+    device: bench.deviceFor(ready),
   });
+  if (started.status !== 201)
+    throw new Error(`session start failed: ${JSON.stringify(started.body)}`);
 });
 afterAll(async () => {
   await ctx.close();

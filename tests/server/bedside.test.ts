@@ -13,6 +13,7 @@ import {
   type TestContext,
   type TestPerson,
 } from '../support/api';
+import { readyBench } from '../support/devices';
 
 // The bedside's own rules, each tried as a hurried colleague would: identity and eye again before
 // the light or UV, a reason for ending a timed dose step far short, a missed tap entered late at
@@ -30,12 +31,14 @@ let clinicianAgent: Agent;
 let pharmacistAgent: Agent;
 let nurseAgent: Agent;
 
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   ctx = await startTestApp({ TAP_CLOCK_SKEW_S: '5', TAP_OFFLINE_WINDOW_H: '2' });
   clinician = await createTestPerson(ctx, ['clinician']);
   clinicianAgent = await signedInAgent(ctx, clinician);
   pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
   nurseAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 });
 afterAll(async () => {
   await ctx.close();
@@ -101,7 +104,7 @@ async function pdtWaitingForLight() {
   const order = await preparedPdtOrder(ctx, team(), 60);
   const at = timeline(30);
   await postAll(order.id, [
-    at(0, { type: 'session-started', checks: allChecks }),
+    at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
     at(60, { type: 'step-started', stepId: 'infusion' }),
     at(660, { type: 'step-ended', stepId: 'infusion' }),
     at(660, { type: 'step-started', stepId: 'wait-for-light' }),
@@ -115,7 +118,7 @@ async function soakFourMinutesIn() {
   const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
   const at = timeline(10);
   await postAll(order.id, [
-    at(0, { type: 'session-started', checks: allChecks }),
+    at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
     at(30, { type: 'step-started', stepId: 'epithelium-removal' }),
     at(330, { type: 'step-ended', stepId: 'epithelium-removal' }),
     at(360, { type: 'step-started', stepId: 'riboflavin-soak' }),

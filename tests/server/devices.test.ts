@@ -8,6 +8,7 @@ import {
   cxlOrder,
   identityConfirmed,
   pdtOrder,
+  preparedPdtOrder,
   signOrder,
   signedInAgent,
   startTestApp,
@@ -88,6 +89,14 @@ async function preparedPdtV3Order(inputs: Record<string, unknown>) {
   });
   if (prepared.status !== 201) throw new Error(`prep failed: ${JSON.stringify(prepared.body)}`);
   return prepared.body.order as typeof order;
+}
+
+/** The tests' standard PDT order on version 1 (a typed laser-spot factor of 1), prepared. */
+function preparedPdtV1Order() {
+  return preparedPdtOrder(ctx, {
+    clinician: [clinicianAgent, clinician],
+    pharmacist: pharmacistAgent,
+  });
 }
 
 /** What a refused start must leave behind: no event, the order as it was, an audit row naming the rule. */
@@ -386,6 +395,119 @@ describe('a session start on a version with device checks', () => {
     );
     expect(wrongKind.status).toBe(422);
     expect(wrongKind.body.error.message).toContain('needs a laser');
+  });
+});
+
+describe('every session start names its device and lens', () => {
+  it('a version-1 order (no deviceChecks) cannot start without a device either', async () => {
+    const patient = await createTestPatient(ctx);
+    const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
+    const res = await post(
+      order.id,
+      timeline(1)(0, { type: 'session-started', checks: allChecks }),
+    );
+    expect(res.status).toBe(422);
+    expect(res.body.error.fields[0]).toMatchObject({
+      path: 'device',
+      message: expect.stringContaining('cxl-standard v1'),
+    });
+    await expectNothingStored(order.id, order.status, 'device_required');
+  });
+
+  it('a laser start on an order with a typed factor names a lens of that factor; anything else is refused and nothing stored', async () => {
+    // pdtOrder types a laser-spot factor of 1 (version 1): the lens is named at the start.
+    const order = await preparedPdtV1Order();
+    const laser = await addDevice(adminAgent, 'laser');
+    expect((await checkDevice(nurseAgent, laser, 57.7, 57.7)).status).toBe(201);
+    const setting = { deviceId: laser.id, powerSetMw: 57.7, spotSetUm: 3500 };
+    const lens = async (laserSpotFactor: number) =>
+      (
+        await adminAgent.post('/api/lenses').send({
+          name: `Test lens ${randomUUID().slice(0, 6)}`,
+          laserSpotFactor,
+          imageMagnification: laserSpotFactor,
+        })
+      ).body.lens as { id: number };
+    const start = (device: object) =>
+      post(order.id, timeline(1)(0, { type: 'session-started', checks: allChecks, device }));
+
+    const none = await start(setting);
+    expect(none.status).toBe(400);
+    expect(none.body.error.fields[0]).toMatchObject({
+      path: 'device.lensId',
+      message: expect.stringContaining('laser-spot factor is 1'),
+    });
+    await expectNothingStored(order.id, order.status, 'device_lens_required');
+
+    // A hurried colleague picks the wide-field lens (factor 1.6): the spot on the laser was worked
+    // out for factor 1, so the retina would get 1.6 × the spot and 1/2.56 of the fluence.
+    const wide = await lens(1.6);
+    const wrong = await start({ ...setting, lensId: wide.id });
+    expect(wrong.status).toBe(422);
+    expect(wrong.body.error.fields[0].path).toBe('device.lensId');
+    expect(wrong.body.error.message).toMatch(/laser-spot factor of 1\.6.*worked out with 1/);
+    await expectNothingStored(order.id, order.status, 'device_lens_factor');
+
+    const retired = await lens(1);
+    await adminAgent.post(`/api/lenses/${retired.id}/retirement`).send({});
+    const unknown = await start({ ...setting, lensId: retired.id });
+    expect(unknown.status).toBe(422);
+    await expectNothingStored(order.id, order.status, 'device_lens_unknown');
+
+    const right = await lens(1);
+    const started = await start({ ...setting, lensId: right.id });
+    expect(started.status).toBe(201);
+    expect(started.body.record.deviceUsed.lens).toMatchObject({ id: right.id, laserSpotFactor: 1 });
+  });
+
+  it('a lens other than the order’s own is refused; a UV source takes no lens', async () => {
+    const lens = await adminAgent.post('/api/lenses').send({
+      name: `Ordered test lens ${randomUUID().slice(0, 6)}`,
+      laserSpotFactor: 1,
+      imageMagnification: 1,
+    });
+    const other = await adminAgent.post('/api/lenses').send({
+      name: `Other test lens ${randomUUID().slice(0, 6)}`,
+      laserSpotFactor: 1,
+      imageMagnification: 1,
+    });
+    const order = await preparedPdtV3Order({ lensId: lens.body.lens.id });
+    const laser = await addDevice(adminAgent, 'laser');
+    expect(
+      (await checkDevice(nurseAgent, laser, order.plan.powerMw, order.plan.powerMw)).status,
+    ).toBe(201);
+    const swapped = await post(
+      order.id,
+      timeline(1)(0, {
+        type: 'session-started',
+        checks: allChecks,
+        device: {
+          deviceId: laser.id,
+          powerSetMw: order.plan.powerMw,
+          spotSetUm: order.plan.deviceSpotDiameterUm,
+          lensId: other.body.lens.id,
+        },
+      }),
+    );
+    expect(swapped.status).toBe(422);
+    expect(swapped.body.error.fields[0].message).toContain(
+      `${lens.body.lens.id}, the order's lens`,
+    );
+    await expectNothingStored(order.id, order.status, 'device_lens_mismatch');
+
+    const uvOrder = await cxlV3Order();
+    const uv = await checkedUvSource();
+    const withLens = await post(
+      uvOrder.id,
+      timeline(1)(0, {
+        type: 'session-started',
+        checks: allChecks,
+        device: { deviceId: uv.id, irradianceSetMwPerCm2: 3, lensId: lens.body.lens.id },
+      }),
+    );
+    expect(withLens.status).toBe(400);
+    expect(withLens.body.error.fields[0].path).toBe('device.lensId');
+    await expectNothingStored(uvOrder.id, uvOrder.status, 'device_lens_not_laser');
   });
 });
 

@@ -6,6 +6,7 @@ import {
   FaultClient,
   faultConfig,
   readyCxlOrder,
+  readyUvSource,
   faultDbPort,
   resetFaultDatabase,
   startApiProcess,
@@ -65,12 +66,13 @@ async function eventCount(orderId: number): Promise<number> {
 describe('when the API process dies mid-session', () => {
   it('a restarted process shows the session exactly where it was, and the clock goes on', async () => {
     const orderId = await readyCxlOrder(api!.url);
+    const device = await readyUvSource(api!.url);
     const nurse = await new FaultClient(api!.url).signIn(
       'nurse@demo.luxtempo.example',
       demoPassword,
     );
     for (const e of [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device }),
       at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
       at(180, { type: 'drop-given', stepId: 'riboflavin-soak' }),
     ]) {
@@ -97,6 +99,7 @@ describe('when the API process dies mid-session', () => {
 
   it('deviations of an event written just before a crash are worked out when the server starts again', async () => {
     const orderId = await readyCxlOrder(api!.url);
+    const device = await readyUvSource(api!.url);
     const nurse = await new FaultClient(api!.url).signIn(
       'nurse@demo.luxtempo.example',
       demoPassword,
@@ -104,7 +107,7 @@ describe('when the API process dies mid-session', () => {
     await nurse.call(
       'POST',
       `/orders/${orderId}/session-events`,
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device }),
     );
     await nurse.call(
       'POST',
@@ -146,6 +149,7 @@ describe('two API instances on one database', () => {
   it('store one row when both receive the same event at the same moment', async () => {
     second ??= await startApiProcess(portB, 'api-b');
     const orderId = await readyCxlOrder(api!.url);
+    const device = await readyUvSource(api!.url);
     const nurse = await new FaultClient(api!.url).signIn(
       'nurse@demo.luxtempo.example',
       demoPassword,
@@ -153,7 +157,7 @@ describe('two API instances on one database', () => {
     await nurse.call(
       'POST',
       `/orders/${orderId}/session-events`,
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device }),
     );
     const event = at(60, { type: 'step-started', stepId: 'riboflavin-soak' });
     const answers = await Promise.all([
@@ -173,12 +177,13 @@ describe('two API instances on one database', () => {
   it('take turns on one session, and every answer counts the events the other one stored', async () => {
     second ??= await startApiProcess(portB, 'api-b');
     const orderId = await readyCxlOrder(api!.url);
+    const device = await readyUvSource(api!.url);
     const nurse = await new FaultClient(api!.url).signIn(
       'nurse@demo.luxtempo.example',
       demoPassword,
     );
     const taps = [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device }),
       at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
       ...[180, 300, 420, 540, 660].map((s) =>
         at(s, { type: 'drop-given', stepId: 'riboflavin-soak' }),
@@ -206,6 +211,7 @@ describe('two API instances on one database', () => {
 describe('when the database stops for 20 seconds', () => {
   it('the API answers 503 with a clear message meanwhile, and the queued events are all stored once it is back', async () => {
     const orderId = await readyCxlOrder(api!.url);
+    const device = await readyUvSource(api!.url);
     const nurse = await new FaultClient(api!.url).signIn(
       'nurse@demo.luxtempo.example',
       demoPassword,
@@ -213,7 +219,7 @@ describe('when the database stops for 20 seconds', () => {
     await nurse.call(
       'POST',
       `/orders/${orderId}/session-events`,
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device }),
     );
     const queue = [
       at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),

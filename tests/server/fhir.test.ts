@@ -23,6 +23,7 @@ import {
   type TestContext,
   type TestPerson,
 } from '../support/api';
+import { fluenceFromPowerJPerCm2, readyBench } from '../support/devices';
 
 type Agent = ReturnType<typeof supertest.agent>;
 type Json = Record<string, any>;
@@ -51,6 +52,7 @@ const allChecks = {
   deviceSettings: true,
 };
 
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   // The file names itself with draft-04's "id"; ajv wants "$id".
   const { id, ...schema } = JSON.parse(readFileSync(schemaPath, 'utf8'));
@@ -81,6 +83,7 @@ beforeAll(async () => {
   clinicianAgent = await signedInAgent(ctx, clinician);
   pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
   nurseAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 }, 60_000);
 
 afterAll(async () => {
@@ -135,7 +138,7 @@ async function workedPdtSession(): Promise<number> {
   const at = timeline(40);
   const light = 60 + 900;
   await runEvents(order.id, [
-    at(0, { type: 'session-started', checks: allChecks }),
+    at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
     at(60, { type: 'step-started', stepId: 'infusion' }),
     at(660, { type: 'step-ended', stepId: 'infusion' }),
     at(light, identityConfirmed('laser')),
@@ -160,7 +163,7 @@ async function workedCxlSession(): Promise<number> {
     at(uvStart + i * 300, { type: 'drop-given', stepId: 'uv-exposure' }),
   );
   await runEvents(order.id, [
-    at(0, { type: 'session-started', checks: allChecks }),
+    at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
     at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
     ...soak,
     at(60 + 1800, { type: 'step-ended', stepId: 'riboflavin-soak' }),
@@ -219,18 +222,19 @@ describe('treatment records out as FHIR R4 bundles', () => {
     expect(given.dosage.rateQuantity).toMatchObject({ value: 3, code: 'mL/min' });
     expect(given.dosage.route.coding[0].code).toBe('47625008'); // intravenous, SNOMED CT (from memory)
 
-    // TAP Study Group 1999: 600 mW/cm² for 83 s = 49.8 J/cm².
+    // TAP Study Group 1999: 600 mW/cm² for 83 s = 49.8 J/cm²; delivered from the 57.7 mW set on
+    // the laser over the 3,500 µm spot: 599.7 mW/cm², 49.78 J/cm².
     const light = resources(bundle, 'Observation').find(
       (o) => o.code.coding[0].code === 'delivered-light',
     )!;
     expect(light.valueQuantity).toMatchObject({ code: 'J/cm2' });
-    expect(light.valueQuantity.value).toBeCloseTo(49.8, 6);
-    expect(light.component.map((c: Json) => [c.valueQuantity.value, c.valueQuantity.code])).toEqual(
-      [
-        [83, 's'],
-        [600, 'mW/cm2'],
-      ],
-    );
+    expect(light.valueQuantity.value).toBeCloseTo(fluenceFromPowerJPerCm2(57.7, 3500, 83), 9);
+    expect(light.valueQuantity.value).toBeCloseTo(49.8, 1);
+    const [exposure, irradiance] = light.component.map((c: Json) => c.valueQuantity);
+    expect(exposure).toMatchObject({ value: 83, code: 's' });
+    expect(irradiance.code).toBe('mW/cm2');
+    expect(irradiance.value).toBeCloseTo(fluenceFromPowerJPerCm2(57.7, 3500, 1000), 9);
+    expect(irradiance.value).toBeCloseTo(600, -1);
 
     for (const q of quantitiesOf(bundle)) {
       expect(q.system).toBe('http://unitsofmeasure.org');
@@ -299,7 +303,7 @@ describe('treatment records out as FHIR R4 bundles', () => {
     // Light 20 min after the infusion started, outside 15 ± 1 min (TAP Study Group 1999; tolerance common practice).
     const light = 60 + 1200;
     await runEvents(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(light, identityConfirmed('laser')),

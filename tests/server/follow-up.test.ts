@@ -11,6 +11,7 @@ import {
   type TestContext,
   type TestPerson,
 } from '../support/api';
+import { readyBench } from '../support/devices';
 
 type Agent = ReturnType<typeof supertest.agent>;
 let ctx: TestContext;
@@ -23,6 +24,7 @@ let auditorAgent: Agent;
 let offsetMs = 0;
 const days = (n: number) => n * 86_400_000;
 
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   ctx = await startTestApp({}, { now: () => Date.now() + offsetMs });
   clinician = await createTestPerson(ctx, ['clinician']);
@@ -30,6 +32,7 @@ beforeAll(async () => {
   pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
   nurseAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
   auditorAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['auditor']));
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 });
 afterAll(async () => {
   await ctx.close();
@@ -60,7 +63,7 @@ async function completedPdtSession(
     ...e,
   });
   for (const event of [
-    at(0, { type: 'session-started', checks: allChecks }),
+    at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
     at(60, { type: 'step-started', stepId: 'infusion' }),
     at(660, { type: 'step-ended', stepId: 'infusion' }),
     at(960, identityConfirmed('laser')),

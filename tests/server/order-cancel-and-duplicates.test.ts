@@ -12,6 +12,7 @@ import {
   type TestContext,
   type TestPerson,
 } from '../support/api';
+import { readyBench } from '../support/devices';
 
 type Agent = ReturnType<typeof supertest.agent>;
 let ctx: TestContext;
@@ -22,6 +23,7 @@ let pharmacistAgent: Agent;
 let nurseAgent: Agent;
 let adminAgent: Agent;
 
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   ctx = await startTestApp();
   clinician = await createTestPerson(ctx, ['clinician']);
@@ -30,6 +32,7 @@ beforeAll(async () => {
   pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
   nurseAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
   adminAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['admin']));
+  bench = await readyBench(adminAgent);
 });
 afterAll(async () => {
   await ctx.close();
@@ -125,6 +128,7 @@ describe('cancelling an order before its session', () => {
         eyewear: true,
         deviceSettings: true,
       },
+      device: bench.deviceFor(order),
     });
     expect(start.status).toBe(409);
     expect((await stored(order.id)).status).toBe('cancelled');
@@ -243,6 +247,7 @@ describe('cancelling an order before its session', () => {
         eyewear: true,
         deviceSettings: true,
       },
+      device: bench.deviceFor(order),
     });
     expect(start.status, JSON.stringify(start.body)).toBeLessThan(300);
     expect(await listed()).not.toContain(order.id);
@@ -264,6 +269,7 @@ describe('cancelling an order before its session', () => {
         eyewear: true,
         deviceSettings: true,
       },
+      device: bench.deviceFor(order),
     });
     expect(start.status, JSON.stringify(start.body)).toBeLessThan(300);
     const current = (await clinicianAgent.get(`/api/orders/${order.id}`)).body.order;

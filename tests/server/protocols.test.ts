@@ -16,10 +16,13 @@ import {
   type TestContext,
   type TestPerson,
 } from '../support/api';
+import { readyBench } from '../support/devices';
 
 let ctx: TestContext;
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   ctx = await startTestApp();
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 });
 afterAll(async () => {
   await ctx.close();
@@ -219,6 +222,7 @@ describe('an order and the version it was planned on', () => {
         eyewear: true,
         deviceSettings: true,
       },
+      device: bench.deviceFor(signed),
     });
     expect(start.status).toBe(409);
     expect(start.body.error.code).toBe('protocol_fingerprint_mismatch');

@@ -17,6 +17,7 @@ import {
   identityConfirmed,
 } from '../support/api';
 import { appConnection, ownerConnection } from '../support/database';
+import { readyBench } from '../support/devices';
 
 // What was signed or recorded stays as it was, even for someone who goes around the API with the
 // app's own database user (its password is in the web server's environment).
@@ -30,6 +31,7 @@ let nurseAgent: Agent;
 let app: Connection;
 let owner: Connection;
 
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   ctx = await startTestApp();
   clinician = await createTestPerson(ctx, ['clinician']);
@@ -39,6 +41,7 @@ beforeAll(async () => {
   nurseAgent = await signedInAgent(ctx, nurse);
   app = await appConnection(ctx.config);
   owner = await ownerConnection(ctx.config);
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 });
 afterAll(async () => {
   await app?.end();
@@ -89,7 +92,7 @@ async function finishedSession(): Promise<number> {
     ...e,
   });
   for (const event of [
-    at(0, { type: 'session-started', checks: allChecks }),
+    at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
     at(60, { type: 'step-started', stepId: 'infusion' }),
     // A short infusion (8 of 10 minutes), so the session has a deviation.
     at(540, { type: 'step-ended', stepId: 'infusion', reason: 'Line came out; ended early.' }),

@@ -15,6 +15,7 @@ import {
   type TestPerson,
   identityConfirmed,
 } from '../support/api';
+import { readyBench } from '../support/devices';
 
 type Agent = ReturnType<typeof supertest.agent>;
 let ctx: TestContext;
@@ -23,12 +24,14 @@ let clinicianAgent: Agent;
 let pharmacistAgent: Agent;
 let auditorAgent: Agent;
 
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   ctx = await startTestApp();
   clinician = await createTestPerson(ctx, ['clinician']);
   clinicianAgent = await signedInAgent(ctx, clinician);
   pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
   auditorAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['auditor']));
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 });
 afterAll(async () => {
   await ctx.close();
@@ -61,7 +64,7 @@ async function sessionWithLateLight(nurse: Agent, lightLateS: number): Promise<n
   });
   const light = 60 + 900 + lightLateS;
   for (const event of [
-    at(0, { type: 'session-started', checks: allChecks }),
+    at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
     at(60, { type: 'step-started', stepId: 'infusion' }),
     at(660, { type: 'step-ended', stepId: 'infusion' }),
     at(light, identityConfirmed('laser')),
@@ -221,7 +224,7 @@ describe('reviewing during a running session', () => {
     // the window's tolerance common practice): a deviation while the laser step runs.
     const light = 60 + 1200;
     for (const event of [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(light, identityConfirmed('laser')),
@@ -345,10 +348,13 @@ describe('the CSV export', () => {
       .buffer(true);
     expect(records.text.split('\r\n')[0]).toContain('delivered_fluence (J/cm²)');
     // 6 mg/m² × 1.82 m² = 10.92 mg; 30 mL infused; 83 s at 600 mW/cm² = 49.8 J/cm² planned and
-    // delivered (TAP Study Group, Arch Ophthalmol 1999; Mosteller RD, N Engl J Med 1987); no device
-    // named on this version-1 order, so the fluence's basis is the plan and the device columns are
-    // empty; one deviation.
-    expect(records.text.split('\r\n')[1]).toMatch(/,10\.92,30,83,49\.8,49\.8,planned,,,,,,,,,1$/);
+    // delivered (TAP Study Group, Arch Ophthalmol 1999; Mosteller RD, N Engl J Med 1987). Every
+    // session names its device: delivered is nominal, from the 57.7 mW set over the 3,500 µm spot
+    // (49.78 J/cm², shown to 0.1), then the laser, its serial, the lens and its factor, the power
+    // and spot set, no UV columns; one deviation.
+    expect(records.text.split('\r\n')[1]).toMatch(
+      /,10\.92,30,83,49\.8,49\.8,nominal,Test laser [0-9a-f]{8},SN-[0-9a-f]{6},Test lens ×1 [0-9a-f]{6},1,57\.7,3500,,,1$/,
+    );
   });
 });
 

@@ -15,6 +15,7 @@ import {
   type TestPerson,
   identityConfirmed,
 } from '../support/api';
+import { fluenceFromPowerJPerCm2, readyBench } from '../support/devices';
 
 // The session's safety gates (issue 11, gates 4–7), each tried as a hurried colleague would:
 // the unsafe tap is refused with the field named, nothing of it is stored, an audit row says
@@ -38,6 +39,7 @@ let pharmacistAgent: Agent;
 let nurse: TestPerson;
 let nurseAgent: Agent;
 
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   // A 5 s clock skew and a 1 h offline window: the unit configures both (README, Configuration).
   ctx = await startTestApp(
@@ -50,6 +52,7 @@ beforeAll(async () => {
   pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
   nurse = await createTestPerson(ctx, ['nurse']);
   nurseAgent = await signedInAgent(ctx, nurse);
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 });
 afterAll(async () => {
   await ctx.close();
@@ -134,7 +137,11 @@ describe('gate 4: the order of events', () => {
     // Made up 3 h 50 min ago: 4 h beyond-use (review table, Drug Discov Today 2008), so 10 min left.
     const order = await preparedPdtOrder(ctx, team(), 230);
     serverClock.offsetMs = 15 * 60_000;
-    const start = tapNow({ type: 'session-started', checks: allChecks });
+    const start = tapNow({
+      type: 'session-started',
+      checks: allChecks,
+      device: bench.deviceFor(order),
+    });
 
     const refused = await post(order.id, start);
 
@@ -167,7 +174,12 @@ describe('gate 4: the order of events', () => {
     );
     expect(audit).toHaveLength(1);
     expect(
-      (await post(order.id, tapNow({ type: 'session-started', checks: allChecks }))).status,
+      (
+        await post(
+          order.id,
+          tapNow({ type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+        )
+      ).status,
     ).toBe(201);
   });
 
@@ -183,7 +195,9 @@ describe('gate 4: the order of events', () => {
 
   it('an infusion start after the beyond-use time is refused in a running session; made up again there, the infusion starts', async () => {
     const order = await preparedPdtOrder(ctx, team(), 230);
-    await postAll(order.id, [tapNow({ type: 'session-started', checks: allChecks })]);
+    await postAll(order.id, [
+      tapNow({ type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+    ]);
     serverClock.offsetMs = 15 * 60_000;
     const infusion = tapNow({ type: 'step-started', stepId: 'infusion' });
 
@@ -207,7 +221,9 @@ describe('gate 4: the order of events', () => {
   it('an infusion start before the reconstitution time is refused naming clientTime', async () => {
     const order = await preparedPdtOrder(ctx, team(), 5);
     const at = timeline(10);
-    await postAll(order.id, [at(0, { type: 'session-started', checks: allChecks })]);
+    await postAll(order.id, [
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+    ]);
     const early = at(60, { type: 'step-started', stepId: 'infusion' });
 
     expect(refusedNaming(await post(order.id, early), 'clientTime')).toMatch(/reconstitution time/);
@@ -225,7 +241,7 @@ describe('gate 4: the order of events', () => {
     const at = timeline(30);
     const infusion = at(60, { type: 'step-started', stepId: 'infusion' });
     await postAll(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       infusion,
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(670, {
@@ -274,7 +290,7 @@ describe('gate 4: the order of events', () => {
     });
     const at = timeline(10);
     await postAll(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(120, { type: 'session-stopped', reason: 'Cannula could not be placed.' }),
     ]);
     const sheet = await nurseAgent.get(`/api/orders/${order.id}/discharge`);
@@ -295,7 +311,7 @@ describe('gate 5: tap times are bounded', () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(10);
     await postAll(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(570, { type: 'step-started', stepId: 'infusion' }),
     ]);
     const state = await nurseAgent.get(`/api/orders/${order.id}/session`);
@@ -312,7 +328,9 @@ describe('gate 5: tap times are bounded', () => {
   it('refuses a tap before the session started, naming clientTime, and stores nothing', async () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(20);
-    await postAll(order.id, [at(300, { type: 'session-started', checks: allChecks })]);
+    await postAll(order.id, [
+      at(300, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+    ]);
     const before = at(200, { type: 'step-started', stepId: 'confirm-patient' });
     expect(refusedNaming(await post(order.id, before), 'clientTime', 400)).toMatch(
       /before the session started/,
@@ -327,7 +345,7 @@ describe('gate 5: tap times are bounded', () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(20);
     await postAll(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
       at(660, { type: 'step-ended', stepId: 'infusion' }),
     ]);
@@ -349,6 +367,7 @@ describe('gate 5: tap times are bounded', () => {
       clientTime: new Date(serverNow() + s * 1000).toISOString(),
       type: 'session-started',
       checks: allChecks,
+      device: bench.deviceFor(order),
     });
     const far = ahead(30);
     expect(refusedNaming(await post(order.id, far), 'clientTime', 400)).toMatch(
@@ -360,14 +379,26 @@ describe('gate 5: tap times are bounded', () => {
 
   it('refuses a tap older than the unit’s offline window', async () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
-    const old = timeline(70)(0, { type: 'session-started', checks: allChecks });
+    const old = timeline(70)(0, {
+      type: 'session-started',
+      checks: allChecks,
+      device: bench.deviceFor(order),
+    });
     expect(refusedNaming(await post(order.id, old), 'clientTime', 400)).toMatch(
       /last 1 h \(TAP_OFFLINE_WINDOW_H\)/,
     );
     expect(await storedKeys(order.id)).toEqual([]);
     expect(
-      (await post(order.id, timeline(50)(0, { type: 'session-started', checks: allChecks })))
-        .status,
+      (
+        await post(
+          order.id,
+          timeline(50)(0, {
+            type: 'session-started',
+            checks: allChecks,
+            device: bench.deviceFor(order),
+          }),
+        )
+      ).status,
     ).toBe(201);
   });
 
@@ -375,7 +406,7 @@ describe('gate 5: tap times are bounded', () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(30);
     await postAll(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
       at(300, {
         type: 'session-stopped',
@@ -436,7 +467,7 @@ describe('gate 5: tap times are bounded', () => {
     const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
     const at = timeline(30); // 23:40, the evening before
     await postAll(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
     ]);
     const reason = 'Drop given at the bedside; the tablet was out of reach.';
@@ -466,7 +497,7 @@ describe('gate 5: tap times are bounded', () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(10);
     await postAll(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
     ]);
     const leak = at(120, {
@@ -490,7 +521,7 @@ describe('gate 6: UV below the minimum thickness needs a second person', () => {
     await postAll(
       order.id,
       [
-        at(0, { type: 'session-started', checks: allChecks }),
+        at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
         at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
         at(1860, { type: 'step-ended', stepId: 'riboflavin-soak' }),
         at(1860, { type: 'step-started', stepId: 'thickness-check' }),
@@ -628,7 +659,7 @@ describe('gate 7: what was given is recorded', () => {
     const order = await preparedPdtOrder(ctx, team(), 60);
     const at = timeline(minutesAgo);
     await postAll(order.id, [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
     ]);
     return { order, at };
@@ -708,8 +739,12 @@ describe('gate 7: what was given is recorded', () => {
       deviceEnergyJ: 3.5,
       lightOnS: 90,
     });
-    // 600 mW/cm² × 83 s = 49.8 J/cm² (TAP Study Group 1999): judged on the laser's figure, no deviation.
-    expect(entered.body.record.deliveredFluenceJPerCm2).toBeCloseTo(49.8, 9);
+    // 600 mW/cm² × 83 s = 49.8 J/cm² (TAP Study Group 1999): judged on the laser's figure, no
+    // deviation; delivered from the 57.7 mW set over the 3,500 µm spot for 83 s.
+    expect(entered.body.record.deliveredFluenceJPerCm2).toBeCloseTo(
+      fluenceFromPowerJPerCm2(57.7, 3500, 83),
+      9,
+    );
     expect(
       (await post(order.id, done)).body.deviations.map((d: { type: string }) => d.type),
     ).toEqual([]);

@@ -14,6 +14,7 @@ import {
   identityConfirmed,
 } from '../support/api';
 import { formatUnitTime } from '../../shared/format/figures';
+import { fluenceFromPowerJPerCm2, readyBench } from '../support/devices';
 
 type Agent = ReturnType<typeof supertest.agent>;
 let ctx: TestContext;
@@ -22,6 +23,7 @@ let clinicianAgent: Agent;
 let pharmacistAgent: Agent;
 let nurseAgent: Agent;
 
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   ctx = await startTestApp();
   clinician = await createTestPerson(ctx, ['clinician']);
@@ -29,6 +31,7 @@ beforeAll(async () => {
   pharmacistAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['pharmacist']));
   nurseAgent = await signedInAgent(ctx, await createTestPerson(ctx, ['nurse']));
   await signedInAgent(ctx, await createTestPerson(ctx, ['auditor']));
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 });
 afterAll(async () => {
   await ctx.close();
@@ -69,7 +72,7 @@ describe('session events', () => {
     const at = timeline(1);
     const res = await post(
       order.id,
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       clinicianAgent,
     );
     expect(res.status).toBe(403);
@@ -89,7 +92,11 @@ describe('session events', () => {
   it('the same event sent ten times, one after another and all at once, makes one row', async () => {
     const order = await preparedPdtOrder(ctx, await team());
     const at = timeline(2);
-    const start = at(0, { type: 'session-started', checks: allChecks });
+    const start = at(0, {
+      type: 'session-started',
+      checks: allChecks,
+      device: bench.deviceFor(order),
+    });
     const first = await post(order.id, start);
     expect(first.status).toBe(201);
     for (let i = 0; i < 9; i++) {
@@ -112,7 +119,10 @@ describe('session events', () => {
   it('an event from the future, a step not in the protocol or a pause outside the light is refused, naming the field', async () => {
     const order = await preparedPdtOrder(ctx, await team());
     const at = timeline(1);
-    await post(order.id, at(0, { type: 'session-started', checks: allChecks }));
+    await post(
+      order.id,
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+    );
     const future = await post(order.id, {
       idempotencyKey: randomUUID(),
       clientTime: new Date(Date.now() + 60_000).toISOString(),
@@ -131,7 +141,7 @@ describe('session events', () => {
     const order = await preparedPdtOrder(ctx, await team());
     const at = timeline(30);
     const events = [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(660, { type: 'step-started', stepId: 'wait-for-light' }),
@@ -149,11 +159,12 @@ describe('session events', () => {
     const state = await nurseAgent.get(`/api/orders/${order.id}/session`);
     const record = state.body.record;
     // TAP Study Group, Arch Ophthalmol 1999: 10 min infusion, light 15 min after the START of the
-    // infusion, 600 mW/cm² for 83 s = 49.8 J/cm².
+    // infusion, 600 mW/cm² for 83 s = 49.8 J/cm²; delivered from the 57.7 mW set on the laser.
     expect(record.infusionDurationS).toBe(600);
     expect(record.lightStartAfterInfusionStartS).toBe(900);
     expect(record.lightOnS).toBe(83);
-    expect(record.deliveredFluenceJPerCm2).toBeCloseTo(49.8, 6);
+    expect(record.deliveredFluenceJPerCm2).toBeCloseTo(fluenceFromPowerJPerCm2(57.7, 3500, 83), 9);
+    expect(record.deliveredFluenceJPerCm2).toBeCloseTo(49.8, 1);
     expect(state.body.deviations).toEqual([]);
   });
 });
@@ -163,7 +174,10 @@ describe('deviations', () => {
     // Made up an hour ago: an infusion timed before the reconstitution would be refused.
     const order = await preparedPdtOrder(ctx, await team(), 60);
     const at = timeline(40);
-    await post(order.id, at(0, { type: 'session-started', checks: allChecks }));
+    await post(
+      order.id,
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+    );
     await post(order.id, at(60, { type: 'step-started', stepId: 'infusion' }));
     const infusionEnd = await post(
       order.id,
@@ -201,7 +215,7 @@ describe('deviations', () => {
     const order = await preparedPdtOrder(ctx, await team(), 60);
     const at = timeline(40);
     for (const event of [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'infusion' }),
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(660, { type: 'step-started', stepId: 'wait-for-light' }),
@@ -243,7 +257,10 @@ describe('deviations', () => {
     };
     const order = await signOrder(clinicianAgent, clinician, body);
     const at = timeline(10);
-    await post(order.id, at(0, { type: 'session-started', checks: allChecks }));
+    await post(
+      order.id,
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+    );
     await post(order.id, at(30, { type: 'step-started', stepId: 'riboflavin-soak' }));
     const stopped = await post(
       order.id,
@@ -263,7 +280,7 @@ describe('deviations', () => {
     const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
     const at = timeline(60);
     for (const event of [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       at(60, { type: 'step-started', stepId: 'riboflavin-soak' }),
       ...Array.from({ length: 15 }, (_, i) =>
         at(60 + (i + 1) * 120, { type: 'drop-given', stepId: 'riboflavin-soak' }),
@@ -303,7 +320,10 @@ describe('the record while the session runs', () => {
       clientTime: new Date(t0 + seconds * 1000).toISOString(),
       ...event,
     });
-    await post(order.id, at(0, { type: 'session-started', checks: allChecks }));
+    await post(
+      order.id,
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+    );
     // The infusion starts now (a 10 min infusion: TAP Study Group 1999); no tap follows.
     await post(order.id, at(60, { type: 'step-started', stepId: 'infusion' }));
     await new Promise((resolve) => setTimeout(resolve, 2500));
@@ -330,7 +350,7 @@ describe('a deviation and the tap that caused it', () => {
     const at = timeline(30);
     const infusionStart = at(60, { type: 'step-started', stepId: 'infusion' });
     for (const event of [
-      at(0, { type: 'session-started', checks: allChecks }),
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
       infusionStart,
       at(660, { type: 'step-ended', stepId: 'infusion' }),
       at(660, { type: 'step-started', stepId: 'wait-for-light' }),
@@ -371,7 +391,11 @@ describe('withdrawing a mistaken tap', () => {
     const patient = await createTestPatient(ctx);
     const order = await signOrder(clinicianAgent, clinician, cxlOrder(patient.id));
     const at = timeline(40);
-    const start = at(0, { type: 'session-started', checks: allChecks });
+    const start = at(0, {
+      type: 'session-started',
+      checks: allChecks,
+      device: bench.deviceFor(order),
+    });
     const soak = at(60, { type: 'step-started', stepId: 'riboflavin-soak' });
     const drops = dropsAtS.map((s) =>
       at(60 + s, { type: 'drop-given', stepId: 'riboflavin-soak' }),
@@ -631,7 +655,10 @@ describe('discharge', () => {
   it('after PDT gives the end of the light precaution in the unit’s time zone, and e-mails only with consent', async () => {
     const order = await preparedPdtOrder(ctx, await team());
     const at = timeline(20);
-    await post(order.id, at(0, { type: 'session-started', checks: allChecks }));
+    await post(
+      order.id,
+      at(0, { type: 'session-started', checks: allChecks, device: bench.deviceFor(order) }),
+    );
     const infusionStart = at(60, { type: 'step-started', stepId: 'infusion' });
     await post(order.id, infusionStart);
     const res = await nurseAgent.get(`/api/orders/${order.id}/discharge`);

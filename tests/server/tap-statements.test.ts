@@ -9,12 +9,15 @@ import {
   startTestApp,
   type TestContext,
 } from '../support/api';
+import { readyBench } from '../support/devices';
 
 // What a tap costs the database, counted rather than timed (the benchmark times it: README,
 // Performance): every statement the app sends for one ordinary tap in a running session.
 let ctx: TestContext;
+let bench: Awaited<ReturnType<typeof readyBench>>;
 beforeAll(async () => {
   ctx = await startTestApp();
+  bench = await readyBench(await signedInAgent(ctx, await createTestPerson(ctx, ['admin'])));
 });
 afterAll(async () => {
   await ctx.close();
@@ -59,7 +62,9 @@ describe('statements per tap', () => {
         clientTime: new Date(t0 + seconds * 1000).toISOString(),
         ...event,
       });
-    expect((await post(0, { type: 'session-started', checks })).status).toBe(201);
+    expect(
+      (await post(0, { type: 'session-started', checks, device: bench.deviceFor(order) })).status,
+    ).toBe(201);
     expect((await post(1, { type: 'step-started', stepId: 'riboflavin-soak' })).status).toBe(201);
     expect((await post(2, { type: 'drop-given', stepId: 'riboflavin-soak' })).status).toBe(201);
 
@@ -97,7 +102,10 @@ describe('statements per tap', () => {
           ...event,
         });
       const drop = { type: 'drop-given', stepId: 'riboflavin-soak' };
-      expect((await post(here, 0, { type: 'session-started', checks })).body.eventCount).toBe(1);
+      expect(
+        (await post(here, 0, { type: 'session-started', checks, device: bench.deviceFor(order) }))
+          .body.eventCount,
+      ).toBe(1);
       expect(
         (await post(there, 1, { type: 'step-started', stepId: 'riboflavin-soak' })).body.eventCount,
       ).toBe(2);
@@ -140,7 +148,15 @@ describe('statements per tap', () => {
         agent
           .post(`/api/orders/${order.id}/session-events`)
           .send({ idempotencyKey: randomUUID(), clientTime: at, ...event });
-      expect((await post(agents[0]!, { type: 'session-started', checks })).status).toBe(201);
+      expect(
+        (
+          await post(agents[0]!, {
+            type: 'session-started',
+            checks,
+            device: bench.deviceFor(order),
+          })
+        ).status,
+      ).toBe(201);
       expect(
         (await post(agents[1]!, { type: 'step-started', stepId: 'riboflavin-soak' })).status,
       ).toBe(201);

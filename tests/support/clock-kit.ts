@@ -3,6 +3,7 @@ import { request, type APIRequestContext, type Page } from 'playwright-core';
 import { expect } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
 import { supersededVersionReason } from './api';
+import { deviceBody, testMeter } from './devices';
 import { signInThroughForm, watchPage, type BrowserContext } from './browser';
 
 /**
@@ -49,18 +50,27 @@ export function clockKit(
   }
 
   async function nursePage(orderId: number) {
+    // The bench is on the register before the page reads it (chooseDevice picks from it).
+    await bench();
     const opened = await signedInPage('nurse@demo.luxtempo.example', `/sessions/${orderId}`);
     await opened.page.locator('h1', { hasText: 'Step clock' }).waitFor();
     return opened;
   }
 
-  /** Taps made earlier on another tablet, placed on the server's timeline `secondsAgo` before now. */
+  /**
+   * Taps made earlier on another tablet, placed on the server's timeline `secondsAgo` before now.
+   * A session start that names no device names the bench's, checked just now (`deviceFor`).
+   */
   async function seedEvents(
     orderId: number,
     taps: [secondsAgo: number, body: Record<string, unknown>][],
   ) {
     const nowMs = serverNowMs();
-    for (const [secondsAgo, body] of taps) {
+    for (const [secondsAgo, tap] of taps) {
+      const body =
+        tap.type === 'session-started' && tap.device === undefined
+          ? { ...tap, device: await deviceFor(orderId) }
+          : tap;
       const res = await current().nurseApi.post(`/api/orders/${orderId}/session-events`, {
         data: {
           idempotencyKey: randomUUID(),
@@ -103,9 +113,121 @@ export function clockKit(
     await dialog.waitFor({ state: 'hidden' });
   }
 
+  let benchMade: Promise<ClockBench> | null = null;
+  /** The file's bench: a laser, a UV source and a lens of factor 1, added once by the device lead. */
+  function bench() {
+    benchMade ??= (async () => {
+      const admin = await signedInApi('admin@demo.luxtempo.example');
+      const add = async (urlPath: string, data: Record<string, unknown>, key: string) => {
+        const res = await admin.post(urlPath, { data });
+        expect(res.status(), await res.text()).toBe(201);
+        return (await res.json())[key] as { id: number; name: string };
+      };
+      return {
+        admin,
+        laser: await add('/api/devices', deviceBody('laser'), 'device'),
+        uv: await add('/api/devices', deviceBody('uv'), 'device'),
+        // The clock tests' PDT orders type a laser-spot factor of 1.
+        lens: await add(
+          '/api/lenses',
+          {
+            name: `Clock test lens ${randomUUID().slice(0, 6)}`,
+            laserSpotFactor: 1,
+            imageMagnification: 1,
+          },
+          'lens',
+        ),
+      };
+    })();
+    return benchMade;
+  }
+
+  /** The bench's device and lens for an order, and the settings its plan asks for. */
+  async function benchFor(orderId: number) {
+    const made = await bench();
+    const orderRes = await current().reader.get(`/api/orders/${orderId}`);
+    expect(orderRes.status()).toBe(200);
+    const { plan, inputs } = (await orderRes.json()).order as {
+      plan: {
+        powerMw: number | null;
+        deviceSpotDiameterUm: number | null;
+        irradianceMwPerCm2: number | null;
+      };
+      inputs: { lensId?: number };
+    };
+    if (plan.powerMw !== null)
+      return {
+        made,
+        laser: true,
+        setting: {
+          deviceId: made.laser.id,
+          powerSetMw: plan.powerMw,
+          spotSetUm: plan.deviceSpotDiameterUm!,
+          ...(inputs.lensId === undefined ? { lensId: made.lens.id } : {}),
+        },
+      };
+    return {
+      made,
+      laser: false,
+      setting: { deviceId: made.uv.id, irradianceSetMwPerCm2: plan.irradianceMwPerCm2! },
+    };
+  }
+
+  /**
+   * The `device` a seeded session start names for this order: the bench's laser or UV source
+   * with a passing output check recorded now on the server's clock (a test may have moved it to
+   * another day), set as the plan asks, and for a laser the bench's lens of factor 1.
+   */
+  async function deviceFor(orderId: number) {
+    const { made, laser, setting } = await benchFor(orderId);
+    const checked = await made.admin.post(`/api/devices/${setting.deviceId}/output-checks`, {
+      data: laser
+        ? { powerSetMw: 100, powerMeasuredMw: 100, ...testMeter }
+        : { irradianceSetMwPerCm2: 3, irradianceMeasuredMwPerCm2: 3, ...testMeter },
+    });
+    expect(checked.status(), await checked.text()).toBe(201);
+    return setting;
+  }
+
+  /**
+   * On the step clock's pre-checks, as the nurse does: choose the bench's device, record its
+   * output check in the form (a pass), type what is set on it from the plan, and for a laser name
+   * the contact lens.
+   */
+  async function chooseDevice(page: Page, orderId: number) {
+    const { laser, setting } = await benchFor(orderId);
+    const unit = laser ? 'mW' : 'mW/cm²';
+    await page
+      .getByLabel(laser ? 'Laser used' : 'UV source used')
+      .selectOption(String(setting.deviceId));
+    await page.getByLabel(`Value set (${unit})`).fill(laser ? '100' : '3');
+    await page.getByLabel(`Meter reading (${unit})`).fill(laser ? '99' : '3.05');
+    await page.getByLabel('Meter identity').fill(testMeter.meterIdentity);
+    await page
+      .getByLabel('Meter calibration due (YYYY-MM-DD)')
+      .fill(testMeter.meterCalibrationDueOn);
+    await page.getByRole('button', { name: 'Record output check' }).click();
+    await page
+      .getByRole('status')
+      .filter({ hasText: /^Passed:/ })
+      .waitFor();
+    if ('powerSetMw' in setting) {
+      await page.getByLabel('Power set on the laser (mW)').fill(String(setting.powerSetMw));
+      await page.getByLabel('Spot set on the laser (µm)').fill(String(setting.spotSetUm));
+      if (setting.lensId !== undefined)
+        await page.getByLabel('Contact lens on the eye').selectOption(String(setting.lensId));
+    } else {
+      await page
+        .getByLabel('Irradiance set on the UV source (mW/cm²)')
+        .fill(String(setting.irradianceSetMwPerCm2));
+    }
+  }
+
   return {
     serverNowMs,
     advance,
+    deviceFor,
+    chooseDevice,
     confirmIdentity,
     signedInApi,
     signedInPage,
@@ -114,6 +236,13 @@ export function clockKit(
     sessionOf,
     allStored,
   };
+}
+
+interface ClockBench {
+  admin: APIRequestContext;
+  laser: { id: number; name: string };
+  uv: { id: number; name: string };
+  lens: { id: number; name: string };
 }
 
 /** Identity and eye said again before a light or UV step (`stepId`) starts, as a seeded tap. */

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type mysql from 'mysql2/promise';
 import { demoPassword } from '../../server/demo/seed';
 import { nodeConnection, type GaleraNodeSpec } from '../../server/ops/galera';
-import { FaultClient } from './fault-rig';
+import { FaultClient, readyUvSource } from './fault-rig';
 
 /** The checks a nurse confirms before a session starts. */
 export const allChecks = {
@@ -40,6 +40,8 @@ export class Tablet {
   constructor(
     readonly nurse: FaultClient,
     readonly orderId: number,
+    /** The checked UV source and its setting, which the session start names. */
+    readonly device: Record<string, unknown>,
   ) {}
 
   private tap(fields: Record<string, unknown>): Tap {
@@ -54,7 +56,7 @@ export class Tablet {
   /** Starts the session and the soak: the drops that follow belong to it. */
   async begin(): Promise<void> {
     this.nextS = 0;
-    this.add(this.tap({ type: 'session-started', checks: allChecks }));
+    this.add(this.tap({ type: 'session-started', checks: allChecks, device: this.device }));
     this.nextS = 60;
     this.add(this.tap({ type: 'step-started', stepId: 'riboflavin-soak' }));
     this.nextS = 180;
@@ -134,9 +136,10 @@ export async function tabletsFor(
   count: number,
 ): Promise<Tablet[]> {
   const nurse = await new FaultClient(url).signIn('nurse@demo.luxtempo.example', demoPassword);
+  const device = await readyUvSource(url);
   const tablets: Tablet[] = [];
   for (let i = 0; i < count; i++) {
-    const tablet = new Tablet(nurse, await readyOrder(url));
+    const tablet = new Tablet(nurse, await readyOrder(url), device);
     await tablet.begin();
     tablets.push(tablet);
   }

@@ -14,6 +14,7 @@ import { randomUUID } from 'node:crypto';
 import { expect } from 'vitest';
 import { demoPassword } from '../../server/demo/seed';
 import { supersededVersionReason } from './api';
+import { deviceBody, testMeter } from './devices';
 
 /**
  * A MariaDB instance and API processes of the fault tests' own, so stopping the database or
@@ -144,4 +145,27 @@ export async function readyCxlOrder(base: string): Promise<number> {
   });
   expect(signed.body.order.status).toBe('ready');
   return draft.body.order.id;
+}
+
+/**
+ * A UV source put on the register by the demo administrator, with a passing output check now
+ * (3 mW/cm² set and read, the irradiance of `readyCxlOrder`'s version-1 plan: Wollensak, Am J
+ * Ophthalmol 2003). Returns the `device` a session start on such an order sends.
+ */
+export async function readyUvSource(base: string) {
+  const admin = await new FaultClient(base).signIn('admin@demo.luxtempo.example', demoPassword);
+  const suffix = randomUUID().slice(0, 8);
+  const added = await admin.call('POST', '/devices', {
+    ...deviceBody('uv'),
+    name: `Fault UV source ${suffix}`,
+  });
+  if (added.status !== 201) throw new Error(`adding a UV source: ${JSON.stringify(added.body)}`);
+  const deviceId = added.body.device.id as number;
+  const checked = await admin.call('POST', `/devices/${deviceId}/output-checks`, {
+    irradianceSetMwPerCm2: 3,
+    irradianceMeasuredMwPerCm2: 3,
+    ...testMeter,
+  });
+  if (checked.status !== 201) throw new Error(`output check: ${JSON.stringify(checked.body)}`);
+  return { deviceId, irradianceSetMwPerCm2: 3 };
 }

@@ -11,10 +11,11 @@ import {
  * A stored event: the event contract plus what the server added. The contract's objects are
  * strict, so the server's own fields are taken off before the event is checked against it.
  */
-const storedEventSchema = z
+export const storedEventSchema = z
   .looseObject({ id: z.number(), serverTime: z.string(), recordedBy: z.number() })
   .transform((raw, ctx): SessionEvent => {
-    const { id, serverTime, recordedBy, authorisedById, authorisedByName, ...input } = raw;
+    const { id, serverTime, recordedBy, authorisedById, authorisedByName, deviceRecord, ...input } =
+      raw;
     const parsed = sessionEventSchema.safeParse(input);
     if (!parsed.success) {
       ctx.addIssue({
@@ -30,6 +31,10 @@ const storedEventSchema = z
       recordedBy,
       ...(typeof authorisedById === 'number' ? { authorisedById } : {}),
       ...(typeof authorisedByName === 'string' ? { authorisedByName } : {}),
+      // A session start's device as the server found it (shown, never sent back).
+      ...(deviceRecord && typeof deviceRecord === 'object'
+        ? { deviceRecord: deviceRecord as SessionEvent['deviceRecord'] }
+        : {}),
     };
   });
 

@@ -11,10 +11,11 @@ import { api, describeError, isApiRequestError } from '../../../lib/api-client';
 import {
   deviceKeys,
   devicesQuery,
+  lensesQuery,
   recordedCheckSchema,
   type Device,
 } from '../../../lib/queries/devices';
-import { formatFigure } from './clock-format';
+import { formatFigure, formatWardTime } from './clock-format';
 
 /** What the nurse has chosen and typed: the device and its settings, as the session start sends them. */
 export type DeviceChoice = { setting: DeviceSetting | null; ready: boolean };
@@ -27,7 +28,8 @@ const numberOrUndefined = (text: string) => {
 /**
  * The device for this session, on the step clock's pre-checks: pick the laser or UV source, record
  * its output check (the server judges it against the protocol's tolerance), and type what is set
- * on it. Large fields for a tablet; the server refuses a start the device rules do not allow.
+ * on it; for a laser, the contact lens (the order's, or one named here whose laser-spot factor is
+ * the plan's). Large fields for a tablet; the server refuses a start the device rules do not allow.
  */
 export function DevicePreCheck({
   orderId,
@@ -39,7 +41,8 @@ export function DevicePreCheck({
   orderId: number;
   protocol: ProtocolVersion;
   plan: DosePlan;
-  lens: { name: string | null; laserSpotFactor: number | null };
+  /** The order's lens from the register (if it picked one) and the laser-spot factor of its plan. */
+  lens: { id: number | undefined; laserSpotFactor: number | null };
   onChange: (choice: DeviceChoice) => void;
 }) {
   const headingId = useId();
@@ -55,6 +58,13 @@ export function DevicePreCheck({
   const [meter, setMeter] = useState('');
   const [meterDue, setMeterDue] = useState('');
   const [verdict, setVerdict] = useState<string | null>(null);
+  const [lensId, setLensId] = useState<number | null>(null);
+  const lenses = useQuery({ ...lensesQuery(), enabled: kind === 'laser' });
+  const orderLens = lenses.data?.find((l) => l.id === lens.id);
+  // Lenses that fit the plan: those with its laser-spot factor (the spot was worked out with it).
+  const fitting = (lenses.data ?? []).filter(
+    (l) => l.active && l.laserSpotFactor === lens.laserSpotFactor,
+  );
 
   const ofKind = (devices.data ?? []).filter((d) => d.kind === kind);
   const device: Device | undefined = ofKind.find((d) => d.id === deviceId);
@@ -69,6 +79,7 @@ export function DevicePreCheck({
     powerSet: string;
     spotSet: string;
     irradianceSet: string;
+    lensId: number | null;
   }): DeviceSetting | null => {
     if (next.deviceId === null) return null;
     return kind === 'laser'
@@ -76,6 +87,7 @@ export function DevicePreCheck({
           deviceId: next.deviceId,
           powerSetMw: numberOrUndefined(next.powerSet),
           spotSetUm: numberOrUndefined(next.spotSet),
+          ...(lens.id === undefined && next.lensId !== null ? { lensId: next.lensId } : {}),
         }
       : { deviceId: next.deviceId, irradianceSetMwPerCm2: numberOrUndefined(next.irradianceSet) };
   };
@@ -85,10 +97,11 @@ export function DevicePreCheck({
       powerSet: string;
       spotSet: string;
       irradianceSet: string;
+      lensId: number | null;
     }>,
     readyNow?: boolean,
   ) => {
-    const merged = { deviceId, powerSet, spotSet, irradianceSet, ...next };
+    const merged = { deviceId, powerSet, spotSet, irradianceSet, lensId, ...next };
     const chosen = ofKind.find((d) => d.id === merged.deviceId);
     onChange({
       setting: settingFrom(merged),
@@ -175,7 +188,7 @@ export function DevicePreCheck({
       )}
       {device && device.blocks.length === 0 && device.lastCheck && (
         <p className="text-paper-800">
-          Output check passed at {device.lastCheck.checkedAt.slice(11, 16)} UTC:{' '}
+          Output check passed at {formatWardTime(Date.parse(device.lastCheck.checkedAt), false)}:{' '}
           {formatFigure(device.lastCheck.measuredValue, 2)} {device.lastCheck.unit} read against{' '}
           {formatFigure(device.lastCheck.setValue, 2)} {device.lastCheck.unit} set.
         </p>
@@ -248,7 +261,7 @@ export function DevicePreCheck({
           />
           <TextField
             label="Spot set on the laser (µm)"
-            hint={`Plan: ${formatFigure(spotPlanned ?? 0, 0)} µm${lens.laserSpotFactor !== null ? ` — lens ${lens.name ?? '(typed factor)'}, laser-spot factor × ${formatFigure(lens.laserSpotFactor, 2)}` : ''}`}
+            hint={`Plan: ${formatFigure(spotPlanned ?? 0, 0)} µm${lens.laserSpotFactor !== null ? ` — lens laser-spot factor × ${formatFigure(lens.laserSpotFactor, 2)}` : ''}`}
             inputMode="decimal"
             value={spotSet}
             onChange={(e) => {
@@ -257,6 +270,41 @@ export function DevicePreCheck({
             }}
           />
         </div>
+      )}
+      {device && kind === 'laser' && lens.id !== undefined && (
+        <p className="text-paper-800">
+          Contact lens (from the order): {orderLens?.name ?? `lens ${lens.id} of the register`},
+          laser-spot factor × {formatFigure(lens.laserSpotFactor ?? 0, 2)}.
+        </p>
+      )}
+      {device && kind === 'laser' && lens.id === undefined && (
+        <>
+          <SelectField
+            label="Contact lens on the eye"
+            hint={`The plan's spot was worked out with a laser-spot factor of × ${formatFigure(lens.laserSpotFactor ?? 0, 2)}: only lenses with that factor are offered.`}
+            value={lensId ?? ''}
+            className="text-lg"
+            onChange={(event) => {
+              const id = event.target.value === '' ? null : Number(event.target.value);
+              setLensId(id);
+              tell({ lensId: id });
+            }}
+          >
+            <option value="">Choose…</option>
+            {fitting.map((l) => (
+              <option key={l.id} value={l.id}>
+                {l.name} — laser-spot factor × {formatFigure(l.laserSpotFactor, 2)}
+              </option>
+            ))}
+          </SelectField>
+          {lenses.isSuccess && fitting.length === 0 && (
+            <Alert tone="error" title="No lens on the register fits this plan" live="none">
+              No lens in use has the plan’s laser-spot factor of ×{' '}
+              {formatFigure(lens.laserSpotFactor ?? 0, 2)}. Ask the clinician to choose a lens on
+              the order, or the device lead to add the lens.
+            </Alert>
+          )}
+        </>
       )}
       {device && kind === 'uv' && (
         <TextField

@@ -76,8 +76,8 @@ export function PreTreatmentChecks({
   protocol: ProtocolVersion;
   plan: DosePlan;
   serverNowMs: number;
-  /** Starts the session with the device chosen and set (none only on versions without device checks). */
-  onStart: (device: DeviceSetting | undefined) => void;
+  /** Starts the session with the device chosen and set (every start names its device). */
+  onStart: (device: DeviceSetting) => void;
 }) {
   const [ticks, setTicks, clearTicks] = useStoredDraft<Ticks>(`checks.${order.id}`, noTicks);
   const [missing, setMissing] = useState<PreTreatmentCheck[]>([]);
@@ -88,8 +88,6 @@ export function PreTreatmentChecks({
   const beyondUseMs = order.beyondUseAt ? Date.parse(order.beyondUseAt) : null;
   const [device, setDevice] = useState<DeviceChoice>({ setting: null, ready: false });
   const [deviceProblem, setDeviceProblem] = useState<string | null>(null);
-  // Versions with deviceChecks need the device; older ones take it if chosen.
-  const deviceRequired = protocol.deviceChecks !== undefined;
 
   const start = () => {
     // The server refuses a session start after the beyond-use time; the screen says why first.
@@ -105,20 +103,22 @@ export function PreTreatmentChecks({
     setMissing(notYet);
     const deviceNotReady =
       device.setting === null
-        ? deviceRequired
-          ? `choose the ${protocol.kind === 'pdt' ? 'laser' : 'UV source'} and type what is set on it`
-          : null
-        : !device.ready
-          ? 'the device has no passing output check today (record one above)'
-          : null;
+        ? `choose the ${protocol.kind === 'pdt' ? 'laser' : 'UV source'} and type what is set on it`
+        : protocol.kind === 'pdt' &&
+            order.inputs.lensId === undefined &&
+            device.setting.lensId === undefined
+          ? 'choose the contact lens on the eye'
+          : !device.ready
+            ? 'the device has no passing output check today (record one above)'
+            : null;
     setDeviceProblem(deviceNotReady);
     if (notYet.length > 0) {
       inputs.current[notYet[0]!]?.focus();
       return;
     }
-    if (deviceNotReady) return;
+    if (deviceNotReady || device.setting === null) return;
     clearTicks();
-    onStart(device.setting ?? undefined);
+    onStart(device.setting);
   };
 
   return (
@@ -133,7 +133,7 @@ export function PreTreatmentChecks({
           protocol={protocol}
           plan={plan}
           lens={{
-            name: null,
+            id: order.inputs.lensId,
             laserSpotFactor: order.inputs.lensMagnification ?? null,
           }}
           onChange={(choice) => {
@@ -199,7 +199,7 @@ export function PreTreatmentChecks({
           lensText={
             order.inputs.lensMagnification === undefined
               ? null
-              : `${order.inputs.lensId !== undefined ? `lens ${order.inputs.lensId} of the register, ` : ''}× ${order.inputs.lensMagnification}`
+              : `${order.inputs.lensId !== undefined ? 'the order’s lens, ' : 'the lens named in the device check, '}laser-spot factor × ${order.inputs.lensMagnification}`
           }
         />
         <SessionCautions

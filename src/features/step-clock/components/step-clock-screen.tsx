@@ -244,7 +244,7 @@ export function StepClockScreen({ orderId, canRecord }: { orderId: number; canRe
             const first = definition.steps[0];
             const checkStep = first?.kind === 'check' ? first.id : null;
             record([
-              { type: 'session-started', checks, ...(device ? { device } : {}) },
+              { type: 'session-started', checks, device },
               ...(checkStep
                 ? [
                     { type: 'step-started' as const, stepId: checkStep },
