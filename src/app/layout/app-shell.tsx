@@ -1,5 +1,5 @@
 import { useEffect, useRef } from 'react';
-import { Outlet, ScrollRestoration, useLocation } from 'react-router-dom';
+import { Outlet, useLocation } from 'react-router-dom';
 import type { SessionUser } from '../../../shared/schemas/auth';
 import { setCurrentPersonId } from '../../lib/current-person';
 import { AppHeader } from './app-header';
@@ -54,7 +54,6 @@ export function AppShell({ user }: { user: SessionUser }) {
             </div>
           </main>
         </div>
-        <ScrollRestoration />
       </div>
     </>
   );
