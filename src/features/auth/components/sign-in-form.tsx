@@ -27,7 +27,7 @@ const fieldNames = ['email', 'password'] as const;
 
 export function SignInForm() {
   const logIn = useLogIn();
-  useEffect(signInChecks.preload, []);
+  useEffect(() => signInChecks.preload(), []);
   const {
     register,
     handleSubmit,
