@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { SpinnerIcon } from './icons';
+import { SpinnerIcon } from './icons-first';
 
 type StatusPanelProps = {
   icon: ReactNode;
