@@ -1,5 +1,5 @@
 import { Button, LinkButton } from '../../components/ui/button';
-import { AlertIcon, ArrowLeftIcon, ReloadIcon } from '../../components/ui/icons-first';
+import { AlertIcon, ArrowLeftIcon, ReloadIcon } from '../../components/ui/icons-start';
 import { KeptDraftNotice } from '../../components/ui/kept-draft-notice';
 import { StatusPanel } from '../../components/ui/status-panel';
 import { paths } from '../../config/paths';

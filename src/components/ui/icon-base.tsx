@@ -8,10 +8,12 @@ import type { LucideIcon } from 'lucide-react';
  * mark) are drawn here in the same 24-unit, 2-stroke style. Icons are decorative: the word
  * beside an icon carries the meaning, so each one is hidden from assistive technology.
  *
- * Screens import icons from ./icons.tsx. The modules of the first page (the start-up code,
- * sign-in, the signed-in frame and Today) import from ./icons-first.tsx instead, which holds
- * only their icons, so the first page does not download every screen's glyphs
- * (`npm run measure:bundle`). This module holds what both share.
+ * Screens import icons from ./icons.tsx. The modules of the first pages import from smaller
+ * modules that hold only their icons, so a first page does not download every screen's glyphs
+ * (`npm run measure:bundle`): the start-up code and sign-in from ./icons-start.tsx, the
+ * signed-in frame and Today from ./icons-first.tsx. Each re-exports the smaller one
+ * (icons ⊃ icons-first ⊃ icons-start); a module of a first page that imports from a larger one
+ * brings all of its glyphs into that page. This module holds what they share.
  */
 export type IconProps = Omit<SVGProps<SVGSVGElement>, 'children'>;
 

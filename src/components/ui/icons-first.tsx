@@ -1,6 +1,5 @@
 import {
   Archive,
-  ArrowLeft,
   ArrowRightLeft,
   BookText,
   ChartColumn,
@@ -17,16 +16,11 @@ import {
   History,
   Hourglass,
   IdCard,
-  Info,
-  LoaderCircle,
-  Lock,
   LogOut,
   Mails,
   OctagonMinus,
-  RotateCw,
   Signature,
   Sunrise,
-  TriangleAlert,
   Undo2,
   Unplug,
   Users,
@@ -38,21 +32,17 @@ import {
 import { Icon, fromPackage, type IconProps } from './icon-base';
 
 /**
- * The icons of the first page: the start-up code, sign-in, the signed-in frame and Today import
- * from here (see ./icon-base.tsx); every other module imports from ./icons.tsx, which has these too.
+ * The icons of the first signed-in page: the signed-in frame and Today import from here (see
+ * ./icon-base.tsx); every other module imports from ./icons.tsx, which has these too.
  */
+export * from './icons-start';
 
 /* Navigation, actions and states (from the package). */
 export const SunriseIcon = fromPackage(Sunrise);
 export const PeopleIcon = fromPackage(Users);
 export const SignOutIcon = fromPackage(LogOut);
 export const CheckCircleIcon = fromPackage(CircleCheck);
-export const AlertIcon = fromPackage(TriangleAlert);
-export const InfoIcon = fromPackage(Info);
 export const PlugOffIcon = fromPackage(Unplug);
-export const LockIcon = fromPackage(Lock);
-export const ArrowLeftIcon = fromPackage(ArrowLeft);
-export const ReloadIcon = fromPackage(RotateCw);
 export const ProtocolBookIcon = fromPackage(BookText);
 /** A circle of dashes: something not yet settled (a draft). */
 export const DraftCircleIcon = fromPackage(CircleDashed);
@@ -88,36 +78,6 @@ export const StatusInSessionIcon = fromPackage(Clock);
 export const StatusCompletedIcon = fromPackage(Flag);
 /** An octagon with a bar: the session was stopped before the end. */
 export const StatusStoppedIcon = fromPackage(OctagonMinus);
-
-export function SpinnerIcon({ className = 'size-5', ...rest }: IconProps) {
-  return (
-    <LoaderCircle
-      aria-hidden="true"
-      focusable="false"
-      className={`shrink-0 animate-spin ${className}`}
-      {...rest}
-    />
-  );
-}
-
-/* Glyphs no package has, drawn for Luxtempo. */
-
-export function MarkIcon({ className = 'size-8', ...rest }: IconProps) {
-  return (
-    <svg
-      viewBox="0 0 32 32"
-      aria-hidden="true"
-      focusable="false"
-      className={`shrink-0 ${className}`}
-      {...rest}
-    >
-      <rect width="32" height="32" rx="8" fill="#512c95" />
-      <circle cx="16" cy="16" r="9.5" fill="none" stroke="#faf8f5" strokeWidth="2.5" />
-      <path d="M16 16V8.5A7.5 7.5 0 0 1 23.5 16Z" fill="#d6c9f2" />
-      <circle cx="16" cy="16" r="2" fill="#faf8f5" />
-    </svg>
-  );
-}
 
 export function LightBeamIcon(props: IconProps) {
   return (

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { SpinnerIcon } from './icons-first';
+import { SpinnerIcon } from './icons-start';
 
 type StatusPanelProps = {
   icon: ReactNode;
