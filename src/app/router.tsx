@@ -11,9 +11,11 @@ import { RouteErrorScreen } from './routes/route-error';
  * needs; the table, the people forms and later the step clock arrive when a signed-in person
  * opens them. The routes are declared as components (not a data router): the app loads its data
  * with TanStack Query, and the data router's own code would come with every first page.
- * A navigation is a transition, so the screen on show stays until the next one has loaded; only
- * the first screen of a page load shows the loading status below. The service worker precaches
- * every screen's file, so the step clock reopens offline.
+ * A navigation is a transition and the loading boundaries stay in place (one around the routes,
+ * one around the signed-in screens in ./layout/app-shell.tsx), so the screen on show stays until
+ * the next one has loaded, and focus then moves to its heading; a loading status shows only
+ * while a page's first screen loads. The service worker precaches every screen's file, so the
+ * step clock reopens offline.
  */
 function screen<TModule>(load: () => Promise<TModule>, pick: (module: TModule) => ComponentType) {
   return lazy(async () => ({ default: pick(await load()) }));
@@ -173,10 +175,10 @@ const AuthenticatedLayout = screen(
 );
 
 /**
- * One screen with its loading status and its error screen. A screen that fails to load (its
- * file could not be fetched: a network drop, or a new release replaced it) or to render shows
- * the error screen; moving to another address tries again. `framed` screens stand alone (sign-in,
- * the signed-in layout); the others sit inside the signed-in layout's frame.
+ * One screen with its error screen. A screen that fails to load (its file could not be fetched:
+ * a network drop, or a new release replaced it) or to render shows the error screen; moving to
+ * another address tries again. `framed` screens stand alone (sign-in, the signed-in layout); the
+ * others sit inside the signed-in layout's frame.
  */
 function Screen({
   component: Component,
@@ -186,12 +188,9 @@ function Screen({
   framed?: boolean;
 }) {
   const { pathname } = useLocation();
-  const loading = <LoadingPanel label={framed ? 'Starting Luxtempo…' : 'Opening the screen…'} />;
   return (
     <ErrorBoundary resetKey={pathname} fallback={<RouteErrorScreen framed={framed} />}>
-      <Suspense fallback={framed ? <PlainPage>{loading}</PlainPage> : loading}>
-        <Component />
-      </Suspense>
+      <Component />
     </ErrorBoundary>
   );
 }
@@ -210,74 +209,85 @@ export function AppRouter() {
   return (
     <BrowserRouter>
       <ScrollToTopOnNewScreen />
-      <Routes>
-        <Route path={paths.signIn.path} element={<Screen component={SignInRoute} framed />} />
-        <Route
-          path={paths.setPassword.path}
-          element={<Screen component={SetPasswordRoute} framed />}
-        />
-        <Route element={<Screen component={AuthenticatedLayout} framed />}>
-          <Route path={paths.today.path} element={<Screen component={TodayRoute} />} />
+      <Suspense
+        fallback={
+          <PlainPage>
+            <LoadingPanel label="Starting Luxtempo…" />
+          </PlainPage>
+        }
+      >
+        <Routes>
+          <Route path={paths.signIn.path} element={<Screen component={SignInRoute} framed />} />
           <Route
-            path={paths.changePassword.path}
-            element={<Screen component={ChangePasswordRoute} />}
+            path={paths.setPassword.path}
+            element={<Screen component={SetPasswordRoute} framed />}
           />
-          <Route path={paths.people.path} element={<Screen component={PeopleRoute} />} />
-          <Route path={paths.patients.path} element={<Screen component={PatientsRoute} />} />
-          <Route path={paths.patient.path} element={<Screen component={PatientRecordRoute} />} />
-          <Route path={paths.orders.path} element={<Screen component={OrdersRoute} />} />
-          <Route path={paths.newOrder.path} element={<Screen component={NewOrderRoute} />} />
-          <Route path={paths.order.path} element={<Screen component={OrderDetailRoute} />} />
-          <Route path={paths.orderEdit.path} element={<Screen component={OrderEditRoute} />} />
-          <Route path={paths.orderAmend.path} element={<Screen component={OrderAmendRoute} />} />
-          <Route
-            path={paths.orderDischarge.path}
-            element={<Screen component={OrderDischargeRoute} />}
-          />
-          <Route path={paths.protocols.path} element={<Screen component={ProtocolsRoute} />} />
-          <Route
-            path={paths.protocolVersion.path}
-            element={<Screen component={ProtocolVersionRoute} />}
-          />
-          <Route
-            path={paths.protocolCompare.path}
-            element={<Screen component={ProtocolCompareRoute} />}
-          />
-          <Route
-            path={paths.lightCalculator.path}
-            element={<Screen component={LightCalculatorRoute} />}
-          />
-          <Route path={paths.doseChecks.path} element={<Screen component={DoseChecksRoute} />} />
-          <Route path={paths.doseCheck.path} element={<Screen component={DoseCheckRoute} />} />
-          <Route path={paths.outbox.path} element={<Screen component={OutboxRoute} />} />
-          <Route
-            path={paths.orderCancelling.path}
-            element={<Screen component={OrderCancellingRoute} />}
-          />
-          <Route path={paths.deviations.path} element={<Screen component={DeviationsRoute} />} />
-          <Route
-            path={paths.deviation.path}
-            element={<Screen component={DeviationReviewRoute} />}
-          />
-          <Route path={paths.doseRecords.path} element={<Screen component={DoseRecordsRoute} />} />
-          <Route
-            path={paths.doseRecordPrint.path}
-            element={<Screen component={DoseRecordPrintRoute} />}
-          />
-          <Route path={paths.lists.path} element={<Screen component={ListsRoute} />} />
-          <Route path={paths.vialPlan.path} element={<Screen component={VialPlanRoute} />} />
-          <Route path={paths.stock.path} element={<Screen component={StockRoute} />} />
-          <Route path={paths.recall.path} element={<Screen component={RecallRoute} />} />
-          <Route path={paths.drugUse.path} element={<Screen component={DrugUseRoute} />} />
-          <Route path={paths.trends.path} element={<Screen component={TrendsRoute} />} />
-          <Route path={paths.devices.path} element={<Screen component={DevicesRoute} />} />
-          <Route path={paths.device.path} element={<Screen component={DeviceRoute} />} />
-          <Route path={paths.outcomes.path} element={<Screen component={OutcomesRoute} />} />
-          <Route path={paths.auditTrail.path} element={<Screen component={AuditTrailRoute} />} />
-          <Route path={paths.stepClock.path} element={<Screen component={StepClockRoute} />} />
-        </Route>
-        <Route path="*" element={<Screen component={NotFoundRoute} framed />} />
-      </Routes>
+          <Route element={<Screen component={AuthenticatedLayout} framed />}>
+            <Route path={paths.today.path} element={<Screen component={TodayRoute} />} />
+            <Route
+              path={paths.changePassword.path}
+              element={<Screen component={ChangePasswordRoute} />}
+            />
+            <Route path={paths.people.path} element={<Screen component={PeopleRoute} />} />
+            <Route path={paths.patients.path} element={<Screen component={PatientsRoute} />} />
+            <Route path={paths.patient.path} element={<Screen component={PatientRecordRoute} />} />
+            <Route path={paths.orders.path} element={<Screen component={OrdersRoute} />} />
+            <Route path={paths.newOrder.path} element={<Screen component={NewOrderRoute} />} />
+            <Route path={paths.order.path} element={<Screen component={OrderDetailRoute} />} />
+            <Route path={paths.orderEdit.path} element={<Screen component={OrderEditRoute} />} />
+            <Route path={paths.orderAmend.path} element={<Screen component={OrderAmendRoute} />} />
+            <Route
+              path={paths.orderDischarge.path}
+              element={<Screen component={OrderDischargeRoute} />}
+            />
+            <Route path={paths.protocols.path} element={<Screen component={ProtocolsRoute} />} />
+            <Route
+              path={paths.protocolVersion.path}
+              element={<Screen component={ProtocolVersionRoute} />}
+            />
+            <Route
+              path={paths.protocolCompare.path}
+              element={<Screen component={ProtocolCompareRoute} />}
+            />
+            <Route
+              path={paths.lightCalculator.path}
+              element={<Screen component={LightCalculatorRoute} />}
+            />
+            <Route path={paths.doseChecks.path} element={<Screen component={DoseChecksRoute} />} />
+            <Route path={paths.doseCheck.path} element={<Screen component={DoseCheckRoute} />} />
+            <Route path={paths.outbox.path} element={<Screen component={OutboxRoute} />} />
+            <Route
+              path={paths.orderCancelling.path}
+              element={<Screen component={OrderCancellingRoute} />}
+            />
+            <Route path={paths.deviations.path} element={<Screen component={DeviationsRoute} />} />
+            <Route
+              path={paths.deviation.path}
+              element={<Screen component={DeviationReviewRoute} />}
+            />
+            <Route
+              path={paths.doseRecords.path}
+              element={<Screen component={DoseRecordsRoute} />}
+            />
+            <Route
+              path={paths.doseRecordPrint.path}
+              element={<Screen component={DoseRecordPrintRoute} />}
+            />
+            <Route path={paths.lists.path} element={<Screen component={ListsRoute} />} />
+            <Route path={paths.vialPlan.path} element={<Screen component={VialPlanRoute} />} />
+            <Route path={paths.stock.path} element={<Screen component={StockRoute} />} />
+            <Route path={paths.recall.path} element={<Screen component={RecallRoute} />} />
+            <Route path={paths.drugUse.path} element={<Screen component={DrugUseRoute} />} />
+            <Route path={paths.trends.path} element={<Screen component={TrendsRoute} />} />
+            <Route path={paths.devices.path} element={<Screen component={DevicesRoute} />} />
+            <Route path={paths.device.path} element={<Screen component={DeviceRoute} />} />
+            <Route path={paths.outcomes.path} element={<Screen component={OutcomesRoute} />} />
+            <Route path={paths.auditTrail.path} element={<Screen component={AuditTrailRoute} />} />
+            <Route path={paths.stepClock.path} element={<Screen component={StepClockRoute} />} />
+          </Route>
+          <Route path="*" element={<Screen component={NotFoundRoute} framed />} />
+        </Routes>
+      </Suspense>
     </BrowserRouter>
   );
 }
