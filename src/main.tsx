@@ -7,7 +7,6 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './app';
 import { applyServerTimeZone } from './config/unit-time-zone';
-import { ordersWithUnsentTapsOf } from './features/step-clock/api/tap-store';
 import { takeUpdatesWhenIdle } from './lib/app-update';
 import { currentPersonId } from './lib/current-person';
 import { dropExpiredDrafts } from './lib/form-draft';
@@ -15,7 +14,10 @@ import { dropExpiredDrafts } from './lib/form-draft';
 /** Whether this tablet still holds taps of the person signed in (a new version waits for them). */
 async function unsentTapsOfPersonSignedIn(): Promise<number> {
   const person = currentPersonId();
-  return person === null ? 0 : (await ordersWithUnsentTapsOf(person)).length;
+  if (person === null) return 0;
+  // The tap store (IndexedDB and the session schemas) loads only when a new version asks.
+  const { ordersWithUnsentTapsOf } = await import('./features/step-clock/api/tap-store');
+  return (await ordersWithUnsentTapsOf(person)).length;
 }
 
 const container = document.getElementById('root');

@@ -1,4 +1,8 @@
 import { DateTime, Duration } from 'luxon';
+import { currentUnitLocale } from './unit-locale';
+
+// The unit's locale lives in a module of its own, so that setting it at start-up does not load luxon.
+export { currentUnitLocale, setUnitLocale } from './unit-locale';
 
 /**
  * One formatter per kind of figure, so that the step clock, the records, the sheets, the e-mails
@@ -122,27 +126,6 @@ export function zoneAbbreviation(at: DateTime): string {
 const zoneNames = new Map<string, string>();
 
 /**
- * The unit's locale (UNIT_LOCALE; en-GB, day/month/year, for the demo unit): the one setting
- * every date on a screen, sheet, e-mail or refusal is written in, never the browser's default.
- * The server sets it from its config at start; the client from `GET /api/unit` before it renders.
- */
-let unitLocale = 'en-GB';
-
-/** Sets the unit's locale; an unknown tag leaves the one in use. */
-export function setUnitLocale(locale: string): void {
-  try {
-    if (Intl.DateTimeFormat.supportedLocalesOf([locale]).length === 1) unitLocale = locale;
-  } catch {
-    // An invalid tag leaves the locale as it was.
-  }
-}
-
-/** The unit's locale, e.g. "en-GB". */
-export function currentUnitLocale(): string {
-  return unitLocale;
-}
-
-/**
  * How a moment on the unit's clock reads, in the unit's locale; every style but 'day' and
  * 'date' carries the zone's short name, because a patient may read the sheet, and a colleague
  * the record, after the clocks have changed. In the demo unit's en-GB:
@@ -162,7 +145,7 @@ export type UnitTimeStyle = 'sheet' | 'record' | 'short' | 'clock' | 'day' | 'da
  * mistakes it, with the locale's names; a fixed pattern, so every ICU writes it alike).
  */
 function dayText(at: DateTime, style: 'date' | 'day'): string {
-  const local = at.setLocale(unitLocale);
+  const local = at.setLocale(currentUnitLocale());
   return style === 'date'
     ? local.toLocaleString(DateTime.DATE_SHORT)
     : local.toFormat('cccc d LLLL yyyy');
@@ -203,7 +186,7 @@ export function formatUnitMonth(month: string, style: 'short' | 'long' = 'short'
   const at = DateTime.fromFormat(month, 'yyyy-MM', { zone: 'utc' });
   return at.isValid
     ? at
-        .setLocale(unitLocale)
+        .setLocale(currentUnitLocale())
         .toLocaleString({ month: style === 'short' ? 'short' : 'long', year: 'numeric' })
     : month;
 }

@@ -1,4 +1,4 @@
-import { AlertIcon, ReloadIcon } from '../components/ui/icons';
+import { AlertIcon, ReloadIcon } from '../components/ui/icons-start';
 import { buttonClasses } from '../components/ui/button';
 import { KeptDraftNotice } from '../components/ui/kept-draft-notice';
 import { StatusPanel } from '../components/ui/status-panel';

@@ -1,4 +1,4 @@
-import { setUnitLocale } from '../../shared/format/figures';
+import { setUnitLocale } from '../../shared/format/unit-locale';
 
 /**
  * The unit's IANA time zone. The server stores times in UTC; screens show them in this zone, so
@@ -14,7 +14,7 @@ export let unitTimeZoneLabel = 'Lisbon time';
 /** Called once at start-up with the server's setting. */
 export function applyServerTimeZone(zone: string, locale?: string): void {
   // The unit's locale (UNIT_LOCALE): dates are entered and shown in its order (day/month/year
-  // for the demo unit's en-GB), never in the browser's default. One home: shared/format/figures.ts.
+  // for the demo unit's en-GB), never in the browser's default. One home: shared/format/unit-locale.ts.
   if (locale) setUnitLocale(locale);
   try {
     new Intl.DateTimeFormat('en', { timeZone: zone });

@@ -11,6 +11,27 @@ export type FieldProblem = { path: string; message: string };
 /** Anything with a zod-style `parse`; keeps this module free of a schema library import. */
 export type ResponseParser<T> = { parse: (data: unknown) => T };
 
+/**
+ * A parser whose module (and schema library) loads on demand: the request starts it together
+ * with the fetch, so a screen's first load does not carry the schemas of the answers it waits for.
+ */
+export type LoadedParser<T> = { load: () => Promise<ResponseParser<T>> };
+
+/** `schema` for a request, loaded with it: `lazySchema(() => import('…').then((m) => m.schema))`. */
+export function lazySchema<T>(load: () => Promise<ResponseParser<T>>): LoadedParser<T> {
+  let loading: Promise<ResponseParser<T>> | undefined;
+  return {
+    load: () => {
+      // A failed load (a dropped network) is tried again on the next request, not kept.
+      loading ??= load().catch((error: unknown) => {
+        loading = undefined;
+        throw error;
+      });
+      return loading;
+    },
+  };
+}
+
 export class ApiRequestError extends Error {
   /** HTTP status; 0 when no answer came back at all. */
   readonly status: number;
@@ -62,7 +83,7 @@ export type RequestOptions<T> = {
   /** Sent as JSON; a `FormData` is sent as multipart form data instead (uploads). */
   body?: unknown;
   /** Validates the success body; without it the body is returned unchecked. */
-  schema?: ResponseParser<T>;
+  schema?: ResponseParser<T> | LoadedParser<T>;
   signal?: AbortSignal;
   /**
    * A 401 normally means the session ended and signs the person out. Sign-in itself answers 401
@@ -81,6 +102,9 @@ export async function apiRequest<T>(path: string, options: RequestOptions<T> = {
   // The browser writes a multipart body's Content-Type itself, with the boundary in it.
   const multipart = typeof FormData !== 'undefined' && body instanceof FormData;
   if (body !== undefined && !multipart) headers['Content-Type'] = 'application/json';
+  const parser = schema && 'load' in schema ? schema.load() : schema;
+  // Awaited after the answer; a failure before then must not also surface as unhandled.
+  if (parser instanceof Promise) parser.catch(() => undefined);
 
   let response: Response;
   try {
@@ -115,9 +139,10 @@ export async function apiRequest<T>(path: string, options: RequestOptions<T> = {
     if (schema) throw unexpectedShape(response.status);
     return undefined as T;
   }
-  if (!schema) return payload as T;
+  if (!parser) return payload as T;
+  const parse = await parser;
   try {
-    return schema.parse(payload);
+    return parse.parse(payload);
   } catch {
     throw unexpectedShape(response.status);
   }

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { roleLabels } from '../../../shared/roles';
 import type { SessionUser } from '../../../shared/schemas/auth';
 import { Button } from '../../components/ui/button';
-import { MarkIcon, SignOutIcon } from '../../components/ui/icons';
+import { MarkIcon, SignOutIcon } from '../../components/ui/icons-first';
 import { paths } from '../../config/paths';
 import { useLogOut } from '../../features/auth/hooks/use-log-out';
 import { describeError } from '../../lib/api-client';

@@ -1,6 +1,7 @@
-import { useEffect, useRef } from 'react';
-import { Outlet, ScrollRestoration, useLocation } from 'react-router-dom';
+import { Suspense, useEffect, useRef } from 'react';
+import { Outlet, useLocation } from 'react-router-dom';
 import type { SessionUser } from '../../../shared/schemas/auth';
+import { LoadingPanel } from '../../components/ui/status-panel';
 import { setCurrentPersonId } from '../../lib/current-person';
 import { AppHeader } from './app-header';
 import { MainNav } from './main-nav';
@@ -50,11 +51,13 @@ export function AppShell({ user }: { user: SessionUser }) {
             className="min-w-0 flex-1 px-6 py-8 xl:px-10 print:p-0"
           >
             <div className="mx-auto max-w-6xl">
-              <Outlet context={context} />
+              {/* Stays in place between screens, so the screen on show stays until the next has loaded. */}
+              <Suspense fallback={<LoadingPanel label="Opening the screen…" />}>
+                <Outlet context={context} />
+              </Suspense>
             </div>
           </main>
         </div>
-        <ScrollRestoration />
       </div>
     </>
   );

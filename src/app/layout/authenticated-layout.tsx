@@ -1,6 +1,6 @@
 import { Navigate, useLocation } from 'react-router-dom';
 import { Button } from '../../components/ui/button';
-import { PlugOffIcon, ReloadIcon } from '../../components/ui/icons';
+import { PlugOffIcon, ReloadIcon } from '../../components/ui/icons-first';
 import { LoadingPanel, StatusPanel } from '../../components/ui/status-panel';
 import { paths } from '../../config/paths';
 import { useSession } from '../../features/auth/hooks/use-session';

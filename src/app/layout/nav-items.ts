@@ -8,21 +8,21 @@ import {
   ProtocolBookIcon,
   SunriseIcon,
   VialCheckIcon,
-} from '../../components/ui/icons';
-import { OrderClipboardIcon, PatientCardIcon } from '../../components/ui/icons';
+} from '../../components/ui/icons-first';
+import { OrderClipboardIcon, PatientCardIcon } from '../../components/ui/icons-first';
 import {
   DeviationPathIcon,
   RecordLedgerIcon,
   TrailLogIcon,
   TrendBarsIcon,
-} from '../../components/ui/icons';
+} from '../../components/ui/icons-first';
 import {
   DeviceGaugeIcon,
   DrugUseBarsIcon,
   ListCalendarIcon,
   RecallSearchIcon,
   StockBoxIcon,
-} from '../../components/ui/icons';
+} from '../../components/ui/icons-first';
 import { paths } from '../../config/paths';
 
 export type NavItem = {

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { MarkIcon } from '../../components/ui/icons';
+import { MarkIcon } from '../../components/ui/icons-start';
 
 /**
  * The frame for screens shown without the signed-in navigation: starting up, not found,

@@ -3,7 +3,7 @@ import { useEffect, useState } from 'react';
 import { Navigate, useSearchParams } from 'react-router-dom';
 import { Alert } from '../../components/ui/alert';
 import { Button } from '../../components/ui/button';
-import { LockIcon, MarkIcon, ReloadIcon } from '../../components/ui/icons';
+import { LockIcon, MarkIcon, ReloadIcon } from '../../components/ui/icons-start';
 import { LoadingPanel } from '../../components/ui/status-panel';
 import { paths } from '../../config/paths';
 import { authQueries } from '../../features/auth/api/auth-queries';

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { AlertIcon, InfoIcon } from './icons';
+import { AlertIcon, InfoIcon } from './icons-start';
 
 type AlertProps = {
   tone: 'error' | 'info';

@@ -3,6 +3,8 @@ import { Component, type ErrorInfo, type ReactNode } from 'react';
 type ErrorBoundaryProps = {
   fallback: ReactNode;
   children: ReactNode;
+  /** When this changes (e.g. the address moved on), a shown fallback gives way to the children again. */
+  resetKey?: unknown;
 };
 
 type ErrorBoundaryState = { failed: boolean };
@@ -16,6 +18,11 @@ export class ErrorBoundary extends Component<ErrorBoundaryProps, ErrorBoundarySt
 
   static getDerivedStateFromError(): ErrorBoundaryState {
     return { failed: true };
+  }
+
+  override componentDidUpdate(previous: ErrorBoundaryProps): void {
+    if (this.state.failed && previous.resetKey !== this.props.resetKey)
+      this.setState({ failed: false });
   }
 
   override componentDidCatch(error: unknown, info: ErrorInfo): void {

@@ -12,7 +12,7 @@ import {
   StatusReturnedIcon,
   StatusStoppedIcon,
   SwapIcon,
-} from './icons';
+} from './icons-first';
 
 /**
  * How an order's status looks beside its word, so the label and the badge agree without colour

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { SpinnerIcon } from './icons';
+import { SpinnerIcon } from './icons-start';
 
 type StatusPanelProps = {
   icon: ReactNode;
@@ -36,9 +36,14 @@ export function StatusPanel({
   );
 }
 
+/** Something loading (a screen's file, an answer): a status named by its label, so a screen reader can find it. */
 export function LoadingPanel({ label }: { label: string }) {
   return (
-    <div role="status" className="flex items-center justify-center gap-3 py-16 text-paper-700">
+    <div
+      role="status"
+      aria-label={label}
+      className="flex items-center justify-center gap-3 py-16 text-paper-700"
+    >
       <SpinnerIcon className="size-6 text-iris-700" />
       <span>{label}</span>
     </div>

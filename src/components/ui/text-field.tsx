@@ -1,5 +1,5 @@
 import { useId, type InputHTMLAttributes, type Ref } from 'react';
-import { AlertIcon } from './icons';
+import { AlertIcon } from './icons-start';
 
 type TextFieldProps = Omit<InputHTMLAttributes<HTMLInputElement>, 'id'> & {
   label: string;

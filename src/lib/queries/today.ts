@@ -1,21 +1,16 @@
 import { queryOptions } from '@tanstack/react-query';
-import { z } from 'zod';
-import { treatmentListSchema, type TreatmentList } from '../../../shared/schemas/lists';
-import { orderSummarySchema, type OrderSummary } from '../../../shared/schemas/orders';
-import { api } from '../api-client';
+import type { TreatmentList } from '../../../shared/schemas/lists';
+import type { OrderSummary } from '../../../shared/schemas/orders';
+import { api, lazySchema } from '../api-client';
 import { offsetFromAnswer } from '../server-clock';
 import type { Fetching } from './request';
 
 /** One cache for Today: every worklist of the person's roles, the pharmacist's included. */
 
-const todayResponseSchema = z.object({
-  lists: z.array(
-    z.object({ id: z.string(), title: z.string(), orders: z.array(orderSummarySchema) }),
-  ),
-  /** Today's treatment lists, slots in time order (an older server sends none). */
-  treatmentLists: z.array(treatmentListSchema).default([]),
-  serverTime: z.string(),
-});
+// The answer's schema (zod and the order and list schemas) loads with the request, not with Today.
+const todayResponseSchema = lazySchema(() =>
+  import('./today-schema').then((m) => m.todayResponseSchema),
+);
 
 export type Worklist = { id: string; title: string; orders: OrderSummary[] };
 

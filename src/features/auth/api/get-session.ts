@@ -1,6 +1,11 @@
-import { sessionUserSchema, type SessionUser } from '../../../../shared/schemas/auth';
-import { api, isApiRequestError } from '../../../lib/api-client';
+import type { SessionUser } from '../../../../shared/schemas/auth';
+import { api, isApiRequestError, lazySchema } from '../../../lib/api-client';
 import { rememberWhySessionEnded } from '../../../lib/session-ended';
+
+// Every screen asks who is signed in before it shows; the schema (and zod) loads with the answer.
+const sessionUserSchema = lazySchema(() =>
+  import('../../../../shared/schemas/auth').then((m) => m.sessionUserSchema),
+);
 
 /**
  * Who is signed in, or `null` when nobody is. "Not signed in" (401) is an ordinary answer here,

@@ -1,9 +1,10 @@
-import { z } from 'zod';
 import type { LoginRequest, SessionUser } from '../../../../shared/schemas/auth';
-import { sessionUserSchema } from '../../../../shared/schemas/auth';
-import { api } from '../../../lib/api-client';
+import { api, lazySchema } from '../../../lib/api-client';
 
-const loginResponseSchema = z.object({ user: sessionUserSchema });
+// Loaded with the request, not with the sign-in page.
+const loginResponseSchema = lazySchema(() =>
+  import('./login-response').then((m) => m.loginResponseSchema),
+);
 
 export async function logIn(credentials: LoginRequest): Promise<SessionUser> {
   // A wrong password answers 401 too; it belongs on the form, not to the session-ended handler.

@@ -1,29 +1,40 @@
-import { zodResolver } from '@hookform/resolvers/zod';
+import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { loginRequestSchema } from '../../../../shared/schemas/auth';
+import type { loginRequestSchema } from '../../../../shared/schemas/auth';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { isApiRequestError, describeError, type ApiRequestError } from '../../../lib/api-client';
 import { applyServerFieldErrors, readableMessage } from '../../../lib/form-errors';
+import { lazyResolver } from '../../../lib/lazy-resolver';
 import { useLogIn } from '../hooks/use-log-in';
 
 type LoginInput = z.input<typeof loginRequestSchema>;
 type LoginOutput = z.output<typeof loginRequestSchema>;
+
+// The sign-in page is the first page of the day: its checks (and zod) load after it shows.
+const signInChecks = lazyResolver<LoginInput, LoginOutput>(async () => {
+  const [{ zodResolver }, { loginRequestSchema }] = await Promise.all([
+    import('@hookform/resolvers/zod'),
+    import('../../../../shared/schemas/auth'),
+  ]);
+  return zodResolver(loginRequestSchema);
+});
 
 const labels = { email: 'E-mail', password: 'Password' };
 const fieldNames = ['email', 'password'] as const;
 
 export function SignInForm() {
   const logIn = useLogIn();
+  useEffect(() => signInChecks.preload(), []);
   const {
     register,
     handleSubmit,
     setError,
     formState: { errors },
   } = useForm<LoginInput, unknown, LoginOutput>({
-    resolver: zodResolver(loginRequestSchema),
+    resolver: signInChecks.resolver,
     defaultValues: { email: '', password: '' },
   });
 

@@ -2,7 +2,11 @@ import { formatDuration } from '../../../../shared/format/figures';
 import { useCallback } from 'react';
 import { beyondUseState, type BeyondUseState } from '../../../../shared/orders/beyond-use';
 import { useStateAnnouncement } from '../../../lib/use-state-announcement';
-import { CheckCircleIcon, CrossCircleIcon, HourglassIcon } from '../../../components/ui/icons';
+import {
+  CheckCircleIcon,
+  CrossCircleIcon,
+  HourglassIcon,
+} from '../../../components/ui/icons-first';
 import { useServerNowMs } from '../../../lib/server-now';
 
 const states = {

@@ -3,7 +3,7 @@ import { DateTime } from 'luxon';
 import { formatUnitTime } from '../../../../shared/format/figures';
 import type { Role } from '../../../../shared/roles';
 import { Button } from '../../../components/ui/button';
-import { AlertIcon, InfoIcon, ReloadIcon } from '../../../components/ui/icons';
+import { AlertIcon, InfoIcon, ReloadIcon } from '../../../components/ui/icons-first';
 import { LoadingPanel, StatusPanel } from '../../../components/ui/status-panel';
 import { unitTimeZone } from '../../../config/unit-time-zone';
 import { describeError } from '../../../lib/api-client';

@@ -3,7 +3,7 @@ import { formatDuration, formatUnitTime } from '../../../../shared/format/figure
 import type { ListBooking, TreatmentList } from '../../../../shared/schemas/lists';
 import type { OrderStatus } from '../../../../shared/schemas/orders';
 import { LinkButton } from '../../../components/ui/button';
-import { ClockIcon, HourglassIcon } from '../../../components/ui/icons';
+import { ClockIcon, HourglassIcon } from '../../../components/ui/icons-first';
 import { OrderStatusLabel } from '../../../components/ui/order-status-label';
 import { SelectField } from '../../../components/ui/select-field';
 import { paths } from '../../../config/paths';

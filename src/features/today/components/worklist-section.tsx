@@ -2,7 +2,7 @@ import { formatUnitTime } from '../../../../shared/format/figures';
 import { Link } from 'react-router-dom';
 import type { OrderSummary } from '../../../../shared/schemas/orders';
 import { LinkButton } from '../../../components/ui/button';
-import { ChevronRightIcon, ClockIcon } from '../../../components/ui/icons';
+import { ChevronRightIcon, ClockIcon } from '../../../components/ui/icons-first';
 import { OrderStatusLabel } from '../../../components/ui/order-status-label';
 import { paths } from '../../../config/paths';
 import { unitTimeZone } from '../../../config/unit-time-zone';
