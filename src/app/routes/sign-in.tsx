@@ -11,15 +11,15 @@ import { SignInForm } from '../../features/auth/components/sign-in-form';
 import { useSession } from '../../features/auth/hooks/use-session';
 import { describeError } from '../../lib/api-client';
 import { safeRedirectTarget } from '../../lib/redirect-target';
-import { forgetWhySessionEnded, readWhySessionEnded } from '../../lib/session-ended';
+import { readWhySessionEnded } from '../../lib/session-ended';
 
 export function SignInRoute() {
   const session = useSession();
   const queryClient = useQueryClient();
   const [searchParams] = useSearchParams();
-  // Said once: read when the page opens, forgotten straight after.
+  // Said on the sign-in page until someone signs in (or signs out on purpose): kept in the tab,
+  // so a screen that mounts the page twice while it loads still says it.
   const [whyEnded] = useState(readWhySessionEnded);
-  useEffect(forgetWhySessionEnded, []);
   const wanted = safeRedirectTarget(searchParams.get('redirectTo'));
   // Never bounce back to the sign-in page itself, which would loop once signed in.
   const redirectTo = wanted && !wanted.startsWith(paths.signIn.path) ? wanted : null;

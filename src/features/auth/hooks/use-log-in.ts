@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { clearOfflineCopies } from '../../../lib/offline-cache';
+import { forgetWhySessionEnded } from '../../../lib/session-ended';
 import { authQueries } from '../api/auth-queries';
 import { logIn } from '../api/log-in';
 
@@ -13,6 +14,8 @@ export function useLogIn() {
       return user;
     },
     onSuccess: (user) => {
+      // Why the last session ended has been said on the sign-in page; the new one starts clean.
+      forgetWhySessionEnded();
       // Nothing cached for an earlier person may show to this one.
       queryClient.removeQueries({
         predicate: (query) => query.queryKey[0] !== authQueries.all()[0],
