@@ -78,7 +78,7 @@ describe('statements per tap', () => {
     expect(statements.filter((q) => /FOR UPDATE/.test(q))).toHaveLength(1);
   });
 
-  it('two API processes taking turns on one session each count every event; the one that did not write the previous tap reads what it lacks', async () => {
+  it('two API processes taking turns on one session each count every event; the one that did not write the previous tap gets what it lacks with the lock, in the same six statements', async () => {
     // A second app on the same database: its own repositories, so its own memory of sessions.
     const other = await startTestApp();
     try {
@@ -110,12 +110,18 @@ describe('statements per tap', () => {
         expect(res.status).toBe(201);
         expect(res.body.eventCount).toBe(++sent);
       }
-      let eventCount = 0;
+      let answer: { eventCount: number; record: { drops: { at: string }[] } } | null = null;
       const afterOther = await statementsDuring(async () => {
-        eventCount = (await post(here, 20, drop)).body.eventCount;
+        answer = (await post(here, 20, drop)).body;
       });
-      expect(eventCount).toBe(++sent);
-      expect(afterOther, afterOther.join('\n')).toHaveLength(7);
+      expect(answer!.eventCount).toBe(++sent);
+      // Seven before: the lock, then a read of the events the other process stored. The lock's
+      // statement now returns them itself.
+      expect(afterOther, afterOther.join('\n')).toHaveLength(6);
+      // The record this process derived counts the other process's drops too, at their times.
+      expect(answer!.record.drops.map((d) => d.at)).toEqual(
+        [2, 3, 4, 5, 6, 7, 20].map((s) => new Date(t0 + s * 1000).toISOString()),
+      );
       const state = await here.get(`/api/orders/${order.id}/session`);
       expect(state.body.events).toHaveLength(sent);
       expect(
