@@ -26,7 +26,7 @@ export interface ProfileWindow {
 }
 
 export interface ProfileSummary {
-  /** CPU time sampled (idle left out), ms. */
+  /** Samples taken while busy (idle left out), at Node's default interval of 1 ms each. */
   busyMs: number;
   byFunction: { name: string; where: string; selfMs: number; pct: number }[];
   byPlace: { where: string; selfMs: number; pct: number }[];
@@ -65,11 +65,14 @@ export function summariseProfiles(
   for (const file of files) {
     const profile = JSON.parse(readFileSync(file, 'utf8')) as CpuProfile;
     const nodes = new Map(profile.nodes.map((n) => [n.id, n]));
+    // Node's default sampling interval (--cpu-prof-interval), 1 ms.
+    const intervalUs = 1000;
     let t = profile.startTime;
     for (let i = 0; i < profile.samples.length; i++) {
       t += profile.timeDeltas[i] ?? 0;
-      // A sample stands for the time until the next one.
-      const us = profile.timeDeltas[i + 1] ?? 0;
+      // Each sample counts once (V8 samples on a wall-clock timer: weighting a sample by the gap
+      // to the next would give a process that waited for a core the time it waited).
+      const us = intervalUs;
       if (windows.length > 0 && !windows.some((w) => t >= w.fromUs && t < w.toUs)) continue;
       const node = nodes.get(profile.samples[i]!);
       if (!node) continue;
@@ -105,7 +108,7 @@ export function summariseProfiles(
 
 export function printSummary(title: string, summary: ProfileSummary, perTapOf?: number) {
   const each = (msTotal: number) => (perTapOf ? `  ${(msTotal / perTapOf).toFixed(3)} ms/tap` : '');
-  console.log(`\n${title}: ${summary.busyMs} ms of CPU sampled${each(summary.busyMs)}`);
+  console.log(`\n${title}: ${summary.busyMs} busy samples of 1 ms${each(summary.busyMs)}`);
   console.log('  self time by place:');
   for (const p of summary.byPlace)
     console.log(`    ${String(p.pct).padStart(5)} %  ${p.where}${each(p.selfMs)}`);

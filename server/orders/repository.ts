@@ -7,6 +7,7 @@ import { Attachment } from '../db/entities/attachment';
 import { DoseCheck } from '../db/entities/dose-check';
 import { Preparation } from '../db/entities/preparation';
 import { TreatmentOrder } from '../db/entities/treatment-order';
+import { quickQuery } from '../db/quick-query';
 import { managerOf, type Transaction } from '../db/unit-of-work';
 
 const withParts = {
@@ -91,12 +92,15 @@ function factsOf(row: Record<string, unknown>): SignedOrderFacts {
  * `withPlan` false leaves out the plan and checklist (the caller holds them already).
  */
 async function lockStatement(
+  dataSource: DataSource,
   tx: Transaction,
   id: number,
   eventsAfterId: number,
   withPlan: boolean,
 ): Promise<Record<string, unknown> | undefined> {
-  const [row] = await managerOf(tx).query(
+  const [row] = await quickQuery<Record<string, unknown>[]>(
+    dataSource,
+    tx,
     `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.protocol_sha256 AS protocolSha256, o.signed_at AS signedAt,
             ${withPlan ? 'o.plan, o.checklist' : 'NULL AS plan, NULL AS checklist'},
             p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt,
@@ -144,7 +148,7 @@ export function createOrderRepository(dataSource: DataSource) {
       // of the statement afterwards; its signature time and fingerprint are still read, and a
       // different answer (another database restored under the same id) reads them again.
       const known = signedFacts.get(id);
-      const row = await lockStatement(tx, id, eventsAfterId, known === undefined);
+      const row = await lockStatement(dataSource, tx, id, eventsAfterId, known === undefined);
       if (!row) return null;
       const signedAtMs = row.signedAt ? (row.signedAt as Date).getTime() : null;
       let facts = known;
@@ -153,7 +157,7 @@ export function createOrderRepository(dataSource: DataSource) {
         facts.signedAtMs !== signedAtMs ||
         facts.protocolSha256 !== String(row.protocolSha256)
       ) {
-        const full = known ? await lockStatement(tx, id, eventsAfterId, true) : row;
+        const full = known ? await lockStatement(dataSource, tx, id, eventsAfterId, true) : row;
         if (!full) return null;
         facts = factsOf(full);
         if (facts.signedAtMs !== null) rememberSignedFacts(id, facts);
