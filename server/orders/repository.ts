@@ -88,14 +88,14 @@ function factsOf(row: Record<string, unknown>): SignedOrderFacts {
  * version would lock that row too, and every session on one protocol would then wait for every
  * other. The subqueries are plain reads (MariaDB locks only the order's row and its
  * preparation's here), made after the lock is granted, so they see every event and deviation
- * committed by the lock's previous holder: the session service's tap needs no further read.
+ * committed by the lock's previous holder: the session service's tap needs no further read when
+ * its process already knows the session's events.
  * `withPlan` false leaves out the plan and checklist (the caller holds them already).
  */
 async function lockStatement(
   dataSource: DataSource,
   tx: Transaction,
   id: number,
-  eventsAfterId: number,
   withPlan: boolean,
 ): Promise<Record<string, unknown> | undefined> {
   const [row] = await quickQuery<Record<string, unknown>[]>(
@@ -104,14 +104,13 @@ async function lockStatement(
     `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.protocol_sha256 AS protocolSha256, o.signed_at AS signedAt,
             ${withPlan ? 'o.plan, o.checklist' : 'NULL AS plan, NULL AS checklist'},
             p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt,
-            (SELECT JSON_ARRAYAGG(JSON_OBJECT('id', e.id, 'payload', JSON_EXTRACT(e.payload, '$'), 'serverTime', e.server_time, 'recordedBy', e.recorded_by) ORDER BY e.id)
-               FROM session_event e WHERE e.order_id = o.id AND e.id > ?) AS newerEvents,
+            (SELECT MAX(e.id) FROM session_event e WHERE e.order_id = o.id) AS lastEventId,
             (SELECT JSON_ARRAYAGG(JSON_OBJECT('id', d.id, 'type', d.type, 'severity', d.severity, 'expected', d.expected, 'actual', d.actual,
                                               'message', d.message, 'detectedAt', d.detected_at, 'withdrawnAt', d.withdrawn_at))
                FROM deviation d WHERE d.order_id = o.id) AS deviations
        FROM treatment_order o LEFT JOIN preparation p ON p.id = (SELECT MAX(latest.id) FROM preparation latest WHERE latest.order_id = o.id)
       WHERE o.id = ? FOR UPDATE`,
-    [eventsAfterId, id],
+    [id],
   );
   return row as Record<string, unknown> | undefined;
 }
@@ -139,16 +138,14 @@ export function createOrderRepository(dataSource: DataSource) {
     /**
      * What a session event needs of its order, read and locked in one statement: events of one
      * order are handled one at a time, and the definition comes from the protocol cache.
-     * `eventsAfterId`: the newest event id the caller already holds; the statement also returns
-     * the order's events stored after it (as JSON), so a caller that lacks some needs no second read.
      */
-    async lockForSession(tx: Transaction, id: number, eventsAfterId = 0) {
+    async lockForSession(tx: Transaction, id: number) {
       // A signed order's plan, checklist and facts cannot change (the database's trigger
       // treatment_order_signed_kept refuses it), so they are read once per process and left out
       // of the statement afterwards; its signature time and fingerprint are still read, and a
       // different answer (another database restored under the same id) reads them again.
       const known = signedFacts.get(id);
-      const row = await lockStatement(dataSource, tx, id, eventsAfterId, known === undefined);
+      const row = await lockStatement(dataSource, tx, id, known === undefined);
       if (!row) return null;
       const signedAtMs = row.signedAt ? (row.signedAt as Date).getTime() : null;
       let facts = known;
@@ -157,7 +154,7 @@ export function createOrderRepository(dataSource: DataSource) {
         facts.signedAtMs !== signedAtMs ||
         facts.protocolSha256 !== String(row.protocolSha256)
       ) {
-        const full = known ? await lockStatement(dataSource, tx, id, eventsAfterId, true) : row;
+        const full = known ? await lockStatement(dataSource, tx, id, true) : row;
         if (!full) return null;
         facts = factsOf(full);
         if (facts.signedAtMs !== null) rememberSignedFacts(id, facts);
@@ -175,8 +172,8 @@ export function createOrderRepository(dataSource: DataSource) {
               beyondUseAt: (row.beyondUseAt as Date).toISOString(),
             }
           : null,
-        /** The events stored after `eventsAfterId`, as JSON (server/sessions/repository.ts reads it). */
-        newerEventsJson: row.newerEvents as string | unknown[] | null,
+        /** The id of the order's newest stored event (null before the first). */
+        lastEventId: row.lastEventId === null ? null : Number(row.lastEventId),
         /** The order's stored deviations as JSON (server/sessions/repository.ts reads it). */
         storedDeviationsJson: row.deviations as string | unknown[] | null,
       };

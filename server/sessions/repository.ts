@@ -102,9 +102,6 @@ async function readEventsWith(manager: EntityManager, orderId: number): Promise<
   return rows.map(toSessionEvent);
 }
 
-/** JSON carries DATETIME(3) as "2026-12-03 09:05:00.250": stored in UTC (the driver's timezone 'Z'). */
-const utcFromJson = (text: string) => new Date(`${text.replace(' ', 'T')}Z`);
-
 /** A deviation as stored, what `reconcileDeviations` compares the newly found ones with. */
 export type StoredDeviation = Pick<
   DeviationRow,
@@ -123,23 +120,14 @@ export function storedDeviationsFrom(json: string | unknown[] | null): StoredDev
     detectedAt: string;
     withdrawnAt: string | null;
   }[];
+  // JSON carries DATETIME(3) as "2026-12-03 09:05:00.250": stored in UTC (the driver's timezone 'Z').
+  const utc = (text: string) => new Date(`${text.replace(' ', 'T')}Z`);
   return list.map((d) => ({
     ...d,
     id: Number(d.id),
-    detectedAt: utcFromJson(d.detectedAt),
-    withdrawnAt: d.withdrawnAt === null ? null : utcFromJson(d.withdrawnAt),
+    detectedAt: utc(d.detectedAt),
+    withdrawnAt: d.withdrawnAt === null ? null : utc(d.withdrawnAt),
   }));
-}
-
-/** The events the order's lock read as JSON (`lockForSession`), as rows of session_event. */
-function storedEventsFrom(json: string | unknown[] | null): StoredEventRow[] {
-  const list = (typeof json === 'string' ? JSON.parse(json) : (json ?? [])) as {
-    id: number;
-    payload: Record<string, unknown>;
-    serverTime: string;
-    recordedBy: number;
-  }[];
-  return list.map((e) => ({ ...e, serverTime: utcFromJson(e.serverTime) }));
 }
 
 /** What this process knew of a session, with the events stored since (in id order) added. */
@@ -177,41 +165,29 @@ export function createSessionRepository(dataSource: DataSource) {
     eventsFor: (orderId: number, tx?: Transaction): Promise<SessionEvent[]> =>
       readEventsWith(managerOf(tx) ?? dataSource.manager, orderId),
 
-    /** The newest event id this process holds of an order (0 for none): what the lock's statement reads after. */
-    knownLastId(orderId: number): number {
-      return knownEvents.get(orderId)?.lastId ?? 0;
-    },
-
     /**
      * Every event of an order, for a writer that holds the order's lock and has just stored
-     * `inserted`: what this process knew, plus the events the lock's statement returned
-     * (`newerJson`, those stored after `readAfterId`), plus the new one; no statement. Ids only
-     * grow within an order (its events are written one at a time under its lock), so "after the
-     * newest I knew" is exactly what is missing, even when another API process wrote it. Should
-     * this process have let go of what it knew in between (its list is bounded, and an ended
-     * session's is dropped), the missing events are read. Hand the result to `rememberEvents`
+     * `inserted`: when this process already knew every event up to `lastIdAtLock` (the newest id
+     * as read with the lock), that list plus the new one, with no statement; otherwise what it
+     * knew plus whatever was stored since. Ids only grow within an order (its events are written
+     * one at a time under its lock), so "the newest id is the one I know" means nothing is
+     * missing, even when another API process wrote before. Hand the result to `rememberEvents`
      * once the transaction has committed (never before: a rolled-back event must not be
      * remembered).
      */
     async eventsAfterInsert(
       tx: Transaction,
       orderId: number,
-      readAfterId: number,
-      newerJson: string | unknown[] | null,
+      lastIdAtLock: number | null,
       inserted: SessionEvent,
     ): Promise<KnownEvents> {
       const known = knownEvents.get(orderId);
-      const knownLastId = known?.lastId ?? 0;
-      let rows: StoredEventRow[];
-      if (knownLastId >= readAfterId) {
-        rows = storedEventsFrom(newerJson).filter((row) => Number(row.id) > knownLastId);
-      } else {
-        rows = await managerOf(tx).query(
-          'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? AND id > ? ORDER BY id',
-          [orderId, knownLastId],
-        );
-      }
-      return withAdded(known, [...rows.map(toSessionEvent), inserted]);
+      if ((known?.lastId ?? 0) === (lastIdAtLock ?? 0)) return withAdded(known, [inserted]);
+      const rows: StoredEventRow[] = await managerOf(tx).query(
+        'SELECT id, payload, server_time AS serverTime, recorded_by AS recordedBy FROM session_event WHERE order_id = ? AND id > ? ORDER BY id',
+        [orderId, known?.lastId ?? 0],
+      );
+      return withAdded(known, rows.map(toSessionEvent));
     },
 
     rememberEvents(orderId: number, read: KnownEvents): void {

@@ -80,8 +80,6 @@ interface Authoriser {
 
 type SessionOrder = NonNullable<Awaited<ReturnType<OrderRepository['lockForSession']>>> & {
   definition: ProtocolDefinition;
-  /** The newest event id this process held when the lock's statement read the events after it. */
-  eventsReadAfterId: number;
 };
 
 export function createSessionService(deps: {
@@ -121,11 +119,9 @@ export function createSessionService(deps: {
 
   /** What the session code needs of an order: its row (locked when in a transaction) and its protocol. */
   async function sessionOrder(tx: Transaction, orderId: number): Promise<SessionOrder> {
-    // The lock's statement also returns the events stored after the newest this process holds.
-    const eventsReadAfterId = sessions.knownLastId(orderId);
-    const row = await orders.lockForSession(tx, orderId, eventsReadAfterId);
+    const row = await orders.lockForSession(tx, orderId);
     if (!row) throw AppError.notFound(`There is no order ${orderId}.`);
-    return { ...row, eventsReadAfterId, definition: await orderedDefinition(tx, row) };
+    return { ...row, definition: await orderedDefinition(tx, row) };
   }
 
   function checkEventFits(order: SessionOrder, input: SessionEventInput, nowMs: number) {
@@ -769,13 +765,7 @@ export function createSessionService(deps: {
             order.status === 'in-session';
           if (ends) status = input.type === 'session-completed' ? 'completed' : 'stopped';
           await moveOrderStatus(tx, orderId, order.status, status);
-          const read = await sessions.eventsAfterInsert(
-            tx,
-            orderId,
-            order.eventsReadAfterId,
-            order.newerEventsJson,
-            inserted,
-          );
+          const read = await sessions.eventsAfterInsert(tx, orderId, order.lastEventId, inserted);
           afterCommit.push(() =>
             ends ? sessions.forgetEvents(orderId) : sessions.rememberEvents(orderId, read),
           );
