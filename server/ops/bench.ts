@@ -416,10 +416,16 @@ try {
 
 /** Waits for every worker's profile, then prints where the API's CPU went in each open-loop run. */
 async function summariseApiProfiles(dir: string) {
-  const workers = Number(webConcurrency) > 1 ? Number(webConcurrency) + 1 : 1;
-  for (let waited = 0; waited < 30_000; waited += 250) {
-    if (existsSync(dir) && profileFiles([dir]).length >= workers) break;
+  // The primary exits first; each worker (and each module-loader thread) writes its profile as
+  // it ends. Wait until there is one per process at least and no more have come for a second.
+  const processes = Number(webConcurrency) > 1 ? Number(webConcurrency) + 1 : 1;
+  let seen = -1;
+  let stableMs = 0;
+  for (let waited = 0; waited < 30_000 && stableMs < 1000; waited += 250) {
     await new Promise((r) => setTimeout(r, 250));
+    const count = existsSync(dir) ? profileFiles([dir]).length : 0;
+    stableMs = count >= processes && count === seen ? stableMs + 250 : 0;
+    seen = count;
   }
   const files = existsSync(dir) ? profileFiles([dir]) : [];
   type Run = { ratePerS: number; taps: number; window: { fromUs: number; toUs: number } };
