@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/roles';
+import { quickQuery } from '../db/quick-query';
 
 export interface SignInSessionRow {
   signInSessionId: string;
@@ -13,6 +14,19 @@ export interface SignInSessionRow {
   /** Past its maximum lifetime. */
   ended: boolean;
   revoked: boolean;
+}
+
+/** The session read's row as the driver gives it. */
+interface FoundRow {
+  signInSessionId: string | number;
+  userId: number;
+  email: string;
+  displayName: string;
+  roles: string | null;
+  active: number | string;
+  idleS: number | string;
+  ended: number | string;
+  revoked: number | string;
 }
 
 /** The sign_in_session table. Times come from the database's clock, the same for every process. */
@@ -39,7 +53,10 @@ export function createSignInSessionRepository(dataSource: DataSource) {
      * hash, in one indexed query.
      */
     async find(tokenHash: string): Promise<SignInSessionRow | null> {
-      const [row] = await dataSource.query(
+      // Straight through the driver (server/db/quick-query.ts): every signed-in call sends it.
+      const [row] = await quickQuery<FoundRow[]>(
+        dataSource,
+        undefined,
         `SELECT s.id AS signInSessionId, u.id AS userId, u.email, u.display_name AS displayName, u.roles, u.active,
                 TIMESTAMPDIFF(SECOND, s.last_seen_at, NOW(3)) AS idleS, s.expires_at <= NOW(3) AS ended, s.revoked_at IS NOT NULL AS revoked
            FROM sign_in_session s JOIN user u ON u.id = s.user_id WHERE s.token_hash = ?`,

@@ -8,6 +8,8 @@ export interface ApiProcess {
   child: ChildProcess;
   /** Ends the process at once, as a crash or a pulled plug would. */
   kill(): Promise<void>;
+  /** Asks it to stop (SIGTERM: its workers close and exit, writing a `--cpu-prof` profile). */
+  stop(): Promise<void>;
 }
 
 /**
@@ -21,14 +23,20 @@ export async function startApiProcess(options: {
   logFile?: string;
   /** How long to wait for its first answer (a machine busy with other work compiles slowly). */
   startTimeoutMs?: number;
+  /** Node's own options for the process (and the workers it forks), e.g. `--cpu-prof`. */
+  nodeArgs?: string[];
 }): Promise<ApiProcess> {
   const log = options.logFile ? openSync(options.logFile, 'a') : 'inherit';
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    cwd: repoRoot,
-    // Never the schema owner's password: the web server reads and writes as the app user only.
-    env: webServerEnvironment({ ...process.env, ...options.env, PORT: String(options.port) }),
-    stdio: ['ignore', log, log],
-  });
+  const child = spawn(
+    process.execPath,
+    [...(options.nodeArgs ?? []), '--import', 'tsx', 'server/index.ts'],
+    {
+      cwd: repoRoot,
+      // Never the schema owner's password: the web server reads and writes as the app user only.
+      env: webServerEnvironment({ ...process.env, ...options.env, PORT: String(options.port) }),
+      stdio: ['ignore', log, log],
+    },
+  );
   const url = `http://127.0.0.1:${options.port}`;
   let exited = false;
   child.once('exit', () => (exited = true));
@@ -60,14 +68,11 @@ export async function startApiProcess(options: {
     }
     await new Promise((r) => setTimeout(r, 200));
   }
-  return {
-    url,
-    child,
-    kill: () =>
-      new Promise<void>((resolve) => {
-        if (exited) return resolve();
-        child.once('exit', () => resolve());
-        child.kill('SIGKILL');
-      }),
-  };
+  const end = (signal: NodeJS.Signals) =>
+    new Promise<void>((resolve) => {
+      if (exited) return resolve();
+      child.once('exit', () => resolve());
+      child.kill(signal);
+    });
+  return { url, child, kill: () => end('SIGKILL'), stop: () => end('SIGTERM') };
 }

@@ -287,7 +287,10 @@ export async function measureOpenLoop(options: OpenLoopOptions) {
         database: cpuTimeMs(m.databasePids),
         generator: process.cpuUsage(),
       };
+      const fromUs = Number(process.hrtime.bigint() / 1000n);
       const run = await runRate(options, agent, ratePerS, options.seconds, nextTap);
+      /** The run's span on the monotonic clock V8's profiles use (µs), to cut a `--cpu-prof` profile. */
+      const window = { fromUs, toUs: Number(process.hrtime.bigint() / 1000n) };
       const perTap = (ms: number) => Math.round((ms / run.total) * 1000) / 1000;
       const cpuMsPerTap =
         m && before
@@ -320,6 +323,7 @@ export async function measureOpenLoop(options: OpenLoopOptions) {
         generatorLateMaxMs: Math.round(run.lateStartMaxMs * 10) / 10,
         peakInFlight: run.peakInFlight,
         cpuMsPerTap,
+        window,
       };
       results.push(out);
       const failed = run.total - stored;

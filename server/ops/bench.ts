@@ -2,7 +2,7 @@
 // It starts what it needs: the private MariaDB (a database of its own), a built client, and the
 // API as a separate process, so the load generator does not share the server's event loop.
 import type { EventEmitter } from 'node:events';
-import { mkdirSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { randomUUID } from 'node:crypto';
 import path from 'node:path';
@@ -25,6 +25,7 @@ import {
   startCxlSessions,
   type MeasuredProcesses,
 } from './bench-open-loop';
+import { printSummary, profileFiles, summariseProfiles } from './cpu-profile-summary';
 import { measureBundle } from './measure-bundle';
 import { cpuTimeMs } from './process-cpu';
 import { ensureDatabaseFor, recreateDatabase } from './database-setup';
@@ -240,6 +241,10 @@ const pidList = (value: string | undefined) =>
     });
 const target = option('target')?.replace(/\/+$/, '');
 const openLoopOnly = process.argv.includes('--open-loop') || target !== undefined;
+/** `--cpu-prof`: the API's workers are profiled (Node's --cpu-prof) and each open-loop run's share summarised. */
+const cpuProfDir = process.argv.includes('--cpu-prof')
+  ? path.join(dataDir, 'bench', `cpu-prof-${new Date().toISOString().replace(/[:.]/g, '-')}`)
+  : null;
 const openLoop = {
   ratesPerS: (option('rates') ?? '50,200,500').split(',').map(Number),
   seconds: Number(option('seconds') ?? durationS),
@@ -320,6 +325,7 @@ const api = await startApiProcess({
   env,
   logFile: path.join(dataDir, 'bench', 'api.log'),
   startTimeoutMs: 300_000,
+  nodeArgs: cpuProfDir ? ['--cpu-prof', `--cpu-prof-dir=${cpuProfDir}`] : [],
 }).catch(async (error: unknown) => {
   await database.stop();
   throw error;
@@ -402,8 +408,35 @@ try {
     };
   }
 } finally {
-  await api.kill();
+  if (cpuProfDir) await api.stop();
+  else await api.kill();
+  if (cpuProfDir) await summariseApiProfiles(cpuProfDir);
   await database.stop();
+}
+
+/** Waits for every worker's profile, then prints where the API's CPU went in each open-loop run. */
+async function summariseApiProfiles(dir: string) {
+  // The primary exits first; each worker (and each module-loader thread) writes its profile as
+  // it ends. Wait until there is one per process at least and no more have come for a second.
+  const processes = Number(webConcurrency) > 1 ? Number(webConcurrency) + 1 : 1;
+  let seen = -1;
+  let stableMs = 0;
+  for (let waited = 0; waited < 30_000 && stableMs < 1000; waited += 250) {
+    await new Promise((r) => setTimeout(r, 250));
+    const count = existsSync(dir) ? profileFiles([dir]).length : 0;
+    stableMs = count >= processes && count === seen ? stableMs + 250 : 0;
+    seen = count;
+  }
+  const files = existsSync(dir) ? profileFiles([dir]) : [];
+  type Run = { ratePerS: number; taps: number; window: { fromUs: number; toUs: number } };
+  const runs = ((results?.openLoop as { runs?: Run[] } | undefined)?.runs ?? []) as Run[];
+  for (const run of runs)
+    printSummary(
+      `API profile at ${run.ratePerS} taps/s (${files.length} processes)`,
+      summariseProfiles(files, [run.window], 25),
+      run.taps,
+    );
+  console.log(`\nprofiles in ${path.relative(process.cwd(), dir)}`);
 }
 
 if (openLoopOnly) {

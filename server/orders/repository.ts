@@ -7,6 +7,7 @@ import { Attachment } from '../db/entities/attachment';
 import { DoseCheck } from '../db/entities/dose-check';
 import { Preparation } from '../db/entities/preparation';
 import { TreatmentOrder } from '../db/entities/treatment-order';
+import { quickQuery } from '../db/quick-query';
 import { managerOf, type Transaction } from '../db/unit-of-work';
 
 const withParts = {
@@ -48,8 +49,81 @@ export async function moveOrderStatus(
     );
 }
 
+/** What a session reads of a signed order that never changes (the frozen copies are shared by every tap). */
+interface SignedOrderFacts {
+  eye: 'right' | 'left';
+  patientId: number;
+  protocolVersionId: number;
+  protocolSha256: string;
+  plan: TreatmentOrder['plan'];
+  checklist: TreatmentOrder['checklist'];
+  signedAtMs: number | null;
+}
+
+const signedFactsMax = 2_000;
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object' && !Object.isFrozen(value)) {
+    Object.freeze(value);
+    for (const inner of Object.values(value)) deepFreeze(inner);
+  }
+  return value;
+}
+
+function factsOf(row: Record<string, unknown>): SignedOrderFacts {
+  const parse = <T>(v: unknown): T => (typeof v === 'string' ? JSON.parse(v) : v) as T;
+  return {
+    eye: row.eye as 'right' | 'left',
+    patientId: Number(row.patientId),
+    protocolVersionId: Number(row.protocolVersionId),
+    protocolSha256: String(row.protocolSha256),
+    plan: deepFreeze(parse<TreatmentOrder['plan']>(row.plan)),
+    checklist: deepFreeze(parse<TreatmentOrder['checklist']>(row.checklist)),
+    signedAtMs: row.signedAt ? (row.signedAt as Date).getTime() : null,
+  };
+}
+
+/**
+ * The order's row and its own preparation row, locked, nothing shared: a join to the protocol
+ * version would lock that row too, and every session on one protocol would then wait for every
+ * other. The subqueries are plain reads (MariaDB locks only the order's row and its
+ * preparation's here), made after the lock is granted, so they see every event and deviation
+ * committed by the lock's previous holder: the session service's tap needs no further read when
+ * its process already knows the session's events.
+ * `withPlan` false leaves out the plan and checklist (the caller holds them already).
+ */
+async function lockStatement(
+  dataSource: DataSource,
+  tx: Transaction,
+  id: number,
+  withPlan: boolean,
+): Promise<Record<string, unknown> | undefined> {
+  const [row] = await quickQuery<Record<string, unknown>[]>(
+    dataSource,
+    tx,
+    `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.protocol_sha256 AS protocolSha256, o.signed_at AS signedAt,
+            ${withPlan ? 'o.plan, o.checklist' : 'NULL AS plan, NULL AS checklist'},
+            p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt,
+            (SELECT MAX(e.id) FROM session_event e WHERE e.order_id = o.id) AS lastEventId,
+            (SELECT JSON_ARRAYAGG(JSON_OBJECT('id', d.id, 'type', d.type, 'severity', d.severity, 'expected', d.expected, 'actual', d.actual,
+                                              'message', d.message, 'detectedAt', d.detected_at, 'withdrawnAt', d.withdrawn_at))
+               FROM deviation d WHERE d.order_id = o.id) AS deviations
+       FROM treatment_order o LEFT JOIN preparation p ON p.id = (SELECT MAX(latest.id) FROM preparation latest WHERE latest.order_id = o.id)
+      WHERE o.id = ? FOR UPDATE`,
+    [id],
+  );
+  return row as Record<string, unknown> | undefined;
+}
+
 export function createOrderRepository(dataSource: DataSource) {
   const orders = dataSource.getRepository(TreatmentOrder);
+  /** Signed orders' facts, by order id, as `lockForSession` read them (see there). */
+  const signedFacts = new Map<number, SignedOrderFacts>();
+  const rememberSignedFacts = (id: number, facts: SignedOrderFacts) => {
+    signedFacts.delete(id);
+    if (signedFacts.size >= signedFactsMax) signedFacts.delete(signedFacts.keys().next().value!);
+    signedFacts.set(id, facts);
+  };
   return {
     /** One order with its parts; its protocol definition is checked against the fingerprint it was planned on. */
     async findById(id: number, tx?: Transaction) {
@@ -66,35 +140,31 @@ export function createOrderRepository(dataSource: DataSource) {
      * order are handled one at a time, and the definition comes from the protocol cache.
      */
     async lockForSession(tx: Transaction, id: number) {
-      const [row] = await managerOf(tx).query(
-        // The order's row and its own preparation row, nothing shared: a join to the protocol
-        // version would lock that row too, and every session on one protocol would then wait for
-        // every other.
-        // The two subqueries are plain reads (MariaDB locks only the order's row and its
-        // preparation's here), made after the lock is granted, so they see every event and
-        // deviation committed by the lock's previous holder: the session service's tap needs
-        // no further read when its process already knows the session's events.
-        `SELECT o.id, o.status, o.eye, o.patient_id AS patientId, o.protocol_version_id AS protocolVersionId, o.protocol_sha256 AS protocolSha256, o.plan, o.checklist,
-                p.reconstituted_at AS reconstitutedAt, p.beyond_use_at AS beyondUseAt,
-                (SELECT MAX(e.id) FROM session_event e WHERE e.order_id = o.id) AS lastEventId,
-                (SELECT JSON_ARRAYAGG(JSON_OBJECT('id', d.id, 'type', d.type, 'severity', d.severity, 'expected', d.expected, 'actual', d.actual,
-                                                  'message', d.message, 'detectedAt', d.detected_at, 'withdrawnAt', d.withdrawn_at))
-                   FROM deviation d WHERE d.order_id = o.id) AS deviations
-           FROM treatment_order o LEFT JOIN preparation p ON p.id = (SELECT MAX(latest.id) FROM preparation latest WHERE latest.order_id = o.id)
-          WHERE o.id = ? FOR UPDATE`,
-        [id],
-      );
+      // A signed order's plan, checklist and facts cannot change (the database's trigger
+      // treatment_order_signed_kept refuses it), so they are read once per process and left out
+      // of the statement afterwards; its signature time and fingerprint are still read, and a
+      // different answer (another database restored under the same id) reads them again.
+      const known = signedFacts.get(id);
+      const row = await lockStatement(dataSource, tx, id, known === undefined);
       if (!row) return null;
-      const parse = <T>(v: unknown): T => (typeof v === 'string' ? JSON.parse(v) : v) as T;
+      const signedAtMs = row.signedAt ? (row.signedAt as Date).getTime() : null;
+      let facts = known;
+      if (
+        !facts ||
+        facts.signedAtMs !== signedAtMs ||
+        facts.protocolSha256 !== String(row.protocolSha256)
+      ) {
+        const full = known ? await lockStatement(dataSource, tx, id, true) : row;
+        if (!full) return null;
+        facts = factsOf(full);
+        if (facts.signedAtMs !== null) rememberSignedFacts(id, facts);
+        else signedFacts.delete(id);
+        Object.assign(row, full);
+      }
       return {
         id: Number(row.id),
         status: row.status as OrderStatus,
-        eye: row.eye as 'right' | 'left',
-        patientId: Number(row.patientId),
-        protocolVersionId: Number(row.protocolVersionId),
-        protocolSha256: String(row.protocolSha256),
-        plan: parse<TreatmentOrder['plan']>(row.plan),
-        checklist: parse<TreatmentOrder['checklist']>(row.checklist),
+        ...facts,
         /** When the drug was made up and must be used by (PDT), for the beyond-use deviations. */
         preparation: row.reconstitutedAt
           ? {

@@ -9,6 +9,7 @@ import type {
 import { DeviationRow } from '../db/entities/deviation';
 import { DoseRecordRow } from '../db/entities/dose-record';
 import type { SessionParticipant } from '../db/entities/session-participant';
+import { quickQuery } from '../db/quick-query';
 import { managerOf, type Transaction } from '../db/unit-of-work';
 
 export interface StandingDeviation {
@@ -237,7 +238,9 @@ export function createSessionRepository(dataSource: DataSource) {
       receivedAt: Date,
     ): Promise<SessionEvent> {
       const stored = JSON.stringify(payload);
-      const result: { insertId: number | string } = await managerOf(tx).query(
+      const result = await quickQuery<{ insertId: number | string }>(
+        dataSource,
+        tx,
         'INSERT INTO session_event (order_id, idempotency_key, type, step_id, client_time, server_time, recorded_by, payload) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
         [
           orderId,
@@ -270,7 +273,9 @@ export function createSessionRepository(dataSource: DataSource) {
         order: RecordOrderFacts;
       },
     ) =>
-      managerOf(tx).query(
+      quickQuery(
+        dataSource,
+        tx,
         `INSERT INTO dose_record (order_id, outcome, started_at, ended_at, on_time_s, delivered_fluence_j_per_cm2, volume_given_ml, record, protocol_version_id, local_month, deviation_count,
                                   eye, patient_id, planned_dose_mg, planned_fluence_j_per_cm2)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
