@@ -235,7 +235,7 @@ export function createOrderService(deps: {
     return Math.floor((clock.now().getTime() - last) / 86_400_000);
   }
 
-  /** The patient's other open orders of this kind on this eye (not this one, nor the revision it amends). */
+  /** The patient's other open orders of this kind on this eye (not this one, the revision it amends, nor another amendment of that revision). */
   async function openOrdersOf(
     order: {
       patientId: number;
@@ -248,12 +248,12 @@ export function createOrderService(deps: {
     const excluded = [order.id, order.previousRevisionId].filter(
       (id): id is number => typeof id === 'number',
     );
-    const rows = await orders.openOrdersFor(
-      order.patientId,
-      order.eye,
-      kind,
-      openOrderStatuses,
-      excluded,
+    const rows = (
+      await orders.openOrdersFor(order.patientId, order.eye, kind, openOrderStatuses, excluded)
+    ).filter(
+      // Another amendment of the same revision (two clinicians amending at once) is the same
+      // treatment, not a second one: the saving transaction answers it with 409 already_amended.
+      (o) => order.previousRevisionId == null || o.previousRevisionId !== order.previousRevisionId,
     );
     return rows.map((o) => ({
       id: o.id,
