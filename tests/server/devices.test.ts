@@ -58,6 +58,10 @@ function timeline(startMinutesAgo: number) {
 const post = (orderId: number, event: object) =>
   nurseAgent.post(`/api/orders/${orderId}/session-events`).send(event);
 
+/** A session start on the order a minute ago, all checks confirmed, naming `device`. */
+const startWith = (orderId: number, device: object) =>
+  post(orderId, timeline(1)(0, { type: 'session-started', checks: allChecks, device }));
+
 /** A signed CXL order on version 3 (the version with deviceChecks): ready for its session. */
 async function cxlV3Order() {
   const patient = await createTestPatient(ctx);
@@ -263,14 +267,7 @@ describe('a session start on a version with device checks', () => {
   it('is refused on a device with no output check', async () => {
     const order = await cxlV3Order();
     const device = await addDevice(adminAgent, 'uv');
-    const res = await post(
-      order.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: device.id, irradianceSetMwPerCm2: 3 },
-      }),
-    );
+    const res = await startWith(order.id, { deviceId: device.id, irradianceSetMwPerCm2: 3 });
     expect(res.status).toBe(422);
     expect(res.body.error.message).toContain('has no output check');
     await expectNothingStored(order.id, order.status, 'device_no_check');
@@ -281,14 +278,7 @@ describe('a session start on a version with device checks', () => {
     const device = await checkedUvSource();
     // 2.5 against 3 mW/cm²: 16.7 % under, outside ±10 % (common practice).
     expect((await checkDevice(nurseAgent, device, 3, 2.5)).body.check.passed).toBe(false);
-    const res = await post(
-      order.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: device.id, irradianceSetMwPerCm2: 3 },
-      }),
-    );
+    const res = await startWith(order.id, { deviceId: device.id, irradianceSetMwPerCm2: 3 });
     expect(res.status).toBe(422);
     expect(res.body.error.message).toContain('last output check failed');
     await expectNothingStored(order.id, order.status, 'device_check_failed');
@@ -303,14 +293,7 @@ describe('a session start on a version with device checks', () => {
        VALUES (?, NOW(3) - INTERVAL 2 DAY, ?, 'irradiance', 3, 3, 'Test meter', '2099-01-01', 10, 'test', 0, 1)`,
       [device.id, nurse.id],
     );
-    const res = await post(
-      order.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: device.id, irradianceSetMwPerCm2: 3 },
-      }),
-    );
+    const res = await startWith(order.id, { deviceId: device.id, irradianceSetMwPerCm2: 3 });
     expect(res.status).toBe(422);
     expect(res.body.error.message).toContain('not today');
     await expectNothingStored(order.id, order.status, 'device_check_stale');
@@ -327,14 +310,7 @@ describe('a session start on a version with device checks', () => {
       [retired, 'out of service: Lamp flickers', 'device_out_of_service'],
       [overdue, 'due for service on 2021-03-01', 'device_service_overdue'],
     ] as const) {
-      const res = await post(
-        order.id,
-        timeline(1)(0, {
-          type: 'session-started',
-          checks: allChecks,
-          device: { deviceId: device.id, irradianceSetMwPerCm2: 3 },
-        }),
-      );
+      const res = await startWith(order.id, { deviceId: device.id, irradianceSetMwPerCm2: 3 });
       expect(res.status).toBe(422);
       expect(res.body.error.message).toContain(words);
       await expectNothingStored(order.id, order.status, rule);
@@ -344,14 +320,7 @@ describe('a session start on a version with device checks', () => {
   it('is refused when a setting lies outside the device’s range (a laser set in W, not mW)', async () => {
     const uvOrder = await cxlV3Order();
     const uv = await checkedUvSource();
-    const tooHigh = await post(
-      uvOrder.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: uv.id, irradianceSetMwPerCm2: 60 },
-      }),
-    );
+    const tooHigh = await startWith(uvOrder.id, { deviceId: uv.id, irradianceSetMwPerCm2: 60 });
     expect(tooHigh.status).toBe(422);
     expect(tooHigh.body.error.fields[0]).toMatchObject({
       path: 'device.irradianceSetMwPerCm2',
@@ -363,36 +332,23 @@ describe('a session start on a version with device checks', () => {
     const laser = await addDevice(adminAgent, 'laser');
     expect((await checkDevice(nurseAgent, laser, 57.7, 57.1)).body.check.passed).toBe(true);
     // 0.0577 is the plan's 57.7 mW typed in W: below the laser's 1 mW minimum.
-    const inWatts = await post(
-      pdt.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: laser.id, powerSetMw: 0.0577, spotSetUm: 3500 },
-      }),
-    );
+    const inWatts = await startWith(pdt.id, {
+      deviceId: laser.id,
+      powerSetMw: 0.0577,
+      spotSetUm: 3500,
+    });
     expect(inWatts.status).toBe(400);
     expect(inWatts.body.error.fields[0].path).toBe('device.powerSetMw');
-    const tooSmall = await post(
-      pdt.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: laser.id, powerSetMw: 0.5, spotSetUm: 3500 },
-      }),
-    );
+    const tooSmall = await startWith(pdt.id, {
+      deviceId: laser.id,
+      powerSetMw: 0.5,
+      spotSetUm: 3500,
+    });
     expect(tooSmall.status).toBe(422);
     expect(tooSmall.body.error.fields[0].message).toContain('from 1 to 500 mW');
     await expectNothingStored(pdt.id, pdt.status, 'device_range');
     // A UV source cannot treat a PDT order.
-    const wrongKind = await post(
-      pdt.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: uv.id, irradianceSetMwPerCm2: 3 },
-      }),
-    );
+    const wrongKind = await startWith(pdt.id, { deviceId: uv.id, irradianceSetMwPerCm2: 3 });
     expect(wrongKind.status).toBe(422);
     expect(wrongKind.body.error.message).toContain('needs a laser');
   });
@@ -428,8 +384,7 @@ describe('every session start names its device and lens', () => {
           imageMagnification: laserSpotFactor,
         })
       ).body.lens as { id: number };
-    const start = (device: object) =>
-      post(order.id, timeline(1)(0, { type: 'session-started', checks: allChecks, device }));
+    const start = (device: object) => startWith(order.id, device);
 
     const none = await start(setting);
     expect(none.status).toBe(400);
@@ -476,19 +431,12 @@ describe('every session start names its device and lens', () => {
     expect(
       (await checkDevice(nurseAgent, laser, order.plan.powerMw, order.plan.powerMw)).status,
     ).toBe(201);
-    const swapped = await post(
-      order.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: {
-          deviceId: laser.id,
-          powerSetMw: order.plan.powerMw,
-          spotSetUm: order.plan.deviceSpotDiameterUm,
-          lensId: other.body.lens.id,
-        },
-      }),
-    );
+    const swapped = await startWith(order.id, {
+      deviceId: laser.id,
+      powerSetMw: order.plan.powerMw,
+      spotSetUm: order.plan.deviceSpotDiameterUm,
+      lensId: other.body.lens.id,
+    });
     expect(swapped.status).toBe(422);
     expect(swapped.body.error.fields[0].message).toContain(
       `${lens.body.lens.id}, the order's lens`,
@@ -497,14 +445,11 @@ describe('every session start names its device and lens', () => {
 
     const uvOrder = await cxlV3Order();
     const uv = await checkedUvSource();
-    const withLens = await post(
-      uvOrder.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: uv.id, irradianceSetMwPerCm2: 3, lensId: lens.body.lens.id },
-      }),
-    );
+    const withLens = await startWith(uvOrder.id, {
+      deviceId: uv.id,
+      irradianceSetMwPerCm2: 3,
+      lensId: lens.body.lens.id,
+    });
     expect(withLens.status).toBe(400);
     expect(withLens.body.error.fields[0].path).toBe('device.lensId');
     await expectNothingStored(uvOrder.id, uvOrder.status, 'device_lens_not_laser');
@@ -598,14 +543,11 @@ describe('what the session records of the device', () => {
       (await checkDevice(nurseAgent, laser, order.plan.powerMw, order.plan.powerMw)).status,
     ).toBe(201);
     // The nurse sets the retinal spot (3500 µm) on a laser that takes the device spot.
-    const start = await post(
-      order.id,
-      timeline(1)(0, {
-        type: 'session-started',
-        checks: allChecks,
-        device: { deviceId: laser.id, powerSetMw: order.plan.powerMw, spotSetUm: 3500 },
-      }),
-    );
+    const start = await startWith(order.id, {
+      deviceId: laser.id,
+      powerSetMw: order.plan.powerMw,
+      spotSetUm: 3500,
+    });
     expect(start.status).toBe(201);
     const used = start.body.record.deviceUsed;
     expect(used.lens).toMatchObject({ id: lens.body.lens.id, laserSpotFactor: 1.6 });
