@@ -23,6 +23,12 @@ const stray: { pattern: RegExp; what: string }[] = [
     what: 'a hand-written date pattern',
   },
   { pattern: /\bunitDateFigures\b/, what: 'the old second home of the date pattern' },
+  {
+    // An ISO time cut by hand for show ('2026-12-03 08:00', '08:00'): UTC shown as the ward's
+    // time. Cutting out the date part for a formatter (`.slice(0, 10)`) is no stray.
+    pattern: /\.slice\(11, 1[69]\)|\.slice\(0, 1[69]\)\.replace\(/,
+    what: 'an ISO time cut by hand (UTC shown as local)',
+  },
 ];
 
 function sources(dir: string): string[] {
@@ -59,6 +65,9 @@ describe('one home for writing dates', () => {
     expect(caught('day.toFormat(`dd/MM/yyyy`)')).toBe(true);
     expect(caught('new Date(iso).toLocaleDateString()')).toBe(true);
     expect(caught('at.toLocaleString(DateTime.DATE_MED)')).toBe(true);
+    expect(caught("c.checkedAt.slice(0, 16).replace('T', ' ')")).toBe(true);
+    expect(caught('last.checkedAt.slice(11, 16)')).toBe(true);
+    expect(caught('formatDate(version.approvedAt.slice(0, 10))')).toBe(false);
     expect(caught("at.toFormat('HH:mm')")).toBe(false);
     expect(caught("at.toFormat('yyyy-MM')")).toBe(false);
   });

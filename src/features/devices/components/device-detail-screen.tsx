@@ -1,7 +1,9 @@
 import { useQuery } from '@tanstack/react-query';
+import { formatUnitTime } from '../../../../shared/format/figures';
 import { Alert } from '../../../components/ui/alert';
 import { CheckCircleIcon, CrossCircleIcon } from '../../../components/ui/icons';
 import { PageHeader } from '../../../components/ui/page-header';
+import { unitTimeZone } from '../../../config/unit-time-zone';
 import { describeError } from '../../../lib/api-client';
 import { deviceQuery, type OutputCheck } from '../../../lib/queries/devices';
 import { formatFigure } from '../../step-clock/components/clock-format';
@@ -23,7 +25,7 @@ function CheckChart({ checks }: { checks: OutputCheck[] }) {
   const y = (pct: number) => pad / 2 + ((highest - pct) / (highest - lowest)) * (height - pad);
   const x = (i: number) =>
     pad + (points.length === 1 ? 0 : (i / (points.length - 1)) * (width - pad * 1.5));
-  const title = `Measured as a percentage of the value set, ${points.length} checks from ${points[0]!.checkedAt.slice(0, 10)} to ${points[points.length - 1]!.checkedAt.slice(0, 10)}; tolerance ± ${tolerance} %.`;
+  const title = `Measured as a percentage of the value set, ${points.length} checks from ${formatUnitTime(points[0]!.checkedAt, unitTimeZone, 'date')} to ${formatUnitTime(points[points.length - 1]!.checkedAt, unitTimeZone, 'date')}; tolerance ± ${tolerance} %.`;
   return (
     <figure className="my-4">
       <svg
@@ -110,7 +112,7 @@ export function DeviceDetailScreen({ deviceId }: { deviceId: number }) {
         <thead>
           <tr className="border-b border-paper-300">
             <th scope="col" className="py-2 pr-3">
-              When (UTC)
+              When
             </th>
             <th scope="col" className="py-2 pr-3">
               Set
@@ -136,7 +138,7 @@ export function DeviceDetailScreen({ deviceId }: { deviceId: number }) {
           {checks.map((c) => (
             <tr key={c.id} className="border-b border-paper-200 align-top">
               <td className="py-1.5 pr-3 numerals-steady">
-                {c.checkedAt.slice(0, 16).replace('T', ' ')}
+                {formatUnitTime(c.checkedAt, unitTimeZone, 'record')}
               </td>
               <td className="py-1.5 pr-3">
                 {formatFigure(c.setValue, 2)} {c.unit}
@@ -172,7 +174,7 @@ export function DeviceDetailScreen({ deviceId }: { deviceId: number }) {
       <ol className="list-decimal pl-6">
         {versions.map((v) => (
           <li key={v.version}>
-            Version {v.version}, {v.changedAt.slice(0, 16).replace('T', ' ')} UTC by{' '}
+            Version {v.version}, {formatUnitTime(v.changedAt, unitTimeZone, 'record')} by{' '}
             {v.changedByName ?? 'unknown'}: {String(v.snapshot.reason ?? '')}
             {v.snapshot.status === 'out-of-service'
               ? ` (out of service: ${String(v.snapshot.outOfServiceReason)})`
