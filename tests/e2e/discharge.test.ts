@@ -70,7 +70,9 @@ async function openOrderFromList(
     .click();
   await page.getByRole('heading', { level: 1, name: 'Orders' }).waitFor();
   await page.getByLabel('Status').selectOption({ label: status });
-  const row = page.getByRole('row').filter({ hasText: recordNumber });
+  // The patient may also have an order in another status (today's lists): the row must show the
+  // status asked for, not only the record number, before the list has filtered.
+  const row = page.getByRole('row').filter({ hasText: recordNumber }).filter({ hasText: status });
   await expect.poll(() => row.count()).toBe(1);
   await row.getByRole('link', { name: /^Order \d+/ }).click();
   await page.waitForURL(/\/orders\/\d+$/);
